@@ -1,0 +1,3 @@
+import { AccountScreen } from '@/features/auth/account-screen';
+
+export default AccountScreen;

@@ -1,0 +1,3 @@
+import { AdminHome } from '@/features/home/admin-home';
+
+export default AdminHome;

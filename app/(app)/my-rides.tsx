@@ -1,0 +1,3 @@
+import { OperatorHome } from '@/features/home/operator-home';
+
+export default OperatorHome;

@@ -1,0 +1,3 @@
+import { SupervisorHome } from '@/features/home/supervisor-home';
+
+export default SupervisorHome;

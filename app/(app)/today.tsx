@@ -1,0 +1,3 @@
+import { InspectorHome } from '@/features/home/inspector-home';
+
+export default InspectorHome;

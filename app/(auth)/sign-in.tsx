@@ -1,0 +1,3 @@
+import { SignInScreen } from '@/features/auth/sign-in-screen';
+
+export default SignInScreen;

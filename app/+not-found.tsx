@@ -1,0 +1,3 @@
+import { NotFoundScreen } from '@/features/shell/not-found-screen';
+
+export default NotFoundScreen;

@@ -1,0 +1,99 @@
+import { StyleSheet, View } from 'react-native';
+
+import { Card } from '@/components/card';
+import { Text } from '@/components/text';
+import { colors, radius, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+
+export type Column<T> = {
+  key: string;
+  title: string;
+  render: (row: T) => React.ReactNode;
+  /** Relative width on desktop. */
+  flex?: number;
+  numeric?: boolean;
+};
+
+/** Dense rows on a desktop; one card per row on a phone, each value under its column title. */
+export function DataTable<T>({
+  rows,
+  columns,
+  rowKey,
+  label,
+}: {
+  rows: T[];
+  columns: Column<T>[];
+  rowKey: (row: T) => string;
+  label: string;
+}) {
+  const wide = useWide();
+  if (!wide) {
+    return (
+      <View style={styles.cards} accessibilityLabel={label}>
+        {rows.map((row) => (
+          <Card key={rowKey(row)}>
+            {columns.map((c) => (
+              <View key={c.key} style={styles.cardLine}>
+                <Text variant="label" muted style={styles.cardLabel}>
+                  {c.title.toUpperCase()}
+                </Text>
+                <Cell value={c.render(row)} numeric={c.numeric} />
+              </View>
+            ))}
+          </Card>
+        ))}
+      </View>
+    );
+  }
+  return (
+    <View style={styles.table} role="table" accessibilityLabel={label}>
+      <View style={[styles.row, styles.headRow]} role="row">
+        {columns.map((c) => (
+          <View key={c.key} style={[styles.cell, { flex: c.flex ?? 1 }]} role="columnheader">
+            <Text variant="label" muted style={c.numeric ? styles.right : undefined}>
+              {c.title.toUpperCase()}
+            </Text>
+          </View>
+        ))}
+      </View>
+      {rows.map((row, i) => (
+        <View key={rowKey(row)} style={[styles.row, i % 2 === 1 && styles.zebra]} role="row">
+          {columns.map((c) => (
+            <View key={c.key} style={[styles.cell, { flex: c.flex ?? 1 }]} role="cell">
+              <Cell value={c.render(row)} numeric={c.numeric} />
+            </View>
+          ))}
+        </View>
+      ))}
+    </View>
+  );
+}
+
+function Cell({ value, numeric }: { value: React.ReactNode; numeric?: boolean }) {
+  if (typeof value === 'string' || typeof value === 'number') {
+    return (
+      <Text variant={numeric ? 'figure' : 'body'} style={numeric ? styles.right : undefined}>
+        {value}
+      </Text>
+    );
+  }
+  return <>{value}</>;
+}
+
+const styles = StyleSheet.create({
+  cards: { gap: space.md },
+  cardLine: { gap: 2 },
+  cardLabel: { fontSize: 11 },
+  table: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.border,
+    overflow: 'hidden',
+  },
+  row: { flexDirection: 'row', alignItems: 'center', minHeight: 44, paddingHorizontal: space.md },
+  headRow: { backgroundColor: colors.surfaceSunk, minHeight: 38 },
+  zebra: { backgroundColor: '#F8FAFB' },
+  cell: { paddingHorizontal: space.sm, paddingVertical: space.sm, minWidth: 0 },
+  right: { textAlign: 'right' },
+});

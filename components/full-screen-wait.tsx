@@ -1,0 +1,15 @@
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
+
+import { colors } from '@/components/theme';
+
+export function FullScreenWait() {
+  return (
+    <View style={styles.root} accessibilityLabel="Loading">
+      <ActivityIndicator size="large" color={colors.base} />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  root: { flex: 1, alignItems: 'center', justifyContent: 'center', backgroundColor: colors.bg },
+});

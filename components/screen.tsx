@@ -1,0 +1,66 @@
+import { ScrollView, StyleSheet, View } from 'react-native';
+
+import { Text } from '@/components/text';
+import { colors, layout, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+
+type Props = {
+  title: string;
+  subtitle?: string;
+  actions?: React.ReactNode;
+  children: React.ReactNode;
+};
+
+/** A page: title block and scrolling content, centred up to the maximum content width. */
+export function Screen({ title, subtitle, actions, children }: Props) {
+  const wide = useWide();
+  return (
+    <ScrollView style={styles.scroll} contentContainerStyle={[styles.content, wide && styles.contentWide]}>
+      <View style={styles.inner}>
+        <View style={[styles.header, wide && styles.headerWide]}>
+          <View style={styles.titles}>
+            <Text variant={wide ? 'display' : 'title'} accessibilityRole="header">
+              {title}
+            </Text>
+            {subtitle ? <Text muted>{subtitle}</Text> : null}
+          </View>
+          {actions ? <View style={styles.actions}>{actions}</View> : null}
+        </View>
+        {children}
+      </View>
+    </ScrollView>
+  );
+}
+
+/** Lays children in columns on desktop, stacked on a phone. */
+export function Columns({ children }: { children: React.ReactNode }) {
+  const wide = useWide();
+  return <View style={wide ? styles.columns : styles.stack}>{children}</View>;
+}
+
+export function Column({ children, grow = 1 }: { children: React.ReactNode; grow?: number }) {
+  return <View style={[styles.column, { flexGrow: grow }]}>{children}</View>;
+}
+
+export function SectionTitle({ children }: { children: string }) {
+  return (
+    <Text variant="label" muted style={styles.section} accessibilityRole="header">
+      {children.toUpperCase()}
+    </Text>
+  );
+}
+
+const styles = StyleSheet.create({
+  scroll: { flex: 1, backgroundColor: colors.bg },
+  content: { padding: space.lg, paddingBottom: space.xxl },
+  contentWide: { padding: space.xxl },
+  inner: { width: '100%', maxWidth: layout.maxContentWidth, alignSelf: 'center', gap: space.lg },
+  header: { gap: space.md },
+  headerWide: { flexDirection: 'row', alignItems: 'flex-end', justifyContent: 'space-between' },
+  titles: { gap: space.xs, flexShrink: 1 },
+  actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  stack: { gap: space.lg },
+  column: { flexBasis: 0, gap: space.lg, minWidth: 0 },
+  section: { marginTop: space.sm },
+});

@@ -1,0 +1,16 @@
+import { z } from 'zod';
+
+import { roleSchema } from '@/features/auth/schema';
+
+export const adminUserSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  name: z.string(),
+  role: roleSchema,
+  companyId: z.string().nullable(),
+  companyName: z.string().nullable(),
+  createdAt: z.string(),
+  disabledAt: z.string().nullable(),
+});
+export type AdminUser = z.infer<typeof adminUserSchema>;
+export const adminUserListSchema = z.object({ users: z.array(adminUserSchema) });

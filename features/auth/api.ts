@@ -1,0 +1,88 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import { ApiRequestError, OfflineError, apiFetch } from '@/features/api/client';
+import {
+  type Role,
+  type SessionUser,
+  type SignInBody,
+  meResponseSchema,
+  signInResponseSchema,
+} from '@/features/auth/schema';
+import { tokenStore } from '@/features/auth/token-store';
+
+export const authKeys = {
+  all: ['auth'] as const,
+  session: () => [...authKeys.all, 'session'] as const,
+};
+
+export type Session = { user: SessionUser; offline: boolean } | null;
+
+/**
+ * Resolves the stored session. Online, the server confirms the user (and a revoked or expired
+ * token signs the device out). Offline, the last known user is trusted so field work can go on;
+ * the server checks the token again at the next sync.
+ */
+export async function loadSession(): Promise<Session> {
+  const stored = await tokenStore.get();
+  if (!stored) return null;
+  try {
+    const { user } = await apiFetch('/api/me', { schema: meResponseSchema });
+    await tokenStore.set({ ...stored, user });
+    return { user, offline: false };
+  } catch (err) {
+    if (err instanceof OfflineError) return { user: stored.user, offline: true };
+    if (err instanceof ApiRequestError && err.status === 401) {
+      await tokenStore.clear();
+      return null;
+    }
+    // Server trouble (5xx): keep the user signed in on the cached identity.
+    return { user: stored.user, offline: true };
+  }
+}
+
+export function useSession() {
+  return useQuery({ queryKey: authKeys.session(), queryFn: loadSession, staleTime: SESSION_STALE_MS });
+}
+
+const SESSION_STALE_MS = 5 * 60 * 1000;
+
+export function useSignInMutation() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (body: SignInBody) => {
+      const res = await apiFetch('/api/auth/sign-in', { body, schema: signInResponseSchema, anonymous: true });
+      await tokenStore.set({ token: res.token, expiresAt: res.expiresAt, user: res.user });
+      return res.user;
+    },
+    onSuccess: (user) => {
+      const session: Session = { user, offline: false };
+      client.setQueryData(authKeys.session(), session);
+    },
+  });
+}
+
+export function useSignOutMutation() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: () => tokenStore.clear(),
+    onSuccess: () => {
+      client.clear();
+      client.setQueryData(authKeys.session(), null as Session);
+    },
+  });
+}
+
+/** Each role's landing route. */
+export const roleHome: Record<Role, string> = {
+  inspector: '/today',
+  supervisor: '/review',
+  operator: '/my-rides',
+  admin: '/admin',
+};
+
+export const roleLabel: Record<Role, string> = {
+  inspector: 'Inspector',
+  supervisor: 'Supervisor',
+  operator: 'Operator',
+  admin: 'Administrator',
+};

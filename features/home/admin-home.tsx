@@ -1,0 +1,66 @@
+import { DataTable } from '@/components/data-table';
+import { QueryState } from '@/components/query-state';
+import { Screen, SectionTitle } from '@/components/screen';
+import { StatRow, StatTile } from '@/components/stat-tile';
+import { RideStatusMark } from '@/components/status-mark';
+import { useAdminUsersQuery } from '@/features/admin/api';
+import { roleLabel } from '@/features/auth/api';
+import { RoleGate } from '@/features/auth/role-gate';
+import { roles } from '@/features/auth/schema';
+import { useRidesQuery } from '@/features/rides/api';
+import { rideClassLabel } from '@/features/rides/schema';
+
+/** Administrator's start page: who can sign in, and the ride register at a glance. */
+export function AdminHome() {
+  const users = useAdminUsersQuery();
+  const rides = useRidesQuery();
+  return (
+    <RoleGate roles={['admin']}>
+      {() => (
+        <Screen title="Administration" subtitle="People, companies and the ride register.">
+          <QueryState query={users}>
+            {(list) => (
+              <>
+                <StatRow>
+                  {roles.map((r) => (
+                    <StatTile key={r} value={list.filter((u) => u.role === r).length} label={`${roleLabel[r]}s`} />
+                  ))}
+                </StatRow>
+                <SectionTitle>People</SectionTitle>
+                <DataTable
+                  label="People"
+                  rows={list}
+                  rowKey={(u) => u.id}
+                  columns={[
+                    { key: 'name', title: 'Name', render: (u) => u.name, flex: 1.2 },
+                    { key: 'email', title: 'E-mail', render: (u) => u.email, flex: 1.6 },
+                    { key: 'role', title: 'Role', render: (u) => roleLabel[u.role] },
+                    { key: 'company', title: 'Company', render: (u) => u.companyName ?? '—', flex: 1.4 },
+                    { key: 'state', title: 'Account', render: (u) => (u.disabledAt ? 'Disabled' : 'Active') },
+                  ]}
+                />
+              </>
+            )}
+          </QueryState>
+          <SectionTitle>Ride register</SectionTitle>
+          <QueryState query={rides}>
+            {(list) => (
+              <DataTable
+                label="Rides"
+                rows={list}
+                rowKey={(r) => r.id}
+                columns={[
+                  { key: 'name', title: 'Ride', render: (r) => r.name, flex: 1.2 },
+                  { key: 'class', title: 'Class', render: (r) => rideClassLabel[r.rideClass] },
+                  { key: 'site', title: 'Site', render: (r) => r.site.name, flex: 1.3 },
+                  { key: 'operator', title: 'Operator', render: (r) => r.operator.name, flex: 1.3 },
+                  { key: 'status', title: 'Status', render: (r) => <RideStatusMark status={r.status} compact /> },
+                ]}
+              />
+            )}
+          </QueryState>
+        </Screen>
+      )}
+    </RoleGate>
+  );
+}

@@ -1,0 +1,23 @@
+import type { LaunchOptions } from 'playwright-core';
+
+/**
+ * Debian's chromium, started the way this closed network needs (no background calls home).
+ * playwright's `launch` gives every run a fresh temporary profile of its own.
+ */
+export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+
+export function launchOptions(): LaunchOptions {
+  return {
+    executablePath: CHROMIUM_PATH,
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  };
+}

@@ -1,0 +1,59 @@
+/**
+ * Builds the web export into dist/ when it is missing or older than the sources.
+ * Used by `npm start` and the browser tests; `npx tsx scripts/build-web.ts --force` rebuilds.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+
+export const ROOT = join(__dirname, '..');
+export const DIST = join(ROOT, 'dist');
+const STAMP = join(DIST, '.pivotwatch-build');
+
+/** Everything that ends up in the web bundle. */
+const SOURCES = [
+  'app',
+  'components',
+  'features',
+  'db',
+  'drizzle',
+  'assets',
+  'fonts',
+  'public',
+  'app.json',
+  'babel.config.js',
+  'metro.config.js',
+  'package-lock.json',
+  'scripts/build-web.ts',
+];
+
+function newestMtime(path: string): number {
+  if (!existsSync(path)) return 0;
+  const st = statSync(path);
+  if (!st.isDirectory()) return st.mtimeMs;
+  let newest = st.mtimeMs;
+  for (const entry of readdirSync(path)) newest = Math.max(newest, newestMtime(join(path, entry)));
+  return newest;
+}
+
+export function webBuildIsStale(): boolean {
+  if (!existsSync(STAMP) || !existsSync(join(DIST, 'index.html'))) return true;
+  const built = statSync(STAMP).mtimeMs;
+  return SOURCES.some((s) => newestMtime(join(ROOT, s)) > built);
+}
+
+export function buildWeb({ force = false } = {}): void {
+  if (!force && !webBuildIsStale()) return;
+  console.log('[pivotwatch] building the web app (expo export)…');
+  const res = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', 'dist', '--clear'], {
+    cwd: ROOT,
+    stdio: ['ignore', 'inherit', 'inherit'],
+    env: { ...process.env, CI: '1', EXPO_NO_TELEMETRY: '1' },
+  });
+  if (res.status !== 0) throw new Error(`expo export failed with exit code ${res.status}`);
+  writeFileSync(STAMP, new Date().toISOString());
+}
+
+if (require.main === module) {
+  buildWeb({ force: process.argv.includes('--force') });
+}
