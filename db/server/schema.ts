@@ -1,0 +1,146 @@
+import { randomUUID } from 'node:crypto';
+
+import { sql } from 'drizzle-orm';
+import { check, index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+
+import { roles } from '@/features/auth/schema';
+
+/*
+ * The server's tables. Timestamps are ISO 8601 UTC strings so they read the same in SQL, JSON and logs.
+ * Enumerations are checked by the database too, so a bad value can't slip in through a script or a
+ * hand-run query.
+ */
+
+export const companyKinds = ['inspection_body', 'operator'] as const;
+export const siteKinds = ['park', 'fairground', 'travelling_setup'] as const;
+export const rideClasses = ['pendulum_swing', 'rotating_arm', 'wheel', 'swing_carousel', 'other'] as const;
+export const rideStatuses = ['in_service', 'restricted', 'out_of_service'] as const;
+
+export type CompanyKind = (typeof companyKinds)[number];
+export type SiteKind = (typeof siteKinds)[number];
+export type RideClass = (typeof rideClasses)[number];
+export type RideStatus = (typeof rideStatuses)[number];
+
+const id = () =>
+  text('id')
+    .primaryKey()
+    .$defaultFn(() => randomUUID());
+const createdAt = () =>
+  text('created_at')
+    .notNull()
+    .$defaultFn(() => new Date().toISOString());
+
+/*
+ * CHECK expressions name columns without their table: drizzle-kit rebuilds a SQLite table under a temporary
+ * name when a later migration alters it, and a table-qualified column would no longer resolve there.
+ */
+const col = (column: { name: string }) => sql.identifier(column.name);
+
+/** `col IN ('a','b')` for a CHECK; the values are our own constants, never user input. */
+function oneOf(column: { name: string }, values: readonly string[]) {
+  return sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+}
+
+export const companies = sqliteTable(
+  'companies',
+  {
+    id: id(),
+    kind: text('kind', { enum: companyKinds }).notNull(),
+    name: text('name').notNull(),
+    /** Where notices go; a JSON array of addresses (empty for the inspection body). */
+    noticeEmails: text('notice_emails', { mode: 'json' })
+      .$type<string[]>()
+      .notNull()
+      .default(sql`'[]'`),
+    phone: text('phone'),
+    createdAt: createdAt(),
+  },
+  (t) => [check('companies_kind_check', oneOf(t.kind, companyKinds))],
+);
+
+export const users = sqliteTable(
+  'users',
+  {
+    id: id(),
+    email: text('email').notNull().unique(),
+    name: text('name').notNull(),
+    role: text('role', { enum: roles }).notNull(),
+    passwordHash: text('password_hash').notNull(),
+    /** Operator users belong to exactly one operator company; the inspection body's staff have none. */
+    companyId: text('company_id').references(() => companies.id, { onDelete: 'restrict' }),
+    createdAt: createdAt(),
+    disabledAt: text('disabled_at'),
+  },
+  (t) => [
+    check('users_role_check', oneOf(t.role, roles)),
+    // Sign-in lowercases the address before the lookup, so a mixed-case row could never sign in.
+    check('users_email_lowercase_check', sql`${col(t.email)} = lower(${col(t.email)})`),
+    check(
+      'users_operator_company_check',
+      sql`${col(t.role)} <> 'operator' OR ${col(t.companyId)} IS NOT NULL`,
+    ),
+    index('users_company_idx').on(t.companyId),
+  ],
+);
+
+export const sites = sqliteTable(
+  'sites',
+  {
+    id: id(),
+    name: text('name').notNull(),
+    kind: text('kind', { enum: siteKinds }).notNull(),
+    address: text('address'),
+    locality: text('locality'),
+    operatorCompanyId: text('operator_company_id')
+      .notNull()
+      .references(() => companies.id, { onDelete: 'restrict' }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check('sites_kind_check', oneOf(t.kind, siteKinds)),
+    index('sites_operator_company_idx').on(t.operatorCompanyId),
+  ],
+);
+
+export const rides = sqliteTable(
+  'rides',
+  {
+    id: id(),
+    name: text('name').notNull(),
+    rideClass: text('ride_class', { enum: rideClasses }).notNull(),
+    /** One line on the ride's configuration (e.g. "arm with a gondola at each tip"), shown beside the name. */
+    description: text('description'),
+    maker: text('maker'),
+    model: text('model'),
+    serial: text('serial'),
+    year: integer('year'),
+    /** Null while a travelling ride is in store between set-ups. */
+    siteId: text('site_id').references(() => sites.id, { onDelete: 'restrict' }),
+    operatorCompanyId: text('operator_company_id')
+      .notNull()
+      .references(() => companies.id, { onDelete: 'restrict' }),
+    status: text('status', { enum: rideStatuses }).notNull().default('in_service'),
+    statusReason: text('status_reason'),
+    statusSince: text('status_since')
+      .notNull()
+      .$defaultFn(() => new Date().toISOString()),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check('rides_class_check', oneOf(t.rideClass, rideClasses)),
+    check('rides_status_check', oneOf(t.status, rideStatuses)),
+    // A ride taken out of plain service must say why, or the operator's notice would be empty.
+    check(
+      'rides_status_reason_check',
+      sql`${col(t.status)} = 'in_service' OR ${col(t.statusReason)} IS NOT NULL`,
+    ),
+    index('rides_operator_company_idx').on(t.operatorCompanyId),
+    index('rides_site_idx').on(t.siteId),
+  ],
+);
+
+export type Company = typeof companies.$inferSelect;
+export type User = typeof users.$inferSelect;
+export type NewUser = typeof users.$inferInsert;
+export type Site = typeof sites.$inferSelect;
+export type Ride = typeof rides.$inferSelect;

@@ -1,0 +1,8 @@
+import { defineConfig } from 'drizzle-kit';
+
+// The server's database only; the device keeps its own schema and migrations in another folder.
+export default defineConfig({
+  dialect: 'sqlite',
+  schema: './db/server/schema.ts',
+  out: './drizzle/server',
+});

@@ -1,0 +1,118 @@
+import { randomBytes } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+
+import { z } from 'zod';
+
+const logLevels = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
+
+/** `90s`, `30m`, `12h`, `7d` or a bare number of seconds. */
+const ttlPattern = /^(\d+)\s*(s|m|h|d)?$/;
+const ttlUnitSeconds = { s: 1, m: 60, h: 3600, d: 86400 } as const;
+
+/** Read from the environment; empty strings count as unset so `FOO= npm start` falls back to the default. */
+const emptyAsUnset = (value: unknown) => (value === '' ? undefined : value);
+
+const envSchema = z.object({
+  PORT: z.preprocess(emptyAsUnset, z.coerce.number().int().min(0).max(65535).default(8080)),
+  DATA_DIR: z.preprocess(emptyAsUnset, z.string().default('./data')),
+  WEB_DIR: z.preprocess(emptyAsUnset, z.string().default('./dist')),
+  JWT_SECRET: z.preprocess(
+    emptyAsUnset,
+    z.string().min(32, 'must be at least 32 characters (or leave it unset to generate one)').optional(),
+  ),
+  JWT_TTL: z.preprocess(
+    emptyAsUnset,
+    z
+      .string()
+      .trim()
+      .regex(ttlPattern, 'must look like 90s, 30m, 12h or 7d')
+      .refine((v) => ttlSeconds(v) > 0, 'must be longer than zero')
+      .default('12h'),
+  ),
+  NODE_ENV: z.preprocess(emptyAsUnset, z.enum(['development', 'production', 'test']).default('development')),
+  LOG_LEVEL: z.preprocess(emptyAsUnset, z.enum(logLevels).optional()),
+  SEED_DEMO: z.preprocess(emptyAsUnset, z.enum(['0', '1']).optional()),
+});
+
+export type Config = {
+  port: number;
+  /** Absolute path; holds the database, the generated JWT secret and uploaded files. */
+  dataDir: string;
+  /** Absolute path of the web export served on the same origin. */
+  webDir: string;
+  jwtSecret: Uint8Array;
+  jwtTtlSeconds: number;
+  nodeEnv: 'development' | 'production' | 'test';
+  logLevel: (typeof logLevels)[number];
+  /** Whether start-up may seed the demo scenario into an empty database (never in production). */
+  seedDemo: boolean;
+};
+
+export class ConfigError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ConfigError';
+  }
+}
+
+function ttlSeconds(value: string): number {
+  const match = ttlPattern.exec(value.trim());
+  if (!match) return 0;
+  const unit = (match[2] ?? 's') as keyof typeof ttlUnitSeconds;
+  return Number(match[1]) * ttlUnitSeconds[unit];
+}
+
+/** Parses the environment without touching the disk. Throws ConfigError naming every bad variable. */
+export function parseEnv(
+  env: NodeJS.ProcessEnv,
+  cwd = process.cwd(),
+): Omit<Config, 'jwtSecret'> & {
+  jwtSecretFromEnv: string | undefined;
+} {
+  const result = envSchema.safeParse(env);
+  if (!result.success) {
+    const lines = result.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`);
+    throw new ConfigError(`Invalid server configuration:\n${lines.join('\n')}`);
+  }
+  const e = result.data;
+  return {
+    port: e.PORT,
+    dataDir: path.resolve(cwd, e.DATA_DIR),
+    webDir: path.resolve(cwd, e.WEB_DIR),
+    jwtSecretFromEnv: e.JWT_SECRET,
+    jwtTtlSeconds: ttlSeconds(e.JWT_TTL),
+    nodeEnv: e.NODE_ENV,
+    logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
+    seedDemo: e.NODE_ENV !== 'production' && e.SEED_DEMO !== '0',
+  };
+}
+
+/**
+ * The secret that signs session tokens when JWT_SECRET is not set: generated once and kept in DATA_DIR, so
+ * sessions survive restarts without anyone having to invent a secret for a local install.
+ */
+export function readOrCreateJwtSecret(dataDir: string): string {
+  const file = path.join(dataDir, 'jwt-secret');
+  fs.mkdirSync(dataDir, { recursive: true });
+  try {
+    // 'wx' fails if the file exists, so two processes starting together can't overwrite each other's secret.
+    fs.writeFileSync(file, randomBytes(48).toString('base64url'), { flag: 'wx', mode: 0o600 });
+  } catch (error) {
+    if (!(error instanceof Error && 'code' in error && error.code === 'EEXIST')) throw error;
+  }
+  const secret = fs.readFileSync(file, 'utf8').trim();
+  if (secret.length < 32) {
+    throw new ConfigError(
+      `${file} holds a secret shorter than 32 characters; delete it to generate a new one.`,
+    );
+  }
+  return secret;
+}
+
+/** The full configuration: the environment, plus the JWT secret (from the env or DATA_DIR/jwt-secret). */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, cwd = process.cwd()): Config {
+  const { jwtSecretFromEnv, ...parsed } = parseEnv(env, cwd);
+  const secret = jwtSecretFromEnv ?? readOrCreateJwtSecret(parsed.dataDir);
+  return { ...parsed, jwtSecret: new TextEncoder().encode(secret) };
+}
