@@ -1,0 +1,112 @@
+import { asc, eq } from 'drizzle-orm';
+
+import { companies, users } from '@/db/server/schema';
+import type { Role, SessionUser, SignInBody, SignInResponse } from '@/features/auth/schema';
+import { signSessionToken } from '@/server/auth/jwt';
+import { hashPassword, verifyPassword } from '@/server/auth/password';
+import type { Config } from '@/server/config';
+import type { Db } from '@/server/db';
+import { HttpError, unauthorized } from '@/server/http/errors';
+
+const badCredentials = () => unauthorized('E-mail or password is incorrect.', 'invalid_credentials');
+
+const sessionUserColumns = {
+  id: users.id,
+  email: users.email,
+  name: users.name,
+  role: users.role,
+  companyId: users.companyId,
+  companyName: companies.name,
+};
+
+/** The signed-in user as the API shows it, or null when the account is missing or disabled. */
+export function findSessionUser(db: Db, userId: string): SessionUser | null {
+  const row = db
+    .select({ ...sessionUserColumns, disabledAt: users.disabledAt })
+    .from(users)
+    .leftJoin(companies, eq(companies.id, users.companyId))
+    .where(eq(users.id, userId))
+    .get();
+  if (!row || row.disabledAt !== null) return null;
+  const { disabledAt: _disabledAt, ...user } = row;
+  return user;
+}
+
+export async function signIn(db: Db, config: Config, body: SignInBody): Promise<SignInResponse> {
+  const row = db
+    .select({ id: users.id, passwordHash: users.passwordHash, disabledAt: users.disabledAt })
+    .from(users)
+    .where(eq(users.email, body.email.toLowerCase()))
+    .get();
+  // Unknown e-mail and wrong password take the same path, time and answer.
+  const passwordOk = await verifyPassword(body.password, row?.passwordHash ?? null);
+  if (!row || !passwordOk) throw badCredentials();
+  if (row.disabledAt !== null) {
+    // Only someone who knows the password learns the account exists, and they need to know why it fails.
+    throw unauthorized('This account is disabled. Ask an administrator to restore it.', 'account_disabled');
+  }
+  const user = findSessionUser(db, row.id);
+  if (!user) throw badCredentials();
+  const { token, expiresAt } = await signSessionToken(user, config);
+  return { token, expiresAt, user };
+}
+
+/**
+ * Operators must belong to an operator company (that is what limits what they can read); the inspection
+ * body's staff belong to none. The database enforces the first half too; this gives a readable error.
+ */
+export function assertUserCompany(db: Db, role: Role, companyId: string | null): void {
+  if (role !== 'operator') {
+    if (companyId !== null) {
+      throw new HttpError(400, 'validation_failed', 'Only operator users belong to a company.', [
+        { path: 'companyId', message: 'Leave empty for inspectors, supervisors and admins' },
+      ]);
+    }
+    return;
+  }
+  const company =
+    companyId === null
+      ? undefined
+      : db.select({ kind: companies.kind }).from(companies).where(eq(companies.id, companyId)).get();
+  if (company?.kind !== 'operator') {
+    throw new HttpError(400, 'validation_failed', 'An operator user needs an operator company.', [
+      { path: 'companyId', message: 'Choose the operator company this user works for' },
+    ]);
+  }
+}
+
+export type NewUserInput = {
+  email: string;
+  name: string;
+  role: Role;
+  password: string;
+  companyId: string | null;
+};
+
+export async function createUser(db: Db, input: NewUserInput): Promise<SessionUser> {
+  assertUserCompany(db, input.role, input.companyId);
+  const passwordHash = await hashPassword(input.password);
+  const email = input.email.trim().toLowerCase();
+  const existing = db.select({ id: users.id }).from(users).where(eq(users.email, email)).get();
+  if (existing) throw new HttpError(409, 'email_taken', 'A user with this e-mail already exists.');
+  const { id } = db
+    .insert(users)
+    .values({ email, name: input.name, role: input.role, passwordHash, companyId: input.companyId })
+    .returning({ id: users.id })
+    .get();
+  const user = findSessionUser(db, id);
+  if (!user) throw new Error('user vanished right after insert');
+  return user;
+}
+
+export type AdminUserRow = SessionUser & { createdAt: string; disabledAt: string | null };
+
+/** Every user, for the admin's people list. Password hashes never leave this module. */
+export function listUsers(db: Db): AdminUserRow[] {
+  return db
+    .select({ ...sessionUserColumns, createdAt: users.createdAt, disabledAt: users.disabledAt })
+    .from(users)
+    .leftJoin(companies, eq(companies.id, users.companyId))
+    .orderBy(asc(users.role), asc(users.name))
+    .all();
+}

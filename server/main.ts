@@ -1,0 +1,105 @@
+import fs from 'node:fs';
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import path from 'node:path';
+
+import { createApp } from '@/server/app';
+import { ConfigError, loadConfig, type Config } from '@/server/config';
+import { openDb } from '@/server/db';
+import { createLogger, type Logger } from '@/server/logger';
+import { seedDemoData } from '@/server/seed/demo';
+
+export type StartOptions = {
+  /** Overrides on top of `process.env` (e.g. `{ PORT: '0', DATA_DIR: tmp }` in tests). */
+  env?: NodeJS.ProcessEnv;
+  /** Stop cleanly on SIGINT/SIGTERM and exit; default true. Harnesses that manage the process pass false. */
+  handleSignals?: boolean;
+  logger?: Logger;
+};
+
+export type RunningServer = {
+  /** The port actually bound (useful with PORT=0). */
+  port: number;
+  url: string;
+  config: Config;
+  /** Stops accepting connections, lets in-flight requests finish, closes the database. Idempotent. */
+  close: () => Promise<void>;
+};
+
+/** How long in-flight requests get on shutdown before their connections are cut. */
+const shutdownGraceMs = 10_000;
+
+/** Opens and migrates the database, seeds the demo scenario when allowed, and listens on PORT. */
+export async function startServer(opts: StartOptions = {}): Promise<RunningServer> {
+  const config = loadConfig({ ...process.env, ...opts.env });
+  const logger = opts.logger ?? createLogger(config);
+  const database = openDb(config.dataDir);
+
+  try {
+    if (config.seedDemo) {
+      const result = await seedDemoData(database.db, config);
+      if (result === 'seeded') logger.info('seeded the demo scenario (password: pivotwatch-demo)');
+    }
+  } catch (error) {
+    database.close();
+    throw error;
+  }
+
+  const app = createApp({ db: database.db, config, logger });
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(config.port, (error?: Error) => (error ? reject(error) : resolve(s)));
+  }).catch((error: unknown) => {
+    database.close();
+    throw error;
+  });
+
+  const port = (server.address() as AddressInfo).port;
+  const url = `http://localhost:${port}`;
+  if (!fs.existsSync(path.join(config.webDir, 'index.html'))) {
+    logger.warn({ webDir: config.webDir }, 'no web export found; the API works, the app pages will not');
+  }
+  logger.info({ url, dataDir: config.dataDir }, 'Pivotwatch is listening');
+
+  let closing: Promise<void> | undefined;
+  const close = () => {
+    closing ??= new Promise<void>((resolve) => {
+      removeSignalHandlers();
+      const force = setTimeout(() => server.closeAllConnections(), shutdownGraceMs);
+      force.unref();
+      server.close(() => {
+        clearTimeout(force);
+        database.close();
+        resolve();
+      });
+      // Idle keep-alive connections would otherwise hold close() open until they time out.
+      server.closeIdleConnections();
+    });
+    return closing;
+  };
+
+  const onSignal = (signal: NodeJS.Signals) => {
+    logger.info({ signal }, 'shutting down');
+    void close().then(() => process.exit(0));
+  };
+  const removeSignalHandlers = () => {
+    process.off('SIGINT', onSignal);
+    process.off('SIGTERM', onSignal);
+  };
+  if (opts.handleSignals ?? true) {
+    process.once('SIGINT', onSignal);
+    process.once('SIGTERM', onSignal);
+  }
+
+  return { port, url, config, close };
+}
+
+if (require.main === module) {
+  startServer().catch((error: unknown) => {
+    if (error instanceof ConfigError) {
+      console.error(error.message);
+    } else {
+      console.error('Pivotwatch could not start:', error);
+    }
+    process.exit(1);
+  });
+}

@@ -1,0 +1,20 @@
+import { Router } from 'express';
+
+import { authRouter } from '@/server/auth/router';
+import type { ApiDeps } from '@/server/deps';
+import { apiNotFound } from '@/server/http/errors';
+import { adminUsersRouter } from '@/server/routes/admin-users';
+import { ridesRouter } from '@/server/routes/rides';
+
+/** Everything under `/api`. Anything it doesn't know ends in a JSON 404 here, never in the web app. */
+export function apiRouter(deps: ApiDeps): Router {
+  const router = Router();
+  router.get('/health', (_req, res) => {
+    res.json({ ok: true });
+  });
+  router.use(authRouter(deps));
+  router.use(ridesRouter(deps));
+  router.use(adminUsersRouter(deps));
+  router.use(apiNotFound);
+  return router;
+}

@@ -1,0 +1,263 @@
+import { count } from 'drizzle-orm';
+
+import {
+  companies,
+  rides,
+  sites,
+  users,
+  type RideClass,
+  type RideStatus,
+  type SiteKind,
+} from '@/db/server/schema';
+import type { Role } from '@/features/auth/schema';
+import { hashPassword } from '@/server/auth/password';
+import { assertUserCompany } from '@/server/auth/service';
+import type { Config } from '@/server/config';
+import type { Db } from '@/server/db';
+
+/*
+ * An invented scenario for trying Pivotwatch out: one inspection body, three ride owners and their rides.
+ * Every name, address, phone number and e-mail here is made up (.test domains, drama-range numbers).
+ */
+
+export const demoPassword = 'pivotwatch-demo';
+
+export const demoInspectionBody = {
+  name: 'Halvard Ride Inspection Services',
+  phone: '+44 20 7946 0100',
+  noticeEmails: [] as string[],
+};
+
+export const demoOperators = [
+  {
+    name: 'Tamsworth Pier Leisure',
+    noticeEmails: ['notices@tamsworth-pier.test'],
+    phone: '+44 20 7946 0211',
+  },
+  { name: 'Corvane Travelling Shows', noticeEmails: ['ops@corvane-shows.test'], phone: '+44 20 7946 0322' },
+  {
+    name: 'Elmsridge Family Parks',
+    noticeEmails: ['safety@elmsridge-parks.test'],
+    phone: '+44 20 7946 0433',
+  },
+] as const;
+
+type OperatorName = (typeof demoOperators)[number]['name'];
+
+export const demoSites: {
+  name: string;
+  kind: SiteKind;
+  address: string;
+  locality: string;
+  operator: OperatorName;
+}[] = [
+  {
+    name: 'Tamsworth Pier',
+    kind: 'park',
+    address: 'Pier Approach',
+    locality: 'Tamsworth',
+    operator: 'Tamsworth Pier Leisure',
+  },
+  {
+    name: 'Lowfield Common fairground',
+    kind: 'travelling_setup',
+    address: 'Lowfield Common, north field',
+    locality: 'Lowfield',
+    operator: 'Corvane Travelling Shows',
+  },
+];
+
+export type DemoRide = {
+  name: string;
+  rideClass: RideClass;
+  description: string;
+  maker: string;
+  model: string;
+  serial: string;
+  year: number;
+  site: string;
+  operator: OperatorName;
+  status: RideStatus;
+  statusReason?: string;
+};
+
+export const demoRides: DemoRide[] = [
+  {
+    name: 'Skylark',
+    rideClass: 'pendulum_swing',
+    description: 'Pendulum arm with a 24-seat ring gondola that also turns on its own axis',
+    maker: 'Orrin Ride Works',
+    model: 'PX-15',
+    serial: 'ORW-PX15-0412',
+    year: 2014,
+    site: 'Tamsworth Pier',
+    operator: 'Tamsworth Pier Leisure',
+    status: 'in_service',
+  },
+  {
+    name: 'Twin Comet',
+    rideClass: 'rotating_arm',
+    description: 'Single rotating arm with a four-seat gondola at each tip',
+    maker: 'Brede Motion Engineering',
+    model: 'TA-2',
+    serial: 'BME-TA2-0097',
+    year: 2011,
+    site: 'Tamsworth Pier',
+    operator: 'Tamsworth Pier Leisure',
+    status: 'in_service',
+  },
+  {
+    name: 'Lantern Wheel',
+    rideClass: 'wheel',
+    description: 'Observation wheel with 18 enclosed gondolas',
+    maker: 'Marrow & Finch Wheelwrights',
+    model: 'LW-18',
+    serial: 'MFW-LW18-0031',
+    year: 2008,
+    site: 'Tamsworth Pier',
+    operator: 'Tamsworth Pier Leisure',
+    status: 'in_service',
+  },
+  {
+    name: 'Tidebreaker',
+    rideClass: 'rotating_arm',
+    description: 'Main arm carrying a gondola on a powered sub-arm',
+    maker: 'Orrin Ride Works',
+    model: 'RX-30',
+    serial: 'ORW-RX30-0158',
+    year: 2017,
+    site: 'Lowfield Common fairground',
+    operator: 'Corvane Travelling Shows',
+    status: 'restricted',
+    statusReason:
+      'Sub-arm pivot clearance near its wear limit at the last inspection: run at the reduced programme only until the bushing is replaced.',
+  },
+  {
+    name: 'Whirligig Chairs',
+    rideClass: 'swing_carousel',
+    description: 'Chain-swing carousel, 32 single seats on a tilting crown',
+    maker: 'Quillon Carousel Works',
+    model: 'SC-32',
+    serial: 'QCW-SC32-0264',
+    year: 2005,
+    site: 'Lowfield Common fairground',
+    operator: 'Corvane Travelling Shows',
+    status: 'in_service',
+  },
+  {
+    name: 'Little Kite',
+    rideClass: 'pendulum_swing',
+    description: 'Small pendulum swing for younger riders, 12 seats',
+    maker: 'Orrin Ride Works',
+    model: 'PX-6',
+    serial: 'ORW-PX6-0733',
+    year: 2019,
+    site: 'Lowfield Common fairground',
+    operator: 'Corvane Travelling Shows',
+    status: 'in_service',
+  },
+];
+
+/** The demo accounts, all with `demoPassword`. The README and the browser tests list these. */
+export const demoUsers: { email: string; name: string; role: Role; company: OperatorName | null }[] = [
+  { email: 'admin@pivotwatch.test', name: 'Rowan Ashby', role: 'admin', company: null },
+  { email: 'supervisor@pivotwatch.test', name: 'Mira Delacourt', role: 'supervisor', company: null },
+  { email: 'inspector@pivotwatch.test', name: 'Tomas Reyne', role: 'inspector', company: null },
+  {
+    email: 'operator@pivotwatch.test',
+    name: 'Priya Castellan',
+    role: 'operator',
+    company: 'Tamsworth Pier Leisure',
+  },
+  {
+    email: 'operator2@pivotwatch.test',
+    name: 'Owen Falgrave',
+    role: 'operator',
+    company: 'Corvane Travelling Shows',
+  },
+];
+
+export type SeedResult = 'seeded' | 'skipped_existing_users' | 'skipped_production';
+
+/**
+ * Seeds the demo scenario into a database that has no users yet, in one transaction. Does nothing (and says
+ * why) when users exist or when running in production, where demo accounts with a published password
+ * would be an open door.
+ */
+export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Promise<SeedResult> {
+  if (config.nodeEnv === 'production') return 'skipped_production';
+  if (countUsers(db) > 0) return 'skipped_existing_users';
+
+  // bcrypt is async and slow; hash before the (synchronous) transaction so it holds the lock briefly.
+  const hashes = await Promise.all(demoUsers.map(() => hashPassword(demoPassword)));
+  const now = new Date().toISOString();
+
+  return db.transaction((tx) => {
+    // Checked again inside the transaction: another process may have seeded while we were hashing.
+    if (countUsers(tx) > 0) return 'skipped_existing_users';
+
+    tx.insert(companies)
+      .values({ kind: 'inspection_body', ...demoInspectionBody })
+      .run();
+    const companyIds = new Map<string, string>();
+    for (const operator of demoOperators) {
+      const { id } = tx
+        .insert(companies)
+        .values({
+          kind: 'operator',
+          name: operator.name,
+          noticeEmails: [...operator.noticeEmails],
+          phone: operator.phone,
+        })
+        .returning({ id: companies.id })
+        .get();
+      companyIds.set(operator.name, id);
+    }
+    const companyId = (name: string) => {
+      const id = companyIds.get(name);
+      if (!id) throw new Error(`demo data names an unknown company: ${name}`);
+      return id;
+    };
+
+    const siteIds = new Map<string, string>();
+    for (const { operator, ...site } of demoSites) {
+      const { id } = tx
+        .insert(sites)
+        .values({ ...site, operatorCompanyId: companyId(operator) })
+        .returning({ id: sites.id })
+        .get();
+      siteIds.set(site.name, id);
+    }
+
+    for (const { site, operator, statusReason, ...ride } of demoRides) {
+      tx.insert(rides)
+        .values({
+          ...ride,
+          siteId: siteIds.get(site) ?? null,
+          operatorCompanyId: companyId(operator),
+          statusReason: statusReason ?? null,
+          statusSince: now,
+        })
+        .run();
+    }
+
+    demoUsers.forEach((user, i) => {
+      const userCompanyId = user.company === null ? null : companyId(user.company);
+      assertUserCompany(tx, user.role, userCompanyId);
+      tx.insert(users)
+        .values({
+          email: user.email,
+          name: user.name,
+          role: user.role,
+          passwordHash: hashes[i],
+          companyId: userCompanyId,
+        })
+        .run();
+    });
+    return 'seeded' as const;
+  });
+}
+
+function countUsers(db: Pick<Db, 'select'>): number {
+  return db.select({ n: count() }).from(users).get()?.n ?? 0;
+}

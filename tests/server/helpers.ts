@@ -1,0 +1,77 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+
+import type { Express } from 'express';
+import request from 'supertest';
+
+import { apiErrorSchema } from '@/features/api/errors';
+import { createApp } from '@/server/app';
+import { loadConfig, type Config } from '@/server/config';
+import { openDb, type Db } from '@/server/db';
+import { createLogger } from '@/server/logger';
+import { demoPassword, seedDemoData } from '@/server/seed/demo';
+
+export function makeTempDir(prefix = 'pivotwatch-test-'): string {
+  return fs.mkdtempSync(path.join(os.tmpdir(), prefix));
+}
+
+export type TestServer = {
+  app: Express;
+  db: Db;
+  config: Config;
+  dataDir: string;
+  close: () => void;
+};
+
+/**
+ * A fresh app on its own temp DATA_DIR, migrated and (by default) seeded with the demo scenario.
+ * The sign-in limit is generous unless a test asks for the real one, so other tests don't trip it.
+ */
+export async function makeTestServer(
+  opts: { env?: NodeJS.ProcessEnv; seed?: boolean; signInLimit?: { windowMs: number; max: number } } = {},
+): Promise<TestServer> {
+  const dataDir = makeTempDir();
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    DATA_DIR: dataDir,
+    WEB_DIR: path.join(dataDir, 'no-web-build'),
+    ...opts.env,
+  });
+  const database = openDb(config.dataDir);
+  if (opts.seed ?? true) await seedDemoData(database.db, config);
+  const app = createApp({
+    db: database.db,
+    config,
+    logger: createLogger(config),
+    signInLimit: opts.signInLimit ?? { windowMs: 60_000, max: 10_000 },
+  });
+  return {
+    app,
+    db: database.db,
+    config,
+    dataDir,
+    close: () => {
+      database.close();
+      fs.rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function signInAs(app: Express, email: string, password = demoPassword): Promise<string> {
+  const res = await request(app).post('/api/auth/sign-in').send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${res.text}`);
+  return res.body.token;
+}
+
+/** Asserts the one JSON error shape, the status and code, and that nothing internal leaked. */
+export function expectApiError(res: request.Response, status: number, code: string) {
+  expect(res.status).toBe(status);
+  expect(res.headers['content-type']).toMatch(/^application\/json/);
+  const parsed = apiErrorSchema.safeParse(res.body);
+  expect(parsed.success).toBe(true);
+  expect(res.body.error.code).toBe(code);
+  expect(res.body.error.message.length).toBeGreaterThan(0);
+  expect(res.text).not.toMatch(/\bat .+\.(ts|js):\d+|node_modules|stack/i);
+  return res.body.error as { code: string; message: string; issues?: { path: string; message: string }[] };
+}
