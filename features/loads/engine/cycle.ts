@@ -1,0 +1,478 @@
+import type { QuantityKind } from '@/features/units';
+import {
+  type ChainBody,
+  type Vec2,
+  createChain,
+  createChainWork,
+  solveInto,
+  STANDARD_GRAVITY_MS2,
+} from '@/features/loads/engine/chain';
+import {
+  DEFAULT_NEAR_MARGIN,
+  type EnvelopeStatus,
+  type Evaluation,
+  type Limit,
+  evaluateExtremes,
+  evaluateLimit,
+  worstStatus,
+} from '@/features/loads/engine/envelope';
+import {
+  type PinStresses,
+  type PinWear,
+  type ShearPlanes,
+  pinStresses,
+  pinWear,
+} from '@/features/loads/engine/pins';
+import { type MotionProfile, defaultCycleDurationS, sampleProfile } from '@/features/loads/engine/profiles';
+
+export const DEFAULT_CYCLE_SAMPLES = 360;
+
+/**
+ * A rider's seat: a point on a body with the rider's axes. `spineAngleRad` is the direction of the
+ * rider's z axis (seat toward head) relative to the body's x-axis. The chest-ward x axis is the spine
+ * turned 90° clockwise ('cw', the default: an upright rider facing global +x) or counter-clockwise.
+ */
+export type Seat = {
+  name: string;
+  body: number;
+  positionM: Vec2;
+  spineAngleRad: number;
+  facing?: 'cw' | 'ccw';
+};
+
+/** A pin's design data and readings. Diameters and clearance in m, stresses and pressures in Pa. */
+export type PinInput = {
+  shear: ShearPlanes;
+  bearingLengthM: number;
+  nominalDiameterM: number;
+  minimumDiameterM?: number;
+  measuredDiameterM?: number;
+  maxShearStressPa?: number;
+  maxBearingPressurePa?: number;
+  measuredClearanceM?: number;
+  maxClearanceM?: number;
+};
+
+export type JointLimits = {
+  maxRateRadS?: number;
+  maxAmplitudeRad?: number;
+  maxForceN?: number;
+  maxTorqueNm?: number;
+  pin?: PinInput;
+};
+
+/** Limits on a rider axis, in g; either side may be open. */
+export type AxisLimit = { min?: number; max?: number };
+
+export type CycleLimits = {
+  /** Ratio from which a value counts as near its limit. */
+  nearMargin?: number;
+  /** Per joint, in chain order; shorter than the chain or null where a joint has no limits. */
+  joints?: readonly (JointLimits | null | undefined)[];
+  /** Applied to every seat. */
+  rider?: { gx?: AxisLimit; gz?: AxisLimit };
+};
+
+export type CycleInput = {
+  bodies: readonly ChainBody[];
+  /** One per joint, in chain order. */
+  profiles: readonly MotionProfile[];
+  gravityMS2?: number;
+  /** Defaults to the longest natural cycle among the profiles. */
+  durationS?: number;
+  /** Evenly spaced over [0, durationS], both ends included. */
+  samples?: number;
+  seats?: readonly Seat[];
+  limits?: CycleLimits;
+};
+
+export type Extremes = { min: number; max: number; range: number };
+
+export type PeakAt = { value: number; index: number; timeS: number; angleRad: number; armAngleRad: number };
+
+export type JointHistory = {
+  name: string;
+  /** This joint's motion, relative to its parent. */
+  angleRad: Float64Array;
+  rateRadS: Float64Array;
+  accelRadS2: Float64Array;
+  /** Force on body i by its parent, global frame. */
+  forceXN: Float64Array;
+  forceYN: Float64Array;
+  /** The same force in body i's frame: along its x-axis, across it. */
+  forceAlongN: Float64Array;
+  forceAcrossN: Float64Array;
+  forceMagnitudeN: Float64Array;
+  torqueNm: Float64Array;
+  /** Largest force magnitude, where it occurs (this joint's angle and the main arm's angle). */
+  peakForce: PeakAt & { forceN: [number, number]; forceBodyN: [number, number] };
+  /** Largest |torque|; `value` keeps its sign. */
+  peakTorque: PeakAt;
+  /** Load range (max − min) of the magnitude and of each component: what fatigue sees. */
+  extremes: {
+    magnitudeN: Extremes;
+    xN: Extremes;
+    yN: Extremes;
+    alongN: Extremes;
+    acrossN: Extremes;
+    torqueNm: Extremes;
+  };
+  peakRateRadS: number;
+  /** Half the angle travelled end to end when the joint oscillates; null when it turns full circles. */
+  amplitudeRad: number | null;
+};
+
+export type SeatHistory = {
+  name: string;
+  body: number;
+  /** Rider acceleration in g, gravity included (specific force): chest-ward x, spine-ward z. */
+  gx: Float64Array;
+  gz: Float64Array;
+  extremes: {
+    gx: Extremes & { minAtS: number; maxAtS: number };
+    gz: Extremes & { minAtS: number; maxAtS: number };
+  };
+};
+
+export type EnvelopeItem = Evaluation & {
+  /** A stable key, e.g. 'joints.0.force', 'seats.1.gz', 'joints.1.pin.diameter'. */
+  id: string;
+  label: string;
+  quantity: QuantityKind;
+};
+
+export type PinResult = {
+  joint: number;
+  /** At the joint's peak force over the cycle. */
+  stresses: PinStresses;
+  wear: PinWear | null;
+};
+
+export type CycleResult = {
+  gravityMS2: number;
+  samples: number;
+  durationS: number;
+  timeS: Float64Array;
+  joints: JointHistory[];
+  seats: SeatHistory[];
+  pins: PinResult[];
+  envelope: EnvelopeItem[];
+  status: EnvelopeStatus;
+  nearMargin: number;
+};
+
+function extremesOf(values: Float64Array): Extremes {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let k = 0; k < values.length; k++) {
+    const v = values[k];
+    if (v < min) min = v;
+    if (v > max) max = v;
+  }
+  return { min, max, range: max - min };
+}
+
+function indexOfMaxAbs(values: Float64Array): number {
+  let best = 0;
+  let bestAbs = -1;
+  for (let k = 0; k < values.length; k++) {
+    const a = Math.abs(values[k]);
+    if (a > bestAbs) {
+      bestAbs = a;
+      best = k;
+    }
+  }
+  return best;
+}
+
+/** Whole-cycle analysis: sample every profile, solve each instant, summarise, then evaluate limits. */
+export function analyseCycle(input: CycleInput): CycleResult {
+  const gravity = input.gravityMS2 ?? STANDARD_GRAVITY_MS2;
+  const chain = createChain(input.bodies, gravity);
+  const n = chain.size;
+  if (input.profiles.length !== n) throw new Error(`profiles needs ${n} entries, one per joint`);
+  const duration = input.durationS ?? defaultCycleDurationS(input.profiles);
+  if (duration === null || !(duration > 0))
+    throw new Error('durationS is needed: no profile has a cycle length');
+  const count = input.samples ?? DEFAULT_CYCLE_SAMPLES;
+  if (!Number.isInteger(count) || count < 2) throw new Error('samples must be an integer ≥ 2');
+
+  const times = new Float64Array(count);
+  const step = duration / (count - 1);
+  for (let k = 0; k < count; k++) times[k] = k * step;
+
+  const q = new Float64Array(count * n);
+  const qd = new Float64Array(count * n);
+  const qdd = new Float64Array(count * n);
+  input.profiles.forEach((p, i) => sampleProfile(p, times, i, n, q, qd, qdd));
+
+  const fx = Array.from({ length: n }, () => new Float64Array(count));
+  const fy = Array.from({ length: n }, () => new Float64Array(count));
+  const along = Array.from({ length: n }, () => new Float64Array(count));
+  const across = Array.from({ length: n }, () => new Float64Array(count));
+  const mag = Array.from({ length: n }, () => new Float64Array(count));
+  const tau = Array.from({ length: n }, () => new Float64Array(count));
+
+  const seats = input.seats ?? [];
+  const seatCount = seats.length;
+  const seatBody = Int32Array.from(seats, (s) => s.body);
+  const seatX = Float64Array.from(seats, (s) => s.positionM[0]);
+  const seatY = Float64Array.from(seats, (s) => s.positionM[1]);
+  const seatSpine = Float64Array.from(seats, (s) => s.spineAngleRad);
+  const seatTurn = Float64Array.from(seats, (s) => (s.facing === 'ccw' ? 1 : -1));
+  for (const s of seats) if (s.body < 0 || s.body >= n) throw new Error(`Seat ${s.name} is on no body`);
+  const gx = Array.from({ length: seatCount }, () => new Float64Array(count));
+  const gz = Array.from({ length: seatCount }, () => new Float64Array(count));
+  // Rider accelerations are reported in standard g whatever gravity the analysis uses.
+  const g0 = STANDARD_GRAVITY_MS2;
+
+  const work = createChainWork(n);
+  for (let k = 0; k < count; k++) {
+    solveInto(chain, q, qd, qdd, k * n, work);
+    for (let i = 0; i < n; i++) {
+      const x = work.forceX[i];
+      const y = work.forceY[i];
+      const c = work.cos[i];
+      const s = work.sin[i];
+      fx[i][k] = x;
+      fy[i][k] = y;
+      along[i][k] = x * c + y * s;
+      across[i][k] = -x * s + y * c;
+      mag[i][k] = Math.sqrt(x * x + y * y);
+      tau[i][k] = work.torque[i];
+    }
+    for (let j = 0; j < seatCount; j++) {
+      const b = seatBody[j];
+      const c = work.cos[b];
+      const s = work.sin[b];
+      const rx = c * seatX[j] - s * seatY[j];
+      const ry = s * seatX[j] + c * seatY[j];
+      const om2 = work.omega[b] * work.omega[b];
+      const al = work.alpha[b];
+      // Specific force (a − g)/g0 with g = (0, −gravity): what the seat pushes on the rider with.
+      const sfx = (work.pivotAX[b] - al * ry - om2 * rx) / g0;
+      const sfy = (work.pivotAY[b] + al * rx - om2 * ry + gravity) / g0;
+      const phi = work.theta[b] + seatSpine[j];
+      const zx = Math.cos(phi);
+      const zy = Math.sin(phi);
+      const turn = seatTurn[j];
+      // Chest axis: the spine turned a quarter turn, clockwise (turn = −1) or counter-clockwise (+1).
+      const xx = -turn * zy;
+      const xy = turn * zx;
+      gx[j][k] = sfx * xx + sfy * xy;
+      gz[j][k] = sfx * zx + sfy * zy;
+    }
+  }
+
+  const joints: JointHistory[] = [];
+  for (let i = 0; i < n; i++) {
+    const angle = new Float64Array(count);
+    const rate = new Float64Array(count);
+    const acc = new Float64Array(count);
+    for (let k = 0; k < count; k++) {
+      angle[k] = q[k * n + i];
+      rate[k] = qd[k * n + i];
+      acc[k] = qdd[k * n + i];
+    }
+    const where = (index: number, value: number): PeakAt => ({
+      value,
+      index,
+      timeS: times[index],
+      angleRad: angle[index],
+      armAngleRad: q[index * n],
+    });
+    const pf = indexOfMaxAbs(mag[i]);
+    const pt = indexOfMaxAbs(tau[i]);
+    const angleExtremes = extremesOf(angle);
+    joints.push({
+      name: chain.names[i],
+      angleRad: angle,
+      rateRadS: rate,
+      accelRadS2: acc,
+      forceXN: fx[i],
+      forceYN: fy[i],
+      forceAlongN: along[i],
+      forceAcrossN: across[i],
+      forceMagnitudeN: mag[i],
+      torqueNm: tau[i],
+      peakForce: {
+        ...where(pf, mag[i][pf]),
+        forceN: [fx[i][pf], fy[i][pf]],
+        forceBodyN: [along[i][pf], across[i][pf]],
+      },
+      peakTorque: where(pt, tau[i][pt]),
+      extremes: {
+        magnitudeN: extremesOf(mag[i]),
+        xN: extremesOf(fx[i]),
+        yN: extremesOf(fy[i]),
+        alongN: extremesOf(along[i]),
+        acrossN: extremesOf(across[i]),
+        torqueNm: extremesOf(tau[i]),
+      },
+      peakRateRadS: Math.abs(rate[indexOfMaxAbs(rate)]),
+      amplitudeRad: angleExtremes.range < 2 * Math.PI ? angleExtremes.range / 2 : null,
+    });
+  }
+
+  const seatHistories: SeatHistory[] = seats.map((s, j) => {
+    const withTimes = (values: Float64Array) => {
+      const e = extremesOf(values);
+      return { ...e, minAtS: times[values.indexOf(e.min)], maxAtS: times[values.indexOf(e.max)] };
+    };
+    return {
+      name: s.name,
+      body: s.body,
+      gx: gx[j],
+      gz: gz[j],
+      extremes: { gx: withTimes(gx[j]), gz: withTimes(gz[j]) },
+    };
+  });
+
+  const margin = input.limits?.nearMargin ?? DEFAULT_NEAR_MARGIN;
+  const { envelope, pins } = evaluateEnvelope(joints, seatHistories, input.limits, margin);
+  return {
+    gravityMS2: gravity,
+    samples: count,
+    durationS: duration,
+    timeS: times,
+    joints,
+    seats: seatHistories,
+    pins,
+    envelope,
+    status: worstStatus(envelope.map((e) => e.status)),
+    nearMargin: margin,
+  };
+}
+
+function evaluateEnvelope(
+  joints: JointHistory[],
+  seats: SeatHistory[],
+  limits: CycleLimits | undefined,
+  margin: number,
+): { envelope: EnvelopeItem[]; pins: PinResult[] } {
+  const envelope: EnvelopeItem[] = [];
+  const pins: PinResult[] = [];
+  const add = (id: string, label: string, quantity: QuantityKind, e: Evaluation) =>
+    envelope.push({ id, label, quantity, ...e });
+  const upper = (max: number): Limit => ({ kind: 'upper', max });
+
+  (limits?.joints ?? []).forEach((jl, i) => {
+    const joint = joints[i];
+    if (!jl || !joint) return;
+    const key = `joints.${i}`;
+    const who = joint.name;
+    if (jl.maxRateRadS !== undefined)
+      add(
+        `${key}.rate`,
+        `${who}: peak rate`,
+        'rate',
+        evaluateLimit(joint.peakRateRadS, upper(jl.maxRateRadS), margin),
+      );
+    if (jl.maxAmplitudeRad !== undefined && joint.amplitudeRad !== null)
+      add(
+        `${key}.amplitude`,
+        `${who}: swing amplitude`,
+        'angle',
+        evaluateLimit(joint.amplitudeRad, upper(jl.maxAmplitudeRad), margin),
+      );
+    if (jl.maxForceN !== undefined)
+      add(
+        `${key}.force`,
+        `${who}: peak pivot force`,
+        'force',
+        evaluateLimit(joint.peakForce.value, upper(jl.maxForceN), margin),
+      );
+    if (jl.maxTorqueNm !== undefined)
+      add(
+        `${key}.torque`,
+        `${who}: peak drive torque`,
+        'moment',
+        evaluateLimit(Math.abs(joint.peakTorque.value), upper(jl.maxTorqueNm), margin),
+      );
+    const pin = jl.pin;
+    if (!pin) return;
+    const diameter = pin.measuredDiameterM ?? pin.nominalDiameterM;
+    const stresses = pinStresses(joint.peakForce.value, {
+      diameterM: diameter,
+      shear: pin.shear,
+      bearingLengthM: pin.bearingLengthM,
+    });
+    const wear =
+      pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined
+        ? pinWear(pin.nominalDiameterM, pin.minimumDiameterM, pin.measuredDiameterM)
+        : null;
+    pins.push({ joint: i, stresses, wear });
+    if (pin.maxShearStressPa !== undefined)
+      add(
+        `${key}.pin.shear`,
+        `${who}: pin shear stress`,
+        'stress',
+        evaluateLimit(stresses.shearStressPa, upper(pin.maxShearStressPa), margin),
+      );
+    if (pin.maxBearingPressurePa !== undefined)
+      add(
+        `${key}.pin.bearing`,
+        `${who}: pin bearing pressure`,
+        'pressure',
+        evaluateLimit(stresses.bearingPressurePa, upper(pin.maxBearingPressurePa), margin),
+      );
+    if (pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined)
+      add(
+        `${key}.pin.diameter`,
+        `${who}: pin diameter (wear)`,
+        'lengthSmall',
+        evaluateLimit(
+          pin.measuredDiameterM,
+          { kind: 'lower', min: pin.minimumDiameterM, nominal: pin.nominalDiameterM },
+          margin,
+        ),
+      );
+    if (pin.maxClearanceM !== undefined && pin.measuredClearanceM !== undefined)
+      add(
+        `${key}.pin.clearance`,
+        `${who}: bushing clearance`,
+        'lengthSmall',
+        evaluateLimit(pin.measuredClearanceM, upper(pin.maxClearanceM), margin),
+      );
+  });
+
+  const rider = limits?.rider;
+  if (rider) {
+    seats.forEach((seat, j) => {
+      for (const axis of ['gx', 'gz'] as const) {
+        const lim = rider[axis];
+        if (!lim || (lim.min === undefined && lim.max === undefined)) continue;
+        const e = seat.extremes[axis];
+        add(
+          `seats.${j}.${axis}`,
+          `${seat.name}: rider ${axis === 'gx' ? 'Gx' : 'Gz'}`,
+          'accel',
+          evaluateExtremes(e.min, e.max, { kind: 'range', min: lim.min, max: lim.max }, margin),
+        );
+      }
+    });
+  }
+  return { envelope, pins };
+}
+
+type Json<T> = T extends Float64Array
+  ? number[]
+  : T extends (infer U)[]
+    ? Json<U>[]
+    : T extends object
+      ? { [K in keyof T]: Json<T[K]> }
+      : T;
+
+export type CycleResultJson = Json<CycleResult>;
+
+/** The cycle result with typed arrays turned into plain arrays, ready for JSON. */
+export function cycleResultToJson(result: CycleResult): CycleResultJson {
+  const plain = (value: unknown): unknown => {
+    if (value instanceof Float64Array) return Array.from(value);
+    if (Array.isArray(value)) return value.map(plain);
+    if (value !== null && typeof value === 'object')
+      return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, plain(v)]));
+    return value;
+  };
+  return plain(result) as CycleResultJson;
+}

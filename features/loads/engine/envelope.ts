@@ -1,0 +1,98 @@
+/**
+ * Envelope evaluation: a value against its design limit → ratio and status. The ratio is the share of
+ * the allowance used: 1 means at the limit, above 1 over it.
+ */
+
+export type EnvelopeStatus = 'within' | 'near' | 'over';
+
+export const ENVELOPE_STATUS_LABEL: Record<EnvelopeStatus, string> = {
+  within: 'Within',
+  near: 'Near limit',
+  over: 'Over limit',
+};
+
+/** Where 'near' starts, as a ratio of the limit, unless the ride's documents say otherwise. */
+export const DEFAULT_NEAR_MARGIN = 0.9;
+
+export type Limit =
+  /** value ≤ max (a force, a torque, a speed, a clearance). ratio = value / max. */
+  | { kind: 'upper'; max: number }
+  /**
+   * value ≥ min. With a nominal (a pin's diameter when new) the ratio is the wear allowance used,
+   * (nominal − value) / (nominal − min); without one it is min / value.
+   */
+  | { kind: 'lower'; min: number; nominal?: number }
+  /**
+   * min ≤ value ≤ max, e.g. rider Gz from −1.5 g to +6 g; either side may be left open. The ratio is
+   * measured from a reference toward whichever side the value lies: (value − ref)/(max − ref) or
+   * (ref − value)/(ref − min). The reference is 0 when the range contains 0 (rider limits do), else the
+   * middle of the range; a one-sided range away from 0 has no room to be "near": within or over only.
+   */
+  | { kind: 'range'; min?: number; max?: number; reference?: number };
+
+export type Evaluation = { value: number; limit: Limit; ratio: number; status: EnvelopeStatus };
+
+export function limitRatio(value: number, limit: Limit): number {
+  switch (limit.kind) {
+    case 'upper':
+      return value / limit.max;
+    case 'lower':
+      if (limit.nominal !== undefined) return (limit.nominal - value) / (limit.nominal - limit.min);
+      return value > 0 ? limit.min / value : Infinity;
+    case 'range': {
+      const ref = rangeReference(limit);
+      if (value >= ref) return limit.max === undefined ? 0 : ratioOrOver(value - ref, limit.max - ref);
+      return limit.min === undefined ? 0 : ratioOrOver(ref - value, ref - limit.min);
+    }
+  }
+}
+
+function rangeReference(limit: { min?: number; max?: number; reference?: number }): number {
+  if (limit.reference !== undefined) return limit.reference;
+  const min = limit.min ?? -Infinity;
+  const max = limit.max ?? Infinity;
+  if (min <= 0 && 0 <= max) return 0;
+  if (limit.min !== undefined && limit.max !== undefined) return (limit.min + limit.max) / 2;
+  return limit.min ?? limit.max ?? 0;
+}
+
+/** used / allowance, where a zero allowance leaves only "none used" or "over". */
+function ratioOrOver(used: number, allowance: number): number {
+  if (allowance > 0) return used / allowance;
+  return used > 0 ? Infinity : 0;
+}
+
+/** 'over' only beyond the limit: a value exactly at it is still allowed, so it is 'near'. */
+export function envelopeStatus(ratio: number, margin: number = DEFAULT_NEAR_MARGIN): EnvelopeStatus {
+  if (!(ratio <= 1)) return 'over'; // NaN counts as over: an unreadable result is not a pass
+  if (ratio >= margin) return 'near';
+  return 'within';
+}
+
+export function evaluateLimit(value: number, limit: Limit, margin: number = DEFAULT_NEAR_MARGIN): Evaluation {
+  const ratio = limitRatio(value, limit);
+  return { value, limit, ratio, status: envelopeStatus(ratio, margin) };
+}
+
+/**
+ * A history against a limit: the sample that uses most of the allowance (for a range, the highest
+ * and the lowest values are both candidates).
+ */
+export function evaluateExtremes(
+  min: number,
+  max: number,
+  limit: Limit,
+  margin: number = DEFAULT_NEAR_MARGIN,
+): Evaluation {
+  const high = evaluateLimit(max, limit, margin);
+  const low = evaluateLimit(min, limit, margin);
+  return low.ratio > high.ratio ? low : high;
+}
+
+const severity: Record<EnvelopeStatus, number> = { within: 0, near: 1, over: 2 };
+
+export function worstStatus(statuses: Iterable<EnvelopeStatus>): EnvelopeStatus {
+  let worst: EnvelopeStatus = 'within';
+  for (const s of statuses) if (severity[s] > severity[worst]) worst = s;
+  return worst;
+}

@@ -1,0 +1,78 @@
+/** The load engine's public API. Pure TypeScript: no React, no I/O; used by the server and the app. */
+
+export const ENGINE_VERSION = '1.0.0';
+
+export { STANDARD_GRAVITY_MS2, createChain, createChainWork, solveInto } from '@/features/loads/engine/chain';
+export type { Chain, ChainBody, ChainWork, JointState, Vec2 } from '@/features/loads/engine/chain';
+
+export { chainEnergy, jointAccelerations, solveInstant, solveLinear } from '@/features/loads/engine/instant';
+export type {
+  BodyMomentCheck,
+  BodyMotion,
+  ChainEnergy,
+  InstantOptions,
+  InstantResult,
+  JointLoad,
+  MomentCheck,
+  MomentPoint,
+} from '@/features/loads/engine/instant';
+
+export {
+  bodyFromParts,
+  centreOfPercussion,
+  combineParts,
+  inertiaAbout,
+  partProperties,
+} from '@/features/loads/engine/parts';
+export type { MassProperties, Part } from '@/features/loads/engine/parts';
+
+export {
+  DEFAULT_WINDOW_POINTS,
+  defaultCycleDurationS,
+  naturalDurationS,
+  sampleProfile,
+} from '@/features/loads/engine/profiles';
+export type { MotionProfile } from '@/features/loads/engine/profiles';
+
+export { localPolynomialFit } from '@/features/loads/engine/smoothing';
+export type { LocalFit } from '@/features/loads/engine/smoothing';
+
+export { DEFAULT_CYCLE_SAMPLES, analyseCycle, cycleResultToJson } from '@/features/loads/engine/cycle';
+export type {
+  AxisLimit,
+  CycleInput,
+  CycleLimits,
+  CycleResult,
+  CycleResultJson,
+  EnvelopeItem,
+  Extremes,
+  JointHistory,
+  JointLimits,
+  PeakAt,
+  PinInput,
+  PinResult,
+  Seat,
+  SeatHistory,
+} from '@/features/loads/engine/cycle';
+
+export {
+  DEFAULT_NEAR_MARGIN,
+  ENVELOPE_STATUS_LABEL,
+  envelopeStatus,
+  evaluateExtremes,
+  evaluateLimit,
+  limitRatio,
+  worstStatus,
+} from '@/features/loads/engine/envelope';
+export type { EnvelopeStatus, Evaluation, Limit } from '@/features/loads/engine/envelope';
+
+export { pinStresses, pinWear } from '@/features/loads/engine/pins';
+export type { PinGeometry, PinStresses, PinWear, ShearPlanes } from '@/features/loads/engine/pins';
+
+/** The idealisations every result rests on; shown with results, never hidden. */
+export const ENGINE_ASSUMPTIONS: readonly string[] = [
+  'Rigid bodies in plane motion; no elasticity or vibration.',
+  'Ideal pins: no friction, no clearance, no impacts from play.',
+  'No wind, no drive or brake transients beyond the given motion profile.',
+  'Loads follow the motion profile exactly; measured motion is smoothed before differentiation.',
+];

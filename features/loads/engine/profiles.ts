@@ -1,0 +1,213 @@
+import { localPolynomialFit } from '@/features/loads/engine/smoothing';
+
+const RPM_TO_RAD_S = (2 * Math.PI) / 60;
+
+/**
+ * How one joint moves over the ride cycle, relative to its parent. Time runs from 0 at the start of the
+ * cycle; angles in rad, rates in rpm where the trade reads rpm (a signed rpm: + counter-clockwise).
+ */
+export type MotionProfile =
+  /** Held at a fixed angle relative to the parent (a locked gondola). */
+  | { kind: 'fixed'; angleRad: number }
+  /** Steady rotation. */
+  | { kind: 'constant'; rpm: number; startAngleRad?: number }
+  /**
+   * Spin-up or spin-down from `fromRpm` to `toRpm` over `rampTimeS`, after `holdBeforeS` at `fromRpm` and
+   * followed by `holdAfterS` at `toRpm`. 'linear': constant angular acceleration; 'smooth': the rate
+   * follows a half cosine so the acceleration starts and ends at zero.
+   */
+  | {
+      kind: 'ramp';
+      fromRpm?: number;
+      toRpm: number;
+      rampTimeS: number;
+      holdBeforeS?: number;
+      holdAfterS?: number;
+      startAngleRad?: number;
+      shape?: 'linear' | 'smooth';
+    }
+  /** Harmonic swing q = centre + amplitude·sin(2πt/period + phase). */
+  | { kind: 'swing'; amplitudeRad: number; periodS: number; centreRad?: number; phaseRad?: number }
+  /**
+   * Measured samples, time with angle or time with rate, smoothed and differentiated by a Savitzky–Golay
+   * local fit (cubic on angles, quadratic on rates). Times are taken relative to the first sample. A
+   * rate record is integrated from `startAngleRad`.
+   */
+  | {
+      kind: 'measured';
+      timeS: readonly number[];
+      angleRad?: readonly number[];
+      rateRadS?: readonly number[];
+      startAngleRad?: number;
+      windowPoints?: number;
+    };
+
+export const DEFAULT_WINDOW_POINTS = { angle: 9, rate: 7 } as const;
+
+/** The length of one natural cycle of a profile, or null when it has none (fixed, stopped). */
+export function naturalDurationS(profile: MotionProfile): number | null {
+  switch (profile.kind) {
+    case 'fixed':
+      return null;
+    case 'constant':
+      return profile.rpm === 0 ? null : 60 / Math.abs(profile.rpm);
+    case 'ramp':
+      return (profile.holdBeforeS ?? 0) + profile.rampTimeS + (profile.holdAfterS ?? 0);
+    case 'swing':
+      return profile.periodS;
+    case 'measured':
+      return profile.timeS[profile.timeS.length - 1] - profile.timeS[0];
+  }
+}
+
+/** The cycle length when none is given: the longest natural cycle among the joints. */
+export function defaultCycleDurationS(profiles: readonly MotionProfile[]): number | null {
+  let longest: number | null = null;
+  for (const p of profiles) {
+    const d = naturalDurationS(p);
+    if (d !== null && d > 0 && (longest === null || d > longest)) longest = d;
+  }
+  return longest;
+}
+
+/**
+ * Samples a profile at the given times into angle, rate and acceleration, writing joint `joint` of a
+ * flat array laid out sample-major (`out[k * stride + joint]`), the layout the solver reads.
+ */
+export function sampleProfile(
+  profile: MotionProfile,
+  times: Float64Array,
+  joint: number,
+  stride: number,
+  angle: Float64Array,
+  rate: Float64Array,
+  accel: Float64Array,
+): void {
+  const count = times.length;
+  switch (profile.kind) {
+    case 'fixed':
+      for (let k = 0; k < count; k++) {
+        angle[k * stride + joint] = profile.angleRad;
+        rate[k * stride + joint] = 0;
+        accel[k * stride + joint] = 0;
+      }
+      return;
+    case 'constant': {
+      const w = profile.rpm * RPM_TO_RAD_S;
+      const q0 = profile.startAngleRad ?? 0;
+      for (let k = 0; k < count; k++) {
+        angle[k * stride + joint] = q0 + w * times[k];
+        rate[k * stride + joint] = w;
+        accel[k * stride + joint] = 0;
+      }
+      return;
+    }
+    case 'ramp': {
+      const w0 = (profile.fromRpm ?? 0) * RPM_TO_RAD_S;
+      const w1 = profile.toRpm * RPM_TO_RAD_S;
+      const hold = profile.holdBeforeS ?? 0;
+      const tr = profile.rampTimeS;
+      const dw = w1 - w0;
+      const smooth = profile.shape === 'smooth';
+      const q0 = profile.startAngleRad ?? 0;
+      // Angle gained over the whole ramp: both shapes average the two rates.
+      const rampAngle = ((w0 + w1) / 2) * tr;
+      for (let k = 0; k < count; k++) {
+        const t = times[k];
+        let q: number;
+        let w: number;
+        let a: number;
+        if (t <= hold) {
+          q = q0 + w0 * t;
+          w = w0;
+          a = 0;
+        } else if (t < hold + tr) {
+          const u = t - hold;
+          if (smooth) {
+            const phase = (Math.PI * u) / tr;
+            q = q0 + w0 * t + (dw / 2) * (u - (tr / Math.PI) * Math.sin(phase));
+            w = w0 + (dw / 2) * (1 - Math.cos(phase));
+            a = ((dw * Math.PI) / (2 * tr)) * Math.sin(phase);
+          } else {
+            q = q0 + w0 * t + (0.5 * dw * u * u) / tr;
+            w = w0 + (dw * u) / tr;
+            a = dw / tr;
+          }
+        } else {
+          q = q0 + w0 * hold + rampAngle + w1 * (t - hold - tr);
+          w = w1;
+          a = 0;
+        }
+        angle[k * stride + joint] = q;
+        rate[k * stride + joint] = w;
+        accel[k * stride + joint] = a;
+      }
+      return;
+    }
+    case 'swing': {
+      const omega = (2 * Math.PI) / profile.periodS;
+      const amp = profile.amplitudeRad;
+      const centre = profile.centreRad ?? 0;
+      const phase = profile.phaseRad ?? 0;
+      for (let k = 0; k < count; k++) {
+        const arg = omega * times[k] + phase;
+        const s = Math.sin(arg);
+        angle[k * stride + joint] = centre + amp * s;
+        rate[k * stride + joint] = amp * omega * Math.cos(arg);
+        accel[k * stride + joint] = -amp * omega * omega * s;
+      }
+      return;
+    }
+    case 'measured':
+      sampleMeasured(profile, times, joint, stride, angle, rate, accel);
+      return;
+  }
+}
+
+function sampleMeasured(
+  profile: Extract<MotionProfile, { kind: 'measured' }>,
+  times: Float64Array,
+  joint: number,
+  stride: number,
+  angle: Float64Array,
+  rate: Float64Array,
+  accel: Float64Array,
+): void {
+  const t0 = profile.timeS[0];
+  const rel = profile.timeS.map((t) => t - t0);
+  const scratch = new Float64Array(40);
+  const count = times.length;
+  if (profile.angleRad) {
+    const win = profile.windowPoints ?? DEFAULT_WINDOW_POINTS.angle;
+    for (let k = 0; k < count; k++) {
+      const fit = localPolynomialFit(rel, profile.angleRad, times[k], win, 3, scratch);
+      angle[k * stride + joint] = fit.value;
+      rate[k * stride + joint] = fit.first;
+      accel[k * stride + joint] = fit.second;
+    }
+    return;
+  }
+  const rates = profile.rateRadS;
+  if (!rates) throw new Error('A measured profile needs angleRad or rateRadS');
+  const win = profile.windowPoints ?? DEFAULT_WINDOW_POINTS.rate;
+  // Cycle time 0 is the first measured sample, where the angle is startAngleRad.
+  let q = profile.startAngleRad ?? 0;
+  let prevT = 0;
+  let prevW = 0;
+  let prevA = 0;
+  for (let k = 0; k < count; k++) {
+    const fit = localPolynomialFit(rel, rates, times[k], win, 2, scratch);
+    if (k > 0) {
+      // Trapezoid with the end-slope correction (fourth order): the smoothed rate's own derivative is
+      // at hand, so the integrated angle is as accurate as the fit rather than as the sampling.
+      const h = times[k] - prevT;
+      q += (h / 2) * (prevW + fit.value) + ((h * h) / 12) * (prevA - fit.first);
+    }
+    angle[k * stride + joint] = q;
+    rate[k * stride + joint] = fit.value;
+    accel[k * stride + joint] = fit.first;
+    prevT = times[k];
+    prevW = fit.value;
+    prevA = fit.first;
+  }
+}
