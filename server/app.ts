@@ -18,6 +18,7 @@ export type { ApiDeps as AppDeps } from '@/server/deps';
 export function createApp(deps: ApiDeps): Express {
   const app = express();
   app.disable('x-powered-by');
+  app.set('trust proxy', deps.config.trustProxy);
 
   app.use(
     pinoHttp({

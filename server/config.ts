@@ -33,7 +33,20 @@ const envSchema = z.object({
   NODE_ENV: z.preprocess(emptyAsUnset, z.enum(['development', 'production', 'test']).default('development')),
   LOG_LEVEL: z.preprocess(emptyAsUnset, z.enum(logLevels).optional()),
   SEED_DEMO: z.preprocess(emptyAsUnset, z.enum(['0', '1']).optional()),
+  TRUST_PROXY: z.preprocess(
+    emptyAsUnset,
+    z
+      .string()
+      .regex(
+        /^(true|false|\d+|[\w.:/, -]+)$/,
+        'must be true, false, a hop count or a list of proxy addresses',
+      )
+      .optional(),
+  ),
 });
+
+/** Variables as strings; looser than NodeJS.ProcessEnv, whose NODE_ENV some type packages make required. */
+export type Env = Record<string, string | undefined>;
 
 export type Config = {
   port: number;
@@ -47,6 +60,11 @@ export type Config = {
   logLevel: (typeof logLevels)[number];
   /** Whether start-up may seed the demo scenario into an empty database (never in production). */
   seedDemo: boolean;
+  /**
+   * Express's `trust proxy`: behind a reverse proxy the sign-in limit must count each client's own address,
+   * not the proxy's, or one person's typos would lock everyone out. Off by default.
+   */
+  trustProxy: boolean | number | string;
 };
 
 export class ConfigError extends Error {
@@ -63,9 +81,15 @@ function ttlSeconds(value: string): number {
   return Number(match[1]) * ttlUnitSeconds[unit];
 }
 
+function parseTrustProxy(value: string | undefined): boolean | number | string {
+  if (value === undefined || value === 'false') return false;
+  if (value === 'true') return true;
+  return /^\d+$/.test(value) ? Number(value) : value;
+}
+
 /** Parses the environment without touching the disk. Throws ConfigError naming every bad variable. */
 export function parseEnv(
-  env: NodeJS.ProcessEnv,
+  env: Env,
   cwd = process.cwd(),
 ): Omit<Config, 'jwtSecret'> & {
   jwtSecretFromEnv: string | undefined;
@@ -85,6 +109,7 @@ export function parseEnv(
     nodeEnv: e.NODE_ENV,
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     seedDemo: e.NODE_ENV !== 'production' && e.SEED_DEMO !== '0',
+    trustProxy: parseTrustProxy(e.TRUST_PROXY),
   };
 }
 
@@ -99,7 +124,9 @@ export function readOrCreateJwtSecret(dataDir: string): string {
     // 'wx' fails if the file exists, so two processes starting together can't overwrite each other's secret.
     fs.writeFileSync(file, randomBytes(48).toString('base64url'), { flag: 'wx', mode: 0o600 });
   } catch (error) {
-    if (!(error instanceof Error && 'code' in error && error.code === 'EEXIST')) throw error;
+    // Checked by shape: errors from node:fs may come from another realm (e.g. under jest), failing instanceof.
+    const exists = typeof error === 'object' && error !== null && 'code' in error && error.code === 'EEXIST';
+    if (!exists) throw error;
   }
   const secret = fs.readFileSync(file, 'utf8').trim();
   if (secret.length < 32) {
@@ -111,7 +138,7 @@ export function readOrCreateJwtSecret(dataDir: string): string {
 }
 
 /** The full configuration: the environment, plus the JWT secret (from the env or DATA_DIR/jwt-secret). */
-export function loadConfig(env: NodeJS.ProcessEnv = process.env, cwd = process.cwd()): Config {
+export function loadConfig(env: Env = process.env, cwd = process.cwd()): Config {
   const { jwtSecretFromEnv, ...parsed } = parseEnv(env, cwd);
   const secret = jwtSecretFromEnv ?? readOrCreateJwtSecret(parsed.dataDir);
   return { ...parsed, jwtSecret: new TextEncoder().encode(secret) };

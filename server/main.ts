@@ -4,14 +4,14 @@ import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 
 import { createApp } from '@/server/app';
-import { ConfigError, loadConfig, type Config } from '@/server/config';
+import { ConfigError, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
 import { createLogger, type Logger } from '@/server/logger';
 import { seedDemoData } from '@/server/seed/demo';
 
 export type StartOptions = {
   /** Overrides on top of `process.env` (e.g. `{ PORT: '0', DATA_DIR: tmp }` in tests). */
-  env?: NodeJS.ProcessEnv;
+  env?: Env;
   /** Stop cleanly on SIGINT/SIGTERM and exit; default true. Harnesses that manage the process pass false. */
   handleSignals?: boolean;
   logger?: Logger;

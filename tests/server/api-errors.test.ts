@@ -1,7 +1,10 @@
 import express from 'express';
 import request from 'supertest';
 
+import { z } from 'zod';
+
 import { errorHandler } from '@/server/http/errors';
+import { validate } from '@/server/http/validate';
 import { createLogger } from '@/server/logger';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';
@@ -98,4 +101,30 @@ test('unexpected errors → 500 with a generic message, logged server-side, no s
   expect(res.text).not.toContain('corrupt');
   expect(res.text).not.toContain('/secret/path');
   expect(logged).toHaveLength(1);
+});
+
+describe('validate()', () => {
+  const input = validate({
+    query: z.object({ limit: z.coerce.number().int().max(100).default(20) }),
+    params: z.object({ rideId: z.uuid() }),
+  });
+  const app = express();
+  app.get('/rides/:rideId/readings', input, (_req, res) => {
+    res.json({ limit: input.query(res), rideId: input.params(res).rideId });
+  });
+  app.use(errorHandler(createLogger({ logLevel: 'silent' })));
+  const rideId = '7a540d16-57dc-49c9-8bae-74cc4b719746';
+
+  test('hands the parsed (coerced, defaulted) values to the handler', async () => {
+    const res = await request(app).get(`/rides/${rideId}/readings?limit=50`);
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ limit: { limit: 50 }, rideId });
+    expect((await request(app).get(`/rides/${rideId}/readings`)).body.limit).toEqual({ limit: 20 });
+  });
+
+  test('reports every bad query and route param, prefixed by where it came from', async () => {
+    const res = await request(app).get('/rides/not-a-uuid/readings?limit=500');
+    const error = expectApiError(res, 400, 'validation_failed');
+    expect(error.issues?.map((i) => i.path).sort()).toEqual(['params.rideId', 'query.limit']);
+  });
 });

@@ -5,9 +5,12 @@ import path from 'node:path';
 import type { Express } from 'express';
 import request from 'supertest';
 
+import { eq } from 'drizzle-orm';
+
+import { users } from '@/db/server/schema';
 import { apiErrorSchema } from '@/features/api/errors';
 import { createApp } from '@/server/app';
-import { loadConfig, type Config } from '@/server/config';
+import { loadConfig, type Config, type Env } from '@/server/config';
 import { openDb, type Db } from '@/server/db';
 import { createLogger } from '@/server/logger';
 import { demoPassword, seedDemoData } from '@/server/seed/demo';
@@ -29,7 +32,12 @@ export type TestServer = {
  * The sign-in limit is generous unless a test asks for the real one, so other tests don't trip it.
  */
 export async function makeTestServer(
-  opts: { env?: NodeJS.ProcessEnv; seed?: boolean; signInLimit?: { windowMs: number; max: number } } = {},
+  opts: {
+    env?: Env;
+    seed?: boolean;
+    /** 'app-default' leaves the limit to createApp (10 failures per 15 minutes). */
+    signInLimit?: { windowMs: number; max: number } | 'app-default';
+  } = {},
 ): Promise<TestServer> {
   const dataDir = makeTempDir();
   const config = loadConfig({
@@ -44,7 +52,10 @@ export async function makeTestServer(
     db: database.db,
     config,
     logger: createLogger(config),
-    signInLimit: opts.signInLimit ?? { windowMs: 60_000, max: 10_000 },
+    signInLimit:
+      opts.signInLimit === 'app-default'
+        ? undefined
+        : (opts.signInLimit ?? { windowMs: 60_000, max: 10_000 }),
   });
   return {
     app,
@@ -62,6 +73,12 @@ export async function signInAs(app: Express, email: string, password = demoPassw
   const res = await request(app).post('/api/auth/sign-in').send({ email, password });
   if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${res.text}`);
   return res.body.token;
+}
+
+export function userIdOf(db: Db, email: string): string {
+  const row = db.select({ id: users.id }).from(users).where(eq(users.email, email)).get();
+  if (!row) throw new Error(`no user ${email}`);
+  return row.id;
 }
 
 /** Asserts the one JSON error shape, the status and code, and that nothing internal leaked. */
