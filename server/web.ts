@@ -3,8 +3,8 @@ import path from 'node:path';
 
 import express, { Router } from 'express';
 
-/** Bundles and assets whose file names carry a content hash: safe to cache for a year. */
-const hashedAsset = /(^|\/)_expo\/static\/|[.-][0-9a-f]{16,}\.[a-z0-9]+$/i;
+/** Bundles and assets whose names carry a content hash (`icon.<md5>@2x.png`): safe to cache for a year. */
+const hashedAsset = /(^|\/)_expo\/static\/|[.-][0-9a-f]{16,}(@\d+x)?\.[a-z0-9]+$/i;
 const oneYearSeconds = 365 * 24 * 60 * 60;
 
 const missingBuildPage = `<!doctype html>

@@ -18,6 +18,9 @@ describe('with a web export in WEB_DIR', () => {
     fs.mkdirSync(path.join(webDir, path.dirname(bundleName)), { recursive: true });
     fs.writeFileSync(path.join(webDir, bundleName), `console.log(${JSON.stringify('x'.repeat(20_000))});`);
     fs.writeFileSync(path.join(webDir, 'sw.js'), 'self.addEventListener("fetch", () => {});');
+    fs.mkdirSync(path.join(webDir, 'assets/fonts'), { recursive: true });
+    fs.writeFileSync(path.join(webDir, 'assets/fonts/Plex.f7c4c8c20e7d7fc722d9b99ff968f80c.ttf'), 'font');
+    fs.writeFileSync(path.join(webDir, 'assets/close.808e1b1b9b53114ec2838071a7e6daa7@2x.png'), 'png');
     server = await makeTestServer({ env: { WEB_DIR: webDir } });
   });
   afterAll(() => {
@@ -43,6 +46,15 @@ describe('with a web export in WEB_DIR', () => {
     expect(res.headers['cache-control']).toContain('immutable');
     expect(res.headers['cache-control']).toContain('max-age=31536000');
     expect(res.headers['content-encoding']).toBe('gzip');
+  });
+
+  test.each([
+    '/assets/fonts/Plex.f7c4c8c20e7d7fc722d9b99ff968f80c.ttf',
+    '/assets/close.808e1b1b9b53114ec2838071a7e6daa7@2x.png',
+  ])('hashed asset %s is cached for a year', async (asset) => {
+    const res = await request(server.app).get(asset);
+    expect(res.status).toBe(200);
+    expect(res.headers['cache-control']).toContain('max-age=31536000');
   });
 
   test('unhashed files such as the service worker are revalidated', async () => {
