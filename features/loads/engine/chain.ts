@@ -32,7 +32,10 @@ export type JointState = {
 export type Chain = {
   readonly size: number;
   readonly names: readonly string[];
+  /** Magnitude of gravity, and its vector (normally (0, −g); tilted planes and checks may turn it). */
   readonly gravityMS2: number;
+  readonly gravityX: number;
+  readonly gravityY: number;
   readonly mass: Float64Array;
   readonly inertia: Float64Array;
   readonly cgX: Float64Array;
@@ -71,13 +74,23 @@ export type ChainWork = {
   torque: Float64Array;
 };
 
-export function createChain(bodies: readonly ChainBody[], gravityMS2: number = STANDARD_GRAVITY_MS2): Chain {
+/**
+ * Packs bodies for solving. `gravity` is a magnitude acting along −y (the API's convention) or, for a
+ * ride whose plane of motion is tilted or for rotated checks, the in-plane gravity vector itself.
+ */
+export function createChain(
+  bodies: readonly ChainBody[],
+  gravity: number | Vec2 = STANDARD_GRAVITY_MS2,
+): Chain {
   const n = bodies.length;
   if (n === 0) throw new Error('A chain needs at least one body');
+  const [gravityX, gravityY] = typeof gravity === 'number' ? [0, -gravity] : gravity;
   const chain: Chain = {
     size: n,
     names: bodies.map((b) => b.name),
-    gravityMS2,
+    gravityMS2: Math.hypot(gravityX, gravityY),
+    gravityX,
+    gravityY,
     mass: new Float64Array(n),
     inertia: new Float64Array(n),
     cgX: new Float64Array(n),
@@ -141,7 +154,8 @@ export function solveInto(
 ): void {
   const n = chain.size;
   const { mass, inertia, cgX, cgY, tipX, tipY } = chain;
-  const g = chain.gravityMS2;
+  const gX = chain.gravityX;
+  const gY = chain.gravityY;
   let th = 0;
   let om = 0;
   let al = 0;
@@ -190,9 +204,9 @@ export function solveInto(
   let tc = 0;
   for (let i = n - 1; i >= 0; i--) {
     const m = mass[i];
-    // m (a_G − g) with g = (0, −g)
-    const mx = m * work.cgAX[i];
-    const my = m * (work.cgAY[i] + g);
+    // m (a_G − g)
+    const mx = m * (work.cgAX[i] - gX);
+    const my = m * (work.cgAY[i] - gY);
     const gx = work.cgRelX[i];
     const gy = work.cgRelY[i];
     const c = work.cos[i];

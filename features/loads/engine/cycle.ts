@@ -225,6 +225,8 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const gz = Array.from({ length: seatCount }, () => new Float64Array(count));
   // Rider accelerations are reported in standard g whatever gravity the analysis uses.
   const g0 = STANDARD_GRAVITY_MS2;
+  const gravX = chain.gravityX;
+  const gravY = chain.gravityY;
 
   const work = createChainWork(n);
   for (let k = 0; k < count; k++) {
@@ -249,9 +251,9 @@ export function analyseCycle(input: CycleInput): CycleResult {
       const ry = s * seatX[j] + c * seatY[j];
       const om2 = work.omega[b] * work.omega[b];
       const al = work.alpha[b];
-      // Specific force (a − g)/g0 with g = (0, −gravity): what the seat pushes on the rider with.
-      const sfx = (work.pivotAX[b] - al * ry - om2 * rx) / g0;
-      const sfy = (work.pivotAY[b] + al * rx - om2 * ry + gravity) / g0;
+      // Specific force (a − g⃗)/g0: what the seat pushes on the rider with.
+      const sfx = (work.pivotAX[b] - al * ry - om2 * rx - gravX) / g0;
+      const sfy = (work.pivotAY[b] + al * rx - om2 * ry - gravY) / g0;
       const phi = work.theta[b] + seatSpine[j];
       const zx = Math.cos(phi);
       const zy = Math.sin(phi);

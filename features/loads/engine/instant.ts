@@ -54,7 +54,10 @@ export type InstantResult = {
 };
 
 export type InstantOptions = {
+  /** Magnitude along −y (default standard gravity). */
   gravityMS2?: number;
+  /** The in-plane gravity vector instead, for a tilted plane of motion; wins over gravityMS2. */
+  gravityVectorMS2?: Vec2;
   /** Points for the two-way moment check; the ground pivot when omitted. */
   points?: readonly MomentPoint[];
 };
@@ -65,7 +68,7 @@ export function solveInstant(
   state: JointState,
   options: InstantOptions = {},
 ): InstantResult {
-  const chain = createChain(bodies, options.gravityMS2 ?? STANDARD_GRAVITY_MS2);
+  const chain = createChain(bodies, options.gravityVectorMS2 ?? options.gravityMS2 ?? STANDARD_GRAVITY_MS2);
   const n = chain.size;
   for (const key of ['angleRad', 'rateRadS', 'accelRadS2'] as const) {
     if (state[key].length !== n) throw new Error(`state.${key} needs ${n} values, one per body`);
@@ -113,7 +116,6 @@ function momentCheck(chain: Chain, work: ChainWork, point: MomentPoint, index: n
     px = work.pivotX[b] + c * point.pointM[0] - s * point.pointM[1];
     py = work.pivotY[b] + s * point.pointM[0] + c * point.pointM[1];
   }
-  const g = chain.gravityMS2;
   const bodies: BodyMomentCheck[] = [];
   for (let i = 0; i < n; i++) {
     const m = chain.mass[i];
@@ -122,7 +124,10 @@ function momentCheck(chain: Chain, work: ChainWork, point: MomentPoint, index: n
     const oX = work.pivotX[i] - px;
     const oY = work.pivotY[i] - py;
     // Parent's force and couple at joint i, weight at G ...
-    let fromForces = work.torque[i] + (oX * work.forceY[i] - oY * work.forceX[i]) + gX * (-m * g);
+    let fromForces =
+      work.torque[i] +
+      (oX * work.forceY[i] - oY * work.forceX[i]) +
+      m * (gX * chain.gravityY - gY * chain.gravityX);
     // ... and the child's reaction (equal and opposite) at the next pivot.
     if (i + 1 < n) {
       const tX = work.pivotX[i + 1] - px;
@@ -142,7 +147,7 @@ function momentCheck(chain: Chain, work: ChainWork, point: MomentPoint, index: n
 
 export type ChainEnergy = { kineticJ: number; potentialJ: number; totalJ: number };
 
-/** Kinetic and potential energy (datum y = 0) of the chain in a given position and speed. */
+/** Kinetic and potential energy (datum at the ground pivot) of the chain in a given position and speed. */
 export function chainEnergy(
   chain: Chain,
   angleRad: ArrayLike<number>,
@@ -160,7 +165,11 @@ export function chainEnergy(
     const vx = work.pivotVX[i] - om * work.cgRelY[i];
     const vy = work.pivotVY[i] + om * work.cgRelX[i];
     kinetic += 0.5 * chain.mass[i] * (vx * vx + vy * vy) + 0.5 * chain.inertia[i] * om * om;
-    potential += chain.mass[i] * chain.gravityMS2 * (work.pivotY[i] + work.cgRelY[i]);
+    // −m·g⃗·r_G: with g⃗ = (0, −g) this is m·g·y_G.
+    potential -=
+      chain.mass[i] *
+      (chain.gravityX * (work.pivotX[i] + work.cgRelX[i]) +
+        chain.gravityY * (work.pivotY[i] + work.cgRelY[i]));
   }
   return { kineticJ: kinetic, potentialJ: potential, totalJ: kinetic + potential };
 }
@@ -182,7 +191,7 @@ export function jointAccelerations(
   solveInto(chain, angleRad, rateRadS, zeros, 0, work);
   const rhs = new Float64Array(n);
   for (let i = 0; i < n; i++) rhs[i] = torqueNm[i] - work.torque[i];
-  const noGravity: Chain = { ...chain, gravityMS2: 0 };
+  const noGravity: Chain = { ...chain, gravityMS2: 0, gravityX: 0, gravityY: 0 };
   const matrix: Float64Array[] = [];
   const unit = new Float64Array(n);
   for (let j = 0; j < n; j++) {

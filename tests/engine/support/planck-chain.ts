@@ -92,8 +92,8 @@ export function buildPlanckChain(bodies: readonly ChainBody[], options: PlanckCh
   }
 
   const { dt } = options;
-  const vIt = options.velocityIterations ?? 200;
-  const pIt = options.positionIterations ?? 50;
+  const vIt = options.velocityIterations ?? 100;
+  const pIt = options.positionIterations ?? 20;
   const relative = (abs: number[]) => abs.map((v, i) => (i === 0 ? v : v - abs[i - 1]));
 
   const step = (): PlanckSample => {
