@@ -25,7 +25,7 @@ const styles = StyleSheet.create({
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   tile: {
     flexGrow: 1,
-    flexBasis: 140,
+    flexBasis: 100,
     backgroundColor: colors.surface,
     borderColor: colors.border,
     borderWidth: 1,

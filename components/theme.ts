@@ -41,6 +41,9 @@ export const contrastPairs: [string, string][] = [
   [colors.near, colors.nearSoft],
   [colors.over, colors.overSoft],
   [colors.baseText, colors.baseRaised],
+  [colors.text, colors.accentSoft],
+  [colors.near, colors.nearSoft],
+  [colors.baseMuted, colors.baseRaised],
 ];
 
 export const fonts = {

@@ -52,8 +52,8 @@ export function AdminHome() {
                 columns={[
                   { key: 'name', title: 'Ride', render: (r) => r.name, flex: 1.2 },
                   { key: 'class', title: 'Class', render: (r) => rideClassLabel[r.rideClass] },
-                  { key: 'site', title: 'Site', render: (r) => r.site.name, flex: 1.3 },
-                  { key: 'operator', title: 'Operator', render: (r) => r.operator.name, flex: 1.3 },
+                  { key: 'site', title: 'Site', render: (r) => r.siteName ?? '—', flex: 1.3 },
+                  { key: 'operator', title: 'Operator', render: (r) => r.operatorName, flex: 1.3 },
                   { key: 'status', title: 'Status', render: (r) => <RideStatusMark status={r.status} compact /> },
                 ]}
               />

@@ -16,17 +16,18 @@ export function RideCard({ ride, showOperator = true }: { ride: RideSummary; sho
         <View style={styles.titles}>
           <Text variant="heading">{ride.name}</Text>
           <Text variant="small" muted>
-            {rideClassLabel[ride.rideClass]} · {ride.site.name}
+            {rideClassLabel[ride.rideClass]} · {ride.siteName ?? 'No site'}
           </Text>
         </View>
         <RideStatusMark status={ride.status} compact />
       </View>
+      {ride.description ? <Text variant="small">{ride.description}</Text> : null}
       {makerLine ? (
         <Text variant="small" muted>
           {makerLine}
         </Text>
       ) : null}
-      {showOperator ? <Text variant="small">{ride.operator.name}</Text> : null}
+      {showOperator ? <Text variant="small">{ride.operatorName}</Text> : null}
       {ride.status !== 'in_service' && ride.statusReason ? (
         <Text variant="small">Reason: {ride.statusReason}</Text>
       ) : null}

@@ -20,6 +20,7 @@ export const rideSummarySchema = z.object({
   id: z.string(),
   name: z.string(),
   rideClass: rideClassSchema,
+  description: z.string().nullable(),
   maker: z.string().nullable(),
   model: z.string().nullable(),
   serial: z.string().nullable(),
@@ -27,8 +28,10 @@ export const rideSummarySchema = z.object({
   status: rideStatusSchema,
   statusReason: z.string().nullable(),
   statusSince: z.string().nullable(),
-  site: z.object({ id: z.string(), name: z.string() }),
-  operator: z.object({ id: z.string(), name: z.string() }),
+  siteId: z.string().nullable(),
+  siteName: z.string().nullable(),
+  operatorCompanyId: z.string(),
+  operatorName: z.string(),
 });
 export type RideSummary = z.infer<typeof rideSummarySchema>;
 

@@ -95,7 +95,8 @@ function SideItem({ item, active }: { item: NavItem; active: boolean }) {
       <Pressable
         accessibilityRole="link"
         accessibilityState={{ selected: active }}
-        style={[styles.sideItem, active && styles.sideItemActive]}
+        // Link (asChild) hands its style to the DOM node as-is on web: pass one flat object, not an array.
+        style={StyleSheet.flatten([styles.sideItem, active && styles.sideItemActive])}
       >
         <Feather name={item.icon} size={20} color={active ? colors.baseText : colors.baseMuted} />
         <Text variant="heading" color={active ? colors.baseText : colors.baseMuted}>

@@ -51,9 +51,10 @@ export function localPolynomialFit(
   for (let j = start; j < start + w; j++) {
     const x = (times[j] - t) / scale;
     const y = values[j];
-    let pr = 1;
+    let pr = 1; // x^r
     for (let r = 0; r < k; r++) {
-      let pc = pr;
+      let pc = pr * pr; // x^(r+c), starting at c = r
+
       for (let c = r; c < k; c++) {
         ata[r * k + c] += pc;
         pc *= x;
