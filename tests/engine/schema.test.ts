@@ -14,7 +14,12 @@ const validLoads = () => ({
   bodies: [structuredClone(arm), structuredClone(gondola)],
   state: { angleRad: [0.4, -0.4], rateRadS: [1.2, -0.3], accelRadS2: [0.5, 0.1] },
 });
-const validCycle = () => ({
+type Loose = Record<string, unknown>;
+const validCycle = (): {
+  bodies: Loose[];
+  profiles: Loose[];
+  seats: { name: string; body: number; positionM: number[]; spineAngleRad: number }[];
+} => ({
   bodies: [structuredClone(arm), structuredClone(gondola)],
   profiles: [
     { kind: 'ramp', toRpm: 8, rampTimeS: 12, holdAfterS: 30 },
@@ -34,7 +39,8 @@ describe('POST /api/loads body', () => {
     const out = solveLoadsRequest(validLoads());
     expect(out.ok).toBe(true);
     if (!out.ok) return;
-    const direct = solveInstant(validLoads().bodies as never, validLoads().state);
+    const parsed = loadsRequestSchema.parse(validLoads());
+    const direct = solveInstant(parsed.bodies, parsed.state);
     expect(out.value.engineVersion).toBe(ENGINE_VERSION);
     expect(out.value.joints[0].forceN).toEqual(direct.joints[0].forceN);
     expect(out.value.joints[1].torqueNm).toBe(direct.joints[1].torqueNm);
@@ -151,15 +157,15 @@ describe('POST /api/loads/cycle body', () => {
   });
 
   it('names a missing tipM, an unknown profile kind and a seat on no body', () => {
-    const body = validCycle() as ReturnType<typeof validCycle> & { profiles: Record<string, unknown>[] };
-    delete (body.bodies[0] as Record<string, unknown>).tipM;
+    const body = validCycle();
+    delete body.bodies[0].tipM;
     body.profiles[1] = { kind: 'wobble' };
     body.seats[0].body = 5;
     const paths = pathsOf(analyseCycleRequest(body));
     expect(paths).toContain('profiles.1.kind');
     // Cross-field rules run once the shapes are right.
     const fixed = validCycle();
-    delete (fixed.bodies[0] as Record<string, unknown>).tipM;
+    delete fixed.bodies[0].tipM;
     fixed.seats[0].body = 5;
     expect(pathsOf(analyseCycleRequest(fixed)).sort()).toEqual(['bodies.0.tipM', 'seats.0.body']);
   });
