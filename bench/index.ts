@@ -1,0 +1,21 @@
+/**
+ * `npm run bench`: runs every benchmark module in turn and prints plain figures. To add one, export a
+ * `run()` from a module in this folder and list it below.
+ */
+type Bench = { name: string; load: () => Promise<{ run: () => void | Promise<void> }> };
+
+const benches: Bench[] = [{ name: 'load engine', load: () => import('@/bench/loads') }];
+
+async function main() {
+  console.log(`node ${process.version}, ${process.platform}/${process.arch}, one thread per bench`);
+  for (const bench of benches) {
+    console.log(`\n== ${bench.name} ==`);
+    const mod = await bench.load();
+    await mod.run();
+  }
+}
+
+main().catch((error: unknown) => {
+  console.error(error);
+  process.exitCode = 1;
+});
