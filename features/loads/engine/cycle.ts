@@ -218,7 +218,9 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const seatBody = Int32Array.from(seats, (s) => s.body);
   const seatX = Float64Array.from(seats, (s) => s.positionM[0]);
   const seatY = Float64Array.from(seats, (s) => s.positionM[1]);
-  const seatSpine = Float64Array.from(seats, (s) => s.spineAngleRad);
+  // The spine's direction in the body frame, so each sample turns it with the body's own cos/sin.
+  const seatSpineC = Float64Array.from(seats, (s) => Math.cos(s.spineAngleRad));
+  const seatSpineS = Float64Array.from(seats, (s) => Math.sin(s.spineAngleRad));
   const seatTurn = Float64Array.from(seats, (s) => (s.facing === 'ccw' ? 1 : -1));
   for (const s of seats) if (s.body < 0 || s.body >= n) throw new Error(`Seat ${s.name} is on no body`);
   const gx = Array.from({ length: seatCount }, () => new Float64Array(count));
@@ -254,9 +256,8 @@ export function analyseCycle(input: CycleInput): CycleResult {
       // Specific force (a − g⃗)/g0: what the seat pushes on the rider with.
       const sfx = (work.pivotAX[b] - al * ry - om2 * rx - gravX) / g0;
       const sfy = (work.pivotAY[b] + al * rx - om2 * ry - gravY) / g0;
-      const phi = work.theta[b] + seatSpine[j];
-      const zx = Math.cos(phi);
-      const zy = Math.sin(phi);
+      const zx = c * seatSpineC[j] - s * seatSpineS[j];
+      const zy = s * seatSpineC[j] + c * seatSpineS[j];
       const turn = seatTurn[j];
       // Chest axis: the spine turned a quarter turn, clockwise (turn = −1) or counter-clockwise (+1).
       const xx = -turn * zy;
