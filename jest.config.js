@@ -5,7 +5,7 @@ module.exports = {
   projects: [
     {
       displayName: 'app',
-      preset: 'jest-expo/web',
+      preset: 'jest-expo',
       testMatch: ['<rootDir>/tests/app/**/*.test.ts?(x)'],
       moduleNameMapper: alias,
     },
@@ -17,10 +17,10 @@ module.exports = {
       // jose ships ES modules only; ts-jest (allowJs) turns it into CommonJS for the node project.
       transformIgnorePatterns: ['/node_modules/(?!jose/)'],
       transform: {
-        '^.+\\.tsx?$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', isolatedModules: true }],
+        '^.+\\.tsx?$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false }],
         '/node_modules/jose/.+\\.js$': [
           'ts-jest',
-          { tsconfig: '<rootDir>/tsconfig.server.json', isolatedModules: true },
+          { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false },
         ],
       },
     },

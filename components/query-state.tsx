@@ -26,7 +26,9 @@ export function QueryState<T>({
     const offline = query.error instanceof OfflineError;
     return (
       <View style={styles.box} accessibilityRole="alert">
-        <Text>{offline ? 'No connection, and nothing saved for this view yet.' : 'This could not be loaded.'}</Text>
+        <Text>
+          {offline ? 'No connection, and nothing saved for this view yet.' : 'This could not be loaded.'}
+        </Text>
         <Button label="Try again" tone="quiet" onPress={() => query.refetch()} />
       </View>
     );

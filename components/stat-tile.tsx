@@ -4,7 +4,15 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 
 /** A big number with its label; `mark` carries the status shape and text where the number has one. */
-export function StatTile({ value, label, mark }: { value: number | string; label: string; mark?: React.ReactNode }) {
+export function StatTile({
+  value,
+  label,
+  mark,
+}: {
+  value: number | string;
+  label: string;
+  mark?: React.ReactNode;
+}) {
   return (
     <View style={styles.tile} accessibilityLabel={`${label}: ${value}`}>
       <Text variant="figureLarge">{value}</Text>

@@ -25,7 +25,10 @@ async function main() {
       await page.setContent(
         `<html><body style="margin:0;background:transparent">${logoMarkSvg(t.size, { rounded: t.rounded })}</body></html>`,
       );
-      const png = await page.screenshot({ omitBackground: true, clip: { x: 0, y: 0, width: t.size, height: t.size } });
+      const png = await page.screenshot({
+        omitBackground: true,
+        clip: { x: 0, y: 0, width: t.size, height: t.size },
+      });
       writeFileSync(join(__dirname, '..', t.file), png);
       await page.close();
     }

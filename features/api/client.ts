@@ -62,7 +62,11 @@ export async function apiFetch<T = unknown>(path: string, opts: Options<T> = {})
     json = text ? JSON.parse(text) : undefined;
   } catch {
     // A proxy or captive portal answered with something that is not our JSON.
-    throw new ApiRequestError(res.status, 'bad_response', `Unexpected answer from the server (${res.status}).`);
+    throw new ApiRequestError(
+      res.status,
+      'bad_response',
+      `Unexpected answer from the server (${res.status}).`,
+    );
   }
   if (!res.ok) {
     const parsed = apiErrorSchema.safeParse(json);

@@ -50,7 +50,11 @@ export function useSignInMutation() {
   const client = useQueryClient();
   return useMutation({
     mutationFn: async (body: SignInBody) => {
-      const res = await apiFetch('/api/auth/sign-in', { body, schema: signInResponseSchema, anonymous: true });
+      const res = await apiFetch('/api/auth/sign-in', {
+        body,
+        schema: signInResponseSchema,
+        anonymous: true,
+      });
       await tokenStore.set({ token: res.token, expiresAt: res.expiresAt, user: res.user });
       return res.user;
     },

@@ -13,7 +13,8 @@ import { SignInForm } from '@/features/auth/sign-in-form';
 
 function errorText(err: unknown): string | null {
   if (!err) return null;
-  if (err instanceof OfflineError) return 'No connection. Sign in once while online; after that the app works offline.';
+  if (err instanceof OfflineError)
+    return 'No connection. Sign in once while online; after that the app works offline.';
   if (err instanceof ApiRequestError) {
     if (err.status === 429) return 'Too many failed attempts. Wait a few minutes, then try again.';
     return err.message;
@@ -43,8 +44,8 @@ export function SignInScreen() {
       <View style={wide ? styles.brandWide : styles.brandPhone}>
         <Logo size={wide ? 48 : 36} onDark />
         <Text variant={wide ? 'display' : 'title'} color={colors.baseText} style={styles.claim}>
-          Pivot loads, wear and findings for rotating-arm rides — recorded at the ride, checked against its design
-          envelope.
+          Pivot loads, wear and findings for rotating-arm rides — recorded at the ride, checked against its
+          design envelope.
         </Text>
         {wide ? (
           <View style={styles.points}>

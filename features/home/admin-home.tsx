@@ -23,7 +23,11 @@ export function AdminHome() {
               <>
                 <StatRow>
                   {roles.map((r) => (
-                    <StatTile key={r} value={list.filter((u) => u.role === r).length} label={`${roleLabel[r]}s`} />
+                    <StatTile
+                      key={r}
+                      value={list.filter((u) => u.role === r).length}
+                      label={`${roleLabel[r]}s`}
+                    />
                   ))}
                 </StatRow>
                 <SectionTitle>People</SectionTitle>
@@ -54,7 +58,11 @@ export function AdminHome() {
                   { key: 'class', title: 'Class', render: (r) => rideClassLabel[r.rideClass] },
                   { key: 'site', title: 'Site', render: (r) => r.siteName ?? '—', flex: 1.3 },
                   { key: 'operator', title: 'Operator', render: (r) => r.operatorName, flex: 1.3 },
-                  { key: 'status', title: 'Status', render: (r) => <RideStatusMark status={r.status} compact /> },
+                  {
+                    key: 'status',
+                    title: 'Status',
+                    render: (r) => <RideStatusMark status={r.status} compact />,
+                  },
                 ]}
               />
             )}

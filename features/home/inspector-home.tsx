@@ -19,7 +19,10 @@ export function InspectorHome() {
                 <StatRow>
                   <StatTile value={list.length} label="Rides on your round" />
                   <StatTile value={new Set(list.map((r) => r.siteId)).size} label="Sites" />
-                  <StatTile value={list.filter((r) => r.status !== 'in_service').length} label="Not fully in service" />
+                  <StatTile
+                    value={list.filter((r) => r.status !== 'in_service').length}
+                    label="Not fully in service"
+                  />
                 </StatRow>
                 <SectionTitle>Rides</SectionTitle>
                 <RideGrid rides={list} />

@@ -18,7 +18,10 @@ export function OperatorHome() {
                 <StatRow>
                   <StatTile value={list.length} label="Rides" />
                   <StatTile value={list.filter((r) => r.status === 'in_service').length} label="In service" />
-                  <StatTile value={list.filter((r) => r.status !== 'in_service').length} label="Restricted or stopped" />
+                  <StatTile
+                    value={list.filter((r) => r.status !== 'in_service').length}
+                    label="Restricted or stopped"
+                  />
                 </StatRow>
                 <SectionTitle>Rides and their status</SectionTitle>
                 <RideGrid rides={list} showOperator={false} />

@@ -68,7 +68,7 @@ export function AppShell({
       <View style={styles.phoneMain}>{children}</View>
       <View
         style={[styles.bottomBar, { paddingBottom: Math.max(insets.bottom, space.xs) }]}
-        accessibilityRole="tablist"
+        role="navigation"
       >
         {items.map((item) => (
           <BottomItem key={item.href} item={item} active={isActive(item, pathname)} />
@@ -111,7 +111,7 @@ function BottomItem({ item, active }: { item: NavItem; active: boolean }) {
   return (
     <Link href={item.href} asChild>
       <Pressable
-        accessibilityRole="tab"
+        accessibilityRole="link"
         accessibilityState={{ selected: active }}
         accessibilityLabel={item.label}
         style={styles.bottomItem}
@@ -145,7 +145,11 @@ const styles = StyleSheet.create({
     paddingHorizontal: space.md,
     borderRadius: 10,
   },
-  sideItemActive: { backgroundColor: colors.baseRaised, borderLeftWidth: 4, borderLeftColor: colors.accentSoft },
+  sideItemActive: {
+    backgroundColor: colors.baseRaised,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.accentSoft,
+  },
   sideUser: {
     borderTopWidth: 1,
     borderTopColor: colors.baseRaised,

@@ -1,0 +1,16 @@
+// Browser tests: the real server and the real web export, driven through Debian's chromium.
+module.exports = {
+  displayName: 'browser',
+  testEnvironment: 'node',
+  testMatch: ['<rootDir>/tests/browser/**/*.test.ts'],
+  moduleNameMapper: { '^@/(.*)$': '<rootDir>/$1' },
+  transform: {
+    '^.+\\.tsx?$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false }],
+  },
+  globalSetup: '<rootDir>/tests/browser/global-setup.ts',
+  testTimeout: 120000,
+  // One server and one browser per file; two cores are shared with the server under test.
+  maxWorkers: 1,
+  // playwright keeps a socket to the browser process for a moment after close(); don't wait on it.
+  forceExit: true,
+};

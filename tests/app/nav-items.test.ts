@@ -1,0 +1,19 @@
+import { roleHome } from '@/features/auth/api';
+import { roles } from '@/features/auth/schema';
+import { isActive, navItems } from '@/features/shell/nav-items';
+
+test.each(roles)('the first navigation item of %s is its home', (role) => {
+  expect(navItems[role][0].href).toBe(roleHome[role]);
+});
+
+test('operators get no staff tools in their navigation', () => {
+  expect(navItems.operator.map((i) => i.href)).not.toContain('/loads');
+  expect(navItems.operator.map((i) => i.href)).not.toContain('/admin');
+});
+
+test('an item is active on its own path and its sub-routes, not on look-alike paths', () => {
+  const item = { href: '/today', label: 'Today', icon: 'sun' as const };
+  expect(isActive(item, '/today')).toBe(true);
+  expect(isActive(item, '/today/ride-1')).toBe(true);
+  expect(isActive(item, '/todays-notes')).toBe(false);
+});

@@ -1,0 +1,101 @@
+import { type ChildProcess, spawn } from 'node:child_process';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { type Browser, type Page, chromium } from 'playwright-core';
+
+import { launchOptions } from '@/scripts/browser';
+
+export const ROOT = join(__dirname, '..', '..');
+export const SHOTS = join(ROOT, 'artifacts', 'screenshots');
+export const DEMO_PASSWORD = 'pivotwatch-demo';
+
+export const sizes = {
+  phone: { width: 390, height: 844 },
+  desktop: { width: 1440, height: 900 },
+} as const;
+export type SizeName = keyof typeof sizes;
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const addr = srv.address();
+      srv.close(() => (typeof addr === 'object' && addr ? resolve(addr.port) : reject(new Error('no port'))));
+    });
+  });
+}
+
+export type Running = { baseUrl: string; dataDir: string; stop: () => Promise<void> };
+
+/** Starts the real server (tsx server/main.ts) on a free port with an empty temp DATA_DIR. */
+export async function startPivotwatch(env: Record<string, string> = {}): Promise<Running> {
+  const port = await freePort();
+  const dataDir = mkdtempSync(join(tmpdir(), 'pivotwatch-browser-'));
+  const child: ChildProcess = spawn(join(ROOT, 'node_modules', '.bin', 'tsx'), ['server/main.ts'], {
+    cwd: ROOT,
+    env: {
+      ...process.env,
+      PORT: String(port),
+      DATA_DIR: dataDir,
+      LOG_LEVEL: 'warn',
+      NODE_ENV: 'test',
+      ...env,
+    },
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
+  let stderr = '';
+  child.stderr?.on('data', (d) => (stderr += String(d)));
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 60000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited early (${child.exitCode}):\n${stderr}`);
+    try {
+      const res = await fetch(`${baseUrl}/api/health`);
+      if (res.ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) throw new Error(`server did not answer within 60 s:\n${stderr}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return {
+    baseUrl,
+    dataDir,
+    stop: async () => {
+      if (child.exitCode === null) {
+        const exited = new Promise((r) => child.once('exit', r));
+        child.kill('SIGTERM');
+        await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
+        if (child.exitCode === null) child.kill('SIGKILL');
+      }
+      // The stderr pipe would otherwise keep jest waiting after the run.
+      child.stderr?.destroy();
+      rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch(launchOptions());
+}
+
+export async function openPage(browser: Browser, size: SizeName): Promise<Page> {
+  const context = await browser.newContext({ viewport: sizes[size], deviceScaleFactor: 1 });
+  const page = await context.newPage();
+  page.on('pageerror', (err) => console.error(`[page error] ${err.message}`));
+  return page;
+}
+
+export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+export async function screenshot(page: Page, name: string) {
+  mkdirSync(SHOTS, { recursive: true });
+  await page.screenshot({ path: join(SHOTS, `${name}.png`) });
+}

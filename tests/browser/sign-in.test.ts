@@ -1,0 +1,82 @@
+/**
+ * Each demo role signs in through the real UI at phone and desktop size and lands on its own home.
+ * Source of truth for the accounts: the README's demo table (seeded by server/seed/demo.ts).
+ */
+import type { Browser } from 'playwright-core';
+
+import {
+  type Running,
+  type SizeName,
+  launchBrowser,
+  openPage,
+  screenshot,
+  signIn,
+  startPivotwatch,
+} from './harness';
+
+let app: Running;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startPivotwatch();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+const cases = [
+  {
+    email: 'inspector@pivotwatch.test',
+    path: '/today',
+    heading: /^Good (morning|afternoon|evening), Tomas$/,
+  },
+  { email: 'supervisor@pivotwatch.test', path: '/review', heading: /^Review$/ },
+  { email: 'operator@pivotwatch.test', path: '/my-rides', heading: /^My rides$/ },
+  { email: 'admin@pivotwatch.test', path: '/admin', heading: /^Administration$/ },
+];
+
+describe.each(['phone', 'desktop'] as SizeName[])('at %s size', (size) => {
+  test.each(cases)('$email lands on $path', async ({ email, path, heading }) => {
+    const page = await openPage(browser, size);
+    await page.goto(`${app.baseUrl}/`);
+    await page.waitForURL('**/sign-in');
+    await signIn(page, app.baseUrl, email);
+    await page.waitForURL(`**${path}`);
+    await page.getByRole('heading', { name: heading }).first().waitFor();
+    // The role's data loaded: at least one ride card or table row is on screen.
+    await page
+      .getByText(/Tamsworth Pier/)
+      .first()
+      .waitFor();
+    await screenshot(page, `${size}-${path.slice(1)}`);
+    await page.context().close();
+  });
+
+  test('a wrong password is refused with a message and no navigation', async () => {
+    const page = await openPage(browser, size);
+    await signIn(page, app.baseUrl, 'inspector@pivotwatch.test', 'not-the-password');
+    await page
+      .getByRole('alert')
+      .filter({ hasText: /e-mail or password/i })
+      .waitFor();
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+    await screenshot(page, `${size}-sign-in-refused`);
+    await page.context().close();
+  });
+});
+
+test('signing out returns to sign-in and guards the app routes', async () => {
+  const page = await openPage(browser, 'phone');
+  await signIn(page, app.baseUrl, 'operator@pivotwatch.test');
+  await page.waitForURL('**/my-rides');
+  await page.getByRole('link', { name: 'Account' }).click();
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await page.waitForURL('**/sign-in');
+  await page.goto(`${app.baseUrl}/admin`);
+  await page.waitForURL('**/sign-in');
+  expect(new URL(page.url()).pathname).toBe('/sign-in');
+  await page.context().close();
+});
