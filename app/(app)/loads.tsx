@@ -1,0 +1,3 @@
+import { CalculatorScreen } from '@/features/loads/calculator-screen';
+
+export default CalculatorScreen;

@@ -1,0 +1,212 @@
+import { scaleLinear } from 'd3-scale';
+import { line } from 'd3-shape';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+import Svg, { G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+
+import { Text } from '@/components/text';
+import { colors, fonts, space } from '@/components/theme';
+
+export type ChartSeries = {
+  label: string;
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
+  color: string;
+  dashed?: boolean;
+};
+export type ChartLimit = { label: string; y: number; color?: string };
+
+type Props = {
+  series: ChartSeries[];
+  limits?: ChartLimit[];
+  xLabel: string;
+  yLabel: string;
+  height?: number;
+  /** Fixed x domain (e.g. [0, 360] for angle), else the data's extent. */
+  xDomain?: [number, number];
+  xTicks?: number[];
+  /** Accessible summary read instead of the drawing. */
+  summary: string;
+};
+
+const M = { top: 12, right: 16, bottom: 40, left: 60 };
+
+/**
+ * A line chart drawn with react-native-svg, scales and paths from d3 (d3-scale, d3-shape).
+ * Limit lines are dashed and labelled, so a limit never depends on colour alone.
+ */
+export function LineChart({
+  series,
+  limits = [],
+  xLabel,
+  yLabel,
+  height = 240,
+  xDomain,
+  xTicks,
+  summary,
+}: Props) {
+  const [width, setWidth] = useState(0);
+  const xs = series.flatMap((s) => Array.from(s.x));
+  const ys = [...series.flatMap((s) => Array.from(s.y)), ...limits.map((l) => l.y)];
+  const xExtent: [number, number] = xDomain ?? [Math.min(...xs), Math.max(...xs)];
+  const yMin = Math.min(0, ...ys);
+  const yMax = Math.max(...ys, 1e-9);
+  const x = scaleLinear()
+    .domain(xExtent)
+    .range([M.left, Math.max(M.left + 10, width - M.right)]);
+  const y = scaleLinear()
+    .domain([yMin, yMax * 1.08])
+    .nice()
+    .range([height - M.bottom, M.top]);
+
+  return (
+    <View
+      style={styles.wrap}
+      onLayout={(e) => setWidth(e.nativeEvent.layout.width)}
+      accessibilityLabel={summary}
+      role="img"
+    >
+      {width > 0 ? (
+        <Svg width={width} height={height}>
+          <Rect
+            x={M.left}
+            y={M.top}
+            width={width - M.left - M.right}
+            height={height - M.top - M.bottom}
+            fill={colors.surface}
+          />
+          {y.ticks(5).map((t) => (
+            <G key={`y${t}`}>
+              <Line
+                x1={M.left}
+                x2={width - M.right}
+                y1={y(t)}
+                y2={y(t)}
+                stroke={colors.surfaceSunk}
+                strokeWidth={1}
+              />
+              <SvgText
+                x={M.left - 6}
+                y={y(t) + 4}
+                fontSize={11}
+                fontFamily={fonts.mono}
+                fill={colors.textMuted}
+                textAnchor="end"
+              >
+                {compact(t)}
+              </SvgText>
+            </G>
+          ))}
+          {(xTicks ?? x.ticks(6)).map((t) => (
+            <G key={`x${t}`}>
+              <Line
+                x1={x(t)}
+                x2={x(t)}
+                y1={M.top}
+                y2={height - M.bottom}
+                stroke={colors.surfaceSunk}
+                strokeWidth={1}
+              />
+              <SvgText
+                x={x(t)}
+                y={height - M.bottom + 16}
+                fontSize={11}
+                fontFamily={fonts.mono}
+                fill={colors.textMuted}
+                textAnchor="middle"
+              >
+                {compact(t)}
+              </SvgText>
+            </G>
+          ))}
+          <Line x1={M.left} x2={width - M.right} y1={y(0)} y2={y(0)} stroke={colors.border} strokeWidth={1} />
+          {series.map((s) => {
+            const pts = Array.from(s.x, (xv, i) => [x(xv), y(s.y[i])] as [number, number]);
+            const d = line()(pts) ?? '';
+            return (
+              <Path
+                key={s.label}
+                d={d}
+                stroke={s.color}
+                strokeWidth={2}
+                fill="none"
+                strokeDasharray={s.dashed ? '6 4' : undefined}
+              />
+            );
+          })}
+          {limits.map((l) => (
+            <G key={l.label}>
+              <Line
+                x1={M.left}
+                x2={width - M.right}
+                y1={y(l.y)}
+                y2={y(l.y)}
+                stroke={l.color ?? colors.over}
+                strokeWidth={1.5}
+                strokeDasharray="8 5"
+              />
+              <SvgText
+                x={width - M.right - 4}
+                y={y(l.y) - 5}
+                fontSize={11}
+                fontFamily={fonts.semibold}
+                fill={l.color ?? colors.over}
+                textAnchor="end"
+              >
+                {l.label}
+              </SvgText>
+            </G>
+          ))}
+          <SvgText
+            x={(M.left + width - M.right) / 2}
+            y={height - 6}
+            fontSize={12}
+            fontFamily={fonts.semibold}
+            fill={colors.textMuted}
+            textAnchor="middle"
+          >
+            {xLabel}
+          </SvgText>
+          <SvgText
+            x={14}
+            y={(M.top + height - M.bottom) / 2}
+            fontSize={12}
+            fontFamily={fonts.semibold}
+            fill={colors.textMuted}
+            textAnchor="middle"
+            transform={`rotate(-90 14 ${(M.top + height - M.bottom) / 2})`}
+          >
+            {yLabel}
+          </SvgText>
+        </Svg>
+      ) : (
+        <View style={{ height }} />
+      )}
+      {series.length > 1 ? (
+        <View style={styles.legend}>
+          {series.map((s) => (
+            <View key={s.label} style={styles.legendItem}>
+              <View style={[styles.swatch, { backgroundColor: s.color }, s.dashed && styles.swatchDashed]} />
+              <Text variant="small">{s.label}</Text>
+            </View>
+          ))}
+        </View>
+      ) : null}
+    </View>
+  );
+}
+
+function compact(v: number): string {
+  const a = Math.abs(v);
+  if (a >= 1e6) return `${+(v / 1e6).toFixed(1)}M`;
+  if (a >= 1e4) return `${+(v / 1e3).toFixed(0)}k`;
+  return `${+v.toFixed(2)}`;
+}
+
+const styles = StyleSheet.create({
+  wrap: { width: '100%', gap: space.sm },
+  legend: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, paddingLeft: M.left },
+  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  swatch: { width: 16, height: 3, borderRadius: 2 },
+  swatchDashed: { opacity: 0.6 },
+});

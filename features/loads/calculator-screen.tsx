@@ -1,0 +1,447 @@
+import { useEffect, useState } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { QueryState } from '@/components/query-state';
+import { Screen, SectionTitle } from '@/components/screen';
+import { Segmented } from '@/components/segmented';
+import { RideStatusMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, radius, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { RoleGate } from '@/features/auth/role-gate';
+import {
+  type BodyRow,
+  type CalculatorOutcome,
+  type MotionKind,
+  type MotionRow,
+  designBodyNames,
+  exampleBodies,
+  exampleMotion,
+  manualRequest,
+  motionKindLabel,
+  motionRowFromDesign,
+  newBody,
+  newMotion,
+  rideRequest,
+  runCalculator,
+} from '@/features/loads/calculator-model';
+import { CycleResults } from '@/features/loads/cycle-results';
+import { useRideQuery, useRidesQuery } from '@/features/rides/api';
+import { rideClassLabel } from '@/features/rides/schema';
+import { useUnitSystem } from '@/features/settings/unit-system';
+
+type Source = 'ride' | 'manual';
+
+/**
+ * The load check calculator: a ride's design chain (or bodies typed in), a motion per joint, and the
+ * engine's result over one ride cycle, computed on this device (works offline once data is loaded).
+ */
+export function CalculatorScreen() {
+  const wide = useWide();
+  const [system, setSystem] = useUnitSystem();
+  const [source, setSource] = useState<Source>('ride');
+  const [rideId, setRideId] = useState<string | null>(null);
+  const [bodies, setBodies] = useState<BodyRow[]>(exampleBodies);
+  const [manualMotion, setManualMotion] = useState<MotionRow[]>(exampleMotion);
+  const [rideMotion, setRideMotion] = useState<MotionRow[]>([]);
+  const [outcome, setOutcome] = useState<CalculatorOutcome | null>(null);
+  const rides = useRidesQuery();
+  const ride = useRideQuery(source === 'ride' ? rideId : null);
+  const design = ride.data?.design?.data ?? null;
+
+  // A freshly picked ride starts from its design motion and shows its design-speed result at once.
+  useEffect(() => {
+    if (!design) return;
+    const rows = design.bodies.map((_, i) => motionRowFromDesign(design.motion.find((m) => m.joint === i)));
+    setRideMotion(rows);
+    setOutcome(runCalculator(rideRequest(design, rows)));
+  }, [design]);
+
+  const motion = source === 'ride' ? rideMotion : manualMotion;
+  const setMotion = source === 'ride' ? setRideMotion : setManualMotion;
+  const jointNames = source === 'ride' && design ? designBodyNames(design) : bodies.map((b) => b.name || '—');
+
+  const run = () => {
+    if (source === 'ride') {
+      if (design) setOutcome(runCalculator(rideRequest(design, rideMotion)));
+    } else {
+      setOutcome(runCalculator(manualRequest(bodies, manualMotion)));
+    }
+  };
+
+  const switchSource = (s: Source) => {
+    setSource(s);
+    setOutcome(null);
+  };
+
+  const inputs = (
+    <View style={styles.inputs}>
+      <Segmented
+        label="Where the bodies come from"
+        value={source}
+        onChange={switchSource}
+        options={[
+          { value: 'ride', label: 'From a ride' },
+          { value: 'manual', label: 'Enter bodies' },
+        ]}
+      />
+      {source === 'ride' ? (
+        <Card>
+          <Text variant="heading">Ride</Text>
+          <QueryState query={rides} empty={(r) => r.length === 0}>
+            {(list) => (
+              <View style={styles.rideList}>
+                {list.map((r) => {
+                  const selected = r.id === rideId;
+                  return (
+                    <Pressable
+                      key={r.id}
+                      role="radio"
+                      aria-checked={selected}
+                      accessibilityLabel={r.name}
+                      onPress={() => {
+                        setRideId(r.id);
+                        setOutcome(null);
+                      }}
+                      style={StyleSheet.flatten([styles.rideOption, selected && styles.rideOptionSelected])}
+                    >
+                      <View style={styles.rideOptionText}>
+                        <Text variant="heading">{r.name}</Text>
+                        <Text variant="small" muted>
+                          {rideClassLabel[r.rideClass]}
+                        </Text>
+                      </View>
+                      <RideStatusMark status={r.status} compact />
+                    </Pressable>
+                  );
+                })}
+              </View>
+            )}
+          </QueryState>
+          {rideId && ride.data && !ride.data.design ? (
+            <Text color={colors.near}>
+              This ride has no design data yet. Ask an administrator to enter it.
+            </Text>
+          ) : null}
+          {ride.data?.design ? (
+            <Text variant="small" muted>
+              Design data v{ride.data.design.version} · {ride.data.design.data.source.document} rev.{' '}
+              {ride.data.design.data.source.revision}
+            </Text>
+          ) : null}
+        </Card>
+      ) : (
+        <BodiesEditor
+          bodies={bodies}
+          onChange={setBodies}
+          onMotionCount={(n) => setManualMotion((m) => fit(m, n))}
+        />
+      )}
+
+      {motion.length > 0 ? (
+        <Card>
+          <Text variant="heading">Motion of each joint</Text>
+          <Text variant="small" muted>
+            Relative to the body before it. Start from the design values or type what you measured.
+          </Text>
+          {motion.map((row, i) => (
+            <MotionEditor
+              key={i}
+              title={`Joint ${i + 1} · ${jointNames[i] ?? ''}`}
+              row={row}
+              onChange={(r) => setMotion(motion.map((m, k) => (k === i ? r : m)))}
+            />
+          ))}
+        </Card>
+      ) : null}
+
+      <Button label="Run load check" onPress={run} disabled={source === 'ride' && !design} />
+      {outcome && !outcome.ok ? (
+        <View style={styles.errors} role="alert">
+          <Text variant="heading" color={colors.danger}>
+            Check these inputs
+          </Text>
+          {outcome.issues.map((i) => (
+            <Text key={`${i.path}${i.message}`} color={colors.danger}>
+              {describePath(i.path, jointNames)}: {i.message}
+            </Text>
+          ))}
+        </View>
+      ) : null}
+    </View>
+  );
+
+  const results =
+    outcome && outcome.ok ? (
+      <CycleResults result={outcome.result} system={system} xAxis={outcome.xAxis} />
+    ) : (
+      <Card>
+        <Text muted>
+          {source === 'ride'
+            ? 'Pick a ride to see its pivot loads at the design motion, then change the motion to what you measured.'
+            : 'Enter the bodies from the pivot outward, choose each joint’s motion, and run the check.'}
+        </Text>
+      </Card>
+    );
+
+  return (
+    <RoleGate roles={['inspector', 'supervisor', 'admin']}>
+      {() => (
+        <Screen
+          title="Load check"
+          subtitle="Pivot loads and rider accelerations over one ride cycle."
+          actions={
+            <Segmented
+              label="Units"
+              value={system}
+              onChange={setSystem}
+              options={[
+                { value: 'si', label: 'SI' },
+                { value: 'us', label: 'US' },
+              ]}
+            />
+          }
+        >
+          {wide ? (
+            <View style={styles.wideRow}>
+              <View style={styles.wideInputs}>{inputs}</View>
+              <View style={styles.wideResults}>{results}</View>
+            </View>
+          ) : (
+            <>
+              {inputs}
+              <SectionTitle>Result</SectionTitle>
+              {results}
+            </>
+          )}
+        </Screen>
+      )}
+    </RoleGate>
+  );
+}
+
+function fit(rows: MotionRow[], n: number): MotionRow[] {
+  return rows.length >= n
+    ? rows.slice(0, n)
+    : [...rows, ...Array.from({ length: n - rows.length }, newMotion)];
+}
+
+/** "bodies.1.massKg" → "Gondola · mass" for people; unknown paths are shown as they are. */
+export function describePath(path: string, names: string[]): string {
+  const parts = path.split('.');
+  const fields: Record<string, string> = {
+    massKg: 'mass',
+    cgM: 'centre of gravity',
+    inertiaCgKgM2: 'inertia',
+    tipM: 'next pivot',
+    rpm: 'speed',
+    amplitudeRad: 'amplitude',
+    periodS: 'period',
+    angleRad: 'angle',
+    rampTimeS: 'ramp time',
+    toRpm: 'speed',
+    name: 'name',
+  };
+  if ((parts[0] === 'bodies' || parts[0] === 'profiles') && parts[1] !== undefined) {
+    const i = Number(parts[1]);
+    const who = parts[0] === 'bodies' ? (names[i] ?? `Body ${i + 1}`) : `Joint ${i + 1}`;
+    return parts[2] ? `${who} · ${fields[parts[2]] ?? parts[2]}` : who;
+  }
+  return path;
+}
+
+function MotionEditor({
+  title,
+  row,
+  onChange,
+}: {
+  title: string;
+  row: MotionRow;
+  onChange: (r: MotionRow) => void;
+}) {
+  const set = (patch: Partial<MotionRow>) => onChange({ ...row, ...patch });
+  return (
+    <View style={styles.motion}>
+      <Text variant="label" muted>
+        {title.toUpperCase()}
+      </Text>
+      <Segmented<MotionKind>
+        label={`${title} motion`}
+        value={row.kind}
+        onChange={(kind) => set({ kind })}
+        options={(['constant', 'swing', 'ramp', 'fixed'] as const).map((k) => ({
+          value: k,
+          label: motionKindLabel[k],
+        }))}
+      />
+      <View style={styles.fieldRow}>
+        {row.kind === 'constant' || row.kind === 'ramp' ? (
+          <NumberField label="Speed" unit="rpm" value={row.rpm} onChange={(rpm) => set({ rpm })} />
+        ) : null}
+        {row.kind === 'ramp' ? (
+          <NumberField label="Ramp time" unit="s" value={row.rampS} onChange={(rampS) => set({ rampS })} />
+        ) : null}
+        {row.kind === 'swing' ? (
+          <>
+            <NumberField
+              label="Amplitude"
+              unit="°"
+              value={row.amplitudeDeg}
+              onChange={(amplitudeDeg) => set({ amplitudeDeg })}
+            />
+            <NumberField
+              label="Period"
+              unit="s"
+              value={row.periodS}
+              onChange={(periodS) => set({ periodS })}
+            />
+          </>
+        ) : null}
+        {row.kind === 'fixed' ? (
+          <NumberField
+            label="Angle"
+            unit="°"
+            value={row.angleDeg}
+            onChange={(angleDeg) => set({ angleDeg })}
+          />
+        ) : null}
+      </View>
+    </View>
+  );
+}
+
+function NumberField({
+  label,
+  unit,
+  value,
+  onChange,
+}: {
+  label: string;
+  unit: string;
+  value: string;
+  onChange: (v: string) => void;
+}) {
+  return (
+    <View style={styles.numberField}>
+      <TextField
+        label={label}
+        unit={unit}
+        value={value}
+        onChangeText={onChange}
+        inputMode="decimal"
+        keyboardType="numbers-and-punctuation"
+      />
+    </View>
+  );
+}
+
+function BodiesEditor({
+  bodies,
+  onChange,
+  onMotionCount,
+}: {
+  bodies: BodyRow[];
+  onChange: (b: BodyRow[]) => void;
+  onMotionCount: (n: number) => void;
+}) {
+  const update = (i: number, patch: Partial<BodyRow>) =>
+    onChange(bodies.map((b, k) => (k === i ? { ...b, ...patch } : b)));
+  const resize = (next: BodyRow[]) => {
+    onChange(next);
+    onMotionCount(next.length);
+  };
+  return (
+    <Card>
+      <Text variant="heading">Bodies, from the ground pivot outward</Text>
+      <Text variant="small" muted>
+        Each body’s frame starts at its own pivot. The next pivot is where the following body hangs.
+      </Text>
+      {bodies.map((b, i) => (
+        <View key={i} style={styles.body}>
+          <View style={styles.bodyHead}>
+            <Text variant="label" muted>
+              BODY {i + 1}
+            </Text>
+            {bodies.length > 1 ? (
+              <Button
+                label="Remove"
+                tone="quiet"
+                onPress={() => resize(bodies.filter((_, k) => k !== i))}
+                accessibilityLabel={`Remove body ${i + 1}`}
+              />
+            ) : null}
+          </View>
+          <TextField label="Name" value={b.name} onChangeText={(name) => update(i, { name })} />
+          <View style={styles.fieldRow}>
+            <NumberField
+              label="Mass"
+              unit="kg"
+              value={b.massKg}
+              onChange={(massKg) => update(i, { massKg })}
+            />
+            <NumberField
+              label="Inertia about CG"
+              unit="kg·m²"
+              value={b.inertia}
+              onChange={(inertia) => update(i, { inertia })}
+            />
+          </View>
+          <View style={styles.fieldRow}>
+            <NumberField label="CG x" unit="m" value={b.cgX} onChange={(cgX) => update(i, { cgX })} />
+            <NumberField label="CG y" unit="m" value={b.cgY} onChange={(cgY) => update(i, { cgY })} />
+          </View>
+          {i < bodies.length - 1 ? (
+            <View style={styles.fieldRow}>
+              <NumberField
+                label="Next pivot x"
+                unit="m"
+                value={b.tipX}
+                onChange={(tipX) => update(i, { tipX })}
+              />
+              <NumberField
+                label="Next pivot y"
+                unit="m"
+                value={b.tipY}
+                onChange={(tipY) => update(i, { tipY })}
+              />
+            </View>
+          ) : null}
+        </View>
+      ))}
+      {bodies.length < 10 ? (
+        <Button label="Add a body" tone="quiet" onPress={() => resize([...bodies, newBody(bodies.length)])} />
+      ) : null}
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  inputs: { gap: space.lg },
+  wideRow: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  wideInputs: { width: 420, gap: space.lg },
+  wideResults: { flex: 1, minWidth: 0 },
+  rideList: { gap: space.sm },
+  rideOption: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    justifyContent: 'space-between',
+    gap: space.md,
+    minHeight: 56,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1.5,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  rideOptionSelected: { borderColor: colors.base, backgroundColor: colors.accentSoft },
+  rideOptionText: { flexShrink: 1 },
+  motion: { gap: space.sm, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
+  fieldRow: { flexDirection: 'row', gap: space.md, flexWrap: 'wrap' },
+  numberField: { flexGrow: 1, flexBasis: 140 },
+  body: { gap: space.sm, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
+  bodyHead: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' },
+  errors: { backgroundColor: colors.overSoft, padding: space.md, borderRadius: radius.md, gap: space.xs },
+});

@@ -1,0 +1,193 @@
+import { StyleSheet, View } from 'react-native';
+
+import { Card } from '@/components/card';
+import { Caution } from '@/components/caution';
+import { DataTable } from '@/components/data-table';
+import { LineChart } from '@/components/line-chart';
+import { SectionTitle } from '@/components/screen';
+import { EnvelopeMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { colors, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
+import { EnvelopeTable } from '@/features/loads/envelope-table';
+import { formatValue } from '@/features/loads/format';
+import { type UnitSystem, fromSI, pickDisplayUnit } from '@/features/units';
+
+const statusHeadline = {
+  within: 'Every checked value is within the design envelope.',
+  near: 'Some values are near their limits. Look at them before you sign off.',
+  over: 'Values are over their limits. Follow your stop and lockout procedure and escalate.',
+} as const;
+
+/** The whole result of a load check: headline status, pivot peaks, charts, rider accelerations, envelope. */
+export function CycleResults({
+  result,
+  system,
+  xAxis,
+}: {
+  result: CycleResult;
+  system: UnitSystem;
+  xAxis: 'angle' | 'time';
+}) {
+  const wide = useWide();
+  const hasEnvelope = result.envelope.length > 0;
+  return (
+    <View style={styles.root}>
+      <Card style={styles.headline}>
+        {hasEnvelope ? <EnvelopeMark status={result.status} /> : null}
+        <Text variant="heading">
+          {hasEnvelope
+            ? statusHeadline[result.status]
+            : 'No design limits were given: loads only, no statuses.'}
+        </Text>
+        <Text variant="small" muted>
+          {result.samples} instants over {formatValue(result.durationS, 'time', system)} · engine{' '}
+          {ENGINE_VERSION}
+        </Text>
+      </Card>
+
+      <SectionTitle>Pivot loads over the cycle</SectionTitle>
+      <DataTable
+        label="Pivot loads"
+        rows={result.joints.map((j, i) => ({ j, i }))}
+        rowKey={({ i }) => String(i)}
+        columns={[
+          { key: 'pivot', title: 'Pivot', render: ({ j, i }) => `${i + 1} · ${j.name}`, flex: 1.4 },
+          {
+            key: 'peak',
+            title: 'Peak force',
+            render: ({ j }) => formatValue(j.peakForce.value, 'force', system),
+            numeric: true,
+          },
+          {
+            key: 'where',
+            title: xAxis === 'angle' ? 'At arm angle' : 'At time',
+            render: ({ j }) =>
+              xAxis === 'angle'
+                ? formatValue(wrapAngle(j.peakForce.armAngleRad), 'angle', system)
+                : formatValue(j.peakForce.timeS, 'time', system),
+            numeric: true,
+          },
+          {
+            key: 'range',
+            title: 'Load range',
+            render: ({ j }) => formatValue(j.extremes.magnitudeN.range, 'force', system),
+            numeric: true,
+          },
+          {
+            key: 'torque',
+            title: 'Peak torque',
+            render: ({ j }) => formatValue(Math.abs(j.peakTorque.value), 'moment', system),
+            numeric: true,
+          },
+        ]}
+      />
+
+      <View style={wide ? styles.chartsWide : styles.charts}>
+        {result.joints.map((j, i) => {
+          const limit = result.envelope.find((e) => e.id === `joints.${i}.force`);
+          const unit = pickDisplayUnit(j.peakForce.value, 'force', system);
+          const toUnit = (v: number) => fromSI(v, 'force', unit.mathjs);
+          const { x, y } = chartPoints(result, i, xAxis, toUnit);
+          return (
+            <Card key={i} style={wide ? styles.chartCardWide : undefined}>
+              <Text variant="heading">
+                Pivot {i + 1} · {j.name}
+              </Text>
+              <LineChart
+                summary={`Force on pivot ${i + 1} over the cycle; peak ${formatValue(j.peakForce.value, 'force', system)}`}
+                series={[{ label: 'Force magnitude', x, y, color: colors.base }]}
+                limits={
+                  limit && limit.limit.kind === 'upper'
+                    ? [
+                        {
+                          label: `Limit ${formatValue(limit.limit.max, 'force', system)}`,
+                          y: toUnit(limit.limit.max),
+                        },
+                      ]
+                    : []
+                }
+                xLabel={xAxis === 'angle' ? 'Main arm angle (°)' : 'Time (s)'}
+                yLabel={`Force (${unit.label})`}
+                xDomain={xAxis === 'angle' ? [0, 360] : undefined}
+                xTicks={xAxis === 'angle' ? [0, 90, 180, 270, 360] : undefined}
+              />
+            </Card>
+          );
+        })}
+      </View>
+
+      {result.seats.length > 0 ? (
+        <>
+          <SectionTitle>What riders feel (g, gravity included)</SectionTitle>
+          <DataTable
+            label="Rider accelerations"
+            rows={result.seats}
+            rowKey={(s) => s.name}
+            columns={[
+              { key: 'seat', title: 'Seat', render: (s) => s.name, flex: 1.4 },
+              { key: 'gzmin', title: 'Gz min', render: (s) => fmtG(s.extremes.gz.min), numeric: true },
+              { key: 'gzmax', title: 'Gz max', render: (s) => fmtG(s.extremes.gz.max), numeric: true },
+              { key: 'gxmin', title: 'Gx min', render: (s) => fmtG(s.extremes.gx.min), numeric: true },
+              { key: 'gxmax', title: 'Gx max', render: (s) => fmtG(s.extremes.gx.max), numeric: true },
+            ]}
+          />
+          <Text variant="small" muted>
+            Gz runs along the spine (positive pushes the rider into the seat, “eyes down”); Gx runs chest to
+            back. Not low-pass filtered: compare with limits as your standard requires.
+          </Text>
+        </>
+      ) : null}
+
+      {hasEnvelope ? (
+        <>
+          <SectionTitle>Against the design envelope</SectionTitle>
+          <EnvelopeTable items={result.envelope} system={system} />
+        </>
+      ) : null}
+
+      <SectionTitle>Assumptions</SectionTitle>
+      <View style={styles.assumptions}>
+        {ENGINE_ASSUMPTIONS.map((a) => (
+          <Text key={a} variant="small" muted>
+            • {a}
+          </Text>
+        ))}
+      </View>
+      <Caution />
+    </View>
+  );
+}
+
+const fmtG = (v: number) => `${v.toFixed(2)} g`;
+
+function wrapAngle(rad: number): number {
+  const full = 2 * Math.PI;
+  return ((rad % full) + full) % full;
+}
+
+/** x (deg or s) and y (display unit) for one joint; angle plots are sorted so the line reads left to right. */
+function chartPoints(
+  result: CycleResult,
+  joint: number,
+  xAxis: 'angle' | 'time',
+  toUnit: (v: number) => number,
+) {
+  const mag = result.joints[joint].forceMagnitudeN;
+  const n = mag.length;
+  if (xAxis === 'time') return { x: Array.from(result.timeS), y: Array.from(mag, toUnit) };
+  const arm = result.joints[0].angleRad;
+  const pts = Array.from({ length: n }, (_, k) => [(wrapAngle(arm[k]) * 180) / Math.PI, toUnit(mag[k])]);
+  pts.sort((a, b) => a[0] - b[0]);
+  return { x: pts.map((p) => p[0]), y: pts.map((p) => p[1]) };
+}
+
+const styles = StyleSheet.create({
+  root: { gap: space.lg },
+  headline: { gap: space.sm },
+  charts: { gap: space.md },
+  chartsWide: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  chartCardWide: { flexBasis: 460, flexGrow: 1 },
+  assumptions: { gap: 2 },
+});
