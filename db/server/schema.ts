@@ -1,9 +1,11 @@
 import { randomUUID } from 'node:crypto';
 
 import { sql } from 'drizzle-orm';
-import { check, index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 import { roles } from '@/features/auth/schema';
+import type { DesignData } from '@/features/registry/design-data';
+import { designOrigins } from '@/features/registry/schema';
 
 /*
  * The server's tables. Timestamps are ISO 8601 UTC strings so they read the same in SQL, JSON and logs.
@@ -139,8 +141,42 @@ export const rides = sqliteTable(
   ],
 );
 
+/**
+ * A ride's design data, one row per version. Rows are only ever inserted: inspections and analyses name
+ * the version they used, so an old result can be reproduced from the data it was computed with. The
+ * current design data is the ride's highest version.
+ */
+export const designVersions = sqliteTable(
+  'design_versions',
+  {
+    id: id(),
+    rideId: text('ride_id')
+      .notNull()
+      .references(() => rides.id, { onDelete: 'restrict' }),
+    /** 1, 2, 3… per ride. */
+    version: integer('version').notNull(),
+    /** The whole DesignData object (features/registry/design-data.ts), validated before it is stored. */
+    data: text('data', { mode: 'json' }).$type<DesignData>().notNull(),
+    /** Why this version was made ("maker's revision D of the design report", "pin replaced by 150 mm"). */
+    reason: text('reason').notNull(),
+    /** How it came in: typed in the app, imported from a file, or the demo seed. */
+    origin: text('origin', { enum: designOrigins }).notNull(),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check('design_versions_origin_check', oneOf(t.origin, designOrigins)),
+    check('design_versions_version_check', sql`${col(t.version)} >= 1`),
+    // Also the index for "latest version of this ride".
+    uniqueIndex('design_versions_ride_version_idx').on(t.rideId, t.version),
+  ],
+);
+
 export type Company = typeof companies.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type NewUser = typeof users.$inferInsert;
 export type Site = typeof sites.$inferSelect;
 export type Ride = typeof rides.$inferSelect;
+export type DesignVersion = typeof designVersions.$inferSelect;

@@ -1,7 +1,8 @@
-import { count } from 'drizzle-orm';
+import { count, eq, inArray } from 'drizzle-orm';
 
 import {
   companies,
+  designVersions,
   rides,
   sites,
   users,
@@ -14,6 +15,7 @@ import { hashPassword } from '@/server/auth/password';
 import { assertUserCompany } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
+import { demoDesigns } from '@/server/seed/demo-design';
 
 /*
  * An invented scenario for trying Pivotwatch out: one inspection body, three ride owners and their rides.
@@ -179,14 +181,21 @@ export const demoUsers: { email: string; name: string; role: Role; company: Oper
 
 export type SeedResult = 'seeded' | 'skipped_existing_users' | 'skipped_production';
 
+/** The demo account the seeded records name as their author. */
+export const demoAuthorEmail = 'admin@pivotwatch.test';
+
 /**
  * Seeds the demo scenario into a database that has no users yet, in one transaction. Does nothing (and says
  * why) when users exist or when running in production, where demo accounts with a published password
- * would be an open door.
+ * would be an open door. A demo database seeded by an earlier release gets the parts added since (design
+ * data…) through `topUpDemoData`, which only fills what is missing.
  */
 export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Promise<SeedResult> {
   if (config.nodeEnv === 'production') return 'skipped_production';
-  if (countUsers(db) > 0) return 'skipped_existing_users';
+  if (countUsers(db) > 0) {
+    topUpDemoData(db);
+    return 'skipped_existing_users';
+  }
 
   // bcrypt is async and slow; hash before the (synchronous) transaction so it holds the lock briefly.
   const hashes = await Promise.all(demoUsers.map(() => hashPassword(demoPassword)));
@@ -254,7 +263,44 @@ export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Pro
         })
         .run();
     });
+    topUpDemoData(tx);
     return 'seeded' as const;
+  });
+}
+
+/**
+ * Adds the demo records that belong to demo rides but are missing: version 1 of the design data of each
+ * demo ride (found by serial) that has no design data at all. Design versions are never deleted, so a
+ * demo ride without any never had one and filling it changes nothing anyone entered. Safe to run again.
+ */
+export function topUpDemoData(db: Pick<Db, 'select' | 'insert' | 'transaction'>): void {
+  db.transaction((tx) => {
+    const author = tx.select({ id: users.id }).from(users).where(eq(users.email, demoAuthorEmail)).get();
+    if (!author) return;
+    const demoRideRows = tx
+      .select({ id: rides.id, serial: rides.serial })
+      .from(rides)
+      .where(inArray(rides.serial, Object.keys(demoDesigns)))
+      .all();
+    for (const ride of demoRideRows) {
+      const data = ride.serial === null ? undefined : demoDesigns[ride.serial];
+      const has = tx
+        .select({ n: count() })
+        .from(designVersions)
+        .where(eq(designVersions.rideId, ride.id))
+        .get();
+      if (!data || (has?.n ?? 0) > 0) continue;
+      tx.insert(designVersions)
+        .values({
+          rideId: ride.id,
+          version: 1,
+          data,
+          reason: `Design data entered from ${data.source.document}, revision ${data.source.revision}.`,
+          origin: 'seed',
+          createdBy: author.id,
+        })
+        .run();
+    }
   });
 }
 
