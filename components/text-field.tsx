@@ -56,6 +56,14 @@ const styles = StyleSheet.create({
     paddingHorizontal: space.md,
   },
   boxError: { borderColor: colors.danger },
-  input: { flex: 1, fontFamily: fonts.regular, fontSize: 16, color: colors.text, paddingVertical: space.sm },
+  // minWidth 0 lets the input shrink on web, where it has an intrinsic width, so the unit stays inside.
+  input: {
+    flex: 1,
+    minWidth: 0,
+    fontFamily: fonts.regular,
+    fontSize: 16,
+    color: colors.text,
+    paddingVertical: space.sm,
+  },
   unit: { marginLeft: space.sm },
 });

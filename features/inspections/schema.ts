@@ -1,0 +1,133 @@
+/**
+ * An inspection as the phone records it and the server stores it. Client-generated UUIDs make every
+ * record idempotent: re-sending the same record never creates a second one. Values are SI; `unit`
+ * keeps the unit the inspector typed in, for the record.
+ */
+import { z } from 'zod';
+
+const uuid = () => z.uuid({ error: 'Must be a UUID' });
+const isoTime = () => z.iso.datetime({ offset: true, error: 'Must be an ISO date-time' });
+const num = () =>
+  z.number({ error: (i) => (i.input === undefined ? 'Required' : 'Must be a finite number') });
+
+export const inspectionTypes = ['daily', 'periodic', 'annual', 'setup', 'follow_up'] as const;
+export const inspectionTypeSchema = z.enum(inspectionTypes);
+export type InspectionType = z.infer<typeof inspectionTypeSchema>;
+export const inspectionTypeLabel: Record<InspectionType, string> = {
+  daily: 'Daily pre-opening',
+  periodic: 'Periodic',
+  annual: 'Annual',
+  setup: 'Set-up after assembly',
+  follow_up: 'Follow-up',
+};
+
+export const checkResults = ['pass', 'fail', 'na'] as const;
+export const checkResultSchema = z.enum(checkResults);
+export type CheckResult = z.infer<typeof checkResultSchema>;
+export const checkResultLabel: Record<CheckResult, string> = {
+  pass: 'Pass',
+  fail: 'Fail',
+  na: 'Not applicable',
+};
+
+/** One checklist item's answer; the item's text is copied so the record reads on its own later. */
+export const checklistAnswerSchema = z.object({
+  itemId: z.string().min(1).max(80),
+  area: z.string().max(120),
+  text: z.string().min(1).max(500),
+  result: checkResultSchema.nullable(),
+  note: z.string().max(2000).optional(),
+});
+export type ChecklistAnswer = z.infer<typeof checklistAnswerSchema>;
+
+export const readingKinds = ['speed', 'period', 'amplitude', 'pin_diameter', 'clearance', 'other'] as const;
+export const readingKindSchema = z.enum(readingKinds);
+export type ReadingKind = z.infer<typeof readingKindSchema>;
+
+export const readingMethods = [
+  'typed',
+  'tap_timer',
+  'stopwatch',
+  'tachometer',
+  'micrometer',
+  'dial_indicator',
+  'gauge',
+  'other',
+] as const;
+
+/**
+ * One measured value. SI by kind: speed rad/s, period s, amplitude rad, diameter and clearance m.
+ * `joint` ties it to a pivot (0 = the ground pivot) where it belongs to one.
+ */
+export const readingSchema = z.object({
+  id: uuid(),
+  kind: readingKindSchema,
+  joint: z.int().min(0).max(9).nullable(),
+  label: z.string().trim().min(1).max(120),
+  valueSI: num(),
+  unit: z.string().max(20),
+  method: z.enum(readingMethods),
+  /** Spread of the measurement (same unit as valueSI), e.g. a tap timer's standard deviation. */
+  spreadSI: num().min(0).nullable().optional(),
+  takenAt: isoTime(),
+  note: z.string().max(2000).optional(),
+});
+export type Reading = z.infer<typeof readingSchema>;
+
+/** A photo's record; its bytes travel separately, addressed by their SHA-256. */
+export const photoRefSchema = z.object({
+  id: uuid(),
+  sha256: z.string().regex(/^[0-9a-f]{64}$/, 'Must be a lower-case hex SHA-256'),
+  mime: z.enum(['image/jpeg', 'image/png', 'image/webp']),
+  bytes: z.int().positive(),
+  caption: z.string().max(500),
+  joint: z.int().min(0).max(9).nullable(),
+  checklistItemId: z.string().max(80).nullable(),
+  takenAt: isoTime(),
+});
+export type PhotoRef = z.infer<typeof photoRefSchema>;
+
+/** What the phone computed before submitting, so the server can say where its own analysis differs. */
+export const devicePreviewSchema = z.object({
+  engineVersion: z.string().max(20),
+  status: z.enum(['within', 'near', 'over']).nullable(),
+  peakForceN: z.array(num()).max(10),
+});
+export type DevicePreview = z.infer<typeof devicePreviewSchema>;
+
+/** A submitted inspection. Immutable once accepted; a correction is a new record with `amendsId`. */
+export const inspectionRecordSchema = z.object({
+  id: uuid(),
+  rideId: z.string().min(1),
+  /** The design-data version the inspector's phone held; the server analyses against it. */
+  designVersionId: z.string().min(1).nullable(),
+  type: inspectionTypeSchema,
+  startedAt: isoTime(),
+  submittedAt: isoTime(),
+  checklist: z.array(checklistAnswerSchema).max(500),
+  readings: z.array(readingSchema).max(500),
+  photos: z.array(photoRefSchema).max(100),
+  notes: z.string().max(10_000).optional(),
+  preview: devicePreviewSchema.nullable(),
+  amendsId: uuid().nullable().optional(),
+});
+export type InspectionRecord = z.infer<typeof inspectionRecordSchema>;
+
+/** POST /api/sync/push: a batch of records with a key that makes re-sending the batch harmless. */
+export const pushBatchSchema = z.object({
+  batchId: uuid(),
+  records: z.array(z.unknown()).min(1).max(200),
+});
+
+/** Per-record outcome: accepted (new or already had), or rejected with reasons naming fields. */
+export const pushResultSchema = z.object({
+  batchId: z.string(),
+  results: z.array(
+    z.object({
+      id: z.string().nullable(),
+      status: z.enum(['accepted', 'duplicate', 'rejected']),
+      issues: z.array(z.object({ path: z.string(), message: z.string() })).optional(),
+    }),
+  ),
+});
+export type PushResult = z.infer<typeof pushResultSchema>;
