@@ -9,4 +9,8 @@ export type ApiDeps = {
   logger: Logger;
   /** Failed sign-ins allowed per IP and window; defaults to 10 per 15 minutes. */
   signInLimit?: { windowMs: number; max: number };
+  /** The clock for due dates and timestamps; tests pin it. Defaults to the system clock. */
+  now?: () => Date;
 };
+
+export const nowOf = (deps: Pick<ApiDeps, 'now'>): Date => deps.now?.() ?? new Date();

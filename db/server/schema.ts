@@ -5,7 +5,7 @@ import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-o
 
 import { roles } from '@/features/auth/schema';
 import type { DesignData } from '@/features/registry/design-data';
-import { designOrigins } from '@/features/registry/schema';
+import { auditActions, auditEntities, designOrigins, type CompanyContact } from '@/features/registry/schema';
 
 /*
  * The server's tables. Timestamps are ISO 8601 UTC strings so they read the same in SQL, JSON and logs.
@@ -55,9 +55,16 @@ export const companies = sqliteTable(
       .notNull()
       .default(sql`'[]'`),
     phone: text('phone'),
+    /** Postal address, one string with line breaks as written. */
+    address: text('address'),
+    /** People to talk to: a JSON array of { name, role?, email?, phone? }. */
+    contacts: text('contacts', { mode: 'json' })
+      .$type<CompanyContact[]>()
+      .notNull()
+      .default(sql`'[]'`),
     createdAt: createdAt(),
   },
-  (t) => [check('companies_kind_check', oneOf(t.kind, companyKinds))],
+  (t) => [check('companies_kind_check', oneOf(t.kind, companyKinds)), index('companies_name_idx').on(t.name)],
 );
 
 export const users = sqliteTable(
@@ -101,6 +108,7 @@ export const sites = sqliteTable(
   (t) => [
     check('sites_kind_check', oneOf(t.kind, siteKinds)),
     index('sites_operator_company_idx').on(t.operatorCompanyId),
+    index('sites_name_idx').on(t.name),
   ],
 );
 
@@ -138,6 +146,10 @@ export const rides = sqliteTable(
     ),
     index('rides_operator_company_idx').on(t.operatorCompanyId),
     index('rides_site_idx').on(t.siteId),
+    // The register's sorts and filters.
+    index('rides_name_idx').on(t.name),
+    index('rides_status_idx').on(t.status, t.name),
+    index('rides_class_idx').on(t.rideClass, t.name),
   ],
 );
 
@@ -171,6 +183,40 @@ export const designVersions = sqliteTable(
     check('design_versions_version_check', sql`${col(t.version)} >= 1`),
     // Also the index for "latest version of this ride".
     uniqueIndex('design_versions_ride_version_idx').on(t.rideId, t.version),
+  ],
+);
+
+/**
+ * Every create, update and delete on the register, design data, checklist templates and schedules: who,
+ * when, what, and the record before and after (JSON; null before a create and after a delete). Rows are
+ * only ever inserted, in the same transaction as the change they describe.
+ */
+export const auditLog = sqliteTable(
+  'audit_log',
+  {
+    id: id(),
+    at: text('at')
+      .notNull()
+      .$defaultFn(() => new Date().toISOString()),
+    /** Null only for changes made by the system itself (none yet: the demo seed writes no entries). */
+    userId: text('user_id').references(() => users.id, { onDelete: 'restrict' }),
+    entity: text('entity', { enum: auditEntities }).notNull(),
+    entityId: text('entity_id').notNull(),
+    action: text('action', { enum: auditActions }).notNull(),
+    /** The ride a change belongs to (a ride, its design data, its schedules), for the ride's history. */
+    rideId: text('ride_id'),
+    /** One line for lists ("Skylark: design data version 3"). */
+    summary: text('summary').notNull(),
+    before: text('before', { mode: 'json' }).$type<unknown>(),
+    after: text('after', { mode: 'json' }).$type<unknown>(),
+  },
+  (t) => [
+    check('audit_log_entity_check', oneOf(t.entity, auditEntities)),
+    check('audit_log_action_check', oneOf(t.action, auditActions)),
+    index('audit_log_at_idx').on(t.at),
+    index('audit_log_entity_idx').on(t.entity, t.entityId, t.at),
+    index('audit_log_ride_idx').on(t.rideId, t.at),
+    index('audit_log_user_idx').on(t.userId, t.at),
   ],
 );
 

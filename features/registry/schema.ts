@@ -1,26 +1,290 @@
 /**
- * Request and response shapes of the ride register API (rides, design data and its versions), shared by
- * the server's validation and the app's forms and API client. Pure zod: no React.
+ * Request and response shapes of the ride register API (operator companies, sites, rides, design data and
+ * its versions, audit entries), shared by the server's validation and the app's forms and API client.
+ * Pure zod: no React. Nullable text fields take a string or null; an empty string counts as null. In an
+ * update (PATCH) a field left out stays as it is, and null clears it.
  */
 import { z } from 'zod';
 
 import { designDataSchema } from '@/features/registry/design-data';
-import { rideSummarySchema } from '@/features/rides/schema';
+import {
+  rideClasses,
+  rideClassSchema,
+  rideStatuses,
+  rideStatusSchema,
+  rideSummarySchema,
+} from '@/features/rides/schema';
+
+// ——— small field builders ———
+
+const requiredText = (max: number) =>
+  z.string({ error: 'Required' }).trim().min(1, 'Required').max(max, `At most ${max} characters`);
+
+/** Optional text that may also be cleared: '' and null both store null. */
+const nullableText = (max: number) =>
+  z
+    .union([z.string().trim().max(max, `At most ${max} characters`), z.null()], {
+      error: 'Must be text or null',
+    })
+    .transform((v) => (v === '' ? null : v));
+
+const email = () =>
+  z
+    .string({ error: 'Required' })
+    .trim()
+    .toLowerCase()
+    .pipe(z.email({ error: 'Must be an e-mail address' }));
+
+const id = () => requiredText(64);
+
+/** An ISO 8601 timestamp, stored as given in UTC. */
+const timestamp = () =>
+  z
+    .string({ error: 'Required' })
+    .trim()
+    .refine(
+      (v) => /^\d{4}-\d{2}-\d{2}(T[\d:.]+(Z|[+-]\d{2}:?\d{2})?)?$/.test(v) && !Number.isNaN(Date.parse(v)),
+      {
+        message: 'Must be a date or date-time, e.g. 2025-05-01 or 2025-05-01T08:30:00Z',
+      },
+    )
+    .transform((v) => new Date(v).toISOString());
+
+/** Page and size for every paged list; pages count from 1. */
+export const pagingQuerySchema = z.object({
+  page: z.coerce.number({ error: 'Must be a whole number' }).int('Must be a whole number').min(1).default(1),
+  pageSize: z.coerce
+    .number({ error: 'Must be a whole number' })
+    .int('Must be a whole number')
+    .min(1)
+    .max(200, 'At most 200')
+    .default(50),
+});
+export const pageSchema = z.object({
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+
+/** `?sort=name` or `?sort=-name` (descending) from a fixed list of keys. */
+export function sortQuery<const K extends string>(keys: readonly K[]) {
+  const values = [...keys, ...keys.map((k) => `-${k}` as const)] as [K | `-${K}`, ...(K | `-${K}`)[]];
+  return z.enum(values, {
+    error: `One of ${keys.join(', ')}, each optionally with a leading - (descending)`,
+  });
+}
+
+/** A free-text search term; blank counts as none. */
+export const searchQuery = () =>
+  z
+    .string()
+    .trim()
+    .max(100, 'At most 100 characters')
+    .optional()
+    .transform((v) => (v ? v : undefined));
+
+// ——— operator companies ———
+
+export const companyContactSchema = z.object({
+  name: requiredText(80),
+  role: nullableText(80).optional(),
+  email: z
+    .union([email(), z.literal(''), z.null()])
+    .optional()
+    .transform((v) => (v ? v : null)),
+  phone: nullableText(40).optional(),
+});
+
+/** A contact as stored and returned: every field present, null when not given. */
+export const storedContactSchema = z.object({
+  name: z.string(),
+  role: z.string().nullable(),
+  email: z.string().nullable(),
+  phone: z.string().nullable(),
+});
+export type CompanyContact = z.infer<typeof storedContactSchema>;
+
+/** POST /api/companies (always an operator company); PATCH takes any subset. */
+export const companyInputSchema = z.object({
+  name: requiredText(120),
+  /** Where notices go. */
+  noticeEmails: z.array(email()).max(20, 'At most 20 addresses').optional(),
+  phone: nullableText(40).optional(),
+  address: nullableText(300).optional(),
+  contacts: z.array(companyContactSchema).max(30, 'At most 30 contacts').optional(),
+});
+export type CompanyInput = z.output<typeof companyInputSchema>;
+export const companyPatchSchema = companyInputSchema.partial();
+
+export const companySchema = z.object({
+  id: z.string(),
+  kind: z.enum(['inspection_body', 'operator']),
+  name: z.string(),
+  noticeEmails: z.array(z.string()),
+  phone: z.string().nullable(),
+  address: z.string().nullable(),
+  contacts: z.array(storedContactSchema),
+  createdAt: z.string(),
+  siteCount: z.number().int(),
+  rideCount: z.number().int(),
+});
+export type Company = z.infer<typeof companySchema>;
+
+export const companySortKeys = ['name', 'createdAt'] as const;
+export const companyListQuerySchema = pagingQuerySchema.extend({
+  q: searchQuery(),
+  sort: sortQuery(companySortKeys).optional(),
+});
+export const companyListResponseSchema = pageSchema.extend({ companies: z.array(companySchema) });
+export const companyResponseSchema = z.object({ company: companySchema });
+
+// ——— sites ———
+
+export const siteKinds = ['park', 'fairground', 'travelling_setup'] as const;
+export const siteKindSchema = z.enum(siteKinds, { error: `One of ${siteKinds.join(', ')}` });
+export const siteKindLabel: Record<(typeof siteKinds)[number], string> = {
+  park: 'Park',
+  fairground: 'Fairground',
+  travelling_setup: 'Travelling set-up',
+};
+
+export const siteInputSchema = z.object({
+  name: requiredText(120),
+  kind: siteKindSchema,
+  address: nullableText(300).optional(),
+  locality: nullableText(120).optional(),
+  operatorCompanyId: id(),
+});
+export type SiteInput = z.output<typeof siteInputSchema>;
+export const sitePatchSchema = siteInputSchema.partial();
+
+export const siteSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  kind: siteKindSchema,
+  address: z.string().nullable(),
+  locality: z.string().nullable(),
+  operatorCompanyId: z.string(),
+  operatorName: z.string(),
+  createdAt: z.string(),
+  rideCount: z.number().int(),
+});
+export type Site = z.infer<typeof siteSchema>;
+
+export const siteSortKeys = ['name', 'kind', 'operator', 'locality'] as const;
+export const siteListQuerySchema = pagingQuerySchema.extend({
+  q: searchQuery(),
+  operatorId: z.string().trim().min(1).optional(),
+  kind: siteKindSchema.optional(),
+  sort: sortQuery(siteSortKeys).optional(),
+});
+export const siteListResponseSchema = pageSchema.extend({ sites: z.array(siteSchema) });
+export const siteResponseSchema = z.object({ site: siteSchema });
+
+// ——— rides ———
+
+const year = () =>
+  z
+    .number({ error: 'Must be a year' })
+    .int('Must be a year')
+    .min(1850, 'Must be 1850 or later')
+    .max(2100, 'Must be 2100 or earlier');
+
+/**
+ * POST /api/rides. A ride that is restricted or out of service must say why (the operator's notice would
+ * be empty otherwise); in service clears the reason. `statusSince` defaults to now when the status is set
+ * or changed.
+ */
+export const rideInputSchema = z.object({
+  name: requiredText(80),
+  rideClass: rideClassSchema,
+  description: nullableText(200).optional(),
+  maker: nullableText(120).optional(),
+  model: nullableText(80).optional(),
+  serial: nullableText(80).optional(),
+  year: year().nullable().optional(),
+  siteId: z.union([id(), z.null()]).optional(),
+  operatorCompanyId: id(),
+  status: rideStatusSchema.optional(),
+  statusReason: nullableText(500).optional(),
+  statusSince: timestamp().optional(),
+});
+export type RideInput = z.output<typeof rideInputSchema>;
+/** PATCH /api/rides/:id: any subset; the status rule is checked on the ride as it would become. */
+export const ridePatchSchema = rideInputSchema.partial();
+export type RidePatch = z.output<typeof ridePatchSchema>;
+
+export const rideResponseSchema = z.object({ ride: rideSummarySchema });
+
+/** Several values of one filter, as `?status=a,b` or `?status=a&status=b`. */
+function listOf<const T extends string>(values: readonly T[]) {
+  const one = z.enum(values as [T, ...T[]], { error: `One of ${values.join(', ')}` });
+  return z.preprocess(
+    (v) => (Array.isArray(v) ? v.join(',') : v),
+    z
+      .string()
+      .transform((v) =>
+        v
+          .split(',')
+          .map((s) => s.trim())
+          .filter(Boolean),
+      )
+      .pipe(z.array(one)),
+  );
+}
+
+export const rideSortKeys = [
+  'name',
+  'status',
+  'rideClass',
+  'operator',
+  'site',
+  'maker',
+  'year',
+  'statusSince',
+] as const;
+export type RideSortKey = (typeof rideSortKeys)[number];
+
+/**
+ * `GET /api/rides` query. Without `sort` the list comes by operator, then name. `q` searches name, maker,
+ * model, serial, site and operator.
+ */
+export const rideListQuerySchema = pagingQuerySchema.extend({
+  q: searchQuery(),
+  status: listOf(rideStatuses).optional(),
+  rideClass: listOf(rideClasses).optional(),
+  siteId: z.string().trim().min(1).optional(),
+  operatorId: z.string().trim().min(1).optional(),
+  sort: sortQuery(rideSortKeys).optional(),
+});
+export type RideListQuery = z.output<typeof rideListQuerySchema>;
+
+/** `GET /api/rides`: `rides` keeps the list item shape of `rideListResponseSchema`, plus the page. */
+export const rideListPageSchema = pageSchema.extend({ rides: z.array(rideSummarySchema) });
+export type RideListPage = z.infer<typeof rideListPageSchema>;
+
+export const idParamsSchema = z.object({ id: id() });
+export const rideIdParamsSchema = idParamsSchema;
+
+// ——— design data ———
 
 export const designOrigins = ['editor', 'import_csv', 'import_json', 'seed'] as const;
 export const designOriginSchema = z.enum(designOrigins);
 export type DesignOrigin = z.infer<typeof designOriginSchema>;
 
-/** One stored version of a ride's design data: who made it, when and why. Versions never change. */
-export const designVersionSchema = z.object({
+/** A version without its data, for version lists. */
+export const designVersionInfoSchema = z.object({
   id: z.string(),
   version: z.number().int().min(1),
   createdAt: z.string(),
   createdByName: z.string(),
   reason: z.string(),
   origin: designOriginSchema,
-  data: designDataSchema,
 });
+export type DesignVersionInfo = z.infer<typeof designVersionInfoSchema>;
+
+/** One stored version of a ride's design data: who made it, when and why. Versions never change. */
+export const designVersionSchema = designVersionInfoSchema.extend({ data: designDataSchema });
 export type DesignVersion = z.infer<typeof designVersionSchema>;
 
 /**
@@ -33,4 +297,33 @@ export const rideDetailResponseSchema = z.object({
 });
 export type RideDetailResponse = z.infer<typeof rideDetailResponseSchema>;
 
-export const rideIdParamsSchema = z.object({ id: z.string().trim().min(1, 'Required').max(64) });
+/** A reason for a change, kept with the version it makes. */
+export const changeReasonSchema = requiredText(500);
+
+/**
+ * PUT /api/rides/:id/design: a new version. `basedOnVersion` (the version the editor started from) turns
+ * a concurrent edit into a 409 instead of silently replacing someone else's version; 0 means "no design
+ * data yet".
+ */
+export const designPutBodySchema = z.object({
+  reason: changeReasonSchema,
+  data: designDataSchema,
+  basedOnVersion: z.number().int().min(0).optional(),
+});
+export type DesignPutBody = z.output<typeof designPutBodySchema>;
+
+export const designResponseSchema = z.object({ design: designVersionSchema });
+export const designVersionListResponseSchema = z.object({ versions: z.array(designVersionInfoSchema) });
+export const designVersionParamsSchema = z.object({
+  id: id(),
+  version: z.coerce.number({ error: 'Must be a whole number' }).int('Must be a whole number').min(1),
+});
+
+// ——— audit log ———
+
+export const auditEntities = ['company', 'site', 'ride', 'design', 'checklist_template', 'schedule'] as const;
+export const auditEntitySchema = z.enum(auditEntities);
+export type AuditEntity = z.infer<typeof auditEntitySchema>;
+export const auditActions = ['create', 'update', 'delete'] as const;
+export const auditActionSchema = z.enum(auditActions);
+export type AuditAction = z.infer<typeof auditActionSchema>;

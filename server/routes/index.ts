@@ -5,6 +5,7 @@ import type { ApiDeps } from '@/server/deps';
 import { apiNotFound } from '@/server/http/errors';
 import { adminUsersRouter } from '@/server/routes/admin-users';
 import { loadsRouter } from '@/server/routes/loads';
+import { registerRouter } from '@/server/routes/register';
 import { ridesRouter } from '@/server/routes/rides';
 
 /** Everything under `/api`. Anything it doesn't know ends in a JSON 404 here, never in the web app. */
@@ -15,6 +16,7 @@ export function apiRouter(deps: ApiDeps): Router {
   });
   router.use(authRouter(deps));
   router.use(ridesRouter(deps));
+  router.use(registerRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(apiNotFound);

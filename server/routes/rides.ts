@@ -1,85 +1,74 @@
-import { and, asc, eq } from 'drizzle-orm';
 import { Router } from 'express';
 
-import { companies, rides, sites } from '@/db/server/schema';
-import type { RideDetailResponse } from '@/features/registry/schema';
-import { rideIdParamsSchema } from '@/features/registry/schema';
+import {
+  idParamsSchema,
+  rideInputSchema,
+  rideListQuerySchema,
+  ridePatchSchema,
+  type RideDetailResponse,
+  type RideListPage,
+} from '@/features/registry/schema';
 import { companyScope } from '@/server/auth/scope';
-import type { Db } from '@/server/db';
-import type { ApiDeps } from '@/server/deps';
-import { notFound } from '@/server/http/errors';
-import { currentUser, requireAuth } from '@/server/http/require-auth';
+import { nowOf, type ApiDeps } from '@/server/deps';
+import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
 import { validate } from '@/server/http/validate';
 import { findDesignVersion } from '@/server/registry/design';
+import { createRide, deleteRide, listRides, mustFindRide, updateRide } from '@/server/registry/rides';
 
-const rideListColumns = {
-  id: rides.id,
-  name: rides.name,
-  rideClass: rides.rideClass,
-  description: rides.description,
-  maker: rides.maker,
-  model: rides.model,
-  serial: rides.serial,
-  year: rides.year,
-  status: rides.status,
-  statusReason: rides.statusReason,
-  statusSince: rides.statusSince,
-  siteId: rides.siteId,
-  siteName: sites.name,
-  operatorCompanyId: rides.operatorCompanyId,
-  operatorName: companies.name,
-};
-
-function rideQuery(db: Pick<Db, 'select'>) {
-  return db
-    .select(rideListColumns)
-    .from(rides)
-    .innerJoin(companies, eq(companies.id, rides.operatorCompanyId))
-    .leftJoin(sites, eq(sites.id, rides.siteId));
-}
-
-/** Rides with their site and operator names; limited to one operator company when `scope` is set. */
-export function listRides(db: Db, scope: string | null) {
-  const query = rideQuery(db);
-  return (scope === null ? query : query.where(eq(rides.operatorCompanyId, scope)))
-    .orderBy(asc(companies.name), asc(rides.name))
-    .all();
-}
-
-export type RideListItem = ReturnType<typeof listRides>[number];
+const listInput = validate({ query: rideListQuerySchema });
+const oneRide = validate({ params: idParamsSchema });
+const createInput = validate({ body: rideInputSchema });
+const patchInput = validate({ params: idParamsSchema, body: ridePatchSchema });
 
 /**
- * One ride in the list shape, or null when it does not exist or lies outside `scope`: the caller answers
- * both with the same 404, so an operator cannot learn that another company's ride exists.
- */
-export function findRide(db: Pick<Db, 'select'>, id: string, scope: string | null): RideListItem | null {
-  const row = rideQuery(db)
-    .where(scope === null ? eq(rides.id, id) : and(eq(rides.id, id), eq(rides.operatorCompanyId, scope)))
-    .get();
-  return row ?? null;
-}
-
-const rideParams = validate({ params: rideIdParamsSchema });
-
-/**
- * `GET /rides` → `{ rides: RideListItem[] }`: operators get their own company's rides, staff all.
- * `GET /rides/:id` → `{ ride, design }`: the ride and its current design data (null for operators, who
- * may not see design data, and for rides without any yet); 404 for unknown rides and other companies'.
+ * The rides of the register.
+ *
+ * - `GET /rides?q=&status=&rideClass=&siteId=&operatorId=&sort=&page=&pageSize=` → `{ rides, total, page,
+ *   pageSize }` (any role; operators only their own company's rides).
+ * - `GET /rides/:id` → `{ ride, design }`: the current design data, null for operators (who may not see
+ *   design data) and for rides without any; 404 for unknown rides and other companies'.
+ * - `POST /rides` (admin) → 201 `{ ride }`; `PATCH /rides/:id` (admin, supervisor) → `{ ride }`;
+ *   `DELETE /rides/:id` (admin) → 204, or 409 while design data or schedules refer to it.
  */
 export function ridesRouter(deps: ApiDeps): Router {
   const router = Router();
-  router.get('/rides', requireAuth(deps), (_req, res) => {
-    res.json({ rides: listRides(deps.db, companyScope(currentUser(res))) });
+  const auth = requireAuth(deps);
+
+  router.get('/rides', auth, listInput, (_req, res) => {
+    const page: RideListPage = listRides(deps.db, companyScope(currentUser(res)), listInput.query(res));
+    res.json(page);
   });
-  router.get('/rides/:id', requireAuth(deps), rideParams, (_req, res) => {
+
+  router.get('/rides/:id', auth, oneRide, (_req, res) => {
     const user = currentUser(res);
-    const ride = findRide(deps.db, rideParams.params(res).id, companyScope(user));
-    if (!ride) throw notFound('No such ride.');
+    const ride = mustFindRide(deps.db, oneRide.params(res).id, companyScope(user));
     const body: RideDetailResponse = {
       ride,
       design: user.role === 'operator' ? null : findDesignVersion(deps.db, ride.id),
     };
     res.json(body);
   });
+
+  router.post('/rides', auth, requireRole('admin'), createInput, (_req, res) => {
+    const ride = createRide(deps.db, currentUser(res).id, createInput.body(res), nowOf(deps));
+    res.status(201).json({ ride });
+  });
+
+  router.patch('/rides/:id', auth, requireRole('admin', 'supervisor'), patchInput, (_req, res) => {
+    const ride = updateRide(
+      deps.db,
+      currentUser(res).id,
+      patchInput.params(res).id,
+      patchInput.body(res),
+      nowOf(deps),
+    );
+    res.json({ ride });
+  });
+
+  router.delete('/rides/:id', auth, requireRole('admin'), oneRide, (_req, res) => {
+    deleteRide(deps.db, currentUser(res).id, oneRide.params(res).id);
+    res.status(204).end();
+  });
+
   return router;
 }

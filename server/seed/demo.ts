@@ -35,12 +35,42 @@ export const demoOperators = [
     name: 'Tamsworth Pier Leisure',
     noticeEmails: ['notices@tamsworth-pier.test'],
     phone: '+44 20 7946 0211',
+    address: 'Pier Offices, Pier Approach\nTamsworth',
+    contacts: [
+      {
+        name: 'Priya Castellan',
+        role: 'Rides manager',
+        email: 'operator@pivotwatch.test',
+        phone: '+44 20 7946 0212',
+      },
+      {
+        name: 'Dale Merriweather',
+        role: 'Chief engineer',
+        email: 'engineering@tamsworth-pier.test',
+        phone: null,
+      },
+    ],
   },
-  { name: 'Corvane Travelling Shows', noticeEmails: ['ops@corvane-shows.test'], phone: '+44 20 7946 0322' },
+  {
+    name: 'Corvane Travelling Shows',
+    noticeEmails: ['ops@corvane-shows.test'],
+    phone: '+44 20 7946 0322',
+    address: 'Winter quarters, Yard 4, Brackley Lane\nLowfield',
+    contacts: [
+      {
+        name: 'Owen Falgrave',
+        role: 'Show manager',
+        email: 'operator2@pivotwatch.test',
+        phone: '+44 20 7946 0323',
+      },
+    ],
+  },
   {
     name: 'Elmsridge Family Parks',
     noticeEmails: ['safety@elmsridge-parks.test'],
     phone: '+44 20 7946 0433',
+    address: null,
+    contacts: [],
   },
 ] as const;
 
@@ -217,6 +247,8 @@ export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Pro
           name: operator.name,
           noticeEmails: [...operator.noticeEmails],
           phone: operator.phone,
+          address: operator.address,
+          contacts: operator.contacts.map((c) => ({ ...c })),
         })
         .returning({ id: companies.id })
         .get();
