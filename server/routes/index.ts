@@ -4,6 +4,7 @@ import { authRouter } from '@/server/auth/router';
 import type { ApiDeps } from '@/server/deps';
 import { apiNotFound } from '@/server/http/errors';
 import { adminUsersRouter } from '@/server/routes/admin-users';
+import { designRouter } from '@/server/routes/design';
 import { loadsRouter } from '@/server/routes/loads';
 import { registerRouter } from '@/server/routes/register';
 import { ridesRouter } from '@/server/routes/rides';
@@ -17,6 +18,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(authRouter(deps));
   router.use(ridesRouter(deps));
   router.use(registerRouter(deps));
+  router.use(designRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(apiNotFound);
