@@ -179,7 +179,9 @@ describe('cycle envelope: every reading and result gets value, limit, ratio and 
   it('checks rider Gz per seat and rolls everything up into the worst status', () => {
     const gz = byId['seats.0.gz'];
     // Tip seat, head to the hub: Gz from (9·2 − 9.81)/g0 at the top to (9·2 + 9.81)/g0 at the bottom.
-    expect(gz.value).toBeCloseTo((18 + 9.81) / 9.80665, 9);
+    // Envelope items are SI (m/s²), like every quantity the engine reports; seat histories stay in g.
+    expect(gz.value).toBeCloseTo(18 + 9.81, 9);
+    expect(cycle.seats[0].extremes.gz.max).toBeCloseTo((18 + 9.81) / 9.80665, 9);
     expect(gz.status).toBe('near');
     expect(cycle.status).toBe('over');
     expect(cycle.envelope.every((e) => e.limit && Number.isFinite(e.ratio) && e.label.length > 0)).toBe(true);

@@ -446,11 +446,18 @@ function evaluateEnvelope(
         const lim = rider[axis];
         if (!lim || (lim.min === undefined && lim.max === undefined)) continue;
         const e = seat.extremes[axis];
+        // Seat histories and limits are in g; envelope items are SI like every other quantity.
+        const si = (v: number | undefined) => (v === undefined ? undefined : v * STANDARD_GRAVITY_MS2);
         add(
           `seats.${j}.${axis}`,
           `${seat.name}: rider ${axis === 'gx' ? 'Gx' : 'Gz'}`,
           'accel',
-          evaluateExtremes(e.min, e.max, { kind: 'range', min: lim.min, max: lim.max }, margin),
+          evaluateExtremes(
+            e.min * STANDARD_GRAVITY_MS2,
+            e.max * STANDARD_GRAVITY_MS2,
+            { kind: 'range', min: si(lim.min), max: si(lim.max) },
+            margin,
+          ),
         );
       }
     });
