@@ -28,18 +28,23 @@ export function DataTable<T>({
 }) {
   const wide = useWide();
   if (!wide) {
+    // Phone: the first column titles each card; the rest sit in a two-column grid beneath it.
+    const [first, ...rest] = columns;
     return (
       <View style={styles.cards} accessibilityLabel={label}>
         {rows.map((row) => (
-          <Card key={rowKey(row)}>
-            {columns.map((c) => (
-              <View key={c.key} style={styles.cardLine}>
-                <Text variant="label" muted style={styles.cardLabel}>
-                  {c.title.toUpperCase()}
-                </Text>
-                <Cell value={c.render(row)} numeric={c.numeric} />
-              </View>
-            ))}
+          <Card key={rowKey(row)} style={styles.card}>
+            <Cell value={first.render(row)} heading />
+            <View style={styles.cardGrid}>
+              {rest.map((c) => (
+                <View key={c.key} style={styles.cardLine}>
+                  <Text variant="label" muted style={styles.cardLabel}>
+                    {c.title.toUpperCase()}
+                  </Text>
+                  <Cell value={c.render(row)} numeric={c.numeric} inCard />
+                </View>
+              ))}
+            </View>
           </Card>
         ))}
       </View>
@@ -69,10 +74,23 @@ export function DataTable<T>({
   );
 }
 
-function Cell({ value, numeric }: { value: React.ReactNode; numeric?: boolean }) {
+function Cell({
+  value,
+  numeric,
+  heading,
+  inCard,
+}: {
+  value: React.ReactNode;
+  numeric?: boolean;
+  heading?: boolean;
+  inCard?: boolean;
+}) {
   if (typeof value === 'string' || typeof value === 'number') {
     return (
-      <Text variant={numeric ? 'figure' : 'body'} style={numeric ? styles.right : undefined}>
+      <Text
+        variant={heading ? 'heading' : numeric ? 'figure' : 'body'}
+        style={numeric && !inCard ? styles.right : undefined}
+      >
         {value}
       </Text>
     );
@@ -81,8 +99,10 @@ function Cell({ value, numeric }: { value: React.ReactNode; numeric?: boolean })
 }
 
 const styles = StyleSheet.create({
-  cards: { gap: space.md },
-  cardLine: { gap: 2 },
+  cards: { gap: space.sm },
+  card: { padding: space.md, gap: space.xs },
+  cardGrid: { flexDirection: 'row', flexWrap: 'wrap', rowGap: space.sm, columnGap: space.md },
+  cardLine: { gap: 2, flexBasis: '46%', flexGrow: 1 },
   cardLabel: { fontSize: 11 },
   table: {
     backgroundColor: colors.surface,

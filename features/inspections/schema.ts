@@ -37,6 +37,11 @@ export const checklistAnswerSchema = z.object({
   text: z.string().min(1).max(500),
   result: checkResultSchema.nullable(),
   note: z.string().max(2000).optional(),
+  /** For items that ask for a measurement: the value in SI and the unit it was typed in. */
+  measurement: z
+    .object({ valueSI: num(), unit: z.string().max(20) })
+    .nullable()
+    .optional(),
 });
 export type ChecklistAnswer = z.infer<typeof checklistAnswerSchema>;
 
@@ -101,6 +106,9 @@ export const inspectionRecordSchema = z.object({
   rideId: z.string().min(1),
   /** The design-data version the inspector's phone held; the server analyses against it. */
   designVersionId: z.string().min(1).nullable(),
+  /** The checklist template and version the answers belong to. */
+  templateId: z.string().min(1).nullable(),
+  templateVersion: z.int().min(1).nullable(),
   type: inspectionTypeSchema,
   startedAt: isoTime(),
   submittedAt: isoTime(),

@@ -1,0 +1,170 @@
+/**
+ * Readings → load check. Reference: uniform slender rod driven at constant speed in a vertical plane,
+ * peak pin force mg + m·ω²·L/2 (standard rigid-body result, e.g. Meriam & Kraige, Dynamics; from memory).
+ * Wear ratio convention (diameter lost / allowance) is common practice in pin wear limits.
+ */
+import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
+import { addReading, answerItem, draftProblems, newDraft, toRecord } from '@/features/inspections/draft';
+import type { Reading } from '@/features/inspections/schema';
+import type { DesignData } from '@/features/registry/design-data';
+import type { ChecklistTemplate } from '@/features/registry/schema';
+
+const g = 9.80665;
+const m = 300;
+const L = 6;
+
+const design: DesignData = {
+  source: { document: 'Test rod', revision: 'A' },
+  bodies: [{ name: 'Rod' }],
+  parts: [{ kind: 'rod', body: 0, name: 'Rod', massKg: m, fromM: [0, 0], toM: [L, 0] }],
+  pivots: [
+    {
+      joint: 0,
+      name: 'Main pivot',
+      shear: 'double',
+      bearingLengthM: 0.05,
+      nominalDiameterM: 0.06,
+      minimumDiameterM: 0.058,
+      maxClearanceM: 0.0005,
+      maxForceN: 20_000,
+    },
+  ],
+  seats: [],
+  motion: [{ joint: 0, kind: 'constant', rpm: 6, maxRateRadS: 2 }],
+  rider: {},
+};
+
+const reading = (patch: Partial<Reading>): Reading => ({
+  id: '5f0e6c1e-3b7a-4c55-9f59-0c8f2d3b9a11',
+  kind: 'speed',
+  joint: 0,
+  label: 'Main arm speed',
+  valueSI: 1,
+  unit: 'rpm',
+  method: 'typed',
+  takenAt: '2026-12-01T10:00:00Z',
+  ...patch,
+});
+
+const peakFor = (rpm: number) => {
+  const w = (rpm * 2 * Math.PI) / 60;
+  return m * g + (m * w * w * L) / 2;
+};
+
+test('without readings the design speed is analysed', () => {
+  const r = analyseInspection(design, [], 720);
+  expect(r.joints[0].peakForce.value).toBeCloseTo(peakFor(6), -1);
+});
+
+test('a measured speed replaces the design speed (textbook peak at the measured rpm)', () => {
+  const rpm = 12;
+  const r = analyseInspection(design, [reading({ valueSI: (rpm * 2 * Math.PI) / 60 })], 720);
+  expect(r.joints[0].peakForce.value).toBeLessThanOrEqual(peakFor(rpm) * (1 + 1e-9));
+  expect(r.joints[0].peakForce.value).toBeGreaterThan(peakFor(rpm) * (1 - 1e-4));
+});
+
+test('a timed period of one revolution gives the same result as the equivalent speed', () => {
+  const byPeriod = analyseInspection(design, [reading({ kind: 'period', valueSI: 5 })], 720);
+  const bySpeed = analyseInspection(design, [reading({ valueSI: (2 * Math.PI) / 5 })], 720);
+  expect(byPeriod.joints[0].peakForce.value).toBeCloseTo(bySpeed.joints[0].peakForce.value, 6);
+});
+
+test('a measured pin diameter is checked against the wear allowance', () => {
+  const r = analyseInspection(design, [
+    reading({
+      id: 'a7a3c9a4-0a7b-4a5e-8d0c-111111111111',
+      kind: 'pin_diameter',
+      valueSI: 0.0585,
+      unit: 'mm',
+    }),
+  ]);
+  const wear = r.envelope.find((e) => e.id === 'joints.0.pin.diameter');
+  // 1.5 mm lost of a 2 mm allowance: 75 % used.
+  expect(wear?.ratio).toBeCloseTo(0.75, 9);
+  expect(wear?.status).toBe('within');
+});
+
+test('the server finds no difference from an honest preview, and names a tampered one', () => {
+  const r = analyseInspection(design, []);
+  const p = previewOf(r);
+  expect(previewDifferences(p, p)).toEqual([]);
+  const tampered = { ...p, peakForceN: [p.peakForceN[0] * 0.5] };
+  expect(previewDifferences(tampered, p)[0]).toMatch(/Pivot 1 peak force/);
+  expect(previewDifferences(null, p)).toEqual(['The phone sent no preview.']);
+});
+
+const template: ChecklistTemplate = {
+  id: 'tpl-1',
+  name: 'Pendulum',
+  rideClass: 'pendulum_swing',
+  createdAt: '2026-01-01T00:00:00Z',
+  archivedAt: null,
+  currentVersion: 1,
+  updatedAt: '2026-01-01T00:00:00Z',
+  updatedByName: 'x',
+  areaCount: 1,
+  itemCount: 2,
+  version: {
+    version: 1,
+    createdAt: '2026-01-01T00:00:00Z',
+    createdByName: 'x',
+    reason: 'first',
+    content: {
+      areas: [
+        {
+          id: 'pins',
+          title: 'Pins and bushings',
+          items: [
+            {
+              id: 'pin-retainer',
+              text: 'Pin retainers in place',
+              guidance: null,
+              photoRequired: true,
+              measurementRequired: false,
+              measurementKind: null,
+              measurementLabel: null,
+            },
+            {
+              id: 'play',
+              text: 'No play at the main pivot',
+              guidance: null,
+              photoRequired: false,
+              measurementRequired: false,
+              measurementKind: null,
+              measurementLabel: null,
+            },
+          ],
+        },
+      ],
+    },
+  },
+};
+
+test('a draft cannot be submitted until every item is answered, failures explained and photos taken', () => {
+  const now = new Date('2026-12-01T09:00:00Z');
+  let d = newDraft({
+    id: '0b1f8d2e-7c6a-4f3b-9e2d-5a4c3b2a1f00',
+    ride: { id: 'r1', name: 'Rod' },
+    designVersionId: 'v1',
+    template,
+    type: 'daily',
+    now,
+  });
+  expect(draftProblems(d, template).map((p) => p.message)).toEqual([
+    'Not answered: Pin retainers in place',
+    'Needs a photo: Pin retainers in place',
+    'Not answered: No play at the main pivot',
+  ]);
+  d = answerItem(d, 'pin-retainer', { result: 'na' }, now);
+  d = answerItem(d, 'play', { result: 'fail' }, now);
+  expect(draftProblems(d, template).map((p) => p.message)).toEqual([
+    'Say what failed: No play at the main pivot',
+  ]);
+  d = answerItem(d, 'play', { note: 'Knock felt at reversal' }, now);
+  d = addReading(d, reading({}), now);
+  expect(draftProblems(d, template)).toEqual([]);
+  const record = toRecord(d, null, new Date('2026-12-01T09:30:00Z'));
+  expect(record.templateVersion).toBe(1);
+  expect(record.readings).toHaveLength(1);
+  expect(record.submittedAt).toBe('2026-12-01T09:30:00.000Z');
+});
