@@ -5,7 +5,13 @@ import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-o
 
 import { roles } from '@/features/auth/schema';
 import type { DesignData } from '@/features/registry/design-data';
-import { auditActions, auditEntities, designOrigins, type CompanyContact } from '@/features/registry/schema';
+import {
+  auditActions,
+  auditEntities,
+  designOrigins,
+  type ChecklistContent,
+  type CompanyContact,
+} from '@/features/registry/schema';
 
 /*
  * The server's tables. Timestamps are ISO 8601 UTC strings so they read the same in SQL, JSON and logs.
@@ -183,6 +189,47 @@ export const designVersions = sqliteTable(
     check('design_versions_version_check', sql`${col(t.version)} >= 1`),
     // Also the index for "latest version of this ride".
     uniqueIndex('design_versions_ride_version_idx').on(t.rideId, t.version),
+  ],
+);
+
+/**
+ * A checklist template for one ride class. Its areas and items live in versions, like design data, so an
+ * inspection can always show the checklist it was filled against. Deleting a template archives it.
+ */
+export const checklistTemplates = sqliteTable(
+  'checklist_templates',
+  {
+    id: id(),
+    name: text('name').notNull(),
+    rideClass: text('ride_class', { enum: rideClasses }).notNull(),
+    createdAt: createdAt(),
+    archivedAt: text('archived_at'),
+  },
+  (t) => [
+    check('checklist_templates_class_check', oneOf(t.rideClass, rideClasses)),
+    index('checklist_templates_class_idx').on(t.rideClass, t.name),
+  ],
+);
+
+export const checklistTemplateVersions = sqliteTable(
+  'checklist_template_versions',
+  {
+    id: id(),
+    templateId: text('template_id')
+      .notNull()
+      .references(() => checklistTemplates.id, { onDelete: 'restrict' }),
+    version: integer('version').notNull(),
+    /** Areas and items with their ids (features/registry/schema.ts, storedChecklistContentSchema). */
+    content: text('content', { mode: 'json' }).$type<ChecklistContent>().notNull(),
+    reason: text('reason').notNull(),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check('checklist_template_versions_version_check', sql`${col(t.version)} >= 1`),
+    uniqueIndex('checklist_template_versions_template_version_idx').on(t.templateId, t.version),
   ],
 );
 

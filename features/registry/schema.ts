@@ -7,6 +7,7 @@
 import { z } from 'zod';
 
 import { designDataSchema } from '@/features/registry/design-data';
+import type { QuantityKind } from '@/features/units';
 import {
   rideClasses,
   rideClassSchema,
@@ -327,3 +328,149 @@ export type AuditEntity = z.infer<typeof auditEntitySchema>;
 export const auditActions = ['create', 'update', 'delete'] as const;
 export const auditActionSchema = z.enum(auditActions);
 export type AuditAction = z.infer<typeof auditActionSchema>;
+
+// ——— checklist templates ———
+
+/**
+ * What a measurement item records. The unit kinds are those of `features/units` (stored in SI, shown in
+ * the user's units); `count` is a plain number with its own label (an hour meter, an insulation reading in
+ * MΩ), for quantities the unit module does not convert.
+ */
+export const measurementKinds = [
+  'lengthSmall',
+  'length',
+  'angle',
+  'rate',
+  'time',
+  'moment',
+  'force',
+  'mass',
+  'accel',
+  'pressure',
+  'frequency',
+  'count',
+] as const satisfies readonly (QuantityKind | 'count')[];
+export const measurementKindSchema = z.enum(measurementKinds, { error: `One of ${measurementKinds.join(', ')}` });
+export type MeasurementKind = z.infer<typeof measurementKindSchema>;
+
+const itemId = () =>
+  z
+    .string()
+    .trim()
+    .min(1)
+    .max(64)
+    .regex(/^[A-Za-z0-9_.-]+$/, 'Letters, digits, _ . - only');
+
+/**
+ * One checklist item. `id` stays the same across template versions, so inspections can say which item a
+ * finding belongs to; leave it out for a new item and the server assigns one.
+ */
+export const checklistItemSchema = z
+  .object({
+    id: itemId().optional(),
+    text: requiredText(300),
+    guidance: nullableText(1000).optional(),
+    photoRequired: z.boolean({ error: 'true or false' }).default(false),
+    measurementRequired: z.boolean({ error: 'true or false' }).default(false),
+    measurementKind: measurementKindSchema.nullable().optional(),
+    /** What to write beside the reading ("pin Ø, two stations × two directions", "MΩ"). */
+    measurementLabel: nullableText(120).optional(),
+  })
+  .superRefine((item, ctx) => {
+    if (item.measurementRequired && !item.measurementKind)
+      ctx.addIssue({ code: 'custom', path: ['measurementKind'], message: 'Say what kind of measurement' });
+  });
+
+export const checklistAreaSchema = z.object({
+  id: itemId().optional(),
+  title: requiredText(120),
+  items: z.array(checklistItemSchema).min(1, 'Give at least one item').max(100, 'At most 100 items'),
+});
+
+/** A template's areas and items, as one version stores them. Ids must be unique within the template. */
+export const checklistContentSchema = z
+  .object({
+    areas: z.array(checklistAreaSchema).min(1, 'Give at least one area').max(30, 'At most 30 areas'),
+  })
+  .superRefine((content, ctx) => {
+    const seen = new Set<string>();
+    const check = (id: string | undefined, path: (string | number)[]) => {
+      if (id === undefined) return;
+      if (seen.has(id)) ctx.addIssue({ code: 'custom', path, message: `Id ${id} is used twice` });
+      seen.add(id);
+    };
+    content.areas.forEach((area, a) => {
+      check(area.id, ['areas', a, 'id']);
+      area.items.forEach((item, i) => check(item.id, ['areas', a, 'items', i, 'id']));
+    });
+  });
+export type ChecklistContentInput = z.input<typeof checklistContentSchema>;
+
+/** Stored content: every area and item has its id and every optional field is present. */
+export const storedChecklistItemSchema = z.object({
+  id: z.string(),
+  text: z.string(),
+  guidance: z.string().nullable(),
+  photoRequired: z.boolean(),
+  measurementRequired: z.boolean(),
+  measurementKind: measurementKindSchema.nullable(),
+  measurementLabel: z.string().nullable(),
+});
+export const storedChecklistContentSchema = z.object({
+  areas: z.array(z.object({ id: z.string(), title: z.string(), items: z.array(storedChecklistItemSchema) })),
+});
+export type ChecklistContent = z.infer<typeof storedChecklistContentSchema>;
+export type ChecklistItem = z.infer<typeof storedChecklistItemSchema>;
+
+/** POST /api/checklist-templates. */
+export const checklistTemplateCreateSchema = z.object({
+  name: requiredText(120),
+  rideClass: rideClassSchema,
+  content: checklistContentSchema,
+  reason: changeReasonSchema.optional(),
+});
+/** PUT /api/checklist-templates/:id: a new version (and optionally a new name). */
+export const checklistTemplatePutSchema = z.object({
+  name: requiredText(120).optional(),
+  content: checklistContentSchema,
+  reason: changeReasonSchema,
+  basedOnVersion: z.number().int().min(1).optional(),
+});
+
+export const checklistVersionInfoSchema = z.object({
+  version: z.number().int().min(1),
+  createdAt: z.string(),
+  createdByName: z.string(),
+  reason: z.string(),
+});
+export const checklistTemplateSummarySchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  rideClass: rideClassSchema,
+  createdAt: z.string(),
+  archivedAt: z.string().nullable(),
+  currentVersion: z.number().int(),
+  updatedAt: z.string(),
+  updatedByName: z.string(),
+  areaCount: z.number().int(),
+  itemCount: z.number().int(),
+});
+export type ChecklistTemplateSummary = z.infer<typeof checklistTemplateSummarySchema>;
+export const checklistTemplateSchema = checklistTemplateSummarySchema.extend({
+  version: checklistVersionInfoSchema.extend({ content: storedChecklistContentSchema }),
+});
+export type ChecklistTemplate = z.infer<typeof checklistTemplateSchema>;
+
+export const checklistTemplateListQuerySchema = z.object({
+  rideClass: rideClassSchema.optional(),
+  includeArchived: z
+    .enum(['true', 'false', '1', '0'], { error: 'true or false' })
+    .optional()
+    .transform((v) => v === 'true' || v === '1'),
+});
+export const checklistTemplateListResponseSchema = z.object({
+  templates: z.array(checklistTemplateSummarySchema),
+});
+export const checklistTemplateResponseSchema = z.object({ template: checklistTemplateSchema });
+export const checklistVersionListResponseSchema = z.object({ versions: z.array(checklistVersionInfoSchema) });
+export const checklistVersionParamsSchema = designVersionParamsSchema;

@@ -4,6 +4,7 @@ import { authRouter } from '@/server/auth/router';
 import type { ApiDeps } from '@/server/deps';
 import { apiNotFound } from '@/server/http/errors';
 import { adminUsersRouter } from '@/server/routes/admin-users';
+import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
 import { loadsRouter } from '@/server/routes/loads';
 import { registerRouter } from '@/server/routes/register';
@@ -19,6 +20,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(ridesRouter(deps));
   router.use(registerRouter(deps));
   router.use(designRouter(deps));
+  router.use(checklistsRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(apiNotFound);

@@ -1,6 +1,7 @@
 import { count, eq, inArray } from 'drizzle-orm';
 
 import {
+  checklistTemplates,
   companies,
   designVersions,
   rides,
@@ -11,10 +12,13 @@ import {
   type SiteKind,
 } from '@/db/server/schema';
 import type { Role } from '@/features/auth/schema';
+import { checklistContentSchema } from '@/features/registry/schema';
 import { hashPassword } from '@/server/auth/password';
 import { assertUserCompany } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
+import { createChecklistTemplate } from '@/server/registry/checklists';
+import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 
 /*
@@ -301,9 +305,10 @@ export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Pro
 }
 
 /**
- * Adds the demo records that belong to demo rides but are missing: version 1 of the design data of each
- * demo ride (found by serial) that has no design data at all. Design versions are never deleted, so a
- * demo ride without any never had one and filling it changes nothing anyone entered. Safe to run again.
+ * Adds the demo records that are missing: version 1 of the design data of each demo ride (found by
+ * serial) that has no design data at all, and the demo checklist templates when there are no templates.
+ * Design versions and templates are never deleted (templates are archived), so filling an empty place
+ * changes nothing anyone entered. Safe to run again.
  */
 export function topUpDemoData(db: Pick<Db, 'select' | 'insert' | 'transaction'>): void {
   db.transaction((tx) => {
@@ -333,6 +338,21 @@ export function topUpDemoData(db: Pick<Db, 'select' | 'insert' | 'transaction'>)
         })
         .run();
     }
+
+    const anyTemplate = tx.select({ id: checklistTemplates.id }).from(checklistTemplates).limit(1).get();
+    if (!anyTemplate)
+      for (const template of demoChecklists)
+        createChecklistTemplate(
+          tx,
+          author.id,
+          {
+            name: template.name,
+            rideClass: template.rideClass,
+            content: checklistContentSchema.parse({ areas: template.areas }),
+            reason: 'Demo template',
+          },
+          false,
+        );
   });
 }
 
