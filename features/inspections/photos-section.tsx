@@ -1,0 +1,141 @@
+import { Image, Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, radius, space } from '@/components/theme';
+import type { Draft } from '@/features/inspections/draft';
+import type { PhotoRef } from '@/features/inspections/schema';
+import type { DesignData } from '@/features/registry/design-data';
+
+type Props = {
+  draft: Draft;
+  design: DesignData | null;
+  /** A displayable URI for a stored photo (data: URI from the device store). */
+  uriOf: (photo: PhotoRef) => string | undefined;
+  onCapture: (source: 'camera' | 'library') => void;
+  onUpdate: (id: string, patch: Partial<Pick<PhotoRef, 'caption' | 'joint' | 'checklistItemId'>>) => void;
+  onRemove: (id: string) => void;
+  busy?: boolean;
+  error?: string | null;
+};
+
+/** Photos of pivot wear and failed items: taken, captioned and tied to a pivot or a checklist item. */
+export function PhotosSection({ draft, design, uriOf, onCapture, onUpdate, onRemove, busy, error }: Props) {
+  const pivots = design?.bodies.map((b, i) => design.pivots.find((p) => p.joint === i)?.name ?? b.name) ?? [];
+  const failed = draft.checklist.filter((a) => a.result === 'fail' || a.result === null);
+  return (
+    <View style={styles.root}>
+      <View style={styles.actions}>
+        <Button label="Take a photo" onPress={() => onCapture('camera')} busy={busy} />
+        <Button
+          label="Choose from library"
+          tone="quiet"
+          onPress={() => onCapture('library')}
+          disabled={busy}
+        />
+      </View>
+      {error ? (
+        <Text role="alert" color={colors.danger}>
+          {error}
+        </Text>
+      ) : null}
+      <Text variant="small" muted>
+        Keep riders and bystanders out of frame. Photos are reduced to 1600 px on the long edge on this phone.
+      </Text>
+      {draft.photos.map((photo, n) => (
+        <Card key={photo.id}>
+          <View style={styles.photoRow}>
+            <Image
+              source={{ uri: uriOf(photo) }}
+              style={styles.thumb}
+              accessibilityLabel={photo.caption || `Photo ${n + 1}`}
+            />
+            <View style={styles.photoMeta}>
+              <Text variant="label" muted>
+                PHOTO {n + 1} · {Math.round(photo.bytes / 1024)} KB
+              </Text>
+              <TextField
+                label="Caption"
+                value={photo.caption}
+                onChangeText={(caption) => onUpdate(photo.id, { caption })}
+              />
+            </View>
+          </View>
+          <Text variant="label" muted>
+            SHOWS
+          </Text>
+          <View style={styles.chips}>
+            {pivots.map((name, i) => (
+              <Chip
+                key={`p${i}`}
+                label={`Pivot ${i + 1} · ${name}`}
+                selected={photo.joint === i}
+                onPress={() => onUpdate(photo.id, { joint: photo.joint === i ? null : i })}
+              />
+            ))}
+            {failed.map((a) => (
+              <Chip
+                key={a.itemId}
+                label={a.text}
+                selected={photo.checklistItemId === a.itemId}
+                onPress={() =>
+                  onUpdate(photo.id, {
+                    checklistItemId: photo.checklistItemId === a.itemId ? null : a.itemId,
+                  })
+                }
+              />
+            ))}
+            {photo.checklistItemId && !failed.some((a) => a.itemId === photo.checklistItemId) ? (
+              <Chip
+                label={
+                  draft.checklist.find((a) => a.itemId === photo.checklistItemId)?.text ??
+                  photo.checklistItemId
+                }
+                selected
+                onPress={() => onUpdate(photo.id, { checklistItemId: null })}
+              />
+            ) : null}
+          </View>
+          <Button label="Remove photo" tone="danger" onPress={() => onRemove(photo.id)} />
+        </Card>
+      ))}
+    </View>
+  );
+}
+
+function Chip({ label, selected, onPress }: { label: string; selected: boolean; onPress: () => void }) {
+  return (
+    <Pressable
+      role="checkbox"
+      aria-checked={selected}
+      onPress={onPress}
+      style={StyleSheet.flatten([styles.chip, selected && styles.chipSelected])}
+    >
+      <Text variant="small" color={selected ? colors.baseText : colors.text} numberOfLines={1}>
+        {label}
+      </Text>
+    </Pressable>
+  );
+}
+
+const styles = StyleSheet.create({
+  root: { gap: space.md },
+  actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  photoRow: { flexDirection: 'row', gap: space.md },
+  thumb: { width: 112, height: 112, borderRadius: radius.md, backgroundColor: colors.surfaceSunk },
+  photoMeta: { flex: 1, gap: space.sm },
+  chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  chip: {
+    minHeight: 40,
+    maxWidth: 320,
+    justifyContent: 'center',
+    paddingHorizontal: space.md,
+    borderRadius: 20,
+    borderWidth: 1.5,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  chipSelected: { backgroundColor: colors.base, borderColor: colors.base },
+});

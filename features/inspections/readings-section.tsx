@@ -1,0 +1,217 @@
+import { randomUUID } from 'expo-crypto';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, space } from '@/components/theme';
+import type { Draft } from '@/features/inspections/draft';
+import { type Reading, type ReadingKind, readingMethods } from '@/features/inspections/schema';
+import type { DesignData } from '@/features/registry/design-data';
+import { type QuantityKind, type UnitSystem, displayUnits, formatQuantity, toSI } from '@/features/units';
+
+/** What each kind of reading is, in which quantity, and how it is usually taken (common practice). */
+const readingSpec: Record<
+  Exclude<ReadingKind, 'other'>,
+  { title: string; quantity: QuantityKind; method: (typeof readingMethods)[number] }
+> = {
+  speed: { title: 'Speed', quantity: 'rate', method: 'typed' },
+  period: { title: 'Period (one turn or one swing)', quantity: 'time', method: 'stopwatch' },
+  amplitude: { title: 'Swing amplitude (each side)', quantity: 'angle', method: 'typed' },
+  pin_diameter: { title: 'Pin diameter', quantity: 'lengthSmall', method: 'micrometer' },
+  clearance: { title: 'Bushing clearance (diametral)', quantity: 'lengthSmall', method: 'dial_indicator' },
+};
+
+type Props = {
+  draft: Draft;
+  design: DesignData | null;
+  system: UnitSystem;
+  onAdd: (r: Reading) => void;
+  onRemove: (id: string) => void;
+  /** A tap timer for period readings, when the screen offers one. */
+  renderTimer?: (onUse: (periodS: number, spreadS: number) => void) => React.ReactNode;
+};
+
+/** Per pivot: the motion readings its design motion calls for, and pin and bushing wear. */
+export function ReadingsSection({ draft, design, system, onAdd, onRemove, renderTimer }: Props) {
+  if (!design)
+    return (
+      <Card>
+        <Text muted>
+          This ride has no design data on the phone, so readings cannot be checked. Sync, then try again.
+        </Text>
+      </Card>
+    );
+  return (
+    <View style={styles.root}>
+      {design.bodies.map((body, joint) => {
+        const motion = design.motion.find((m) => m.joint === joint);
+        const pivot = design.pivots.find((p) => p.joint === joint);
+        const kinds: Exclude<ReadingKind, 'other'>[] = [
+          ...(motion?.kind === 'constant' ? (['speed', 'period'] as const) : []),
+          ...(motion?.kind === 'swing' ? (['amplitude', 'period'] as const) : []),
+          'pin_diameter',
+          'clearance',
+        ];
+        const taken = draft.readings.filter((r) => r.joint === joint);
+        return (
+          <Card key={joint}>
+            <Text variant="heading">
+              Pivot {joint + 1} · {pivot?.name ?? body.name}
+            </Text>
+            {pivot ? (
+              <Text variant="small" muted>
+                Pin nominal {formatQuantity(pivot.nominalDiameterM, 'lengthSmall', system).text}, minimum{' '}
+                {formatQuantity(pivot.minimumDiameterM, 'lengthSmall', system).text}; clearance limit{' '}
+                {formatQuantity(pivot.maxClearanceM, 'lengthSmall', system).text}
+              </Text>
+            ) : null}
+            {kinds.map((kind) => (
+              <ReadingInput
+                key={kind}
+                kind={kind}
+                joint={joint}
+                bodyName={body.name}
+                system={system}
+                onAdd={onAdd}
+                timer={kind === 'period' ? renderTimer : undefined}
+              />
+            ))}
+            {taken.length > 0 ? (
+              <View style={styles.taken}>
+                <Text variant="label" muted>
+                  RECORDED
+                </Text>
+                {taken.map((r) => (
+                  <View key={r.id} style={styles.takenRow}>
+                    <Text style={styles.takenText}>
+                      {r.label}:{' '}
+                      <Text variant="figure">
+                        {
+                          formatQuantity(
+                            r.valueSI,
+                            readingSpec[r.kind as Exclude<ReadingKind, 'other'>]?.quantity ?? 'length',
+                            system,
+                          ).text
+                        }
+                      </Text>
+                      {r.spreadSI ? (
+                        <Text variant="small" muted>
+                          {' '}
+                          ±{' '}
+                          {
+                            formatQuantity(
+                              r.spreadSI,
+                              readingSpec[r.kind as Exclude<ReadingKind, 'other'>]?.quantity ?? 'length',
+                              system,
+                            ).text
+                          }
+                        </Text>
+                      ) : null}
+                    </Text>
+                    <Button
+                      label="Remove"
+                      tone="quiet"
+                      onPress={() => onRemove(r.id)}
+                      accessibilityLabel={`Remove ${r.label}`}
+                    />
+                  </View>
+                ))}
+              </View>
+            ) : null}
+          </Card>
+        );
+      })}
+    </View>
+  );
+}
+
+function ReadingInput({
+  kind,
+  joint,
+  bodyName,
+  system,
+  onAdd,
+  timer,
+}: {
+  kind: Exclude<ReadingKind, 'other'>;
+  joint: number;
+  bodyName: string;
+  system: UnitSystem;
+  onAdd: (r: Reading) => void;
+  timer?: Props['renderTimer'];
+}) {
+  const spec = readingSpec[kind];
+  const unit = displayUnits(spec.quantity, system)[0];
+  const [text, setText] = useState('');
+  const [error, setError] = useState<string | undefined>();
+  const [timing, setTiming] = useState(false);
+  const label = `${bodyName}: ${spec.title.toLowerCase()}`;
+  const add = (valueSI: number, method: Reading['method'], spreadSI: number | null = null) => {
+    onAdd({
+      id: randomUUID(),
+      kind,
+      joint,
+      label,
+      valueSI,
+      unit: unit.label,
+      method,
+      spreadSI,
+      takenAt: new Date().toISOString(),
+    });
+  };
+  const submit = () => {
+    const v = Number(text.trim().replace(',', '.'));
+    if (text.trim() === '' || !Number.isFinite(v)) return setError('Enter a number');
+    if (v <= 0 && kind !== 'clearance') return setError('Must be greater than 0');
+    if (v < 0) return setError('Cannot be negative');
+    setError(undefined);
+    setText('');
+    add(toSI(v, spec.quantity, unit.mathjs), spec.method);
+  };
+  return (
+    <View style={styles.input}>
+      <View style={styles.inputRow}>
+        <View style={styles.inputField}>
+          <TextField
+            label={spec.title}
+            unit={unit.label}
+            value={text}
+            onChangeText={setText}
+            error={error}
+            inputMode="decimal"
+            onSubmitEditing={submit}
+          />
+        </View>
+        <Button
+          label="Add"
+          tone="quiet"
+          onPress={submit}
+          accessibilityLabel={`Add ${spec.title.toLowerCase()} for ${bodyName}`}
+        />
+      </View>
+      {timer ? (
+        timing ? (
+          timer((periodS, spreadS) => {
+            add(periodS, 'tap_timer', spreadS);
+            setTiming(false);
+          })
+        ) : (
+          <Button label="Time it with taps" tone="quiet" onPress={() => setTiming(true)} />
+        )
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  root: { gap: space.lg },
+  input: { gap: space.sm, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
+  inputRow: { flexDirection: 'row', alignItems: 'flex-end', gap: space.sm },
+  inputField: { flex: 1 },
+  taken: { gap: space.xs, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
+  takenRow: { flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', gap: space.sm },
+  takenText: { flexShrink: 1 },
+});
