@@ -5,21 +5,16 @@
  */
 import { z } from 'zod';
 
+import { inspectionTypeSchema } from '@/features/registry/schema';
+
 const uuid = () => z.uuid({ error: 'Must be a UUID' });
 const isoTime = () => z.iso.datetime({ offset: true, error: 'Must be an ISO date-time' });
 const num = () =>
   z.number({ error: (i) => (i.input === undefined ? 'Required' : 'Must be a finite number') });
 
-export const inspectionTypes = ['daily', 'periodic', 'annual', 'setup', 'follow_up'] as const;
-export const inspectionTypeSchema = z.enum(inspectionTypes);
-export type InspectionType = z.infer<typeof inspectionTypeSchema>;
-export const inspectionTypeLabel: Record<InspectionType, string> = {
-  daily: 'Daily pre-opening',
-  periodic: 'Periodic',
-  annual: 'Annual',
-  setup: 'Set-up after assembly',
-  follow_up: 'Follow-up',
-};
+// One list of inspection types for schedules and inspections alike.
+export { inspectionTypeLabel, inspectionTypeSchema, inspectionTypes } from '@/features/registry/schema';
+export type { InspectionType } from '@/features/registry/schema';
 
 export const checkResults = ['pass', 'fail', 'na'] as const;
 export const checkResultSchema = z.enum(checkResults);

@@ -147,7 +147,7 @@ test('a draft cannot be submitted until every item is answered, failures explain
     ride: { id: 'r1', name: 'Rod' },
     designVersionId: 'v1',
     template,
-    type: 'daily',
+    type: 'daily_pre_opening',
     now,
   });
   expect(draftProblems(d, template).map((p) => p.message)).toEqual([
