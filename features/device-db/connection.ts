@@ -1,0 +1,74 @@
+/**
+ * The device database as the rest of the app sees it: a drizzle `sqlite-proxy` instance over any
+ * statement executor (expo-sqlite's async API in the app, better-sqlite3 in node tests), with
+ * transactions that no other statement can interleave with.
+ *
+ * Why not drizzle's own `db.transaction()`: over a proxy it only sends BEGIN/COMMIT through the same
+ * callback, so any statement issued meanwhile by another part of the app (a draft save while the outbox
+ * is being written) would run inside — and be rolled back with — someone else's transaction. Here every
+ * statement outside a transaction waits on one mutex, and a transaction holds that mutex from BEGIN to
+ * COMMIT, running its own statements on a second drizzle instance that bypasses the queue.
+ */
+import { Mutex } from 'async-mutex';
+import { type AsyncRemoteCallback, type SqliteRemoteDatabase, drizzle } from 'drizzle-orm/sqlite-proxy';
+
+import * as schema from '@/db/device/schema';
+
+export type DeviceSchema = typeof schema;
+export type DeviceDrizzle = SqliteRemoteDatabase<DeviceSchema>;
+export type SqlMethod = Parameters<AsyncRemoteCallback>[2];
+
+/**
+ * Runs one statement. drizzle's proxy contract: rows come back as arrays of column values; for `get`,
+ * `rows` is the single row's array (or undefined when there is none); for `run`, rows are ignored.
+ */
+export type SqlExecutor = AsyncRemoteCallback;
+
+export type DeviceDb = {
+  /** Single statements, each queued behind any running transaction. Never use it inside `transaction`. */
+  readonly db: DeviceDrizzle;
+  /**
+   * Runs `fn` between BEGIN IMMEDIATE and COMMIT with nothing else interleaving; ROLLBACK on a throw.
+   * Inside, use only the `tx` handed in (its `db` skips the queue; its `transaction` simply joins).
+   */
+  transaction<T>(fn: (tx: DeviceDb) => Promise<T>): Promise<T>;
+  close(): Promise<void>;
+};
+
+export function createDeviceDb(execute: SqlExecutor, close: () => Promise<void> = async () => {}): DeviceDb {
+  const mutex = new Mutex();
+  const queued = drizzle((sql, params, method) => mutex.runExclusive(() => execute(sql, params, method)), {
+    schema,
+  });
+  const direct = drizzle(execute, { schema });
+
+  // Nested calls join the running transaction: all of it commits or none of it does.
+  const inTransaction: DeviceDb = {
+    db: direct,
+    transaction: (fn) => fn(inTransaction),
+    close: async () => {
+      throw new Error('The device database cannot be closed inside a transaction.');
+    },
+  };
+
+  return {
+    db: queued,
+    transaction: (fn) =>
+      mutex.runExclusive(async () => {
+        await execute('BEGIN IMMEDIATE', [], 'run');
+        try {
+          const result = await fn(inTransaction);
+          await execute('COMMIT', [], 'run');
+          return result;
+        } catch (err) {
+          try {
+            await execute('ROLLBACK', [], 'run');
+          } catch {
+            // SQLite may already have rolled back (e.g. after SQLITE_FULL); the first error is the one to report.
+          }
+          throw err;
+        }
+      }),
+    close: () => mutex.runExclusive(close),
+  };
+}

@@ -1,0 +1,52 @@
+/**
+ * GET /api/sync/pull?cursor=… — what the server has changed for this inspector since `cursor` (no cursor:
+ * everything). The device writes a whole answer, and the new cursor, in one transaction, so a cut
+ * connection or a bad answer leaves the previous state and cursor untouched.
+ */
+import { z } from 'zod';
+
+import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
+import { designVersionSchema } from '@/features/rides/detail-schema';
+import { rideSummarySchema } from '@/features/rides/schema';
+
+/** A design-data version of one ride (immutable once made). */
+export const pulledDesignSchema = designVersionSchema.extend({ rideId: z.string().min(1) });
+export type PulledDesign = z.infer<typeof pulledDesignSchema>;
+
+/** A checklist template with its current version's areas and items, as the register serves it. */
+export const pulledTemplateSchema = checklistTemplateSchema;
+export type PulledTemplate = ChecklistTemplate;
+
+/** A ride the inspector is asked to inspect; the rest of the fields are kept as sent. */
+export const pulledAssignmentSchema = z.looseObject({
+  id: z.string().min(1),
+  rideId: z.string().min(1),
+});
+export type PulledAssignment = z.infer<typeof pulledAssignmentSchema>;
+
+/** A supervisor's decision on one of this inspector's submitted inspections. */
+export const pulledDecisionSchema = z.looseObject({
+  inspectionId: z.string().min(1),
+});
+export type PulledDecision = z.infer<typeof pulledDecisionSchema>;
+
+export const pullResponseSchema = z.object({
+  /** Opaque to the device; sent back unchanged on the next pull. */
+  cursor: z.string().min(1),
+  rides: z.array(rideSummarySchema).optional(),
+  designs: z.array(pulledDesignSchema).optional(),
+  templates: z.array(pulledTemplateSchema).optional(),
+  assignments: z.array(pulledAssignmentSchema).optional(),
+  decisions: z.array(pulledDecisionSchema).optional(),
+  /** Ids no longer meant for this inspector (an assignment withdrawn, a ride reassigned, a template archived). */
+  removed: z
+    .object({
+      rides: z.array(z.string()).optional(),
+      assignments: z.array(z.string()).optional(),
+      templates: z.array(z.string()).optional(),
+    })
+    .optional(),
+  /** True when the server cut the answer short: pull again with the new cursor. */
+  hasMore: z.boolean().optional(),
+});
+export type PullResponse = z.infer<typeof pullResponseSchema>;
