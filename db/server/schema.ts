@@ -9,6 +9,7 @@ import {
   auditActions,
   auditEntities,
   designOrigins,
+  inspectionTypes,
   type ChecklistContent,
   type CompanyContact,
 } from '@/features/registry/schema';
@@ -230,6 +231,38 @@ export const checklistTemplateVersions = sqliteTable(
   (t) => [
     check('checklist_template_versions_version_check', sql`${col(t.version)} >= 1`),
     uniqueIndex('checklist_template_versions_template_version_idx').on(t.templateId, t.version),
+  ],
+);
+
+/**
+ * When each kind of inspection of a ride falls due: one row per ride and inspection type, with its interval,
+ * the last time it was done, an optional explicit due date, and the inspector it is assigned to. Dates are
+ * calendar dates (YYYY-MM-DD); the due status is computed from them at read time, never stored.
+ */
+export const inspectionSchedules = sqliteTable(
+  'inspection_schedules',
+  {
+    id: id(),
+    rideId: text('ride_id')
+      .notNull()
+      .references(() => rides.id, { onDelete: 'restrict' }),
+    inspectionType: text('inspection_type', { enum: inspectionTypes }).notNull(),
+    intervalDays: integer('interval_days'),
+    lastDoneOn: text('last_done_on'),
+    dueOn: text('due_on'),
+    assignedTo: text('assigned_to').references(() => users.id, { onDelete: 'restrict' }),
+    assignedAt: text('assigned_at'),
+    notes: text('notes'),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    check('inspection_schedules_type_check', oneOf(t.inspectionType, inspectionTypes)),
+    check(
+      'inspection_schedules_interval_check',
+      sql`${col(t.intervalDays)} IS NULL OR ${col(t.intervalDays)} > 0`,
+    ),
+    uniqueIndex('inspection_schedules_ride_type_idx').on(t.rideId, t.inspectionType),
+    index('inspection_schedules_assignee_idx').on(t.assignedTo),
   ],
 );
 

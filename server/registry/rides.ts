@@ -1,6 +1,6 @@
 import { and, asc, count, eq, inArray, or, type SQL } from 'drizzle-orm';
 
-import { companies, designVersions, rides, sites } from '@/db/server/schema';
+import { companies, designVersions, inspectionSchedules, rides, sites } from '@/db/server/schema';
 import type { RideInput, RideListQuery, RidePatch } from '@/features/registry/schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { Db } from '@/server/db';
@@ -215,6 +215,13 @@ const hasDesignData: RideDeleteGuard = (db, rideId) => {
   return n > 0 ? `${n} design data version(s), kept so old results can be reproduced` : null;
 };
 
+const hasSchedules: RideDeleteGuard = (db, rideId) => {
+  const n =
+    db.select({ n: count() }).from(inspectionSchedules).where(eq(inspectionSchedules.rideId, rideId)).get()
+      ?.n ?? 0;
+  return n > 0 ? `${n} inspection schedule(s)` : null;
+};
+
 /**
  * A ride goes only while nothing refers to it. Design data versions are never deleted, so a ride that
  * has any stays: set it out of service instead.
@@ -222,7 +229,9 @@ const hasDesignData: RideDeleteGuard = (db, rideId) => {
 export function deleteRide(db: Db, userId: string, id: string, guards: RideDeleteGuard[] = []): void {
   db.transaction((tx) => {
     const before = mustFindRide(tx, id);
-    const blockers = [hasDesignData, ...guards].map((g) => g(tx, id)).filter((b): b is string => b !== null);
+    const blockers = [hasDesignData, hasSchedules, ...guards]
+      .map((g) => g(tx, id))
+      .filter((b): b is string => b !== null);
     if (blockers.length > 0)
       throw conflict(
         `${before.name} has ${blockers.join('; ')}. Set it out of service instead, or remove those first.`,

@@ -9,6 +9,7 @@ import { designRouter } from '@/server/routes/design';
 import { loadsRouter } from '@/server/routes/loads';
 import { registerRouter } from '@/server/routes/register';
 import { ridesRouter } from '@/server/routes/rides';
+import { schedulesRouter } from '@/server/routes/schedules';
 
 /** Everything under `/api`. Anything it doesn't know ends in a JSON 404 here, never in the web app. */
 export function apiRouter(deps: ApiDeps): Router {
@@ -21,6 +22,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(registerRouter(deps));
   router.use(designRouter(deps));
   router.use(checklistsRouter(deps));
+  router.use(schedulesRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(apiNotFound);

@@ -4,6 +4,7 @@ import {
   checklistTemplates,
   companies,
   designVersions,
+  inspectionSchedules,
   rides,
   sites,
   users,
@@ -19,7 +20,9 @@ import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
 import { demoChecklists } from '@/server/seed/demo-checklists';
+import { addDays, dateOf } from '@/server/registry/schedules';
 import { demoDesigns } from '@/server/seed/demo-design';
+import { demoSchedules } from '@/server/seed/demo-schedules';
 
 /*
  * An invented scenario for trying Pivotwatch out: one inspection body, three ride owners and their rides.
@@ -217,6 +220,8 @@ export type SeedResult = 'seeded' | 'skipped_existing_users' | 'skipped_producti
 
 /** The demo account the seeded records name as their author. */
 export const demoAuthorEmail = 'admin@pivotwatch.test';
+/** The demo inspector, who gets some of the demo's inspections assigned. */
+export const demoInspectorEmail = 'inspector@pivotwatch.test';
 
 /**
  * Seeds the demo scenario into a database that has no users yet, in one transaction. Does nothing (and says
@@ -224,16 +229,20 @@ export const demoAuthorEmail = 'admin@pivotwatch.test';
  * would be an open door. A demo database seeded by an earlier release gets the parts added since (design
  * data…) through `topUpDemoData`, which only fills what is missing.
  */
-export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Promise<SeedResult> {
+export async function seedDemoData(
+  db: Db,
+  config: Pick<Config, 'nodeEnv'>,
+  opts: { now?: Date } = {},
+): Promise<SeedResult> {
   if (config.nodeEnv === 'production') return 'skipped_production';
+  const now = opts.now ?? new Date();
   if (countUsers(db) > 0) {
-    topUpDemoData(db);
+    topUpDemoData(db, now);
     return 'skipped_existing_users';
   }
 
   // bcrypt is async and slow; hash before the (synchronous) transaction so it holds the lock briefly.
   const hashes = await Promise.all(demoUsers.map(() => hashPassword(demoPassword)));
-  const now = new Date().toISOString();
 
   return db.transaction((tx) => {
     // Checked again inside the transaction: another process may have seeded while we were hashing.
@@ -281,7 +290,7 @@ export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Pro
           siteId: siteIds.get(site) ?? null,
           operatorCompanyId: companyId(operator),
           statusReason: statusReason ?? null,
-          statusSince: now,
+          statusSince: now.toISOString(),
         })
         .run();
     }
@@ -299,18 +308,21 @@ export async function seedDemoData(db: Db, config: Pick<Config, 'nodeEnv'>): Pro
         })
         .run();
     });
-    topUpDemoData(tx);
+    topUpDemoData(tx, now);
     return 'seeded' as const;
   });
 }
 
 /**
  * Adds the demo records that are missing: version 1 of the design data of each demo ride (found by
- * serial) that has no design data at all, and the demo checklist templates when there are no templates.
- * Design versions and templates are never deleted (templates are archived), so filling an empty place
- * changes nothing anyone entered. Safe to run again.
+ * serial) that has no design data at all, the demo checklist templates when there are no templates, and
+ * the demo schedule when there are no schedules. Design versions and templates are never deleted
+ * (templates are archived), so filling an empty place changes nothing anyone entered. Safe to run again.
  */
-export function topUpDemoData(db: Pick<Db, 'select' | 'insert' | 'transaction'>): void {
+export function topUpDemoData(
+  db: Pick<Db, 'select' | 'insert' | 'transaction'>,
+  now: Date = new Date(),
+): void {
   db.transaction((tx) => {
     const author = tx.select({ id: users.id }).from(users).where(eq(users.email, demoAuthorEmail)).get();
     if (!author) return;
@@ -353,6 +365,34 @@ export function topUpDemoData(db: Pick<Db, 'select' | 'insert' | 'transaction'>)
           },
           false,
         );
+
+    const anySchedule = tx.select({ id: inspectionSchedules.id }).from(inspectionSchedules).limit(1).get();
+    const inspector = tx
+      .select({ id: users.id })
+      .from(users)
+      .where(eq(users.email, demoInspectorEmail))
+      .get();
+    if (!anySchedule) {
+      const today = dateOf(now);
+      const rideIdOf = new Map(demoRideRows.map((r) => [r.serial, r.id]));
+      for (const s of demoSchedules) {
+        const rideId = rideIdOf.get(s.serial);
+        if (!rideId) continue;
+        const assigned = s.assignToDemoInspector && inspector ? inspector.id : null;
+        tx.insert(inspectionSchedules)
+          .values({
+            rideId,
+            inspectionType: s.inspectionType,
+            intervalDays: s.intervalDays,
+            lastDoneOn: s.lastDoneDaysAgo === null ? null : addDays(today, -s.lastDoneDaysAgo),
+            dueOn: s.dueInDays === undefined ? null : addDays(today, s.dueInDays),
+            assignedTo: assigned,
+            assignedAt: assigned ? now.toISOString() : null,
+            notes: s.notes ?? null,
+          })
+          .run();
+      }
+    }
   });
 }
 

@@ -1,9 +1,16 @@
+import fs from 'node:fs';
+import path from 'node:path';
+
 import type { Express } from 'express';
 import request from 'supertest';
 
-import { demoUsers } from '@/server/seed/demo';
+import { createApp } from '@/server/app';
+import { loadConfig } from '@/server/config';
+import { openDb } from '@/server/db';
+import { createLogger } from '@/server/logger';
+import { demoUsers, seedDemoData } from '@/server/seed/demo';
 
-import { signInAs } from './helpers';
+import { makeTempDir, signInAs, type TestServer } from './helpers';
 
 export type Email = (typeof demoUsers)[number]['email'];
 
@@ -34,3 +41,35 @@ export async function demoClients(app: Express) {
 }
 
 export type Clients = Awaited<ReturnType<typeof demoClients>>;
+
+/**
+ * A test server whose clock is pinned to `now`, seeded on that same day, so due dates and statuses are
+ * the same whenever the tests run.
+ */
+export async function makePinnedServer(now: Date): Promise<TestServer> {
+  const dataDir = makeTempDir();
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    DATA_DIR: dataDir,
+    WEB_DIR: path.join(dataDir, 'no-web-build'),
+  });
+  const database = openDb(config.dataDir);
+  await seedDemoData(database.db, config, { now });
+  const app = createApp({
+    db: database.db,
+    config,
+    logger: createLogger(config),
+    signInLimit: { windowMs: 60_000, max: 10_000 },
+    now: () => now,
+  });
+  return {
+    app,
+    db: database.db,
+    config,
+    dataDir,
+    close: () => {
+      database.close();
+      fs.rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}
