@@ -1,0 +1,16 @@
+import type { InspectionRecord, PushResult } from '@/features/inspections/schema';
+
+export type PhotoUpload = { sha256: string; mime: string; bytes: Uint8Array };
+
+/**
+ * The server as the sync engine needs it. The HTTP implementation is `createHttpSyncApi`; tests pass a
+ * fake. Failures are thrown as the API client's errors (OfflineError, ApiRequestError).
+ */
+export type SyncApi = {
+  /** POST /api/sync/push */
+  push(batch: { batchId: string; records: InspectionRecord[] }): Promise<PushResult>;
+  /** PUT /api/photos/:sha256 with the raw bytes; resolves when the server holds them (new or already). */
+  putPhoto(photo: PhotoUpload, onProgress?: (sentBytes: number, totalBytes: number) => void): Promise<void>;
+  /** GET /api/sync/pull?cursor=… ; the answer is checked by the engine against `pullResponseSchema`. */
+  pull(cursor: string | null): Promise<unknown>;
+};

@@ -1,0 +1,72 @@
+/**
+ * The sync endpoints over HTTP. JSON calls go through the shared API client; photos go up as raw bytes
+ * with XMLHttpRequest, the one browser and React Native API that reports upload progress.
+ */
+import { API_BASE, ApiRequestError, OfflineError, apiFetch } from '@/features/api/client';
+import { apiErrorSchema } from '@/features/api/errors';
+import { tokenStore } from '@/features/auth/token-store';
+import { pushResultSchema } from '@/features/inspections/schema';
+import type { PhotoUpload, SyncApi } from '@/features/sync/api';
+
+/** A photo of ≤ 1600 px should be up well within this even on a poor signal; past it, retry later. */
+const PHOTO_TIMEOUT_MS = 120_000;
+
+export function createHttpSyncApi(): SyncApi {
+  return {
+    push: (batch) => apiFetch('/api/sync/push', { method: 'POST', body: batch, schema: pushResultSchema }),
+    pull: (cursor) =>
+      apiFetch(`/api/sync/pull${cursor === null ? '' : `?cursor=${encodeURIComponent(cursor)}`}`),
+    putPhoto,
+  };
+}
+
+async function putPhoto(
+  photo: PhotoUpload,
+  onProgress?: (sent: number, total: number) => void,
+): Promise<void> {
+  const session = await tokenStore.get();
+  await new Promise<void>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('PUT', `${API_BASE}/api/photos/${photo.sha256}`);
+    xhr.timeout = PHOTO_TIMEOUT_MS;
+    xhr.setRequestHeader('Content-Type', photo.mime);
+    xhr.setRequestHeader('Accept', 'application/json');
+    if (session) xhr.setRequestHeader('Authorization', `Bearer ${session.token}`);
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) onProgress?.(e.loaded, e.total);
+    };
+    xhr.onerror = () => reject(new OfflineError(new Error('Photo upload: network error')));
+    xhr.ontimeout = () => reject(new OfflineError(new Error('Photo upload: timed out')));
+    xhr.onabort = () => reject(new OfflineError(new Error('Photo upload: aborted')));
+    xhr.onload = () => {
+      if (xhr.status === 200 || xhr.status === 201 || xhr.status === 204) {
+        resolve();
+        return;
+      }
+      // status 0 without onerror: the request never reached the server.
+      if (xhr.status === 0) {
+        reject(new OfflineError(new Error('Photo upload: no answer')));
+        return;
+      }
+      let body: unknown;
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        body = undefined;
+      }
+      const parsed = apiErrorSchema.safeParse(body);
+      reject(
+        parsed.success
+          ? new ApiRequestError(
+              xhr.status,
+              parsed.data.error.code,
+              parsed.data.error.message,
+              parsed.data.error.issues,
+            )
+          : new ApiRequestError(xhr.status, 'http_error', `Photo upload failed (${xhr.status}).`),
+      );
+    };
+    // A view of exactly the photo's bytes (the Uint8Array may sit in a larger buffer).
+    xhr.send(photo.bytes.slice().buffer);
+  });
+}

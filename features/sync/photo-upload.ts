@@ -1,0 +1,110 @@
+/**
+ * Uploads the photos submitted records need, one at a time (phones on a weak signal do better with one
+ * stream), oldest first. The server keys photos by SHA-256, so a photo it already has is a success and a
+ * re-sent photo is never stored twice. A 4xx answer (not an image, too large) is final for that photo
+ * and kept visible with the server's message; anything else is retried later.
+ */
+import { and, eq, inArray } from 'drizzle-orm';
+
+import { photoBlobs } from '@/db/device/schema';
+import type { DeviceDb } from '@/features/device-db/connection';
+import { getPhotoBytes, markPhotoUploaded } from '@/features/device-db/photos';
+import type { SyncApi } from '@/features/sync/api';
+import { type SendFailure, backoffMs, classifyFailure } from '@/features/sync/outbox-machine';
+
+export type PhotoProgress = { sha256: string; sentBytes: number; totalBytes: number };
+
+export type PhotoUploadOptions = {
+  now?: () => Date;
+  force?: boolean;
+  onProgress?: (progress: PhotoProgress) => void;
+};
+
+export type PhotoUploadReport = { uploaded: number; rejected: number; failure: SendFailure | null };
+
+export async function uploadPhotos(
+  api: SyncApi,
+  dev: DeviceDb,
+  options: PhotoUploadOptions = {},
+): Promise<PhotoUploadReport> {
+  const clock = options.now ?? (() => new Date());
+  const report: PhotoUploadReport = { uploaded: 0, rejected: 0, failure: null };
+  const waiting = await dev.db
+    .select({
+      sha256: photoBlobs.sha256,
+      mime: photoBlobs.mime,
+      bytes: photoBlobs.bytes,
+      attempts: photoBlobs.attempts,
+      nextAttemptAt: photoBlobs.nextAttemptAt,
+    })
+    .from(photoBlobs)
+    // `uploading` here means a run was interrupted: it goes again.
+    .where(inArray(photoBlobs.uploadState, ['pending', 'uploading']))
+    .orderBy(photoBlobs.createdAt)
+    .all();
+
+  for (const photo of waiting) {
+    const now = clock();
+    if (!options.force && photo.nextAttemptAt !== null && photo.nextAttemptAt > now.toISOString()) continue;
+    const bytes = await getPhotoBytes(dev, photo.sha256);
+    if (!bytes) continue;
+    await dev.db
+      .update(photoBlobs)
+      .set({ uploadState: 'uploading', uploadedBytes: 0, updatedAt: now.toISOString() })
+      .where(eq(photoBlobs.sha256, photo.sha256))
+      .run();
+    options.onProgress?.({ sha256: photo.sha256, sentBytes: 0, totalBytes: bytes.length });
+    try {
+      await api.putPhoto({ sha256: photo.sha256, mime: photo.mime, bytes }, (sentBytes, totalBytes) =>
+        options.onProgress?.({ sha256: photo.sha256, sentBytes, totalBytes }),
+      );
+    } catch (err) {
+      const failure = classifyFailure(err);
+      const at = clock();
+      if (failure.kind === 'refused') {
+        await dev.db
+          .update(photoBlobs)
+          .set({ uploadState: 'rejected', lastError: failure.message, updatedAt: at.toISOString() })
+          .where(and(eq(photoBlobs.sha256, photo.sha256)))
+          .run();
+        report.rejected++;
+        continue;
+      }
+      const attempts = failure.kind === 'auth' ? photo.attempts : photo.attempts + 1;
+      await dev.db
+        .update(photoBlobs)
+        .set({
+          uploadState: 'pending',
+          uploadedBytes: 0,
+          attempts,
+          lastError: failure.message,
+          nextAttemptAt:
+            failure.kind === 'auth' ? null : new Date(at.getTime() + backoffMs(attempts)).toISOString(),
+          updatedAt: at.toISOString(),
+        })
+        .where(eq(photoBlobs.sha256, photo.sha256))
+        .run();
+      report.failure = failure;
+      break;
+    }
+    await markPhotoUploaded(dev, photo.sha256, clock());
+    options.onProgress?.({ sha256: photo.sha256, sentBytes: bytes.length, totalBytes: bytes.length });
+    report.uploaded++;
+  }
+  return report;
+}
+
+/** Puts a refused photo back in the queue (e.g. after the server's limit was raised). */
+export async function requeuePhoto(dev: DeviceDb, sha: string, now = new Date()): Promise<void> {
+  await dev.db
+    .update(photoBlobs)
+    .set({
+      uploadState: 'pending',
+      attempts: 0,
+      lastError: null,
+      nextAttemptAt: null,
+      updatedAt: now.toISOString(),
+    })
+    .where(and(eq(photoBlobs.sha256, sha), eq(photoBlobs.uploadState, 'rejected')))
+    .run();
+}

@@ -1,0 +1,184 @@
+/**
+ * Sends the outbox in batches of at most 50 records. Each batch's id is written to its rows, in the same
+ * transaction that marks them `sending`, before the request leaves: a re-send after a cut connection
+ * (or after the app was closed mid-request) reuses it, so the server can answer from what it already
+ * stored. Per-record answers: accepted/duplicate → accepted; rejected → kept with the server's reasons;
+ * no answer → queued again in a new batch. A failed request puts the whole batch back in the queue.
+ */
+import { asc, eq, inArray } from 'drizzle-orm';
+
+import { type OutboxRow, outbox } from '@/db/device/schema';
+import type { DeviceDb } from '@/features/device-db/connection';
+import type { InspectionRecord, PushResult } from '@/features/inspections/schema';
+import { pushResultSchema } from '@/features/inspections/schema';
+import type { SyncApi } from '@/features/sync/api';
+import {
+  type OutboxEntry,
+  type OutboxEvent,
+  type SendFailure,
+  classifyFailure,
+  isDue,
+  transition,
+} from '@/features/sync/outbox-machine';
+
+export const MAX_BATCH = 50;
+
+export type PushOptions = {
+  newId: () => string;
+  now?: () => Date;
+  /** Ignore back-off (the inspector pressed "sync now"). */
+  force?: boolean;
+  batchSize?: number;
+};
+
+export type PushReport = {
+  batches: number;
+  accepted: number;
+  rejected: number;
+  /** Records put back in the queue by a failed request or a missing answer. */
+  requeued: number;
+  /** Set when a request failed; the run stops there (the rest waits for the next run). */
+  failure: SendFailure | null;
+};
+
+const entryOf = (row: OutboxRow): OutboxEntry => ({
+  state: row.state,
+  attempts: row.attempts,
+  batchId: row.batchId,
+  lastError: row.lastError,
+  issues: row.issues ? JSON.parse(row.issues) : [],
+  nextAttemptAt: row.nextAttemptAt,
+});
+
+async function writeEntry(tx: DeviceDb, id: string, entry: OutboxEntry, now: Date): Promise<void> {
+  await tx.db
+    .update(outbox)
+    .set({
+      state: entry.state,
+      attempts: entry.attempts,
+      batchId: entry.batchId,
+      lastError: entry.lastError,
+      issues: entry.issues.length ? JSON.stringify(entry.issues) : null,
+      nextAttemptAt: entry.nextAttemptAt,
+      updatedAt: now.toISOString(),
+    })
+    .where(eq(outbox.id, id))
+    .run();
+}
+
+/**
+ * Picks the next batch and marks it `sending` under its batch id, in one transaction. Records left with a
+ * batch id by an earlier failure go first, together and under that same id; otherwise up to `size` of
+ * the oldest due records get a fresh id.
+ */
+async function claimBatch(
+  dev: DeviceDb,
+  opts: { newId: () => string; now: Date; force: boolean; size: number; skip: Set<string> },
+): Promise<{ batchId: string; rows: OutboxRow[] } | null> {
+  return dev.transaction(async (tx) => {
+    const candidates = (
+      await tx.db
+        .select({
+          id: outbox.id,
+          state: outbox.state,
+          batchId: outbox.batchId,
+          nextAttemptAt: outbox.nextAttemptAt,
+        })
+        .from(outbox)
+        .where(inArray(outbox.state, ['queued', 'sending']))
+        .orderBy(asc(outbox.createdAt), asc(outbox.id))
+        .all()
+    ).filter((c) => !opts.skip.has(c.id) && isDue(c, opts.now, opts.force));
+    if (candidates.length === 0) return null;
+
+    const resend = candidates.find((c) => c.batchId !== null);
+    const batchId = resend?.batchId ?? opts.newId();
+    const ids = resend
+      ? candidates.filter((c) => c.batchId === batchId).map((c) => c.id)
+      : candidates
+          .filter((c) => c.batchId === null)
+          .slice(0, opts.size)
+          .map((c) => c.id);
+
+    const rows = await tx.db
+      .select()
+      .from(outbox)
+      .where(inArray(outbox.id, ids))
+      .orderBy(asc(outbox.createdAt))
+      .all();
+    for (const row of rows) {
+      const next = transition(entryOf(row), { type: 'send', batchId }, opts.now);
+      await writeEntry(tx, row.id, next, opts.now);
+    }
+    return { batchId, rows };
+  });
+}
+
+async function settle(
+  dev: DeviceDb,
+  rows: OutboxRow[],
+  eventFor: (row: OutboxRow) => OutboxEvent,
+  now: Date,
+) {
+  await dev.transaction(async (tx) => {
+    for (const row of rows) {
+      // Re-read: the row is `sending` now (claimBatch wrote it), the copy in `rows` predates that.
+      const current = await tx.db.select().from(outbox).where(eq(outbox.id, row.id)).get();
+      if (!current) continue;
+      await writeEntry(tx, row.id, transition(entryOf(current), eventFor(current), now), now);
+    }
+  });
+}
+
+export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptions): Promise<PushReport> {
+  const clock = options.now ?? (() => new Date());
+  const size = Math.min(options.batchSize ?? MAX_BATCH, MAX_BATCH);
+  const report: PushReport = { batches: 0, accepted: 0, rejected: 0, requeued: 0, failure: null };
+  // Each record is tried at most once per run, so a forced run cannot loop on a record that keeps failing.
+  const tried = new Set<string>();
+
+  for (;;) {
+    const batch = await claimBatch(dev, {
+      newId: options.newId,
+      now: clock(),
+      force: options.force ?? false,
+      size,
+      skip: tried,
+    });
+    if (!batch) break;
+    batch.rows.forEach((r) => tried.add(r.id));
+    report.batches++;
+
+    let result: PushResult;
+    try {
+      const records = batch.rows.map((r) => JSON.parse(r.json) as InspectionRecord);
+      result = pushResultSchema.parse(await api.push({ batchId: batch.batchId, records }));
+    } catch (err) {
+      const failure = classifyFailure(err);
+      await settle(dev, batch.rows, () => ({ type: 'failed', failure }), clock());
+      report.requeued += batch.rows.length;
+      report.failure = failure;
+      break;
+    }
+
+    const byId = new Map(result.results.filter((r) => r.id !== null).map((r) => [r.id, r]));
+    await settle(
+      dev,
+      batch.rows,
+      (row) => {
+        const answer = byId.get(row.id);
+        if (!answer) return { type: 'unanswered' };
+        if (answer.status === 'rejected') return { type: 'rejected', issues: answer.issues ?? [] };
+        return { type: answer.status };
+      },
+      clock(),
+    );
+    for (const row of batch.rows) {
+      const status = byId.get(row.id)?.status;
+      if (status === 'accepted' || status === 'duplicate') report.accepted++;
+      else if (status === 'rejected') report.rejected++;
+      else report.requeued++;
+    }
+  }
+  return report;
+}

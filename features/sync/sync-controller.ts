@@ -1,0 +1,167 @@
+/**
+ * Keeps one device database in step with the server while the app runs: a sync when the connection
+ * returns, on demand, and every half minute while anything waits (each record's back-off decides whether
+ * it goes). Publishes a status snapshot for `useSyncStatus`.
+ */
+import { randomUUID } from 'expo-crypto';
+
+import type { DeviceDb } from '@/features/device-db/connection';
+import { type OutboxItem, countOutbox, listOutbox, requeueRejected } from '@/features/device-db/outbox';
+import { type PhotoBlob, listPhotoBlobs } from '@/features/device-db/photos';
+import { getAllSyncMeta } from '@/features/device-db/sync-meta';
+import type { SyncApi } from '@/features/sync/api';
+import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
+import { createHttpSyncApi } from '@/features/sync/http-api';
+import { type PhotoProgress, requeuePhoto } from '@/features/sync/photo-upload';
+import { syncOnce } from '@/features/sync/sync-run';
+
+export const SYNC_INTERVAL_MS = 30_000;
+
+export type SyncStatus = {
+  /** Records queued or being sent. */
+  waiting: number;
+  accepted: number;
+  /** Records the server refused, with its reasons; they stay until the inspector acts. */
+  needsAttention: OutboxItem[];
+  photosWaiting: number;
+  photoBytesWaiting: number;
+  photosRefused: PhotoBlob[];
+  /** The photo going up now, with bytes sent so far. */
+  currentPhoto: PhotoProgress | null;
+  lastSuccessAt: string | null;
+  lastAttemptAt: string | null;
+  lastError: string | null;
+  running: boolean;
+  online: boolean;
+};
+
+export const emptySyncStatus: SyncStatus = {
+  waiting: 0,
+  accepted: 0,
+  needsAttention: [],
+  photosWaiting: 0,
+  photoBytesWaiting: 0,
+  photosRefused: [],
+  currentPhoto: null,
+  lastSuccessAt: null,
+  lastAttemptAt: null,
+  lastError: null,
+  running: false,
+  online: true,
+};
+
+export class SyncController {
+  private status: SyncStatus = { ...emptySyncStatus, online: isOnline() };
+  private listeners = new Set<() => void>();
+  private teardown: (() => void) | null = null;
+
+  constructor(
+    private readonly dev: DeviceDb,
+    private readonly api: SyncApi,
+    private readonly newId: () => string = randomUUID,
+  ) {}
+
+  getSnapshot = (): SyncStatus => this.status;
+
+  /** Starts listening on the first subscriber, stops after the last. */
+  subscribe = (listener: () => void): (() => void) => {
+    this.listeners.add(listener);
+    if (this.listeners.size === 1) this.start();
+    return () => {
+      this.listeners.delete(listener);
+      if (this.listeners.size === 0) this.stop();
+    };
+  };
+
+  /** Reads the counts again (after a submit, say) without syncing. */
+  refresh = async (): Promise<void> => {
+    const [counts, rejected, photos, refused, meta] = await Promise.all([
+      countOutbox(this.dev),
+      listOutbox(this.dev, ['rejected']),
+      listPhotoBlobs(this.dev, ['pending', 'uploading']),
+      listPhotoBlobs(this.dev, ['rejected']),
+      getAllSyncMeta(this.dev),
+    ]);
+    this.set({
+      waiting: counts.queued + counts.sending,
+      accepted: counts.accepted,
+      needsAttention: rejected,
+      photosWaiting: photos.length,
+      photoBytesWaiting: photos.reduce((sum, p) => sum + p.bytes, 0),
+      photosRefused: refused,
+      lastSuccessAt: meta.lastSuccessAt ?? null,
+      lastAttemptAt: meta.lastAttemptAt ?? null,
+      lastError: meta.lastError ?? null,
+    });
+  };
+
+  /** `force` skips the back-off: the inspector asked, or the connection just came back. */
+  syncNow = async ({ force = true }: { force?: boolean } = {}): Promise<void> => {
+    this.set({ running: true });
+    try {
+      await syncOnce(this.api, this.dev, {
+        newId: this.newId,
+        force,
+        onPhotoProgress: (p) => this.set({ currentPhoto: p }),
+      });
+    } catch (err) {
+      // The engine records its own failures; this is a database error, shown the same way.
+      this.set({ lastError: err instanceof Error ? err.message : String(err) });
+    } finally {
+      this.set({ running: false, currentPhoto: null });
+      await this.refresh().catch(() => undefined);
+    }
+  };
+
+  retryRecord = async (id: string): Promise<void> => {
+    await requeueRejected(this.dev, id);
+    await this.syncNow();
+  };
+
+  retryPhoto = async (sha: string): Promise<void> => {
+    await requeuePhoto(this.dev, sha);
+    await this.syncNow();
+  };
+
+  private set(patch: Partial<SyncStatus>) {
+    this.status = { ...this.status, ...patch };
+    this.listeners.forEach((l) => l());
+  }
+
+  private start() {
+    const offReturn = onConnectionReturn(() => {
+      this.set({ online: true });
+      void this.syncNow();
+    });
+    const offLoss = onConnectionLoss(() => this.set({ online: false }));
+    const timer = setInterval(() => {
+      if (isOnline() && (this.status.waiting > 0 || this.status.photosWaiting > 0))
+        void this.syncNow({ force: false });
+    }, SYNC_INTERVAL_MS);
+    this.teardown = () => {
+      offReturn();
+      offLoss();
+      clearInterval(timer);
+    };
+    void this.refresh()
+      .catch(() => undefined)
+      .then(() => (isOnline() ? this.syncNow({ force: false }) : undefined));
+  }
+
+  private stop() {
+    this.teardown?.();
+    this.teardown = null;
+  }
+}
+
+const controllers = new WeakMap<DeviceDb, SyncController>();
+
+/** One controller per open database, shared by every screen that shows sync state. */
+export function getSyncController(dev: DeviceDb, api: SyncApi = createHttpSyncApi()): SyncController {
+  let controller = controllers.get(dev);
+  if (!controller) {
+    controller = new SyncController(dev, api);
+    controllers.set(dev, controller);
+  }
+  return controller;
+}

@@ -1,0 +1,76 @@
+/**
+ * One sync: push the outbox, upload photos, pull the server's changes; then record the outcome in sync
+ * meta (last success, last error). Runs one at a time per database: a second call while one is running
+ * gets the running one.
+ */
+import type { DeviceDb } from '@/features/device-db/connection';
+import { setSyncMeta } from '@/features/device-db/sync-meta';
+import type { SyncApi } from '@/features/sync/api';
+import type { SendFailure } from '@/features/sync/outbox-machine';
+import { type PhotoProgress, type PhotoUploadReport, uploadPhotos } from '@/features/sync/photo-upload';
+import { type PullReport, pull } from '@/features/sync/pull';
+import { type PushReport, pushOutbox } from '@/features/sync/push';
+
+export type SyncRunOptions = {
+  newId: () => string;
+  now?: () => Date;
+  force?: boolean;
+  onPhotoProgress?: (progress: PhotoProgress) => void;
+};
+
+export type SyncRunReport = {
+  push: PushReport;
+  photos: PhotoUploadReport | null;
+  pull: PullReport | null;
+  /** The first thing that went wrong, in words for the inspector; null when everything went through. */
+  error: string | null;
+};
+
+const running = new WeakMap<DeviceDb, Promise<SyncRunReport>>();
+
+export function syncOnce(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): Promise<SyncRunReport> {
+  const current = running.get(dev);
+  if (current) return current;
+  const run = runSync(api, dev, options).finally(() => running.delete(dev));
+  running.set(dev, run);
+  return run;
+}
+
+export function isSyncRunning(dev: DeviceDb): boolean {
+  return running.has(dev);
+}
+
+async function runSync(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): Promise<SyncRunReport> {
+  const clock = options.now ?? (() => new Date());
+  await setSyncMeta(dev, 'lastAttemptAt', clock().toISOString());
+  const stop = (f: SendFailure | null) => f !== null && (f.kind === 'network' || f.kind === 'auth');
+
+  const push = await pushOutbox(api, dev, options);
+  let photos: PhotoUploadReport | null = null;
+  let pulled: PullReport | null = null;
+  let error: string | null = push.failure?.message ?? null;
+
+  if (!stop(push.failure)) {
+    photos = await uploadPhotos(api, dev, {
+      now: clock,
+      force: options.force,
+      onProgress: options.onPhotoProgress,
+    });
+    error ??= photos.failure?.message ?? null;
+    if (!stop(photos.failure)) {
+      try {
+        pulled = await pull(api, dev, { now: clock });
+      } catch (err) {
+        error ??= err instanceof Error ? err.message : String(err);
+      }
+    }
+  }
+
+  if (error === null) {
+    await setSyncMeta(dev, 'lastSuccessAt', clock().toISOString());
+    await setSyncMeta(dev, 'lastError', null);
+  } else {
+    await setSyncMeta(dev, 'lastError', error);
+  }
+  return { push, photos, pull: pulled, error };
+}
