@@ -6,6 +6,7 @@
  */
 import { z } from 'zod';
 
+import { designFileFormats } from '@/features/registry/csv';
 import { designDataSchema } from '@/features/registry/design-data';
 import type { QuantityKind } from '@/features/units';
 import {
@@ -350,7 +351,9 @@ export const measurementKinds = [
   'frequency',
   'count',
 ] as const satisfies readonly (QuantityKind | 'count')[];
-export const measurementKindSchema = z.enum(measurementKinds, { error: `One of ${measurementKinds.join(', ')}` });
+export const measurementKindSchema = z.enum(measurementKinds, {
+  error: `One of ${measurementKinds.join(', ')}`,
+});
 export type MeasurementKind = z.infer<typeof measurementKindSchema>;
 
 const itemId = () =>
@@ -484,7 +487,9 @@ export const inspectionTypes = [
   'setup_after_assembly',
   'follow_up',
 ] as const;
-export const inspectionTypeSchema = z.enum(inspectionTypes, { error: `One of ${inspectionTypes.join(', ')}` });
+export const inspectionTypeSchema = z.enum(inspectionTypes, {
+  error: `One of ${inspectionTypes.join(', ')}`,
+});
 export type InspectionType = z.infer<typeof inspectionTypeSchema>;
 export const inspectionTypeLabel: Record<InspectionType, string> = {
   daily_pre_opening: 'Daily pre-opening',
@@ -588,4 +593,36 @@ export const scheduleResponseSchema = z.object({ schedule: scheduleSchema });
 export const assignmentListResponseSchema = z.object({ assignments: z.array(scheduleSchema) });
 export const inspectorListResponseSchema = z.object({
   inspectors: z.array(z.object({ id: z.string(), name: z.string(), email: z.string() })),
+});
+
+// ——— design data import and export ———
+
+/**
+ * POST /api/rides/:id/design/import as JSON: the file's text (`content`; for JSON files the object itself
+ * is accepted too), its format and the reason for the new version. The same can be sent as a text body
+ * (Content-Type text/csv, text/plain or application/csv) with `format`, `reason` and `basedOnVersion` in
+ * the query.
+ */
+export const designImportBodySchema = z.object({
+  format: z.enum(designFileFormats, { error: 'csv or json' }),
+  content: z.union([z.string(), z.record(z.string(), z.unknown())], { error: 'The file’s content' }),
+  reason: changeReasonSchema,
+  basedOnVersion: z.number().int().min(0).optional(),
+});
+export const designImportQuerySchema = z.object({
+  format: z.enum(designFileFormats, { error: 'csv or json' }).optional(),
+  reason: changeReasonSchema.optional(),
+  basedOnVersion: z.coerce.number({ error: 'Must be a whole number' }).int().min(0).optional(),
+  /** Check the file and report, save nothing. */
+  dryRun: z
+    .enum(['true', 'false', '1', '0'], { error: 'true or false' })
+    .optional()
+    .transform((v) => v === 'true' || v === '1'),
+});
+/** A dry run's answer: the data the file would become. */
+export const designImportCheckResponseSchema = z.object({ ok: z.literal(true), data: designDataSchema });
+
+export const designExportQuerySchema = z.object({
+  format: z.enum(designFileFormats, { error: 'csv or json' }).default('csv'),
+  version: z.coerce.number({ error: 'Must be a whole number' }).int().min(1).optional(),
 });
