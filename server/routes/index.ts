@@ -4,12 +4,16 @@ import { authRouter } from '@/server/auth/router';
 import type { ApiDeps } from '@/server/deps';
 import { apiNotFound } from '@/server/http/errors';
 import { adminUsersRouter } from '@/server/routes/admin-users';
+import { auditRouter } from '@/server/routes/audit';
 import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
+import { inspectionsRouter } from '@/server/routes/inspections';
 import { loadsRouter } from '@/server/routes/loads';
+import { photosRouter } from '@/server/routes/photos';
 import { registerRouter } from '@/server/routes/register';
 import { ridesRouter } from '@/server/routes/rides';
 import { schedulesRouter } from '@/server/routes/schedules';
+import { syncRouter } from '@/server/routes/sync';
 
 /** Everything under `/api`. Anything it doesn't know ends in a JSON 404 here, never in the web app. */
 export function apiRouter(deps: ApiDeps): Router {
@@ -23,8 +27,10 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(designRouter(deps));
   router.use(checklistsRouter(deps));
   router.use(schedulesRouter(deps));
+  router.use(auditRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
+  router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(apiNotFound);
   return router;
 }

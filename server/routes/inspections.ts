@@ -1,0 +1,43 @@
+import { Router } from 'express';
+import { z } from 'zod';
+
+import { pagingQuerySchema } from '@/features/registry/schema';
+import type { ApiDeps } from '@/server/deps';
+import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { validate } from '@/server/http/validate';
+import { getInspection, listInspections } from '@/server/sync/read';
+
+const byId = validate({ params: z.object({ id: z.string().trim().min(1).max(64) }) });
+const listInput = validate({
+  query: pagingQuerySchema.extend({
+    rideId: z.string().trim().min(1).max(64).optional(),
+    inspectorId: z.string().trim().min(1).max(64).optional(),
+    mine: z.enum(['1', '0', 'true', 'false'], { error: '1 or 0' }).optional(),
+  }),
+});
+
+/**
+ * Accepted inspections (staff; an inspector sees only their own, and another's answers 404).
+ *
+ * - `GET /inspections?rideId=&inspectorId=&mine=1&page=&pageSize=` → `{ inspections, total, page, pageSize }`,
+ *   newest submission first, each with reading and photo counts, photos still missing, analysis status and
+ *   review state
+ * - `GET /inspections/:id` → `{ inspection }`: the record as accepted, readings, photos (each with
+ *   `received`: whether its bytes have arrived), the server's analysis (null until made, or with
+ *   `analysisNote` when none could be), amendments, review state
+ */
+export function inspectionsRouter(deps: ApiDeps): Router {
+  const router = Router();
+  const staff = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin')];
+
+  router.get('/inspections', ...staff, listInput, (_req, res) => {
+    const { mine, ...query } = listInput.query(res);
+    res.json(listInspections(deps.db, currentUser(res), { ...query, mine: mine === '1' || mine === 'true' }));
+  });
+
+  router.get('/inspections/:id', ...staff, byId, (_req, res) => {
+    res.json({ inspection: getInspection(deps.db, currentUser(res), byId.params(res).id) });
+  });
+
+  return router;
+}

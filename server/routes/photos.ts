@@ -1,0 +1,128 @@
+import { createHash } from 'node:crypto';
+
+import express, { Router, type RequestHandler } from 'express';
+import { z } from 'zod';
+
+import { nowOf, type ApiDeps } from '@/server/deps';
+import { HttpError, notFound } from '@/server/http/errors';
+import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { validate } from '@/server/http/validate';
+import {
+  findPhoto,
+  MAX_PHOTO_BYTES,
+  photoPathOf,
+  sniffImage,
+  storePhoto,
+  sweepPartialPhotos,
+} from '@/server/sync/photo-store';
+
+const byHash = validate({
+  params: z.object({
+    sha256: z.string().regex(/^[0-9a-f]{64}$/, 'Must be the photo’s SHA-256 as 64 lower-case hex digits'),
+  }),
+});
+
+const megabytes = (n: number) => `${(n / 1048576).toFixed(1)} MB`;
+const acceptedTypes = ['image/jpeg', 'image/png', 'image/webp', 'application/octet-stream'];
+
+/** The raw body parser, with its "too large" turned into a message that says what the limit is. */
+const rawPhoto: RequestHandler = (() => {
+  const parse = express.raw({ type: acceptedTypes, limit: MAX_PHOTO_BYTES });
+  const tooLarge = z.object({ type: z.literal('entity.too.large'), length: z.number().optional() });
+  return (req, res, next) =>
+    parse(req, res, (err?: unknown) => {
+      const big = tooLarge.safeParse(err);
+      if (big.success) {
+        const size = big.data.length === undefined ? '' : ` (this one is ${megabytes(big.data.length)})`;
+        next(
+          new HttpError(
+            413,
+            'payload_too_large',
+            `The photo is larger than the ${megabytes(MAX_PHOTO_BYTES)} limit${size}. Photos taken in the app ` +
+              'are compressed well below it; send a smaller copy.',
+          ),
+        );
+        return;
+      }
+      next(err);
+    });
+})();
+
+/**
+ * Photo bytes, addressed by their SHA-256 (staff only; operators will see photos through notices).
+ *
+ * - `PUT /photos/:sha256` with the raw bytes (Content-Type image/jpeg, image/png or image/webp, at most
+ *   8 MB) → 201 `{ stored: true, sha256 }` the first time, 200 `{ stored: false, sha256 }` when the server
+ *   already has them. 400 `hash_mismatch` when the bytes do not hash to the path, 413 `payload_too_large`,
+ *   415 `not_an_image` when the bytes are not a JPEG, PNG or WebP file (whatever the Content-Type said),
+ *   415 `unsupported_media_type` for a body sent as something else entirely.
+ * - `GET /photos/:sha256` → the bytes with their type and a year's private cache (content never changes);
+ *   404 JSON when the server does not have them.
+ */
+export function photosRouter(deps: ApiDeps): Router {
+  const router = Router();
+  const staff = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin')];
+  sweepPartialPhotos(deps.config.dataDir);
+
+  router.put('/photos/:sha256', ...staff, byHash, rawPhoto, async (req, res) => {
+    const { sha256 } = byHash.params(res);
+    const body: unknown = req.body;
+    if (!Buffer.isBuffer(body))
+      throw new HttpError(
+        415,
+        'unsupported_media_type',
+        'Send the photo as its raw bytes with Content-Type image/jpeg, image/png or image/webp.',
+      );
+    const mime = sniffImage(body);
+    if (mime === null)
+      throw new HttpError(
+        415,
+        'not_an_image',
+        body.length === 0
+          ? 'The upload is empty; send the photo’s bytes.'
+          : 'The file is not a JPEG, PNG or WebP image, so it was not stored.',
+      );
+    const actual = createHash('sha256').update(body).digest('hex');
+    if (actual !== sha256)
+      throw new HttpError(
+        400,
+        'hash_mismatch',
+        'The bytes received do not match the SHA-256 in the address; the upload was cut short or changed. ' +
+          'Nothing was stored; send it again.',
+        [{ path: 'params.sha256', message: `The bytes hash to ${actual}` }],
+      );
+    const { stored } = await storePhoto(
+      deps.db,
+      deps.config.dataDir,
+      { sha256, mime, bytes: body, userId: currentUser(res).id },
+      nowOf(deps),
+    );
+    res.status(stored ? 201 : 200).json({ stored, sha256 });
+  });
+
+  router.get('/photos/:sha256', ...staff, byHash, (_req, res, next) => {
+    const { sha256 } = byHash.params(res);
+    const photo = findPhoto(deps.db, sha256);
+    if (!photo)
+      throw notFound('The server has no photo with this SHA-256 (it may not have been uploaded yet).');
+    res.setHeader('Content-Type', photo.mime);
+    // Private: the bytes are behind sign-in. Immutable: the address is the content's own hash.
+    res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
+    res.sendFile(
+      photoPathOf(deps.config.dataDir, sha256),
+      { cacheControl: false, lastModified: false },
+      (err) => {
+        if (!err) return;
+        if (res.headersSent) {
+          next(err);
+          return;
+        }
+        res.removeHeader('Cache-Control');
+        res.removeHeader('Content-Type');
+        next(notFound('The photo is recorded but its file is missing on the server.'));
+      },
+    );
+  });
+
+  return router;
+}

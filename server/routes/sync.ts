@@ -1,0 +1,55 @@
+import { Router } from 'express';
+import { z } from 'zod';
+
+import { pushBatchSchema } from '@/features/inspections/schema';
+import { nowOf, type ApiDeps } from '@/server/deps';
+import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { validate } from '@/server/http/validate';
+import { scheduleAnalysis } from '@/server/sync/analysis';
+import { ingestBatch } from '@/server/sync/ingest';
+import { buildPull } from '@/server/sync/pull';
+
+const pushInput = validate({ body: pushBatchSchema });
+const pullInput = validate({
+  query: z.object({
+    cursor: z.string().trim().min(1, 'Leave the cursor out for a first pull').max(100).optional(),
+  }),
+});
+
+/**
+ * The phone's sync (inspectors, supervisors and admins; operators have no inspections to send).
+ *
+ * - `POST /sync/push` `{ batchId, records[] }` → 200 `{ batchId, results: [{ id, status, issues? }] }`, one
+ *   result per record in order: `accepted`, `duplicate` (already stored, identical) or `rejected` with
+ *   issues whose paths are relative to the record. The same batch id again (same user) answers the
+ *   stored result and writes nothing. A body that is not a batch at all is a 400 `validation_failed`.
+ * - `GET /sync/pull?cursor=` → the shape of features/sync/pull-schema.ts: everything on the first pull,
+ *   then what changed since `cursor`; a cursor this server did not give out is a 400 naming `query.cursor`.
+ *
+ * The server's own analysis of accepted records runs after the answer has gone (server/sync/analysis.ts).
+ */
+export function syncRouter(deps: ApiDeps): Router {
+  const router = Router();
+  const phones = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin')];
+
+  // Inspections a stop or crash left unanalysed are picked up as soon as the app is running again.
+  scheduleAnalysis(deps.db, deps.logger);
+
+  router.post('/sync/push', ...phones, pushInput, (_req, res) => {
+    const user = currentUser(res);
+    const { result, replayed, accepted } = ingestBatch(deps.db, user, pushInput.body(res));
+    res.json(result);
+    if (accepted > 0) scheduleAnalysis(deps.db, deps.logger);
+    res.log.info(
+      { batchId: result.batchId, records: result.results.length, accepted, replayed },
+      'sync push',
+    );
+  });
+
+  router.get('/sync/pull', ...phones, pullInput, (_req, res) => {
+    const { cursor } = pullInput.query(res);
+    res.json(buildPull(deps.db, currentUser(res), cursor ?? null, { now: nowOf(deps) }));
+  });
+
+  return router;
+}

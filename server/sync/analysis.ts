@@ -1,0 +1,161 @@
+/**
+ * The server's own load check of each accepted inspection, made after the push has been answered so a
+ * phone never waits for the engine. Every accepted inspection ends analysed (or with a note saying why it
+ * could not be): the push schedules a run, and so does every start of the app, which picks up anything a
+ * stop or crash left with `analysed_at` still empty.
+ */
+import { and, asc, eq, isNull } from 'drizzle-orm';
+
+import { inspections, type StoredAnalysis } from '@/db/server/inspections';
+import { designVersions } from '@/db/server/schema';
+import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
+import type { InspectionRecord } from '@/features/inspections/schema';
+import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
+import type { Db } from '@/server/db';
+import type { Logger } from '@/server/logger';
+import { isOpen } from '@/server/sync/sqlite-client';
+
+/** The phone analyses with the function's default sampling; the server must use the same to compare. */
+export const ANALYSIS_SAMPLES = 360;
+
+export const noDesignNote =
+  'The ride had no design data when this inspection arrived, so no load check was made. Enter the design ' +
+  'data and amend the inspection to have it checked.';
+
+export function summariseAnalysis(
+  result: CycleResult,
+  design: { id: string; version: number },
+  device: InspectionRecord['preview'],
+): StoredAnalysis {
+  const server = previewOf(result);
+  return {
+    engineVersion: ENGINE_VERSION,
+    designVersionId: design.id,
+    designVersion: design.version,
+    status: server.status,
+    durationS: result.durationS,
+    samples: result.samples,
+    joints: result.joints.map((j) => ({
+      name: j.name,
+      peakForceN: j.peakForce.value,
+      peakForceAtArmAngleRad: j.peakForce.armAngleRad,
+      peakTorqueNm: j.peakTorque.value,
+      forceRangeN: j.extremes.magnitudeN.range,
+    })),
+    seats: result.seats.map((s) => ({
+      name: s.name,
+      gxMin: s.extremes.gx.min,
+      gxMax: s.extremes.gx.max,
+      gzMin: s.extremes.gz.min,
+      gzMax: s.extremes.gz.max,
+    })),
+    envelope: result.envelope,
+    server,
+    device,
+    differences: previewDifferences(device, server),
+  };
+}
+
+/** Analyses one inspection if it still needs it; false when there was nothing to do. */
+export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean {
+  const row = db
+    .select({ record: inspections.record, designVersionId: inspections.designVersionId })
+    .from(inspections)
+    .where(eq(inspections.id, id))
+    .get();
+  if (!row) return false;
+  const design = row.designVersionId
+    ? db
+        .select({ id: designVersions.id, version: designVersions.version, data: designVersions.data })
+        .from(designVersions)
+        .where(eq(designVersions.id, row.designVersionId))
+        .get()
+    : undefined;
+
+  let analysis: StoredAnalysis | null = null;
+  let note: string | null = null;
+  if (!design) {
+    note = noDesignNote;
+  } else {
+    try {
+      const result = analyseInspection(design.data, row.record.readings, ANALYSIS_SAMPLES);
+      analysis = summariseAnalysis(result, design, row.record.preview);
+    } catch (err) {
+      // Stored as a note rather than retried forever: the same inputs would fail the same way.
+      const detail = err instanceof Error ? err.message : String(err);
+      note = `The load check could not be made with these readings and design data: ${detail}`;
+    }
+  }
+  // Only the first analysis counts; a second run (start-up sweep racing a push) changes nothing.
+  const changed = db
+    .update(inspections)
+    .set({
+      analysis,
+      analysisNote: note,
+      analysisStatus: analysis?.status ?? null,
+      analysedAt: now.toISOString(),
+    })
+    .where(and(eq(inspections.id, id), isNull(inspections.analysedAt)))
+    .run();
+  return changed.changes > 0;
+}
+
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/** Analyses everything not yet analysed, oldest first, letting requests in between records. */
+async function drain(db: Db): Promise<number> {
+  let done = 0;
+  for (;;) {
+    if (!isOpen(db)) return done;
+    const pending = db
+      .select({ id: inspections.id })
+      .from(inspections)
+      .where(isNull(inspections.analysedAt))
+      .orderBy(asc(inspections.receivedAt), asc(inspections.id))
+      .limit(25)
+      .all();
+    if (pending.length === 0) return done;
+    for (const { id } of pending) {
+      if (!isOpen(db)) return done;
+      if (analyseOne(db, id)) done++;
+      await yieldToEventLoop();
+    }
+  }
+}
+
+type Queue = { tail: Promise<number>; scheduled: boolean };
+const queues = new WeakMap<Db, Queue>();
+
+function queueOf(db: Db): Queue {
+  let q = queues.get(db);
+  if (!q) {
+    q = { tail: Promise.resolve(0), scheduled: false };
+    queues.set(db, q);
+  }
+  return q;
+}
+
+/**
+ * Analyses every inspection still without analysis and resolves with how many it analysed. Runs after
+ * any run already in progress, so when it resolves, everything accepted before the call is analysed.
+ */
+export function analysePending(db: Db): Promise<number> {
+  const q = queueOf(db);
+  const run = q.tail.catch(() => 0).then(() => drain(db));
+  q.tail = run;
+  return run;
+}
+
+/** Asks for a run on the next turn of the event loop (after the response in hand has been sent). */
+export function scheduleAnalysis(db: Db, logger: Logger): void {
+  const q = queueOf(db);
+  if (q.scheduled) return;
+  q.scheduled = true;
+  setImmediate(() => {
+    q.scheduled = false;
+    analysePending(db).catch((err: unknown) => {
+      // Whatever stopped this run, the rows stay unanalysed and the next push or start picks them up.
+      if (isOpen(db)) logger.error({ err }, 'analysing inspections failed');
+    });
+  });
+}

@@ -1,0 +1,247 @@
+/**
+ * GET /api/sync/pull, the service: what a phone needs to work without signal (rides with their current
+ * design data, checklist templates for those rides' classes, the caller's assignments, supervisors'
+ * decisions on the caller's inspections), everything on the first pull and then only what changed.
+ *
+ * The cursor is the time the previous answer was read, "v1:<ISO time>". Changes are found by their
+ * timestamps (rows' created_at and the audit log every registry change writes), looking back a few
+ * seconds before the cursor: a write stamped just before a pull but committed by another process just
+ * after it is sent on the next pull instead of lost. The phone stores everything by id, so what the
+ * overlap sends twice is harmless.
+ */
+import { and, eq, gte, inArray, isNotNull, ne, or } from 'drizzle-orm';
+
+import { inspections } from '@/db/server/inspections';
+import {
+  auditLog,
+  checklistTemplates,
+  checklistTemplateVersions,
+  designVersions,
+  rides,
+  users,
+} from '@/db/server/schema';
+import type { SessionUser } from '@/features/auth/schema';
+import type { RideSummary } from '@/features/rides/schema';
+import type { PullResponse } from '@/features/sync/pull-schema';
+import { companyScope } from '@/server/auth/scope';
+import type { Db } from '@/server/db';
+import { HttpError } from '@/server/http/errors';
+import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry/checklists';
+import { findDesignVersion } from '@/server/registry/design';
+import { findRide } from '@/server/registry/rides';
+import { assignmentsOf } from '@/server/registry/schedules';
+
+/** How far before the cursor changes are looked for again (clock skew between processes, slow commits). */
+export const CURSOR_OVERLAP_MS = 5_000;
+
+const CURSOR_PREFIX = 'v1:';
+
+export const cursorOf = (at: Date) => `${CURSOR_PREFIX}${at.toISOString()}`;
+
+/** The time a cursor stands for; a 400 naming the parameter when it is not one this server gave out. */
+export function parseCursor(cursor: string): Date {
+  const iso = cursor.startsWith(CURSOR_PREFIX) ? cursor.slice(CURSOR_PREFIX.length) : '';
+  const at = new Date(iso);
+  if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/.test(iso) || Number.isNaN(at.getTime()))
+    throw new HttpError(400, 'validation_failed', 'Some fields are missing or invalid.', [
+      {
+        path: 'query.cursor',
+        message: 'Not a cursor from this server; pull without a cursor to download everything again',
+      },
+    ]);
+  return at;
+}
+
+export type Decision = {
+  inspectionId: string;
+  rideId: string;
+  state: string;
+  note: string | null;
+  decidedAt: string;
+  decidedByName: string | null;
+};
+
+/**
+ * Builds one answer. `readAt` is when the answer is read (the next cursor); `now` is the business date
+ * for assignments' due status (pinned in tests). A cursor in the future (the server's clock was set
+ * back) is answered like a first pull, since changes stamped before it would otherwise never be sent.
+ */
+export function buildPull(
+  db: Db,
+  user: SessionUser,
+  cursor: string | null,
+  opts: { readAt?: Date; now?: Date } = {},
+): PullResponse {
+  const readAt = opts.readAt ?? new Date();
+  const now = opts.now ?? readAt;
+  const cursorAt = cursor === null ? null : parseCursor(cursor);
+  const since =
+    cursorAt === null || cursorAt.getTime() > readAt.getTime()
+      ? null
+      : new Date(cursorAt.getTime() - CURSOR_OVERLAP_MS).toISOString();
+  const scope = companyScope(user);
+
+  // One read transaction, so the answer is a consistent snapshot of the database.
+  return db.transaction((tx) => {
+    const visibleRideRows = tx
+      .select({ id: rides.id, rideClass: rides.rideClass, createdAt: rides.createdAt })
+      .from(rides)
+      .where(scope === null ? undefined : eq(rides.operatorCompanyId, scope))
+      .all();
+    const visible = new Set(visibleRideRows.map((r) => r.id));
+    const classes = [...new Set(visibleRideRows.map((r) => r.rideClass))];
+
+    const audit =
+      since === null
+        ? []
+        : tx
+            .select({
+              entity: auditLog.entity,
+              entityId: auditLog.entityId,
+              action: auditLog.action,
+              rideId: auditLog.rideId,
+            })
+            .from(auditLog)
+            .where(gte(auditLog.at, since))
+            .all();
+    const audited = (entity: (typeof audit)[number]['entity']) =>
+      new Set(audit.filter((a) => a.entity === entity).map((a) => a.entityId));
+
+    // ——— rides and their current design data ———
+    let rideIds: string[];
+    let designRideIds: string[];
+    const removedRides: string[] = [];
+    if (since === null) {
+      rideIds = [...visible];
+      designRideIds = rideIds;
+    } else {
+      const changed = new Set<string>();
+      for (const r of visibleRideRows) if (r.createdAt >= since) changed.add(r.id);
+      for (const id of audited('ride')) changed.add(id);
+      // A renamed site or operator changes the names every ride summary carries.
+      const sites = [...audited('site')];
+      const companies = [...audited('company')];
+      if (sites.length || companies.length) {
+        const affected = tx
+          .select({ id: rides.id })
+          .from(rides)
+          .where(
+            or(
+              sites.length ? inArray(rides.siteId, sites) : undefined,
+              companies.length ? inArray(rides.operatorCompanyId, companies) : undefined,
+            ),
+          )
+          .all();
+        for (const r of affected) changed.add(r.id);
+      }
+      rideIds = [...changed].filter((id) => visible.has(id));
+      for (const a of audit)
+        if (a.entity === 'ride' && a.action === 'delete' && !visible.has(a.entityId))
+          removedRides.push(a.entityId);
+      const newDesigns = tx
+        .select({ rideId: designVersions.rideId })
+        .from(designVersions)
+        .where(gte(designVersions.createdAt, since))
+        .all()
+        .map((d) => d.rideId);
+      designRideIds = [...new Set([...rideIds, ...newDesigns])].filter((id) => visible.has(id));
+    }
+    const rideList = rideIds
+      .map((id) => findRide(tx, id, scope))
+      .filter((r): r is RideSummary => r !== null)
+      .sort((a, b) => a.name.localeCompare(b.name));
+    const designs = designRideIds.flatMap((rideId) => {
+      const design = findDesignVersion(tx, rideId);
+      return design ? [{ ...design, rideId }] : [];
+    });
+
+    // ——— checklist templates for the classes of those rides ———
+    let templateIds: string[];
+    const removedTemplates: string[] = [];
+    if (since === null) {
+      templateIds = classes.flatMap((rideClass) =>
+        listChecklistTemplates(tx, { rideClass }).map((t) => t.id),
+      );
+    } else {
+      const changed = audited('checklist_template');
+      for (const t of tx
+        .select({ id: checklistTemplates.id })
+        .from(checklistTemplates)
+        .where(gte(checklistTemplates.createdAt, since))
+        .all())
+        changed.add(t.id);
+      for (const v of tx
+        .select({ id: checklistTemplateVersions.templateId })
+        .from(checklistTemplateVersions)
+        .where(gte(checklistTemplateVersions.createdAt, since))
+        .all())
+        changed.add(v.id);
+      for (const t of tx
+        .select({ id: checklistTemplates.id })
+        .from(checklistTemplates)
+        .where(and(isNotNull(checklistTemplates.archivedAt), gte(checklistTemplates.archivedAt, since)))
+        .all())
+        changed.add(t.id);
+      // A ride that is new, or changed class, needs its class's templates even if they did not change.
+      const rideClasses = new Set(rideList.map((r) => r.rideClass));
+      for (const rideClass of rideClasses)
+        for (const t of listChecklistTemplates(tx, { rideClass })) changed.add(t.id);
+      templateIds = [...changed];
+    }
+    const templates = templateIds.flatMap((id) => {
+      const template = findChecklistTemplate(tx, id);
+      if (!template) return [];
+      if (template.archivedAt !== null || !classes.includes(template.rideClass)) {
+        removedTemplates.push(id);
+        return [];
+      }
+      return [template];
+    });
+
+    // ——— assignments: always the whole (short) list, since due status moves with the date alone ———
+    // `db`, not `tx`: the registry's function takes the database type; on this one connection it reads
+    // inside the same transaction all the same.
+    const assignments = assignmentsOf(db, user.id, now).filter((a) => visible.has(a.rideId));
+    const mine = new Set(assignments.map((a) => a.id));
+    const removedAssignments = [...audited('schedule')].filter((id) => !mine.has(id));
+
+    // ——— decisions on the caller's inspections ———
+    const decisions: Decision[] = tx
+      .select({
+        inspectionId: inspections.id,
+        rideId: inspections.rideId,
+        state: inspections.reviewState,
+        note: inspections.reviewNote,
+        decidedAt: inspections.reviewedAt,
+        decidedByName: users.name,
+      })
+      .from(inspections)
+      .leftJoin(users, eq(users.id, inspections.reviewedBy))
+      .where(
+        and(
+          eq(inspections.inspectorId, user.id),
+          ne(inspections.reviewState, 'submitted'),
+          isNotNull(inspections.reviewedAt),
+          since === null ? undefined : gte(inspections.reviewedAt, since),
+        ),
+      )
+      .all()
+      .flatMap((d) => (d.decidedAt === null ? [] : [{ ...d, decidedAt: d.decidedAt }]));
+
+    const removed = {
+      ...(removedRides.length ? { rides: removedRides } : {}),
+      ...(removedAssignments.length ? { assignments: removedAssignments } : {}),
+      ...(removedTemplates.length ? { templates: removedTemplates } : {}),
+    };
+    return {
+      cursor: cursorOf(readAt),
+      rides: rideList,
+      designs,
+      templates,
+      assignments,
+      decisions,
+      ...(Object.keys(removed).length ? { removed } : {}),
+      hasMore: false,
+    };
+  });
+}
