@@ -3,6 +3,7 @@
  * schema and written together with its new cursor in one transaction: a bad or cut answer changes
  * nothing, and the next pull asks again from the same place.
  */
+import { ApiRequestError } from '@/features/api/client';
 import type { DeviceDb } from '@/features/device-db/connection';
 import {
   removeCached,
@@ -36,6 +37,12 @@ export class PullResponseError extends Error {
   }
 }
 
+function isStaleCursor(err: unknown): boolean {
+  return (
+    err instanceof ApiRequestError && err.status === 400 && err.issues.some((i) => i.path === 'query.cursor')
+  );
+}
+
 export async function pull(
   api: SyncApi,
   dev: DeviceDb,
@@ -53,8 +60,21 @@ export async function pull(
     cursor,
   };
 
+  let restarted = false;
   for (let page = 0; page < MAX_PULL_PAGES; page++) {
-    const raw = await api.pull(cursor);
+    let raw: unknown;
+    try {
+      raw = await api.pull(cursor);
+    } catch (err) {
+      // A cursor the server no longer knows (its data was reset or moved): download everything again.
+      if (cursor !== null && !restarted && isStaleCursor(err)) {
+        restarted = true;
+        cursor = null;
+        page--;
+        continue;
+      }
+      throw err;
+    }
     const parsed = pullResponseSchema.safeParse(raw);
     if (!parsed.success) {
       const first = parsed.error.issues[0];

@@ -7,6 +7,7 @@
  */
 import { randomUUID } from 'node:crypto';
 
+import { ApiRequestError } from '@/features/api/client';
 import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoBlob, putPhotoBlob } from '@/features/device-db/photos';
 import { saveDraft, submitDraft } from '@/features/device-db/drafts';
@@ -276,6 +277,19 @@ describe('pull', () => {
     await pull(server, dev);
     expect(server.pullCursorsSeen.at(-1)).toBe('c2');
     expect((await readAssignments(dev)).map((a) => a.id)).toEqual(['as-2']);
+  });
+
+  test('a cursor the server no longer knows starts a full download instead of failing forever', async () => {
+    server.pullPages = [{ cursor: 'c1', rides: [ride] }];
+    await pull(server, dev);
+    server.pullPages = [
+      new ApiRequestError(400, 'validation_failed', 'Invalid request', [
+        { path: 'query.cursor', message: 'Not a cursor from this server' },
+      ]),
+      { cursor: 'fresh-1', rides: [ride] },
+    ];
+    expect((await pull(server, dev)).cursor).toBe('fresh-1');
+    expect(server.pullCursorsSeen).toEqual([null, 'c1', null]);
   });
 
   test('a malformed answer changes nothing and keeps the cursor', async () => {
