@@ -1,3 +1,3 @@
-import { InspectorHome } from '@/features/home/inspector-home';
+import { TodayScreen } from '@/features/inspections/today-screen';
 
-export default InspectorHome;
+export default TodayScreen;

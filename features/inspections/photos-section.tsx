@@ -1,4 +1,4 @@
-import { Image, Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
@@ -12,8 +12,8 @@ import type { DesignData } from '@/features/registry/design-data';
 type Props = {
   draft: Draft;
   design: DesignData | null;
-  /** A displayable URI for a stored photo (data: URI from the device store). */
-  uriOf: (photo: PhotoRef) => string | undefined;
+  /** Shows a stored photo (the screen reads its bytes from the device store). */
+  Thumb: (props: { photo: PhotoRef }) => React.ReactNode;
   onCapture: (source: 'camera' | 'library') => void;
   onUpdate: (id: string, patch: Partial<Pick<PhotoRef, 'caption' | 'joint' | 'checklistItemId'>>) => void;
   onRemove: (id: string) => void;
@@ -22,7 +22,7 @@ type Props = {
 };
 
 /** Photos of pivot wear and failed items: taken, captioned and tied to a pivot or a checklist item. */
-export function PhotosSection({ draft, design, uriOf, onCapture, onUpdate, onRemove, busy, error }: Props) {
+export function PhotosSection({ draft, design, Thumb, onCapture, onUpdate, onRemove, busy, error }: Props) {
   const pivots = design?.bodies.map((b, i) => design.pivots.find((p) => p.joint === i)?.name ?? b.name) ?? [];
   const failed = draft.checklist.filter((a) => a.result === 'fail' || a.result === null);
   return (
@@ -47,11 +47,7 @@ export function PhotosSection({ draft, design, uriOf, onCapture, onUpdate, onRem
       {draft.photos.map((photo, n) => (
         <Card key={photo.id}>
           <View style={styles.photoRow}>
-            <Image
-              source={{ uri: uriOf(photo) }}
-              style={styles.thumb}
-              accessibilityLabel={photo.caption || `Photo ${n + 1}`}
-            />
+            <Thumb photo={photo} />
             <View style={styles.photoMeta}>
               <Text variant="label" muted>
                 PHOTO {n + 1} · {Math.round(photo.bytes / 1024)} KB
@@ -124,7 +120,6 @@ const styles = StyleSheet.create({
   root: { gap: space.md },
   actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   photoRow: { flexDirection: 'row', gap: space.md },
-  thumb: { width: 112, height: 112, borderRadius: radius.md, backgroundColor: colors.surfaceSunk },
   photoMeta: { flex: 1, gap: space.sm },
   chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   chip: {

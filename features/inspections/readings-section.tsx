@@ -31,7 +31,10 @@ type Props = {
   onAdd: (r: Reading) => void;
   onRemove: (id: string) => void;
   /** A tap timer for period readings, when the screen offers one. */
-  renderTimer?: (onUse: (periodS: number, spreadS: number) => void) => React.ReactNode;
+  renderTimer?: (
+    onUse: (periodS: number, spreadS: number) => void,
+    per: 'revolution' | 'swing',
+  ) => React.ReactNode;
 };
 
 /** Per pivot: the motion readings its design motion calls for, and pin and bushing wear. */
@@ -77,6 +80,7 @@ export function ReadingsSection({ draft, design, system, onAdd, onRemove, render
                 system={system}
                 onAdd={onAdd}
                 timer={kind === 'period' ? renderTimer : undefined}
+                per={motion?.kind === 'swing' ? 'swing' : 'revolution'}
               />
             ))}
             {taken.length > 0 ? (
@@ -135,7 +139,9 @@ function ReadingInput({
   system,
   onAdd,
   timer,
+  per,
 }: {
+  per: 'revolution' | 'swing';
   kind: Exclude<ReadingKind, 'other'>;
   joint: number;
   bodyName: string;
@@ -197,7 +203,7 @@ function ReadingInput({
           timer((periodS, spreadS) => {
             add(periodS, 'tap_timer', spreadS);
             setTiming(false);
-          })
+          }, per)
         ) : (
           <Button label="Time it with taps" tone="quiet" onPress={() => setTiming(true)} />
         )

@@ -1,0 +1,174 @@
+import { router } from 'expo-router';
+import { useEffect, useState } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { QueryState } from '@/components/query-state';
+import { Screen, SectionTitle } from '@/components/screen';
+import { RideStatusMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { colors, radius, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { RoleGate } from '@/features/auth/role-gate';
+import { firstName, greeting, longDate } from '@/features/home/greeting';
+import { useFieldRidesQuery, useStartInspectionMutation } from '@/features/inspections/field-api';
+import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/inspections/schema';
+import { scheduleSchema } from '@/features/registry/schema';
+import { rideClassLabel } from '@/features/rides/schema';
+import { SyncPanel } from '@/features/inspections/sync-panel';
+import { useSyncStatus } from '@/features/sync/use-sync-status';
+
+/**
+ * The inspector's day, read from the phone: assigned rides first, drafts to resume, what is waiting to
+ * be sent. Works with no signal once the phone has synced.
+ */
+export function TodayScreen() {
+  const rides = useFieldRidesQuery();
+  const sync = useSyncStatus();
+  const wide = useWide();
+  // First visit on a fresh phone: fetch the round while there is a connection.
+  const { syncNow, lastSuccessAt } = sync;
+  useEffect(() => {
+    if (!lastSuccessAt) void syncNow();
+  }, [lastSuccessAt, syncNow]);
+
+  return (
+    <RoleGate roles={['inspector']}>
+      {(user) => (
+        <Screen title={`${greeting()}, ${firstName(user.name)}`} subtitle={longDate()}>
+          <SyncPanel status={sync} />
+          <QueryState query={rides}>
+            {(list) =>
+              list.length === 0 ? (
+                <Card>
+                  <Text muted>
+                    No rides on this phone yet. Connect and sync to download your round; after that it works
+                    offline.
+                  </Text>
+                </Card>
+              ) : (
+                <>
+                  {list.some((r) => r.drafts.length > 0) ? (
+                    <>
+                      <SectionTitle>In progress</SectionTitle>
+                      {list.flatMap((r) =>
+                        r.drafts.map((d) => (
+                          <Card key={d.id} style={styles.draft}>
+                            <View style={styles.grow}>
+                              <Text variant="heading">{r.ride.name}</Text>
+                              <Text variant="small" muted>
+                                Last change {new Date(d.updatedAt).toLocaleString('en-GB')}
+                              </Text>
+                            </View>
+                            <Button label="Resume" onPress={() => router.push(`/inspect/${d.id}`)} />
+                          </Card>
+                        )),
+                      )}
+                    </>
+                  ) : null}
+                  <SectionTitle>{`Your rides (${list.length})`}</SectionTitle>
+                  <View style={wide ? styles.gridWide : styles.grid}>
+                    {list.map((r) => (
+                      <View key={r.ride.id} style={wide ? styles.cellWide : undefined}>
+                        <RideToInspect entry={r} />
+                      </View>
+                    ))}
+                  </View>
+                </>
+              )
+            }
+          </QueryState>
+        </Screen>
+      )}
+    </RoleGate>
+  );
+}
+
+type Entry = NonNullable<ReturnType<typeof useFieldRidesQuery>['data']>[number];
+
+function RideToInspect({ entry }: { entry: Entry }) {
+  const start = useStartInspectionMutation();
+  const [choosing, setChoosing] = useState(false);
+  const schedule = entry.assignment ? scheduleSchema.safeParse(entry.assignment) : null;
+  const assigned = schedule?.success ? schedule.data : null;
+  const begin = (type: InspectionType) =>
+    start.mutate({ rideId: entry.ride.id, type }, { onSuccess: (d) => router.push(`/inspect/${d.id}`) });
+  return (
+    <Card accessibilityLabel={`Ride ${entry.ride.name}`}>
+      <View style={styles.head}>
+        <View style={styles.grow}>
+          <Text variant="heading">{entry.ride.name}</Text>
+          <Text variant="small" muted>
+            {rideClassLabel[entry.ride.rideClass]} · {entry.ride.siteName ?? 'No site'}
+          </Text>
+        </View>
+        <RideStatusMark status={entry.ride.status} compact />
+      </View>
+      {assigned ? (
+        <Text variant="small" color={assigned.dueStatus === 'overdue' ? colors.over : colors.text}>
+          Assigned: {inspectionTypeLabel[assigned.inspectionType]}
+          {assigned.nextDueOn ? ` · due ${assigned.nextDueOn}` : ''}
+          {assigned.dueStatus === 'overdue' ? ' · overdue' : ''}
+        </Text>
+      ) : null}
+      {choosing ? (
+        <View style={styles.types} role="radiogroup" accessibilityLabel="Inspection type">
+          {inspectionTypes.map((t) => (
+            <Pressable
+              key={t}
+              role="radio"
+              aria-checked={false}
+              onPress={() => begin(t)}
+              style={StyleSheet.flatten([
+                styles.type,
+                assigned?.inspectionType === t && styles.typeSuggested,
+              ])}
+            >
+              <Text variant="label">{inspectionTypeLabel[t]}</Text>
+            </Pressable>
+          ))}
+        </View>
+      ) : (
+        <Button
+          label="Start inspection"
+          busy={start.isPending}
+          onPress={() => (assigned ? begin(assigned.inspectionType) : setChoosing(true))}
+        />
+      )}
+      {assigned && !choosing ? (
+        <Pressable onPress={() => setChoosing(true)} accessibilityRole="button" style={styles.other}>
+          <Text variant="small" color={colors.accent}>
+            Another type of inspection…
+          </Text>
+        </Pressable>
+      ) : null}
+      {start.isError ? (
+        <Text role="alert" color={colors.danger}>
+          {(start.error as Error).message}
+        </Text>
+      ) : null}
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  grow: { flex: 1, gap: 2 },
+  head: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
+  draft: { flexDirection: 'row', alignItems: 'center', gap: space.md },
+  grid: { gap: space.md },
+  gridWide: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  cellWide: { flexBasis: 360, flexGrow: 1, maxWidth: 560 },
+  types: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  type: {
+    minHeight: 44,
+    justifyContent: 'center',
+    paddingHorizontal: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1.5,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  typeSuggested: { borderColor: colors.base },
+  other: { minHeight: 36, justifyContent: 'center' },
+});
