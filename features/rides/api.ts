@@ -1,12 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
 
 import { apiFetch } from '@/features/api/client';
-import { rideDetailResponseSchema } from '@/features/rides/detail-schema';
+import { rideDetailResponseSchema } from '@/features/registry/schema';
 import { rideListResponseSchema } from '@/features/rides/schema';
 
 export const rideKeys = {
   all: ['rides'] as const,
   list: () => [...rideKeys.all, 'list'] as const,
+  /** One page of the register's ride list, keyed by its (cleaned) query. */
+  page: (query: Record<string, unknown>) => [...rideKeys.all, 'page', query] as const,
   detail: (id: string) => [...rideKeys.all, 'detail', id] as const,
 };
 
@@ -20,10 +22,15 @@ export function useRidesQuery() {
   });
 }
 
+/**
+ * The ride with its current design data. Parsed with the register's schema (which also carries the
+ * version's origin) so every screen that shares this cache entry sees the same shape.
+ */
 export function useRideQuery(id: string | null) {
   return useQuery({
     queryKey: rideKeys.detail(id ?? ''),
-    queryFn: () => apiFetch(`/api/rides/${encodeURIComponent(id ?? '')}`, { schema: rideDetailResponseSchema }),
+    queryFn: () =>
+      apiFetch(`/api/rides/${encodeURIComponent(id ?? '')}`, { schema: rideDetailResponseSchema }),
     enabled: !!id,
     staleTime: RIDES_STALE_MS,
   });

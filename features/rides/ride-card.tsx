@@ -1,17 +1,31 @@
-import { StyleSheet, View } from 'react-native';
+import Feather from '@expo/vector-icons/Feather';
+import { Link } from 'expo-router';
+import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { space } from '@/components/theme';
+import { colors, radius, space } from '@/components/theme';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 
-export function RideCard({ ride, showOperator = true }: { ride: RideSummary; showOperator?: boolean }) {
+/** The route of a ride's own page. */
+export const rideHref = (id: string) => `/rides/${encodeURIComponent(id)}` as const;
+
+/** A ride at a glance. With `link`, the whole card opens the ride's page. */
+export function RideCard({
+  ride,
+  showOperator = true,
+  link = false,
+}: {
+  ride: RideSummary;
+  showOperator?: boolean;
+  link?: boolean;
+}) {
   const makerLine = [ride.maker, ride.model, ride.serial ? `s/n ${ride.serial}` : null]
     .filter(Boolean)
     .join(' · ');
-  return (
-    <Card accessibilityLabel={`Ride ${ride.name}`}>
+  const body = (
+    <>
       <View style={styles.head}>
         <View style={styles.titles}>
           <Text variant="heading">{ride.name}</Text>
@@ -31,11 +45,40 @@ export function RideCard({ ride, showOperator = true }: { ride: RideSummary; sho
       {ride.status !== 'in_service' && ride.statusReason ? (
         <Text variant="small">Reason: {ride.statusReason}</Text>
       ) : null}
-    </Card>
+    </>
+  );
+  if (!link) return <Card accessibilityLabel={`Ride ${ride.name}`}>{body}</Card>;
+  return (
+    <Link href={rideHref(ride.id)} asChild>
+      <Pressable
+        role="link"
+        accessibilityLabel={`Ride ${ride.name}`}
+        // Link (asChild) hands its style to the DOM node as-is on web: one flat object.
+        style={styles.linkCard}
+      >
+        {body}
+        <View style={styles.open}>
+          <Text variant="label" color={colors.accent}>
+            Open ride
+          </Text>
+          <Feather name="chevron-right" size={16} color={colors.accent} />
+        </View>
+      </Pressable>
+    </Link>
   );
 }
 
 const styles = StyleSheet.create({
   head: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-start', gap: space.md },
   titles: { flexShrink: 1, gap: 2 },
+  // Same look as Card; Card itself is a View and cannot take a pressed state.
+  linkCard: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.border,
+    padding: space.lg,
+    gap: space.sm,
+  },
+  open: { flexDirection: 'row', alignItems: 'center', alignSelf: 'flex-end', gap: 2 },
 });

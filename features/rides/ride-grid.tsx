@@ -5,14 +5,22 @@ import { useWide } from '@/components/use-wide';
 import { RideCard } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';
 
-/** Ride cards: one column on a phone, a grid on a desktop. */
-export function RideGrid({ rides, showOperator }: { rides: RideSummary[]; showOperator?: boolean }) {
+/** Ride cards: one column on a phone, a grid on a desktop. Each card opens its ride's page. */
+export function RideGrid({
+  rides,
+  showOperator,
+  link = true,
+}: {
+  rides: RideSummary[];
+  showOperator?: boolean;
+  link?: boolean;
+}) {
   const wide = useWide();
   return (
     <View style={[styles.grid, wide && styles.gridWide]}>
       {rides.map((ride) => (
         <View key={ride.id} style={wide ? styles.cellWide : undefined}>
-          <RideCard ride={ride} showOperator={showOperator} />
+          <RideCard ride={ride} showOperator={showOperator} link={link} />
         </View>
       ))}
     </View>

@@ -1,17 +1,27 @@
 import type { Role } from '@/features/auth/schema';
 
 export type NavIcon = 'sun' | 'inbox' | 'home' | 'users' | 'activity' | 'user' | 'list';
-export type NavItem = { href: string; label: string; icon: NavIcon };
+export type NavItem = {
+  href: string;
+  label: string;
+  icon: NavIcon;
+  /** Other path prefixes that belong to this item (the register's pages sit under "Rides"). */
+  also?: readonly string[];
+};
+
+const rides: NavItem = { href: '/rides', label: 'Rides', icon: 'list', also: ['/register'] };
 
 /** What each role sees in the navigation, in order. The first item is the role's home. */
 export const navItems: Record<Role, NavItem[]> = {
   inspector: [
     { href: '/today', label: 'Today', icon: 'sun' },
+    rides,
     { href: '/loads', label: 'Load check', icon: 'activity' },
     { href: '/account', label: 'Account', icon: 'user' },
   ],
   supervisor: [
     { href: '/review', label: 'Review', icon: 'inbox' },
+    rides,
     { href: '/loads', label: 'Load check', icon: 'activity' },
     { href: '/account', label: 'Account', icon: 'user' },
   ],
@@ -21,12 +31,15 @@ export const navItems: Record<Role, NavItem[]> = {
   ],
   admin: [
     { href: '/admin', label: 'Admin', icon: 'users' },
+    rides,
     { href: '/loads', label: 'Load check', icon: 'activity' },
     { href: '/account', label: 'Account', icon: 'user' },
   ],
 };
 
-/** True when `pathname` belongs to the nav item (exact or a sub-route). */
+const under = (prefix: string, pathname: string) => pathname === prefix || pathname.startsWith(`${prefix}/`);
+
+/** True when `pathname` belongs to the nav item (exact or a sub-route, or one of its other prefixes). */
 export function isActive(item: NavItem, pathname: string): boolean {
-  return pathname === item.href || pathname.startsWith(`${item.href}/`);
+  return under(item.href, pathname) || (item.also ?? []).some((p) => under(p, pathname));
 }

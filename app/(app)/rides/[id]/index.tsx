@@ -1,0 +1,3 @@
+import { RideDetailScreen } from '@/features/registry/ride-detail-screen';
+
+export default RideDetailScreen;

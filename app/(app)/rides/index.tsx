@@ -1,0 +1,3 @@
+import { RidesListScreen } from '@/features/registry/rides-list-screen';
+
+export default RidesListScreen;

@@ -1,0 +1,392 @@
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { z } from 'zod';
+
+import { apiFetch } from '@/features/api/client';
+import type { DesignData } from '@/features/registry/design-data';
+import {
+  type ChecklistContentInput,
+  type CompanyInput,
+  type RideInput,
+  type RideListQuery,
+  type RidePatch,
+  type ScheduleInput,
+  type SchedulePatch,
+  type SiteInput,
+  assignmentListResponseSchema,
+  checklistTemplateListResponseSchema,
+  checklistTemplateResponseSchema,
+  checklistVersionListResponseSchema,
+  companyListResponseSchema,
+  companyResponseSchema,
+  designResponseSchema,
+  designVersionListResponseSchema,
+  inspectorListResponseSchema,
+  rideListPageSchema,
+  rideResponseSchema,
+  scheduleListResponseSchema,
+  scheduleResponseSchema,
+  siteListResponseSchema,
+  siteResponseSchema,
+} from '@/features/registry/schema';
+import type { RideClass } from '@/features/rides/schema';
+import { rideKeys } from '@/features/rides/api';
+
+/** Query parameters as the API reads them; empty values are left out so keys stay stable. */
+export type QueryParams = Record<string, string | number | readonly string[] | undefined | null>;
+
+export function toSearch(params: QueryParams): string {
+  const search = new URLSearchParams();
+  for (const [key, value] of Object.entries(params)) {
+    if (value === undefined || value === null || value === '') continue;
+    if (Array.isArray(value)) {
+      if (value.length > 0) search.set(key, value.join(','));
+    } else search.set(key, String(value));
+  }
+  const text = search.toString();
+  return text ? `?${text}` : '';
+}
+
+/** Drops empty values so two equal queries make the same cache key whatever their spelling. */
+function clean(params: QueryParams): QueryParams {
+  return Object.fromEntries(
+    Object.entries(params).filter(
+      ([, v]) => v !== undefined && v !== null && v !== '' && !(Array.isArray(v) && v.length === 0),
+    ),
+  );
+}
+
+export const registryKeys = {
+  all: ['registry'] as const,
+  companies: () => [...registryKeys.all, 'companies'] as const,
+  companyList: (q: QueryParams) => [...registryKeys.companies(), 'list', clean(q)] as const,
+  company: (id: string) => [...registryKeys.companies(), 'one', id] as const,
+  sites: () => [...registryKeys.all, 'sites'] as const,
+  siteList: (q: QueryParams) => [...registryKeys.sites(), 'list', clean(q)] as const,
+  site: (id: string) => [...registryKeys.sites(), 'one', id] as const,
+  design: (rideId: string) => [...registryKeys.all, 'design', rideId] as const,
+  designVersions: (rideId: string) => [...registryKeys.design(rideId), 'versions'] as const,
+  designVersion: (rideId: string, version: number) =>
+    [...registryKeys.design(rideId), 'version', version] as const,
+  checklists: () => [...registryKeys.all, 'checklists'] as const,
+  checklistList: (q: QueryParams) => [...registryKeys.checklists(), 'list', clean(q)] as const,
+  checklist: (id: string) => [...registryKeys.checklists(), 'one', id] as const,
+  checklistVersions: (id: string) => [...registryKeys.checklist(id), 'versions'] as const,
+  checklistVersion: (id: string, version: number) =>
+    [...registryKeys.checklist(id), 'version', version] as const,
+  schedules: () => [...registryKeys.all, 'schedules'] as const,
+  scheduleList: (q: QueryParams) => [...registryKeys.schedules(), 'list', clean(q)] as const,
+  rideSchedules: (rideId: string) => [...registryKeys.schedules(), 'ride', rideId] as const,
+  myAssignments: () => [...registryKeys.schedules(), 'mine'] as const,
+  inspectors: () => [...registryKeys.all, 'inspectors'] as const,
+  audit: () => [...registryKeys.all, 'audit'] as const,
+  auditList: (q: QueryParams) => [...registryKeys.audit(), 'list', clean(q)] as const,
+};
+
+/** The register changes rarely and is edited by few people; a minute keeps screens snappy. */
+const REGISTER_STALE_MS = 60 * 1000;
+/** Design and template versions never change once made. */
+const VERSION_STALE_MS = Infinity;
+
+const enc = encodeURIComponent;
+
+// ——— rides ———
+
+/** One page of rides, filtered, searched and sorted by the server. */
+export function useRidePageQuery(query: Partial<RideListQuery>) {
+  const params = query as QueryParams;
+  return useQuery({
+    queryKey: rideKeys.page(clean(params)),
+    queryFn: () => apiFetch(`/api/rides${toSearch(params)}`, { schema: rideListPageSchema }),
+    staleTime: REGISTER_STALE_MS,
+    placeholderData: keepPreviousData,
+  });
+}
+
+/** Lists, details, schedules (which show ride names and statuses) and the audit log all move together. */
+function useInvalidateRegister() {
+  const client = useQueryClient();
+  return () =>
+    Promise.all([
+      client.invalidateQueries({ queryKey: rideKeys.all }),
+      client.invalidateQueries({ queryKey: registryKeys.all }),
+    ]);
+}
+
+export function useRideCreateMutation() {
+  const invalidate = useInvalidateRegister();
+  return useMutation({
+    mutationFn: (body: RideInput) => apiFetch('/api/rides', { body, schema: rideResponseSchema }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useRideUpdateMutation(id: string) {
+  const invalidate = useInvalidateRegister();
+  return useMutation({
+    mutationFn: (body: RidePatch) =>
+      apiFetch(`/api/rides/${enc(id)}`, { method: 'PATCH', body, schema: rideResponseSchema }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useRideDeleteMutation(id: string) {
+  const invalidate = useInvalidateRegister();
+  return useMutation({
+    mutationFn: () => apiFetch(`/api/rides/${enc(id)}`, { method: 'DELETE' }),
+    onSuccess: invalidate,
+  });
+}
+
+// ——— design data ———
+
+export function useDesignVersionsQuery(rideId: string, enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.designVersions(rideId),
+    queryFn: async () =>
+      (
+        await apiFetch(`/api/rides/${enc(rideId)}/design/versions`, {
+          schema: designVersionListResponseSchema,
+        })
+      ).versions,
+    staleTime: REGISTER_STALE_MS,
+    enabled,
+  });
+}
+
+export function useDesignVersionQuery(rideId: string, version: number) {
+  return useQuery({
+    queryKey: registryKeys.designVersion(rideId, version),
+    queryFn: async () =>
+      (
+        await apiFetch(`/api/rides/${enc(rideId)}/design/versions/${version}`, {
+          schema: designResponseSchema,
+        })
+      ).design,
+    staleTime: VERSION_STALE_MS,
+    enabled: Number.isInteger(version) && version > 0,
+  });
+}
+
+export function useDesignPutMutation(rideId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: { reason: string; data: DesignData; basedOnVersion?: number }) =>
+      apiFetch(`/api/rides/${enc(rideId)}/design`, { method: 'PUT', body, schema: designResponseSchema }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.design(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}
+
+// ——— companies and sites ———
+
+export function useCompanyListQuery(query: QueryParams = {}, enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.companyList(query),
+    queryFn: () => apiFetch(`/api/companies${toSearch(query)}`, { schema: companyListResponseSchema }),
+    staleTime: REGISTER_STALE_MS,
+    placeholderData: keepPreviousData,
+    enabled,
+  });
+}
+
+export function useCompanyQuery(id: string | null) {
+  return useQuery({
+    queryKey: registryKeys.company(id ?? ''),
+    queryFn: async () =>
+      (await apiFetch(`/api/companies/${enc(id ?? '')}`, { schema: companyResponseSchema })).company,
+    enabled: !!id,
+    staleTime: REGISTER_STALE_MS,
+  });
+}
+
+export function useCompanySaveMutation(id: string | null) {
+  const invalidate = useInvalidateRegister();
+  return useMutation({
+    mutationFn: (body: CompanyInput) =>
+      id
+        ? apiFetch(`/api/companies/${enc(id)}`, { method: 'PATCH', body, schema: companyResponseSchema })
+        : apiFetch('/api/companies', { body, schema: companyResponseSchema }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useSiteListQuery(query: QueryParams = {}, enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.siteList(query),
+    queryFn: () => apiFetch(`/api/sites${toSearch(query)}`, { schema: siteListResponseSchema }),
+    staleTime: REGISTER_STALE_MS,
+    placeholderData: keepPreviousData,
+    enabled,
+  });
+}
+
+export function useSiteQuery(id: string | null) {
+  return useQuery({
+    queryKey: registryKeys.site(id ?? ''),
+    queryFn: async () => (await apiFetch(`/api/sites/${enc(id ?? '')}`, { schema: siteResponseSchema })).site,
+    enabled: !!id,
+    staleTime: REGISTER_STALE_MS,
+  });
+}
+
+export function useSiteSaveMutation(id: string | null) {
+  const invalidate = useInvalidateRegister();
+  return useMutation({
+    mutationFn: (body: SiteInput) =>
+      id
+        ? apiFetch(`/api/sites/${enc(id)}`, { method: 'PATCH', body, schema: siteResponseSchema })
+        : apiFetch('/api/sites', { body, schema: siteResponseSchema }),
+    onSuccess: invalidate,
+  });
+}
+
+// ——— checklist templates ———
+
+export function useChecklistListQuery(rideClass?: RideClass, includeArchived = false) {
+  const query = { rideClass, includeArchived: includeArchived ? 'true' : undefined };
+  return useQuery({
+    queryKey: registryKeys.checklistList(query),
+    queryFn: async () =>
+      (
+        await apiFetch(`/api/checklist-templates${toSearch(query)}`, {
+          schema: checklistTemplateListResponseSchema,
+        })
+      ).templates,
+    staleTime: REGISTER_STALE_MS,
+  });
+}
+
+export function useChecklistQuery(id: string, version?: number) {
+  return useQuery({
+    queryKey: version ? registryKeys.checklistVersion(id, version) : registryKeys.checklist(id),
+    queryFn: async () =>
+      (
+        await apiFetch(
+          version
+            ? `/api/checklist-templates/${enc(id)}/versions/${version}`
+            : `/api/checklist-templates/${enc(id)}`,
+          { schema: checklistTemplateResponseSchema },
+        )
+      ).template,
+    staleTime: version ? VERSION_STALE_MS : REGISTER_STALE_MS,
+  });
+}
+
+export function useChecklistVersionsQuery(id: string) {
+  return useQuery({
+    queryKey: registryKeys.checklistVersions(id),
+    queryFn: async () =>
+      (
+        await apiFetch(`/api/checklist-templates/${enc(id)}/versions`, {
+          schema: checklistVersionListResponseSchema,
+        })
+      ).versions,
+    staleTime: REGISTER_STALE_MS,
+  });
+}
+
+export type ChecklistSave = {
+  name: string;
+  rideClass: RideClass;
+  content: ChecklistContentInput;
+  reason: string;
+  basedOnVersion?: number;
+};
+
+/** Saving an existing template makes a new version; without an id it creates one. */
+export function useChecklistSaveMutation(id: string | null) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: ({ rideClass, ...body }: ChecklistSave) =>
+      id
+        ? apiFetch(`/api/checklist-templates/${enc(id)}`, {
+            method: 'PUT',
+            body,
+            schema: checklistTemplateResponseSchema,
+          })
+        : apiFetch('/api/checklist-templates', {
+            body: { ...body, rideClass },
+            schema: checklistTemplateResponseSchema,
+          }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: registryKeys.checklists() }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}
+
+// ——— schedules and assignments ———
+
+export function useScheduleListQuery(query: QueryParams, enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.scheduleList(query),
+    queryFn: () => apiFetch(`/api/schedules${toSearch(query)}`, { schema: scheduleListResponseSchema }),
+    staleTime: REGISTER_STALE_MS,
+    placeholderData: keepPreviousData,
+    enabled,
+  });
+}
+
+export function useRideSchedulesQuery(rideId: string, enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.rideSchedules(rideId),
+    queryFn: async () =>
+      (
+        await apiFetch(`/api/rides/${enc(rideId)}/schedules`, {
+          schema: z.object({ schedules: scheduleListResponseSchema.shape.schedules }),
+        })
+      ).schedules,
+    staleTime: REGISTER_STALE_MS,
+    enabled,
+  });
+}
+
+export function useMyAssignmentsQuery(enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.myAssignments(),
+    queryFn: async () =>
+      (await apiFetch('/api/assignments/mine', { schema: assignmentListResponseSchema })).assignments,
+    staleTime: REGISTER_STALE_MS,
+    enabled,
+  });
+}
+
+export function useInspectorsQuery(enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.inspectors(),
+    queryFn: async () =>
+      (await apiFetch('/api/inspectors', { schema: inspectorListResponseSchema })).inspectors,
+    staleTime: REGISTER_STALE_MS,
+    enabled,
+  });
+}
+
+export function useScheduleCreateMutation() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ScheduleInput) => apiFetch('/api/schedules', { body, schema: scheduleResponseSchema }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: registryKeys.schedules() }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}
+
+export function useScheduleUpdateMutation() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, patch }: { id: string; patch: SchedulePatch }) =>
+      apiFetch(`/api/schedules/${enc(id)}`, { method: 'PATCH', body: patch, schema: scheduleResponseSchema }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: registryKeys.schedules() }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}

@@ -1,0 +1,307 @@
+import Feather from '@expo/vector-icons/Feather';
+import { Link, router, useLocalSearchParams } from 'expo-router';
+import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { QueryState } from '@/components/query-state';
+import { Column, Columns } from '@/components/screen';
+import { RideStatusMark } from '@/components/status-mark';
+import { SubScreen } from '@/components/sub-screen';
+import { Text } from '@/components/text';
+import { colors, layout, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { ApiRequestError } from '@/features/api/client';
+import { roleHome } from '@/features/auth/api';
+import { RoleGate } from '@/features/auth/role-gate';
+import type { Role, SessionUser } from '@/features/auth/schema';
+import { useMyAssignmentsQuery, useRideSchedulesQuery } from '@/features/registry/api';
+import {
+  DesignDrawingPanel,
+  DesignVersionCard,
+  Field,
+  useDesignAnalysis,
+} from '@/features/registry/design-view';
+import { DueMark, dueInWords } from '@/features/registry/due-mark';
+import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
+import { formatDate, formatDateTime } from '@/features/registry/text';
+import { useRideQuery } from '@/features/rides/api';
+import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
+import { useUnitSystem } from '@/features/settings/unit-system';
+
+export const canEditRides = (role: Role) => role === 'admin' || role === 'supervisor';
+const isStaff = (role: Role) => role !== 'operator';
+
+/** The ride's id from the route, one string whatever the router hands over. */
+export function useRideIdParam(): string {
+  const { id } = useLocalSearchParams<{ id: string }>();
+  return Array.isArray(id) ? (id[0] ?? '') : (id ?? '');
+}
+
+/**
+ * One ride: identity, status (with its reason and since when), site and operator. Staff also see the
+ * current design data — its version, the chain drawn to scale with each pivot's peak load at the design
+ * motion — and the ride's inspection schedule. Operators see their own company's rides and status only;
+ * the server answers 404 for anything else, shown here as "not found".
+ */
+export function RideDetailScreen() {
+  const id = useRideIdParam();
+  return (
+    <RoleGate roles={['admin', 'supervisor', 'inspector', 'operator']}>
+      {(user) => <RideDetail id={id} user={user} />}
+    </RoleGate>
+  );
+}
+
+function RideDetail({ id, user }: { id: string; user: SessionUser }) {
+  const ride = useRideQuery(id);
+  const back = isStaff(user.role)
+    ? { href: '/rides' as const, label: 'Rides' }
+    : { href: roleHome[user.role], label: 'My rides' };
+  if (ride.error instanceof ApiRequestError && ride.error.status === 404) {
+    return <RideNotFound back={back} />;
+  }
+  return (
+    <QueryState query={ride}>
+      {({ ride: r, design }) => <RideDetailBody ride={r} design={design} user={user} back={back} />}
+    </QueryState>
+  );
+}
+
+export function RideNotFound({ back }: { back: { href: string; label: string } }) {
+  return (
+    <SubScreen title="Ride not found" back={back}>
+      <Card role="alert">
+        <Text variant="heading">There is no ride here for you.</Text>
+        <Text muted>
+          The link may be old, the ride may have been removed, or it belongs to a company whose rides you do
+          not see.
+        </Text>
+      </Card>
+    </SubScreen>
+  );
+}
+
+function RideDetailBody({
+  ride,
+  design,
+  user,
+  back,
+}: {
+  ride: RideSummary;
+  design: DesignVersion | null;
+  user: SessionUser;
+  back: { href: string; label: string };
+}) {
+  const wide = useWide();
+  const editor = canEditRides(user.role);
+  const staff = isStaff(user.role);
+
+  const info = (
+    <Column grow={1}>
+      <StatusCard ride={ride} editor={editor} />
+      <Card>
+        <Text variant="heading">Ride</Text>
+        <Field label="Class" value={rideClassLabel[ride.rideClass]} />
+        {ride.description ? <Field label="Description" value={ride.description} /> : null}
+        <Field label="Maker and model" value={[ride.maker, ride.model].filter(Boolean).join(' · ') || '—'} />
+        <View style={styles.pair}>
+          <Field label="Serial" value={ride.serial ?? '—'} figure />
+          <Field label="Built" value={ride.year ? String(ride.year) : '—'} figure />
+        </View>
+        <Field label="Site" value={ride.siteName ?? 'No site'} />
+        <Field label="Operator" value={ride.operatorName} />
+      </Card>
+      {staff && design ? (
+        <DesignVersionCard
+          version={design}
+          data={design.data}
+          note={<DesignLinks rideId={ride.id} editor={editor} />}
+        />
+      ) : null}
+      {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
+    </Column>
+  );
+
+  const designPane = staff ? (
+    <Column grow={2}>
+      {design ? (
+        <DesignPane design={design} />
+      ) : (
+        <Card>
+          <Text variant="heading">No design data yet</Text>
+          <Text muted>
+            Without design data there is nothing to check inspections against. Import it from the maker’s
+            design document (CSV or JSON).
+          </Text>
+          {editor ? (
+            <Button
+              label="Import design data"
+              tone="accent"
+              onPress={() => router.push(`/rides/${encodeURIComponent(ride.id)}/import`)}
+              style={styles.start}
+            />
+          ) : null}
+        </Card>
+      )}
+    </Column>
+  ) : null;
+
+  return (
+    <SubScreen
+      title={ride.name}
+      subtitle={`${rideClassLabel[ride.rideClass]} · ${ride.siteName ?? 'No site'} · ${ride.operatorName}`}
+      badge={<RideStatusMark status={ride.status} />}
+      back={back}
+      actions={
+        editor ? (
+          <>
+            <Button
+              label="Change status"
+              tone="accent"
+              onPress={() => router.push(`/rides/${encodeURIComponent(ride.id)}/status`)}
+            />
+            <Button
+              label="Edit ride"
+              tone="quiet"
+              onPress={() => router.push(`/rides/${encodeURIComponent(ride.id)}/edit`)}
+            />
+          </>
+        ) : null
+      }
+    >
+      {staff ? (
+        <Columns>
+          {wide ? designPane : info}
+          {wide ? info : designPane}
+        </Columns>
+      ) : (
+        info
+      )}
+    </SubScreen>
+  );
+}
+
+function StatusCard({ ride, editor }: { ride: RideSummary; editor: boolean }) {
+  return (
+    <Card accessibilityLabel="Ride status">
+      <Text variant="heading">Status</Text>
+      <RideStatusMark status={ride.status} />
+      {ride.statusReason ? <Field label="Reason" value={ride.statusReason} /> : null}
+      <Field label="Since" value={ride.statusSince ? formatDateTime(ride.statusSince) : '—'} />
+      {editor ? (
+        <LinkRow href={`/rides/${encodeURIComponent(ride.id)}/status`} label="Change status" icon="edit-3" />
+      ) : null}
+    </Card>
+  );
+}
+
+function DesignPane({ design }: { design: DesignVersion }) {
+  const [system] = useUnitSystem();
+  const analysis = useDesignAnalysis(design.data);
+  return <DesignDrawingPanel data={design.data} system={system} analysis={analysis} />;
+}
+
+function DesignLinks({ rideId, editor }: { rideId: string; editor: boolean }) {
+  const base = `/rides/${encodeURIComponent(rideId)}`;
+  return (
+    <View style={styles.links}>
+      <LinkRow href={`${base}/design`} label="All design data and versions" icon="layers" />
+      {editor ? <LinkRow href={`${base}/import`} label="Import or export" icon="upload" /> : null}
+    </View>
+  );
+}
+
+/** A full-width text link with an icon: a 48 px target, for lists of "go to…" inside cards. */
+export function LinkRow({
+  href,
+  label,
+  icon,
+}: {
+  href: string;
+  label: string;
+  icon: 'layers' | 'upload' | 'edit-3' | 'calendar' | 'list' | 'clock';
+}) {
+  return (
+    <Link href={href} asChild>
+      <Pressable role="link" style={styles.linkRow}>
+        <Feather name={icon} size={18} color={colors.accent} />
+        <Text variant="heading" color={colors.accent} style={styles.linkText}>
+          {label}
+        </Text>
+        <Feather name="chevron-right" size={18} color={colors.accent} />
+      </Pressable>
+    </Link>
+  );
+}
+
+/** Planners see the ride's schedule; inspectors see what is assigned to them on this ride. */
+function ScheduleCard({ rideId, role }: { rideId: string; role: Role }) {
+  const planner = canEditRides(role);
+  const schedules = useRideSchedulesQuery(rideId, planner);
+  const mine = useMyAssignmentsQuery(role === 'inspector');
+  const query = planner ? schedules : mine;
+  const rows = (list: Schedule[]) => (planner ? list : list.filter((s) => s.rideId === rideId));
+  return (
+    <Card>
+      <Text variant="heading">{planner ? 'Inspection schedule' : 'Assigned to you'}</Text>
+      {query.isPending ? (
+        <ActivityIndicator color={colors.base} />
+      ) : query.error || !query.data ? (
+        <Text muted>The schedule could not be loaded.</Text>
+      ) : rows(query.data).length === 0 ? (
+        <Text muted>
+          {planner ? 'No inspections planned for this ride.' : 'Nothing on this ride is assigned to you.'}
+        </Text>
+      ) : (
+        rows(query.data).map((s) => <ScheduleLine key={s.id} schedule={s} />)
+      )}
+      {planner ? (
+        <LinkRow
+          href={`/rides/${encodeURIComponent(rideId)}/schedule`}
+          label="Plan and assign"
+          icon="calendar"
+        />
+      ) : null}
+    </Card>
+  );
+}
+
+function ScheduleLine({ schedule: s }: { schedule: Schedule }) {
+  return (
+    <View style={styles.scheduleLine}>
+      <View style={styles.scheduleText}>
+        <Text variant="heading">{inspectionTypeLabel[s.inspectionType]}</Text>
+        <Text variant="small" muted>
+          {s.nextDueOn ? `${formatDate(s.nextDueOn)} · ${dueInWords(s.daysUntilDue)}` : 'No date set'}
+          {' · '}
+          {s.assignedTo ? s.assignedTo.name : 'Not assigned'}
+        </Text>
+      </View>
+      <DueMark status={s.dueStatus} />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  pair: { flexDirection: 'row', gap: space.xl },
+  start: { alignSelf: 'flex-start' },
+  links: { gap: 0 },
+  linkRow: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    minHeight: layout.touchTarget,
+  },
+  linkText: { flex: 1 },
+  scheduleLine: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    justifyContent: 'space-between',
+    gap: space.md,
+    paddingVertical: space.xs,
+    borderTopWidth: 1,
+    borderTopColor: colors.surfaceSunk,
+  },
+  scheduleText: { flexShrink: 1, gap: 2 },
+});

@@ -1,0 +1,340 @@
+import Feather from '@expo/vector-icons/Feather';
+import { router } from 'expo-router';
+import { useEffect, useState } from 'react';
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { Pager } from '@/components/pager';
+import { QueryState } from '@/components/query-state';
+import { Screen } from '@/components/screen';
+import { SelectField } from '@/components/select-field';
+import { SortableTable, type SortValue } from '@/components/sortable-table';
+import { RideStatusMark, rideStatusLabel } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { ToggleChips } from '@/components/toggle-chips';
+import { colors, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { RoleGate } from '@/features/auth/role-gate';
+import type { SessionUser } from '@/features/auth/schema';
+import { useCompanyListQuery, useRidePageQuery, useSiteListQuery } from '@/features/registry/api';
+import { RegisterTabs } from '@/features/registry/register-tabs';
+import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
+import { formatDate } from '@/features/registry/text';
+import { useListParams } from '@/features/registry/use-list-params';
+import { RideCard, rideHref } from '@/features/rides/ride-card';
+import { type RideSummary, rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
+
+const PAGE_SIZE = 20;
+const SEARCH_DELAY_MS = 300;
+const ALL = '__all';
+const LIST_KEYS = ['q', 'status', 'rideClass', 'siteId', 'operatorId', 'sort', 'page'] as const;
+
+const sortChoices: { value: SortValue<RideSortKey>; label: string }[] = [
+  { value: 'name', label: 'Name, A to Z' },
+  { value: '-name', label: 'Name, Z to A' },
+  { value: '-status', label: 'Out of service first' },
+  { value: '-statusSince', label: 'Status changed, newest first' },
+  { value: 'rideClass', label: 'Ride class' },
+  { value: 'site', label: 'Site' },
+  { value: 'operator', label: 'Operator' },
+  { value: '-year', label: 'Year built, newest first' },
+];
+
+/**
+ * The ride register. Search, filters, sort and pages are all done by the server (GET /api/rides) and
+ * kept in the URL. Desktop: a dense table whose column titles sort it. Phone: cards, with the filters
+ * behind one button so the list stays in view.
+ */
+export function RidesListScreen() {
+  return (
+    <RoleGate roles={['admin', 'supervisor', 'inspector', 'operator']}>
+      {(user) => <RidesList user={user} />}
+    </RoleGate>
+  );
+}
+
+function RidesList({ user }: { user: SessionUser }) {
+  const wide = useWide();
+  const staff = user.role !== 'operator';
+  const [query, setQuery] = useListParams(rideListQuerySchema, LIST_KEYS);
+  const rides = useRidePageQuery({ ...query, pageSize: PAGE_SIZE });
+  const sites = useSiteListQuery({ pageSize: 200, sort: 'name' }, staff);
+  const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' }, staff);
+  const [search, setSearch] = useState(query.q ?? '');
+  const [filtersOpen, setFiltersOpen] = useState(false);
+
+  // Type freely; the list follows once typing pauses, and always starts again at page 1.
+  useEffect(() => {
+    if ((query.q ?? '') === search.trim()) return;
+    const t = setTimeout(() => setQuery({ q: search.trim(), page: undefined }), SEARCH_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [search, query.q, setQuery]);
+
+  const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
+  const activeFilters =
+    (query.status?.length ?? 0) +
+    (query.rideClass?.length ?? 0) +
+    (query.siteId ? 1 : 0) +
+    (query.operatorId ? 1 : 0);
+  const clear = () => {
+    setSearch('');
+    setQuery({
+      q: undefined,
+      status: undefined,
+      rideClass: undefined,
+      siteId: undefined,
+      operatorId: undefined,
+      page: undefined,
+    });
+  };
+
+  const siteOptions = [
+    { value: ALL, label: 'All sites' },
+    ...(sites.data?.sites ?? []).map((s) => ({ value: s.id, label: s.name, hint: s.operatorName })),
+  ];
+  const operatorOptions = [
+    { value: ALL, label: 'All operators' },
+    ...(companies.data?.companies ?? [])
+      .filter((c) => c.kind === 'operator')
+      .map((c) => ({ value: c.id, label: c.name })),
+  ];
+
+  const filters = (
+    <View style={wide ? styles.filtersWide : styles.filters}>
+      {staff ? (
+        <View style={wide ? styles.selectRow : styles.filters}>
+          <View style={styles.select}>
+            <SelectField
+              label="Site"
+              value={query.siteId ?? ALL}
+              options={siteOptions}
+              onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
+            />
+          </View>
+          <View style={styles.select}>
+            <SelectField
+              label="Operator"
+              value={query.operatorId ?? ALL}
+              options={operatorOptions}
+              onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
+            />
+          </View>
+        </View>
+      ) : null}
+      <View style={styles.chipGroup}>
+        <Text variant="label" muted>
+          RIDE CLASS
+        </Text>
+        <ToggleChips
+          label="Ride class"
+          values={query.rideClass ?? []}
+          options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
+          onChange={(v) => filter({ rideClass: v })}
+        />
+      </View>
+      <View style={styles.chipGroup}>
+        <Text variant="label" muted>
+          STATUS
+        </Text>
+        <ToggleChips
+          label="Status"
+          values={query.status ?? []}
+          options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
+          onChange={(v) => filter({ status: v })}
+        />
+      </View>
+      {!wide ? (
+        <SelectField
+          label="Sort"
+          value={query.sort ?? 'name'}
+          options={sortChoices}
+          onChange={(v) => setQuery({ sort: v, page: undefined })}
+        />
+      ) : null}
+      {activeFilters > 0 || query.q ? (
+        <Button label="Clear search and filters" tone="quiet" onPress={clear} style={styles.clear} />
+      ) : null}
+    </View>
+  );
+
+  return (
+    <Screen
+      title="Rides"
+      subtitle={
+        staff ? 'The ride register: identity, status and design data.' : (user.companyName ?? undefined)
+      }
+      actions={
+        user.role === 'admin' ? (
+          <Button
+            label="New ride"
+            tone="accent"
+            onPress={() => router.push('/rides/new')}
+            icon={<Feather name="plus" size={18} color={colors.baseText} />}
+          />
+        ) : null
+      }
+    >
+      {staff ? <RegisterTabs role={user.role} /> : null}
+      <Card style={styles.filterCard}>
+        <View style={styles.searchRow}>
+          <View style={styles.search}>
+            <TextField
+              label="Search rides"
+              placeholder="Name, maker, model, serial, site or operator"
+              value={search}
+              onChangeText={setSearch}
+              autoCapitalize="none"
+              autoCorrect={false}
+              inputMode="search"
+              returnKeyType="search"
+            />
+          </View>
+          {!wide ? (
+            <Button
+              label={activeFilters > 0 ? `Filters (${activeFilters})` : 'Filters'}
+              tone="quiet"
+              aria-expanded={filtersOpen}
+              onPress={() => setFiltersOpen((o) => !o)}
+              icon={<Feather name="sliders" size={18} color={colors.text} />}
+              style={styles.filterButton}
+            />
+          ) : null}
+        </View>
+        {wide || filtersOpen ? filters : null}
+      </Card>
+
+      <QueryState query={rides}>
+        {(page) => (
+          <View style={styles.results}>
+            {rides.isFetching ? (
+              <View style={styles.fetching} accessibilityLabel="Updating">
+                <ActivityIndicator color={colors.base} size="small" />
+              </View>
+            ) : null}
+            {page.rides.length === 0 ? (
+              <Card style={styles.empty}>
+                <Text variant="heading">No rides match.</Text>
+                <Text muted>Try fewer filters or another search.</Text>
+              </Card>
+            ) : wide ? (
+              <RideTable
+                rides={page.rides}
+                sort={query.sort}
+                onSort={(sort) => setQuery({ sort, page: undefined })}
+                showOperator={staff}
+              />
+            ) : (
+              <View style={styles.cards}>
+                {page.rides.map((r) => (
+                  <RideCard key={r.id} ride={r} showOperator={staff} link />
+                ))}
+              </View>
+            )}
+            <Pager
+              page={page.page}
+              pageSize={page.pageSize}
+              total={page.total}
+              noun={page.total === 1 ? 'ride' : 'rides'}
+              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
+            />
+          </View>
+        )}
+      </QueryState>
+    </Screen>
+  );
+}
+
+function RideTable({
+  rides,
+  sort,
+  onSort,
+  showOperator,
+}: {
+  rides: RideSummary[];
+  sort: SortValue<RideSortKey> | undefined;
+  onSort: (sort: SortValue<RideSortKey> | undefined) => void;
+  showOperator: boolean;
+}) {
+  return (
+    <SortableTable<RideSummary, RideSortKey>
+      label="Rides"
+      rows={rides}
+      rowKey={(r) => r.id}
+      rowHref={(r) => rideHref(r.id)}
+      rowLabel={(r) => `${r.name}, ${rideStatusLabel(r.status)}`}
+      sort={sort}
+      onSort={onSort}
+      columns={[
+        {
+          key: 'name',
+          title: 'Ride',
+          sortKey: 'name',
+          flex: 1.6,
+          render: (r) => (
+            <View>
+              <Text variant="heading">{r.name}</Text>
+              <Text variant="small" muted numberOfLines={1}>
+                {[r.maker, r.model].filter(Boolean).join(' · ') || '—'}
+              </Text>
+            </View>
+          ),
+        },
+        { key: 'class', title: 'Class', sortKey: 'rideClass', render: (r) => rideClassLabel[r.rideClass] },
+        { key: 'site', title: 'Site', sortKey: 'site', flex: 1.3, render: (r) => r.siteName ?? '—' },
+        ...(showOperator
+          ? [
+              {
+                key: 'operator',
+                title: 'Operator',
+                sortKey: 'operator' as const,
+                flex: 1.3,
+                render: (r: RideSummary) => r.operatorName,
+              },
+            ]
+          : []),
+        {
+          key: 'status',
+          title: 'Status',
+          sortKey: 'status',
+          flex: 1.1,
+          render: (r) => <RideStatusMark status={r.status} compact />,
+        },
+        {
+          key: 'since',
+          title: 'Since',
+          sortKey: 'statusSince',
+          flex: 0.9,
+          numeric: true,
+          render: (r) => (r.statusSince ? formatDate(r.statusSince) : '—'),
+        },
+        {
+          key: 'year',
+          title: 'Built',
+          sortKey: 'year',
+          flex: 0.6,
+          numeric: true,
+          render: (r) => (r.year ? String(r.year) : '—'),
+        },
+      ]}
+    />
+  );
+}
+
+const styles = StyleSheet.create({
+  filterCard: { gap: space.md },
+  searchRow: { flexDirection: 'row', alignItems: 'flex-end', gap: space.sm },
+  search: { flex: 1, minWidth: 0 },
+  filterButton: { paddingHorizontal: space.md },
+  filters: { gap: space.md },
+  filtersWide: { gap: space.md },
+  selectRow: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
+  select: { flex: 1, minWidth: 0 },
+  chipGroup: { gap: space.xs },
+  clear: { alignSelf: 'flex-start' },
+  results: { gap: space.md },
+  fetching: { position: 'absolute', right: 0, top: -28 },
+  cards: { gap: space.md },
+  empty: { alignItems: 'flex-start' },
+});
