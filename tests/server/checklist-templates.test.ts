@@ -7,6 +7,7 @@ import {
   checklistVersionListResponseSchema,
 } from '@/features/registry/schema';
 import { rideClasses } from '@/features/rides/schema';
+import { auditRowOrder } from '@/server/registry/audit-query';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
@@ -225,7 +226,7 @@ describe('editing, versions and archiving', () => {
       .select({ action: auditLog.action })
       .from(auditLog)
       .where(eq(auditLog.entityId, id))
-      .orderBy(auditLog.at)
+      .orderBy(auditRowOrder)
       .all()
       .map((e) => e.action);
     expect(actions).toEqual(['create', 'update', 'delete']);

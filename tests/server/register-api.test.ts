@@ -11,6 +11,7 @@ import {
 } from '@/features/registry/schema';
 import { rideListResponseSchema } from '@/features/rides/schema';
 import { demoOperators, demoRides, demoSites } from '@/server/seed/demo';
+import { auditRowOrder } from '@/server/registry/audit-query';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
@@ -194,7 +195,7 @@ describe('operator companies', () => {
       .select()
       .from(auditLog)
       .where(eq(auditLog.entityId, company.id))
-      .orderBy(auditLog.at)
+      .orderBy(auditRowOrder)
       .all();
     expect(entries.map((e) => e.action)).toEqual(['create', 'update', 'delete']);
     expect(entries[0]).toMatchObject({ entity: 'company', before: null, after: company });

@@ -11,6 +11,7 @@ import {
 } from '@/features/registry/schema';
 import { addDays, dueStatusOf, nextDueOn } from '@/server/registry/schedules';
 import { demoSchedules } from '@/server/seed/demo-schedules';
+import { auditRowOrder } from '@/server/registry/audit-query';
 
 import { expectApiError, userIdOf, type TestServer } from './helpers';
 import { demoClients, makePinnedServer, type Clients } from './registry-helpers';
@@ -207,7 +208,7 @@ describe('planning', () => {
       .select({ action: auditLog.action })
       .from(auditLog)
       .where(eq(auditLog.entityId, created.id))
-      .orderBy(auditLog.at)
+      .orderBy(auditRowOrder)
       .all()
       .map((e) => e.action);
     expect(actions).toEqual(['create', 'update', 'update', 'delete']);
