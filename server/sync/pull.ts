@@ -63,22 +63,23 @@ export type Decision = {
 
 /**
  * Builds one answer. `readAt` is when the answer is read (the next cursor); `now` is the business date
- * for assignments' due status (pinned in tests). A cursor in the future (the server's clock was set
+ * for assignments' due status (pinned in tests); `overlapMs` lets tests see exact deltas. A cursor in the future (the server's clock was set
  * back) is answered like a first pull, since changes stamped before it would otherwise never be sent.
  */
 export function buildPull(
   db: Db,
   user: SessionUser,
   cursor: string | null,
-  opts: { readAt?: Date; now?: Date } = {},
+  opts: { readAt?: Date; now?: Date; overlapMs?: number } = {},
 ): PullResponse {
   const readAt = opts.readAt ?? new Date();
+  const overlapMs = opts.overlapMs ?? CURSOR_OVERLAP_MS;
   const now = opts.now ?? readAt;
   const cursorAt = cursor === null ? null : parseCursor(cursor);
   const since =
     cursorAt === null || cursorAt.getTime() > readAt.getTime()
       ? null
-      : new Date(cursorAt.getTime() - CURSOR_OVERLAP_MS).toISOString();
+      : new Date(cursorAt.getTime() - overlapMs).toISOString();
   const scope = companyScope(user);
 
   // One read transaction, so the answer is a consistent snapshot of the database.
