@@ -3,12 +3,14 @@ import fs from 'node:fs';
 import { count } from 'drizzle-orm';
 import request from 'supertest';
 
-import { designVersions } from '@/db/server/schema';
+import { checklistTemplates, designVersions, inspectionSchedules } from '@/db/server/schema';
 import { rideDetailResponseSchema } from '@/features/registry/schema';
 import { rideListResponseSchema } from '@/features/rides/schema';
 import { openDb } from '@/server/db';
 import { demoRides, demoUsers, seedDemoData } from '@/server/seed/demo';
+import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
+import { demoSchedules } from '@/server/seed/demo-schedules';
 
 import { expectApiError, makeTempDir, makeTestServer, signInAs, type TestServer } from './helpers';
 
@@ -86,20 +88,35 @@ describe('GET /api/rides/:id', () => {
 });
 
 describe('demo design data in the seed', () => {
-  test('a demo database from before design data gets it on the next start, once', async () => {
+  test('a demo database from before design data, templates and schedules gets them on the next start, once', async () => {
     const dir = makeTempDir();
     const database = openDb(dir);
     try {
       await seedDemoData(database.db, { nodeEnv: 'development' });
       const versions = () => database.db.select({ n: count() }).from(designVersions).get()?.n;
-      expect(versions()).toBe(demoRides.length);
+      const templates = () => database.db.select({ n: count() }).from(checklistTemplates).get()?.n;
+      const schedules = () => database.db.select({ n: count() }).from(inspectionSchedules).get()?.n;
+      expect([versions(), templates(), schedules()]).toEqual([
+        demoRides.length,
+        demoChecklists.length,
+        demoSchedules.length,
+      ]);
       // An older demo database: the rides and users exist, the design data does not.
       database.db.delete(designVersions).run();
-      expect(versions()).toBe(0);
+      database.db.delete(inspectionSchedules).run();
+      expect([versions(), schedules()]).toEqual([0, 0]);
       expect(await seedDemoData(database.db, { nodeEnv: 'development' })).toBe('skipped_existing_users');
-      expect(versions()).toBe(demoRides.length);
+      expect([versions(), templates(), schedules()]).toEqual([
+        demoRides.length,
+        demoChecklists.length,
+        demoSchedules.length,
+      ]);
       await seedDemoData(database.db, { nodeEnv: 'development' });
-      expect(versions()).toBe(demoRides.length);
+      expect([versions(), templates(), schedules()]).toEqual([
+        demoRides.length,
+        demoChecklists.length,
+        demoSchedules.length,
+      ]);
     } finally {
       database.close();
       fs.rmSync(dir, { recursive: true, force: true });
