@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
@@ -15,6 +16,8 @@ type Props = {
   template: ChecklistTemplate | null;
   system: UnitSystem;
   onAnswer: (itemId: string, patch: Partial<Draft['checklist'][number]>) => void;
+  /** Takes a photo tied to the item. */
+  onPhoto: (itemId: string) => void;
 };
 
 const resultStyle: Record<CheckResult, { bg: string; fg: string }> = {
@@ -24,7 +27,7 @@ const resultStyle: Record<CheckResult, { bg: string; fg: string }> = {
 };
 
 /** The checklist by area: each item answered pass / fail / not applicable, with a note and a value. */
-export function ChecklistSection({ draft, template, system, onAnswer }: Props) {
+export function ChecklistSection({ draft, template, system, onAnswer, onPhoto }: Props) {
   const items = new Map(
     (template?.version.content.areas ?? []).flatMap((a) => a.items.map((i) => [i.id, i] as const)),
   );
@@ -54,6 +57,7 @@ export function ChecklistSection({ draft, template, system, onAnswer }: Props) {
                 system={system}
                 photos={draft.photos.filter((p) => p.checklistItemId === answer.itemId).length}
                 onAnswer={(patch) => onAnswer(answer.itemId, patch)}
+                onPhoto={() => onPhoto(answer.itemId)}
               />
             ))}
         </View>
@@ -68,12 +72,14 @@ function ItemCard({
   system,
   photos,
   onAnswer,
+  onPhoto,
 }: {
   answer: Draft['checklist'][number];
   item: NonNullable<ChecklistTemplate>['version']['content']['areas'][number]['items'][number] | undefined;
   system: UnitSystem;
   photos: number;
   onAnswer: (patch: Partial<Draft['checklist'][number]>) => void;
+  onPhoto: () => void;
 }) {
   const [noteOpen, setNoteOpen] = useState(!!answer.note);
   const kind = item?.measurementKind && item.measurementKind !== 'count' ? item.measurementKind : null;
@@ -146,6 +152,14 @@ function ItemCard({
           value={valueText}
           onChangeText={saveValue}
           inputMode="decimal"
+        />
+      ) : null}
+      {item?.photoRequired || answer.result === 'fail' ? (
+        <Button
+          label={photos > 0 ? `Add another photo (${photos})` : 'Take a photo of this'}
+          tone="quiet"
+          onPress={onPhoto}
+          accessibilityLabel={`Photo for ${answer.text}`}
         />
       ) : null}
       {noteOpen || answer.result === 'fail' ? (

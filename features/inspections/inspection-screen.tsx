@@ -92,7 +92,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const problems = draftProblems(draft, template);
   const progress = draftProgress(draft);
 
-  const onCapture = async (source: 'camera' | 'library') => {
+  const onCapture = async (source: 'camera' | 'library', link: { checklistItemId?: string } = {}) => {
     setPhotoError(null);
     setPhotoBusy(true);
     try {
@@ -107,7 +107,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
         bytes: bytes.length,
         caption: '',
         joint: null,
-        checklistItemId: null,
+        checklistItemId: link.checklistItemId ?? null,
         takenAt: new Date().toISOString(),
       };
       change(addPhoto(draft, ref, now()));
@@ -150,12 +150,18 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
         </Text>
       ) : null}
 
+      {photoError && section !== 'photos' ? (
+        <Text role="alert" color={colors.danger}>
+          {photoError}
+        </Text>
+      ) : null}
       {section === 'checklist' ? (
         <ChecklistSection
           draft={draft}
           template={template}
           system={system}
           onAnswer={(itemId, patch) => change(answerItem(draft, itemId, patch, now()))}
+          onPhoto={(itemId) => void onCapture('camera', { checklistItemId: itemId })}
         />
       ) : null}
       {section === 'readings' ? (
@@ -173,11 +179,18 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           draft={draft}
           design={design}
           Thumb={PhotoThumb}
-          onCapture={onCapture}
+          onCapture={(source) => void onCapture(source)}
           onUpdate={(pid, patch) => change(updatePhoto(draft, pid, patch, now()))}
           onRemove={(pid) => change(removePhoto(draft, pid, now()))}
           busy={photoBusy}
           error={photoError}
+          photoItems={
+            new Set(
+              (template?.version.content.areas ?? []).flatMap((a) =>
+                a.items.filter((i) => i.photoRequired).map((i) => i.id),
+              ),
+            )
+          }
         />
       ) : null}
       {section === 'result' ? (

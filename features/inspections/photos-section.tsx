@@ -19,12 +19,27 @@ type Props = {
   onRemove: (id: string) => void;
   busy?: boolean;
   error?: string | null;
+  /** Items whose template asks for a photo. */
+  photoItems?: Set<string>;
 };
 
 /** Photos of pivot wear and failed items: taken, captioned and tied to a pivot or a checklist item. */
-export function PhotosSection({ draft, design, Thumb, onCapture, onUpdate, onRemove, busy, error }: Props) {
+export function PhotosSection({
+  draft,
+  design,
+  Thumb,
+  onCapture,
+  onUpdate,
+  onRemove,
+  busy,
+  error,
+  photoItems,
+}: Props) {
   const pivots = design?.bodies.map((b, i) => design.pivots.find((p) => p.joint === i)?.name ?? b.name) ?? [];
-  const failed = draft.checklist.filter((a) => a.result === 'fail' || a.result === null);
+  // Offer the items a photo can serve: failed ones and those whose template asks for a photo.
+  const wantsPhoto = new Set(draft.checklist.filter((a) => a.result === 'fail').map((a) => a.itemId));
+  draft.photos.forEach((p) => p.checklistItemId && wantsPhoto.add(p.checklistItemId));
+  const failed = draft.checklist.filter((a) => wantsPhoto.has(a.itemId) || photoItems?.has(a.itemId));
   return (
     <View style={styles.root}>
       <View style={styles.actions}>

@@ -1,5 +1,5 @@
 import { router } from 'expo-router';
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -28,10 +28,12 @@ export function TodayScreen() {
   const sync = useSyncStatus();
   const wide = useWide();
   // First visit on a fresh phone: fetch the round while there is a connection.
-  const { syncNow, lastSuccessAt } = sync;
+  const firstSync = useRef(false);
   useEffect(() => {
-    if (!lastSuccessAt) void syncNow();
-  }, [lastSuccessAt, syncNow]);
+    if (firstSync.current || sync.lastSuccessAt) return;
+    firstSync.current = true;
+    void sync.syncNow();
+  }, [sync]);
 
   return (
     <RoleGate roles={['inspector']}>
