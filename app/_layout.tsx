@@ -8,6 +8,7 @@ import { SafeAreaProvider } from 'react-native-safe-area-context';
 
 import { colors, fontFiles } from '@/components/theme';
 import { makeQueryClient } from '@/features/api/query-client';
+import { UpdatePrompt } from '@/features/sync/update-prompt';
 
 export { ErrorBoundary } from 'expo-router';
 
@@ -24,6 +25,7 @@ export default function RootLayout() {
   return (
     <SafeAreaProvider>
       <QueryClientProvider client={client}>
+        <UpdatePrompt />
         <Slot />
       </QueryClientProvider>
     </SafeAreaProvider>

@@ -6,6 +6,8 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 
+import { buildServiceWorker } from './build-sw';
+
 export const ROOT = join(__dirname, '..');
 export const DIST = join(ROOT, 'dist');
 const STAMP = join(DIST, '.pivotwatch-build');
@@ -25,6 +27,7 @@ const SOURCES = [
   'metro.config.js',
   'package-lock.json',
   'scripts/build-web.ts',
+  'scripts/build-sw.ts',
 ];
 
 function newestMtime(path: string): number {
@@ -42,7 +45,8 @@ export function webBuildIsStale(): boolean {
   return SOURCES.some((s) => newestMtime(join(ROOT, s)) > built);
 }
 
-export function buildWeb({ force = false } = {}): void {
+/** Exports the app, then generates the service worker over the export (the offline app shell). */
+export async function buildWeb({ force = false } = {}): Promise<void> {
   if (!force && !webBuildIsStale()) return;
   console.log('[pivotwatch] building the web app (expo export)…');
   const res = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', 'dist', '--clear'], {
@@ -51,9 +55,17 @@ export function buildWeb({ force = false } = {}): void {
     env: { ...process.env, CI: '1', EXPO_NO_TELEMETRY: '1' },
   });
   if (res.status !== 0) throw new Error(`expo export failed with exit code ${res.status}`);
+  const sw = await buildServiceWorker(DIST);
+  sw.warnings.forEach((w) => console.warn(`[pivotwatch] service worker: ${w}`));
+  console.log(
+    `[pivotwatch] service worker: ${sw.count} files precached (${(sw.size / 1048576).toFixed(1)} MB)`,
+  );
   writeFileSync(STAMP, new Date().toISOString());
 }
 
 if (require.main === module) {
-  buildWeb({ force: process.argv.includes('--force') });
+  buildWeb({ force: process.argv.includes('--force') }).catch((err: unknown) => {
+    console.error(err);
+    process.exit(1);
+  });
 }

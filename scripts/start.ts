@@ -6,7 +6,7 @@ import { buildWeb } from '@/scripts/build-web';
 import { startServer } from '@/server/main';
 
 async function main() {
-  buildWeb();
+  await buildWeb();
   const { port } = await startServer();
   console.log(`[pivotwatch] ready on http://localhost:${port}`);
 }

@@ -3,5 +3,5 @@ import { buildWeb } from '../../scripts/build-web';
 
 /** Builds the web export once for all browser tests (skipped when dist/ is up to date). */
 export default async function globalSetup() {
-  buildWeb();
+  await buildWeb();
 }
