@@ -6,7 +6,7 @@
 import { z } from 'zod';
 
 import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
-import { designVersionSchema } from '@/features/rides/detail-schema';
+import { designVersionSchema } from '@/features/registry/schema';
 import { rideSummarySchema } from '@/features/rides/schema';
 
 /** A design-data version of one ride (immutable once made). */
