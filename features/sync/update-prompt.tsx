@@ -1,8 +1,10 @@
 /**
- * A bar at the bottom of the screen when a new version of the app is ready. Registering the service
- * worker happens here too, so mounting this once in the root layout is all the web build needs.
+ * A bar across the top of the app when a new version is ready. It sits in the layout flow (above the
+ * screens, not over them), so it never hides the navigation or a form's buttons. Registering the
+ * service worker happens here too: mounting this once in the root layout is all the web build needs.
  */
 import { StyleSheet, View } from 'react-native';
+import { useSafeAreaInsets } from 'react-native-safe-area-context';
 
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
@@ -11,9 +13,10 @@ import { useAppUpdate } from '@/features/sync/service-worker';
 
 export function UpdatePrompt() {
   const { updateReady, applyUpdate } = useAppUpdate();
+  const insets = useSafeAreaInsets();
   if (!updateReady) return null;
   return (
-    <View style={styles.bar} accessibilityRole="alert">
+    <View style={[styles.bar, { paddingTop: space.sm + insets.top }]} accessibilityRole="alert">
       <Text color={colors.baseText} style={styles.text}>
         A new version of Pivotwatch is ready. Your drafts are saved.
       </Text>
@@ -24,17 +27,13 @@ export function UpdatePrompt() {
 
 const styles = StyleSheet.create({
   bar: {
-    position: 'absolute',
-    left: space.md,
-    right: space.md,
-    bottom: space.md,
     flexDirection: 'row',
     flexWrap: 'wrap',
     alignItems: 'center',
     gap: space.md,
-    padding: space.md,
-    borderRadius: 12,
-    backgroundColor: colors.base,
+    paddingHorizontal: space.lg,
+    paddingBottom: space.sm,
+    backgroundColor: colors.baseRaised,
   },
   text: { flexGrow: 1, flexShrink: 1, minWidth: 180 },
 });
