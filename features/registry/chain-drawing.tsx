@@ -7,12 +7,15 @@ import { Text } from '@/components/text';
 import { colors, fonts, space } from '@/components/theme';
 import type { CycleResult } from '@/features/loads/engine';
 import {
+  type Box,
   type ChainLayout,
   type Point,
   cgQuartersPath,
   chainLayout,
+  drawingHeight,
   fitToView,
   niceLength,
+  placeLabels,
 } from '@/features/registry/chain-geometry';
 import type { DesignData } from '@/features/registry/design-data';
 import { type UnitSystem, displayUnits, formatQuantity, fromSI, toSI } from '@/features/units';
@@ -35,6 +38,10 @@ export function pivotPeaks(result: CycleResult): PivotPeak[] {
 }
 
 const PAD = 56;
+const BAR_SPACE = 28;
+const LABEL_H = 22;
+/** Width of one character of the 12.5 px mono label font, for sizing label boxes. */
+const CHAR_W = 7.6;
 
 /**
  * The ride's body chain drawn to scale: parts as lines and shapes, pivots as rings, each body's CG as the
@@ -46,16 +53,21 @@ export function ChainDrawing({
   pose,
   peaks,
   system,
-  height = 360,
+  minHeight = 240,
+  maxHeight = 420,
 }: {
   data: DesignData;
   pose: readonly number[];
   peaks: PivotPeak[] | null;
   system: UnitSystem;
-  height?: number;
+  minHeight?: number;
+  maxHeight?: number;
 }) {
   const [width, setWidth] = useState(0);
   const layout = useMemo(() => chainLayout(data, pose), [data, pose]);
+  // Room for the scale bar under the chain.
+  const height =
+    width > 0 ? drawingHeight(layout.bounds, width, PAD, minHeight, maxHeight) + BAR_SPACE : minHeight;
   const summary = useMemo(() => describe(layout, peaks, system), [layout, peaks, system]);
   return (
     <View
@@ -88,10 +100,22 @@ function Drawing({
   width: number;
   height: number;
 }) {
-  const { scale, toScreen } = fitToView(layout.bounds, width, height - 28, PAD);
+  const { scale, toScreen } = fitToView(layout.bounds, width, height - BAR_SPACE, PAD);
   const px = (p: Point) => toScreen(p);
   const bar = scaleBar(width, scale, system);
   const ground = px(layout.pivots[0]?.at ?? [0, 0]);
+  const labels = layout.pivots.map((p) => {
+    const peak = peaks?.find((q) => q.joint === p.joint);
+    const text = `P${p.joint + 1}${peak ? `  ${formatQuantity(peak.forceN, 'force', system, { sig: 3 }).text}` : ''}`;
+    const status = peak?.status ?? null;
+    return { text, status, w: text.length * CHAR_W + (status ? 28 : 14), h: LABEL_H };
+  });
+  const boxes = placeLabels(
+    layout.pivots.map((p) => px(p.at)),
+    labels,
+    width,
+    height - BAR_SPACE,
+  );
 
   return (
     <Svg width={width} height={height}>
@@ -193,19 +217,9 @@ function Drawing({
         );
       })}
 
-      {layout.pivots.map((p) => {
-        const peak = peaks?.find((q) => q.joint === p.joint);
-        return (
-          <PivotLabel
-            key={`pl${p.joint}`}
-            at={px(p.at)}
-            joint={p.joint}
-            text={peak ? formatQuantity(peak.forceN, 'force', system, { sig: 3 }).text : null}
-            status={peak?.status ?? null}
-            width={width}
-          />
-        );
-      })}
+      {labels.map((l, i) => (
+        <PivotLabel key={`pl${i}`} box={boxes[i]} text={l.text} status={l.status} />
+      ))}
 
       <G>
         <Line
@@ -233,49 +247,30 @@ function Drawing({
   );
 }
 
-/** "P1 · 412 kN" in a white box beside the pivot, alternately above-right and below-right. */
-function PivotLabel({
-  at,
-  joint,
-  text,
-  status,
-  width,
-}: {
-  at: [number, number];
-  joint: number;
-  text: string | null;
-  status: EnvelopeStatus | null;
-  width: number;
-}) {
-  const label = `P${joint + 1}${text ? `  ${text}` : ''}`;
-  const boxW = label.length * 7.4 + (status ? 26 : 12);
-  const boxH = 22;
-  const below = joint % 2 === 1;
-  let x = at[0] + 14;
-  if (x + boxW > width - 4) x = at[0] - 14 - boxW;
-  const y = below ? at[1] + 12 : at[1] - 12 - boxH;
+/** "P1  412 kN" in a white box beside its pivot, framed in the status colour when a limit exists. */
+function PivotLabel({ box, text, status }: { box: Box; text: string; status: EnvelopeStatus | null }) {
   const colour = status ? statusColor[status] : colors.text;
   return (
     <G>
       <Rect
-        x={x}
-        y={y}
-        width={boxW}
-        height={boxH}
+        x={box.x}
+        y={box.y}
+        width={box.w}
+        height={box.h}
         rx={4}
         fill={colors.surface}
         stroke={status ? colour : colors.border}
         strokeWidth={1.5}
       />
-      {status ? <StatusShape status={status} x={x + 7} y={y + 5} /> : null}
+      {status ? <StatusShape status={status} x={box.x + 7} y={box.y + 5} /> : null}
       <SvgText
-        x={x + (status ? 22 : 6)}
-        y={y + 15.5}
+        x={box.x + (status ? 23 : 7)}
+        y={box.y + 15.5}
         fontSize={12.5}
         fontFamily={fonts.mono}
         fill={status && status !== 'within' ? colour : colors.text}
       >
-        {label}
+        {text}
       </SvgText>
     </G>
   );

@@ -237,3 +237,63 @@ export function cgQuartersPath(cx: number, cy: number, r: number): string {
     `M ${cx} ${cy} L ${cx} ${cy + r} A ${r} ${r} 0 0 1 ${cx - r} ${cy} Z`,
   ].join(' ');
 }
+
+export type Box = { x: number; y: number; w: number; h: number };
+
+const overlaps = (a: Box, b: Box) => a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
+
+/**
+ * Places one label box beside each anchor (pivot) so that no two labels overlap, no label covers another
+ * anchor, and all stay inside the view. Tries the four corners round the anchor first, then the same
+ * corners stepped further out; falls back to the first corner when nothing fits.
+ */
+export function placeLabels(
+  anchors: readonly (readonly [number, number])[],
+  sizes: readonly { w: number; h: number }[],
+  width: number,
+  height: number,
+  gap = 14,
+): Box[] {
+  const placed: Box[] = [];
+  const anchorBoxes = anchors.map(([x, y]) => ({ x: x - 10, y: y - 10, w: 20, h: 20 }));
+  anchors.forEach(([ax, ay], i) => {
+    const { w, h } = sizes[i];
+    const candidates: Box[] = [];
+    for (let step = 0; step < 4; step++) {
+      const out = gap + step * (h + 6);
+      candidates.push(
+        { x: ax + gap, y: ay - out - h + gap / 2, w, h },
+        { x: ax + gap, y: ay + out - gap / 2, w, h },
+        { x: ax - gap - w, y: ay - out - h + gap / 2, w, h },
+        { x: ax - gap - w, y: ay + out - gap / 2, w, h },
+      );
+    }
+    const inside = (b: Box) => b.x >= 2 && b.y >= 2 && b.x + b.w <= width - 2 && b.y + b.h <= height - 2;
+    const free = (b: Box) =>
+      inside(b) && !placed.some((p) => overlaps(p, b)) && !anchorBoxes.some((a) => overlaps(a, b));
+    const chosen = candidates.find(free) ?? {
+      ...candidates[0],
+      x: Math.min(Math.max(2, candidates[0].x), width - w - 2),
+      y: Math.min(Math.max(2, candidates[0].y), height - h - 2),
+    };
+    placed.push(chosen);
+  });
+  return placed;
+}
+
+/**
+ * A drawing height that suits the chain's shape: a long horizontal arm gets a low drawing, a hanging
+ * pendulum a tall one, within [min, max] pixels.
+ */
+export function drawingHeight(
+  bounds: Bounds,
+  width: number,
+  padding: number,
+  min: number,
+  max: number,
+): number {
+  const spanX = Math.max(bounds.maxX - bounds.minX, 1e-6);
+  const spanY = Math.max(bounds.maxY - bounds.minY, 1e-6);
+  const wanted = ((width - 2 * padding) * spanY) / spanX + 2 * padding;
+  return Math.round(Math.min(max, Math.max(min, wanted)));
+}

@@ -89,11 +89,11 @@ export function DesignDrawingPanel({
           />
         ) : null}
       </View>
-      <ChainDrawing data={data} pose={pose} peaks={peaks} system={system} height={wide ? 420 : 320} />
+      <ChainDrawing data={data} pose={pose} peaks={peaks} system={system} maxHeight={wide ? 440 : 340} />
       {analysis.error !== null ? (
         <Text color={colors.near}>No cycle to analyse: {analysis.error}</Text>
       ) : (
-        <PivotPeaksTable result={analysis.result} system={system} />
+        <PivotPeaksTable result={analysis.result} data={data} system={system} />
       )}
       <Caution />
     </Card>
@@ -101,7 +101,16 @@ export function DesignDrawingPanel({
 }
 
 /** Peak force and torque per pivot at the design motion, against the design force limit. */
-export function PivotPeaksTable({ result, system }: { result: CycleResult; system: UnitSystem }) {
+export function PivotPeaksTable({
+  result,
+  data,
+  system,
+}: {
+  result: CycleResult;
+  data: DesignData;
+  system: UnitSystem;
+}) {
+  const pivotName = (i: number) => data.pivots.find((p) => p.joint === i)?.name ?? data.bodies[i]?.name ?? '';
   return (
     <View style={styles.peaks}>
       <DataTable
@@ -113,7 +122,7 @@ export function PivotPeaksTable({ result, system }: { result: CycleResult; syste
         }))}
         rowKey={({ i }) => String(i)}
         columns={[
-          { key: 'pivot', title: 'Pivot', render: ({ j, i }) => `P${i + 1} · ${j.name}`, flex: 1.6 },
+          { key: 'pivot', title: 'Pivot', render: ({ i }) => `P${i + 1} · ${pivotName(i)}`, flex: 1.5 },
           {
             key: 'peak',
             title: 'Peak force',
@@ -123,7 +132,13 @@ export function PivotPeaksTable({ result, system }: { result: CycleResult; syste
           {
             key: 'limit',
             title: 'Force limit',
-            render: ({ force }) => (force ? formatLimit(force.limit, 'force', system) : '—'),
+            // The column title says it is an upper limit; the value alone keeps the column narrow.
+            render: ({ force }) =>
+              force?.limit.kind === 'upper'
+                ? formatValue(force.limit.max, 'force', system)
+                : force
+                  ? formatLimit(force.limit, 'force', system)
+                  : '—',
             numeric: true,
           },
           {
@@ -145,6 +160,7 @@ export function PivotPeaksTable({ result, system }: { result: CycleResult; syste
             title: 'Peak torque',
             render: ({ j }) => formatValue(Math.abs(j.peakTorque.value), 'moment', system),
             numeric: true,
+            flex: 1.15,
           },
         ]}
       />
@@ -161,10 +177,12 @@ export function DesignVersionCard({
   version,
   data,
   note,
+  footer,
 }: {
   version: DesignVersionInfo;
   data: DesignData;
   note?: React.ReactNode;
+  footer?: React.ReactNode;
 }) {
   return (
     <Card accessibilityLabel={`Design data version ${version.version}`}>
@@ -178,6 +196,7 @@ export function DesignVersionCard({
       <Field label="Source document" value={`${data.source.document}, revision ${data.source.revision}`} />
       <Field label="Made by" value={`${version.createdByName}, ${formatDateTime(version.createdAt)}`} />
       <Field label="Why" value={version.reason} />
+      {footer}
     </Card>
   );
 }

@@ -116,7 +116,7 @@ function RideDetailBody({
         <DesignVersionCard
           version={design}
           data={design.data}
-          note={<DesignLinks rideId={ride.id} editor={editor} />}
+          footer={<DesignLinks rideId={ride.id} editor={editor} />}
         />
       ) : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}

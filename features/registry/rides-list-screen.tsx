@@ -101,28 +101,29 @@ function RidesList({ user }: { user: SessionUser }) {
       .map((c) => ({ value: c.id, label: c.name })),
   ];
 
-  const filters = (
-    <View style={wide ? styles.filtersWide : styles.filters}>
-      {staff ? (
-        <View style={wide ? styles.selectRow : styles.filters}>
-          <View style={styles.select}>
-            <SelectField
-              label="Site"
-              value={query.siteId ?? ALL}
-              options={siteOptions}
-              onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
-            />
-          </View>
-          <View style={styles.select}>
-            <SelectField
-              label="Operator"
-              value={query.operatorId ?? ALL}
-              options={operatorOptions}
-              onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
-            />
-          </View>
-        </View>
-      ) : null}
+  const selects = staff ? (
+    <>
+      <View style={wide ? styles.selectWide : undefined}>
+        <SelectField
+          label="Site"
+          value={query.siteId ?? ALL}
+          options={siteOptions}
+          onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
+        />
+      </View>
+      <View style={wide ? styles.selectWide : undefined}>
+        <SelectField
+          label="Operator"
+          value={query.operatorId ?? ALL}
+          options={operatorOptions}
+          onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
+        />
+      </View>
+    </>
+  ) : null;
+
+  const chips = (
+    <View style={wide ? styles.chipsWide : styles.filters}>
       <View style={styles.chipGroup}>
         <Text variant="label" muted>
           RIDE CLASS
@@ -145,14 +146,6 @@ function RidesList({ user }: { user: SessionUser }) {
           onChange={(v) => filter({ status: v })}
         />
       </View>
-      {!wide ? (
-        <SelectField
-          label="Sort"
-          value={query.sort ?? 'name'}
-          options={sortChoices}
-          onChange={(v) => setQuery({ sort: v, page: undefined })}
-        />
-      ) : null}
       {activeFilters > 0 || query.q ? (
         <Button label="Clear search and filters" tone="quiet" onPress={clear} style={styles.clear} />
       ) : null}
@@ -191,7 +184,9 @@ function RidesList({ user }: { user: SessionUser }) {
               returnKeyType="search"
             />
           </View>
-          {!wide ? (
+          {wide ? (
+            selects
+          ) : (
             <Button
               label={activeFilters > 0 ? `Filters (${activeFilters})` : 'Filters'}
               tone="quiet"
@@ -200,9 +195,21 @@ function RidesList({ user }: { user: SessionUser }) {
               icon={<Feather name="sliders" size={18} color={colors.text} />}
               style={styles.filterButton}
             />
-          ) : null}
+          )}
         </View>
-        {wide || filtersOpen ? filters : null}
+        {wide ? chips : null}
+        {!wide && filtersOpen ? (
+          <View style={styles.filters}>
+            {selects}
+            {chips}
+            <SelectField
+              label="Sort"
+              value={query.sort ?? 'name'}
+              options={sortChoices}
+              onChange={(v) => setQuery({ sort: v, page: undefined })}
+            />
+          </View>
+        ) : null}
       </Card>
 
       <QueryState query={rides}>
@@ -324,13 +331,18 @@ function RideTable({
 
 const styles = StyleSheet.create({
   filterCard: { gap: space.md },
-  searchRow: { flexDirection: 'row', alignItems: 'flex-end', gap: space.sm },
-  search: { flex: 1, minWidth: 0 },
+  searchRow: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
+  search: { flex: 2, minWidth: 0 },
+  selectWide: { flex: 1, minWidth: 0 },
+  chipsWide: {
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    alignItems: 'flex-end',
+    columnGap: space.xl,
+    rowGap: space.md,
+  },
   filterButton: { paddingHorizontal: space.md },
   filters: { gap: space.md },
-  filtersWide: { gap: space.md },
-  selectRow: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
-  select: { flex: 1, minWidth: 0 },
   chipGroup: { gap: space.xs },
   clear: { alignSelf: 'flex-start' },
   results: { gap: space.md },

@@ -1,0 +1,3 @@
+import { RideEditScreen } from '@/features/registry/ride-edit-screens';
+
+export default RideEditScreen;

@@ -1,0 +1,3 @@
+import { RideStatusScreen } from '@/features/registry/ride-edit-screens';
+
+export default RideStatusScreen;

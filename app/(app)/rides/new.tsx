@@ -1,0 +1,3 @@
+import { RideCreateScreen } from '@/features/registry/ride-edit-screens';
+
+export default RideCreateScreen;

@@ -1,0 +1,100 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { Controller, useForm, useWatch } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { z } from 'zod';
+
+import { Button } from '@/components/button';
+import { ChoiceChips } from '@/components/choice-chips';
+import { FormAlert, type FormProblem } from '@/components/form-alert';
+import { rideStatusLabel } from '@/components/status-mark';
+import { space } from '@/components/theme';
+import { FormText } from '@/features/registry/form-fields';
+import { requireReasonOutOfService } from '@/features/registry/ride-form';
+import { ridePatchSchema } from '@/features/registry/schema';
+import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
+
+/**
+ * The status part of the API's ride PATCH, with the status rule; "since" may be left empty (the server
+ * then takes the moment of the change).
+ */
+export const statusFormSchema = z
+  .object({
+    status: rideStatusSchema,
+    statusReason: ridePatchSchema.shape.statusReason,
+    statusSince: z.preprocess((v) => (v === '' ? undefined : v), ridePatchSchema.shape.statusSince),
+  })
+  .superRefine(requireReasonOutOfService);
+
+export type StatusFormInput = z.input<typeof statusFormSchema>;
+export type StatusFormOutput = z.output<typeof statusFormSchema>;
+
+export function StatusForm({
+  defaultValues,
+  onSubmit,
+  onCancel,
+}: {
+  defaultValues: StatusFormInput;
+  onSubmit: (values: StatusFormOutput) => Promise<unknown>;
+  onCancel?: () => void;
+}) {
+  const { control, handleSubmit, setError, formState } = useForm<StatusFormInput, unknown, StatusFormOutput>({
+    resolver: zodResolver(statusFormSchema),
+    defaultValues,
+  });
+  const [problem, setProblem] = useState<FormProblem | null>(null);
+  const status = useWatch({ control, name: 'status' });
+  const submit = handleSubmit(async (values) => {
+    setProblem(null);
+    try {
+      // In service carries no reason; the server clears it the same way.
+      await onSubmit(values.status === 'in_service' ? { ...values, statusReason: null } : values);
+    } catch (err) {
+      setProblem(applyServerError(err, setError, fieldsOf(['status', 'statusReason', 'statusSince'])));
+    }
+  });
+  return (
+    <View style={styles.form}>
+      <Controller
+        control={control}
+        name="status"
+        render={({ field, fieldState }) => (
+          <ChoiceChips
+            label="New status"
+            value={field.value}
+            options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      {status !== 'in_service' ? (
+        <FormText
+          control={control}
+          name="statusReason"
+          label="Reason"
+          hint="The operator sees this with the status. Say what must happen before it changes back."
+          multiline
+        />
+      ) : null}
+      <FormText
+        control={control}
+        name="statusSince"
+        label="Since"
+        hint="Leave empty for now, or give a date or date-time, e.g. 2025-05-01 or 2025-05-01T08:30Z."
+        autoCapitalize="none"
+      />
+      <FormAlert problem={problem} />
+      <View style={styles.buttons}>
+        <Button label="Save status" tone="accent" onPress={submit} busy={formState.isSubmitting} />
+        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
+      </View>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.lg },
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+});
