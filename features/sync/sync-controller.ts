@@ -16,6 +16,8 @@ import { type PhotoProgress, requeuePhoto } from '@/features/sync/photo-upload';
 import { syncOnce } from '@/features/sync/sync-run';
 
 export const SYNC_INTERVAL_MS = 30_000;
+/** With nothing to send, still pull now and then: new assignments and decisions arrive that way. */
+export const PULL_INTERVAL_MS = 5 * 60_000;
 
 export type SyncStatus = {
   /** Records queued or being sent. */
@@ -54,6 +56,7 @@ export class SyncController {
   private status: SyncStatus = { ...emptySyncStatus, online: isOnline() };
   private listeners = new Set<() => void>();
   private teardown: (() => void) | null = null;
+  private lastRunAt = 0;
 
   constructor(
     private readonly dev: DeviceDb,
@@ -98,6 +101,7 @@ export class SyncController {
   /** `force` skips the back-off: the inspector asked, or the connection just came back. */
   syncNow = async ({ force = true }: { force?: boolean } = {}): Promise<void> => {
     this.set({ running: true });
+    this.lastRunAt = Date.now();
     try {
       await syncOnce(this.api, this.dev, {
         newId: this.newId,
@@ -135,7 +139,8 @@ export class SyncController {
     });
     const offLoss = onConnectionLoss(() => this.set({ online: false }));
     const timer = setInterval(() => {
-      if (isOnline() && (this.status.waiting > 0 || this.status.photosWaiting > 0))
+      const somethingWaits = this.status.waiting > 0 || this.status.photosWaiting > 0;
+      if (isOnline() && (somethingWaits || Date.now() - this.lastRunAt >= PULL_INTERVAL_MS))
         void this.syncNow({ force: false });
     }, SYNC_INTERVAL_MS);
     this.teardown = () => {
