@@ -18,6 +18,7 @@ import {
   checklistVersionListResponseSchema,
   companyListResponseSchema,
   companyResponseSchema,
+  designImportCheckResponseSchema,
   designResponseSchema,
   designVersionListResponseSchema,
   inspectorListResponseSchema,
@@ -172,6 +173,42 @@ export function useDesignPutMutation(rideId: string) {
   return useMutation({
     mutationFn: (body: { reason: string; data: DesignData; basedOnVersion?: number }) =>
       apiFetch(`/api/rides/${enc(rideId)}/design`, { method: 'PUT', body, schema: designResponseSchema }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.design(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}
+
+export type DesignImport = {
+  format: 'csv' | 'json';
+  content: string;
+  reason: string;
+  basedOnVersion?: number;
+};
+
+/**
+ * Checks a design file on the server without saving (`dryRun`): 200 with the data it would become, or
+ * 400 `import_invalid` with its row-and-column report.
+ */
+export function useDesignImportCheckMutation(rideId: string) {
+  return useMutation({
+    mutationFn: (body: Omit<DesignImport, 'reason'>) =>
+      apiFetch(`/api/rides/${enc(rideId)}/design/import?dryRun=true`, {
+        body,
+        schema: designImportCheckResponseSchema,
+      }),
+  });
+}
+
+/** Imports a design file as a new version; all or nothing. */
+export function useDesignImportMutation(rideId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: DesignImport) =>
+      apiFetch(`/api/rides/${enc(rideId)}/design/import`, { body, schema: designResponseSchema }),
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),

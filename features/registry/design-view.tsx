@@ -348,8 +348,9 @@ export function DesignTables({ data, system }: { data: DesignData; system: UnitS
             },
             {
               key: 'facing',
-              title: 'Chest',
-              render: ({ s }) => (s.facing === 'ccw' ? 'Spine turned left' : 'Spine turned right'),
+              title: 'Chest faces',
+              // The chest lies 90° from the spine: clockwise by default, counter-clockwise when mirrored.
+              render: ({ s }) => (s.facing === 'ccw' ? 'Spine + 90° (mirrored)' : 'Spine − 90°'),
             },
           ]}
         />

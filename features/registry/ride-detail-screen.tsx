@@ -5,12 +5,10 @@ import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
-import { Column, Columns } from '@/components/screen';
 import { RideStatusMark } from '@/components/status-mark';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { useWide } from '@/components/use-wide';
 import { ApiRequestError } from '@/features/api/client';
 import { roleHome } from '@/features/auth/api';
 import { RoleGate } from '@/features/auth/role-gate';
@@ -23,6 +21,7 @@ import {
   useDesignAnalysis,
 } from '@/features/registry/design-view';
 import { DueMark, dueInWords } from '@/features/registry/due-mark';
+import { Panes } from '@/features/registry/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/features/registry/text';
 import { useRideQuery } from '@/features/rides/api';
@@ -93,12 +92,11 @@ function RideDetailBody({
   user: SessionUser;
   back: { href: string; label: string };
 }) {
-  const wide = useWide();
   const editor = canEditRides(user.role);
   const staff = isStaff(user.role);
 
   const info = (
-    <Column grow={1}>
+    <>
       <StatusCard ride={ride} editor={editor} />
       <Card>
         <Text variant="heading">Ride</Text>
@@ -120,11 +118,11 @@ function RideDetailBody({
         />
       ) : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
-    </Column>
+    </>
   );
 
   const designPane = staff ? (
-    <Column grow={2}>
+    <>
       {design ? (
         <DesignPane design={design} />
       ) : (
@@ -144,7 +142,7 @@ function RideDetailBody({
           ) : null}
         </Card>
       )}
-    </Column>
+    </>
   ) : null;
 
   return (
@@ -170,14 +168,7 @@ function RideDetailBody({
         ) : null
       }
     >
-      {staff ? (
-        <Columns>
-          {wide ? designPane : info}
-          {wide ? info : designPane}
-        </Columns>
-      ) : (
-        info
-      )}
+      {staff ? <Panes main={designPane} side={info} /> : <View style={styles.stack}>{info}</View>}
     </SubScreen>
   );
 }
@@ -285,6 +276,7 @@ function ScheduleLine({ schedule: s }: { schedule: Schedule }) {
 
 const styles = StyleSheet.create({
   pair: { flexDirection: 'row', gap: space.xl },
+  stack: { gap: space.lg, maxWidth: 640 },
   start: { alignSelf: 'flex-start' },
   links: { gap: 0 },
   linkRow: {

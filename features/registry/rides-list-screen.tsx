@@ -171,11 +171,13 @@ function RidesList({ user }: { user: SessionUser }) {
     >
       {staff ? <RegisterTabs role={user.role} /> : null}
       <Card style={styles.filterCard}>
-        <View style={styles.searchRow}>
+        <View style={wide ? styles.searchRow : styles.searchRowPhone}>
           <View style={styles.search}>
             <TextField
               label="Search rides"
-              placeholder="Name, maker, model, serial, site or operator"
+              placeholder={
+                wide ? 'Name, maker, model, serial, site or operator' : 'Name, maker, serial, site…'
+              }
               value={search}
               onChangeText={setSearch}
               autoCapitalize="none"
@@ -332,6 +334,7 @@ function RideTable({
 const styles = StyleSheet.create({
   filterCard: { gap: space.md },
   searchRow: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
+  searchRowPhone: { flexDirection: 'row', alignItems: 'flex-end', gap: space.sm },
   search: { flex: 2, minWidth: 0 },
   selectWide: { flex: 1, minWidth: 0 },
   chipsWide: {

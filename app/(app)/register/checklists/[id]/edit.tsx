@@ -1,0 +1,3 @@
+import { ChecklistEditScreen } from '@/features/registry/checklist-screens';
+
+export default ChecklistEditScreen;

@@ -1,0 +1,3 @@
+import { ChecklistScreen } from '@/features/registry/checklist-screens';
+
+export default ChecklistScreen;

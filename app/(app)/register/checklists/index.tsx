@@ -1,0 +1,3 @@
+import { ChecklistsListScreen } from '@/features/registry/checklist-screens';
+
+export default ChecklistsListScreen;

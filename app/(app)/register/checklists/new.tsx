@@ -1,0 +1,3 @@
+import { ChecklistCreateScreen } from '@/features/registry/checklist-screens';
+
+export default ChecklistCreateScreen;

@@ -1,0 +1,3 @@
+import { SchedulesListScreen } from '@/features/registry/schedule-screens';
+
+export default SchedulesListScreen;

@@ -1,0 +1,3 @@
+import { DesignScreen } from '@/features/registry/design-screens';
+
+export default DesignScreen;

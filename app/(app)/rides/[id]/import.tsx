@@ -1,0 +1,3 @@
+import { DesignImportScreen } from '@/features/registry/design-import-screen';
+
+export default DesignImportScreen;

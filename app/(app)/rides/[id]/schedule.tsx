@@ -1,0 +1,3 @@
+import { RideScheduleScreen } from '@/features/registry/schedule-screens';
+
+export default RideScheduleScreen;

@@ -1,0 +1,3 @@
+import { DesignVersionScreen } from '@/features/registry/design-screens';
+
+export default DesignVersionScreen;

@@ -1,0 +1,298 @@
+import Feather from '@expo/vector-icons/Feather';
+import { Link, router, useLocalSearchParams } from 'expo-router';
+import { useState } from 'react';
+import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { QueryState } from '@/components/query-state';
+import { SubScreen } from '@/components/sub-screen';
+import { Text } from '@/components/text';
+import { colors, layout, space } from '@/components/theme';
+import { ApiRequestError } from '@/features/api/client';
+import { RoleGate } from '@/features/auth/role-gate';
+import type { Role } from '@/features/auth/schema';
+import { designToFile } from '@/features/registry/csv';
+import { useDesignVersionQuery, useDesignVersionsQuery } from '@/features/registry/api';
+import type { DesignData } from '@/features/registry/design-data';
+import {
+  DesignDrawingPanel,
+  DesignTables,
+  DesignVersionCard,
+  useDesignAnalysis,
+} from '@/features/registry/design-view';
+import { exportFileName } from '@/features/registry/import-report';
+import { Panes } from '@/features/registry/panes';
+import { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-detail-screen';
+import { saveTextFile } from '@/features/registry/save-file';
+import type { DesignVersion, DesignVersionInfo } from '@/features/registry/schema';
+import { designOriginLabel, formatDateTime } from '@/features/registry/text';
+import { useRideQuery } from '@/features/rides/api';
+import { rideHref } from '@/features/rides/ride-card';
+import type { RideSummary } from '@/features/rides/schema';
+import { useUnitSystem } from '@/features/settings/unit-system';
+
+const staff = ['admin', 'supervisor', 'inspector'] as const;
+
+export const designHref = (rideId: string) => `${rideHref(rideId)}/design`;
+export const versionHref = (rideId: string, version: number) => `${rideHref(rideId)}/versions/${version}`;
+
+/** A ride's current design data in full: drawing, peaks, every table, export, and its version history. */
+export function DesignScreen() {
+  const id = useRideIdParam();
+  return <RoleGate roles={staff}>{(user) => <CurrentDesign id={id} role={user.role} />}</RoleGate>;
+}
+
+function CurrentDesign({ id, role }: { id: string; role: Role }) {
+  const ride = useRideQuery(id);
+  if (ride.error instanceof ApiRequestError && ride.error.status === 404)
+    return <RideNotFound back={{ href: '/rides', label: 'Rides' }} />;
+  return (
+    <QueryState query={ride}>
+      {({ ride: r, design }) =>
+        design ? (
+          <DesignPage ride={r} design={design} currentVersion={design.version} role={role} />
+        ) : (
+          <SubScreen title="Design data" subtitle={r.name} back={{ href: rideHref(r.id), label: r.name }}>
+            <Card>
+              <Text variant="heading">No design data yet</Text>
+              <Text muted>Import it from the maker’s design document.</Text>
+            </Card>
+          </SubScreen>
+        )
+      }
+    </QueryState>
+  );
+}
+
+/** One earlier (or the current) version, as it was: versions never change once made. */
+export function DesignVersionScreen() {
+  const id = useRideIdParam();
+  const { version } = useLocalSearchParams<{ version: string }>();
+  const n = Number(Array.isArray(version) ? version[0] : version);
+  return <RoleGate roles={staff}>{(user) => <OldDesign id={id} version={n} role={user.role} />}</RoleGate>;
+}
+
+function OldDesign({ id, version, role }: { id: string; version: number; role: Role }) {
+  const ride = useRideQuery(id);
+  const design = useDesignVersionQuery(id, version);
+  if (ride.error instanceof ApiRequestError && ride.error.status === 404)
+    return <RideNotFound back={{ href: '/rides', label: 'Rides' }} />;
+  if (design.error instanceof ApiRequestError && design.error.status === 404)
+    return (
+      <SubScreen title="No such version" back={{ href: designHref(id), label: 'Design data' }}>
+        <Card role="alert">
+          <Text>This ride has no design data version {String(version)}.</Text>
+        </Card>
+      </SubScreen>
+    );
+  return (
+    <QueryState query={ride}>
+      {({ ride: r, design: current }) => (
+        <QueryState query={design}>
+          {(d) => <DesignPage ride={r} design={d} currentVersion={current?.version ?? null} role={role} />}
+        </QueryState>
+      )}
+    </QueryState>
+  );
+}
+
+function DesignPage({
+  ride,
+  design,
+  currentVersion,
+  role,
+}: {
+  ride: RideSummary;
+  design: DesignVersion;
+  currentVersion: number | null;
+  role: Role;
+}) {
+  const [system] = useUnitSystem();
+  const analysis = useDesignAnalysis(design.data);
+  const versions = useDesignVersionsQuery(ride.id);
+  const isCurrent = design.version === currentVersion;
+  const note = isCurrent ? null : (
+    <View style={styles.oldNote} role="note">
+      <Feather name="clock" size={16} color={colors.near} />
+      <Text variant="small" color={colors.near} style={styles.flex}>
+        An earlier version, shown as it was.{currentVersion ? ` Version ${currentVersion} is current.` : ''}
+      </Text>
+    </View>
+  );
+  const side = (
+    <>
+      <DesignVersionCard version={design} data={design.data} note={note} />
+      <ExportCard ride={ride} version={design.version} data={design.data} />
+      {canEditRides(role) && isCurrent ? (
+        <Button
+          label="Import a new version"
+          tone="quiet"
+          icon={<Feather name="upload" size={18} color={colors.text} />}
+          onPress={() => router.push(`${rideHref(ride.id)}/import`)}
+        />
+      ) : null}
+      <Card>
+        <Text variant="heading">Version history</Text>
+        {versions.isPending ? (
+          <ActivityIndicator color={colors.base} />
+        ) : versions.data ? (
+          <VersionList
+            rideId={ride.id}
+            versions={versions.data}
+            shown={design.version}
+            current={currentVersion}
+          />
+        ) : (
+          <Text muted>The history could not be loaded.</Text>
+        )}
+      </Card>
+    </>
+  );
+  return (
+    <SubScreen
+      title={isCurrent ? 'Design data' : `Design data v${design.version}`}
+      subtitle={`${ride.name} · ${design.data.source.document}, revision ${design.data.source.revision}`}
+      back={
+        isCurrent
+          ? { href: rideHref(ride.id), label: ride.name }
+          : { href: designHref(ride.id), label: 'Current design data' }
+      }
+    >
+      <Panes
+        main={<DesignDrawingPanel data={design.data} system={system} analysis={analysis} />}
+        side={side}
+      />
+      <DesignTables data={design.data} system={system} />
+    </SubScreen>
+  );
+}
+
+function VersionList({
+  rideId,
+  versions,
+  shown,
+  current,
+}: {
+  rideId: string;
+  versions: DesignVersionInfo[];
+  shown: number;
+  current: number | null;
+}) {
+  return (
+    <View accessibilityLabel="Design data versions">
+      {versions.map((v) => (
+        <Link
+          key={v.id}
+          href={v.version === current ? designHref(rideId) : versionHref(rideId, v.version)}
+          asChild
+        >
+          <Pressable
+            role="link"
+            accessibilityLabel={`Version ${v.version}${v.version === current ? ', current' : ''}: ${v.reason}`}
+            style={v.version === shown ? styles.versionShown : styles.version}
+          >
+            <View style={styles.versionHead}>
+              <Text variant="heading">
+                v{v.version}
+                {v.version === current ? ' · current' : ''}
+              </Text>
+              <Text variant="small" muted>
+                {formatDateTime(v.createdAt)}
+              </Text>
+            </View>
+            <Text variant="small" numberOfLines={2}>
+              {v.reason}
+            </Text>
+            <Text variant="small" muted>
+              {v.createdByName} · {designOriginLabel[v.origin]}
+            </Text>
+          </Pressable>
+        </Link>
+      ))}
+    </View>
+  );
+}
+
+/** The design data as a file, the same format import reads (written by the same code as the server’s export). */
+export function ExportCard({
+  ride,
+  version,
+  data,
+}: {
+  ride: RideSummary;
+  version: number;
+  data: DesignData;
+}) {
+  const [saved, setSaved] = useState<string | null>(null);
+  const save = async (format: 'csv' | 'json') => {
+    const name = exportFileName(ride.name, version, format);
+    setSaved(
+      await saveTextFile(
+        name,
+        designToFile(format, data),
+        format === 'csv' ? 'text/csv' : 'application/json',
+      ),
+    );
+  };
+  return (
+    <Card>
+      <Text variant="heading">Export v{version}</Text>
+      <Text variant="small" muted>
+        CSV (one row per part, pivot, seat…) or JSON, in SI units. Import reads the same files back.
+      </Text>
+      <View style={styles.buttons}>
+        <Button
+          label="Download CSV"
+          tone="quiet"
+          icon={<Feather name="download" size={18} color={colors.text} />}
+          onPress={() => save('csv')}
+        />
+        <Button
+          label="Download JSON"
+          tone="quiet"
+          icon={<Feather name="download" size={18} color={colors.text} />}
+          onPress={() => save('json')}
+        />
+      </View>
+      {saved ? (
+        <Text variant="small" muted accessibilityLiveRegion="polite">
+          {saved}
+        </Text>
+      ) : null}
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  flex: { flex: 1 },
+  oldNote: {
+    flexDirection: 'row',
+    gap: space.sm,
+    alignItems: 'center',
+    backgroundColor: colors.nearSoft,
+    padding: space.sm,
+    borderRadius: 6,
+  },
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  version: {
+    minHeight: layout.touchTarget,
+    paddingVertical: space.sm,
+    paddingHorizontal: space.sm,
+    borderTopWidth: 1,
+    borderTopColor: colors.surfaceSunk,
+    gap: 2,
+  },
+  versionShown: {
+    minHeight: layout.touchTarget,
+    paddingVertical: space.sm,
+    paddingHorizontal: space.sm,
+    borderTopWidth: 1,
+    borderTopColor: colors.surfaceSunk,
+    gap: 2,
+    backgroundColor: colors.accentSoft,
+    borderLeftWidth: 3,
+    borderLeftColor: colors.accent,
+  },
+  versionHead: { flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm },
+});

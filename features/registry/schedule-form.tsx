@@ -1,0 +1,124 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { Controller, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { z } from 'zod';
+
+import { Button } from '@/components/button';
+import { FormAlert, type FormProblem } from '@/components/form-alert';
+import { SelectField } from '@/components/select-field';
+import { space } from '@/components/theme';
+import { FormNumber, FormText } from '@/features/registry/form-fields';
+import { schedulePatchSchema } from '@/features/registry/schema';
+import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+
+/** An empty date field means "no date": the API takes null for that. */
+const emptyAsNull = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (v === '' ? null : v), schema);
+
+/** The API's schedule PATCH schema, with empty date fields read as "none". */
+export const scheduleFormSchema = z.object({
+  intervalDays: schedulePatchSchema.shape.intervalDays,
+  lastDoneOn: emptyAsNull(schedulePatchSchema.shape.lastDoneOn),
+  dueOn: emptyAsNull(schedulePatchSchema.shape.dueOn),
+  assignedTo: schedulePatchSchema.shape.assignedTo,
+  notes: schedulePatchSchema.shape.notes,
+});
+export type ScheduleFormInput = z.input<typeof scheduleFormSchema>;
+export type ScheduleFormOutput = z.output<typeof scheduleFormSchema>;
+
+const NOBODY = '__nobody';
+
+/** Interval, dates, the assigned inspector and notes of one inspection type on one ride. */
+export function ScheduleForm({
+  defaultValues,
+  inspectors,
+  onSubmit,
+  onCancel,
+  submitLabel,
+}: {
+  defaultValues: ScheduleFormInput;
+  inspectors: { id: string; name: string }[];
+  onSubmit: (values: ScheduleFormOutput) => Promise<unknown>;
+  onCancel: () => void;
+  submitLabel: string;
+}) {
+  const { control, handleSubmit, setError, formState } = useForm<
+    ScheduleFormInput,
+    unknown,
+    ScheduleFormOutput
+  >({
+    resolver: zodResolver(scheduleFormSchema),
+    defaultValues,
+  });
+  const [problem, setProblem] = useState<FormProblem | null>(null);
+  const submit = handleSubmit(async (values) => {
+    setProblem(null);
+    try {
+      await onSubmit(values);
+    } catch (err) {
+      setProblem(
+        applyServerError(
+          err,
+          setError,
+          fieldsOf(['intervalDays', 'lastDoneOn', 'dueOn', 'assignedTo', 'notes']),
+        ),
+      );
+    }
+  });
+  return (
+    <View style={styles.form}>
+      <View style={styles.row}>
+        <View style={styles.cell}>
+          <FormNumber control={control} name="intervalDays" label="Every" unit="days" integer />
+        </View>
+        <View style={styles.cell}>
+          <FormText
+            control={control}
+            name="lastDoneOn"
+            label="Last done"
+            hint="YYYY-MM-DD"
+            autoCapitalize="none"
+          />
+        </View>
+        <View style={styles.cell}>
+          <FormText
+            control={control}
+            name="dueOn"
+            label="Due on (one-off)"
+            hint="Overrides last done + interval"
+            autoCapitalize="none"
+          />
+        </View>
+      </View>
+      <Controller
+        control={control}
+        name="assignedTo"
+        render={({ field, fieldState }) => (
+          <SelectField
+            label="Inspector"
+            value={field.value ?? NOBODY}
+            options={[
+              { value: NOBODY, label: 'Not assigned' },
+              ...inspectors.map((i) => ({ value: i.id, label: i.name })),
+            ]}
+            onChange={(v) => field.onChange(v === NOBODY ? null : v)}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      <FormText control={control} name="notes" label="Notes" multiline />
+      <FormAlert problem={problem} />
+      <View style={styles.buttons}>
+        <Button label={submitLabel} onPress={submit} busy={formState.isSubmitting} />
+        <Button label="Cancel" tone="quiet" onPress={onCancel} />
+      </View>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.md },
+  row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  cell: { flexGrow: 1, flexBasis: 160, minWidth: 0 },
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+});

@@ -1,0 +1,333 @@
+import { router } from 'expo-router';
+import { useEffect, useState } from 'react';
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { Pager } from '@/components/pager';
+import { QueryState } from '@/components/query-state';
+import { Screen } from '@/components/screen';
+import { SelectField } from '@/components/select-field';
+import { SortableTable } from '@/components/sortable-table';
+import { RideStatusMark } from '@/components/status-mark';
+import { SubScreen } from '@/components/sub-screen';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { ToggleChips } from '@/components/toggle-chips';
+import { colors, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { RoleGate } from '@/features/auth/role-gate';
+import type { SessionUser } from '@/features/auth/schema';
+import {
+  useInspectorsQuery,
+  useRideSchedulesQuery,
+  useScheduleCreateMutation,
+  useScheduleListQuery,
+  useScheduleUpdateMutation,
+} from '@/features/registry/api';
+import { DueMark, dueInWords, dueStatusLabel } from '@/features/registry/due-mark';
+import { RegisterTabs } from '@/features/registry/register-tabs';
+import { WithRide } from '@/features/registry/ride-edit-screens';
+import { useRideIdParam } from '@/features/registry/ride-detail-screen';
+import { ScheduleForm, type ScheduleFormInput } from '@/features/registry/schedule-form';
+import {
+  type InspectionType,
+  type Schedule,
+  dueStatuses,
+  inspectionTypeLabel,
+  inspectionTypes,
+  scheduleListQuerySchema,
+  scheduleSortKeys,
+} from '@/features/registry/schema';
+import { formatDate } from '@/features/registry/text';
+import { useListParams } from '@/features/registry/use-list-params';
+import { rideHref } from '@/features/rides/ride-card';
+import type { RideSummary } from '@/features/rides/schema';
+
+const planners = ['admin', 'supervisor'] as const;
+
+export const scheduleHref = (rideId: string) => `${rideHref(rideId)}/schedule`;
+
+/** One ride's inspections: each type with its interval, dates, due state and inspector; add or change. */
+export function RideScheduleScreen() {
+  const id = useRideIdParam();
+  return (
+    <RoleGate roles={planners}>
+      {() => <WithRide id={id}>{(ride) => <RideSchedule ride={ride} />}</WithRide>}
+    </RoleGate>
+  );
+}
+
+function RideSchedule({ ride }: { ride: RideSummary }) {
+  const schedules = useRideSchedulesQuery(ride.id);
+  const inspectors = useInspectorsQuery();
+  const [editing, setEditing] = useState<InspectionType | null>(null);
+  const create = useScheduleCreateMutation();
+  const update = useScheduleUpdateMutation();
+  return (
+    <SubScreen
+      title={`Schedule of ${ride.name}`}
+      subtitle="Inspection types, their intervals, when each is due, and who does it."
+      back={{ href: rideHref(ride.id), label: ride.name }}
+    >
+      <QueryState query={schedules}>
+        {(list) => (
+          <View style={styles.list}>
+            {inspectionTypes.map((type) => {
+              const s = list.find((x) => x.inspectionType === type) ?? null;
+              const open = editing === type;
+              const defaults: ScheduleFormInput = {
+                intervalDays: s?.intervalDays ?? null,
+                lastDoneOn: s?.lastDoneOn ?? '',
+                dueOn: s?.dueOn ?? '',
+                assignedTo: s?.assignedTo?.id ?? null,
+                notes: s?.notes ?? '',
+              };
+              return (
+                <Card key={type} accessibilityLabel={inspectionTypeLabel[type]}>
+                  <View style={styles.head}>
+                    <View style={styles.flex}>
+                      <Text variant="heading">{inspectionTypeLabel[type]}</Text>
+                      <Text variant="small" muted>
+                        {s
+                          ? [
+                              s.intervalDays ? `every ${s.intervalDays} days` : 'no interval',
+                              s.lastDoneOn ? `last done ${formatDate(s.lastDoneOn)}` : 'not done yet',
+                              s.nextDueOn
+                                ? `next ${formatDate(s.nextDueOn)} (${dueInWords(s.daysUntilDue)})`
+                                : 'no date',
+                            ].join(' · ')
+                          : 'Not planned for this ride'}
+                      </Text>
+                      {s ? (
+                        <Text variant="small">
+                          {s.assignedTo ? `Assigned to ${s.assignedTo.name}` : 'Not assigned'}
+                        </Text>
+                      ) : null}
+                    </View>
+                    {s ? <DueMark status={s.dueStatus} /> : null}
+                  </View>
+                  {open ? (
+                    inspectors.data ? (
+                      <ScheduleForm
+                        defaultValues={defaults}
+                        inspectors={inspectors.data}
+                        submitLabel={s ? 'Save' : 'Plan it'}
+                        onCancel={() => setEditing(null)}
+                        onSubmit={async (values) => {
+                          if (s) await update.mutateAsync({ id: s.id, patch: values });
+                          else await create.mutateAsync({ rideId: ride.id, inspectionType: type, ...values });
+                          setEditing(null);
+                        }}
+                      />
+                    ) : (
+                      <ActivityIndicator color={colors.base} />
+                    )
+                  ) : (
+                    <Button
+                      label={s ? 'Change or assign' : 'Plan this inspection'}
+                      tone="quiet"
+                      onPress={() => setEditing(type)}
+                      style={styles.start}
+                    />
+                  )}
+                </Card>
+              );
+            })}
+          </View>
+        )}
+      </QueryState>
+    </SubScreen>
+  );
+}
+
+const PAGE_SIZE = 25;
+const LIST_KEYS = ['q', 'dueStatus', 'inspectionType', 'assignedTo', 'sort', 'page'] as const;
+const ANYONE = '__anyone';
+const SEARCH_DELAY_MS = 300;
+
+/** Every planned inspection across the register, soonest first: filter by due state, type and inspector. */
+export function SchedulesListScreen() {
+  return <RoleGate roles={planners}>{(user) => <SchedulesList user={user} />}</RoleGate>;
+}
+
+function SchedulesList({ user }: { user: SessionUser }) {
+  const wide = useWide();
+  const [query, setQuery] = useListParams(scheduleListQuerySchema, LIST_KEYS);
+  const schedules = useScheduleListQuery({ ...query, pageSize: PAGE_SIZE, sort: query.sort ?? 'nextDue' });
+  const inspectors = useInspectorsQuery();
+  const [search, setSearch] = useState(query.q ?? '');
+  useEffect(() => {
+    if ((query.q ?? '') === search.trim()) return;
+    const t = setTimeout(() => setQuery({ q: search.trim(), page: undefined }), SEARCH_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [search, query.q, setQuery]);
+  const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
+
+  return (
+    <Screen title="Rides" subtitle="Planned inspections across the register, soonest first.">
+      <RegisterTabs role={user.role} />
+      <Card style={styles.filters}>
+        <View style={wide ? styles.row : styles.list}>
+          <View style={styles.flex2}>
+            <TextField
+              label="Search"
+              placeholder="Ride, site or operator"
+              value={search}
+              onChangeText={setSearch}
+              autoCapitalize="none"
+              inputMode="search"
+            />
+          </View>
+          <View style={styles.flex}>
+            <SelectField
+              label="Inspector"
+              value={query.assignedTo ?? ANYONE}
+              options={[
+                { value: ANYONE, label: 'Anyone or nobody' },
+                { value: 'none', label: 'Not assigned' },
+                ...(inspectors.data ?? []).map((i) => ({ value: i.id, label: i.name })),
+              ]}
+              onChange={(v) => filter({ assignedTo: v === ANYONE ? undefined : v })}
+            />
+          </View>
+        </View>
+        <View style={wide ? styles.chipsWide : styles.list}>
+          <View style={styles.chipGroup}>
+            <Text variant="label" muted>
+              DUE
+            </Text>
+            <ToggleChips
+              label="Due"
+              values={query.dueStatus ?? []}
+              options={dueStatuses.map((d) => ({ value: d, label: dueStatusLabel(d) }))}
+              onChange={(v) => filter({ dueStatus: v })}
+            />
+          </View>
+          <View style={styles.chipGroup}>
+            <Text variant="label" muted>
+              INSPECTION
+            </Text>
+            <ToggleChips
+              label="Inspection"
+              values={query.inspectionType ?? []}
+              options={inspectionTypes.map((t) => ({ value: t, label: inspectionTypeLabel[t] }))}
+              onChange={(v) => filter({ inspectionType: v })}
+            />
+          </View>
+        </View>
+      </Card>
+      <QueryState query={schedules}>
+        {(page) => (
+          <View style={styles.list}>
+            {page.schedules.length === 0 ? (
+              <Card>
+                <Text variant="heading">No planned inspections match.</Text>
+              </Card>
+            ) : wide ? (
+              <SortableTable<Schedule, (typeof scheduleSortKeys)[number]>
+                label="Planned inspections"
+                rows={page.schedules}
+                rowKey={(s) => s.id}
+                rowHref={(s) => scheduleHref(s.rideId)}
+                rowLabel={(s) =>
+                  `${s.rideName}, ${inspectionTypeLabel[s.inspectionType]}, ${dueStatusLabel(s.dueStatus)}`
+                }
+                sort={query.sort ?? 'nextDue'}
+                onSort={(sort) => setQuery({ sort, page: undefined })}
+                columns={[
+                  {
+                    key: 'ride',
+                    title: 'Ride',
+                    sortKey: 'ride',
+                    flex: 1.4,
+                    render: (s) => (
+                      <View>
+                        <Text variant="heading">{s.rideName}</Text>
+                        <Text variant="small" muted numberOfLines={1}>
+                          {s.siteName ?? 'No site'} · {s.operatorName}
+                        </Text>
+                      </View>
+                    ),
+                  },
+                  {
+                    key: 'status',
+                    title: 'Ride status',
+                    render: (s) => <RideStatusMark status={s.rideStatus} compact />,
+                  },
+                  {
+                    key: 'type',
+                    title: 'Inspection',
+                    sortKey: 'type',
+                    render: (s) => inspectionTypeLabel[s.inspectionType],
+                  },
+                  {
+                    key: 'next',
+                    title: 'Next due',
+                    sortKey: 'nextDue',
+                    numeric: true,
+                    render: (s) => (s.nextDueOn ? formatDate(s.nextDueOn) : '—'),
+                  },
+                  { key: 'due', title: 'Due', render: (s) => <DueMark status={s.dueStatus} /> },
+                  {
+                    key: 'assignee',
+                    title: 'Inspector',
+                    sortKey: 'assignee',
+                    render: (s) => s.assignedTo?.name ?? 'Not assigned',
+                  },
+                ]}
+              />
+            ) : (
+              page.schedules.map((s) => <ScheduleCard key={s.id} schedule={s} />)
+            )}
+            <Pager
+              page={page.page}
+              pageSize={page.pageSize}
+              total={page.total}
+              noun="inspections"
+              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
+            />
+          </View>
+        )}
+      </QueryState>
+    </Screen>
+  );
+}
+
+function ScheduleCard({ schedule: s }: { schedule: Schedule }) {
+  return (
+    <Card accessibilityLabel={`${s.rideName}, ${inspectionTypeLabel[s.inspectionType]}`}>
+      <View style={styles.head}>
+        <View style={styles.flex}>
+          <Text variant="heading">{s.rideName}</Text>
+          <Text variant="small" muted>
+            {inspectionTypeLabel[s.inspectionType]} · {s.siteName ?? 'No site'}
+          </Text>
+        </View>
+        <DueMark status={s.dueStatus} />
+      </View>
+      <Text variant="figure">
+        {s.nextDueOn ? `${formatDate(s.nextDueOn)} · ${dueInWords(s.daysUntilDue)}` : 'No date set'}
+      </Text>
+      <Text variant="small">{s.assignedTo ? `Inspector: ${s.assignedTo.name}` : 'Not assigned'}</Text>
+      <Button
+        label="Plan and assign"
+        tone="quiet"
+        onPress={() => router.push(scheduleHref(s.rideId))}
+        style={styles.start}
+      />
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.md },
+  head: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-start', gap: space.md },
+  flex: { flex: 1, minWidth: 0, gap: 2 },
+  flex2: { flex: 2, minWidth: 0 },
+  start: { alignSelf: 'flex-start' },
+  filters: { gap: space.md },
+  row: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
+  chipsWide: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.xl, rowGap: space.md },
+  chipGroup: { gap: space.xs },
+});
