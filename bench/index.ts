@@ -4,7 +4,10 @@
  */
 type Bench = { name: string; load: () => Promise<{ run: () => void | Promise<void> }> };
 
-const benches: Bench[] = [{ name: 'load engine', load: () => import('@/bench/loads') }];
+const benches: Bench[] = [
+  { name: 'load engine', load: () => import('@/bench/loads') },
+  { name: 'server ingest', load: () => import('@/bench/ingest') },
+];
 
 async function main() {
   console.log(`node ${process.version}, ${process.platform}/${process.arch}, one thread per bench`);
