@@ -5,6 +5,7 @@
  */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { randomUUID } from 'expo-crypto';
+import { useCallback, useRef, useState } from 'react';
 
 import { useDeviceDb } from '@/features/device-db/provider';
 import {
@@ -127,14 +128,35 @@ export function useStartInspectionMutation() {
   });
 }
 
-/** Saves a changed draft at once; the cache is updated first so typing never waits for storage. */
-export function useSaveDraftMutation() {
+/**
+ * Edits a draft: each change is applied to the latest version (never a stale copy from an earlier
+ * render, so quick taps cannot undo each other), shown at once, and saved in order. `saving` stays true
+ * until the last change is on the device, so the screen can say when it is safe to put the phone away.
+ */
+export function useDraftEditor(id: string) {
   const dev = useDeviceDb();
   const client = useQueryClient();
-  return useMutation({
-    mutationFn: (draft: Draft) => saveDraft(dev, { id: draft.id, rideId: draft.rideId, data: draft }),
-    onMutate: (draft) => client.setQueryData(fieldKeys.draft(draft.id), draft),
-  });
+  const [saving, setSaving] = useState(0);
+  const [error, setError] = useState<Error | null>(null);
+  const queue = useRef<Promise<void>>(Promise.resolve());
+  const update = useCallback(
+    (fn: (d: Draft) => Draft) => {
+      const current = client.getQueryData<Draft | null>(fieldKeys.draft(id));
+      if (!current) return;
+      const next = fn(current);
+      client.setQueryData(fieldKeys.draft(id), next);
+      setSaving((n) => n + 1);
+      queue.current = queue.current
+        .then(() => saveDraft(dev, { id: next.id, rideId: next.rideId, data: next }))
+        .then(
+          () => setError(null),
+          (err: unknown) => setError(err instanceof Error ? err : new Error(String(err))),
+        )
+        .finally(() => setSaving((n) => n - 1));
+    },
+    [client, dev, id],
+  );
+  return { update, saving: saving > 0, error };
 }
 
 /** Puts the finished inspection in the outbox with the phone's own load-check summary. */
@@ -147,7 +169,8 @@ export function useSubmitDraftMutation() {
       const preview = design ? previewOf(analyseInspection(design.data, draft.readings)) : null;
       return submitDraft(dev, toRecord(draft, preview, new Date()));
     },
-    onSuccess: () => client.invalidateQueries({ queryKey: fieldKeys.all }),
+    // The recording screen leaves on success; re-reading its draft now would flash "not found".
+    onSuccess: () => client.invalidateQueries({ queryKey: fieldKeys.rides() }),
   });
 }
 

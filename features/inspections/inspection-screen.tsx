@@ -32,7 +32,7 @@ import {
   useDraftQuery,
   useFieldRideQuery,
   usePhotoUriQuery,
-  useSaveDraftMutation,
+  useDraftEditor,
   useSubmitDraftMutation,
 } from '@/features/inspections/field-api';
 import { capturePhoto } from '@/features/inspections/photo-capture';
@@ -69,7 +69,7 @@ type RideData = ReturnType<typeof useFieldRideQuery>['data'];
 function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const [section, setSection] = useState<Section>('checklist');
   const [system] = useUnitSystem();
-  const save = useSaveDraftMutation();
+  const editor = useDraftEditor(draft.id);
   const submit = useSubmitDraftMutation();
   const sync = useSyncStatus();
   const dev = useDeviceDb();
@@ -77,7 +77,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const [photoError, setPhotoError] = useState<string | null>(null);
   const design = data?.design?.data ?? null;
   const template = data?.template ?? null;
-  const change = (next: Draft) => save.mutate(next);
+  const change = editor.update;
   const now = () => new Date();
 
   // The load check follows every reading, on the phone, so the inspector knows before leaving the ride.
@@ -110,7 +110,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
         checklistItemId: link.checklistItemId ?? null,
         takenAt: new Date().toISOString(),
       };
-      change(addPhoto(draft, ref, now()));
+      change((d) => addPhoto(d, ref, now()));
     } catch (err) {
       setPhotoError(err instanceof Error ? err.message : 'The photo could not be kept.');
     } finally {
@@ -128,8 +128,12 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           {progress.answered}/{progress.total} answered · {progress.failed} failed · {progress.readings}{' '}
           readings · {progress.photos} photos
         </Text>
-        <Text variant="small" color={save.isError ? colors.danger : colors.textMuted}>
-          {save.isError ? 'Not saved — see below' : 'Saved on this phone'}
+        <Text
+          variant="small"
+          color={editor.error ? colors.danger : colors.textMuted}
+          accessibilityLiveRegion="polite"
+        >
+          {editor.error ? 'Not saved — see below' : editor.saving ? 'Saving…' : 'Saved on this phone'}
         </Text>
       </View>
       <Segmented<Section>
@@ -144,9 +148,9 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           { value: 'submit', label: 'Submit' },
         ]}
       />
-      {save.isError ? (
+      {editor.error ? (
         <Text role="alert" color={colors.danger}>
-          {(save.error as Error).message}
+          {editor.error.message}
         </Text>
       ) : null}
 
@@ -160,7 +164,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           draft={draft}
           template={template}
           system={system}
-          onAnswer={(itemId, patch) => change(answerItem(draft, itemId, patch, now()))}
+          onAnswer={(itemId, patch) => change((d) => answerItem(d, itemId, patch, now()))}
           onPhoto={(itemId) => void onCapture('camera', { checklistItemId: itemId })}
         />
       ) : null}
@@ -169,8 +173,8 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           draft={draft}
           design={design}
           system={system}
-          onAdd={(r) => change(addReading(draft, r, now()))}
-          onRemove={(rid) => change(removeReading(draft, rid, now()))}
+          onAdd={(r) => change((d) => addReading(d, r, now()))}
+          onRemove={(rid) => change((d) => removeReading(d, rid, now()))}
           renderTimer={(onUse, per) => <TapTimer per={per} onUse={(t) => onUse(t.periodS, t.spreadS)} />}
         />
       ) : null}
@@ -180,8 +184,8 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           design={design}
           Thumb={PhotoThumb}
           onCapture={(source) => void onCapture(source)}
-          onUpdate={(pid, patch) => change(updatePhoto(draft, pid, patch, now()))}
-          onRemove={(pid) => change(removePhoto(draft, pid, now()))}
+          onUpdate={(pid, patch) => change((d) => updatePhoto(d, pid, patch, now()))}
+          onRemove={(pid) => change((d) => removePhoto(d, pid, now()))}
           busy={photoBusy}
           error={photoError}
           photoItems={
@@ -213,7 +217,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           <TextField
             label="Notes for the supervisor"
             value={draft.notes}
-            onChangeText={(t) => change(setNotes(draft, t, now()))}
+            onChangeText={(t) => change((d) => setNotes(d, t, now()))}
             multiline
           />
           {problems.length > 0 ? (
@@ -242,16 +246,17 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           <Button
             label="Submit inspection"
             tone="accent"
-            disabled={problems.length > 0}
+            disabled={problems.length > 0 || editor.saving}
             busy={submit.isPending}
-            onPress={() =>
-              submit.mutate(draft, {
-                onSuccess: () => {
-                  void sync.syncNow();
-                  router.replace('/today');
-                },
-              })
-            }
+            onPress={async () => {
+              try {
+                await submit.mutateAsync(draft);
+              } catch {
+                return; // shown above from submit.error
+              }
+              void sync.syncNow();
+              router.replace('/today');
+            }}
           />
         </View>
       ) : null}

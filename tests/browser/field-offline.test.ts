@@ -1,0 +1,184 @@
+/**
+ * The inspector's whole day with no signal, at phone size (390×844), against the real server and the
+ * real web export: sign in online and download the round, go offline, reload, record a complete
+ * inspection with two photos, reload offline and find it intact, go online, sync, and check through the
+ * API that exactly one inspection with both photos and a server-side analysis exists.
+ */
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+import type { Browser, Page } from 'playwright-core';
+
+import {
+  DEMO_PASSWORD,
+  type Running,
+  launchBrowser,
+  openPage,
+  screenshot,
+  signIn,
+  startPivotwatch,
+} from './harness';
+
+let app: Running;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startPivotwatch();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+async function apiToken(): Promise<string> {
+  const res = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'inspector@pivotwatch.test', password: DEMO_PASSWORD }),
+  });
+  return ((await res.json()) as { token: string }).token;
+}
+
+/** A real JPEG to pick as a "camera" photo: chromium renders one. */
+async function makeJpeg(page: Page, text: string): Promise<string> {
+  const file = join(mkdtempSync(join(tmpdir(), 'pivotwatch-photo-')), `${text.replace(/\W+/g, '-')}.jpg`);
+  const p = await page
+    .context()
+    .browser()!
+    .newPage({ viewport: { width: 640, height: 480 } });
+  await p.setContent(
+    `<body style="margin:0;background:#6b7b86;font:48px sans-serif;color:#fff">${text}</body>`,
+  );
+  await p.screenshot({ path: file, type: 'jpeg', quality: 80 });
+  await p.close();
+  return file;
+}
+
+async function takePhotoFor(page: Page, itemText: string, file: string) {
+  const chooser = page.waitForEvent('filechooser');
+  await page.getByRole('button', { name: `Photo for ${itemText}` }).click();
+  await (await chooser).setFiles(file);
+  await page
+    .getByText(/Add another photo \(1\)/)
+    .first()
+    .waitFor();
+}
+
+test('an inspection recorded offline arrives once, with its photos and a server analysis', async () => {
+  const page = await openPage(browser, 'phone');
+  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  await page.waitForURL('**/today');
+  // The first sync downloads rides, design data, templates and assignments.
+  await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
+  await page.getByLabel('Ride Little Kite').waitFor({ timeout: 30000 });
+  await page.waitForFunction(() => navigator.serviceWorker?.controller != null, null, { timeout: 60000 });
+
+  await page.context().setOffline(true);
+  await page.reload();
+  await page.getByLabel('Ride Little Kite').waitFor({ timeout: 30000 });
+
+  // Start on Little Kite (a one-body pendulum swing), choosing the type.
+  const card = page.getByLabel('Ride Little Kite');
+  await card
+    .getByRole('button', { name: /Start inspection|Another type/ })
+    .first()
+    .click();
+  if (await card.getByRole('radio', { name: 'Periodic' }).count())
+    await card.getByRole('radio', { name: 'Periodic' }).click();
+  await page.waitForURL('**/inspect/**');
+  const inspectionUrl = page.url();
+
+  // Checklist: everything passes; measured values where the template asks; photos on two of the
+  // photo-required items, the third not applicable today.
+  const photoButtons = page.getByRole('button', { name: /^Photo for / });
+  await photoButtons.first().waitFor();
+  const photoItems = (await photoButtons.allTextContents()).length;
+  expect(photoItems).toBeGreaterThanOrEqual(3);
+  const labels = await photoButtons.evaluateAll((els) => els.map((e) => e.getAttribute('aria-label') ?? ''));
+  const passes = page.getByRole('radio', { name: /^Pass: / });
+  const n = await passes.count();
+  for (let i = 0; i < n; i++) await passes.nth(i).click();
+  const naItem = labels[2].replace('Photo for ', '');
+  await page.getByRole('radio', { name: `Pass: ${naItem}` }).click(); // un-pass
+  await page.getByRole('radio', { name: `Not applicable: ${naItem}` }).click();
+  const values = page.locator('input[aria-label]:not([aria-label="Note"]):not([aria-label="What is wrong"])');
+  const v = await values.count();
+  for (let i = 0; i < v; i++) await values.nth(i).fill('1.5');
+  await takePhotoFor(page, labels[0].replace('Photo for ', ''), await makeJpeg(page, 'Main pivot, left lug'));
+  await takePhotoFor(
+    page,
+    labels[1].replace('Photo for ', ''),
+    await makeJpeg(page, 'Bushing, witness marks'),
+  );
+
+  // A measured swing: amplitude and period for the pivot.
+  await page.getByRole('radio', { name: 'Readings' }).click();
+  await page.getByRole('textbox', { name: 'Swing amplitude (each side)' }).first().fill('70');
+  await page
+    .getByRole('button', { name: /^Add swing amplitude/ })
+    .first()
+    .click();
+  await page.getByRole('textbox', { name: 'Period (one turn or one swing)' }).first().fill('6.4');
+  await page
+    .getByRole('button', { name: /^Add period/ })
+    .first()
+    .click();
+  await page.getByText(/2 readings · 2 photos/).waitFor();
+
+  // Reload with no network: the draft is all there.
+  await page.getByText('Saved on this phone').waitFor();
+  await page.reload();
+  await page.getByText(`${n}/${n} answered · 0 failed · 2 readings · 2 photos`).waitFor({ timeout: 30000 });
+  expect(page.url()).toBe(inspectionUrl);
+
+  await page.getByRole('radio', { name: 'Loads' }).click();
+  await page.getByText(/instants over/).waitFor();
+  await screenshot(page, 'phone-inspection-loads-offline');
+
+  await page.getByRole('radio', { name: 'Submit' }).click();
+  await page.getByText('Ready to submit').waitFor();
+  await page.getByRole('button', { name: 'Submit inspection' }).click();
+  await page.waitForURL('**/today').catch(async (err) => {
+    await screenshot(page, 'debug-submit');
+    throw err;
+  });
+  await page.getByText('1 inspection waiting to send').waitFor();
+  await screenshot(page, 'phone-today-waiting-offline');
+
+  // Back online: the background sync sends it (or the inspector asks).
+  await page.context().setOffline(false);
+  await page.getByRole('button', { name: /Sync now/ }).click();
+  await page.getByText('Everything is sent').waitFor({ timeout: 60000 });
+  await screenshot(page, 'phone-today-synced');
+
+  const token = await apiToken();
+  const list = (await (
+    await fetch(`${app.baseUrl}/api/inspections?mine=1`, { headers: { Authorization: `Bearer ${token}` } })
+  ).json()) as { inspections: { id: string }[] };
+  expect(list.inspections).toHaveLength(1);
+  const id = list.inspections[0].id;
+  // The server analyses right after receipt; give it a moment.
+  type Detail = { photos: { sha256: string; received: boolean }[]; analysis: unknown };
+  let detail = null as Detail | null;
+  for (let i = 0; i < 50; i++) {
+    const res = await fetch(`${app.baseUrl}/api/inspections/${id}`, {
+      headers: { Authorization: `Bearer ${token}` },
+    });
+    detail = ((await res.json()) as { inspection: Detail }).inspection;
+    if (detail?.analysis && detail.photos.every((p) => p.received)) break;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  expect(detail?.analysis).toBeTruthy();
+  expect(detail?.photos).toHaveLength(2);
+  for (const p of detail!.photos) {
+    const res = await fetch(`${app.baseUrl}/api/photos/${p.sha256}`, {
+      headers: { Authorization: `Bearer ${token}` },
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toBe('image/jpeg');
+  }
+  await page.context().close();
+});
