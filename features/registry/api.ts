@@ -13,6 +13,7 @@ import {
   type SchedulePatch,
   type SiteInput,
   assignmentListResponseSchema,
+  auditListResponseSchema,
   checklistTemplateListResponseSchema,
   checklistTemplateResponseSchema,
   checklistVersionListResponseSchema,
@@ -427,3 +428,18 @@ export function useScheduleUpdateMutation() {
       ]),
   });
 }
+
+// ——— audit log ———
+
+/** One page of the audit log (admin, supervisor), newest first unless sorted by `at`. */
+export function useAuditQuery(query: QueryParams) {
+  return useQuery({
+    queryKey: registryKeys.auditList(query),
+    queryFn: () => apiFetch(`/api/audit${toSearch(query)}`, { schema: auditListResponseSchema }),
+    staleTime: AUDIT_STALE_MS,
+    placeholderData: keepPreviousData,
+  });
+}
+
+/** Every save adds entries; a short stale time keeps the log close to now without refetch storms. */
+const AUDIT_STALE_MS = 15 * 1000;

@@ -82,7 +82,8 @@ export function motionLimitText(m: DesignMotion, system: UnitSystem): string {
 /** A rider limit on one axis, in g: "−1 to 5 g", "≤ 2 g", "—". */
 export function gRange(limit: { min?: number; max?: number } | undefined): string {
   if (!limit || (limit.min === undefined && limit.max === undefined)) return '—';
-  const f = (v: number) => `${formatSignificant(v, 3).replace('-', '−')}`;
+  // Limits are round numbers in the documents (−1, 5, 1.5): no padding zeros.
+  const f = (v: number) => String(Number(v.toPrecision(3))).replace('-', '−');
   if (limit.min !== undefined && limit.max !== undefined) return `${f(limit.min)} to ${f(limit.max)} g`;
   return limit.min !== undefined ? `≥ ${f(limit.min)} g` : `≤ ${f(limit.max ?? 0)} g`;
 }

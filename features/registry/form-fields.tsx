@@ -4,7 +4,7 @@ import { type Control, Controller, type FieldValues, type Path } from 'react-hoo
 import { TextField } from '@/components/text-field';
 
 /** Text as the API's nullable text fields take it: the field shows '' for null. */
-export function FormText<T extends FieldValues>({
+export function FormText<T extends FieldValues, TOut extends FieldValues = T>({
   control,
   name,
   label,
@@ -14,7 +14,7 @@ export function FormText<T extends FieldValues>({
   autoCapitalize,
   inputMode,
 }: {
-  control: Control<T>;
+  control: Control<T, unknown, TOut>;
   name: Path<T>;
   label: string;
   hint?: string;
@@ -54,7 +54,7 @@ export function FormText<T extends FieldValues>({
  * judge with its own message. The text starts from the form's value; later resets are not followed (no
  * form here resets a number from outside).
  */
-export function FormNumber<T extends FieldValues>({
+export function FormNumber<T extends FieldValues, TOut extends FieldValues = T>({
   control,
   name,
   label,
@@ -62,7 +62,7 @@ export function FormNumber<T extends FieldValues>({
   unit,
   integer,
 }: {
-  control: Control<T>;
+  control: Control<T, unknown, TOut>;
   name: Path<T>;
   label: string;
   hint?: string;

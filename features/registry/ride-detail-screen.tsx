@@ -109,6 +109,13 @@ function RideDetailBody({
         </View>
         <Field label="Site" value={ride.siteName ?? 'No site'} />
         <Field label="Operator" value={ride.operatorName} />
+        {editor ? (
+          <LinkRow
+            href={`/register/audit?rideId=${encodeURIComponent(ride.id)}`}
+            label="History of changes"
+            icon="clock"
+          />
+        ) : null}
       </Card>
       {staff && design ? (
         <DesignVersionCard

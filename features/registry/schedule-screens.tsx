@@ -59,6 +59,7 @@ export function RideScheduleScreen() {
 }
 
 function RideSchedule({ ride }: { ride: RideSummary }) {
+  const wide = useWide();
   const schedules = useRideSchedulesQuery(ride.id);
   const inspectors = useInspectorsQuery();
   const [editing, setEditing] = useState<InspectionType | null>(null);
@@ -72,7 +73,7 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
     >
       <QueryState query={schedules}>
         {(list) => (
-          <View style={styles.list}>
+          <View style={wide ? styles.grid : styles.list}>
             {inspectionTypes.map((type) => {
               const s = list.find((x) => x.inspectionType === type) ?? null;
               const open = editing === type;
@@ -84,7 +85,11 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
                 notes: s?.notes ?? '',
               };
               return (
-                <Card key={type} accessibilityLabel={inspectionTypeLabel[type]}>
+                <Card
+                  key={type}
+                  accessibilityLabel={inspectionTypeLabel[type]}
+                  style={wide ? (open ? styles.cellOpen : styles.cell) : undefined}
+                >
                   <View style={styles.head}>
                     <View style={styles.flex}>
                       <Text variant="heading">{inspectionTypeLabel[type]}</Text>
@@ -322,6 +327,10 @@ function ScheduleCard({ schedule: s }: { schedule: Schedule }) {
 
 const styles = StyleSheet.create({
   list: { gap: space.md },
+  grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-start' },
+  cell: { flexBasis: 420, flexGrow: 1 },
+  // An open form takes the whole row: its three date fields need the width.
+  cellOpen: { flexBasis: '100%' },
   head: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-start', gap: space.md },
   flex: { flex: 1, minWidth: 0, gap: 2 },
   flex2: { flex: 2, minWidth: 0 },

@@ -1,0 +1,3 @@
+import { AuditScreen } from '@/features/registry/audit-screen';
+
+export default AuditScreen;

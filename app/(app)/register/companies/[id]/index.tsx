@@ -1,0 +1,3 @@
+import { CompanyScreen } from '@/features/registry/register-screens';
+
+export default CompanyScreen;

@@ -1,0 +1,3 @@
+import { CompaniesListScreen } from '@/features/registry/register-screens';
+
+export default CompaniesListScreen;

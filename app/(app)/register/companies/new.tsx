@@ -1,0 +1,3 @@
+import { CompanyEditScreen } from '@/features/registry/register-screens';
+
+export default CompanyEditScreen;

@@ -1,0 +1,3 @@
+import { SiteEditScreen } from '@/features/registry/register-screens';
+
+export default SiteEditScreen;

@@ -1,0 +1,3 @@
+import { SiteScreen } from '@/features/registry/register-screens';
+
+export default SiteScreen;

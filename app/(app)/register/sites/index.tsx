@@ -1,0 +1,3 @@
+import { SitesListScreen } from '@/features/registry/register-screens';
+
+export default SitesListScreen;

@@ -1,0 +1,287 @@
+import Feather from '@expo/vector-icons/Feather';
+import { router } from 'expo-router';
+import { useEffect, useState } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { Pager } from '@/components/pager';
+import { QueryState } from '@/components/query-state';
+import { Screen } from '@/components/screen';
+import { Segmented } from '@/components/segmented';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { ToggleChips } from '@/components/toggle-chips';
+import { colors, radius, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { RoleGate } from '@/features/auth/role-gate';
+import type { SessionUser } from '@/features/auth/schema';
+import { useAuditQuery } from '@/features/registry/api';
+import { changedFields } from '@/features/registry/audit-diff';
+import { RegisterTabs } from '@/features/registry/register-tabs';
+import {
+  type AuditAction,
+  type AuditEntity,
+  type AuditEntry,
+  auditActions,
+  auditEntities,
+  auditListQuerySchema,
+} from '@/features/registry/schema';
+import { formatDateTime } from '@/features/registry/text';
+import { useListParams } from '@/features/registry/use-list-params';
+import { rideHref } from '@/features/rides/ride-card';
+
+const PAGE_SIZE = 30;
+const SEARCH_DELAY_MS = 300;
+const LIST_KEYS = ['entity', 'action', 'rideId', 'from', 'to', 'q', 'sort', 'page'] as const;
+
+export const auditEntityLabel: Record<AuditEntity, string> = {
+  company: 'Company',
+  site: 'Site',
+  ride: 'Ride',
+  design: 'Design data',
+  checklist_template: 'Checklist',
+  schedule: 'Schedule',
+};
+
+const actionSpec: Record<
+  AuditAction,
+  { label: string; icon: 'plus-circle' | 'edit-3' | 'trash-2'; color: string }
+> = {
+  create: { label: 'Added', icon: 'plus-circle', color: colors.within },
+  update: { label: 'Changed', icon: 'edit-3', color: colors.text },
+  delete: { label: 'Removed', icon: 'trash-2', color: colors.over },
+};
+
+/** Who changed what in the register, design data, templates and schedules, and when. */
+export function AuditScreen() {
+  return <RoleGate roles={['admin', 'supervisor']}>{(user) => <Audit user={user} />}</RoleGate>;
+}
+
+function Audit({ user }: { user: SessionUser }) {
+  const wide = useWide();
+  const [query, setQuery] = useListParams(auditListQuerySchema, LIST_KEYS);
+  // The URL keeps what was typed for the dates; the parsed query holds ISO instants.
+  const entries = useAuditQuery({ ...query, pageSize: PAGE_SIZE });
+  const [search, setSearch] = useState(query.q ?? '');
+  useEffect(() => {
+    if ((query.q ?? '') === search.trim()) return;
+    const t = setTimeout(() => setQuery({ q: search.trim(), page: undefined }), SEARCH_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [search, query.q, setQuery]);
+  const [from, setFrom] = useState(query.from?.slice(0, 10) ?? '');
+  const [to, setTo] = useState(query.to?.slice(0, 10) ?? '');
+  const dateOk = (v: string) => v === '' || /^\d{4}-\d{2}-\d{2}$/.test(v);
+  const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
+
+  return (
+    <Screen title="Rides" subtitle="Audit log: every change to the register, with who made it and when.">
+      <RegisterTabs role={user.role} />
+      <Card style={styles.filters}>
+        <View style={wide ? styles.row : styles.list}>
+          <View style={styles.flex2}>
+            <TextField label="Search the log" value={search} onChangeText={setSearch} autoCapitalize="none" />
+          </View>
+          <View style={styles.flex}>
+            <TextField
+              label="From"
+              placeholder="YYYY-MM-DD"
+              value={from}
+              onChangeText={setFrom}
+              onBlur={() => dateOk(from) && filter({ from: from || undefined })}
+              onSubmitEditing={() => dateOk(from) && filter({ from: from || undefined })}
+              error={dateOk(from) ? undefined : 'A date, YYYY-MM-DD'}
+              autoCapitalize="none"
+            />
+          </View>
+          <View style={styles.flex}>
+            <TextField
+              label="To"
+              placeholder="YYYY-MM-DD"
+              value={to}
+              onChangeText={setTo}
+              onBlur={() => dateOk(to) && filter({ to: to || undefined })}
+              onSubmitEditing={() => dateOk(to) && filter({ to: to || undefined })}
+              error={dateOk(to) ? undefined : 'A date, YYYY-MM-DD'}
+              autoCapitalize="none"
+            />
+          </View>
+        </View>
+        <View style={wide ? styles.chipsWide : styles.list}>
+          <View style={styles.chipGroup}>
+            <Text variant="label" muted>
+              WHAT
+            </Text>
+            <ToggleChips
+              label="What"
+              values={query.entity ?? []}
+              options={auditEntities.map((e) => ({ value: e, label: auditEntityLabel[e] }))}
+              onChange={(v) => filter({ entity: v })}
+            />
+          </View>
+          <View style={styles.chipGroup}>
+            <Text variant="label" muted>
+              CHANGE
+            </Text>
+            <ToggleChips
+              label="Change"
+              values={query.action ?? []}
+              options={auditActions.map((a) => ({ value: a, label: actionSpec[a].label }))}
+              onChange={(v) => filter({ action: v })}
+            />
+          </View>
+          <View style={styles.chipGroup}>
+            <Text variant="label" muted>
+              ORDER
+            </Text>
+            <Segmented
+              label="Order"
+              value={query.sort === 'at' ? 'oldest' : 'newest'}
+              options={[
+                { value: 'newest', label: 'Newest first' },
+                { value: 'oldest', label: 'Oldest first' },
+              ]}
+              onChange={(v) => filter({ sort: v === 'oldest' ? 'at' : undefined })}
+            />
+          </View>
+        </View>
+        {query.rideId ? (
+          <View style={styles.rideFilter}>
+            <Text variant="small">Only the changes to one ride.</Text>
+            <Button label="Show all" tone="quiet" onPress={() => filter({ rideId: undefined })} />
+          </View>
+        ) : null}
+      </Card>
+      <QueryState query={entries}>
+        {(page) => (
+          <View style={styles.list}>
+            {page.entries.length === 0 ? (
+              <Card>
+                <Text variant="heading">No changes match.</Text>
+              </Card>
+            ) : (
+              <View style={styles.log} accessibilityLabel="Audit entries">
+                {page.entries.map((e) => (
+                  <AuditRow key={e.id} entry={e} wide={wide} />
+                ))}
+              </View>
+            )}
+            <Pager
+              page={page.page}
+              pageSize={page.pageSize}
+              total={page.total}
+              noun="entries"
+              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
+            />
+          </View>
+        )}
+      </QueryState>
+    </Screen>
+  );
+}
+
+function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
+  const [open, setOpen] = useState(false);
+  const spec = actionSpec[e.action];
+  const changes = open ? changedFields(e.before, e.after) : [];
+  return (
+    <View style={styles.entry}>
+      <Pressable
+        role="button"
+        aria-expanded={open}
+        accessibilityLabel={`${formatDateTime(e.at)}, ${e.userName ?? 'someone'}: ${e.summary}. ${open ? 'Hide' : 'Show'} what changed`}
+        onPress={() => setOpen((o) => !o)}
+        style={wide ? styles.entryRowWide : styles.entryRow}
+      >
+        <Text variant="figure" style={wide ? styles.when : undefined}>
+          {formatDateTime(e.at)}
+        </Text>
+        <View style={styles.action}>
+          <Feather name={spec.icon} size={16} color={spec.color} />
+          <Text variant="label" color={spec.color}>
+            {spec.label}
+          </Text>
+          <Text variant="label" muted>
+            {auditEntityLabel[e.entity]}
+          </Text>
+        </View>
+        <Text style={styles.flex}>{e.summary}</Text>
+        <Text variant="small" muted style={wide ? styles.who : undefined}>
+          {e.userName ?? 'Unknown'}
+        </Text>
+        <Feather name={open ? 'chevron-up' : 'chevron-down'} size={18} color={colors.textMuted} />
+      </Pressable>
+      {open ? (
+        <View style={styles.detail}>
+          {changes.length === 0 ? <Text muted>No field-level difference recorded.</Text> : null}
+          {changes.map((c) => (
+            <View key={c.field} style={wide ? styles.changeWide : styles.change}>
+              <Text variant="label" style={wide ? styles.field : undefined}>
+                {c.field}
+              </Text>
+              {c.before !== null ? (
+                <Text variant="small" style={styles.flex}>
+                  <Text variant="small" muted>
+                    was{' '}
+                  </Text>
+                  {c.before}
+                </Text>
+              ) : null}
+              {c.after !== null ? (
+                <Text variant="small" style={styles.flex}>
+                  <Text variant="small" muted>
+                    now{' '}
+                  </Text>
+                  {c.after}
+                </Text>
+              ) : null}
+            </View>
+          ))}
+          {e.rideId && e.action !== 'delete' ? (
+            <Button
+              label="Open the ride"
+              tone="quiet"
+              onPress={() => router.push(rideHref(e.rideId ?? ''))}
+              style={styles.start}
+            />
+          ) : null}
+        </View>
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.md },
+  filters: { gap: space.md },
+  row: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
+  chipsWide: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.xl, rowGap: space.md },
+  chipGroup: { gap: space.xs },
+  flex: { flex: 1, minWidth: 0 },
+  flex2: { flex: 2, minWidth: 0 },
+  start: { alignSelf: 'flex-start' },
+  rideFilter: { flexDirection: 'row', alignItems: 'center', gap: space.md, flexWrap: 'wrap' },
+  log: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.border,
+    overflow: 'hidden',
+  },
+  entry: { borderBottomWidth: 1, borderBottomColor: colors.surfaceSunk },
+  entryRow: { padding: space.md, gap: space.xs, minHeight: 48 },
+  entryRowWide: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.md,
+    paddingHorizontal: space.md,
+    minHeight: 52,
+  },
+  when: { width: 170 },
+  who: { width: 140 },
+  action: { flexDirection: 'row', alignItems: 'center', gap: space.xs, minWidth: 190 },
+  detail: { backgroundColor: colors.bg, padding: space.md, gap: space.sm },
+  change: { gap: 2 },
+  changeWide: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
+  field: { width: 160 },
+});

@@ -1,0 +1,288 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { Controller, type FieldErrors, useFieldArray, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { z } from 'zod';
+
+import { Button } from '@/components/button';
+import { ChoiceChips } from '@/components/choice-chips';
+import { FormAlert, type FormProblem } from '@/components/form-alert';
+import { IconButton } from '@/components/icon-button';
+import { SelectField } from '@/components/select-field';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, radius, space } from '@/components/theme';
+import { FormText } from '@/features/registry/form-fields';
+import { companyInputSchema, siteInputSchema, siteKindLabel, siteKinds } from '@/features/registry/schema';
+import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+
+/** Several addresses typed in one box, one per line (commas and semicolons work too). */
+export function splitAddresses(text: string): string[] {
+  return text
+    .split(/[\n,;]+/)
+    .map((s) => s.trim())
+    .filter(Boolean);
+}
+
+export type CompanyFormInput = z.input<typeof companyInputSchema>;
+export type CompanyFormOutput = z.output<typeof companyInputSchema>;
+
+/** The first problem among a list's entries, as "Address 2: …", for a field that holds the whole list. */
+function entriesError(e: FieldErrors<CompanyFormInput>['noticeEmails'] | undefined, noun: string) {
+  if (!e) return undefined;
+  if (typeof e.message === 'string' && e.message) return e.message;
+  if (Array.isArray(e)) {
+    const i = e.findIndex((x) => x?.message);
+    if (i >= 0) return `${noun} ${i + 1}: ${e[i].message}`;
+  }
+  return undefined;
+}
+
+export function CompanyForm({
+  defaultValues,
+  submitLabel,
+  onSubmit,
+  onCancel,
+}: {
+  defaultValues: CompanyFormInput;
+  submitLabel: string;
+  onSubmit: (values: CompanyFormOutput) => Promise<unknown>;
+  onCancel?: () => void;
+}) {
+  const { control, handleSubmit, setError, formState } = useForm<
+    CompanyFormInput,
+    unknown,
+    CompanyFormOutput
+  >({
+    resolver: zodResolver(companyInputSchema),
+    defaultValues,
+  });
+  const contacts = useFieldArray({ control, name: 'contacts', keyName: 'fieldKey' });
+  const [problem, setProblem] = useState<FormProblem | null>(null);
+  const submit = handleSubmit(async (values) => {
+    setProblem(null);
+    try {
+      await onSubmit(values);
+    } catch (err) {
+      setProblem(
+        applyServerError(
+          err,
+          setError,
+          fieldsOf(['name', 'noticeEmails', 'phone', 'address'], ['contacts']),
+          {
+            contacts: 'Contact',
+          },
+        ),
+      );
+    }
+  });
+  return (
+    <View style={styles.form}>
+      <FormText control={control} name="name" label="Company name" />
+      <Controller
+        control={control}
+        name="noticeEmails"
+        render={({ field }) => (
+          <AddressList
+            value={field.value ?? []}
+            onChange={field.onChange}
+            onBlur={field.onBlur}
+            error={entriesError(formState.errors.noticeEmails, 'Address')}
+          />
+        )}
+      />
+      <View style={styles.pair}>
+        <View style={styles.half}>
+          <FormText control={control} name="phone" label="Phone" inputMode="tel" />
+        </View>
+        <View style={styles.half}>
+          <FormText control={control} name="address" label="Address" multiline />
+        </View>
+      </View>
+      <Text variant="label" muted>
+        CONTACTS
+      </Text>
+      {contacts.fields.map((c, i) => (
+        <View key={c.fieldKey} style={styles.contact} accessibilityLabel={`Contact ${i + 1}`}>
+          <View style={styles.pair}>
+            <View style={styles.half}>
+              <FormText control={control} name={`contacts.${i}.name`} label={`Contact ${i + 1} name`} />
+            </View>
+            <View style={styles.half}>
+              <FormText control={control} name={`contacts.${i}.role`} label="Role" />
+            </View>
+          </View>
+          <View style={styles.pair}>
+            <View style={styles.half}>
+              <FormText
+                control={control}
+                name={`contacts.${i}.email`}
+                label="E-mail"
+                autoCapitalize="none"
+                inputMode="email"
+              />
+            </View>
+            <View style={styles.half}>
+              <FormText control={control} name={`contacts.${i}.phone`} label="Phone" inputMode="tel" />
+            </View>
+            <View style={styles.remove}>
+              <IconButton
+                icon="trash-2"
+                tone="danger"
+                label={`Remove contact ${i + 1}`}
+                onPress={() => contacts.remove(i)}
+              />
+            </View>
+          </View>
+        </View>
+      ))}
+      <Button
+        label="Add a contact"
+        tone="quiet"
+        onPress={() => contacts.append({ name: '', role: '', email: '', phone: '' })}
+        style={styles.start}
+      />
+      <FormAlert problem={problem} />
+      <View style={styles.buttons}>
+        <Button label={submitLabel} onPress={submit} busy={formState.isSubmitting} />
+        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
+      </View>
+    </View>
+  );
+}
+
+/**
+ * The notice addresses as one box of text, one per line; the form holds the list. The text is kept as
+ * typed so a new, still empty line stays on screen.
+ */
+function AddressList({
+  value,
+  onChange,
+  onBlur,
+  error,
+}: {
+  value: string[];
+  onChange: (v: string[]) => void;
+  onBlur: () => void;
+  error?: string;
+}) {
+  const [text, setText] = useState(value.join('\n'));
+  return (
+    <TextField
+      label="Notice e-mail addresses"
+      hint="Where notices about their rides go. One per line."
+      value={text}
+      onChangeText={(t) => {
+        setText(t);
+        onChange(splitAddresses(t));
+      }}
+      onBlur={onBlur}
+      multiline
+      numberOfLines={3}
+      autoCapitalize="none"
+      inputMode="email"
+      error={error}
+      style={styles.multi}
+    />
+  );
+}
+
+export type SiteFormInput = z.input<typeof siteInputSchema>;
+export type SiteFormOutput = z.output<typeof siteInputSchema>;
+
+export function SiteForm({
+  defaultValues,
+  operators,
+  submitLabel,
+  onSubmit,
+  onCancel,
+}: {
+  defaultValues: SiteFormInput;
+  operators: { value: string; label: string }[];
+  submitLabel: string;
+  onSubmit: (values: SiteFormOutput) => Promise<unknown>;
+  onCancel?: () => void;
+}) {
+  const { control, handleSubmit, setError, formState } = useForm<SiteFormInput, unknown, SiteFormOutput>({
+    resolver: zodResolver(siteInputSchema),
+    defaultValues,
+  });
+  const [problem, setProblem] = useState<FormProblem | null>(null);
+  const submit = handleSubmit(async (values) => {
+    setProblem(null);
+    try {
+      await onSubmit(values);
+    } catch (err) {
+      setProblem(
+        applyServerError(
+          err,
+          setError,
+          fieldsOf(['name', 'kind', 'address', 'locality', 'operatorCompanyId']),
+        ),
+      );
+    }
+  });
+  return (
+    <View style={styles.form}>
+      <FormText control={control} name="name" label="Site name" />
+      <Controller
+        control={control}
+        name="kind"
+        render={({ field, fieldState }) => (
+          <ChoiceChips
+            label="Kind of site"
+            value={field.value}
+            options={siteKinds.map((k) => ({ value: k, label: siteKindLabel[k] }))}
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      <View style={styles.pair}>
+        <View style={styles.half}>
+          <FormText control={control} name="address" label="Address" />
+        </View>
+        <View style={styles.half}>
+          <FormText control={control} name="locality" label="Town or locality" />
+        </View>
+      </View>
+      <Controller
+        control={control}
+        name="operatorCompanyId"
+        render={({ field, fieldState }) => (
+          <SelectField
+            label="Operator"
+            value={field.value || null}
+            options={operators}
+            placeholder="Choose the operator company"
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      <FormAlert problem={problem} />
+      <View style={styles.buttons}>
+        <Button label={submitLabel} onPress={submit} busy={formState.isSubmitting} />
+        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
+      </View>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.lg },
+  pair: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-end' },
+  half: { flexGrow: 1, flexBasis: 220, minWidth: 0 },
+  remove: { paddingBottom: 0 },
+  contact: {
+    gap: space.sm,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.surfaceSunk,
+    backgroundColor: colors.bg,
+  },
+  start: { alignSelf: 'flex-start' },
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  multi: { minHeight: 72, textAlignVertical: 'top' },
+});
