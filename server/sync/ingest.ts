@@ -44,7 +44,8 @@ type Statements = {
   insertBatch: Database.Statement<[string, string, string, number, string]>;
   findRide: Database.Statement<[string], RideRow>;
   designRide: Database.Statement<[string], { rideId: string }>;
-  findInspection: Database.Statement<[string], ExistingRow>;
+  /** The batch's ids already stored, in one query per batch rather than one per record. */
+  findInspections: Database.Statement<[string], ExistingRow & { id: string }>;
   insertInspection: Database.Statement<[InspectionParams]>;
   insertReading: Database.Statement<ReadingRow>;
   insertPhoto: Database.Statement<[PhotoParams]>;
@@ -136,9 +137,9 @@ function statementsFor(db: Db): Statements {
        FROM rides r WHERE r.id = ?`,
     ),
     designRide: sqlite.prepare('SELECT ride_id AS rideId FROM design_versions WHERE id = ?'),
-    findInspection: sqlite.prepare(
-      `SELECT content_sha256 AS contentSha256, ride_id AS rideId, inspector_id AS inspectorId
-       FROM inspections WHERE id = ?`,
+    findInspections: sqlite.prepare(
+      `SELECT id, content_sha256 AS contentSha256, ride_id AS rideId, inspector_id AS inspectorId
+       FROM inspections WHERE id IN (SELECT value FROM json_each(?))`,
     ),
     insertInspection,
     insertReading,
@@ -208,6 +209,8 @@ type BatchContext = {
   receivedAt: string;
   rides: Map<string, RideRow | null>;
   designs: Map<string, string | null>;
+  /** Stored inspections the batch refers to (its ids and amendsIds), kept up to date as records go in. */
+  known: Map<string, ExistingRow>;
 };
 
 function rideOf(ctx: BatchContext, id: string): RideRow | null {
@@ -242,7 +245,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   const json = JSON.stringify(record);
   const contentSha256 = createHash('sha256').update(json).digest('hex');
 
-  const existing = ctx.st.findInspection.get(record.id);
+  const existing = ctx.known.get(record.id);
   if (existing) {
     if (existing.contentSha256 === contentSha256) return { id: record.id, status: 'duplicate' };
     return rejected(record.id, [
@@ -270,7 +273,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
 
   const amendsId = record.amendsId ?? null;
   if (amendsId !== null) {
-    const original = ctx.st.findInspection.get(amendsId);
+    const original = ctx.known.get(amendsId);
     const problem = !original
       ? 'No accepted inspection has this id; the original must reach the server first'
       : original.rideId !== ride.id
@@ -308,6 +311,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
       { path: '', message: 'The server could not store this record as it is; it was not kept' },
     ]);
   }
+  ctx.known.set(record.id, { contentSha256, rideId: ride.id, inspectorId: ctx.user.id });
   return { id: record.id, status: 'accepted' };
 }
 
@@ -340,7 +344,17 @@ export function ingestBatch(
       receivedAt: now.toISOString(),
       rides: new Map(),
       designs: new Map(),
+      known: new Map(),
     };
+    const referred = new Set<string>();
+    for (const raw of batch.records) {
+      const id = idOf(raw);
+      if (id) referred.add(id);
+      if (typeof raw === 'object' && raw !== null && 'amendsId' in raw && typeof raw.amendsId === 'string')
+        referred.add(raw.amendsId);
+    }
+    for (const { id, ...row } of st.findInspections.all(JSON.stringify([...referred])))
+      ctx.known.set(id, row);
     const results = batch.records.map((raw) => ingestRecord(ctx, raw));
     const result: PushResult = { batchId: batch.batchId, results };
     st.insertBatch.run(user.id, batch.batchId, ctx.receivedAt, batch.records.length, JSON.stringify(result));
