@@ -18,6 +18,7 @@ import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { changedFields } from '@/features/registry/audit-diff';
+import { FilterPanel } from '@/features/registry/filter-panel';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import {
   type AuditAction,
@@ -77,81 +78,91 @@ function Audit({ user }: { user: SessionUser }) {
   return (
     <Screen title="Rides" subtitle="Audit log: every change to the register, with who made it and when.">
       <RegisterTabs role={user.role} />
-      <Card style={styles.filters}>
-        <View style={wide ? styles.row : styles.list}>
-          <View style={styles.flex2}>
-            <TextField label="Search the log" value={search} onChangeText={setSearch} autoCapitalize="none" />
+      <FilterPanel
+        active={
+          (query.entity?.length ?? 0) +
+          (query.action?.length ?? 0) +
+          (query.from ? 1 : 0) +
+          (query.to ? 1 : 0)
+        }
+        search={
+          <TextField label="Search the log" value={search} onChangeText={setSearch} autoCapitalize="none" />
+        }
+        beside={
+          <>
+            <View style={wide ? styles.flex : undefined}>
+              <TextField
+                label="From"
+                placeholder="YYYY-MM-DD"
+                value={from}
+                onChangeText={setFrom}
+                onBlur={() => dateOk(from) && filter({ from: from || undefined })}
+                onSubmitEditing={() => dateOk(from) && filter({ from: from || undefined })}
+                error={dateOk(from) ? undefined : 'A date, YYYY-MM-DD'}
+                autoCapitalize="none"
+              />
+            </View>
+            <View style={wide ? styles.flex : undefined}>
+              <TextField
+                label="To"
+                placeholder="YYYY-MM-DD"
+                value={to}
+                onChangeText={setTo}
+                onBlur={() => dateOk(to) && filter({ to: to || undefined })}
+                onSubmitEditing={() => dateOk(to) && filter({ to: to || undefined })}
+                error={dateOk(to) ? undefined : 'A date, YYYY-MM-DD'}
+                autoCapitalize="none"
+              />
+            </View>
+          </>
+        }
+        filters={
+          <View style={wide ? styles.chipsWide : styles.list}>
+            <View style={styles.chipGroup}>
+              <Text variant="label" muted>
+                WHAT
+              </Text>
+              <ToggleChips
+                label="What"
+                values={query.entity ?? []}
+                options={auditEntities.map((e) => ({ value: e, label: auditEntityLabel[e] }))}
+                onChange={(v) => filter({ entity: v })}
+              />
+            </View>
+            <View style={styles.chipGroup}>
+              <Text variant="label" muted>
+                CHANGE
+              </Text>
+              <ToggleChips
+                label="Change"
+                values={query.action ?? []}
+                options={auditActions.map((a) => ({ value: a, label: actionSpec[a].label }))}
+                onChange={(v) => filter({ action: v })}
+              />
+            </View>
+            <View style={styles.chipGroup}>
+              <Text variant="label" muted>
+                ORDER
+              </Text>
+              <Segmented
+                label="Order"
+                value={query.sort === 'at' ? 'oldest' : 'newest'}
+                options={[
+                  { value: 'newest', label: 'Newest first' },
+                  { value: 'oldest', label: 'Oldest first' },
+                ]}
+                onChange={(v) => filter({ sort: v === 'oldest' ? 'at' : undefined })}
+              />
+            </View>
           </View>
-          <View style={styles.flex}>
-            <TextField
-              label="From"
-              placeholder="YYYY-MM-DD"
-              value={from}
-              onChangeText={setFrom}
-              onBlur={() => dateOk(from) && filter({ from: from || undefined })}
-              onSubmitEditing={() => dateOk(from) && filter({ from: from || undefined })}
-              error={dateOk(from) ? undefined : 'A date, YYYY-MM-DD'}
-              autoCapitalize="none"
-            />
-          </View>
-          <View style={styles.flex}>
-            <TextField
-              label="To"
-              placeholder="YYYY-MM-DD"
-              value={to}
-              onChangeText={setTo}
-              onBlur={() => dateOk(to) && filter({ to: to || undefined })}
-              onSubmitEditing={() => dateOk(to) && filter({ to: to || undefined })}
-              error={dateOk(to) ? undefined : 'A date, YYYY-MM-DD'}
-              autoCapitalize="none"
-            />
-          </View>
-        </View>
-        <View style={wide ? styles.chipsWide : styles.list}>
-          <View style={styles.chipGroup}>
-            <Text variant="label" muted>
-              WHAT
-            </Text>
-            <ToggleChips
-              label="What"
-              values={query.entity ?? []}
-              options={auditEntities.map((e) => ({ value: e, label: auditEntityLabel[e] }))}
-              onChange={(v) => filter({ entity: v })}
-            />
-          </View>
-          <View style={styles.chipGroup}>
-            <Text variant="label" muted>
-              CHANGE
-            </Text>
-            <ToggleChips
-              label="Change"
-              values={query.action ?? []}
-              options={auditActions.map((a) => ({ value: a, label: actionSpec[a].label }))}
-              onChange={(v) => filter({ action: v })}
-            />
-          </View>
-          <View style={styles.chipGroup}>
-            <Text variant="label" muted>
-              ORDER
-            </Text>
-            <Segmented
-              label="Order"
-              value={query.sort === 'at' ? 'oldest' : 'newest'}
-              options={[
-                { value: 'newest', label: 'Newest first' },
-                { value: 'oldest', label: 'Oldest first' },
-              ]}
-              onChange={(v) => filter({ sort: v === 'oldest' ? 'at' : undefined })}
-            />
-          </View>
-        </View>
-        {query.rideId ? (
-          <View style={styles.rideFilter}>
-            <Text variant="small">Only the changes to one ride.</Text>
-            <Button label="Show all" tone="quiet" onPress={() => filter({ rideId: undefined })} />
-          </View>
-        ) : null}
-      </Card>
+        }
+      />
+      {query.rideId ? (
+        <Card style={styles.rideFilter}>
+          <Text variant="small">Only the changes to one ride.</Text>
+          <Button label="Show all" tone="quiet" onPress={() => filter({ rideId: undefined })} />
+        </Card>
+      ) : null}
       <QueryState query={entries}>
         {(page) => (
           <View style={styles.list}>
@@ -205,7 +216,7 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
             {auditEntityLabel[e.entity]}
           </Text>
         </View>
-        <Text style={styles.flex}>{e.summary}</Text>
+        <Text style={wide ? styles.flex : undefined}>{e.summary}</Text>
         <Text variant="small" muted style={wide ? styles.who : undefined}>
           {e.userName ?? 'Unknown'}
         </Text>
@@ -220,7 +231,7 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
                 {c.field}
               </Text>
               {c.before !== null ? (
-                <Text variant="small" style={styles.flex}>
+                <Text variant="small" style={wide ? styles.flex : undefined}>
                   <Text variant="small" muted>
                     was{' '}
                   </Text>
@@ -228,7 +239,7 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
                 </Text>
               ) : null}
               {c.after !== null ? (
-                <Text variant="small" style={styles.flex}>
+                <Text variant="small" style={wide ? styles.flex : undefined}>
                   <Text variant="small" muted>
                     now{' '}
                   </Text>

@@ -110,6 +110,7 @@ export function ChecklistForm({
     resolver: zodResolver(checklistFormSchema),
     defaultValues,
   });
+  const wide = useWide();
   const areas = useFieldArray({ control, name: 'content.areas', keyName: 'fieldKey' });
   const [problem, setProblem] = useState<FormProblem | null>(null);
   const submit = handleSubmit(async (values) => {
@@ -131,9 +132,9 @@ export function ChecklistForm({
     <View style={styles.form}>
       <FormText control={control} name="name" label="Template name" />
       {areas.fields.map((area, a) => (
-        <View key={area.fieldKey} style={styles.area} accessibilityLabel={`Area ${a + 1}`}>
-          <View style={styles.areaHead}>
-            <View style={styles.flex}>
+        <View key={area.fieldKey} style={styles.area}>
+          <View style={wide ? styles.areaHead : styles.itemStack}>
+            <View style={wide ? styles.flex : undefined}>
               <FormText control={control} name={`content.areas.${a}.title`} label={`Area ${a + 1}`} />
             </View>
             <View style={styles.tools}>
@@ -203,9 +204,9 @@ function ItemsEditor({
         const measured = !!values?.[i]?.measurementRequired;
         const label = `item ${i + 1} of area ${area + 1}`;
         return (
-          <View key={item.fieldKey} style={styles.item} accessibilityLabel={`Item ${i + 1}`}>
+          <View key={item.fieldKey} style={styles.item}>
             <View style={wide ? styles.itemRow : styles.itemStack}>
-              <View style={styles.flex}>
+              <View style={wide ? styles.flex : undefined}>
                 <FormText control={control} name={`${base}.text`} label={`Item ${i + 1}`} multiline={!wide} />
               </View>
               <View style={styles.tools}>
@@ -257,7 +258,7 @@ function ItemsEditor({
             </View>
             {measured ? (
               <View style={wide ? styles.itemRow : styles.itemStack}>
-                <View style={styles.flex}>
+                <View style={wide ? styles.flex : undefined}>
                   <Controller
                     control={control}
                     name={`${base}.measurementKind`}
@@ -272,7 +273,7 @@ function ItemsEditor({
                     )}
                   />
                 </View>
-                <View style={styles.flex}>
+                <View style={wide ? styles.flex : undefined}>
                   <FormText
                     control={control}
                     name={`${base}.measurementLabel`}

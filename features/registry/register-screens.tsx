@@ -327,10 +327,10 @@ function SitesList({ user }: { user: SessionUser }) {
       <RegisterTabs role={user.role} />
       <Card style={styles.filters}>
         <View style={wide ? styles.row : styles.list}>
-          <View style={styles.flex2}>
+          <View style={wide ? styles.flex2 : undefined}>
             <TextField label="Search sites" value={search} onChangeText={setSearch} autoCapitalize="none" />
           </View>
-          <View style={styles.flex}>
+          <View style={wide ? styles.flex : undefined}>
             <SelectField
               label="Operator"
               value={query.operatorId ?? ALL}

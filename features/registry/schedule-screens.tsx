@@ -26,6 +26,7 @@ import {
   useScheduleUpdateMutation,
 } from '@/features/registry/api';
 import { DueMark, dueInWords, dueStatusLabel } from '@/features/registry/due-mark';
+import { FilterPanel } from '@/features/registry/filter-panel';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { WithRide } from '@/features/registry/ride-edit-screens';
 import { useRideIdParam } from '@/features/registry/ride-detail-screen';
@@ -172,19 +173,22 @@ function SchedulesList({ user }: { user: SessionUser }) {
   return (
     <Screen title="Rides" subtitle="Planned inspections across the register, soonest first.">
       <RegisterTabs role={user.role} />
-      <Card style={styles.filters}>
-        <View style={wide ? styles.row : styles.list}>
-          <View style={styles.flex2}>
-            <TextField
-              label="Search"
-              placeholder="Ride, site or operator"
-              value={search}
-              onChangeText={setSearch}
-              autoCapitalize="none"
-              inputMode="search"
-            />
-          </View>
-          <View style={styles.flex}>
+      <FilterPanel
+        active={
+          (query.dueStatus?.length ?? 0) + (query.inspectionType?.length ?? 0) + (query.assignedTo ? 1 : 0)
+        }
+        search={
+          <TextField
+            label="Search"
+            placeholder="Ride, site or operator"
+            value={search}
+            onChangeText={setSearch}
+            autoCapitalize="none"
+            inputMode="search"
+          />
+        }
+        beside={
+          <View style={wide ? styles.flex : undefined}>
             <SelectField
               label="Inspector"
               value={query.assignedTo ?? ANYONE}
@@ -196,32 +200,34 @@ function SchedulesList({ user }: { user: SessionUser }) {
               onChange={(v) => filter({ assignedTo: v === ANYONE ? undefined : v })}
             />
           </View>
-        </View>
-        <View style={wide ? styles.chipsWide : styles.list}>
-          <View style={styles.chipGroup}>
-            <Text variant="label" muted>
-              DUE
-            </Text>
-            <ToggleChips
-              label="Due"
-              values={query.dueStatus ?? []}
-              options={dueStatuses.map((d) => ({ value: d, label: dueStatusLabel(d) }))}
-              onChange={(v) => filter({ dueStatus: v })}
-            />
+        }
+        filters={
+          <View style={wide ? styles.chipsWide : styles.list}>
+            <View style={styles.chipGroup}>
+              <Text variant="label" muted>
+                DUE
+              </Text>
+              <ToggleChips
+                label="Due"
+                values={query.dueStatus ?? []}
+                options={dueStatuses.map((d) => ({ value: d, label: dueStatusLabel(d) }))}
+                onChange={(v) => filter({ dueStatus: v })}
+              />
+            </View>
+            <View style={styles.chipGroup}>
+              <Text variant="label" muted>
+                INSPECTION
+              </Text>
+              <ToggleChips
+                label="Inspection"
+                values={query.inspectionType ?? []}
+                options={inspectionTypes.map((t) => ({ value: t, label: inspectionTypeLabel[t] }))}
+                onChange={(v) => filter({ inspectionType: v })}
+              />
+            </View>
           </View>
-          <View style={styles.chipGroup}>
-            <Text variant="label" muted>
-              INSPECTION
-            </Text>
-            <ToggleChips
-              label="Inspection"
-              values={query.inspectionType ?? []}
-              options={inspectionTypes.map((t) => ({ value: t, label: inspectionTypeLabel[t] }))}
-              onChange={(v) => filter({ inspectionType: v })}
-            />
-          </View>
-        </View>
-      </Card>
+        }
+      />
       <QueryState query={schedules}>
         {(page) => (
           <View style={styles.list}>

@@ -113,7 +113,9 @@ test('supervisor (desktop) sorts and filters the rides, opens one, sees the chai
   await peaks.getByText('P1 · Main pivot shaft').waitFor();
   await peaks.getByText('P2 · Gondola slewing bearing spindle').waitFor();
   await page.getByText('SAFETY CAUTION').first().waitFor();
-  await page.getByText('Orrin Ride Works PX-15 design report DR-PX15-004, revision C').waitFor();
+  await page
+    .getByText('Orrin Ride Works PX-15 design report DR-PX15-004, revision C', { exact: true })
+    .waitFor();
   await screenshot(page, 'desktop-registry-ride-detail');
 
   // Status with a reason: refused without one, then saved and shown.
