@@ -4,7 +4,7 @@ import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, radius, space } from '@/components/theme';
+import { colors, space } from '@/components/theme';
 import type { Draft } from '@/features/inspections/draft';
 import type { PhotoRef } from '@/features/inspections/schema';
 import type { DesignData } from '@/features/registry/design-data';

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useMemo, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -46,22 +46,31 @@ export function CalculatorScreen() {
   const [rideId, setRideId] = useState<string | null>(null);
   const [bodies, setBodies] = useState<BodyRow[]>(exampleBodies);
   const [manualMotion, setManualMotion] = useState<MotionRow[]>(exampleMotion);
-  const [rideMotion, setRideMotion] = useState<MotionRow[]>([]);
-  const [outcome, setOutcome] = useState<CalculatorOutcome | null>(null);
+  const [rideEdits, setRideEdits] = useState<{ key: string; rows: MotionRow[] } | null>(null);
+  const [ran, setRan] = useState<{ key: string; outcome: CalculatorOutcome } | null>(null);
   const rides = useRidesQuery();
   const ride = useRideQuery(source === 'ride' ? rideId : null);
   const design = ride.data?.design?.data ?? null;
-
-  // A freshly picked ride starts from its design motion and shows its design-speed result at once.
-  useEffect(() => {
-    if (!design) return;
-    const rows = design.bodies.map((_, i) => motionRowFromDesign(design.motion.find((m) => m.joint === i)));
-    setRideMotion(rows);
-    setOutcome(runCalculator(rideRequest(design, rows)));
-  }, [design]);
+  // Edits and results belong to one ride's design version (or to the manual chain): a freshly picked ride
+  // starts from its design motion and shows its design-motion result at once.
+  const key = source === 'ride' ? `ride:${ride.data?.design?.id ?? 'none'}` : 'manual';
+  const designRows = useMemo(
+    () =>
+      design
+        ? design.bodies.map((_, i) => motionRowFromDesign(design.motion.find((m) => m.joint === i)))
+        : [],
+    [design],
+  );
+  const designOutcome = useMemo(
+    () => (design ? runCalculator(rideRequest(design, designRows)) : null),
+    [design, designRows],
+  );
+  const rideMotion = rideEdits?.key === key ? rideEdits.rows : designRows;
+  const outcome = ran?.key === key ? ran.outcome : source === 'ride' ? designOutcome : null;
+  const setOutcome = (o: CalculatorOutcome | null) => setRan(o ? { key, outcome: o } : null);
 
   const motion = source === 'ride' ? rideMotion : manualMotion;
-  const setMotion = source === 'ride' ? setRideMotion : setManualMotion;
+  const setMotion = source === 'ride' ? (rows: MotionRow[]) => setRideEdits({ key, rows }) : setManualMotion;
   const jointNames = source === 'ride' && design ? designBodyNames(design) : bodies.map((b) => b.name || '—');
 
   const run = () => {
@@ -72,10 +81,7 @@ export function CalculatorScreen() {
     }
   };
 
-  const switchSource = (s: Source) => {
-    setSource(s);
-    setOutcome(null);
-  };
+  const switchSource = (s: Source) => setSource(s);
 
   const inputs = (
     <View style={styles.inputs}>
@@ -102,10 +108,7 @@ export function CalculatorScreen() {
                       role="radio"
                       aria-checked={selected}
                       accessibilityLabel={r.name}
-                      onPress={() => {
-                        setRideId(r.id);
-                        setOutcome(null);
-                      }}
+                      onPress={() => setRideId(r.id)}
                       style={StyleSheet.flatten([styles.rideOption, selected && styles.rideOptionSelected])}
                     >
                       <View style={styles.rideOptionText}>

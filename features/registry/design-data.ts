@@ -286,11 +286,7 @@ export type MeasuredInputs = {
 };
 
 /** The cycle-analysis input for a ride: design chain, design (or measured) motion, seats and envelope. */
-export function designToCycleInput(
-  d: DesignData,
-  measured: MeasuredInputs = {},
-  samples = 360,
-): CycleInput {
+export function designToCycleInput(d: DesignData, measured: MeasuredInputs = {}, samples = 360): CycleInput {
   const n = d.bodies.length;
   const motionOf = (i: number) => d.motion.find((m) => m.joint === i);
   const pivotOf = (i: number) => d.pivots.find((p) => p.joint === i);
