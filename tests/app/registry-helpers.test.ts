@@ -78,12 +78,29 @@ describe('audit changes', () => {
     ]);
   });
 
-  test('a create has no "before"; long structures are cut to one line', () => {
-    const changes = changedFields(null, { name: 'Gull Wing', contacts: [{ name: 'A'.repeat(200) }] });
+  test('a create has no "before"; long text is cut to one line, lists of records are counted', () => {
+    const changes = changedFields(null, {
+      name: 'Gull Wing',
+      description: 'A'.repeat(200),
+      contacts: [{ name: 'Dale' }, { name: 'Priya' }],
+    });
     expect(changes[0]).toEqual({ field: 'name', before: null, after: 'Gull Wing' });
     expect(changes[1].after?.length).toBe(140);
     expect(changes[1].after?.endsWith('…')).toBe(true);
+    expect(changes[2]).toEqual({ field: 'contacts', before: null, after: '2 entries' });
     expect(valueText(undefined)).toBe('—');
+  });
+
+  test('nested records are opened: a new design version names the revision that changed', () => {
+    const data = (revision: string, parts: number) => ({
+      source: { document: 'DR-PX6-002', revision },
+      parts: Array.from({ length: parts }, (_, i) => ({ name: `Part ${i}` })),
+    });
+    expect(changedFields({ version: 1, data: data('A', 4) }, { version: 2, data: data('B', 5) })).toEqual([
+      { field: 'version', before: '1', after: '2' },
+      { field: 'data.source.revision', before: 'A', after: 'B' },
+      { field: 'data.parts', before: '4 entries', after: '5 entries' },
+    ]);
   });
 });
 
