@@ -66,6 +66,9 @@ export function createApp(deps: ApiDeps): Express {
   );
 
   app.use(compression());
+  // A phone's push batch (up to 50 inspections with their readings) may exceed the 2 MB kept for
+  // everything else; a 413 there would make the phone re-send the same batch for ever.
+  app.use('/api/sync/push', express.json({ limit: '16mb' }));
   app.use(express.json({ limit: '2mb' }));
 
   app.use('/api', apiRouter(deps));
