@@ -34,7 +34,7 @@ const LIST_KEYS = ['q', 'status', 'rideClass', 'siteId', 'operatorId', 'sort', '
 const sortChoices: { value: SortValue<RideSortKey>; label: string }[] = [
   { value: 'name', label: 'Name, A to Z' },
   { value: '-name', label: 'Name, Z to A' },
-  { value: '-status', label: 'Out of service first' },
+  { value: 'status', label: 'Status' },
   { value: '-statusSince', label: 'Status changed, newest first' },
   { value: 'rideClass', label: 'Ride class' },
   { value: 'site', label: 'Site' },
