@@ -152,7 +152,10 @@ export const designMotionSchema = z
         ctx.addIssue({ code: 'custom', path: [key], message: `Required for ${m.kind} motion` });
     };
     if (m.kind === 'constant') need('rpm');
-    if (m.kind === 'swing') (need('amplitudeRad'), need('periodS'));
+    if (m.kind === 'swing') {
+      need('amplitudeRad');
+      need('periodS');
+    }
     if (m.kind === 'fixed') need('angleRad');
   });
 export type DesignMotion = z.infer<typeof designMotionSchema>;
