@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import {
   type Control,
   Controller,
@@ -13,13 +12,13 @@ import { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { CheckField } from '@/components/check-field';
-import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { IconButton } from '@/components/icon-button';
 import { SelectField } from '@/components/select-field';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { FormText } from '@/features/registry/form-fields';
+import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import {
   type ChecklistContent,
   type MeasurementKind,
@@ -27,7 +26,7 @@ import {
   checklistTemplatePutSchema,
   measurementKinds,
 } from '@/features/registry/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/features/registry/server-errors';
 
 /** The API's PUT schema (content and reason), with the name the create schema requires. */
 export const checklistFormSchema = checklistTemplatePutSchema
@@ -112,21 +111,16 @@ export function ChecklistForm({
   });
   const wide = useWide();
   const areas = useFieldArray({ control, name: 'content.areas', keyName: 'fieldKey' });
-  const [problem, setProblem] = useState<FormProblem | null>(null);
-  const submit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      await onSubmit(values);
-    } catch (err) {
-      setProblem(
-        applyServerError(err, setError, fieldsOf(['name', 'reason'], ['content']), {
-          content: 'Content',
-          areas: 'Area',
-          items: 'Item',
-        }),
-      );
-    }
-  });
+  const save = useServerSubmit(
+    { handleSubmit, setError, formState },
+    onSubmit,
+    fieldsOf(['name', 'reason'], ['content']),
+    {
+      content: 'Content',
+      areas: 'Area',
+      items: 'Item',
+    },
+  );
   const areasError = listError(formState.errors.content?.areas);
   return (
     <View style={styles.form}>
@@ -175,11 +169,7 @@ export function ChecklistForm({
         hint="Kept with the new version, e.g. “Added the restraint lock check after the maker’s bulletin”."
         multiline
       />
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label={submitLabel} tone="accent" onPress={submit} busy={formState.isSubmitting} />
-        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
-      </View>
+      <FormFooter save={save} submitLabel={submitLabel} tone="accent" onCancel={onCancel} />
     </View>
   );
 }
@@ -296,7 +286,6 @@ const styles = StyleSheet.create({
   form: { gap: space.lg },
   flex: { flex: 1, minWidth: 0 },
   start: { alignSelf: 'flex-start' },
-  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   area: {
     gap: space.md,
     borderWidth: 1,

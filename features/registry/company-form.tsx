@@ -6,15 +6,15 @@ import { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { ChoiceChips } from '@/components/choice-chips';
-import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { IconButton } from '@/components/icon-button';
 import { SelectField } from '@/components/select-field';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
 import { FormText } from '@/features/registry/form-fields';
+import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import { companyInputSchema, siteInputSchema, siteKindLabel, siteKinds } from '@/features/registry/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/features/registry/server-errors';
 
 /** Several addresses typed in one box, one per line (commas and semicolons work too). */
 export function splitAddresses(text: string): string[] {
@@ -58,24 +58,14 @@ export function CompanyForm({
     defaultValues,
   });
   const contacts = useFieldArray({ control, name: 'contacts', keyName: 'fieldKey' });
-  const [problem, setProblem] = useState<FormProblem | null>(null);
-  const submit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      await onSubmit(values);
-    } catch (err) {
-      setProblem(
-        applyServerError(
-          err,
-          setError,
-          fieldsOf(['name', 'noticeEmails', 'phone', 'address'], ['contacts']),
-          {
-            contacts: 'Contact',
-          },
-        ),
-      );
-    }
-  });
+  const save = useServerSubmit(
+    { handleSubmit, setError, formState },
+    onSubmit,
+    fieldsOf(['name', 'noticeEmails', 'phone', 'address'], ['contacts']),
+    {
+      contacts: 'Contact',
+    },
+  );
   return (
     <View style={styles.form}>
       <FormText control={control} name="name" label="Company name" />
@@ -142,11 +132,7 @@ export function CompanyForm({
         onPress={() => contacts.append({ name: '', role: '', email: '', phone: '' })}
         style={styles.start}
       />
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label={submitLabel} onPress={submit} busy={formState.isSubmitting} />
-        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
-      </View>
+      <FormFooter save={save} submitLabel={submitLabel} onCancel={onCancel} />
     </View>
   );
 }
@@ -207,21 +193,11 @@ export function SiteForm({
     resolver: zodResolver(siteInputSchema),
     defaultValues,
   });
-  const [problem, setProblem] = useState<FormProblem | null>(null);
-  const submit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      await onSubmit(values);
-    } catch (err) {
-      setProblem(
-        applyServerError(
-          err,
-          setError,
-          fieldsOf(['name', 'kind', 'address', 'locality', 'operatorCompanyId']),
-        ),
-      );
-    }
-  });
+  const save = useServerSubmit(
+    { handleSubmit, setError, formState },
+    onSubmit,
+    fieldsOf(['name', 'kind', 'address', 'locality', 'operatorCompanyId']),
+  );
   return (
     <View style={styles.form}>
       <FormText control={control} name="name" label="Site name" />
@@ -260,11 +236,7 @@ export function SiteForm({
           />
         )}
       />
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label={submitLabel} onPress={submit} busy={formState.isSubmitting} />
-        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
-      </View>
+      <FormFooter save={save} submitLabel={submitLabel} onCancel={onCancel} />
     </View>
   );
 }
@@ -283,6 +255,5 @@ const styles = StyleSheet.create({
     backgroundColor: colors.bg,
   },
   start: { alignSelf: 'flex-start' },
-  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   multi: { minHeight: 72, textAlignVertical: 'top' },
 });

@@ -1,18 +1,16 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
-import { Button } from '@/components/button';
 import { ChoiceChips } from '@/components/choice-chips';
-import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
 import { rideStatusLabel } from '@/components/status-mark';
 import { FormNumber, FormText } from '@/features/registry/form-fields';
+import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import { rideInputSchema } from '@/features/registry/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/features/registry/server-errors';
 import { rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
 
 /**
@@ -87,19 +85,12 @@ export function RideForm({
     resolver: zodResolver(rideFormSchema),
     defaultValues,
   });
-  const [problem, setProblem] = useState<FormProblem | null>(null);
   const operatorId = useWatch({ control, name: 'operatorCompanyId' });
   const status = useWatch({ control, name: 'status' });
 
-  const submit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      await onSubmit(values);
-    } catch (err) {
-      setProblem(
-        applyServerError(err, setError, fieldsOf(FIELDS), { operatorCompanyId: 'Operator', siteId: 'Site' }),
-      );
-    }
+  const save = useServerSubmit({ handleSubmit, setError, formState }, onSubmit, fieldsOf(FIELDS), {
+    operatorCompanyId: 'Operator',
+    siteId: 'Site',
   });
 
   // A site belongs to one operator: offer that operator's sites only.
@@ -197,15 +188,11 @@ export function RideForm({
           ) : null}
         </>
       ) : null}
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button
-          label={mode === 'create' ? 'Add ride' : 'Save changes'}
-          onPress={submit}
-          busy={formState.isSubmitting}
-        />
-        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
-      </View>
+      <FormFooter
+        save={save}
+        submitLabel={mode === 'create' ? 'Add ride' : 'Save changes'}
+        onCancel={onCancel}
+      />
     </View>
   );
 }
@@ -214,5 +201,4 @@ const styles = StyleSheet.create({
   form: { gap: space.lg },
   pair: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   half: { flexGrow: 1, flexBasis: 220, minWidth: 0 },
-  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });

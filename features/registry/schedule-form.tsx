@@ -1,16 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
-import { Button } from '@/components/button';
-import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
 import { FormNumber, FormText } from '@/features/registry/form-fields';
+import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import { schedulePatchSchema } from '@/features/registry/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/features/registry/server-errors';
 
 /** An empty date field means "no date": the API takes null for that. */
 const emptyAsNull = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (v === '' ? null : v), schema);
@@ -50,21 +48,11 @@ export function ScheduleForm({
     resolver: zodResolver(scheduleFormSchema),
     defaultValues,
   });
-  const [problem, setProblem] = useState<FormProblem | null>(null);
-  const submit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      await onSubmit(values);
-    } catch (err) {
-      setProblem(
-        applyServerError(
-          err,
-          setError,
-          fieldsOf(['intervalDays', 'lastDoneOn', 'dueOn', 'assignedTo', 'notes']),
-        ),
-      );
-    }
-  });
+  const save = useServerSubmit(
+    { handleSubmit, setError, formState },
+    onSubmit,
+    fieldsOf(['intervalDays', 'lastDoneOn', 'dueOn', 'assignedTo', 'notes']),
+  );
   return (
     <View style={styles.form}>
       <View style={styles.row}>
@@ -107,11 +95,7 @@ export function ScheduleForm({
         )}
       />
       <FormText control={control} name="notes" label="Notes" multiline />
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label={submitLabel} onPress={submit} busy={formState.isSubmitting} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} />
-      </View>
+      <FormFooter save={save} submitLabel={submitLabel} onCancel={onCancel} />
     </View>
   );
 }
@@ -120,5 +104,4 @@ const styles = StyleSheet.create({
   form: { gap: space.md },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   cell: { flexGrow: 1, flexBasis: 160, minWidth: 0 },
-  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });

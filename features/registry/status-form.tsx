@@ -1,18 +1,16 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
-import { Button } from '@/components/button';
 import { ChoiceChips } from '@/components/choice-chips';
-import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { rideStatusLabel } from '@/components/status-mark';
 import { space } from '@/components/theme';
 import { FormText } from '@/features/registry/form-fields';
+import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import { requireReasonOutOfService } from '@/features/registry/ride-form';
 import { ridePatchSchema } from '@/features/registry/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/features/registry/server-errors';
 import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
 
 /**
@@ -43,17 +41,13 @@ export function StatusForm({
     resolver: zodResolver(statusFormSchema),
     defaultValues,
   });
-  const [problem, setProblem] = useState<FormProblem | null>(null);
   const status = useWatch({ control, name: 'status' });
-  const submit = handleSubmit(async (values) => {
-    setProblem(null);
-    try {
-      // In service carries no reason; the server clears it the same way.
-      await onSubmit(values.status === 'in_service' ? { ...values, statusReason: null } : values);
-    } catch (err) {
-      setProblem(applyServerError(err, setError, fieldsOf(['status', 'statusReason', 'statusSince'])));
-    }
-  });
+  const save = useServerSubmit(
+    { handleSubmit, setError, formState },
+    // In service carries no reason; the server clears it the same way.
+    (values) => onSubmit(values.status === 'in_service' ? { ...values, statusReason: null } : values),
+    fieldsOf(['status', 'statusReason', 'statusSince']),
+  );
   return (
     <View style={styles.form}>
       <Controller
@@ -85,16 +79,11 @@ export function StatusForm({
         hint="Leave empty for now, or give a date or date-time, e.g. 2025-05-01 or 2025-05-01T08:30Z."
         autoCapitalize="none"
       />
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label="Save status" tone="accent" onPress={submit} busy={formState.isSubmitting} />
-        {onCancel ? <Button label="Cancel" tone="quiet" onPress={onCancel} /> : null}
-      </View>
+      <FormFooter save={save} submitLabel="Save status" tone="accent" onCancel={onCancel} />
     </View>
   );
 }
 
 const styles = StyleSheet.create({
   form: { gap: space.lg },
-  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });
