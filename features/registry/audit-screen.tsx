@@ -1,12 +1,10 @@
 import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { Pager } from '@/components/pager';
-import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
@@ -19,6 +17,7 @@ import type { SessionUser } from '@/features/auth/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { changedFields } from '@/features/registry/audit-diff';
 import { FilterPanel } from '@/features/registry/filter-panel';
+import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import {
   type AuditAction,
@@ -29,11 +28,10 @@ import {
   auditListQuerySchema,
 } from '@/features/registry/schema';
 import { formatDateTime } from '@/features/registry/text';
-import { useListParams } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
 
 const PAGE_SIZE = 30;
-const SEARCH_DELAY_MS = 300;
 const LIST_KEYS = ['entity', 'action', 'rideId', 'from', 'to', 'q', 'sort', 'page'] as const;
 
 export const auditEntityLabel: Record<AuditEntity, string> = {
@@ -64,12 +62,7 @@ function Audit({ user }: { user: SessionUser }) {
   const [query, setQuery] = useListParams(auditListQuerySchema, LIST_KEYS);
   // The URL keeps what was typed for the dates; the parsed query holds ISO instants.
   const entries = useAuditQuery({ ...query, pageSize: PAGE_SIZE });
-  const [search, setSearch] = useState(query.q ?? '');
-  useEffect(() => {
-    if ((query.q ?? '') === search.trim()) return;
-    const t = setTimeout(() => setQuery({ q: search.trim(), page: undefined }), SEARCH_DELAY_MS);
-    return () => clearTimeout(t);
-  }, [search, query.q, setQuery]);
+  const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
   const [from, setFrom] = useState(query.from?.slice(0, 10) ?? '');
   const [to, setTo] = useState(query.to?.slice(0, 10) ?? '');
   const dateOk = (v: string) => v === '' || /^\d{4}-\d{2}-\d{2}$/.test(v);
@@ -163,30 +156,21 @@ function Audit({ user }: { user: SessionUser }) {
           <Button label="Show all" tone="quiet" onPress={() => filter({ rideId: undefined })} />
         </Card>
       ) : null}
-      <QueryState query={entries}>
-        {(page) => (
-          <View style={styles.list}>
-            {page.entries.length === 0 ? (
-              <Card>
-                <Text variant="heading">No changes match.</Text>
-              </Card>
-            ) : (
-              <View style={styles.log} accessibilityLabel="Audit entries">
-                {page.entries.map((e) => (
-                  <AuditRow key={e.id} entry={e} wide={wide} />
-                ))}
-              </View>
-            )}
-            <Pager
-              page={page.page}
-              pageSize={page.pageSize}
-              total={page.total}
-              noun="entries"
-              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
-            />
-          </View>
-        )}
-      </QueryState>
+      <PagedList query={entries} noun="entries" setPage={(page) => setQuery({ page })}>
+        {(page) =>
+          page.entries.length === 0 ? (
+            <Card>
+              <Text variant="heading">No changes match.</Text>
+            </Card>
+          ) : (
+            <View style={styles.log} accessibilityLabel="Audit entries">
+              {page.entries.map((e) => (
+                <AuditRow key={e.id} entry={e} wide={wide} />
+              ))}
+            </View>
+          )
+        }
+      </PagedList>
     </Screen>
   );
 }

@@ -1,11 +1,9 @@
 import Feather from '@expo/vector-icons/Feather';
 import { router, useLocalSearchParams } from 'expo-router';
-import { useEffect, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { Pager } from '@/components/pager';
 import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';
@@ -35,6 +33,7 @@ import {
   type SiteFormInput,
 } from '@/features/registry/company-form';
 import { Field } from '@/features/registry/design-view';
+import { PagedList } from '@/features/registry/paged-list';
 import { Panes } from '@/features/registry/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { FormCard } from '@/features/registry/ride-edit-screens';
@@ -48,28 +47,16 @@ import {
   siteListQuerySchema,
   siteSortKeys,
 } from '@/features/registry/schema';
-import { useListParams } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { RideCard } from '@/features/rides/ride-card';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 const PAGE_SIZE = 25;
-const SEARCH_DELAY_MS = 300;
 const ALL = '__all';
 
 export const companyHref = (id: string) => `/register/companies/${encodeURIComponent(id)}`;
 export const siteHref = (id: string) => `/register/sites/${encodeURIComponent(id)}`;
 const param = (v: string | string[] | undefined) => (Array.isArray(v) ? (v[0] ?? '') : (v ?? ''));
-
-/** A search box whose text reaches the URL once typing pauses. */
-function useSearchText(current: string | undefined, set: (q: string) => void): [string, (t: string) => void] {
-  const [text, setText] = useState(current ?? '');
-  useEffect(() => {
-    if ((current ?? '') === text.trim()) return;
-    const t = setTimeout(() => set(text.trim()), SEARCH_DELAY_MS);
-    return () => clearTimeout(t);
-  }, [text, current, set]);
-  return [text, setText];
-}
 
 // ——— companies ———
 
@@ -102,70 +89,61 @@ function CompaniesList({ user }: { user: SessionUser }) {
       <Card>
         <TextField label="Search companies" value={search} onChangeText={setSearch} autoCapitalize="none" />
       </Card>
-      <QueryState query={companies}>
-        {(page) => (
-          <View style={styles.list}>
-            {wide ? (
-              <SortableTable<Company, (typeof companySortKeys)[number]>
-                label="Operator companies"
-                rows={page.companies}
-                rowKey={(c) => c.id}
-                rowHref={(c) => companyHref(c.id)}
-                rowLabel={(c) => c.name}
-                sort={query.sort}
-                onSort={(sort) => setQuery({ sort, page: undefined })}
-                columns={[
-                  { key: 'name', title: 'Company', sortKey: 'name', flex: 1.5, render: (c) => c.name },
-                  {
-                    key: 'notices',
-                    title: 'Notices to',
-                    flex: 1.6,
-                    render: (c) => c.noticeEmails.join(', ') || '—',
-                  },
-                  { key: 'phone', title: 'Phone', render: (c) => c.phone ?? '—' },
-                  {
-                    key: 'sites',
-                    title: 'Sites',
-                    numeric: true,
-                    flex: 0.5,
-                    render: (c) => String(c.siteCount),
-                  },
-                  {
-                    key: 'rides',
-                    title: 'Rides',
-                    numeric: true,
-                    flex: 0.5,
-                    render: (c) => String(c.rideCount),
-                  },
-                ]}
-              />
-            ) : (
-              page.companies.map((c) => (
-                <Card key={c.id}>
-                  <Text variant="heading">{c.name}</Text>
-                  <Text variant="small" muted>
-                    {c.rideCount} rides · {c.siteCount} sites
-                  </Text>
-                  <Text variant="small">{c.noticeEmails.join(', ') || 'No notice address'}</Text>
-                  <Button
-                    label="Open"
-                    tone="quiet"
-                    onPress={() => router.push(companyHref(c.id))}
-                    style={styles.start}
-                  />
-                </Card>
-              ))
-            )}
-            <Pager
-              page={page.page}
-              pageSize={page.pageSize}
-              total={page.total}
-              noun="companies"
-              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
+      <PagedList query={companies} noun="companies" setPage={(page) => setQuery({ page })}>
+        {(page) =>
+          wide ? (
+            <SortableTable<Company, (typeof companySortKeys)[number]>
+              label="Operator companies"
+              rows={page.companies}
+              rowKey={(c) => c.id}
+              rowHref={(c) => companyHref(c.id)}
+              rowLabel={(c) => c.name}
+              sort={query.sort}
+              onSort={(sort) => setQuery({ sort, page: undefined })}
+              columns={[
+                { key: 'name', title: 'Company', sortKey: 'name', flex: 1.5, render: (c) => c.name },
+                {
+                  key: 'notices',
+                  title: 'Notices to',
+                  flex: 1.6,
+                  render: (c) => c.noticeEmails.join(', ') || '—',
+                },
+                { key: 'phone', title: 'Phone', render: (c) => c.phone ?? '—' },
+                {
+                  key: 'sites',
+                  title: 'Sites',
+                  numeric: true,
+                  flex: 0.5,
+                  render: (c) => String(c.siteCount),
+                },
+                {
+                  key: 'rides',
+                  title: 'Rides',
+                  numeric: true,
+                  flex: 0.5,
+                  render: (c) => String(c.rideCount),
+                },
+              ]}
             />
-          </View>
-        )}
-      </QueryState>
+          ) : (
+            page.companies.map((c) => (
+              <Card key={c.id}>
+                <Text variant="heading">{c.name}</Text>
+                <Text variant="small" muted>
+                  {c.rideCount} rides · {c.siteCount} sites
+                </Text>
+                <Text variant="small">{c.noticeEmails.join(', ') || 'No notice address'}</Text>
+                <Button
+                  label="Open"
+                  tone="quiet"
+                  onPress={() => router.push(companyHref(c.id))}
+                  style={styles.start}
+                />
+              </Card>
+            ))
+          )
+        }
+      </PagedList>
     </Screen>
   );
 }
@@ -352,70 +330,61 @@ function SitesList({ user }: { user: SessionUser }) {
           onChange={(v) => setQuery({ kind: v.filter((k) => k !== query.kind)[0], page: undefined })}
         />
       </Card>
-      <QueryState query={sites}>
-        {(page) => (
-          <View style={styles.list}>
-            {wide ? (
-              <SortableTable<Site, (typeof siteSortKeys)[number]>
-                label="Sites"
-                rows={page.sites}
-                rowKey={(s) => s.id}
-                rowHref={(s) => siteHref(s.id)}
-                rowLabel={(s) => s.name}
-                sort={query.sort}
-                onSort={(sort) => setQuery({ sort, page: undefined })}
-                columns={[
-                  { key: 'name', title: 'Site', sortKey: 'name', flex: 1.5, render: (s) => s.name },
-                  { key: 'kind', title: 'Kind', sortKey: 'kind', render: (s) => siteKindLabel[s.kind] },
-                  {
-                    key: 'locality',
-                    title: 'Locality',
-                    sortKey: 'locality',
-                    render: (s) => s.locality ?? '—',
-                  },
-                  {
-                    key: 'operator',
-                    title: 'Operator',
-                    sortKey: 'operator',
-                    flex: 1.4,
-                    render: (s) => s.operatorName,
-                  },
-                  {
-                    key: 'rides',
-                    title: 'Rides',
-                    numeric: true,
-                    flex: 0.5,
-                    render: (s) => String(s.rideCount),
-                  },
-                ]}
-              />
-            ) : (
-              page.sites.map((s) => (
-                <Card key={s.id}>
-                  <Text variant="heading">{s.name}</Text>
-                  <Text variant="small" muted>
-                    {siteKindLabel[s.kind]} · {s.locality ?? '—'} · {s.rideCount} rides
-                  </Text>
-                  <Text variant="small">{s.operatorName}</Text>
-                  <Button
-                    label="Open"
-                    tone="quiet"
-                    onPress={() => router.push(siteHref(s.id))}
-                    style={styles.start}
-                  />
-                </Card>
-              ))
-            )}
-            <Pager
-              page={page.page}
-              pageSize={page.pageSize}
-              total={page.total}
-              noun="sites"
-              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
+      <PagedList query={sites} noun="sites" setPage={(page) => setQuery({ page })}>
+        {(page) =>
+          wide ? (
+            <SortableTable<Site, (typeof siteSortKeys)[number]>
+              label="Sites"
+              rows={page.sites}
+              rowKey={(s) => s.id}
+              rowHref={(s) => siteHref(s.id)}
+              rowLabel={(s) => s.name}
+              sort={query.sort}
+              onSort={(sort) => setQuery({ sort, page: undefined })}
+              columns={[
+                { key: 'name', title: 'Site', sortKey: 'name', flex: 1.5, render: (s) => s.name },
+                { key: 'kind', title: 'Kind', sortKey: 'kind', render: (s) => siteKindLabel[s.kind] },
+                {
+                  key: 'locality',
+                  title: 'Locality',
+                  sortKey: 'locality',
+                  render: (s) => s.locality ?? '—',
+                },
+                {
+                  key: 'operator',
+                  title: 'Operator',
+                  sortKey: 'operator',
+                  flex: 1.4,
+                  render: (s) => s.operatorName,
+                },
+                {
+                  key: 'rides',
+                  title: 'Rides',
+                  numeric: true,
+                  flex: 0.5,
+                  render: (s) => String(s.rideCount),
+                },
+              ]}
             />
-          </View>
-        )}
-      </QueryState>
+          ) : (
+            page.sites.map((s) => (
+              <Card key={s.id}>
+                <Text variant="heading">{s.name}</Text>
+                <Text variant="small" muted>
+                  {siteKindLabel[s.kind]} · {s.locality ?? '—'} · {s.rideCount} rides
+                </Text>
+                <Text variant="small">{s.operatorName}</Text>
+                <Button
+                  label="Open"
+                  tone="quiet"
+                  onPress={() => router.push(siteHref(s.id))}
+                  style={styles.start}
+                />
+              </Card>
+            ))
+          )
+        }
+      </PagedList>
     </Screen>
   );
 }

@@ -1,12 +1,10 @@
 import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { Pager } from '@/components/pager';
-import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';
 import { SortableTable, type SortValue } from '@/components/sortable-table';
@@ -19,15 +17,15 @@ import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
 import { useCompanyListQuery, useRidePageQuery, useSiteListQuery } from '@/features/registry/api';
+import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
 import { formatDate } from '@/features/registry/text';
-import { useListParams } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { RideCard, rideHref } from '@/features/rides/ride-card';
 import { type RideSummary, rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
 
 const PAGE_SIZE = 20;
-const SEARCH_DELAY_MS = 300;
 const ALL = '__all';
 const LIST_KEYS = ['q', 'status', 'rideClass', 'siteId', 'operatorId', 'sort', 'page'] as const;
 
@@ -62,15 +60,9 @@ function RidesList({ user }: { user: SessionUser }) {
   const rides = useRidePageQuery({ ...query, pageSize: PAGE_SIZE });
   const sites = useSiteListQuery({ pageSize: 200, sort: 'name' }, staff);
   const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' }, staff);
-  const [search, setSearch] = useState(query.q ?? '');
-  const [filtersOpen, setFiltersOpen] = useState(false);
-
   // Type freely; the list follows once typing pauses, and always starts again at page 1.
-  useEffect(() => {
-    if ((query.q ?? '') === search.trim()) return;
-    const t = setTimeout(() => setQuery({ q: search.trim(), page: undefined }), SEARCH_DELAY_MS);
-    return () => clearTimeout(t);
-  }, [search, query.q, setQuery]);
+  const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
+  const [filtersOpen, setFiltersOpen] = useState(false);
 
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
   const activeFilters =
@@ -214,9 +206,13 @@ function RidesList({ user }: { user: SessionUser }) {
         ) : null}
       </Card>
 
-      <QueryState query={rides}>
+      <PagedList
+        query={rides}
+        noun={(total) => (total === 1 ? 'ride' : 'rides')}
+        setPage={(page) => setQuery({ page })}
+      >
         {(page) => (
-          <View style={styles.results}>
+          <>
             {rides.isFetching ? (
               <View style={styles.fetching} accessibilityLabel="Updating">
                 <ActivityIndicator color={colors.base} size="small" />
@@ -241,16 +237,9 @@ function RidesList({ user }: { user: SessionUser }) {
                 ))}
               </View>
             )}
-            <Pager
-              page={page.page}
-              pageSize={page.pageSize}
-              total={page.total}
-              noun={page.total === 1 ? 'ride' : 'rides'}
-              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
-            />
-          </View>
+          </>
         )}
-      </QueryState>
+      </PagedList>
     </Screen>
   );
 }
@@ -348,7 +337,6 @@ const styles = StyleSheet.create({
   filters: { gap: space.md },
   chipGroup: { gap: space.xs },
   clear: { alignSelf: 'flex-start' },
-  results: { gap: space.md },
   fetching: { position: 'absolute', right: 0, top: -28 },
   cards: { gap: space.md },
   empty: { alignItems: 'flex-start' },

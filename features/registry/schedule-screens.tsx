@@ -1,10 +1,9 @@
 import { router } from 'expo-router';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { Pager } from '@/components/pager';
 import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';
@@ -27,6 +26,7 @@ import {
 } from '@/features/registry/api';
 import { DueMark, dueInWords, dueStatusLabel } from '@/features/registry/due-mark';
 import { FilterPanel } from '@/features/registry/filter-panel';
+import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { WithRide } from '@/features/registry/ride-edit-screens';
 import { useRideIdParam } from '@/features/registry/ride-detail-screen';
@@ -41,7 +41,7 @@ import {
   scheduleSortKeys,
 } from '@/features/registry/schema';
 import { formatDate } from '@/features/registry/text';
-import { useListParams } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';
 
@@ -150,7 +150,6 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
 const PAGE_SIZE = 25;
 const LIST_KEYS = ['q', 'dueStatus', 'inspectionType', 'assignedTo', 'sort', 'page'] as const;
 const ANYONE = '__anyone';
-const SEARCH_DELAY_MS = 300;
 
 /** Every planned inspection across the register, soonest first: filter by due state, type and inspector. */
 export function SchedulesListScreen() {
@@ -162,12 +161,7 @@ function SchedulesList({ user }: { user: SessionUser }) {
   const [query, setQuery] = useListParams(scheduleListQuerySchema, LIST_KEYS);
   const schedules = useScheduleListQuery({ ...query, pageSize: PAGE_SIZE, sort: query.sort ?? 'nextDue' });
   const inspectors = useInspectorsQuery();
-  const [search, setSearch] = useState(query.q ?? '');
-  useEffect(() => {
-    if ((query.q ?? '') === search.trim()) return;
-    const t = setTimeout(() => setQuery({ q: search.trim(), page: undefined }), SEARCH_DELAY_MS);
-    return () => clearTimeout(t);
-  }, [search, query.q, setQuery]);
+  const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
 
   return (
@@ -228,79 +222,70 @@ function SchedulesList({ user }: { user: SessionUser }) {
           </View>
         }
       />
-      <QueryState query={schedules}>
-        {(page) => (
-          <View style={styles.list}>
-            {page.schedules.length === 0 ? (
-              <Card>
-                <Text variant="heading">No planned inspections match.</Text>
-              </Card>
-            ) : wide ? (
-              <SortableTable<Schedule, (typeof scheduleSortKeys)[number]>
-                label="Planned inspections"
-                rows={page.schedules}
-                rowKey={(s) => s.id}
-                rowHref={(s) => scheduleHref(s.rideId)}
-                rowLabel={(s) =>
-                  `${s.rideName}, ${inspectionTypeLabel[s.inspectionType]}, ${dueStatusLabel(s.dueStatus)}`
-                }
-                sort={query.sort ?? 'nextDue'}
-                onSort={(sort) => setQuery({ sort, page: undefined })}
-                columns={[
-                  {
-                    key: 'ride',
-                    title: 'Ride',
-                    sortKey: 'ride',
-                    flex: 1.4,
-                    render: (s) => (
-                      <View>
-                        <Text variant="heading">{s.rideName}</Text>
-                        <Text variant="small" muted numberOfLines={1}>
-                          {s.siteName ?? 'No site'} · {s.operatorName}
-                        </Text>
-                      </View>
-                    ),
-                  },
-                  {
-                    key: 'status',
-                    title: 'Ride status',
-                    render: (s) => <RideStatusMark status={s.rideStatus} compact />,
-                  },
-                  {
-                    key: 'type',
-                    title: 'Inspection',
-                    sortKey: 'type',
-                    render: (s) => inspectionTypeLabel[s.inspectionType],
-                  },
-                  {
-                    key: 'next',
-                    title: 'Next due',
-                    sortKey: 'nextDue',
-                    numeric: true,
-                    render: (s) => (s.nextDueOn ? formatDate(s.nextDueOn) : '—'),
-                  },
-                  { key: 'due', title: 'Due', render: (s) => <DueMark status={s.dueStatus} /> },
-                  {
-                    key: 'assignee',
-                    title: 'Inspector',
-                    sortKey: 'assignee',
-                    render: (s) => s.assignedTo?.name ?? 'Not assigned',
-                  },
-                ]}
-              />
-            ) : (
-              page.schedules.map((s) => <ScheduleCard key={s.id} schedule={s} />)
-            )}
-            <Pager
-              page={page.page}
-              pageSize={page.pageSize}
-              total={page.total}
-              noun="inspections"
-              onPage={(p) => setQuery({ page: p === 1 ? undefined : p })}
+      <PagedList query={schedules} noun="inspections" setPage={(page) => setQuery({ page })}>
+        {(page) =>
+          page.schedules.length === 0 ? (
+            <Card>
+              <Text variant="heading">No planned inspections match.</Text>
+            </Card>
+          ) : wide ? (
+            <SortableTable<Schedule, (typeof scheduleSortKeys)[number]>
+              label="Planned inspections"
+              rows={page.schedules}
+              rowKey={(s) => s.id}
+              rowHref={(s) => scheduleHref(s.rideId)}
+              rowLabel={(s) =>
+                `${s.rideName}, ${inspectionTypeLabel[s.inspectionType]}, ${dueStatusLabel(s.dueStatus)}`
+              }
+              sort={query.sort ?? 'nextDue'}
+              onSort={(sort) => setQuery({ sort, page: undefined })}
+              columns={[
+                {
+                  key: 'ride',
+                  title: 'Ride',
+                  sortKey: 'ride',
+                  flex: 1.4,
+                  render: (s) => (
+                    <View>
+                      <Text variant="heading">{s.rideName}</Text>
+                      <Text variant="small" muted numberOfLines={1}>
+                        {s.siteName ?? 'No site'} · {s.operatorName}
+                      </Text>
+                    </View>
+                  ),
+                },
+                {
+                  key: 'status',
+                  title: 'Ride status',
+                  render: (s) => <RideStatusMark status={s.rideStatus} compact />,
+                },
+                {
+                  key: 'type',
+                  title: 'Inspection',
+                  sortKey: 'type',
+                  render: (s) => inspectionTypeLabel[s.inspectionType],
+                },
+                {
+                  key: 'next',
+                  title: 'Next due',
+                  sortKey: 'nextDue',
+                  numeric: true,
+                  render: (s) => (s.nextDueOn ? formatDate(s.nextDueOn) : '—'),
+                },
+                { key: 'due', title: 'Due', render: (s) => <DueMark status={s.dueStatus} /> },
+                {
+                  key: 'assignee',
+                  title: 'Inspector',
+                  sortKey: 'assignee',
+                  render: (s) => s.assignedTo?.name ?? 'Not assigned',
+                },
+              ]}
             />
-          </View>
-        )}
-      </QueryState>
+          ) : (
+            page.schedules.map((s) => <ScheduleCard key={s.id} schedule={s} />)
+          )
+        }
+      </PagedList>
     </Screen>
   );
 }

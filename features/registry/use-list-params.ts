@@ -1,5 +1,5 @@
 import { router, useLocalSearchParams } from 'expo-router';
-import { useMemo } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import type { z } from 'zod';
 
 /**
@@ -37,4 +37,23 @@ export function useListParams<S extends z.ZodType>(
     router.setParams(next);
   };
   return [parsed, set];
+}
+
+const SEARCH_DELAY_MS = 300;
+
+/**
+ * A list's search box: the text is kept as typed, and reaches the URL (through `set`) once typing pauses.
+ * `current` is the search the URL holds now.
+ */
+export function useSearchText(
+  current: string | undefined,
+  set: (q: string) => void,
+): [string, (text: string) => void] {
+  const [text, setText] = useState(current ?? '');
+  useEffect(() => {
+    if ((current ?? '') === text.trim()) return;
+    const t = setTimeout(() => set(text.trim()), SEARCH_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [text, current, set]);
+  return [text, setText];
 }
