@@ -16,7 +16,7 @@ import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { changedFields } from '@/features/registry/audit-diff';
-import { FilterPanel } from '@/features/registry/filter-panel';
+import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import {
@@ -110,33 +110,24 @@ function Audit({ user }: { user: SessionUser }) {
           </>
         }
         filters={
-          <View style={wide ? styles.chipsWide : styles.list}>
-            <View style={styles.chipGroup}>
-              <Text variant="label" muted>
-                WHAT
-              </Text>
+          <FilterGroups>
+            <FilterGroup label="What">
               <ToggleChips
                 label="What"
                 values={query.entity ?? []}
                 options={auditEntities.map((e) => ({ value: e, label: auditEntityLabel[e] }))}
                 onChange={(v) => filter({ entity: v })}
               />
-            </View>
-            <View style={styles.chipGroup}>
-              <Text variant="label" muted>
-                CHANGE
-              </Text>
+            </FilterGroup>
+            <FilterGroup label="Change">
               <ToggleChips
                 label="Change"
                 values={query.action ?? []}
                 options={auditActions.map((a) => ({ value: a, label: actionSpec[a].label }))}
                 onChange={(v) => filter({ action: v })}
               />
-            </View>
-            <View style={styles.chipGroup}>
-              <Text variant="label" muted>
-                ORDER
-              </Text>
+            </FilterGroup>
+            <FilterGroup label="Order">
               <Segmented
                 label="Order"
                 value={query.sort === 'at' ? 'oldest' : 'newest'}
@@ -146,8 +137,8 @@ function Audit({ user }: { user: SessionUser }) {
                 ]}
                 onChange={(v) => filter({ sort: v === 'oldest' ? 'at' : undefined })}
               />
-            </View>
-          </View>
+            </FilterGroup>
+          </FilterGroups>
         }
       />
       {query.rideId ? (
@@ -247,13 +238,7 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
 }
 
 const styles = StyleSheet.create({
-  list: { gap: space.md },
-  filters: { gap: space.md },
-  row: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
-  chipsWide: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.xl, rowGap: space.md },
-  chipGroup: { gap: space.xs },
   flex: { flex: 1, minWidth: 0 },
-  flex2: { flex: 2, minWidth: 0 },
   start: { alignSelf: 'flex-start' },
   rideFilter: { flexDirection: 'row', alignItems: 'center', gap: space.md, flexWrap: 'wrap' },
   log: {

@@ -4,6 +4,7 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 
@@ -15,12 +16,15 @@ export function FilterPanel({
   search,
   beside,
   filters,
+  phoneOnly,
   active,
 }: {
   search: React.ReactNode;
   /** Selects that sit beside the search on a desktop. */
   beside?: React.ReactNode;
   filters: React.ReactNode;
+  /** Phone only, after the filters: what a desktop offers elsewhere (the table's headers sort it). */
+  phoneOnly?: React.ReactNode;
   /** How many filters are set, shown on the phone's button. */
   active: number;
 }) {
@@ -54,9 +58,35 @@ export function FilterPanel({
         <View style={styles.stack}>
           {beside}
           {filters}
+          {phoneOnly}
         </View>
       ) : null}
     </Card>
+  );
+}
+
+/**
+ * A panel's chip groups: side by side on a desktop, stacked on a phone. `alignEnd` lines them up at the
+ * bottom, for a button that sits among them.
+ */
+export function FilterGroups({ alignEnd, children }: { alignEnd?: boolean; children: React.ReactNode }) {
+  const wide = useWide();
+  return (
+    <View style={wide ? (alignEnd ? styles.groupsWideEnd : styles.groupsWide) : styles.stack}>
+      {children}
+    </View>
+  );
+}
+
+/** One filter's chips under its label. */
+export function FilterGroup({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <View style={styles.group}>
+      <Text variant="label" muted>
+        {label.toUpperCase()}
+      </Text>
+      {children}
+    </View>
   );
 }
 
@@ -67,4 +97,13 @@ const styles = StyleSheet.create({
   search: { flex: 2, minWidth: 0 },
   stack: { gap: space.md },
   button: { paddingHorizontal: space.md },
+  groupsWide: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.xl, rowGap: space.md },
+  groupsWideEnd: {
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    alignItems: 'flex-end',
+    columnGap: space.xl,
+    rowGap: space.md,
+  },
+  group: { gap: space.xs },
 });

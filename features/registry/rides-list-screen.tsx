@@ -1,6 +1,5 @@
 import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
-import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -17,6 +16,7 @@ import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
 import { useCompanyListQuery, useRidePageQuery, useSiteListQuery } from '@/features/registry/api';
+import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
@@ -62,7 +62,6 @@ function RidesList({ user }: { user: SessionUser }) {
   const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' }, staff);
   // Type freely; the list follows once typing pauses, and always starts again at page 1.
   const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
-  const [filtersOpen, setFiltersOpen] = useState(false);
 
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
   const activeFilters =
@@ -115,33 +114,27 @@ function RidesList({ user }: { user: SessionUser }) {
   ) : null;
 
   const chips = (
-    <View style={wide ? styles.chipsWide : styles.filters}>
-      <View style={styles.chipGroup}>
-        <Text variant="label" muted>
-          RIDE CLASS
-        </Text>
+    <FilterGroups alignEnd>
+      <FilterGroup label="Ride class">
         <ToggleChips
           label="Ride class"
           values={query.rideClass ?? []}
           options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
           onChange={(v) => filter({ rideClass: v })}
         />
-      </View>
-      <View style={styles.chipGroup}>
-        <Text variant="label" muted>
-          STATUS
-        </Text>
+      </FilterGroup>
+      <FilterGroup label="Status">
         <ToggleChips
           label="Status"
           values={query.status ?? []}
           options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
           onChange={(v) => filter({ status: v })}
         />
-      </View>
+      </FilterGroup>
       {activeFilters > 0 || query.q ? (
         <Button label="Clear search and filters" tone="quiet" onPress={clear} style={styles.clear} />
       ) : null}
-    </View>
+    </FilterGroups>
   );
 
   return (
@@ -162,49 +155,31 @@ function RidesList({ user }: { user: SessionUser }) {
       }
     >
       {staff ? <RegisterTabs role={user.role} /> : null}
-      <Card style={styles.filterCard}>
-        <View style={wide ? styles.searchRow : styles.searchRowPhone}>
-          <View style={styles.search}>
-            <TextField
-              label="Search rides"
-              placeholder={
-                wide ? 'Name, maker, model, serial, site or operator' : 'Name, maker, serial, site…'
-              }
-              value={search}
-              onChangeText={setSearch}
-              autoCapitalize="none"
-              autoCorrect={false}
-              inputMode="search"
-              returnKeyType="search"
-            />
-          </View>
-          {wide ? (
-            selects
-          ) : (
-            <Button
-              label={activeFilters > 0 ? `Filters (${activeFilters})` : 'Filters'}
-              tone="quiet"
-              aria-expanded={filtersOpen}
-              onPress={() => setFiltersOpen((o) => !o)}
-              icon={<Feather name="sliders" size={18} color={colors.text} />}
-              style={styles.filterButton}
-            />
-          )}
-        </View>
-        {wide ? chips : null}
-        {!wide && filtersOpen ? (
-          <View style={styles.filters}>
-            {selects}
-            {chips}
-            <SelectField
-              label="Sort"
-              value={query.sort ?? 'name'}
-              options={sortChoices}
-              onChange={(v) => setQuery({ sort: v, page: undefined })}
-            />
-          </View>
-        ) : null}
-      </Card>
+      <FilterPanel
+        active={activeFilters}
+        search={
+          <TextField
+            label="Search rides"
+            placeholder={wide ? 'Name, maker, model, serial, site or operator' : 'Name, maker, serial, site…'}
+            value={search}
+            onChangeText={setSearch}
+            autoCapitalize="none"
+            autoCorrect={false}
+            inputMode="search"
+            returnKeyType="search"
+          />
+        }
+        beside={selects}
+        filters={chips}
+        phoneOnly={
+          <SelectField
+            label="Sort"
+            value={query.sort ?? 'name'}
+            options={sortChoices}
+            onChange={(v) => setQuery({ sort: v, page: undefined })}
+          />
+        }
+      />
 
       <PagedList
         query={rides}
@@ -321,21 +296,7 @@ function RideTable({
 }
 
 const styles = StyleSheet.create({
-  filterCard: { gap: space.md },
-  searchRow: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
-  searchRowPhone: { flexDirection: 'row', alignItems: 'flex-end', gap: space.sm },
-  search: { flex: 2, minWidth: 0 },
   selectWide: { flex: 1, minWidth: 0 },
-  chipsWide: {
-    flexDirection: 'row',
-    flexWrap: 'wrap',
-    alignItems: 'flex-end',
-    columnGap: space.xl,
-    rowGap: space.md,
-  },
-  filterButton: { paddingHorizontal: space.md },
-  filters: { gap: space.md },
-  chipGroup: { gap: space.xs },
   clear: { alignSelf: 'flex-start' },
   fetching: { position: 'absolute', right: 0, top: -28 },
   cards: { gap: space.md },

@@ -25,7 +25,7 @@ import {
   useScheduleUpdateMutation,
 } from '@/features/registry/api';
 import { DueMark, dueInWords, dueStatusLabel } from '@/features/registry/due-mark';
-import { FilterPanel } from '@/features/registry/filter-panel';
+import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { WithRide } from '@/features/registry/ride-edit-screens';
@@ -196,30 +196,24 @@ function SchedulesList({ user }: { user: SessionUser }) {
           </View>
         }
         filters={
-          <View style={wide ? styles.chipsWide : styles.list}>
-            <View style={styles.chipGroup}>
-              <Text variant="label" muted>
-                DUE
-              </Text>
+          <FilterGroups>
+            <FilterGroup label="Due">
               <ToggleChips
                 label="Due"
                 values={query.dueStatus ?? []}
                 options={dueStatuses.map((d) => ({ value: d, label: dueStatusLabel(d) }))}
                 onChange={(v) => filter({ dueStatus: v })}
               />
-            </View>
-            <View style={styles.chipGroup}>
-              <Text variant="label" muted>
-                INSPECTION
-              </Text>
+            </FilterGroup>
+            <FilterGroup label="Inspection">
               <ToggleChips
                 label="Inspection"
                 values={query.inspectionType ?? []}
                 options={inspectionTypes.map((t) => ({ value: t, label: inspectionTypeLabel[t] }))}
                 onChange={(v) => filter({ inspectionType: v })}
               />
-            </View>
-          </View>
+            </FilterGroup>
+          </FilterGroups>
         }
       />
       <PagedList query={schedules} noun="inspections" setPage={(page) => setQuery({ page })}>
@@ -324,10 +318,5 @@ const styles = StyleSheet.create({
   cellOpen: { flexBasis: '100%' },
   head: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-start', gap: space.md },
   flex: { flex: 1, minWidth: 0, gap: 2 },
-  flex2: { flex: 2, minWidth: 0 },
   start: { alignSelf: 'flex-start' },
-  filters: { gap: space.md },
-  row: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
-  chipsWide: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.xl, rowGap: space.md },
-  chipGroup: { gap: space.xs },
 });
