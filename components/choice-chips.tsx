@@ -1,5 +1,6 @@
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import { FieldFrame } from '@/components/field-frame';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 
@@ -23,12 +24,7 @@ export function ChoiceChips<T extends string>({
   hideLabel?: boolean;
 }) {
   return (
-    <View style={styles.field}>
-      {hideLabel ? null : (
-        <Text variant="label" muted>
-          {label.toUpperCase()}
-        </Text>
-      )}
+    <FieldFrame label={label} hideLabel={hideLabel} error={error}>
       <View style={styles.row} role="radiogroup" accessibilityLabel={label}>
         {options.map((o) => {
           const on = o.value === value;
@@ -54,17 +50,11 @@ export function ChoiceChips<T extends string>({
           );
         })}
       </View>
-      {error ? (
-        <Text variant="small" color={colors.danger} accessibilityLiveRegion="polite">
-          {error}
-        </Text>
-      ) : null}
-    </View>
+    </FieldFrame>
   );
 }
 
 const styles = StyleSheet.create({
-  field: { gap: space.xs },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xs },
   chip: {
     minHeight: layout.touchTarget - 4,

@@ -2,6 +2,7 @@ import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import { FieldFrame } from '@/components/field-frame';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 
@@ -32,12 +33,7 @@ export function SelectField<T extends string>({
   const [open, setOpen] = useState(false);
   const current = options.find((o) => o.value === value);
   return (
-    <View style={styles.field}>
-      {compact ? null : (
-        <Text variant="label" muted>
-          {label.toUpperCase()}
-        </Text>
-      )}
+    <FieldFrame label={label} hideLabel={compact} error={error}>
       <Pressable
         role="button"
         accessibilityLabel={`${label}: ${current?.label ?? placeholder}`}
@@ -81,17 +77,11 @@ export function SelectField<T extends string>({
           })}
         </View>
       ) : null}
-      {error ? (
-        <Text variant="small" color={colors.danger} accessibilityLiveRegion="polite">
-          {error}
-        </Text>
-      ) : null}
-    </View>
+    </FieldFrame>
   );
 }
 
 const styles = StyleSheet.create({
-  field: { gap: space.xs, minWidth: 0 },
   button: {
     flexDirection: 'row',
     alignItems: 'center',
