@@ -231,6 +231,13 @@ export function useCompanyListQuery(query: QueryParams = {}, enabled = true) {
   });
 }
 
+/** The operator companies of a company list (inspection bodies own no rides), as choices. */
+export function operatorChoices(
+  companies: readonly { id: string; name: string; kind: string }[] | undefined,
+): { value: string; label: string }[] {
+  return (companies ?? []).filter((c) => c.kind === 'operator').map((c) => ({ value: c.id, label: c.name }));
+}
+
 export function useCompanyQuery(id: string | null) {
   return useQuery({
     queryKey: registryKeys.company(id ?? ''),

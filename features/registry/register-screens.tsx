@@ -18,6 +18,7 @@ import { ApiRequestError } from '@/features/api/client';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { Role, SessionUser } from '@/features/auth/schema';
 import {
+  operatorChoices,
   useCompanyListQuery,
   useCompanyQuery,
   useCompanySaveMutation,
@@ -49,6 +50,7 @@ import {
 } from '@/features/registry/schema';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { RideCard } from '@/features/rides/ride-card';
+import type { RideSummary } from '@/features/rides/schema';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 const PAGE_SIZE = 25;
@@ -163,6 +165,26 @@ function NotFound({ title, back }: { title: string; back: { href: string; label:
   );
 }
 
+/** The rides of a company or site under their count; the count waits for the list. */
+function RidesPane({
+  title,
+  page,
+}: {
+  title: string;
+  page: { total: number; rides: RideSummary[] } | undefined;
+}) {
+  return (
+    <>
+      <Text variant="label" muted>
+        {`${title} (${page?.total ?? '…'})`}
+      </Text>
+      {(page?.rides ?? []).map((r) => (
+        <RideCard key={r.id} ride={r} showOperator={false} link />
+      ))}
+    </>
+  );
+}
+
 function CompanyView({ id, role }: { id: string; role: Role }) {
   const company = useCompanyQuery(id);
   const rides = useRidePageQuery({ operatorId: id, pageSize: 100, sort: 'name' });
@@ -186,16 +208,7 @@ function CompanyView({ id, role }: { id: string; role: Role }) {
           }
         >
           <Panes
-            main={
-              <>
-                <Text variant="label" muted>
-                  {`RIDES (${rides.data?.total ?? '…'})`}
-                </Text>
-                {(rides.data?.rides ?? []).map((r) => (
-                  <RideCard key={r.id} ride={r} showOperator={false} link />
-                ))}
-              </>
-            }
+            main={<RidesPane title="RIDES" page={rides.data} />}
             side={
               <Card>
                 <Field label="Notices to" value={c.noticeEmails.join('\n') || '—'} />
@@ -314,9 +327,7 @@ function SitesList({ user }: { user: SessionUser }) {
               value={query.operatorId ?? ALL}
               options={[
                 { value: ALL, label: 'All operators' },
-                ...(companies.data?.companies ?? [])
-                  .filter((c) => c.kind === 'operator')
-                  .map((c) => ({ value: c.id, label: c.name })),
+                ...operatorChoices(companies.data?.companies),
               ]}
               onChange={(v) => setQuery({ operatorId: v === ALL ? undefined : v, page: undefined })}
             />
@@ -413,16 +424,7 @@ function SiteView({ id, role }: { id: string; role: Role }) {
           }
         >
           <Panes
-            main={
-              <>
-                <Text variant="label" muted>
-                  {`RIDES AT THIS SITE (${rides.data?.total ?? '…'})`}
-                </Text>
-                {(rides.data?.rides ?? []).map((r) => (
-                  <RideCard key={r.id} ride={r} showOperator={false} link />
-                ))}
-              </>
-            }
+            main={<RidesPane title="RIDES AT THIS SITE" page={rides.data} />}
             side={
               <Card>
                 <Field label="Address" value={s.address ?? '—'} />
@@ -447,9 +449,7 @@ function SiteEdit({ id }: { id: string | null }) {
   const site = useSiteQuery(id);
   const save = useSiteSaveMutation(id);
   const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' });
-  const operators = (companies.data?.companies ?? [])
-    .filter((c) => c.kind === 'operator')
-    .map((c) => ({ value: c.id, label: c.name }));
+  const operators = operatorChoices(companies.data?.companies);
   const form = (values: SiteFormInput) =>
     companies.data ? (
       <SiteForm

@@ -10,6 +10,7 @@ import { space } from '@/components/theme';
 import { ApiRequestError } from '@/features/api/client';
 import { RoleGate } from '@/features/auth/role-gate';
 import {
+  operatorChoices,
   useCompanyListQuery,
   useRideCreateMutation,
   useRideUpdateMutation,
@@ -29,9 +30,7 @@ const LOOKUP = { pageSize: 200, sort: 'name' } as const;
 function useRideFormOptions() {
   const companies = useCompanyListQuery(LOOKUP);
   const sites = useSiteListQuery(LOOKUP);
-  const operators: Option[] = (companies.data?.companies ?? [])
-    .filter((c) => c.kind === 'operator')
-    .map((c) => ({ value: c.id, label: c.name }));
+  const operators: Option[] = operatorChoices(companies.data?.companies);
   const siteOptions: Option[] = (sites.data?.sites ?? []).map((s) => ({
     value: s.id,
     label: s.name,

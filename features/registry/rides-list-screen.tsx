@@ -15,7 +15,12 @@ import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
-import { useCompanyListQuery, useRidePageQuery, useSiteListQuery } from '@/features/registry/api';
+import {
+  operatorChoices,
+  useCompanyListQuery,
+  useRidePageQuery,
+  useSiteListQuery,
+} from '@/features/registry/api';
 import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
@@ -87,9 +92,7 @@ function RidesList({ user }: { user: SessionUser }) {
   ];
   const operatorOptions = [
     { value: ALL, label: 'All operators' },
-    ...(companies.data?.companies ?? [])
-      .filter((c) => c.kind === 'operator')
-      .map((c) => ({ value: c.id, label: c.name })),
+    ...operatorChoices(companies.data?.companies),
   ];
 
   const selects = staff ? (
