@@ -28,6 +28,8 @@ async function main() {
         await page.getByRole('button', { name: 'Sign in' }).click();
         await page.waitForURL((url) => url.pathname !== '/sign-in');
         await page.waitForLoadState('networkidle');
+        // The inspector's home opens the on-device database first; give it a moment.
+        await page.waitForTimeout(1500);
         const home = new URL(page.url()).pathname.slice(1);
         await page.screenshot({ path: join(out, `${role}-${sizeName}-${home}.png`) });
         for (const path of paths) {
