@@ -6,33 +6,15 @@
 import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
 import { addReading, answerItem, draftProblems, newDraft, toRecord } from '@/features/inspections/draft';
 import type { Reading } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-data';
 import type { ChecklistTemplate } from '@/features/registry/schema';
+
+import { rodDesign } from './support/rod-design';
 
 const g = 9.80665;
 const m = 300;
 const L = 6;
 
-const design: DesignData = {
-  source: { document: 'Test rod', revision: 'A' },
-  bodies: [{ name: 'Rod' }],
-  parts: [{ kind: 'rod', body: 0, name: 'Rod', massKg: m, fromM: [0, 0], toM: [L, 0] }],
-  pivots: [
-    {
-      joint: 0,
-      name: 'Main pivot',
-      shear: 'double',
-      bearingLengthM: 0.05,
-      nominalDiameterM: 0.06,
-      minimumDiameterM: 0.058,
-      maxClearanceM: 0.0005,
-      maxForceN: 20_000,
-    },
-  ],
-  seats: [],
-  motion: [{ joint: 0, kind: 'constant', rpm: 6, maxRateRadS: 2 }],
-  rider: {},
-};
+const design = rodDesign(m, L);
 
 const reading = (patch: Partial<Reading>): Reading => ({
   id: '5f0e6c1e-3b7a-4c55-9f59-0c8f2d3b9a11',

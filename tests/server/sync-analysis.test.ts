@@ -13,7 +13,6 @@ import { randomUUID } from 'node:crypto';
 import { inspections } from '@/db/server/inspections';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import { ENGINE_VERSION } from '@/features/loads/engine';
-import type { DesignData } from '@/features/registry/design-data';
 import { findSessionUser } from '@/server/auth/service';
 import { createApp } from '@/server/app';
 import { loadConfig } from '@/server/config';
@@ -25,6 +24,7 @@ import { ingestBatch } from '@/server/sync/ingest';
 
 import { makeTempDir, makeTestServer, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
+import { rodDesign } from '../engine/support/rod-design';
 import { demoRide, makeRecord, otherReading, rpmToRadS, speedReading } from './sync-fixtures';
 
 let server: TestServer;
@@ -89,26 +89,7 @@ test('a measured speed gives the textbook peak pin force of a rod turning about 
   const m = 300;
   const L = 6;
   const g = 9.80665;
-  const rod: DesignData = {
-    source: { document: 'Test rod for the sync tests', revision: 'A' },
-    bodies: [{ name: 'Rod' }],
-    parts: [{ kind: 'rod', body: 0, name: 'Rod', massKg: m, fromM: [0, 0], toM: [L, 0] }],
-    pivots: [
-      {
-        joint: 0,
-        name: 'Main pivot',
-        shear: 'double',
-        bearingLengthM: 0.05,
-        nominalDiameterM: 0.06,
-        minimumDiameterM: 0.058,
-        maxClearanceM: 0.0005,
-        maxForceN: 20_000,
-      },
-    ],
-    seats: [],
-    motion: [{ joint: 0, kind: 'constant', rpm: 6, maxRateRadS: 2 }],
-    rider: {},
-  };
+  const rod = rodDesign(m, L, 'Test rod for the sync tests');
   const operatorCompanyId: string = (await api.admin.get(`/api/rides/${comet.id}`)).body.ride
     .operatorCompanyId;
   const created = await api.admin.post('/api/rides', {
