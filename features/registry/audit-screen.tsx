@@ -41,6 +41,8 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   design: 'Design data',
   checklist_template: 'Checklist',
   schedule: 'Schedule',
+  inspection: 'Inspection',
+  finding: 'Finding',
 };
 
 const actionSpec: Record<

@@ -323,7 +323,16 @@ export const designVersionParamsSchema = z.object({
 
 // ——— audit log ———
 
-export const auditEntities = ['company', 'site', 'ride', 'design', 'checklist_template', 'schedule'] as const;
+export const auditEntities = [
+  'company',
+  'site',
+  'ride',
+  'design',
+  'checklist_template',
+  'schedule',
+  'inspection',
+  'finding',
+] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;
 export const auditActions = ['create', 'update', 'delete'] as const;
@@ -517,7 +526,7 @@ export const dueStatusSchema = z.enum(dueStatuses);
 export type DueStatus = z.infer<typeof dueStatusSchema>;
 
 /** A calendar date, YYYY-MM-DD. */
-const calendarDate = () =>
+export const calendarDate = () =>
   z
     .string({ error: 'Required' })
     .trim()

@@ -46,7 +46,7 @@ export function dueStatusOf(type: keyof typeof dueWindowDays, next: string | nul
 }
 
 // The same two rules in SQL, for filtering and sorting whole lists in the database.
-const nextDueSql = sql`COALESCE(${inspectionSchedules.dueOn}, CASE WHEN ${inspectionSchedules.lastDoneOn} IS NOT NULL AND ${inspectionSchedules.intervalDays} IS NOT NULL THEN date(${inspectionSchedules.lastDoneOn}, '+' || ${inspectionSchedules.intervalDays} || ' days') END)`;
+export const nextDueSql = sql`COALESCE(${inspectionSchedules.dueOn}, CASE WHEN ${inspectionSchedules.lastDoneOn} IS NOT NULL AND ${inspectionSchedules.intervalDays} IS NOT NULL THEN date(${inspectionSchedules.lastDoneOn}, '+' || ${inspectionSchedules.intervalDays} || ' days') END)`;
 const windowSql = sql.raw(
   `CASE "inspection_schedules"."inspection_type" ${inspectionTypes.map((t) => `WHEN '${t}' THEN ${dueWindowDays[t]}`).join(' ')} END`,
 );

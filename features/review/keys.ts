@@ -1,0 +1,13 @@
+/** Query keys of the review desk; every query and mutation of the feature keys through these. */
+export const reviewKeys = {
+  all: ['review'] as const,
+  queues: () => [...reviewKeys.all, 'queue'] as const,
+  /** One page of the queue, keyed by its cleaned query. */
+  queue: (query: Record<string, unknown>) => [...reviewKeys.queues(), query] as const,
+  inspection: (id: string) => [...reviewKeys.all, 'inspection', id] as const,
+  /** The server's recomputed ride cycle of an inspection, for the charts. */
+  cycle: (id: string) => [...reviewKeys.inspection(id), 'cycle'] as const,
+  findings: (inspectionId: string) => [...reviewKeys.inspection(inspectionId), 'findings'] as const,
+  trail: (inspectionId: string) => [...reviewKeys.inspection(inspectionId), 'trail'] as const,
+  trends: (rideId: string) => [...reviewKeys.all, 'trends', rideId] as const,
+};
