@@ -7,10 +7,12 @@ import { adminUsersRouter } from '@/server/routes/admin-users';
 import { auditRouter } from '@/server/routes/audit';
 import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
+import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { loadsRouter } from '@/server/routes/loads';
 import { photosRouter } from '@/server/routes/photos';
 import { registerRouter } from '@/server/routes/register';
+import { reviewRouter } from '@/server/routes/review';
 import { ridesRouter } from '@/server/routes/rides';
 import { schedulesRouter } from '@/server/routes/schedules';
 import { syncRouter } from '@/server/routes/sync';
@@ -31,6 +33,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
+  router.use(reviewRouter(deps), findingsRouter(deps));
   router.use(apiNotFound);
   return router;
 }
