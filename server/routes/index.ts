@@ -10,6 +10,7 @@ import { designRouter } from '@/server/routes/design';
 import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { loadsRouter } from '@/server/routes/loads';
+import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
 import { registerRouter } from '@/server/routes/register';
 import { reviewRouter } from '@/server/routes/review';
@@ -33,7 +34,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
-  router.use(reviewRouter(deps), findingsRouter(deps));
+  router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(apiNotFound);
   return router;
 }
