@@ -3,6 +3,11 @@ import { defineConfig } from 'drizzle-kit';
 // The server's database only; the device keeps its own schema and migrations in another folder.
 export default defineConfig({
   dialect: 'sqlite',
-  schema: ['./db/server/schema.ts', './db/server/inspections.ts', './db/server/review.ts'],
+  schema: [
+    './db/server/schema.ts',
+    './db/server/inspections.ts',
+    './db/server/review.ts',
+    './db/server/notices.ts',
+  ],
   out: './drizzle/server',
 });

@@ -43,6 +43,8 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   schedule: 'Schedule',
   inspection: 'Inspection',
   finding: 'Finding',
+  notice: 'Notice',
+  corrective_action: 'Corrective action',
 };
 
 const actionSpec: Record<

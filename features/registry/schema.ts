@@ -332,6 +332,8 @@ export const auditEntities = [
   'schedule',
   'inspection',
   'finding',
+  'notice',
+  'corrective_action',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;
