@@ -1,0 +1,458 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { Controller, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import type { z } from 'zod';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { FormAlert, type FormProblem } from '@/components/form-alert';
+import { QueryState } from '@/components/query-state';
+import { type RideStatus, rideStatusLabel } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, radius, space } from '@/components/theme';
+import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { formatDateTime } from '@/features/registry/text';
+import {
+  type ListedFinding,
+  type ReviewState,
+  useCachedReview,
+  useCreateFinding,
+  useDecide,
+  useDeleteFinding,
+  useFindings,
+  useUpdateFinding,
+} from '@/features/review/decision-api';
+import { FindingForm, type FindingValues, type InspectionPhoto } from '@/features/review/finding-form';
+import { FindingsList } from '@/features/review/findings-list';
+import { RideStatusControl } from '@/features/review/ride-status-control';
+import { type DecisionInput, decisionInputSchema, severityInfo } from '@/features/review/schema';
+
+type Props = {
+  inspectionId: string;
+  rideId: string;
+  rideName: string;
+  rideStatus: 'in_service' | 'restricted' | 'out_of_service';
+  rideStatusReason: string | null;
+  reviewState: 'submitted' | 'approved' | 'returned';
+  reviewNote: string | null;
+  photos: { sha256: string; caption: string }[];
+};
+
+type Editor = { mode: 'new' } | { mode: 'edit'; finding: ListedFinding } | null;
+
+/**
+ * What the supervisor decides about one inspection: its findings, approval or return to the inspector,
+ * and the ride's status. Every change is saved at once through the API, which records it in the audit
+ * trail; once the inspection is approved the decision and the findings are shown read-only.
+ */
+export function DecisionPanel(props: Props) {
+  const { inspectionId, rideId, rideName, rideStatus, rideStatusReason, reviewState, photos } = props;
+  const findings = useFindings(inspectionId);
+  const editable = reviewState !== 'approved';
+  // Preselecting "out of service" remounts the status control with that choice (see the approve warning).
+  const [statusStart, setStatusStart] = useState<{ status: RideStatus; n: number } | null>(null);
+  // Kept here, not in the form: the decision shows at once (optimistic), which unmounts the form, and a
+  // refusal brings it back; the comment typed and the server's answer must survive both.
+  const decide = useDecide(inspectionId, rideId);
+  const [decisionProblem, setDecisionProblem] = useState<FormProblem | null>(null);
+  const [noteDraft, setNoteDraft] = useState('');
+  return (
+    <View style={styles.panel} accessibilityLabel="Decision panel">
+      <Card>
+        <SectionHeading>Review</SectionHeading>
+        <ReviewStateView {...props} saving={decide.isPending} />
+        {reviewState !== 'submitted' ? <FormAlert problem={decisionProblem} /> : null}
+      </Card>
+      <Card>
+        <SectionHeading>
+          {`Findings${findings.data ? ` (${findings.data.findings.length})` : ''}`}
+        </SectionHeading>
+        <QueryState query={findings}>
+          {(data) => (
+            <FindingsSection
+              inspectionId={inspectionId}
+              rideId={rideId}
+              findings={data.findings}
+              photos={photos}
+              editable={editable}
+            />
+          )}
+        </QueryState>
+      </Card>
+      {reviewState === 'submitted' ? (
+        <Card>
+          <SectionHeading>Decision</SectionHeading>
+          <DecisionForm
+            decide={decide}
+            problem={decisionProblem}
+            setProblem={setDecisionProblem}
+            note={noteDraft}
+            onNoteChange={setNoteDraft}
+            rideName={rideName}
+            rideStatus={rideStatus}
+            findings={findings.data?.findings ?? []}
+            onStopRide={() => setStatusStart((s) => ({ status: 'out_of_service', n: (s?.n ?? 0) + 1 }))}
+          />
+        </Card>
+      ) : null}
+      <Card>
+        <SectionHeading>Ride status</SectionHeading>
+        <RideStatusControl
+          key={statusStart ? `start-${statusStart.n}` : 'current'}
+          rideId={rideId}
+          inspectionId={inspectionId}
+          rideName={rideName}
+          status={rideStatus}
+          statusReason={rideStatusReason}
+          startWith={statusStart?.status}
+        />
+      </Card>
+    </View>
+  );
+}
+
+function SectionHeading({ children }: { children: string }) {
+  return (
+    <Text variant="label" muted role="heading" aria-level={2}>
+      {children.toUpperCase()}
+    </Text>
+  );
+}
+
+// ——— the review state ———
+
+const stateWords: Record<ReviewState, { title: string; glyph: string }> = {
+  submitted: { title: 'Waiting for a decision', glyph: '◷' },
+  approved: { title: 'Approved', glyph: '✓' },
+  returned: { title: 'Returned to the inspector', glyph: '↩' },
+};
+
+function ReviewStateView({ inspectionId, reviewState, reviewNote, saving }: Props & { saving: boolean }) {
+  const cached = useCachedReview(inspectionId);
+  const who = cached?.reviewedByName;
+  const when = cached?.reviewedAt;
+  const words = stateWords[reviewState];
+  const by =
+    reviewState !== 'submitted' && (who || when)
+      ? [who ? `by ${who}` : null, when ? formatDateTime(when) : null].filter(Boolean).join(', ')
+      : null;
+  return (
+    <View
+      style={StyleSheet.flatten([styles.state, reviewState === 'approved' && styles.stateApproved])}
+      accessibilityLabel={`Review: ${words.title}`}
+    >
+      <Text variant="heading">
+        {words.glyph} {words.title}
+        {by ? ` ${by}` : ''}
+      </Text>
+      {saving ? (
+        <Text variant="small" color={colors.focus} accessibilityLiveRegion="polite">
+          Saving the decision…
+        </Text>
+      ) : null}
+      {reviewState === 'submitted' ? (
+        <Text variant="small" muted>
+          Record the findings, then approve the inspection or return it to the inspector.
+        </Text>
+      ) : null}
+      {reviewNote ? (
+        <Text>
+          <Text variant="label" muted>
+            {reviewState === 'returned' ? 'COMMENT FOR THE INSPECTOR ' : 'NOTE '}
+          </Text>
+          {reviewNote}
+        </Text>
+      ) : null}
+      {reviewState === 'returned' ? (
+        <Text variant="small" muted>
+          The inspector sees this comment on the phone after the next sync, corrects the inspection and
+          submits it again.
+        </Text>
+      ) : null}
+      {reviewState === 'approved' ? (
+        <Text variant="small" muted>
+          The decision is final; the findings below are kept as they were approved.
+        </Text>
+      ) : null}
+    </View>
+  );
+}
+
+// ——— findings ———
+
+const CONFLICT =
+  'Someone else changed this finding while you were editing it, so your change was not saved. The list now shows their version: cancel, then open the finding again to edit it from there.';
+
+function problemText(err: unknown): string {
+  if (err instanceof OfflineError) return 'No connection to the server; nothing was changed.';
+  if (err instanceof ApiRequestError) return err.message;
+  return 'Something went wrong; nothing was changed.';
+}
+
+function FindingsSection({
+  inspectionId,
+  rideId,
+  findings,
+  photos,
+  editable,
+}: {
+  inspectionId: string;
+  rideId: string;
+  findings: ListedFinding[];
+  photos: readonly InspectionPhoto[];
+  editable: boolean;
+}) {
+  const create = useCreateFinding(inspectionId, rideId);
+  const update = useUpdateFinding(inspectionId);
+  const remove = useDeleteFinding(inspectionId);
+  const [editor, setEditor] = useState<Editor>(null);
+  const [problem, setProblem] = useState<string | null>(null);
+
+  const addNew = async (values: FindingValues) => {
+    await create.mutateAsync(values);
+    setEditor(null);
+  };
+  const saveEdit = (finding: ListedFinding) => async (values: FindingValues) => {
+    try {
+      await update.mutateAsync({ finding, patch: values });
+      setEditor(null);
+    } catch (err) {
+      if (err instanceof ApiRequestError && err.status === 409)
+        throw new ApiRequestError(409, err.code, CONFLICT, err.issues);
+      throw err;
+    }
+  };
+
+  const editing = editable && editor?.mode === 'edit' ? editor.finding : null;
+  return (
+    <View style={styles.section}>
+      {problem ? (
+        <View style={styles.problem} role="alert">
+          <Text color={colors.danger}>{problem}</Text>
+          <Button label="Dismiss" tone="quiet" onPress={() => setProblem(null)} />
+        </View>
+      ) : null}
+      <FindingsList
+        findings={findings}
+        photos={photos}
+        editable={editable}
+        editingId={editing?.id ?? null}
+        editor={
+          editing ? (
+            <FindingForm
+              finding={editing}
+              photos={photos}
+              onSubmit={saveEdit(editing)}
+              onCancel={() => setEditor(null)}
+            />
+          ) : null
+        }
+        onEdit={(finding) => {
+          setProblem(null);
+          setEditor({ mode: 'edit', finding });
+        }}
+        onDelete={(finding) => {
+          setProblem(null);
+          if (editor?.mode === 'edit' && editor.finding.id === finding.id) setEditor(null);
+          remove.mutate(finding, {
+            onError: (err) => setProblem(`Finding ${finding.number} was not deleted. ${problemText(err)}`),
+          });
+        }}
+      />
+      {editable && editor?.mode === 'new' ? (
+        <View style={styles.newForm}>
+          <FindingForm photos={photos} onSubmit={addNew} onCancel={() => setEditor(null)} />
+        </View>
+      ) : null}
+      {editable && editor === null ? (
+        <Button
+          label="Add finding"
+          tone="quiet"
+          onPress={() => {
+            setProblem(null);
+            setEditor({ mode: 'new' });
+          }}
+        />
+      ) : null}
+    </View>
+  );
+}
+
+// ——— approve or return ———
+
+type DecisionValues = z.output<typeof decisionInputSchema>;
+
+function DecisionForm({
+  decide,
+  problem,
+  setProblem,
+  note,
+  onNoteChange,
+  rideName,
+  rideStatus,
+  findings,
+  onStopRide,
+}: {
+  decide: ReturnType<typeof useDecide>;
+  problem: FormProblem | null;
+  setProblem: (problem: FormProblem | null) => void;
+  note: string;
+  onNoteChange: (note: string) => void;
+  rideName: string;
+  rideStatus: RideStatus;
+  findings: readonly ListedFinding[];
+  onStopRide: () => void;
+}) {
+  const [warning, setWarning] = useState(false);
+  const { control, handleSubmit, setValue, setError, clearErrors } = useForm<
+    DecisionInput,
+    unknown,
+    DecisionValues
+  >({ resolver: zodResolver(decisionInputSchema), defaultValues: { decision: 'approve', note } });
+
+  // Findings that forbid operation while the ride still runs: the supervisor is asked before approving.
+  const blocking = findings.filter(
+    (f) => f.state !== 'closed' && !severityInfo[f.severity].mayOperate && rideStatus === 'in_service',
+  );
+
+  const send = handleSubmit(async (values) => {
+    setProblem(null);
+    const body: DecisionInput = values.note
+      ? { decision: values.decision, note: values.note }
+      : { decision: values.decision };
+    try {
+      await decide.mutateAsync(body);
+      onNoteChange('');
+    } catch (err) {
+      const p = applyServerError(err, setError, fieldsOf(['note']));
+      setProblem(
+        err instanceof ApiRequestError && err.status === 409
+          ? {
+              ...p,
+              message: `${p.message} The inspection has been reloaded to show the decision that stands.`,
+            }
+          : p,
+      );
+    }
+  });
+
+  const approve = (confirmed: boolean) => {
+    clearErrors();
+    setValue('decision', 'approve');
+    if (blocking.length > 0 && !confirmed) {
+      setWarning(true);
+      return;
+    }
+    setWarning(false);
+    void send();
+  };
+  const giveBack = () => {
+    clearErrors();
+    setWarning(false);
+    setValue('decision', 'return');
+    void send();
+  };
+
+  return (
+    <View style={styles.section}>
+      <Controller
+        control={control}
+        name="note"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="Comment"
+            hint="Needed to return the inspection: tell the inspector what to correct. Optional when approving; it is kept with the approval."
+            value={field.value ?? ''}
+            onChangeText={(t) => {
+              field.onChange(t);
+              onNoteChange(t);
+            }}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            multiline
+            numberOfLines={3}
+            style={styles.note}
+          />
+        )}
+      />
+      {warning ? (
+        <View style={styles.warning} role="alert">
+          <Text variant="heading">▲ Set the ride out of service first?</Text>
+          <Text>
+            {blocking
+              .map((f) => `Finding ${f.number} (${severityInfo[f.severity].label.toLowerCase()})`)
+              .join(', ')}{' '}
+            {blocking.length === 1 ? 'says' : 'say'} the ride must not carry riders, but {rideName} is still{' '}
+            {rideStatusLabel(rideStatus).toLowerCase()}.
+          </Text>
+          <View style={styles.buttons}>
+            <Button
+              label="Set out of service"
+              tone="accent"
+              onPress={() => {
+                setWarning(false);
+                onStopRide();
+              }}
+            />
+            <Button label="Approve anyway" tone="quiet" onPress={() => approve(true)} />
+          </View>
+        </View>
+      ) : null}
+      <FormAlert problem={problem} />
+      <View style={styles.buttons}>
+        <Button
+          label="Approve inspection"
+          tone="accent"
+          busy={decide.isPending && decide.variables?.decision === 'approve'}
+          disabled={decide.isPending}
+          onPress={() => approve(false)}
+        />
+        <Button
+          label="Return to inspector"
+          tone="quiet"
+          busy={decide.isPending && decide.variables?.decision === 'return'}
+          disabled={decide.isPending}
+          onPress={giveBack}
+        />
+      </View>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  panel: { gap: space.md },
+  section: { gap: space.md },
+  state: {
+    gap: space.xs,
+    paddingLeft: space.md,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.border,
+  },
+  stateApproved: { borderLeftColor: colors.within },
+  problem: {
+    gap: space.sm,
+    padding: space.md,
+    borderRadius: radius.sm,
+    backgroundColor: colors.overSoft,
+  },
+  newForm: {
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 2,
+    borderColor: colors.base,
+  },
+  warning: {
+    gap: space.sm,
+    padding: space.md,
+    borderRadius: radius.sm,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.near,
+    backgroundColor: colors.nearSoft,
+  },
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  note: { minHeight: 72, textAlignVertical: 'top' },
+});

@@ -1,0 +1,185 @@
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { IconButton } from '@/components/icon-button';
+import { Text } from '@/components/text';
+import { colors, radius, space } from '@/components/theme';
+import { formatDate } from '@/features/registry/text';
+import type { ListedFinding } from '@/features/review/decision-api';
+import { type InspectionPhoto, photoName } from '@/features/review/finding-form';
+import type { FindingState } from '@/features/review/schema';
+import { SeverityMark } from '@/features/review/severity-mark';
+
+const stateLabel: Record<FindingState, string> = {
+  open: 'Open',
+  action_reported: 'Corrective action reported',
+  closed: 'Closed',
+};
+
+function todayIso(): string {
+  const d = new Date();
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+}
+
+/**
+ * The inspection's findings in number order. While the inspection is open for decisions each one can be
+ * edited (the editor takes its place) or deleted after a second press; rows the server has not yet
+ * confirmed say so and cannot be touched.
+ */
+export function FindingsList({
+  findings,
+  photos,
+  editable,
+  editingId,
+  editor,
+  onEdit,
+  onDelete,
+}: {
+  findings: readonly ListedFinding[];
+  photos: readonly InspectionPhoto[];
+  editable: boolean;
+  /** The finding whose editor is open, shown in place of its row. */
+  editingId: string | null;
+  editor: React.ReactNode;
+  onEdit: (finding: ListedFinding) => void;
+  onDelete: (finding: ListedFinding) => void;
+}) {
+  const [confirming, setConfirming] = useState<string | null>(null);
+  if (findings.length === 0)
+    return (
+      <Text muted accessibilityLabel="No findings">
+        No findings recorded for this inspection.
+      </Text>
+    );
+  const today = todayIso();
+  const sorted = [...findings].sort((a, b) => a.number - b.number);
+  return (
+    <View style={styles.list} role="list" accessibilityLabel="Findings">
+      {sorted.map((f) => {
+        if (f.id === editingId)
+          return (
+            <View key={f.id} style={styles.editing}>
+              {editor}
+            </View>
+          );
+        const pastDue = f.dueOn !== null && f.state !== 'closed' && f.dueOn < today;
+        return (
+          <View
+            key={f.id}
+            role="listitem"
+            accessibilityLabel={`Finding ${f.number}`}
+            style={StyleSheet.flatten([styles.row, f.saving && styles.saving])}
+          >
+            <View style={styles.head}>
+              <Text variant="figure" style={styles.number}>
+                {f.number}
+              </Text>
+              <SeverityMark severity={f.severity} compact />
+              {f.state !== 'open' ? (
+                <Text variant="label" muted>
+                  {stateLabel[f.state]}
+                </Text>
+              ) : null}
+              {f.saving ? (
+                <Text variant="label" color={colors.focus} accessibilityLiveRegion="polite">
+                  Saving…
+                </Text>
+              ) : null}
+              <View style={styles.spacer} />
+              {editable && !f.saving ? (
+                <View style={styles.actions}>
+                  <IconButton icon="edit-2" label={`Edit finding ${f.number}`} onPress={() => onEdit(f)} />
+                  <IconButton
+                    icon="trash-2"
+                    tone="danger"
+                    label={`Delete finding ${f.number}`}
+                    onPress={() => setConfirming(f.id)}
+                  />
+                </View>
+              ) : null}
+            </View>
+            <Text>{f.description}</Text>
+            {f.ruleRef ? <Detail label="Breaches" value={f.ruleRef} /> : null}
+            {f.requiredAction ? <Detail label="Required action" value={f.requiredAction} /> : null}
+            {f.dueOn ? (
+              <Detail
+                label="Due"
+                value={pastDue ? `${formatDate(f.dueOn)} — past due` : formatDate(f.dueOn)}
+                color={pastDue ? colors.danger : undefined}
+              />
+            ) : null}
+            {f.photoShas.length > 0 ? (
+              <Detail label="Photos" value={f.photoShas.map((sha) => photoName(photos, sha)).join(' · ')} />
+            ) : null}
+            {f.stateNote ? <Detail label="Comment" value={f.stateNote} /> : null}
+            {confirming === f.id && editable && !f.saving ? (
+              <View style={styles.confirm} role="alert">
+                <Text variant="heading">Delete finding {f.number}?</Text>
+                <Text variant="small" muted>
+                  It is removed from the inspection; the audit trail keeps a record of it.
+                </Text>
+                <View style={styles.confirmButtons}>
+                  <Button
+                    label="Delete"
+                    tone="danger"
+                    accessibilityLabel={`Confirm deleting finding ${f.number}`}
+                    onPress={() => {
+                      setConfirming(null);
+                      onDelete(f);
+                    }}
+                  />
+                  <Button label="Keep it" tone="quiet" onPress={() => setConfirming(null)} />
+                </View>
+              </View>
+            ) : null}
+          </View>
+        );
+      })}
+    </View>
+  );
+}
+
+function Detail({ label, value, color }: { label: string; value: string; color?: string }) {
+  return (
+    <Text variant="small" color={color}>
+      <Text variant="label" muted>
+        {label.toUpperCase()}{' '}
+      </Text>
+      {value}
+    </Text>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.sm },
+  row: {
+    gap: space.xs,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  saving: { borderStyle: 'dashed', borderColor: colors.focus },
+  editing: {
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 2,
+    borderColor: colors.base,
+    backgroundColor: colors.surface,
+  },
+  head: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
+  number: { minWidth: 24 },
+  spacer: { flexGrow: 1 },
+  actions: { flexDirection: 'row', gap: space.xs },
+  confirm: {
+    marginTop: space.xs,
+    padding: space.md,
+    gap: space.sm,
+    borderRadius: radius.sm,
+    backgroundColor: colors.overSoft,
+  },
+  confirmButtons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+});
