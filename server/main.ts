@@ -7,6 +7,7 @@ import { createApp } from '@/server/app';
 import { ConfigError, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
 import { createLogger, type Logger } from '@/server/logger';
+import { ensureQueueFresh, queueToday } from '@/server/review/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 
 export type StartOptions = {
@@ -40,6 +41,8 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
       const result = await seedDemoData(database.db, config);
       if (result === 'seeded') logger.info('seeded the demo scenario (password: pivotwatch-demo)');
     }
+    // The review queue is built before the first request, so no supervisor waits for a full rebuild.
+    ensureQueueFresh(database.db, queueToday());
   } catch (error) {
     database.close();
     throw error;

@@ -1,12 +1,13 @@
 import { and, asc, count, eq, or, sql } from 'drizzle-orm';
 
-import { companies, users } from '@/db/server/schema';
+import { companies, rides, users } from '@/db/server/schema';
 import type { Company, CompanyInput } from '@/features/registry/schema';
 import { companyListQuerySchema, companyPatchSchema } from '@/features/registry/schema';
 import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 import type { z } from 'zod';
 
 type ListQuery = z.output<typeof companyListQuerySchema>;
@@ -136,6 +137,16 @@ export function updateCompany(db: Db, userId: string, id: string, patch: Patch):
       before,
       after,
     });
+    // The review queue shows (and searches) the operator's name on each of its rides' items.
+    if (after.name !== before.name) {
+      const rideIds = tx
+        .select({ id: rides.id })
+        .from(rides)
+        .where(eq(rides.operatorCompanyId, id))
+        .all()
+        .map((r) => r.id);
+      refreshQueue(tx, queueDay(db), rideIds);
+    }
     return after;
   });
 }

@@ -9,6 +9,7 @@ import { recordAudit } from '@/server/registry/audit';
 import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { assertSite } from '@/server/registry/sites';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 const rideListColumns = {
   id: rides.id,
@@ -156,6 +157,7 @@ export function createRide(db: Db, userId: string, input: RideInput, now: Date):
       summary: `Ride ${ride.name} added`,
       after: ride,
     });
+    refreshQueue(tx, queueDay(db, now), [id]);
     return ride;
   });
 }
@@ -202,6 +204,8 @@ export function updateRide(db: Db, userId: string, id: string, patch: RidePatch,
       before,
       after,
     });
+    // Name, class, status, site and operator are all shown and filtered on in the review queue.
+    refreshQueue(tx, queueDay(db, now), [id]);
     return after;
   });
 }
@@ -247,5 +251,6 @@ export function deleteRide(db: Db, userId: string, id: string, guards: RideDelet
       summary: `Ride ${before.name} removed`,
       before,
     });
+    refreshQueue(tx, queueDay(db), [id]);
   });
 }

@@ -17,6 +17,7 @@ import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { mustFindRide } from '@/server/registry/rides';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 const DAY_MS = 86_400_000;
 
@@ -234,6 +235,7 @@ export function createSchedule(db: Db, userId: string, input: ScheduleInput, now
       summary: `${summaryOf(schedule)} added`,
       after: schedule,
     });
+    refreshQueue(tx, queueDay(db, now), [input.rideId]);
     return schedule;
   });
 }
@@ -276,6 +278,7 @@ export function updateSchedule(
       before,
       after,
     });
+    refreshQueue(tx, queueDay(db, now), [after.rideId]);
     return after;
   });
 }
@@ -293,6 +296,7 @@ export function deleteSchedule(db: Db, userId: string, id: string, now: Date): v
       summary: `${summaryOf(before)} removed`,
       before,
     });
+    refreshQueue(tx, queueDay(db, now), [before.rideId]);
   });
 }
 

@@ -1,7 +1,7 @@
 import { and, asc, count, eq, or, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 
-import { companies, sites } from '@/db/server/schema';
+import { companies, rides, sites } from '@/db/server/schema';
 import type { Site, SiteInput } from '@/features/registry/schema';
 import { siteListQuerySchema, sitePatchSchema } from '@/features/registry/schema';
 import type { Db } from '@/server/db';
@@ -9,6 +9,7 @@ import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 type ListQuery = z.output<typeof siteListQuerySchema>;
 type Patch = z.output<typeof sitePatchSchema>;
@@ -127,9 +128,19 @@ export function updateSite(db: Db, userId: string, id: string, patch: Patch): Si
       before,
       after,
     });
+    // The review queue shows (and searches) the site's name on each of its rides' items.
+    if (after.name !== before.name) refreshQueue(tx, queueDay(db), ridesOfSite(tx, id));
     return after;
   });
 }
+
+const ridesOfSite = (db: Pick<Db, 'select'>, siteId: string) =>
+  db
+    .select({ id: rides.id })
+    .from(rides)
+    .where(eq(rides.siteId, siteId))
+    .all()
+    .map((r) => r.id);
 
 /** A site with rides on it stays: move the rides (or clear their site) first. */
 export function deleteSite(db: Db, userId: string, id: string): void {

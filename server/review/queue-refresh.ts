@@ -21,12 +21,21 @@ type Tx = Pick<Db, 'run'>;
 /** Today as the queue sees it: the UTC calendar date. */
 export const queueToday = (now: Date = new Date()) => now.toISOString().slice(0, 10);
 
+let generation = 0;
+
+/**
+ * Bumped by every refresh (even one whose transaction then rolls back: a needless bump only costs a
+ * recount), so readers may keep figures derived from the queue for as long as it stays the same.
+ */
+export const queueGeneration = (): number => generation;
+
 /**
  * Recomputes the queue rows of the given rides (all rides when `rideIds` is omitted) for `today`
  * (YYYY-MM-DD). Idempotent; cheap for a few rides, a second or so for tens of thousands.
  */
 export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[]): void {
   if (rideIds && rideIds.length === 0) return;
+  generation++;
   const ids = rideIds ? JSON.stringify([...new Set(rideIds)]) : null;
   const onlyRides = (column: SQL): SQL =>
     ids === null ? sql`1` : sql`${column} IN (SELECT value FROM json_each(${ids}))`;
@@ -69,7 +78,9 @@ export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[])
         WHEN p.n > 0 THEN 4
         ELSE 5
       END,
-      i.submitted_at, i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
+      -- Phones may send a local offset; in UTC every item's date sorts and compares as text.
+      COALESCE(strftime('%Y-%m-%dT%H:%M:%fZ', i.submitted_at), i.submitted_at),
+      i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name)
     FROM pending i
       JOIN ${rides} r ON r.id = i.ride_id
@@ -97,6 +108,12 @@ export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[])
 }
 
 const sweptOn = new WeakMap<object, string>();
+
+/**
+ * The day to refresh a few rides for, from a write path: the day the whole queue was last rebuilt for, so
+ * every row is judged against the same date (a pinned test clock included); before any rebuild, today.
+ */
+export const queueDay = (db: Db, now: Date = new Date()): string => sweptOn.get(db) ?? queueToday(now);
 
 /** Rebuilds the whole queue the first time it is read on a new calendar day (and after start-up). */
 export function ensureQueueFresh(db: Db, today: string): void {

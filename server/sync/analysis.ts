@@ -13,6 +13,7 @@ import type { InspectionRecord } from '@/features/inspections/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 import { isOpen } from '@/server/sync/sqlite-client';
 
 /** The phone analyses with the function's default sampling; the server must use the same to compare. */
@@ -59,7 +60,11 @@ export function summariseAnalysis(
 /** Analyses one inspection if it still needs it; false when there was nothing to do. */
 export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean {
   const row = db
-    .select({ record: inspections.record, designVersionId: inspections.designVersionId })
+    .select({
+      record: inspections.record,
+      designVersionId: inspections.designVersionId,
+      rideId: inspections.rideId,
+    })
     .from(inspections)
     .where(eq(inspections.id, id))
     .get();
@@ -86,18 +91,22 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
       note = `The load check could not be made with these readings and design data: ${detail}`;
     }
   }
-  // Only the first analysis counts; a second run (start-up sweep racing a push) changes nothing.
-  const changed = db
-    .update(inspections)
-    .set({
-      analysis,
-      analysisNote: note,
-      analysisStatus: analysis?.status ?? null,
-      analysedAt: now.toISOString(),
-    })
-    .where(and(eq(inspections.id, id), isNull(inspections.analysedAt)))
-    .run();
-  return changed.changes > 0;
+  // Only the first analysis counts; a second run (start-up sweep racing a push) changes nothing. The
+  // status decides the inspection's place in the review queue, which moves with it.
+  return db.transaction((tx) => {
+    const changed = tx
+      .update(inspections)
+      .set({
+        analysis,
+        analysisNote: note,
+        analysisStatus: analysis?.status ?? null,
+        analysedAt: now.toISOString(),
+      })
+      .where(and(eq(inspections.id, id), isNull(inspections.analysedAt)))
+      .run();
+    if (changed.changes > 0) refreshQueue(tx, queueDay(db, now), [row.rideId]);
+    return changed.changes > 0;
+  });
 }
 
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
