@@ -1,17 +1,18 @@
 /**
  * Reading accepted inspections back: one with everything (record, readings, photos and whether their
- * bytes arrived, the server's analysis, review state), or a page of summaries. Staff read all; an
+ * bytes arrived, the server's analysis, review state and findings), or a page of summaries. Staff read all; an
  * inspector reads only their own, and another's inspection answers the same 404 as a missing one.
  */
 import { and, asc, count, desc, eq, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { inspectionPhotos, inspectionReadings, inspections, photos } from '@/db/server/inspections';
-import { rides, users } from '@/db/server/schema';
+import { designVersions, rides, users } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { offsetOf } from '@/server/registry/query';
+import { listFindings } from '@/server/review/findings';
 
 const reviewer = alias(users, 'reviewer');
 
@@ -91,12 +92,15 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
       record: inspections.record,
       analysis: inspections.analysis,
       analysisNote: inspections.analysisNote,
+      /** The number of the design-data version resolved at receipt (null without design data). */
+      designVersion: designVersions.version,
       reviewedByName: reviewer.name,
       reviewNote: inspections.reviewNote,
     })
     .from(inspections)
     .innerJoin(rides, eq(rides.id, inspections.rideId))
     .innerJoin(users, eq(users.id, inspections.inspectorId))
+    .leftJoin(designVersions, eq(designVersions.id, inspections.designVersionId))
     .leftJoin(reviewer, eq(reviewer.id, inspections.reviewedBy))
     .where(and(eq(inspections.id, id), ownOnly(user)))
     .get();
@@ -152,6 +156,7 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
     readings,
     photos: photoRefs,
     amendedBy,
+    findings: listFindings(db, id),
   };
 }
 

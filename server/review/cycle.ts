@@ -1,0 +1,54 @@
+/**
+ * The ride cycle behind an inspection's load check, recomputed on request for the review desk's charts:
+ * the stored analysis keeps only peaks and statuses, the whole cycle is cheap to compute again from the
+ * same design-data version and readings. Answered in exactly the shape of POST /api/loads/cycle, so the
+ * calculator's result view draws it.
+ */
+import { eq } from 'drizzle-orm';
+
+import { inspections } from '@/db/server/inspections';
+import { designVersions } from '@/db/server/schema';
+import { analyseInspection } from '@/features/inspections/analysis';
+import { cycleResultToJson, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
+import type { CycleResponse } from '@/features/loads/schema';
+import type { Db } from '@/server/db';
+import { HttpError, notFound } from '@/server/http/errors';
+import type { InspectionHead } from '@/server/review/findings';
+import { ANALYSIS_SAMPLES } from '@/server/sync/analysis';
+
+export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHead): CycleResponse {
+  const row = db
+    .select({
+      record: inspections.record,
+      analysis: inspections.analysis,
+      designVersionId: inspections.designVersionId,
+    })
+    .from(inspections)
+    .where(eq(inspections.id, inspection.id))
+    .get();
+  // The version the stored analysis used, else the one resolved when the inspection arrived.
+  const designId = row?.analysis?.designVersionId ?? row?.designVersionId ?? null;
+  const design = designId
+    ? db
+        .select({ data: designVersions.data })
+        .from(designVersions)
+        .where(eq(designVersions.id, designId))
+        .get()
+    : undefined;
+  if (!row || !design)
+    throw notFound(
+      'This inspection has no design data (the ride had none when it arrived), so there is no ride cycle to show.',
+    );
+  let result;
+  try {
+    result = analyseInspection(design.data, row.record.readings, ANALYSIS_SAMPLES);
+  } catch (err) {
+    const detail = err instanceof Error ? err.message : String(err);
+    throw new HttpError(
+      422,
+      'analysis_failed',
+      `The ride cycle could not be computed from these readings and design data: ${detail}`,
+    );
+  }
+  return { engineVersion: ENGINE_VERSION, assumptions: ENGINE_ASSUMPTIONS, ...cycleResultToJson(result) };
+}

@@ -1,0 +1,55 @@
+/**
+ * An inspection's trail for the review desk: what was decided on it and on its findings, and what changed
+ * on its ride since it was submitted (status, design data, schedules), newest first, in the audit log's
+ * own shape.
+ */
+import { and, desc, eq, gte, notInArray, or, sql } from 'drizzle-orm';
+
+import { auditLog, users } from '@/db/server/schema';
+import type { AuditEntry } from '@/features/registry/schema';
+import type { Db } from '@/server/db';
+import { auditRowOrder } from '@/server/registry/audit-query';
+import type { InspectionHead } from '@/server/review/findings';
+
+/** Far more than one inspection's decisions and a ride's changes over its review period. */
+export const TRAIL_LIMIT = 500;
+
+export function inspectionTrail(db: Pick<Db, 'select'>, inspection: InspectionHead): AuditEntry[] {
+  // The phone may send its time with an offset; the audit log is in UTC.
+  const submittedAt = new Date(inspection.submittedAt).toISOString();
+  return db
+    .select({
+      id: auditLog.id,
+      at: auditLog.at,
+      userId: auditLog.userId,
+      userName: users.name,
+      entity: auditLog.entity,
+      entityId: auditLog.entityId,
+      action: auditLog.action,
+      rideId: auditLog.rideId,
+      summary: auditLog.summary,
+      before: auditLog.before,
+      after: auditLog.after,
+    })
+    .from(auditLog)
+    .leftJoin(users, eq(users.id, auditLog.userId))
+    .where(
+      or(
+        and(eq(auditLog.entity, 'inspection'), eq(auditLog.entityId, inspection.id)),
+        // A finding's entries carry its inspection in the record they keep (deleted ones included).
+        and(
+          eq(auditLog.rideId, inspection.rideId),
+          eq(auditLog.entity, 'finding'),
+          sql`json_extract(coalesce(${auditLog.after}, ${auditLog.before}), '$.inspectionId') = ${inspection.id}`,
+        ),
+        and(
+          eq(auditLog.rideId, inspection.rideId),
+          notInArray(auditLog.entity, ['inspection', 'finding']),
+          gte(auditLog.at, submittedAt),
+        ),
+      ),
+    )
+    .orderBy(desc(auditLog.at), desc(auditRowOrder))
+    .limit(TRAIL_LIMIT)
+    .all();
+}
