@@ -110,6 +110,10 @@ export async function startFakeSmtp(opts: FakeSmtpOptions): Promise<FakeSmtp> {
       }
       callback();
     },
+    onClose: (session) => {
+      // A transaction given up before DATA (a refused RCPT, a reset) leaves its fault here.
+      for (const key of active.keys()) if (key.startsWith(`${session.id}:`)) active.delete(key);
+    },
     onData: (stream, session, callback) => {
       const key = tx(session);
       const fault = active.get(key);
