@@ -24,9 +24,38 @@ export const pulledAssignmentSchema = z.looseObject({
 });
 export type PulledAssignment = z.infer<typeof pulledAssignmentSchema>;
 
-/** A supervisor's decision on one of this inspector's submitted inspections. */
+/**
+ * A finding the supervisor recorded on the inspection. `severity` is one of `findingSeverities` and
+ * `state` one of `findingStates` (features/review/schema.ts), kept as plain strings so a value added by a
+ * newer server is still stored and shown as sent.
+ */
+export const pulledDecisionFindingSchema = z.looseObject({
+  id: z.string().optional(),
+  number: z.number().int(),
+  severity: z.string(),
+  description: z.string(),
+  requiredAction: z.string().nullable().optional(),
+  /** YYYY-MM-DD. */
+  dueOn: z.string().nullable().optional(),
+  state: z.string().optional(),
+});
+export type PulledDecisionFinding = z.infer<typeof pulledDecisionFindingSchema>;
+
+/**
+ * A supervisor's decision on one of this inspector's submitted inspections, sent again whenever it or one
+ * of its findings changes. Only the id is required; whatever else a server sends is kept.
+ */
 export const pulledDecisionSchema = z.looseObject({
   inspectionId: z.string().min(1),
+  rideId: z.string().optional(),
+  /** `approved` or `returned`. */
+  state: z.string().optional(),
+  /** The supervisor's comment; a returned inspection always has one. */
+  note: z.string().nullable().optional(),
+  decidedAt: z.string().optional(),
+  decidedByName: z.string().nullable().optional(),
+  /** In number order; absent from servers older than the review desk. */
+  findings: z.array(pulledDecisionFindingSchema).optional(),
 });
 export type PulledDecision = z.infer<typeof pulledDecisionSchema>;
 

@@ -16,7 +16,7 @@ import { conflict } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { dateOf, updateSchedule } from '@/server/registry/schedules';
 import { mustSeeInspection, type InspectionHead } from '@/server/review/findings';
-import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
 
@@ -94,7 +94,7 @@ export function decideInspection(
         updateSchedule(db, user.id, schedule.id, { lastDoneOn: doneOn }, now);
     }
 
-    refreshQueue(tx, queueToday(now), [before.rideId]);
+    refreshQueue(tx, queueDay(db, now), [before.rideId]);
     return {
       inspectionId: after.id,
       reviewState: after.reviewState,

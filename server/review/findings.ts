@@ -22,7 +22,7 @@ import {
 import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
-import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 type Reader = Pick<Db, 'select'>;
 type FindingInput = z.output<typeof findingInputSchema>;
@@ -235,7 +235,7 @@ export function createFinding(
       summary: `${inspection.rideName}: finding ${number} added (${label(after)})`,
       after,
     });
-    refreshQueue(tx, queueToday(now), [inspection.rideId]);
+    refreshQueue(tx, queueDay(db, now), [inspection.rideId]);
     return after;
   });
 }
@@ -284,7 +284,7 @@ export function updateFinding(
       before,
       after,
     });
-    refreshQueue(tx, queueToday(now), [inspection.rideId]);
+    refreshQueue(tx, queueDay(db, now), [inspection.rideId]);
     return after;
   });
 }
@@ -304,6 +304,6 @@ export function deleteFinding(db: Db, user: SessionUser, id: string, now: Date):
       summary: `${inspection.rideName}: finding ${before.number} removed`,
       before,
     });
-    refreshQueue(tx, queueToday(now), [inspection.rideId]);
+    refreshQueue(tx, queueDay(db, now), [inspection.rideId]);
   });
 }

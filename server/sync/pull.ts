@@ -9,9 +9,10 @@
  * after it is sent on the next pull instead of lost. The phone stores everything by id, so what the
  * overlap sends twice is harmless.
  */
-import { and, eq, gte, inArray, isNotNull, ne, or } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
+import { findings } from '@/db/server/review';
 import {
   auditLog,
   checklistTemplates,
@@ -22,7 +23,7 @@ import {
 } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
 import type { RideSummary } from '@/features/rides/schema';
-import type { PullResponse } from '@/features/sync/pull-schema';
+import type { PulledDecisionFinding, PullResponse } from '@/features/sync/pull-schema';
 import { companyScope } from '@/server/auth/scope';
 import type { Db } from '@/server/db';
 import { HttpError } from '@/server/http/errors';
@@ -59,6 +60,8 @@ export type Decision = {
   note: string | null;
   decidedAt: string;
   decidedByName: string | null;
+  /** The supervisor's findings on the inspection, in number order. */
+  findings: PulledDecisionFinding[];
 };
 
 /**
@@ -207,7 +210,25 @@ export function buildPull(
     const removedAssignments = [...audited('schedule')].filter((id) => !mine.has(id));
 
     // ——— decisions on the caller's inspections ———
-    const decisions: Decision[] = tx
+    // A decision is sent again when it, or one of its findings, changed since the cursor. The audit log
+    // has every such change (a finding's entry keeps its inspection id, deleted findings included).
+    const touched =
+      since === null
+        ? []
+        : [
+            ...audited('inspection'),
+            ...tx
+              .select({
+                id: sql<
+                  string | null
+                >`json_extract(coalesce(${auditLog.after}, ${auditLog.before}), '$.inspectionId')`,
+              })
+              .from(auditLog)
+              .where(and(eq(auditLog.entity, 'finding'), gte(auditLog.at, since)))
+              .all()
+              .flatMap((r) => (r.id ? [r.id] : [])),
+          ];
+    const decisionRows = tx
       .select({
         inspectionId: inspections.id,
         rideId: inspections.rideId,
@@ -223,11 +244,41 @@ export function buildPull(
           eq(inspections.inspectorId, user.id),
           ne(inspections.reviewState, 'submitted'),
           isNotNull(inspections.reviewedAt),
-          since === null ? undefined : gte(inspections.reviewedAt, since),
+          since === null
+            ? undefined
+            : or(
+                gte(inspections.reviewedAt, since),
+                touched.length ? inArray(inspections.id, [...new Set(touched)]) : undefined,
+              ),
         ),
       )
       .all()
       .flatMap((d) => (d.decidedAt === null ? [] : [{ ...d, decidedAt: d.decidedAt }]));
+    const findingsOf = new Map<string, PulledDecisionFinding[]>();
+    if (decisionRows.length)
+      for (const { inspectionId, ...f } of tx
+        .select({
+          inspectionId: findings.inspectionId,
+          id: findings.id,
+          number: findings.number,
+          severity: findings.severity,
+          description: findings.description,
+          requiredAction: findings.requiredAction,
+          dueOn: findings.dueOn,
+          state: findings.state,
+        })
+        .from(findings)
+        // One parameter however many decisions a first pull carries.
+        .where(
+          sql`${findings.inspectionId} IN (SELECT value FROM json_each(${JSON.stringify(decisionRows.map((d) => d.inspectionId))}))`,
+        )
+        .orderBy(asc(findings.inspectionId), asc(findings.number))
+        .all())
+        findingsOf.set(inspectionId, [...(findingsOf.get(inspectionId) ?? []), f]);
+    const decisions: Decision[] = decisionRows.map((d) => ({
+      ...d,
+      findings: findingsOf.get(d.inspectionId) ?? [],
+    }));
 
     const removed = {
       ...(removedRides.length ? { rides: removedRides } : {}),
