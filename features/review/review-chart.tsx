@@ -1,0 +1,298 @@
+import { scaleLinear } from 'd3-scale';
+import { line } from 'd3-shape';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+import Svg, { Circle, G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+
+import { Text } from '@/components/text';
+import { colors, fonts, space } from '@/components/theme';
+
+/** A line; a null or NaN y leaves a gap (e.g. where an angle wraps from 360° back to 0°). */
+export type ReviewSeries = {
+  label: string;
+  x: readonly number[];
+  y: readonly (number | null)[];
+  color: string;
+  dashed?: boolean;
+  /** Draw each point as a dot too (few points, as in trends). */
+  dots?: boolean;
+};
+
+/** A dashed, labelled horizontal line: a limit never rests on colour alone. */
+export type ReviewLimit = { label: string; y: number; color?: string };
+
+/** The allowed range between two limits, tinted, with each side drawn as a limit line. */
+export type ReviewBand = { min?: { label: string; y: number }; max?: { label: string; y: number } };
+
+type Props = {
+  series: ReviewSeries[];
+  limits?: ReviewLimit[];
+  band?: ReviewBand;
+  /** A vertical marker, e.g. the inspection being reviewed among its ride's earlier ones. */
+  marker?: { x: number; label: string };
+  xLabel: string;
+  yLabel: string;
+  height?: number;
+  xDomain?: [number, number];
+  xTicks?: number[];
+  xFormat?: (v: number) => string;
+  /** Include 0 on the y axis (loads); off for values that drift near a large one (pin diameters). */
+  zeroBased?: boolean;
+  /** Read instead of the drawing. */
+  summary: string;
+};
+
+const M = { top: 14, right: 16, bottom: 40, left: 60 };
+
+/**
+ * The review desk's chart: d3 scales and paths drawn with react-native-svg, like components/line-chart,
+ * plus what the desk needs there: gaps in a line, a tinted limit band, dots and a marker.
+ */
+export function ReviewChart({
+  series,
+  limits = [],
+  band,
+  marker,
+  xLabel,
+  yLabel,
+  height = 220,
+  xDomain,
+  xTicks,
+  xFormat = compact,
+  zeroBased = true,
+  summary,
+}: Props) {
+  const [width, setWidth] = useState(0);
+  const finite = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
+  const xs = series.flatMap((s) => s.x.filter(finite));
+  const bandYs = [band?.min?.y, band?.max?.y].filter(finite);
+  const ys = [...series.flatMap((s) => s.y.filter(finite)), ...limits.map((l) => l.y), ...bandYs];
+  const xExtent = xDomain ?? spread(Math.min(...xs), Math.max(...xs));
+  const [lo, hi] = spread(Math.min(...ys), Math.max(...ys));
+  const pad = (hi - lo) * 0.08;
+  const yDomain: [number, number] = zeroBased
+    ? [Math.min(0, lo), Math.max(0, hi) + pad]
+    : [lo - pad, hi + pad];
+  const x = scaleLinear()
+    .domain(xExtent)
+    .range([M.left, Math.max(M.left + 10, width - M.right)]);
+  const y = scaleLinear()
+    .domain(yDomain)
+    .nice()
+    .range([height - M.bottom, M.top]);
+  const plotRight = width - M.right;
+
+  return (
+    <View
+      style={styles.wrap}
+      onLayout={(e) => setWidth(e.nativeEvent.layout.width)}
+      accessibilityLabel={summary}
+      role="img"
+    >
+      {width > 0 ? (
+        <Svg width={width} height={height}>
+          <Rect
+            x={M.left}
+            y={M.top}
+            width={plotRight - M.left}
+            height={height - M.top - M.bottom}
+            fill={colors.surface}
+          />
+          {band ? (
+            <Rect
+              x={M.left}
+              width={plotRight - M.left}
+              y={y(band.max?.y ?? yDomain[1])}
+              height={Math.max(0, y(band.min?.y ?? yDomain[0]) - y(band.max?.y ?? yDomain[1]))}
+              fill={colors.withinSoft}
+            />
+          ) : null}
+          {y.ticks(5).map((t) => (
+            <G key={`y${t}`}>
+              <Line x1={M.left} x2={plotRight} y1={y(t)} y2={y(t)} stroke={colors.surfaceSunk} />
+              <SvgText
+                x={M.left - 6}
+                y={y(t) + 4}
+                fontSize={11}
+                fontFamily={fonts.mono}
+                fill={colors.textMuted}
+                textAnchor="end"
+              >
+                {compact(t)}
+              </SvgText>
+            </G>
+          ))}
+          {(xTicks ?? x.ticks(width < 420 ? 4 : 6)).map((t) => (
+            <G key={`x${t}`}>
+              <Line x1={x(t)} x2={x(t)} y1={M.top} y2={height - M.bottom} stroke={colors.surfaceSunk} />
+              <SvgText
+                x={x(t)}
+                y={height - M.bottom + 16}
+                fontSize={11}
+                fontFamily={fonts.mono}
+                fill={colors.textMuted}
+                textAnchor="middle"
+              >
+                {xFormat(t)}
+              </SvgText>
+            </G>
+          ))}
+          {yDomain[0] < 0 ? (
+            <Line x1={M.left} x2={plotRight} y1={y(0)} y2={y(0)} stroke={colors.border} />
+          ) : null}
+          {marker ? (
+            <G>
+              <Line
+                x1={x(marker.x)}
+                x2={x(marker.x)}
+                y1={M.top}
+                y2={height - M.bottom}
+                stroke={colors.accent}
+                strokeWidth={1.5}
+              />
+              <SvgText
+                x={x(marker.x) + (x(marker.x) > width / 2 ? -4 : 4)}
+                y={M.top + 10}
+                fontSize={11}
+                fontFamily={fonts.semibold}
+                fill={colors.accent}
+                textAnchor={x(marker.x) > width / 2 ? 'end' : 'start'}
+              >
+                {marker.label}
+              </SvgText>
+            </G>
+          ) : null}
+          {series.map((s) => {
+            const pts = s.x.map((xv, i) => [xv, s.y[i]] as const);
+            const d =
+              line<readonly [number, number | null]>()
+                .defined((p) => finite(p[0]) && finite(p[1]))
+                .x((p) => x(p[0]))
+                .y((p) => y(p[1] ?? 0))(pts) ?? '';
+            return (
+              <G key={s.label}>
+                <Path
+                  d={d}
+                  stroke={s.color}
+                  strokeWidth={2}
+                  fill="none"
+                  strokeDasharray={s.dashed ? '6 4' : undefined}
+                />
+                {s.dots
+                  ? pts
+                      .filter((p): p is readonly [number, number] => finite(p[0]) && finite(p[1]))
+                      .map(([px, py]) => {
+                        const current = marker !== undefined && px === marker.x;
+                        return (
+                          <Circle
+                            key={`${px}`}
+                            cx={x(px)}
+                            cy={y(py)}
+                            r={current ? 6 : 3.5}
+                            fill={current ? colors.surface : s.color}
+                            stroke={current ? colors.accent : s.color}
+                            strokeWidth={current ? 3 : 1}
+                          />
+                        );
+                      })
+                  : null}
+              </G>
+            );
+          })}
+          {[
+            ...limits,
+            ...(band?.max ? [{ ...band.max, color: colors.over }] : []),
+            ...(band?.min ? [{ ...band.min, color: colors.over }] : []),
+          ].map((l) => (
+            <G key={l.label}>
+              <Line
+                x1={M.left}
+                x2={plotRight}
+                y1={y(l.y)}
+                y2={y(l.y)}
+                stroke={l.color ?? colors.over}
+                strokeWidth={1.5}
+                strokeDasharray="8 5"
+              />
+              <SvgText
+                x={plotRight - 4}
+                // Labels of a lower line sit under it, so two sides of a band never collide.
+                y={band?.min && l.y === band.min.y ? y(l.y) + 14 : y(l.y) - 5}
+                fontSize={11}
+                fontFamily={fonts.semibold}
+                fill={l.color ?? colors.over}
+                textAnchor="end"
+              >
+                {l.label}
+              </SvgText>
+            </G>
+          ))}
+          <SvgText
+            x={(M.left + plotRight) / 2}
+            y={height - 6}
+            fontSize={12}
+            fontFamily={fonts.semibold}
+            fill={colors.textMuted}
+            textAnchor="middle"
+          >
+            {xLabel}
+          </SvgText>
+          <SvgText
+            x={14}
+            y={(M.top + height - M.bottom) / 2}
+            fontSize={12}
+            fontFamily={fonts.semibold}
+            fill={colors.textMuted}
+            textAnchor="middle"
+            transform={`rotate(-90 14 ${(M.top + height - M.bottom) / 2})`}
+          >
+            {yLabel}
+          </SvgText>
+        </Svg>
+      ) : (
+        <View style={{ height }} />
+      )}
+      {series.length > 1 ? (
+        <View style={styles.legend}>
+          {series.map((s) => (
+            <View key={s.label} style={styles.legendItem}>
+              <Svg width={18} height={6}>
+                <Line
+                  x1={0}
+                  x2={18}
+                  y1={3}
+                  y2={3}
+                  stroke={s.color}
+                  strokeWidth={3}
+                  strokeDasharray={s.dashed ? '5 3' : undefined}
+                />
+              </Svg>
+              <Text variant="small">{s.label}</Text>
+            </View>
+          ))}
+        </View>
+      ) : null}
+    </View>
+  );
+}
+
+/** A usable domain even for one value (a single inspection, a flat line). */
+function spread(lo: number, hi: number): [number, number] {
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return [0, 1];
+  if (hi > lo) return [lo, hi];
+  const half = Math.abs(lo) * 0.05 || 0.5;
+  return [lo - half, hi + half];
+}
+
+function compact(v: number): string {
+  const a = Math.abs(v);
+  if (a >= 1e6) return `${+(v / 1e6).toFixed(1)}M`;
+  if (a >= 1e4) return `${+(v / 1e3).toFixed(0)}k`;
+  return `${+v.toPrecision(4)}`;
+}
+
+const styles = StyleSheet.create({
+  wrap: { width: '100%', gap: space.sm },
+  legend: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, paddingLeft: M.left },
+  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+});

@@ -1,0 +1,85 @@
+/**
+ * Words and numbers of the inspection review, in the person's unit system. Readings are stored in SI by
+ * kind (features/inspections/schema.ts): speed rad/s, period s, amplitude rad, diameter and clearance m.
+ */
+import type { ReadingKind } from '@/features/inspections/schema';
+import { formatValue } from '@/features/loads/format';
+import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/features/units';
+import type { InspectionReading } from '@/features/review/inspection-schema';
+
+export const readingQuantity: Record<Exclude<ReadingKind, 'other'>, QuantityKind> = {
+  speed: 'rate',
+  period: 'time',
+  amplitude: 'angle',
+  pin_diameter: 'lengthSmall',
+  clearance: 'lengthSmall',
+};
+
+export const readingKindLabel: Record<ReadingKind, string> = {
+  speed: 'Speed',
+  period: 'Period',
+  amplitude: 'Amplitude',
+  pin_diameter: 'Pin diameter',
+  clearance: 'Bushing clearance',
+  other: 'Other',
+};
+
+export const readingMethodLabel: Record<InspectionReading['method'], string> = {
+  typed: 'Typed in',
+  tap_timer: 'Tap timer',
+  stopwatch: 'Stopwatch',
+  tachometer: 'Tachometer',
+  micrometer: 'Micrometer',
+  dial_indicator: 'Dial indicator',
+  gauge: 'Gauge',
+  other: 'Other',
+};
+
+/** A reading's value with its unit; a kind of its own is shown as recorded, in SI. */
+export function formatReading(r: Pick<InspectionReading, 'kind' | 'valueSI' | 'unit'>, system: UnitSystem) {
+  if (r.kind === 'other') return `${formatSignificant(r.valueSI, 4)} (SI; typed in ${r.unit || 'no unit'})`;
+  return formatValue(r.valueSI, readingQuantity[r.kind], system);
+}
+
+/** "± 0.02 s" for a reading's spread, when it has one. */
+export function formatSpread(r: Pick<InspectionReading, 'kind' | 'spreadSI'>, system: UnitSystem) {
+  if (r.spreadSI === null || r.kind === 'other') return null;
+  return `± ${formatValue(r.spreadSI, readingQuantity[r.kind], system)}`;
+}
+
+export const reviewStateLabel = {
+  submitted: 'Awaiting decision',
+  approved: 'Approved',
+  returned: 'Returned to inspector',
+} as const;
+
+/** "P2 · Gondola arm" (pivots count from 1 for people; joint 0 is the ground pivot). */
+export function pivotName(joint: number, names: readonly string[]): string {
+  return pivotLabel(joint, names[joint]);
+}
+
+export function pivotLabel(joint: number, name: string | null | undefined): string {
+  return name ? `P${joint + 1} · ${name}` : `P${joint + 1}`;
+}
+
+/** SI units a typed unit may convert from; the first that mathjs accepts tells the quantity. */
+const SI_CANDIDATES = ['m', 'N', 'N m', 'rad', 'rad/s', 's', 'Pa', 'kg', 'm/s^2', 'Hz'];
+
+/**
+ * A checklist measurement in the unit the inspector typed it in ("79.3 mm"), converted back from SI; a
+ * unit the converter does not know is shown as the stored SI number, said as such.
+ */
+export function formatMeasurement(m: { valueSI: number; unit: string }): string {
+  const unit = m.unit.trim();
+  // In this product "g" is standard gravity (as displayed everywhere), not the gram.
+  const name = unit === 'g' ? 'gee' : unit;
+  if (unit)
+    for (const base of SI_CANDIDATES) {
+      try {
+        return `${formatSignificant(convert(m.valueSI, base, name), 4)} ${unit}`;
+      } catch {
+        // Not this quantity; try the next.
+      }
+    }
+  return `${formatSignificant(m.valueSI, 4)} (SI${unit ? `; typed in ${unit}` : ''})`;
+}
