@@ -1,0 +1,168 @@
+import { StyleSheet, View } from 'react-native';
+
+import { Card } from '@/components/card';
+import { Caution } from '@/components/caution';
+import { DataTable } from '@/components/data-table';
+import { EnvelopeMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { space } from '@/components/theme';
+import { EnvelopeTable } from '@/features/loads/envelope-table';
+import { formatValue } from '@/features/loads/format';
+import { formatDateTime } from '@/features/registry/text';
+import type { InspectionDetail, InspectionReading } from '@/features/review/inspection-schema';
+import {
+  formatReading,
+  formatSpread,
+  pivotName,
+  readingKindLabel,
+  readingMethodLabel,
+} from '@/features/review/review-format';
+import type { UnitSystem } from '@/features/units';
+
+const headline = {
+  within: 'Every checked value is within the design envelope.',
+  near: 'Some values are near their limits.',
+  over: 'Values are over their limits: the ride calls for your stop and lockout/tagout procedure.',
+} as const;
+
+/**
+ * The server's load check of the inspection: the worst status in words, every checked value against its
+ * limit (ratio and status, worst first) and the peak load on each pivot, with the caution beside them.
+ */
+export function LimitsSection({
+  inspection,
+  pivots,
+  system,
+}: {
+  inspection: InspectionDetail;
+  pivots: readonly string[];
+  system: UnitSystem;
+}) {
+  const a = inspection.analysis;
+  if (!a) {
+    return (
+      <Card>
+        <Text variant="heading">No load check</Text>
+        <Text muted>
+          {inspection.analysisNote ??
+            (inspection.analysedAt
+              ? 'The server could not analyse this inspection.'
+              : 'The server has not analysed this inspection yet. Reload in a moment.')}
+        </Text>
+      </Card>
+    );
+  }
+  return (
+    <View style={styles.section}>
+      <Card style={styles.headline}>
+        {a.status ? <EnvelopeMark status={a.status} /> : null}
+        <Text variant="heading">
+          {a.status ? headline[a.status] : 'The design data gives no limits: loads only, no statuses.'}
+        </Text>
+      </Card>
+      {a.envelope.length > 0 ? <EnvelopeTable items={a.envelope} system={system} /> : null}
+      <DataTable
+        label="Peak pivot loads"
+        rows={a.joints.map((j, i) => ({ j, i }))}
+        rowKey={({ i }) => String(i)}
+        columns={[
+          {
+            key: 'pivot',
+            title: 'Pivot',
+            render: ({ i, j }) => pivotName(i, pivots.length ? pivots : [j.name]),
+            flex: 1.6,
+          },
+          {
+            key: 'peak',
+            title: 'Peak force',
+            render: ({ j }) => formatValue(j.peakForceN, 'force', system),
+            numeric: true,
+          },
+          {
+            key: 'angle',
+            title: 'At arm angle',
+            render: ({ j }) => formatValue(wrapAngle(j.peakForceAtArmAngleRad), 'angle', system),
+            numeric: true,
+          },
+          {
+            key: 'range',
+            title: 'Load range',
+            render: ({ j }) => formatValue(j.forceRangeN, 'force', system),
+            numeric: true,
+          },
+          {
+            key: 'torque',
+            title: 'Peak torque',
+            render: ({ j }) => formatValue(Math.abs(j.peakTorqueNm), 'moment', system),
+            numeric: true,
+          },
+        ]}
+      />
+      <Caution />
+    </View>
+  );
+}
+
+/** The readings exactly as taken: value with its unit (in the person's system), spread, method, time. */
+export function ReadingsTable({
+  readings,
+  pivots,
+  system,
+}: {
+  readings: InspectionReading[];
+  pivots: readonly string[];
+  system: UnitSystem;
+}) {
+  if (readings.length === 0) return <Text muted>No readings were taken.</Text>;
+  // By pivot, then in the order they were taken.
+  const rows = [...readings].sort((a, b) => (a.joint ?? 99) - (b.joint ?? 99));
+  return (
+    <DataTable
+      label="Readings"
+      rows={rows}
+      rowKey={(r) => r.id}
+      columns={[
+        {
+          key: 'what',
+          title: 'Reading',
+          render: (r) => (r.label ? r.label : readingKindLabel[r.kind]),
+          flex: 1.6,
+        },
+        {
+          key: 'pivot',
+          title: 'Pivot',
+          render: (r) => (r.joint === null ? '—' : pivotName(r.joint, pivots)),
+          flex: 1.3,
+        },
+        {
+          key: 'value',
+          title: 'Value',
+          render: (r) => {
+            const spread = formatSpread(r, system);
+            return spread ? `${formatReading(r, system)} ${spread}` : formatReading(r, system);
+          },
+          numeric: true,
+          flex: 1.3,
+        },
+        {
+          key: 'method',
+          title: 'Method',
+          render: (r) =>
+            r.note ? `${readingMethodLabel[r.method]} · ${r.note}` : readingMethodLabel[r.method],
+          flex: 1.3,
+        },
+        { key: 'at', title: 'Taken', render: (r) => formatDateTime(r.takenAt), flex: 1.1 },
+      ]}
+    />
+  );
+}
+
+function wrapAngle(rad: number): number {
+  const full = 2 * Math.PI;
+  return ((rad % full) + full) % full;
+}
+
+const styles = StyleSheet.create({
+  section: { gap: space.md },
+  headline: { gap: space.sm },
+});
