@@ -1,0 +1,3 @@
+import { InspectionReviewScreen } from '@/features/review/inspection-screen';
+
+export default InspectionReviewScreen;
