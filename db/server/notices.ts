@@ -6,7 +6,7 @@ import { check, index, integer, primaryKey, sqliteTable, text, uniqueIndex } fro
 import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { companies, rides, users } from '@/db/server/schema';
-import { noticeKinds, type NoticeDocument } from '@/features/notices/schema';
+import { deliveryStatuses, noticeKinds, type NoticeDocument } from '@/features/notices/schema';
 
 /*
  * Notices to operators and what follows them: deliveries by e-mail, the operator's corrective actions,
@@ -18,7 +18,6 @@ const col = (column: { name: string }) => sql.identifier(column.name);
 const oneOf = (column: { name: string }, values: readonly string[]) =>
   sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
-export const deliveryStatuses = ['pending', 'sending', 'sent', 'failed'] as const;
 export type DeliveryStatus = (typeof deliveryStatuses)[number];
 export const deliveryKinds = ['notice', 'reminder'] as const;
 export type DeliveryKind = (typeof deliveryKinds)[number];

@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 
-import { findingSeverities, findingStates } from '@/features/review/schema';
+import { findingSchema, findingSeverities, findingStates } from '@/features/review/schema';
 import { rideStatuses } from '@/features/rides/schema';
 
 export const noticeKinds = ['inspection', 'status_change'] as const;
@@ -85,3 +85,195 @@ export const noticeDocumentSchema = z.object({
   url: z.string(),
 });
 export type NoticeDocument = z.infer<typeof noticeDocumentSchema>;
+
+// ——— the API around notices ———
+
+/**
+ * Where a notice's e-mail stands, over all its recipients: `no_address` when the operator company had no
+ * notice address when it was issued (the notice exists and can be read in the app; nothing was sent),
+ * `sending` while any delivery is still pending or being sent, then `sent`, `failed` or `partly_sent`.
+ */
+export const noticeDeliveryStates = ['no_address', 'sending', 'sent', 'partly_sent', 'failed'] as const;
+export type NoticeDeliveryState = (typeof noticeDeliveryStates)[number];
+export const noticeDeliveryStateInfo: Record<NoticeDeliveryState, { label: string; description: string }> = {
+  no_address: {
+    label: 'No address',
+    description:
+      'The operator company has no notice e-mail address, so nothing was sent. Add one in the register and send the notice again.',
+  },
+  sending: { label: 'Sending', description: 'The e-mail is queued or being sent; failed tries are retried.' },
+  sent: { label: 'Sent', description: 'The e-mail was accepted for every notice address.' },
+  partly_sent: {
+    label: 'Partly sent',
+    description: 'Some addresses received the e-mail; for others it failed after every retry.',
+  },
+  failed: { label: 'Not delivered', description: 'The e-mail failed after every retry.' },
+};
+
+export const deliveryStatuses = ['pending', 'sending', 'sent', 'failed'] as const;
+
+export const noticeDeliverySummarySchema = z.object({
+  state: z.enum(noticeDeliveryStates),
+  total: z.number().int(),
+  sent: z.number().int(),
+  failed: z.number().int(),
+});
+export type NoticeDeliverySummary = z.infer<typeof noticeDeliverySummarySchema>;
+
+/** `GET /api/notices`: operators get their own company's only, whatever the filters say. */
+export const noticeListQuerySchema = z.object({
+  page: z.coerce.number({ error: 'Must be a whole number' }).int('Must be a whole number').min(1).default(1),
+  pageSize: z.coerce
+    .number({ error: 'Must be a whole number' })
+    .int('Must be a whole number')
+    .min(1)
+    .max(100, 'At most 100')
+    .default(25),
+  rideId: z.string().trim().min(1).max(64).optional(),
+  operatorId: z.string().trim().min(1).max(64).optional(),
+});
+export type NoticeListQuery = z.output<typeof noticeListQuerySchema>;
+
+const noticeHeadFields = {
+  id: z.string(),
+  reference: z.string(),
+  kind: z.enum(noticeKinds),
+  inspectionId: z.string().nullable(),
+  rideId: z.string(),
+  rideName: z.string(),
+  operatorId: z.string(),
+  operatorName: z.string(),
+  issuedAt: z.string(),
+  issuedByName: z.string().nullable(),
+  acknowledgedAt: z.string().nullable(),
+  acknowledgedByName: z.string().nullable(),
+  delivery: noticeDeliverySummarySchema,
+  /** The notice's findings not yet closed, as they stand now. */
+  openFindings: z.number().int(),
+  findingsTotal: z.number().int(),
+};
+
+export const noticeListItemSchema = z.object(noticeHeadFields);
+export type NoticeListItem = z.infer<typeof noticeListItemSchema>;
+export const noticeListResponseSchema = z.object({
+  notices: z.array(noticeListItemSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+export type NoticeListResponse = z.infer<typeof noticeListResponseSchema>;
+
+export const noticeDeliverySchema = z.object({
+  id: z.string(),
+  recipient: z.string(),
+  status: z.enum(deliveryStatuses),
+  attempts: z.number().int(),
+  /** When the next try is due, while one is. */
+  nextAttemptAt: z.string().nullable(),
+  /** Why the last try failed (staff only; null for operators). */
+  lastError: z.string().nullable(),
+  sentAt: z.string().nullable(),
+});
+export type NoticeDelivery = z.infer<typeof noticeDeliverySchema>;
+
+export const correctiveActionSchema = z.object({
+  id: z.string(),
+  findingId: z.string(),
+  note: z.string(),
+  photoShas: z.array(z.string()),
+  reportedAt: z.string(),
+  reportedByName: z.string().nullable(),
+});
+export type CorrectiveAction = z.infer<typeof correctiveActionSchema>;
+
+/** A notice's finding as it stands now (the document keeps it as issued), with the operator's actions. */
+export const noticeFindingSchema = findingSchema.extend({
+  correctiveActions: z.array(correctiveActionSchema),
+});
+export type NoticeFinding = z.infer<typeof noticeFindingSchema>;
+
+/** `GET /api/notices/:id` and the answer to acknowledging. */
+export const noticeDetailSchema = z.object({
+  ...noticeHeadFields,
+  document: noticeDocumentSchema,
+  deliveries: z.array(noticeDeliverySchema),
+  findings: z.array(noticeFindingSchema),
+});
+export type NoticeDetail = z.infer<typeof noticeDetailSchema>;
+export const noticeResponseSchema = z.object({ notice: noticeDetailSchema });
+
+const photoSha = z.string().regex(/^[0-9a-f]{64}$/, 'Must be a photo reference (64 hex digits)');
+
+/** `POST /api/findings/:id/actions`: what the operator did, with evidence photos uploaded beforehand. */
+export const correctiveActionInputSchema = z.object({
+  note: z
+    .string({ error: 'Required' })
+    .trim()
+    .min(1, 'Say what was done')
+    .max(2000, 'At most 2000 characters'),
+  photoShas: z
+    .array(photoSha)
+    .max(12, 'At most 12 photos')
+    .default([])
+    .transform((v) => [...new Set(v)]),
+});
+export type CorrectiveActionInput = z.input<typeof correctiveActionInputSchema>;
+
+/** `POST /api/findings/:id/close`: the verifier's comment is optional. */
+export const findingCloseInputSchema = z.object({
+  note: z
+    .string()
+    .trim()
+    .max(2000, 'At most 2000 characters')
+    .nullish()
+    .transform((v) => (v ? v : null)),
+});
+export type FindingCloseInput = z.input<typeof findingCloseInputSchema>;
+
+/** `POST /api/findings/:id/reopen`: the comment says what is still wrong, and is required. */
+export const findingReopenInputSchema = z.object({
+  note: z
+    .string({ error: 'Required' })
+    .trim()
+    .min(1, 'Say why the finding is reopened')
+    .max(2000, 'At most 2000 characters'),
+});
+export type FindingReopenInput = z.input<typeof findingReopenInputSchema>;
+
+/**
+ * The answer to reporting an action, closing or reopening: the finding now, the ride's status now, and
+ * the status notice issued when the ride's status followed.
+ */
+export const findingStateResponseSchema = z.object({
+  finding: noticeFindingSchema,
+  ride: z.object({ id: z.string(), status: z.enum(rideStatuses), statusReason: z.string().nullable() }),
+  statusNotice: z.object({ id: z.string(), reference: z.string() }).nullable(),
+});
+export type FindingStateResponse = z.infer<typeof findingStateResponseSchema>;
+
+// ——— the admin's view of the local mailbox ———
+
+export const outboxAttachmentSchema = z.object({
+  index: z.number().int(),
+  filename: z.string().nullable(),
+  contentType: z.string(),
+  size: z.number().int(),
+});
+export const outboxMessageSchema = z.object({
+  id: z.string(),
+  receivedAt: z.string(),
+  from: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  messageId: z.string().nullable(),
+  idempotencyKey: z.string().nullable(),
+  size: z.number().int(),
+  attachments: z.array(outboxAttachmentSchema),
+});
+export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
+/** `GET /api/admin/outbox`: newest first. */
+export const outboxListResponseSchema = z.object({ messages: z.array(outboxMessageSchema) });
+/** `GET /api/admin/outbox/:id`: one message with its text and html bodies. */
+export const outboxMessageResponseSchema = z.object({
+  message: outboxMessageSchema.extend({ text: z.string().nullable(), html: z.string().nullable() }),
+});

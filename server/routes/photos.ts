@@ -4,9 +4,11 @@ import express, { Router, type RequestHandler } from 'express';
 import { z } from 'zod';
 
 import { nowOf, type ApiDeps } from '@/server/deps';
-import { HttpError, notFound } from '@/server/http/errors';
+import { companyScope } from '@/server/auth/scope';
+import { forbidden, HttpError, notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
 import { validate } from '@/server/http/validate';
+import { operatorMaySeePhoto } from '@/server/notices/loop';
 import {
   findPhoto,
   MAX_PHOTO_BYTES,
@@ -49,7 +51,9 @@ const rawPhoto: RequestHandler = (() => {
 })();
 
 /**
- * Photo bytes, addressed by their SHA-256 (staff only; operators will see photos through notices).
+ * Photo bytes, addressed by their SHA-256. Staff read and upload any; operators upload their corrective
+ * evidence, and read only photos on their company's notices, on corrective actions on those, or uploaded
+ * by their company (403 for anything else). The uploader is recorded with the bytes.
  *
  * - `PUT /photos/:sha256` with the raw bytes (Content-Type image/jpeg, image/png or image/webp, at most
  *   8 MB) → 201 `{ stored: true, sha256 }` the first time, 200 `{ stored: false, sha256 }` when the server
@@ -61,10 +65,10 @@ const rawPhoto: RequestHandler = (() => {
  */
 export function photosRouter(deps: ApiDeps): Router {
   const router = Router();
-  const staff = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin')];
+  const signedIn = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin', 'operator')];
   sweepPartialPhotos(deps.config.dataDir);
 
-  router.put('/photos/:sha256', ...staff, byHash, rawPhoto, async (req, res) => {
+  router.put('/photos/:sha256', ...signedIn, byHash, rawPhoto, async (req, res) => {
     const { sha256 } = byHash.params(res);
     const body: unknown = req.body;
     if (!Buffer.isBuffer(body))
@@ -100,8 +104,13 @@ export function photosRouter(deps: ApiDeps): Router {
     res.status(stored ? 201 : 200).json({ stored, sha256 });
   });
 
-  router.get('/photos/:sha256', ...staff, byHash, (_req, res, next) => {
+  router.get('/photos/:sha256', ...signedIn, byHash, (_req, res, next) => {
     const { sha256 } = byHash.params(res);
+    const scope = companyScope(currentUser(res));
+    if (scope !== null && !operatorMaySeePhoto(deps.db, scope, sha256))
+      throw forbidden(
+        'Operators see the photos on their company’s notices and their own corrective actions.',
+      );
     const photo = findPhoto(deps.db, sha256);
     if (!photo)
       throw notFound('The server has no photo with this SHA-256 (it may not have been uploaded yet).');

@@ -1,0 +1,54 @@
+/**
+ * The words the server prints on notices and e-mails, in one place. Severity words come from
+ * `severityInfo` (features/review/schema.ts) and the caution from components/caution-text.ts.
+ */
+import type { Role } from '@/features/auth/schema';
+import type { NoticeDocument } from '@/features/notices/schema';
+import type { rideStatuses } from '@/features/rides/schema';
+
+type RideStatus = (typeof rideStatuses)[number];
+
+export const rideStatusWords: Record<RideStatus, string> = {
+  in_service: 'In service',
+  restricted: 'Restricted',
+  out_of_service: 'Out of service',
+};
+
+export const roleWords: Record<Role, string> = {
+  inspector: 'Inspector',
+  supervisor: 'Supervisor',
+  operator: 'Operator',
+  admin: 'Administrator',
+};
+
+/** How the operator can disagree with a notice; our own wording. */
+export function appealText(issuerName: string, reference: string): string {
+  return (
+    `If you disagree with this notice, write to ${issuerName} within 14 days of its date, quoting ` +
+    `${reference}, and say which findings you dispute and why; include any evidence you rely on. ` +
+    'A disagreement does not lift a stop or out-of-service order: the ride stays as this notice states ' +
+    'until the findings are verified closed or the order is withdrawn in writing.'
+  );
+}
+
+/** "PW-2026-0007", sequential within the year. */
+export const noticeReference = (year: number, seq: number) => `PW-${year}-${String(seq).padStart(4, '0')}`;
+
+/** The e-mail's subject line: the reference first, so it can be searched for and filed. */
+export function noticeSubject(doc: Pick<NoticeDocument, 'reference' | 'kind' | 'ride' | 'operatingStatus'>) {
+  const what =
+    doc.kind === 'inspection'
+      ? 'inspection notice'
+      : `ride status: ${rideStatusWords[doc.operatingStatus.status].toLowerCase()}`;
+  return `${doc.reference} · ${doc.ride.name} · ${what}`;
+}
+
+/** HTML-escapes text for the e-mail bodies. */
+export function escapeHtml(text: string): string {
+  return text
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/"/g, '&quot;')
+    .replace(/'/g, '&#39;');
+}
