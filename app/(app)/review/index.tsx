@@ -1,3 +1,3 @@
-import { SupervisorHome } from '@/features/home/supervisor-home';
+import { QueueScreen } from '@/features/review/queue-screen';
 
-export default SupervisorHome;
+export default QueueScreen;

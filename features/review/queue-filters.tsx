@@ -1,0 +1,249 @@
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { SelectField } from '@/components/select-field';
+import { rideStatusLabel } from '@/components/status-mark';
+import { TextField } from '@/components/text-field';
+import { ToggleChips } from '@/components/toggle-chips';
+import { space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import {
+  operatorChoices,
+  useCompanyListQuery,
+  useInspectorsQuery,
+  useSiteListQuery,
+} from '@/features/registry/api';
+import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
+import { calendarDate } from '@/features/registry/schema';
+import { type QueueQuery, type QueueSort } from '@/features/review/schema';
+import { rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
+
+const ALL = '__all';
+
+export type QueuePatch = Record<string, string | number | readonly string[] | undefined>;
+
+export const queueSortChoices: { value: QueueSort; label: string }[] = [
+  { value: 'urgency', label: 'Most urgent first' },
+  { value: 'newest', label: 'Newest first' },
+  { value: 'oldest', label: 'Oldest first' },
+  { value: 'ride', label: 'Ride, A to Z' },
+];
+
+/** How many of the panel's filters are set (search, sort and the urgency tiles are counted elsewhere). */
+export function activeFilterCount(query: Partial<QueueQuery>): number {
+  return (
+    (query.siteId ? 1 : 0) +
+    (query.operatorId ? 1 : 0) +
+    (query.inspectorId ? 1 : 0) +
+    (query.rideClass?.length ?? 0) +
+    (query.rideStatus?.length ?? 0) +
+    (query.from ? 1 : 0) +
+    (query.to ? 1 : 0)
+  );
+}
+
+const dateSchema = calendarDate();
+
+/** The problem with a typed date, in the API schema's own words; null when it is fine or empty. */
+export function dateProblem(text: string): string | null {
+  if (text.trim() === '') return null;
+  const parsed = dateSchema.safeParse(text);
+  return parsed.success ? null : (parsed.error.issues[0]?.message ?? 'Must be a date, YYYY-MM-DD');
+}
+
+/**
+ * A calendar date typed as YYYY-MM-DD. It reaches the list (through `onChange`) only once it is a real
+ * date, or cleared; until then the field keeps the text and, once ten characters are in or the field is
+ * left, says what is wrong. `problem` is an extra rule from outside (the range's order).
+ */
+function DateField({
+  label,
+  value,
+  onChange,
+  problem,
+}: {
+  label: string;
+  value: string | undefined;
+  onChange: (value: string | undefined) => void;
+  problem?: string | null;
+}) {
+  const [text, setText] = useState(value ?? '');
+  const [left, setLeft] = useState(false);
+  // The URL changed from elsewhere (Clear, back): show its value. React's "adjust state on a prop change".
+  const [shown, setShown] = useState(value);
+  if (value !== shown) {
+    setShown(value);
+    if ((value ?? '') !== text.trim()) setText(value ?? '');
+  }
+  const own = dateProblem(text);
+  const error = own && (left || text.trim().length >= 10) ? own : (problem ?? undefined);
+  return (
+    <TextField
+      label={label}
+      placeholder="YYYY-MM-DD"
+      value={text}
+      onChangeText={(t) => {
+        setText(t);
+        setLeft(false);
+        const trimmed = t.trim();
+        if (trimmed === '') onChange(undefined);
+        else if (!dateProblem(trimmed)) onChange(trimmed);
+      }}
+      onBlur={() => setLeft(true)}
+      error={error ?? undefined}
+      autoCapitalize="none"
+      autoCorrect={false}
+      inputMode="numeric"
+      maxLength={10}
+    />
+  );
+}
+
+/**
+ * The queue's search, filters and sort. Each change goes to the URL (and so to the server) at once, apart
+ * from the search, which waits for typing to pause (`search` is the text as typed).
+ */
+export function QueueFilterPanel({
+  query,
+  setQuery,
+  search,
+  setSearch,
+  onClear,
+}: {
+  query: Partial<QueueQuery>;
+  setQuery: (patch: QueuePatch) => void;
+  search: string;
+  setSearch: (text: string) => void;
+  onClear: () => void;
+}) {
+  const wide = useWide();
+  const sites = useSiteListQuery({ pageSize: 200, sort: 'name' });
+  const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' });
+  const inspectors = useInspectorsQuery();
+  // A new filter always starts again at page 1.
+  const filter = (patch: QueuePatch) => setQuery({ ...patch, page: undefined });
+  const active = activeFilterCount(query);
+  // Both ends valid but in the wrong order: say so under "To" rather than ask the server for nothing.
+  const rangeProblem =
+    query.from && query.to && query.from > query.to
+      ? 'Must be on or after the "From" date; not applied'
+      : null;
+
+  const siteOptions = [
+    { value: ALL, label: 'All sites' },
+    ...(sites.data?.sites ?? []).map((s) => ({ value: s.id, label: s.name, hint: s.operatorName })),
+  ];
+  const operatorOptions = [
+    { value: ALL, label: 'All operators' },
+    ...operatorChoices(companies.data?.companies),
+  ];
+  const inspectorOptions = [
+    { value: ALL, label: 'All inspectors' },
+    ...(inspectors.data ?? []).map((i) => ({ value: i.id, label: i.name, hint: i.email })),
+  ];
+  const selectStyle = wide ? styles.selectWide : undefined;
+
+  const selects = (
+    <>
+      <View style={selectStyle}>
+        <SelectField
+          label="Site"
+          value={query.siteId ?? ALL}
+          options={siteOptions}
+          onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
+        />
+      </View>
+      <View style={selectStyle}>
+        <SelectField
+          label="Operator"
+          value={query.operatorId ?? ALL}
+          options={operatorOptions}
+          onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
+        />
+      </View>
+      <View style={selectStyle}>
+        <SelectField
+          label="Inspector"
+          value={query.inspectorId ?? ALL}
+          options={inspectorOptions}
+          onChange={(v) => filter({ inspectorId: v === ALL ? undefined : v })}
+        />
+      </View>
+    </>
+  );
+
+  const sort = (
+    <View style={wide ? styles.sortWide : undefined}>
+      <SelectField
+        label="Sort"
+        value={query.sort ?? 'urgency'}
+        options={queueSortChoices}
+        onChange={(v) => setQuery({ sort: v === 'urgency' ? undefined : v, page: undefined })}
+      />
+    </View>
+  );
+
+  const groups = (
+    <FilterGroups alignEnd>
+      <FilterGroup label="Ride class">
+        <ToggleChips
+          label="Ride class"
+          values={query.rideClass ?? []}
+          options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
+          onChange={(v) => filter({ rideClass: v })}
+        />
+      </FilterGroup>
+      <FilterGroup label="Ride status">
+        <ToggleChips
+          label="Ride status"
+          values={query.rideStatus ?? []}
+          options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
+          onChange={(v) => filter({ rideStatus: v })}
+        />
+      </FilterGroup>
+      <View style={wide ? styles.datesWide : styles.dates} role="group" accessibilityLabel="Date range">
+        <View style={styles.date}>
+          <DateField label="From" value={query.from} onChange={(from) => filter({ from })} />
+        </View>
+        <View style={styles.date}>
+          <DateField label="To" value={query.to} onChange={(to) => filter({ to })} problem={rangeProblem} />
+        </View>
+      </View>
+      {wide ? sort : null}
+      {active > 0 || query.q ? (
+        <Button label="Clear search and filters" tone="quiet" onPress={onClear} style={styles.clear} />
+      ) : null}
+    </FilterGroups>
+  );
+
+  return (
+    <FilterPanel
+      active={active}
+      search={
+        <TextField
+          label="Search the queue"
+          placeholder={wide ? 'Ride, serial, site, operator or inspector' : 'Ride, site, inspector…'}
+          value={search}
+          onChangeText={setSearch}
+          autoCapitalize="none"
+          autoCorrect={false}
+          inputMode="search"
+          returnKeyType="search"
+        />
+      }
+      beside={selects}
+      filters={groups}
+      phoneOnly={sort}
+    />
+  );
+}
+
+const styles = StyleSheet.create({
+  selectWide: { flex: 1, minWidth: 0 },
+  sortWide: { minWidth: 200 },
+  dates: { flexDirection: 'row', gap: space.sm },
+  datesWide: { flexDirection: 'row', gap: space.sm, alignItems: 'flex-start' },
+  date: { flex: 1, minWidth: 140 },
+  clear: { alignSelf: 'flex-start' },
+});

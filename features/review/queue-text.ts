@@ -1,0 +1,31 @@
+/** The queue's words and links, shared by the desktop table and the phone cards. */
+import { inspectionTypeLabel } from '@/features/registry/schema';
+import { formatDate } from '@/features/registry/text';
+import { type QueueItem, urgencyInfo } from '@/features/review/schema';
+import { rideHref } from '@/features/rides/ride-card';
+
+/** An inspection opens on the review desk; a ride in the queue for its dates opens the ride's page. */
+export function queueItemHref(item: QueueItem): `/review/${string}` | `/rides/${string}` {
+  return item.kind === 'inspection' && item.inspectionId
+    ? `/review/${encodeURIComponent(item.inspectionId)}`
+    : rideHref(item.rideId);
+}
+
+const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+
+/** What the item is: the inspection and who did it, or what is late on the ride. */
+export function queueItemWhat(item: QueueItem): string {
+  if (item.kind === 'inspection' && item.inspectionType) {
+    const type = inspectionTypeLabel[item.inspectionType];
+    return item.inspectorName ? `${type} inspection by ${item.inspectorName}` : `${type} inspection`;
+  }
+  const parts: string[] = [];
+  if (item.overdueSince) parts.push(`Inspection overdue since ${formatDate(item.overdueSince)}`);
+  if (item.findingsPastDue > 0) parts.push(`${plural(item.findingsPastDue, 'finding', 'findings')} past due`);
+  return parts.join(' · ') || urgencyInfo[item.urgency].description;
+}
+
+/** A row's name for screen readers and the link: why, which ride, what. */
+export function queueItemLabel(item: QueueItem): string {
+  return `${urgencyInfo[item.urgency].label}: ${item.rideName}, ${queueItemWhat(item)}`;
+}
