@@ -24,6 +24,9 @@ import { demoRide, makeRecord } from './sync-fixtures';
 // The business clock is pinned, so the demo schedule (seeded on this day) has known dates: Skylark's
 // periodic inspection was last done 25 days before, every 30 days.
 const now = new Date('2026-05-04T12:00:00.000Z');
+// Seeding hashes five passwords; on a busy machine that alone can take seconds.
+jest.setTimeout(30_000);
+
 let server: TestServer;
 let api: Clients;
 let skylark: ReturnType<typeof demoRide>;

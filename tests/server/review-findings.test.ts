@@ -18,6 +18,9 @@ import { demoClients, type Clients } from './registry-helpers';
 import { auditOf, pushAccepted, secondInspector } from './review-desk-fixtures';
 import { demoRide, imageBytes, makeRecord, photoRefFor, sha256Hex } from './sync-fixtures';
 
+// Seeding hashes five passwords; on a busy machine that alone can take seconds.
+jest.setTimeout(30_000);
+
 let server: TestServer;
 let api: Clients;
 let skylark: ReturnType<typeof demoRide>;
