@@ -1,3 +1,5 @@
+import { randomUUID } from 'node:crypto';
+
 import { count } from 'drizzle-orm';
 
 import {
@@ -10,6 +12,8 @@ import {
   rides,
   sites,
 } from '@/db/server/schema';
+import { inspections } from '@/db/server/inspections';
+import { findings } from '@/db/server/review';
 import {
   checklistTemplateListResponseSchema,
   companyListResponseSchema,
@@ -20,9 +24,10 @@ import {
 
 import { makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
+import { demoRide, makeRecord } from './sync-fixtures';
 
 /*
- * Route × role matrix of the register API. Expected outcomes:
+ * Route × role matrix of the register API and the review desk. Expected outcomes:
  *   ok      2xx — the role may do it (reads only, so the matrix changes nothing)
  *   bad     400 — the role passed the guard; the deliberately invalid body was refused
  *   gone    404 — the role passed the guard; the record does not exist (deletes aimed at a missing id),
@@ -30,12 +35,24 @@ import { demoClients, type Clients } from './registry-helpers';
  *   403/401 — refused by role / not signed in
  * Rules: admin everything · supervisor edits rides, design data, templates and schedules · inspector reads
  * rides, design data and templates and its own assignments · operator reads its own company's rides only.
+ * Review desk: supervisors and admins read the queue and decide (findings, decisions); inspectors read
+ * their own inspections' findings, trail and cycle, and ride trends; operators see none of it.
  */
 
 type Outcome = 'ok' | 'bad' | 'gone' | 403 | 401;
 type Role = 'admin' | 'supervisor' | 'inspector' | 'operator' | 'anonymous';
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
-type Ids = { own: string; other: string; company: string; site: string; template: string; schedule: string };
+type Ids = {
+  own: string;
+  other: string;
+  company: string;
+  site: string;
+  template: string;
+  schedule: string;
+  /** An inspection of the demo inspector's, with one finding. */
+  inspection: string;
+  finding: string;
+};
 type Route = {
   method: Method;
   path: (ids: Ids) => string;
@@ -100,9 +117,22 @@ const routes: Route[] = [
   { method: 'get', path: () => '/api/assignments/mine', expect: { ...STAFF_READ } },
   // Audit log
   { method: 'get', path: () => '/api/audit', expect: PLANNERS_READ },
+  // Review desk
+  { method: 'get', path: () => '/api/review/queue', expect: PLANNERS_READ },
+  { method: 'get', path: (i) => `/api/inspections/${i.inspection}/findings`, expect: STAFF_READ },
+  { method: 'post', path: (i) => `/api/inspections/${i.inspection}/findings`, body: {}, expect: EDITORS },
+  { method: 'patch', path: (i) => `/api/findings/${i.finding}`, body: {}, expect: EDITORS },
+  { method: 'delete', path: () => '/api/findings/missing', expect: EDITORS_DELETE },
+  { method: 'post', path: (i) => `/api/inspections/${i.inspection}/decision`, body: {}, expect: EDITORS },
+  { method: 'get', path: (i) => `/api/inspections/${i.inspection}/trail`, expect: STAFF_READ },
+  { method: 'get', path: (i) => `/api/inspections/${i.inspection}/cycle`, expect: STAFF_READ },
+  { method: 'get', path: (i) => `/api/rides/${i.own}/trends`, expect: STAFF_READ },
 ];
 
 const statusOf: Record<Exclude<Outcome, 'ok'>, number> = { bad: 400, gone: 404, 403: 403, 401: 401 };
+
+// Seeding, signing in five users and pushing an inspection can take seconds on a busy machine.
+jest.setTimeout(30_000);
 
 let server: TestServer;
 let api: Clients;
@@ -117,6 +147,8 @@ const tableCounts = () =>
       checklistTemplateVersions,
       companies,
       designVersions,
+      findings,
+      inspections,
       inspectionSchedules,
       rides,
       sites,
@@ -137,7 +169,18 @@ beforeAll(async () => {
       (await api.admin.get('/api/checklist-templates')).body,
     ).templates[0].id,
     schedule: scheduleListResponseSchema.parse((await api.admin.get('/api/schedules')).body).schedules[0].id,
+    inspection: '',
+    finding: '',
   };
+  const record = makeRecord(demoRide(server.db, 'Skylark'));
+  await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  ids.inspection = record.id;
+  ids.finding = (
+    await api.supervisor.post(`/api/inspections/${record.id}/findings`, {
+      severity: 'note',
+      description: 'Paint chipped at the gondola door.',
+    })
+  ).body.finding.id;
   before = tableCounts();
 });
 afterAll(() => server.close());
@@ -152,6 +195,8 @@ const cases = routes.flatMap((route) =>
       site: ':id',
       template: ':id',
       schedule: ':id',
+      inspection: ':id',
+      finding: ':id',
     });
     return [`${route.method.toUpperCase()} ${label}`, role, outcome, route] as const;
   }),
