@@ -285,5 +285,5 @@ const styles = StyleSheet.create({
   toolbarText: { flexShrink: 1 },
   grid: { gap: space.md },
   gridWide: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
-  chartWide: { flexBasis: 360, flexGrow: 1, minWidth: 0 },
+  chartWide: { flexBasis: 320, flexGrow: 1, minWidth: 0 },
 });

@@ -7,10 +7,11 @@ import { tokenStore } from '@/features/auth/token-store';
 export type PhotoSource = { source: ImageURISource | null; failed: boolean };
 
 /**
- * Object URLs of photos already fetched, newest last. A photo's address is its content's hash, so a URL
- * never goes stale; the oldest are let go beyond a handful of screens' worth.
+ * Object URLs of photos already fetched, oldest first. A photo's address is its content's hash, so a URL
+ * never goes stale. The oldest are let go only beyond what one inspection can hold (100 photos), so a URL
+ * is never revoked while its own gallery still shows it.
  */
-const KEEP = 48;
+const KEEP = 128;
 const cache = new Map<string, Promise<string>>();
 
 function remember(sha256: string, url: Promise<string>) {

@@ -28,7 +28,10 @@ type Props = {
   series: ReviewSeries[];
   limits?: ReviewLimit[];
   band?: ReviewBand;
-  /** A vertical marker, e.g. the inspection being reviewed among its ride's earlier ones. */
+  /**
+   * A vertical line, and a ringed dot where a dotted series meets it: e.g. the inspection under review
+   * among its ride's others. Its label belongs in the summary and the words beside the chart.
+   */
   marker?: { x: number; label: string };
   xLabel: string;
   yLabel: string;
@@ -141,26 +144,14 @@ export function ReviewChart({
             <Line x1={M.left} x2={plotRight} y1={y(0)} y2={y(0)} stroke={colors.border} />
           ) : null}
           {marker ? (
-            <G>
-              <Line
-                x1={x(marker.x)}
-                x2={x(marker.x)}
-                y1={M.top}
-                y2={height - M.bottom}
-                stroke={colors.accent}
-                strokeWidth={1.5}
-              />
-              <SvgText
-                x={x(marker.x) + (x(marker.x) > width / 2 ? -4 : 4)}
-                y={M.top + 10}
-                fontSize={11}
-                fontFamily={fonts.semibold}
-                fill={colors.accent}
-                textAnchor={x(marker.x) > width / 2 ? 'end' : 'start'}
-              >
-                {marker.label}
-              </SvgText>
-            </G>
+            <Line
+              x1={x(marker.x)}
+              x2={x(marker.x)}
+              y1={M.top}
+              y2={height - M.bottom}
+              stroke={colors.accent}
+              strokeWidth={1.5}
+            />
           ) : null}
           {series.map((s) => {
             const pts = s.x.map((xv, i) => [xv, s.y[i]] as const);

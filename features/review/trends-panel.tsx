@@ -141,6 +141,7 @@ function JointTrends({
           const unit = pickDisplayUnit(Math.max(...known, limit?.y ?? 0), spec.quantity, system);
           const toUnit = (v: number) => fromSI(v, spec.quantity, unit.mathjs);
           const fmt = (v: number) => formatValue(v, spec.quantity, system);
+          const thisValue = current ? spec.value(current, joint.joint) : null;
           return (
             <View key={m} style={wide ? styles.chartWide : undefined}>
               <Text variant="label" muted>
@@ -148,7 +149,13 @@ function JointTrends({
               </Text>
               <ReviewChart
                 height={180}
-                summary={`${spec.title} at ${name}: ${driftWords(points, values, fmt)}${limit ? `; ${limit.word.toLowerCase()} ${fmt(limit.y)}` : '; no limit given'}`}
+                summary={[
+                  `${spec.title} at ${name}: ${driftWords(points, values, fmt)}`,
+                  limit ? `${limit.word.toLowerCase()} ${fmt(limit.y)}` : 'no limit given',
+                  thisValue !== null ? `this inspection ${fmt(thisValue)}` : null,
+                ]
+                  .filter(Boolean)
+                  .join('; ')}
                 series={[
                   {
                     label: spec.title,

@@ -569,7 +569,7 @@ describe('inspection review', () => {
     expect(chart.props.accessibilityLabel).toMatch(
       /59\.90 mm on 1 Dec 2025 → 57\.80 mm on 2 Jun 2026 \(−2\.100 mm\)/,
     );
-    expect(chart.props.accessibilityLabel).toContain('minimum 58.00 mm');
+    expect(chart.props.accessibilityLabel).toContain('minimum 58.00 mm; this inspection 57.80 mm');
     fireEvent.press(screen.getByRole('button', { name: 'Show the numbers' }));
     expect(screen.getByText(/\(this one\)$/)).toBeTruthy();
     expect(await screen.findByText('Mara Quill')).toBeTruthy();
