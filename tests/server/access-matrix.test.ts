@@ -67,6 +67,9 @@ const EDITORS = { admin: 'bad', supervisor: 'bad', inspector: 403, operator: 403
 const EDITORS_DELETE = { admin: 'gone', supervisor: 'gone', inspector: 403, operator: 403 } as const;
 const ADMIN_ONLY = { admin: 'bad', supervisor: 403, inspector: 403, operator: 403 } as const;
 const ADMIN_DELETE = { admin: 'gone', supervisor: 403, inspector: 403, operator: 403 } as const;
+const ALL_GONE = { admin: 'gone', supervisor: 'gone', inspector: 'gone', operator: 'gone' } as const;
+const VERIFIERS_GONE = { admin: 'gone', supervisor: 'gone', inspector: 'gone', operator: 403 } as const;
+const ADMIN_GONE = { admin: 'gone', supervisor: 403, inspector: 403, operator: 403 } as const;
 
 const routes: Route[] = [
   // Rides
@@ -117,6 +120,38 @@ const routes: Route[] = [
   { method: 'get', path: () => '/api/assignments/mine', expect: { ...STAFF_READ } },
   // Audit log
   { method: 'get', path: () => '/api/audit', expect: PLANNERS_READ },
+  // Notices and the corrective-action loop (missing ids: the guard is what is tested)
+  { method: 'get', path: () => '/api/notices', expect: READ_ALL },
+  { method: 'get', path: () => '/api/notices/missing', expect: ALL_GONE },
+  { method: 'get', path: () => '/api/notices/missing/pdf', expect: ALL_GONE },
+  {
+    method: 'post',
+    path: () => '/api/notices/missing/acknowledge',
+    expect: { admin: 403, supervisor: 403, inspector: 403, operator: 'gone' },
+  },
+  {
+    method: 'post',
+    path: () => '/api/notices/missing/resend',
+    expect: { admin: 'gone', supervisor: 'gone', inspector: 403, operator: 403 },
+  },
+  {
+    method: 'post',
+    path: () => '/api/findings/missing/actions',
+    body: {},
+    expect: { admin: 403, supervisor: 403, inspector: 403, operator: 'bad' },
+  },
+  { method: 'post', path: () => '/api/findings/missing/close', body: {}, expect: VERIFIERS_GONE },
+  {
+    method: 'post',
+    path: () => '/api/findings/missing/reopen',
+    body: {},
+    expect: { admin: 'bad', supervisor: 'bad', inspector: 'bad', operator: 403 },
+  },
+  { method: 'get', path: () => `/api/photos/${'0'.repeat(64)}`, expect: { ...VERIFIERS_GONE } },
+  // The outbox: admin only; the matrix's server has no local mailbox, so the admin gets its 404.
+  { method: 'get', path: () => '/api/admin/outbox', expect: ADMIN_GONE },
+  { method: 'get', path: () => '/api/admin/outbox/missing', expect: ADMIN_GONE },
+  { method: 'get', path: () => '/api/admin/outbox/missing/attachments/0', expect: ADMIN_GONE },
   // Review desk
   { method: 'get', path: () => '/api/review/queue', expect: PLANNERS_READ },
   { method: 'get', path: (i) => `/api/inspections/${i.inspection}/findings`, expect: STAFF_READ },

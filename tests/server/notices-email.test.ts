@@ -11,7 +11,12 @@ import { companies } from '@/db/server/schema';
 import { CAUTION_SHORT } from '@/components/caution-text';
 import { noticeDetailSchema, noticeListResponseSchema } from '@/features/notices/schema';
 import { retryPolicy } from '@/server/mail/retry';
-import { noticeEmail, processDeliveries, requeueNotice } from '@/server/notices/deliveries';
+import {
+  noticeEmail,
+  processDeliveries,
+  requeueNotice,
+  startDeliveryLoop,
+} from '@/server/notices/deliveries';
 import { formatCalendarDate } from '@/server/notices/pdf';
 
 import { expectApiError, makeTestServer } from './helpers';
@@ -164,6 +169,32 @@ describe('an approved inspection with findings', () => {
     expectApiError(await s.api.supervisor.get('/api/admin/outbox'), 403, 'forbidden');
     expectApiError(await s.api.operator.get(`/api/admin/outbox/${entry.id}/attachments/0`), 403, 'forbidden');
   });
+});
+
+test('the delivery loop sends a notice as soon as it is issued, without waiting for its timer', async () => {
+  const loop = startDeliveryLoop({
+    db: s.db,
+    mailer: s.mailer,
+    dataDir: s.config.dataDir,
+    intervalMs: 3_600_000,
+    now: s.now,
+  });
+  try {
+    await loop.idle();
+    const inspected = await inspectWithFindings(s, 'Lantern Wheel', [
+      { severity: 'fix_by_date', description: 'Gondola 7 window latch stiff', dueOn: '2026-05-29' },
+    ]);
+    const issued = approveAndIssue(s, inspected.inspectionId);
+    expect(deliveriesOf(issued.id)[0].status).toBe('pending');
+    // The nudge runs once the issuing transaction is over (next turn of the event loop).
+    await new Promise((resolve) => setImmediate(resolve));
+    await loop.idle();
+    const [row] = deliveriesOf(issued.id);
+    expect(row.status).toBe('sent');
+    expect(messagesWithKey(row.idempotencyKey)).toHaveLength(1);
+  } finally {
+    await loop.stop();
+  }
 });
 
 describe('retries', () => {
