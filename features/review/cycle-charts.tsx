@@ -55,6 +55,15 @@ export function CycleCharts({
       </Card>
     );
   }
+  if (cycle.error instanceof ApiRequestError && cycle.error.status === 422) {
+    // The engine refused these readings on this design data; its reason is the useful part.
+    return (
+      <Card role="note">
+        <Text variant="heading">No ride cycle to chart</Text>
+        <Text muted>{cycle.error.message}</Text>
+      </Card>
+    );
+  }
   if (cycle.error || !cycle.data) {
     return (
       <Card role="alert">
