@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 
+import { pageSchema, pagingQuerySchema } from '@/features/registry/schema';
 import { findingSchema, findingSeverities, findingStates } from '@/features/review/schema';
 import { rideStatuses } from '@/features/rides/schema';
 
@@ -121,8 +122,7 @@ export const noticeDeliverySummarySchema = z.object({
 export type NoticeDeliverySummary = z.infer<typeof noticeDeliverySummarySchema>;
 
 /** `GET /api/notices`: operators get their own company's only, whatever the filters say. */
-export const noticeListQuerySchema = z.object({
-  page: z.coerce.number({ error: 'Must be a whole number' }).int('Must be a whole number').min(1).default(1),
+export const noticeListQuerySchema = pagingQuerySchema.extend({
   pageSize: z.coerce
     .number({ error: 'Must be a whole number' })
     .int('Must be a whole number')
@@ -155,12 +155,7 @@ const noticeHeadFields = {
 
 export const noticeListItemSchema = z.object(noticeHeadFields);
 export type NoticeListItem = z.infer<typeof noticeListItemSchema>;
-export const noticeListResponseSchema = z.object({
-  notices: z.array(noticeListItemSchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const noticeListResponseSchema = pageSchema.extend({ notices: z.array(noticeListItemSchema) });
 export type NoticeListResponse = z.infer<typeof noticeListResponseSchema>;
 
 export const noticeDeliverySchema = z.object({
