@@ -2,12 +2,14 @@
  * Renders sample notices to PDF under artifacts/pdf/ and, when poppler's `pdftoppm` is installed, each
  * page to PNG beside them, for people to look at: `npx tsx scripts/pdf-preview.ts`.
  * Samples: the test fixture on A4 and Letter, a long notice (25 findings, a 2000-character description,
- * 42 result rows, one photo missing) and a ride status notice without an inspection.
+ * 42 result rows, one photo missing), one with every optional field empty and every long one longer,
+ * and a ride status notice without an inspection.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 
+import type { NoticeDocument } from '@/features/notices/schema';
 import { renderNoticePdf } from '@/server/notices/pdf';
 import { repoRoot } from '@/server/paths';
 import {
@@ -31,6 +33,46 @@ function longNotice() {
   return doc;
 }
 
+/** Everything optional left out and everything long made longer, to see that nothing overlaps. */
+function edgeNotice(): NoticeDocument {
+  const f = fixtureNotice.findings;
+  return {
+    ...fixtureNotice,
+    reference: 'PW-2026-0045',
+    issuer: {
+      name: 'Halvard Ride Inspection Services — Northern Region Travelling Rides and Amusement Devices Office',
+      address:
+        'Unit 4, Coldharbour Yard, Wexley Road Industrial Estate, Upper Tamsworth, Tamsworth and District TW3 8QP',
+      phone: null,
+    },
+    operator: { ...fixtureNotice.operator, address: null },
+    ride: {
+      ...fixtureNotice.ride,
+      name: 'Tidecaller Grand Pendulum (the long-arm version with the rotating gondola ring)',
+      maker: null,
+      model: null,
+      serial: null,
+      year: null,
+    },
+    site: null,
+    inspection: fixtureNotice.inspection && {
+      ...fixtureNotice.inspection,
+      inspectorCredential: null,
+      designVersion: null,
+      engineVersion: null,
+    },
+    checklist: null,
+    findings: [
+      { ...f[2], severity: 'note', ruleRef: null, requiredAction: null, dueOn: null, photos: [] },
+      { ...f[1], state: 'closed', photos: Array.from({ length: 7 }, () => f[1].photos[0]) },
+    ],
+    operatingStatus: { status: 'in_service', reason: null },
+    reinspection: { required: false, reason: null },
+    note: null,
+    url: `https://pivotwatch.example/notices/${'0123456789abcdef'.repeat(8)}`,
+  };
+}
+
 const samples = [
   { name: 'notice-a4', doc: fixtureNotice, pageSize: 'A4' as const, loadPhoto: loadFixturePhoto },
   { name: 'notice-letter', doc: fixtureNotice, pageSize: 'LETTER' as const, loadPhoto: loadFixturePhoto },
@@ -41,6 +83,7 @@ const samples = [
     // One photo missing, to show its placeholder.
     loadPhoto: (sha: string) => (sha === fixturePhotos.pinBoss.sha256 ? null : loadFixturePhoto(sha)),
   },
+  { name: 'edge-a4', doc: edgeNotice(), pageSize: 'A4' as const, loadPhoto: loadFixturePhoto },
   {
     name: 'status-letter',
     doc: {

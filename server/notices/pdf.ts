@@ -213,6 +213,26 @@ function draw(
   l.doc.text(text, x, y, { width, lineGap: s.gap, characterSpacing: s.spacing ?? 0, align });
 }
 
+/** One line of text, cut with an ellipsis when it is wider than `width` (page furniture). */
+function drawLine(
+  l: Layout,
+  text: string,
+  s: TextStyle,
+  x: number,
+  y: number,
+  width: number,
+  align: 'left' | 'right' = 'left',
+) {
+  setStyle(l, s);
+  l.doc.text(text, x, y, {
+    width,
+    height: l.doc.currentLineHeight(false),
+    ellipsis: true,
+    characterSpacing: s.spacing ?? 0,
+    align,
+  });
+}
+
 function newPage(l: Layout) {
   l.doc.addPage();
   drawRunningHeader(l);
@@ -358,9 +378,19 @@ function drawLogo(doc: Doc, x: number, y: number, size: number) {
   doc.restore();
 }
 
-function drawFirstHeader(l: Layout, n: NoticeDocument) {
+/** The first page's band: logo, wordmark and the issuer. Returns the band's height. */
+function drawFirstHeader(l: Layout, n: NoticeDocument): number {
   const { doc } = l;
-  doc.rect(0, 0, l.pageW, HEADER_BAND).fill(C.base);
+  const issuerW = Math.min(250, l.width * 0.5);
+  const nameStyle: TextStyle = { font: 'semibold', size: 9.5, gap: 0.5, color: '#FFFFFF' };
+  const lineStyle: TextStyle = { font: 'regular', size: 7.6, gap: 0.8, color: C.baseMuted };
+  const issuerLines = [n.issuer.address, n.issuer.phone].filter((v): v is string => !!v);
+  const issuerH =
+    measure(l, n.issuer.name, nameStyle, issuerW) +
+    1 +
+    issuerLines.reduce((h, line) => h + measure(l, line, lineStyle, issuerW), 0);
+  const band = Math.max(HEADER_BAND, 14 + issuerH + 12);
+  doc.rect(0, 0, l.pageW, band).fill(C.base);
   drawLogo(doc, l.left - 4, 12, 42);
   draw(l, 'Pivotwatch', { font: 'bold', size: 17, gap: 0, color: '#FFFFFF' }, l.left + 42, 17, 200);
   draw(
@@ -372,18 +402,15 @@ function drawFirstHeader(l: Layout, n: NoticeDocument) {
     200,
   );
 
-  const issuerW = Math.min(250, l.width * 0.5);
   const ix = l.right - issuerW;
   let iy = 14;
-  const nameStyle: TextStyle = { font: 'semibold', size: 9.5, gap: 0.5, color: '#FFFFFF' };
-  const lineStyle: TextStyle = { font: 'regular', size: 7.6, gap: 0.8, color: C.baseMuted };
   draw(l, n.issuer.name, nameStyle, ix, iy, issuerW, 'right');
   iy += measure(l, n.issuer.name, nameStyle, issuerW) + 1;
-  for (const line of [n.issuer.address, n.issuer.phone]) {
-    if (!line) continue;
+  for (const line of issuerLines) {
     draw(l, line, lineStyle, ix, iy, issuerW, 'right');
     iy += measure(l, line, lineStyle, issuerW);
   }
+  return band;
 }
 
 function drawRunningHeader(l: Layout) {
@@ -393,8 +420,7 @@ function drawRunningHeader(l: Layout) {
   l.doc.text('Pivotwatch', l.left, y, { lineBreak: false });
   const w = textWidth(l, 'Pivotwatch', s);
   const rest = `  ·  ${l.title} ${l.reference}  ·  ${l.rideName}`;
-  setStyle(l, { ...S.small, size: 8 });
-  l.doc.text(rest, l.left + w, y + 0.6, { lineBreak: false, width: l.width - w, ellipsis: true });
+  drawLine(l, rest, { ...S.small, size: 8 }, l.left + w, y + 0.6, l.width - w);
   l.doc
     .moveTo(l.left, y + 15)
     .lineTo(l.right, y + 15)
@@ -411,7 +437,7 @@ function drawFooters(l: Layout, n: NoticeDocument) {
     const s: TextStyle = { ...S.small, size: 7.8, color: C.text };
     const pageWord = `Page ${i + 1} of ${range.count}`;
     const pw = textWidth(l, pageWord, { ...s, font: 'semibold' });
-    draw(
+    drawLine(
       l,
       `${titleOf(n)} ${n.reference}  ·  issued ${dateOf(n.issuedAt)}  ·  ${n.issuer.name}`,
       s,
@@ -420,12 +446,12 @@ function drawFooters(l: Layout, n: NoticeDocument) {
       l.width - pw - 12,
     );
     draw(l, pageWord, { ...s, font: 'semibold' }, l.right - pw - 1, y + 7, pw + 2, 'right');
-    setStyle(l, { ...S.small, size: 7.4 });
-    l.doc.text(`Read and acknowledge this notice in Pivotwatch: ${n.url}`, l.left, y + 19, {
-      width: l.width,
-      lineBreak: false,
-      ellipsis: true,
-    });
+    const lead = `Read and acknowledge this notice in Pivotwatch: ${n.url}`;
+    const urlStyle: TextStyle = { ...S.small, size: 7.4 };
+    // A long address drops the lead-in, then gets smaller, rather than lose its end.
+    const urlLine = textWidth(l, lead, urlStyle) <= l.width ? lead : n.url;
+    const fit = Math.max(5, Math.min(7.4, Math.floor((74 * l.width) / textWidth(l, urlLine, urlStyle)) / 10));
+    drawLine(l, urlLine, { ...urlStyle, size: fit }, l.left, y + 19, l.width);
   }
 }
 
@@ -556,6 +582,9 @@ function statusBoxes(l: Layout, n: NoticeDocument) {
 type Cell = { text: string; style?: TextStyle; mark?: { shape: Shape; color: string } };
 type Column<R> = { title: string; share: number; align?: 'left' | 'right'; cell: (row: R) => Cell };
 
+/** Room for a table's header row and its first two rows, kept with the heading above the table. */
+const TABLE_START = 80;
+
 const CELL_PAD_X = 5;
 const CELL_PAD_Y = 4;
 
@@ -597,8 +626,8 @@ function table<R>(
 
   const cellsOf = rows.map((r) => columns.map((c) => c.cell(r)));
   const heights = cellsOf.map((cells) => Math.max(...cells.map((c, i) => cellHeight(l, c, widths[i]))));
-  // Keep the header with at least the first row (and whatever the caller keeps above the table).
-  ensure(l, (opts.keepAbove ?? 0) + headH + (heights[0] ?? 0));
+  // Keep the header with the first two rows (and whatever the caller keeps above the table).
+  ensure(l, (opts.keepAbove ?? 0) + headH + (heights[0] ?? 0) + (heights[1] ?? 0));
   drawHead();
   const continued = () => {
     if (opts.continued) {
@@ -815,8 +844,8 @@ function inspectionPairs(n: NoticeDocument): { left: Pair[]; right: Pair[] } | n
   };
 }
 
-function titleBlock(l: Layout, n: NoticeDocument) {
-  const y = HEADER_BAND + 18;
+function titleBlock(l: Layout, n: NoticeDocument, band: number) {
+  const y = band + 18;
   const refW = 170;
   const titleStyle: TextStyle = { font: 'bold', size: 21, gap: 0, color: C.text };
   draw(l, titleOf(n), titleStyle, l.left, y, l.width - refW - 10);
@@ -872,7 +901,7 @@ function findingsSection(l: Layout, n: NoticeDocument, loaded: Map<string, Loade
 }
 
 function severityLegend(l: Layout) {
-  heading(l, 'What the severities mean', 0);
+  heading(l, 'What the severities mean', TABLE_START);
   table(
     l,
     [
@@ -901,7 +930,7 @@ function severityLegend(l: Layout) {
 }
 
 function resultsSection(l: Layout, n: NoticeDocument) {
-  heading(l, 'Readings and computed values', 40);
+  heading(l, 'Readings and computed values', TABLE_START + 18);
   if (n.results.length === 0) {
     flowText(l, 'This notice carries no readings or computed values.', S.body, l.left, l.width);
     return;
@@ -951,7 +980,7 @@ function loadSection(l: Layout, n: NoticeDocument, opts: { showEmpty: boolean })
     heading(l, 'Load summary', 40);
     flowText(l, 'This notice carries no load check.', S.body, l.left, l.width);
   } else if (n.loadSummary.length > 0) {
-    heading(l, 'Load summary', 40);
+    heading(l, 'Load summary', TABLE_START + 18);
     flowText(
       l,
       'Peak force at each pivot over one ride cycle, from the load check.',
@@ -1130,8 +1159,7 @@ export async function renderNoticePdf(n: NoticeDocument, opts: NoticePdfOptions)
     rideName: n.ride.name,
   };
 
-  drawFirstHeader(l, n);
-  titleBlock(l, n);
+  titleBlock(l, n, drawFirstHeader(l, n));
   l.pageStart = l.y;
   statusBoxes(l, n);
 
