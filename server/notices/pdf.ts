@@ -18,6 +18,7 @@ import { formatRatio } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { findingSeverities, severityInfo, type FindingSeverity } from '@/features/review/schema';
 import { rideClassLabel, rideClasses, type RideClass } from '@/features/rides/schema';
+import { rideStatusWords } from '@/server/notices/words';
 import { repoRoot } from '@/server/paths';
 
 export type PhotoLoader = (sha256: string) => Promise<Buffer | null> | Buffer | null;
@@ -100,9 +101,9 @@ const rideStatusMark: Record<
   NoticeDocument['operatingStatus']['status'],
   { word: string; shape: Shape; fg: string; bg: string }
 > = {
-  in_service: { word: 'In service', shape: 'disc', fg: C.within, bg: C.withinSoft },
-  restricted: { word: 'Restricted', shape: 'triangle', fg: C.near, bg: C.nearSoft },
-  out_of_service: { word: 'Out of service', shape: 'barred', fg: C.over, bg: C.overSoft },
+  in_service: { word: rideStatusWords.in_service, shape: 'disc', fg: C.within, bg: C.withinSoft },
+  restricted: { word: rideStatusWords.restricted, shape: 'triangle', fg: C.near, bg: C.nearSoft },
+  out_of_service: { word: rideStatusWords.out_of_service, shape: 'barred', fg: C.over, bg: C.overSoft },
 };
 
 const envelopeMark: Record<EnvelopeStatus, { shape: Shape; fg: string }> = {
