@@ -5,10 +5,12 @@
  * Call `refreshQueue(db, today, rideIds)` in the same transaction as any change to what decides a ride's
  * rows: an inspection arriving, analysed or decided; findings added, changed or closed; schedules; the
  * ride's name, class, status, site or operator. A rename of a site, company or person refreshes their
- * rides. `ensureQueueFresh` rebuilds everything once per calendar day, since "overdue" and "past due"
+ * rides. A change to some inspections alone may use the cheaper `refreshQueueInspections`. `ensureQueueFresh` rebuilds everything once per calendar day, since "overdue" and "past due"
  * change with the date alone.
  */
+import type Database from 'better-sqlite3';
 import { sql, type SQL } from 'drizzle-orm';
+import { SQLiteSyncDialect } from 'drizzle-orm/sqlite-core';
 
 import { findings, reviewQueue } from '@/db/server/review';
 import { inspections } from '@/db/server/inspections';
@@ -29,38 +31,63 @@ let generation = 0;
  */
 export const queueGeneration = (): number => generation;
 
-/**
- * Recomputes the queue rows of the given rides (all rides when `rideIds` is omitted) for `today`
- * (YYYY-MM-DD). Idempotent; cheap for a few rides, a second or so for tens of thousands.
- */
-export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[]): void {
-  if (rideIds && rideIds.length === 0) return;
-  generation++;
-  const ids = rideIds ? JSON.stringify([...new Set(rideIds)]) : null;
-  const onlyRides = (column: SQL): SQL =>
-    ids === null ? sql`1` : sql`${column} IN (SELECT value FROM json_each(${ids}))`;
+/** Where the statements take today's date and the rides' ids (a JSON array), bound at run time. */
+const TODAY = sql.raw('@today');
+const IDS = sql.raw('@ids');
 
-  db.run(sql`DELETE FROM ${reviewQueue} WHERE ${onlyRides(sql`${reviewQueue.rideId}`)}`);
-  db.run(sql`
+/**
+ * What a refresh recomputes: every row; the rows of some rides (`@ids` = ride ids); or the rows some
+ * inspections decide (`@ids` = inspection ids): their own, their originals' (an amendment supersedes its
+ * original) and their rides' own rows. The last is for changes that touch those inspections alone (one
+ * arriving, being analysed), and costs the same however many others wait on the ride.
+ */
+type Scope = 'all' | 'rides' | 'inspections';
+
+const inIds = (column: SQL) => sql`${column} IN (SELECT value FROM json_each(${IDS}))`;
+
+/** The two statements of a refresh of `scope`: delete the rows it covers, insert them afresh. */
+function refreshStatements(scope: Scope): SQL[] {
+  const scopeRides = sql`(SELECT x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)})`;
+  const onlyRides = (column: SQL): SQL =>
+    scope === 'all' ? sql`1` : scope === 'rides' ? inIds(column) : sql`${column} IN ${scopeRides}`;
+  // Scoped, the inspections are found through the ride or primary-key index; the unary + keeps SQLite
+  // from preferring the review-state index, which would walk every submitted inspection (ms per write).
+  const pendingScope =
+    scope === 'all'
+      ? sql`i.review_state = 'submitted'`
+      : sql`+i.review_state = 'submitted' AND ${scope === 'rides' ? inIds(sql`i.ride_id`) : inIds(sql`i.id`)}`;
+  const covered =
+    scope === 'all'
+      ? sql`1`
+      : scope === 'rides'
+        ? inIds(sql`${reviewQueue.rideId}`)
+        : sql`${reviewQueue.key} IN (
+            SELECT 'i:' || value FROM json_each(${IDS})
+            UNION ALL SELECT 'i:' || x.amends_id FROM ${inspections} x
+              WHERE ${inIds(sql`x.id`)} AND x.amends_id IS NOT NULL
+            UNION ALL SELECT 'r:' || x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)}
+          )`;
+  return [
+    sql`DELETE FROM ${reviewQueue} WHERE ${covered}`,
+    sql`
     WITH
       ride_due AS (
         SELECT ${inspectionSchedules.rideId} AS ride_id, MIN(${nextDueSql}) AS overdue_since
         FROM ${inspectionSchedules}
-        WHERE ${nextDueSql} < ${today} AND ${onlyRides(sql`${inspectionSchedules.rideId}`)}
+        WHERE ${nextDueSql} < ${TODAY} AND ${onlyRides(sql`${inspectionSchedules.rideId}`)}
         GROUP BY ${inspectionSchedules.rideId}
       ),
       ride_past AS (
         SELECT f.ride_id AS ride_id, COUNT(*) AS n, MIN(f.due_on) AS first_due
         FROM ${findings} f
-        WHERE f.state <> 'closed' AND f.due_on IS NOT NULL AND f.due_on < ${today}
+        WHERE f.state <> 'closed' AND f.due_on IS NOT NULL AND f.due_on < ${TODAY}
           AND ${onlyRides(sql`f.ride_id`)}
         GROUP BY f.ride_id
       ),
       pending AS (
         SELECT i.* FROM ${inspections} i
-        WHERE i.review_state = 'submitted'
+        WHERE ${pendingScope}
           AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
-          AND ${onlyRides(sql`i.ride_id`)}
       )
     INSERT INTO ${reviewQueue} (
       key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
@@ -102,9 +129,105 @@ export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[])
       LEFT JOIN ride_due d ON d.ride_id = r.id
       LEFT JOIN ride_past p ON p.ride_id = r.id
     WHERE (d.overdue_since IS NOT NULL OR p.n > 0)
-      AND NOT EXISTS (SELECT 1 FROM pending i WHERE i.ride_id = r.id)
+      AND NOT EXISTS (
+        SELECT 1 FROM ${inspections} i
+        WHERE i.ride_id = r.id AND i.review_state = 'submitted'
+          AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
+      )
       AND ${onlyRides(sql`r.id`)}
-  `);
+  `,
+  ];
+}
+
+const dialect = new SQLiteSyncDialect();
+const compiled = new Map<Scope, string[]>();
+
+/** The statements as SQL text with named parameters, compiled once. */
+function refreshTexts(scope: Scope): string[] {
+  let texts = compiled.get(scope);
+  if (!texts) {
+    texts = refreshStatements(scope).map((statement) => {
+      const query = dialect.sqlToQuery(statement);
+      if (query.params.length) throw new Error('queue refresh: every value must be a named parameter');
+      return query.sql;
+    });
+    compiled.set(scope, texts);
+  }
+  return texts;
+}
+
+type Params = { today: string; ids: string | null };
+type Connection = Pick<Database.Database, 'prepare'>;
+
+/**
+ * The better-sqlite3 connection under a drizzle database or transaction. Drizzle keeps it on the root
+ * database (`$client`) and, for a transaction, on its session; read by shape, null when not found.
+ */
+function connectionOf(db: object): Connection | null {
+  const session =
+    'session' in db && typeof db.session === 'object' && db.session !== null ? db.session : null;
+  const candidate: unknown =
+    '$client' in db ? db.$client : session && 'client' in session ? session.client : null;
+  return isConnection(candidate) ? candidate : null;
+}
+
+const isConnection = (value: unknown): value is Connection =>
+  typeof value === 'object' && value !== null && 'prepare' in value && typeof value.prepare === 'function';
+
+const prepared = new WeakMap<Connection, Map<string, Database.Statement>>();
+
+/**
+ * Runs one statement. Preparing these statements costs more than running them for a few rides, so each
+ * connection keeps them prepared; without a connection to hand, drizzle runs the same text.
+ */
+function execute(db: Tx, text: string, params: Params): void {
+  const connection = connectionOf(db);
+  if (!connection) {
+    const parts = text
+      .split(/(@today|@ids)\b/)
+      .map((part) =>
+        part === '@today' ? sql`${params.today}` : part === '@ids' ? sql`${params.ids}` : sql.raw(part),
+      );
+    db.run(sql.join(parts));
+    return;
+  }
+  let statements = prepared.get(connection);
+  if (!statements) {
+    statements = new Map();
+    prepared.set(connection, statements);
+  }
+  let statement = statements.get(text);
+  if (!statement) {
+    statement = connection.prepare(text);
+    statements.set(text, statement);
+  }
+  statement.run(params);
+}
+
+function refresh(db: Tx, today: string, scope: Scope, ids: readonly string[] | null): void {
+  generation++;
+  const params: Params = { today, ids: ids ? JSON.stringify([...new Set(ids)]) : null };
+  for (const text of refreshTexts(scope)) execute(db, text, params);
+}
+
+/**
+ * Recomputes the queue rows of the given rides (all rides when `rideIds` is omitted) for `today`
+ * (YYYY-MM-DD). Idempotent; under a millisecond for a few rides, about half a second for 10,000.
+ */
+export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[]): void {
+  if (rideIds && rideIds.length === 0) return;
+  refresh(db, today, rideIds ? 'rides' : 'all', rideIds ?? null);
+}
+
+/**
+ * Recomputes only what the given inspections decide: their rows, their originals' and their rides' own.
+ * Enough when the change touches nothing of the ride beyond these inspections (one arriving, amending
+ * another, being analysed or decided); a change to the ride, its schedules or findings needs
+ * `refreshQueue` for the ride.
+ */
+export function refreshQueueInspections(db: Tx, today: string, inspectionIds: readonly string[]): void {
+  if (inspectionIds.length === 0) return;
+  refresh(db, today, 'inspections', inspectionIds);
 }
 
 const sweptOn = new WeakMap<object, string>();

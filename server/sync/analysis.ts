@@ -13,7 +13,7 @@ import type { InspectionRecord } from '@/features/inspections/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { isOpen } from '@/server/sync/sqlite-client';
 
 /** The phone analyses with the function's default sampling; the server must use the same to compare. */
@@ -63,7 +63,6 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
     .select({
       record: inspections.record,
       designVersionId: inspections.designVersionId,
-      rideId: inspections.rideId,
     })
     .from(inspections)
     .where(eq(inspections.id, id))
@@ -104,7 +103,7 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
       })
       .where(and(eq(inspections.id, id), isNull(inspections.analysedAt)))
       .run();
-    if (changed.changes > 0) refreshQueue(tx, queueDay(db, now), [row.rideId]);
+    if (changed.changes > 0) refreshQueueInspections(tx, queueDay(db, now), [id]);
     return changed.changes > 0;
   });
 }

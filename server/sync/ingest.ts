@@ -21,7 +21,7 @@ import {
 import { zodIssues } from '@/features/api/errors';
 import { companyScope } from '@/server/auth/scope';
 import type { Db } from '@/server/db';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { sqliteOf } from '@/server/sync/sqlite-client';
 
 export type PushBatch = { batchId: string; records: unknown[] };
@@ -358,15 +358,11 @@ export function ingestBatch(
       ctx.known.set(id, row);
     const results = batch.records.map((raw) => ingestRecord(ctx, raw));
     // The review queue learns of the new inspections (and of originals an amendment supersedes) at once.
-    const touched = new Set<string>();
-    for (const r of results) {
-      const rideId = r.status === 'accepted' && r.id ? ctx.known.get(r.id)?.rideId : undefined;
-      if (rideId) touched.add(rideId);
-    }
-    refreshQueue(db, queueDay(db, now), [...touched]);
+    const accepted = results.flatMap((r) => (r.status === 'accepted' && r.id ? [r.id] : []));
+    refreshQueueInspections(db, queueDay(db, now), accepted);
     const result: PushResult = { batchId: batch.batchId, results };
     st.insertBatch.run(user.id, batch.batchId, ctx.receivedAt, batch.records.length, JSON.stringify(result));
-    return { result, replayed: false, accepted: results.filter((r) => r.status === 'accepted').length };
+    return { result, replayed: false, accepted: accepted.length };
   });
   return run.immediate();
 }

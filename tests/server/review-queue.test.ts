@@ -17,6 +17,7 @@ import { eq } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
+import { rides } from '@/db/server/schema';
 import { DEFAULT_NEAR_MARGIN } from '@/features/loads/engine/envelope';
 import { queueQuerySchema, queueResponseSchema, urgencies, type QueueItem } from '@/features/review/schema';
 import type { InspectionRecord } from '@/features/inspections/schema';
@@ -25,7 +26,7 @@ import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb } from '@/server/db';
 import { createLogger } from '@/server/logger';
 import { queuePageSql } from '@/server/review/queue';
-import { refreshQueue } from '@/server/review/queue-refresh';
+import { refreshQueue, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
 import { sqliteOf } from '@/server/sync/sqlite-client';
@@ -426,7 +427,19 @@ describe('input and access', () => {
   });
 });
 
+/** Every row of the queue, in key order. */
+const allRows = () =>
+  sqliteOf(server.db).prepare('SELECT * FROM review_queue ORDER BY key').all() as Record<string, unknown>[];
+
 describe('the queue follows what decides it', () => {
+  // Whatever a write refreshed (some rides, some inspections), the queue must be what a full rebuild for
+  // the same day makes of the same data.
+  afterEach(() => {
+    const kept = allRows();
+    refreshQueue(server.db, today);
+    expect(kept).toEqual(allRows());
+  });
+
   test('a ride rename, in the item and the search', async () => {
     await api.admin.patch(`/api/rides/${r.swinger.id}`, { name: 'Quay Spinner' }).expect(200);
     expect(names((await queue('&urgency=over')).items)).toEqual(['Quay Spinner']);
@@ -536,6 +549,33 @@ describe('the queue follows what decides it', () => {
     expect(after.counts.past_due).toBe(before.counts.past_due - 1);
     refreshQueue(server.db, today, [r.kite.id]);
     expect((await queue()).counts.past_due).toBe(before.counts.past_due);
+  });
+});
+
+describe('refreshing', () => {
+  test('without a connection to prepare on, drizzle runs the same statements to the same rows', () => {
+    const before = allRows();
+    const run: Pick<typeof server.db, 'run'> = { run: (query) => server.db.run(query) };
+    server.db.transaction(() => {
+      refreshQueue(run, today);
+      expect(allRows()).toEqual(before);
+      refreshQueue(run, today, [r.flyer.id, r.kite.id]);
+      refreshQueueInspections(run, today, Object.keys(records));
+    });
+    expect(allRows()).toEqual(before);
+    expect(before.length).toBeGreaterThanOrEqual(6);
+  });
+
+  test('a refresh that rolls back leaves the queue and its counts as they were', async () => {
+    const before = await queue();
+    expect(() =>
+      server.db.transaction((tx) => {
+        tx.update(rides).set({ name: 'Quay Renamed' }).where(eq(rides.id, r.wheel.id)).run();
+        refreshQueue(tx, today, [r.wheel.id]);
+        throw new Error('changed my mind');
+      }),
+    ).toThrow('changed my mind');
+    expect(await queue()).toEqual(before);
   });
 });
 
