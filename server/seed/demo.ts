@@ -19,9 +19,11 @@ import { assertUserCompany } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
-import { demoChecklists } from '@/server/seed/demo-checklists';
 import { addDays, dateOf } from '@/server/registry/schedules';
+import { addDemoActivity } from '@/server/seed/demo-activity';
+import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
+import { storeDemoPhotos } from '@/server/seed/demo-photos';
 import { demoSchedules } from '@/server/seed/demo-schedules';
 
 /*
@@ -223,28 +225,43 @@ export const demoAuthorEmail = 'admin@pivotwatch.test';
 /** The demo inspector, who gets some of the demo's inspections assigned. */
 export const demoInspectorEmail = 'inspector@pivotwatch.test';
 
+export type SeedOptions = {
+  /** The seed day; demo dates are relative to it. */
+  now?: Date;
+  /**
+   * Add the demo's inspection history (inspections, analyses, decisions, findings, photos) too. Defaults
+   * to on when seeding a development server's data directory (`config.dataDir`, where the history's photos
+   * are stored), so `npm start` opens on a working review desk; off under test, where every test starts
+   * from the register alone and makes the inspections it needs.
+   */
+  activity?: boolean;
+};
+
 /**
  * Seeds the demo scenario into a database that has no users yet, in one transaction. Does nothing (and says
  * why) when users exist or when running in production, where demo accounts with a published password
  * would be an open door. A demo database seeded by an earlier release gets the parts added since (design
- * data…) through `topUpDemoData`, which only fills what is missing.
+ * data, inspection history…) through `topUpDemoData`, which only fills what is missing. Photo bytes of the
+ * history are stored under `config.dataDir` when it is given.
  */
 export async function seedDemoData(
   db: Db,
-  config: Pick<Config, 'nodeEnv'>,
-  opts: { now?: Date } = {},
+  config: Pick<Config, 'nodeEnv'> & Partial<Pick<Config, 'dataDir'>>,
+  opts: SeedOptions = {},
 ): Promise<SeedResult> {
   if (config.nodeEnv === 'production') return 'skipped_production';
   const now = opts.now ?? new Date();
+  const activity = opts.activity ?? (config.nodeEnv === 'development' && config.dataDir !== undefined);
   if (countUsers(db) > 0) {
-    topUpDemoData(db, now);
+    topUpDemoData(db, now, { activity });
+    if (activity) await storeActivityPhotos(db, config, now);
     return 'skipped_existing_users';
   }
 
   // bcrypt is async and slow; hash before the (synchronous) transaction so it holds the lock briefly.
   const hashes = await Promise.all(demoUsers.map(() => hashPassword(demoPassword)));
 
-  return db.transaction((tx) => {
+  const result = db.transaction((tx) => {
     // Checked again inside the transaction: another process may have seeded while we were hashing.
     if (countUsers(tx) > 0) return 'skipped_existing_users';
 
@@ -308,21 +325,36 @@ export async function seedDemoData(
         })
         .run();
     });
-    topUpDemoData(tx, now);
+    topUpRegister(tx, now);
     return 'seeded' as const;
   });
+  if (result === 'seeded' && activity) {
+    addDemoActivity(db, now);
+    await storeActivityPhotos(db, config, now);
+  }
+  return result;
+}
+
+/** The history's photo bytes, as the demo inspector's phone would have uploaded them. */
+async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir'>>, now: Date) {
+  if (!config.dataDir) return;
+  const inspector = db.select({ id: users.id }).from(users).where(eq(users.email, demoInspectorEmail)).get();
+  if (inspector) await storeDemoPhotos(db, config.dataDir, inspector.id, now);
 }
 
 /**
  * Adds the demo records that are missing: version 1 of the design data of each demo ride (found by
- * serial) that has no design data at all, the demo checklist templates when there are no templates, and
- * the demo schedule when there are no schedules. Design versions and templates are never deleted
+ * serial) that has no design data at all, the demo checklist templates when there are no templates, the
+ * demo schedule when there are no schedules, and (with `activity`) the demo's inspection history, whose
+ * fixed ids and batch ids let it be added exactly once. Design versions and templates are never deleted
  * (templates are archived), so filling an empty place changes nothing anyone entered. Safe to run again.
  */
-export function topUpDemoData(
-  db: Pick<Db, 'select' | 'insert' | 'transaction'>,
-  now: Date = new Date(),
-): void {
+export function topUpDemoData(db: Db, now: Date = new Date(), opts: { activity?: boolean } = {}): void {
+  db.transaction((tx) => topUpRegister(tx, now));
+  if (opts.activity) addDemoActivity(db, now);
+}
+
+function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: Date): void {
   db.transaction((tx) => {
     const author = tx.select({ id: users.id }).from(users).where(eq(users.email, demoAuthorEmail)).get();
     if (!author) return;

@@ -226,7 +226,7 @@ describe('the inspector’s phone', () => {
     await tick();
     await api.supervisor.patch(`/api/findings/${finding.id}`, { severity: 'stop_now' });
     const again = buildPull(server.db, inspector, quiet.cursor, { overlapMs: 0 });
-    expect(again.decisions?.map((d) => [d.inspectionId, d.findings.map((f) => f.severity)])).toEqual([
+    expect(again.decisions?.map((d) => [d.inspectionId, (d.findings ?? []).map((f) => f.severity)])).toEqual([
       [record.id, ['stop_now']],
     ]);
     await tick();

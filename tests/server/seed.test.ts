@@ -1,9 +1,15 @@
+import { createHash } from 'node:crypto';
 import fs from 'node:fs';
+import path from 'node:path';
 
 import bcrypt from 'bcryptjs';
-import { count, eq } from 'drizzle-orm';
+import { and, asc, count, eq } from 'drizzle-orm';
 
-import { companies, rides, sites, users } from '@/db/server/schema';
+import { inspectionReadings, inspections, photos, syncBatches } from '@/db/server/inspections';
+import { findings, reviewQueue } from '@/db/server/review';
+import { auditLog, companies, designVersions, rides, sites, users } from '@/db/server/schema';
+import { analyseInspection } from '@/features/inspections/analysis';
+import { urgencies } from '@/features/review/schema';
 import { openDb, type OpenedDb } from '@/server/db';
 import {
   demoOperators,
@@ -13,6 +19,9 @@ import {
   demoUsers,
   seedDemoData,
 } from '@/server/seed/demo';
+import { demoInspectionId, demoInspections } from '@/server/seed/demo-activity';
+import { demoPhotoFiles, demoPhotosDir } from '@/server/seed/demo-photos';
+import { photoPathOf, photosDirOf } from '@/server/sync/photo-store';
 
 import { makeTempDir } from './helpers';
 
@@ -107,4 +116,139 @@ test('the database is opened with WAL and foreign keys on, and refuses a ride fo
   expect(() =>
     database.db.insert(rides).values({ name: 'Orphan', rideClass: 'other', operatorCompanyId: 'nope' }).run(),
   ).toThrow(/FOREIGN KEY/);
+});
+
+describe('the demo’s inspection history', () => {
+  const seedDay = new Date('2026-05-04T09:30:00.000Z');
+  const inspectionCount = (db: OpenedDb['db']) => db.select({ n: count() }).from(inspections).get()?.n;
+
+  test('a development server’s data directory gets it: a useful review desk and trends on first start', async () => {
+    const database = freshDb();
+    const dataDir = dirs[dirs.length - 1];
+    expect(await seedDemoData(database.db, { nodeEnv: 'development', dataDir }, { now: seedDay })).toBe(
+      'seeded',
+    );
+    const { db } = database;
+    const rows = db.select().from(inspections).all();
+    expect(rows).toHaveLength(demoInspections.length);
+    // Every one analysed by the server's own analysis, as a pushed inspection is.
+    expect(rows.every((r) => r.analysedAt !== null && r.analysis !== null)).toBe(true);
+    for (const r of rows) {
+      const design = db
+        .select()
+        .from(designVersions)
+        .where(eq(designVersions.id, r.designVersionId ?? ''))
+        .get();
+      if (!design) throw new Error(`demo inspection ${r.id} has no design data`);
+      expect(r.analysis?.joints.map((j) => j.peakForceN)).toEqual(
+        analyseInspection(design.data, r.record.readings).joints.map((j) => j.peakForce.value),
+      );
+    }
+
+    // Waiting for a decision: one over its limit, one with failed items, one near a limit, one with nothing.
+    const waiting = rows.filter((r) => r.reviewState === 'submitted');
+    const byId = (key: string) => rows.find((r) => r.id === demoInspectionId(key));
+    expect(byId('tidebreaker-follow-up-0')).toMatchObject({
+      reviewState: 'submitted',
+      analysisStatus: 'over',
+    });
+    expect(
+      byId('tidebreaker-follow-up-0')?.analysis?.envelope.find((e) => e.id === 'joints.1.force')?.status,
+    ).toBe('over');
+    expect(byId('whirligig-setup-0')).toMatchObject({ failedItems: 2, analysisStatus: 'within' });
+    expect(byId('skylark-periodic-1')).toMatchObject({ analysisStatus: 'near', failedItems: 0 });
+    // That one came from a phone with an older app, so the analysis says where its preview differs.
+    expect(byId('skylark-periodic-1')?.analysis?.differences.length).toBeGreaterThan(0);
+    expect(byId('wheel-periodic-0')).toMatchObject({ analysisStatus: 'within', failedItems: 0 });
+    expect(waiting).toHaveLength(4);
+    const queue = db.select().from(reviewQueue).all();
+    expect(new Set(queue.map((q) => urgencies[q.urgency]))).toEqual(
+      new Set(['over', 'failed', 'near', 'awaiting', 'past_due']),
+    );
+
+    // History: decided inspections on several rides, with wear readings drifting over months.
+    const decided = rows.filter((r) => r.reviewState !== 'submitted');
+    expect(decided.every((r) => r.reviewedAt !== null && r.reviewedBy !== null)).toBe(true);
+    expect(new Set(decided.map((r) => r.rideId)).size).toBeGreaterThanOrEqual(4);
+    for (const [serial, joint] of [
+      ['ORW-PX15-0412', 0],
+      ['ORW-RX30-0158', 1],
+    ] as const) {
+      const ride = db.select().from(rides).where(eq(rides.serial, serial)).get();
+      // The approved inspections' clearances, oldest first: rising toward the limit.
+      const clearances = db
+        .select({
+          v: inspectionReadings.valueSi,
+          kind: inspectionReadings.kind,
+          joint: inspectionReadings.joint,
+        })
+        .from(inspectionReadings)
+        .innerJoin(inspections, eq(inspections.id, inspectionReadings.inspectionId))
+        .where(and(eq(inspectionReadings.rideId, ride?.id ?? ''), eq(inspections.reviewState, 'approved')))
+        .orderBy(asc(inspections.submittedAt))
+        .all()
+        .filter((r) => r.kind === 'clearance' && r.joint === joint)
+        .map((r) => r.v);
+      expect(clearances.length).toBeGreaterThanOrEqual(5);
+      expect([...clearances].sort((a, b) => a - b)).toEqual(clearances);
+    }
+    expect(db.select({ n: count() }).from(findings).get()?.n).toBeGreaterThan(0);
+
+    // Photos: the bytes are on disk and in the photos table, for every photo a demo inspection refers to.
+    const referenced = new Set(rows.flatMap((r) => r.record.photos.map((p) => p.sha256)));
+    expect(referenced.size).toBeGreaterThanOrEqual(3);
+    for (const sha of referenced) {
+      const file = photoPathOf(dataDir, sha);
+      expect(createHash('sha256').update(fs.readFileSync(file)).digest('hex')).toBe(sha);
+      expect(db.select().from(photos).where(eq(photos.sha256, sha)).get()?.mime).toBe('image/jpeg');
+    }
+    // The demo pictures are small JPEGs of our own.
+    for (const { name } of demoPhotoFiles) {
+      const size = fs.statSync(path.join(demoPhotosDir, `${name}.jpg`)).size;
+      expect(size).toBeGreaterThan(2_000);
+      expect(size).toBeLessThan(80_000);
+    }
+  });
+
+  test('tests and databases without a data directory get the register only', async () => {
+    const database = freshDb();
+    await seedDemoData(database.db, { nodeEnv: 'test', dataDir: dirs[dirs.length - 1] });
+    expect(inspectionCount(database.db)).toBe(0);
+    const other = freshDb();
+    await seedDemoData(other.db, { nodeEnv: 'development' });
+    expect(inspectionCount(other.db)).toBe(0);
+  });
+
+  test('an existing demo database gets the history on its next start, exactly once', async () => {
+    const database = freshDb();
+    const dataDir = dirs[dirs.length - 1];
+    await seedDemoData(database.db, { nodeEnv: 'development', dataDir }, { now: seedDay, activity: false });
+    expect(inspectionCount(database.db)).toBe(0);
+    const { db } = database;
+    const everything = () => ({
+      inspections: inspectionCount(db),
+      findings: db.select({ n: count() }).from(findings).get()?.n,
+      photos: db.select({ n: count() }).from(photos).get()?.n,
+      batches: db.select({ n: count() }).from(syncBatches).get()?.n,
+      audit: db.select({ n: count() }).from(auditLog).get()?.n,
+      files: fs.readdirSync(photosDirOf(dataDir)).length,
+    });
+
+    const later = new Date(seedDay.getTime() + 3 * 86_400_000);
+    expect(await seedDemoData(db, { nodeEnv: 'development', dataDir }, { now: later })).toBe(
+      'skipped_existing_users',
+    );
+    const once = everything();
+    expect(once.inspections).toBe(demoInspections.length);
+    expect(once.photos).toBe(demoPhotoFiles.length);
+    expect(once.files).toBe(demoPhotoFiles.length);
+    expect(once.audit).toBe(0);
+
+    await seedDemoData(
+      db,
+      { nodeEnv: 'development', dataDir },
+      { now: new Date(later.getTime() + 86_400_000) },
+    );
+    expect(everything()).toEqual(once);
+  });
 });
