@@ -49,7 +49,8 @@ export function demoUuid(name: string): string {
   return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-${hex.slice(12, 16)}-${hex.slice(16, 20)}-${hex.slice(20)}`;
 }
 
-const mm = (v: number) => v / 1000;
+// Rounded, so a reading reads back as typed (0.12 mm is 0.00012 m, not 0.00011999999999999999).
+const mm = (v: number) => Number((v / 1000).toPrecision(10));
 const rpm = (v: number) => (v * 2 * Math.PI) / 60;
 const deg = (v: number) => (v * Math.PI) / 180;
 
