@@ -5,7 +5,7 @@ import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
 import { requireAuth, requireRole } from '@/server/http/require-auth';
 import { validate } from '@/server/http/validate';
-import { readQueue } from '@/server/review/queue';
+import { readQueueJson } from '@/server/review/queue';
 import { queueToday } from '@/server/review/queue-refresh';
 
 const queueInput = validate({ query: queueQuerySchema });
@@ -30,7 +30,7 @@ export function reviewRouter(deps: ApiDeps): Router {
       throw new HttpError(400, 'validation_failed', 'Some fields are missing or invalid.', [
         { path: 'query.to', message: 'Must be on or after the from date' },
       ]);
-    res.json(readQueue(deps.db, query, queueToday(nowOf(deps))));
+    res.type('application/json').send(readQueueJson(deps.db, query, queueToday(nowOf(deps))));
   });
 
   return router;

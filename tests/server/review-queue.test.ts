@@ -19,13 +19,19 @@ import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { rides } from '@/db/server/schema';
 import { DEFAULT_NEAR_MARGIN } from '@/features/loads/engine/envelope';
-import { queueQuerySchema, queueResponseSchema, urgencies, type QueueItem } from '@/features/review/schema';
+import {
+  queueItemSchema,
+  queueQuerySchema,
+  queueResponseSchema,
+  urgencies,
+  type QueueItem,
+} from '@/features/review/schema';
 import type { InspectionRecord } from '@/features/inspections/schema';
 import { createApp } from '@/server/app';
 import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb } from '@/server/db';
 import { createLogger } from '@/server/logger';
-import { queuePageSql } from '@/server/review/queue';
+import { queuePageSql, readQueue } from '@/server/review/queue';
 import { refreshQueue, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
@@ -267,6 +273,16 @@ describe('order and counts', () => {
     expect(pastDue).toMatchObject({ at: '2026-03-03', findingsPastDue: 1, overdueSince: null });
     expect(awaiting).toMatchObject({ inspectorName: 'Mira Delacourt', siteName: 'Harrow Green fairground' });
     expect(awaiting.operatorName).toBe('Brindlecombe Amusements');
+  });
+
+  test('items have exactly the fields of the shared schema, the same as readQueue gives', async () => {
+    const res = await api.supervisor.get(`/api/review/queue?operatorId=${ids.company}`);
+    expect(res.headers['content-type']).toMatch(/^application\/json/);
+    const fields = Object.keys(queueItemSchema.shape).sort();
+    for (const item of res.body.items) expect(Object.keys(item).sort()).toEqual(fields);
+    expect(res.body).toEqual(
+      readQueue(server.db, queueQuerySchema.parse({ operatorId: ids.company }), today),
+    );
   });
 
   test('within one urgency the longest waiting comes first; a ride with a submitted inspection has no row of its own', async () => {
