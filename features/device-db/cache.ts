@@ -156,6 +156,11 @@ export async function readDecision(dev: DeviceDb, inspectionId: string): Promise
   return parseEach(pulledDecisionSchema, rows)[0] ?? null;
 }
 
+/** Every decision the phone holds, for the inspector's list of sent inspections. */
+export async function readDecisions(dev: DeviceDb): Promise<PulledDecision[]> {
+  return parseEach(pulledDecisionSchema, await dev.db.select().from(decisions).all());
+}
+
 export async function removeCached(
   dev: DeviceDb,
   removed: { rides?: string[]; assignments?: string[]; templates?: string[] },

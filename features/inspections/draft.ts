@@ -28,6 +28,8 @@ export type Draft = {
   readings: Reading[];
   photos: PhotoRef[];
   notes: string;
+  /** Set on a correction of an inspection a supervisor returned: the id of the one it corrects. */
+  amendsId?: string | null;
 };
 
 export function newDraft(args: {
@@ -56,6 +58,36 @@ export function newDraft(args: {
     readings: [],
     photos: [],
     notes: '',
+  };
+}
+
+/**
+ * A correction of a returned inspection: a new draft that starts from everything the original recorded
+ * (answers, readings, photos, notes) and is sent as an amendment of it. The original stays as it was.
+ */
+export function newCorrection(args: {
+  id: string;
+  original: InspectionRecord;
+  rideName: string;
+  now: Date;
+}): Draft {
+  const at = args.now.toISOString();
+  const o = args.original;
+  return {
+    id: args.id,
+    rideId: o.rideId,
+    rideName: args.rideName,
+    designVersionId: o.designVersionId,
+    templateId: o.templateId,
+    templateVersion: o.templateVersion,
+    type: o.type,
+    startedAt: at,
+    updatedAt: at,
+    checklist: o.checklist.map((a) => ({ ...a })),
+    readings: o.readings.map((r) => ({ ...r })),
+    photos: o.photos.map((p) => ({ ...p })),
+    notes: o.notes ?? '',
+    amendsId: o.id,
   };
 }
 
@@ -137,7 +169,7 @@ export function toRecord(d: Draft, preview: DevicePreview | null, now: Date): In
     photos: d.photos,
     notes: d.notes || undefined,
     preview,
-    amendsId: null,
+    amendsId: d.amendsId ?? null,
   });
 }
 

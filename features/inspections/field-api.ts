@@ -11,16 +11,19 @@ import { useDeviceDb } from '@/features/device-db/provider';
 import {
   readAssignments,
   readCurrentDesign,
+  readDecisions,
   readDesignVersion,
   readRide,
   readRides,
   readTemplates,
 } from '@/features/device-db/cache';
 import { listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
+import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoDataUri } from '@/features/device-db/photos';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import { type Draft, newDraft, toRecord } from '@/features/inspections/draft';
+import { type Draft, newCorrection, newDraft, toRecord } from '@/features/inspections/draft';
 import type { InspectionType } from '@/features/inspections/schema';
+import { buildSentList } from '@/features/inspections/sent';
 import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
 
 export const fieldKeys = {
@@ -29,6 +32,8 @@ export const fieldKeys = {
   ride: (id: string) => [...fieldKeys.all, 'ride', id] as const,
   draft: (id: string) => [...fieldKeys.all, 'draft', id] as const,
   photo: (sha: string) => [...fieldKeys.all, 'photo', sha] as const,
+  /** Sent inspections with the supervisors' decisions on them. */
+  sent: () => [...fieldKeys.all, 'sent'] as const,
 };
 
 /** Device reads are local and cheap; refetch on focus keeps lists honest after a sync. */
@@ -170,7 +175,67 @@ export function useSubmitDraftMutation() {
       return submitDraft(dev, toRecord(draft, preview, new Date()));
     },
     // The recording screen leaves on success; re-reading its draft now would flash "not found".
-    onSuccess: () => client.invalidateQueries({ queryKey: fieldKeys.rides() }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: fieldKeys.rides() }),
+        client.invalidateQueries({ queryKey: fieldKeys.sent() }),
+      ]),
+  });
+}
+
+/**
+ * What the inspector has sent and what the supervisors decided, read from the phone alone: the outbox,
+ * the decisions the last sync brought, and any correction being recorded. Returned ones come first.
+ */
+export function useSentInspectionsQuery() {
+  const dev = useDeviceDb();
+  return useQuery({
+    queryKey: fieldKeys.sent(),
+    staleTime: DEVICE_STALE_MS,
+    queryFn: async () => {
+      const [outbox, decisions, rides, drafts] = await Promise.all([
+        listOutbox(dev),
+        readDecisions(dev),
+        readRides(dev),
+        listDrafts(dev),
+      ]);
+      const corrections: { id: string; amendsId: string }[] = [];
+      for (const d of drafts) {
+        const amendsId = (await loadDraft<Draft>(dev, d.id))?.data.amendsId;
+        if (amendsId) corrections.push({ id: d.id, amendsId });
+      }
+      return buildSentList({ outbox, decisions, rides, corrections });
+    },
+  });
+}
+
+/**
+ * Starts correcting a returned inspection: a new draft from the original record, sent later as its
+ * amendment. Saved on the device before the recording screen opens.
+ */
+export function useStartCorrectionMutation() {
+  const dev = useDeviceDb();
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (inspectionId: string) => {
+      const original = await getOutboxItem(dev, inspectionId);
+      if (!original)
+        throw new Error('The returned inspection is not on this phone. Start a new inspection instead.');
+      const ride = await readRide(dev, original.record.rideId);
+      const draft = newCorrection({
+        id: randomUUID(),
+        original: original.record,
+        rideName: ride?.name ?? 'Ride',
+        now: new Date(),
+      });
+      await saveDraft(dev, { id: draft.id, rideId: draft.rideId, data: draft });
+      return draft;
+    },
+    onSuccess: (draft) => {
+      client.setQueryData(fieldKeys.draft(draft.id), draft);
+      void client.invalidateQueries({ queryKey: fieldKeys.rides() });
+      void client.invalidateQueries({ queryKey: fieldKeys.sent() });
+    },
   });
 }
 

@@ -121,7 +121,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   return (
     <Screen
       title={draft.rideName}
-      subtitle={`${inspectionTypeLabel[draft.type]} · started ${new Date(draft.startedAt).toLocaleString('en-GB')}`}
+      subtitle={`${draft.amendsId ? 'Correction of a returned inspection · ' : ''}${inspectionTypeLabel[draft.type]} · started ${new Date(draft.startedAt).toLocaleString('en-GB')}`}
     >
       <View style={styles.progress} accessibilityLabel="Progress">
         <Text variant="small">

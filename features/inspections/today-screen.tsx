@@ -12,19 +12,28 @@ import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
 import { firstName, greeting, longDate } from '@/features/home/greeting';
-import { useFieldRidesQuery, useStartInspectionMutation } from '@/features/inspections/field-api';
+import {
+  useFieldRidesQuery,
+  useSentInspectionsQuery,
+  useStartInspectionMutation,
+} from '@/features/inspections/field-api';
 import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/inspections/schema';
 import { scheduleSchema } from '@/features/registry/schema';
 import { rideClassLabel } from '@/features/rides/schema';
+import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
 import { useSyncStatus } from '@/features/sync/use-sync-status';
 
 /**
- * The inspector's day, read from the phone: assigned rides first, drafts to resume, what is waiting to
- * be sent. Works with no signal once the phone has synced.
+ * The inspector's day, read from the phone: inspections a supervisor returned for correction, drafts to
+ * resume, assigned rides, and what was sent with the supervisors' decisions. Works with no signal once
+ * the phone has synced.
  */
 export function TodayScreen() {
   const rides = useFieldRidesQuery();
+  const sent = useSentInspectionsQuery();
+  const returned = sent.data?.filter((s) => s.needsAction) ?? [];
+  const others = sent.data?.filter((s) => !s.needsAction) ?? [];
   const sync = useSyncStatus();
   const wide = useWide();
   // First visit on a fresh phone: fetch the round while there is a connection.
@@ -40,6 +49,8 @@ export function TodayScreen() {
       {(user) => (
         <Screen title={`${greeting()}, ${firstName(user.name)}`} subtitle={longDate()}>
           <SyncPanel status={sync} />
+          {/* Returned inspections come before anything else: they wait on this inspector. */}
+          <SentInspections list={returned} />
           <QueryState query={rides}>
             {(list) =>
               list.length === 0 ? (
@@ -81,6 +92,7 @@ export function TodayScreen() {
               )
             }
           </QueryState>
+          <SentInspections list={others} />
         </Screen>
       )}
     </RoleGate>
