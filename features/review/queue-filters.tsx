@@ -94,7 +94,7 @@ function DateField({
       error={error ?? undefined}
       autoCapitalize="none"
       autoCorrect={false}
-      inputMode="numeric"
+      keyboardType="numbers-and-punctuation"
       maxLength={10}
     />
   );

@@ -85,7 +85,7 @@ function Queue() {
   };
 
   return (
-    <Screen title="Review queue" subtitle="What needs a supervisor’s eye, most urgent first.">
+    <Screen title="Review" subtitle="What needs a supervisor’s eye, most urgent first.">
       <UrgencyTiles
         counts={queue.data?.counts}
         chosen={chosen}
