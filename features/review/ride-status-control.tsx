@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { z } from 'zod';
@@ -45,7 +45,7 @@ export function RideStatusControl({
 }) {
   const setStatus = useSetRideStatus(rideId, inspectionId);
   const [saved, setSaved] = useState<RideStatus | null>(null);
-  const { control, handleSubmit, setError, formState } = useForm<FormIn, unknown, FormOut>({
+  const { control, handleSubmit, setError, setFocus, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(rideStatusFormSchema),
     defaultValues: {
       status: startWith ?? status,
@@ -53,6 +53,10 @@ export function RideStatusControl({
     },
   });
   const chosen = useWatch({ control, name: 'status' });
+  // Opened with a status to set (from the approve warning): the reason is what is still needed.
+  useEffect(() => {
+    if (startWith && startWith !== 'in_service') setFocus('statusReason');
+  }, [startWith, setFocus]);
   const save = useServerSubmit(
     { handleSubmit, setError, formState },
     async (values) => {
