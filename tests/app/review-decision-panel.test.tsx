@@ -1,0 +1,512 @@
+/**
+ * The decision panel beside an inspection, against a stand-in server that answers in the API's shapes
+ * (features/review/schema.ts: findingInputSchema, findingResponseSchema, decisionInputSchema,
+ * decisionResponseSchema; errors as features/api/errors.ts). What is checked is the contract: what the
+ * panel sends, what it shows at once (optimistic), what it shows after the server's answer, and that a
+ * refusal rolls back and is explained. Names and rides are the invented demo scenario.
+ */
+import { type QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
+import { act, fireEvent, render, screen, waitFor, within } from '@testing-library/react-native';
+
+import { apiFetch } from '@/features/api/client';
+import { makeQueryClient } from '@/features/api/query-client';
+import { DecisionPanel } from '@/features/review/decision-panel';
+import { reviewKeys } from '@/features/review/keys';
+import {
+  type Finding,
+  decisionInputSchema,
+  findingInputSchema,
+  findingPatchSchema,
+} from '@/features/review/schema';
+
+jest.mock('@/features/auth/token-store', () => ({
+  tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
+}));
+
+const INSPECTION = 'insp-7';
+const PIN_PHOTO = 'a'.repeat(64);
+const BUSHING_PHOTO = 'b'.repeat(64);
+const photos = [
+  { sha256: PIN_PHOTO, caption: 'Main pivot pin, drive side' },
+  { sha256: BUSHING_PHOTO, caption: 'Lower bushing' },
+];
+
+type Detail = {
+  inspection: {
+    id: string;
+    reviewState: 'submitted' | 'approved' | 'returned';
+    reviewNote: string | null;
+    reviewedAt: string | null;
+    reviewedByName: string | null;
+    rideStatus: 'in_service' | 'restricted' | 'out_of_service';
+    rideStatusReason: string | null;
+  };
+};
+
+type Call = { method: string; path: string; body: unknown };
+type Reply = { status: number; body?: unknown };
+
+/** The stand-in server: its own state, every request recorded, and routes a test may take over. */
+let server: {
+  detail: Detail;
+  findings: Finding[];
+  calls: Call[];
+  override: (call: Call) => Promise<Reply | undefined> | Reply | undefined;
+};
+
+function finding(over: Partial<Finding>): Finding {
+  return {
+    id: 'f-1',
+    inspectionId: INSPECTION,
+    rideId: 'ride-3',
+    number: 1,
+    severity: 'note',
+    description: 'Paint flaking on the arm',
+    ruleRef: null,
+    requiredAction: null,
+    dueOn: null,
+    photoShas: [],
+    state: 'open',
+    createdAt: '2026-06-02T09:00:00.000Z',
+    createdByName: 'Mara Quill',
+    updatedAt: '2026-06-02T09:00:00.000Z',
+    updatedByName: 'Mara Quill',
+    closedAt: null,
+    closedByName: null,
+    stateNote: null,
+    ...over,
+  };
+}
+
+function answer(reply: Reply): Response {
+  return new Response(reply.body === undefined ? null : JSON.stringify(reply.body), {
+    status: reply.status,
+    headers: { 'Content-Type': 'application/json' },
+  });
+}
+
+function route(call: Call): Reply {
+  const { method, path } = call;
+  if (method === 'GET' && path === `/api/inspections/${INSPECTION}`)
+    return { status: 200, body: server.detail };
+  if (method === 'GET' && path === `/api/inspections/${INSPECTION}/findings`)
+    return { status: 200, body: { findings: server.findings } };
+  return { status: 404, body: { error: { code: 'not_found', message: `No route ${method} ${path}` } } };
+}
+
+beforeEach(() => {
+  server = {
+    detail: {
+      inspection: {
+        id: INSPECTION,
+        reviewState: 'submitted',
+        reviewNote: null,
+        reviewedAt: null,
+        reviewedByName: null,
+        rideStatus: 'in_service',
+        rideStatusReason: null,
+      },
+    },
+    findings: [],
+    calls: [],
+    override: () => undefined,
+  };
+  jest.spyOn(global, 'fetch').mockImplementation(async (input, init) => {
+    const url = new URL(String(input), 'http://pivotwatch.test');
+    const call: Call = {
+      method: init?.method ?? 'GET',
+      path: url.pathname,
+      body: typeof init?.body === 'string' ? JSON.parse(init.body) : undefined,
+    };
+    server.calls.push(call);
+    return answer((await server.override(call)) ?? route(call));
+  });
+});
+
+let clients: QueryClient[] = [];
+function newClient() {
+  const client = makeQueryClient();
+  clients.push(client);
+  return client;
+}
+
+afterEach(() => {
+  // Cached queries keep garbage-collection timers; clearing them lets jest exit.
+  for (const c of clients) c.clear();
+  clients = [];
+  jest.restoreAllMocks();
+});
+
+const callsTo = (method: string, path: string) =>
+  server.calls.filter((c) => c.method === method && c.path === path);
+
+/** The inspection screen as far as the panel needs it: the detail under its key, the panel fed from it. */
+function Desk() {
+  const detail = useQuery({
+    queryKey: reviewKeys.inspection(INSPECTION),
+    queryFn: () => apiFetch<Detail>(`/api/inspections/${INSPECTION}`),
+  });
+  if (!detail.data) return null;
+  const i = detail.data.inspection;
+  return (
+    <DecisionPanel
+      inspectionId={INSPECTION}
+      rideId="ride-3"
+      rideName="Gull Wing"
+      rideStatus={i.rideStatus}
+      rideStatusReason={i.rideStatusReason}
+      reviewState={i.reviewState}
+      reviewNote={i.reviewNote}
+      photos={photos}
+    />
+  );
+}
+
+async function renderDesk() {
+  const client = newClient();
+  render(
+    <QueryClientProvider client={client}>
+      <Desk />
+    </QueryClientProvider>,
+  );
+  await screen.findByText(/No findings recorded/);
+  return client;
+}
+
+function deferred() {
+  let release: () => void = () => {};
+  const done = new Promise<void>((resolve) => (release = resolve));
+  return { done, release };
+}
+
+async function fillNewFinding() {
+  fireEvent.press(screen.getByRole('button', { name: 'Add finding' }));
+  fireEvent.press(screen.getByRole('radio', { name: 'Fix by date' }));
+  fireEvent.changeText(screen.getByLabelText('What was found'), '  Pin worn past its first wear mark ');
+  fireEvent.changeText(screen.getByLabelText("Rule or maker's instruction breached"), 'Maker bulletin 12');
+  fireEvent.changeText(screen.getByLabelText('Required action'), 'Replace the pin and both bushings');
+  fireEvent.changeText(screen.getByLabelText('Due date'), '2026-07-15');
+  fireEvent.press(screen.getByRole('checkbox', { name: 'Photo: Main pivot pin, drive side' }));
+}
+
+describe('findings', () => {
+  test('a new finding shows at once, marked as saving, and stays after the server’s 201', async () => {
+    await renderDesk();
+    const gate = deferred();
+    server.override = async (call) => {
+      if (call.method !== 'POST') return undefined;
+      await gate.done;
+      const created = finding({
+        id: 'f-9',
+        number: 1,
+        severity: 'fix_by_date',
+        description: 'Pin worn past its first wear mark',
+        ruleRef: 'Maker bulletin 12',
+        requiredAction: 'Replace the pin and both bushings',
+        dueOn: '2026-07-15',
+        photoShas: [PIN_PHOTO],
+        updatedAt: '2026-06-02T10:00:00.000Z',
+      });
+      server.findings = [created];
+      return { status: 201, body: { finding: created } };
+    };
+    await fillNewFinding();
+    fireEvent.press(screen.getByRole('button', { name: 'Add finding' }));
+
+    // Before the server answers: the row is there, saying it is being saved.
+    const row = await screen.findByLabelText('Finding 1');
+    expect(within(row).getByText('Pin worn past its first wear mark')).toBeTruthy();
+    expect(within(row).getByText('Saving…')).toBeTruthy();
+    expect(within(row).getByLabelText('Severity: Fix by date')).toBeTruthy();
+
+    // The body is what the API's own schema makes of the form (trimmed, photos by SHA-256).
+    const posts = callsTo('POST', `/api/inspections/${INSPECTION}/findings`);
+    expect(posts).toHaveLength(1);
+    expect(posts[0].body).toEqual(
+      findingInputSchema.parse({
+        severity: 'fix_by_date',
+        description: 'Pin worn past its first wear mark',
+        ruleRef: 'Maker bulletin 12',
+        requiredAction: 'Replace the pin and both bushings',
+        dueOn: '2026-07-15',
+        photoShas: [PIN_PHOTO],
+      }),
+    );
+
+    await act(async () => gate.release());
+    await waitFor(() => expect(screen.queryByText('Saving…') === null).toBe(true));
+    const saved = screen.getByLabelText('Finding 1');
+    expect(within(saved).getByText('Pin worn past its first wear mark')).toBeTruthy();
+    expect(within(saved).getByText(/Main pivot pin, drive side/)).toBeTruthy();
+    expect(within(saved).getByRole('button', { name: 'Edit finding 1' })).toBeTruthy();
+    // The form closed, and the list and the inspection's detail were fetched again.
+    expect(screen.queryByLabelText('What was found')).toBeNull();
+    await waitFor(() => expect(callsTo('GET', `/api/inspections/${INSPECTION}/findings`)).toHaveLength(2));
+    expect(callsTo('GET', `/api/inspections/${INSPECTION}`).length).toBeGreaterThanOrEqual(2);
+  });
+
+  test('a 400 takes the new finding back out and shows the problem on its field', async () => {
+    await renderDesk();
+    const gate = deferred();
+    server.override = async (call) => {
+      if (call.method !== 'POST') return undefined;
+      await gate.done;
+      return {
+        status: 400,
+        body: {
+          error: {
+            code: 'validation_failed',
+            message: 'Some fields are missing or invalid.',
+            issues: [{ path: 'dueOn', message: 'The due date is before the inspection' }],
+          },
+        },
+      };
+    };
+    await fillNewFinding();
+    fireEvent.press(screen.getByRole('button', { name: 'Add finding' }));
+    expect(await screen.findByLabelText('Finding 1')).toBeTruthy();
+
+    await act(async () => gate.release());
+    expect(await screen.findByText('The due date is before the inspection')).toBeTruthy();
+    expect(screen.queryByLabelText('Finding 1')).toBeNull();
+    expect(screen.getByText('Nothing was saved. Look at the fields marked below.')).toBeTruthy();
+    // What was typed is still in the form.
+    expect(screen.getByLabelText('What was found').props.value).toBe('  Pin worn past its first wear mark ');
+  });
+
+  test('the form refuses what the schema refuses and sends nothing', async () => {
+    await renderDesk();
+    fireEvent.press(screen.getByRole('button', { name: 'Add finding' }));
+    fireEvent.press(screen.getByRole('radio', { name: 'Fix by date' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Add finding' }));
+    // Messages of findingInputSchema / findingProblems.
+    expect(await screen.findByText('Say what was found')).toBeTruthy();
+    expect(screen.getByText('Say what must be done')).toBeTruthy();
+    expect(screen.getByText('A fix-by-date finding needs a due date')).toBeTruthy();
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/findings`)).toHaveLength(0);
+  });
+
+  test('an edit sends the version it started from; a 409 says so and fetches the list again', async () => {
+    server.findings = [finding({ id: 'f-1', updatedAt: '2026-06-02T09:00:00.000Z' })];
+    const client = newClient();
+    render(
+      <QueryClientProvider client={client}>
+        <Desk />
+      </QueryClientProvider>,
+    );
+    fireEvent.press(await screen.findByRole('button', { name: 'Edit finding 1' }));
+    server.override = (call) => {
+      if (call.method !== 'PATCH') return undefined;
+      server.findings = [finding({ description: 'Changed by Tobin', updatedAt: '2026-06-02T09:30:00.000Z' })];
+      return {
+        status: 409,
+        body: { error: { code: 'conflict', message: 'The finding was changed by someone else.' } },
+      };
+    };
+    fireEvent.changeText(screen.getByLabelText('What was found'), 'Paint flaking on the lower arm');
+    fireEvent.press(screen.getByRole('button', { name: 'Save finding' }));
+
+    expect(await screen.findByText(/Someone else changed this finding/)).toBeTruthy();
+    const patch = callsTo('PATCH', '/api/findings/f-1')[0].body;
+    expect(findingPatchSchema.safeParse(patch).success).toBe(true);
+    expect(patch).toMatchObject({
+      description: 'Paint flaking on the lower arm',
+      expectedUpdatedAt: '2026-06-02T09:00:00.000Z',
+    });
+    await waitFor(() => expect(callsTo('GET', `/api/inspections/${INSPECTION}/findings`)).toHaveLength(2));
+    fireEvent.press(screen.getByRole('button', { name: 'Cancel' }));
+    expect(await screen.findByText('Changed by Tobin')).toBeTruthy();
+  });
+});
+
+test('a refused delete puts the finding back and says why', async () => {
+  server.findings = [finding({})];
+  await renderDeskWithFindings();
+  const gate = deferred();
+  server.override = async (call) => {
+    if (call.method !== 'DELETE') return undefined;
+    await gate.done;
+    return {
+      status: 403,
+      body: { error: { code: 'forbidden', message: 'Only supervisors delete findings.' } },
+    };
+  };
+  fireEvent.press(screen.getByRole('button', { name: 'Delete finding 1' }));
+  fireEvent.press(screen.getByRole('button', { name: 'Confirm deleting finding 1' }));
+  // Gone at once… (a boolean, not the element: printing a found element on each failed poll takes seconds)
+  await waitFor(() => expect(screen.queryByLabelText('Finding 1') === null).toBe(true));
+  expect(callsTo('DELETE', '/api/findings/f-1')).toHaveLength(1);
+  // …and back, with the server's reason, when it refuses.
+  await act(async () => gate.release());
+  expect(
+    await screen.findByText('Finding 1 was not deleted. Only supervisors delete findings.'),
+  ).toBeTruthy();
+  expect(screen.getByLabelText('Finding 1')).toBeTruthy();
+});
+
+describe('the decision', () => {
+  test('returning without a comment is refused here and nothing is sent', async () => {
+    await renderDesk();
+    fireEvent.press(screen.getByRole('button', { name: 'Return to inspector' }));
+    // The message of decisionInputSchema for a return without a note.
+    expect(await screen.findByText('Tell the inspector what to correct')).toBeTruthy();
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)).toHaveLength(0);
+  });
+
+  test('returning with a comment sends it; the panel shows the comment for the inspector', async () => {
+    await renderDesk();
+    server.override = (call) => {
+      if (call.path !== `/api/inspections/${INSPECTION}/decision`) return undefined;
+      const d = decisionInputSchema.parse(call.body);
+      const decided = {
+        reviewState: 'returned' as const,
+        reviewNote: d.note,
+        reviewedAt: '2026-06-02T11:00:00.000Z',
+        reviewedByName: 'Mara Quill',
+      };
+      server.detail = { inspection: { ...server.detail.inspection, ...decided } };
+      return { status: 200, body: { inspectionId: INSPECTION, ...decided } };
+    };
+    fireEvent.changeText(
+      screen.getByLabelText('Comment'),
+      'Measure the drive-side pin again with a micrometer.',
+    );
+    fireEvent.press(screen.getByRole('button', { name: 'Return to inspector' }));
+    expect(await screen.findByText(/Returned to the inspector by Mara Quill/)).toBeTruthy();
+    expect(screen.getByText(/Measure the drive-side pin again with a micrometer\./)).toBeTruthy();
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)[0].body).toEqual({
+      decision: 'return',
+      note: 'Measure the drive-side pin again with a micrometer.',
+    });
+  });
+
+  test('approve sends { decision: "approve" } and then shows the decision read-only', async () => {
+    server.findings = [finding({})];
+    await renderDeskWithFindings();
+    server.override = (call) => {
+      if (call.path !== `/api/inspections/${INSPECTION}/decision`) return undefined;
+      const decided = {
+        reviewState: 'approved' as const,
+        reviewNote: null,
+        reviewedAt: '2026-06-02T11:00:00.000Z',
+        reviewedByName: 'Mara Quill',
+      };
+      server.detail = { inspection: { ...server.detail.inspection, ...decided } };
+      return { status: 200, body: { inspectionId: INSPECTION, ...decided } };
+    };
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+    expect(await screen.findByText(/Approved by Mara Quill/)).toBeTruthy();
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`).map((c) => c.body)).toEqual([
+      { decision: 'approve' },
+    ]);
+    // Read-only: no decision buttons, no adding, editing or deleting findings.
+    expect(screen.queryByRole('button', { name: 'Approve inspection' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Add finding' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Edit finding 1' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Delete finding 1' })).toBeNull();
+  });
+
+  test('a 409 on approve shows the server’s message and fetches the inspection again', async () => {
+    await renderDesk();
+    const detailGets = () => callsTo('GET', `/api/inspections/${INSPECTION}`).length;
+    const before = detailGets();
+    server.override = (call) => {
+      if (call.path !== `/api/inspections/${INSPECTION}/decision`) return undefined;
+      // Someone decided first.
+      server.detail = {
+        inspection: {
+          ...server.detail.inspection,
+          reviewState: 'returned',
+          reviewNote: 'Photos of the lower bushing are missing.',
+          reviewedAt: '2026-06-02T10:55:00.000Z',
+          reviewedByName: 'Ilse Varga',
+        },
+      };
+      return {
+        status: 409,
+        body: { error: { code: 'already_decided', message: 'This inspection has already been returned.' } },
+      };
+    };
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+    expect(await screen.findByText(/This inspection has already been returned\./)).toBeTruthy();
+    await waitFor(() => expect(detailGets()).toBeGreaterThan(before));
+    expect(await screen.findByText(/Returned to the inspector by Ilse Varga/)).toBeTruthy();
+    expect(screen.getByText(/Photos of the lower bushing are missing\./)).toBeTruthy();
+  });
+
+  test('approving with a stop-now finding while the ride runs asks first; the supervisor may go on', async () => {
+    server.findings = [finding({ severity: 'stop_now', requiredAction: 'Lock out and call the engineer' })];
+    await renderDeskWithFindings();
+    server.override = (call) =>
+      call.path === `/api/inspections/${INSPECTION}/decision`
+        ? {
+            status: 200,
+            body: {
+              inspectionId: INSPECTION,
+              reviewState: 'approved',
+              reviewNote: null,
+              reviewedAt: '2026-06-02T11:00:00.000Z',
+              reviewedByName: 'Mara Quill',
+            },
+          }
+        : undefined;
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+    expect(await screen.findByText(/Set the ride out of service first\?/)).toBeTruthy();
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)).toHaveLength(0);
+    fireEvent.press(screen.getByRole('button', { name: 'Approve anyway' }));
+    await waitFor(() => expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)).toHaveLength(1));
+  });
+});
+
+describe('the ride status', () => {
+  test('out of service needs a reason; saved with the register’s PATCH', async () => {
+    await renderDesk();
+    server.override = (call) =>
+      call.method === 'PATCH' && call.path === '/api/rides/ride-3'
+        ? {
+            status: 200,
+            body: {
+              ride: {
+                id: 'ride-3',
+                name: 'Gull Wing',
+                rideClass: 'pendulum_swing',
+                description: null,
+                maker: null,
+                model: null,
+                serial: null,
+                year: null,
+                status: 'out_of_service',
+                statusReason: 'Main pin worn',
+                statusSince: '2026-06-02T11:00:00.000Z',
+                siteId: null,
+                siteName: null,
+                operatorCompanyId: 'op-1',
+                operatorName: 'Tamsworth Pier Leisure',
+              },
+            },
+          }
+        : undefined;
+    fireEvent.press(screen.getByRole('radio', { name: 'Out of service' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Save ride status' }));
+    expect(await screen.findByText('Say why the ride is restricted or out of service')).toBeTruthy();
+    expect(callsTo('PATCH', '/api/rides/ride-3')).toHaveLength(0);
+    fireEvent.changeText(screen.getByLabelText('Reason'), ' Main pin worn ');
+    fireEvent.press(screen.getByRole('button', { name: 'Save ride status' }));
+    expect(await screen.findByText('Saved: Gull Wing is now out of service.')).toBeTruthy();
+    expect(callsTo('PATCH', '/api/rides/ride-3')[0].body).toEqual({
+      status: 'out_of_service',
+      statusReason: 'Main pin worn',
+    });
+  });
+});
+
+async function renderDeskWithFindings() {
+  const client = newClient();
+  render(
+    <QueryClientProvider client={client}>
+      <Desk />
+    </QueryClientProvider>,
+  );
+  await screen.findByLabelText('Finding 1');
+  return client;
+}
