@@ -270,8 +270,8 @@ export type RideStatusChange = {
 };
 
 /**
- * Sets the ride's status from the review desk (the register's ride PATCH). The register's ride caches,
- * the queue, the inspection's detail (it shows the ride's status) and its audit trail are refreshed.
+ * Sets the ride's status from the review desk (the register's ride PATCH). The register's ride caches
+ * (the desk reads the ride's status from them), the queue and the inspection's audit trail are refreshed.
  */
 export function useSetRideStatus(rideId: string, inspectionId: string) {
   const qc = useQueryClient();
@@ -282,7 +282,6 @@ export function useSetRideStatus(rideId: string, inspectionId: string) {
       Promise.all([
         qc.invalidateQueries({ queryKey: rideKeys.all }),
         qc.invalidateQueries({ queryKey: reviewKeys.queues() }),
-        qc.invalidateQueries({ queryKey: reviewKeys.inspection(inspectionId), exact: true }),
         qc.invalidateQueries({ queryKey: reviewKeys.trail(inspectionId) }),
       ]),
   });
