@@ -161,7 +161,11 @@ function ReviewStateView({ inspectionId, reviewState, reviewNote, saving }: Prop
       {reviewNote ? (
         <Text>
           <Text variant="label" muted>
-            {reviewState === 'returned' ? 'COMMENT FOR THE INSPECTOR ' : 'NOTE '}
+            {reviewState === 'returned'
+              ? 'COMMENT FOR THE INSPECTOR '
+              : reviewState === 'submitted'
+                ? 'EARLIER COMMENT '
+                : 'NOTE '}
           </Text>
           {reviewNote}
         </Text>
