@@ -7,6 +7,9 @@ import { createApp } from '@/server/app';
 import { ConfigError, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
 import { createLogger, type Logger } from '@/server/logger';
+import { startMailService } from '@/server/mail';
+import { startDeliveryLoop } from '@/server/notices/deliveries';
+import { startReminderJob } from '@/server/notices/reminders';
 import { ensureQueueFresh, queueToday } from '@/server/review/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 
@@ -48,16 +51,33 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
     throw error;
   }
 
-  const app = createApp({ db: database.db, config, logger });
+  // Production without SMTP_URL fails here, before anything listens.
+  const mail = await startMailService({ config, dataDir: config.dataDir, logger }).catch((error: unknown) => {
+    database.close();
+    throw error;
+  });
+
+  const app = createApp({ db: database.db, config, logger, mail });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, (error?: Error) => (error ? reject(error) : resolve(s)));
-  }).catch((error: unknown) => {
+  }).catch(async (error: unknown) => {
+    await mail.close();
     database.close();
     throw error;
   });
 
   const port = (server.address() as AddressInfo).port;
   const url = `http://localhost:${port}`;
+  // Links in notices point at the port actually bound when APP_URL does not say otherwise (PORT=0 in tests).
+  if (!(opts.env?.APP_URL ?? process.env.APP_URL)) config.appUrl = url;
+
+  const deliveryLoop = startDeliveryLoop({
+    db: database.db,
+    mailer: mail.mailer,
+    dataDir: config.dataDir,
+    logger,
+  });
+  const reminderJob = startReminderJob({ db: database.db, appUrl: config.appUrl, logger });
   if (!fs.existsSync(path.join(config.webDir, 'index.html'))) {
     logger.warn({ webDir: config.webDir }, 'no web export found; the API works, the app pages will not');
   }
@@ -69,10 +89,16 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
       removeSignalHandlers();
       const force = setTimeout(() => server.closeAllConnections(), shutdownGraceMs);
       force.unref();
+      reminderJob.stop();
       server.close(() => {
         clearTimeout(force);
-        database.close();
-        resolve();
+        void deliveryLoop
+          .stop()
+          .then(() => mail.close())
+          .finally(() => {
+            database.close();
+            resolve();
+          });
       });
       // Idle keep-alive connections would otherwise hold close() open until they time out.
       server.closeIdleConnections();

@@ -207,6 +207,8 @@ export const decisionInputSchema = z
 export type DecisionInput = z.input<typeof decisionInputSchema>;
 
 export const decisionResponseSchema = z.object({
+  /** The operator's notice issued by an approval with findings; null when none was issued. */
+  notice: z.object({ id: z.string(), reference: z.string() }).nullable().optional(),
   inspectionId: z.string(),
   reviewState: z.enum(['submitted', 'approved', 'returned']),
   reviewedAt: z.string(),

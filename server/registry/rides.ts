@@ -1,10 +1,13 @@
 import { and, asc, count, eq, inArray, or, type SQL } from 'drizzle-orm';
 
+import { inspections } from '@/db/server/inspections';
+import { notices } from '@/db/server/notices';
 import { companies, designVersions, inspectionSchedules, rides, sites } from '@/db/server/schema';
 import type { RideInput, RideListQuery, RidePatch } from '@/features/registry/schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
+import { issueStatusNotice } from '@/server/notices/issue';
 import { recordAudit } from '@/server/registry/audit';
 import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
@@ -166,7 +169,15 @@ export function createRide(db: Db, userId: string, input: RideInput, now: Date):
  * Applies a partial change. A new status (or a new reason) starts a new "since" unless the request gives
  * one; setting the ride back in service clears the reason.
  */
-export function updateRide(db: Db, userId: string, id: string, patch: RidePatch, now: Date): RideSummary {
+export function updateRide(
+  db: Db,
+  userId: string,
+  id: string,
+  patch: RidePatch,
+  now: Date,
+  /** The app's public address, for the link in the operator's status notice. */
+  appUrl: string,
+): RideSummary {
   return db.transaction((tx) => {
     const before = mustFindRide(tx, id);
     if (patch.operatorCompanyId !== undefined) assertOperatorCompany(tx, patch.operatorCompanyId);
@@ -204,6 +215,9 @@ export function updateRide(db: Db, userId: string, id: string, patch: RidePatch,
       before,
       after,
     });
+    // A change of operating status is the operator's business: it issues them a notice.
+    if (after.status !== before.status)
+      issueStatusNotice(tx, { rideId: id, userId, now, appUrl, reason: after.statusReason });
     // Name, class, status, site and operator are all shown and filtered on in the review queue.
     refreshQueue(tx, queueDay(db, now), [id]);
     return after;
@@ -226,6 +240,16 @@ const hasSchedules: RideDeleteGuard = (db, rideId) => {
   return n > 0 ? `${n} inspection schedule(s)` : null;
 };
 
+const hasInspections: RideDeleteGuard = (db, rideId) => {
+  const n = db.select({ n: count() }).from(inspections).where(eq(inspections.rideId, rideId)).get()?.n ?? 0;
+  return n > 0 ? `${n} inspection(s) on record` : null;
+};
+
+const hasNotices: RideDeleteGuard = (db, rideId) => {
+  const n = db.select({ n: count() }).from(notices).where(eq(notices.rideId, rideId)).get()?.n ?? 0;
+  return n > 0 ? `${n} notice(s) issued to its operator` : null;
+};
+
 /**
  * A ride goes only while nothing refers to it. Design data versions are never deleted, so a ride that
  * has any stays: set it out of service instead.
@@ -233,7 +257,7 @@ const hasSchedules: RideDeleteGuard = (db, rideId) => {
 export function deleteRide(db: Db, userId: string, id: string, guards: RideDeleteGuard[] = []): void {
   db.transaction((tx) => {
     const before = mustFindRide(tx, id);
-    const blockers = [hasDesignData, hasSchedules, ...guards]
+    const blockers = [hasDesignData, hasSchedules, hasInspections, hasNotices, ...guards]
       .map((g) => g(tx, id))
       .filter((b): b is string => b !== null);
     if (blockers.length > 0)

@@ -16,6 +16,7 @@ import { conflict } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { dateOf, updateSchedule } from '@/server/registry/schedules';
 import { mustSeeInspection, type InspectionHead } from '@/server/review/findings';
+import { issueInspectionNotice } from '@/server/notices/issue';
 import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
@@ -35,6 +36,8 @@ export function decideInspection(
   inspectionId: string,
   input: DecisionInput,
   now: Date,
+  /** The app's public address, for the link in the operator's notice. */
+  appUrl: string,
 ): DecisionResponse {
   return db.transaction((tx) => {
     const before = mustSeeInspection(tx, user, inspectionId);
@@ -94,8 +97,15 @@ export function decideInspection(
         updateSchedule(db, user.id, schedule.id, { lastDoneOn: doneOn }, now);
     }
 
+    // Approving an inspection with findings issues the operator's notice, frozen as of now.
+    const notice =
+      reviewState === 'approved'
+        ? issueInspectionNotice(tx, { inspectionId: before.id, userId: user.id, now, appUrl })
+        : null;
+
     refreshQueue(tx, queueDay(db, now), [before.rideId]);
     return {
+      notice: notice ? { id: notice.id, reference: notice.reference } : null,
       inspectionId: after.id,
       reviewState: after.reviewState,
       reviewedAt: after.reviewedAt ?? now.toISOString(),

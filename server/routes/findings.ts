@@ -89,6 +89,7 @@ export function findingsRouter(deps: ApiDeps): Router {
       decisionInput.params(res).id,
       decisionInput.body(res),
       nowOf(deps),
+      deps.config.appUrl,
     );
     res.json(body);
   });

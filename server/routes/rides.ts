@@ -61,6 +61,7 @@ export function ridesRouter(deps: ApiDeps): Router {
       patchInput.params(res).id,
       patchInput.body(res),
       nowOf(deps),
+      deps.config.appUrl,
     );
     res.json({ ride });
   });

@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 
+import { startFakeSmtp } from '@/server/mail';
 import { startServer } from '@/server/main';
 import { demoPassword } from '@/server/seed/demo';
 
@@ -58,10 +59,13 @@ test('starts on a free port, seeds, serves the API; a restart keeps users and se
 
 test('in production no demo users are seeded', async () => {
   const dataDir = tempDir();
+  // Production needs a real SMTP server; a loopback mailbox stands in for it.
+  const smtp = await startFakeSmtp({ dir: `${dataDir}/smtp` });
   const server = await startServer({
     env: {
       PORT: '0',
       DATA_DIR: dataDir,
+      SMTP_URL: smtp.url,
       NODE_ENV: 'production',
       LOG_LEVEL: 'silent',
       WEB_DIR: `${dataDir}/web`,
@@ -73,7 +77,18 @@ test('in production no demo users are seeded', async () => {
     expect(res.status).toBe(401);
   } finally {
     await server.close();
+    await smtp.close();
   }
+});
+
+test('production without SMTP_URL refuses to start: notices would go nowhere', async () => {
+  const dataDir = tempDir();
+  await expect(
+    startServer({
+      env: { PORT: '0', DATA_DIR: dataDir, NODE_ENV: 'production', LOG_LEVEL: 'silent' },
+      handleSignals: false,
+    }),
+  ).rejects.toThrow(/SMTP_URL/);
 });
 
 test('a bad environment is refused before anything starts', async () => {

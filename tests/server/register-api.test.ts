@@ -318,14 +318,16 @@ describe('rides', () => {
     ).ride;
     expect(renamed.statusSince).toBe(back.statusSince);
 
-    expect((await api.admin.delete(`/api/rides/${ride.id}`)).status).toBe(204);
+    // Going back into service issued the operator a notice, and issued notices are kept: no deleting.
+    const refused = expectApiError(await api.admin.delete(`/api/rides/${ride.id}`), 409, 'in_use');
+    expect(refused.message).toMatch(/1 notice\(s\) issued to its operator/);
     const actions = server.db
-      .select({ action: auditLog.action })
+      .select({ entity: auditLog.entity, action: auditLog.action })
       .from(auditLog)
       .where(eq(auditLog.rideId, ride.id))
       .all()
-      .map((e) => e.action);
-    expect(actions).toEqual(['create', 'update', 'update', 'delete']);
+      .map((e) => `${e.entity} ${e.action}`);
+    expect(actions).toEqual(['ride create', 'ride update', 'notice create', 'ride update']);
   });
 
   test('restricting a ride needs a reason; a given date is kept', async () => {

@@ -75,6 +75,8 @@ describe('approving', () => {
     const res = await decide(record.id, { decision: 'approve', note: '  ' });
     expect(res.status).toBe(200);
     expect(decisionResponseSchema.parse(res.body)).toEqual({
+      // No findings, so no notice to the operator.
+      notice: null,
       inspectionId: record.id,
       reviewState: 'approved',
       reviewedAt: now.toISOString(),
@@ -263,9 +265,12 @@ describe('the trail', () => {
     expect(res.status).toBe(200);
     const entries = auditListResponseSchema.shape.entries.parse(res.body.entries);
     const summaries = entries.map((e) => e.summary);
-    expect(summaries.slice(0, 4)).toEqual([
+    // The approval with a finding and the status change each issued the operator a notice.
+    expect(summaries.slice(0, 6)).toEqual([
+      'Skylark: notice PW-2026-0002 issued to Tamsworth Pier Leisure',
       'Skylark: periodic inspection schedule changed',
       'Skylark: inspection approved',
+      'Skylark: notice PW-2026-0001 issued to Tamsworth Pier Leisure',
       expect.stringMatching(/^Ride Skylark changed/),
       'Skylark: finding 1 added (Note)',
     ]);
