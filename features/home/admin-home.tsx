@@ -1,8 +1,15 @@
+import Feather from '@expo/vector-icons/Feather';
+import { Link } from 'expo-router';
+import { Pressable, StyleSheet, View } from 'react-native';
+
+import { Card } from '@/components/card';
 import { DataTable } from '@/components/data-table';
 import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { StatRow, StatTile } from '@/components/stat-tile';
 import { RideStatusMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { colors, layout, space } from '@/components/theme';
 import { useAdminUsersQuery } from '@/features/admin/api';
 import { roleLabel } from '@/features/auth/api';
 import { RoleGate } from '@/features/auth/role-gate';
@@ -10,7 +17,7 @@ import { roles } from '@/features/auth/schema';
 import { useRidesQuery } from '@/features/rides/api';
 import { rideClassLabel } from '@/features/rides/schema';
 
-/** Administrator's start page: who can sign in, and the ride register at a glance. */
+/** Administrator's start page: who can sign in, the ride register at a glance, and the e-mail outbox. */
 export function AdminHome() {
   const users = useAdminUsersQuery();
   const rides = useRidesQuery();
@@ -46,6 +53,8 @@ export function AdminHome() {
               </>
             )}
           </QueryState>
+          <SectionTitle>E-mail</SectionTitle>
+          <OutboxCard />
           <SectionTitle>Ride register</SectionTitle>
           <QueryState query={rides}>
             {(list) => (
@@ -72,3 +81,30 @@ export function AdminHome() {
     </RoleGate>
   );
 }
+
+function OutboxCard() {
+  return (
+    <Card>
+      <Text muted>
+        Notices go to operators by e-mail with their PDF. While the server runs with its built-in mailbox
+        (development and the demo) every message it sent can be read here, attachments included.
+      </Text>
+      <Link href="/admin/outbox" asChild>
+        <Pressable role="link" style={styles.link}>
+          <Feather name="mail" size={18} color={colors.accent} />
+          <View style={styles.linkText}>
+            <Text variant="heading" color={colors.accent}>
+              Outbox
+            </Text>
+          </View>
+          <Feather name="chevron-right" size={18} color={colors.accent} />
+        </Pressable>
+      </Link>
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  link: { flexDirection: 'row', alignItems: 'center', gap: space.sm, minHeight: layout.touchTarget },
+  linkText: { flex: 1 },
+});

@@ -1,0 +1,3 @@
+import { OutboxScreen } from '@/features/notices/outbox-screen';
+
+export default OutboxScreen;
