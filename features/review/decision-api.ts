@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { apiFetch } from '@/features/api/client';
 import { rideResponseSchema } from '@/features/registry/schema';
 import { reviewKeys } from '@/features/review/keys';
+import { rideNoticeKeys } from '@/features/review/ride-notices-api';
 import {
   type DecisionInput,
   type DecisionResponse,
@@ -214,7 +215,8 @@ export function useCachedReview(inspectionId: string) {
 
 /**
  * Approves or returns the inspection. The cached detail shows the new state at once and goes back if the
- * server refuses (409: someone decided first); either way the detail is fetched again.
+ * server refuses (409: someone decided first); either way the detail is fetched again, and every notice
+ * query, since an approval with findings issues a notice (the answer names it).
  */
 export function useDecide(inspectionId: string, rideId: string) {
   const qc = useQueryClient();
@@ -258,6 +260,7 @@ export function useDecide(inspectionId: string, rideId: string) {
         qc.invalidateQueries({ queryKey: reviewKeys.trail(inspectionId) }),
         qc.invalidateQueries({ queryKey: reviewKeys.queues() }),
         qc.invalidateQueries({ queryKey: reviewKeys.trends(rideId) }),
+        qc.invalidateQueries({ queryKey: rideNoticeKeys.everyNotice }),
       ]),
   });
 }
@@ -271,7 +274,8 @@ export type RideStatusChange = {
 
 /**
  * Sets the ride's status from the review desk (the register's ride PATCH). The register's ride caches
- * (the desk reads the ride's status from them), the queue and the inspection's audit trail are refreshed.
+ * (the desk reads the ride's status from them), the queue, the inspection's audit trail and the notices
+ * (a status change issues one to the operator) are refreshed.
  */
 export function useSetRideStatus(rideId: string, inspectionId: string) {
   const qc = useQueryClient();
@@ -283,6 +287,7 @@ export function useSetRideStatus(rideId: string, inspectionId: string) {
         qc.invalidateQueries({ queryKey: rideKeys.all }),
         qc.invalidateQueries({ queryKey: reviewKeys.queues() }),
         qc.invalidateQueries({ queryKey: reviewKeys.trail(inspectionId) }),
+        qc.invalidateQueries({ queryKey: rideNoticeKeys.everyNotice }),
       ]),
   });
 }

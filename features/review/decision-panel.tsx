@@ -13,6 +13,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/features/api/client';
+import type { NoticeListItem } from '@/features/notices/schema';
 import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
 import { formatDateTime } from '@/features/registry/text';
 import {
@@ -27,8 +28,11 @@ import {
 } from '@/features/review/decision-api';
 import { FindingForm, type FindingValues, type InspectionPhoto } from '@/features/review/finding-form';
 import { FindingsList } from '@/features/review/findings-list';
+import { useRideNotices } from '@/features/review/ride-notices-api';
+import { IssuedNoticeRow, NoticeRow, noticeHref } from '@/features/review/ride-notices';
 import { RideStatusControl } from '@/features/review/ride-status-control';
 import { type DecisionInput, decisionInputSchema, severityInfo } from '@/features/review/schema';
+import { useRideQuery } from '@/features/rides/api';
 
 type Props = {
   inspectionId: string;
@@ -43,10 +47,13 @@ type Props = {
 
 type Editor = { mode: 'new' } | { mode: 'edit'; finding: ListedFinding } | null;
 
+type IssuedNotice = { id: string; reference: string };
+
 /**
  * What the supervisor decides about one inspection: its findings, approval or return to the inspector,
  * and the ride's status. Every change is saved at once through the API, which records it in the audit
- * trail; once the inspection is approved the decision and the findings are shown read-only.
+ * trail; once the inspection is approved the decision and the findings are shown read-only, with the
+ * notice the approval issued to the operator and where each finding stands in the corrective-action loop.
  */
 export function DecisionPanel(props: Props) {
   const { inspectionId, rideId, rideName, rideStatus, rideStatusReason, reviewState, photos } = props;
@@ -59,6 +66,13 @@ export function DecisionPanel(props: Props) {
   const decide = useDecide(inspectionId, rideId);
   const [decisionProblem, setDecisionProblem] = useState<FormProblem | null>(null);
   const [noteDraft, setNoteDraft] = useState('');
+  const approved = reviewState === 'approved';
+  // The ride's notices, once there can be one for this inspection (the list has no inspection filter).
+  const rideNotices = useRideNotices(rideId, approved);
+  const ownNotices = (rideNotices.data?.notices ?? []).filter((n) => n.inspectionId === inspectionId);
+  // The notice the approval made here answered with (the list may not hold it yet).
+  const issued = decide.data?.reviewState === 'approved' ? (decide.data.notice ?? null) : null;
+  const inspectionNoticeId = ownNotices.find((n) => n.kind === 'inspection')?.id ?? issued?.id ?? null;
   return (
     <View style={styles.panel} accessibilityLabel="Decision panel">
       <Card>
@@ -66,6 +80,18 @@ export function DecisionPanel(props: Props) {
         <ReviewStateView {...props} saving={decide.isPending} />
         {reviewState !== 'submitted' ? <FormAlert problem={decisionProblem} /> : null}
       </Card>
+      {approved ? (
+        <Card accessibilityLabel="Notices of this inspection">
+          <SectionHeading>Notice to the operator</SectionHeading>
+          <InspectionNotices
+            rideId={rideId}
+            query={rideNotices}
+            notices={ownNotices}
+            issued={issued}
+            findingsCount={findings.data?.findings.length ?? null}
+          />
+        </Card>
+      ) : null}
       <Card>
         <SectionHeading>
           {`Findings${findings.data ? ` (${findings.data.findings.length})` : ''}`}
@@ -78,6 +104,7 @@ export function DecisionPanel(props: Props) {
               findings={data.findings}
               photos={photos}
               editable={editable}
+              actionHref={inspectionNoticeId ? noticeHref(inspectionNoticeId) : null}
             />
           )}
         </QueryState>
@@ -178,8 +205,65 @@ function ReviewStateView({ inspectionId, reviewState, reviewNote, saving }: Prop
       ) : null}
       {reviewState === 'approved' ? (
         <Text variant="small" muted>
-          The decision is final; the findings below are kept as they were approved.
+          The decision is final. The findings below say where each one stands now: the operator reports
+          corrective actions on the notice, where they are verified and closed.
         </Text>
+      ) : null}
+    </View>
+  );
+}
+
+// ——— the notice the approval issued ———
+
+function InspectionNotices({
+  rideId,
+  query,
+  notices,
+  issued,
+  findingsCount,
+}: {
+  rideId: string;
+  query: ReturnType<typeof useRideNotices>;
+  notices: NoticeListItem[];
+  issued: IssuedNotice | null;
+  findingsCount: number | null;
+}) {
+  // The operator's name for a notice the list does not hold yet; the inspection screen keeps the ride.
+  const ride = useRideQuery(rideId);
+  const operatorName = ride.data?.ride.operatorName ?? 'the ride’s operator';
+  const headline = (reference: string, operator: string) => `Notice ${reference} issued to ${operator}`;
+  const listed = issued ? notices.some((n) => n.id === issued.id) : true;
+  return (
+    <View style={styles.section}>
+      {notices.map((n) => (
+        <NoticeRow
+          key={n.id}
+          notice={n}
+          headline={n.kind === 'inspection' ? headline(n.reference, n.operatorName) : undefined}
+        />
+      ))}
+      {issued && !listed ? (
+        <IssuedNoticeRow id={issued.id} headline={headline(issued.reference, operatorName)} />
+      ) : null}
+      {notices.length === 0 && !issued ? (
+        query.isPending && query.fetchStatus !== 'idle' ? (
+          <Text muted>Looking for the notice…</Text>
+        ) : query.error ? (
+          <View style={styles.problem} role="alert">
+            <Text>
+              {query.error instanceof OfflineError
+                ? 'No connection to the server, so the notices could not be loaded.'
+                : 'The notices could not be loaded.'}
+            </Text>
+            <Button label="Try again" tone="quiet" onPress={() => void query.refetch()} />
+          </View>
+        ) : (
+          <Text muted>
+            {findingsCount === 0
+              ? 'No notice was issued: the inspection was approved without findings, so there is nothing new to tell the operator.'
+              : 'No notice has been issued for this inspection.'}
+          </Text>
+        )
       ) : null}
     </View>
   );
@@ -202,12 +286,14 @@ function FindingsSection({
   findings,
   photos,
   editable,
+  actionHref,
 }: {
   inspectionId: string;
   rideId: string;
   findings: ListedFinding[];
   photos: readonly InspectionPhoto[];
   editable: boolean;
+  actionHref: string | null;
 }) {
   const create = useCreateFinding(inspectionId, rideId);
   const update = useUpdateFinding(inspectionId);
@@ -243,6 +329,7 @@ function FindingsSection({
         findings={findings}
         photos={photos}
         editable={editable}
+        actionHref={actionHref}
         editingId={editing?.id ?? null}
         editor={
           editing ? (

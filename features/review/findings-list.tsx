@@ -1,21 +1,17 @@
+import Feather from '@expo/vector-icons/Feather';
+import { Link } from 'expo-router';
 import { useState } from 'react';
-import { StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { IconButton } from '@/components/icon-button';
 import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
-import { formatDate } from '@/features/registry/text';
+import { colors, layout, radius, space } from '@/components/theme';
+import { formatDate, formatDateTime } from '@/features/registry/text';
 import type { ListedFinding } from '@/features/review/decision-api';
 import { type InspectionPhoto, photoName } from '@/features/review/finding-form';
-import type { FindingState } from '@/features/review/schema';
+import { FindingStateMark } from '@/features/review/finding-state-mark';
 import { SeverityMark } from '@/features/review/severity-mark';
-
-const stateLabel: Record<FindingState, string> = {
-  open: 'Open',
-  action_reported: 'Corrective action reported',
-  closed: 'Closed',
-};
 
 function todayIso(): string {
   const d = new Date();
@@ -26,12 +22,14 @@ function todayIso(): string {
 /**
  * The inspection's findings in number order. While the inspection is open for decisions each one can be
  * edited (the editor takes its place) or deleted after a second press; rows the server has not yet
- * confirmed say so and cannot be touched.
+ * confirmed say so and cannot be touched. Once approved, each says where it stands (open, action
+ * reported, closed), and one with a corrective action waiting leads to the notice where it is verified.
  */
 export function FindingsList({
   findings,
   photos,
   editable,
+  actionHref = null,
   editingId,
   editor,
   onEdit,
@@ -40,6 +38,8 @@ export function FindingsList({
   findings: readonly ListedFinding[];
   photos: readonly InspectionPhoto[];
   editable: boolean;
+  /** The notice where a reported corrective action is verified (closed or reopened). */
+  actionHref?: string | null;
   /** The finding whose editor is open, shown in place of its row. */
   editingId: string | null;
   editor: React.ReactNode;
@@ -77,11 +77,7 @@ export function FindingsList({
                 {f.number}
               </Text>
               <SeverityMark severity={f.severity} compact />
-              {f.state !== 'open' ? (
-                <Text variant="label" muted>
-                  {stateLabel[f.state]}
-                </Text>
-              ) : null}
+              {!editable || f.state !== 'open' ? <FindingStateMark state={f.state} /> : null}
               {f.saving ? (
                 <Text variant="label" color={colors.focus} accessibilityLiveRegion="polite">
                   Saving…
@@ -113,7 +109,27 @@ export function FindingsList({
             {f.photoShas.length > 0 ? (
               <Detail label="Photos" value={f.photoShas.map((sha) => photoName(photos, sha)).join(' · ')} />
             ) : null}
+            {f.state === 'closed' && f.closedAt ? (
+              <Detail
+                label="Closed"
+                value={`${formatDateTime(f.closedAt)}${f.closedByName ? ` by ${f.closedByName}` : ''}`}
+              />
+            ) : null}
             {f.stateNote ? <Detail label="Comment" value={f.stateNote} /> : null}
+            {f.state === 'action_reported' && actionHref ? (
+              <Link href={actionHref} asChild>
+                <Pressable
+                  role="link"
+                  accessibilityLabel={`Review corrective action on finding ${f.number}`}
+                  style={styles.actionLink}
+                >
+                  <Text variant="heading" color={colors.accent}>
+                    Review corrective action
+                  </Text>
+                  <Feather name="chevron-right" size={18} color={colors.accent} />
+                </Pressable>
+              </Link>
+            ) : null}
             {confirming === f.id && editable && !f.saving ? (
               <View style={styles.confirm} role="alert">
                 <Text variant="heading">Delete finding {f.number}?</Text>
@@ -182,4 +198,11 @@ const styles = StyleSheet.create({
     backgroundColor: colors.overSoft,
   },
   confirmButtons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  actionLink: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    alignSelf: 'flex-start',
+    gap: space.xs,
+    minHeight: layout.touchTarget,
+  },
 });
