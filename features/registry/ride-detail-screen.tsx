@@ -24,6 +24,8 @@ import { DueMark, dueInWords } from '@/features/registry/due-mark';
 import { Panes } from '@/features/registry/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/features/registry/text';
+import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/review/ride-notices-api';
+import { NoticeRow } from '@/features/review/ride-notices';
 import { useRideQuery } from '@/features/rides/api';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';
@@ -125,6 +127,7 @@ function RideDetailBody({
         />
       ) : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
+      {staff ? <NoticesCard rideId={ride.id} /> : null}
     </>
   );
 
@@ -261,6 +264,37 @@ function ScheduleCard({ rideId, role }: { rideId: string; role: Role }) {
           icon="calendar"
         />
       ) : null}
+    </Card>
+  );
+}
+
+/** The notices issued to the ride's operator about this ride, newest first, each leading to the notice. */
+function NoticesCard({ rideId }: { rideId: string }) {
+  const query = useRideNotices(rideId);
+  return (
+    <Card accessibilityLabel="Notices">
+      <Text variant="heading">Notices</Text>
+      {query.isPending ? (
+        <ActivityIndicator color={colors.base} />
+      ) : query.error || !query.data ? (
+        <Text muted>The notices could not be loaded.</Text>
+      ) : query.data.notices.length === 0 ? (
+        <Text muted>
+          No notices yet. One is issued to the operator when an inspection with findings is approved or the
+          ride’s status changes.
+        </Text>
+      ) : (
+        <>
+          {query.data.notices.map((n) => (
+            <NoticeRow key={n.id} notice={n} />
+          ))}
+          {query.data.total > query.data.notices.length ? (
+            <Text variant="small" muted>
+              The newest {RIDE_NOTICES_PAGE} of {query.data.total} notices.
+            </Text>
+          ) : null}
+        </>
+      )}
     </Card>
   );
 }
