@@ -73,10 +73,7 @@ export function htmlToText(html: string): string {
   );
   s = s.replace(/<br\s*\/?>/gi, '\n');
   s = s.replace(/<li\b[^>]*>/gi, '\n• ');
-  s = s.replace(
-    /<\/(p|div|h[1-6]|li|tr|table|ul|ol|section|article|header|footer|blockquote|pre)\s*>/gi,
-    '\n',
-  );
+  s = s.replace(/<\/(p|div|h[1-6]|tr|table|ul|ol|section|article|header|footer|blockquote|pre)\s*>/gi, '\n');
   s = s.replace(/<\/t[dh]\s*>/gi, '\t');
   s = s.replace(/<[^>]*>?/g, '');
   s = decodeEntities(s);

@@ -1,20 +1,29 @@
 /**
  * The decision panel beside an inspection, against a stand-in server that answers in the API's shapes
  * (features/review/schema.ts: findingInputSchema, findingResponseSchema, decisionInputSchema,
- * decisionResponseSchema; errors as features/api/errors.ts). What is checked is the contract: what the
- * panel sends, what it shows at once (optimistic), what it shows after the server's answer, and that a
- * refusal rolls back and is explained. Names and rides are the invented demo scenario.
+ * decisionResponseSchema; features/notices/schema.ts: noticeListResponseSchema; errors as
+ * features/api/errors.ts). What is checked is the contract: what the panel sends, what it shows at once
+ * (optimistic), what it shows after the server's answer, that a refusal rolls back and is explained, and
+ * after approval the notice it issued and where each finding stands. Names and rides are the invented
+ * demo scenario.
  */
 import { type QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { act, fireEvent, render, screen, waitFor, within } from '@testing-library/react-native';
 
 import { apiFetch } from '@/features/api/client';
 import { makeQueryClient } from '@/features/api/query-client';
+import {
+  type NoticeListItem,
+  noticeListResponseSchema,
+  noticeListQuerySchema,
+} from '@/features/notices/schema';
+import { rideDetailResponseSchema } from '@/features/registry/schema';
 import { DecisionPanel } from '@/features/review/decision-panel';
 import { reviewKeys } from '@/features/review/keys';
 import {
   type Finding,
   decisionInputSchema,
+  decisionResponseSchema,
   findingInputSchema,
   findingPatchSchema,
 } from '@/features/review/schema';
@@ -43,13 +52,15 @@ type Detail = {
   };
 };
 
-type Call = { method: string; path: string; body: unknown };
+type Call = { method: string; path: string; search: URLSearchParams; body: unknown };
 type Reply = { status: number; body?: unknown };
 
 /** The stand-in server: its own state, every request recorded, and routes a test may take over. */
 let server: {
   detail: Detail;
   findings: Finding[];
+  /** Every notice of every ride the stand-in knows (the list filters by rideId as the server does). */
+  notices: NoticeListItem[];
   calls: Call[];
   override: (call: Call) => Promise<Reply | undefined> | Reply | undefined;
 };
@@ -91,7 +102,56 @@ function route(call: Call): Reply {
     return { status: 200, body: server.detail };
   if (method === 'GET' && path === `/api/inspections/${INSPECTION}/findings`)
     return { status: 200, body: { findings: server.findings } };
+  if (method === 'GET' && path === '/api/notices') {
+    // The server's own query schema reads the query string (it has no inspection filter).
+    const q = noticeListQuerySchema.parse(Object.fromEntries(call.search));
+    const notices = server.notices.filter((n) => !q.rideId || n.rideId === q.rideId);
+    return { status: 200, body: { notices, total: notices.length, page: q.page, pageSize: q.pageSize } };
+  }
+  if (method === 'GET' && path === '/api/rides/ride-3') return { status: 200, body: gullWing };
   return { status: 404, body: { error: { code: 'not_found', message: `No route ${method} ${path}` } } };
+}
+
+const gullWing = rideDetailResponseSchema.parse({
+  ride: {
+    id: 'ride-3',
+    name: 'Gull Wing',
+    rideClass: 'pendulum_swing',
+    description: null,
+    maker: null,
+    model: null,
+    serial: null,
+    year: null,
+    status: 'in_service',
+    statusReason: null,
+    statusSince: null,
+    siteId: null,
+    siteName: null,
+    operatorCompanyId: 'op-1',
+    operatorName: 'Tamsworth Pier Leisure',
+  },
+  design: null,
+});
+
+function notice(over: Partial<NoticeListItem>): NoticeListItem {
+  return {
+    id: 'n-1',
+    reference: 'PW-2026-0007',
+    kind: 'inspection',
+    inspectionId: INSPECTION,
+    rideId: 'ride-3',
+    rideName: 'Gull Wing',
+    operatorId: 'op-1',
+    operatorName: 'Tamsworth Pier Leisure',
+    issuedAt: '2026-06-02T11:00:00.000Z',
+    issuedByName: 'Mara Quill',
+    acknowledgedAt: null,
+    acknowledgedByName: null,
+    delivery: { state: 'sent', total: 1, sent: 1, failed: 0 },
+    openFindings: 1,
+    findingsTotal: 1,
+    ...over,
+  };
 }
 
 beforeEach(() => {
@@ -108,6 +168,7 @@ beforeEach(() => {
       },
     },
     findings: [],
+    notices: [],
     calls: [],
     override: () => undefined,
   };
@@ -116,6 +177,7 @@ beforeEach(() => {
     const call: Call = {
       method: init?.method ?? 'GET',
       path: url.pathname,
+      search: url.searchParams,
       body: typeof init?.body === 'string' ? JSON.parse(init.body) : undefined,
     };
     server.calls.push(call);
@@ -404,6 +466,8 @@ describe('the decision', () => {
     expect(screen.queryByRole('button', { name: 'Add finding' })).toBeNull();
     expect(screen.queryByRole('button', { name: 'Edit finding 1' })).toBeNull();
     expect(screen.queryByRole('button', { name: 'Delete finding 1' })).toBeNull();
+    // The answer named no notice and the ride has none: the panel says so once the list is in.
+    expect(await screen.findByText('No notice has been issued for this inspection.')).toBeTruthy();
   });
 
   test('a 409 on approve shows the server’s message and fetches the inspection again', async () => {
@@ -510,3 +574,173 @@ async function renderDeskWithFindings() {
   await screen.findByLabelText('Finding 1');
   return client;
 }
+
+describe('after approval: the notice and the corrective-action loop', () => {
+  const approvedAt = '2026-06-02T11:00:00.000Z';
+  const approve = (issued: { id: string; reference: string } | null, listed: NoticeListItem[]) => {
+    server.override = (call) => {
+      if (call.path !== `/api/inspections/${INSPECTION}/decision`) return undefined;
+      const decided = {
+        reviewState: 'approved' as const,
+        reviewNote: null,
+        reviewedAt: approvedAt,
+        reviewedByName: 'Mara Quill',
+      };
+      server.detail = { inspection: { ...server.detail.inspection, ...decided } };
+      server.notices = listed;
+      // The answer is what the API's schema accepts, notice included.
+      return {
+        status: 200,
+        body: decisionResponseSchema.parse({ inspectionId: INSPECTION, notice: issued, ...decided }),
+      };
+    };
+  };
+  const startApproved = () => {
+    server.detail = {
+      inspection: {
+        ...server.detail.inspection,
+        reviewState: 'approved',
+        reviewedAt: approvedAt,
+        reviewedByName: 'Mara Quill',
+      },
+    };
+  };
+  const decisionIndex = () =>
+    server.calls.findIndex(
+      (c) => c.method === 'POST' && c.path === `/api/inspections/${INSPECTION}/decision`,
+    );
+
+  test('approving with findings names the notice issued to the ride’s operator and links to it', async () => {
+    server.findings = [
+      finding({ severity: 'fix_by_date', requiredAction: 'Replace the pin', dueOn: '2026-07-15' }),
+    ];
+    await renderDeskWithFindings();
+    approve({ id: 'n-1', reference: 'PW-2026-0007' }, [notice({})]);
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+
+    expect(await screen.findByText('Notice PW-2026-0007 issued to Tamsworth Pier Leisure')).toBeTruthy();
+    expect(screen.getByRole('link', { name: 'Notice PW-2026-0007' }).props.href).toBe('/notices/n-1');
+    // Where its e-mail stands and whether the operator has acknowledged it, from the list item.
+    expect(screen.getByLabelText('E-mail: Sent')).toBeTruthy();
+    expect(screen.getByText(/Not acknowledged yet/)).toBeTruthy();
+    // The ride's notices were asked for again after the decision (the list has no inspection filter).
+    await waitFor(() =>
+      expect(
+        server.calls.some(
+          (c, i) => c.path === '/api/notices' && c.search.get('rideId') === 'ride-3' && i > decisionIndex(),
+        ),
+      ).toBe(true),
+    );
+    // The approved finding now says where it stands.
+    expect(within(screen.getByLabelText('Finding 1')).getByLabelText('State: Open')).toBeTruthy();
+  });
+
+  test('before the list catches up the line comes from the decision’s answer', async () => {
+    server.findings = [finding({})];
+    await renderDeskWithFindings();
+    approve({ id: 'n-4', reference: 'PW-2026-0011' }, []);
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+    const line = await screen.findByRole('link', {
+      name: 'Notice PW-2026-0011 issued to Tamsworth Pier Leisure',
+    });
+    expect(line.props.href).toBe('/notices/n-4');
+  });
+
+  test('approving without findings says that no notice was issued', async () => {
+    await renderDesk();
+    approve(null, []);
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+    expect(
+      await screen.findByText(/No notice was issued: the inspection was approved without findings/),
+    ).toBeTruthy();
+    expect(screen.queryByRole('link', { name: /^Notice / })).toBeNull();
+  });
+
+  test('an approved inspection lists its own notices only, with where each e-mail stands', async () => {
+    startApproved();
+    server.findings = [finding({})];
+    server.notices = [
+      notice({
+        delivery: { state: 'partly_sent', total: 2, sent: 1, failed: 1 },
+        acknowledgedAt: '2026-06-03T08:30:00.000Z',
+        acknowledgedByName: 'Pell Harrow',
+        openFindings: 0,
+      }),
+      // Another inspection of the same ride, a status notice of the ride, and another ride's notice.
+      notice({ id: 'n-2', reference: 'PW-2026-0003', inspectionId: 'insp-2' }),
+      notice({ id: 'n-3', reference: 'PW-2026-0009', kind: 'status_change', inspectionId: null }),
+      notice({ id: 'n-8', reference: 'PW-2026-0010', rideId: 'ride-8', rideName: 'Harbour Wheel' }),
+    ];
+    await renderDeskWithFindings();
+    expect(await screen.findByText('Notice PW-2026-0007 issued to Tamsworth Pier Leisure')).toBeTruthy();
+    // The delivery state in words (noticeDeliveryStateInfo) with its own mark.
+    const mark = screen.getByLabelText('E-mail: Partly sent');
+    expect(within(mark).getByText('Partly sent')).toBeTruthy();
+    expect(screen.getByText(/Acknowledged .* by Pell Harrow/)).toBeTruthy();
+    expect(screen.getByText('Its finding is closed')).toBeTruthy();
+    for (const other of ['PW-2026-0003', 'PW-2026-0009', 'PW-2026-0010'])
+      expect(screen.queryByText(new RegExp(other))).toBeNull();
+    const asked = server.calls.filter((c) => c.path === '/api/notices');
+    expect(asked.length).toBeGreaterThanOrEqual(1);
+    expect(asked.every((c) => c.search.get('rideId') === 'ride-3')).toBe(true);
+    // The stand-in's answer is a valid page of the API.
+    expect(() =>
+      noticeListResponseSchema.parse({ notices: server.notices, total: 4, page: 1, pageSize: 100 }),
+    ).not.toThrow();
+  });
+
+  test('each finding says where it stands; a reported action leads to the notice to verify it', async () => {
+    startApproved();
+    server.findings = [
+      finding({
+        id: 'f-1',
+        number: 1,
+        severity: 'fix_by_date',
+        requiredAction: 'Replace the pin',
+        dueOn: '2026-07-15',
+      }),
+      finding({
+        id: 'f-2',
+        number: 2,
+        severity: 'fix_before_operation',
+        requiredAction: 'Renew the lower bushing',
+        state: 'action_reported',
+      }),
+      finding({
+        id: 'f-3',
+        number: 3,
+        state: 'closed',
+        closedAt: '2026-06-05T14:00:00.000Z',
+        closedByName: 'Ilse Varga',
+        stateNote: 'New pin fitted; clearance measured again',
+      }),
+    ];
+    server.notices = [notice({ openFindings: 2, findingsTotal: 3 })];
+    await renderDeskWithFindings();
+    const row = (n: number) => screen.getByLabelText(`Finding ${n}`);
+
+    // Words and a mark for each state, never colour alone.
+    expect(within(row(1)).getByLabelText('State: Open')).toBeTruthy();
+    expect(within(row(1)).getByText('Open')).toBeTruthy();
+    expect(within(row(2)).getByLabelText('State: Action reported')).toBeTruthy();
+    expect(within(row(2)).getByText('Action reported')).toBeTruthy();
+    expect(within(row(3)).getByLabelText('State: Closed')).toBeTruthy();
+    expect(within(row(3)).getByText(/by Ilse Varga/)).toBeTruthy();
+    expect(within(row(3)).getByText(/New pin fitted; clearance measured again/)).toBeTruthy();
+
+    // Only the finding waiting for verification leads to the notice, where it is closed or reopened.
+    const review = await within(row(2)).findByRole('link', { name: 'Review corrective action on finding 2' });
+    expect(review.props.href).toBe('/notices/n-1');
+    expect(within(row(2)).getByText('Review corrective action')).toBeTruthy();
+    expect(within(row(1)).queryByText('Review corrective action')).toBeNull();
+    expect(within(row(3)).queryByText('Review corrective action')).toBeNull();
+    expect(screen.getByText('2 of 3 findings not closed')).toBeTruthy();
+  });
+
+  test('while the inspection waits for a decision its open findings carry no state mark', async () => {
+    server.findings = [finding({})];
+    await renderDeskWithFindings();
+    expect(within(screen.getByLabelText('Finding 1')).queryByLabelText('State: Open')).toBeNull();
+    expect(server.calls.some((c) => c.path === '/api/notices')).toBe(false);
+  });
+});
