@@ -20,23 +20,25 @@ export function createApp(deps: ApiDeps): Express {
   app.disable('x-powered-by');
   app.set('trust proxy', deps.config.trustProxy);
 
-  app.use(
-    pinoHttp({
-      logger: deps.logger,
-      // Health checks would drown the log; everything else is one line per request.
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : 'info'),
-      // One short line per request; headers (and the tokens in them) stay out of the log.
-      serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({
-          id: req.id,
-          method: req.method,
-          url: req.url,
-        }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
-  );
+  // Request lines are logged at `info`; below that level the middleware would only cost time.
+  if (deps.logger.isLevelEnabled('info'))
+    app.use(
+      pinoHttp({
+        logger: deps.logger,
+        // Health checks would drown the log; everything else is one line per request.
+        autoLogging: { ignore: (req) => req.url === '/api/health' },
+        customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : 'info'),
+        // One short line per request; headers (and the tokens in them) stay out of the log.
+        serializers: {
+          req: (req: { id: unknown; method: string; url: string }) => ({
+            id: req.id,
+            method: req.method,
+            url: req.url,
+          }),
+          res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+        },
+      }),
+    );
 
   app.use(
     helmet({

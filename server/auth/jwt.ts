@@ -34,7 +34,15 @@ export async function signSessionToken(
 export async function verifySessionToken(
   token: string,
   config: Pick<Config, 'jwtSecret'>,
+  now: number = Date.now(),
 ): Promise<{ userId: string; role: Role }> {
+  // A token already verified with this secret needs only its expiry checked again: the signature cannot
+  // have changed. This takes the HMAC off every request of a busy desk; the user row is still re-read.
+  const known = verifiedTokens(config.jwtSecret).get(token);
+  if (known) {
+    if (known.expiresAtMs > now) return { userId: known.userId, role: known.role };
+    throw unauthorized('Your session has expired. Sign in again.', 'session_expired');
+  }
   try {
     const { payload } = await jwtVerify(token, config.jwtSecret, {
       issuer: tokenIssuer,
@@ -43,6 +51,11 @@ export async function verifySessionToken(
     });
     const role = roleSchema.safeParse(payload.role);
     if (!payload.sub || !role.success) throw unauthorized('Your session is not valid. Sign in again.');
+    remember(config.jwtSecret, token, {
+      userId: payload.sub,
+      role: role.data,
+      expiresAtMs: (payload.exp ?? 0) * 1000,
+    });
     return { userId: payload.sub, role: role.data };
   } catch (error) {
     if (error instanceof errors.JWTExpired) {
@@ -50,4 +63,25 @@ export async function verifySessionToken(
     }
     throw unauthorized('Your session is not valid. Sign in again.');
   }
+}
+
+type VerifiedToken = { userId: string; role: Role; expiresAtMs: number };
+
+/** At most this many verified tokens are remembered per secret; the oldest goes first. */
+const VERIFIED_TOKEN_LIMIT = 1000;
+const verifiedBySecret = new WeakMap<object, Map<string, VerifiedToken>>();
+
+function verifiedTokens(secret: Config['jwtSecret']): Map<string, VerifiedToken> {
+  let map = verifiedBySecret.get(secret);
+  if (!map) {
+    map = new Map();
+    verifiedBySecret.set(secret, map);
+  }
+  return map;
+}
+
+function remember(secret: Config['jwtSecret'], token: string, verified: VerifiedToken): void {
+  const map = verifiedTokens(secret);
+  if (map.size >= VERIFIED_TOKEN_LIMIT) map.delete(map.keys().next().value as string);
+  map.set(token, verified);
 }

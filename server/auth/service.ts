@@ -1,4 +1,4 @@
-import { asc, eq } from 'drizzle-orm';
+import { asc, eq, sql } from 'drizzle-orm';
 
 import { companies, users } from '@/db/server/schema';
 import type { Role, SessionUser, SignInBody, SignInResponse } from '@/features/auth/schema';
@@ -19,14 +19,27 @@ const sessionUserColumns = {
   companyName: companies.name,
 };
 
-/** The signed-in user as the API shows it, or null when the account is missing or disabled. */
-export function findSessionUser(db: Db, userId: string): SessionUser | null {
-  const row = db
+// Every authenticated request reads its user: the query is prepared once per database.
+const preparedSessionUser = new WeakMap<Db, ReturnType<typeof prepareSessionUser>>();
+const prepareSessionUser = (db: Db) =>
+  db
     .select({ ...sessionUserColumns, disabledAt: users.disabledAt })
     .from(users)
     .leftJoin(companies, eq(companies.id, users.companyId))
-    .where(eq(users.id, userId))
-    .get();
+    .where(eq(users.id, sql.placeholder('userId')))
+    .prepare();
+function sessionUserQuery(db: Db) {
+  let query = preparedSessionUser.get(db);
+  if (!query) {
+    query = prepareSessionUser(db);
+    preparedSessionUser.set(db, query);
+  }
+  return query;
+}
+
+/** The signed-in user as the API shows it, or null when the account is missing or disabled. */
+export function findSessionUser(db: Db, userId: string): SessionUser | null {
+  const row = sessionUserQuery(db).get({ userId });
   if (!row || row.disabledAt !== null) return null;
   const { disabledAt: _disabledAt, ...user } = row;
   return user;

@@ -40,7 +40,7 @@ export function syncRouter(deps: ApiDeps): Router {
     const { result, replayed, accepted } = ingestBatch(deps.db, user, pushInput.body(res));
     res.json(result);
     if (accepted > 0) scheduleAnalysis(deps.db, deps.logger);
-    res.log.info(
+    deps.logger.info(
       { batchId: result.batchId, records: result.results.length, accepted, replayed },
       'sync push',
     );

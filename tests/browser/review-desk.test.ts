@@ -81,7 +81,7 @@ test('queue → flagged inspection → finding, ride out of service, approval; r
   const dialog = desk.getByRole('dialog', { name: 'Photo, full size' });
   await dialog.waitFor();
   await desk.waitForFunction(() =>
-    [...document.querySelectorAll('[role="dialog"] img')].some(
+    Array.from(document.querySelectorAll('[role="dialog"] img')).some(
       (i) => (i as HTMLImageElement).naturalWidth > 0,
     ),
   );
