@@ -1,0 +1,54 @@
+import { API_BASE, ApiRequestError, OfflineError } from '@/features/api/client';
+import { apiErrorSchema } from '@/features/api/errors';
+import { tokenStore } from '@/features/auth/token-store';
+
+export type PaperSize = 'A4' | 'LETTER';
+
+/**
+ * Downloads the notice's PDF. A plain link cannot carry the session token, so the bytes are fetched with
+ * it and handed to the browser as a file from a temporary Blob URL.
+ */
+export async function downloadNoticePdf(
+  notice: { id: string; reference: string },
+  size: PaperSize,
+): Promise<string> {
+  const session = await tokenStore.get();
+  let res: Response;
+  try {
+    res = await fetch(`${API_BASE}/api/notices/${encodeURIComponent(notice.id)}/pdf?size=${size}`, {
+      headers: {
+        Accept: 'application/pdf',
+        ...(session ? { Authorization: `Bearer ${session.token}` } : {}),
+      },
+    });
+  } catch (err) {
+    throw new OfflineError(err);
+  }
+  if (!res.ok) {
+    let body: unknown;
+    try {
+      body = JSON.parse(await res.text());
+    } catch {
+      body = undefined;
+    }
+    const parsed = apiErrorSchema.safeParse(body);
+    throw parsed.success
+      ? new ApiRequestError(res.status, parsed.data.error.code, parsed.data.error.message)
+      : new ApiRequestError(res.status, 'http_error', `The PDF could not be made (${res.status}).`);
+  }
+  const name = pdfFileName(notice.reference, size);
+  const url = URL.createObjectURL(await res.blob());
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  a.rel = 'noopener';
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  // Give the browser a moment to start the download before the URL goes.
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+  return `Downloaded ${name}`;
+}
+
+export const pdfFileName = (reference: string, size: PaperSize) =>
+  `${reference.replace(/[^\w.-]+/g, '_')}-${size === 'A4' ? 'A4' : 'Letter'}.pdf`;
