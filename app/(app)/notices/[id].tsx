@@ -1,0 +1,3 @@
+import { NoticeScreen } from '@/features/notices/notice-screen';
+
+export default NoticeScreen;

@@ -1,0 +1,3 @@
+import { NoticeListScreen } from '@/features/notices/notice-list-screen';
+
+export default NoticeListScreen;

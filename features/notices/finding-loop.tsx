@@ -1,0 +1,416 @@
+import Feather from '@expo/vector-icons/Feather';
+import { Link } from 'expo-router';
+import { useState } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { FormAlert } from '@/components/form-alert';
+import { RideStatusMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, layout, radius, space } from '@/components/theme';
+import type { SessionUser } from '@/features/auth/schema';
+import { CorrectiveActionForm, problemText } from '@/features/notices/corrective-action-form';
+import { NoticePhotos } from '@/features/notices/notice-photos';
+import { findingStateLabel, isPastDue, noticeHref, todayIso } from '@/features/notices/notice-text';
+import { SAVING_PREFIX, useCloseFinding, useReopenFinding } from '@/features/notices/notices-api';
+import {
+  type FindingStateResponse,
+  type NoticeFinding,
+  findingCloseInputSchema,
+  findingReopenInputSchema,
+} from '@/features/notices/schema';
+import { formatDate, formatDateTime } from '@/features/registry/text';
+import type { FindingState } from '@/features/review/schema';
+import { SeverityMark } from '@/features/review/severity-mark';
+
+/** Who may verify findings: the server's verifiers (supervisor, admin, inspector). */
+export const isVerifier = (user: SessionUser) =>
+  user.role === 'supervisor' || user.role === 'admin' || user.role === 'inspector';
+
+const stateLook: Record<
+  FindingState,
+  { icon: React.ComponentProps<typeof Feather>['name']; fg: string; bg: string }
+> = {
+  open: { icon: 'alert-circle', fg: colors.near, bg: colors.nearSoft },
+  action_reported: { icon: 'clock', fg: colors.base, bg: '#E3EEF8' },
+  closed: { icon: 'check-circle', fg: colors.within, bg: colors.withinSoft },
+};
+
+/** Where a finding stands, as an icon and words on a tint (never the colour alone). */
+export function FindingStateMark({ state }: { state: FindingState }) {
+  const look = stateLook[state];
+  return (
+    <View
+      style={StyleSheet.flatten([styles.stateMark, { backgroundColor: look.bg }])}
+      accessibilityLabel={`State: ${findingStateLabel[state]}`}
+    >
+      <Feather name={look.icon} size={14} color={look.fg} />
+      <Text variant="label" color={look.fg}>
+        {findingStateLabel[state]}
+      </Text>
+    </View>
+  );
+}
+
+type Panel = 'report' | 'close' | 'reopen' | null;
+
+/**
+ * One finding of a notice as it stands now, and what can be done about it: the operator reports
+ * corrective action with a note and photos; the inspection body verifies and closes it, or reopens it
+ * with a comment. When the ride's status follows a close or a reopen, the new status is shown here.
+ */
+export function FindingLoop({
+  noticeId,
+  finding,
+  user,
+}: {
+  noticeId: string;
+  finding: NoticeFinding;
+  user: SessionUser;
+}) {
+  const [panel, setPanel] = useState<Panel>(null);
+  const [outcome, setOutcome] = useState<FindingStateResponse | null>(null);
+  const operator = user.role === 'operator';
+  const verifier = isVerifier(user);
+  const pastDue = isPastDue(finding, todayIso());
+  const f = finding;
+
+  return (
+    <View style={styles.card} role="listitem" accessibilityLabel={`Finding ${f.number}`}>
+      <View style={styles.head}>
+        <Text variant="heading">Finding {f.number}</Text>
+        <SeverityMark severity={f.severity} compact />
+        <FindingStateMark state={f.state} />
+      </View>
+      <Text>{f.description}</Text>
+      {f.requiredAction ? <Line label="Required action" value={f.requiredAction} /> : null}
+      <Line
+        label="Due"
+        value={f.dueOn ? `${formatDate(f.dueOn)}${pastDue ? ' — past due' : ''}` : 'No due date'}
+        color={pastDue ? colors.danger : undefined}
+      />
+      <StateStory finding={f} />
+
+      <View style={styles.actions}>
+        <Text variant="label" muted>
+          CORRECTIVE ACTIONS ({f.correctiveActions.length})
+        </Text>
+        {f.correctiveActions.length === 0 ? (
+          <Text variant="small" muted>
+            {operator ? 'None reported yet.' : 'The operator has not reported any yet.'}
+          </Text>
+        ) : (
+          f.correctiveActions.map((a, i) => {
+            const saving = a.id.startsWith(SAVING_PREFIX);
+            return (
+              <View
+                key={a.id}
+                style={StyleSheet.flatten([styles.action, saving && styles.saving])}
+                accessibilityLabel={`Corrective action ${i + 1}`}
+              >
+                <Text variant="small" muted>
+                  {a.reportedByName ?? 'Someone of the operator'} · {formatDateTime(a.reportedAt)}
+                  {saving ? ' · Sending…' : ''}
+                </Text>
+                <Text>{a.note}</Text>
+                <NoticePhotos
+                  photos={a.photoShas.map((sha, n) => ({ sha256: sha, caption: `Evidence photo ${n + 1}` }))}
+                  label={`Evidence photos (${a.photoShas.length})`}
+                />
+              </View>
+            );
+          })
+        )}
+      </View>
+
+      {outcome ? <Outcome outcome={outcome} /> : null}
+
+      {operator && f.state !== 'closed' ? (
+        panel === 'report' ? (
+          <CorrectiveActionForm
+            noticeId={noticeId}
+            finding={f}
+            userName={user.name}
+            onDone={() => setPanel(null)}
+            onCancel={() => setPanel(null)}
+          />
+        ) : (
+          <Button
+            label="Report corrective action"
+            tone="accent"
+            accessibilityLabel={`Report corrective action on finding ${f.number}`}
+            onPress={() => setPanel('report')}
+          />
+        )
+      ) : null}
+
+      {verifier ? (
+        panel === 'close' ? (
+          <ClosePanel
+            noticeId={noticeId}
+            finding={f}
+            userName={user.name}
+            onDone={(answer) => {
+              setOutcome(answer);
+              setPanel(null);
+            }}
+            onCancel={() => setPanel(null)}
+          />
+        ) : panel === 'reopen' ? (
+          <ReopenPanel
+            noticeId={noticeId}
+            finding={f}
+            userName={user.name}
+            onDone={(answer) => {
+              setOutcome(answer);
+              setPanel(null);
+            }}
+            onCancel={() => setPanel(null)}
+          />
+        ) : (
+          <View style={styles.buttons}>
+            {f.state !== 'closed' ? (
+              <Button
+                label="Verify and close"
+                tone="primary"
+                accessibilityLabel={`Verify and close finding ${f.number}`}
+                onPress={() => {
+                  setOutcome(null);
+                  setPanel('close');
+                }}
+              />
+            ) : null}
+            {f.state !== 'open' ? (
+              <Button
+                label="Reopen"
+                tone="danger"
+                accessibilityLabel={`Reopen finding ${f.number}`}
+                onPress={() => {
+                  setOutcome(null);
+                  setPanel('reopen');
+                }}
+              />
+            ) : null}
+          </View>
+        )
+      ) : null}
+    </View>
+  );
+}
+
+/** Who closed or reopened the finding, when, and with what comment. */
+function StateStory({ finding: f }: { finding: NoticeFinding }) {
+  if (f.state === 'closed')
+    return (
+      <View style={styles.story}>
+        <Text variant="small">
+          Verified and closed{f.closedByName ? ` by ${f.closedByName}` : ''}
+          {f.closedAt ? `, ${formatDateTime(f.closedAt)}` : ''}.
+        </Text>
+        {f.stateNote ? <Line label="Verification note" value={f.stateNote} /> : null}
+      </View>
+    );
+  if (!f.stateNote) return null;
+  // An open finding with a comment was reopened; after a further action report the comment still stands.
+  return (
+    <View style={StyleSheet.flatten([styles.story, styles.reopened])}>
+      <Text variant="small">
+        {f.state === 'open' ? 'Reopened' : 'Reopened earlier'}
+        {f.updatedByName && f.state === 'open' ? ` by ${f.updatedByName}` : ''}
+        {f.state === 'open' ? `, ${formatDateTime(f.updatedAt)}` : ''}
+      </Text>
+      <Line label="Still to put right" value={f.stateNote} />
+    </View>
+  );
+}
+
+/** What followed a close or a reopen: the ride's status now and the status notice, when one was issued. */
+function Outcome({ outcome }: { outcome: FindingStateResponse }) {
+  return (
+    <View style={styles.outcome} role="status" accessibilityLiveRegion="polite">
+      <View style={styles.outcomeRow}>
+        <Text variant="label" muted>
+          {outcome.statusNotice ? 'THE RIDE’S STATUS FOLLOWED' : 'RIDE STATUS NOW'}
+        </Text>
+        <RideStatusMark status={outcome.ride.status} />
+      </View>
+      {outcome.ride.statusReason ? <Text variant="small">{outcome.ride.statusReason}</Text> : null}
+      {outcome.statusNotice ? (
+        <Link href={noticeHref(outcome.statusNotice.id)} asChild>
+          <Pressable role="link" style={styles.link}>
+            <Text variant="heading" color={colors.accent}>
+              Status notice {outcome.statusNotice.reference} issued to the operator ›
+            </Text>
+          </Pressable>
+        </Link>
+      ) : null}
+    </View>
+  );
+}
+
+function ClosePanel({
+  noticeId,
+  finding,
+  userName,
+  onDone,
+  onCancel,
+}: {
+  noticeId: string;
+  finding: NoticeFinding;
+  userName: string;
+  onDone: (answer: FindingStateResponse) => void;
+  onCancel: () => void;
+}) {
+  const close = useCloseFinding(noticeId, userName);
+  const [note, setNote] = useState('');
+  const [error, setError] = useState<string | undefined>();
+  const submit = () => {
+    const checked = findingCloseInputSchema.safeParse({ note });
+    if (!checked.success) {
+      setError(checked.error.issues[0]?.message);
+      return;
+    }
+    close.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
+  };
+  return (
+    <View style={styles.panel} accessibilityLabel={`Verify and close finding ${finding.number}`}>
+      <Text variant="heading">Verify and close finding {finding.number}</Text>
+      <Text variant="small" muted>
+        Close it once you have checked that the deficiency is put right. When it is the ride’s last finding
+        that forbids operation, the ride returns to service and the operator is sent a status notice.
+      </Text>
+      <TextField
+        label="Verification note (optional)"
+        value={note}
+        onChangeText={(t) => {
+          setNote(t);
+          setError(undefined);
+        }}
+        multiline
+        error={error}
+        hint="How it was verified: seen on site, photos accepted, measured…"
+      />
+      <FormAlert problem={close.error ? { message: problemText(close.error) } : null} />
+      <View style={styles.buttons}>
+        <Button label="Close finding" tone="accent" onPress={submit} busy={close.isPending} />
+        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={close.isPending} />
+      </View>
+    </View>
+  );
+}
+
+function ReopenPanel({
+  noticeId,
+  finding,
+  userName,
+  onDone,
+  onCancel,
+}: {
+  noticeId: string;
+  finding: NoticeFinding;
+  userName: string;
+  onDone: (answer: FindingStateResponse) => void;
+  onCancel: () => void;
+}) {
+  const reopen = useReopenFinding(noticeId, userName);
+  const [note, setNote] = useState('');
+  const [error, setError] = useState<string | undefined>();
+  const submit = () => {
+    const checked = findingReopenInputSchema.safeParse({ note });
+    if (!checked.success) {
+      setError(checked.error.issues[0]?.message);
+      return;
+    }
+    reopen.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
+  };
+  return (
+    <View style={styles.panel} accessibilityLabel={`Reopen finding ${finding.number}`}>
+      <Text variant="heading">Reopen finding {finding.number}</Text>
+      <Text variant="small" muted>
+        The operator sees your comment. A reopened finding that forbids operation takes a ride in service out
+        of service.
+      </Text>
+      <TextField
+        label="What is still wrong"
+        value={note}
+        onChangeText={(t) => {
+          setNote(t);
+          setError(undefined);
+        }}
+        multiline
+        error={error}
+      />
+      <FormAlert problem={reopen.error ? { message: problemText(reopen.error) } : null} />
+      <View style={styles.buttons}>
+        <Button label="Reopen finding" tone="danger" onPress={submit} busy={reopen.isPending} />
+        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={reopen.isPending} />
+      </View>
+    </View>
+  );
+}
+
+function Line({ label, value, color }: { label: string; value: string; color?: string }) {
+  return (
+    <Text variant="small" color={color}>
+      <Text variant="label" muted>
+        {label.toUpperCase()}{' '}
+      </Text>
+      {value}
+    </Text>
+  );
+}
+
+const styles = StyleSheet.create({
+  card: {
+    gap: space.sm,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  head: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
+  stateMark: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    alignSelf: 'flex-start',
+    gap: space.xs + 2,
+    paddingHorizontal: space.sm,
+    paddingVertical: 2,
+    borderRadius: radius.sm,
+  },
+  story: { gap: 2 },
+  reopened: {
+    padding: space.sm,
+    borderLeftWidth: 3,
+    borderLeftColor: colors.near,
+    backgroundColor: colors.nearSoft,
+    borderRadius: radius.sm,
+  },
+  actions: { gap: space.sm, paddingTop: space.xs },
+  action: {
+    gap: space.xs,
+    padding: space.sm,
+    borderRadius: radius.sm,
+    backgroundColor: colors.bg,
+  },
+  saving: { borderWidth: 1, borderStyle: 'dashed', borderColor: colors.focus },
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  panel: {
+    gap: space.md,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 2,
+    borderColor: colors.base,
+    backgroundColor: colors.surface,
+  },
+  outcome: {
+    gap: space.xs,
+    padding: space.md,
+    borderRadius: radius.md,
+    backgroundColor: colors.surfaceSunk,
+  },
+  outcomeRow: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
+  link: { minHeight: layout.touchTarget, justifyContent: 'center' },
+});

@@ -1,0 +1,268 @@
+import { StyleSheet, View } from 'react-native';
+
+import { Card } from '@/components/card';
+import { CAUTION_FULL, Caution } from '@/components/caution';
+import { DataTable } from '@/components/data-table';
+import { EnvelopeMark, RideStatusMark } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { colors, radius, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
+import { NoticePhotos } from '@/features/notices/notice-photos';
+import { noticeKindLabel } from '@/features/notices/notice-text';
+import type { NoticeDocument } from '@/features/notices/schema';
+import { formatDate, formatDateTime } from '@/features/registry/text';
+import { SeverityMark } from '@/features/review/severity-mark';
+
+type Result = NoticeDocument['results'][number];
+type Load = NoticeDocument['loadSummary'][number];
+
+/**
+ * The notice exactly as it was issued: the frozen document the operator received by e-mail and in the
+ * PDF. Nothing here reads the findings as they stand now; the finding loop beside it does that.
+ */
+export function NoticeDocumentView({ document: doc }: { document: NoticeDocument }) {
+  const wide = useWide();
+  const inspection = doc.inspection;
+  const rideLine = [doc.ride.maker, doc.ride.model].filter(Boolean).join(' ');
+  return (
+    <Card style={styles.card} accessibilityLabel={`Notice ${doc.reference} as issued`}>
+      <View style={StyleSheet.flatten([styles.top, wide && styles.topWide])}>
+        <View style={wide ? styles.grow : undefined}>
+          <Text variant="heading">{doc.issuer.name}</Text>
+          {doc.issuer.address ? (
+            <Text variant="small" muted>
+              {doc.issuer.address}
+            </Text>
+          ) : null}
+          {doc.issuer.phone ? (
+            <Text variant="small" muted>
+              {doc.issuer.phone}
+            </Text>
+          ) : null}
+        </View>
+        <View style={wide ? styles.refWide : undefined}>
+          <Text variant="label" muted>
+            {noticeKindLabel[doc.kind].toUpperCase()}
+          </Text>
+          <Text variant="figureLarge">{doc.reference}</Text>
+          <Text variant="small" muted>
+            Issued {formatDateTime(doc.issuedAt)}
+          </Text>
+        </View>
+      </View>
+
+      <Section title="To">
+        <Text variant="heading">{doc.operator.name}</Text>
+        {doc.operator.address ? <Text variant="small">{doc.operator.address}</Text> : null}
+      </Section>
+
+      <Section title="Ride">
+        <Facts>
+          <Fact label="Ride" value={doc.ride.name} />
+          <Fact label="Class" value={doc.ride.rideClass} />
+          {rideLine ? <Fact label="Maker and model" value={rideLine} /> : null}
+          {doc.ride.serial ? <Fact label="Serial number" value={doc.ride.serial} /> : null}
+          {doc.ride.year !== null ? <Fact label="Year built" value={String(doc.ride.year)} /> : null}
+          <Fact
+            label="Site"
+            value={
+              doc.site ? [doc.site.name, doc.site.address].filter(Boolean).join(', ') : 'No site recorded'
+            }
+          />
+        </Facts>
+      </Section>
+
+      {inspection ? (
+        <Section title="Inspection">
+          <Facts>
+            <Fact label="Type" value={inspection.typeLabel} />
+            <Fact label="Date" value={formatDate(inspection.date)} />
+            <Fact
+              label="Inspector"
+              value={
+                inspection.inspectorCredential
+                  ? `${inspection.inspectorName} (${inspection.inspectorCredential})`
+                  : inspection.inspectorName
+              }
+            />
+            {inspection.designVersion !== null ? (
+              <Fact label="Design data" value={`Version ${inspection.designVersion}`} />
+            ) : null}
+            {inspection.engineVersion ? <Fact label="Load engine" value={inspection.engineVersion} /> : null}
+            {doc.checklist ? (
+              <Fact
+                label="Checklist"
+                value={`${doc.checklist.failed} of ${doc.checklist.total} items failed`}
+              />
+            ) : null}
+          </Facts>
+        </Section>
+      ) : null}
+
+      <Section title="Operating status">
+        <View style={styles.statusRow}>
+          <RideStatusMark status={doc.operatingStatus.status} />
+          {doc.operatingStatus.reason ? <Text style={styles.grow}>{doc.operatingStatus.reason}</Text> : null}
+        </View>
+        <Text>
+          <Text variant="label" muted>
+            RE-INSPECTION{' '}
+          </Text>
+          {doc.reinspection.required ? 'Required' : 'Not required'}
+          {doc.reinspection.reason ? ` — ${doc.reinspection.reason}` : ''}
+        </Text>
+      </Section>
+
+      {doc.findings.length > 0 ? (
+        <Section title={`Findings (${doc.findings.length})`}>
+          <View style={styles.findings} role="list" accessibilityLabel="Findings as issued">
+            {doc.findings.map((f) => (
+              <View
+                key={f.id}
+                style={styles.finding}
+                role="listitem"
+                accessibilityLabel={`Finding ${f.number} as issued`}
+              >
+                <View style={styles.findingHead}>
+                  <Text variant="heading">Finding {f.number}</Text>
+                  <SeverityMark severity={f.severity} compact />
+                </View>
+                <Text>{f.description}</Text>
+                {f.ruleRef ? <Line label="Breaches" value={f.ruleRef} /> : null}
+                {f.requiredAction ? <Line label="Required action" value={f.requiredAction} /> : null}
+                <Line label="Due" value={f.dueOn ? formatDate(f.dueOn) : 'No due date'} />
+                <NoticePhotos
+                  photos={f.photos}
+                  label={`Photos of finding ${f.number} (${f.photos.length})`}
+                />
+              </View>
+            ))}
+          </View>
+        </Section>
+      ) : null}
+
+      {doc.results.length > 0 ? (
+        <Section title="Results against design limits">
+          <DataTable<Result>
+            label="Results against design limits"
+            rows={doc.results}
+            rowKey={(r) => r.label}
+            columns={[
+              { key: 'label', title: 'Value', render: (r) => r.label, flex: 2 },
+              { key: 'value', title: 'Result', render: (r) => r.value, numeric: true },
+              { key: 'limit', title: 'Limit', render: (r) => r.limit, numeric: true },
+              {
+                key: 'ratio',
+                title: 'Share of limit',
+                render: (r) => (r.ratio === null ? '—' : `${Math.round(r.ratio * 100)} %`),
+                numeric: true,
+              },
+              { key: 'status', title: 'Status', render: (r) => <EnvelopeMark status={r.status} compact /> },
+            ]}
+          />
+        </Section>
+      ) : null}
+
+      {doc.loadSummary.length > 0 ? (
+        <Section title="Load summary">
+          <DataTable<Load>
+            label="Peak pivot loads over one ride cycle"
+            rows={doc.loadSummary}
+            rowKey={(l) => l.pivot}
+            columns={[
+              { key: 'pivot', title: 'Pivot', render: (l) => l.pivot, flex: 2 },
+              { key: 'peak', title: 'Peak force', render: (l) => l.peakForce, numeric: true },
+              { key: 'limit', title: 'Limit', render: (l) => l.limit ?? 'None set', numeric: true },
+            ]}
+          />
+        </Section>
+      ) : null}
+
+      {doc.note ? (
+        <Section title="Note from the inspection body">
+          <Text>{doc.note}</Text>
+        </Section>
+      ) : null}
+
+      <Section title="Signed">
+        <Text>
+          {doc.signature.name}, {doc.signature.role} — {formatDateTime(doc.signature.signedAt)}
+        </Text>
+      </Section>
+
+      <Section title="If you disagree">
+        <Text variant="small">{doc.appeal}</Text>
+      </Section>
+
+      <Caution full />
+      {doc.caution !== CAUTION_FULL ? (
+        <View style={styles.printed}>
+          <Text variant="label" muted>
+            CAUTION AS PRINTED ON THIS NOTICE
+          </Text>
+          <Text variant="small">{doc.caution}</Text>
+        </View>
+      ) : null}
+    </Card>
+  );
+}
+
+function Section({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <View style={styles.section}>
+      <Text variant="label" muted role="heading" aria-level={2}>
+        {title.toUpperCase()}
+      </Text>
+      {children}
+    </View>
+  );
+}
+
+function Facts({ children }: { children: React.ReactNode }) {
+  return <View style={styles.facts}>{children}</View>;
+}
+
+function Fact({ label, value }: { label: string; value: string }) {
+  return (
+    <View style={styles.fact}>
+      <Text variant="small" muted>
+        {label}
+      </Text>
+      <Text>{value}</Text>
+    </View>
+  );
+}
+
+function Line({ label, value }: { label: string; value: string }) {
+  return (
+    <Text variant="small">
+      <Text variant="label" muted>
+        {label.toUpperCase()}{' '}
+      </Text>
+      {value}
+    </Text>
+  );
+}
+
+const styles = StyleSheet.create({
+  card: { gap: space.lg },
+  top: { gap: space.md, paddingBottom: space.md, borderBottomWidth: 2, borderBottomColor: colors.base },
+  topWide: { flexDirection: 'row', alignItems: 'flex-start' },
+  refWide: { alignItems: 'flex-end' },
+  grow: { flex: 1, minWidth: 0 },
+  section: { gap: space.sm },
+  facts: { flexDirection: 'row', flexWrap: 'wrap', rowGap: space.sm, columnGap: space.lg },
+  fact: { flexBasis: 200, flexGrow: 1, gap: 2 },
+  statusRow: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.md },
+  findings: { gap: space.sm },
+  finding: {
+    gap: space.xs,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  findingHead: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
+  printed: { gap: space.xs, padding: space.md, borderRadius: radius.sm, backgroundColor: colors.surfaceSunk },
+});
