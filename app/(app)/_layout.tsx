@@ -1,4 +1,4 @@
-import { Redirect, Slot } from 'expo-router';
+import { Redirect, Slot, usePathname } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { useSession } from '@/features/auth/api';
@@ -6,11 +6,22 @@ import { DeviceDbProvider } from '@/features/device-db/provider';
 import { AppShell } from '@/features/shell/app-shell';
 import { BackgroundSync } from '@/features/sync/background-sync';
 
-/** Everything in this group needs a session; signed-out visitors go to sign-in. */
+/**
+ * Everything in this group needs a session; signed-out visitors go to sign-in, which brings them back to
+ * the page they asked for (an e-mailed link to a notice) once they are in.
+ */
 export default function AppLayout() {
   const session = useSession();
+  const pathname = usePathname();
   if (session.isPending) return <FullScreenWait />;
-  if (!session.data) return <Redirect href="/sign-in" />;
+  if (!session.data)
+    return (
+      <Redirect
+        href={
+          pathname && pathname !== '/' ? { pathname: '/sign-in', params: { next: pathname } } : '/sign-in'
+        }
+      />
+    );
   const shell = (
     <AppShell user={session.data.user} offline={session.data.offline}>
       <Slot />

@@ -1,12 +1,17 @@
-import { Redirect, Slot } from 'expo-router';
+import { Redirect, Slot, useGlobalSearchParams } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { roleHome, useSession } from '@/features/auth/api';
+import { safeNextPath } from '@/features/auth/next-path';
 
-/** Signed-in users have no business on the sign-in page: send them to their home. */
+/**
+ * Signed-in users have no business on the sign-in page: send them on to the page they came for (`next`,
+ * when it is one of ours) or to their home.
+ */
 export default function AuthLayout() {
   const session = useSession();
+  const { next } = useGlobalSearchParams<{ next?: string }>();
   if (session.isPending) return <FullScreenWait />;
-  if (session.data) return <Redirect href={roleHome[session.data.user.role]} />;
+  if (session.data) return <Redirect href={safeNextPath(next) ?? roleHome[session.data.user.role]} />;
   return <Slot />;
 }

@@ -1,4 +1,4 @@
-import { router } from 'expo-router';
+import { router, useLocalSearchParams } from 'expo-router';
 import { ScrollView, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
@@ -9,6 +9,7 @@ import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/features/api/client';
 import { roleHome, useSignInMutation } from '@/features/auth/api';
+import { safeNextPath } from '@/features/auth/next-path';
 import { SignInForm } from '@/features/auth/sign-in-form';
 
 function errorText(err: unknown): string | null {
@@ -25,15 +26,21 @@ function errorText(err: unknown): string | null {
 export function SignInScreen() {
   const wide = useWide();
   const signIn = useSignInMutation();
+  // The page that sent the visitor here (an e-mailed link to a notice): back there after signing in.
+  const next = safeNextPath(useLocalSearchParams<{ next?: string }>().next);
   const form = (
     <Card style={styles.card}>
       <Text variant="title">Sign in</Text>
-      <Text muted>Use the account your inspection body or ride company gave you.</Text>
+      <Text muted>
+        {next?.startsWith('/notices/')
+          ? 'Sign in with your company’s account to open the notice you were sent.'
+          : 'Use the account your inspection body or ride company gave you.'}
+      </Text>
       <SignInForm
         busy={signIn.isPending}
         error={errorText(signIn.error)}
         onSubmit={(values) =>
-          signIn.mutate(values, { onSuccess: (user) => router.replace(roleHome[user.role]) })
+          signIn.mutate(values, { onSuccess: (user) => router.replace(next ?? roleHome[user.role]) })
         }
       />
     </Card>

@@ -1,6 +1,6 @@
 import type { Role } from '@/features/auth/schema';
 
-export type NavIcon = 'sun' | 'inbox' | 'home' | 'users' | 'activity' | 'user' | 'list';
+export type NavIcon = 'sun' | 'inbox' | 'home' | 'users' | 'activity' | 'user' | 'list' | 'file-text';
 export type NavItem = {
   href: string;
   label: string;
@@ -10,28 +10,34 @@ export type NavItem = {
 };
 
 const rides: NavItem = { href: '/rides', label: 'Rides', icon: 'list', also: ['/register'] };
+/** Notices to operators: an operator's own company's, every notice for the inspection body's staff. */
+const notices: NavItem = { href: '/notices', label: 'Notices', icon: 'file-text' };
 
 /** What each role sees in the navigation, in order. The first item is the role's home. */
 export const navItems: Record<Role, NavItem[]> = {
   inspector: [
     { href: '/today', label: 'Today', icon: 'sun' },
     rides,
+    notices,
     { href: '/loads', label: 'Load check', icon: 'activity' },
     { href: '/account', label: 'Account', icon: 'user' },
   ],
   supervisor: [
     { href: '/review', label: 'Review', icon: 'inbox' },
     rides,
+    notices,
     { href: '/loads', label: 'Load check', icon: 'activity' },
     { href: '/account', label: 'Account', icon: 'user' },
   ],
   operator: [
     { href: '/my-rides', label: 'My rides', icon: 'home' },
+    notices,
     { href: '/account', label: 'Account', icon: 'user' },
   ],
   admin: [
     { href: '/admin', label: 'Admin', icon: 'users' },
     rides,
+    notices,
     { href: '/loads', label: 'Load check', icon: 'activity' },
     { href: '/account', label: 'Account', icon: 'user' },
   ],

@@ -1,0 +1,15 @@
+/**
+ * Where to go after signing in, when the sign-in page was reached from a page of ours (an e-mailed link
+ * to a notice, a reload after the session ran out). Only a path on this site is accepted: it starts with
+ * one "/" and holds no backslash, whitespace or control character, so "//host", "/\host" (which browsers
+ * read as another site) and "https://…" are refused and the person lands on their own start page.
+ */
+export function safeNextPath(value: unknown): string | null {
+  const text = Array.isArray(value) ? value[0] : value;
+  if (typeof text !== 'string' || text.length === 0 || text.length > 2000) return null;
+  if (!text.startsWith('/') || text.startsWith('//')) return null;
+  if (/[\\\s\u0000-\u001f\u007f]/.test(text)) return null;
+  // Back to the sign-in page would only go round in a circle.
+  if (/^\/sign-in(?:[/?#]|$)/.test(text)) return null;
+  return text;
+}
