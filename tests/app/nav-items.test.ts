@@ -17,3 +17,13 @@ test('an item is active on its own path and its sub-routes, not on look-alike pa
   expect(isActive(item, '/today/ride-1')).toBe(true);
   expect(isActive(item, '/todays-notes')).toBe(false);
 });
+
+test.each(roles)('%s has a Notices item that opens /notices and is active on a notice', (role) => {
+  const item = navItems[role].find((i) => i.href === '/notices');
+  expect(item?.label).toBe('Notices');
+  expect(item && isActive(item, '/notices/n-7')).toBe(true);
+});
+
+test('an operator’s navigation: home, notices, account, in that order', () => {
+  expect(navItems.operator.map((i) => i.href)).toEqual(['/my-rides', '/notices', '/account']);
+});
