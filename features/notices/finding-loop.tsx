@@ -1,4 +1,3 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
@@ -12,7 +11,7 @@ import { colors, layout, radius, space } from '@/components/theme';
 import type { SessionUser } from '@/features/auth/schema';
 import { CorrectiveActionForm, problemText } from '@/features/notices/corrective-action-form';
 import { NoticePhotos } from '@/features/notices/notice-photos';
-import { findingStateLabel, isPastDue, noticeHref, todayIso } from '@/features/notices/notice-text';
+import { isPastDue, noticeHref, todayIso } from '@/features/notices/notice-text';
 import { SAVING_PREFIX, useCloseFinding, useReopenFinding } from '@/features/notices/notices-api';
 import {
   type FindingStateResponse,
@@ -21,37 +20,12 @@ import {
   findingReopenInputSchema,
 } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/features/registry/text';
-import type { FindingState } from '@/features/review/schema';
+import { FindingStateMark } from '@/features/review/finding-state-mark';
 import { SeverityMark } from '@/features/review/severity-mark';
 
 /** Who may verify findings: the server's verifiers (supervisor, admin, inspector). */
 export const isVerifier = (user: SessionUser) =>
   user.role === 'supervisor' || user.role === 'admin' || user.role === 'inspector';
-
-const stateLook: Record<
-  FindingState,
-  { icon: React.ComponentProps<typeof Feather>['name']; fg: string; bg: string }
-> = {
-  open: { icon: 'alert-circle', fg: colors.near, bg: colors.nearSoft },
-  action_reported: { icon: 'clock', fg: colors.base, bg: '#E3EEF8' },
-  closed: { icon: 'check-circle', fg: colors.within, bg: colors.withinSoft },
-};
-
-/** Where a finding stands, as an icon and words on a tint (never the colour alone). */
-export function FindingStateMark({ state }: { state: FindingState }) {
-  const look = stateLook[state];
-  return (
-    <View
-      style={StyleSheet.flatten([styles.stateMark, { backgroundColor: look.bg }])}
-      accessibilityLabel={`State: ${findingStateLabel[state]}`}
-    >
-      <Feather name={look.icon} size={14} color={look.fg} />
-      <Text variant="label" color={look.fg}>
-        {findingStateLabel[state]}
-      </Text>
-    </View>
-  );
-}
 
 type Panel = 'report' | 'close' | 'reopen' | null;
 

@@ -14,15 +14,12 @@ import { useSession } from '@/features/auth/api';
 import type { SessionUser } from '@/features/auth/schema';
 import { noticeHref, noticeKindLabel } from '@/features/notices/notice-text';
 import { useNoticeList } from '@/features/notices/notices-api';
-import {
-  type NoticeListItem,
-  noticeDeliveryStateInfo,
-  noticeListQuerySchema,
-} from '@/features/notices/schema';
+import { type NoticeListItem, noticeListQuerySchema } from '@/features/notices/schema';
 import { operatorChoices, useCompanyListQuery, useRidePageQuery } from '@/features/registry/api';
 import { PagedList } from '@/features/registry/paged-list';
 import { formatDate } from '@/features/registry/text';
 import { useListParams } from '@/features/registry/use-list-params';
+import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
 
 const PAGE_SIZE = 25;
 const LIST_KEYS = ['rideId', 'operatorId', 'page'] as const;
@@ -32,7 +29,7 @@ const ALL = '__all__';
 export function acknowledgementText(n: NoticeListItem, operator: boolean): string {
   if (n.acknowledgedAt)
     return `Acknowledged ${formatDate(n.acknowledgedAt)}${n.acknowledgedByName ? ` by ${n.acknowledgedByName}` : ''}`;
-  return operator ? 'Awaiting your acknowledgement' : 'Not yet acknowledged';
+  return operator ? 'Awaiting your acknowledgement' : 'Not acknowledged yet';
 }
 
 const openText = (n: NoticeListItem) =>
@@ -181,27 +178,6 @@ function AckMark({ notice, operator }: { notice: NoticeListItem; operator: boole
   );
 }
 
-function DeliveryMark({ notice }: { notice: NoticeListItem }) {
-  const state = notice.delivery.state;
-  const icon: React.ComponentProps<typeof Feather>['name'] =
-    state === 'sent'
-      ? 'mail'
-      : state === 'sending'
-        ? 'loader'
-        : state === 'no_address'
-          ? 'slash'
-          : 'alert-triangle';
-  const bad = state === 'failed' || state === 'partly_sent' || state === 'no_address';
-  return (
-    <View style={styles.mark} accessibilityLabel={`E-mail: ${noticeDeliveryStateInfo[state].label}`}>
-      <Feather name={icon} size={16} color={bad ? colors.danger : colors.textMuted} />
-      <Text variant="small" color={bad ? colors.danger : colors.text}>
-        {noticeDeliveryStateInfo[state].label}
-      </Text>
-    </View>
-  );
-}
-
 function NoticeTable({ notices, operator }: { notices: NoticeListItem[]; operator: boolean }) {
   return (
     <SortableTable<NoticeListItem, never>
@@ -226,7 +202,13 @@ function NoticeTable({ notices, operator }: { notices: NoticeListItem[]; operato
         },
         ...(operator
           ? []
-          : [{ key: 'mail', title: 'E-mail', render: (n: NoticeListItem) => <DeliveryMark notice={n} /> }]),
+          : [
+              {
+                key: 'mail',
+                title: 'E-mail',
+                render: (n: NoticeListItem) => <NoticeDeliveryMark state={n.delivery.state} />,
+              },
+            ]),
         { key: 'open', title: 'Open findings', render: (n) => openText(n), numeric: true },
       ]}
     />
@@ -251,7 +233,7 @@ function NoticeCard({ notice: n, operator }: { notice: NoticeListItem; operator:
         <AckMark notice={n} operator={operator} />
         <View style={styles.cardFoot}>
           <Text variant="small">{openText(n)}</Text>
-          {operator ? null : <DeliveryMark notice={n} />}
+          {operator ? null : <NoticeDeliveryMark state={n.delivery.state} />}
         </View>
       </Pressable>
     </Link>

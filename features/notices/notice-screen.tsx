@@ -24,6 +24,7 @@ import { useAcknowledge, useNotice, useResend } from '@/features/notices/notices
 import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-download';
 import { type NoticeDetail, noticeDeliveryStateInfo } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/features/registry/text';
+import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
 import { useRideQuery } from '@/features/rides/api';
 
 const back = { href: '/notices', label: 'Notices' } as const;
@@ -299,12 +300,8 @@ function DeliveriesPanel({ notice, user }: { notice: NoticeDetail; user: Session
       <Text variant="heading" role="heading" aria-level={2}>
         E-mail deliveries
       </Text>
-      <Text>
-        <Text variant="label" muted>
-          {info.label.toUpperCase()}
-        </Text>{' '}
-        <Text variant="small">{info.description}</Text>
-      </Text>
+      <NoticeDeliveryMark state={notice.delivery.state} />
+      <Text variant="small">{info.description}</Text>
       {notice.deliveries.length > 0 ? (
         <View style={styles.deliveries} role="list" accessibilityLabel="Deliveries">
           {notice.deliveries.map((d) => (

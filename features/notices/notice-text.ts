@@ -1,6 +1,6 @@
 /**
- * The words of the notice screens in one place: kinds, where a finding stands, e-mail deliveries. The
- * severity, envelope and ride-status words come from their own definitions (severityInfo, status marks).
+ * The words of the notice screens in one place: kinds and e-mail deliveries. Severity, finding-state,
+ * envelope and ride-status words come from their own definitions (severityInfo and the marks).
  */
 import type { NoticeDelivery, NoticeKind } from '@/features/notices/schema';
 import type { FindingState } from '@/features/review/schema';
@@ -8,12 +8,6 @@ import type { FindingState } from '@/features/review/schema';
 export const noticeKindLabel: Record<NoticeKind, string> = {
   inspection: 'Inspection notice',
   status_change: 'Ride status notice',
-};
-
-export const findingStateLabel: Record<FindingState, string> = {
-  open: 'Open',
-  action_reported: 'Action reported, awaiting verification',
-  closed: 'Verified and closed',
 };
 
 export const deliveryStatusLabel: Record<NoticeDelivery['status'], string> = {

@@ -586,7 +586,7 @@ describe('an operator', () => {
       note: 'New main pin and bushing fitted by our fitter.',
       photoShas: [expectedSha],
     });
-    expect(await within(loop).findByLabelText('State: Action reported, awaiting verification')).toBeTruthy();
+    expect(await within(loop).findByLabelText('State: Action reported')).toBeTruthy();
     expect(within(loop).getByRole('button', { name: 'Open photo: Evidence photo 1' })).toBeTruthy();
   });
 
@@ -656,7 +656,7 @@ describe('the inspection body', () => {
     expect(within(loop).getByText('THE RIDE’S STATUS FOLLOWED')).toBeTruthy();
     expect(within(loop).getByLabelText('In service')).toBeTruthy();
     // The cache's change reaches the screen on React Query's next tick.
-    expect(await within(loop).findByLabelText('State: Verified and closed')).toBeTruthy();
+    expect(await within(loop).findByLabelText('State: Closed')).toBeTruthy();
     expect(callsTo('POST', '/api/findings/f-1/close')[0].body).toEqual({ note: null });
     // Closed: no more close, but it can be reopened.
     expect(within(loop).queryByRole('button', { name: 'Verify and close finding 1' })).toBeNull();
@@ -691,7 +691,7 @@ describe('the inspection body', () => {
     renderNotices(supervisor, '/notices');
     const row = await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark' });
     expect(within(row).getByText('Tamsworth Pier Leisure')).toBeTruthy();
-    expect(within(row).getByText('Not yet acknowledged')).toBeTruthy();
+    expect(within(row).getByText('Not acknowledged yet')).toBeTruthy();
     expect(within(row).getByText('Sent')).toBeTruthy();
     expect(screen.getByRole('button', { name: 'Operator: All operators' })).toBeTruthy();
     expect(screen.getByRole('button', { name: 'Ride: All rides' })).toBeTruthy();
