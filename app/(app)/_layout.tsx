@@ -17,9 +17,7 @@ export default function AppLayout() {
   if (!session.data)
     return (
       <Redirect
-        href={
-          pathname && pathname !== '/' ? { pathname: '/sign-in', params: { next: pathname } } : '/sign-in'
-        }
+        href={comeBackTo(pathname) ? { pathname: '/sign-in', params: { next: pathname } } : '/sign-in'}
       />
     );
   const shell = (
@@ -37,3 +35,9 @@ export default function AppLayout() {
     shell
   );
 }
+
+/**
+ * Whether to return to this page after signing in. Not the start page ("/" picks each role's own) and
+ * not the account page, where people sign out: whoever signs in next wants their own start page.
+ */
+const comeBackTo = (pathname: string | null) => !!pathname && pathname !== '/' && pathname !== '/account';

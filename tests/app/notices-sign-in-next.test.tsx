@@ -118,6 +118,7 @@ describe('signing in from an e-mailed link', () => {
         '(app)/_layout': AppLayout,
         '(app)/notices/[id]': () => <Text>The notice, for its operator</Text>,
         '(app)/my-rides': () => <Text>The operator’s start page</Text>,
+        '(app)/account': () => <Text>Account page</Text>,
       },
       { initialUrl },
     );
@@ -149,5 +150,15 @@ describe('signing in from an e-mailed link', () => {
     await signIn();
     expect(await screen.findByText('The operator’s start page')).toBeTruthy();
     expect(view.getPathname()).toBe('/my-rides');
+  });
+
+  test('signed out on the account page (where people sign out), sign-in leads to the start page', async () => {
+    const view = renderApp('/account');
+    expect(
+      await screen.findByText('Use the account your inspection body or ride company gave you.'),
+    ).toBeTruthy();
+    expect(view.getSearchParams()).toEqual({});
+    await signIn();
+    expect(await screen.findByText('The operator’s start page')).toBeTruthy();
   });
 });
