@@ -141,6 +141,8 @@ type Cache = {
   dataVersion: Database.Statement<[], number>;
   /** Counts per urgency by filter, valid while the queue's generation and the file's version stand. */
   counts: Map<string, number[]>;
+  /** Pages (their items as JSON text), remembered under the same rule as the counts. */
+  pages: Map<string, string>;
   generation: number;
   version: number;
 };
@@ -156,6 +158,7 @@ function cacheOf(db: Db): Cache {
       statements: new Map(),
       dataVersion: sqlite.prepare<[], number>('PRAGMA data_version').pluck(),
       counts: new Map(),
+      pages: new Map(),
       generation: -1,
       version: -1,
     };
@@ -187,6 +190,7 @@ function countsFor(cache: Cache, where: Where): number[] {
     const version = cache.dataVersion.get() ?? 0;
     if (generation !== cache.generation || version !== cache.version || cache.counts.size >= MAX_REMEMBERED) {
       cache.counts.clear();
+      cache.pages.clear();
       cache.generation = generation;
       cache.version = version;
     }
@@ -226,10 +230,20 @@ function readPage(db: Db, query: QueueQuery, today: string): Page {
   let itemsJson = '[]';
   if ((query.page - 1) * query.pageSize < total) {
     const page = queuePageSql(query);
+    // `countsFor` above has just dropped whatever the queue's latest change made stale.
+    const remember = !cache.sqlite.inTransaction;
+    const key = `${page.sql}\u0000${page.params.join('\u0000')}`;
+    const known = remember ? cache.pages.get(key) : undefined;
     itemsJson =
+      known ??
       (statement(cache, page.sql)
         .pluck()
-        .get(...page.params) as string | undefined) ?? '[]';
+        .get(...page.params) as string | undefined) ??
+      '[]';
+    if (remember && known === undefined) {
+      if (cache.pages.size >= MAX_REMEMBERED) cache.pages.clear();
+      cache.pages.set(key, itemsJson);
+    }
   }
   return {
     itemsJson,
