@@ -2,6 +2,7 @@ import { Redirect, Slot, usePathname } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { useSession } from '@/features/auth/api';
+import { rememberNextPath } from '@/features/auth/next-path';
 import { DeviceDbProvider } from '@/features/device-db/provider';
 import { AppShell } from '@/features/shell/app-shell';
 import { BackgroundSync } from '@/features/sync/background-sync';
@@ -13,13 +14,19 @@ import { BackgroundSync } from '@/features/sync/background-sync';
 export default function AppLayout() {
   const session = useSession();
   const pathname = usePathname();
-  if (session.isPending) return <FullScreenWait />;
-  if (!session.data)
+  if (session.isPending) {
+    // While the session loads this layout renders no Slot, and the router falls back to "/" (which then
+    // sends the person on): remember the page asked for, so "/" can bring them back to it.
+    if (comeBackTo(pathname)) rememberNextPath(pathname);
+    return <FullScreenWait />;
+  }
+  if (!session.data) {
+    if (comeBackTo(pathname)) rememberNextPath(pathname);
     return (
-      <Redirect
-        href={comeBackTo(pathname) ? { pathname: '/sign-in', params: { next: pathname } } : '/sign-in'}
-      />
+      // A plain string: on the web, an href object here also carried the page's own params along.
+      <Redirect href={comeBackTo(pathname) ? `/sign-in?next=${encodeURIComponent(pathname)}` : '/sign-in'} />
     );
+  }
   const shell = (
     <AppShell user={session.data.user} offline={session.data.offline}>
       <Slot />

@@ -1,10 +1,16 @@
 import { Redirect } from 'expo-router';
 
 import { roleHome, useSession } from '@/features/auth/api';
+import { forgetNextPath, nextPathAfterSignIn } from '@/features/auth/next-path';
 
-/** "/" lands each role on its own home. */
+/**
+ * "/" lands each role on its own home, or on the page that was asked for before the session had loaded
+ * (a reload, an e-mailed link to a notice).
+ */
 export default function Index() {
   const session = useSession();
   if (!session.data) return <Redirect href="/sign-in" />;
-  return <Redirect href={roleHome[session.data.user.role]} />;
+  const next = nextPathAfterSignIn(null);
+  forgetNextPath();
+  return <Redirect href={next ?? roleHome[session.data.user.role]} />;
 }

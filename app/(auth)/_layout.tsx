@@ -2,7 +2,7 @@ import { Redirect, Slot, useGlobalSearchParams } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { roleHome, useSession } from '@/features/auth/api';
-import { safeNextPath } from '@/features/auth/next-path';
+import { nextPathAfterSignIn } from '@/features/auth/next-path';
 
 /**
  * Signed-in users have no business on the sign-in page: send them on to the page they came for (`next`,
@@ -12,6 +12,6 @@ export default function AuthLayout() {
   const session = useSession();
   const { next } = useGlobalSearchParams<{ next?: string }>();
   if (session.isPending) return <FullScreenWait />;
-  if (session.data) return <Redirect href={safeNextPath(next) ?? roleHome[session.data.user.role]} />;
+  if (session.data) return <Redirect href={nextPathAfterSignIn(next) ?? roleHome[session.data.user.role]} />;
   return <Slot />;
 }

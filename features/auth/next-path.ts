@@ -13,3 +13,24 @@ export function safeNextPath(value: unknown): string | null {
   if (/^\/sign-in(?:[/?#]|$)/.test(text)) return null;
   return text;
 }
+
+/*
+ * The page a signed-out visitor asked for, kept in memory as well as in the `next` parameter: on the web,
+ * expo-router's redirect out of the signed-in group passes through "/" and drops the query on the way.
+ */
+let remembered: string | null = null;
+
+/** Notes the page to come back to after signing in (ignored unless it is a safe path of ours). */
+export function rememberNextPath(path: string): void {
+  remembered = safeNextPath(path);
+}
+
+/** The page to go to after signing in: the `next` parameter, else the remembered page. */
+export function nextPathAfterSignIn(param: unknown): string | null {
+  return safeNextPath(param) ?? remembered;
+}
+
+/** Forgets the remembered page once it has been used. */
+export function forgetNextPath(): void {
+  remembered = null;
+}

@@ -9,7 +9,7 @@ import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/features/api/client';
 import { roleHome, useSignInMutation } from '@/features/auth/api';
-import { safeNextPath } from '@/features/auth/next-path';
+import { forgetNextPath, nextPathAfterSignIn } from '@/features/auth/next-path';
 import { SignInForm } from '@/features/auth/sign-in-form';
 
 function errorText(err: unknown): string | null {
@@ -27,7 +27,7 @@ export function SignInScreen() {
   const wide = useWide();
   const signIn = useSignInMutation();
   // The page that sent the visitor here (an e-mailed link to a notice): back there after signing in.
-  const next = safeNextPath(useLocalSearchParams<{ next?: string }>().next);
+  const next = nextPathAfterSignIn(useLocalSearchParams<{ next?: string }>().next);
   const form = (
     <Card style={styles.card}>
       <Text variant="title">Sign in</Text>
@@ -40,7 +40,12 @@ export function SignInScreen() {
         busy={signIn.isPending}
         error={errorText(signIn.error)}
         onSubmit={(values) =>
-          signIn.mutate(values, { onSuccess: (user) => router.replace(next ?? roleHome[user.role]) })
+          signIn.mutate(values, {
+            onSuccess: (user) => {
+              forgetNextPath();
+              router.replace(next ?? roleHome[user.role]);
+            },
+          })
         }
       />
     </Card>
