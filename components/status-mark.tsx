@@ -1,8 +1,7 @@
-import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, Path, Rect } from 'react-native-svg';
 
-import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { MarkBadge } from '@/components/mark-badge';
+import { colors } from '@/components/theme';
 
 /**
  * Status marks carry colour, shape and a text label together, so colour is never the only signal.
@@ -45,15 +44,14 @@ function ShapeIcon({ shape, color, size = 14 }: { shape: Shape; color: string; s
 
 function Mark({ spec, compact }: { spec: (typeof envelope)['within']; compact?: boolean }) {
   return (
-    <View
-      style={[styles.mark, { backgroundColor: spec.bg }, compact && styles.compact]}
+    <MarkBadge
+      shape={<ShapeIcon shape={spec.shape} color={spec.fg} />}
+      label={spec.label}
+      fg={spec.fg}
+      bg={spec.bg}
       accessibilityLabel={spec.label}
-    >
-      <ShapeIcon shape={spec.shape} color={spec.fg} />
-      <Text variant="label" color={spec.fg}>
-        {spec.label}
-      </Text>
-    </View>
+      compact={compact}
+    />
   );
 }
 
@@ -64,16 +62,3 @@ export function EnvelopeMark({ status, compact }: { status: EnvelopeStatus; comp
 export function RideStatusMark({ status, compact }: { status: RideStatus; compact?: boolean }) {
   return <Mark spec={ride[status]} compact={compact} />;
 }
-
-const styles = StyleSheet.create({
-  mark: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    alignSelf: 'flex-start',
-    gap: space.xs + 2,
-    paddingHorizontal: space.sm + 2,
-    paddingVertical: space.xs,
-    borderRadius: radius.sm,
-  },
-  compact: { paddingHorizontal: space.sm, paddingVertical: 2 },
-});

@@ -1,8 +1,7 @@
-import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, Path } from 'react-native-svg';
 
-import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { MarkBadge } from '@/components/mark-badge';
+import { colors } from '@/components/theme';
 import type { FindingState } from '@/features/review/schema';
 
 /**
@@ -57,26 +56,13 @@ export function FindingStateShape({ state, size = 14 }: { state: FindingState; s
 export function FindingStateMark({ state }: { state: FindingState }) {
   const look = findingStateLook[state];
   return (
-    <View
-      style={StyleSheet.flatten([styles.mark, { backgroundColor: look.bg }])}
+    <MarkBadge
+      shape={<FindingStateShape state={state} />}
+      label={look.label}
+      fg={look.fg}
+      bg={look.bg}
       accessibilityLabel={`State: ${look.label}`}
-    >
-      <FindingStateShape state={state} />
-      <Text variant="label" color={look.fg}>
-        {look.label}
-      </Text>
-    </View>
+      compact
+    />
   );
 }
-
-const styles = StyleSheet.create({
-  mark: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    alignSelf: 'flex-start',
-    gap: space.xs + 2,
-    paddingHorizontal: space.sm,
-    paddingVertical: 2,
-    borderRadius: radius.sm,
-  },
-});

@@ -1,8 +1,7 @@
-import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, Path, Rect } from 'react-native-svg';
 
-import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { MarkBadge } from '@/components/mark-badge';
+import { colors } from '@/components/theme';
 import { type NoticeDeliveryState, noticeDeliveryStateInfo } from '@/features/notices/schema';
 
 /**
@@ -65,26 +64,13 @@ export function NoticeDeliveryMark({ state }: { state: NoticeDeliveryState }) {
   const look = deliveryLook[state];
   const { label } = noticeDeliveryStateInfo[state];
   return (
-    <View
-      style={StyleSheet.flatten([styles.mark, { backgroundColor: look.bg }])}
+    <MarkBadge
+      shape={<DeliveryShape state={state} />}
+      label={label}
+      fg={look.fg}
+      bg={look.bg}
       accessibilityLabel={`E-mail: ${label}`}
-    >
-      <DeliveryShape state={state} />
-      <Text variant="label" color={look.fg}>
-        {label}
-      </Text>
-    </View>
+      compact
+    />
   );
 }
-
-const styles = StyleSheet.create({
-  mark: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    alignSelf: 'flex-start',
-    gap: space.xs + 2,
-    paddingHorizontal: space.sm,
-    paddingVertical: 2,
-    borderRadius: radius.sm,
-  },
-});

@@ -1,8 +1,7 @@
-import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, Path, Rect } from 'react-native-svg';
 
-import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { MarkBadge } from '@/components/mark-badge';
+import { colors } from '@/components/theme';
 import { type FindingSeverity, severityInfo } from '@/features/review/schema';
 
 /**
@@ -51,27 +50,13 @@ export function SeverityMark({ severity, compact }: { severity: FindingSeverity;
   const look = severityLook[severity];
   const label = severityInfo[severity].label;
   return (
-    <View
-      style={StyleSheet.flatten([styles.mark, { backgroundColor: look.bg }, compact && styles.compact])}
+    <MarkBadge
+      shape={<SeverityShape severity={severity} />}
+      label={label}
+      fg={look.fg}
+      bg={look.bg}
       accessibilityLabel={`Severity: ${label}`}
-    >
-      <SeverityShape severity={severity} />
-      <Text variant="label" color={look.fg}>
-        {label}
-      </Text>
-    </View>
+      compact={compact}
+    />
   );
 }
-
-const styles = StyleSheet.create({
-  mark: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    alignSelf: 'flex-start',
-    gap: space.xs + 2,
-    paddingHorizontal: space.sm + 2,
-    paddingVertical: space.xs,
-    borderRadius: radius.sm,
-  },
-  compact: { paddingHorizontal: space.sm, paddingVertical: 2 },
-});

@@ -1,8 +1,6 @@
-import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, Line, Path, Rect } from 'react-native-svg';
 
-import { Text } from '@/components/text';
-import { radius, space } from '@/components/theme';
+import { MarkBadge } from '@/components/mark-badge';
 import { type Urgency, urgencyInfo } from '@/features/review/schema';
 
 /**
@@ -68,27 +66,13 @@ export function UrgencyMark({ urgency, compact }: { urgency: Urgency; compact?: 
   const look = urgencyLook[urgency];
   const label = urgencyInfo[urgency].label;
   return (
-    <View
-      style={StyleSheet.flatten([styles.mark, { backgroundColor: look.bg }, compact && styles.compact])}
+    <MarkBadge
+      shape={<UrgencyIcon urgency={urgency} />}
+      label={label}
+      fg={look.fg}
+      bg={look.bg}
       accessibilityLabel={label}
-    >
-      <UrgencyIcon urgency={urgency} />
-      <Text variant="label" color={look.fg}>
-        {label}
-      </Text>
-    </View>
+      compact={compact}
+    />
   );
 }
-
-const styles = StyleSheet.create({
-  mark: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    alignSelf: 'flex-start',
-    gap: space.xs + 2,
-    paddingHorizontal: space.sm + 2,
-    paddingVertical: space.xs,
-    borderRadius: radius.sm,
-  },
-  compact: { paddingHorizontal: space.sm, paddingVertical: 2 },
-});
