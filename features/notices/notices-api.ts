@@ -116,6 +116,40 @@ export function useAcknowledge(noticeId: string, userName: string) {
   });
 }
 
+/**
+ * A change to one finding of a notice (`POST /api/findings/:id/<path>`). The finding shows as `optimistic`
+ * makes it at once; the server's finding replaces it, a refusal puts the one before back, and `settle`
+ * refreshes what the change may have touched.
+ */
+function useFindingChange<V extends { findingId: string; input: unknown }>(
+  noticeId: string,
+  path: 'actions' | 'close' | 'reopen',
+  optimistic: (before: NoticeFinding, change: V) => NoticeFinding,
+) {
+  const qc = useQueryClient();
+  const key = noticeKeys.detail(noticeId);
+  return useMutation({
+    mutationKey: key,
+    mutationFn: ({ findingId, input }: V) =>
+      apiFetch(`/api/findings/${enc(findingId)}/${path}`, {
+        method: 'POST',
+        body: input,
+        schema: findingStateResponseSchema,
+      }),
+    onMutate: async (change: V) => {
+      await qc.cancelQueries({ queryKey: key });
+      const before = findingIn(qc, noticeId, change.findingId);
+      if (before) patchFinding(qc, noticeId, optimistic(before, change));
+      return { before };
+    },
+    onError: (_err, _v, ctx) => {
+      if (ctx?.before) patchFinding(qc, noticeId, ctx.before);
+    },
+    onSuccess: (answer) => patchFinding(qc, noticeId, answer.finding),
+    onSettled: () => settle(qc, noticeId),
+  });
+}
+
 /** What the operator did about a finding, sent after its photos are on the server. */
 export type ReportAction = { findingId: string; input: CorrectiveActionInput };
 
@@ -128,44 +162,23 @@ export const SAVING_PREFIX = 'saving-';
  * finding reads "action reported"; the server's finding replaces both, or they go if it refuses.
  */
 export function useReportAction(noticeId: string, userName: string) {
-  const qc = useQueryClient();
-  const key = noticeKeys.detail(noticeId);
-  return useMutation({
-    mutationKey: key,
-    mutationFn: ({ findingId, input }: ReportAction) =>
-      apiFetch(`/api/findings/${enc(findingId)}/actions`, {
-        method: 'POST',
-        body: input,
-        schema: findingStateResponseSchema,
-      }),
-    onMutate: async ({ findingId, input }) => {
-      await qc.cancelQueries({ queryKey: key });
-      const before = findingIn(qc, noticeId, findingId);
-      if (before) {
-        savingCounter += 1;
-        patchFinding(qc, noticeId, {
-          ...before,
-          state: before.state === 'open' ? 'action_reported' : before.state,
-          correctiveActions: [
-            ...before.correctiveActions,
-            {
-              id: `${SAVING_PREFIX}${savingCounter}`,
-              findingId,
-              note: input.note.trim(),
-              photoShas: [...new Set(input.photoShas ?? [])],
-              reportedAt: new Date().toISOString(),
-              reportedByName: userName,
-            },
-          ],
-        });
-      }
-      return { before };
-    },
-    onError: (_err, _v, ctx) => {
-      if (ctx?.before) patchFinding(qc, noticeId, ctx.before);
-    },
-    onSuccess: (answer) => patchFinding(qc, noticeId, answer.finding),
-    onSettled: () => settle(qc, noticeId),
+  return useFindingChange<ReportAction>(noticeId, 'actions', (before, { findingId, input }) => {
+    savingCounter += 1;
+    return {
+      ...before,
+      state: before.state === 'open' ? 'action_reported' : before.state,
+      correctiveActions: [
+        ...before.correctiveActions,
+        {
+          id: `${SAVING_PREFIX}${savingCounter}`,
+          findingId,
+          note: input.note.trim(),
+          photoShas: [...new Set(input.photoShas ?? [])],
+          reportedAt: new Date().toISOString(),
+          reportedByName: userName,
+        },
+      ],
+    };
   });
 }
 
@@ -177,73 +190,31 @@ export type ReopenFinding = { findingId: string; input: FindingReopenInput };
  * when the ride's status followed, the ride now and the status notice issued.
  */
 export function useCloseFinding(noticeId: string, userName: string) {
-  const qc = useQueryClient();
-  const key = noticeKeys.detail(noticeId);
-  return useMutation({
-    mutationKey: key,
-    mutationFn: ({ findingId, input }: CloseFinding) =>
-      apiFetch(`/api/findings/${enc(findingId)}/close`, {
-        method: 'POST',
-        body: input,
-        schema: findingStateResponseSchema,
-      }),
-    onMutate: async ({ findingId, input }) => {
-      await qc.cancelQueries({ queryKey: key });
-      const before = findingIn(qc, noticeId, findingId);
-      const at = new Date().toISOString();
-      if (before)
-        patchFinding(qc, noticeId, {
-          ...before,
-          state: 'closed',
-          closedAt: at,
-          closedByName: userName,
-          stateNote: input.note?.trim() ? input.note.trim() : null,
-          updatedAt: at,
-          updatedByName: userName,
-        });
-      return { before };
-    },
-    onError: (_err, _v, ctx) => {
-      if (ctx?.before) patchFinding(qc, noticeId, ctx.before);
-    },
-    onSuccess: (answer) => patchFinding(qc, noticeId, answer.finding),
-    onSettled: () => settle(qc, noticeId),
+  return useFindingChange<CloseFinding>(noticeId, 'close', (before, { input }) => {
+    const at = new Date().toISOString();
+    return {
+      ...before,
+      state: 'closed',
+      closedAt: at,
+      closedByName: userName,
+      stateNote: input.note?.trim() ? input.note.trim() : null,
+      updatedAt: at,
+      updatedByName: userName,
+    };
   });
 }
 
 /** Reopens a finding with the verifier's comment (required); the ride may stop again as a result. */
 export function useReopenFinding(noticeId: string, userName: string) {
-  const qc = useQueryClient();
-  const key = noticeKeys.detail(noticeId);
-  return useMutation({
-    mutationKey: key,
-    mutationFn: ({ findingId, input }: ReopenFinding) =>
-      apiFetch(`/api/findings/${enc(findingId)}/reopen`, {
-        method: 'POST',
-        body: input,
-        schema: findingStateResponseSchema,
-      }),
-    onMutate: async ({ findingId, input }) => {
-      await qc.cancelQueries({ queryKey: key });
-      const before = findingIn(qc, noticeId, findingId);
-      if (before)
-        patchFinding(qc, noticeId, {
-          ...before,
-          state: 'open',
-          closedAt: null,
-          closedByName: null,
-          stateNote: input.note.trim(),
-          updatedAt: new Date().toISOString(),
-          updatedByName: userName,
-        });
-      return { before };
-    },
-    onError: (_err, _v, ctx) => {
-      if (ctx?.before) patchFinding(qc, noticeId, ctx.before);
-    },
-    onSuccess: (answer) => patchFinding(qc, noticeId, answer.finding),
-    onSettled: () => settle(qc, noticeId),
-  });
+  return useFindingChange<ReopenFinding>(noticeId, 'reopen', (before, { input }) => ({
+    ...before,
+    state: 'open',
+    closedAt: null,
+    closedByName: null,
+    stateNote: input.note.trim(),
+    updatedAt: new Date().toISOString(),
+    updatedByName: userName,
+  }));
 }
 
 /**
