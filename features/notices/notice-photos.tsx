@@ -1,19 +1,11 @@
 import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
-import {
-  ActivityIndicator,
-  Image,
-  Modal,
-  Pressable,
-  StyleSheet,
-  View,
-  useWindowDimensions,
-} from 'react-native';
+import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-native';
 
-import { Button } from '@/components/button';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, radius, space } from '@/components/theme';
 import { usePhotoSource } from '@/features/review/photo-source';
+import { FullSizePhotoViewer } from '@/features/review/photo-viewer';
 
 export type NoticePhoto = { sha256: string; caption: string };
 
@@ -33,7 +25,7 @@ export function NoticePhotos({ photos, label }: { photos: readonly NoticePhoto[]
           <Thumb key={`${p.sha256}-${i}`} photo={p} onOpen={() => setOpen(i)} />
         ))}
       </View>
-      <Viewer photos={photos} index={open} onChange={setOpen} />
+      <FullSizePhotoViewer photos={photos} index={open} onChange={setOpen} />
     </>
   );
 }
@@ -65,78 +57,6 @@ function Thumb({ photo, onOpen }: { photo: NoticePhoto; onOpen: () => void }) {
   );
 }
 
-function Viewer({
-  photos,
-  index,
-  onChange,
-}: {
-  photos: readonly NoticePhoto[];
-  index: number | null;
-  onChange: (index: number | null) => void;
-}) {
-  const photo = index === null ? null : (photos[index] ?? null);
-  const close = () => onChange(null);
-  return (
-    <Modal visible={photo !== null} transparent animationType="fade" onRequestClose={close}>
-      {photo !== null && index !== null ? (
-        <View style={styles.backdrop} role="dialog" aria-modal accessibilityLabel="Photo, full size">
-          <View style={styles.bar}>
-            <Text variant="label" color={colors.baseMuted}>
-              PHOTO {index + 1} OF {photos.length}
-            </Text>
-            <Button label="Close" tone="quiet" onPress={close} icon={<Feather name="x" size={18} />} />
-          </View>
-          <FullPhoto photo={photo} />
-          <Text variant="heading" color={colors.baseText} style={styles.caption}>
-            {photo.caption || 'No caption'}
-          </Text>
-          {photos.length > 1 ? (
-            <View style={styles.nav}>
-              <Button
-                label="Previous"
-                tone="quiet"
-                disabled={index === 0}
-                onPress={() => onChange(index - 1)}
-              />
-              <Button
-                label="Next"
-                tone="quiet"
-                disabled={index === photos.length - 1}
-                onPress={() => onChange(index + 1)}
-              />
-            </View>
-          ) : null}
-        </View>
-      ) : null}
-    </Modal>
-  );
-}
-
-function FullPhoto({ photo }: { photo: NoticePhoto }) {
-  const { width, height } = useWindowDimensions();
-  const { source, failed } = usePhotoSource(photo.sha256);
-  const box = { width: Math.min(width - 2 * space.lg, 1400), height: Math.max(200, height - 220) };
-  return (
-    <View style={StyleSheet.flatten([styles.full, box])}>
-      {failed ? (
-        <Text color={colors.baseText}>
-          This photo could not be loaded. Check the connection and try again.
-        </Text>
-      ) : source ? (
-        <Image
-          source={source}
-          style={box}
-          resizeMode="contain"
-          accessibilityLabel={photo.caption || 'Photo without caption'}
-          accessibilityIgnoresInvertColors
-        />
-      ) : (
-        <ActivityIndicator color={colors.baseText} size="large" />
-      )}
-    </View>
-  );
-}
-
 const styles = StyleSheet.create({
   grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   thumb: {
@@ -151,23 +71,4 @@ const styles = StyleSheet.create({
   image: { width: '100%', height: '100%' },
   placeholder: { flex: 1, alignItems: 'center', justifyContent: 'center', gap: space.xs, padding: space.xs },
   center: { textAlign: 'center' },
-  backdrop: {
-    flex: 1,
-    backgroundColor: 'rgba(10, 24, 32, 0.94)',
-    alignItems: 'center',
-    justifyContent: 'center',
-    padding: space.lg,
-    gap: space.md,
-  },
-  bar: {
-    width: '100%',
-    maxWidth: 1400,
-    flexDirection: 'row',
-    alignItems: 'center',
-    justifyContent: 'space-between',
-    minHeight: layout.touchTarget,
-  },
-  full: { alignItems: 'center', justifyContent: 'center' },
-  caption: { width: '100%', maxWidth: 1400 },
-  nav: { flexDirection: 'row', gap: space.sm },
 });
