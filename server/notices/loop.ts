@@ -8,7 +8,7 @@
  * Operators reach notices and findings only through notices addressed to their company; anything else
  * answers the same 404 as a missing record, so ids cannot be probed.
  */
-import { and, asc, count, desc, eq, inArray, ne, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 
@@ -35,6 +35,7 @@ import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { issueStatusNotice } from '@/server/notices/issue';
 import { recordAudit } from '@/server/registry/audit';
 import { mustFindRide } from '@/server/registry/rides';
+import { findingRows } from '@/server/review/findings';
 import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
 
 type Reader = Pick<Db, 'select'>;
@@ -124,40 +125,6 @@ export function mustSeeNotice(db: Reader, user: SessionUser, id: string) {
   return row;
 }
 
-const creator = alias(users, 'finding_creator');
-const updater = alias(users, 'finding_updater');
-const closer = alias(users, 'finding_closer');
-
-function findingsWhere(db: Reader, where: SQL | undefined) {
-  return db
-    .select({
-      id: findings.id,
-      inspectionId: findings.inspectionId,
-      rideId: findings.rideId,
-      number: findings.number,
-      severity: findings.severity,
-      description: findings.description,
-      ruleRef: findings.ruleRef,
-      requiredAction: findings.requiredAction,
-      dueOn: findings.dueOn,
-      photoShas: findings.photoShas,
-      state: findings.state,
-      createdAt: findings.createdAt,
-      createdByName: creator.name,
-      updatedAt: findings.updatedAt,
-      updatedByName: updater.name,
-      closedAt: findings.closedAt,
-      closedByName: closer.name,
-      stateNote: findings.stateNote,
-    })
-    .from(findings)
-    .leftJoin(creator, eq(creator.id, findings.createdBy))
-    .leftJoin(updater, eq(updater.id, findings.updatedBy))
-    .leftJoin(closer, eq(closer.id, findings.closedBy))
-    .where(where)
-    .all();
-}
-
 function actionsOf(db: Reader, findingIds: string[]): Map<string, CorrectiveAction[]> {
   const byFinding = new Map<string, CorrectiveAction[]>();
   if (findingIds.length === 0) return byFinding;
@@ -182,7 +149,7 @@ function actionsOf(db: Reader, findingIds: string[]): Map<string, CorrectiveActi
 /** Findings as they stand now, each with its corrective actions, in the order of `ids`. */
 function currentFindings(db: Reader, ids: string[]): NoticeFinding[] {
   if (ids.length === 0) return [];
-  const rows = findingsWhere(db, inArray(findings.id, ids));
+  const rows = findingRows(db).where(inArray(findings.id, ids)).all();
   const actions = actionsOf(db, ids);
   const order = new Map(ids.map((id, i) => [id, i]));
   return rows
@@ -322,6 +289,26 @@ const stateOf = (f: { state: string; stateNote: string | null; closedAt: string 
   closedAt: f.closedAt,
 });
 
+/** The audit entry of a change of a finding's state; `what` ends its summary. */
+function recordStateChange(
+  tx: Tx,
+  user: SessionUser,
+  before: FindingHead,
+  what: string,
+  after: ReturnType<typeof stateOf>,
+) {
+  recordAudit(tx, {
+    userId: user.id,
+    entity: 'finding',
+    entityId: before.id,
+    action: 'update',
+    rideId: before.rideId,
+    summary: `${before.rideName}: finding ${before.number} ${what}`,
+    before: stateOf(before),
+    after,
+  });
+}
+
 function rideNow(db: Reader, rideId: string) {
   const ride = db
     .select({ id: rides.id, status: rides.status, statusReason: rides.statusReason })
@@ -405,15 +392,9 @@ export function reportCorrectiveAction(
         .set({ state: 'action_reported', updatedAt: at, updatedBy: user.id })
         .where(eq(findings.id, findingId))
         .run();
-      recordAudit(tx, {
-        userId: user.id,
-        entity: 'finding',
-        entityId: findingId,
-        action: 'update',
-        rideId: before.rideId,
-        summary: `${before.rideName}: finding ${before.number} — action reported`,
-        before: stateOf(before),
-        after: { ...stateOf(before), state: 'action_reported' },
+      recordStateChange(tx, user, before, '— action reported', {
+        ...stateOf(before),
+        state: 'action_reported',
       });
     }
     refreshQueue(tx, queueToday(now), [before.rideId]);
@@ -484,6 +465,62 @@ function mustBeIssued(f: FindingHead) {
 }
 
 /**
+ * The inspection body's verdict on a finding: closed (verified corrected) or open again (not corrected
+ * after all), with the comment. Both are one change of state; only the ride's follow-up differs.
+ */
+type Verdict = { to: 'closed'; note: string | null } | { to: 'open'; note: string };
+
+const alreadyIn = {
+  closed: () => conflict('This finding is already closed.', 'already_closed'),
+  open: () => conflict('This finding is already open; there is nothing to reopen.', 'already_open'),
+};
+
+function setFindingState(
+  db: Db,
+  user: SessionUser,
+  findingId: string,
+  verdict: Verdict,
+  ctx: { now: Date; appUrl: string },
+): FindingStateResponse {
+  return db.transaction((tx) => {
+    const before = mustSeeFinding(tx, user, findingId);
+    mustBeIssued(before);
+    if (before.state === verdict.to) throw alreadyIn[verdict.to]();
+    const closing = verdict.to === 'closed';
+    const at = ctx.now.toISOString();
+    const closedAt = closing ? at : null;
+    tx.update(findings)
+      .set({
+        state: verdict.to,
+        closedAt,
+        closedBy: closing ? user.id : null,
+        stateNote: verdict.note,
+        updatedAt: at,
+        updatedBy: user.id,
+      })
+      .where(eq(findings.id, findingId))
+      .run();
+    recordStateChange(tx, user, before, closing ? 'verified and closed' : 'reopened', {
+      state: verdict.to,
+      stateNote: verdict.note,
+      closedAt,
+    });
+    const ride = rideNow(tx, before.rideId);
+    let statusNotice: FindingStateResponse['statusNotice'] = null;
+    if (forbidsOperation(before.severity)) {
+      if (verdict.to === 'closed') {
+        if (ride.status !== 'in_service' && otherBlockingFindings(tx, before.rideId, findingId) === 0)
+          statusNotice = rideFollows(tx, user, before.rideId, 'in_service', returnToServiceReason, ctx);
+      } else if (ride.status === 'in_service') {
+        statusNotice = rideFollows(tx, user, before.rideId, 'out_of_service', verdict.note, ctx);
+      }
+    }
+    refreshQueue(tx, queueToday(ctx.now), [before.rideId]);
+    return { finding: findingNow(tx, findingId), ride: rideNow(tx, before.rideId), statusNotice };
+  });
+}
+
+/**
  * Verified corrected: the finding is closed. When it was the ride's last open finding that forbids
  * operation and the ride is out of service or restricted, the ride returns to service.
  */
@@ -494,42 +531,7 @@ export function closeFinding(
   note: string | null,
   ctx: { now: Date; appUrl: string },
 ): FindingStateResponse {
-  return db.transaction((tx) => {
-    const before = mustSeeFinding(tx, user, findingId);
-    mustBeIssued(before);
-    if (before.state === 'closed') throw conflict('This finding is already closed.', 'already_closed');
-    const at = ctx.now.toISOString();
-    tx.update(findings)
-      .set({
-        state: 'closed',
-        closedAt: at,
-        closedBy: user.id,
-        stateNote: note,
-        updatedAt: at,
-        updatedBy: user.id,
-      })
-      .where(eq(findings.id, findingId))
-      .run();
-    recordAudit(tx, {
-      userId: user.id,
-      entity: 'finding',
-      entityId: findingId,
-      action: 'update',
-      rideId: before.rideId,
-      summary: `${before.rideName}: finding ${before.number} verified and closed`,
-      before: stateOf(before),
-      after: { state: 'closed', stateNote: note, closedAt: at },
-    });
-    const ride = rideNow(tx, before.rideId);
-    const statusNotice =
-      forbidsOperation(before.severity) &&
-      ride.status !== 'in_service' &&
-      otherBlockingFindings(tx, before.rideId, findingId) === 0
-        ? rideFollows(tx, user, before.rideId, 'in_service', returnToServiceReason, ctx)
-        : null;
-    refreshQueue(tx, queueToday(ctx.now), [before.rideId]);
-    return { finding: findingNow(tx, findingId), ride: rideNow(tx, before.rideId), statusNotice };
-  });
+  return setFindingState(db, user, findingId, { to: 'closed', note }, ctx);
 }
 
 /**
@@ -544,41 +546,7 @@ export function reopenFinding(
   note: string,
   ctx: { now: Date; appUrl: string },
 ): FindingStateResponse {
-  return db.transaction((tx) => {
-    const before = mustSeeFinding(tx, user, findingId);
-    mustBeIssued(before);
-    if (before.state === 'open')
-      throw conflict('This finding is already open; there is nothing to reopen.', 'already_open');
-    const at = ctx.now.toISOString();
-    tx.update(findings)
-      .set({
-        state: 'open',
-        closedAt: null,
-        closedBy: null,
-        stateNote: note,
-        updatedAt: at,
-        updatedBy: user.id,
-      })
-      .where(eq(findings.id, findingId))
-      .run();
-    recordAudit(tx, {
-      userId: user.id,
-      entity: 'finding',
-      entityId: findingId,
-      action: 'update',
-      rideId: before.rideId,
-      summary: `${before.rideName}: finding ${before.number} reopened`,
-      before: stateOf(before),
-      after: { state: 'open', stateNote: note, closedAt: null },
-    });
-    const ride = rideNow(tx, before.rideId);
-    const statusNotice =
-      forbidsOperation(before.severity) && ride.status === 'in_service'
-        ? rideFollows(tx, user, before.rideId, 'out_of_service', note, ctx)
-        : null;
-    refreshQueue(tx, queueToday(ctx.now), [before.rideId]);
-    return { finding: findingNow(tx, findingId), ride: rideNow(tx, before.rideId), statusNotice };
-  });
+  return setFindingState(db, user, findingId, { to: 'open', note }, ctx);
 }
 
 // ——— photos for operators ———

@@ -84,7 +84,11 @@ const creator = alias(users, 'finding_creator');
 const updater = alias(users, 'finding_updater');
 const closer = alias(users, 'finding_closer');
 
-function findingRows(db: Reader) {
+/**
+ * Findings in the shape the app reads (`Finding`), with the names of who created, last changed and closed
+ * each; the caller adds the filter and order. The review desk and the notices' findings both read this way.
+ */
+export function findingRows(db: Reader) {
   return db
     .select({
       id: findings.id,
