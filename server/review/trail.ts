@@ -5,10 +5,10 @@
  */
 import { and, desc, eq, gte, notInArray, or, sql } from 'drizzle-orm';
 
-import { auditLog, users } from '@/db/server/schema';
+import { auditLog } from '@/db/server/schema';
 import type { AuditEntry } from '@/features/registry/schema';
 import type { Db } from '@/server/db';
-import { auditRowOrder } from '@/server/registry/audit-query';
+import { auditEntryRows, auditRowOrder } from '@/server/registry/audit-query';
 import type { InspectionHead } from '@/server/review/findings';
 
 /** Far more than one inspection's decisions and a ride's changes over its review period. */
@@ -17,22 +17,7 @@ export const TRAIL_LIMIT = 500;
 export function inspectionTrail(db: Pick<Db, 'select'>, inspection: InspectionHead): AuditEntry[] {
   // The phone may send its time with an offset; the audit log is in UTC.
   const submittedAt = new Date(inspection.submittedAt).toISOString();
-  return db
-    .select({
-      id: auditLog.id,
-      at: auditLog.at,
-      userId: auditLog.userId,
-      userName: users.name,
-      entity: auditLog.entity,
-      entityId: auditLog.entityId,
-      action: auditLog.action,
-      rideId: auditLog.rideId,
-      summary: auditLog.summary,
-      before: auditLog.before,
-      after: auditLog.after,
-    })
-    .from(auditLog)
-    .leftJoin(users, eq(users.id, auditLog.userId))
+  return auditEntryRows(db)
     .where(
       or(
         and(eq(auditLog.entity, 'inspection'), eq(auditLog.entityId, inspection.id)),
