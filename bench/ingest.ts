@@ -10,9 +10,10 @@ import path from 'node:path';
 
 import { desc, eq } from 'drizzle-orm';
 
+import { benchReadings } from '@/bench/readings';
 import { designVersions, rides, users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import type { InspectionRecord, Reading } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/inspections/schema';
 import type { DesignData } from '@/features/registry/design-data';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';
@@ -47,50 +48,10 @@ const fmt = (v: number, digits = 0) => v.toLocaleString('en', { maximumFractionD
 
 type Ride = { id: string; designVersionId: string; design: DesignData };
 
-function readingsFor(i: number, ride: Ride): Reading[] {
-  const taken = '2026-05-04T08:10:00.000Z';
-  const motion = ride.design.motion.find((m) => m.joint === 0);
-  const first: Reading =
-    motion?.kind === 'swing'
-      ? {
-          id: randomUUID(),
-          kind: 'period',
-          joint: 0,
-          label: 'Swing period',
-          valueSI: (motion.periodS ?? 8) * (1 + (i % 9) / 200),
-          unit: 's',
-          method: 'tap_timer',
-          spreadSI: 0.05,
-          takenAt: taken,
-        }
-      : {
-          id: randomUUID(),
-          kind: 'speed',
-          joint: 0,
-          label: 'Arm speed',
-          valueSI: 1 + (i % 9) / 50,
-          unit: 'rpm',
-          method: 'tap_timer',
-          spreadSI: 0.004,
-          takenAt: taken,
-        };
-  const rest = Array.from({ length: READINGS_PER - 1 }, (_, k): Reading => ({
-    id: randomUUID(),
-    kind: 'other',
-    joint: null,
-    label: `Brake gap ${k + 1}`,
-    valueSI: 0.002 + k * 1e-5,
-    unit: 'mm',
-    method: 'gauge',
-    takenAt: taken,
-  }));
-  return [first, ...rest];
-}
-
 function makeRecords(ridesWithDesign: Ride[]): InspectionRecord[] {
   return Array.from({ length: INSPECTIONS }, (_, i) => {
     const ride = ridesWithDesign[i % ridesWithDesign.length];
-    const readings = readingsFor(i, ride);
+    const readings = benchReadings(ride.design, '2026-05-04T08:10:00.000Z', i, READINGS_PER);
     return {
       id: randomUUID(),
       rideId: ride.id,

@@ -8,9 +8,10 @@ import path from 'node:path';
 import autocannon from 'autocannon';
 import { eq } from 'drizzle-orm';
 
+import { benchReadings } from '@/bench/readings';
 import { users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import type { InspectionRecord, Reading } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/inspections/schema';
 import type { DesignData } from '@/features/registry/design-data';
 import { inspectionTypes } from '@/features/registry/schema';
 import { rideClasses, type RideClass } from '@/features/rides/schema';
@@ -131,45 +132,6 @@ const familyNames = ['Ashdown', 'Brightwell', 'Caddick', 'Dunstan', 'Eversley', 
 
 // ——— one real analysis per demo design ———
 
-function readingsFor(design: DesignData, taken: string, i: number): Reading[] {
-  const motion = design.motion.find((m) => m.joint === 0);
-  const first: Reading =
-    motion?.kind === 'swing'
-      ? {
-          id: randomUUID(),
-          kind: 'period',
-          joint: 0,
-          label: 'Swing period',
-          valueSI: (motion.periodS ?? 8) * (1 + (i % 9) / 200),
-          unit: 's',
-          method: 'tap_timer',
-          spreadSI: 0.05,
-          takenAt: taken,
-        }
-      : {
-          id: randomUUID(),
-          kind: 'speed',
-          joint: 0,
-          label: 'Arm speed',
-          valueSI: 1 + (i % 9) / 50,
-          unit: 'rpm',
-          method: 'tap_timer',
-          spreadSI: 0.004,
-          takenAt: taken,
-        };
-  const rest = Array.from({ length: READINGS_PER - 1 }, (_, k): Reading => ({
-    id: randomUUID(),
-    kind: 'other',
-    joint: null,
-    label: `Brake gap ${k + 1}`,
-    valueSI: 0.002 + k * 1e-5,
-    unit: 'mm',
-    method: 'gauge',
-    takenAt: taken,
-  }));
-  return [first, ...rest];
-}
-
 type Template = {
   design: DesignData;
   designJson: string;
@@ -184,7 +146,7 @@ function templates(): Map<RideClass, Template[]> {
   for (const ride of demoRides) {
     const design = demoDesigns[ride.serial];
     if (!design) continue;
-    const readings = readingsFor(design, '2026-01-01T08:00:00.000Z', 0);
+    const readings = benchReadings(design, '2026-01-01T08:00:00.000Z', 0, READINGS_PER);
     const result = analyseInspection(design, readings, ANALYSIS_SAMPLES);
     const preview = previewOf(result);
     const stored = summariseAnalysis(result, { id: DESIGN_ID, version: 1 }, preview);
@@ -367,7 +329,7 @@ async function seed(): Promise<Seeded> {
         const submittedAt = stamp(on, 7 + (inspectionNo % 10));
         const taken = stamp(on, 6 + (inspectionNo % 10));
         const inspector = inspectorIds[(k + j) % INSPECTORS];
-        const readings = readingsFor(template.design, taken, inspectionNo);
+        const readings = benchReadings(template.design, taken, inspectionNo, READINGS_PER);
         const failed = rnd.chance(0.08) ? 1 + rnd.int(3) : 0;
         const record: InspectionRecord = {
           id,
