@@ -1,9 +1,11 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
+import type { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { FormAlert } from '@/components/form-alert';
+import { LabelledLine } from '@/components/labelled-line';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
@@ -58,8 +60,8 @@ export function FindingLoop({
         <FindingStateMark state={f.state} />
       </View>
       <Text>{f.description}</Text>
-      {f.requiredAction ? <Line label="Required action" value={f.requiredAction} /> : null}
-      <Line
+      {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
+      <LabelledLine
         label="Due"
         value={f.dueOn ? `${formatDate(f.dueOn)}${pastDue ? ' — past due' : ''}` : 'No due date'}
         color={pastDue ? colors.danger : undefined}
@@ -182,7 +184,7 @@ function StateStory({ finding: f }: { finding: NoticeFinding }) {
           Verified and closed{f.closedByName ? ` by ${f.closedByName}` : ''}
           {f.closedAt ? `, ${formatDateTime(f.closedAt)}` : ''}.
         </Text>
-        {f.stateNote ? <Line label="Verification note" value={f.stateNote} /> : null}
+        {f.stateNote ? <LabelledLine label="Verification note" value={f.stateNote} /> : null}
       </View>
     );
   if (!f.stateNote) return null;
@@ -194,7 +196,7 @@ function StateStory({ finding: f }: { finding: NoticeFinding }) {
         {f.updatedByName && f.state === 'open' ? ` by ${f.updatedByName}` : ''}
         {f.state === 'open' ? `, ${formatDateTime(f.updatedAt)}` : ''}
       </Text>
-      <Line label="Still to put right" value={f.stateNote} />
+      <LabelledLine label="Still to put right" value={f.stateNote} />
     </View>
   );
 }
@@ -223,39 +225,103 @@ function Outcome({ outcome }: { outcome: FindingStateResponse }) {
   );
 }
 
-function ClosePanel({
-  noticeId,
-  finding,
-  userName,
-  onDone,
-  onCancel,
-}: {
+type PanelProps = {
   noticeId: string;
   finding: NoticeFinding;
   userName: string;
   onDone: (answer: FindingStateResponse) => void;
   onCancel: () => void;
+};
+
+function ClosePanel({ noticeId, finding, userName, onDone, onCancel }: PanelProps) {
+  return (
+    <NotePanel
+      title={`Verify and close finding ${finding.number}`}
+      intro="Close it once you have checked that the deficiency is put right. When it is the ride’s last finding that forbids operation, the ride returns to service and the operator is sent a status notice."
+      noteLabel="Verification note (optional)"
+      noteHint="How it was verified: seen on site, photos accepted, measured…"
+      submitLabel="Close finding"
+      submitTone="accent"
+      schema={findingCloseInputSchema}
+      change={useCloseFinding(noticeId, userName)}
+      finding={finding}
+      onDone={onDone}
+      onCancel={onCancel}
+    />
+  );
+}
+
+function ReopenPanel({ noticeId, finding, userName, onDone, onCancel }: PanelProps) {
+  return (
+    <NotePanel
+      title={`Reopen finding ${finding.number}`}
+      intro="The operator sees your comment. A reopened finding that forbids operation takes a ride in service out of service."
+      noteLabel="What is still wrong"
+      submitLabel="Reopen finding"
+      submitTone="danger"
+      schema={findingReopenInputSchema}
+      change={useReopenFinding(noticeId, userName)}
+      finding={finding}
+      onDone={onDone}
+      onCancel={onCancel}
+    />
+  );
+}
+
+/** The part of a finding change (close or reopen) the panel uses. */
+type NoteChange<I> = {
+  mutate: (
+    change: { findingId: string; input: I },
+    options: { onSuccess: (answer: FindingStateResponse) => void },
+  ) => void;
+  isPending: boolean;
+  error: unknown;
+};
+
+/** A verifier's form for closing or reopening a finding: a note checked by the schema, then sent. */
+function NotePanel<I>({
+  title,
+  intro,
+  noteLabel,
+  noteHint,
+  submitLabel,
+  submitTone,
+  schema,
+  change,
+  finding,
+  onDone,
+  onCancel,
+}: {
+  title: string;
+  intro: string;
+  noteLabel: string;
+  noteHint?: string;
+  submitLabel: string;
+  submitTone: 'accent' | 'danger';
+  schema: z.ZodType<I>;
+  change: NoteChange<I>;
+  finding: NoticeFinding;
+  onDone: (answer: FindingStateResponse) => void;
+  onCancel: () => void;
 }) {
-  const close = useCloseFinding(noticeId, userName);
   const [note, setNote] = useState('');
   const [error, setError] = useState<string | undefined>();
   const submit = () => {
-    const checked = findingCloseInputSchema.safeParse({ note });
+    const checked = schema.safeParse({ note });
     if (!checked.success) {
       setError(checked.error.issues[0]?.message);
       return;
     }
-    close.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
+    change.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
   };
   return (
-    <View style={styles.panel} accessibilityLabel={`Verify and close finding ${finding.number}`}>
-      <Text variant="heading">Verify and close finding {finding.number}</Text>
+    <View style={styles.panel} accessibilityLabel={title}>
+      <Text variant="heading">{title}</Text>
       <Text variant="small" muted>
-        Close it once you have checked that the deficiency is put right. When it is the ride’s last finding
-        that forbids operation, the ride returns to service and the operator is sent a status notice.
+        {intro}
       </Text>
       <TextField
-        label="Verification note (optional)"
+        label={noteLabel}
         value={note}
         onChangeText={(t) => {
           setNote(t);
@@ -263,75 +329,14 @@ function ClosePanel({
         }}
         multiline
         error={error}
-        hint="How it was verified: seen on site, photos accepted, measured…"
+        hint={noteHint}
       />
-      <FormAlert problem={close.error ? { message: problemText(close.error) } : null} />
+      <FormAlert problem={change.error ? { message: problemText(change.error) } : null} />
       <View style={styles.buttons}>
-        <Button label="Close finding" tone="accent" onPress={submit} busy={close.isPending} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={close.isPending} />
+        <Button label={submitLabel} tone={submitTone} onPress={submit} busy={change.isPending} />
+        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={change.isPending} />
       </View>
     </View>
-  );
-}
-
-function ReopenPanel({
-  noticeId,
-  finding,
-  userName,
-  onDone,
-  onCancel,
-}: {
-  noticeId: string;
-  finding: NoticeFinding;
-  userName: string;
-  onDone: (answer: FindingStateResponse) => void;
-  onCancel: () => void;
-}) {
-  const reopen = useReopenFinding(noticeId, userName);
-  const [note, setNote] = useState('');
-  const [error, setError] = useState<string | undefined>();
-  const submit = () => {
-    const checked = findingReopenInputSchema.safeParse({ note });
-    if (!checked.success) {
-      setError(checked.error.issues[0]?.message);
-      return;
-    }
-    reopen.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
-  };
-  return (
-    <View style={styles.panel} accessibilityLabel={`Reopen finding ${finding.number}`}>
-      <Text variant="heading">Reopen finding {finding.number}</Text>
-      <Text variant="small" muted>
-        The operator sees your comment. A reopened finding that forbids operation takes a ride in service out
-        of service.
-      </Text>
-      <TextField
-        label="What is still wrong"
-        value={note}
-        onChangeText={(t) => {
-          setNote(t);
-          setError(undefined);
-        }}
-        multiline
-        error={error}
-      />
-      <FormAlert problem={reopen.error ? { message: problemText(reopen.error) } : null} />
-      <View style={styles.buttons}>
-        <Button label="Reopen finding" tone="danger" onPress={submit} busy={reopen.isPending} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={reopen.isPending} />
-      </View>
-    </View>
-  );
-}
-
-function Line({ label, value, color }: { label: string; value: string; color?: string }) {
-  return (
-    <Text variant="small" color={color}>
-      <Text variant="label" muted>
-        {label.toUpperCase()}{' '}
-      </Text>
-      {value}
-    </Text>
   );
 }
 
@@ -345,15 +350,6 @@ const styles = StyleSheet.create({
     backgroundColor: colors.surface,
   },
   head: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
-  stateMark: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    alignSelf: 'flex-start',
-    gap: space.xs + 2,
-    paddingHorizontal: space.sm,
-    paddingVertical: 2,
-    borderRadius: radius.sm,
-  },
   story: { gap: 2 },
   reopened: {
     padding: space.sm,
