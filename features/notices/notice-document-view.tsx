@@ -3,6 +3,7 @@ import { StyleSheet, View } from 'react-native';
 import { Card } from '@/components/card';
 import { CAUTION_FULL, Caution } from '@/components/caution';
 import { DataTable } from '@/components/data-table';
+import { LabelledLine } from '@/components/labelled-line';
 import { EnvelopeMark, RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
@@ -128,9 +129,9 @@ export function NoticeDocumentView({ document: doc }: { document: NoticeDocument
                   <SeverityMark severity={f.severity} compact />
                 </View>
                 <Text>{f.description}</Text>
-                {f.ruleRef ? <Line label="Breaches" value={f.ruleRef} /> : null}
-                {f.requiredAction ? <Line label="Required action" value={f.requiredAction} /> : null}
-                <Line label="Due" value={f.dueOn ? formatDate(f.dueOn) : 'No due date'} />
+                {f.ruleRef ? <LabelledLine label="Breaches" value={f.ruleRef} /> : null}
+                {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
+                <LabelledLine label="Due" value={f.dueOn ? formatDate(f.dueOn) : 'No due date'} />
                 <NoticePhotos
                   photos={f.photos}
                   label={`Photos of finding ${f.number} (${f.photos.length})`}
@@ -230,17 +231,6 @@ function Fact({ label, value }: { label: string; value: string }) {
       </Text>
       <Text>{value}</Text>
     </View>
-  );
-}
-
-function Line({ label, value }: { label: string; value: string }) {
-  return (
-    <Text variant="small">
-      <Text variant="label" muted>
-        {label.toUpperCase()}{' '}
-      </Text>
-      {value}
-    </Text>
   );
 }
 

@@ -5,6 +5,7 @@ import type { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { LabelledLine } from '@/components/labelled-line';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
@@ -151,8 +152,8 @@ function MessageList({
             <Text variant="heading" numberOfLines={2}>
               {m.subject || '(no subject)'}
             </Text>
-            <Labelled label="From" value={m.from} />
-            <Labelled label="To" value={m.to.join(', ') || '—'} />
+            <LabelledLine label="From" value={m.from} numberOfLines={2} />
+            <LabelledLine label="To" value={m.to.join(', ') || '—'} numberOfLines={2} />
             {m.attachments.map((a) => (
               <View key={a.index} style={styles.attachLine}>
                 <Feather name="paperclip" size={14} color={colors.textMuted} />
@@ -165,17 +166,6 @@ function MessageList({
         );
       })}
     </View>
-  );
-}
-
-function Labelled({ label, value }: { label: string; value: string }) {
-  return (
-    <Text variant="small" numberOfLines={2}>
-      <Text variant="label" muted>
-        {label.toUpperCase()}{' '}
-      </Text>
-      {value}
-    </Text>
   );
 }
 

@@ -5,6 +5,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { IconButton } from '@/components/icon-button';
+import { LabelledLine } from '@/components/labelled-line';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { formatDate, formatDateTime } from '@/features/registry/text';
@@ -97,25 +98,28 @@ export function FindingsList({
               ) : null}
             </View>
             <Text>{f.description}</Text>
-            {f.ruleRef ? <Detail label="Breaches" value={f.ruleRef} /> : null}
-            {f.requiredAction ? <Detail label="Required action" value={f.requiredAction} /> : null}
+            {f.ruleRef ? <LabelledLine label="Breaches" value={f.ruleRef} /> : null}
+            {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
             {f.dueOn ? (
-              <Detail
+              <LabelledLine
                 label="Due"
                 value={pastDue ? `${formatDate(f.dueOn)} — past due` : formatDate(f.dueOn)}
                 color={pastDue ? colors.danger : undefined}
               />
             ) : null}
             {f.photoShas.length > 0 ? (
-              <Detail label="Photos" value={f.photoShas.map((sha) => photoName(photos, sha)).join(' · ')} />
+              <LabelledLine
+                label="Photos"
+                value={f.photoShas.map((sha) => photoName(photos, sha)).join(' · ')}
+              />
             ) : null}
             {f.state === 'closed' && f.closedAt ? (
-              <Detail
+              <LabelledLine
                 label="Closed"
                 value={`${formatDateTime(f.closedAt)}${f.closedByName ? ` by ${f.closedByName}` : ''}`}
               />
             ) : null}
-            {f.stateNote ? <Detail label="Comment" value={f.stateNote} /> : null}
+            {f.stateNote ? <LabelledLine label="Comment" value={f.stateNote} /> : null}
             {f.state === 'action_reported' && actionHref ? (
               <Link href={actionHref} asChild>
                 <Pressable
@@ -154,17 +158,6 @@ export function FindingsList({
         );
       })}
     </View>
-  );
-}
-
-function Detail({ label, value, color }: { label: string; value: string; color?: string }) {
-  return (
-    <Text variant="small" color={color}>
-      <Text variant="label" muted>
-        {label.toUpperCase()}{' '}
-      </Text>
-      {value}
-    </Text>
   );
 }
 
