@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import Svg, { G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 
+import { AxisTitles, ChartTicks } from '@/components/chart-axes';
 import { Text } from '@/components/text';
 import { colors, fonts, space } from '@/components/theme';
 
@@ -75,50 +76,17 @@ export function LineChart({
             height={height - M.top - M.bottom}
             fill={colors.surface}
           />
-          {y.ticks(5).map((t) => (
-            <G key={`y${t}`}>
-              <Line
-                x1={M.left}
-                x2={width - M.right}
-                y1={y(t)}
-                y2={y(t)}
-                stroke={colors.surfaceSunk}
-                strokeWidth={1}
-              />
-              <SvgText
-                x={M.left - 6}
-                y={y(t) + 4}
-                fontSize={11}
-                fontFamily={fonts.mono}
-                fill={colors.textMuted}
-                textAnchor="end"
-              >
-                {compact(t)}
-              </SvgText>
-            </G>
-          ))}
-          {(xTicks ?? x.ticks(6)).map((t) => (
-            <G key={`x${t}`}>
-              <Line
-                x1={x(t)}
-                x2={x(t)}
-                y1={M.top}
-                y2={height - M.bottom}
-                stroke={colors.surfaceSunk}
-                strokeWidth={1}
-              />
-              <SvgText
-                x={x(t)}
-                y={height - M.bottom + 16}
-                fontSize={11}
-                fontFamily={fonts.mono}
-                fill={colors.textMuted}
-                textAnchor="middle"
-              >
-                {compact(t)}
-              </SvgText>
-            </G>
-          ))}
+          <ChartTicks
+            x={x}
+            y={y}
+            xTicks={xTicks ?? x.ticks(6)}
+            yTicks={y.ticks(5)}
+            xFormat={compact}
+            yFormat={compact}
+            width={width}
+            height={height}
+            margin={M}
+          />
           <Line x1={M.left} x2={width - M.right} y1={y(0)} y2={y(0)} stroke={colors.border} strokeWidth={1} />
           {series.map((s) => {
             const pts = Array.from(s.x, (xv, i) => [x(xv), y(s.y[i])] as [number, number]);
@@ -157,27 +125,7 @@ export function LineChart({
               </SvgText>
             </G>
           ))}
-          <SvgText
-            x={(M.left + width - M.right) / 2}
-            y={height - 6}
-            fontSize={12}
-            fontFamily={fonts.semibold}
-            fill={colors.textMuted}
-            textAnchor="middle"
-          >
-            {xLabel}
-          </SvgText>
-          <SvgText
-            x={14}
-            y={(M.top + height - M.bottom) / 2}
-            fontSize={12}
-            fontFamily={fonts.semibold}
-            fill={colors.textMuted}
-            textAnchor="middle"
-            transform={`rotate(-90 14 ${(M.top + height - M.bottom) / 2})`}
-          >
-            {yLabel}
-          </SvgText>
+          <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
         </Svg>
       ) : (
         <View style={{ height }} />

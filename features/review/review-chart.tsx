@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 
+import { AxisTitles, ChartTicks } from '@/components/chart-axes';
 import { Text } from '@/components/text';
 import { colors, fonts, space } from '@/components/theme';
 
@@ -110,36 +111,17 @@ export function ReviewChart({
               fill={colors.withinSoft}
             />
           ) : null}
-          {y.ticks(5).map((t) => (
-            <G key={`y${t}`}>
-              <Line x1={M.left} x2={plotRight} y1={y(t)} y2={y(t)} stroke={colors.surfaceSunk} />
-              <SvgText
-                x={M.left - 6}
-                y={y(t) + 4}
-                fontSize={11}
-                fontFamily={fonts.mono}
-                fill={colors.textMuted}
-                textAnchor="end"
-              >
-                {compact(t)}
-              </SvgText>
-            </G>
-          ))}
-          {(xTicks ?? x.ticks(width < 420 ? 4 : 6)).map((t) => (
-            <G key={`x${t}`}>
-              <Line x1={x(t)} x2={x(t)} y1={M.top} y2={height - M.bottom} stroke={colors.surfaceSunk} />
-              <SvgText
-                x={x(t)}
-                y={height - M.bottom + 16}
-                fontSize={11}
-                fontFamily={fonts.mono}
-                fill={colors.textMuted}
-                textAnchor="middle"
-              >
-                {xFormat(t)}
-              </SvgText>
-            </G>
-          ))}
+          <ChartTicks
+            x={x}
+            y={y}
+            xTicks={xTicks ?? x.ticks(width < 420 ? 4 : 6)}
+            yTicks={y.ticks(5)}
+            xFormat={xFormat}
+            yFormat={compact}
+            width={width}
+            height={height}
+            margin={M}
+          />
           {yDomain[0] < 0 ? (
             <Line x1={M.left} x2={plotRight} y1={y(0)} y2={y(0)} stroke={colors.border} />
           ) : null}
@@ -218,27 +200,7 @@ export function ReviewChart({
               </SvgText>
             </G>
           ))}
-          <SvgText
-            x={(M.left + plotRight) / 2}
-            y={height - 6}
-            fontSize={12}
-            fontFamily={fonts.semibold}
-            fill={colors.textMuted}
-            textAnchor="middle"
-          >
-            {xLabel}
-          </SvgText>
-          <SvgText
-            x={14}
-            y={(M.top + height - M.bottom) / 2}
-            fontSize={12}
-            fontFamily={fonts.semibold}
-            fill={colors.textMuted}
-            textAnchor="middle"
-            transform={`rotate(-90 14 ${(M.top + height - M.bottom) / 2})`}
-          >
-            {yLabel}
-          </SvgText>
+          <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
         </Svg>
       ) : (
         <View style={{ height }} />
