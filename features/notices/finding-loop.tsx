@@ -51,6 +51,16 @@ export function FindingLoop({
   const verifier = isVerifier(user);
   const pastDue = isPastDue(finding, todayIso());
   const f = finding;
+  const panelProps: PanelProps = {
+    noticeId,
+    finding: f,
+    userName: user.name,
+    onDone: (answer) => {
+      setOutcome(answer);
+      setPanel(null);
+    },
+    onCancel: () => setPanel(null),
+  };
 
   return (
     <View style={styles.card} role="listitem" accessibilityLabel={`Finding ${f.number}`}>
@@ -123,27 +133,9 @@ export function FindingLoop({
 
       {verifier ? (
         panel === 'close' ? (
-          <ClosePanel
-            noticeId={noticeId}
-            finding={f}
-            userName={user.name}
-            onDone={(answer) => {
-              setOutcome(answer);
-              setPanel(null);
-            }}
-            onCancel={() => setPanel(null)}
-          />
+          <ClosePanel {...panelProps} />
         ) : panel === 'reopen' ? (
-          <ReopenPanel
-            noticeId={noticeId}
-            finding={f}
-            userName={user.name}
-            onDone={(answer) => {
-              setOutcome(answer);
-              setPanel(null);
-            }}
-            onCancel={() => setPanel(null)}
-          />
+          <ReopenPanel {...panelProps} />
         ) : (
           <View style={styles.buttons}>
             {f.state !== 'closed' ? (
