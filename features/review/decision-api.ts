@@ -1,4 +1,4 @@
-import { type QueryClient, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { hashKey, type QueryClient, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useSyncExternalStore } from 'react';
 import { z } from 'zod';
 
@@ -207,7 +207,16 @@ function withReview(old: unknown, review: ReviewFields): unknown {
 /** Who decided and when, as the inspection screen's cached detail says; null when it holds none. */
 export function useCachedReview(inspectionId: string) {
   const qc = useQueryClient();
-  const subscribe = useCallback((onChange: () => void) => qc.getQueryCache().subscribe(onChange), [qc]);
+  // Only this inspection's entry: other queries created while a sibling renders must not re-render us then.
+  const subscribe = useCallback(
+    (onChange: () => void) => {
+      const hash = hashKey(reviewKeys.inspection(inspectionId));
+      return qc.getQueryCache().subscribe((event) => {
+        if (event.query.queryHash === hash) onChange();
+      });
+    },
+    [qc, inspectionId],
+  );
   const data = useSyncExternalStore(subscribe, () => qc.getQueryData(reviewKeys.inspection(inspectionId)));
   const parsed = cachedReviewSchema.safeParse(data);
   return parsed.success ? parsed.data.inspection : null;
