@@ -10,7 +10,6 @@ import { SortableTable, type SortValue } from '@/components/sortable-table';
 import { RideStatusMark, rideStatusLabel } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
@@ -21,14 +20,19 @@ import {
   useRidePageQuery,
   useSiteListQuery,
 } from '@/features/registry/api';
-import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
+import {
+  FilterGroups,
+  FilterPanel,
+  RideClassFilter,
+  RideStatusFilter,
+} from '@/features/registry/filter-panel';
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
 import { formatDate } from '@/features/registry/text';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { RideCard, rideHref } from '@/features/rides/ride-card';
-import { type RideSummary, rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
+import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 
 const PAGE_SIZE = 20;
 const ALL = '__all';
@@ -118,22 +122,8 @@ function RidesList({ user }: { user: SessionUser }) {
 
   const chips = (
     <FilterGroups alignEnd>
-      <FilterGroup label="Ride class">
-        <ToggleChips
-          label="Ride class"
-          values={query.rideClass ?? []}
-          options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
-          onChange={(v) => filter({ rideClass: v })}
-        />
-      </FilterGroup>
-      <FilterGroup label="Status">
-        <ToggleChips
-          label="Status"
-          values={query.status ?? []}
-          options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
-          onChange={(v) => filter({ status: v })}
-        />
-      </FilterGroup>
+      <RideClassFilter values={query.rideClass} onChange={(v) => filter({ rideClass: v })} />
+      <RideStatusFilter label="Status" values={query.status} onChange={(v) => filter({ status: v })} />
       {activeFilters > 0 || query.q ? (
         <Button label="Clear search and filters" tone="quiet" onPress={clear} style={styles.clear} />
       ) : null}

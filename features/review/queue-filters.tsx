@@ -3,9 +3,7 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { SelectField } from '@/components/select-field';
-import { rideStatusLabel } from '@/components/status-mark';
 import { TextField } from '@/components/text-field';
-import { ToggleChips } from '@/components/toggle-chips';
 import { space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import {
@@ -14,10 +12,14 @@ import {
   useInspectorsQuery,
   useSiteListQuery,
 } from '@/features/registry/api';
-import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
+import {
+  FilterGroups,
+  FilterPanel,
+  RideClassFilter,
+  RideStatusFilter,
+} from '@/features/registry/filter-panel';
 import { calendarDate } from '@/features/registry/schema';
 import { type QueueQuery, type QueueSort } from '@/features/review/schema';
-import { rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
 
 const ALL = '__all';
 
@@ -186,22 +188,12 @@ export function QueueFilterPanel({
 
   const groups = (
     <FilterGroups alignEnd>
-      <FilterGroup label="Ride class">
-        <ToggleChips
-          label="Ride class"
-          values={query.rideClass ?? []}
-          options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
-          onChange={(v) => filter({ rideClass: v })}
-        />
-      </FilterGroup>
-      <FilterGroup label="Ride status">
-        <ToggleChips
-          label="Ride status"
-          values={query.rideStatus ?? []}
-          options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
-          onChange={(v) => filter({ rideStatus: v })}
-        />
-      </FilterGroup>
+      <RideClassFilter values={query.rideClass} onChange={(v) => filter({ rideClass: v })} />
+      <RideStatusFilter
+        label="Ride status"
+        values={query.rideStatus}
+        onChange={(v) => filter({ rideStatus: v })}
+      />
       <View style={wide ? styles.datesWide : styles.dates} role="group" accessibilityLabel="Date range">
         <View style={styles.date}>
           <DateField label="From" value={query.from} onChange={(from) => filter({ from })} />
