@@ -11,8 +11,8 @@ import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 
 import {
-  DEMO_PASSWORD,
   type Running,
+  apiToken,
   launchBrowser,
   openPage,
   screenshot,
@@ -32,15 +32,6 @@ afterAll(async () => {
   await browser?.close();
   await app?.stop();
 });
-
-async function apiToken(): Promise<string> {
-  const res = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: 'inspector@pivotwatch.test', password: DEMO_PASSWORD }),
-  });
-  return ((await res.json()) as { token: string }).token;
-}
 
 /** A real JPEG to pick as a "camera" photo: chromium renders one. */
 async function makeJpeg(page: Page, text: string): Promise<string> {
@@ -154,7 +145,7 @@ test('an inspection recorded offline arrives once, with its photos and a server 
   await page.getByText('Everything is sent').waitFor({ timeout: 60000 });
   await screenshot(page, 'phone-today-synced');
 
-  const token = await apiToken();
+  const token = await apiToken(app.baseUrl, 'inspector@pivotwatch.test');
   const list = (await (
     await fetch(`${app.baseUrl}/api/inspections?mine=1`, { headers: { Authorization: `Bearer ${token}` } })
   ).json()) as { inspections: { id: string }[] };

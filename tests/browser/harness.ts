@@ -95,6 +95,23 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
 
+/** A session token for an account, through the API (for checks behind the browser's back). */
+export async function apiToken(baseUrl: string, email: string, password = DEMO_PASSWORD): Promise<string> {
+  const res = await fetch(`${baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password }),
+  });
+  return ((await res.json()) as { token: string }).token;
+}
+
+/** GET an API path with a token; the answer's JSON, after checking it was a 200. */
+export async function apiGet<T>(baseUrl: string, path: string, token: string): Promise<T> {
+  const res = await fetch(`${baseUrl}${path}`, { headers: { authorization: `Bearer ${token}` } });
+  expect(res.status).toBe(200);
+  return (await res.json()) as T;
+}
+
 export async function screenshot(page: Page, name: string) {
   mkdirSync(SHOTS, { recursive: true });
   await page.screenshot({ path: join(SHOTS, `${name}.png`) });

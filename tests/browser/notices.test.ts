@@ -14,6 +14,8 @@ import type { Browser, Page } from 'playwright-core';
 import {
   DEMO_PASSWORD,
   type Running,
+  apiGet,
+  apiToken,
   launchBrowser,
   openPage,
   screenshot,
@@ -34,21 +36,8 @@ afterAll(async () => {
   await app?.stop();
 });
 
-async function tokenOf(email: string): Promise<string> {
-  const res = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  return ((await res.json()) as { token: string }).token;
-}
-
 async function api<T>(path: string, email: string): Promise<T> {
-  const res = await fetch(`${app.baseUrl}${path}`, {
-    headers: { authorization: `Bearer ${await tokenOf(email)}` },
-  });
-  expect(res.status).toBe(200);
-  return (await res.json()) as T;
+  return apiGet<T>(app.baseUrl, path, await apiToken(app.baseUrl, email));
 }
 
 type Outbox = {

@@ -7,8 +7,9 @@
 import type { Browser, Page } from 'playwright-core';
 
 import {
-  DEMO_PASSWORD,
   type Running,
+  apiGet,
+  apiToken,
   launchBrowser,
   openPage,
   screenshot,
@@ -20,25 +21,11 @@ let app: Running;
 let browser: Browser;
 let rideIds: Record<string, string>;
 
-async function apiToken(email: string): Promise<string> {
-  const res = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  return ((await res.json()) as { token: string }).token;
-}
-
-async function api<T>(path: string, token: string): Promise<T> {
-  const res = await fetch(`${app.baseUrl}${path}`, { headers: { Authorization: `Bearer ${token}` } });
-  return (await res.json()) as T;
-}
-
 beforeAll(async () => {
   app = await startPivotwatch();
   browser = await launchBrowser();
-  const token = await apiToken('supervisor@pivotwatch.test');
-  const list = await api<{ rides: { id: string; name: string }[] }>('/api/rides', token);
+  const token = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
+  const list = await apiGet<{ rides: { id: string; name: string }[] }>(app.baseUrl, '/api/rides', token);
   rideIds = Object.fromEntries(list.rides.map((r) => [r.name, r.id]));
 });
 
@@ -198,9 +185,13 @@ const BAD_CSV = [
 ].join('\n');
 
 test('a bad CSV is refused with its row-and-column report and nothing is saved', async () => {
-  const token = await apiToken('supervisor@pivotwatch.test');
+  const token = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
   const id = rideIds['Little Kite'];
-  const before = await api<{ versions: unknown[] }>(`/api/rides/${id}/design/versions`, token);
+  const before = await apiGet<{ versions: unknown[] }>(
+    app.baseUrl,
+    `/api/rides/${id}/design/versions`,
+    token,
+  );
 
   const page = await openPage(browser, 'desktop');
   await signIn(page, app.baseUrl, 'supervisor@pivotwatch.test');
@@ -224,7 +215,7 @@ test('a bad CSV is refused with its row-and-column report and nothing is saved',
   expect(await page.getByRole('button', { name: 'Import as version 2' }).isDisabled()).toBe(true);
   await screenshot(page, 'desktop-registry-import-refused');
 
-  const after = await api<{ versions: unknown[] }>(`/api/rides/${id}/design/versions`, token);
+  const after = await apiGet<{ versions: unknown[] }>(app.baseUrl, `/api/rides/${id}/design/versions`, token);
   expect(after.versions).toHaveLength(before.versions.length);
   await page.context().close();
 });

@@ -8,8 +8,9 @@
 import type { Browser, Page } from 'playwright-core';
 
 import {
-  DEMO_PASSWORD,
   type Running,
+  apiGet,
+  apiToken,
   launchBrowser,
   openPage,
   screenshot,
@@ -32,15 +33,7 @@ afterAll(async () => {
 });
 
 async function api<T>(path: string, email: string): Promise<T> {
-  const signedIn = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  const { token } = (await signedIn.json()) as { token: string };
-  const res = await fetch(`${app.baseUrl}${path}`, { headers: { authorization: `Bearer ${token}` } });
-  expect(res.status).toBe(200);
-  return (await res.json()) as T;
+  return apiGet<T>(app.baseUrl, path, await apiToken(app.baseUrl, email));
 }
 
 async function syncPhone(page: Page) {
