@@ -33,7 +33,8 @@ const styles = StyleSheet.create({
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   tile: {
     flexGrow: 1,
-    flexBasis: 100,
+    // Wide enough that a one-word label ("ADMINISTRATORS") never breaks inside the word: two to a row on a phone.
+    flexBasis: 140,
     backgroundColor: colors.surface,
     borderColor: colors.border,
     borderWidth: 1,
