@@ -8,6 +8,7 @@ export default defineConfig({
     './db/server/inspections.ts',
     './db/server/review.ts',
     './db/server/notices.ts',
+    './db/server/instruments.ts',
   ],
   out: './drizzle/server',
 });

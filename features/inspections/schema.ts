@@ -56,6 +56,27 @@ export const readingMethods = [
 ] as const;
 
 /**
+ * The instrument register entry a reading was taken with, copied at the time so the record reads on its
+ * own later (the register changes with every calibration). `calibrationDueOn` is YYYY-MM-DD.
+ */
+export const instrumentSnapshotSchema = z.object({
+  id: z.string().min(1).max(80),
+  name: z.string().min(1).max(120),
+  serial: z.string().max(80),
+  calibrationDueOn: z.iso.date({ error: 'Must be a date (YYYY-MM-DD)' }).nullable(),
+});
+export type InstrumentSnapshot = z.infer<typeof instrumentSnapshotSchema>;
+
+/** The inspector's statement at submit: the inspection body's text as shown, who made it and when. */
+export const declarationSchema = z.object({
+  text: z.string().trim().min(1).max(4000),
+  declaredAt: isoTime(),
+  declaredBy: z.string().min(1).max(80),
+  declaredByName: z.string().min(1).max(200),
+});
+export type Declaration = z.infer<typeof declarationSchema>;
+
+/**
  * One measured value. SI by kind: speed rad/s, period s, amplitude rad, diameter and clearance m.
  * `joint` ties it to a pivot (0 = the ground pivot) where it belongs to one.
  */
@@ -66,7 +87,10 @@ export const readingSchema = z.object({
   label: z.string().trim().min(1).max(120),
   valueSI: num(),
   unit: z.string().max(20),
+  /** What the inspector chose; the app never picks one for them (older records kept the app's guess). */
   method: z.enum(readingMethods),
+  /** Chosen from the register; null when the inspector said none of the register's was used. */
+  instrument: instrumentSnapshotSchema.nullable().optional(),
   /** Spread of the measurement (same unit as valueSI), e.g. a tap timer's standard deviation. */
   spreadSI: num().min(0).nullable().optional(),
   takenAt: isoTime(),
@@ -113,6 +137,8 @@ export const inspectionRecordSchema = z.object({
   notes: z.string().max(10_000).optional(),
   preview: devicePreviewSchema.nullable(),
   amendsId: uuid().nullable().optional(),
+  /** Required by the server for every record it accepts now; absent from records stored before. */
+  declaration: declarationSchema.optional(),
 });
 export type InspectionRecord = z.infer<typeof inspectionRecordSchema>;
 

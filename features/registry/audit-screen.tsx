@@ -45,6 +45,8 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   finding: 'Finding',
   notice: 'Notice',
   corrective_action: 'Corrective action',
+  instrument: 'Instrument',
+  setting: 'Setting',
 };
 
 const actionSpec: Record<

@@ -334,6 +334,8 @@ export const auditEntities = [
   'finding',
   'notice',
   'corrective_action',
+  'instrument',
+  'setting',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;
