@@ -1,28 +1,20 @@
-import { File, Paths } from 'expo-file-system';
+import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api/pdf-download';
 
-import { API_BASE, OfflineError } from '@/features/api/client';
-import { tokenStore } from '@/features/auth/token-store';
+export type { PaperSize } from '@/features/api/pdf-download';
 
-export type PaperSize = 'A4' | 'LETTER';
+/** The notice's PDF, in the paper size asked for. */
+export const downloadNoticePdf = (notice: { id: string; reference: string }, size: PaperSize) =>
+  downloadPdf(
+    `/api/notices/${encodeURIComponent(notice.id)}/pdf?size=${size}`,
+    pdfFileName(notice.reference, size),
+  );
 
-/** Saves the notice's PDF to the app's documents on a phone; the request carries the session token. */
-export async function downloadNoticePdf(
-  notice: { id: string; reference: string },
+/** The inspection report's PDF: the inspector's own copy of what they recorded. */
+export const downloadInspectionReport = (
+  inspection: { id: string; rideName: string; submittedAt: string | null },
   size: PaperSize,
-): Promise<string> {
-  const session = await tokenStore.get();
-  const name = pdfFileName(notice.reference, size);
-  try {
-    await File.downloadFileAsync(
-      `${API_BASE}/api/notices/${encodeURIComponent(notice.id)}/pdf?size=${size}`,
-      new File(Paths.document, name),
-      { headers: session ? { Authorization: `Bearer ${session.token}` } : {}, idempotent: true },
-    );
-  } catch (err) {
-    throw new OfflineError(err);
-  }
-  return `Saved ${name} to this device’s documents`;
-}
-
-export const pdfFileName = (reference: string, size: PaperSize) =>
-  `${reference.replace(/[^\w.-]+/g, '_')}-${size === 'A4' ? 'A4' : 'Letter'}.pdf`;
+) =>
+  downloadPdf(
+    `/api/inspections/${encodeURIComponent(inspection.id)}/report.pdf?size=${size}`,
+    pdfFileName(`inspection-${inspection.rideName}-${(inspection.submittedAt ?? '').slice(0, 10)}`, size),
+  );

@@ -5,17 +5,14 @@ import { tokenStore } from '@/features/auth/token-store';
 export type PaperSize = 'A4' | 'LETTER';
 
 /**
- * Downloads the notice's PDF. A plain link cannot carry the session token, so the bytes are fetched with
- * it and handed to the browser as a file from a temporary Blob URL.
+ * Downloads a PDF the API makes (`apiPath` from `/api/…`). A plain link cannot carry the session token,
+ * so the bytes are fetched with it and handed to the browser as a file from a temporary Blob URL.
  */
-export async function downloadNoticePdf(
-  notice: { id: string; reference: string },
-  size: PaperSize,
-): Promise<string> {
+export async function downloadPdf(apiPath: string, fileName: string): Promise<string> {
   const session = await tokenStore.get();
   let res: Response;
   try {
-    res = await fetch(`${API_BASE}/api/notices/${encodeURIComponent(notice.id)}/pdf?size=${size}`, {
+    res = await fetch(`${API_BASE}${apiPath}`, {
       headers: {
         Accept: 'application/pdf',
         ...(session ? { Authorization: `Bearer ${session.token}` } : {}),
@@ -36,19 +33,19 @@ export async function downloadNoticePdf(
       ? new ApiRequestError(res.status, parsed.data.error.code, parsed.data.error.message)
       : new ApiRequestError(res.status, 'http_error', `The PDF could not be made (${res.status}).`);
   }
-  const name = pdfFileName(notice.reference, size);
   const url = URL.createObjectURL(await res.blob());
   const a = document.createElement('a');
   a.href = url;
-  a.download = name;
+  a.download = fileName;
   a.rel = 'noopener';
   document.body.appendChild(a);
   a.click();
   a.remove();
   // Give the browser a moment to start the download before the URL goes.
   setTimeout(() => URL.revokeObjectURL(url), 10_000);
-  return `Downloaded ${name}`;
+  return `Downloaded ${fileName}`;
 }
 
-export const pdfFileName = (reference: string, size: PaperSize) =>
-  `${reference.replace(/[^\w.-]+/g, '_')}-${size === 'A4' ? 'A4' : 'Letter'}.pdf`;
+/** "PW-2026-0001-A4.pdf": safe on every file system, with the paper size in the name. */
+export const pdfFileName = (stem: string, size: PaperSize) =>
+  `${stem.replace(/[^\w.-]+/g, '_')}-${size === 'A4' ? 'A4' : 'Letter'}.pdf`;

@@ -1,0 +1,78 @@
+import Feather from '@expo/vector-icons/Feather';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Text } from '@/components/text';
+import { colors, space } from '@/components/theme';
+import { ApiRequestError, OfflineError } from '@/features/api/client';
+import type { PaperSize } from '@/features/api/pdf-download';
+import { downloadInspectionReport } from '@/features/notices/pdf-download';
+
+/**
+ * The inspector's own copy of a sent inspection as a PDF. The server makes it from the record it
+ * accepted, so it needs a connection; the record itself stays on the phone either way.
+ */
+export function ReportDownload({
+  inspection,
+}: {
+  inspection: { id: string; rideName: string; submittedAt: string | null };
+}) {
+  const [busy, setBusy] = useState<PaperSize | null>(null);
+  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const download = async (size: PaperSize) => {
+    setBusy(size);
+    setMessage(null);
+    try {
+      setMessage({ ok: true, text: await downloadInspectionReport(inspection, size) });
+    } catch (err) {
+      const why =
+        err instanceof OfflineError
+          ? 'No connection: the report is made by the server, so download it when you have signal.'
+          : err instanceof ApiRequestError || err instanceof Error
+            ? err.message
+            : 'Try again.';
+      setMessage({ ok: false, text: `The report could not be downloaded. ${why}` });
+    } finally {
+      setBusy(null);
+    }
+  };
+  const icon = <Feather name="download" size={18} color={colors.text} />;
+  return (
+    <View style={styles.box}>
+      <View style={styles.row}>
+        <Button
+          label="My report · A4"
+          tone="quiet"
+          icon={icon}
+          busy={busy === 'A4'}
+          disabled={busy !== null}
+          accessibilityLabel={`Download the inspection report of ${inspection.rideName}, A4 PDF`}
+          onPress={() => download('A4')}
+        />
+        <Button
+          label="Letter"
+          tone="quiet"
+          busy={busy === 'LETTER'}
+          disabled={busy !== null}
+          accessibilityLabel={`Download the inspection report of ${inspection.rideName}, US Letter PDF`}
+          onPress={() => download('LETTER')}
+        />
+      </View>
+      {message ? (
+        <Text
+          variant="small"
+          role={message.ok ? 'status' : 'alert'}
+          color={message.ok ? undefined : colors.danger}
+        >
+          {message.text}
+        </Text>
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  box: { gap: space.xs },
+  row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+});

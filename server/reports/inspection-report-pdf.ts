@@ -1,0 +1,322 @@
+/**
+ * The inspection report as a PDF: the inspector's own copy of what they recorded (checklist, readings with
+ * method and instrument, photos, declaration) with the server's load check and the review so far. Laid out
+ * with pdfkit's own text flow and tables (a report is read top to bottom; it needs no fixed grid like the
+ * notice), in the shipped IBM Plex fonts. Deterministic: the PDF's dates and id come from the record.
+ */
+import PDFDocument from 'pdfkit';
+
+import { CAUTION_FULL } from '@/components/caution-text';
+import type { ChecklistAnswer, Reading } from '@/features/inspections/schema';
+import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine/envelope';
+import { formatLimit, formatRatio, formatValue, sortByConcern } from '@/features/loads/format';
+import { inspectionTypeLabel } from '@/features/registry/schema';
+import {
+  formatMeasurement,
+  formatReading,
+  formatSpread,
+  readingKindLabel,
+  readingMethodLabel,
+  reviewStateLabel,
+} from '@/features/review/review-format';
+import { severityInfo } from '@/features/review/schema';
+import { rideClassLabel, type RideClass } from '@/features/rides/schema';
+import { FONT_FILES, fontDir, fonts, pdfColors as C } from '@/server/notices/pdf';
+import type { InspectionReport } from '@/server/reports/inspection-report';
+
+export type ReportPaper = 'A4' | 'LETTER';
+
+const MARGIN = 50;
+const checkWords = { pass: 'Pass', fail: 'Fail', na: 'Not applicable' } as const;
+
+/** "3 Dec 2026, 14:05 UTC": the record's times are UTC, and the report says so. */
+function when(iso: string): string {
+  const d = new Date(iso);
+  if (Number.isNaN(d.getTime())) return iso;
+  const months = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+  const hh = String(d.getUTCHours()).padStart(2, '0');
+  const mm = String(d.getUTCMinutes()).padStart(2, '0');
+  return `${d.getUTCDate()} ${months[d.getUTCMonth()]} ${d.getUTCFullYear()}, ${hh}:${mm} UTC`;
+}
+
+const orNot = (v: string | number | null | undefined) =>
+  v === null || v === undefined || v === '' ? 'Not recorded' : String(v);
+
+/** A reading's value as recorded: the inspector's own digits when the record kept them. */
+function readingValue(r: Reading): string {
+  const entered = (r as Reading & { entered?: string }).entered;
+  if (entered) return `${entered} ${r.unit}`.trim();
+  return formatReading(r, 'si');
+}
+
+function readingMethod(r: Reading): string {
+  const parts = [readingMethodLabel[r.method] ?? r.method];
+  const instrument = (r as Reading & { instrument?: { name: string; serial: string } | null }).instrument;
+  if (instrument) parts.push(`${instrument.name} (serial ${instrument.serial})`);
+  return parts.join(' · ');
+}
+
+function checklistValue(a: ChecklistAnswer): string {
+  if (!a.measurement) return '';
+  const entered = (a.measurement as { entered?: string }).entered;
+  return entered ? `${entered} ${a.measurement.unit}`.trim() : formatMeasurement(a.measurement);
+}
+
+type Doc = PDFKit.PDFDocument;
+
+function heading(doc: Doc, title: string) {
+  // Keep a heading with at least a few lines of what follows it.
+  if (doc.y > doc.page.height - MARGIN - 90) doc.addPage();
+  doc.moveDown(0.8).font('bold').fontSize(12.5).fillColor(C.base).text(title, MARGIN);
+  doc.moveDown(0.3).font('regular').fontSize(9.5).fillColor(C.text);
+}
+
+const LABEL_W = 150;
+
+/** Label and value side by side; a long value wraps in its own column. */
+function pairs(doc: Doc, rows: [string, string][]) {
+  const valueW = doc.page.width - 2 * MARGIN - LABEL_W;
+  for (const [label, value] of rows) {
+    doc.font('regular').fontSize(9.5);
+    if (doc.y + doc.heightOfString(value, { width: valueW }) > doc.page.height - MARGIN) doc.addPage();
+    const y = doc.y;
+    doc
+      .font('semibold')
+      .fontSize(7.5)
+      .fillColor(C.textMuted)
+      .text(label.toUpperCase(), MARGIN, y + 1.5, {
+        width: LABEL_W - 8,
+      });
+    const labelBottom = doc.y;
+    doc
+      .font('regular')
+      .fontSize(9.5)
+      .fillColor(C.text)
+      .text(value, MARGIN + LABEL_W, y, { width: valueW });
+    doc.y = Math.max(doc.y, labelBottom) + 2;
+  }
+  doc.x = MARGIN;
+}
+
+function table(doc: Doc, head: string[], rows: string[][], widths: (number | string)[]) {
+  if (rows.length === 0) {
+    doc.font('regular').fontSize(9.5).fillColor(C.textMuted).text('None recorded.', MARGIN);
+    return;
+  }
+  doc.font('regular').fontSize(8.6).fillColor(C.text);
+  doc.table({
+    position: { x: MARGIN },
+    maxWidth: doc.page.width - 2 * MARGIN,
+    columnStyles: widths,
+    defaultStyle: { border: 0.5, borderColor: C.border, padding: 3 },
+    rowStyles: (i) => (i === 0 ? { backgroundColor: C.surfaceSunk } : undefined),
+    data: [head.map((text) => ({ text, font: { src: 'semibold' }, type: 'TH' as const })), ...rows],
+  });
+  doc.x = MARGIN;
+}
+
+function identity(doc: Doc, r: InspectionReport) {
+  const i = r.inspection;
+  heading(doc, 'Ride');
+  pairs(doc, [
+    ['Ride', r.ride.name],
+    ['Class', rideClassLabel[r.ride.rideClass as RideClass] ?? r.ride.rideClass],
+    ['Maker, model, serial', [r.ride.maker, r.ride.model, r.ride.serial].map(orNot).join(' · ')],
+    ['Site', orNot(r.ride.siteName)],
+    ['Operator', r.ride.operatorName],
+  ]);
+  heading(doc, 'Inspection');
+  pairs(doc, [
+    ['Type', inspectionTypeLabel[i.type] ?? i.type],
+    ['Inspector', i.inspectorName],
+    ['Started', when(i.startedAt)],
+    ['Submitted on the phone', when(i.submittedAt)],
+    ['Received by the server', when(i.receivedAt)],
+    ['Design data', i.designVersion ? `Version ${i.designVersion}` : 'None on record'],
+    ['Review', reviewStateLabel[i.reviewState]],
+    ...(i.reviewNote ? [['Reviewer’s note', i.reviewNote] as [string, string]] : []),
+    ...(i.amendsId ? [['Amends', i.amendsId] as [string, string]] : []),
+    ['Record', i.id],
+  ]);
+}
+
+function declaration(doc: Doc, r: InspectionReport) {
+  heading(doc, 'Inspector’s declaration');
+  const d = (
+    r.inspection.record as {
+      declaration?: { text: string; declaredAt: string; declaredByName: string };
+    }
+  ).declaration;
+  if (!d) {
+    doc.text('No declaration is on this record (it was submitted before declarations were asked for).');
+    return;
+  }
+  doc.font('regular').fontSize(9.5).fillColor(C.text).text(`“${d.text}”`, MARGIN);
+  doc
+    .moveDown(0.3)
+    .fillColor(C.textMuted)
+    .text(`Declared by ${d.declaredByName} on ${when(d.declaredAt)}.`);
+}
+
+function checklist(doc: Doc, r: InspectionReport) {
+  heading(doc, 'Checklist');
+  const answers = r.inspection.record.checklist;
+  const rows = answers.map((a) => {
+    const reason = (a as { overLimitReason?: string }).overLimitReason;
+    const note = [a.note, reason ? `Over its limit, passed because: ${reason}` : null]
+      .filter(Boolean)
+      .join(' · ');
+    return [a.area, a.text, a.result ? checkWords[a.result] : 'Not answered', checklistValue(a), note];
+  });
+  table(doc, ['Area', 'Item', 'Result', 'Measured', 'Note'], rows, [70, '*', 58, 70, 120]);
+}
+
+function readings(doc: Doc, r: InspectionReport) {
+  heading(doc, 'Readings');
+  const list = r.inspection.record.readings;
+  const rows = list.map((x) => {
+    const p = (x as Reading & { plausibility?: { ratio: number; note?: string } }).plausibility;
+    const notes = [
+      formatSpread({ kind: x.kind, spreadSI: x.spreadSI ?? null }, 'si'),
+      p ? `Confirmed by the inspector at ${formatRatio(p.ratio)} of the design motion` : null,
+      p?.note ?? null,
+      x.note ?? null,
+    ].filter(Boolean);
+    return [
+      `${x.label || readingKindLabel[x.kind]}${x.joint === null ? '' : ` (P${x.joint + 1})`}`,
+      readingValue(x),
+      readingMethod(x),
+      when(x.takenAt),
+      notes.join(' · '),
+    ];
+  });
+  table(doc, ['Reading', 'Value', 'Method and instrument', 'Taken', 'Notes'], rows, ['*', 70, 120, 92, 110]);
+}
+
+function photos(doc: Doc, r: InspectionReport) {
+  heading(doc, 'Photos');
+  const rows = r.inspection.photos.map((p) => [
+    p.caption || 'No caption',
+    p.joint === null ? '' : `P${p.joint + 1}`,
+    when(p.takenAt),
+    `${p.sha256.slice(0, 16)}…`,
+    p.received ? 'Received' : 'Not yet received',
+  ]);
+  table(doc, ['Caption', 'Pivot', 'Taken', 'SHA-256', 'Copy on server'], rows, ['*', 40, 92, 100, 70]);
+}
+
+function loadCheck(doc: Doc, r: InspectionReport) {
+  heading(doc, 'Load check (computed by the server)');
+  const a = r.inspection.analysis;
+  if (!a) {
+    doc.text(r.inspection.analysisNote ?? 'Not analysed yet.', MARGIN);
+    return;
+  }
+  doc
+    .text(
+      `Engine ${a.engineVersion}, design data version ${a.designVersion}, ${a.samples} samples over ` +
+        `${formatValue(a.durationS, 'time', 'si')}. Overall: ${a.status ? ENVELOPE_STATUS_LABEL[a.status] : 'no envelope defined'}.`,
+      MARGIN,
+    )
+    .moveDown(0.4);
+  const rows = sortByConcern(a.envelope).map((e) => [
+    e.label,
+    formatValue(e.value, e.quantity, 'si'),
+    formatLimit(e.limit, e.quantity, 'si'),
+    formatRatio(e.ratio),
+    ENVELOPE_STATUS_LABEL[e.status],
+  ]);
+  table(doc, ['Quantity', 'Value', 'Limit', 'Of limit', 'Status'], rows, ['*', 80, 90, 55, 65]);
+  if (a.differences.length > 0) {
+    doc
+      .moveDown(0.4)
+      .fillColor(C.textMuted)
+      .text(`Differences from the phone’s preview: ${a.differences.join('; ')}`);
+  }
+}
+
+function findingsSection(doc: Doc, r: InspectionReport) {
+  heading(doc, 'Findings');
+  const rows = r.inspection.findings.map((f) => [
+    String((f as { rideNumber?: number | null }).rideNumber ?? f.number),
+    severityInfo[f.severity].label,
+    f.description,
+    orNot(f.requiredAction),
+    f.dueOn ?? '',
+  ]);
+  table(doc, ['No.', 'Severity', 'Finding', 'Required action', 'Due'], rows, [30, 80, '*', 130, 62]);
+}
+
+function footers(doc: Doc, r: InspectionReport) {
+  const range = doc.bufferedPageRange();
+  for (let p = range.start; p < range.start + range.count; p++) {
+    doc.switchToPage(p);
+    // Writing below the bottom margin would make pdfkit start a new page; the footer lives there.
+    doc.page.margins.bottom = 0;
+    const y = doc.page.height - MARGIN + 14;
+    doc
+      .font('regular')
+      .fontSize(7.5)
+      .fillColor(C.textMuted)
+      .text(
+        `Pivotwatch inspection report · ${r.ride.name} · copy for ${r.printedFor}, ${when(r.printedAt)} · page ${p - range.start + 1} of ${range.count}`,
+        MARGIN,
+        y,
+        { width: doc.page.width - 2 * MARGIN, lineBreak: false },
+      );
+  }
+}
+
+/** Renders the report. */
+export function renderInspectionReportPdf(r: InspectionReport, paper: ReportPaper): Promise<Buffer> {
+  const i = r.inspection;
+  const submitted = new Date(i.submittedAt);
+  const doc = new PDFDocument({
+    size: paper,
+    margins: { top: MARGIN, bottom: MARGIN, left: MARGIN, right: MARGIN },
+    bufferPages: true,
+    font: `${fontDir}/${FONT_FILES.regular}`,
+    lang: 'en',
+    displayTitle: true,
+    info: {
+      Title: `Inspection report — ${r.ride.name}`,
+      Author: i.inspectorName,
+      Subject: `${inspectionTypeLabel[i.type] ?? i.type} inspection of ${r.ride.name}`,
+      Creator: 'Pivotwatch',
+      Producer: 'Pivotwatch',
+      ...(Number.isNaN(submitted.getTime()) ? {} : { CreationDate: submitted }),
+    },
+  });
+  for (const [name, data] of Object.entries(fonts())) doc.registerFont(name, data);
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const finished = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  doc.font('bold').fontSize(18).fillColor(C.base).text('Inspection report', MARGIN, MARGIN);
+  doc
+    .font('semibold')
+    .fontSize(12)
+    .fillColor(C.text)
+    .text(`${r.ride.name} — ${when(i.submittedAt)}`);
+  identity(doc, r);
+  declaration(doc, r);
+  checklist(doc, r);
+  readings(doc, r);
+  photos(doc, r);
+  loadCheck(doc, r);
+  findingsSection(doc, r);
+  if (i.record.notes) {
+    heading(doc, 'Inspector’s notes');
+    doc.text(i.record.notes, MARGIN);
+  }
+  heading(doc, 'Caution');
+  doc.font('regular').fontSize(8.6).fillColor(C.text).text(CAUTION_FULL, MARGIN);
+
+  footers(doc, r);
+  doc.flushPages();
+  doc.end();
+  return finished;
+}
