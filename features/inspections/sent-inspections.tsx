@@ -9,6 +9,7 @@ import { SectionTitle } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useStartCorrectionMutation } from '@/features/inspections/field-api';
+import { ReportDownload } from '@/features/inspections/report-download';
 import { inspectionTypeLabel } from '@/features/inspections/schema';
 import type { FindingView, SentInspection } from '@/features/inspections/sent';
 import { formatDate, formatDateTime } from '@/features/registry/text';
@@ -194,6 +195,7 @@ export function SentCard({ item }: { item: SentInspection }) {
           the ride with the corrections.
         </Text>
       ) : null}
+      {item.send === 'sent' || item.send === 'unknown' ? <ReportDownload inspection={item} /> : null}
       {correct.isError ? (
         <Text role="alert" color={colors.danger}>
           {correct.error.message}
