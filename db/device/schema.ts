@@ -137,6 +137,20 @@ export const decisions = sqliteTable('decisions', {
   updatedAt: text('updated_at').notNull(),
 });
 
+/** The inspection body's instrument register as last pulled (replaced whole on every pull). */
+export const cachedInstruments = sqliteTable('cached_instruments', {
+  id: text('id').primaryKey(),
+  json: text('json').notNull(),
+  updatedAt: text('updated_at').notNull(),
+});
+
+/** Settings of the inspection body the phone needs offline, e.g. `declaration` (its text at submit). */
+export const cachedSettings = sqliteTable('cached_settings', {
+  key: text('key').primaryKey(),
+  json: text('json').notNull(),
+  updatedAt: text('updated_at').notNull(),
+});
+
 /** Small key/value facts about sync: the pull cursor, the last success, the last error. */
 export const syncMeta = sqliteTable('sync_meta', {
   key: text('key').primaryKey(),
