@@ -54,8 +54,8 @@ const C = pdfColors;
 /** Colours of the logo mark (components/logo-mark.ts). */
 const LOGO = { arc: '#5E7D8E', gondola: '#E0763A' };
 
-const fontDir = path.join(repoRoot, 'fonts');
-const FONT_FILES = {
+export const fontDir = path.join(repoRoot, 'fonts');
+export const FONT_FILES = {
   regular: 'IBMPlexSans_400Regular.ttf',
   semibold: 'IBMPlexSans_600SemiBold.ttf',
   bold: 'IBMPlexSans_700Bold.ttf',
@@ -71,7 +71,7 @@ let fontData: Record<FontName, Buffer> | undefined;
  * header even for an empty glyph and fails there ("Offset is outside the bounds of the DataView"). The
  * padding gives that read zeros; it lies past every table, so nothing embedded changes.
  */
-function fonts(): Record<FontName, Buffer> {
+export function fonts(): Record<FontName, Buffer> {
   fontData ??= Object.fromEntries(
     Object.entries(FONT_FILES).map(([name, file]) => [
       name,
