@@ -57,6 +57,17 @@ export const findings = sqliteTable(
       .references(() => users.id, { onDelete: 'restrict' }),
     closedAt: text('closed_at'),
     closedBy: text('closed_by').references(() => users.id, { onDelete: 'restrict' }),
+    /**
+     * 1, 2, 3… within the ride, over all its inspections; never reused. What people call the finding by
+     * ("finding 7" of Tidebreaker). Null only on rows stored before it existed, until they are numbered.
+     */
+    rideNumber: integer('ride_number'),
+    /** What the verifier accepted as evidence on closing: photos and/or a document reference. */
+    closeEvidence: text('close_evidence', { mode: 'json' }).$type<{
+      photoShas: string[];
+      reference: string | null;
+      correctiveActions: number;
+    }>(),
   },
   (t) => [
     check('findings_severity_check', oneOf(t.severity, findingSeverities)),
@@ -65,6 +76,36 @@ export const findings = sqliteTable(
     index('findings_ride_idx').on(t.rideId, t.state, t.dueOn),
     index('findings_open_due_idx').on(t.state, t.dueOn),
   ],
+);
+
+/**
+ * Every change of a ride's operating status made under the status rules (`features/review/status-rules.ts`):
+ * the event, who and when, the reason, and the decision or finding it belongs to. Overrides are found here
+ * (the review queue stops flagging a returned inspection once a later override resolved it).
+ */
+export const rideStatusChanges = sqliteTable(
+  'ride_status_changes',
+  {
+    id: text('id')
+      .primaryKey()
+      .$defaultFn(() => randomUUID()),
+    rideId: text('ride_id')
+      .notNull()
+      .references(() => rides.id, { onDelete: 'restrict' }),
+    at: text('at').notNull(),
+    byUser: text('by_user')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    event: text('event').notNull(),
+    fromStatus: text('from_status', { enum: rideStatuses }).notNull(),
+    toStatus: text('to_status', { enum: rideStatuses }).notNull(),
+    override: integer('override', { mode: 'boolean' }).notNull().default(false),
+    reason: text('reason'),
+    inspectionId: text('inspection_id').references(() => inspections.id, { onDelete: 'restrict' }),
+    findingId: text('finding_id'),
+    noticeId: text('notice_id'),
+  },
+  (t) => [index('ride_status_changes_ride_idx').on(t.rideId, t.at)],
 );
 
 /**
