@@ -1,24 +1,38 @@
 /**
- * Measures a ride's period by hand: tap the big pad each time the arm passes a mark (one revolution, or
- * one swing). Shows period, rate and spread live, lists the taps it does not trust and why, and hands
- * the result over with "Use this value".
+ * Measures a ride's period by hand: tap the big pad each time the arm passes a mark (once per revolution,
+ * or once per full swing there and back). Shows period, rate and spread live, lists the taps it does not
+ * trust and why, and hands the result over with "Use this value".
  */
-import { useMemo, useState } from 'react';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { StatRow, StatTile } from '@/components/stat-tile';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
+import { MotionPicture } from '@/features/tap-timer/motion-picture';
 import {
   MIN_INTERVALS_FOR_CHECKS,
   type TapTimerResult,
   tapResult,
   tapStats,
 } from '@/features/tap-timer/stats';
+import { TapPad } from '@/features/tap-timer/tap-pad';
 
 export type { TapTimerResult } from '@/features/tap-timer/stats';
+
+/** What the pad says for each kind of period: the swing wording makes "there and back" explicit. */
+export const padWords = {
+  revolution: {
+    label: 'Tap once per revolution',
+    hint: 'Tap each time the arm passes your mark',
+  },
+  swing: {
+    label: 'Tap once per full swing',
+    hint: 'Tap each time the arm passes your mark going the same way (there and back is one swing)',
+  },
+} as const;
 
 type Props = {
   /** What one tap marks, for the pad's label. */
@@ -30,6 +44,18 @@ const PAD_HEIGHT = 160;
 
 export function TapTimer({ per = 'revolution', onUse }: Props) {
   const [taps, setTaps] = useState<number[]>([]);
+  const [lit, setLit] = useState(false);
+  const unlight = useRef<ReturnType<typeof setTimeout> | null>(null);
+  useEffect(() => () => clearTimeout(unlight.current ?? undefined), []);
+  const words = padWords[per];
+  const onTap = (atMs: number) => {
+    // Two fingers landing in the same millisecond are one tap; the stats need strictly later times.
+    setTaps((t) => (t.length > 0 && atMs <= t[t.length - 1] ? t : [...t, atMs]));
+    // The pad lights briefly on each tap, so a glance confirms it was taken.
+    setLit(true);
+    clearTimeout(unlight.current ?? undefined);
+    unlight.current = setTimeout(() => setLit(false), 120);
+  };
   // Taps come from one clock and in order; a throw here would be a bug, so it is not caught.
   const stats = useMemo(() => tapStats(taps), [taps]);
   const result: TapTimerResult | null = stats ? tapResult(stats) : null;
@@ -37,21 +63,15 @@ export function TapTimer({ per = 'revolution', onUse }: Props) {
 
   return (
     <Card>
-      <Pressable
-        accessibilityRole="button"
-        accessibilityLabel={`Tap at each ${per}`}
-        accessibilityHint="Each tap marks one pass; the timer works out the period from the gaps"
-        // Press-in, not press: the moment the finger lands is the moment that counts.
-        onPressIn={() => setTaps((t) => [...t, Date.now()])}
-        style={({ pressed }) => [styles.pad, pressed && styles.padPressed]}
-      >
+      <MotionPicture kind={per} compact />
+      <TapPad onTap={onTap} label={words.label} hint={words.hint} style={[styles.pad, lit && styles.padLit]}>
         <Text variant="title" color={colors.baseText}>
-          Tap at each {per}
+          {words.label}
         </Text>
-        <Text color={colors.baseMuted}>
-          {taps.length === 0 ? 'Start when the arm passes your mark' : `${taps.length} taps`}
+        <Text color={colors.baseMuted} style={styles.center}>
+          {taps.length === 0 ? words.hint : `${taps.length} taps`}
         </Text>
-      </Pressable>
+      </TapPad>
 
       <StatRow>
         <StatTile label="Period s" value={stats?.periodS != null ? stats.periodS.toFixed(2) : '–'} />
@@ -102,7 +122,8 @@ const styles = StyleSheet.create({
     gap: space.xs,
     padding: space.lg,
   },
-  padPressed: { backgroundColor: colors.baseRaised },
+  padLit: { backgroundColor: colors.baseRaised },
+  center: { textAlign: 'center' },
   list: { gap: space.xs, padding: space.md, backgroundColor: colors.nearSoft, borderRadius: radius.md },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', justifyContent: 'flex-end' },
 });
