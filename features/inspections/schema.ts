@@ -95,6 +95,19 @@ export const readingSchema = z.object({
   spreadSI: num().min(0).nullable().optional(),
   takenAt: isoTime(),
   note: z.string().max(2000).optional(),
+  /**
+   * Present when the value was far from the design motion (features/inspections/plausibility.ts) and the
+   * inspector confirmed it rather than measuring again: the design value it was compared with (in the
+   * reading's SI unit), the ratio found, when they confirmed, and what they said about it.
+   */
+  plausibility: z
+    .object({
+      designSI: num().positive(),
+      ratio: num().min(0),
+      confirmedAt: isoTime(),
+      note: z.string().trim().max(500).optional(),
+    })
+    .optional(),
 });
 export type Reading = z.infer<typeof readingSchema>;
 
