@@ -18,6 +18,7 @@ import {
   type InspectionRecord,
   type PushResult,
 } from '@/features/inspections/schema';
+import type { ConfirmedOutOfRange } from '@/features/inspections/plausibility';
 import type { EnvelopeItem } from '@/features/loads/engine';
 import { inspectionTypes } from '@/features/registry/schema';
 
@@ -64,6 +65,11 @@ export type StoredAnalysis = {
   device: DevicePreview | null;
   /** Where the phone's preview and this analysis differ; empty when they agree. */
   differences: string[];
+  /**
+   * Motion readings far from the design motion that the inspector confirmed (features/inspections/
+   * plausibility.ts); absent when there were none, and in analyses made before the rule existed.
+   */
+  confirmedOutOfRange?: ConfirmedOutOfRange[];
 };
 
 export const inspections = sqliteTable(

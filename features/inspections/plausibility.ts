@@ -119,3 +119,59 @@ export function plausibilityText(check: PlausibilityCheck): string {
   const what = check.kind === 'amplitude' ? 'the design amplitude' : 'the design rate';
   return `${num(check.ratio, 2)} × ${what} (${designValueText(check)})`;
 }
+
+/** A reading with what the server's analysis needs to report a confirmed out-of-range value. */
+type ConfirmableReading = ReadingLike & {
+  id: string;
+  label: string;
+  plausibility?: { confirmedAt: string; note?: string };
+};
+
+export type ConfirmedOutOfRange = {
+  readingId: string;
+  label: string;
+  kind: MotionReadingKind;
+  valueSI: number;
+  designSI: number;
+  ratio: number;
+  confirmedAt: string;
+  note?: string;
+  /** False when a later reading of the same quantity replaced it in the load check. */
+  usedByLoadCheck: boolean;
+};
+
+/**
+ * The confirmed readings that are out of range against `design` (the analysis's design data, which is
+ * the one the record was checked against at ingest), each marked with whether the load check used it:
+ * the latest reading of its kind on its joint, and for a turning joint a period only when no speed was
+ * read (features/inspections/analysis.ts, `measuredInputs`).
+ */
+export function confirmedOutOfRange(
+  design: DesignData,
+  readings: readonly ConfirmableReading[],
+): ConfirmedOutOfRange[] {
+  const last = new Map<string, string>();
+  for (const r of readings) last.set(`${r.kind}:${r.joint}`, r.id);
+  const out: ConfirmedOutOfRange[] = [];
+  for (const r of readings) {
+    if (!r.plausibility) continue;
+    const check = checkAgainstDesign(design, r);
+    if (!check || check.plausible) continue;
+    const turning = design.motion.find((m) => m.joint === r.joint)?.kind === 'constant';
+    const used =
+      last.get(`${r.kind}:${r.joint}`) === r.id &&
+      !(turning && r.kind === 'period' && last.has(`speed:${r.joint}`));
+    out.push({
+      readingId: r.id,
+      label: r.label,
+      kind: check.kind,
+      valueSI: r.valueSI,
+      designSI: check.designSI,
+      ratio: check.ratio,
+      confirmedAt: r.plausibility.confirmedAt,
+      ...(r.plausibility.note ? { note: r.plausibility.note } : {}),
+      usedByLoadCheck: used,
+    });
+  }
+  return out;
+}

@@ -9,6 +9,7 @@ import { and, asc, eq, isNull } from 'drizzle-orm';
 import { inspections, type StoredAnalysis } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
 import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
+import { confirmedOutOfRange } from '@/features/inspections/plausibility';
 import type { InspectionRecord } from '@/features/inspections/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
@@ -84,6 +85,9 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
     try {
       const result = analyseInspection(design.data, row.record.readings, ANALYSIS_SAMPLES);
       analysis = summariseAnalysis(result, design, row.record.preview);
+      // The reviewer must see that a result rests on a value the inspector confirmed as out of range.
+      const confirmed = confirmedOutOfRange(design.data, row.record.readings);
+      if (confirmed.length) analysis.confirmedOutOfRange = confirmed;
     } catch (err) {
       // Stored as a note rather than retried forever: the same inputs would fail the same way.
       const detail = err instanceof Error ? err.message : String(err);

@@ -1,0 +1,40 @@
+/**
+ * The server's half of the plausibility rule (features/inspections/plausibility.ts): a new record whose
+ * motion reading is far from the design motion it is analysed against must carry the inspector's
+ * confirmation, or it is refused with an issue naming the reading's value — the phone asks before it
+ * lets such a reading count, so only an old or altered app sends one unconfirmed.
+ */
+import type Database from 'better-sqlite3';
+
+import { plausibilityText, unconfirmedImplausible } from '@/features/inspections/plausibility';
+import type { Reading } from '@/features/inspections/schema';
+import { type DesignData, designDataSchema } from '@/features/registry/design-data';
+
+type Issue = { path: string; message: string };
+
+/** Design data by version id, read once per batch; null for an id with no (readable) data. */
+export function designDataLookup(sqlite: Database.Database): (id: string) => DesignData | null {
+  const stmt = sqlite.prepare<[string], { data: string }>('SELECT data FROM design_versions WHERE id = ?');
+  const seen = new Map<string, DesignData | null>();
+  return (id) => {
+    let design = seen.get(id);
+    if (design === undefined) {
+      const row = stmt.get(id);
+      const parsed = row ? designDataSchema.safeParse(JSON.parse(row.data)) : null;
+      design = parsed?.success ? parsed.data : null;
+      seen.set(id, design);
+    }
+    return design;
+  };
+}
+
+/** Issues for each reading far from the design motion without a confirmation. */
+export function plausibilityIssues(design: DesignData | null, readings: readonly Reading[]): Issue[] {
+  if (!design) return [];
+  return unconfirmedImplausible(design, readings).map(({ index, check }) => ({
+    path: `readings.${index}.valueSI`,
+    message:
+      `Far from the design motion: ${plausibilityText(check)}. The inspector must confirm this value on the ` +
+      'phone, or measure again, before it can be accepted',
+  }));
+}
