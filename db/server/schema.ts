@@ -8,6 +8,7 @@ import type { DesignData } from '@/features/registry/design-data';
 import {
   auditActions,
   auditEntities,
+  designApprovalStates,
   designOrigins,
   inspectionTypes,
   type ChecklistContent,
@@ -184,6 +185,16 @@ export const designVersions = sqliteTable(
       .notNull()
       .references(() => users.id, { onDelete: 'restrict' }),
     createdAt: createdAt(),
+    /**
+     * Only versions in force are used by analyses and phones: one that loosens a limit waits as `pending`
+     * until a second person (not its proposer, `createdBy`) approves or rejects it. Earlier rows are in force.
+     */
+    approvalState: text('approval_state', { enum: designApprovalStates }).notNull().default('in_force'),
+    /** The version in force this one was compared with when it was made; null for a ride's first version. */
+    basedOnVersion: integer('based_on_version'),
+    decidedBy: text('decided_by').references(() => users.id, { onDelete: 'restrict' }),
+    decidedAt: text('decided_at'),
+    decisionReason: text('decision_reason'),
   },
   (t) => [
     check('design_versions_origin_check', oneOf(t.origin, designOrigins)),

@@ -274,6 +274,15 @@ export const designOrigins = ['editor', 'import_csv', 'import_json', 'seed'] as 
 export const designOriginSchema = z.enum(designOrigins);
 export type DesignOrigin = z.infer<typeof designOriginSchema>;
 
+/**
+ * Whether a version is the one analyses and phones use. A version that loosens a limit waits (`pending`)
+ * until a second person approves it; `rejected` ones stay in the history. Versions stored before approval
+ * existed are in force; the fields are optional so those records, cached on phones, still parse.
+ */
+export const designApprovalStates = ['pending', 'in_force', 'rejected'] as const;
+export const designApprovalStateSchema = z.enum(designApprovalStates);
+export type DesignApprovalState = z.infer<typeof designApprovalStateSchema>;
+
 /** A version without its data, for version lists. */
 export const designVersionInfoSchema = z.object({
   id: z.string(),
@@ -282,6 +291,12 @@ export const designVersionInfoSchema = z.object({
   createdByName: z.string(),
   reason: z.string(),
   origin: designOriginSchema,
+  approvalState: designApprovalStateSchema.optional(),
+  /** The version in force it was compared with when it was made (null: the first version). */
+  basedOnVersion: z.number().int().nullable().optional(),
+  decidedAt: z.string().nullable().optional(),
+  decidedByName: z.string().nullable().optional(),
+  decisionReason: z.string().nullable().optional(),
 });
 export type DesignVersionInfo = z.infer<typeof designVersionInfoSchema>;
 
@@ -315,6 +330,23 @@ export const designPutBodySchema = z.object({
 export type DesignPutBody = z.output<typeof designPutBodySchema>;
 
 export const designResponseSchema = z.object({ design: designVersionSchema });
+
+/**
+ * `GET /api/rides/:id/design/pending` (admins and supervisors): the revision waiting for approval and the
+ * version in force it would replace, so the comparison is drawn from both.
+ */
+export const designPendingResponseSchema = z.object({
+  pending: designVersionSchema.nullable(),
+  current: designVersionSchema.nullable(),
+});
+export type DesignPendingResponse = z.infer<typeof designPendingResponseSchema>;
+
+/** `POST /api/rides/:id/design/versions/:version/decision`: a second person approves or rejects, with why. */
+export const designDecisionBodySchema = z.object({
+  decision: z.enum(['approve', 'reject'], { error: 'approve or reject' }),
+  reason: changeReasonSchema,
+});
+export type DesignDecisionBody = z.output<typeof designDecisionBodySchema>;
 export const designVersionListResponseSchema = z.object({ versions: z.array(designVersionInfoSchema) });
 export const designVersionParamsSchema = z.object({
   id: id(),
