@@ -72,6 +72,12 @@ function makeRecords(ridesWithDesign: Ride[]): InspectionRecord[] {
       notes: 'Routine opening check.',
       preview: previewOf(analyseInspection(ride.design, readings)),
       amendsId: null,
+      declaration: {
+        text: 'I carried out this inspection and recorded only what I saw and measured.',
+        declaredAt: '2026-05-04T08:40:00.000Z',
+        declaredBy: 'bench-inspector',
+        declaredByName: 'Bench Inspector',
+      },
     };
   });
 }

@@ -35,7 +35,14 @@ export const methodsForKind: Record<ReadingKind, readonly ReadingMethod[]> = {
 };
 
 /** The kinds of instrument the register holds: every method that uses a physical instrument. */
-export const instrumentMethods = ['stopwatch', 'tachometer', 'micrometer', 'dial_indicator', 'gauge', 'other'] as const;
+export const instrumentMethods = [
+  'stopwatch',
+  'tachometer',
+  'micrometer',
+  'dial_indicator',
+  'gauge',
+  'other',
+] as const;
 export const instrumentMethodSchema = z.enum(instrumentMethods, { error: 'Choose the kind of instrument' });
 
 export const methodChoiceLabel: Record<ReadingMethod, string> = {
@@ -131,7 +138,9 @@ export function calibrationStatus(dueOn: string | null, onDate: string): Calibra
   if (dueOn === null) return { state: 'not_required' };
   const daysLeft = daysBetween(onDate, dueOn);
   if (daysLeft < 0) return { state: 'past_due', daysPast: -daysLeft };
-  return daysLeft <= CALIBRATION_WARNING_DAYS ? { state: 'due_soon', daysLeft } : { state: 'current', daysLeft };
+  return daysLeft <= CALIBRATION_WARNING_DAYS
+    ? { state: 'due_soon', daysLeft }
+    : { state: 'current', daysLeft };
 }
 
 /** True when a reading taken at `takenAt` (ISO instant) used an instrument past its due date. */
@@ -160,6 +169,28 @@ export function instrumentsFor(list: Instrument[], kind: ReadingKind, method: Re
     .filter((i) => i.retiredAt === null && i.method === method && i.kinds.includes(kind))
     .sort((a, b) => a.name.localeCompare(b.name) || a.serial.localeCompare(b.serial));
 }
+
+/** "Micrometer · Outside micrometer 125–150 mm (MC-2231)", as a record states it; older records show their method. */
+export function measuredWithWords(r: {
+  method: ReadingMethod;
+  instrument?: { name: string; serial: string } | null;
+}): string {
+  const method = readingMethodWords[r.method];
+  if (r.instrument) return `${method} · ${r.instrument.name} (${r.instrument.serial})`;
+  return r.instrument === null ? `${method} · none from the register` : method;
+}
+
+/** Short names of the methods for records and lists (the picker uses `methodChoiceLabel`). */
+export const readingMethodWords: Record<ReadingMethod, string> = {
+  typed: 'Typed in',
+  tap_timer: 'Tap timer',
+  stopwatch: 'Stopwatch',
+  tachometer: 'Tachometer',
+  micrometer: 'Micrometer',
+  dial_indicator: 'Dial indicator',
+  gauge: 'Gauge',
+  other: 'Other',
+};
 
 // ——— the declaration ———
 

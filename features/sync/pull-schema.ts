@@ -7,6 +7,7 @@ import { z } from 'zod';
 
 import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
 import { designVersionSchema } from '@/features/registry/schema';
+import { declarationSettingSchema, instrumentSchema } from '@/features/instruments/schema';
 import { rideSummarySchema } from '@/features/rides/schema';
 
 /** A design-data version of one ride (immutable once made). */
@@ -67,6 +68,10 @@ export const pullResponseSchema = z.object({
   templates: z.array(pulledTemplateSchema).optional(),
   assignments: z.array(pulledAssignmentSchema).optional(),
   decisions: z.array(pulledDecisionSchema).optional(),
+  /** The whole instrument register (retired ones included) when present: the phone replaces its copy. */
+  instruments: z.array(instrumentSchema).optional(),
+  /** The inspection body's declaration text, shown at submit. */
+  declaration: declarationSettingSchema.optional(),
   /** Ids no longer meant for this inspector (an assignment withdrawn, a ride reassigned, a template archived). */
   removed: z
     .object({

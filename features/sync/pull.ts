@@ -14,6 +14,7 @@ import {
   writeTemplates,
 } from '@/features/device-db/cache';
 import { getSyncMeta, setSyncMeta } from '@/features/device-db/sync-meta';
+import { writeDeclarationSetting, writeInstruments } from '@/features/instruments/device-cache';
 import type { SyncApi } from '@/features/sync/api';
 import { type PullResponse, pullResponseSchema } from '@/features/sync/pull-schema';
 
@@ -24,6 +25,7 @@ export type PullReport = {
   templates: number;
   assignments: number;
   decisions: number;
+  instruments: number;
   cursor: string | null;
 };
 
@@ -57,6 +59,7 @@ export async function pull(
     templates: 0,
     assignments: 0,
     decisions: 0,
+    instruments: 0,
     cursor,
   };
 
@@ -91,6 +94,8 @@ export async function pull(
       if (res.assignments) await writeAssignments(tx, res.assignments, now);
       if (res.decisions) await writeDecisions(tx, res.decisions, now);
       if (res.removed) await removeCached(tx, res.removed);
+      if (res.instruments) await writeInstruments(tx, res.instruments, now);
+      if (res.declaration) await writeDeclarationSetting(tx, res.declaration, now);
       await setSyncMeta(tx, 'pullCursor', res.cursor);
     });
     report.pages++;
@@ -99,6 +104,7 @@ export async function pull(
     report.templates += res.templates?.length ?? 0;
     report.assignments += res.assignments?.length ?? 0;
     report.decisions += res.decisions?.length ?? 0;
+    report.instruments += res.instruments?.length ?? 0;
     report.cursor = cursor = res.cursor;
     if (!res.hasMore) break;
   }

@@ -9,6 +9,7 @@ import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
 import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
+import { instrumentsRouter } from '@/server/routes/instruments';
 import { loadsRouter } from '@/server/routes/loads';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
@@ -29,6 +30,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(registerRouter(deps));
   router.use(designRouter(deps));
   router.use(checklistsRouter(deps));
+  router.use(instrumentsRouter(deps));
   router.use(schedulesRouter(deps));
   router.use(auditRouter(deps));
   router.use(adminUsersRouter(deps));

@@ -26,12 +26,14 @@ import type {
   Reading,
   ReadingKind,
 } from '@/features/inspections/schema';
+import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import type { FindingSeverity } from '@/features/review/schema';
 import { findSessionUser } from '@/server/auth/service';
 import type { Db } from '@/server/db';
 import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry/checklists';
 import { addDays, dateOf } from '@/server/registry/schedules';
 import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
+import { demoInstrumentSnapshot } from '@/server/seed/demo-instruments';
 import { demoPhoto, type DemoPhotoName } from '@/server/seed/demo-photos';
 import { analyseOne } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
@@ -62,6 +64,8 @@ type DemoReading = {
   unit: string;
   method: Reading['method'];
   spreadSI?: number;
+  /** Serial of the demo instrument it was taken with (server/seed/demo-instruments.ts). */
+  instrument?: string;
 };
 
 const speed = (joint: number, value: number, label = 'Arm speed'): DemoReading => ({
@@ -79,7 +83,8 @@ const amplitude = (value: number): DemoReading => ({
   label: 'Swing amplitude, largest side',
   valueSI: deg(value),
   unit: '°',
-  method: 'typed',
+  method: 'gauge',
+  instrument: 'HR-INC-0044',
 });
 const diameter = (joint: number, valueMm: number): DemoReading => ({
   kind: 'pin_diameter',
@@ -88,6 +93,15 @@ const diameter = (joint: number, valueMm: number): DemoReading => ({
   valueSI: mm(valueMm),
   unit: 'mm',
   method: 'micrometer',
+  // The micrometer whose range holds the pin.
+  instrument:
+    valueMm < 25
+      ? 'HR-MIC-0101'
+      : valueMm < 50
+        ? 'HR-MIC-0102'
+        : valueMm < 125
+          ? 'HR-MIC-0412'
+          : 'HR-MIC-0587',
 });
 const clearance = (
   joint: number,
@@ -100,6 +114,11 @@ const clearance = (
   valueSI: mm(valueMm),
   unit: 'mm',
   method,
+  ...(method === 'dial_indicator'
+    ? { instrument: 'HR-DIA-0233' }
+    : method === 'gauge'
+      ? { instrument: 'HR-FG-0115' }
+      : {}),
 });
 
 type DemoFinding = {
@@ -423,6 +442,7 @@ type Ctx = {
   db: Db;
   now: Date;
   rideOf: Map<string, { id: string; rideClass: (typeof rides.$inferSelect)['rideClass'] }>;
+  inspector: { id: string; name: string };
 };
 
 function buildRecord(ctx: Ctx, spec: DemoInspection): InspectionRecord | null {
@@ -440,9 +460,10 @@ function buildRecord(ctx: Ctx, spec: DemoInspection): InspectionRecord | null {
     ctx.now.getTime() - ((spec.ago.days ?? 0) * 24 + (spec.ago.hours ?? 0)) * 3_600_000,
   );
   const minutesBefore = (m: number) => new Date(submitted.getTime() - m * 60_000).toISOString();
-  const readings: Reading[] = spec.readings.map((r, i) => ({
+  const readings: Reading[] = spec.readings.map(({ instrument, ...r }, i) => ({
     id: demoUuid(`${spec.key}:reading:${i}`),
     ...r,
+    ...(instrument ? { instrument: demoInstrumentSnapshot(instrument, ctx.now) } : {}),
     spreadSI: r.spreadSI ?? null,
     takenAt: minutesBefore(40 - i * 3),
   }));
@@ -500,6 +521,12 @@ function buildRecord(ctx: Ctx, spec: DemoInspection): InspectionRecord | null {
       ? { ...preview, engineVersion: '0.9.8', status: preview.status === 'near' ? 'within' : preview.status }
       : preview,
     amendsId: spec.amends ? demoUuid(spec.amends) : null,
+    declaration: {
+      text: DEFAULT_DECLARATION_TEXT,
+      declaredAt: submitted.toISOString(),
+      declaredBy: ctx.inspector.id,
+      declaredByName: ctx.inspector.name,
+    },
   };
 }
 
@@ -524,7 +551,7 @@ export function addDemoActivity(db: Db, now: Date = new Date()): number {
       .all()
       .flatMap((r) => (r.serial ? [[r.serial, { id: r.id, rideClass: r.rideClass }] as const] : [])),
   );
-  const ctx: Ctx = { db, now, rideOf };
+  const ctx: Ctx = { db, now, rideOf, inspector };
   let added = 0;
   for (const spec of demoInspections) {
     // Already stored (or decided on since): nothing to build.

@@ -21,6 +21,7 @@ import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
 import { addDays, dateOf } from '@/server/registry/schedules';
 import { addDemoActivity } from '@/server/seed/demo-activity';
+import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { storeDemoPhotos } from '@/server/seed/demo-photos';
@@ -382,6 +383,8 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
         })
         .run();
     }
+
+    topUpDemoInstruments(tx, now);
 
     const anyTemplate = tx.select({ id: checklistTemplates.id }).from(checklistTemplates).limit(1).get();
     if (!anyTemplate)

@@ -20,6 +20,7 @@ import {
 } from '@/features/inspections/schema';
 import { zodIssues } from '@/features/api/errors';
 import { companyScope } from '@/server/auth/scope';
+import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
 import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { sqliteOf } from '@/server/sync/sqlite-client';
@@ -212,6 +213,8 @@ type BatchContext = {
   designs: Map<string, string | null>;
   /** Stored inspections the batch refers to (its ids and amendsIds), kept up to date as records go in. */
   known: Map<string, ExistingRow>;
+  /** Register entries by id, for the calibration check. */
+  instrument: ReturnType<typeof instrumentLookup>;
 };
 
 function rideOf(ctx: BatchContext, id: string): RideRow | null {
@@ -258,6 +261,10 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
       },
     ]);
   }
+
+  // After the duplicate check: a record stored before these rules may still be re-sent unchanged.
+  const untrue = recordTruthIssues(record, ctx.instrument);
+  if (untrue.length) return rejected(record.id, untrue);
 
   const ride = rideOf(ctx, record.rideId);
   if (!ride)
@@ -346,6 +353,7 @@ export function ingestBatch(
       rides: new Map(),
       designs: new Map(),
       known: new Map(),
+      instrument: instrumentLookup(db),
     };
     const referred = new Set<string>();
     for (const raw of batch.records) {

@@ -1,7 +1,8 @@
 /**
  * GET /api/sync/pull, the service: what a phone needs to work without signal (rides with their current
  * design data, checklist templates for those rides' classes, the caller's assignments, supervisors'
- * decisions on the caller's inspections), everything on the first pull and then only what changed.
+ * decisions on the caller's inspections), everything on the first pull and then only what changed; the
+ * instrument register and the declaration text come whole on every pull.
  *
  * The cursor is the time the previous answer was read, "v1:<ISO time>". Changes are found by their
  * timestamps (rows' created_at and the audit log every registry change writes), looking back a few
@@ -27,6 +28,7 @@ import type { PulledDecisionFinding, PullResponse } from '@/features/sync/pull-s
 import { companyScope } from '@/server/auth/scope';
 import type { Db } from '@/server/db';
 import { HttpError } from '@/server/http/errors';
+import { getDeclarationSetting, listInstruments } from '@/server/instruments/instruments';
 import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry/checklists';
 import { findDesignVersion } from '@/server/registry/design';
 import { findRide } from '@/server/registry/rides';
@@ -280,6 +282,11 @@ export function buildPull(
       findings: findingsOf.get(d.inspectionId) ?? [],
     }));
 
+    // ——— the instrument register and the declaration text: always whole (both are short), so the phone
+    // replaces its copy and never keeps an instrument the register has dropped ———
+    const instrumentList = listInstruments(tx);
+    const declaration = getDeclarationSetting(tx);
+
     const removed = {
       ...(removedRides.length ? { rides: removedRides } : {}),
       ...(removedAssignments.length ? { assignments: removedAssignments } : {}),
@@ -292,6 +299,8 @@ export function buildPull(
       templates,
       assignments,
       decisions,
+      instruments: instrumentList,
+      declaration,
       ...(Object.keys(removed).length ? { removed } : {}),
       hasMore: false,
     };

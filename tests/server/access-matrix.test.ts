@@ -90,6 +90,18 @@ const routes: Route[] = [
   { method: 'post', path: () => '/api/sites', body: {}, expect: ADMIN_ONLY },
   { method: 'patch', path: (i) => `/api/sites/${i.site}`, body: { kind: 'moon' }, expect: ADMIN_ONLY },
   { method: 'delete', path: () => '/api/sites/missing', expect: ADMIN_DELETE },
+  // Instrument register and the declaration text
+  { method: 'get', path: () => '/api/instruments', expect: STAFF_READ },
+  {
+    method: 'get',
+    path: () => '/api/instruments/missing',
+    expect: { ...ADMIN_GONE, supervisor: 'gone', inspector: 'gone' },
+  },
+  { method: 'post', path: () => '/api/instruments', body: {}, expect: ADMIN_ONLY },
+  { method: 'patch', path: () => '/api/instruments/missing', body: { kinds: [] }, expect: ADMIN_ONLY },
+  { method: 'delete', path: () => '/api/instruments/missing', expect: ADMIN_DELETE },
+  { method: 'get', path: () => '/api/settings/declaration', expect: STAFF_READ },
+  { method: 'put', path: () => '/api/settings/declaration', body: { text: '' }, expect: ADMIN_ONLY },
   // Design data
   { method: 'get', path: (i) => `/api/rides/${i.own}/design`, expect: STAFF_READ },
   { method: 'put', path: (i) => `/api/rides/${i.own}/design`, body: {}, expect: EDITORS },
@@ -140,7 +152,12 @@ const routes: Route[] = [
     body: {},
     expect: { admin: 403, supervisor: 403, inspector: 403, operator: 'bad' },
   },
-  { method: 'post', path: () => '/api/findings/missing/close', body: {}, expect: VERIFIERS_GONE },
+  {
+    method: 'post',
+    path: () => '/api/findings/missing/close',
+    body: { note: 'Checked', evidenceRef: 'WO-1' },
+    expect: VERIFIERS_GONE,
+  },
   {
     method: 'post',
     path: () => '/api/findings/missing/reopen',

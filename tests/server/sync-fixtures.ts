@@ -86,6 +86,14 @@ export function otherReading(i: number): Reading {
   };
 }
 
+/** The inspector's declaration every record now carries (the server refuses a record without one). */
+export const testDeclaration = {
+  text: 'I carried out this inspection and recorded only what I saw and measured.',
+  declaredAt: '2026-05-04T08:40:00.000Z',
+  declaredBy: 'demo-inspector',
+  declaredByName: 'Test Inspector',
+};
+
 /**
  * A complete record as the phone would submit it, with the phone's own preview computed by the shared
  * analysis when `design` is given.
@@ -119,6 +127,7 @@ export function makeRecord(
     notes: 'Windy, 8 m/s from the sea.',
     preview: ride.design ? previewOf(analyseInspection(ride.design, readings)) : null,
     amendsId: null,
+    declaration: testDeclaration,
     ...patch,
   };
 }
