@@ -6,6 +6,7 @@
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import {
   type ChecklistAnswer,
+  type Declaration,
   type DevicePreview,
   type InspectionRecord,
   type InspectionType,
@@ -153,8 +154,16 @@ export function draftProblems(d: Draft, template: ChecklistTemplate | null): Dra
   return problems;
 }
 
-/** The record that goes into the outbox; validated by the same schema the server applies. */
-export function toRecord(d: Draft, preview: DevicePreview | null, now: Date): InspectionRecord {
+/**
+ * The record that goes into the outbox; validated by the same schema the server applies. The server
+ * refuses a record without the inspector's declaration, which the submit step makes.
+ */
+export function toRecord(
+  d: Draft,
+  preview: DevicePreview | null,
+  now: Date,
+  declaration?: Declaration,
+): InspectionRecord {
   return inspectionRecordSchema.parse({
     id: d.id,
     rideId: d.rideId,
@@ -170,6 +179,7 @@ export function toRecord(d: Draft, preview: DevicePreview | null, now: Date): In
     notes: d.notes || undefined,
     preview,
     amendsId: d.amendsId ?? null,
+    declaration,
   });
 }
 

@@ -12,9 +12,10 @@ import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
+import { useSession } from '@/features/auth/api';
 import { useDeviceDb } from '@/features/device-db/provider';
 import { putPhotoBlob } from '@/features/device-db/photos';
-import { analyseInspection } from '@/features/inspections/analysis';
+import { analyseRecord } from '@/features/inspections/analysis';
 import { ChecklistSection } from '@/features/inspections/checklist-section';
 import {
   type Draft,
@@ -39,6 +40,9 @@ import { capturePhoto } from '@/features/inspections/photo-capture';
 import { PhotosSection } from '@/features/inspections/photos-section';
 import { ReadingsSection } from '@/features/inspections/readings-section';
 import { inspectionTypeLabel, type PhotoRef } from '@/features/inspections/schema';
+import { DeclarationConfirm } from '@/features/instruments/declaration-confirm';
+import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/field-api';
+import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import { CycleResults } from '@/features/loads/cycle-results';
 import { useUnitSystem } from '@/features/settings/unit-system';
 import { useSyncStatus } from '@/features/sync/use-sync-status';
@@ -75,6 +79,12 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const dev = useDeviceDb();
   const [photoBusy, setPhotoBusy] = useState(false);
   const [photoError, setPhotoError] = useState<string | null>(null);
+  const instruments = useFieldInstrumentsQuery();
+  const declarationSetting = useFieldDeclarationQuery();
+  const user = useSession().data?.user ?? null;
+  // Ticked afresh each time the inspector comes to submit: leaving the step withdraws it.
+  const [declared, setDeclared] = useState(false);
+  const declarationText = declarationSetting.data?.text ?? DEFAULT_DECLARATION_TEXT;
   const design = data?.design?.data ?? null;
   const template = data?.template ?? null;
   const change = editor.update;
@@ -84,11 +94,12 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const result = useMemo(() => {
     if (!design) return null;
     try {
-      return analyseInspection(design, draft.readings, 360);
+      const content = template?.version.version === draft.templateVersion ? template.version.content : null;
+      return analyseRecord(design, draft, content, 360);
     } catch {
       return null;
     }
-  }, [design, draft.readings]);
+  }, [design, draft, template]);
   const problems = draftProblems(draft, template);
   const progress = draftProgress(draft);
 
@@ -139,7 +150,10 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
       <Segmented<Section>
         label="Part of the inspection"
         value={section}
-        onChange={setSection}
+        onChange={(next) => {
+          setDeclared(false);
+          setSection(next);
+        }}
         options={[
           { value: 'checklist', label: 'Checklist' },
           { value: 'readings', label: 'Readings' },
@@ -175,6 +189,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           system={system}
           onAdd={(r) => change((d) => addReading(d, r, now()))}
           onRemove={(rid) => change((d) => removeReading(d, rid, now()))}
+          instruments={instruments.data ?? []}
           renderTimer={(onUse, per) => <TapTimer per={per} onUse={(t) => onUse(t.periodS, t.spreadS)} />}
         />
       ) : null}
@@ -238,6 +253,15 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
               </Text>
             </Card>
           )}
+          {user ? (
+            <DeclarationConfirm
+              text={declarationText}
+              name={user.name}
+              value={declared}
+              onChange={setDeclared}
+              fromDefault={declarationSetting.isSuccess && !declarationSetting.data}
+            />
+          ) : null}
           {submit.isError ? (
             <Text role="alert" color={colors.danger}>
               {(submit.error as Error).message}
@@ -246,11 +270,21 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           <Button
             label="Submit inspection"
             tone="accent"
-            disabled={problems.length > 0 || editor.saving}
+            disabled={problems.length > 0 || editor.saving || !declared || !user}
             busy={submit.isPending}
             onPress={async () => {
+              if (!declared || !user) return;
               try {
-                await submit.mutateAsync(draft);
+                await submit.mutateAsync({
+                  draft,
+                  template,
+                  declaration: {
+                    text: declarationText,
+                    declaredAt: new Date().toISOString(),
+                    declaredBy: user.id,
+                    declaredByName: user.name,
+                  },
+                });
               } catch {
                 return; // shown above from submit.error
               }

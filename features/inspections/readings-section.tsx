@@ -8,20 +8,25 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import type { Draft } from '@/features/inspections/draft';
-import { type Reading, type ReadingKind, readingMethods } from '@/features/inspections/schema';
+import { type Reading, type ReadingKind } from '@/features/inspections/schema';
+import {
+  MeasuredWithPicker,
+  measuredWithProblem,
+  nothingChosen,
+  snapshotOf,
+  type MeasuredWith,
+} from '@/features/instruments/measured-with';
+import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
 import type { DesignData } from '@/features/registry/design-data';
 import { type QuantityKind, type UnitSystem, displayUnits, formatQuantity, toSI } from '@/features/units';
 
-/** What each kind of reading is, in which quantity, and how it is usually taken (common practice). */
-const readingSpec: Record<
-  Exclude<ReadingKind, 'other'>,
-  { title: string; quantity: QuantityKind; method: (typeof readingMethods)[number] }
-> = {
-  speed: { title: 'Speed', quantity: 'rate', method: 'typed' },
-  period: { title: 'Period (one turn or one swing)', quantity: 'time', method: 'stopwatch' },
-  amplitude: { title: 'Swing amplitude (each side)', quantity: 'angle', method: 'typed' },
-  pin_diameter: { title: 'Pin diameter', quantity: 'lengthSmall', method: 'micrometer' },
-  clearance: { title: 'Bushing clearance (diametral)', quantity: 'lengthSmall', method: 'dial_indicator' },
+/** What each kind of reading is and in which quantity; how it was measured is the inspector's to say. */
+const readingSpec: Record<Exclude<ReadingKind, 'other'>, { title: string; quantity: QuantityKind }> = {
+  speed: { title: 'Speed', quantity: 'rate' },
+  period: { title: 'Period (one turn or one swing)', quantity: 'time' },
+  amplitude: { title: 'Swing amplitude (each side)', quantity: 'angle' },
+  pin_diameter: { title: 'Pin diameter', quantity: 'lengthSmall' },
+  clearance: { title: 'Bushing clearance (diametral)', quantity: 'lengthSmall' },
 };
 
 type Props = {
@@ -30,6 +35,8 @@ type Props = {
   system: UnitSystem;
   onAdd: (r: Reading) => void;
   onRemove: (id: string) => void;
+  /** The instrument register as the phone holds it. */
+  instruments?: Instrument[];
   /** A tap timer for period readings, when the screen offers one. */
   renderTimer?: (
     onUse: (periodS: number, spreadS: number) => void,
@@ -38,7 +45,15 @@ type Props = {
 };
 
 /** Per pivot: the motion readings its design motion calls for, and pin and bushing wear. */
-export function ReadingsSection({ draft, design, system, onAdd, onRemove, renderTimer }: Props) {
+export function ReadingsSection({
+  draft,
+  design,
+  system,
+  onAdd,
+  onRemove,
+  renderTimer,
+  instruments = [],
+}: Props) {
   if (!design)
     return (
       <Card>
@@ -79,6 +94,7 @@ export function ReadingsSection({ draft, design, system, onAdd, onRemove, render
                 bodyName={body.name}
                 system={system}
                 onAdd={onAdd}
+                instruments={instruments}
                 timer={kind === 'period' ? renderTimer : undefined}
                 per={motion?.kind === 'swing' ? 'swing' : 'revolution'}
               />
@@ -114,6 +130,10 @@ export function ReadingsSection({ draft, design, system, onAdd, onRemove, render
                           }
                         </Text>
                       ) : null}
+                      <Text variant="small" muted>
+                        {' · '}
+                        {measuredWithWords(r)}
+                      </Text>
                     </Text>
                     <Button
                       label="Remove"
@@ -140,7 +160,9 @@ function ReadingInput({
   onAdd,
   timer,
   per,
+  instruments,
 }: {
+  instruments: Instrument[];
   per: 'revolution' | 'swing';
   kind: Exclude<ReadingKind, 'other'>;
   joint: number;
@@ -154,8 +176,15 @@ function ReadingInput({
   const [text, setText] = useState('');
   const [error, setError] = useState<string | undefined>();
   const [timing, setTiming] = useState(false);
+  const [measured, setMeasured] = useState<MeasuredWith>(nothingChosen);
+  const [measuredError, setMeasuredError] = useState<string | undefined>();
   const label = `${bodyName}: ${spec.title.toLowerCase()}`;
-  const add = (valueSI: number, method: Reading['method'], spreadSI: number | null = null) => {
+  const add = (
+    valueSI: number,
+    method: Reading['method'],
+    spreadSI: number | null = null,
+    instrument?: Reading['instrument'],
+  ) => {
     onAdd({
       id: randomUUID(),
       kind,
@@ -164,6 +193,7 @@ function ReadingInput({
       valueSI,
       unit: unit.label,
       method,
+      ...(instrument !== undefined && { instrument }),
       spreadSI,
       takenAt: new Date().toISOString(),
     });
@@ -174,8 +204,14 @@ function ReadingInput({
     if (v <= 0 && kind !== 'clearance') return setError('Must be greater than 0');
     if (v < 0) return setError('Cannot be negative');
     setError(undefined);
+    const missing = measuredWithProblem(measured, utcDate(new Date()));
+    if (missing || !measured.method) return setMeasuredError(missing ?? undefined);
+    setMeasuredError(undefined);
     setText('');
-    add(toSI(v, spec.quantity, unit.mathjs), spec.method);
+    const { method, instrument } = measured;
+    // Each reading says how it was taken: the next one starts with nothing chosen again.
+    setMeasured(nothingChosen);
+    add(toSI(v, spec.quantity, unit.mathjs), method, null, instrument ? snapshotOf(instrument) : null);
   };
   return (
     <View style={styles.input}>
@@ -198,6 +234,20 @@ function ReadingInput({
           accessibilityLabel={`Add ${spec.title.toLowerCase()} for ${bodyName}`}
         />
       </View>
+      {/* Asked once a value is typed, so a pivot's card stays short until it is used. */}
+      {text.trim() !== '' || measured.method !== null || measuredError ? (
+        <MeasuredWithPicker
+          kind={kind}
+          instruments={instruments}
+          today={utcDate(new Date())}
+          value={measured}
+          onChange={(m) => {
+            setMeasured(m);
+            setMeasuredError(undefined);
+          }}
+          error={measuredError}
+        />
+      ) : null}
       {timer ? (
         timing ? (
           timer((periodS, spreadS) => {

@@ -8,7 +8,9 @@ import { z } from 'zod';
 
 import {
   checklistAnswerSchema,
+  declarationSchema,
   devicePreviewSchema,
+  instrumentSnapshotSchema,
   readingKindSchema,
   readingMethods,
 } from '@/features/inspections/schema';
@@ -113,6 +115,8 @@ export const inspectionReadingSchema = z.object({
   spreadSI: z.number().nullable(),
   takenAt: z.string(),
   note: z.string().nullable(),
+  /** From the record (the readings table keeps no instrument); absent from records made before the register. */
+  instrument: instrumentSnapshotSchema.nullable().optional(),
 });
 export type InspectionReading = z.infer<typeof inspectionReadingSchema>;
 
@@ -136,6 +140,18 @@ const recordSchema = z.object({
   checklist: z.array(checklistAnswerSchema).default([]),
   notes: z.string().optional(),
   preview: devicePreviewSchema.nullable().optional(),
+  /** The inspector's declaration at submit; records made before it was asked for have none. */
+  declaration: declarationSchema.optional().catch(undefined),
+  /** Only what the readings table lacks: the instrument each reading was taken with. */
+  readings: z
+    .array(
+      z.object({
+        id: z.string(),
+        instrument: instrumentSnapshotSchema.nullable().optional().catch(undefined),
+      }),
+    )
+    .optional()
+    .catch(undefined),
 });
 
 export const inspectionDetailSchema = z.object({

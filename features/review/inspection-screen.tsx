@@ -123,7 +123,7 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
         <LimitsSection inspection={inspection} pivots={pivots} system={system} />
       </Section>
       <Section title="Readings">
-        <ReadingsTable readings={inspection.readings} pivots={pivots} system={system} />
+        <ReadingsTable readings={withInstruments(inspection)} pivots={pivots} system={system} />
       </Section>
     </>
   );
@@ -286,6 +286,21 @@ function Header({
           label={`Corrected by a later inspection (${formatDateTime(a.submittedAt)})`}
         />
       ))}
+      {i.record.declaration ? (
+        <View style={styles.notes} accessibilityLabel="Declaration">
+          <Text variant="label" muted>
+            DECLARATION
+          </Text>
+          <Text>“{i.record.declaration.text}”</Text>
+          <Text variant="small" muted>
+            Made by {i.record.declaration.declaredByName} on {formatDateTime(i.record.declaration.declaredAt)}
+          </Text>
+        </View>
+      ) : (
+        <Text variant="small" muted>
+          No declaration: recorded before inspectors were asked for one.
+        </Text>
+      )}
       {i.record.notes ? (
         <View style={styles.notes}>
           <Text variant="label" muted>
@@ -296,6 +311,12 @@ function Header({
       ) : null}
     </Card>
   );
+}
+
+/** The readings with the instrument each was taken with, which only the record itself holds. */
+function withInstruments(i: InspectionDetail) {
+  const instruments = new Map((i.record.readings ?? []).map((r) => [r.id, r.instrument]));
+  return i.readings.map((r) => (instruments.has(r.id) ? { ...r, instrument: instruments.get(r.id) } : r));
 }
 
 function Fact({ label, value }: { label: string; value: string }) {

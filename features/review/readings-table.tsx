@@ -7,16 +7,11 @@ import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
+import { measuredWithWords } from '@/features/instruments/schema';
 import { formatValue } from '@/features/loads/format';
 import { formatDateTime } from '@/features/registry/text';
 import type { InspectionDetail, InspectionReading } from '@/features/review/inspection-schema';
-import {
-  formatReading,
-  formatSpread,
-  pivotName,
-  readingKindLabel,
-  readingMethodLabel,
-} from '@/features/review/review-format';
+import { formatReading, formatSpread, pivotName, readingKindLabel } from '@/features/review/review-format';
 import type { UnitSystem } from '@/features/units';
 
 const headline = {
@@ -147,8 +142,7 @@ export function ReadingsTable({
         {
           key: 'method',
           title: 'Method',
-          render: (r) =>
-            r.note ? `${readingMethodLabel[r.method]} · ${r.note}` : readingMethodLabel[r.method],
+          render: (r) => (r.note ? `${measuredWithWords(r)} · ${r.note}` : measuredWithWords(r)),
           flex: 1.3,
         },
         { key: 'at', title: 'Taken', render: (r) => formatDateTime(r.takenAt), flex: 1.1 },

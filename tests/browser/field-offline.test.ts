@@ -108,11 +108,22 @@ test('an inspection recorded offline arrives once, with its photos and a server 
   // A measured swing: amplitude and period for the pivot.
   await page.getByRole('radio', { name: 'Readings' }).click();
   await page.getByRole('textbox', { name: 'Swing amplitude (each side)' }).first().fill('70');
+  // Nothing is chosen for the inspector: the method, then the instrument from the register.
+  await page.getByRole('radio', { name: 'Gauge (feeler, caliper, angle)' }).first().click();
+  await page
+    .getByRole('radio', { name: /^Digital inclinometer, serial/ })
+    .first()
+    .click();
   await page
     .getByRole('button', { name: /^Add swing amplitude/ })
     .first()
     .click();
   await page.getByRole('textbox', { name: 'Period (one turn or one swing)' }).first().fill('6.4');
+  await page.getByRole('radio', { name: 'Stopwatch' }).first().click();
+  await page
+    .getByRole('radio', { name: /^Digital stopwatch, serial/ })
+    .first()
+    .click();
   await page
     .getByRole('button', { name: /^Add period/ })
     .first()
@@ -131,6 +142,7 @@ test('an inspection recorded offline arrives once, with its photos and a server 
 
   await page.getByRole('radio', { name: 'Submit' }).click();
   await page.getByText('Ready to submit').waitFor();
+  await page.getByRole('checkbox', { name: /make this declaration/ }).click();
   await page.getByRole('button', { name: 'Submit inspection' }).click();
   await page.waitForURL('**/today').catch(async (err) => {
     await screenshot(page, 'debug-submit');

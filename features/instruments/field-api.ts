@@ -1,0 +1,31 @@
+import { useQuery } from '@tanstack/react-query';
+
+import { useDeviceDb } from '@/features/device-db/provider';
+import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
+import { fieldKeys } from '@/features/inspections/field-api';
+
+/** Under `fieldKeys.all`, so a finished sync (which invalidates the field's keys) re-reads them. */
+export const fieldInstrumentKeys = {
+  instruments: () => [...fieldKeys.all, 'instruments'] as const,
+  declaration: () => [...fieldKeys.all, 'declaration'] as const,
+};
+
+/** The instrument register as the phone last pulled it. */
+export function useFieldInstrumentsQuery() {
+  const dev = useDeviceDb();
+  return useQuery({
+    queryKey: fieldInstrumentKeys.instruments(),
+    staleTime: 0,
+    queryFn: () => readInstruments(dev),
+  });
+}
+
+/** The declaration text as the phone last pulled it; null before the first such pull. */
+export function useFieldDeclarationQuery() {
+  const dev = useDeviceDb();
+  return useQuery({
+    queryKey: fieldInstrumentKeys.declaration(),
+    staleTime: 0,
+    queryFn: () => readDeclarationSetting(dev),
+  });
+}

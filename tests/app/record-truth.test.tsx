@@ -1,0 +1,342 @@
+/**
+ * The phone says only what happened: a reading has no measuring method or instrument until the inspector
+ * picks them (the methods offered fit the kind of reading), an instrument past its calibration due date
+ * cannot be picked and one due within 14 days is flagged, and the inspection is submitted only with the
+ * inspection body's declaration, which the record keeps with who made it and when. The register and the
+ * declaration reach the phone through the real pull engine into the real device database (in memory).
+ * Instruments, ride and people are invented demo data; the calibration rule is ours (README), after the
+ * common practice that an instrument past its calibration due date is not used for acceptance checks.
+ */
+import { QueryClientProvider } from '@tanstack/react-query';
+import { Text } from 'react-native';
+import { fireEvent, renderRouter, screen, waitFor } from 'expo-router/testing-library';
+
+import { outbox } from '@/db/device/schema';
+import { makeQueryClient } from '@/features/api/query-client';
+import { authKeys } from '@/features/auth/api';
+import type { SessionUser } from '@/features/auth/schema';
+import { loadDraft, saveDraft } from '@/features/device-db/drafts';
+import { DeviceDbProvider } from '@/features/device-db/provider';
+import { type Draft, newDraft } from '@/features/inspections/draft';
+import { InspectionScreen } from '@/features/inspections/inspection-screen';
+import { inspectionRecordSchema } from '@/features/inspections/schema';
+import { measuredWithProblem, nothingChosen } from '@/features/instruments/measured-with';
+import {
+  type Instrument,
+  calibrationStatus,
+  methodsForKind,
+  pastDueAt,
+  utcDate,
+} from '@/features/instruments/schema';
+import type { RideSummary } from '@/features/rides/schema';
+import type { SyncApi } from '@/features/sync/api';
+import { pull } from '@/features/sync/pull';
+import { rodDesign } from '@/tests/engine/support/rod-design';
+
+import { type MemoryDeviceDb, memoryDeviceDb } from '../engine/support/memory-device-db';
+
+jest.setTimeout(30_000);
+
+jest.mock('@/features/auth/token-store', () => ({
+  tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
+}));
+jest.mock('expo-crypto', () => ({
+  ...jest.requireActual('expo-crypto'),
+  randomUUID: () => jest.requireActual('node:crypto').randomUUID(),
+}));
+// The load-check charts are not under test here (and their d3 modules need their own set-up in jest).
+jest.mock('@/features/loads/cycle-results', () => ({ CycleResults: () => null }));
+jest.mock('@/features/sync/use-sync-status', () => ({
+  useSyncStatus: () => ({
+    waiting: 0,
+    photosWaiting: 0,
+    currentPhoto: null,
+    lastSuccessAt: null,
+    lastError: null,
+    online: false,
+    running: false,
+    needsAttention: [],
+    photosRefused: [],
+    syncNow: async () => {},
+    refresh: async () => {},
+    retryRecord: async () => {},
+    retryPhoto: async () => {},
+  }),
+}));
+
+const inspector: SessionUser = {
+  id: 'u-ins',
+  email: 'tobin.reyes@halvard.example',
+  name: 'Tobin Reyes',
+  role: 'inspector',
+  companyId: null,
+  companyName: null,
+};
+const ride: RideSummary = {
+  id: 'ride-rod',
+  name: 'Test Rod',
+  rideClass: 'rotating_arm',
+  description: null,
+  maker: null,
+  model: null,
+  serial: null,
+  year: null,
+  status: 'in_service',
+  statusReason: null,
+  statusSince: null,
+  siteId: null,
+  siteName: null,
+  operatorCompanyId: 'op-1',
+  operatorName: 'Tamsworth Pier Leisure',
+};
+
+const today = utcDate(new Date());
+const inDays = (n: number) => utcDate(new Date(Date.parse(`${today}T00:00:00Z`) + n * 86_400_000));
+const instrument = (
+  serial: string,
+  name: string,
+  dueInDays: number,
+  patch: Partial<Instrument> = {},
+): Instrument => ({
+  id: `i-${serial}`,
+  name,
+  serial,
+  method: 'micrometer',
+  kinds: ['pin_diameter'],
+  calibratedOn: inDays(dueInDays - 365),
+  calibrationDueOn: inDays(dueInDays),
+  notes: null,
+  retiredAt: null,
+  createdAt: '2026-01-01T00:00:00.000Z',
+  updatedAt: '2026-01-01T00:00:00.000Z',
+  ...patch,
+});
+const register: Instrument[] = [
+  instrument('MC-1', 'Outside micrometer 50–75 mm', 200),
+  instrument('MC-2', 'Outside micrometer 50–75 mm, spare', 6),
+  instrument('MC-3', 'Outside micrometer 50–75 mm, van kit', -2),
+  instrument('MC-4', 'Outside micrometer, withdrawn', 100, { retiredAt: '2026-02-01T00:00:00.000Z' }),
+  instrument('TC-1', 'Optical tachometer', 100, { method: 'tachometer', kinds: ['speed'] }),
+];
+const declarationText = 'I inspected this ride in person; this record holds only what I found and measured.';
+
+let dev: MemoryDeviceDb;
+let clients: ReturnType<typeof makeQueryClient>[] = [];
+let draft: Draft;
+
+beforeEach(async () => {
+  dev = await memoryDeviceDb();
+  const api: SyncApi = {
+    push: async () => {
+      throw new Error('not used');
+    },
+    putPhoto: async () => {},
+    pull: async () => ({
+      cursor: 'v1:2026-06-03T07:00:00.000Z',
+      rides: [ride],
+      designs: [
+        {
+          id: 'dv-1',
+          rideId: ride.id,
+          version: 1,
+          createdAt: '2026-01-01T00:00:00.000Z',
+          createdByName: 'Admin',
+          reason: 'Test',
+          origin: 'seed',
+          data: rodDesign(100, 2),
+        },
+      ],
+      instruments: register,
+      declaration: { text: declarationText, updatedAt: '2026-01-01T00:00:00.000Z', updatedByName: 'Admin' },
+    }),
+  };
+  const report = await pull(api, dev);
+  expect(report.instruments).toBe(register.length);
+  draft = newDraft({
+    id: jest.requireActual('node:crypto').randomUUID(),
+    ride,
+    designVersionId: 'dv-1',
+    template: null,
+    type: 'periodic',
+    now: new Date(),
+  });
+  await saveDraft(dev, { id: draft.id, rideId: ride.id, data: draft });
+  jest.spyOn(global, 'fetch').mockRejectedValue(new TypeError('Network request failed'));
+});
+
+afterEach(async () => {
+  jest.useRealTimers();
+  for (const c of clients) c.clear();
+  clients = [];
+  jest.restoreAllMocks();
+  await dev.close();
+});
+
+function renderRecording() {
+  const queries = makeQueryClient();
+  clients.push(queries);
+  queries.setQueryData(authKeys.session(), { user: inspector, offline: true });
+  const view = renderRouter(
+    {
+      _layout: () => {
+        const { Slot } = jest.requireActual('expo-router');
+        return (
+          <QueryClientProvider client={queries}>
+            <DeviceDbProvider open={async () => dev}>
+              <Slot />
+            </DeviceDbProvider>
+          </QueryClientProvider>
+        );
+      },
+      today: () => <Text>Today screen</Text>,
+      'inspect/[id]': function Route() {
+        const { useLocalSearchParams } = jest.requireActual('expo-router');
+        const { id } = useLocalSearchParams();
+        return <InspectionScreen id={id as string} />;
+      },
+    },
+    { initialUrl: `/inspect/${draft.id}` },
+  );
+  jest.useRealTimers();
+  return view;
+}
+
+const savedReadings = async () => (await loadDraft<Draft>(dev, draft.id))?.data.readings ?? [];
+
+describe('a reading on the phone', () => {
+  test('has no method or instrument until the inspector picks them, and cannot be kept without them', async () => {
+    renderRecording();
+    fireEvent.press(await screen.findByRole('radio', { name: 'Readings' }));
+    fireEvent.changeText(await screen.findByLabelText(/^Pin diameter/), '59.93');
+    // The methods fit a pin diameter, and none is chosen for the inspector.
+    const methods = screen
+      .getAllByRole('radio')
+      .filter((r) =>
+        ['Micrometer', 'Gauge (feeler, caliper, angle)', 'Other (say how in a note)'].includes(
+          r.props.accessibilityLabel,
+        ),
+      );
+    expect(methods).toHaveLength(3);
+    for (const m of methods) expect(m.props.accessibilityState.checked).toBe(false);
+    expect(screen.queryByRole('radio', { name: 'Tachometer' })).toBeNull();
+
+    fireEvent.press(screen.getByRole('button', { name: 'Add pin diameter for Rod' }));
+    expect(await screen.findByText('Choose how it was measured')).toBeTruthy();
+    expect(await savedReadings()).toEqual([]);
+
+    fireEvent.press(screen.getByRole('radio', { name: 'Micrometer' }));
+    // The register's micrometers for pins, the retired one left out; nothing chosen yet.
+    expect(
+      screen.getByLabelText(/^Outside micrometer 50–75 mm, serial MC-1\. Calibrated, next due/),
+    ).toBeTruthy();
+    const dueSoon = screen.getByLabelText(/serial MC-2\. Calibration due in 6 days/);
+    const pastDue = screen.getByLabelText(/serial MC-3\. Calibration past due since .* not to be used/);
+    expect(screen.queryByLabelText(/serial MC-4/)).toBeNull();
+    expect(pastDue.props.accessibilityState.disabled).toBe(true);
+    // The past-due one cannot be chosen.
+    fireEvent.press(pastDue);
+    expect(pastDue.props.accessibilityState.checked).toBe(false);
+    fireEvent.press(screen.getByRole('button', { name: 'Add pin diameter for Rod' }));
+    expect(
+      await screen.findByText('Choose the instrument, or say none from the register was used'),
+    ).toBeTruthy();
+    expect(await savedReadings()).toEqual([]);
+
+    // The flagged one may be used: it is in date today.
+    fireEvent.press(dueSoon);
+    fireEvent.press(screen.getByRole('button', { name: 'Add pin diameter for Rod' }));
+    await waitFor(async () => expect(await savedReadings()).toHaveLength(1));
+    const [reading] = await savedReadings();
+    expect(reading).toMatchObject({
+      kind: 'pin_diameter',
+      method: 'micrometer',
+      instrument: {
+        id: 'i-MC-2',
+        name: 'Outside micrometer 50–75 mm, spare',
+        serial: 'MC-2',
+        calibrationDueOn: inDays(6),
+      },
+    });
+    expect(reading.valueSI).toBeCloseTo(0.05993, 9);
+    // The next reading starts with nothing chosen again.
+    fireEvent.changeText(screen.getByLabelText(/^Pin diameter/), '59.90');
+    for (const m of screen.getAllByRole('radio', { name: 'Micrometer' }))
+      expect(m.props.accessibilityState.checked).toBe(false);
+  });
+
+  test('“None from the register” is recorded as no instrument, never as a guess', async () => {
+    renderRecording();
+    fireEvent.press(await screen.findByRole('radio', { name: 'Readings' }));
+    fireEvent.changeText(await screen.findByLabelText(/^Bushing clearance/), '0.21');
+    fireEvent.press(screen.getByRole('radio', { name: 'Gauge (feeler, caliper, angle)' }));
+    expect(screen.getByText(/has no gauge \(feeler, caliper, angle\) for this reading/)).toBeTruthy();
+    fireEvent.press(screen.getByRole('radio', { name: 'None from the register' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Add bushing clearance (diametral) for Rod' }));
+    await waitFor(async () => expect(await savedReadings()).toHaveLength(1));
+    expect((await savedReadings())[0]).toMatchObject({ method: 'gauge', instrument: null });
+  });
+});
+
+describe('submitting', () => {
+  test('needs the declaration ticked; the record keeps its text, who made it and when', async () => {
+    renderRecording();
+    fireEvent.press(await screen.findByRole('radio', { name: 'Submit' }));
+    expect(await screen.findByText(declarationText)).toBeTruthy();
+    const submit = screen.getByRole('button', { name: 'Submit inspection' });
+    expect(submit).toBeDisabled();
+    expect(screen.getByText('The inspection can be submitted once you have ticked the box.')).toBeTruthy();
+
+    const box = screen.getByRole('checkbox', { name: 'I, Tobin Reyes, make this declaration' });
+    fireEvent.press(box);
+    expect(screen.getByRole('button', { name: 'Submit inspection' })).not.toBeDisabled();
+    // Leaving the step withdraws the declaration: it is made at the moment of submitting.
+    fireEvent.press(screen.getByRole('radio', { name: 'Readings' }));
+    fireEvent.press(screen.getByRole('radio', { name: 'Submit' }));
+    expect(await screen.findByRole('button', { name: 'Submit inspection' })).toBeDisabled();
+
+    const before = new Date().toISOString();
+    fireEvent.press(screen.getByRole('checkbox', { name: 'I, Tobin Reyes, make this declaration' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Submit inspection' }));
+    expect(await screen.findByText('Today screen')).toBeTruthy();
+    const rows = await dev.db.select().from(outbox).all();
+    expect(rows).toHaveLength(1);
+    const record = inspectionRecordSchema.parse(JSON.parse(rows[0].json));
+    expect(record.declaration).toEqual({
+      text: declarationText,
+      declaredAt: expect.any(String),
+      declaredBy: 'u-ins',
+      declaredByName: 'Tobin Reyes',
+    });
+    expect(record.declaration!.declaredAt >= before).toBe(true);
+  });
+});
+
+describe('calibration rule', () => {
+  test('usable through the due date, refused the day after, flagged within 14 days', () => {
+    expect(calibrationStatus('2026-06-10', '2026-06-10')).toEqual({ state: 'due_soon', daysLeft: 0 });
+    expect(calibrationStatus('2026-06-10', '2026-06-11')).toEqual({ state: 'past_due', daysPast: 1 });
+    expect(calibrationStatus('2026-06-24', '2026-06-10')).toEqual({ state: 'due_soon', daysLeft: 14 });
+    expect(calibrationStatus('2026-06-25', '2026-06-10')).toEqual({ state: 'current', daysLeft: 15 });
+    expect(calibrationStatus(null, '2026-06-10')).toEqual({ state: 'not_required' });
+    // Across a month end and a leap day (2028-02-29 exists).
+    expect(calibrationStatus('2028-03-01', '2028-02-28')).toEqual({ state: 'due_soon', daysLeft: 2 });
+    // A reading's instant is judged by its UTC date: late on the due date is still in date.
+    expect(pastDueAt('2026-06-10', '2026-06-10T23:59:59.999Z')).toBe(false);
+    expect(pastDueAt('2026-06-10', '2026-06-11T00:00:00.000Z')).toBe(true);
+    expect(pastDueAt('2026-06-10', '2026-06-11T01:00:00+02:00')).toBe(false);
+  });
+
+  test('the form refuses a past-due instrument even if the date moved on while it was chosen', () => {
+    const chosen = { method: 'micrometer' as const, instrument: register[1] };
+    expect(measuredWithProblem(chosen, today)).toBeNull();
+    expect(measuredWithProblem(chosen, inDays(7))).toMatch(/past its calibration due date/);
+    expect(measuredWithProblem(nothingChosen, today)).toBe('Choose how it was measured');
+  });
+
+  test('the tap timer is never offered as a choice: only the timer itself sets it', () => {
+    for (const methods of Object.values(methodsForKind)) {
+      expect(methods).not.toContain('tap_timer');
+      expect(methods).not.toContain('typed');
+    }
+  });
+});
