@@ -15,7 +15,7 @@ import { colors, radius, space } from '@/components/theme';
 import { useSession } from '@/features/auth/api';
 import { useDeviceDb } from '@/features/device-db/provider';
 import { putPhotoBlob } from '@/features/device-db/photos';
-import { analyseRecord } from '@/features/inspections/analysis';
+import { analyseInspection } from '@/features/inspections/analysis';
 import { ChecklistSection } from '@/features/inspections/checklist-section';
 import {
   type Draft,
@@ -94,12 +94,11 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const result = useMemo(() => {
     if (!design) return null;
     try {
-      const content = template?.version.version === draft.templateVersion ? template.version.content : null;
-      return analyseRecord(design, draft, content, 360);
+      return analyseInspection(design, draft.readings, 360);
     } catch {
       return null;
     }
-  }, [design, draft, template]);
+  }, [design, draft.readings]);
   const problems = draftProblems(draft, template);
   const progress = draftProgress(draft);
 
@@ -277,7 +276,6 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
               try {
                 await submit.mutateAsync({
                   draft,
-                  template,
                   declaration: {
                     text: declarationText,
                     declaredAt: new Date().toISOString(),
