@@ -28,7 +28,7 @@ export default function AppLayout() {
     );
   }
   const shell = (
-    <AppShell user={session.data.user} offline={session.data.offline}>
+    <AppShell user={session.data.user}>
       <Slot />
     </AppShell>
   );

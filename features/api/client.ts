@@ -2,6 +2,7 @@ import type { z } from 'zod';
 
 import { apiErrorSchema } from '@/features/api/errors';
 import { tokenStore } from '@/features/auth/token-store';
+import { reportServerReached } from '@/features/sync/reachability';
 
 /** Same origin on the web (the server serves the app); configurable for native builds. */
 export const API_BASE = process.env.EXPO_PUBLIC_API_URL ?? '';
@@ -54,8 +55,11 @@ export async function apiFetch<T = unknown>(path: string, opts: Options<T> = {})
     });
   } catch (err) {
     if ((err as Error)?.name === 'AbortError') throw err;
+    reportServerReached(false);
     throw new OfflineError(err);
   }
+  // Any answer at all, even an error, means the server was reached: the connection banner can go.
+  reportServerReached(true);
   const text = await res.text();
   let json: unknown = undefined;
   try {

@@ -11,7 +11,7 @@ import { colors, radius, space } from '@/components/theme';
 import { useStartCorrectionMutation } from '@/features/inspections/field-api';
 import { ReportDownload } from '@/features/inspections/report-download';
 import { inspectionTypeLabel } from '@/features/inspections/schema';
-import type { FindingView, SentInspection } from '@/features/inspections/sent';
+import { type FindingView, type SentInspection, groupSent } from '@/features/inspections/sent';
 import { formatDate, formatDateTime } from '@/features/registry/text';
 import type { FindingSeverity } from '@/features/review/schema';
 
@@ -209,32 +209,37 @@ const RECENT = 5;
 
 /**
  * The Today screen's part for sent inspections: returned ones first, under their own heading, since they
- * need the inspector; then the most recent of the rest, with the whole list a press away.
+ * need the inspector; then those still on this phone (waiting, or refused by the server) under headings
+ * that say so — an inspection is listed as sent only once the server has it; then the most recent of the
+ * sent ones, with the whole list a press away.
  */
 export function SentInspections({ list }: { list: SentInspection[] }) {
   const [all, setAll] = useState(false);
-  const returned = list.filter((s) => s.needsAction);
-  const rest = list.filter((s) => !s.needsAction);
-  const shown = all ? rest : rest.slice(0, RECENT);
+  const { returned, waiting, refused, sent } = groupSent(list);
+  const shown = all ? sent : sent.slice(0, RECENT);
+  const group = (title: string, items: SentInspection[]) =>
+    items.length > 0 ? (
+      <>
+        <SectionTitle>{`${title} (${items.length})`}</SectionTitle>
+        {items.map((s) => (
+          <SentCard key={s.id} item={s} />
+        ))}
+      </>
+    ) : null;
   return (
     <>
-      {returned.length > 0 ? (
+      {group('Returned to you', returned)}
+      {group('Waiting to send', waiting)}
+      {group('Refused by the server', refused)}
+      {sent.length > 0 ? (
         <>
-          <SectionTitle>{`Returned to you (${returned.length})`}</SectionTitle>
-          {returned.map((s) => (
-            <SentCard key={s.id} item={s} />
-          ))}
-        </>
-      ) : null}
-      {rest.length > 0 ? (
-        <>
-          <SectionTitle>{`Sent (${rest.length})`}</SectionTitle>
+          <SectionTitle>{`Sent (${sent.length})`}</SectionTitle>
           {shown.map((s) => (
             <SentCard key={s.id} item={s} />
           ))}
-          {rest.length > RECENT ? (
+          {sent.length > RECENT ? (
             <Button
-              label={all ? 'Show only the latest' : `Show all ${rest.length} sent`}
+              label={all ? 'Show only the latest' : `Show all ${sent.length} sent`}
               tone="quiet"
               onPress={() => setAll((v) => !v)}
             />

@@ -167,3 +167,26 @@ export function buildSentList(input: {
   const when = (s: SentInspection) => s.submittedAt ?? s.decision?.decidedAt ?? '';
   return list.sort((a, b) => Number(b.needsAction) - Number(a.needsAction) || when(b).localeCompare(when(a)));
 }
+
+export type SentGroups = {
+  /** Returned by a supervisor and not yet corrected: the inspector has to act. */
+  returned: SentInspection[];
+  /** Still on this phone, queued or going up: never listed as sent. */
+  waiting: SentInspection[];
+  /** The server refused the record: it is not sent until the inspector sends it again. */
+  refused: SentInspection[];
+  /** On the server (accepted, or known from a decision). */
+  sent: SentInspection[];
+};
+
+/** Splits the list by where each inspection really is, keeping its order within each group. */
+export function groupSent(list: readonly SentInspection[]): SentGroups {
+  const groups: SentGroups = { returned: [], waiting: [], refused: [], sent: [] };
+  for (const s of list) {
+    if (s.needsAction) groups.returned.push(s);
+    else if (s.send === 'waiting') groups.waiting.push(s);
+    else if (s.send === 'refused') groups.refused.push(s);
+    else groups.sent.push(s);
+  }
+  return groups;
+}

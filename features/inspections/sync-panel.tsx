@@ -7,6 +7,7 @@ import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { fieldKeys } from '@/features/inspections/field-api';
+import type { SyncStatus } from '@/features/sync/sync-controller';
 import type { SyncStatusHook } from '@/features/sync/use-sync-status';
 
 function ago(iso: string | null): string {
@@ -17,13 +18,31 @@ function ago(iso: string | null): string {
   return new Date(iso).toLocaleString('en-GB', { dateStyle: 'short', timeStyle: 'short' });
 }
 
+const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
+
+/**
+ * One line on where things stand. "Everything is sent" only when nothing waits and nothing was refused:
+ * a refused record or photo is not on the server either.
+ */
+export function headline(
+  s: Pick<SyncStatus, 'waiting' | 'photosWaiting' | 'needsAttention' | 'photosRefused'>,
+) {
+  const refused = s.needsAttention.length + s.photosRefused.length;
+  if (s.waiting > 0) return `${count(s.waiting, 'inspection')} waiting to send`;
+  if (refused > 0) return `${count(refused, 'item')} refused by the server`;
+  if (s.photosWaiting > 0) return `${count(s.photosWaiting, 'photo')} waiting to send`;
+  return 'Everything is sent';
+}
+
 /** What is waiting to go to the server, how the last sync went, and a way to sync now. */
 export function SyncPanel({ status }: { status: SyncStatusHook }) {
   const client = useQueryClient();
-  // A finished sync may have brought new rides, designs or templates: re-read the device lists.
+  // A finished sync may have brought new rides, designs or templates: re-read the device lists. A sync
+  // that sent records but then failed (photos, pull) records no success, yet the sent list must move them
+  // out of "Waiting to send": so the outbox counts are followed too.
   useEffect(() => {
     void client.invalidateQueries({ queryKey: fieldKeys.all });
-  }, [status.lastSuccessAt, client]);
+  }, [status.lastSuccessAt, status.waiting, status.accepted, status.needsAttention.length, client]);
 
   const photoLine = status.currentPhoto
     ? `sending a photo: ${Math.round((100 * status.currentPhoto.sentBytes) / Math.max(1, status.currentPhoto.totalBytes))} %`
@@ -32,11 +51,7 @@ export function SyncPanel({ status }: { status: SyncStatusHook }) {
     <Card style={styles.panel} accessibilityLabel="Sync status">
       <View style={styles.row}>
         <View style={styles.grow}>
-          <Text variant="heading">
-            {status.waiting === 0 && status.photosWaiting === 0
-              ? 'Everything is sent'
-              : `${status.waiting} inspection${status.waiting === 1 ? '' : 's'} waiting to send`}
-          </Text>
+          <Text variant="heading">{headline(status)}</Text>
           <Text variant="small" muted>
             {photoLine} · last sync {ago(status.lastSuccessAt)}
             {status.online ? '' : ' · no connection'}

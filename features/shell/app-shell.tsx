@@ -10,17 +10,15 @@ import { useWide } from '@/components/use-wide';
 import { roleLabel } from '@/features/auth/api';
 import type { SessionUser } from '@/features/auth/schema';
 import { type NavItem, isActive, navItems } from '@/features/shell/nav-items';
+import { useOnline } from '@/features/sync/online-state';
 
-/** Phone: content with a bottom bar. Desktop (≥ 1024 px): a side rail with the same items. */
-export function AppShell({
-  user,
-  offline,
-  children,
-}: {
-  user: SessionUser;
-  offline: boolean;
-  children: React.ReactNode;
-}) {
+/**
+ * Phone: content with a bottom bar. Desktop (≥ 1024 px): a side rail with the same items. The connection
+ * banner follows the network and the last request (`useOnline`), not how the session was loaded: a
+ * session checked online an hour ago says nothing about the signal now.
+ */
+export function AppShell({ user, children }: { user: SessionUser; children: React.ReactNode }) {
+  const offline = !useOnline();
   const wide = useWide();
   const pathname = usePathname();
   const insets = useSafeAreaInsets();
@@ -80,7 +78,7 @@ export function AppShell({
 
 function OfflineBanner() {
   return (
-    <View style={styles.offline} accessibilityLiveRegion="polite">
+    <View style={styles.offline} accessibilityLiveRegion="polite" role="status">
       <Feather name="cloud-off" size={16} color={colors.near} />
       <Text variant="small" color={colors.near}>
         No connection — working from what is saved on this device.

@@ -12,6 +12,7 @@ import { getAllSyncMeta } from '@/features/device-db/sync-meta';
 import type { SyncApi } from '@/features/sync/api';
 import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
 import { createHttpSyncApi } from '@/features/sync/http-api';
+import { photosWaitingCount } from '@/features/sync/photo-counts';
 import { type PhotoProgress, requeuePhoto } from '@/features/sync/photo-upload';
 import { syncOnce } from '@/features/sync/sync-run';
 
@@ -25,7 +26,9 @@ export type SyncStatus = {
   accepted: number;
   /** Records the server refused, with its reasons; they stay until the inspector acts. */
   needsAttention: OutboxItem[];
+  /** Photos attached to submitted inspections and not yet uploaded (one per attachment). */
   photosWaiting: number;
+  /** Bytes still to upload: each stored photo once, however often it is attached. */
   photoBytesWaiting: number;
   photosRefused: PhotoBlob[];
   /** The photo going up now, with bytes sent so far. */
@@ -78,9 +81,9 @@ export class SyncController {
 
   /** Reads the counts again (after a submit, say) without syncing. */
   refresh = async (): Promise<void> => {
-    const [counts, rejected, photos, refused, meta] = await Promise.all([
+    const [counts, outboxItems, photos, refused, meta] = await Promise.all([
       countOutbox(this.dev),
-      listOutbox(this.dev, ['rejected']),
+      listOutbox(this.dev),
       listPhotoBlobs(this.dev, ['pending', 'uploading']),
       listPhotoBlobs(this.dev, ['rejected']),
       getAllSyncMeta(this.dev),
@@ -88,8 +91,11 @@ export class SyncController {
     this.set({
       waiting: counts.queued + counts.sending,
       accepted: counts.accepted,
-      needsAttention: rejected,
-      photosWaiting: photos.length,
+      needsAttention: outboxItems.filter((o) => o.state === 'rejected'),
+      photosWaiting: photosWaitingCount(
+        outboxItems.map((o) => o.record),
+        new Set(photos.map((p) => p.sha256)),
+      ),
       photoBytesWaiting: photos.reduce((sum, p) => sum + p.bytes, 0),
       photosRefused: refused,
       lastSuccessAt: meta.lastSuccessAt ?? null,
