@@ -19,7 +19,9 @@ import {
   checklistVersionListResponseSchema,
   companyListResponseSchema,
   companyResponseSchema,
+  type DesignDecisionBody,
   designImportCheckResponseSchema,
+  designPendingResponseSchema,
   designResponseSchema,
   designVersionListResponseSchema,
   inspectorListResponseSchema,
@@ -67,6 +69,7 @@ export const registryKeys = {
   site: (id: string) => [...registryKeys.sites(), 'one', id] as const,
   design: (rideId: string) => [...registryKeys.all, 'design', rideId] as const,
   designVersions: (rideId: string) => [...registryKeys.design(rideId), 'versions'] as const,
+  designPending: (rideId: string) => [...registryKeys.design(rideId), 'pending'] as const,
   designVersion: (rideId: string, version: number) =>
     [...registryKeys.design(rideId), 'version', version] as const,
   checklists: () => [...registryKeys.all, 'checklists'] as const,
@@ -210,6 +213,35 @@ export function useDesignImportMutation(rideId: string) {
   return useMutation({
     mutationFn: (body: DesignImport) =>
       apiFetch(`/api/rides/${enc(rideId)}/design/import`, { body, schema: designResponseSchema }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.design(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}
+
+/** The revision waiting for a second person and the version in force (admins and supervisors). */
+export function useDesignPendingQuery(rideId: string, enabled = true) {
+  return useQuery({
+    queryKey: registryKeys.designPending(rideId),
+    queryFn: () =>
+      apiFetch(`/api/rides/${enc(rideId)}/design/pending`, { schema: designPendingResponseSchema }),
+    staleTime: REGISTER_STALE_MS,
+    enabled,
+  });
+}
+
+/** A second person approves or rejects a pending revision, with a reason. */
+export function useDesignDecisionMutation(rideId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: ({ version, ...body }: DesignDecisionBody & { version: number }) =>
+      apiFetch(`/api/rides/${enc(rideId)}/design/versions/${version}/decision`, {
+        body,
+        schema: designResponseSchema,
+      }),
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),

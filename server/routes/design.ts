@@ -3,6 +3,7 @@ import express, { Router, type Request } from 'express';
 import { zodIssues } from '@/features/api/errors';
 import { designToFile, parseDesignFile, type DesignFileFormat } from '@/features/registry/csv';
 import {
+  designDecisionBodySchema,
   designExportQuerySchema,
   designImportBodySchema,
   designImportQuerySchema,
@@ -17,7 +18,9 @@ import { currentUser, requireAuth, requireRole } from '@/server/http/require-aut
 import { validate } from '@/server/http/validate';
 import {
   createDesignVersion,
+  decideDesignVersion,
   findDesignVersion,
+  findPendingDesignVersion,
   listDesignVersions,
   mustFindDesignVersion,
 } from '@/server/registry/design';
@@ -28,6 +31,7 @@ const byVersion = validate({ params: designVersionParamsSchema });
 const putInput = validate({ params: idParamsSchema, body: designPutBodySchema });
 const importQuery = validate({ params: idParamsSchema, query: designImportQuerySchema });
 const exportInput = validate({ params: idParamsSchema, query: designExportQuerySchema });
+const decisionInput = validate({ params: designVersionParamsSchema, body: designDecisionBodySchema });
 
 /** CSV and plain-text uploads; JSON bodies are parsed by the app's JSON parser already. */
 const textBody = express.text({ type: ['text/csv', 'text/plain', 'application/csv'], limit: '2mb' });
@@ -81,6 +85,13 @@ const fileSlug = (name: string) =>
  *   400 `import_invalid` with every issue's row and column, nothing saved; else 201 `{ design }` (a new
  *   version). `?dryRun=true` only checks: 200 `{ ok: true, data }`.
  * - `GET /rides/:id/design/export?format=csv|json&version=` → the file (current version by default)
+ *
+ * A new version (edited or imported) that loosens any limit of the version in force is stored as
+ * `approvalState: 'pending'` and does not take effect: "current" everywhere means the version in force.
+ * - `GET /rides/:id/design/pending` (admin, supervisor) → `{ pending, current }` (either may be null)
+ * - `POST /rides/:id/design/versions/:version/decision` (admin, supervisor, never the proposer)
+ *   `{ decision: 'approve'|'reject', reason }` → `{ design }`; 403 `own_revision`, 409 `design_not_pending`
+ * Inspectors never see a pending revision (not listed, 404 by number).
  */
 export function designRouter(deps: ApiDeps): Router {
   const router = Router();
@@ -90,6 +101,20 @@ export function designRouter(deps: ApiDeps): Router {
   router.get('/rides/:id/design', ...readers, byRide, (_req, res) => {
     const ride = mustFindRide(deps.db, byRide.params(res).id);
     const design: DesignVersion | null = findDesignVersion(deps.db, ride.id);
+    res.json({ design });
+  });
+
+  router.get('/rides/:id/design/pending', ...editors, byRide, (_req, res) => {
+    const ride = mustFindRide(deps.db, byRide.params(res).id);
+    res.json({
+      pending: findPendingDesignVersion(deps.db, ride.id),
+      current: findDesignVersion(deps.db, ride.id),
+    });
+  });
+
+  router.post('/rides/:id/design/versions/:version/decision', ...editors, decisionInput, (_req, res) => {
+    const { id, version } = decisionInput.params(res);
+    const design = decideDesignVersion(deps.db, currentUser(res), id, version, decisionInput.body(res));
     res.json({ design });
   });
 
@@ -136,6 +161,8 @@ export function designRouter(deps: ApiDeps): Router {
     const { format, version } = exportInput.query(res);
     const ride = mustFindRide(deps.db, exportInput.params(res).id);
     const design = mustFindDesignVersion(deps.db, ride.id, version);
+    if (design.approvalState === 'pending' && currentUser(res).role === 'inspector')
+      throw new HttpError(404, 'not_found', `No design data version ${version}.`);
     const fileName = `${fileSlug(ride.name)}-design-v${design.version}.${format}`;
     res
       .type(format === 'csv' ? 'text/csv; charset=utf-8' : 'application/json; charset=utf-8')
@@ -145,13 +172,17 @@ export function designRouter(deps: ApiDeps): Router {
 
   router.get('/rides/:id/design/versions', ...readers, byRide, (_req, res) => {
     const ride = mustFindRide(deps.db, byRide.params(res).id);
-    res.json({ versions: listDesignVersions(deps.db, ride.id) });
+    const withPending = currentUser(res).role !== 'inspector';
+    res.json({ versions: listDesignVersions(deps.db, ride.id, { withPending }) });
   });
 
   router.get('/rides/:id/design/versions/:version', ...readers, byVersion, (_req, res) => {
     const { id, version } = byVersion.params(res);
     const ride = mustFindRide(deps.db, id);
-    res.json({ design: mustFindDesignVersion(deps.db, ride.id, version) });
+    const design = mustFindDesignVersion(deps.db, ride.id, version);
+    if (design.approvalState === 'pending' && currentUser(res).role === 'inspector')
+      throw new HttpError(404, 'not_found', `No design data version ${version}.`);
+    res.json({ design });
   });
 
   return router;

@@ -134,7 +134,8 @@ function statementsFor(db: Db): Statements {
     ),
     findRide: sqlite.prepare(
       `SELECT r.id AS id, r.operator_company_id AS operatorCompanyId,
-         (SELECT d.id FROM design_versions d WHERE d.ride_id = r.id ORDER BY d.version DESC LIMIT 1)
+         (SELECT d.id FROM design_versions d WHERE d.ride_id = r.id AND d.approval_state = 'in_force'
+           ORDER BY d.version DESC LIMIT 1)
            AS currentDesignId
        FROM rides r WHERE r.id = ?`,
     ),

@@ -147,7 +147,8 @@ export function buildPull(
       const newDesigns = tx
         .select({ rideId: designVersions.rideId })
         .from(designVersions)
-        .where(gte(designVersions.createdAt, since))
+        // A revision approved since the cursor was made earlier: its decision is what the phone must see.
+        .where(or(gte(designVersions.createdAt, since), gte(designVersions.decidedAt, since)))
         .all()
         .map((d) => d.rideId);
       designRideIds = [...new Set([...rideIds, ...newDesigns])].filter((id) => visible.has(id));

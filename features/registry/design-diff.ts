@@ -1,0 +1,494 @@
+/**
+ * What a new design-data revision changes against the version in force, field by field, in words with
+ * units — and which changes loosen a limit. Pure (no React): the import screen, the approval view, the
+ * audit log and the server's "does this need a second person" rule all read the same list, so what the
+ * reviewer sees is exactly what decided that a review was needed.
+ *
+ * A limit is loosened when a maximum is raised, a minimum is lowered, or a limit is removed (the check it
+ * made no longer happens). Design values that feed the load model (masses, geometry, design motion) are
+ * shown as changed without a verdict: their effect on a check depends on the whole model.
+ */
+import type {
+  DesignData,
+  DesignMotion,
+  DesignPart,
+  DesignPivot,
+  DesignSeat,
+} from '@/features/registry/design-data';
+import { motionKindLabel, partGeometry, partKindLabel, point } from '@/features/registry/design-format';
+import {
+  type QuantityKind,
+  type UnitSystem,
+  formatSignificant,
+  fromSI,
+  pickDisplayUnit,
+  toSI,
+} from '@/features/units';
+
+export type DesignSection =
+  'source' | 'general' | 'bodies' | 'parts' | 'pivots' | 'seats' | 'motion' | 'rider';
+
+/** Whether the field was given before and after: changed (both), added (only after), removed (only before). */
+export type ChangeKind = 'changed' | 'added' | 'removed';
+
+/** For limits: loosened or tightened; for design values and names: changed. */
+export type ChangeEffect = 'loosened' | 'tightened' | 'changed';
+
+export type DesignChange = {
+  section: DesignSection;
+  /** The pivot, body, part, seat or joint the field belongs to ("Main pivot"); '' for ride-wide fields. */
+  where: string;
+  /** The field in words ("Max clearance"). */
+  field: string;
+  /** The value with its unit, or null when it was not given. */
+  before: string | null;
+  after: string | null;
+  kind: ChangeKind;
+  effect: ChangeEffect;
+  /** True for the fields a measured or computed value is checked against. */
+  limit: boolean;
+};
+
+export const sectionLabel: Record<DesignSection, string> = {
+  source: 'Source document',
+  general: 'Whole ride',
+  bodies: 'Bodies',
+  parts: 'Parts',
+  pivots: 'Pivots and pins',
+  seats: 'Seats',
+  motion: 'Design motion and limits',
+  rider: 'Rider limits',
+};
+
+/** The engine's near-limit margin when the design data gives none (features/loads/engine/envelope.ts). */
+const ENGINE_NEAR_MARGIN = 0.9;
+
+// ——— numbers ———
+
+/** The fewest significant figures that give `v` back exactly (to 12 figures: float noise is not a digit). */
+function exactFigures(v: number): number {
+  const target = Number(v.toPrecision(12));
+  for (let s = 1; s <= 12; s++) if (Number(v.toPrecision(s)) === target) return s;
+  return 12;
+}
+
+const minus = (text: string) => text.replace(/^-/, '−');
+
+/**
+ * Two values of one quantity in one unit, as the design documents state them: exact when the number is
+ * short (0.4 mm stays "0.4 mm", never "0.4000 mm"), otherwise four figures — and always enough figures
+ * that two different values never read the same.
+ */
+export function numberPair(
+  a: number | undefined,
+  b: number | undefined,
+  render: (v: number, figures: number) => string,
+): [string | null, string | null] {
+  // Each value as stated when that is short; a long one (a unit conversion) to four figures, more when needed.
+  const own = (v: number) => {
+    const f = exactFigures(v);
+    return f > 6 ? 4 : f;
+  };
+  let extra = 0;
+  const text = (v: number | undefined) => (v === undefined ? null : render(v, Math.min(12, own(v) + extra)));
+  while (a !== undefined && b !== undefined && a !== b && text(a) === text(b) && extra < 12) extra++;
+  return [text(a), text(b)];
+}
+
+/** Two SI values of a quantity in the person's unit system, in the unit that suits the larger one. */
+export function quantityPair(
+  a: number | undefined,
+  b: number | undefined,
+  kind: QuantityKind,
+  system: UnitSystem,
+): [string | null, string | null] {
+  const unit = pickDisplayUnit(Math.max(Math.abs(a ?? 0), Math.abs(b ?? 0)), kind, system);
+  const sep = unit.label === '°' ? '' : ' ';
+  const shown = (v: number | undefined) => (v === undefined ? undefined : fromSI(v, kind, unit.mathjs));
+  return numberPair(shown(a), shown(b), (v, f) => `${minus(formatSignificant(v, f))}${sep}${unit.label}`);
+}
+
+const plainPair = (a: number | undefined, b: number | undefined, unit: string) =>
+  numberPair(a, b, (v, f) => `${minus(formatSignificant(v, f))}${unit}`);
+
+// ——— one field ———
+
+type Sense = 'max' | 'min';
+
+/** A limit's change: raising a maximum or lowering a minimum loosens it; so does removing it. */
+export function limitEffect(
+  sense: Sense,
+  before: number | undefined,
+  after: number | undefined,
+): ChangeEffect {
+  if (before === undefined) return 'tightened';
+  if (after === undefined) return 'loosened';
+  const raised = after > before;
+  return (sense === 'max') === raised ? 'loosened' : 'tightened';
+}
+
+const kindOf = (before: unknown, after: unknown): ChangeKind =>
+  before === undefined ? 'added' : after === undefined ? 'removed' : 'changed';
+
+class Collector {
+  readonly changes: DesignChange[] = [];
+  constructor(readonly system: UnitSystem) {}
+
+  /** A numeric field; `sense` makes it a limit. */
+  number(
+    section: DesignSection,
+    where: string,
+    field: string,
+    before: number | undefined,
+    after: number | undefined,
+    format: (a: number | undefined, b: number | undefined) => [string | null, string | null],
+    sense?: Sense,
+  ) {
+    if (before === after) return;
+    const [b, a] = format(before, after);
+    this.changes.push({
+      section,
+      where,
+      field,
+      before: b,
+      after: a,
+      kind: kindOf(before, after),
+      effect: sense ? limitEffect(sense, before, after) : 'changed',
+      limit: sense !== undefined,
+    });
+  }
+
+  quantity(
+    section: DesignSection,
+    where: string,
+    field: string,
+    before: number | undefined,
+    after: number | undefined,
+    kind: QuantityKind,
+    sense?: Sense,
+  ) {
+    this.number(section, where, field, before, after, (a, b) => quantityPair(a, b, kind, this.system), sense);
+  }
+
+  /** A text field (names, kinds); `effect` for the few texts that act as a limit. */
+  text(
+    section: DesignSection,
+    where: string,
+    field: string,
+    before: string | undefined,
+    after: string | undefined,
+    effect: ChangeEffect = 'changed',
+  ) {
+    if (before === after) return;
+    this.changes.push({
+      section,
+      where,
+      field,
+      before: before ?? null,
+      after: after ?? null,
+      kind: kindOf(before, after),
+      effect,
+      limit: effect !== 'changed',
+    });
+  }
+}
+
+// ——— the whole design ———
+
+/** Items of a list matched by a key, in the new list's order, then those only the old list had. */
+function matchBy<T>(before: readonly T[], after: readonly T[], key: (t: T) => string) {
+  const keyed = (list: readonly T[]) => {
+    const seen = new Map<string, number>();
+    return list.map((item) => {
+      const k = key(item);
+      const n = seen.get(k) ?? 0;
+      seen.set(k, n + 1);
+      return { k: `${k}#${n}`, item };
+    });
+  };
+  const old = new Map(keyed(before).map(({ k, item }) => [k, item]));
+  const pairs: { before?: T; after?: T }[] = [];
+  for (const { k, item } of keyed(after)) {
+    pairs.push({ before: old.get(k), after: item });
+    old.delete(k);
+  }
+  for (const item of old.values()) pairs.push({ before: item });
+  return pairs;
+}
+
+function jointName(d: DesignData | null, joint: number): string | undefined {
+  return d?.pivots.find((p) => p.joint === joint)?.name ?? d?.bodies[joint]?.name;
+}
+
+function pivotChanges(c: Collector, before: DesignPivot | undefined, after: DesignPivot | undefined) {
+  const where = after?.name ?? before?.name ?? '';
+  const b: Partial<DesignPivot> = before ?? {};
+  const a: Partial<DesignPivot> = after ?? {};
+  const planes = (s: DesignPivot['shear'] | undefined) =>
+    s === undefined ? undefined : s === 'double' ? 'Double shear' : 'Single shear';
+  c.text('pivots', where, 'Name', b.name, a.name);
+  // Double shear carries the pin's load on two planes: declaring it halves the computed shear stress, so
+  // it loosens the pin check as surely as a raised stress limit would.
+  const shearEffect: ChangeEffect =
+    b.shear === undefined
+      ? 'changed'
+      : a.shear === undefined || a.shear === 'double'
+        ? 'loosened'
+        : 'tightened';
+  c.text(
+    'pivots',
+    where,
+    'Shear planes',
+    planes(b.shear),
+    planes(a.shear),
+    before && after ? shearEffect : 'changed',
+  );
+  c.quantity('pivots', where, 'Nominal pin diameter', b.nominalDiameterM, a.nominalDiameterM, 'lengthSmall');
+  c.quantity('pivots', where, 'Bearing length', b.bearingLengthM, a.bearingLengthM, 'lengthSmall');
+  c.quantity(
+    'pivots',
+    where,
+    'Min pin diameter',
+    b.minimumDiameterM,
+    a.minimumDiameterM,
+    'lengthSmall',
+    'min',
+  );
+  c.quantity('pivots', where, 'Max clearance', b.maxClearanceM, a.maxClearanceM, 'lengthSmall', 'max');
+  c.quantity(
+    'pivots',
+    where,
+    'Allowable shear stress',
+    b.maxShearStressPa,
+    a.maxShearStressPa,
+    'stress',
+    'max',
+  );
+  c.quantity(
+    'pivots',
+    where,
+    'Allowable bearing pressure',
+    b.maxBearingPressurePa,
+    a.maxBearingPressurePa,
+    'stress',
+    'max',
+  );
+  c.quantity('pivots', where, 'Max force', b.maxForceN, a.maxForceN, 'force', 'max');
+  c.quantity('pivots', where, 'Max torque', b.maxTorqueNm, a.maxTorqueNm, 'moment', 'max');
+}
+
+function motionChanges(
+  c: Collector,
+  where: string,
+  before: DesignMotion | undefined,
+  after: DesignMotion | undefined,
+) {
+  const b: Partial<DesignMotion> = before ?? {};
+  const a: Partial<DesignMotion> = after ?? {};
+  const kind = (m: Partial<DesignMotion>) => (m.kind ? motionKindLabel[m.kind] : undefined);
+  const rpm = (v: number | undefined) => (v === undefined ? undefined : toSI(v, 'rate', 'rpm'));
+  c.text('motion', where, 'Motion', kind(b), kind(a));
+  c.quantity('motion', where, 'Design speed', rpm(b.rpm), rpm(a.rpm), 'rate');
+  c.quantity('motion', where, 'Design amplitude', b.amplitudeRad, a.amplitudeRad, 'angle');
+  c.quantity('motion', where, 'Design period', b.periodS, a.periodS, 'time');
+  c.quantity('motion', where, 'Held at', b.angleRad, a.angleRad, 'angle');
+  c.quantity('motion', where, 'Rate limit', b.maxRateRadS, a.maxRateRadS, 'rate', 'max');
+  c.quantity('motion', where, 'Amplitude limit', b.maxAmplitudeRad, a.maxAmplitudeRad, 'angle', 'max');
+}
+
+function partText(p: DesignPart, system: UnitSystem): string {
+  const [mass] = quantityPair(p.massKg, undefined, 'mass', system);
+  return `${partKindLabel[p.kind]}, ${mass}, ${partGeometry(p, system)}`;
+}
+
+function seatText(s: DesignSeat, system: UnitSystem): string {
+  return `at ${point(s.positionM, system)}`;
+}
+
+/**
+ * Every difference from `before` (the version in force; null for a ride's first version) to `after`, in
+ * the order the design data is read: source, whole-ride values, bodies, parts, pivots, seats, motion,
+ * rider limits. Values are in `system`'s units; the effects do not depend on it.
+ */
+export function diffDesign(
+  before: DesignData | null,
+  after: DesignData,
+  system: UnitSystem = 'si',
+): DesignChange[] {
+  const c = new Collector(system);
+  const b = before;
+  c.text('source', '', 'Document', b?.source.document, after.source.document);
+  c.text('source', '', 'Revision', b?.source.revision, after.source.revision);
+
+  c.number('general', '', 'Gravity', b?.gravityMS2, after.gravityMS2, (x, y) => plainPair(x, y, ' m/s²'));
+  // The margin says where "near limit" begins: a higher one warns later, so raising it loosens the warning.
+  const margin = (d: DesignData | null) => (d ? (d.nearMargin ?? ENGINE_NEAR_MARGIN) : undefined);
+  c.number(
+    'general',
+    '',
+    'Near-limit warning from',
+    margin(b),
+    margin(after),
+    (x, y) => plainPair(x === undefined ? x : x * 100, y === undefined ? y : y * 100, ' % of a limit'),
+    'max',
+  );
+
+  const bodyCount = Math.max(b?.bodies.length ?? 0, after.bodies.length);
+  for (let i = 0; i < bodyCount; i++) {
+    const ob = b?.bodies[i];
+    const nb = after.bodies[i];
+    const where = `Body ${i + 1}`;
+    c.text('bodies', where, 'Name', ob?.name, nb?.name);
+    const tip = (t: readonly [number, number] | undefined) => (t ? point(t, system) : undefined);
+    c.text('bodies', `${where} · ${nb?.name ?? ob?.name}`, 'Next pivot at', tip(ob?.tipM), tip(nb?.tipM));
+  }
+
+  const bodyName = (d: DesignData | null, i: number) => d?.bodies[i]?.name ?? `Body ${i + 1}`;
+  for (const pair of matchBy(b?.parts ?? [], after.parts, (p) => `${p.body}|${p.name}`)) {
+    const p = pair.after ?? pair.before;
+    if (!p) continue;
+    const where = `${p.name} (${bodyName(pair.after ? after : b, p.body)})`;
+    if (!pair.before || !pair.after) {
+      c.text(
+        'parts',
+        where,
+        'Part',
+        pair.before && partText(pair.before, system),
+        pair.after && partText(pair.after, system),
+      );
+      continue;
+    }
+    c.text('parts', where, 'Kind', partKindLabel[pair.before.kind], partKindLabel[pair.after.kind]);
+    c.quantity('parts', where, 'Mass', pair.before.massKg, pair.after.massKg, 'mass');
+    c.text(
+      'parts',
+      where,
+      'Position and size',
+      partGeometry(pair.before, system),
+      partGeometry(pair.after, system),
+    );
+  }
+
+  const joints = new Set([...(b?.pivots ?? []), ...after.pivots].map((p) => p.joint));
+  for (const j of [...joints].sort((x, y) => x - y))
+    pivotChanges(
+      c,
+      b?.pivots.find((p) => p.joint === j),
+      after.pivots.find((p) => p.joint === j),
+    );
+
+  for (const pair of matchBy(b?.seats ?? [], after.seats, (s) => `${s.body}|${s.name}`)) {
+    const s = pair.after ?? pair.before;
+    if (!s) continue;
+    const where = `${s.name} (${bodyName(pair.after ? after : b, s.body)})`;
+    if (!pair.before || !pair.after) {
+      c.text(
+        'seats',
+        where,
+        'Seat',
+        pair.before && seatText(pair.before, system),
+        pair.after && seatText(pair.after, system),
+      );
+      continue;
+    }
+    c.text(
+      'seats',
+      where,
+      'Position',
+      point(pair.before.positionM, system),
+      point(pair.after.positionM, system),
+    );
+    c.quantity(
+      'seats',
+      where,
+      'Spine direction',
+      pair.before.spineAngleRad,
+      pair.after.spineAngleRad,
+      'angle',
+    );
+    const facing = (f: DesignSeat['facing']) => (f === 'ccw' ? 'Spine + 90° (mirrored)' : 'Spine − 90°');
+    c.text('seats', where, 'Chest faces', facing(pair.before.facing), facing(pair.after.facing));
+  }
+
+  const motionJoints = new Set([...(b?.motion ?? []), ...after.motion].map((m) => m.joint));
+  for (const j of [...motionJoints].sort((x, y) => x - y))
+    motionChanges(
+      c,
+      jointName(after, j) ?? jointName(b, j) ?? `Joint ${j + 1}`,
+      b?.motion.find((m) => m.joint === j),
+      after.motion.find((m) => m.joint === j),
+    );
+
+  const axes = [
+    ['gz', 'Gz (along the spine)'],
+    ['gx', 'Gx (chest to back)'],
+  ] as const;
+  for (const [axis, label] of axes) {
+    const ob = b?.rider[axis];
+    const na = after.rider[axis];
+    c.number(
+      'rider',
+      'Riders',
+      `${label} upper limit`,
+      ob?.max,
+      na?.max,
+      (x, y) => plainPair(x, y, ' g'),
+      'max',
+    );
+    c.number(
+      'rider',
+      'Riders',
+      `${label} lower limit`,
+      ob?.min,
+      na?.min,
+      (x, y) => plainPair(x, y, ' g'),
+      'min',
+    );
+  }
+  // A ride's first version has nothing to loosen: every limit it sets is new.
+  return c.changes;
+}
+
+/** True when any limit of `after` is looser than in `before` (the version in force). */
+export function loosensALimit(before: DesignData | null, after: DesignData): boolean {
+  return before !== null && diffDesign(before, after).some((ch) => ch.effect === 'loosened');
+}
+
+export const effectWord: Record<ChangeEffect, string> = {
+  loosened: 'loosened',
+  tightened: 'tightened',
+  changed: 'changed',
+};
+
+/** One change as a sentence: "Max clearance at Main pivot: 0.4 mm → 0.6 mm (loosened)". */
+export function changeText(ch: DesignChange): string {
+  const subject = ch.where ? `${ch.field} at ${ch.where}` : ch.field;
+  const value = (v: string | null) => v ?? 'not given';
+  const words =
+    ch.kind === 'added'
+      ? `${value(ch.after)} (added${ch.limit ? ', tightened' : ''})`
+      : ch.kind === 'removed'
+        ? `${value(ch.before)} removed${ch.limit ? ' (loosened: no longer checked)' : ''}`
+        : `${value(ch.before)} → ${value(ch.after)}${ch.limit ? ` (${effectWord[ch.effect]})` : ''}`;
+  return `${subject}: ${words}`;
+}
+
+export type DesignDiffSummary = { changes: number; loosened: number; tightened: number };
+
+export function summarise(changes: readonly DesignChange[]): DesignDiffSummary {
+  return {
+    changes: changes.length,
+    loosened: changes.filter((ch) => ch.effect === 'loosened').length,
+    tightened: changes.filter((ch) => ch.effect === 'tightened').length,
+  };
+}
+
+/** The summary in words: "7 changes: 2 limits loosened, 1 tightened". */
+export function summaryText(s: DesignDiffSummary): string {
+  if (s.changes === 0) return 'No change from the version in force.';
+  const parts = [
+    s.loosened ? `${s.loosened} limit${s.loosened === 1 ? '' : 's'} loosened` : null,
+    s.tightened ? `${s.tightened} limit${s.tightened === 1 ? '' : 's'} tightened` : null,
+  ].filter(Boolean);
+  return `${s.changes} change${s.changes === 1 ? '' : 's'}${parts.length ? `: ${parts.join(', ')}` : ', no limit changed'}.`;
+}
