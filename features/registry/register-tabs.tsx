@@ -17,6 +17,7 @@ export const registerTabs: Tab[] = [
   { href: '/register/checklists', label: 'Checklists', roles: staff },
   { href: '/register/companies', label: 'Companies', roles: staff },
   { href: '/register/sites', label: 'Sites', roles: staff },
+  { href: '/register/instruments', label: 'Instruments', roles: staff },
   { href: '/register/audit', label: 'Audit log', roles: planners },
 ];
 

@@ -1,0 +1,3 @@
+import { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
+
+export default InstrumentRegisterScreen;

@@ -1,0 +1,426 @@
+import Feather from '@expo/vector-icons/Feather';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { CheckField } from '@/components/check-field';
+import { ChoiceChips } from '@/components/choice-chips';
+import { DataTable } from '@/components/data-table';
+import { QueryState } from '@/components/query-state';
+import { Screen } from '@/components/screen';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { ToggleChips } from '@/components/toggle-chips';
+import { colors, space } from '@/components/theme';
+import { ApiRequestError } from '@/features/api/client';
+import { RoleGate } from '@/features/auth/role-gate';
+import type { SessionUser } from '@/features/auth/schema';
+import { type ReadingKind, readingKinds } from '@/features/inspections/schema';
+import {
+  useDeclarationSaveMutation,
+  useDeclarationSettingQuery,
+  useInstrumentDeleteMutation,
+  useInstrumentListQuery,
+  useInstrumentSaveMutation,
+} from '@/features/instruments/api';
+import {
+  type Instrument,
+  calibrationStatus,
+  calibrationWords,
+  instrumentMethods,
+  readingMethodWords,
+  utcDate,
+} from '@/features/instruments/schema';
+import { Panes } from '@/features/registry/panes';
+import { RegisterTabs } from '@/features/registry/register-tabs';
+import { formatDateTime } from '@/features/registry/text';
+import { readingKindLabel } from '@/features/review/review-format';
+
+const staff = ['admin', 'supervisor', 'inspector'] as const;
+
+/**
+ * The inspection body's measuring instruments with their calibration dates, and the declaration its
+ * inspectors make at submit. Staff read both; admins change them. Inspectors' phones get both by sync.
+ */
+export function InstrumentRegisterScreen() {
+  return <RoleGate roles={staff}>{(user) => <Register user={user} />}</RoleGate>;
+}
+
+type Editing = { id: string | null; initial: Instrument | null } | null;
+
+function Register({ user }: { user: SessionUser }) {
+  const list = useInstrumentListQuery();
+  const [editing, setEditing] = useState<Editing>(null);
+  const admin = user.role === 'admin';
+  return (
+    <Screen
+      title="Instruments"
+      subtitle="Measuring instruments, their calibration, and the inspectors’ declaration."
+      actions={
+        admin && !editing ? (
+          <Button
+            label="New instrument"
+            tone="accent"
+            icon={<Feather name="plus" size={18} color={colors.baseText} />}
+            onPress={() => setEditing({ id: null, initial: null })}
+          />
+        ) : null
+      }
+    >
+      <RegisterTabs role={user.role} />
+      <Panes
+        sideFirstOnPhone={false}
+        main={
+          <>
+            {editing ? (
+              <InstrumentForm
+                key={editing.id ?? 'new'}
+                id={editing.id}
+                initial={editing.initial}
+                onDone={() => setEditing(null)}
+              />
+            ) : null}
+            <QueryState query={list}>
+              {(instruments) => (
+                <InstrumentTable
+                  instruments={instruments}
+                  onEdit={admin ? (i) => setEditing({ id: i.id, initial: i }) : undefined}
+                />
+              )}
+            </QueryState>
+          </>
+        }
+        side={<DeclarationCard admin={admin} />}
+      />
+    </Screen>
+  );
+}
+
+const statusIcon = {
+  current: { icon: 'check-circle', color: colors.within },
+  not_required: { icon: 'minus-circle', color: colors.textMuted },
+  due_soon: { icon: 'alert-triangle', color: colors.near },
+  past_due: { icon: 'slash', color: colors.over },
+} as const;
+
+function CalibrationCell({ instrument }: { instrument: Instrument }) {
+  const status = calibrationStatus(instrument.calibrationDueOn, utcDate(new Date()));
+  const mark = statusIcon[status.state];
+  return (
+    <View style={styles.status}>
+      <Feather name={mark.icon} size={14} color={mark.color} />
+      <Text
+        variant="small"
+        color={status.state === 'current' || status.state === 'not_required' ? colors.text : mark.color}
+      >
+        {calibrationWords(instrument.calibrationDueOn, status)}
+      </Text>
+    </View>
+  );
+}
+
+function InstrumentTable({
+  instruments,
+  onEdit,
+}: {
+  instruments: Instrument[];
+  onEdit?: (i: Instrument) => void;
+}) {
+  if (instruments.length === 0)
+    return (
+      <Card>
+        <Text muted>
+          No instruments yet. Inspectors can then only record readings as “none from the register”.
+        </Text>
+      </Card>
+    );
+  // In use first, by name; retired ones after, kept for the readings that name them.
+  const rows = [...instruments].sort(
+    (a, b) => Number(a.retiredAt !== null) - Number(b.retiredAt !== null) || a.name.localeCompare(b.name),
+  );
+  return (
+    <DataTable
+      label="Instruments"
+      rows={rows}
+      rowKey={(i) => i.id}
+      columns={[
+        {
+          key: 'name',
+          title: 'Instrument',
+          flex: 1.8,
+          render: (i) => (i.retiredAt ? `${i.name} (retired)` : i.name),
+        },
+        { key: 'serial', title: 'Serial', render: (i) => i.serial },
+        { key: 'method', title: 'Kind', render: (i) => readingMethodWords[i.method] },
+        {
+          key: 'kinds',
+          title: 'Measures',
+          flex: 1.2,
+          render: (i) => i.kinds.map((k) => readingKindLabel[k]).join(', '),
+        },
+        { key: 'calibrated', title: 'Calibrated', render: (i) => i.calibratedOn ?? '—' },
+        {
+          key: 'due',
+          title: 'Next due',
+          flex: 1.8,
+          render: (i) => (i.retiredAt ? 'Retired' : <CalibrationCell instrument={i} />),
+        },
+        ...(onEdit
+          ? [
+              {
+                key: 'edit',
+                title: '',
+                flex: 0.6,
+                render: (i: Instrument) => (
+                  <Button
+                    label="Edit"
+                    tone="quiet"
+                    onPress={() => onEdit(i)}
+                    accessibilityLabel={`Edit ${i.name} (${i.serial})`}
+                  />
+                ),
+              },
+            ]
+          : []),
+      ]}
+    />
+  );
+}
+
+type FormState = {
+  name: string;
+  serial: string;
+  method: (typeof instrumentMethods)[number] | null;
+  kinds: ReadingKind[];
+  calibratedOn: string;
+  calibrationDueOn: string;
+  notes: string;
+  retired: boolean;
+};
+
+const fromInstrument = (i: Instrument | null): FormState => ({
+  name: i?.name ?? '',
+  serial: i?.serial ?? '',
+  method: (i?.method as FormState['method']) ?? null,
+  kinds: i?.kinds ?? [],
+  calibratedOn: i?.calibratedOn ?? '',
+  calibrationDueOn: i?.calibrationDueOn ?? '',
+  notes: i?.notes ?? '',
+  retired: i ? i.retiredAt !== null : false,
+});
+
+function InstrumentForm({
+  id,
+  initial,
+  onDone,
+}: {
+  id: string | null;
+  initial: Instrument | null;
+  onDone: () => void;
+}) {
+  const [form, setForm] = useState<FormState>(() => fromInstrument(initial));
+  const save = useInstrumentSaveMutation(id);
+  const remove = useInstrumentDeleteMutation();
+  const set = <K extends keyof FormState>(key: K, value: FormState[K]) =>
+    setForm((f) => ({ ...f, [key]: value }));
+  const issues = save.error instanceof ApiRequestError ? save.error.issues : [];
+  const errorOf = (path: string) => issues.find((i) => i.path === path)?.message;
+  const onSave = async () => {
+    try {
+      await save.mutateAsync({
+        name: form.name,
+        serial: form.serial,
+        // Sent as chosen (nothing chosen fails the server's check, which names the field).
+        ...(form.method ? { method: form.method } : {}),
+        kinds: form.kinds,
+        calibratedOn: form.calibratedOn.trim() || null,
+        calibrationDueOn: form.calibrationDueOn.trim() || null,
+        notes: form.notes,
+        retired: form.retired,
+      });
+      onDone();
+    } catch {
+      // Shown from save.error.
+    }
+  };
+  return (
+    <Card>
+      <Text variant="heading">{id ? `Change ${initial?.name ?? 'instrument'}` : 'New instrument'}</Text>
+      <TextField
+        label="Name"
+        value={form.name}
+        onChangeText={(v) => set('name', v)}
+        error={errorOf('name')}
+      />
+      <TextField
+        label="Serial"
+        value={form.serial}
+        onChangeText={(v) => set('serial', v)}
+        autoCapitalize="characters"
+        error={errorOf('serial')}
+      />
+      <ChoiceChips
+        label="Kind of instrument"
+        value={form.method}
+        options={instrumentMethods.map((m) => ({ value: m, label: readingMethodWords[m] }))}
+        onChange={(m) => set('method', m)}
+        error={errorOf('method')}
+      />
+      <View style={styles.group}>
+        <Text variant="label" muted>
+          MEASURES
+        </Text>
+        <ToggleChips
+          label="Readings it measures"
+          values={form.kinds}
+          options={readingKinds.map((k) => ({ value: k, label: readingKindLabel[k] }))}
+          onChange={(kinds) => set('kinds', kinds)}
+        />
+        {errorOf('kinds') ? (
+          <Text variant="small" color={colors.danger}>
+            {errorOf('kinds')}
+          </Text>
+        ) : null}
+      </View>
+      <View style={styles.dates}>
+        <View style={styles.date}>
+          <TextField
+            label="Calibrated on"
+            hint="YYYY-MM-DD"
+            value={form.calibratedOn}
+            onChangeText={(v) => set('calibratedOn', v)}
+            error={errorOf('calibratedOn')}
+          />
+        </View>
+        <View style={styles.date}>
+          <TextField
+            label="Next calibration due"
+            hint="YYYY-MM-DD; usable through this date"
+            value={form.calibrationDueOn}
+            onChangeText={(v) => set('calibrationDueOn', v)}
+            error={errorOf('calibrationDueOn')}
+          />
+        </View>
+      </View>
+      <TextField
+        label="Notes"
+        value={form.notes}
+        onChangeText={(v) => set('notes', v)}
+        multiline
+        error={errorOf('notes')}
+      />
+      {id ? (
+        <CheckField
+          label="Retired: no longer offered to inspectors (kept for the readings that name it)"
+          value={form.retired}
+          onChange={(v) => set('retired', v)}
+        />
+      ) : null}
+      {save.error && issues.length === 0 ? (
+        <Text role="alert" color={colors.danger}>
+          {(save.error as Error).message}
+        </Text>
+      ) : null}
+      <View style={styles.actions}>
+        <Button
+          label={id ? 'Save changes' : 'Add instrument'}
+          tone="accent"
+          busy={save.isPending}
+          onPress={onSave}
+        />
+        <Button label="Cancel" tone="quiet" onPress={onDone} />
+        {id ? (
+          <Button
+            label="Remove (entered by mistake)"
+            tone="quiet"
+            busy={remove.isPending}
+            onPress={async () => {
+              try {
+                await remove.mutateAsync(id);
+                onDone();
+              } catch {
+                // The list stays as it was; the error shows on retry.
+              }
+            }}
+          />
+        ) : null}
+      </View>
+    </Card>
+  );
+}
+
+function DeclarationCard({ admin }: { admin: boolean }) {
+  const setting = useDeclarationSettingQuery();
+  const save = useDeclarationSaveMutation();
+  const [draft, setDraft] = useState<string | null>(null);
+  const issues = save.error instanceof ApiRequestError ? save.error.issues : [];
+  return (
+    <Card>
+      <Text variant="heading">Inspector’s declaration</Text>
+      <Text variant="small" muted>
+        Shown to the inspector at submit; they tick it, and the record keeps this text with their name and the
+        time.
+      </Text>
+      <QueryState query={setting}>
+        {(d) =>
+          draft !== null ? (
+            <View style={styles.group}>
+              <TextField
+                label="Declaration text"
+                value={draft}
+                onChangeText={setDraft}
+                multiline
+                error={issues.find((i) => i.path === 'text')?.message}
+              />
+              <View style={styles.actions}>
+                <Button
+                  label="Save declaration"
+                  tone="accent"
+                  busy={save.isPending}
+                  onPress={async () => {
+                    try {
+                      await save.mutateAsync(draft);
+                      setDraft(null);
+                    } catch {
+                      // Shown under the field.
+                    }
+                  }}
+                />
+                <Button label="Cancel" tone="quiet" onPress={() => setDraft(null)} />
+              </View>
+            </View>
+          ) : (
+            <View style={styles.group}>
+              <View style={styles.quote}>
+                <Text>{d.text}</Text>
+              </View>
+              <Text variant="small" muted>
+                {d.updatedAt
+                  ? `Set by ${d.updatedByName ?? 'an administrator'} on ${formatDateTime(d.updatedAt)}`
+                  : 'The standard text; no administrator has set the inspection body’s own yet.'}
+              </Text>
+              {admin ? (
+                <Button label="Change the text" tone="quiet" onPress={() => setDraft(d.text)} />
+              ) : null}
+            </View>
+          )
+        }
+      </QueryState>
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  status: { flexDirection: 'row', alignItems: 'center', gap: space.xs, flexWrap: 'wrap' },
+  group: { gap: space.sm },
+  dates: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  date: { flexGrow: 1, flexBasis: 200 },
+  actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  quote: {
+    borderLeftWidth: 3,
+    borderLeftColor: colors.base,
+    backgroundColor: colors.bg,
+    padding: space.md,
+  },
+});
