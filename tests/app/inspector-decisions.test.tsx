@@ -250,7 +250,9 @@ describe('on the Today screen, offline, after a sync', () => {
     await sent({ submittedAt: '2026-06-01T08:05:00.000Z' });
     await submitDraft(dev, makeRecord({ submittedAt: '2026-06-02T08:05:00.000Z' }));
     renderToday();
-    expect(await screen.findByText('SENT (2)')).toBeTruthy();
+    // The one still in the outbox is listed under its own heading, never as sent.
+    expect(await screen.findByText('SENT (1)')).toBeTruthy();
+    expect(screen.getByText('WAITING TO SEND (1)')).toBeTruthy();
     expect(screen.getByText('Sent · awaiting review')).toBeTruthy();
     expect(screen.getByText('Waiting to send')).toBeTruthy();
   });
