@@ -10,6 +10,7 @@ import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
 import { startDeliveryLoop } from '@/server/notices/deliveries';
 import { startReminderJob } from '@/server/notices/reminders';
+import { numberRideFindings } from '@/server/review/findings';
 import { ensureQueueFresh, queueToday } from '@/server/review/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 
@@ -44,6 +45,8 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
       const result = await seedDemoData(database.db, config);
       if (result === 'seeded') logger.info('seeded the demo scenario (password: pivotwatch-demo)');
     }
+    // Findings stored before rides numbered them get their number on the ride once, before anyone reads them.
+    database.db.transaction((tx) => numberRideFindings(tx));
     // The review queue is built before the first request, so no supervisor waits for a full rebuild.
     ensureQueueFresh(database.db, queueToday());
   } catch (error) {

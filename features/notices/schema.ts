@@ -214,12 +214,27 @@ export const correctiveActionInputSchema = z.object({
 });
 export type CorrectiveActionInput = z.input<typeof correctiveActionInputSchema>;
 
-/** `POST /api/findings/:id/close`: the verifier's comment is optional. */
+/**
+ * `POST /api/findings/:id/close`: the verifier's note is required, and so is evidence of the correction —
+ * photos taken at the verification (uploaded first), a document reference (work order, NDT or maker's
+ * report), or, without either, the operator's corrective-action report already on record (the server
+ * checks that last one and answers 400 naming `evidence` when there is none).
+ */
 export const findingCloseInputSchema = z.object({
   note: z
+    .string({ error: 'Required' })
+    .trim()
+    .min(1, 'Say what you checked and found')
+    .max(2000, 'At most 2000 characters'),
+  photoShas: z
+    .array(photoSha)
+    .max(12, 'At most 12 photos')
+    .default([])
+    .transform((v) => [...new Set(v)]),
+  evidenceRef: z
     .string()
     .trim()
-    .max(2000, 'At most 2000 characters')
+    .max(300, 'At most 300 characters')
     .nullish()
     .transform((v) => (v ? v : null)),
 });

@@ -6,9 +6,8 @@ import { rideHref } from '@/features/rides/ride-card';
 
 /** An inspection opens on the review desk; a ride in the queue for its dates opens the ride's page. */
 export function queueItemHref(item: QueueItem): `/review/${string}` | `/rides/${string}` {
-  return item.kind === 'inspection' && item.inspectionId
-    ? `/review/${encodeURIComponent(item.inspectionId)}`
-    : rideHref(item.rideId);
+  // A ride flagged by a returned inspection opens that inspection.
+  return item.inspectionId ? `/review/${encodeURIComponent(item.inspectionId)}` : rideHref(item.rideId);
 }
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
@@ -20,6 +19,13 @@ export function queueItemWhat(item: QueueItem): string {
     return item.inspectorName ? `${type} inspection by ${item.inspectorName}` : `${type} inspection`;
   }
   const parts: string[] = [];
+  // A returned inspection that was over a limit or failed items: the ride stays flagged until resolved.
+  if (item.inspectionType && (item.urgency === 'over' || item.urgency === 'failed'))
+    parts.push(
+      `${inspectionTypeLabel[item.inspectionType]} inspection returned ${
+        item.urgency === 'over' ? 'over limit' : 'with failed items'
+      }, not yet resolved`,
+    );
   if (item.overdueSince) parts.push(`Inspection overdue since ${formatDate(item.overdueSince)}`);
   if (item.findingsPastDue > 0) parts.push(`${plural(item.findingsPastDue, 'finding', 'findings')} past due`);
   return parts.join(' · ') || urgencyInfo[item.urgency].description;

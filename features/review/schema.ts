@@ -162,8 +162,13 @@ export const findingSchema = z.object({
   id: z.string(),
   inspectionId: z.string(),
   rideId: z.string(),
-  /** 1, 2, 3… within its inspection, for "finding 2" in conversation and on paper. */
+  /**
+   * What people call the finding by: its number on the ride (1, 2, 3… over all the ride's inspections,
+   * never reused), or its number in its inspection for a finding stored before rides numbered them.
+   */
   number: z.number().int(),
+  /** 1, 2, 3… within its inspection. */
+  inspectionNumber: z.number().int().optional(),
   severity: findingSeveritySchema,
   description: z.string(),
   ruleRef: z.string().nullable(),
@@ -179,10 +184,44 @@ export const findingSchema = z.object({
   closedByName: z.string().nullable(),
   /** The last comment on closing or reopening. */
   stateNote: z.string().nullable(),
+  /** What the verifier accepted as evidence on closing. */
+  closeEvidence: z
+    .object({
+      photoShas: z.array(z.string()),
+      reference: z.string().nullable(),
+      correctiveActions: z.number().int(),
+    })
+    .nullable()
+    .optional(),
 });
 export type Finding = z.infer<typeof findingSchema>;
 export const findingResponseSchema = z.object({ finding: findingSchema });
 export const findingListResponseSchema = z.object({ findings: z.array(findingSchema) });
+
+// ——— ride status (rules in features/review/status-rules.ts) ———
+
+const statusReason = z
+  .string()
+  .trim()
+  .max(2000, 'At most 2000 characters')
+  .nullish()
+  .transform((v) => (v ? v : null));
+
+/**
+ * `POST /api/rides/:id/status`: a change of the ride's status outside a decision — a stop, a restriction,
+ * or a supervisor's override back towards service. The reason is required (the rules say so, and the
+ * operator reads it); the server answers 400 naming `reason` when it is missing.
+ */
+export const rideStatusChangeInputSchema = z.object({
+  status: z.enum(rideStatuses, { error: `One of ${rideStatuses.join(', ')}` }),
+  reason: statusReason,
+});
+export type RideStatusChangeInput = z.input<typeof rideStatusChangeInputSchema>;
+
+export const rideStatusChangeResponseSchema = z.object({
+  ride: z.object({ id: z.string(), status: z.enum(rideStatuses), statusReason: z.string().nullable() }),
+  notice: z.object({ id: z.string(), reference: z.string() }),
+});
 
 // ——— decisions on an inspection ———
 
@@ -199,6 +238,12 @@ export const decisionInputSchema = z
       .max(2000, 'At most 2000 characters')
       .nullish()
       .transform((v) => (v ? v : null)),
+    /**
+     * The ride's status set by this decision (a stop, a restriction…), in the same transaction and on the
+     * same single notice. Omitted: the status stays, except that approving a follow-up inspection returns
+     * a stopped ride to service when the rules allow it.
+     */
+    rideStatus: z.object({ status: z.enum(rideStatuses), reason: statusReason }).optional(),
   })
   .superRefine((d, ctx) => {
     if (d.decision === 'return' && !d.note)
@@ -214,6 +259,10 @@ export const decisionResponseSchema = z.object({
   reviewedAt: z.string(),
   reviewedByName: z.string().nullable(),
   reviewNote: z.string().nullable(),
+  /** The ride's status after the decision, and whether the decision changed it. */
+  ride: z
+    .object({ status: z.enum(rideStatuses), statusReason: z.string().nullable(), changed: z.boolean() })
+    .optional(),
 });
 export type DecisionResponse = z.infer<typeof decisionResponseSchema>;
 

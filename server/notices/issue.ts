@@ -24,6 +24,7 @@ import { deliveryKey } from '@/server/mail/mailer';
 import { deliveriesQueued } from '@/server/notices/nudge';
 import { appealText, noticeReference, rideStatusWords, roleWords } from '@/server/notices/words';
 import { recordAudit } from '@/server/registry/audit';
+import { numberRideFindings } from '@/server/review/findings';
 
 export type NoticeTx = Pick<Db, 'select' | 'insert' | 'update' | 'run' | 'get' | 'all'>;
 
@@ -114,7 +115,7 @@ function documentFindings(tx: NoticeTx, rows: FindingRow[]): NoticeDocument['fin
   const captions = captionsFor(tx, rows);
   return rows.map((f) => ({
     id: f.id,
-    number: f.number,
+    number: f.rideNumber ?? f.number,
     severity: f.severity,
     description: f.description,
     ruleRef: f.ruleRef,
@@ -143,13 +144,15 @@ function reinspectionOf(
       required: true,
       reason:
         `Finding${blocking.length > 1 ? 's' : ''} ${list} must be corrected and verified closed by the ` +
-        'inspection body before the ride carries riders again.',
+        'inspection body, and a follow-up inspection approved, before the ride carries riders again.',
     };
   }
   if (status.status !== 'in_service')
     return {
       required: true,
-      reason: `The ride is ${rideStatusWords[status.status].toLowerCase()}; it returns to service only after a re-inspection.`,
+      reason:
+        `The ride is ${rideStatusWords[status.status].toLowerCase()}; it returns to service only after an ` +
+        'approved follow-up inspection or a supervisor’s recorded override.',
     };
   return { required: false, reason: null };
 }
@@ -275,7 +278,13 @@ function commonParts(tx: NoticeTx, rideId: string, input: Common) {
  */
 export function issueInspectionNotice(
   tx: NoticeTx,
-  input: Common & { inspectionId: string },
+  input: Common & {
+    inspectionId: string;
+    /** The decision changed the ride's status: a notice is owed even without findings. */
+    statusChanged?: boolean;
+    /** What caused the change (findings, values over their limits), added to the status's reason. */
+    statusCause?: string | null;
+  },
 ): IssuedNotice | null {
   const existing = tx
     .select({ id: notices.id, reference: notices.reference })
@@ -308,15 +317,18 @@ export function issueInspectionNotice(
     .where(eq(inspections.id, input.inspectionId))
     .get();
   if (!inspection) throw notFound('No such inspection.');
+  numberRideFindings(tx, inspection.rideId);
   const rows = tx
     .select()
     .from(findings)
     .where(eq(findings.inspectionId, inspection.id))
     .orderBy(asc(findings.number))
     .all();
-  if (rows.length === 0) return null;
+  if (rows.length === 0 && !input.statusChanged) return null;
 
-  const { ride, id, ref, base, operatingStatus } = commonParts(tx, inspection.rideId, input);
+  const parts = commonParts(tx, inspection.rideId, input);
+  const { ride, id, ref, base } = parts;
+  const operatingStatus = withCause(parts.operatingStatus, input.statusCause);
   const analysis = inspection.analysis;
   const design = analysis
     ? tx
@@ -388,8 +400,15 @@ export function issueInspectionNotice(
  */
 export function issueStatusNotice(
   tx: NoticeTx,
-  input: Common & { rideId: string; reason: string | null },
+  input: Common & {
+    rideId: string;
+    reason: string | null;
+    /** The inspection whose decision changed the status (a return with a stop): its values are listed. */
+    inspectionId?: string | null;
+    statusCause?: string | null;
+  },
 ): IssuedNotice {
+  numberRideFindings(tx, input.rideId);
   const rows = tx
     .select({ finding: findings })
     .from(findings)
@@ -405,14 +424,19 @@ export function issueStatusNotice(
     .all()
     .map((r) => r.finding);
   const { ride, id, ref, base, operatingStatus } = commonParts(tx, input.rideId, input);
-  const status = { ...operatingStatus, reason: operatingStatus.reason ?? input.reason };
+  const status = withCause(
+    { ...operatingStatus, reason: operatingStatus.reason ?? input.reason },
+    input.statusCause,
+  );
   const docFindings = documentFindings(tx, rows);
+  const decided = input.inspectionId ? inspectionPart(tx, input.inspectionId) : null;
 
   const doc = noticeDocumentSchema.parse({
     ...base,
     kind: 'status_change',
-    inspection: null,
-    results: [],
+    inspection: decided?.inspection ?? null,
+    // Only what is near or over its limit: the values behind the change.
+    results: (decided?.results ?? []).filter((r) => r.status !== 'within'),
     loadSummary: [],
     checklist: null,
     findings: docFindings,
@@ -426,10 +450,53 @@ export function issueStatusNotice(
     id,
     ref,
     doc,
-    inspectionId: null,
+    inspectionId: input.inspectionId ?? null,
     rideId: ride.id,
     operatorId: ride.operatorId,
     noticeEmails: ride.noticeEmails,
     findingIds: rows.map((f) => f.id),
   });
+}
+
+const withCause = (status: NoticeDocument['operatingStatus'], cause: string | null | undefined) =>
+  cause ? { ...status, reason: status.reason ? `${status.reason} — ${cause}` : cause } : status;
+
+/** The inspection block and its results against the limits, as an inspection notice shows them. */
+function inspectionPart(tx: NoticeTx, inspectionId: string) {
+  const row = tx
+    .select({
+      id: inspections.id,
+      type: inspections.type,
+      startedAt: inspections.startedAt,
+      analysis: inspections.analysis,
+      inspectorName: users.name,
+    })
+    .from(inspections)
+    .innerJoin(users, eq(users.id, inspections.inspectorId))
+    .where(eq(inspections.id, inspectionId))
+    .get();
+  if (!row) throw notFound('No such inspection.');
+  return {
+    inspection: {
+      id: row.id,
+      type: row.type,
+      typeLabel: `${inspectionTypeLabel[row.type]} inspection`,
+      date: row.startedAt.slice(0, 10),
+      inspectorName: row.inspectorName,
+      inspectorCredential: null,
+      designVersion: row.analysis?.designVersion ?? null,
+      engineVersion: row.analysis?.engineVersion ?? null,
+    },
+    results: row.analysis ? resultsOf(row.analysis.envelope) : [],
+  };
+}
+
+function resultsOf(envelope: Parameters<typeof sortByConcern>[0]): NoticeDocument['results'] {
+  return sortByConcern(envelope).map((item) => ({
+    label: item.label,
+    value: formatValue(item.value, item.quantity, 'si'),
+    limit: formatLimit(item.limit, item.quantity, 'si'),
+    ratio: Number.isFinite(item.ratio) ? item.ratio : null,
+    status: item.status,
+  }));
 }

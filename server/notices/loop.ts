@@ -1,14 +1,16 @@
 /**
  * After a notice is issued: who may read it, the operator's acknowledgement, the corrective action the
- * operator reports on each finding, and the verification that closes a finding or reopens it. The ride's
- * status follows the findings that forbid operation: closing the last of them puts a stopped or restricted
- * ride back in service, reopening one stops a ride in service; each such change issues a status notice.
+ * operator reports on each finding, and the verification that closes a finding or reopens it, under the
+ * status rules (`features/review/status-rules.ts`). Closing needs the verifier's note and evidence and
+ * never changes the ride's status: closing the last finding that forbids operation on a stopped ride books
+ * its follow-up inspection, and only that inspection's approval (or a supervisor's override) puts the ride
+ * back in service. Reopening such a finding stops a ride in service, with one status notice.
  * Every change is one transaction with its audit entries and the ride's review-queue rows.
  *
  * Operators reach notices and findings only through notices addressed to their company; anything else
  * answers the same 404 as a missing record, so ids cannot be probed.
  */
-import { and, asc, count, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 
@@ -18,6 +20,7 @@ import { findings } from '@/db/server/review';
 import { companies, rides, users } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
 import type {
+  findingCloseInputSchema,
   correctiveActionInputSchema,
   CorrectiveAction,
   FindingStateResponse,
@@ -34,8 +37,8 @@ import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { issueStatusNotice } from '@/server/notices/issue';
 import { recordAudit } from '@/server/registry/audit';
-import { mustFindRide } from '@/server/registry/rides';
-import { findingRows } from '@/server/review/findings';
+import { findingNumber, findingRows } from '@/server/review/findings';
+import { applyStatus, ensureFollowUp, mustTransition } from '@/server/review/ride-status';
 import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
 
 type Reader = Pick<Db, 'select'>;
@@ -251,7 +254,7 @@ function mustSeeFinding(db: Reader, user: SessionUser, id: string): FindingHead 
     .select({
       id: findings.id,
       rideId: findings.rideId,
-      number: findings.number,
+      number: findingNumber,
       severity: findings.severity,
       state: findings.state,
       stateNote: findings.stateNote,
@@ -404,58 +407,6 @@ export function reportCorrectiveAction(
 
 const forbidsOperation = (severity: FindingSeverity) => !severityInfo[severity].mayOperate;
 
-/** Findings of the ride other than `exceptId`, not closed, that forbid operation. */
-function otherBlockingFindings(tx: Reader, rideId: string, exceptId: string): number {
-  const blocking = Object.entries(severityInfo)
-    .filter(([, info]) => !info.mayOperate)
-    .map(([severity]) => severity as FindingSeverity);
-  return (
-    tx
-      .select({ n: count() })
-      .from(findings)
-      .where(
-        and(
-          eq(findings.rideId, rideId),
-          ne(findings.id, exceptId),
-          ne(findings.state, 'closed'),
-          inArray(findings.severity, blocking),
-        ),
-      )
-      .get()?.n ?? 0
-  );
-}
-
-/** Sets the ride's status (with its audit entry) and issues the status notice. */
-function rideFollows(
-  tx: Tx,
-  user: SessionUser,
-  rideId: string,
-  status: 'in_service' | 'out_of_service',
-  reason: string,
-  ctx: { now: Date; appUrl: string },
-) {
-  const before = mustFindRide(tx, rideId);
-  tx.update(rides)
-    .set({ status, statusReason: reason, statusSince: ctx.now.toISOString() })
-    .where(eq(rides.id, rideId))
-    .run();
-  const after = mustFindRide(tx, rideId);
-  recordAudit(tx, {
-    userId: user.id,
-    entity: 'ride',
-    entityId: rideId,
-    action: 'update',
-    rideId,
-    summary: `Ride ${after.name} changed (status ${before.status} → ${after.status})`,
-    before,
-    after,
-  });
-  const notice = issueStatusNotice(tx, { rideId, userId: user.id, now: ctx.now, appUrl: ctx.appUrl, reason });
-  return { id: notice.id, reference: notice.reference };
-}
-
-export const returnToServiceReason = 'Findings verified closed';
-
 function mustBeIssued(f: FindingHead) {
   if (f.reviewState !== 'approved')
     throw conflict(
@@ -468,7 +419,10 @@ function mustBeIssued(f: FindingHead) {
  * The inspection body's verdict on a finding: closed (verified corrected) or open again (not corrected
  * after all), with the comment. Both are one change of state; only the ride's follow-up differs.
  */
-type Verdict = { to: 'closed'; note: string | null } | { to: 'open'; note: string };
+type CloseInput = z.output<typeof findingCloseInputSchema>;
+type Verdict = ({ to: 'closed' } & CloseInput) | { to: 'open'; note: string };
+
+type Evidence = { photoShas: string[]; reference: string | null; correctiveActions: number };
 
 const alreadyIn = {
   closed: () => conflict('This finding is already closed.', 'already_closed'),
@@ -487,6 +441,18 @@ function setFindingState(
     mustBeIssued(before);
     if (before.state === verdict.to) throw alreadyIn[verdict.to]();
     const closing = verdict.to === 'closed';
+    const ride = rideNow(tx, before.rideId);
+    const blocking = forbidsOperation(before.severity);
+    let evidence: Evidence | null = null;
+    if (verdict.to === 'closed') {
+      assertPhotosUploaded(tx, verdict.photoShas);
+      const reports = actionsOf(tx, [findingId]).get(findingId)?.length ?? 0;
+      evidence = { photoShas: verdict.photoShas, reference: verdict.evidenceRef, correctiveActions: reports };
+      mustTransition(ride.status, 'finding_closed', user.role, {
+        note: verdict.note,
+        evidence: verdict.photoShas.length > 0 || verdict.evidenceRef !== null || reports > 0,
+      });
+    }
     const at = ctx.now.toISOString();
     const closedAt = closing ? at : null;
     tx.update(findings)
@@ -495,6 +461,7 @@ function setFindingState(
         closedAt,
         closedBy: closing ? user.id : null,
         stateNote: verdict.note,
+        closeEvidence: evidence,
         updatedAt: at,
         updatedBy: user.id,
       })
@@ -504,34 +471,55 @@ function setFindingState(
       state: verdict.to,
       stateNote: verdict.note,
       closedAt,
+      ...(evidence ? { evidence } : {}),
     });
-    const ride = rideNow(tx, before.rideId);
     let statusNotice: FindingStateResponse['statusNotice'] = null;
-    if (forbidsOperation(before.severity)) {
-      if (verdict.to === 'closed') {
-        if (ride.status !== 'in_service' && otherBlockingFindings(tx, before.rideId, findingId) === 0)
-          statusNotice = rideFollows(tx, user, before.rideId, 'in_service', returnToServiceReason, ctx);
-      } else if (ride.status === 'in_service') {
-        statusNotice = rideFollows(tx, user, before.rideId, 'out_of_service', verdict.note, ctx);
+    if (blocking && verdict.to === 'open') {
+      const check = mustTransition(ride.status, 'blocking_finding_reopened', user.role, {
+        note: verdict.note,
+      });
+      if (check.to !== ride.status) {
+        applyStatus(tx, {
+          userId: user.id,
+          rideId: before.rideId,
+          event: 'blocking_finding_reopened',
+          to: check.to,
+          override: false,
+          reason: verdict.note,
+          now: ctx.now,
+          findingId,
+        });
+        const notice = issueStatusNotice(tx, {
+          rideId: before.rideId,
+          userId: user.id,
+          now: ctx.now,
+          appUrl: ctx.appUrl,
+          reason: verdict.note,
+          statusCause: `Because finding ${before.number} (${severityInfo[before.severity].label}) was reopened.`,
+        });
+        statusNotice = { id: notice.id, reference: notice.reference };
       }
     }
+    // The last blocking finding verified on a stopped ride: its follow-up inspection is booked now.
+    if (blocking && closing) ensureFollowUp(db, tx, user.id, before.rideId, ctx.now);
     refreshQueue(tx, queueToday(ctx.now), [before.rideId]);
     return { finding: findingNow(tx, findingId), ride: rideNow(tx, before.rideId), statusNotice };
   });
 }
 
 /**
- * Verified corrected: the finding is closed. When it was the ride's last open finding that forbids
- * operation and the ride is out of service or restricted, the ride returns to service.
+ * Verified corrected: the finding is closed, with the verifier's note and evidence. The ride's status
+ * stays: when it was the last open finding that forbids operation on a stopped ride, the follow-up
+ * inspection is booked, and its approval returns the ride to service.
  */
 export function closeFinding(
   db: Db,
   user: SessionUser,
   findingId: string,
-  note: string | null,
+  input: CloseInput,
   ctx: { now: Date; appUrl: string },
 ): FindingStateResponse {
-  return setFindingState(db, user, findingId, { to: 'closed', note }, ctx);
+  return setFindingState(db, user, findingId, { to: 'closed', ...input }, ctx);
 }
 
 /**

@@ -13,6 +13,7 @@ import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { assertSite } from '@/server/registry/sites';
 import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { assertPatchTransition } from '@/server/review/ride-status';
 
 const rideListColumns = {
   id: rides.id,
@@ -184,6 +185,8 @@ export function updateRide(
     if (patch.siteId) assertSite(tx, patch.siteId);
     const status = patch.status ?? before.status;
     const reason = patch.statusReason !== undefined ? patch.statusReason : before.statusReason;
+    // Every change of status goes through the status rules; easing a stop is refused here (override).
+    if (status !== before.status) assertPatchTransition(tx, userId, id, before.status, status, reason, now);
     // Correcting the reason's wording keeps the date; only a change of status starts a new period.
     const statusChanged = status !== before.status;
     const since =

@@ -1,22 +1,38 @@
 /**
  * A supervisor's decision on a submitted inspection: approve it, or return it to the inspector with a
  * comment (the phone shows it after its next sync). Approving also records the inspection as done on the
- * ride's schedule of that type, so the next due date moves. The decision, the schedule change, their
- * audit entries and the ride's queue rows are one transaction.
+ * ride's schedule of that type, so the next due date moves. The decision may set the ride's status (a
+ * stop, a restriction) under the status rules; approving a follow-up inspection returns a stopped ride
+ * to service when the rules allow it. The decision, the status change, the schedule change, their audit
+ * entries, the ride's queue rows and the decision's ONE notice to the operator are one transaction.
  */
-import { and, eq } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { inspections } from '@/db/server/inspections';
+import { findings } from '@/db/server/review';
 import { inspectionSchedules } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
-import type { decisionInputSchema, DecisionResponse } from '@/features/review/schema';
+import { formatLimit, formatValue } from '@/features/loads/format';
+import { severityInfo, type decisionInputSchema, type DecisionResponse } from '@/features/review/schema';
+import { checkTransition, eventForStatus } from '@/features/review/status-rules';
 import type { Db } from '@/server/db';
 import { conflict } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { dateOf, updateSchedule } from '@/server/registry/schedules';
 import { mustSeeInspection, type InspectionHead } from '@/server/review/findings';
-import { issueInspectionNotice } from '@/server/notices/issue';
+import { issueInspectionNotice, issueStatusNotice } from '@/server/notices/issue';
+import { mustFindRide } from '@/server/registry/rides';
+import { findingNumber } from '@/server/review/findings';
+import {
+  applyStatus,
+  blockingSeverities,
+  ensureFollowUp,
+  followUpDone,
+  mustTransition,
+  openBlockingFindings,
+  type AppliedChange,
+} from '@/server/review/ride-status';
 import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
@@ -29,6 +45,41 @@ const stateOf = (i: InspectionHead) => ({
 });
 
 const pastTense = { approved: 'approved', returned: 'returned' } as const;
+
+/**
+ * What an inspection gives as the cause of a change of status: its findings that forbid operation and
+ * its values over their limits, in words for the notice ("finding 7 (Stop now); Pin diameter, pivot 2:
+ * 139.05 mm against ≥ 139.0 mm, over limit").
+ */
+export function causesOf(tx: Pick<Db, 'select'>, inspectionId: string) {
+  const blocking = tx
+    .select({ number: findingNumber, severity: findings.severity, description: findings.description })
+    .from(findings)
+    .where(eq(findings.inspectionId, inspectionId))
+    .orderBy(asc(findings.number))
+    .all()
+    .filter((f) => blockingSeverities.includes(f.severity));
+  const analysis = tx
+    .select({ analysis: inspections.analysis })
+    .from(inspections)
+    .where(eq(inspections.id, inspectionId))
+    .get()?.analysis;
+  const over = (analysis?.envelope ?? []).filter((e) => e.status === 'over');
+  const parts = [
+    ...blocking.map(
+      (f) => `finding ${f.number} (${severityInfo[f.severity].label}): ${f.description.slice(0, 120)}`,
+    ),
+    ...over.map(
+      (e) =>
+        `${e.label}: ${formatValue(e.value, e.quantity, 'si')} against ${formatLimit(e.limit, e.quantity, 'si')}, over limit`,
+    ),
+  ];
+  return {
+    blocking: blocking.length,
+    over: over.length,
+    text: parts.length ? `Because of ${parts.join('; ')}.` : null,
+  };
+}
 
 export function decideInspection(
   db: Db,
@@ -60,6 +111,9 @@ export function decideInspection(
       );
 
     const reviewState = input.decision === 'approve' ? 'approved' : 'returned';
+    const ride = mustFindRide(tx, before.rideId);
+    const causes = causesOf(tx, before.id);
+    const analysisOver = causes.over;
     tx.update(inspections)
       .set({ reviewState, reviewedAt: now.toISOString(), reviewedBy: user.id, reviewNote: input.note })
       .where(eq(inspections.id, before.id))
@@ -97,13 +151,96 @@ export function decideInspection(
         updateSchedule(db, user.id, schedule.id, { lastDoneOn: doneOn }, now);
     }
 
-    // Approving an inspection with findings issues the operator's notice, frozen as of now.
+    // ——— the ride's status, under the rules ———
+    let change: AppliedChange | null = null;
+    const asked = input.rideStatus;
+    const askedEvent = asked ? eventForStatus(ride.status, asked.status) : null;
+    if (asked && askedEvent) {
+      const check = mustTransition(
+        ride.status,
+        askedEvent,
+        user.role,
+        { reason: asked.reason },
+        'rideStatus.',
+      );
+      change = applyStatus(tx, {
+        userId: user.id,
+        rideId: before.rideId,
+        event: askedEvent,
+        to: check.to,
+        override: check.override,
+        reason: check.override ? `Override by ${user.name}: ${asked.reason}` : asked.reason,
+        now,
+        inspectionId: before.id,
+      });
+    } else if (
+      !asked &&
+      reviewState === 'approved' &&
+      before.type === 'follow_up' &&
+      ride.status !== 'in_service'
+    ) {
+      // The follow-up path back to service: only when nothing still forbids operation.
+      const check = checkTransition(ride.status, 'follow_up_approved', user.role, {
+        inspectionType: before.type,
+        openBlockingFindings: openBlockingFindings(tx, before.rideId),
+        overLimitValues: analysisOver,
+      });
+      if (check.ok)
+        change = applyStatus(tx, {
+          userId: user.id,
+          rideId: before.rideId,
+          event: 'follow_up_approved',
+          to: check.to,
+          override: false,
+          reason: null,
+          now,
+          inspectionId: before.id,
+        });
+    }
+    const statusAfter = change?.to ?? ride.status;
+    // An approval never leaves a ride running on what this inspection found: a finding that forbids
+    // operation needs it out of service, a value over its limit at least restricted.
+    if (reviewState === 'approved' && causes.blocking > 0 && statusAfter !== 'out_of_service')
+      throw conflict(
+        `${causes.blocking} finding(s) of this inspection forbid operation, so approving it sets the ride ` +
+          'out of service: send the decision with the ride status out of service and a reason.',
+        'stop_required',
+      );
+    if (reviewState === 'approved' && analysisOver > 0 && statusAfter === 'in_service')
+      throw conflict(
+        `${analysisOver} value(s) of this inspection are over their limits, so approving it needs the ride ` +
+          'out of service or restricted (with a reason); return it if the values are wrong.',
+        'stop_required',
+      );
+    if (change?.to === 'in_service') followUpDone(db, tx, user.id, before.rideId, now);
+    else if (statusAfter !== 'in_service') ensureFollowUp(db, tx, user.id, before.rideId, now);
+
+    // ——— the decision's one notice ———
+    const statusCause = change && change.to !== 'in_service' ? causes.text : null;
     const notice =
       reviewState === 'approved'
-        ? issueInspectionNotice(tx, { inspectionId: before.id, userId: user.id, now, appUrl })
-        : null;
+        ? issueInspectionNotice(tx, {
+            inspectionId: before.id,
+            userId: user.id,
+            now,
+            appUrl,
+            statusChanged: change !== null,
+            statusCause,
+          })
+        : change
+          ? issueStatusNotice(tx, {
+              rideId: before.rideId,
+              userId: user.id,
+              now,
+              appUrl,
+              reason: asked?.reason ?? null,
+              inspectionId: before.id,
+              statusCause,
+            })
+          : null;
 
     refreshQueue(tx, queueDay(db, now), [before.rideId]);
+    const rideAfter = mustFindRide(tx, before.rideId);
     return {
       notice: notice ? { id: notice.id, reference: notice.reference } : null,
       inspectionId: after.id,
@@ -111,6 +248,7 @@ export function decideInspection(
       reviewedAt: after.reviewedAt ?? now.toISOString(),
       reviewedByName: after.reviewedByName,
       reviewNote: after.reviewNote,
+      ride: { status: rideAfter.status, statusReason: rideAfter.statusReason, changed: change !== null },
     };
   });
 }

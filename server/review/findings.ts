@@ -80,6 +80,31 @@ export function mustSeeInspection(db: Reader, user: SessionUser, id: string): In
   return row;
 }
 
+/** The number people call a finding by: its number on the ride, else (not yet numbered) in its inspection. */
+export const findingNumber = sql<number>`COALESCE(${findings.rideNumber}, ${findings.number})`.mapWith(
+  Number,
+);
+
+/**
+ * Gives the ride's findings stored before rides numbered them their number on the ride, in the order
+ * they were made (inspection submitted, then number), after the highest number already given. Runs in
+ * the caller's transaction before anything numbers or shows the ride's findings; a no-op once done.
+ */
+export function numberRideFindings(tx: Pick<Db, 'run'>, rideId?: string): void {
+  tx.run(sql`
+    WITH todo AS (
+      SELECT f.id, f.ride_id,
+        ROW_NUMBER() OVER (PARTITION BY f.ride_id ORDER BY i.submitted_at, f.created_at, f.number) AS k
+      FROM ${findings} f JOIN ${inspections} i ON i.id = f.inspection_id
+      WHERE f.ride_number IS NULL ${rideId ? sql`AND f.ride_id = ${rideId}` : sql``}
+    )
+    UPDATE ${findings} SET ride_number = (
+      SELECT t.k + COALESCE((SELECT MAX(g.ride_number) FROM ${findings} g WHERE g.ride_id = t.ride_id), 0)
+      FROM todo t WHERE t.id = ${findings}.id
+    )
+    WHERE id IN (SELECT id FROM todo)`);
+}
+
 const creator = alias(users, 'finding_creator');
 const updater = alias(users, 'finding_updater');
 const closer = alias(users, 'finding_closer');
@@ -94,7 +119,8 @@ export function findingRows(db: Reader) {
       id: findings.id,
       inspectionId: findings.inspectionId,
       rideId: findings.rideId,
-      number: findings.number,
+      number: findingNumber,
+      inspectionNumber: findings.number,
       severity: findings.severity,
       description: findings.description,
       ruleRef: findings.ruleRef,
@@ -109,6 +135,7 @@ export function findingRows(db: Reader) {
       closedAt: findings.closedAt,
       closedByName: closer.name,
       stateNote: findings.stateNote,
+      closeEvidence: findings.closeEvidence,
     })
     .from(findings)
     .leftJoin(creator, eq(creator.id, findings.createdBy))
@@ -172,7 +199,11 @@ function nextNumber(db: Reader, inspection: InspectionHead): number {
     .where(eq(findings.inspectionId, inspection.id))
     .get()?.n;
   const removed = db
-    .select({ n: sql<number | null>`max(json_extract(${auditLog.before}, '$.number'))` })
+    .select({
+      n: sql<
+        number | null
+      >`max(COALESCE(json_extract(${auditLog.before}, '$.inspectionNumber'), json_extract(${auditLog.before}, '$.number')))`,
+    })
     .from(auditLog)
     .where(
       and(
@@ -180,6 +211,29 @@ function nextNumber(db: Reader, inspection: InspectionHead): number {
         eq(auditLog.entity, 'finding'),
         eq(auditLog.action, 'delete'),
         sql`json_extract(${auditLog.before}, '$.inspectionId') = ${inspection.id}`,
+      ),
+    )
+    .get()?.n;
+  return Math.max(live ?? 0, removed ?? 0) + 1;
+}
+
+/** The next number on the ride: one past the highest ever given, deleted findings included. */
+function nextRideNumber(db: Reader, rideId: string): number {
+  const live = db
+    .select({ n: max(findings.rideNumber) })
+    .from(findings)
+    .where(eq(findings.rideId, rideId))
+    .get()?.n;
+  // Entries written since rides numbered findings carry `inspectionNumber`; their `number` is the ride's.
+  const removed = db
+    .select({ n: sql<number | null>`max(json_extract(${auditLog.before}, '$.number'))` })
+    .from(auditLog)
+    .where(
+      and(
+        eq(auditLog.rideId, rideId),
+        eq(auditLog.entity, 'finding'),
+        eq(auditLog.action, 'delete'),
+        sql`json_extract(${auditLog.before}, '$.inspectionNumber') IS NOT NULL`,
       ),
     )
     .get()?.n;
@@ -209,6 +263,8 @@ export function createFinding(
     assertEditable(inspection, 'no finding can be added to it');
     assertPhotosOf(tx, inspection.id, input.photoShas);
     const number = nextNumber(tx, inspection);
+    numberRideFindings(tx, inspection.rideId);
+    const rideNumber = nextRideNumber(tx, inspection.rideId);
     const at = now.toISOString();
     const { id } = tx
       .insert(findings)
@@ -216,6 +272,7 @@ export function createFinding(
         inspectionId: inspection.id,
         rideId: inspection.rideId,
         number,
+        rideNumber,
         severity: input.severity,
         description: input.description,
         ruleRef: input.ruleRef,
@@ -236,7 +293,7 @@ export function createFinding(
       entityId: id,
       action: 'create',
       rideId: inspection.rideId,
-      summary: `${inspection.rideName}: finding ${number} added (${label(after)})`,
+      summary: `${inspection.rideName}: finding ${rideNumber} added (${label(after)})`,
       after,
     });
     refreshQueue(tx, queueDay(db, now), [inspection.rideId]);

@@ -12,7 +12,7 @@ import type Database from 'better-sqlite3';
 import { sql, type SQL } from 'drizzle-orm';
 import { SQLiteSyncDialect } from 'drizzle-orm/sqlite-core';
 
-import { findings, reviewQueue } from '@/db/server/review';
+import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
 import { inspections } from '@/db/server/inspections';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
@@ -84,6 +84,31 @@ function refreshStatements(scope: Scope): SQL[] {
           AND ${onlyRides(sql`f.ride_id`)}
         GROUP BY f.ride_id
       ),
+      -- A returned inspection that was over a limit or failed items keeps its ride flagged until a decision
+      -- resolves it: an amendment (which carries the alarm on), a later approved follow-up, or an override.
+      ride_alarm AS (
+        SELECT * FROM (
+          SELECT x.ride_id AS ride_id, x.id AS inspection_id, x.type AS type, x.inspector_id AS inspector_id,
+            x.analysis_status AS analysis_status, x.failed_items AS failed_items, x.submitted_at AS submitted_at,
+            ROW_NUMBER() OVER (
+              PARTITION BY x.ride_id
+              ORDER BY CASE WHEN x.analysis_status = 'over' THEN 0 ELSE 1 END, x.submitted_at DESC, x.id
+            ) AS k
+          FROM ${inspections} x
+          WHERE x.review_state = 'returned' AND (x.analysis_status = 'over' OR x.failed_items > 0)
+            AND ${onlyRides(sql`x.ride_id`)}
+            AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = x.id)
+            AND NOT EXISTS (
+              SELECT 1 FROM ${inspections} y
+              WHERE y.ride_id = x.ride_id AND y.type = 'follow_up' AND y.review_state = 'approved'
+                AND y.reviewed_at >= x.reviewed_at
+            )
+            AND NOT EXISTS (
+              SELECT 1 FROM ${rideStatusChanges} c
+              WHERE c.ride_id = x.ride_id AND c.override = 1 AND c.at >= x.reviewed_at
+            )
+        ) WHERE k = 1
+      ),
       pending AS (
         SELECT i.* FROM ${inspections} i
         WHERE ${pendingScope}
@@ -118,21 +143,37 @@ function refreshStatements(scope: Scope): SQL[] {
       LEFT JOIN ride_past p ON p.ride_id = r.id
     UNION ALL
     SELECT
-      'r:' || r.id, 'ride', NULL, NULL, r.id, r.name, r.ride_class, r.status, r.site_id,
-      s.name, r.operator_company_id, c.name, NULL, NULL,
-      CASE WHEN d.overdue_since IS NOT NULL THEN 3 ELSE 4 END,
-      COALESCE(d.overdue_since, p.first_due), NULL, 0, d.overdue_since, COALESCE(p.n, 0),
-      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name)
+      'r:' || r.id, 'ride', al.inspection_id, al.type, r.id, r.name, r.ride_class, r.status, r.site_id,
+      s.name, r.operator_company_id, c.name, al.inspector_id, au.name,
+      CASE
+        WHEN al.analysis_status = 'over' THEN 0
+        WHEN al.failed_items > 0 THEN 1
+        WHEN d.overdue_since IS NOT NULL THEN 3
+        ELSE 4
+      END,
+      COALESCE(
+        strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at, d.overdue_since, p.first_due
+      ),
+      al.analysis_status, COALESCE(al.failed_items, 0), d.overdue_since, COALESCE(p.n, 0),
+      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name ||
+        COALESCE(' ' || au.name, ''))
     FROM ${rides} r
       JOIN ${companies} c ON c.id = r.operator_company_id
       LEFT JOIN ${sites} s ON s.id = r.site_id
       LEFT JOIN ride_due d ON d.ride_id = r.id
       LEFT JOIN ride_past p ON p.ride_id = r.id
-    WHERE (d.overdue_since IS NOT NULL OR p.n > 0)
-      AND NOT EXISTS (
-        SELECT 1 FROM ${inspections} i
-        WHERE i.ride_id = r.id AND i.review_state = 'submitted'
-          AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
+      LEFT JOIN ride_alarm al ON al.ride_id = r.id
+      LEFT JOIN ${users} au ON au.id = al.inspector_id
+    WHERE (
+        al.inspection_id IS NOT NULL
+        OR (
+          (d.overdue_since IS NOT NULL OR p.n > 0)
+          AND NOT EXISTS (
+            SELECT 1 FROM ${inspections} i
+            WHERE i.ride_id = r.id AND i.review_state = 'submitted'
+              AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
+          )
+        )
       )
       AND ${onlyRides(sql`r.id`)}
   `,

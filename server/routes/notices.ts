@@ -75,8 +75,12 @@ const safeFileName = (name: string) => name.replace(/[^\w.-]+/g, '_');
  *   have not had it (added since, or after a failure); never twice to one address
  * - `POST /findings/:id/actions` (operator) `{ note, photoShas }` → 201 finding state; photos must be
  *   uploaded first (400 naming `photoShas.N`), 409 on a closed finding
- * - `POST /findings/:id/close` `{ note? }` and `POST /findings/:id/reopen` `{ note }` (supervisor, admin,
- *   inspector) → finding state, with the ride's status and the status notice when it followed
+ * - `POST /findings/:id/close` `{ note, photoShas?, evidenceRef? }` (supervisor, admin, inspector) → finding
+ *   state; the note and evidence (photos, a document reference, or the operator's corrective-action report
+ *   on record) are required (400 naming `note` / `evidence`); the ride's status never changes here, the
+ *   last blocking finding closed on a stopped ride books its follow-up inspection
+ * - `POST /findings/:id/reopen` `{ note }` (same roles) → finding state; a blocking finding reopened on a
+ *   ride in service stops it, with the status notice
  * - `GET /admin/outbox`, `GET /admin/outbox/:id`, `GET /admin/outbox/:id/attachments/:index` (admin): the
  *   local mailbox; 404 `no_local_mailbox` when e-mail goes to a real SMTP server
  */
@@ -129,9 +133,7 @@ export function noticesRouter(deps: ApiDeps): Router {
   });
 
   router.post('/findings/:id/close', ...verifiers, closeInput, (_req, res) => {
-    res.json(
-      closeFinding(deps.db, currentUser(res), closeInput.params(res).id, closeInput.body(res).note, ctx()),
-    );
+    res.json(closeFinding(deps.db, currentUser(res), closeInput.params(res).id, closeInput.body(res), ctx()));
   });
 
   router.post('/findings/:id/reopen', ...verifiers, reopenInput, (_req, res) => {

@@ -1,14 +1,17 @@
 import { Router } from 'express';
 
-import { queueQuerySchema } from '@/features/review/schema';
+import { idParamsSchema } from '@/features/registry/schema';
+import { queueQuerySchema, rideStatusChangeInputSchema } from '@/features/review/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
-import { requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
 import { validate } from '@/server/http/validate';
 import { readQueueJson } from '@/server/review/queue';
 import { queueToday } from '@/server/review/queue-refresh';
+import { changeRideStatus } from '@/server/review/ride-status';
 
 const queueInput = validate({ query: queueQuerySchema });
+const statusInput = validate({ params: idParamsSchema, body: rideStatusChangeInputSchema });
 
 /**
  * The supervisors' review desk (supervisors and admins; inspectors and operators get 403).
@@ -19,6 +22,10 @@ const queueInput = validate({ query: queueQuerySchema });
  *   oldest | ride). `rideClass`, `rideStatus` and `urgency` take several values (repeated or
  *   comma-separated); `from`/`to` are inclusive calendar dates (UTC) of the item's date; `counts` per
  *   urgency cover every filter except `urgency`, `total` every filter.
+ * - `POST /rides/:id/status` `{ status, reason }` → `{ ride, notice }`: a change of the ride's status outside
+ *   a decision, under the status rules (`features/review/status-rules.ts`): a stop or restriction
+ *   (supervisor, admin) or an override back towards service (supervisor only); the reason is required;
+ *   recorded, audited, and one notice to the operator. 403 when the rules refuse the role, 409 on no change.
  */
 export function reviewRouter(deps: ApiDeps): Router {
   const router = Router();
@@ -31,6 +38,18 @@ export function reviewRouter(deps: ApiDeps): Router {
         { path: 'query.to', message: 'Must be on or after the from date' },
       ]);
     res.type('application/json').send(readQueueJson(deps.db, query, queueToday(nowOf(deps))));
+  });
+
+  router.post('/rides/:id/status', ...deciders, statusInput, (_req, res) => {
+    const { ride, notice } = changeRideStatus(
+      deps.db,
+      currentUser(res),
+      statusInput.params(res).id,
+      statusInput.body(res),
+      nowOf(deps),
+      deps.config.appUrl,
+    );
+    res.json({ ride: { id: ride.id, status: ride.status, statusReason: ride.statusReason }, notice });
   });
 
   return router;

@@ -1,22 +1,27 @@
 /**
  * The loop after a notice: the operator acknowledges it, reports corrective actions with photos, and the
- * inspection body closes or reopens each finding; the ride's status follows the findings that forbid
- * operation (severityInfo in features/review/schema.ts), and each change of status issues a status notice.
+ * inspection body closes (note and evidence required) or reopens each finding, under the status rules
+ * (features/review/status-rules.ts): closing never puts a ride back in service — the last blocking finding
+ * closed books the follow-up inspection, whose approval does, with one notice — and a supervisor's
+ * override is the only other way back, recorded and notified.
  */
+import { randomUUID } from 'node:crypto';
+
 import { and, eq } from 'drizzle-orm';
 
+import { inspections } from '@/db/server/inspections';
 import { correctiveActions, notices } from '@/db/server/notices';
-import { reviewQueue } from '@/db/server/review';
-import { auditLog } from '@/db/server/schema';
+import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
+import { auditLog, inspectionSchedules } from '@/db/server/schema';
 import {
   findingStateResponseSchema,
   noticeDetailSchema,
   noticeListResponseSchema,
   noticeResponseSchema,
 } from '@/features/notices/schema';
-import { severityInfo } from '@/features/review/schema';
-import { returnToServiceReason } from '@/server/notices/loop';
+import { decisionResponseSchema, severityInfo } from '@/features/review/schema';
 import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
+import { analysePending } from '@/server/sync/analysis';
 
 import { expectApiError } from './helpers';
 import {
@@ -28,7 +33,7 @@ import {
   type Inspected,
   type NoticeServer,
 } from './notices-fixtures';
-import { sha256Hex } from './sync-fixtures';
+import { demoRide, makeRecord, sha256Hex, speedReading } from './sync-fixtures';
 
 jest.setTimeout(60_000);
 
@@ -103,7 +108,10 @@ describe('reading notices', () => {
       (await s.api.operator.get(`/api/notices/${skylark.id}`)).body.notice,
     );
     const noteFinding = before.findings.find((f) => f.severity === 'note');
-    const closed = await s.api.supervisor.post(`/api/findings/${noteFinding?.id}/close`, { note: 'Seen' });
+    const closed = await s.api.supervisor.post(`/api/findings/${noteFinding?.id}/close`, {
+      note: 'Seen',
+      evidenceRef: 'Site visit log 2026-05-04, entry 3',
+    });
     expect(closed.status).toBe(200);
     const after = noticeDetailSchema.parse(
       (await s.api.operator.get(`/api/notices/${skylark.id}`)).body.notice,
@@ -114,6 +122,7 @@ describe('reading notices', () => {
       state: 'closed',
       closedByName: 'Mira Delacourt',
       stateNote: 'Seen',
+      closeEvidence: { photoShas: [], reference: 'Site visit log 2026-05-04, entry 3', correctiveActions: 0 },
     });
     expect(after.openFindings).toBe(1);
   });
@@ -182,7 +191,18 @@ describe('corrective actions, verification and the ride’s status', () => {
       reason: 'Hub weld crack and restraint lock pin',
     });
     expect(notice.document.reinspection.required).toBe(true);
-    expect(notice.document.reinspection.reason).toContain('Findings 1, 3');
+    const numbers = notice.document.findings.map((f) => f.number);
+    expect(notice.document.reinspection.reason).toContain(`Findings ${numbers[blocking]}, ${numbers[stop]}`);
+    expect(notice.document.reinspection.reason).toContain('follow-up inspection');
+    // Numbered on the ride: one number, one finding, across all the ride's inspections.
+    const onRide = s.db
+      .select({ n: findings.rideNumber })
+      .from(findings)
+      .where(eq(findings.rideId, inspected.rideId))
+      .all()
+      .map((f) => f.n);
+    expect(onRide.every((n) => n !== null)).toBe(true);
+    expect(new Set(onRide).size).toBe(onRide.length);
     expect(notice.document.findings[0].photos).toEqual([
       { sha256: inspected.photoShas[0], caption: 'Pivot photo 1' },
     ]);
@@ -274,7 +294,7 @@ describe('corrective actions, verification and the ride’s status', () => {
     expect(body.ride.status).toBe('out_of_service');
     expect(body.statusNotice).toBeNull();
     expectApiError(
-      await s.api.supervisor.post(`/api/findings/${findingId}/close`, {}),
+      await s.api.supervisor.post(`/api/findings/${findingId}/close`, { note: 'Again', evidenceRef: 'WO-9' }),
       409,
       'already_closed',
     );
@@ -285,7 +305,35 @@ describe('corrective actions, verification and the ride’s status', () => {
     );
   });
 
-  test('closing the last finding that forbids operation returns the ride to service, with a status notice', async () => {
+  test('closing needs the verifier’s note and evidence; nothing changes without them', async () => {
+    const findingId = inspected.findingIds[stop];
+    const noNote = expectApiError(
+      await s.api.supervisor.post(`/api/findings/${findingId}/close`, { evidenceRef: 'MT report 118' }),
+      400,
+      'validation_failed',
+    );
+    expect(noNote.issues?.map((i) => i.path)).toEqual(['note']);
+    // No photo, no document, and the operator has reported nothing on this finding.
+    const noEvidence = expectApiError(
+      await s.api.supervisor.post(`/api/findings/${findingId}/close`, { note: 'Looked fine' }),
+      400,
+      'validation_failed',
+    );
+    expect(noEvidence.issues?.map((i) => i.path)).toEqual(['evidence']);
+    const notUploaded = expectApiError(
+      await s.api.supervisor.post(`/api/findings/${findingId}/close`, {
+        note: 'Weld repaired',
+        photoShas: [sha256Hex(photoPng(4242))],
+      }),
+      400,
+      'validation_failed',
+    );
+    expect(notUploaded.issues?.[0].path).toBe('photoShas.0');
+    const row = s.db.select().from(findings).where(eq(findings.id, findingId)).get();
+    expect(row?.state).toBe('open');
+  });
+
+  test('closing the last finding that forbids operation leaves the ride stopped and books its follow-up on the inspector’s Today', async () => {
     expect(severityInfo.stop_now.mayOperate).toBe(false);
     expect(severityInfo.fix_by_date.mayOperate).toBe(true);
     const findingId = inspected.findingIds[stop];
@@ -295,36 +343,100 @@ describe('corrective actions, verification and the ride’s status', () => {
     const queued = () =>
       s.db.select().from(reviewQueue).where(eq(reviewQueue.rideId, inspected.rideId)).all();
     expect(queued().map((r) => r.rideStatus)).toEqual(['out_of_service']);
+    const noticesBefore = s.db
+      .select()
+      .from(notices)
+      .where(eq(notices.rideId, inspected.rideId))
+      .all().length;
+    expect((await s.api.inspector.get('/api/assignments/mine')).body.assignments).not.toContainEqual(
+      expect.objectContaining({ rideId: inspected.rideId, inspectionType: 'follow_up' }),
+    );
     s.setNow(new Date('2026-05-08T10:00:00.000Z'));
     const res = await s.api.supervisor.post(`/api/findings/${findingId}/close`, {
       note: 'Weld repaired, MT clear',
+      evidenceRef: 'MT report 118 by the certified NDT technician',
     });
     expect(res.status).toBe(200);
     const body = findingStateResponseSchema.parse(res.body);
-    // The fix-by-date finding is still open, but it allows operation.
+    // Nothing blocks any more, but only the follow-up inspection (or an override) returns the ride.
     expect(body.ride).toEqual({
       id: inspected.rideId,
-      status: 'in_service',
-      statusReason: returnToServiceReason,
+      status: 'out_of_service',
+      statusReason: 'Hub weld crack and restraint lock pin',
     });
-    expect(body.statusNotice).not.toBeNull();
-
-    const ride = rideRow(s.db, 'Twin Comet');
-    expect(ride).toMatchObject({ status: 'in_service', statusSince: '2026-05-08T10:00:00.000Z' });
-    expect(auditOf('ride', ride.id).at(-1)?.summary).toContain('out_of_service → in_service');
-    // Refreshed in the same transaction as the change.
-    expect(queued().map((r) => r.rideStatus)).toEqual(['in_service']);
-
-    const status = noticeDetailSchema.parse(
-      (await s.api.operator.get(`/api/notices/${body.statusNotice?.id}`)).body.notice,
+    expect(body.statusNotice).toBeNull();
+    expect(s.db.select().from(notices).where(eq(notices.rideId, inspected.rideId)).all()).toHaveLength(
+      noticesBefore,
     );
-    expect(status.kind).toBe('status_change');
-    expect(status.document.operatingStatus).toEqual({ status: 'in_service', reason: returnToServiceReason });
-    expect(status.document.reinspection.required).toBe(false);
-    expect(status.document.inspection).toBeNull();
-    // The status notice lists what is still open: the fix-by-date finding.
-    expect(status.document.findings.map((f) => f.id)).toEqual([inspected.findingIds[dated]]);
-    expect(status.deliveries.map((d) => d.status)).toEqual(['pending']);
+    expect(queued().map((r) => r.rideStatus)).toEqual(['out_of_service']);
+    // The follow-up is booked for today and assigned to the inspector who last inspected the ride.
+    const mine = (await s.api.inspector.get('/api/assignments/mine')).body.assignments;
+    expect(mine).toContainEqual(
+      expect.objectContaining({
+        rideId: inspected.rideId,
+        inspectionType: 'follow_up',
+        nextDueOn: '2026-05-08',
+        dueStatus: 'due',
+      }),
+    );
+  });
+
+  test('approving the follow-up inspection returns the ride to service, with exactly one notice', async () => {
+    const ride = rideRow(s.db, 'Twin Comet');
+    // A periodic inspection is no follow-up: approving it leaves the ride stopped.
+    const pending = s.db
+      .select({ id: inspections.id })
+      .from(inspections)
+      .where(and(eq(inspections.rideId, ride.id), eq(inspections.reviewState, 'submitted')))
+      .all();
+    for (const p of pending) {
+      const r = await s.api.supervisor.post(`/api/inspections/${p.id}/decision`, { decision: 'approve' });
+      expect(r.status).toBe(200);
+      expect(decisionResponseSchema.parse(r.body).ride).toMatchObject({
+        status: 'out_of_service',
+        changed: false,
+      });
+    }
+    const followUp = makeRecord(demoRide(s.db, 'Twin Comet'), {
+      type: 'follow_up',
+      readings: [speedReading(11.5)],
+      submittedAt: '2026-05-08T11:00:00.000Z',
+      startedAt: '2026-05-08T10:30:00.000Z',
+    });
+    const pushed = await s.api.inspector.post('/api/sync/push', {
+      batchId: randomUUID(),
+      records: [followUp],
+    });
+    expect(pushed.body.results[0].status).toBe('accepted');
+    await analysePending(s.db);
+    const before = s.db.select().from(notices).where(eq(notices.rideId, ride.id)).all().length;
+    const res = await s.api.supervisor.post(`/api/inspections/${followUp.id}/decision`, {
+      decision: 'approve',
+      note: 'Hub weld and lock pin repaired; ride checked through a full cycle.',
+    });
+    expect(res.status).toBe(200);
+    const decided = decisionResponseSchema.parse(res.body);
+    expect(decided.ride).toEqual({ status: 'in_service', statusReason: null, changed: true });
+    const after = s.db.select().from(notices).where(eq(notices.rideId, ride.id)).all();
+    expect(after).toHaveLength(before + 1);
+    const notice = noticeDetailSchema.parse(
+      (await s.api.operator.get(`/api/notices/${decided.notice?.id}`)).body.notice,
+    );
+    expect(notice.document.operatingStatus.status).toBe('in_service');
+    expect(notice.document.reinspection.required).toBe(false);
+    expect(rideRow(s.db, 'Twin Comet').status).toBe('in_service');
+    const change = s.db
+      .select()
+      .from(rideStatusChanges)
+      .where(eq(rideStatusChanges.rideId, ride.id))
+      .all()
+      .at(-1);
+    expect(change).toMatchObject({ event: 'follow_up_approved', toStatus: 'in_service', override: false });
+    // The booking is met: the follow-up leaves the inspector's Today.
+    const mine = (await s.api.inspector.get('/api/assignments/mine')).body.assignments;
+    expect(mine).not.toContainEqual(
+      expect.objectContaining({ rideId: ride.id, inspectionType: 'follow_up' }),
+    );
     s.setNow(start);
   });
 
@@ -378,7 +490,84 @@ describe('corrective actions, verification and the ride’s status', () => {
       { severity: 'fix_by_date', description: 'Gondola door seal split', dueOn: '2026-06-01' },
     ]);
     const id = pending.findingIds[0];
-    expectApiError(await s.api.supervisor.post(`/api/findings/${id}/close`, {}), 409, 'not_issued');
+    expectApiError(
+      await s.api.supervisor.post(`/api/findings/${id}/close`, { note: 'Done', evidenceRef: 'WO-1' }),
+      409,
+      'not_issued',
+    );
     expectApiError(await s.api.operator.post(`/api/findings/${id}/actions`, { note: 'x' }), 404, 'not_found');
+  });
+});
+
+describe('a supervisor’s override', () => {
+  test('stops and returns a ride without a follow-up only with a reason, recorded and notified once each', async () => {
+    const ride = rideRow(s.db, 'Lantern Wheel');
+    const count = () => s.db.select().from(notices).where(eq(notices.rideId, ride.id)).all().length;
+    const before = count();
+    const stop = await s.api.supervisor.post(`/api/rides/${ride.id}/status`, {
+      status: 'out_of_service',
+      reason: 'Drive coupling noise reported by the operator; stopped pending a look.',
+    });
+    expect(stop.status).toBe(200);
+    expect(count()).toBe(before + 1);
+    // A stop with nothing blocking books the follow-up at once.
+    expect((await s.api.inspector.get('/api/assignments/mine')).body.assignments).toContainEqual(
+      expect.objectContaining({ rideId: ride.id, inspectionType: 'follow_up' }),
+    );
+
+    expectApiError(
+      await s.api.admin.post(`/api/rides/${ride.id}/status`, { status: 'in_service', reason: 'Fine' }),
+      403,
+      'forbidden',
+    );
+    expectApiError(
+      await s.api.inspector.post(`/api/rides/${ride.id}/status`, { status: 'in_service', reason: 'Fine' }),
+      403,
+      'forbidden',
+    );
+    const noReason = expectApiError(
+      await s.api.supervisor.post(`/api/rides/${ride.id}/status`, { status: 'in_service' }),
+      400,
+      'validation_failed',
+    );
+    expect(noReason.issues?.map((i) => i.path)).toEqual(['reason']);
+    expectApiError(
+      await s.api.supervisor.patch(`/api/rides/${ride.id}`, { status: 'in_service' }),
+      409,
+      'override_required',
+    );
+    expect(count()).toBe(before + 1);
+    expect(rideRow(s.db, 'Lantern Wheel').status).toBe('out_of_service');
+
+    const reason = 'Maker’s engineer inspected the coupling on site and signed it off (report CE-31).';
+    const res = await s.api.supervisor.post(`/api/rides/${ride.id}/status`, { status: 'in_service', reason });
+    expect(res.status).toBe(200);
+    expect(res.body.ride).toMatchObject({ status: 'in_service', statusReason: null });
+    expect(count()).toBe(before + 2);
+    const notice = noticeDetailSchema.parse(
+      (await s.api.operator.get(`/api/notices/${res.body.notice.id}`)).body.notice,
+    );
+    expect(notice.kind).toBe('status_change');
+    expect(notice.document.operatingStatus).toEqual({
+      status: 'in_service',
+      reason: `Override by Mira Delacourt: ${reason}`,
+    });
+    const change = s.db
+      .select()
+      .from(rideStatusChanges)
+      .where(eq(rideStatusChanges.rideId, ride.id))
+      .all()
+      .at(-1);
+    expect(change).toMatchObject({ event: 'override', override: true, reason, toStatus: 'in_service' });
+    expect(auditOf('ride', ride.id).at(-1)?.summary).toContain('by override');
+    // The override stands in for the follow-up: its booking is cleared.
+    const schedule = s.db
+      .select()
+      .from(inspectionSchedules)
+      .where(
+        and(eq(inspectionSchedules.rideId, ride.id), eq(inspectionSchedules.inspectionType, 'follow_up')),
+      )
+      .get();
+    expect(schedule).toMatchObject({ dueOn: null, assignedTo: null });
   });
 });

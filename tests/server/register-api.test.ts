@@ -305,10 +305,22 @@ describe('rides', () => {
     expect((await api.operator.get(`/api/rides/${ride.id}`)).status).toBe(200);
     expectApiError(await api.operator2.get(`/api/rides/${ride.id}`), 404, 'not_found');
 
-    // Back in service: the reason is cleared and a new "since" starts.
-    const back = rideResponseSchema.parse(
-      (await api.supervisor.patch(`/api/rides/${ride.id}`, { status: 'in_service' })).body,
-    ).ride;
+    // Back in service: not by the register's PATCH (status rules: an approved follow-up or an override)…
+    expectApiError(
+      await api.supervisor.patch(`/api/rides/${ride.id}`, { status: 'in_service' }),
+      409,
+      'override_required',
+    );
+    // …but by a supervisor's override with a reason; the reason is cleared and a new "since" starts.
+    expect(
+      (
+        await api.supervisor.post(`/api/rides/${ride.id}/status`, {
+          status: 'in_service',
+          reason: 'Set-up inspection done on paper before the register existed.',
+        })
+      ).status,
+    ).toBe(200);
+    const back = rideResponseSchema.parse((await api.supervisor.get(`/api/rides/${ride.id}`)).body).ride;
     expect(back).toMatchObject({ status: 'in_service', statusReason: null });
     expect(Date.parse(back.statusSince ?? '')).toBeGreaterThanOrEqual(Date.parse(ride.statusSince ?? ''));
 
@@ -353,7 +365,10 @@ describe('rides', () => {
       status: 'restricted',
       statusSince: '2025-06-01T00:00:00.000Z',
     });
-    await api.supervisor.patch(`/api/rides/${skylark.id}`, { status: 'in_service' });
+    await api.supervisor.post(`/api/rides/${skylark.id}/status`, {
+      status: 'in_service',
+      reason: 'Restraint lock replaced and tested.',
+    });
   });
 
   test('bad fields → 400 naming each, nothing stored', async () => {
@@ -414,5 +429,8 @@ test('the pinned test clock is used for new status dates', async () => {
     statusReason: 'Winter lay-up.',
   });
   expect(rideResponseSchema.parse(res.body).ride.statusSince).toBe(fixedNow.toISOString());
-  await clients.supervisor.patch(`/api/rides/${kite.id}`, { status: 'in_service' });
+  await clients.supervisor.post(`/api/rides/${kite.id}/status`, {
+    status: 'in_service',
+    reason: 'Lay-up over; opening checks done.',
+  });
 });

@@ -82,6 +82,8 @@ describe('approving', () => {
       reviewedAt: now.toISOString(),
       reviewedByName: 'Mira Delacourt',
       reviewNote: null,
+      // No status in the decision: the ride stays as it was.
+      ride: { status: 'in_service', statusReason: null, changed: false },
     });
     const detail = (await api.supervisor.get(`/api/inspections/${record.id}`)).body.inspection;
     expect(detail).toMatchObject({ reviewState: 'approved', reviewedByName: 'Mira Delacourt' });
@@ -265,17 +267,19 @@ describe('the trail', () => {
     expect(res.status).toBe(200);
     const entries = auditListResponseSchema.shape.entries.parse(res.body.entries);
     const summaries = entries.map((e) => e.summary);
-    // The approval with a finding and the status change each issued the operator a notice.
-    expect(summaries.slice(0, 6)).toEqual([
+    // The approval with a finding and the status change each issued the operator a notice; the restricted
+    // ride is owed a follow-up inspection, booked by the approval (status rules).
+    expect(summaries.slice(0, 7)).toEqual([
       'Skylark: notice PW-2026-0002 issued to Tamsworth Pier Leisure',
+      'Skylark: follow-up inspection schedule added',
       'Skylark: periodic inspection schedule changed',
       'Skylark: inspection approved',
       'Skylark: notice PW-2026-0001 issued to Tamsworth Pier Leisure',
       expect.stringMatching(/^Ride Skylark changed/),
-      'Skylark: finding 1 added (Note)',
+      `Skylark: finding ${made.number} added (Note)`,
     ]);
     expect(entries.find((e) => e.entityId === made.id)?.userName).toBe('Mira Delacourt');
-    expect(summaries).not.toContain('Skylark: finding 1 added (Note)'.replace('1', '2'));
+    expect(summaries).not.toContain(`Skylark: finding ${made.number + 1} added (Note)`);
     expect(entries.filter((e) => e.entity === 'finding').every((e) => e.entityId === made.id)).toBe(true);
     const times = entries.map((e) => e.at);
     expect([...times].sort().reverse()).toEqual(times);

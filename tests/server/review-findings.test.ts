@@ -175,11 +175,30 @@ describe('creating and listing', () => {
     const id = await inspection();
     const [, two, three] = [await create(id), await create(id), await create(id)];
     expect((await api.supervisor.delete(`/api/findings/${three.id}`)).status).toBe(204);
-    expect((await create(id)).number).toBe(4);
+    expect((await create(id)).inspectionNumber).toBe(4);
     expect((await api.supervisor.delete(`/api/findings/${two.id}`)).status).toBe(204);
-    expect((await create(id)).number).toBe(5);
+    expect((await create(id)).inspectionNumber).toBe(5);
     // Another inspection starts at 1.
-    expect((await create(await inspection())).number).toBe(1);
+    expect((await create(await inspection())).inspectionNumber).toBe(1);
+  });
+
+  test('the number people use is the finding’s number on the ride: unique over its inspections, never reused', async () => {
+    const first = await inspection();
+    const second = await inspection();
+    const a = await create(first);
+    const b = await create(second);
+    const c = await create(first);
+    // Both inspections have a "finding 1" of their own; on the ride each number names one finding.
+    expect([a.inspectionNumber, b.inspectionNumber, c.inspectionNumber]).toEqual([1, 1, 2]);
+    expect([b.number - a.number, c.number - b.number]).toEqual([1, 1]);
+    expect((await api.supervisor.delete(`/api/findings/${c.id}`)).status).toBe(204);
+    const d = await create(second);
+    expect(d.number).toBe(c.number + 1);
+    const listed = [
+      ...(await api.supervisor.get(`/api/inspections/${first}/findings`)).body.findings,
+      ...(await api.supervisor.get(`/api/inspections/${second}/findings`)).body.findings,
+    ].map((f: { number: number }) => f.number);
+    expect(new Set(listed).size).toBe(listed.length);
   });
 });
 
@@ -206,7 +225,8 @@ describe('changing and removing', () => {
     expect(res.status).toBe(200);
     const changed = findingResponseSchema.parse(res.body).finding;
     expect(changed).toMatchObject({
-      number: 1,
+      number: note.number,
+      inspectionNumber: 1,
       severity: 'fix_by_date',
       description: note.description,
       requiredAction: 'Re-grease and check again in a week.',
@@ -251,7 +271,7 @@ describe('changing and removing', () => {
       'edit_conflict',
     );
     expect(err.message).toMatch(
-      /^Finding 1 was changed by Rowan Ashby at .+ after you opened it\. Reload it/,
+      /^Finding \d+ was changed by Rowan Ashby at .+ after you opened it\. Reload it/,
     );
     const stored = (await api.supervisor.get(`/api/inspections/${id}/findings`)).body.findings[0];
     expect(stored.description).toBe('Bushing scored; clearance 0.52 mm.');
@@ -264,9 +284,9 @@ describe('changing and removing', () => {
     await api.supervisor.delete(`/api/findings/${made.id}`);
     const entries = auditOf(server.db, 'finding', made.id);
     expect(entries.map((e) => [e.action, e.summary])).toEqual([
-      ['create', 'Skylark: finding 1 added (Fix by date)'],
-      ['update', 'Skylark: finding 1 changed (Fix by date → Fix before operation)'],
-      ['delete', 'Skylark: finding 1 removed'],
+      ['create', `Skylark: finding ${made.number} added (Fix by date)`],
+      ['update', `Skylark: finding ${made.number} changed (Fix by date → Fix before operation)`],
+      ['delete', `Skylark: finding ${made.number} removed`],
     ]);
     const supervisorId = entries[0].userId;
     expect(entries.every((e) => e.userId === supervisorId && e.rideId === skylark.id)).toBe(true);
@@ -274,7 +294,11 @@ describe('changing and removing', () => {
     expect(entries[0].after).toMatchObject({ id: made.id, inspectionId: id, severity: 'fix_by_date' });
     expect(entries[1].before).toMatchObject({ severity: 'fix_by_date' });
     expect(entries[1].after).toMatchObject({ severity: 'fix_before_operation' });
-    expect(entries[2].before).toMatchObject({ severity: 'fix_before_operation', number: 1 });
+    expect(entries[2].before).toMatchObject({
+      severity: 'fix_before_operation',
+      number: made.number,
+      inspectionNumber: 1,
+    });
     expect(entries[2].after).toBeNull();
   });
 

@@ -553,6 +553,64 @@ describe('the queue follows what decides it', () => {
     });
   });
 
+  test('a returned over-limit inspection keeps its ride flagged until a decision resolves it (an override)', async () => {
+    const over = Object.values(records).find((x) => x.rideId === r.swinger.id);
+    if (!over) throw new Error('no over-limit record');
+    const before = await queue('&pageSize=100');
+    expect(before.items.find((i) => i.key === `i:${over.id}`)).toMatchObject({ urgency: 'over' });
+    await api.supervisor
+      .post(`/api/inspections/${over.id}/decision`, { decision: 'return', note: 'Re-time the arm, please.' })
+      .expect(200);
+    const after = await queue('&pageSize=100');
+    expect(after.items.some((i) => i.key === `i:${over.id}`)).toBe(false);
+    // The ride keeps the alarm, pointing at the returned inspection; the over count does not drop.
+    expect(after.items.find((i) => i.key === `r:${r.swinger.id}`)).toMatchObject({
+      kind: 'ride',
+      urgency: 'over',
+      inspectionId: over.id,
+      analysisStatus: 'over',
+    });
+    expect(after.counts.over).toBe(before.counts.over);
+    // A stop alone does not resolve it: the ride still needs its follow-up or an override.
+    await api.supervisor
+      .post(`/api/rides/${r.swinger.id}/status`, { status: 'out_of_service', reason: 'Over its limit.' })
+      .expect(200);
+    expect((await queue('&urgency=over')).items.map((i) => i.key)).toContain(`r:${r.swinger.id}`);
+    await api.supervisor
+      .post(`/api/rides/${r.swinger.id}/status`, {
+        status: 'in_service',
+        reason: 'Speed governor re-set by the maker; arm timed at 6 rpm on site.',
+      })
+      .expect(200);
+    expect((await queue('&urgency=over')).items.map((i) => i.key)).not.toContain(`r:${r.swinger.id}`);
+  });
+
+  test('a decision that stops the ride, and an approved follow-up that returns it', async () => {
+    const twirl = await createRide({ name: 'Quay Twirl', rideClass: 'other', siteId: ids.quay }, true);
+    const first = await push('inspector', rodRecord(twirl, WITHIN_RPM, '2026-03-09T10:00:00.000Z'));
+    await analysePending(server.db);
+    const decided = await api.supervisor
+      .post(`/api/inspections/${first.id}/decision`, {
+        decision: 'approve',
+        rideStatus: { status: 'out_of_service', reason: 'Arm bearing to be replaced.' },
+      })
+      .expect(200);
+    expect(decided.body.ride).toMatchObject({ status: 'out_of_service', changed: true });
+    const followUp = await push(
+      'inspector',
+      rodRecord(twirl, WITHIN_RPM, '2026-03-10T08:00:00.000Z', { type: 'follow_up', checklist: allPass }),
+    );
+    await analysePending(server.db);
+    expect((await queue()).items.find((i) => i.key === `i:${followUp.id}`)?.rideStatus).toBe(
+      'out_of_service',
+    );
+    const back = await api.supervisor
+      .post(`/api/inspections/${followUp.id}/decision`, { decision: 'approve' })
+      .expect(200);
+    expect(back.body.ride).toMatchObject({ status: 'in_service', changed: true });
+    expect((await queue()).items.some((i) => i.rideId === twirl.id)).toBe(false);
+  });
+
   test('counts kept in memory are dropped when another connection changes the queue', async () => {
     const before = await queue();
     const other = new Database(path.join(server.dataDir, databaseFileName));
