@@ -8,6 +8,8 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import type { Draft } from '@/features/inspections/draft';
+import { checkReading } from '@/features/inspections/plausibility';
+import { type PendingReading, PlausibilityPrompt } from '@/features/inspections/plausibility-prompt';
 import { type Reading, type ReadingKind } from '@/features/inspections/schema';
 import {
   MeasuredWithPicker,
@@ -17,7 +19,8 @@ import {
   type MeasuredWith,
 } from '@/features/instruments/measured-with';
 import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData, DesignMotion } from '@/features/registry/design-data';
+import { MotionPicture } from '@/features/tap-timer/motion-picture';
 import { type QuantityKind, type UnitSystem, displayUnits, formatQuantity, toSI } from '@/features/units';
 
 /** What each kind of reading is and in which quantity; how it was measured is the inspector's to say. */
@@ -97,6 +100,7 @@ export function ReadingsSection({
                 instruments={instruments}
                 timer={kind === 'period' ? renderTimer : undefined}
                 per={motion?.kind === 'swing' ? 'swing' : 'revolution'}
+                motion={motion}
               />
             ))}
             {taken.length > 0 ? (
@@ -134,6 +138,11 @@ export function ReadingsSection({
                         {' · '}
                         {measuredWithWords(r)}
                       </Text>
+                      {r.plausibility ? (
+                        <Text variant="small" color={colors.near}>
+                          {'\n'}Far from the design ({r.plausibility.ratio.toFixed(2)} ×), confirmed by you
+                        </Text>
+                      ) : null}
                     </Text>
                     <Button
                       label="Remove"
@@ -161,6 +170,7 @@ function ReadingInput({
   timer,
   per,
   instruments,
+  motion,
 }: {
   instruments: Instrument[];
   per: 'revolution' | 'swing';
@@ -170,6 +180,8 @@ function ReadingInput({
   system: UnitSystem;
   onAdd: (r: Reading) => void;
   timer?: Props['renderTimer'];
+  /** The joint's design motion: a reading far from it waits for the inspector's answer. */
+  motion?: DesignMotion;
 }) {
   const spec = readingSpec[kind];
   const unit = displayUnits(spec.quantity, system)[0];
@@ -179,13 +191,19 @@ function ReadingInput({
   const [measured, setMeasured] = useState<MeasuredWith>(nothingChosen);
   const [measuredError, setMeasuredError] = useState<string | undefined>();
   const label = `${bodyName}: ${spec.title.toLowerCase()}`;
+  const [pending, setPending] = useState<PendingReading | null>(null);
+  const offer = (reading: Reading) => {
+    const check = checkReading(motion, reading);
+    if (check && !check.plausible) setPending({ reading, check });
+    else onAdd(reading);
+  };
   const add = (
     valueSI: number,
     method: Reading['method'],
     spreadSI: number | null = null,
     instrument?: Reading['instrument'],
   ) => {
-    onAdd({
+    offer({
       id: randomUUID(),
       kind,
       joint,
@@ -215,6 +233,21 @@ function ReadingInput({
   };
   return (
     <View style={styles.input}>
+      {kind === 'period' ? <MotionPicture kind={per} /> : null}
+      {pending ? (
+        <PlausibilityPrompt
+          pending={pending}
+          valueText={formatQuantity(pending.reading.valueSI, spec.quantity, system).text}
+          onKeep={(confirmed) => {
+            setPending(null);
+            onAdd(confirmed);
+          }}
+          onMeasureAgain={() => {
+            setPending(null);
+            if (pending.reading.method === 'tap_timer') setTiming(true);
+          }}
+        />
+      ) : null}
       <View style={styles.inputRow}>
         <View style={styles.inputField}>
           <TextField

@@ -8,6 +8,7 @@ import { desc, eq } from 'drizzle-orm';
 
 import { designVersions, rides } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
+import { checkAgainstDesign } from '@/features/inspections/plausibility';
 import type { InspectionRecord, PhotoRef, Reading } from '@/features/inspections/schema';
 import type { DesignData } from '@/features/registry/design-data';
 import type { Db } from '@/server/db';
@@ -86,6 +87,19 @@ export function otherReading(i: number): Reading {
   };
 }
 
+/**
+ * The reading as the phone stores it after the inspector confirmed a value far from the design motion
+ * (the phone asks before such a reading counts); unchanged when it is near the design or not checked.
+ */
+export function confirmedIfImplausible(design: DesignData, r: Reading): Reading {
+  const check = checkAgainstDesign(design, r);
+  if (!check || check.plausible || r.plausibility) return r;
+  return {
+    ...r,
+    plausibility: { designSI: check.designSI, ratio: check.ratio, confirmedAt: '2026-05-04T08:11:00.000Z' },
+  };
+}
+
 /** The inspector's declaration every record now carries (the server refuses a record without one). */
 export const testDeclaration = {
   text: 'I carried out this inspection and recorded only what I saw and measured.',
@@ -96,13 +110,17 @@ export const testDeclaration = {
 
 /**
  * A complete record as the phone would submit it, with the phone's own preview computed by the shared
- * analysis when `design` is given.
+ * analysis when `design` is given. With `design`, readings far from its motion carry the inspector's
+ * confirmation, as the phone's would, unless `confirm` is false (to test the server's refusal).
  */
 export function makeRecord(
   ride: { id: string; designVersionId: string | null; design?: DesignData },
   patch: Partial<InspectionRecord> = {},
+  { confirm = true }: { confirm?: boolean } = {},
 ): InspectionRecord {
-  const readings = patch.readings ?? [speedReading(11.5)];
+  const given = patch.readings ?? [speedReading(11.5)];
+  const design = ride.design;
+  const readings = design && confirm ? given.map((r) => confirmedIfImplausible(design, r)) : given;
   return {
     id: randomUUID(),
     rideId: ride.id,
@@ -122,12 +140,13 @@ export function makeRecord(
         note: 'Seat 3 slow to lock',
       },
     ],
-    readings,
     photos: [],
     notes: 'Windy, 8 m/s from the sea.',
     preview: ride.design ? previewOf(analyseInspection(ride.design, readings)) : null,
     amendsId: null,
     declaration: testDeclaration,
     ...patch,
+    // After the patch: its readings are the ones given, confirmed above where the phone would have asked.
+    readings,
   };
 }
