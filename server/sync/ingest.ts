@@ -19,10 +19,12 @@ import {
   type PushResult,
 } from '@/features/inspections/schema';
 import { zodIssues } from '@/features/api/errors';
+import type { DesignData } from '@/features/registry/design-data';
 import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
 import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
+import { designDataLookup, plausibilityIssues } from '@/server/sync/plausibility-check';
 import { sqliteOf } from '@/server/sync/sqlite-client';
 
 export type PushBatch = { batchId: string; records: unknown[] };
@@ -214,6 +216,8 @@ type BatchContext = {
   designs: Map<string, string | null>;
   /** Stored inspections the batch refers to (its ids and amendsIds), kept up to date as records go in. */
   known: Map<string, ExistingRow>;
+  /** Design data by version id, for the plausibility of motion readings. */
+  design: (designVersionId: string) => DesignData | null;
   /** Register entries by id, for the calibration check. */
   instrument: ReturnType<typeof instrumentLookup>;
 };
@@ -293,6 +297,13 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
     if (problem) return rejected(record.id, [{ path: 'amendsId', message: problem }]);
   }
 
+  // Checked against the design data the analysis will use, so what was confirmed is what is analysed.
+  const implausible = plausibilityIssues(
+    designVersionId ? ctx.design(designVersionId) : null,
+    record.readings,
+  );
+  if (implausible.length) return rejected(record.id, implausible);
+
   const inspection: InspectionParams = {
     id: record.id,
     rideId: ride.id,
@@ -354,6 +365,7 @@ export function ingestBatch(
       rides: new Map(),
       designs: new Map(),
       known: new Map(),
+      design: designDataLookup(st.sqlite),
       instrument: instrumentLookup(db),
     };
     const referred = new Set<string>();
