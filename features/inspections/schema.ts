@@ -34,9 +34,20 @@ export const checklistAnswerSchema = z.object({
   note: z.string().max(2000).optional(),
   /** For items that ask for a measurement: the value in SI and the unit it was typed in. */
   measurement: z
-    .object({ valueSI: num(), unit: z.string().max(20) })
+    .object({
+      valueSI: num(),
+      unit: z.string().max(20),
+      /** The value exactly as typed, in `unit`; displays echo it and its decimals are its precision. */
+      entered: z.string().max(40).optional(),
+      /** The reading that holds this value when the item measures a pivot quantity: entered once, shared. */
+      readingId: z.string().min(1).max(80).optional(),
+      /** The value against its limit as the inspector saw it at entry (features/inspections/checklist-limits). */
+      status: z.enum(['within', 'near', 'over']).optional(),
+    })
     .nullable()
     .optional(),
+  /** Why an item whose value is over its limit is still marked Pass; the server refuses a Pass without it. */
+  overLimitReason: z.string().trim().max(1000).optional(),
 });
 export type ChecklistAnswer = z.infer<typeof checklistAnswerSchema>;
 
@@ -87,6 +98,8 @@ export const readingSchema = z.object({
   label: z.string().trim().min(1).max(120),
   valueSI: num(),
   unit: z.string().max(20),
+  /** The value exactly as typed, in `unit` (e.g. "0.40"); displays echo it and its decimals are its precision. */
+  entered: z.string().max(40).optional(),
   /** What the inspector chose; the app never picks one for them (older records kept the app's guess). */
   method: z.enum(readingMethods),
   /** Chosen from the register; null when the inspector said none of the register's was used. */

@@ -1,29 +1,93 @@
+/**
+ * Load-check numbers in the person's unit system, by the one rule of lib/measured-format.ts: computed
+ * values to four significant figures, typed values as typed, never rounded across their limit.
+ */
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
-import { type QuantityKind, type UnitSystem, formatQuantity, formatSignificant } from '@/features/units';
+import { type QuantityKind, type UnitSystem } from '@/features/units';
+import {
+  type MeasuredSource,
+  formatAgainstLimit,
+  formatLimitOnly,
+  formatMeasured,
+  formatShareOfLimit,
+} from '@/lib/measured-format';
 
-/** A value as the person reads it: number and unit in their unit system. */
+/** A computed value as the person reads it: number and unit in their unit system. */
 export function formatValue(valueSI: number, kind: QuantityKind, system: UnitSystem): string {
-  return formatQuantity(valueSI, kind, system).text;
+  return formatMeasured(valueSI, kind, system).text;
 }
 
-/** The limit side that applies, e.g. "≤ 210 kN", "≥ 79.0 mm", "−1.5 to 6 g". */
+/** A limit on its own, e.g. "≤ 210.0 kN", "≥ 79.00 mm", "-1.500 g to 6.000 g". */
 export function formatLimit(limit: Limit, kind: QuantityKind, system: UnitSystem): string {
-  const f = (v: number) => formatQuantity(v, kind, system).text;
-  switch (limit.kind) {
-    case 'upper':
-      return `≤ ${f(limit.max)}`;
-    case 'lower':
-      return `≥ ${f(limit.min)}`;
-    case 'range':
-      if (limit.min !== undefined && limit.max !== undefined) return `${f(limit.min)} to ${f(limit.max)}`;
-      return limit.min !== undefined ? `≥ ${f(limit.min)}` : `≤ ${f(limit.max ?? 0)}`;
-  }
+  return formatLimitOnly(limit, kind, system);
 }
 
-/** The ratio as a percentage of the limit used; "—" where it has no finite value. */
+/** The ratio as a percentage of the limit used; "—" where it has no finite value; never rounded to 100 %. */
 export function formatRatio(ratio: number | null): string {
-  if (ratio === null || !Number.isFinite(ratio)) return '—';
-  return `${formatSignificant(ratio * 100, 3)} %`;
+  return formatShareOfLimit(ratio);
+}
+
+/** Envelope items whose value an inspector measured (typed), rather than one the engine computed. */
+export function isMeasuredItem(id: string): boolean {
+  return /\.pin\.(diameter|clearance)$/.test(id) || id.startsWith('checklist:');
+}
+
+/**
+ * An envelope item's value, limit and share of the limit, shown together so that the comparison read
+ * is the true one; `source` is the typed text of a measured value, when the record has it.
+ */
+export function formatEnvelopeItem(
+  item: Pick<EnvelopeItem, 'id' | 'value' | 'limit' | 'ratio' | 'quantity'>,
+  system: UnitSystem,
+  source?: MeasuredSource,
+): { value: string; limit: string; ratio: string } {
+  // A measured value without its typed text (older records) is recovered in the shown unit, not padded.
+  const from = source ?? (isMeasuredItem(item.id) ? { unit: null, recover: true } : undefined);
+  const shown = formatAgainstLimit(item.value, item.limit, item.quantity, system, from);
+  return { value: shown.value, limit: shown.limit, ratio: formatShareOfLimit(item.ratio) };
+}
+
+type ReadingLike = {
+  id?: string;
+  kind: string;
+  joint: number | null;
+  unit: string;
+  entered?: string | null;
+  spreadSI?: number | null;
+};
+type ChecklistLike = {
+  itemId: string;
+  measurement?: { unit: string; entered?: string; readingId?: string } | null;
+};
+
+/**
+ * Where each measured envelope item's value was typed, by envelope id: a pivot's pin diameter and
+ * clearance come from its latest reading of the kind (as features/inspections/analysis.ts takes them),
+ * a checklist item's from its answer or the reading it shares.
+ */
+export function measuredSources(record: {
+  readings: readonly ReadingLike[];
+  checklist?: readonly ChecklistLike[];
+}): Map<string, MeasuredSource> {
+  const out = new Map<string, MeasuredSource>();
+  const source = (r: ReadingLike): MeasuredSource => ({
+    entered: r.entered ?? null,
+    unit: r.unit,
+    spreadSI: r.spreadSI ?? null,
+  });
+  for (const r of record.readings) {
+    if (r.joint === null) continue;
+    if (r.kind === 'pin_diameter') out.set(`joints.${r.joint}.pin.diameter`, source(r));
+    if (r.kind === 'clearance') out.set(`joints.${r.joint}.pin.clearance`, source(r));
+  }
+  const byId = new Map(record.readings.filter((r) => r.id).map((r) => [r.id as string, r]));
+  for (const a of record.checklist ?? []) {
+    const m = a.measurement;
+    if (!m) continue;
+    const shared = m.readingId ? byId.get(m.readingId) : undefined;
+    out.set(`checklist:${a.itemId}`, shared ? source(shared) : { entered: m.entered ?? null, unit: m.unit });
+  }
+  return out;
 }
 
 /** Envelope items, worst first: over, then near, then within; by ratio within each. */

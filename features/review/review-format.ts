@@ -3,9 +3,9 @@
  * kind (features/inspections/schema.ts): speed rad/s, period s, amplitude rad, diameter and clearance m.
  */
 import type { ReadingKind } from '@/features/inspections/schema';
-import { formatValue } from '@/features/loads/format';
 import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/features/units';
 import type { InspectionReading } from '@/features/review/inspection-schema';
+import { type MeasuredSource, formatMeasured, formatSpreadOf, formatTyped } from '@/lib/measured-format';
 
 export const readingQuantity: Record<Exclude<ReadingKind, 'other'>, QuantityKind> = {
   speed: 'rate',
@@ -35,16 +35,47 @@ export const readingMethodLabel: Record<InspectionReading['method'], string> = {
   other: 'Other',
 };
 
-/** A reading's value with its unit; a kind of its own is shown as recorded, in SI. */
-export function formatReading(r: Pick<InspectionReading, 'kind' | 'valueSI' | 'unit'>, system: UnitSystem) {
-  if (r.kind === 'other') return `${formatSignificant(r.valueSI, 4)} (SI; typed in ${r.unit || 'no unit'})`;
-  return formatValue(r.valueSI, readingQuantity[r.kind], system);
+/**
+ * A reading's value with its unit, as typed when the record kept the typed text (lib/measured-format.ts);
+ * a kind of its own is shown as recorded, in SI.
+ */
+export function formatReading(
+  r: Pick<InspectionReading, 'kind' | 'valueSI' | 'unit'> & {
+    entered?: string | null;
+    spreadSI?: number | null;
+  },
+  system: UnitSystem,
+) {
+  if (r.kind === 'other')
+    return `${r.entered ?? formatSignificant(r.valueSI, 4)} (${r.entered ? r.unit || 'no unit' : `SI; typed in ${r.unit || 'no unit'}`})`;
+  return formatMeasured(r.valueSI, readingQuantity[r.kind], system, readingSource(r)).text;
 }
 
-/** "± 0.02 s" for a reading's spread, when it has one. */
-export function formatSpread(r: Pick<InspectionReading, 'kind' | 'spreadSI'>, system: UnitSystem) {
-  if (r.spreadSI === null || r.kind === 'other') return null;
-  return `± ${formatValue(r.spreadSI, readingQuantity[r.kind], system)}`;
+/** What the display rule needs to know about how a reading was taken. */
+export function readingSource(r: {
+  unit: string;
+  entered?: string | null;
+  spreadSI?: number | null;
+}): MeasuredSource {
+  return { entered: r.entered ?? null, unit: r.unit, spreadSI: r.spreadSI ?? null };
+}
+
+/** "± 0.023 s" for a reading's spread (two significant figures, in the reading's unit), when it has one. */
+export function formatSpread(
+  r: Pick<InspectionReading, 'kind' | 'spreadSI'> & {
+    valueSI?: number;
+    unit?: string;
+    entered?: string | null;
+  },
+  system: UnitSystem,
+) {
+  if (r.spreadSI === null || r.spreadSI === undefined || r.kind === 'other') return null;
+  const kind = readingQuantity[r.kind];
+  const unit =
+    r.valueSI !== undefined && r.unit !== undefined
+      ? formatMeasured(r.valueSI, kind, system, readingSource({ unit: r.unit, entered: r.entered })).unit
+      : undefined;
+  return formatSpreadOf(r.spreadSI, kind, system, unit);
 }
 
 export const reviewStateLabel = {
@@ -66,17 +97,19 @@ export function pivotLabel(joint: number, name: string | null | undefined): stri
 const SI_CANDIDATES = ['m', 'N', 'N m', 'rad', 'rad/s', 's', 'Pa', 'kg', 'm/s^2', 'Hz'];
 
 /**
- * A checklist measurement in the unit the inspector typed it in ("79.3 mm"), converted back from SI; a
- * unit the converter does not know is shown as the stored SI number, said as such.
+ * A checklist measurement in the unit the inspector typed it in: the typed text when the record kept it
+ * ("0.40 mm"), else the stored value in its shortest exact form in that unit ("79.3 mm"); a unit the
+ * converter does not know is shown as the stored SI number, said as such.
  */
-export function formatMeasurement(m: { valueSI: number; unit: string }): string {
+export function formatMeasurement(m: { valueSI: number; unit: string; entered?: string | null }): string {
   const unit = m.unit.trim();
+  if (m.entered) return unit ? `${m.entered}${unit === '°' ? '' : ' '}${unit}` : m.entered;
   // In this product "g" is standard gravity (as displayed everywhere), not the gram.
   const name = unit === 'g' ? 'gee' : unit;
   if (unit)
     for (const base of SI_CANDIDATES) {
       try {
-        return `${formatSignificant(convert(m.valueSI, base, name), 4)} ${unit}`;
+        return `${formatTyped(convert(m.valueSI, base, name))} ${unit}`;
       } catch {
         // Not this quantity; try the next.
       }

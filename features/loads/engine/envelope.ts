@@ -14,6 +14,26 @@ export const ENVELOPE_STATUS_LABEL: Record<EnvelopeStatus, string> = {
 /** Where 'near' starts, as a ratio of the limit, unless the ride's documents say otherwise. */
 export const DEFAULT_NEAR_MARGIN = 0.9;
 
+/**
+ * Relative difference below which a value counts as equal to its limit: a value typed as "139.0" mm and a
+ * limit of 139.0 mm may reach SI by different roundings (139 × 0.001 vs 0.139) and differ by one unit in
+ * the last place, which is no measurement. lib/measured-format.ts shows "at the limit" by the same test.
+ */
+export const LIMIT_EQUAL_TOLERANCE = 1e-12;
+
+/** The value, set exactly onto a bound of the limit it equals within LIMIT_EQUAL_TOLERANCE. */
+function onBound(value: number, limit: Limit): number {
+  const bounds =
+    limit.kind === 'upper' ? [limit.max] : limit.kind === 'lower' ? [limit.min] : [limit.min, limit.max];
+  for (const b of bounds)
+    if (
+      b !== undefined &&
+      Math.abs(value - b) <= LIMIT_EQUAL_TOLERANCE * Math.max(Math.abs(value), Math.abs(b))
+    )
+      return b;
+  return value;
+}
+
 export type Limit =
   /** value ≤ max (a force, a torque, a speed, a clearance). ratio = value / max. */
   | { kind: 'upper'; max: number }
@@ -70,7 +90,7 @@ export function envelopeStatus(ratio: number, margin: number = DEFAULT_NEAR_MARG
 }
 
 export function evaluateLimit(value: number, limit: Limit, margin: number = DEFAULT_NEAR_MARGIN): Evaluation {
-  const ratio = limitRatio(value, limit);
+  const ratio = limitRatio(onBound(value, limit), limit);
   return { value, limit, ratio, status: envelopeStatus(ratio, margin) };
 }
 

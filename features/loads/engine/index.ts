@@ -58,6 +58,7 @@ export type {
 export {
   DEFAULT_NEAR_MARGIN,
   ENVELOPE_STATUS_LABEL,
+  LIMIT_EQUAL_TOLERANCE,
   envelopeStatus,
   evaluateExtremes,
   evaluateLimit,
