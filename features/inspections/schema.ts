@@ -11,6 +11,12 @@ const uuid = () => z.uuid({ error: 'Must be a UUID' });
 const isoTime = () => z.iso.datetime({ offset: true, error: 'Must be an ISO date-time' });
 const num = () =>
   z.number({ error: (i) => (i.input === undefined ? 'Required' : 'Must be a finite number') });
+/** A number as the inspector typed it, normalised (lib/measured-format.ts normaliseEntered): "0.40". */
+const enteredText = () =>
+  z
+    .string()
+    .max(40)
+    .regex(/^-?\d+(\.\d*)?$/, 'Must be the number as typed: digits with at most one decimal point');
 
 // One list of inspection types for schedules and inspections alike.
 export { inspectionTypeLabel, inspectionTypeSchema, inspectionTypes } from '@/features/registry/schema';
@@ -38,7 +44,7 @@ export const checklistAnswerSchema = z.object({
       valueSI: num(),
       unit: z.string().max(20),
       /** The value exactly as typed, in `unit`; displays echo it and its decimals are its precision. */
-      entered: z.string().max(40).optional(),
+      entered: enteredText().optional(),
       /** The reading that holds this value when the item measures a pivot quantity: entered once, shared. */
       readingId: z.string().min(1).max(80).optional(),
       /** The value against its limit as the inspector saw it at entry (features/inspections/checklist-limits). */
@@ -98,8 +104,8 @@ export const readingSchema = z.object({
   label: z.string().trim().min(1).max(120),
   valueSI: num(),
   unit: z.string().max(20),
-  /** The value exactly as typed, in `unit` (e.g. "0.40"); displays echo it and its decimals are its precision. */
-  entered: z.string().max(40).optional(),
+  /** The value exactly as typed, in `unit` (e.g. "0.40"); its decimals are its precision. */
+  entered: enteredText().optional(),
   /** What the inspector chose; the app never picks one for them (older records kept the app's guess). */
   method: z.enum(readingMethods),
   /** Chosen from the register; null when the inspector said none of the register's was used. */
