@@ -28,6 +28,7 @@ import type { Logger } from '@/server/logger';
 import { deliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate } from '@/server/notices/pdf';
 import { escapeHtml } from '@/server/notices/words';
+import { findingNumber } from '@/server/review/findings';
 
 /** How far ahead a due date counts as "due soon". */
 export const dueSoonDays = 7;
@@ -73,7 +74,7 @@ function dueFindings(db: Pick<Db, 'select'>, today: string): Due[] {
   const rows = db
     .select({
       findingId: findings.id,
-      number: findings.number,
+      number: findingNumber,
       severity: findings.severity,
       description: findings.description,
       requiredAction: findings.requiredAction,
