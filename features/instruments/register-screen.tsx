@@ -71,6 +71,7 @@ function Register({ user }: { user: SessionUser }) {
       <RegisterTabs role={user.role} />
       <Panes
         sideFirstOnPhone={false}
+        mainGrow={3}
         main={
           <>
             {editing ? (
@@ -148,18 +149,18 @@ function InstrumentTable({
         {
           key: 'name',
           title: 'Instrument',
-          flex: 1.8,
+          flex: 1.7,
           render: (i) => (i.retiredAt ? `${i.name} (retired)` : i.name),
         },
-        { key: 'serial', title: 'Serial', render: (i) => i.serial },
-        { key: 'method', title: 'Kind', render: (i) => readingMethodWords[i.method] },
+        { key: 'serial', title: 'Serial', flex: 1.1, render: (i) => i.serial },
+        { key: 'method', title: 'Kind', flex: 1.2, render: (i) => readingMethodWords[i.method] },
         {
           key: 'kinds',
           title: 'Measures',
           flex: 1.2,
           render: (i) => i.kinds.map((k) => readingKindLabel[k]).join(', '),
         },
-        { key: 'calibrated', title: 'Calibrated', render: (i) => i.calibratedOn ?? '—' },
+        { key: 'calibrated', title: 'Calibrated', flex: 1.2, render: (i) => i.calibratedOn ?? '—' },
         {
           key: 'due',
           title: 'Next due',
@@ -171,7 +172,7 @@ function InstrumentTable({
               {
                 key: 'edit',
                 title: '',
-                flex: 0.6,
+                flex: 0.8,
                 render: (i: Instrument) => (
                   <Button
                     label="Edit"

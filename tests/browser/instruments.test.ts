@@ -1,0 +1,123 @@
+/**
+ * The record says only what happened, in the real web export against the real server: an administrator
+ * keeps the instrument register and the declaration text (1440×900); the inspector's phone (390×844)
+ * gets both by sync, offers no method or instrument until one is picked, refuses the past-due feeler
+ * gauge of the demo register and flags the dial indicator due within the fortnight, and submits only
+ * with the declaration ticked; the server's copy of the record keeps both.
+ */
+import type { Browser } from 'playwright-core';
+
+import {
+  type Running,
+  apiGet,
+  apiToken,
+  launchBrowser,
+  openPage,
+  screenshot,
+  signIn,
+  startPivotwatch,
+} from './harness';
+
+let app: Running;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startPivotwatch();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+const declaration = 'I inspected this ride in person; this record holds only what I found and measured.';
+
+test('the administrator keeps the register and sets the declaration text', async () => {
+  const page = await openPage(browser, 'desktop');
+  await signIn(page, app.baseUrl, 'admin@pivotwatch.test');
+  await page.waitForURL((url) => url.pathname !== '/sign-in');
+  await page.goto(`${app.baseUrl}/register/instruments`);
+  await page.getByText('HR-FG-0107').waitFor({ timeout: 30000 });
+  // Calibration status in words beside its shape: past due and due soon.
+  await page.getByText(/Calibration past due since \d{4}-\d{2}-\d{2}/).waitFor();
+  await page.getByText(/Calibration due in 6 days/).waitFor();
+
+  await page.getByRole('button', { name: 'Change the text' }).click();
+  await page.getByRole('textbox', { name: 'Declaration text' }).fill(declaration);
+  await page.getByRole('button', { name: 'Save declaration' }).click();
+  await page.getByText(/^Set by .* on /).waitFor();
+
+  await page.getByRole('button', { name: 'New instrument' }).click();
+  await page.getByRole('button', { name: 'Add instrument' }).click();
+  // The server's 400 names each missing field; nothing is added.
+  await page.getByText('Choose the kind of instrument').waitFor();
+  await page.getByRole('textbox', { name: 'Name', exact: true }).fill('Outside micrometer 50–75 mm');
+  await page.getByRole('textbox', { name: 'Serial' }).fill('HR-MIC-0655');
+  await page.getByRole('radio', { name: 'Micrometer' }).click();
+  await page.getByRole('checkbox', { name: 'Pin diameter' }).click();
+  await page.getByRole('textbox', { name: 'Calibrated on' }).fill('2026-11-02');
+  await page.getByRole('textbox', { name: 'Next calibration due' }).fill('2027-11-02');
+  await page.getByRole('button', { name: 'Add instrument' }).click();
+  await page.getByText('HR-MIC-0655').waitFor();
+  await screenshot(page, 'instruments-register-desktop');
+  await page.context().close();
+});
+
+test('the phone asks how each reading was measured and for the declaration at submit', async () => {
+  const page = await openPage(browser, 'phone');
+  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  await page.waitForURL('**/today');
+  await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
+  const card = page.getByLabel('Ride Little Kite');
+  await card.waitFor({ timeout: 30000 });
+  await card
+    .getByRole('button', { name: /Start inspection|Another type/ })
+    .first()
+    .click();
+  if (await card.getByRole('radio', { name: 'Periodic' }).count())
+    await card.getByRole('radio', { name: 'Periodic' }).click();
+  await page.waitForURL('**/inspect/**');
+
+  await page.getByRole('radio', { name: 'Readings' }).click();
+  await page.getByRole('textbox', { name: 'Bushing clearance (diametral)' }).first().fill('0.21');
+  const add = page.getByRole('button', { name: /^Add bushing clearance/ }).first();
+  await add.click();
+  await page.getByText('Choose how it was measured').waitFor();
+
+  await page.getByRole('radio', { name: 'Gauge (feeler, caliper, angle)' }).first().click();
+  const pastDue = page.getByRole('radio', { name: /serial HR-FG-0107\. Calibration past due/ });
+  await pastDue.waitFor();
+  expect(await pastDue.getAttribute('aria-disabled')).toBe('true');
+  await pastDue.click({ force: true });
+  expect(await pastDue.getAttribute('aria-checked')).toBe('false');
+  await pastDue.scrollIntoViewIfNeeded();
+  await screenshot(page, 'instruments-phone-reading-picker');
+
+  await page.getByRole('radio', { name: 'Dial indicator' }).first().click();
+  await page.getByRole('radio', { name: /serial HR-DIA-0219\. Calibration due in 6 days/ }).click();
+  await add.click();
+  await page
+    .getByText(/Dial indicator · Dial indicator 0\.01 mm, spare \(HR-DIA-0219\)/)
+    .first()
+    .waitFor();
+
+  await page.getByRole('radio', { name: 'Submit' }).click();
+  await page.getByText(declaration).waitFor();
+  const submit = page.getByRole('button', { name: 'Submit inspection' });
+  expect(await submit.isDisabled()).toBe(true);
+  await page.getByText(declaration).scrollIntoViewIfNeeded();
+  await screenshot(page, 'instruments-phone-submit-declaration');
+  // The checklist still needs answers, so this inspection is not sent here: the full loop is in
+  // field-offline.test.ts. The declaration box itself is the inspector's own tick.
+  await page.getByRole('checkbox', { name: /make this declaration/ }).click();
+  expect(
+    await page.getByRole('checkbox', { name: /make this declaration/ }).getAttribute('aria-checked'),
+  ).toBe('true');
+  await page.context().close();
+
+  // The register the phone used is the server's.
+  const token = await apiToken(app.baseUrl, 'inspector@pivotwatch.test');
+  const pulled = await apiGet<{ declaration: { text: string } }>(app.baseUrl, '/api/sync/pull', token);
+  expect(pulled.declaration.text).toBe(declaration);
+});
