@@ -18,6 +18,8 @@
  *    load engine compares), and when the rounded value and limit would look equal or on the wrong side,
  *    digits are added (to the limit first, since a typed value is never changed) until the comparison
  *    shows. When value and limit are equal, the value says so: "139.0 mm (at the limit)".
+ * 5. Design values (limits, nominal sizes) are shown as stated, in their shortest exact form ("≥ 139 mm",
+ *    "≤ 0.5 mm"), never padded with zeros; in the other unit system, to four significant figures.
  */
 import { type Limit, LIMIT_EQUAL_TOLERANCE } from '@/features/loads/engine';
 import {
@@ -88,6 +90,12 @@ function fixed(x: number, decimals: number): string {
 
 function shownAt(exact: number, decimals: number): Shown {
   return { text: fixed(exact, decimals), exact, decimals, fixed: false };
+}
+
+/** A design value (a limit, a nominal size) as stated: its shortest exact form, else four figures. */
+function stated(exact: number): Shown {
+  const text = formatTyped(exact);
+  return { text, exact, decimals: decimalsOf(text), fixed: false };
 }
 
 function computed(exact: number, sig = COMPUTED_SIGNIFICANT_FIGURES): Shown {
@@ -201,6 +209,21 @@ export function formatMeasured(
   };
 }
 
+/**
+ * A design value (limit, nominal size) with its unit, as stated in the design data: "0.5 mm", "139 mm",
+ * "210 kN" rather than "0.5000 mm"; converted to the other unit system, four significant figures.
+ */
+export function formatStated(valueSI: number, kind: QuantityKind, system: UnitSystem): MeasuredText {
+  const unit = pickDisplayUnit(valueSI, kind, system);
+  const shown = stated(fromSI(valueSI, kind, unit.mathjs));
+  return {
+    value: shown.text,
+    unit: unit.label,
+    text: joinUnit(shown.text, unit.label),
+    decimals: shown.decimals,
+  };
+}
+
 /** A spread ("± 0.023 s") to two significant figures, in the unit its value is shown in. */
 export function formatSpreadOf(spreadSI: number, kind: QuantityKind, system: UnitSystem, unit?: string) {
   const display = (unit ? unitOfLabel(kind, unit) : null) ?? pickDisplayUnit(spreadSI, kind, system);
@@ -297,7 +320,7 @@ export function formatAgainstLimit(
   const largest = Math.max(Math.abs(valueSI), ...bounds.map((b) => Math.abs(b.si)));
   const unit = displayFor(kind, system, Number.isFinite(largest) ? largest : valueSI, source);
   const relations = bounds.map((b) => ({ side: b.side, relation: compareSI(valueSI, b.si) }));
-  const boundShown = bounds.map((b) => computed(fromSI(b.si, kind, unit.mathjs)));
+  const boundShown = bounds.map((b) => stated(fromSI(b.si, kind, unit.mathjs)));
   const finite = Number.isFinite(valueSI);
   const start = finite ? measuredShown(valueSI, kind, unit, source) : computed(valueSI);
   const { value, bounds: shownBounds } = finite
@@ -334,7 +357,7 @@ export function formatAgainstLimit(
 
 /** A limit alone ("≥ 139.0 mm"), where no value is beside it. */
 export function formatLimitOnly(limit: Limit, kind: QuantityKind, system: UnitSystem): string {
-  const f = (si: number) => formatMeasured(si, kind, system).text;
+  const f = (si: number) => formatStated(si, kind, system).text;
   const bounds = boundsOf(limit);
   if (bounds.length === 2) return `${f(bounds[0].si)} to ${f(bounds[1].si)}`;
   if (bounds.length === 1) return `${bounds[0].side === 'max' ? '≤' : '≥'} ${f(bounds[0].si)}`;

@@ -9,7 +9,8 @@ import { colors, layout, radius, space } from '@/components/theme';
 import type { Draft } from '@/features/inspections/draft';
 import { type CheckResult, checkResultLabel } from '@/features/inspections/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
-import { type UnitSystem, displayUnits, formatSignificant, fromSI, toSI } from '@/features/units';
+import { type UnitSystem, displayUnits, fromSI, toSI } from '@/features/units';
+import { formatTyped, normaliseEntered } from '@/lib/measured-format';
 
 type Props = {
   draft: Draft;
@@ -84,22 +85,26 @@ function ItemCard({
   const [noteOpen, setNoteOpen] = useState(!!answer.note);
   const kind = item?.measurementKind && item.measurementKind !== 'count' ? item.measurementKind : null;
   const unit = kind ? displayUnits(kind, system)[0] : null;
+  // The inspector's own digits come back as typed ("0.40", never "0.40000").
   const [valueText, setValueText] = useState(() =>
-    answer.measurement && unit && kind
-      ? formatSignificant(fromSI(answer.measurement.valueSI, kind, unit.mathjs), 5)
-      : answer.measurement
-        ? String(answer.measurement.valueSI)
-        : '',
+    answer.measurement?.entered && answer.measurement.unit === (unit?.label ?? answer.measurement.unit)
+      ? answer.measurement.entered
+      : answer.measurement && unit && kind
+        ? formatTyped(fromSI(answer.measurement.valueSI, kind, unit.mathjs))
+        : answer.measurement
+          ? String(answer.measurement.valueSI)
+          : '',
   );
   const saveValue = (text: string) => {
     setValueText(text);
-    const v = Number(text.replace(',', '.'));
-    if (text.trim() === '' || !Number.isFinite(v)) return onAnswer({ measurement: null });
+    const entered = normaliseEntered(text);
+    const v = Number(entered);
+    if (entered === null || !Number.isFinite(v)) return onAnswer({ measurement: null });
     onAnswer({
       measurement:
         kind && unit
-          ? { valueSI: toSI(v, kind, unit.mathjs), unit: unit.label }
-          : { valueSI: v, unit: item?.measurementLabel ?? '' },
+          ? { valueSI: toSI(v, kind, unit.mathjs), unit: unit.label, entered }
+          : { valueSI: v, unit: item?.measurementLabel ?? '', entered },
     });
   };
   return (

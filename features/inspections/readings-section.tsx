@@ -21,7 +21,8 @@ import {
 import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
 import type { DesignData, DesignMotion } from '@/features/registry/design-data';
 import { MotionPicture } from '@/features/tap-timer/motion-picture';
-import { type QuantityKind, type UnitSystem, displayUnits, formatQuantity, toSI } from '@/features/units';
+import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/features/units';
+import { formatMeasured, formatSpreadOf, formatStated, normaliseEntered } from '@/lib/measured-format';
 
 /** What each kind of reading is and in which quantity; how it was measured is the inspector's to say. */
 const readingSpec: Record<Exclude<ReadingKind, 'other'>, { title: string; quantity: QuantityKind }> = {
@@ -31,6 +32,18 @@ const readingSpec: Record<Exclude<ReadingKind, 'other'>, { title: string; quanti
   pin_diameter: { title: 'Pin diameter', quantity: 'lengthSmall' },
   clearance: { title: 'Bushing clearance (diametral)', quantity: 'lengthSmall' },
 };
+
+const quantityOf = (r: Reading): QuantityKind =>
+  readingSpec[r.kind as Exclude<ReadingKind, 'other'>]?.quantity ?? 'length';
+
+/** A recorded reading as the inspector typed it (or to its spread, when the tap timer measured it). */
+function recordedValue(r: Reading, system: UnitSystem) {
+  return formatMeasured(r.valueSI, quantityOf(r), system, {
+    entered: r.entered,
+    unit: r.unit,
+    spreadSI: r.spreadSI,
+  });
+}
 
 type Props = {
   draft: Draft;
@@ -84,9 +97,9 @@ export function ReadingsSection({
             </Text>
             {pivot ? (
               <Text variant="small" muted>
-                Pin nominal {formatQuantity(pivot.nominalDiameterM, 'lengthSmall', system).text}, minimum{' '}
-                {formatQuantity(pivot.minimumDiameterM, 'lengthSmall', system).text}; clearance limit{' '}
-                {formatQuantity(pivot.maxClearanceM, 'lengthSmall', system).text}
+                Pin nominal {formatStated(pivot.nominalDiameterM, 'lengthSmall', system).text}, minimum{' '}
+                {formatStated(pivot.minimumDiameterM, 'lengthSmall', system).text}; clearance limit{' '}
+                {formatStated(pivot.maxClearanceM, 'lengthSmall', system).text}
               </Text>
             ) : null}
             {kinds.map((kind) => (
@@ -111,27 +124,11 @@ export function ReadingsSection({
                 {taken.map((r) => (
                   <View key={r.id} style={styles.takenRow}>
                     <Text style={styles.takenText}>
-                      {r.label}:{' '}
-                      <Text variant="figure">
-                        {
-                          formatQuantity(
-                            r.valueSI,
-                            readingSpec[r.kind as Exclude<ReadingKind, 'other'>]?.quantity ?? 'length',
-                            system,
-                          ).text
-                        }
-                      </Text>
+                      {r.label}: <Text variant="figure">{recordedValue(r, system).text}</Text>
                       {r.spreadSI ? (
                         <Text variant="small" muted>
                           {' '}
-                          ±{' '}
-                          {
-                            formatQuantity(
-                              r.spreadSI,
-                              readingSpec[r.kind as Exclude<ReadingKind, 'other'>]?.quantity ?? 'length',
-                              system,
-                            ).text
-                          }
+                          {formatSpreadOf(r.spreadSI, quantityOf(r), system, recordedValue(r, system).unit)}
                         </Text>
                       ) : null}
                       <Text variant="small" muted>
@@ -202,6 +199,7 @@ function ReadingInput({
     method: Reading['method'],
     spreadSI: number | null = null,
     instrument?: Reading['instrument'],
+    entered?: string,
   ) => {
     offer({
       id: randomUUID(),
@@ -210,6 +208,7 @@ function ReadingInput({
       label,
       valueSI,
       unit: unit.label,
+      ...(entered !== undefined && { entered }),
       method,
       ...(instrument !== undefined && { instrument }),
       spreadSI,
@@ -217,8 +216,10 @@ function ReadingInput({
     });
   };
   const submit = () => {
-    const v = Number(text.trim().replace(',', '.'));
-    if (text.trim() === '' || !Number.isFinite(v)) return setError('Enter a number');
+    // Kept as typed (normalised), so the record shows the inspector's own digits and precision.
+    const entered = normaliseEntered(text);
+    const v = Number(entered);
+    if (entered === null || !Number.isFinite(v)) return setError('Enter a number');
     if (v <= 0 && kind !== 'clearance') return setError('Must be greater than 0');
     if (v < 0) return setError('Cannot be negative');
     setError(undefined);
@@ -229,7 +230,13 @@ function ReadingInput({
     const { method, instrument } = measured;
     // Each reading says how it was taken: the next one starts with nothing chosen again.
     setMeasured(nothingChosen);
-    add(toSI(v, spec.quantity, unit.mathjs), method, null, instrument ? snapshotOf(instrument) : null);
+    add(
+      toSI(v, spec.quantity, unit.mathjs),
+      method,
+      null,
+      instrument ? snapshotOf(instrument) : null,
+      entered,
+    );
   };
   return (
     <View style={styles.input}>
@@ -237,7 +244,7 @@ function ReadingInput({
       {pending ? (
         <PlausibilityPrompt
           pending={pending}
-          valueText={formatQuantity(pending.reading.valueSI, spec.quantity, system).text}
+          valueText={recordedValue(pending.reading, system).text}
           onKeep={(confirmed) => {
             setPending(null);
             onAdd(confirmed);

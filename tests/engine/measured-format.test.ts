@@ -8,6 +8,7 @@ import {
   carriedDecimals,
   compareSI,
   formatAgainstLimit,
+  formatLimitOnly,
   formatMeasured,
   formatShareOfLimit,
   normaliseEntered,
@@ -27,7 +28,9 @@ describe('worked cases', () => {
       unit: 'mm',
     });
     expect(typed.value).toBe('139.05 mm');
-    expect(typed.limit).toBe('≥ 139.0 mm');
+    // The design value is shown as stated, not padded: 139 mm (the design data holds a number, not its text).
+    expect(typed.limit).toBe('≥ 139 mm');
+    expect(formatLimitOnly({ kind: 'upper', max: mm(0.5) }, 'lengthSmall', 'si')).toBe('≤ 0.5 mm');
     // The same value from an older record (no typed text) or as a bare measured envelope item.
     expect(formatAgainstLimit(mm(139.05), pinLimit, 'lengthSmall', 'si', { unit: 'mm' }).value).toBe(
       '139.05 mm',
