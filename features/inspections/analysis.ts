@@ -11,8 +11,10 @@ import {
   type MotionProfile,
   analyseCycle,
 } from '@/features/loads/engine';
-import type { DevicePreview, Reading } from '@/features/inspections/schema';
+import { withChecklistLimits } from '@/features/inspections/checklist-limits';
+import type { ChecklistAnswer, DevicePreview, Reading } from '@/features/inspections/schema';
 import { type DesignData, type MeasuredInputs, designToCycleInput } from '@/features/registry/design-data';
+import type { ChecklistContent } from '@/features/registry/schema';
 
 /** The latest reading of a kind for a joint (readings are kept in the order they were taken). */
 function latest(readings: readonly Reading[], kind: Reading['kind'], joint: number): Reading | undefined {
@@ -65,6 +67,20 @@ export function analyseInspection(
   samples = 360,
 ): CycleResult {
   return analyseCycle(inspectionCycleInput(design, readings, samples));
+}
+
+/**
+ * The whole record's check: the load check of its readings plus its checklist values against their
+ * limits (features/inspections/checklist-limits), so a value entered only in the checklist still counts.
+ */
+export function analyseRecord(
+  design: DesignData,
+  record: { readings: readonly Reading[]; checklist: readonly ChecklistAnswer[] },
+  template: ChecklistContent | null,
+  samples = 360,
+): CycleResult {
+  const result = analyseInspection(design, record.readings, samples);
+  return withChecklistLimits(result, design, template, record.checklist, record.readings);
 }
 
 /** The summary the phone sends with a submission, and the server compares with its own. */

@@ -20,7 +20,7 @@ import {
 import { listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
 import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoDataUri } from '@/features/device-db/photos';
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
+import { analyseRecord, previewOf } from '@/features/inspections/analysis';
 import { type Draft, newCorrection, newDraft, toRecord } from '@/features/inspections/draft';
 import type { Declaration, InspectionType } from '@/features/inspections/schema';
 import { buildSentList } from '@/features/inspections/sent';
@@ -169,9 +169,19 @@ export function useSubmitDraftMutation() {
   const dev = useDeviceDb();
   const client = useQueryClient();
   return useMutation({
-    mutationFn: async ({ draft, declaration }: { draft: Draft; declaration: Declaration }) => {
+    mutationFn: async ({
+      draft,
+      declaration,
+      template = null,
+    }: {
+      draft: Draft;
+      declaration: Declaration;
+      /** The template the answers belong to: its limits count in the preview, as on the server. */
+      template?: ChecklistTemplate | null;
+    }) => {
       const design = draft.designVersionId ? await readDesignVersion(dev, draft.designVersionId) : null;
-      const preview = design ? previewOf(analyseInspection(design.data, draft.readings)) : null;
+      const content = template?.version.version === draft.templateVersion ? template.version.content : null;
+      const preview = design ? previewOf(analyseRecord(design.data, draft, content)) : null;
       return submitDraft(dev, toRecord(draft, preview, new Date(), declaration));
     },
     // The recording screen leaves on success; re-reading its draft now would flash "not found".

@@ -15,7 +15,7 @@ import { colors, radius, space } from '@/components/theme';
 import { useSession } from '@/features/auth/api';
 import { useDeviceDb } from '@/features/device-db/provider';
 import { putPhotoBlob } from '@/features/device-db/photos';
-import { analyseInspection } from '@/features/inspections/analysis';
+import { analyseRecord } from '@/features/inspections/analysis';
 import { ChecklistSection } from '@/features/inspections/checklist-section';
 import {
   type Draft,
@@ -94,11 +94,12 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const result = useMemo(() => {
     if (!design) return null;
     try {
-      return analyseInspection(design, draft.readings, 360);
+      const content = template?.version.version === draft.templateVersion ? template.version.content : null;
+      return analyseRecord(design, { readings: draft.readings, checklist: draft.checklist }, content, 360);
     } catch {
       return null;
     }
-  }, [design, draft.readings]);
+  }, [design, draft.readings, draft.checklist, draft.templateVersion, template]);
   const problems = draftProblems(draft, template);
   const progress = draftProgress(draft);
 
@@ -276,6 +277,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
               try {
                 await submit.mutateAsync({
                   draft,
+                  template,
                   declaration: {
                     text: declarationText,
                     declaredAt: new Date().toISOString(),

@@ -292,6 +292,8 @@ export const designVersionInfoSchema = z.object({
   reason: z.string(),
   origin: designOriginSchema,
   approvalState: designApprovalStateSchema.optional(),
+  /** The proposer's user id: the app offers approval only to someone else. */
+  createdById: z.string().optional(),
   /** The version in force it was compared with when it was made (null: the first version). */
   basedOnVersion: z.number().int().nullable().optional(),
   decidedAt: z.string().nullable().optional(),
@@ -410,6 +412,53 @@ const itemId = () =>
     .regex(/^[A-Za-z0-9_.-]+$/, 'Letters, digits, _ . - only');
 
 /**
+ * The pivot values a checklist item can be checked against from the ride's design data. Each is also a
+ * kind of reading (same words), so the checklist value becomes that pivot's reading: entered once.
+ */
+export const designLimitQuantities = ['pin_diameter', 'clearance', 'speed', 'amplitude'] as const;
+export type DesignLimitQuantity = (typeof designLimitQuantities)[number];
+export const designLimitKind: Record<DesignLimitQuantity, MeasurementKind> = {
+  pin_diameter: 'lengthSmall',
+  clearance: 'lengthSmall',
+  speed: 'rate',
+  amplitude: 'angle',
+};
+
+const limitNumber = () => z.number({ error: 'Must be a finite number' });
+
+/**
+ * What a measured item is checked against. `design`: a limit of pivot `joint` (0 = the ground pivot) in
+ * the ride's design data, so each ride of the class is checked against its own documents. `template`: a
+ * limit written here, in SI of the item's measurement kind, for values the design data does not hold
+ * (brake air gap…); `joint` optionally says which pivot it belongs to.
+ */
+export const checklistLimitSchema = z.discriminatedUnion(
+  'source',
+  [
+    z.object({
+      source: z.literal('design'),
+      joint: z.int({ error: 'Must be a whole number' }).min(0).max(9),
+      quantity: z.enum(designLimitQuantities, { error: `One of ${designLimitQuantities.join(', ')}` }),
+    }),
+    z
+      .object({
+        source: z.literal('template'),
+        joint: z.int({ error: 'Must be a whole number' }).min(0).max(9).nullable().default(null),
+        min: limitNumber().nullable().default(null),
+        max: limitNumber().nullable().default(null),
+      })
+      .superRefine((l, ctx) => {
+        if (l.min === null && l.max === null)
+          ctx.addIssue({ code: 'custom', path: ['max'], message: 'Give a minimum, a maximum or both' });
+        if (l.min !== null && l.max !== null && !(l.min < l.max))
+          ctx.addIssue({ code: 'custom', path: ['max'], message: 'Must be above the minimum' });
+      }),
+  ],
+  { error: 'source must be design or template' },
+);
+export type ChecklistLimit = z.infer<typeof checklistLimitSchema>;
+
+/**
  * One checklist item. `id` stays the same across template versions, so inspections can say which item a
  * finding belongs to; leave it out for a new item and the server assigns one.
  */
@@ -423,10 +472,33 @@ export const checklistItemSchema = z
     measurementKind: measurementKindSchema.nullable().optional(),
     /** What to write beside the reading ("pin Ø, two stations × two directions", "MΩ"). */
     measurementLabel: nullableText(120).optional(),
+    /** The limit the value is checked against when entered; none for a value only recorded. */
+    limit: checklistLimitSchema.nullable().optional(),
   })
   .superRefine((item, ctx) => {
     if (item.measurementRequired && !item.measurementKind)
       ctx.addIssue({ code: 'custom', path: ['measurementKind'], message: 'Say what kind of measurement' });
+    const limit = item.limit;
+    if (!limit) return;
+    if (!item.measurementRequired)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['limit'],
+        message: 'Only an item that takes a value has a limit',
+      });
+    else if (item.measurementKind === 'count')
+      // Envelope values carry a unit the reviewer and the notice can show; a plain number has none.
+      ctx.addIssue({
+        code: 'custom',
+        path: ['limit'],
+        message: 'A limit needs a measured quantity with a unit, not a plain number',
+      });
+    else if (limit.source === 'design' && item.measurementKind !== designLimitKind[limit.quantity])
+      ctx.addIssue({
+        code: 'custom',
+        path: ['measurementKind'],
+        message: `A ${limit.quantity.replace('_', ' ')} limit needs measurement kind ${designLimitKind[limit.quantity]}`,
+      });
   });
 
 export const checklistAreaSchema = z.object({
@@ -463,6 +535,8 @@ export const storedChecklistItemSchema = z.object({
   measurementRequired: z.boolean(),
   measurementKind: measurementKindSchema.nullable(),
   measurementLabel: z.string().nullable(),
+  /** Absent from versions stored before items could have limits. */
+  limit: checklistLimitSchema.nullable().optional(),
 });
 export const storedChecklistContentSchema = z.object({
   areas: z.array(z.object({ id: z.string(), title: z.string(), items: z.array(storedChecklistItemSchema) })),

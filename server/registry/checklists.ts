@@ -43,6 +43,7 @@ export function normaliseChecklist(content: ContentInput): ChecklistContent {
         measurementRequired: item.measurementRequired,
         measurementKind: item.measurementKind ?? null,
         measurementLabel: item.measurementLabel ?? null,
+        limit: item.limit ?? null,
       })),
     })),
   };

@@ -18,7 +18,7 @@ import { desc, eq } from 'drizzle-orm';
 import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { designVersions, rides, users } from '@/db/server/schema';
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
+import { analyseRecord, previewOf } from '@/features/inspections/analysis';
 import type {
   ChecklistAnswer,
   InspectionRecord,
@@ -478,7 +478,7 @@ function buildRecord(ctx: Ctx, spec: DemoInspection): InspectionRecord | null {
       const measurement = !item.measurementRequired
         ? undefined
         : reading
-          ? { valueSI: reading.valueSI, unit: reading.unit }
+          ? { valueSI: reading.valueSI, unit: reading.unit, readingId: reading.id }
           : (otherMeasurements[item.id] ?? null);
       return {
         itemId: item.id,
@@ -491,7 +491,9 @@ function buildRecord(ctx: Ctx, spec: DemoInspection): InspectionRecord | null {
     }),
   );
 
-  const preview = previewOf(analyseInspection(design.data, readings));
+  const preview = previewOf(
+    analyseRecord(design.data, { readings, checklist }, template?.version.content ?? null),
+  );
   return {
     id: demoUuid(spec.key),
     rideId: ride.id,

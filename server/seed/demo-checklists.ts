@@ -27,12 +27,20 @@ const measure = (
   kind: NonNullable<Item['measurementKind']>,
   label: string,
   withPhoto = false,
+  limit: Item['limit'] = null,
 ): Item => ({
   ...look(id, text),
   photoRequired: withPhoto,
   measurementRequired: true,
   measurementKind: kind,
   measurementLabel: label,
+  limit,
+});
+/** Checked against a pivot's design limit, so each ride is held to its own documents. */
+const pivotLimit = (joint: number, quantity: 'pin_diameter' | 'clearance'): Item['limit'] => ({
+  source: 'design',
+  joint,
+  quantity,
 });
 
 /** The areas every class shares; `extra` adds class-specific items to an area. */
@@ -73,12 +81,15 @@ function areas(extra: Partial<Record<string, Item[]>>): Area[] {
           'lengthSmall',
           'two stations × two directions, smallest reading',
           true,
+          pivotLimit(0, 'pin_diameter'),
         ),
         measure(
           'pins.main-clearance',
           'Main pivot diametral clearance, load reversed',
           'lengthSmall',
           'dial indicator, load reversed',
+          false,
+          pivotLimit(0, 'clearance'),
         ),
         look('pins.lubrication', 'Grease reaching every lubrication point; no dry running, no fretting dust'),
       ],
@@ -117,7 +128,14 @@ function areas(extra: Partial<Record<string, Item[]>>): Area[] {
       items: [
         look('drive.gearbox', 'Gearbox and drive units: no leaks, no unusual noise, oil level correct'),
         look('drive.hydraulics', 'Hydraulic hoses and fittings: no leaks, chafing or bulges'),
-        measure('drive.brake-gap', 'Brake air gap', 'lengthSmall', 'largest reading'),
+        // The design data holds no brake values, so the range is written here. Invented for the demo:
+        // use the brake maker's setting range.
+        measure('drive.brake-gap', 'Brake air gap', 'lengthSmall', 'largest reading', false, {
+          source: 'template',
+          joint: null,
+          min: 0.25e-3,
+          max: 0.75e-3,
+        }),
         look('drive.brake-lining', 'Brake linings above their wear mark'),
         measure(
           'drive.speed',
@@ -175,6 +193,8 @@ export const demoChecklists: { name: string; rideClass: RideClass; areas: Area[]
           'Gondola bearing play at the arm tip',
           'lengthSmall',
           'dial indicator, load reversed',
+          false,
+          pivotLimit(1, 'clearance'),
         ),
       ],
       drive: [
@@ -198,6 +218,7 @@ export const demoChecklists: { name: string; rideClass: RideClass; areas: Area[]
           'lengthSmall',
           'dial indicator, load reversed',
           true,
+          pivotLimit(1, 'clearance'),
         ),
       ],
       restraints: [
@@ -218,6 +239,7 @@ export const demoChecklists: { name: string; rideClass: RideClass; areas: Area[]
           'lengthSmall',
           'smallest reading',
           true,
+          pivotLimit(1, 'pin_diameter'),
         ),
       ],
       restraints: [
@@ -237,6 +259,7 @@ export const demoChecklists: { name: string; rideClass: RideClass; areas: Area[]
           'lengthSmall',
           'smallest reading',
           true,
+          pivotLimit(0, 'pin_diameter'),
         ),
         measure(
           'pins.chain',

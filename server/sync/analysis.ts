@@ -8,13 +8,14 @@ import { and, asc, eq, isNull } from 'drizzle-orm';
 
 import { inspections, type StoredAnalysis } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
-import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
+import { analyseRecord, previewDifferences, previewOf } from '@/features/inspections/analysis';
 import { confirmedOutOfRange } from '@/features/inspections/plausibility';
 import type { InspectionRecord } from '@/features/inspections/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
+import { templateContentOf } from '@/server/sync/checklist-check';
 import { isOpen } from '@/server/sync/sqlite-client';
 
 /** The phone analyses with the function's default sampling; the server must use the same to compare. */
@@ -64,6 +65,8 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
     .select({
       record: inspections.record,
       designVersionId: inspections.designVersionId,
+      templateId: inspections.templateId,
+      templateVersion: inspections.templateVersion,
     })
     .from(inspections)
     .where(eq(inspections.id, id))
@@ -83,7 +86,9 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
     note = noDesignNote;
   } else {
     try {
-      const result = analyseInspection(design.data, row.record.readings, ANALYSIS_SAMPLES);
+      // Checklist values with limits join the envelope, so the status and the queue see them too.
+      const template = templateContentOf(db, row.templateId, row.templateVersion);
+      const result = analyseRecord(design.data, row.record, template, ANALYSIS_SAMPLES);
       analysis = summariseAnalysis(result, design, row.record.preview);
       // The reviewer must see that a result rests on a value the inspector confirmed as out of range.
       const confirmed = confirmedOutOfRange(design.data, row.record.readings);

@@ -24,6 +24,7 @@ import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
 import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
+import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
 import { designDataLookup, plausibilityIssues } from '@/server/sync/plausibility-check';
 import { sqliteOf } from '@/server/sync/sqlite-client';
 
@@ -220,6 +221,8 @@ type BatchContext = {
   design: (designVersionId: string) => DesignData | null;
   /** Register entries by id, for the calibration check. */
   instrument: ReturnType<typeof instrumentLookup>;
+  /** Template and design versions by id, for the checklist limits. */
+  limits: ReturnType<typeof checklistLimitLookup>;
 };
 
 function rideOf(ctx: BatchContext, id: string): RideRow | null {
@@ -304,6 +307,14 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   );
   if (implausible.length) return rejected(record.id, implausible);
 
+  // A value over its checklist limit is passed only with the inspector's reason (same rule as the phone).
+  const passedOver = checklistLimitIssues(
+    designVersionId ? ctx.limits.design(designVersionId) : null,
+    ctx.limits.template(record.templateId, record.templateVersion),
+    record.checklist,
+  );
+  if (passedOver.length) return rejected(record.id, passedOver);
+
   const inspection: InspectionParams = {
     id: record.id,
     rideId: ride.id,
@@ -367,6 +378,7 @@ export function ingestBatch(
       known: new Map(),
       design: designDataLookup(st.sqlite),
       instrument: instrumentLookup(db),
+      limits: checklistLimitLookup(st.sqlite),
     };
     const referred = new Set<string>();
     for (const raw of batch.records) {
