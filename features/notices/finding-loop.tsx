@@ -33,8 +33,8 @@ type Panel = 'report' | 'close' | 'reopen' | null;
 
 /**
  * One finding of a notice as it stands now, and what can be done about it: the operator reports
- * corrective action with a note and photos; the inspection body verifies and closes it, or reopens it
- * with a comment. When the ride's status follows a close or a reopen, the new status is shown here.
+ * corrective action with a note and photos; the inspection body verifies and closes it (note and evidence
+ * required), or reopens it with a comment. The ride's status after the change is shown here.
  */
 export function FindingLoop({
   noticeId,
@@ -177,6 +177,7 @@ function StateStory({ finding: f }: { finding: NoticeFinding }) {
           {f.closedAt ? `, ${formatDateTime(f.closedAt)}` : ''}.
         </Text>
         {f.stateNote ? <LabelledLine label="Verification note" value={f.stateNote} /> : null}
+        {f.closeEvidence ? <LabelledLine label="Evidence" value={evidenceWords(f.closeEvidence)} /> : null}
       </View>
     );
   if (!f.stateNote) return null;
@@ -191,6 +192,18 @@ function StateStory({ finding: f }: { finding: NoticeFinding }) {
       <LabelledLine label="Still to put right" value={f.stateNote} />
     </View>
   );
+}
+
+function evidenceWords(e: NonNullable<NoticeFinding['closeEvidence']>): string {
+  return [
+    e.reference,
+    e.photoShas.length > 0 ? `${e.photoShas.length} photo${e.photoShas.length > 1 ? 's' : ''}` : null,
+    e.correctiveActions > 0
+      ? `the operator’s corrective-action report${e.correctiveActions > 1 ? 's' : ''} (${e.correctiveActions})`
+      : null,
+  ]
+    .filter(Boolean)
+    .join(' · ');
 }
 
 /** What followed a close or a reopen: the ride's status now and the status notice, when one was issued. */
@@ -225,21 +238,72 @@ type PanelProps = {
   onCancel: () => void;
 };
 
+/**
+ * Closing takes the verifier's note and evidence (the status rules): a document reference typed here, or
+ * the operator's corrective-action report already on the finding. Closing never returns the ride to
+ * service; the last finding that forbids operation closed books the ride's follow-up inspection.
+ */
 function ClosePanel({ noticeId, finding, userName, onDone, onCancel }: PanelProps) {
+  const change = useCloseFinding(noticeId, userName);
+  const [note, setNote] = useState('');
+  const [evidenceRef, setEvidenceRef] = useState('');
+  const [errors, setErrors] = useState<{ note?: string; evidence?: string }>({});
+  const reports = finding.correctiveActions.length;
+  const title = `Verify and close finding ${finding.number}`;
+  const submit = () => {
+    const checked = findingCloseInputSchema.safeParse({ note, evidenceRef });
+    const noteError = checked.success
+      ? undefined
+      : checked.error.issues.find((i) => i.path[0] === 'note')?.message;
+    const evidenceError =
+      evidenceRef.trim() === '' && reports === 0
+        ? 'Give a document reference, or wait for the operator’s corrective-action report.'
+        : undefined;
+    if (!checked.success || evidenceError) {
+      setErrors({ note: noteError, evidence: evidenceError });
+      return;
+    }
+    change.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
+  };
   return (
-    <NotePanel
-      title={`Verify and close finding ${finding.number}`}
-      intro="Close it once you have checked that the deficiency is put right. When it is the ride’s last finding that forbids operation, the ride returns to service and the operator is sent a status notice."
-      noteLabel="Verification note (optional)"
-      noteHint="How it was verified: seen on site, photos accepted, measured…"
-      submitLabel="Close finding"
-      submitTone="accent"
-      schema={findingCloseInputSchema}
-      change={useCloseFinding(noticeId, userName)}
-      finding={finding}
-      onDone={onDone}
-      onCancel={onCancel}
-    />
+    <View style={styles.panel} accessibilityLabel={title}>
+      <Text variant="heading">{title}</Text>
+      <Text variant="small" muted>
+        Close it once you have checked that the deficiency is put right. Closing does not return the ride to
+        service: when this is its last finding that forbids operation, a follow-up inspection is booked, and
+        its approval does.
+      </Text>
+      <TextField
+        label="Verification note"
+        value={note}
+        onChangeText={(t) => {
+          setNote(t);
+          setErrors((e) => ({ ...e, note: undefined }));
+        }}
+        multiline
+        error={errors.note}
+        hint="What you checked and found: seen on site, measured, tested…"
+      />
+      <TextField
+        label={reports > 0 ? 'Evidence reference (optional)' : 'Evidence reference'}
+        value={evidenceRef}
+        onChangeText={(t) => {
+          setEvidenceRef(t);
+          setErrors((e) => ({ ...e, evidence: undefined }));
+        }}
+        error={errors.evidence}
+        hint={
+          reports > 0
+            ? `The operator’s corrective-action report${reports > 1 ? 's' : ''} (${reports}) on this finding count as evidence; add a work order, NDT or maker’s report number if you have one.`
+            : 'A work order, NDT or maker’s report number, or your photo log entry. Without one, wait for the operator’s corrective-action report.'
+        }
+      />
+      <FormAlert problem={change.error ? { message: problemText(change.error) } : null} />
+      <View style={styles.buttons}>
+        <Button label="Close finding" tone="accent" onPress={submit} busy={change.isPending} />
+        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={change.isPending} />
+      </View>
+    </View>
   );
 }
 

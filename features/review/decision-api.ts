@@ -3,7 +3,6 @@ import { useCallback, useSyncExternalStore } from 'react';
 import { z } from 'zod';
 
 import { apiFetch } from '@/features/api/client';
-import { rideResponseSchema } from '@/features/registry/schema';
 import { reviewKeys } from '@/features/review/keys';
 import { rideNoticeKeys } from '@/features/review/ride-notices-api';
 import {
@@ -16,6 +15,8 @@ import {
   findingInputSchema,
   findingListResponseSchema,
   findingResponseSchema,
+  rideStatusChangeResponseSchema,
+  type RideStatusChangeInput,
 } from '@/features/review/schema';
 import { rideKeys } from '@/features/rides/api';
 
@@ -270,27 +271,31 @@ export function useDecide(inspectionId: string, rideId: string) {
         qc.invalidateQueries({ queryKey: reviewKeys.queues() }),
         qc.invalidateQueries({ queryKey: reviewKeys.trends(rideId) }),
         qc.invalidateQueries({ queryKey: rideNoticeKeys.everyNotice }),
+        // The decision may have set the ride's status (a stop, or a follow-up's return to service).
+        qc.invalidateQueries({ queryKey: rideKeys.all }),
       ]),
   });
 }
 
 // ——— the ride's status ———
 
-export type RideStatusChange = {
-  status: 'in_service' | 'restricted' | 'out_of_service';
-  statusReason: string | null;
-};
+export type RideStatusChange = RideStatusChangeInput;
 
 /**
- * Sets the ride's status from the review desk (the register's ride PATCH). The register's ride caches
- * (the desk reads the ride's status from them), the queue, the inspection's audit trail and the notices
- * (a status change issues one to the operator) are refreshed.
+ * Changes the ride's status outside a decision (`POST /api/rides/:id/status`, under the status rules): a
+ * stop, a restriction, or a supervisor's override back towards service, each with its reason and one
+ * notice. The register's ride caches (the desk reads the ride's status from them), the queue, the
+ * inspection's audit trail and the notices are refreshed.
  */
 export function useSetRideStatus(rideId: string, inspectionId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (change: RideStatusChange) =>
-      apiFetch(`/api/rides/${enc(rideId)}`, { method: 'PATCH', body: change, schema: rideResponseSchema }),
+      apiFetch(`/api/rides/${enc(rideId)}/status`, {
+        method: 'POST',
+        body: change,
+        schema: rideStatusChangeResponseSchema,
+      }),
     onSettled: () =>
       Promise.all([
         qc.invalidateQueries({ queryKey: rideKeys.all }),

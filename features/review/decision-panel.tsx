@@ -1,17 +1,17 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
-import { StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import type { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { QueryState } from '@/components/query-state';
-import { type RideStatus, rideStatusLabel } from '@/components/status-mark';
+import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, radius, space } from '@/components/theme';
+import { colors, layout, radius, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/features/api/client';
 import type { NoticeListItem } from '@/features/notices/schema';
 import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
@@ -43,6 +43,8 @@ type Props = {
   reviewState: 'submitted' | 'approved' | 'returned';
   reviewNote: string | null;
   photos: { sha256: string; caption: string }[];
+  /** The server's checked values against their limits (the analysis envelope), for the approve warning. */
+  envelope?: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
 };
 
 type Editor = { mode: 'new' } | { mode: 'edit'; finding: ListedFinding } | null;
@@ -59,8 +61,6 @@ export function DecisionPanel(props: Props) {
   const { inspectionId, rideId, rideName, rideStatus, rideStatusReason, reviewState, photos } = props;
   const findings = useFindings(inspectionId);
   const editable = reviewState !== 'approved';
-  // Preselecting "out of service" remounts the status control with that choice (see the approve warning).
-  const [statusStart, setStatusStart] = useState<{ status: RideStatus; n: number } | null>(null);
   // Kept here, not in the form: the decision shows at once (optimistic), which unmounts the form, and a
   // refusal brings it back; the comment typed and the server's answer must survive both.
   const decide = useDecide(inspectionId, rideId);
@@ -121,20 +121,19 @@ export function DecisionPanel(props: Props) {
             rideName={rideName}
             rideStatus={rideStatus}
             findings={findings.data?.findings ?? []}
-            onStopRide={() => setStatusStart((s) => ({ status: 'out_of_service', n: (s?.n ?? 0) + 1 }))}
+            envelope={props.envelope ?? []}
           />
         </Card>
       ) : null}
       <Card>
         <SectionHeading>Ride status</SectionHeading>
         <RideStatusControl
-          key={statusStart ? `start-${statusStart.n}` : 'current'}
+          key={rideStatus}
           rideId={rideId}
           inspectionId={inspectionId}
           rideName={rideName}
           status={rideStatus}
           statusReason={rideStatusReason}
-          startWith={statusStart?.status}
         />
       </Card>
     </View>
@@ -376,6 +375,25 @@ function FindingsSection({
 
 type DecisionValues = z.output<typeof decisionInputSchema>;
 
+/** The ride's status sent with the decision: kept as it is, or made stricter by this decision. */
+type StatusChoice = 'keep' | 'out_of_service' | 'restricted';
+
+/**
+ * What stands against approving while the ride would run: findings that forbid operation need it out of
+ * service, values over their limits at least restricted (the server refuses otherwise); values near their
+ * limits are worth a second look but may be approved.
+ */
+export function approvalConcerns<E extends { label: string; status: 'within' | 'near' | 'over' }>(
+  findings: readonly Pick<ListedFinding, 'number' | 'severity' | 'state'>[],
+  envelope: readonly E[],
+) {
+  return {
+    blocking: findings.filter((f) => f.state !== 'closed' && !severityInfo[f.severity].mayOperate),
+    over: envelope.filter((e) => e.status === 'over'),
+    near: envelope.filter((e) => e.status === 'near'),
+  };
+}
+
 function DecisionForm({
   decide,
   problem,
@@ -385,7 +403,7 @@ function DecisionForm({
   rideName,
   rideStatus,
   findings,
-  onStopRide,
+  envelope,
 }: {
   decide: ReturnType<typeof useDecide>;
   problem: FormProblem | null;
@@ -395,25 +413,32 @@ function DecisionForm({
   rideName: string;
   rideStatus: RideStatus;
   findings: readonly ListedFinding[];
-  onStopRide: () => void;
+  envelope: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
 }) {
-  const [warning, setWarning] = useState(false);
+  const [warning, setWarning] = useState<'hard' | 'soft' | null>(null);
+  const [choice, setChoice] = useState<StatusChoice>('keep');
+  const [reason, setReason] = useState('');
+  const [reasonError, setReasonError] = useState<string | undefined>();
   const { control, handleSubmit, setValue, setError, clearErrors } = useForm<
     DecisionInput,
     unknown,
     DecisionValues
   >({ resolver: zodResolver(decisionInputSchema), defaultValues: { decision: 'approve', note } });
 
-  // Findings that forbid operation while the ride still runs: the supervisor is asked before approving.
-  const blocking = findings.filter(
-    (f) => f.state !== 'closed' && !severityInfo[f.severity].mayOperate && rideStatus === 'in_service',
+  const concerns = approvalConcerns(findings, envelope);
+  const after: RideStatus = choice === 'keep' ? rideStatus : choice;
+  // The stricter statuses this decision may set; easing a stop is the follow-up's or an override's.
+  const stricter = (['restricted', 'out_of_service'] as const).filter(
+    (s) => s !== rideStatus && !(rideStatus === 'out_of_service' && s === 'restricted'),
   );
 
   const send = handleSubmit(async (values) => {
     setProblem(null);
-    const body: DecisionInput = values.note
-      ? { decision: values.decision, note: values.note }
-      : { decision: values.decision };
+    const body: DecisionInput = {
+      decision: values.decision,
+      ...(values.note ? { note: values.note } : {}),
+      ...(choice !== 'keep' ? { rideStatus: { status: choice, reason: reason.trim() } } : {}),
+    };
     try {
       await decide.mutateAsync(body);
       onNoteChange('');
@@ -430,22 +455,45 @@ function DecisionForm({
     }
   });
 
+  const reasonOk = () => {
+    if (choice !== 'keep' && reason.trim() === '') {
+      setReasonError('Say why; the operator reads it with the status.');
+      return false;
+    }
+    return true;
+  };
+
   const approve = (confirmed: boolean) => {
     clearErrors();
     setValue('decision', 'approve');
-    if (blocking.length > 0 && !confirmed) {
-      setWarning(true);
+    const hard =
+      (concerns.blocking.length > 0 && after !== 'out_of_service') ||
+      (concerns.over.length > 0 && after === 'in_service');
+    if (hard) {
+      setWarning('hard');
       return;
     }
-    setWarning(false);
+    if (concerns.near.length > 0 && after === 'in_service' && !confirmed) {
+      setWarning('soft');
+      return;
+    }
+    if (!reasonOk()) return;
+    setWarning(null);
     void send();
   };
   const giveBack = () => {
     clearErrors();
-    setWarning(false);
+    setWarning(null);
     setValue('decision', 'return');
+    if (!reasonOk()) return;
     void send();
   };
+
+  const listed = [
+    ...concerns.blocking.map((f) => `Finding ${f.number} (${severityInfo[f.severity].label.toLowerCase()})`),
+    ...concerns.over.map((e) => `${e.label}: over its limit`),
+    ...(warning === 'soft' ? concerns.near.map((e) => `${e.label}: near its limit`) : []),
+  ];
 
   return (
     <View style={styles.section}>
@@ -470,26 +518,83 @@ function DecisionForm({
           />
         )}
       />
+      <View style={styles.section}>
+        <Text variant="label" muted>
+          RIDE STATUS WITH THIS DECISION
+        </Text>
+        <View role="radiogroup" accessibilityLabel="Ride status with this decision" style={styles.buttons}>
+          {(['keep', ...stricter] as StatusChoice[]).map((c) => {
+            const on = c === choice;
+            const label =
+              c === 'keep'
+                ? `Keep ${rideStatusLabel(rideStatus).toLowerCase()}`
+                : `Set ${rideStatusLabel(c).toLowerCase()}`;
+            return (
+              <Pressable
+                key={c}
+                role="radio"
+                aria-checked={on}
+                accessibilityState={{ checked: on }}
+                accessibilityLabel={label}
+                onPress={() => {
+                  setChoice(c);
+                  setWarning(null);
+                  setReasonError(undefined);
+                }}
+                style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
+              >
+                <Text variant="label" color={on ? colors.base : colors.textMuted}>
+                  {on ? '●' : '○'}
+                </Text>
+                {c === 'keep' ? <Text>{label}</Text> : <RideStatusMark status={c} compact />}
+              </Pressable>
+            );
+          })}
+        </View>
+        {choice !== 'keep' ? (
+          <TextField
+            label="Reason for the status"
+            hint="The operator reads it on the decision’s notice, with the findings and values behind it."
+            value={reason}
+            onChangeText={(t) => {
+              setReason(t);
+              setReasonError(undefined);
+            }}
+            error={reasonError}
+            multiline
+          />
+        ) : (
+          <Text variant="small" muted>
+            One decision, one notice: a status set here goes on the approval’s notice to the operator.
+            {rideStatus !== 'in_service'
+              ? ' Approving a follow-up inspection returns the ride to service when nothing forbids operation.'
+              : ''}
+          </Text>
+        )}
+      </View>
       {warning ? (
         <View style={styles.warning} role="alert">
-          <Text variant="heading">▲ Set the ride out of service first?</Text>
+          <Text variant="heading">
+            {warning === 'hard' ? '▲ Stop the ride with this approval' : '▲ Values near their limits'}
+          </Text>
           <Text>
-            {blocking
-              .map((f) => `Finding ${f.number} (${severityInfo[f.severity].label.toLowerCase()})`)
-              .join(', ')}{' '}
-            {blocking.length === 1 ? 'says' : 'say'} the ride must not carry riders, but {rideName} is still{' '}
-            {rideStatusLabel(rideStatus).toLowerCase()}.
+            {listed.join(', ')}.{' '}
+            {warning === 'hard'
+              ? `${rideName} must not carry riders on this result, but it would stay ${rideStatusLabel(after).toLowerCase()}. Set it out of service with this decision, or return the inspection if the values are wrong.`
+              : `${rideName} would stay ${rideStatusLabel(after).toLowerCase()}.`}
           </Text>
           <View style={styles.buttons}>
             <Button
-              label="Set out of service"
+              label="Set out of service with this decision"
               tone="accent"
               onPress={() => {
-                setWarning(false);
-                onStopRide();
+                setWarning(null);
+                setChoice('out_of_service');
               }}
             />
-            <Button label="Approve anyway" tone="quiet" onPress={() => approve(true)} />
+            {warning === 'soft' ? (
+              <Button label="Approve anyway" tone="quiet" onPress={() => approve(true)} />
+            ) : null}
           </View>
         </View>
       ) : null}
@@ -545,5 +650,17 @@ const styles = StyleSheet.create({
     backgroundColor: colors.nearSoft,
   },
   buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  choice: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    minHeight: layout.touchTarget,
+    paddingHorizontal: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1.5,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  choiceOn: { borderColor: colors.base, borderWidth: 2.5 },
   note: { minHeight: 72, textAlignVertical: 'top' },
 });

@@ -105,6 +105,7 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
       reviewState={inspection.reviewState}
       reviewNote={inspection.reviewNote}
       photos={inspection.photos.map((p) => ({ sha256: p.sha256, caption: p.caption }))}
+      envelope={inspection.analysis?.envelope}
     />
   ) : (
     <Card>

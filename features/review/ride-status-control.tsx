@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { z } from 'zod';
@@ -10,23 +10,24 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { FormText } from '@/features/registry/form-fields';
 import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
-import { requireReasonOutOfService } from '@/features/registry/ride-form';
-import { ridePatchSchema } from '@/features/registry/schema';
+import { useSession } from '@/features/auth/api';
 import { fieldsOf } from '@/features/registry/server-errors';
 import { useSetRideStatus } from '@/features/review/decision-api';
-import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
+import { statusChoices } from '@/features/review/status-rules';
+import { rideStatusSchema } from '@/features/rides/schema';
 
-/** The status part of the register's ride PATCH, with its rule: a reason unless the ride is in service. */
-const rideStatusFormSchema = z
-  .object({ status: rideStatusSchema, statusReason: ridePatchSchema.shape.statusReason })
-  .superRefine(requireReasonOutOfService);
+const rideStatusFormSchema = z.object({
+  status: rideStatusSchema,
+  reason: z.string().trim().max(2000, 'At most 2000 characters'),
+});
 type FormIn = z.input<typeof rideStatusFormSchema>;
 type FormOut = z.output<typeof rideStatusFormSchema>;
 
 /**
- * The ride's status beside the inspection: what it is now, and a change with its reason saved at once
- * (the register's ride PATCH, recorded in the audit trail). `startWith` preselects a status, e.g. out of
- * service when the supervisor is asked to stop the ride before approving.
+ * The ride's status beside the inspection, and a change of it on its own (outside the decision, which
+ * carries its own status change): only the changes the status rules (`features/review/status-rules.ts`)
+ * allow the signed-in person are offered. A return towards service without a follow-up inspection is a
+ * supervisor's override: it needs a reason, is recorded and the operator is sent a notice.
  */
 export function RideStatusControl({
   rideId,
@@ -34,39 +35,37 @@ export function RideStatusControl({
   rideName,
   status,
   statusReason,
-  startWith,
 }: {
   rideId: string;
   inspectionId: string;
   rideName: string;
   status: RideStatus;
   statusReason: string | null;
-  startWith?: RideStatus;
 }) {
   const setStatus = useSetRideStatus(rideId, inspectionId);
+  const role = useSession().data?.user.role ?? null;
+  const choices = role ? statusChoices(status, role) : [];
   const [saved, setSaved] = useState<RideStatus | null>(null);
-  const { control, handleSubmit, setError, setFocus, formState } = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(rideStatusFormSchema),
-    defaultValues: {
-      status: startWith ?? status,
-      statusReason: (startWith ?? status) === status ? (statusReason ?? '') : '',
-    },
+  const { control, handleSubmit, setError, formState } = useForm<FormIn, unknown, FormOut>({
+    resolver: zodResolver(
+      rideStatusFormSchema.superRefine((v, ctx) => {
+        if (v.status !== status && v.reason === '')
+          ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why; the operator reads it.' });
+      }),
+    ),
+    defaultValues: { status, reason: '' },
   });
   const chosen = useWatch({ control, name: 'status' });
-  // Opened with a status to set (from the approve warning): the reason is what is still needed.
-  useEffect(() => {
-    if (startWith && startWith !== 'in_service') setFocus('statusReason');
-  }, [startWith, setFocus]);
+  const override = choices.find((c) => c.status === chosen)?.override ?? false;
   const save = useServerSubmit(
     { handleSubmit, setError, formState },
     async (values) => {
       setSaved(null);
-      // In service carries no reason; the server clears it the same way.
-      const statusReason = values.status === 'in_service' ? null : (values.statusReason ?? null);
-      await setStatus.mutateAsync({ status: values.status, statusReason });
+      if (values.status === status) return;
+      await setStatus.mutateAsync({ status: values.status, reason: values.reason });
       setSaved(values.status);
     },
-    fieldsOf(['status', 'statusReason']),
+    fieldsOf(['status', 'reason']),
   );
   return (
     <View style={styles.box}>
@@ -76,49 +75,79 @@ export function RideStatusControl({
         </Text>
         <RideStatusMark status={status} />
         {status !== 'in_service' && statusReason ? <Text variant="small">{statusReason}</Text> : null}
+        {status !== 'in_service' ? (
+          <Text variant="small" muted>
+            Returns to service when its follow-up inspection is approved, or by a supervisor’s override.
+          </Text>
+        ) : null}
       </View>
-      <Controller
-        control={control}
-        name="status"
-        render={({ field, fieldState }) => (
-          <FieldFrame label="Set the ride's status" error={fieldState.error?.message}>
-            <View role="radiogroup" accessibilityLabel="Ride status" style={styles.choices}>
-              {rideStatuses.map((s) => {
-                const on = s === field.value;
-                return (
-                  <Pressable
-                    key={s}
-                    role="radio"
-                    aria-checked={on}
-                    accessibilityState={{ checked: on }}
-                    accessibilityLabel={rideStatusLabel(s)}
-                    onPress={() => field.onChange(s)}
-                    style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
-                  >
-                    <Text variant="label" color={on ? colors.base : colors.textMuted}>
-                      {on ? '●' : '○'}
-                    </Text>
-                    <RideStatusMark status={s} compact />
-                  </Pressable>
-                );
-              })}
-            </View>
-          </FieldFrame>
-        )}
-      />
-      {chosen !== 'in_service' ? (
-        <FormText
-          control={control}
-          name="statusReason"
-          label="Reason"
-          hint="The operator sees it with the status. Say what must happen before the ride runs normally again."
-          multiline
-        />
-      ) : null}
-      <FormFooter save={save} submitLabel="Save ride status" />
+      {choices.length === 0 ? (
+        <Text variant="small" muted>
+          {status === 'in_service'
+            ? 'Only a supervisor or an administrator can change the ride’s status.'
+            : 'Only a supervisor can override the stop.'}
+        </Text>
+      ) : (
+        <>
+          <Controller
+            control={control}
+            name="status"
+            render={({ field, fieldState }) => (
+              <FieldFrame label="Change the ride's status on its own" error={fieldState.error?.message}>
+                <View role="radiogroup" accessibilityLabel="Ride status" style={styles.choices}>
+                  {[{ status, override: false }, ...choices].map((c) => {
+                    const on = c.status === field.value;
+                    const label =
+                      c.status === status
+                        ? `${rideStatusLabel(c.status)} (no change)`
+                        : c.override
+                          ? `${rideStatusLabel(c.status)} (override)`
+                          : rideStatusLabel(c.status);
+                    return (
+                      <Pressable
+                        key={c.status}
+                        role="radio"
+                        aria-checked={on}
+                        accessibilityState={{ checked: on }}
+                        accessibilityLabel={label}
+                        onPress={() => field.onChange(c.status)}
+                        style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
+                      >
+                        <Text variant="label" color={on ? colors.base : colors.textMuted}>
+                          {on ? '●' : '○'}
+                        </Text>
+                        <RideStatusMark status={c.status} compact />
+                        {c.override ? (
+                          <Text variant="small" muted>
+                            override
+                          </Text>
+                        ) : null}
+                      </Pressable>
+                    );
+                  })}
+                </View>
+              </FieldFrame>
+            )}
+          />
+          {chosen !== status ? (
+            <FormText
+              control={control}
+              name="reason"
+              label={override ? 'Reason for the override' : 'Reason'}
+              hint={
+                override
+                  ? 'Why the ride may run without its follow-up inspection (who checked what). It is recorded and sent to the operator.'
+                  : 'The operator sees it with the status. Say what must happen before the ride runs normally again.'
+              }
+              multiline
+            />
+          ) : null}
+          <FormFooter save={save} submitLabel={override ? 'Override and notify' : 'Save ride status'} />
+        </>
+      )}
       {saved && !formState.isSubmitting ? (
         <Text variant="small" accessibilityLiveRegion="polite" role="status">
-          Saved: {rideName} is now {rideStatusLabel(saved).toLowerCase()}.
+          Saved: {rideName} is now {rideStatusLabel(saved).toLowerCase()}; the operator is sent a notice.
         </Text>
       ) : null}
     </View>

@@ -298,7 +298,7 @@ function findingState(finding: NoticeFinding, statusNotice: FindingStateResponse
       ride: {
         id: 'ride-sky',
         status: server.rideStatus,
-        statusReason: statusNotice ? 'Findings verified closed' : null,
+        statusReason: server.rideStatus === 'in_service' ? null : 'Pin',
       },
       statusNotice,
     },
@@ -374,10 +374,22 @@ function route(call: Call): Reply {
       return { ...reply, status: 201 };
     }
     if (what === 'close') {
-      server.rideStatus = 'in_service';
+      // Closing never changes the ride's status (the status rules): no status notice.
+      const input = call.body as { note: string; evidenceRef: string | null; photoShas: string[] };
       return findingState(
-        { ...finding, state: 'closed', closedAt: clock(), closedByName: 'Mira Delacourt', stateNote: null },
-        { id: 'n-8', reference: 'PW-2026-0008' },
+        {
+          ...finding,
+          state: 'closed',
+          closedAt: clock(),
+          closedByName: 'Mira Delacourt',
+          stateNote: input.note,
+          closeEvidence: {
+            photoShas: input.photoShas,
+            reference: input.evidenceRef,
+            correctiveActions: finding.correctiveActions.length,
+          },
+        },
+        null,
       );
     }
     const note = (call.body as { note: string }).note;
@@ -627,7 +639,8 @@ describe('the inspection body', () => {
     expect(screen.queryByRole('button', { name: /^Report corrective action/ })).toBeNull();
   });
 
-  test('verify and close: the finding closes and the ride’s new status and status notice show', async () => {
+  test('verify and close: the note is required, the operator’s report counts as evidence, the ride stays stopped', async () => {
+    server.rideStatus = 'out_of_service';
     server.notice = noticeNow({
       findings: [
         findingNow({
@@ -652,15 +665,47 @@ describe('the inspection body', () => {
     expect(within(loop).getByText('Pin and bushing replaced.')).toBeTruthy();
     fireEvent.press(within(loop).getByRole('button', { name: 'Verify and close finding 1' }));
     fireEvent.press(screen.getByRole('button', { name: 'Close finding' }));
-    expect(await within(loop).findByText('Status notice PW-2026-0008 issued to the operator ›')).toBeTruthy();
-    expect(within(loop).getByText('THE RIDE’S STATUS FOLLOWED')).toBeTruthy();
-    expect(within(loop).getByLabelText('In service')).toBeTruthy();
-    // The cache's change reaches the screen on React Query's next tick.
+    expect(await within(loop).findByText('Say what you checked and found')).toBeTruthy();
+    expect(callsTo('POST', '/api/findings/f-1/close')).toHaveLength(0);
+    fireEvent.changeText(
+      within(loop).getByLabelText('Verification note'),
+      'New pin seen fitted and measured',
+    );
+    fireEvent.press(screen.getByRole('button', { name: 'Close finding' }));
+    expect(await within(loop).findByText('RIDE STATUS NOW')).toBeTruthy();
+    expect(within(loop).getByLabelText('Out of service')).toBeTruthy();
+    expect(within(loop).queryByText(/Status notice/)).toBeNull();
     expect(await within(loop).findByLabelText('State: Closed')).toBeTruthy();
-    expect(callsTo('POST', '/api/findings/f-1/close')[0].body).toEqual({ note: null });
+    expect(callsTo('POST', '/api/findings/f-1/close')[0].body).toEqual({
+      note: 'New pin seen fitted and measured',
+      evidenceRef: null,
+      photoShas: [],
+    });
+    expect(await within(loop).findByText(/the operator’s corrective-action report \(1\)/)).toBeTruthy();
     // Closed: no more close, but it can be reopened.
     expect(within(loop).queryByRole('button', { name: 'Verify and close finding 1' })).toBeNull();
     expect(within(loop).getByRole('button', { name: 'Reopen finding 1' })).toBeTruthy();
+  });
+
+  test('verify and close without the operator’s report needs a document reference', async () => {
+    server.notice = noticeNow({ findings: [findingNow({ id: 'f-1' }), findingNow({ id: 'f-2' })] });
+    renderNotices(supervisor, `/notices/${NOTICE}`);
+    const loop = await screen.findByLabelText('Finding 1');
+    fireEvent.press(within(loop).getByRole('button', { name: 'Verify and close finding 1' }));
+    fireEvent.changeText(within(loop).getByLabelText('Verification note'), 'Weld seen ground and re-tested');
+    fireEvent.press(screen.getByRole('button', { name: 'Close finding' }));
+    expect(
+      await within(loop).findByText(
+        'Give a document reference, or wait for the operator’s corrective-action report.',
+      ),
+    ).toBeTruthy();
+    expect(callsTo('POST', '/api/findings/f-1/close')).toHaveLength(0);
+    fireEvent.changeText(within(loop).getByLabelText('Evidence reference'), 'MT report 118');
+    fireEvent.press(screen.getByRole('button', { name: 'Close finding' }));
+    await waitFor(() => expect(callsTo('POST', '/api/findings/f-1/close')).toHaveLength(1));
+    expect(callsTo('POST', '/api/findings/f-1/close')[0].body).toMatchObject({
+      evidenceRef: 'MT report 118',
+    });
   });
 
   test('reopen needs a comment; with one, the finding is open again and says what is still wrong', async () => {

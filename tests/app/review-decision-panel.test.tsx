@@ -11,6 +11,7 @@ import { type QueryClient, QueryClientProvider, useQuery } from '@tanstack/react
 import { act, fireEvent, render, screen, waitFor, within } from '@testing-library/react-native';
 
 import { apiFetch } from '@/features/api/client';
+import { authKeys } from '@/features/auth/api';
 import { makeQueryClient } from '@/features/api/query-client';
 import {
   type NoticeListItem,
@@ -18,7 +19,7 @@ import {
   noticeListQuerySchema,
 } from '@/features/notices/schema';
 import { rideDetailResponseSchema } from '@/features/registry/schema';
-import { DecisionPanel } from '@/features/review/decision-panel';
+import { approvalConcerns, DecisionPanel } from '@/features/review/decision-panel';
 import { reviewKeys } from '@/features/review/keys';
 import {
   type Finding,
@@ -188,6 +189,18 @@ beforeEach(() => {
 let clients: QueryClient[] = [];
 function newClient() {
   const client = makeQueryClient();
+  // Signed in as the demo supervisor: the status control offers what the status rules allow that role.
+  client.setQueryData(authKeys.session(), {
+    user: {
+      id: 'user-sup',
+      email: 'supervisor@pivotwatch.test',
+      name: 'Mara Quill',
+      role: 'supervisor',
+      companyId: null,
+      companyName: null,
+    },
+    offline: false,
+  });
   clients.push(client);
   return client;
 }
@@ -498,7 +511,7 @@ describe('the decision', () => {
     expect(screen.getByText(/Photos of the lower bushing are missing\./)).toBeTruthy();
   });
 
-  test('approving with a stop-now finding while the ride runs asks first; the supervisor may go on', async () => {
+  test('approving with a stop-now finding while the ride runs stops it in the same decision: one request', async () => {
     server.findings = [finding({ severity: 'stop_now', requiredAction: 'Lock out and call the engineer' })];
     await renderDeskWithFindings();
     server.override = (call) =>
@@ -511,55 +524,72 @@ describe('the decision', () => {
               reviewNote: null,
               reviewedAt: '2026-06-02T11:00:00.000Z',
               reviewedByName: 'Mara Quill',
+              ride: { status: 'out_of_service', statusReason: 'Main pin cracked', changed: true },
             },
           }
         : undefined;
     fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
-    expect(await screen.findByText(/Set the ride out of service first\?/)).toBeTruthy();
+    expect(await screen.findByText(/Stop the ride with this approval/)).toBeTruthy();
+    // A finding that forbids operation cannot be approved on a running ride: no "approve anyway".
+    expect(screen.queryByRole('button', { name: 'Approve anyway' })).toBeNull();
     expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)).toHaveLength(0);
-    fireEvent.press(screen.getByRole('button', { name: 'Approve anyway' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Set out of service with this decision' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
+    expect(await screen.findByText('Say why; the operator reads it with the status.')).toBeTruthy();
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)).toHaveLength(0);
+    fireEvent.changeText(screen.getByLabelText('Reason for the status'), 'Main pin cracked');
+    fireEvent.press(screen.getByRole('button', { name: 'Approve inspection' }));
     await waitFor(() => expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)).toHaveLength(1));
+    expect(callsTo('POST', `/api/inspections/${INSPECTION}/decision`)[0].body).toEqual({
+      decision: 'approve',
+      rideStatus: { status: 'out_of_service', reason: 'Main pin cracked' },
+    });
+    // No separate status request: the stop is part of the decision.
+    expect(callsTo('POST', '/api/rides/ride-3/status')).toHaveLength(0);
+  });
+
+  test('values over or near their limits count in the approve warning, not only findings', () => {
+    const envelope = [
+      { id: 'a', label: 'Pin diameter, main pivot', status: 'over' as const },
+      { id: 'b', label: 'Bushing clearance, main pivot', status: 'near' as const },
+      { id: 'c', label: 'Peak force, main pivot', status: 'within' as const },
+    ];
+    const c = approvalConcerns([], envelope);
+    expect(c.blocking).toEqual([]);
+    expect(c.over.map((e) => e.id)).toEqual(['a']);
+    expect(c.near.map((e) => e.id)).toEqual(['b']);
   });
 });
 
 describe('the ride status', () => {
-  test('out of service needs a reason; saved with the register’s PATCH', async () => {
+  test('a stop on its own needs a reason and goes through the status rules’ endpoint', async () => {
     await renderDesk();
     server.override = (call) =>
-      call.method === 'PATCH' && call.path === '/api/rides/ride-3'
+      call.method === 'POST' && call.path === '/api/rides/ride-3/status'
         ? {
             status: 200,
             body: {
-              ride: {
-                id: 'ride-3',
-                name: 'Gull Wing',
-                rideClass: 'pendulum_swing',
-                description: null,
-                maker: null,
-                model: null,
-                serial: null,
-                year: null,
-                status: 'out_of_service',
-                statusReason: 'Main pin worn',
-                statusSince: '2026-06-02T11:00:00.000Z',
-                siteId: null,
-                siteName: null,
-                operatorCompanyId: 'op-1',
-                operatorName: 'Tamsworth Pier Leisure',
-              },
+              ride: { id: 'ride-3', status: 'out_of_service', statusReason: 'Main pin worn' },
+              notice: { id: 'n-9', reference: 'PW-2026-0009' },
             },
           }
         : undefined;
-    fireEvent.press(screen.getByRole('radio', { name: 'Out of service' }));
+    // A running ride: a supervisor may stop or restrict it; there is nothing to override.
+    expect(screen.queryByRole('radio', { name: /override/ })).toBeNull();
+    // The ride status card's choice (the decision form offers its own "Set out of service").
+    const choices = screen.getAllByRole('radio', { name: 'Out of service' });
+    fireEvent.press(choices[choices.length - 1]);
     fireEvent.press(screen.getByRole('button', { name: 'Save ride status' }));
-    expect(await screen.findByText('Say why the ride is restricted or out of service')).toBeTruthy();
-    expect(callsTo('PATCH', '/api/rides/ride-3')).toHaveLength(0);
+    expect(await screen.findByText('Say why; the operator reads it.')).toBeTruthy();
+    expect(callsTo('POST', '/api/rides/ride-3/status')).toHaveLength(0);
     fireEvent.changeText(screen.getByLabelText('Reason'), ' Main pin worn ');
     fireEvent.press(screen.getByRole('button', { name: 'Save ride status' }));
-    expect(await screen.findByText('Saved: Gull Wing is now out of service.')).toBeTruthy();
-    expect(callsTo('PATCH', '/api/rides/ride-3')[0].body).toEqual({
+    expect(
+      await screen.findByText('Saved: Gull Wing is now out of service; the operator is sent a notice.'),
+    ).toBeTruthy();
+    expect(callsTo('POST', '/api/rides/ride-3/status')[0].body).toEqual({
       status: 'out_of_service',
-      statusReason: 'Main pin worn',
+      reason: 'Main pin worn',
     });
   });
 });

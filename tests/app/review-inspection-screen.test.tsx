@@ -466,7 +466,8 @@ describe('inspection review', () => {
     const chart = await screen.findByLabelText(/^Force on P1 · Main pivot over the ride cycle/);
     const label = chart.props.accessibilityLabel as string;
     expect(label).toContain(`peak ${expected}`);
-    expect(label).toContain('limit 20.00 kN');
+    // The design limit as stated (lib/measured-format.ts): 20 kN, not padded to 20.00 kN.
+    expect(label).toContain('limit 20 kN');
     // Time instead of angle: the same peak, now located in time.
     fireEvent.press(screen.getByRole('radio', { name: 'Time' }));
     const byTime = screen.getByLabelText(/^Force on P1 · Main pivot over the ride cycle against time/);
@@ -560,17 +561,22 @@ describe('inspection review', () => {
       reviewState: 'submitted',
       reviewNote: null,
       photos: photos.map((p) => ({ sha256: p.sha256, caption: p.caption })),
+      // The server's checked values, for the approve warning (over and near limits, not only findings).
+      envelope: expect.arrayContaining([expect.objectContaining({ status: expect.any(String) })]),
     });
+    const envelope = (mockPanelProps as { envelope: { status: string }[] }).envelope;
+    expect(envelope.length).toBeGreaterThan(0);
   });
 
   test('trends: the pin’s drift toward its minimum, and the history', async () => {
     renderReview();
     const chart = await screen.findByLabelText(/^Pin diameter at P1 · Main pivot/);
-    // 59.90 mm → 57.80 mm: 2.100 mm of wear over the three inspections.
+    // 59.9 mm → 57.8 mm: 2.1 mm of wear over the three inspections. Measured values are shown as
+    // measured (shortest exact form for records without the typed text), the limit as stated.
     expect(chart.props.accessibilityLabel).toMatch(
-      /59\.90 mm on 1 Dec 2025 → 57\.80 mm on 2 Jun 2026 \(−2\.100 mm\)/,
+      /59\.9 mm on 1 Dec 2025 → 57\.8 mm on 2 Jun 2026 \(−2\.1 mm\)/,
     );
-    expect(chart.props.accessibilityLabel).toContain('minimum 58.00 mm; this inspection 57.80 mm');
+    expect(chart.props.accessibilityLabel).toContain('minimum 58 mm; this inspection 57.8 mm');
     fireEvent.press(screen.getByRole('button', { name: 'Show the numbers' }));
     expect(screen.getByText(/\(this one\)$/)).toBeTruthy();
     expect(await screen.findByText('Mara Quill')).toBeTruthy();
