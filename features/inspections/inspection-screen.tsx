@@ -44,6 +44,7 @@ import { DeclarationConfirm } from '@/features/instruments/declaration-confirm';
 import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/field-api';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import { CycleResults } from '@/features/loads/cycle-results';
+import { measuredSources } from '@/features/loads/format';
 import { useUnitSystem } from '@/features/settings/unit-system';
 import { useSyncStatus } from '@/features/sync/use-sync-status';
 import { TapTimer } from '@/features/tap-timer/tap-timer';
@@ -218,6 +219,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
             result={result}
             system={system}
             xAxis={result.joints[0] && design?.motion[0]?.kind === 'constant' ? 'angle' : 'time'}
+            sources={measuredSources(draft)}
           />
         ) : (
           <Card>

@@ -12,7 +12,8 @@ import { useWide } from '@/components/use-wide';
 import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { formatValue } from '@/features/loads/format';
-import { type UnitSystem, fromSI, pickDisplayUnit } from '@/features/units';
+import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/features/units';
+import type { MeasuredSource } from '@/lib/measured-format';
 
 const statusHeadline = {
   within: 'Every checked value is within the design envelope.',
@@ -25,10 +26,13 @@ export function CycleResults({
   result,
   system,
   xAxis,
+  sources,
 }: {
   result: CycleResult;
   system: UnitSystem;
   xAxis: 'angle' | 'time';
+  /** How measured values were typed, by envelope id (`measuredSources`), so they read as typed. */
+  sources?: ReadonlyMap<string, MeasuredSource>;
 }) {
   const wide = useWide();
   const hasEnvelope = result.envelope.length > 0;
@@ -143,7 +147,7 @@ export function CycleResults({
       {hasEnvelope ? (
         <>
           <SectionTitle>Against the design envelope</SectionTitle>
-          <EnvelopeTable items={result.envelope} system={system} />
+          <EnvelopeTable items={result.envelope} system={system} sources={sources} />
         </>
       ) : null}
 
@@ -160,7 +164,8 @@ export function CycleResults({
   );
 }
 
-const fmtG = (v: number) => `${v.toFixed(2)} g`;
+// Seat histories are in g; shown by the one rule for computed values, like every other result.
+const fmtG = (v: number) => formatValue(toSI(v, 'accel', 'gee'), 'accel', 'si');
 
 function wrapAngle(rad: number): number {
   const full = 2 * Math.PI;

@@ -1,11 +1,24 @@
 import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import type { EnvelopeItem } from '@/features/loads/engine';
-import { formatLimit, formatRatio, formatValue, sortByConcern } from '@/features/loads/format';
+import { formatEnvelopeItem, sortByConcern } from '@/features/loads/format';
 import type { UnitSystem } from '@/features/units';
+import type { MeasuredSource } from '@/lib/measured-format';
 
-/** Every checked value against its limit: value, limit, share of the limit used, status. Worst first. */
-export function EnvelopeTable({ items, system }: { items: readonly EnvelopeItem[]; system: UnitSystem }) {
+/**
+ * Every checked value against its limit: value, limit, share of the limit used, status. Worst first.
+ * `sources` (by envelope id, from `measuredSources`) lets measured values read as the inspector typed them.
+ */
+export function EnvelopeTable({
+  items,
+  system,
+  sources,
+}: {
+  items: readonly EnvelopeItem[];
+  system: UnitSystem;
+  sources?: ReadonlyMap<string, MeasuredSource>;
+}) {
+  const shown = (i: EnvelopeItem) => formatEnvelopeItem(i, system, sources?.get(i.id));
   return (
     <DataTable
       label="Design envelope"
@@ -13,20 +26,9 @@ export function EnvelopeTable({ items, system }: { items: readonly EnvelopeItem[
       rowKey={(i) => i.id}
       columns={[
         { key: 'what', title: 'Checked', render: (i) => i.label, flex: 2 },
-        {
-          key: 'value',
-          title: 'Value',
-          render: (i) => formatValue(i.value, i.quantity, system),
-          numeric: true,
-        },
-        {
-          key: 'limit',
-          title: 'Limit',
-          render: (i) => formatLimit(i.limit, i.quantity, system),
-          numeric: true,
-          flex: 1.2,
-        },
-        { key: 'ratio', title: 'Of limit', render: (i) => formatRatio(i.ratio), numeric: true, flex: 0.8 },
+        { key: 'value', title: 'Value', render: (i) => shown(i).value, numeric: true, flex: 1.2 },
+        { key: 'limit', title: 'Limit', render: (i) => shown(i).limit, numeric: true, flex: 1.2 },
+        { key: 'ratio', title: 'Of limit', render: (i) => shown(i).ratio, numeric: true, flex: 0.8 },
         {
           key: 'status',
           title: 'Status',

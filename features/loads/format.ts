@@ -47,6 +47,24 @@ export function formatEnvelopeItem(
   return { value: shown.value, limit: shown.limit, ratio: formatShareOfLimit(item.ratio) };
 }
 
+/**
+ * A value beside a one-sided limit (trend charts and their tables): shown so that its side of the limit
+ * reads true, a measured value in its shortest exact form; `limit` is the limit's text to print with it.
+ */
+export function formatBesideLimit(
+  valueSI: number,
+  limit: { side: 'min' | 'max'; si: number } | null,
+  kind: QuantityKind,
+  system: UnitSystem,
+  measured: boolean,
+): { value: string; limit: string | null } {
+  const source = measured ? { recover: true } : undefined;
+  if (!limit) return { value: formatMeasured(valueSI, kind, system, source).text, limit: null };
+  const l: Limit = limit.side === 'min' ? { kind: 'lower', min: limit.si } : { kind: 'upper', max: limit.si };
+  const shown = formatAgainstLimit(valueSI, l, kind, system, source);
+  return { value: shown.value, limit: shown.limit.replace(/^[≤≥] /, '') };
+}
+
 type ReadingLike = {
   id?: string;
   kind: string;

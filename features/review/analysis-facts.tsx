@@ -5,6 +5,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
+import { formatValue } from '@/features/loads/format';
 import { formatDateTime } from '@/features/registry/text';
 import type { InspectionDetail } from '@/features/review/inspection-schema';
 
@@ -43,7 +44,10 @@ export function AnalysisFacts({ inspection }: { inspection: InspectionDetail }) 
             label="Analysed"
             value={inspection.analysedAt ? formatDateTime(inspection.analysedAt) : '—'}
           />
-          <Fact label="Ride cycle" value={`${a.samples} instants over ${+a.durationS.toPrecision(4)} s`} />
+          <Fact
+            label="Ride cycle"
+            value={`${a.samples} instants over ${formatValue(a.durationS, 'time', 'si')}`}
+          />
           <Text variant="label" muted>
             PHONE’S PREVIEW AND SERVER
           </Text>

@@ -10,12 +10,13 @@ import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError } from '@/features/api/client';
 import { STANDARD_GRAVITY_MS2 } from '@/features/loads/engine';
-import { formatValue } from '@/features/loads/format';
+import { formatBesideLimit, formatValue } from '@/features/loads/format';
 import { useInspectionCycle } from '@/features/review/inspection-api';
 import type { InspectionCycle } from '@/features/review/inspection-schema';
 import { ReviewChart, type ReviewBand, type ReviewSeries } from '@/features/review/review-chart';
 import { pivotName } from '@/features/review/review-format';
-import { type UnitSystem, fromSI, pickDisplayUnit } from '@/features/units';
+import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/features/units';
+import { formatAgainstLimit, formatStated } from '@/lib/measured-format';
 
 export type CycleAxis = 'angle' | 'time';
 
@@ -115,6 +116,13 @@ function Charts({
           const unit = pickDisplayUnit(Math.max(j.peakForce.value, max ?? 0), 'force', system);
           const toUnit = (v: number) => fromSI(v, 'force', unit.mathjs);
           const name = pivotName(i, names);
+          const beside = formatBesideLimit(
+            j.peakForce.value,
+            max !== null ? { side: 'max', si: max } : null,
+            'force',
+            system,
+            false,
+          );
           const peakAt =
             axis === 'time'
               ? `at ${formatValue(j.peakForce.timeS, 'time', system)}`
@@ -125,8 +133,8 @@ function Charts({
               <ReviewChart
                 summary={
                   `Force on ${name} over the ride cycle against ${axis === 'time' ? 'time' : 'the main arm angle'}; ` +
-                  `peak ${formatValue(j.peakForce.value, 'force', system)} ${peakAt}` +
-                  (max !== null ? `; limit ${formatValue(max, 'force', system)}` : '; no force limit given')
+                  `peak ${beside.value} ${peakAt}` +
+                  (beside.limit !== null ? `; limit ${beside.limit}` : '; no force limit given')
                 }
                 series={[
                   {
@@ -135,11 +143,7 @@ function Charts({
                     color: colors.base,
                   },
                 ]}
-                limits={
-                  max !== null
-                    ? [{ label: `Limit ${formatValue(max, 'force', system)}`, y: toUnit(max) }]
-                    : []
-                }
+                limits={max !== null ? [{ label: `Limit ${beside.limit}`, y: toUnit(max) }] : []}
                 xLabel={x.label}
                 yLabel={`Force (${unit.label})`}
                 xDomain={x.domain}
@@ -180,11 +184,14 @@ function RiderChart({
   const toG = (v: number | undefined) => (v === undefined ? undefined : v / STANDARD_GRAVITY_MS2);
   const min = item?.limit.kind === 'range' ? toG(item.limit.min) : undefined;
   const max = item?.limit.kind === 'range' ? toG(item.limit.max) : undefined;
+  // Extremes are shown against the rider limit, so an extreme just past it never reads as on it.
+  const againstG = (g: number) =>
+    item ? formatAgainstLimit(toSI(g, 'accel', 'gee'), item.limit, 'accel', 'si').value : fmtG(g);
   const band: ReviewBand | undefined =
     min !== undefined || max !== undefined
       ? {
-          min: min !== undefined ? { label: `Min ${fmtG(min)}`, y: min } : undefined,
-          max: max !== undefined ? { label: `Max ${fmtG(max)}`, y: max } : undefined,
+          min: min !== undefined ? { label: `Min ${statedG(min)}`, y: min } : undefined,
+          max: max !== undefined ? { label: `Max ${statedG(max)}`, y: max } : undefined,
         }
       : undefined;
   const series: ReviewSeries[] = cycle.seats.map((s, k) => ({
@@ -195,7 +202,7 @@ function RiderChart({
   }));
   const title = axis === 'gz' ? 'Rider Gz (spine, seat to head)' : 'Rider Gx (chest to back)';
   const extremes = cycle.seats
-    .map((s) => `${s.name} ${fmtG(s.extremes[axis].min)} to ${fmtG(s.extremes[axis].max)}`)
+    .map((s) => `${s.name} ${againstG(s.extremes[axis].min)} to ${againstG(s.extremes[axis].max)}`)
     .join('; ');
   return (
     <Card style={wide ? styles.chartWide : undefined}>
@@ -203,7 +210,7 @@ function RiderChart({
       <ReviewChart
         summary={`${title} over the ride cycle: ${extremes}${
           band
-            ? `; allowed ${min !== undefined ? fmtG(min) : 'no minimum'} to ${max !== undefined ? fmtG(max) : 'no maximum'}`
+            ? `; allowed ${min !== undefined ? statedG(min) : 'no minimum'} to ${max !== undefined ? statedG(max) : 'no maximum'}`
             : '; no rider limit given'
         }`}
         series={series}
@@ -222,7 +229,9 @@ function RiderChart({
   );
 }
 
-const fmtG = (v: number) => `${+v.toFixed(2)} g`;
+// Rider accelerations (in g here) and their limits by the one rule for computed and stated values.
+const fmtG = (v: number) => formatValue(toSI(v, 'accel', 'gee'), 'accel', 'si');
+const statedG = (v: number) => formatStated(toSI(v, 'accel', 'gee'), 'accel', 'si').text;
 
 type XAxis = {
   values: number[];

@@ -115,6 +115,8 @@ export const inspectionReadingSchema = z.object({
   spreadSI: z.number().nullable(),
   takenAt: z.string(),
   note: z.string().nullable(),
+  /** The value as the inspector typed it, in `unit` (from the record); absent from older records. */
+  entered: z.string().optional(),
   /** From the record (the readings table keeps no instrument); absent from records made before the register. */
   instrument: instrumentSnapshotSchema.nullable().optional(),
 });

@@ -8,7 +8,7 @@ import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { measuredWithWords } from '@/features/instruments/schema';
-import { formatValue } from '@/features/loads/format';
+import { formatValue, measuredSources } from '@/features/loads/format';
 import { formatDateTime } from '@/features/registry/text';
 import type { InspectionDetail, InspectionReading } from '@/features/review/inspection-schema';
 import { formatReading, formatSpread, pivotName, readingKindLabel } from '@/features/review/review-format';
@@ -55,7 +55,13 @@ export function LimitsSection({
           {a.status ? headline[a.status] : 'The design data gives no limits: loads only, no statuses.'}
         </Text>
       </Card>
-      {a.envelope.length > 0 ? <EnvelopeTable items={a.envelope} system={system} /> : null}
+      {a.envelope.length > 0 ? (
+        <EnvelopeTable
+          items={a.envelope}
+          system={system}
+          sources={measuredSources({ readings: inspection.readings, checklist: inspection.record.checklist })}
+        />
+      ) : null}
       <DataTable
         label="Peak pivot loads"
         rows={a.joints.map((j, i) => ({ j, i }))}

@@ -9,7 +9,8 @@ import { DataTable } from '@/components/data-table';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { formatValue } from '@/features/loads/format';
+import { formatBesideLimit } from '@/features/loads/format';
+import { formatMeasured } from '@/lib/measured-format';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate } from '@/features/registry/text';
 import { useRideTrends } from '@/features/review/inspection-api';
@@ -140,8 +141,16 @@ function JointTrends({
           const known = values.filter((v): v is number => v !== null);
           const unit = pickDisplayUnit(Math.max(...known, limit?.y ?? 0), spec.quantity, system);
           const toUnit = (v: number) => fromSI(v, spec.quantity, unit.mathjs);
-          const fmt = (v: number) => formatValue(v, spec.quantity, system);
           const thisValue = current ? spec.value(current, joint.joint) : null;
+          const bound = limit
+            ? ({ side: limit.word === 'Minimum' ? 'min' : 'max', si: limit.y } as const)
+            : null;
+          // Each value is shown against the limit (never rounded across it); measured ones as measured.
+          const fmt = (v: number) => formatBesideLimit(v, bound, spec.quantity, system, m !== 'force').value;
+          const limitText = limit
+            ? (formatBesideLimit(thisValue ?? limit.y, bound, spec.quantity, system, m !== 'force').limit ??
+              '')
+            : '';
           return (
             <View key={m} style={wide ? styles.chartWide : undefined}>
               <Text variant="label" muted>
@@ -150,8 +159,8 @@ function JointTrends({
               <ReviewChart
                 height={180}
                 summary={[
-                  `${spec.title} at ${name}: ${driftWords(points, values, fmt)}`,
-                  limit ? `${limit.word.toLowerCase()} ${fmt(limit.y)}` : 'no limit given',
+                  `${spec.title} at ${name}: ${driftWords(points, values, fmt, (v) => formatMeasured(v, spec.quantity, system, m !== 'force' ? { recover: true } : undefined).text)}`,
+                  limit ? `${limit.word.toLowerCase()} ${limitText}` : 'no limit given',
                   thisValue !== null ? `this inspection ${fmt(thisValue)}` : null,
                 ]
                   .filter(Boolean)
@@ -165,7 +174,7 @@ function JointTrends({
                     dots: true,
                   },
                 ]}
-                limits={limit ? [{ label: `${limit.word} ${fmt(limit.y)}`, y: toUnit(limit.y) }] : []}
+                limits={limit ? [{ label: `${limit.word} ${limitText}`, y: toUnit(limit.y) }] : []}
                 marker={marker}
                 xLabel="Submitted"
                 yLabel={unit.label}
@@ -212,7 +221,10 @@ function JointTrends({
               title: measureSpec[m].title,
               render: (p: TrendPoint) => {
                 const v = measureSpec[m].value(p, joint.joint);
-                return v === null ? '—' : formatValue(v, measureSpec[m].quantity, system);
+                if (v === null) return '—';
+                const l = measureSpec[m].limit(joint);
+                const bound = l ? ({ side: l.word === 'Minimum' ? 'min' : 'max', si: l.y } as const) : null;
+                return formatBesideLimit(v, bound, measureSpec[m].quantity, system, m !== 'force').value;
               },
               numeric: true,
             })),
@@ -228,6 +240,8 @@ export function driftWords(
   points: readonly TrendPoint[],
   values: readonly (number | null)[],
   fmt: (v: number) => string,
+  /** The change is no value against a limit: formatted on its own. */
+  fmtChange: (v: number) => string = fmt,
 ): string {
   const known = values
     .map((v, i) => ({ v, at: points[i].submittedAt }))
@@ -238,7 +252,7 @@ export function driftWords(
   if (known.length === 1) return `${fmt(a.v)} on ${formatDate(a.at)}, the only value`;
   const change = b.v - a.v;
   const sign = change > 0 ? '+' : change < 0 ? '−' : '±';
-  return `${fmt(a.v)} on ${formatDate(a.at)} → ${fmt(b.v)} on ${formatDate(b.at)} (${sign}${fmt(Math.abs(change))})`;
+  return `${fmt(a.v)} on ${formatDate(a.at)} → ${fmt(b.v)} on ${formatDate(b.at)} (${sign}${fmtChange(Math.abs(change))})`;
 }
 
 const styles = StyleSheet.create({

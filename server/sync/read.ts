@@ -123,6 +123,12 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
     .where(eq(inspectionReadings.inspectionId, id))
     .orderBy(asc(inspectionReadings.takenAt), asc(inspectionReadings.id))
     .all();
+  // The typed text of each value is kept only in the record; older records have none.
+  const typed = new Map((row.record.readings ?? []).map((r) => [r.id, r.entered]));
+  const readingsAsTyped = readings.map((r) => {
+    const entered = typed.get(r.id);
+    return entered ? { ...r, entered } : r;
+  });
   const photoRefs = db
     .select({
       id: inspectionPhotos.id,
@@ -153,7 +159,7 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
     readingCount: Number(row.readingCount),
     photoCount: Number(row.photoCount),
     photosMissing: Number(row.photosMissing),
-    readings,
+    readings: readingsAsTyped,
     photos: photoRefs,
     amendedBy,
     findings: listFindings(db, id),
