@@ -15,7 +15,8 @@ import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
 import { useAuditQuery } from '@/features/registry/api';
-import { changedFields } from '@/features/registry/audit-diff';
+import { entryChanges } from '@/features/registry/audit-diff';
+import { EffectBadge } from '@/features/registry/design-comparison';
 import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
@@ -30,6 +31,7 @@ import {
 import { formatDateTime } from '@/features/registry/text';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
+import { useUnitSystem } from '@/features/settings/unit-system';
 
 const PAGE_SIZE = 30;
 const LIST_KEYS = ['entity', 'action', 'rideId', 'from', 'to', 'q', 'sort', 'page'] as const;
@@ -174,8 +176,10 @@ function Audit({ user }: { user: SessionUser }) {
 
 function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
   const [open, setOpen] = useState(false);
+  const [system] = useUnitSystem();
   const spec = actionSpec[e.action];
-  const changes = open ? changedFields(e.before, e.after) : [];
+  // Design data reads in words and units ("Max clearance at Main pivot: 0.4 mm → 0.6 mm"), not stored keys.
+  const changes = open ? entryChanges(e.entity, e.before, e.after, system) : [];
   return (
     <View style={styles.entry}>
       <Pressable
@@ -206,8 +210,14 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
       {open ? (
         <View style={styles.detail}>
           {changes.length === 0 ? <Text muted>No field-level difference recorded.</Text> : null}
-          {changes.map((c) => (
-            <View key={c.field} style={wide ? styles.changeWide : styles.change}>
+          {changes.map((c, i) => (
+            <View
+              key={`${c.field}|${i}`}
+              style={[
+                wide ? styles.changeWide : styles.change,
+                c.effect === 'loosened' ? styles.loosened : null,
+              ]}
+            >
               <Text variant="label" style={wide ? styles.field : undefined}>
                 {c.field}
               </Text>
@@ -226,7 +236,15 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
                   </Text>
                   {c.after}
                 </Text>
+              ) : e.entity === 'design' && c.before !== null ? (
+                <Text variant="small" style={wide ? styles.flex : undefined}>
+                  <Text variant="small" muted>
+                    now{' '}
+                  </Text>
+                  removed
+                </Text>
               ) : null}
+              {c.effect && c.effect !== 'changed' ? <EffectBadge effect={c.effect} /> : null}
             </View>
           ))}
           {e.rideId && e.action !== 'delete' ? (
@@ -269,5 +287,6 @@ const styles = StyleSheet.create({
   detail: { backgroundColor: colors.bg, padding: space.md, gap: space.sm },
   change: { gap: 2 },
   changeWide: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
-  field: { width: 160 },
+  field: { width: 260 },
+  loosened: { backgroundColor: colors.overSoft, paddingVertical: space.xs, borderRadius: radius.sm },
 });

@@ -16,8 +16,15 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { OfflineError } from '@/features/api/client';
 import { RoleGate } from '@/features/auth/role-gate';
-import { useDesignImportCheckMutation, useDesignImportMutation } from '@/features/registry/api';
+import {
+  useDesignImportCheckMutation,
+  useDesignImportMutation,
+  useDesignPendingQuery,
+  useDesignVersionsQuery,
+} from '@/features/registry/api';
+import { DesignComparison } from '@/features/registry/design-comparison';
 import type { DesignData } from '@/features/registry/design-data';
+import { loosensALimit } from '@/features/registry/design-diff';
 import { ExportCard, designHref } from '@/features/registry/design-screens';
 import { DesignDrawingPanel, useDesignAnalysis } from '@/features/registry/design-view';
 import { FormText } from '@/features/registry/form-fields';
@@ -49,8 +56,10 @@ type ReasonInput = z.input<typeof reasonFormSchema>;
 
 /**
  * Design data from the files engineers have: pick a CSV or JSON file, the server checks it whole (nothing
- * is saved), its report is shown row by row, and only a clean file can be saved as a new version, with a
- * reason. Export of the current version sits beside it.
+ * is saved), its report is shown row by row, a clean file is compared field by field with the version in
+ * force (every loosened limit marked), and only then saved as a new version, with a reason. A version that
+ * loosens a limit is saved as a proposal a second person must approve. Export of the version in force sits
+ * beside it.
  */
 export function DesignImportScreen() {
   const id = useRideIdParam();
@@ -64,6 +73,10 @@ export function DesignImportScreen() {
 function DesignImport({ ride }: { ride: RideSummary }) {
   const detail = useRideQuery(ride.id);
   const current = detail.data?.design ?? null;
+  const pending = useDesignPendingQuery(ride.id).data?.pending ?? null;
+  const versions = useDesignVersionsQuery(ride.id).data;
+  const nextVersion = Math.max(current?.version ?? 0, ...(versions ?? []).map((v) => v.version)) + 1;
+  const [system] = useUnitSystem();
   const [picked, setPicked] = useState<Picked | null>(null);
   const [check, setCheck] = useState<Check>({ state: 'idle' });
   const [pickError, setPickError] = useState<string | null>(null);
@@ -173,12 +186,30 @@ function DesignImport({ ride }: { ride: RideSummary }) {
       </Card>
 
       <Card style={styles.step}>
-        <StepTitle n={3} title="Save as a new version" />
+        <StepTitle n={3} title={current ? `Compare with version ${current.version} in force` : 'Compare'} />
+        {check.state === 'ok' ? (
+          <DesignComparison
+            before={current?.data ?? null}
+            after={check.data}
+            system={system}
+            beforeLabel={current ? `version ${current.version}` : 'nothing yet'}
+            afterLabel="this file"
+          />
+        ) : (
+          <Text muted>The comparison shows once the file passes the check.</Text>
+        )}
+      </Card>
+
+      <Card style={styles.step}>
+        <StepTitle n={4} title="Save as a new version" />
         <SaveStep
           ride={ride}
           picked={picked}
           check={check}
           basedOnVersion={current?.version ?? 0}
+          nextVersion={nextVersion}
+          loosens={check.state === 'ok' && loosensALimit(current?.data ?? null, check.data)}
+          blockedBy={pending?.version ?? null}
           onRejected={(report) => setCheck({ state: 'rejected', ...report })}
         />
       </Card>
@@ -317,12 +348,19 @@ function SaveStep({
   picked,
   check,
   basedOnVersion,
+  nextVersion,
+  loosens,
+  blockedBy,
   onRejected,
 }: {
   ride: RideSummary;
   picked: Picked | null;
   check: Check;
   basedOnVersion: number;
+  nextVersion: number;
+  loosens: boolean;
+  /** A revision already waiting for approval: no other version until it is decided. */
+  blockedBy: number | null;
   onRejected: (report: { message: string; lines: ReportLine[] }) => void;
 }) {
   const importer = useDesignImportMutation(ride.id);
@@ -331,7 +369,7 @@ function SaveStep({
     defaultValues: { reason: '' },
   });
   const [problem, setProblem] = useState<FormProblem | null>(null);
-  const ready = !!picked && check.state === 'ok';
+  const ready = !!picked && check.state === 'ok' && blockedBy === null;
   const submit = handleSubmit(async ({ reason }) => {
     if (!picked) return;
     setProblem(null);
@@ -354,15 +392,30 @@ function SaveStep({
         multiline
       />
       <FormAlert problem={problem} />
+      {blockedBy !== null ? (
+        <View style={styles.okLine} role="alert">
+          <Feather name="clock" size={18} color={colors.near} />
+          <Text color={colors.near} style={styles.flex}>
+            Version {blockedBy} waits for a second person’s approval. Another version can be imported once it
+            is approved or rejected.
+          </Text>
+        </View>
+      ) : null}
+      {ready && loosens ? (
+        <Text variant="small">
+          This version loosens a limit: it is saved as a proposal and takes effect only when another
+          supervisor or an admin approves it. Version {basedOnVersion} stays in force until then.
+        </Text>
+      ) : null}
       <Button
-        label={`Import as version ${basedOnVersion + 1}`}
+        label={loosens ? `Propose version ${nextVersion} for approval` : `Import as version ${nextVersion}`}
         tone="accent"
         disabled={!ready}
         busy={formState.isSubmitting}
         onPress={submit}
         style={styles.start}
       />
-      {!ready ? (
+      {!ready && blockedBy === null ? (
         <Text variant="small" muted>
           Only a file that passes the check can be imported.
         </Text>

@@ -8,12 +8,19 @@ import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
 import { colors, layout, space } from '@/components/theme';
 import { ApiRequestError } from '@/features/api/client';
 import { RoleGate } from '@/features/auth/role-gate';
-import type { Role } from '@/features/auth/schema';
+import type { Role, SessionUser } from '@/features/auth/schema';
 import { designToFile } from '@/features/registry/csv';
-import { useDesignVersionQuery, useDesignVersionsQuery } from '@/features/registry/api';
+import {
+  useDesignDecisionMutation,
+  useDesignPendingQuery,
+  useDesignVersionQuery,
+  useDesignVersionsQuery,
+} from '@/features/registry/api';
+import { DesignComparison } from '@/features/registry/design-comparison';
 import type { DesignData } from '@/features/registry/design-data';
 import {
   DesignDrawingPanel,
@@ -40,10 +47,10 @@ export const versionHref = (rideId: string, version: number) => `${rideHref(ride
 /** A ride's current design data in full: drawing, peaks, every table, export, and its version history. */
 export function DesignScreen() {
   const id = useRideIdParam();
-  return <RoleGate roles={staff}>{(user) => <CurrentDesign id={id} role={user.role} />}</RoleGate>;
+  return <RoleGate roles={staff}>{(user) => <CurrentDesign id={id} user={user} />}</RoleGate>;
 }
 
-function CurrentDesign({ id, role }: { id: string; role: Role }) {
+function CurrentDesign({ id, user }: { id: string; user: SessionUser }) {
   const ride = useRideQuery(id);
   if (ride.error instanceof ApiRequestError && ride.error.status === 404)
     return <RideNotFound back={{ href: '/rides', label: 'Rides' }} />;
@@ -51,7 +58,7 @@ function CurrentDesign({ id, role }: { id: string; role: Role }) {
     <QueryState query={ride}>
       {({ ride: r, design }) =>
         design ? (
-          <DesignPage ride={r} design={design} currentVersion={design.version} role={role} />
+          <DesignPage ride={r} design={design} currentVersion={design.version} user={user} />
         ) : (
           <SubScreen title="Design data" subtitle={r.name} back={{ href: rideHref(r.id), label: r.name }}>
             <Card>
@@ -70,10 +77,10 @@ export function DesignVersionScreen() {
   const id = useRideIdParam();
   const { version } = useLocalSearchParams<{ version: string }>();
   const n = Number(Array.isArray(version) ? version[0] : version);
-  return <RoleGate roles={staff}>{(user) => <OldDesign id={id} version={n} role={user.role} />}</RoleGate>;
+  return <RoleGate roles={staff}>{(user) => <OldDesign id={id} version={n} user={user} />}</RoleGate>;
 }
 
-function OldDesign({ id, version, role }: { id: string; version: number; role: Role }) {
+function OldDesign({ id, version, user }: { id: string; version: number; user: SessionUser }) {
   const ride = useRideQuery(id);
   const design = useDesignVersionQuery(id, version);
   if (ride.error instanceof ApiRequestError && ride.error.status === 404)
@@ -90,7 +97,7 @@ function OldDesign({ id, version, role }: { id: string; version: number; role: R
     <QueryState query={ride}>
       {({ ride: r, design: current }) => (
         <QueryState query={design}>
-          {(d) => <DesignPage ride={r} design={d} currentVersion={current?.version ?? null} role={role} />}
+          {(d) => <DesignPage ride={r} design={d} currentVersion={current?.version ?? null} user={user} />}
         </QueryState>
       )}
     </QueryState>
@@ -101,22 +108,30 @@ function DesignPage({
   ride,
   design,
   currentVersion,
-  role,
+  user,
 }: {
   ride: RideSummary;
   design: DesignVersion;
   currentVersion: number | null;
-  role: Role;
+  user: SessionUser;
 }) {
+  const role: Role = user.role;
   const [system] = useUnitSystem();
   const analysis = useDesignAnalysis(design.data);
   const versions = useDesignVersionsQuery(ride.id);
   const isCurrent = design.version === currentVersion;
+  const inForce = currentVersion ? ` Version ${currentVersion} is in force.` : '';
+  const noteText =
+    design.approvalState === 'pending'
+      ? `Proposed, waiting for a second person’s approval: not in force.${inForce}`
+      : design.approvalState === 'rejected'
+        ? `Rejected by ${design.decidedByName ?? 'a reviewer'}${design.decisionReason ? `: “${design.decisionReason}”` : ''}. Never in force.${inForce}`
+        : `An earlier version, shown as it was.${inForce}`;
   const note = isCurrent ? null : (
     <View style={styles.oldNote} role="note">
       <Feather name="clock" size={16} color={colors.near} />
       <Text variant="small" color={colors.near} style={styles.flex}>
-        An earlier version, shown as it was.{currentVersion ? ` Version ${currentVersion} is current.` : ''}
+        {noteText}
       </Text>
     </View>
   );
@@ -159,6 +174,9 @@ function DesignPage({
           : { href: designHref(ride.id), label: 'Current design data' }
       }
     >
+      {canEditRides(role) && (isCurrent || design.approvalState === 'pending') ? (
+        <PendingRevision rideId={ride.id} user={user} />
+      ) : null}
       <Panes
         main={<DesignDrawingPanel data={design.data} system={system} analysis={analysis} />}
         side={side}
@@ -189,13 +207,13 @@ function VersionList({
         >
           <Pressable
             role="link"
-            accessibilityLabel={`Version ${v.version}${v.version === current ? ', current' : ''}: ${v.reason}`}
+            accessibilityLabel={`Version ${v.version}${v.version === current ? ', in force' : stateWords(v)}: ${v.reason}`}
             style={v.version === shown ? styles.versionShown : styles.version}
           >
             <View style={styles.versionHead}>
               <Text variant="heading">
                 v{v.version}
-                {v.version === current ? ' · current' : ''}
+                {v.version === current ? ' · in force' : stateWords(v).replace(',', ' ·')}
               </Text>
               <Text variant="small" muted>
                 {formatDateTime(v.createdAt)}
@@ -211,6 +229,101 @@ function VersionList({
         </Link>
       ))}
     </View>
+  );
+}
+
+const stateWords = (v: DesignVersionInfo) =>
+  v.approvalState === 'pending' ? ', awaiting approval' : v.approvalState === 'rejected' ? ', rejected' : '';
+
+/**
+ * The revision waiting for a second person, compared field by field with the version in force. Another
+ * supervisor or admin approves or rejects it with a reason; its proposer only sees that it waits (the
+ * server refuses a proposer's decision too).
+ */
+function PendingRevision({ rideId, user }: { rideId: string; user: SessionUser }) {
+  const [system] = useUnitSystem();
+  const query = useDesignPendingQuery(rideId);
+  const decide = useDesignDecisionMutation(rideId);
+  const [reason, setReason] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  const pending = query.data?.pending ?? null;
+  const current = query.data?.current ?? null;
+  if (!pending) return null;
+  const own = pending.createdById === user.id;
+  const send = async (decision: 'approve' | 'reject') => {
+    setError(null);
+    if (!reason.trim()) {
+      setError(decision === 'approve' ? 'Say why it may be approved' : 'Say why it is rejected');
+      return;
+    }
+    try {
+      await decide.mutateAsync({ version: pending.version, decision, reason: reason.trim() });
+      setReason('');
+    } catch (err) {
+      setError(
+        err instanceof ApiRequestError
+          ? err.message
+          : 'The decision could not be sent. Nothing was changed; try again when online.',
+      );
+    }
+  };
+  return (
+    <Card style={styles.pending} accessibilityLabel={`Version ${pending.version} waits for approval`}>
+      <View style={styles.pendingHead}>
+        <Feather name="clock" size={20} color={colors.near} />
+        <Text variant="heading" role="heading" aria-level={2} style={styles.flex}>
+          Version {pending.version} waits for a second person
+        </Text>
+      </View>
+      <Text>
+        Proposed by {pending.createdByName}, {formatDateTime(pending.createdAt)}: “{pending.reason}”.{' '}
+        {pending.data.source.document}, revision {pending.data.source.revision}.
+      </Text>
+      <DesignComparison
+        before={current?.data ?? null}
+        after={pending.data}
+        system={system}
+        beforeLabel={current ? `version ${current.version}` : 'nothing yet'}
+        afterLabel={`version ${pending.version}`}
+      />
+      {own ? (
+        <View style={styles.pendingHead} role="note">
+          <Feather name="users" size={18} color={colors.textMuted} />
+          <Text muted style={styles.flex}>
+            You proposed this version: another supervisor or an admin must approve or reject it.
+          </Text>
+        </View>
+      ) : (
+        <View style={styles.decision}>
+          <TextField
+            label="Your reason"
+            hint="Kept with the version and in the audit log, e.g. “Checked against the maker’s letter of 12 May”."
+            value={reason}
+            onChangeText={setReason}
+            error={error ?? undefined}
+            multiline
+          />
+          <View style={styles.buttons}>
+            <Button
+              label={`Approve version ${pending.version}`}
+              tone="accent"
+              icon={<Feather name="check" size={18} color={colors.baseText} />}
+              busy={decide.isPending && decide.variables?.decision === 'approve'}
+              disabled={decide.isPending}
+              onPress={() => send('approve')}
+            />
+            <Button
+              label="Reject"
+              tone="quiet"
+              icon={<Feather name="x" size={18} color={colors.text} />}
+              busy={decide.isPending && decide.variables?.decision === 'reject'}
+              disabled={decide.isPending}
+              onPress={() => send('reject')}
+            />
+          </View>
+        </View>
+      )}
+    </Card>
   );
 }
 
@@ -275,6 +388,9 @@ const styles = StyleSheet.create({
     borderRadius: 6,
   },
   buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  pending: { gap: space.md, borderColor: colors.near, borderWidth: 2 },
+  pendingHead: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  decision: { gap: space.md },
   version: {
     minHeight: layout.touchTarget,
     paddingVertical: space.sm,

@@ -23,6 +23,7 @@ const infoColumns = {
   version: designVersions.version,
   createdAt: designVersions.createdAt,
   createdByName: users.name,
+  createdById: designVersions.createdBy,
   reason: designVersions.reason,
   origin: designVersions.origin,
   approvalState: designVersions.approvalState,
@@ -34,14 +35,13 @@ const infoColumns = {
 
 function selectVersions(db: Pick<Db, 'select'>) {
   return db
-    .select({ ...infoColumns, data: designVersions.data, createdBy: designVersions.createdBy })
+    .select({ ...infoColumns, data: designVersions.data })
     .from(designVersions)
     .innerJoin(users, eq(users.id, designVersions.createdBy))
     .leftJoin(decider, eq(decider.id, designVersions.decidedBy));
 }
 
-type VersionRow = DesignVersion & { createdBy: string };
-const withoutCreator = ({ createdBy: _createdBy, ...v }: VersionRow): DesignVersion => v;
+type VersionRow = DesignVersion & { createdById: string };
 
 /**
  * A ride's design data at one version (in any approval state), or — when `version` is omitted — the
@@ -54,7 +54,7 @@ export function findDesignVersion(
   version?: number,
 ): DesignVersion | null {
   const row = findRow(db, rideId, version);
-  return row ? withoutCreator(row) : null;
+  return row;
 }
 
 function findRow(db: Pick<Db, 'select'>, rideId: string, version?: number): VersionRow | null {
@@ -78,7 +78,7 @@ export function findPendingDesignVersion(db: Pick<Db, 'select'>, rideId: string)
     .orderBy(desc(designVersions.version))
     .limit(1)
     .get();
-  return row ? withoutCreator(row) : null;
+  return row ?? null;
 }
 
 export function mustFindDesignVersion(
@@ -241,7 +241,7 @@ export function decideDesignVersion(
         `Version ${version} is ${target.approvalState === 'rejected' ? 'rejected' : 'in force'} already; nothing was changed.`,
         'design_not_pending',
       );
-    if (target.createdBy === user.id)
+    if (target.createdById === user.id)
       throw new HttpError(
         403,
         'own_revision',
