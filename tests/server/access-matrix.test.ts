@@ -109,6 +109,13 @@ const routes: Route[] = [
   { method: 'get', path: (i) => `/api/rides/${i.own}/design/versions/1`, expect: STAFF_READ },
   { method: 'post', path: (i) => `/api/rides/${i.own}/design/import`, body: {}, expect: EDITORS },
   { method: 'get', path: (i) => `/api/rides/${i.own}/design/export?format=csv`, expect: STAFF_READ },
+  { method: 'get', path: (i) => `/api/rides/${i.own}/design/pending`, expect: PLANNERS_READ },
+  {
+    method: 'post',
+    path: (i) => `/api/rides/${i.own}/design/versions/1/decision`,
+    body: {},
+    expect: EDITORS,
+  },
   // Checklist templates
   { method: 'get', path: () => '/api/checklist-templates', expect: STAFF_READ },
   { method: 'get', path: (i) => `/api/checklist-templates/${i.template}`, expect: STAFF_READ },
