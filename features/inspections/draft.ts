@@ -150,6 +150,9 @@ export function draftProblems(d: Draft, template: ChecklistTemplate | null): Dra
       problems.push({ itemId: a.itemId, message: `Needs a photo: ${a.text}` });
     if (item?.measurementRequired && a.result !== 'na' && !a.measurement)
       problems.push({ itemId: a.itemId, message: `Needs a measurement: ${a.text}` });
+    // The status seen at entry (features/inspections/checklist-limits); the server applies the same rule.
+    if (a.result === 'pass' && a.measurement?.status === 'over' && !a.overLimitReason?.trim())
+      problems.push({ itemId: a.itemId, message: `Over its limit — mark Fail or give a reason: ${a.text}` });
   }
   return problems;
 }

@@ -181,6 +181,9 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           system={system}
           onAnswer={(itemId, patch) => change((d) => answerItem(d, itemId, patch, now()))}
           onPhoto={(itemId) => void onCapture('camera', { checklistItemId: itemId })}
+          design={design}
+          instruments={instruments.data ?? []}
+          onDraft={change}
         />
       ) : null}
       {section === 'readings' ? (

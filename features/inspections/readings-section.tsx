@@ -7,6 +7,7 @@ import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
+import { answerOfReading } from '@/features/inspections/checklist-entry';
 import type { Draft } from '@/features/inspections/draft';
 import { checkReading } from '@/features/inspections/plausibility';
 import { type PendingReading, PlausibilityPrompt } from '@/features/inspections/plausibility-prompt';
@@ -140,13 +141,21 @@ export function ReadingsSection({
                           {'\n'}Far from the design ({r.plausibility.ratio.toFixed(2)} ×), confirmed by you
                         </Text>
                       ) : null}
+                      {answerOfReading(draft, r.id) ? (
+                        <Text variant="small" muted>
+                          {'\n'}From the checklist: {answerOfReading(draft, r.id)?.text} (change it there)
+                        </Text>
+                      ) : null}
                     </Text>
-                    <Button
-                      label="Remove"
-                      tone="quiet"
-                      onPress={() => onRemove(r.id)}
-                      accessibilityLabel={`Remove ${r.label}`}
-                    />
+                    {/* One value, kept in one place: a checklist value is changed or cleared in the checklist. */}
+                    {answerOfReading(draft, r.id) ? null : (
+                      <Button
+                        label="Remove"
+                        tone="quiet"
+                        onPress={() => onRemove(r.id)}
+                        accessibilityLabel={`Remove ${r.label}`}
+                      />
+                    )}
                   </View>
                 ))}
               </View>
