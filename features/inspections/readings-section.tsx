@@ -249,7 +249,8 @@ function ReadingInput({
   };
   return (
     <View style={styles.input}>
-      {kind === 'period' ? <MotionPicture kind={per} /> : null}
+      {/* The tap timer shows the same picture on its pad's side. */}
+      {kind === 'period' && !timing ? <MotionPicture kind={per} /> : null}
       {pending ? (
         <PlausibilityPrompt
           pending={pending}

@@ -29,45 +29,46 @@ const W = 120;
 const H = 104;
 
 /** An arrow head at (x, y) pointing along angle `a` (radians, screen coordinates). */
-function head(x: number, y: number, a: number, size = 7): string {
+function head(x: number, y: number, a: number, size = 9): string {
   const p = (da: number) => `${x - size * Math.cos(a + da)},${y - size * Math.sin(a + da)}`;
   return `${x},${y} ${p(0.45)} ${p(-0.45)}`;
 }
 
 function SwingDrawing() {
-  // Pivot at the top; the arm shown at its right-hand extreme; the mark straight below the pivot.
+  // Pivot at the top, the arm hanging over the mark (where a count starts and ends); around it the two
+  // legs of one swing: out to one side (solid) and back to the other (dashed).
   const px = 60;
-  const py = 12;
-  const r = 70;
-  const amp = 0.75;
-  const at = (t: number, rr = r) => [px + rr * Math.sin(t), py + rr * Math.cos(t)] as const;
-  const [lx, ly] = at(-amp, r + 12);
-  const [rx, ry] = at(amp, r + 12);
-  const [ix, iy] = at(-amp, r + 22);
-  const [jx, jy] = at(amp, r + 22);
-  const [gx, gy] = at(amp);
+  const py = 10;
+  const r = 60;
+  const amp = 0.72;
+  const at = (t: number, rr: number) => [px + rr * Math.sin(t), py + rr * Math.cos(t)] as const;
+  const out = r + 14;
+  const back = r + 27;
+  const [ox0, oy0] = at(-amp, out);
+  const [ox1, oy1] = at(amp, out);
+  const [bx0, by0] = at(amp, back);
+  const [bx1, by1] = at(-amp, back);
   return (
     <Svg width={W} height={H} viewBox={`0 0 ${W} ${H}`}>
-      {/* The mark on the ground, below the pivot. */}
-      <Line x1={px} y1={py + r - 6} x2={px} y2={H} stroke={colors.accent} strokeWidth={3} />
-      {/* Outward leg (left to right) and return leg (right to left), one arrow each. */}
+      <Line x1={px} y1={py + r + 2} x2={px} y2={H} stroke={colors.accent} strokeWidth={3} />
       <Path
-        d={`M ${lx} ${ly} A ${r + 12} ${r + 12} 0 0 0 ${rx} ${ry}`}
+        d={`M ${ox0} ${oy0} A ${out} ${out} 0 0 0 ${ox1} ${oy1}`}
         stroke={colors.text}
         strokeWidth={2}
         fill="none"
       />
-      <Polygon points={head(rx, ry, -0.9)} fill={colors.text} />
+      {/* Tangent at the end of each leg: moving right (angle decreasing) and moving left. */}
+      <Polygon points={head(ox1, oy1, -amp)} fill={colors.text} />
       <Path
-        d={`M ${jx} ${jy} A ${r + 22} ${r + 22} 0 0 1 ${ix} ${iy}`}
+        d={`M ${bx0} ${by0} A ${back} ${back} 0 0 1 ${bx1} ${by1}`}
         stroke={colors.text}
         strokeWidth={2}
         strokeDasharray="4 3"
         fill="none"
       />
-      <Polygon points={head(ix, iy, Math.PI + 0.9)} fill={colors.text} />
-      <Line x1={px} y1={py} x2={gx} y2={gy} stroke={colors.base} strokeWidth={4} strokeLinecap="round" />
-      <Circle cx={gx} cy={gy} r={8} fill={colors.base} />
+      <Polygon points={head(bx1, by1, Math.PI + amp)} fill={colors.text} />
+      <Line x1={px} y1={py} x2={px} y2={py + r} stroke={colors.base} strokeWidth={4} strokeLinecap="round" />
+      <Circle cx={px} cy={py + r} r={8} fill={colors.base} />
       <Circle cx={px} cy={py} r={5} fill={colors.surface} stroke={colors.base} strokeWidth={3} />
     </Svg>
   );

@@ -63,7 +63,7 @@ export function TapTimer({ per = 'revolution', onUse }: Props) {
 
   return (
     <Card>
-      <MotionPicture kind={per} compact />
+      <MotionPicture kind={per} />
       <TapPad onTap={onTap} label={words.label} hint={words.hint} style={[styles.pad, lit && styles.padLit]}>
         <Text variant="title" color={colors.baseText}>
           {words.label}
