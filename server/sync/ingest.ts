@@ -142,7 +142,10 @@ function statementsFor(db: Db): Statements {
            AS currentDesignId
        FROM rides r WHERE r.id = ?`,
     ),
-    designRide: sqlite.prepare('SELECT ride_id AS rideId FROM design_versions WHERE id = ?'),
+    // Only versions that were in force: a revision waiting for approval (or rejected) is never analysed.
+    designRide: sqlite.prepare(
+      "SELECT ride_id AS rideId FROM design_versions WHERE id = ? AND approval_state = 'in_force'",
+    ),
     findInspections: sqlite.prepare(
       `SELECT id, content_sha256 AS contentSha256, ride_id AS rideId, inspector_id AS inspectorId
        FROM inspections WHERE id IN (SELECT value FROM json_each(?))`,
@@ -283,7 +286,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
     designVersionId = ride.currentDesignId;
   } else if (designRideOf(ctx, designVersionId) !== ride.id) {
     return rejected(record.id, [
-      { path: 'designVersionId', message: "Not a design-data version of this inspection's ride" },
+      { path: 'designVersionId', message: "Not a design-data version in force for this inspection's ride" },
     ]);
   }
 

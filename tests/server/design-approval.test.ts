@@ -116,6 +116,14 @@ describe('a loosening revision waits for a second person', () => {
     expect(got.analysis.designVersion).toBe(pendingVersion - 1);
   });
 
+  test('a record that names the pending revision is refused, so it is never analysed', async () => {
+    const pendingId = (await pendingOf()).pending?.id ?? '';
+    const record = makeRecord({ id: comet.id, designVersionId: pendingId, design: v1 });
+    const push = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+    expect(push.body.results[0].status).toBe('rejected');
+    expect(push.body.results[0].issues).toContainEqual(expect.objectContaining({ path: 'designVersionId' }));
+  });
+
   test('no other version can be made while one is pending', async () => {
     const n = rowCount();
     const res = await importJson(api.admin, withClearance(v1, v1.pivots[0].maxClearanceM * 0.9));
