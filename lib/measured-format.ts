@@ -285,8 +285,10 @@ function untilVisible(value: Shown, bounds: Shown[], truth: Relation[]): { value
     const wrong = truth.findIndex((t, i) => !faithful(v, b[i], t));
     if (wrong < 0) break;
     const bound = b[wrong];
-    // The limit takes digits first; the value only when it is computed and no longer has more of them.
-    if (bound.fixed === false && (v.fixed || bound.decimals <= v.decimals) && bound.decimals < MAX_DECIMALS)
+    // The limit takes digits first, unless it is already shown exactly (more digits would only be
+    // zeros); a computed value takes them when the limit cannot.
+    const complete = Number(bound.text) === bound.exact;
+    if (!complete && (v.fixed || bound.decimals <= v.decimals) && bound.decimals < MAX_DECIMALS)
       b = b.map((x, i) => (i === wrong ? more(x) : x));
     else if (!v.fixed && v.decimals < MAX_DECIMALS) v = more(v);
     else break;

@@ -11,6 +11,7 @@ import { useWide } from '@/components/use-wide';
 import { NoticePhotos } from '@/features/notices/notice-photos';
 import { noticeKindLabel } from '@/features/notices/notice-text';
 import type { NoticeDocument } from '@/features/notices/schema';
+import { formatRatio } from '@/features/loads/format';
 import { formatDate, formatDateTime } from '@/features/registry/text';
 import { SeverityMark } from '@/features/review/severity-mark';
 
@@ -155,7 +156,7 @@ export function NoticeDocumentView({ document: doc }: { document: NoticeDocument
               {
                 key: 'ratio',
                 title: 'Share of limit',
-                render: (r) => (r.ratio === null ? '—' : `${Math.round(r.ratio * 100)} %`),
+                render: (r) => formatRatio(r.ratio),
                 numeric: true,
               },
               { key: 'status', title: 'Status', render: (r) => <EnvelopeMark status={r.status} compact /> },

@@ -55,6 +55,18 @@ export const noticeDocumentSchema = z.object({
       limit: z.string(),
       ratio: z.number().nullable(),
       status: envelopeStatus,
+      /**
+       * What `value` was formatted from (lib/measured-format.ts): the SI value, its quantity, and for a
+       * measured value the text typed and its unit. Absent from notices issued before it was kept.
+       */
+      measured: z
+        .object({
+          valueSI: z.number(),
+          quantity: z.string(),
+          entered: z.string().nullable(),
+          unit: z.string().nullable(),
+        })
+        .optional(),
     }),
   ),
   /** Peak pivot loads of the ride cycle (SI, formatted), with the pivot's limit where the design has one. */

@@ -16,6 +16,8 @@ import { photos } from '@/db/server/inspections';
 import { noticeDeliveries, notices, type NoticeDeliveryRow } from '@/db/server/notices';
 import { companies } from '@/db/server/schema';
 import { CAUTION_SHORT } from '@/components/caution-text';
+import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine';
+import { formatRatio } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { severityInfo } from '@/features/review/schema';
 import type { Db } from '@/server/db';
@@ -110,6 +112,30 @@ function findingLines(doc: NoticeDocument): string[] {
   ]);
 }
 
+/**
+ * The values at or over their limits, with the very strings the notice holds (formatted once when it was
+ * issued by lib/measured-format.ts), so the e-mail, the app and the PDF print the same numbers.
+ */
+function concerning(doc: NoticeDocument) {
+  return doc.results.filter((r) => r.status !== 'within');
+}
+const resultLine = (r: NoticeDocument['results'][number]) =>
+  `${r.label}: ${r.value}, limit ${r.limit}, ${formatRatio(r.ratio)} of the allowance — ${ENVELOPE_STATUS_LABEL[r.status]}`;
+
+function resultLines(doc: NoticeDocument): string[] {
+  const list = concerning(doc);
+  return list.length > 0
+    ? ['', `Values near or over their limits (${list.length}):`, ...list.map((r) => `- ${resultLine(r)}`)]
+    : [];
+}
+
+function resultsHtml(doc: NoticeDocument): string {
+  const list = concerning(doc);
+  if (list.length === 0) return '';
+  const items = list.map((r) => `<li>${escapeHtml(resultLine(r))}</li>`).join('');
+  return `<h3>Values near or over their limits (${list.length})</h3><ul>${items}</ul>`;
+}
+
 function rideLine(doc: NoticeDocument) {
   const parts = [doc.ride.rideClass, doc.ride.serial ? `serial ${doc.ride.serial}` : null].filter(Boolean);
   return `${doc.ride.name} (${parts.join(', ')})${doc.site ? ` at ${doc.site.name}` : ''}`;
@@ -143,6 +169,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
     '',
     doc.findings.length > 0 ? `Findings (${doc.findings.length}):` : 'No findings are listed on this notice.',
     ...findingLines(doc),
+    ...resultLines(doc),
     ...(doc.note ? ['', `Note from ${doc.signature.name}: ${doc.note}`] : []),
     '',
     'Open the notice to acknowledge it and to report the corrective action for each finding:',
@@ -172,6 +199,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
     doc.findings.length > 0
       ? `<h3>Findings (${doc.findings.length})</h3><ol>${findingItems}</ol>`
       : '<p>No findings are listed on this notice.</p>',
+    resultsHtml(doc),
     doc.note ? `<p><strong>Note from ${h(doc.signature.name)}:</strong> ${h(doc.note)}</p>` : '',
     `<p><a href="${h(doc.url)}">Open notice ${h(doc.reference)}</a> to acknowledge it and to report the corrective action for each finding.</p>`,
     `<p>The complete notice is attached as ${h(doc.reference)}.pdf.</p>`,

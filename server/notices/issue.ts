@@ -13,7 +13,12 @@ import { noticeDeliveries, noticeFindings, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import { companies, designVersions, rides, sites, users } from '@/db/server/schema';
 import { CAUTION_FULL } from '@/components/caution-text';
-import { formatLimit, formatValue, sortByConcern } from '@/features/loads/format';
+import {
+  formatBesideLimit,
+  formatEnvelopeItem,
+  measuredSources,
+  sortByConcern,
+} from '@/features/loads/format';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { severityInfo } from '@/features/review/schema';
@@ -353,22 +358,17 @@ export function issueInspectionNotice(
       designVersion: analysis?.designVersion ?? null,
       engineVersion: analysis?.engineVersion ?? null,
     },
-    results: analysis
-      ? sortByConcern(analysis.envelope).map((item) => ({
-          label: item.label,
-          value: formatValue(item.value, item.quantity, 'si'),
-          limit: formatLimit(item.limit, item.quantity, 'si'),
-          ratio: Number.isFinite(item.ratio) ? item.ratio : null,
-          status: item.status,
-        }))
-      : [],
+    results: analysis ? resultsOf(analysis.envelope, measuredSources(inspection.record)) : [],
     loadSummary: (analysis?.joints ?? []).map((j, joint) => {
       const maxForceN = design?.data.pivots.find((p) => p.joint === joint)?.maxForceN;
-      return {
-        pivot: j.name,
-        peakForce: formatValue(j.peakForceN, 'force', 'si'),
-        limit: maxForceN === undefined ? null : `≤ ${formatValue(maxForceN, 'force', 'si')}`,
-      };
+      const peak = formatBesideLimit(
+        j.peakForceN,
+        maxForceN === undefined ? null : { side: 'max', si: maxForceN },
+        'force',
+        'si',
+        false,
+      );
+      return { pivot: j.name, peakForce: peak.value, limit: peak.limit === null ? null : `≤ ${peak.limit}` };
     }),
     checklist:
       checklist.length > 0
@@ -469,6 +469,7 @@ function inspectionPart(tx: NoticeTx, inspectionId: string) {
       type: inspections.type,
       startedAt: inspections.startedAt,
       analysis: inspections.analysis,
+      record: inspections.record,
       inspectorName: users.name,
     })
     .from(inspections)
@@ -487,16 +488,35 @@ function inspectionPart(tx: NoticeTx, inspectionId: string) {
       designVersion: row.analysis?.designVersion ?? null,
       engineVersion: row.analysis?.engineVersion ?? null,
     },
-    results: row.analysis ? resultsOf(row.analysis.envelope) : [],
+    results: row.analysis ? resultsOf(row.analysis.envelope, measuredSources(row.record)) : [],
   };
 }
 
-function resultsOf(envelope: Parameters<typeof sortByConcern>[0]): NoticeDocument['results'] {
-  return sortByConcern(envelope).map((item) => ({
-    label: item.label,
-    value: formatValue(item.value, item.quantity, 'si'),
-    limit: formatLimit(item.limit, item.quantity, 'si'),
-    ratio: Number.isFinite(item.ratio) ? item.ratio : null,
-    status: item.status,
-  }));
+/**
+ * Each value against its limit, formatted once by the one rule (lib/measured-format.ts) and frozen, so the
+ * app, the e-mail and the PDF print the same strings; measured values as the inspector typed them.
+ */
+export function resultsOf(
+  envelope: Parameters<typeof sortByConcern>[0],
+  sources: ReturnType<typeof measuredSources>,
+): NoticeDocument['results'] {
+  return sortByConcern(envelope).map((item) => {
+    const source = sources.get(item.id);
+    const shown = formatEnvelopeItem(item, 'si', source);
+    return {
+      label: item.label,
+      value: shown.value,
+      limit: shown.limit,
+      ratio: Number.isFinite(item.ratio) ? item.ratio : null,
+      status: item.status,
+      ...(Number.isFinite(item.value) && {
+        measured: {
+          valueSI: item.value,
+          quantity: item.quantity,
+          entered: source?.entered ?? null,
+          unit: source?.unit ?? null,
+        },
+      }),
+    };
+  });
 }

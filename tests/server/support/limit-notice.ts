@@ -1,0 +1,17 @@
+/**
+ * A notice whose results sit at and just past their limits (tests/engine/support/limit-values.ts),
+ * formatted by the notice issuer's own `resultsOf` from the engine's envelope and the record's typed texts.
+ */
+import { measuredSources } from '@/features/loads/format';
+import type { NoticeDocument } from '@/features/notices/schema';
+import { resultsOf } from '@/server/notices/issue';
+import { limitEnvelope, limitReadings } from '@/tests/engine/support/limit-values';
+import { fixtureNotice } from '@/tests/server/support/notice-fixture';
+
+export function limitResults(): NoticeDocument['results'] {
+  return resultsOf(limitEnvelope, measuredSources({ readings: limitReadings }));
+}
+
+export function limitNotice(): NoticeDocument {
+  return { ...fixtureNotice, reference: 'PW-2026-0139', results: limitResults() };
+}
