@@ -21,13 +21,16 @@ import { type Draft, newDraft } from '@/features/inspections/draft';
 import { InspectionScreen } from '@/features/inspections/inspection-screen';
 import { inspectionRecordSchema } from '@/features/inspections/schema';
 import { measuredWithProblem, nothingChosen } from '@/features/instruments/measured-with';
+import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
 import {
   type Instrument,
   calibrationStatus,
+  measuredWithWords,
   methodsForKind,
   pastDueAt,
   utcDate,
 } from '@/features/instruments/schema';
+import { inspectionDetailSchema } from '@/features/review/inspection-schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { SyncApi } from '@/features/sync/api';
 import { pull } from '@/features/sync/pull';
@@ -338,5 +341,62 @@ describe('calibration rule', () => {
       expect(methods).not.toContain('tap_timer');
       expect(methods).not.toContain('typed');
     }
+  });
+});
+
+describe('the phone’s copy and older records', () => {
+  test('each pull replaces the register whole: an instrument the server dropped is no longer offered', async () => {
+    expect((await readInstruments(dev)).map((i) => i.serial).sort()).toEqual(
+      register.map((i) => i.serial).sort(),
+    );
+    const api: SyncApi = {
+      push: async () => {
+        throw new Error('not used');
+      },
+      putPhoto: async () => {},
+      pull: async () => ({ cursor: 'v1:2026-06-04T07:00:00.000Z', instruments: [register[0]] }),
+    };
+    await pull(api, dev);
+    expect((await readInstruments(dev)).map((i) => i.serial)).toEqual(['MC-1']);
+    // A pull without the declaration keeps the text the phone has.
+    expect((await readDeclarationSetting(dev))?.text).toBe(declarationText);
+  });
+
+  test('a record made before methods were asked for reads as it did, and its lack of a declaration is no error', () => {
+    expect(measuredWithWords({ method: 'typed' })).toBe('Typed in');
+    expect(measuredWithWords({ method: 'dial_indicator' })).toBe('Dial indicator');
+    expect(measuredWithWords({ method: 'micrometer', instrument: null })).toBe(
+      'Micrometer · none from the register',
+    );
+    const old = inspectionRecordSchema.parse({
+      id: '6f1f2a8e-3c1b-4a55-9d0e-2b7c0c1d9e01',
+      rideId: ride.id,
+      designVersionId: null,
+      templateId: null,
+      templateVersion: null,
+      type: 'periodic',
+      startedAt: '2026-03-01T08:00:00.000Z',
+      submittedAt: '2026-03-01T09:00:00.000Z',
+      checklist: [],
+      readings: [
+        {
+          id: '6f1f2a8e-3c1b-4a55-9d0e-2b7c0c1d9e02',
+          kind: 'clearance',
+          joint: 0,
+          label: 'Clearance',
+          valueSI: 0.0002,
+          unit: 'mm',
+          method: 'typed',
+          takenAt: '2026-03-01T08:30:00.000Z',
+        },
+      ],
+      photos: [],
+      preview: null,
+    });
+    expect(old.declaration).toBeUndefined();
+    expect(old.readings[0].instrument).toBeUndefined();
+    // The review desk's reading of a stored record without the new fields.
+    const recordView = inspectionDetailSchema.shape.record.parse(old);
+    expect(recordView.declaration).toBeUndefined();
   });
 });
