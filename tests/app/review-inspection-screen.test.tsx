@@ -451,6 +451,53 @@ describe('inspection review', () => {
     expect(screen.getAllByText(CAUTION_SHORT).length).toBeGreaterThan(0);
   });
 
+  test('the declaration and each reading’s instrument, as the record states them; a reading without one reads as before', async () => {
+    const base = inspectionAnswer().inspection;
+    const declared = inspectionAnswer({
+      record: {
+        ...base.record,
+        readings: readings.map((r) =>
+          r.kind === 'pin_diameter'
+            ? {
+                ...r,
+                instrument: {
+                  id: 'i-1',
+                  name: 'Outside micrometer 50–75 mm',
+                  serial: 'MC-1',
+                  calibrationDueOn: '2026-11-30',
+                },
+              }
+            : r,
+        ),
+        declaration: {
+          text: 'I inspected this ride in person; this record holds only what I found and measured.',
+          declaredAt: '2026-06-02T09:14:00.000Z',
+          declaredBy: 'u-ins',
+          declaredByName: 'Tobin Reyes',
+        },
+      },
+    });
+    answers['/api/inspections/insp-3'] = () => [200, declared];
+    renderReview();
+    expect(
+      await screen.findByText(
+        '“I inspected this ride in person; this record holds only what I found and measured.”',
+      ),
+    ).toBeTruthy();
+    expect(screen.getByText(/^Made by Tobin Reyes on 2 Jun 2026/)).toBeTruthy();
+    const raw = rowWith('Pin diameter, main pivot');
+    expect(within(raw).getByText('Micrometer · Outside micrometer 50–75 mm (MC-1)')).toBeTruthy();
+    // A reading with no instrument recorded reads as before.
+    expect(within(rowWith('Bushing clearance, main pivot')).getByText('Dial indicator')).toBeTruthy();
+  });
+
+  test('a record stored before declarations says so rather than showing one', async () => {
+    renderReview();
+    expect(
+      await screen.findByText('No declaration: recorded before inspectors were asked for one.'),
+    ).toBeTruthy();
+  });
+
   test('values follow the person’s unit system (1 in = 25.4 mm exactly)', async () => {
     setUnitSystem('us');
     renderReview();
