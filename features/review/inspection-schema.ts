@@ -101,6 +101,23 @@ export const storedAnalysisSchema = z.object({
   server: devicePreviewSchema,
   device: devicePreviewSchema.nullable(),
   differences: z.array(z.string()),
+  /** Motion readings far from the design motion that the inspector confirmed; absent when none. */
+  confirmedOutOfRange: z
+    .array(
+      z.object({
+        readingId: z.string(),
+        label: z.string(),
+        kind: z.enum(['speed', 'period', 'amplitude']),
+        valueSI: z.number(),
+        designSI: z.number(),
+        ratio: z.number(),
+        confirmedAt: z.string(),
+        note: z.string().optional(),
+        usedByLoadCheck: z.boolean(),
+      }),
+    )
+    .optional()
+    .catch(undefined),
 });
 export type StoredAnalysisView = z.infer<typeof storedAnalysisSchema>;
 

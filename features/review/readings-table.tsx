@@ -1,3 +1,4 @@
+import Feather from '@expo/vector-icons/Feather';
 import { StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
@@ -5,12 +6,17 @@ import { Caution } from '@/components/caution';
 import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { space } from '@/components/theme';
+import { colors, radius, space } from '@/components/theme';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { formatValue, measuredSources } from '@/features/loads/format';
 import { formatDateTime } from '@/features/registry/text';
-import type { InspectionDetail, InspectionReading } from '@/features/review/inspection-schema';
+import { plausibilityText } from '@/features/inspections/plausibility';
+import type {
+  InspectionDetail,
+  InspectionReading,
+  StoredAnalysisView,
+} from '@/features/review/inspection-schema';
 import { formatReading, formatSpread, pivotName, readingKindLabel } from '@/features/review/review-format';
 import type { UnitSystem } from '@/features/units';
 
@@ -55,6 +61,7 @@ export function LimitsSection({
           {a.status ? headline[a.status] : 'The design data gives no limits: loads only, no statuses.'}
         </Text>
       </Card>
+      <ConfirmedOutOfRange items={a.confirmedOutOfRange ?? []} />
       {a.envelope.length > 0 ? (
         <EnvelopeTable
           items={a.envelope}
@@ -101,6 +108,36 @@ export function LimitsSection({
       />
       <Caution />
     </View>
+  );
+}
+
+/**
+ * Motion readings the inspector kept although they were far from the design motion: the load check above
+ * rests on them (where `usedByLoadCheck`), so the reviewer sees that first, with the inspector's reason.
+ */
+export function ConfirmedOutOfRange({
+  items,
+}: {
+  items: NonNullable<StoredAnalysisView['confirmedOutOfRange']>;
+}) {
+  if (items.length === 0) return null;
+  return (
+    <Card style={styles.confirmed} accessibilityLabel="Readings confirmed far from the design motion">
+      <View style={styles.confirmedHead}>
+        <Feather name="alert-triangle" size={18} color={colors.near} />
+        <Text variant="heading" color={colors.near} style={styles.grow}>
+          The inspector kept {items.length === 1 ? 'a reading' : `${items.length} readings`} far from the
+          design motion
+        </Text>
+      </View>
+      {items.map((c) => (
+        <Text key={c.readingId}>
+          {c.label}: {plausibilityText({ ...c, plausible: false })}
+          {c.usedByLoadCheck ? ' · used by this load check' : ' · replaced by a later reading'}
+          {c.note ? ` · “${c.note}”` : ''}
+        </Text>
+      ))}
+    </Card>
   );
 }
 
@@ -165,4 +202,7 @@ function wrapAngle(rad: number): number {
 const styles = StyleSheet.create({
   section: { gap: space.md },
   headline: { gap: space.sm },
+  confirmed: { gap: space.xs, borderColor: colors.near, borderWidth: 2, borderRadius: radius.lg },
+  confirmedHead: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  grow: { flex: 1 },
 });

@@ -10,6 +10,8 @@ import { Pressable, Text } from 'react-native';
 import type { Draft } from '@/features/inspections/draft';
 import { ReadingsSection } from '@/features/inspections/readings-section';
 import type { Reading } from '@/features/inspections/schema';
+import { storedAnalysisSchema } from '@/features/review/inspection-schema';
+import { ConfirmedOutOfRange } from '@/features/review/readings-table';
 import { skylarkDesign } from '@/server/seed/demo-design';
 
 jest.mock('expo-crypto', () => {
@@ -121,4 +123,55 @@ test('a typed amplitude far from the design asks too (30° against 110° each si
   expect(onAdd).toHaveBeenCalledTimes(1);
   expect(onAdd.mock.calls[0][0]).toMatchObject({ kind: 'amplitude', method: 'gauge' });
   expect(onAdd.mock.calls[0][0].plausibility?.ratio).toBeCloseTo(30 / 110, 12);
+});
+
+describe('on the review desk', () => {
+  const base = {
+    engineVersion: '1',
+    designVersionId: 'v1',
+    designVersion: 1,
+    status: null,
+    durationS: 9.5,
+    samples: 360,
+    joints: [],
+    seats: [],
+    envelope: [],
+    server: { engineVersion: '1', status: null, peakForceN: [] },
+    device: null,
+    differences: [],
+  };
+  const confirmed = {
+    readingId: 'r1',
+    label: 'Main arm: period',
+    kind: 'period' as const,
+    valueSI: 2.42,
+    designSI: 9.5,
+    ratio: 9.5 / 2.42,
+    confirmedAt: '2026-12-03T08:11:00.000Z',
+    note: 'Short test programme',
+    usedByLoadCheck: true,
+  };
+
+  test('analyses stored before the rule parse without the list; a damaged list is dropped, not fatal', () => {
+    expect(storedAnalysisSchema.parse(base).confirmedOutOfRange).toBeUndefined();
+    expect(
+      storedAnalysisSchema.parse({ ...base, confirmedOutOfRange: 'x' }).confirmedOutOfRange,
+    ).toBeUndefined();
+    expect(
+      storedAnalysisSchema.parse({ ...base, confirmedOutOfRange: [confirmed] }).confirmedOutOfRange,
+    ).toEqual([confirmed]);
+  });
+
+  test('the supervisor sees which kept value the load check rests on, how far off it is, and why it was kept', () => {
+    render(
+      <ConfirmedOutOfRange items={[confirmed, { ...confirmed, readingId: 'r0', usedByLoadCheck: false }]} />,
+    );
+    expect(screen.getByText('The inspector kept 2 readings far from the design motion')).toBeTruthy();
+    expect(
+      screen.getByText(
+        'Main arm: period: 3.93 × the design rate (design period 9.50 s) · used by this load check · “Short test programme”',
+      ),
+    ).toBeTruthy();
+    expect(screen.getByText(/replaced by a later reading/)).toBeTruthy();
+  });
 });
