@@ -13,7 +13,7 @@ import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { inspectionSchedules } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
-import { formatLimit, formatValue } from '@/features/loads/format';
+import { formatEnvelopeItem, measuredSources } from '@/features/loads/format';
 import { severityInfo, type decisionInputSchema, type DecisionResponse } from '@/features/review/schema';
 import { checkTransition, eventForStatus } from '@/features/review/status-rules';
 import type { Db } from '@/server/db';
@@ -59,20 +59,23 @@ export function causesOf(tx: Pick<Db, 'select'>, inspectionId: string) {
     .orderBy(asc(findings.number))
     .all()
     .filter((f) => blockingSeverities.includes(f.severity));
-  const analysis = tx
-    .select({ analysis: inspections.analysis })
+  const row = tx
+    .select({ analysis: inspections.analysis, record: inspections.record })
     .from(inspections)
     .where(eq(inspections.id, inspectionId))
-    .get()?.analysis;
+    .get();
+  const analysis = row?.analysis;
   const over = (analysis?.envelope ?? []).filter((e) => e.status === 'over');
+  // The same strings as the notice's results: typed values as typed, never rounded across the limit.
+  const sources = row ? measuredSources(row.record) : new Map();
   const parts = [
     ...blocking.map(
       (f) => `finding ${f.number} (${severityInfo[f.severity].label}): ${f.description.slice(0, 120)}`,
     ),
-    ...over.map(
-      (e) =>
-        `${e.label}: ${formatValue(e.value, e.quantity, 'si')} against ${formatLimit(e.limit, e.quantity, 'si')}, over limit`,
-    ),
+    ...over.map((e) => {
+      const shown = formatEnvelopeItem(e, 'si', sources.get(e.id));
+      return `${e.label}: ${shown.value} against ${shown.limit}, over limit`;
+    }),
   ];
   return {
     blocking: blocking.length,
