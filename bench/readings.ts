@@ -27,7 +27,8 @@ export function benchReadings(design: DesignData, taken: string, i: number, coun
           kind: 'speed',
           joint: 0,
           label: 'Arm speed',
-          valueSI: 1 + (i % 9) / 50,
+          // Near the design speed (rad/s), as a real reading is: one far from it would need confirming.
+          valueSI: ((Math.abs(motion?.rpm ?? 10) * 2 * Math.PI) / 60) * (1 + (i % 9) / 200),
           unit: 'rpm',
           method: 'tap_timer',
           spreadSI: 0.004,
