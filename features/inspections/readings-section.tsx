@@ -209,6 +209,7 @@ function ReadingInput({
     spreadSI: number | null = null,
     instrument?: Reading['instrument'],
     entered?: string,
+    note?: string,
   ) => {
     offer({
       id: randomUUID(),
@@ -222,6 +223,7 @@ function ReadingInput({
       ...(instrument !== undefined && { instrument }),
       spreadSI,
       takenAt: new Date().toISOString(),
+      ...(note ? { note } : {}),
     });
   };
   const submit = () => {
@@ -236,7 +238,7 @@ function ReadingInput({
     if (missing || !measured.method) return setMeasuredError(missing ?? undefined);
     setMeasuredError(undefined);
     setText('');
-    const { method, instrument } = measured;
+    const { method, instrument, note } = measured;
     // Each reading says how it was taken: the next one starts with nothing chosen again.
     setMeasured(nothingChosen);
     add(
@@ -245,6 +247,7 @@ function ReadingInput({
       null,
       instrument ? snapshotOf(instrument) : null,
       entered,
+      method === 'other' ? note.trim() : undefined,
     );
   };
   return (

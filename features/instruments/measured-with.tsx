@@ -3,6 +3,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 
 import { ChoiceChips } from '@/components/choice-chips';
 import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
 import type { InstrumentSnapshot, ReadingKind } from '@/features/inspections/schema';
 import {
@@ -16,9 +17,16 @@ import {
   methodsForKind,
 } from '@/features/instruments/schema';
 
-/** The inspector's answer so far: nothing is chosen until they choose it. `null` instrument = none used. */
-export type MeasuredWith = { method: ReadingMethod | null; instrument: Instrument | null | undefined };
-export const nothingChosen: MeasuredWith = { method: null, instrument: undefined };
+/**
+ * The inspector's answer so far: nothing is chosen until they choose it. `null` instrument = none used;
+ * `note` says how, for a method the list does not name (it becomes the reading's note).
+ */
+export type MeasuredWith = {
+  method: ReadingMethod | null;
+  instrument: Instrument | null | undefined;
+  note: string;
+};
+export const nothingChosen: MeasuredWith = { method: null, instrument: undefined, note: '' };
 
 export const snapshotOf = (i: Instrument): InstrumentSnapshot => ({
   id: i.id,
@@ -33,6 +41,7 @@ export const snapshotOf = (i: Instrument): InstrumentSnapshot => ({
  */
 export function measuredWithProblem(m: MeasuredWith, today: string): string | null {
   if (!m.method) return 'Choose how it was measured';
+  if (m.method === 'other' && !m.note.trim()) return 'Say how it was measured';
   if (m.instrument === undefined) return 'Choose the instrument, or say none from the register was used';
   if (m.instrument && calibrationStatus(m.instrument.calibrationDueOn, today).state === 'past_due')
     return `${m.instrument.name} is past its calibration due date; use another instrument`;
@@ -77,9 +86,17 @@ export function MeasuredWithPicker({
         label="Measured by"
         value={value.method}
         options={methods.map((m) => ({ value: m, label: methodChoiceLabel[m] }))}
-        onChange={(method) => onChange({ method, instrument: undefined })}
+        onChange={(method) => onChange({ method, instrument: undefined, note: value.note })}
         error={!value.method ? error : undefined}
       />
+      {value.method === 'other' ? (
+        <TextField
+          label="How it was measured"
+          value={value.note}
+          onChangeText={(note) => onChange({ ...value, note })}
+          error={!value.note.trim() && error === 'Say how it was measured' ? error : undefined}
+        />
+      ) : null}
       {value.method ? (
         <View style={styles.list} role="radiogroup" accessibilityLabel="Instrument">
           <Text variant="label" muted>
@@ -142,7 +159,7 @@ export function MeasuredWithPicker({
               {value.instrument === null ? '● ' : '○ '}None from the register
             </Text>
           </Pressable>
-          {value.method && value.instrument === undefined && error ? (
+          {value.method && value.instrument === undefined && error && error !== 'Say how it was measured' ? (
             <Text variant="small" color={colors.danger} role="alert">
               {error}
             </Text>

@@ -53,7 +53,7 @@ export const methodChoiceLabel: Record<ReadingMethod, string> = {
   micrometer: 'Micrometer',
   dial_indicator: 'Dial indicator',
   gauge: 'Gauge (feeler, caliper, angle)',
-  other: 'Other (say how in a note)',
+  other: 'Other (say how)',
 };
 
 const requiredText = (max: number) =>

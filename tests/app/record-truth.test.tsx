@@ -215,7 +215,7 @@ describe('a reading on the phone', () => {
     const methods = screen
       .getAllByRole('radio')
       .filter((r) =>
-        ['Micrometer', 'Gauge (feeler, caliper, angle)', 'Other (say how in a note)'].includes(
+        ['Micrometer', 'Gauge (feeler, caliper, angle)', 'Other (say how)'].includes(
           r.props.accessibilityLabel,
         ),
       );
@@ -277,6 +277,28 @@ describe('a reading on the phone', () => {
     fireEvent.press(screen.getByRole('button', { name: 'Add bushing clearance (diametral) for Rod' }));
     await waitFor(async () => expect(await savedReadings()).toHaveLength(1));
     expect((await savedReadings())[0]).toMatchObject({ method: 'gauge', instrument: null });
+  });
+});
+
+test('a method the list does not name must be described, and the description is the reading’s note', async () => {
+  renderRecording();
+  fireEvent.press(await screen.findByRole('radio', { name: 'Readings' }));
+  fireEvent.changeText(await screen.findByLabelText(/^Pin diameter/), '59.91');
+  fireEvent.press(screen.getByRole('radio', { name: 'Other (say how)' }));
+  fireEvent.press(screen.getByRole('radio', { name: 'None from the register' }));
+  fireEvent.press(screen.getByRole('button', { name: 'Add pin diameter for Rod' }));
+  expect(await screen.findByText('Say how it was measured')).toBeTruthy();
+  expect(await savedReadings()).toEqual([]);
+  fireEvent.changeText(
+    screen.getByLabelText('How it was measured'),
+    'Go/no-go ring gauge, 59.90 mm ring passes',
+  );
+  fireEvent.press(screen.getByRole('button', { name: 'Add pin diameter for Rod' }));
+  await waitFor(async () => expect(await savedReadings()).toHaveLength(1));
+  expect((await savedReadings())[0]).toMatchObject({
+    method: 'other',
+    instrument: null,
+    note: 'Go/no-go ring gauge, 59.90 mm ring passes',
   });
 });
 
