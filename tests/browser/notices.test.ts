@@ -82,6 +82,9 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   await form.getByRole('button', { name: 'Add finding' }).click();
   await form.waitFor({ state: 'detached' });
   await desk.getByText('Saving…').waitFor({ state: 'detached' });
+  // The finding forbids operation: the approval stops the ride in the same decision.
+  await desk.getByRole('radio', { name: 'Set out of service', exact: true }).click();
+  await desk.getByLabel('Reason for the status').fill('Drive runs over its design speed.');
   await desk.getByRole('button', { name: 'Approve inspection' }).click();
   await desk
     .getByText(/Approved by Mira Delacourt/)
@@ -137,7 +140,10 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
     .waitFor();
 
   // Corrective action with a photo of the repair.
-  await phone.getByRole('button', { name: 'Report corrective action on finding 1' }).click();
+  await phone
+    .getByRole('button', { name: /^Report corrective action on finding \d+$/ })
+    .first()
+    .click();
   await phone
     .getByLabel('What was done')
     .fill('Drive controller reset to the design programme; timed 6.0 rpm.');
@@ -150,15 +156,19 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   await phone.getByLabel('State: Action reported').first().waitFor({ timeout: 15000 });
   await screenshot(phone, 'notice-operator-phone');
 
-  // ——— the supervisor verifies and closes; the ride returns to service ———
+  // ——— the supervisor verifies and closes (note required; the operator's report is the evidence) ———
   await desk.goto(`${app.baseUrl}/notices/${noticeId}`);
-  await desk.getByRole('button', { name: 'Verify and close finding 1' }).click();
-  await desk.getByLabel('Verification note (optional)').fill('Checked the controller on site: 6.0 rpm.');
+  await desk
+    .getByRole('button', { name: /^Verify and close finding \d+$/ })
+    .first()
+    .click();
+  await desk.getByLabel('Verification note').fill('Checked the controller on site: 6.0 rpm.');
   await desk.getByRole('button', { name: 'Close finding', exact: true }).click();
-  await desk.getByText('THE RIDE’S STATUS FOLLOWED').waitFor({ timeout: 15000 });
+  // Closing does not return the ride to service: its follow-up inspection does (tests/browser/verdict-loop).
+  await desk.getByText('RIDE STATUS NOW').waitFor({ timeout: 15000 });
   await screenshot(desk, 'notice-closed-desktop');
 
-  // Through the API: acknowledged, closed with the operator's evidence, the ride back in service.
+  // Through the API: acknowledged, closed with the operator's evidence, the ride still stopped.
   const notice = await api<{
     notice: {
       acknowledgedAt: string | null;
@@ -173,5 +183,5 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
     '/api/rides?q=Tidebreaker',
     'supervisor@pivotwatch.test',
   );
-  expect(rides.rides[0].status).toBe('in_service');
+  expect(rides.rides[0].status).toBe('out_of_service');
 });
