@@ -64,7 +64,10 @@ test('queue → flagged inspection → finding, ride out of service, approval; r
 
   // Its loads: the sub-arm pivot's force over the cycle, drawn against its limit.
   await desk.getByText('Force on P2 · Sub-arm pivot').waitFor({ timeout: 30000 });
-  await desk.getByText(/^Limit 102(\.0)? kN$/).first().waitFor();
+  await desk
+    .getByText(/^Limit 102(\.0)? kN$/)
+    .first()
+    .waitFor();
 
   // Its photo, full size, loaded with the supervisor's credentials.
   await desk
