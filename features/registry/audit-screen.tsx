@@ -213,6 +213,8 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
           {changes.map((c, i) => (
             <View
               key={`${c.field}|${i}`}
+              accessible
+              accessibilityLabel={`${c.field}: ${c.before ?? '—'} → ${c.after ?? (c.before !== null ? 'removed' : '—')}${c.effect && c.effect !== 'changed' ? ` (${c.effect})` : ''}`}
               style={[
                 wide ? styles.changeWide : styles.change,
                 c.effect === 'loosened' ? styles.loosened : null,
