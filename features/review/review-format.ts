@@ -62,7 +62,8 @@ export function readingSource(r: {
 
 /** "± 0.023 s" for a reading's spread (two significant figures, in the reading's unit), when it has one. */
 export function formatSpread(
-  r: Pick<InspectionReading, 'kind' | 'spreadSI'> & {
+  r: Pick<InspectionReading, 'kind'> & {
+    spreadSI?: number | null;
     valueSI?: number;
     unit?: string;
     entered?: string | null;

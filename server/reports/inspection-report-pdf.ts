@@ -9,7 +9,13 @@ import PDFDocument from 'pdfkit';
 import { CAUTION_FULL } from '@/components/caution-text';
 import type { ChecklistAnswer, Reading } from '@/features/inspections/schema';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine/envelope';
-import { formatLimit, formatRatio, formatValue, sortByConcern } from '@/features/loads/format';
+import {
+  formatEnvelopeItem,
+  formatRatio,
+  formatValue,
+  measuredSources,
+  sortByConcern,
+} from '@/features/loads/format';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import {
   formatMeasurement,
@@ -42,10 +48,8 @@ function when(iso: string): string {
 const orNot = (v: string | number | null | undefined) =>
   v === null || v === undefined || v === '' ? 'Not recorded' : String(v);
 
-/** A reading's value as recorded: the inspector's own digits when the record kept them. */
+/** A reading's value as recorded: the inspector's own digits when the record kept them (one rule). */
 function readingValue(r: Reading): string {
-  const entered = (r as Reading & { entered?: string }).entered;
-  if (entered) return `${entered} ${r.unit}`.trim();
   return formatReading(r, 'si');
 }
 
@@ -58,8 +62,7 @@ function readingMethod(r: Reading): string {
 
 function checklistValue(a: ChecklistAnswer): string {
   if (!a.measurement) return '';
-  const entered = (a.measurement as { entered?: string }).entered;
-  return entered ? `${entered} ${a.measurement.unit}`.trim() : formatMeasurement(a.measurement);
+  return formatMeasurement(a.measurement);
 }
 
 type Doc = PDFKit.PDFDocument;
@@ -177,7 +180,7 @@ function readings(doc: Doc, r: InspectionReport) {
   const rows = list.map((x) => {
     const p = (x as Reading & { plausibility?: { ratio: number; note?: string } }).plausibility;
     const notes = [
-      formatSpread({ kind: x.kind, spreadSI: x.spreadSI ?? null }, 'si'),
+      formatSpread(x, 'si'),
       p ? `Confirmed by the inspector at ${formatRatio(p.ratio)} of the design motion` : null,
       p?.note ?? null,
       x.note ?? null,
@@ -219,13 +222,12 @@ function loadCheck(doc: Doc, r: InspectionReport) {
       MARGIN,
     )
     .moveDown(0.4);
-  const rows = sortByConcern(a.envelope).map((e) => [
-    e.label,
-    formatValue(e.value, e.quantity, 'si'),
-    formatLimit(e.limit, e.quantity, 'si'),
-    formatRatio(e.ratio),
-    ENVELOPE_STATUS_LABEL[e.status],
-  ]);
+  // The same strings as the review desk and the notices: typed values as typed, never across the limit.
+  const sources = measuredSources(r.inspection.record);
+  const rows = sortByConcern(a.envelope).map((e) => {
+    const shown = formatEnvelopeItem(e, 'si', sources.get(e.id));
+    return [e.label, shown.value, shown.limit, shown.ratio, ENVELOPE_STATUS_LABEL[e.status]];
+  });
   table(doc, ['Quantity', 'Value', 'Limit', 'Of limit', 'Status'], rows, ['*', 80, 90, 55, 65]);
   if (a.differences.length > 0) {
     doc
