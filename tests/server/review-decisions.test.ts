@@ -5,10 +5,12 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import { and, eq } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import { z } from 'zod';
 
-import { reviewQueue } from '@/db/server/review';
+import { inspections } from '@/db/server/inspections';
+import { notices } from '@/db/server/notices';
+import { reviewQueue, rideStatusChanges } from '@/db/server/review';
 import { inspectionSchedules } from '@/db/server/schema';
 import { auditListResponseSchema, scheduleSchema } from '@/features/registry/schema';
 import { decisionResponseSchema } from '@/features/review/schema';
@@ -307,5 +309,89 @@ describe('who may decide', () => {
     expectApiError(await decide(randomUUID(), { decision: 'approve' }), 404, 'not_found');
     const res = await decide(record.id, { decision: 'approve' }, api.admin);
     expect(res.body.reviewedByName).toBe('Rowan Ashby');
+  });
+});
+
+describe('one decision, one notice (the status rules)', () => {
+  const noticesOfSkylark = () =>
+    server.db.select().from(notices).where(eq(notices.rideId, skylark.id)).orderBy(asc(notices.seq)).all();
+
+  test('a finding that forbids operation: approval needs the stop in the same decision, and issues one notice naming it', async () => {
+    const record = await submitted();
+    const made = (
+      await api.supervisor.post(`/api/inspections/${record.id}/findings`, {
+        severity: 'stop_now',
+        description: 'Arm hub weld cracked at the lower gusset.',
+        requiredAction: 'Lock out; NDT and repair by the maker.',
+      })
+    ).body.finding;
+    const before = noticesOfSkylark().length;
+
+    // Kept running (or only restricted) on a finding that forbids operation: refused, nothing changes.
+    expectApiError(await decide(record.id, { decision: 'approve' }), 409, 'stop_required');
+    expectApiError(
+      await decide(record.id, {
+        decision: 'approve',
+        rideStatus: { status: 'restricted', reason: 'Gondola 2 closed.' },
+      }),
+      409,
+      'stop_required',
+    );
+    const noReason = expectApiError(
+      await decide(record.id, { decision: 'approve', rideStatus: { status: 'out_of_service' } }),
+      400,
+      'validation_failed',
+    );
+    expect(noReason.issues?.map((i) => i.path)).toEqual(['rideStatus.reason']);
+    expect(noticesOfSkylark()).toHaveLength(before);
+    expect(server.db.select().from(inspections).where(eq(inspections.id, record.id)).get()?.reviewState).toBe(
+      'submitted',
+    );
+
+    const res = await decide(record.id, {
+      decision: 'approve',
+      rideStatus: { status: 'out_of_service', reason: 'Hub weld crack.' },
+    });
+    expect(res.status).toBe(200);
+    const decided = decisionResponseSchema.parse(res.body);
+    expect(decided.ride).toEqual({
+      status: 'out_of_service',
+      statusReason: 'Hub weld crack.',
+      changed: true,
+    });
+    const after = noticesOfSkylark();
+    expect(after).toHaveLength(before + 1);
+    const [notice] = after.slice(-1);
+    expect(notice.id).toBe(decided.notice?.id);
+    expect(notice.kind).toBe('inspection');
+    expect(notice.inspectionId).toBe(record.id);
+    // The stop, its reason and its cause on the one notice; the finding by its number on the ride.
+    expect(notice.document.operatingStatus.status).toBe('out_of_service');
+    expect(notice.document.operatingStatus.reason).toBe(
+      `Hub weld crack. — Because of finding ${made.number} (Stop now): Arm hub weld cracked at the lower gusset..`,
+    );
+    expect(notice.document.findings.map((f) => f.number)).toEqual([made.number]);
+    expect(notice.document.reinspection.required).toBe(true);
+    // The change is on the ride's status record, tied to the decision.
+    const change = server.db
+      .select()
+      .from(rideStatusChanges)
+      .where(eq(rideStatusChanges.inspectionId, record.id))
+      .all();
+    expect(change).toEqual([
+      expect.objectContaining({ event: 'stop', toStatus: 'out_of_service', override: false }),
+    ]);
+  });
+
+  test('a return with no status change issues no notice; the ride stays as it is', async () => {
+    const record = await submitted();
+    const before = noticesOfSkylark().length;
+    const res = await decide(record.id, { decision: 'return', note: 'Photograph the hub, please.' });
+    expect(res.status).toBe(200);
+    expect(decisionResponseSchema.parse(res.body)).toMatchObject({
+      notice: null,
+      ride: { status: 'out_of_service', changed: false },
+    });
+    expect(noticesOfSkylark()).toHaveLength(before);
   });
 });
