@@ -281,11 +281,11 @@ export function passedOverLimitWithoutReason(
  * not linked to a reading is compared with the readings of the same pivot and kind; any that differ by
  * more than rounding are returned.
  */
-export function disagreeingReadings(
+export function disagreeingReadings<R extends Pick<Reading, 'kind' | 'joint' | 'valueSI'>>(
   item: Pick<ChecklistItem, 'limit'> | undefined,
   answer: ChecklistAnswer,
-  readings: readonly Reading[],
-): Reading[] {
+  readings: readonly R[],
+): R[] {
   const link = item ? readingLink(item) : null;
   const m = answer.measurement;
   if (!link || !m || m.readingId) return [];

@@ -1,14 +1,23 @@
 import Feather from '@expo/vector-icons/Feather';
+import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
+import { apiFetch } from '@/features/api/client';
+import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
+import { disagreeingReadings, envelopeItemOf } from '@/features/inspections/checklist-limits';
 import type { ChecklistAnswer } from '@/features/inspections/schema';
-import type { InspectionPhoto } from '@/features/review/inspection-schema';
+import type { EnvelopeItem } from '@/features/loads/engine';
+import { registryKeys } from '@/features/registry/api';
+import { type ChecklistItem, checklistTemplateResponseSchema } from '@/features/registry/schema';
+import type { InspectionPhoto, InspectionReading } from '@/features/review/inspection-schema';
 import { PhotoThumb } from '@/features/review/photo-gallery';
 import { formatMeasurement } from '@/features/review/review-format';
+import type { UnitSystem } from '@/features/units';
+import { formatAgainstLimit } from '@/lib/measured-format';
 
 type Result = ChecklistAnswer['result'];
 
@@ -24,47 +33,93 @@ const resultInfo: Record<
 };
 const keyOf = (r: Result) => r ?? 'none';
 
+type Checked = {
+  /** Where the value stands in the server's envelope; undefined when it had no limit to meet. */
+  envelopeItem?: EnvelopeItem;
+  /** Readings of the same pivot quantity holding another value (records from before values were shared). */
+  disagree: InspectionReading[];
+};
+
 /**
- * The checklist as answered. Failed items come first, each with the inspector's note, any measurement
- * and its photos; the rest are counted, and listed on request.
+ * The checklist as answered. Failed items and values over their limits come first, each with the
+ * inspector's note or reason, the measurement against its limit and its photos; the rest are counted, and
+ * listed on request, each measured value still beside its limit and status.
  */
 export function ChecklistResults({
   checklist,
   photos,
   onOpenPhoto,
+  envelope = [],
+  readings = [],
+  template,
+  system = 'si',
 }: {
   checklist: ChecklistAnswer[];
   photos: InspectionPhoto[];
   onOpenPhoto: (photoId: string) => void;
+  /** The server's analysis envelope, which holds the checklist values' statuses. */
+  envelope?: readonly EnvelopeItem[];
+  readings?: InspectionReading[];
+  /** The template version answered, to compare old records' values with their readings. */
+  template?: { id: string | null; version: number | null };
+  system?: UnitSystem;
 }) {
   const [showAll, setShowAll] = useState(false);
+  const items = useTemplateItems(template);
   if (checklist.length === 0) return <Text muted>This inspection has no checklist answers.</Text>;
-  const failed = checklist.filter((a) => a.result === 'fail');
-  const rest = checklist.filter((a) => a.result !== 'fail');
-  const count = (r: Result) => rest.filter((a) => a.result === r).length;
+  const checked = new Map<string, Checked>(
+    checklist.map((a) => [
+      a.itemId,
+      {
+        envelopeItem: a.measurement ? envelopeItemOf(a, envelope, readings) : undefined,
+        disagree: disagreeingReadings(
+          items.get(a.itemId),
+          a,
+          readings as never,
+        ) as unknown as InspectionReading[],
+      },
+    ]),
+  );
+  const needsEye = (a: ChecklistAnswer) =>
+    a.result === 'fail' ||
+    checked.get(a.itemId)?.envelopeItem?.status === 'over' ||
+    !!checked.get(a.itemId)?.disagree.length;
+  const failed = checklist.filter(needsEye);
+  const rest = checklist.filter((a) => !needsEye(a));
+  const count = (r: Result) => checklist.filter((a) => a.result === r).length;
+  const overCount = checklist.filter((a) => checked.get(a.itemId)?.envelopeItem?.status === 'over').length;
   const tally = [
-    `${failed.length} failed`,
+    `${count('fail')} failed`,
     `${count('pass')} passed`,
     count('na') ? `${count('na')} not applicable` : null,
     count(null) ? `${count(null)} not answered` : null,
+    overCount ? `${overCount} over its limit` : null,
   ]
     .filter(Boolean)
     .join(' · ');
   return (
     <View style={styles.root}>
       <Text variant="figure">{tally}</Text>
-      {failed.length === 0 ? <Text muted>No item was marked failed.</Text> : null}
+      {failed.length === 0 ? <Text muted>No item was marked failed or is over its limit.</Text> : null}
       {failed.map((a) => (
-        <Card key={a.itemId} style={styles.failed} accessibilityLabel={`Failed item: ${a.text}`}>
-          <ResultMark result="fail" />
+        <Card
+          key={a.itemId}
+          style={styles.failed}
+          accessibilityLabel={`${a.result === 'fail' ? 'Failed item' : 'Item over its limit'}: ${a.text}`}
+        >
+          <ResultMark result={a.result} />
           {a.area ? (
             <Text variant="label" muted>
               {a.area.toUpperCase()}
             </Text>
           ) : null}
           <Text variant="heading">{a.text}</Text>
-          {a.note ? <Text>{a.note}</Text> : <Text muted>No note from the inspector.</Text>}
-          {a.measurement ? <Text variant="figure">Measured {formatMeasurement(a.measurement)}</Text> : null}
+          {a.note ? (
+            <Text>{a.note}</Text>
+          ) : a.result === 'fail' ? (
+            <Text muted>No note from the inspector.</Text>
+          ) : null}
+          <MeasuredLine answer={a} checked={checked.get(a.itemId)} system={system} />
           <ItemPhotos itemId={a.itemId} photos={photos} onOpen={onOpenPhoto} />
         </Card>
       ))}
@@ -93,12 +148,76 @@ export function ChecklistResults({
                     {a.note}
                   </Text>
                 ) : null}
+                <MeasuredLine answer={a} checked={checked.get(a.itemId)} system={system} small />
               </View>
               <ItemPhotos itemId={a.itemId} photos={photos} onOpen={onOpenPhoto} small />
             </View>
           ))}
         </View>
       ) : null}
+    </View>
+  );
+}
+
+/** The answered version's items; empty while loading or when the template cannot be read. */
+function useTemplateItems(template: { id: string | null; version: number | null } | undefined) {
+  const id = template?.id ?? '';
+  const version = template?.version ?? 0;
+  const query = useQuery({
+    queryKey: registryKeys.checklistVersion(id, version),
+    queryFn: async () =>
+      (
+        await apiFetch(`/api/checklist-templates/${encodeURIComponent(id)}/versions/${version}`, {
+          schema: checklistTemplateResponseSchema,
+        })
+      ).template,
+    enabled: id !== '' && version > 0,
+    // Versions never change; a template the desk cannot read only hides the comparison of old records.
+    staleTime: Infinity,
+    retry: false,
+  });
+  return new Map<string, ChecklistItem>(
+    (query.data?.version.content.areas ?? []).flatMap((a) => a.items.map((i) => [i.id, i] as const)),
+  );
+}
+
+/** A measured value against its limit, with its status; the inspector's reason when passed over it. */
+function MeasuredLine({
+  answer,
+  checked,
+  system,
+  small,
+}: {
+  answer: ChecklistAnswer;
+  checked: Checked | undefined;
+  system: UnitSystem;
+  small?: boolean;
+}) {
+  const m = answer.measurement;
+  if (!m) return null;
+  const e = checked?.envelopeItem;
+  const shown = e
+    ? formatAgainstLimit(m.valueSI, e.limit, e.quantity, system, { entered: m.entered, unit: m.unit })
+    : null;
+  return (
+    <View style={styles.measured}>
+      <View style={styles.measuredRow}>
+        {e ? <EnvelopeMark status={e.status} compact={small} /> : null}
+        <Text variant={small ? 'small' : 'figure'}>
+          Measured {shown ? `${shown.value} against ${shown.limit}` : formatMeasurement(m)}
+          {!e ? ' · no limit checked' : ''}
+        </Text>
+      </View>
+      {answer.overLimitReason ? (
+        <Text variant="small" color={colors.over}>
+          Passed over its limit. Inspector’s reason: {answer.overLimitReason}
+        </Text>
+      ) : null}
+      {checked?.disagree.map((r) => (
+        <Text key={r.id} variant="small" color={colors.near}>
+          Disagrees with the reading “{r.label}”: {formatMeasurement(r)}. The record holds both values.
+        </Text>
+      ))}
     </View>
   );
 }
@@ -171,5 +290,7 @@ const styles = StyleSheet.create({
     borderBottomColor: colors.surfaceSunk,
   },
   lineText: { flex: 1, minWidth: 180, gap: 2 },
+  measured: { gap: 2 },
+  measuredRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
   photos: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });

@@ -160,6 +160,10 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
           checklist={inspection.record.checklist}
           photos={inspection.photos}
           onOpenPhoto={setOpenPhoto}
+          envelope={inspection.analysis?.envelope}
+          readings={inspection.readings}
+          template={{ id: inspection.templateId, version: inspection.templateVersion }}
+          system={system}
         />
       </Section>
       <Section title={`Photos (${inspection.photos.length})`}>
