@@ -90,19 +90,15 @@ export const findingNumber = sql<number>`COALESCE(${findings.rideNumber}, ${find
  * they were made (inspection submitted, then number), after the highest number already given. Runs in
  * the caller's transaction before anything numbers or shows the ride's findings; a no-op once done.
  */
-export function numberRideFindings(tx: Pick<Db, 'run'>, rideId?: string): void {
-  tx.run(sql`
-    WITH todo AS (
-      SELECT f.id, f.ride_id,
-        ROW_NUMBER() OVER (PARTITION BY f.ride_id ORDER BY i.submitted_at, f.created_at, f.number) AS k
-      FROM ${findings} f JOIN ${inspections} i ON i.id = f.inspection_id
-      WHERE f.ride_number IS NULL ${rideId ? sql`AND f.ride_id = ${rideId}` : sql``}
-    )
-    UPDATE ${findings} SET ride_number = (
-      SELECT t.k + COALESCE((SELECT MAX(g.ride_number) FROM ${findings} g WHERE g.ride_id = t.ride_id), 0)
-      FROM todo t WHERE t.id = ${findings}.id
-    )
-    WHERE id IN (SELECT id FROM todo)`);
+export function numberRideFindings(tx: Pick<Db, 'run' | 'all'>, rideId?: string): void {
+  // Read first, then write: each number rests on the highest given before this run, not during it.
+  const todo = tx.all<{ id: string; n: number }>(sql`
+    SELECT f.id AS id,
+      ROW_NUMBER() OVER (PARTITION BY f.ride_id ORDER BY i.submitted_at, f.created_at, f.number)
+        + COALESCE((SELECT MAX(g.ride_number) FROM ${findings} g WHERE g.ride_id = f.ride_id), 0) AS n
+    FROM ${findings} f JOIN ${inspections} i ON i.id = f.inspection_id
+    WHERE f.ride_number IS NULL ${rideId ? sql`AND f.ride_id = ${rideId}` : sql``}`);
+  for (const row of todo) tx.run(sql`UPDATE ${findings} SET ride_number = ${row.n} WHERE id = ${row.id}`);
 }
 
 const creator = alias(users, 'finding_creator');

@@ -3,6 +3,8 @@
  * limited to the inspection's own photos; numbering; concurrent edits; nothing changes once approved;
  * every change audited with before and after.
  */
+import { randomUUID } from 'node:crypto';
+
 import { count, eq } from 'drizzle-orm';
 
 import { findings } from '@/db/server/review';
@@ -13,7 +15,9 @@ import {
   type Finding,
 } from '@/features/review/schema';
 
-import { expectApiError, makeTestServer, type TestServer } from './helpers';
+import { numberRideFindings } from '@/server/review/findings';
+
+import { expectApiError, makeTestServer, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
 import { auditOf, pushAccepted, secondInspector } from './review-desk-fixtures';
 import { demoRide, imageBytes, makeRecord, photoRefFor, sha256Hex } from './sync-fixtures';
@@ -199,6 +203,45 @@ describe('creating and listing', () => {
       ...(await api.supervisor.get(`/api/inspections/${second}/findings`)).body.findings,
     ].map((f: { number: number }) => f.number);
     expect(new Set(listed).size).toBe(listed.length);
+  });
+});
+
+describe('numbers on the ride for findings stored before them', () => {
+  test('are given once, in the order the findings were made, after the highest number already given', async () => {
+    const id = await inspection();
+    const numbered = await create(id);
+    const supervisor = userIdOf(server.db, 'supervisor@pivotwatch.test');
+    // Two findings as an older server stored them: no number on the ride.
+    const old = [8, 9].map((n) => {
+      const fid = randomUUID();
+      server.db
+        .insert(findings)
+        .values({
+          id: fid,
+          inspectionId: id,
+          rideId: skylark.id,
+          number: n,
+          severity: 'note',
+          description: `Older finding ${n}`,
+          createdAt: `2026-01-0${n - 7}T10:00:00.000Z`,
+          createdBy: supervisor,
+          updatedAt: `2026-01-0${n - 7}T10:00:00.000Z`,
+          updatedBy: supervisor,
+        })
+        .run();
+      return fid;
+    });
+    const rideNumberOf = (fid: string) =>
+      server.db.select({ n: findings.rideNumber }).from(findings).where(eq(findings.id, fid)).get()?.n;
+    // Until numbered, the API names them by their number in the inspection.
+    const listed = (await api.supervisor.get(`/api/inspections/${id}/findings`)).body.findings;
+    expect(listed.find((f: Finding) => f.id === old[0]).number).toBe(8);
+    numberRideFindings(server.db);
+    expect(old.map(rideNumberOf)).toEqual([numbered.number + 1, numbered.number + 2]);
+    // Once only: a second run changes nothing, and a new finding comes after them.
+    numberRideFindings(server.db);
+    expect(old.map(rideNumberOf)).toEqual([numbered.number + 1, numbered.number + 2]);
+    expect((await create(id)).number).toBe(numbered.number + 3);
   });
 });
 
