@@ -562,6 +562,38 @@ describe('the decision', () => {
 });
 
 describe('the ride status', () => {
+  test('a stopped ride: the supervisor is offered the override, with its reason, and nothing else back to service', async () => {
+    server.detail.inspection.rideStatus = 'out_of_service';
+    server.detail.inspection.rideStatusReason = 'Main pin cracked';
+    await renderDesk();
+    expect(screen.getByText(/Returns to service when its follow-up inspection is approved/)).toBeTruthy();
+    // The decision may not ease the stop: only "keep" is offered there.
+    expect(screen.queryByRole('radio', { name: 'Set restricted' })).toBeNull();
+    fireEvent.press(screen.getByRole('radio', { name: 'In service (override)' }));
+    expect(screen.getByLabelText('Reason for the override')).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'Override and notify' })).toBeTruthy();
+    fireEvent.changeText(
+      screen.getByLabelText('Reason for the override'),
+      'Maker’s engineer signed the pin off on site (report CE-31).',
+    );
+    server.override = (call) =>
+      call.method === 'POST' && call.path === '/api/rides/ride-3/status'
+        ? {
+            status: 200,
+            body: {
+              ride: { id: 'ride-3', status: 'in_service', statusReason: null },
+              notice: { id: 'n-10', reference: 'PW-2026-0010' },
+            },
+          }
+        : undefined;
+    fireEvent.press(screen.getByRole('button', { name: 'Override and notify' }));
+    await waitFor(() => expect(callsTo('POST', '/api/rides/ride-3/status')).toHaveLength(1));
+    expect(callsTo('POST', '/api/rides/ride-3/status')[0].body).toEqual({
+      status: 'in_service',
+      reason: 'Maker’s engineer signed the pin off on site (report CE-31).',
+    });
+  });
+
   test('a stop on its own needs a reason and goes through the status rules’ endpoint', async () => {
     await renderDesk();
     server.override = (call) =>
