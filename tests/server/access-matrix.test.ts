@@ -178,6 +178,14 @@ const routes: Route[] = [
   { method: 'get', path: () => '/api/admin/outbox/missing/attachments/0', expect: ADMIN_GONE },
   // Review desk
   { method: 'get', path: () => '/api/review/queue', expect: PLANNERS_READ },
+  // A ride's status on its own (status rules): supervisors and admins; the rules then refuse by role.
+  { method: 'post', path: (i) => `/api/rides/${i.own}/status`, body: {}, expect: EDITORS },
+  {
+    method: 'post',
+    path: () => '/api/rides/missing/status',
+    body: { status: 'out_of_service', reason: 'Checked' },
+    expect: EDITORS_DELETE,
+  },
   { method: 'get', path: (i) => `/api/inspections/${i.inspection}/findings`, expect: STAFF_READ },
   { method: 'post', path: (i) => `/api/inspections/${i.inspection}/findings`, body: {}, expect: EDITORS },
   { method: 'patch', path: (i) => `/api/findings/${i.finding}`, body: {}, expect: EDITORS },
