@@ -17,6 +17,7 @@ import { SelectField } from '@/components/select-field';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
+import { ChecklistLimitField } from '@/features/registry/checklist-limit-field';
 import { FormText } from '@/features/registry/form-fields';
 import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import {
@@ -27,6 +28,7 @@ import {
   measurementKinds,
 } from '@/features/registry/schema';
 import { fieldsOf } from '@/features/registry/server-errors';
+import { useUnitSystem } from '@/features/settings/unit-system';
 
 /** The API's PUT schema (content and reason), with the name the create schema requires. */
 export const checklistFormSchema = checklistTemplatePutSchema
@@ -64,6 +66,7 @@ export function contentToForm(content: ChecklistContent): ChecklistFormInput['co
         measurementRequired: i.measurementRequired,
         measurementKind: i.measurementKind,
         measurementLabel: i.measurementLabel ?? '',
+        limit: i.limit ?? null,
       })),
     })),
   };
@@ -77,6 +80,20 @@ const newItem = () => ({
   measurementKind: null,
   measurementLabel: '',
 });
+
+/** A limit's own problem or the first of its fields' (the schema names `limit.max` for a bad range). */
+function limitError(e: unknown): string | undefined {
+  const parsed = z
+    .object({
+      message: z.string().optional(),
+      max: z.object({ message: z.string().optional() }).optional(),
+      min: z.object({ message: z.string().optional() }).optional(),
+    })
+    .safeParse(e);
+  return parsed.success
+    ? (parsed.data.message ?? parsed.data.max?.message ?? parsed.data.min?.message)
+    : undefined;
+}
 
 /** The message of an array-level problem, set by the schema (`message`) or by the server (`root`). */
 function listError(e: unknown): string | undefined {
@@ -184,6 +201,7 @@ function ItemsEditor({
   errors: FieldErrors<ChecklistFormInput>;
 }) {
   const wide = useWide();
+  const [system] = useUnitSystem();
   const items = useFieldArray({ control, name: `content.areas.${area}.items`, keyName: 'fieldKey' });
   const values = useWatch({ control, name: `content.areas.${area}.items` });
   const itemsError = listError(errors.content?.areas?.[area]?.items);
@@ -272,6 +290,21 @@ function ItemsEditor({
                   />
                 </View>
               </View>
+            ) : null}
+            {measured ? (
+              <Controller
+                control={control}
+                name={`${base}.limit`}
+                render={({ field, fieldState }) => (
+                  <ChecklistLimitField
+                    value={field.value}
+                    onChange={field.onChange}
+                    kind={values?.[i]?.measurementKind}
+                    system={system}
+                    error={limitError(fieldState.error)}
+                  />
+                )}
+              />
             ) : null}
           </View>
         );

@@ -20,10 +20,12 @@ import {
   useChecklistVersionsQuery,
 } from '@/features/registry/api';
 import { ChecklistForm, contentToForm, measurementKindLabel } from '@/features/registry/checklist-form';
+import { limitWords } from '@/features/registry/checklist-limit-field';
 import { Panes } from '@/features/registry/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { canEditRides } from '@/features/registry/ride-detail-screen';
 import type { ChecklistTemplate, ChecklistTemplateSummary } from '@/features/registry/schema';
+import { useUnitSystem } from '@/features/settings/unit-system';
 import { formatDateTime } from '@/features/registry/text';
 import { useListParams } from '@/features/registry/use-list-params';
 import { type RideClass, rideClassLabel, rideClassSchema, rideClasses } from '@/features/rides/schema';
@@ -229,6 +231,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
 }
 
 function ChecklistContentView({ template }: { template: ChecklistTemplate }) {
+  const [system] = useUnitSystem();
   return (
     <>
       {template.version.content.areas.map((area, a) => (
@@ -254,6 +257,12 @@ function ChecklistContentView({ template }: { template: ChecklistTemplate }) {
                     <Flag
                       icon="crosshair"
                       label={`Measure: ${item.measurementLabel ?? (item.measurementKind ? measurementKindLabel[item.measurementKind] : 'reading')}`}
+                    />
+                  ) : null}
+                  {limitWords(item.limit, item.measurementKind, system) ? (
+                    <Flag
+                      icon="crosshair"
+                      label={`Limit: ${limitWords(item.limit, item.measurementKind, system)}`}
                     />
                   ) : null}
                 </View>
