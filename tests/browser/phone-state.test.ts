@@ -1,0 +1,131 @@
+/**
+ * What the inspector's phone says about itself, in Chromium at 390×844 against the real server: the
+ * "No connection" banner comes and goes with the network (no reload), an inspection submitted offline is
+ * listed under "Waiting to send" and never under "Sent" until the server has it, and the photos waiting
+ * are counted per photo attached — here the same picture attached twice, which the phone stores once.
+ */
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+import type { Browser, Page } from 'playwright-core';
+
+import {
+  type Running,
+  apiGet,
+  apiToken,
+  launchBrowser,
+  openPage,
+  screenshot,
+  signIn,
+  startPivotwatch,
+} from './harness';
+
+let app: Running;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startPivotwatch();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+async function makeJpeg(page: Page): Promise<string> {
+  const file = join(mkdtempSync(join(tmpdir(), 'pivotwatch-photo-')), 'hanger.jpg');
+  const p = await page.context().newPage();
+  await p.setViewportSize({ width: 640, height: 480 });
+  await p.setContent(
+    '<body style="margin:0;background:#5d6d78;font:48px sans-serif;color:#fff">Hanger</body>',
+  );
+  await p.screenshot({ path: file, type: 'jpeg', quality: 80 });
+  await p.close();
+  return file;
+}
+
+const banner = (page: Page) => page.getByText(/^No connection — working/);
+
+test('the banner follows the network; a waiting inspection is not listed as sent; photos count as attached', async () => {
+  const page = await openPage(browser, 'phone');
+  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  await page.waitForURL('**/today');
+  await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
+  await page.getByLabel('Ride Little Kite').waitFor({ timeout: 30000 });
+  expect(await banner(page).count()).toBe(0);
+  const jpeg = await makeJpeg(page);
+
+  // The network goes: the banner comes, though the session was loaded online (before: it did not).
+  await page.context().setOffline(true);
+  await banner(page).waitFor({ timeout: 5000 });
+  await screenshot(page, 'phone-today-offline-banner');
+
+  const card = page.getByLabel('Ride Little Kite');
+  await card
+    .getByRole('button', { name: /Start inspection|Another type/ })
+    .first()
+    .click();
+  if (await card.getByRole('radio', { name: 'Periodic' }).count())
+    await card.getByRole('radio', { name: 'Periodic' }).click();
+  await page.waitForURL('**/inspect/**');
+
+  // Nothing on the checklist applies today (so this test depends on no checklist rule), and one picture
+  // is attached twice from the library.
+  const na = page.getByRole('radio', { name: /^Not applicable: / });
+  await na.first().waitFor();
+  const n = await na.count();
+  for (let i = 0; i < n; i++) await na.nth(i).click();
+  await page.getByRole('radio', { name: 'Photos' }).click();
+  for (let i = 1; i <= 2; i++) {
+    const chooser = page.waitForEvent('filechooser');
+    await page.getByRole('button', { name: 'Choose from library' }).click();
+    await (await chooser).setFiles(jpeg);
+    await page.getByText(`PHOTO ${i} ·`).waitFor();
+  }
+  await page.getByText(`${n}/${n} answered · 0 failed · 0 readings · 2 photos`).waitFor();
+
+  await page.getByRole('radio', { name: 'Submit' }).click();
+  await page.getByText('Ready to submit').waitFor();
+  await page.getByRole('checkbox', { name: /make this declaration/ }).click();
+  await page.getByRole('button', { name: 'Submit inspection' }).click();
+  await page.waitForURL('**/today');
+
+  // On the phone still: waiting, with both attached photos counted, and no "Sent" list holding it.
+  await page.getByText('1 inspection waiting to send').waitFor();
+  await page.getByText(/^2 photos waiting/).waitFor();
+  await page.getByText('WAITING TO SEND (1)').waitFor();
+  expect(await page.getByText(/^SENT \(/).count()).toBe(0);
+  await screenshot(page, 'phone-today-waiting-to-send');
+
+  // The network is back: the banner goes at once, with no reload and before any sync.
+  await page.context().setOffline(false);
+  await banner(page).waitFor({ state: 'detached', timeout: 5000 });
+
+  await page.getByRole('button', { name: /Sync now/ }).click();
+  await page.getByText('Everything is sent').waitFor({ timeout: 60000 });
+  await page.getByText('SENT (1)').waitFor({ timeout: 10000 });
+  expect(await page.getByText(/^WAITING TO SEND/).count()).toBe(0);
+  await page.getByText(/^0 photos waiting/).waitFor();
+  await screenshot(page, 'phone-today-sent');
+
+  // The server has one inspection with both photo attachments, their (shared) bytes received.
+  const token = await apiToken(app.baseUrl, 'inspector@pivotwatch.test');
+  const { inspections } = await apiGet<{ inspections: { id: string }[] }>(
+    app.baseUrl,
+    '/api/inspections?mine=1',
+    token,
+  );
+  expect(inspections).toHaveLength(1);
+  type Detail = { photos: { sha256: string; received: boolean }[] };
+  const { inspection } = await apiGet<{ inspection: Detail }>(
+    app.baseUrl,
+    `/api/inspections/${inspections[0].id}`,
+    token,
+  );
+  expect(inspection.photos).toHaveLength(2);
+  expect(inspection.photos[0].sha256).toBe(inspection.photos[1].sha256);
+  expect(inspection.photos.every((p) => p.received)).toBe(true);
+  await page.context().close();
+});
