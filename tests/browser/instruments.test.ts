@@ -5,7 +5,12 @@
  * gauge of the demo register and flags the dial indicator due within the fortnight, and submits only
  * with the declaration ticked; the server's copy of the record keeps both.
  */
+import { randomUUID } from 'node:crypto';
+
 import type { Browser } from 'playwright-core';
+
+import type { InspectionRecord, Reading } from '@/features/inspections/schema';
+import type { Instrument } from '@/features/instruments/schema';
 
 import {
   type Running,
@@ -61,6 +66,9 @@ test('the administrator keeps the register and sets the declaration text', async
   await page.getByRole('button', { name: 'Add instrument' }).click();
   await page.getByText('HR-MIC-0655').waitFor();
   await screenshot(page, 'instruments-register-desktop');
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.getByText('HR-FG-0107').scrollIntoViewIfNeeded();
+  await screenshot(page, 'instruments-register-phone');
   await page.context().close();
 });
 
@@ -120,4 +128,73 @@ test('the phone asks how each reading was measured and for the declaration at su
   const token = await apiToken(app.baseUrl, 'inspector@pivotwatch.test');
   const pulled = await apiGet<{ declaration: { text: string } }>(app.baseUrl, '/api/sync/pull', token);
   expect(pulled.declaration.text).toBe(declaration);
+});
+
+test('the review desk shows the declaration and the instrument each reading was taken with', async () => {
+  const token = await apiToken(app.baseUrl, 'inspector@pivotwatch.test');
+  const pulled = await apiGet<{ rides: { id: string; name: string }[]; instruments: Instrument[] }>(
+    app.baseUrl,
+    '/api/sync/pull',
+    token,
+  );
+  const ride = pulled.rides.find((r) => r.name === 'Little Kite');
+  const micrometer = pulled.instruments.find((i) => i.serial === 'HR-MIC-0412');
+  if (!ride || !micrometer) throw new Error('demo ride or instrument missing');
+  const now = new Date().toISOString();
+  const reading: Reading = {
+    id: randomUUID(),
+    kind: 'pin_diameter',
+    joint: 0,
+    label: 'Main pivot: pin diameter',
+    valueSI: 0.11991,
+    unit: 'mm',
+    method: 'micrometer',
+    instrument: {
+      id: micrometer.id,
+      name: micrometer.name,
+      serial: micrometer.serial,
+      calibrationDueOn: micrometer.calibrationDueOn,
+    },
+    spreadSI: null,
+    takenAt: now,
+  };
+  const record: InspectionRecord = {
+    id: randomUUID(),
+    rideId: ride.id,
+    designVersionId: null,
+    templateId: null,
+    templateVersion: null,
+    type: 'daily_pre_opening',
+    startedAt: now,
+    submittedAt: now,
+    checklist: [],
+    readings: [reading],
+    photos: [],
+    preview: null,
+    amendsId: null,
+    declaration: {
+      text: declaration,
+      declaredAt: now,
+      declaredBy: 'inspector',
+      declaredByName: 'Demo Inspector',
+    },
+  };
+  const res = await fetch(`${app.baseUrl}/api/sync/push`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
+    body: JSON.stringify({ batchId: randomUUID(), records: [record] }),
+  });
+  expect(((await res.json()) as { results: { status: string }[] }).results[0].status).toBe('accepted');
+
+  const desk = await openPage(browser, 'desktop');
+  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  await desk.waitForURL('**/review');
+  await desk.goto(`${app.baseUrl}/review/${record.id}`);
+  await desk.getByText(`“${declaration}”`).waitFor({ timeout: 30000 });
+  await desk.getByText(/^Made by Demo Inspector on /).waitFor();
+  const used = desk.getByText('Micrometer · Outside micrometer 100–125 mm (HR-MIC-0412)').first();
+  await used.waitFor();
+  await used.scrollIntoViewIfNeeded();
+  await screenshot(desk, 'instruments-review-desk');
+  await desk.context().close();
 });
