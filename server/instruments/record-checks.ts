@@ -45,7 +45,7 @@ export function recordTruthIssues(
     });
   record.readings.forEach((r, i) => {
     if (!r.instrument) return;
-    const path = `readings.${i}.takenAt`;
+    const path = `readings.${i}.instrument`;
     const registered = lookup(r.instrument.id);
     const name = `${r.instrument.name} (serial ${r.instrument.serial})`;
     const dueOn = [r.instrument.calibrationDueOn, registered?.calibrationDueOn ?? null]

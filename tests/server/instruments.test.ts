@@ -223,7 +223,7 @@ describe('the push keeps records truthful', () => {
     expect(res.body.results[0].status).toBe('accepted');
     expect(res.body.results[1]).toMatchObject({
       status: 'rejected',
-      issues: [{ path: 'readings.0.takenAt', message: expect.stringContaining('2026-05-04') }],
+      issues: [{ path: 'readings.0.instrument', message: expect.stringContaining('2026-05-04') }],
     });
   });
 
