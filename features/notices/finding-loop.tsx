@@ -1,3 +1,6 @@
+import { sha256 } from '@noble/hashes/sha256';
+import { bytesToHex } from '@noble/hashes/utils';
+import { toByteArray } from 'base64-js';
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
@@ -11,10 +14,16 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
 import type { SessionUser } from '@/features/auth/schema';
+import { capturePhoto } from '@/features/inspections/photo-capture';
 import { CorrectiveActionForm, problemText } from '@/features/notices/corrective-action-form';
 import { NoticePhotos } from '@/features/notices/notice-photos';
 import { isPastDue, noticeHref, todayIso } from '@/features/notices/notice-text';
-import { SAVING_PREFIX, useCloseFinding, useReopenFinding } from '@/features/notices/notices-api';
+import {
+  putEvidencePhoto,
+  SAVING_PREFIX,
+  useCloseFinding,
+  useReopenFinding,
+} from '@/features/notices/notices-api';
 import {
   type FindingStateResponse,
   type NoticeFinding,
@@ -178,6 +187,15 @@ function StateStory({ finding: f }: { finding: NoticeFinding }) {
         </Text>
         {f.stateNote ? <LabelledLine label="Verification note" value={f.stateNote} /> : null}
         {f.closeEvidence ? <LabelledLine label="Evidence" value={evidenceWords(f.closeEvidence)} /> : null}
+        {f.closeEvidence && f.closeEvidence.photoShas.length > 0 ? (
+          <NoticePhotos
+            photos={f.closeEvidence.photoShas.map((sha, n) => ({
+              sha256: sha,
+              caption: `Verification photo ${n + 1}`,
+            }))}
+            label={`Verification photos (${f.closeEvidence.photoShas.length})`}
+          />
+        ) : null}
       </View>
     );
   if (!f.stateNote) return null;
@@ -248,16 +266,35 @@ function ClosePanel({ noticeId, finding, userName, onDone, onCancel }: PanelProp
   const [note, setNote] = useState('');
   const [evidenceRef, setEvidenceRef] = useState('');
   const [errors, setErrors] = useState<{ note?: string; evidence?: string }>({});
+  // Photos taken at the verification, uploaded under their SHA-256 as soon as they are picked.
+  const [shots, setShots] = useState<{ sha256: string; state: 'uploading' | 'uploaded' | 'failed' }[]>([]);
   const reports = finding.correctiveActions.length;
+  const uploaded = shots.filter((p) => p.state === 'uploaded').map((p) => p.sha256);
   const title = `Verify and close finding ${finding.number}`;
+  const addPhoto = async (source: 'camera' | 'library') => {
+    const shot = await capturePhoto(source).catch(() => null);
+    if (!shot) return;
+    const bytes = toByteArray(shot.base64);
+    const hash = bytesToHex(sha256(bytes));
+    if (shots.some((p) => p.sha256 === hash)) return;
+    const mark = (state: 'uploaded' | 'failed') =>
+      setShots((list) => list.map((p) => (p.sha256 === hash ? { ...p, state } : p)));
+    setShots((list) => [...list, { sha256: hash, state: 'uploading' }]);
+    setErrors((e) => ({ ...e, evidence: undefined }));
+    await putEvidencePhoto({ sha256: hash, mime: shot.mime, bytes }).then(
+      () => mark('uploaded'),
+      () => mark('failed'),
+    );
+  };
   const submit = () => {
-    const checked = findingCloseInputSchema.safeParse({ note, evidenceRef });
+    if (shots.some((p) => p.state === 'uploading')) return;
+    const checked = findingCloseInputSchema.safeParse({ note, evidenceRef, photoShas: uploaded });
     const noteError = checked.success
       ? undefined
       : checked.error.issues.find((i) => i.path[0] === 'note')?.message;
     const evidenceError =
-      evidenceRef.trim() === '' && reports === 0
-        ? 'Give a document reference, or wait for the operator’s corrective-action report.'
+      evidenceRef.trim() === '' && reports === 0 && uploaded.length === 0
+        ? 'Add a photo or a document reference, or wait for the operator’s corrective-action report.'
         : undefined;
     if (!checked.success || evidenceError) {
       setErrors({ note: noteError, evidence: evidenceError });
@@ -295,9 +332,23 @@ function ClosePanel({ noticeId, finding, userName, onDone, onCancel }: PanelProp
         hint={
           reports > 0
             ? `The operator’s corrective-action report${reports > 1 ? 's' : ''} (${reports}) on this finding count as evidence; add a work order, NDT or maker’s report number if you have one.`
-            : 'A work order, NDT or maker’s report number, or your photo log entry. Without one, wait for the operator’s corrective-action report.'
+            : 'A work order, NDT or maker’s report number. Or add a photo of the corrected part, or wait for the operator’s corrective-action report.'
         }
       />
+      <View style={styles.buttons}>
+        <Button label="Take a photo" tone="quiet" onPress={() => void addPhoto('camera')} />
+        <Button label="Choose from library" tone="quiet" onPress={() => void addPhoto('library')} />
+      </View>
+      {shots.length > 0 ? (
+        <Text variant="small" accessibilityLiveRegion="polite">
+          {shots
+            .map(
+              (p, i) =>
+                `Photo ${i + 1}: ${p.state === 'uploaded' ? '✓ uploaded' : p.state === 'failed' ? 'not uploaded, add it again' : 'uploading…'}`,
+            )
+            .join(' · ')}
+        </Text>
+      ) : null}
       <FormAlert problem={change.error ? { message: problemText(change.error) } : null} />
       <View style={styles.buttons}>
         <Button label="Close finding" tone="accent" onPress={submit} busy={change.isPending} />

@@ -541,8 +541,9 @@ export function reopenFinding(
 
 /**
  * Whether an operator of `companyId` may see a photo: one shown on a notice to the company (as issued, or
- * on the notice's findings as they are now), one attached to a corrective action on those findings, or
- * one uploaded by someone of the company (their own evidence, before they report it).
+ * on the notice's findings as they are now), one attached to a corrective action on those findings or
+ * taken by the verifier on closing one, or one uploaded by someone of the company (their own evidence,
+ * before they report it).
  */
 export function operatorMaySeePhoto(db: Pick<Db, 'get'>, companyId: string, sha256: string): boolean {
   const row = db.get<{ ok: number } | undefined>(
@@ -556,6 +557,10 @@ export function operatorMaySeePhoto(db: Pick<Db, 'get'>, companyId: string, sha2
         OR EXISTS (
           SELECT 1 FROM ${notices} n JOIN ${noticeFindings} nf ON nf.notice_id = n.id
             JOIN ${correctiveActions} ca ON ca.finding_id = nf.finding_id, json_each(ca.photo_shas) p
+          WHERE n.operator_company_id = ${companyId} AND p.value = ${sha256})
+        OR EXISTS (
+          SELECT 1 FROM ${notices} n JOIN ${noticeFindings} nf ON nf.notice_id = n.id
+            JOIN ${findings} fi ON fi.id = nf.finding_id, json_each(fi.close_evidence, '$.photoShas') p
           WHERE n.operator_company_id = ${companyId} AND p.value = ${sha256})
         OR EXISTS (
           SELECT 1 FROM ${photos} ph JOIN ${users} u ON u.id = ph.uploaded_by

@@ -687,7 +687,8 @@ describe('the inspection body', () => {
     expect(within(loop).getByRole('button', { name: 'Reopen finding 1' })).toBeTruthy();
   });
 
-  test('verify and close without the operator’s report needs a document reference', async () => {
+  test('verify and close without the operator’s report needs evidence: a reference or a photo taken at the check', async () => {
+    const expectedSha = createHash('sha256').update(PHOTO_BYTES).digest('hex');
     server.notice = noticeNow({ findings: [findingNow({ id: 'f-1' }), findingNow({ id: 'f-2' })] });
     renderNotices(supervisor, `/notices/${NOTICE}`);
     const loop = await screen.findByLabelText('Finding 1');
@@ -696,16 +697,21 @@ describe('the inspection body', () => {
     fireEvent.press(screen.getByRole('button', { name: 'Close finding' }));
     expect(
       await within(loop).findByText(
-        'Give a document reference, or wait for the operator’s corrective-action report.',
+        'Add a photo or a document reference, or wait for the operator’s corrective-action report.',
       ),
     ).toBeTruthy();
     expect(callsTo('POST', '/api/findings/f-1/close')).toHaveLength(0);
-    fireEvent.changeText(within(loop).getByLabelText('Evidence reference'), 'MT report 118');
+    fireEvent.press(within(loop).getByRole('button', { name: 'Choose from library' }));
+    expect(await within(loop).findByText('Photo 1: ✓ uploaded')).toBeTruthy();
     fireEvent.press(screen.getByRole('button', { name: 'Close finding' }));
     await waitFor(() => expect(callsTo('POST', '/api/findings/f-1/close')).toHaveLength(1));
-    expect(callsTo('POST', '/api/findings/f-1/close')[0].body).toMatchObject({
-      evidenceRef: 'MT report 118',
+    expect(callsTo('PUT', `/api/photos/${expectedSha}`)).toHaveLength(1);
+    expect(callsTo('POST', '/api/findings/f-1/close')[0].body).toEqual({
+      note: 'Weld seen ground and re-tested',
+      evidenceRef: null,
+      photoShas: [expectedSha],
     });
+    expect(await within(loop).findByText(/EVIDENCE 1 photo$/)).toBeTruthy();
   });
 
   test('reopen needs a comment; with one, the finding is open again and says what is still wrong', async () => {

@@ -497,6 +497,23 @@ describe('corrective actions, verification and the ride’s status', () => {
     );
     expectApiError(await s.api.operator.post(`/api/findings/${id}/actions`, { note: 'x' }), 404, 'not_found');
   });
+
+  test('a photo taken at the verification is evidence, kept with the finding, and the operator sees it', async () => {
+    const findingId = inspected.findingIds[dated];
+    const shot = photoPng(5151);
+    const sha = sha256Hex(shot);
+    expect((await s.putPhoto('inspector@pivotwatch.test', shot, sha)).status).toBe(201);
+    expectApiError(await s.api.operator.get(`/api/photos/${sha}`), 403, 'forbidden');
+    const res = await s.api.inspector.post(`/api/findings/${findingId}/close`, {
+      note: 'Fence mesh replaced; photographed from the queue side.',
+      photoShas: [sha],
+    });
+    expect(res.status).toBe(200);
+    const body = findingStateResponseSchema.parse(res.body);
+    expect(body.finding.closeEvidence).toEqual({ photoShas: [sha], reference: null, correctiveActions: 0 });
+    expect((await s.api.operator.get(`/api/photos/${sha}`)).status).toBe(200);
+    expectApiError(await s.api.operator2.get(`/api/photos/${sha}`), 403, 'forbidden');
+  });
 });
 
 describe('a supervisor’s override', () => {
