@@ -25,6 +25,7 @@ import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record
 import type { Db } from '@/server/db';
 import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
+import { enteredIssues } from '@/server/sync/entered-check';
 import { designDataLookup, plausibilityIssues } from '@/server/sync/plausibility-check';
 import { sqliteOf } from '@/server/sync/sqlite-client';
 
@@ -276,6 +277,8 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   // After the duplicate check: a record stored before these rules may still be re-sent unchanged.
   const untrue = recordTruthIssues(record, ctx.instrument);
   if (untrue.length) return rejected(record.id, untrue);
+  const mistyped = enteredIssues(record);
+  if (mistyped.length) return rejected(record.id, mistyped);
 
   const ride = rideOf(ctx, record.rideId);
   if (!ride)
