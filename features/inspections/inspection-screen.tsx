@@ -43,6 +43,7 @@ import { inspectionTypeLabel, type PhotoRef } from '@/features/inspections/schem
 import { DeclarationConfirm } from '@/features/instruments/declaration-confirm';
 import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/field-api';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
+import { unstatedMethodProblems } from '@/features/instruments/unstated';
 import { CycleResults } from '@/features/loads/cycle-results';
 import { measuredSources } from '@/features/loads/format';
 import { useUnitSystem } from '@/features/settings/unit-system';
@@ -101,7 +102,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
       return null;
     }
   }, [design, draft.readings, draft.checklist, draft.templateVersion, template]);
-  const problems = draftProblems(draft, template);
+  const problems = [...draftProblems(draft, template), ...unstatedMethodProblems(draft.readings)];
   const progress = draftProgress(draft);
 
   const onCapture = async (source: 'camera' | 'library', link: { checklistItemId?: string } = {}) => {

@@ -336,6 +336,39 @@ describe('submitting', () => {
   });
 });
 
+test('a reading whose method an older app filled in must be taken again before submitting', async () => {
+  const guessed = {
+    id: jest.requireActual('node:crypto').randomUUID(),
+    kind: 'clearance' as const,
+    joint: 0,
+    label: 'Rod: bushing clearance (diametral)',
+    valueSI: 0.0002,
+    unit: 'mm',
+    method: 'dial_indicator' as const,
+    spreadSI: null,
+    takenAt: new Date().toISOString(),
+  };
+  const timed = {
+    ...guessed,
+    id: jest.requireActual('node:crypto').randomUUID(),
+    kind: 'period' as const,
+    method: 'tap_timer' as const,
+    label: 'Rod: period',
+  };
+  await saveDraft(dev, { id: draft.id, rideId: ride.id, data: { ...draft, readings: [guessed, timed] } });
+  renderRecording();
+  fireEvent.press(await screen.findByRole('radio', { name: 'Submit' }));
+  expect(
+    await screen.findByText(
+      /How was “Rod: bushing clearance \(diametral\)” measured\? Remove it under Readings/,
+    ),
+  ).toBeTruthy();
+  // The tap timer's own reading says what happened: it is not asked about.
+  expect(screen.queryByText(/How was “Rod: period” measured/)).toBeNull();
+  fireEvent.press(screen.getByRole('checkbox', { name: 'I, Tobin Reyes, make this declaration' }));
+  expect(screen.getByRole('button', { name: 'Submit inspection' })).toBeDisabled();
+});
+
 describe('calibration rule', () => {
   test('usable through the due date, refused the day after, flagged within 14 days', () => {
     expect(calibrationStatus('2026-06-10', '2026-06-10')).toEqual({ state: 'due_soon', daysLeft: 0 });
@@ -352,7 +385,7 @@ describe('calibration rule', () => {
   });
 
   test('the form refuses a past-due instrument even if the date moved on while it was chosen', () => {
-    const chosen = { method: 'micrometer' as const, instrument: register[1] };
+    const chosen = { method: 'micrometer' as const, instrument: register[1], note: '' };
     expect(measuredWithProblem(chosen, today)).toBeNull();
     expect(measuredWithProblem(chosen, inDays(7))).toMatch(/past its calibration due date/);
     expect(measuredWithProblem(nothingChosen, today)).toBe('Choose how it was measured');
