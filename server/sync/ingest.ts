@@ -17,6 +17,7 @@ import {
   inspectionRecordSchema,
   type InspectionRecord,
   type PushResult,
+  type Reading,
 } from '@/features/inspections/schema';
 import { zodIssues } from '@/features/api/errors';
 import type { DesignData } from '@/features/registry/design-data';
@@ -26,7 +27,11 @@ import type { Db } from '@/server/db';
 import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
 import { enteredIssues } from '@/server/sync/entered-check';
-import { designDataLookup, plausibilityIssues } from '@/server/sync/plausibility-check';
+import {
+  acceptedReadingsLookup,
+  designDataLookup,
+  plausibilityIssues,
+} from '@/server/sync/plausibility-check';
 import { sqliteOf } from '@/server/sync/sqlite-client';
 
 export type PushBatch = { batchId: string; records: unknown[] };
@@ -223,6 +228,8 @@ type BatchContext = {
   known: Map<string, ExistingRow>;
   /** Design data by version id, for the plausibility of motion readings. */
   design: (designVersionId: string) => DesignData | null;
+  /** The readings of an accepted inspection, for what an amendment carries over. */
+  acceptedReadings: (inspectionId: string) => readonly Reading[];
   /** Register entries by id, for the calibration check. */
   instrument: ReturnType<typeof instrumentLookup>;
   /** Template and design versions by id, for the checklist limits. */
@@ -310,6 +317,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   const implausible = plausibilityIssues(
     designVersionId ? ctx.design(designVersionId) : null,
     record.readings,
+    amendsId !== null ? ctx.acceptedReadings(amendsId) : [],
   );
   if (implausible.length) return rejected(record.id, implausible);
 
@@ -383,6 +391,7 @@ export function ingestBatch(
       designs: new Map(),
       known: new Map(),
       design: designDataLookup(st.sqlite),
+      acceptedReadings: acceptedReadingsLookup(st.sqlite),
       instrument: instrumentLookup(db),
       limits: checklistLimitLookup(st.sqlite),
     };

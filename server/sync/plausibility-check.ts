@@ -28,13 +28,40 @@ export function designDataLookup(sqlite: Database.Database): (id: string) => Des
   };
 }
 
-/** Issues for each reading far from the design motion without a confirmation. */
-export function plausibilityIssues(design: DesignData | null, readings: readonly Reading[]): Issue[] {
+/**
+ * The readings of an accepted inspection, by its id (empty when there is none): an amendment may carry
+ * them over unchanged, and what was accepted once is not asked again.
+ */
+export function acceptedReadingsLookup(sqlite: Database.Database): (id: string) => readonly Reading[] {
+  const stmt = sqlite.prepare<[string], { readings: string | null }>(
+    "SELECT json_extract(record, '$.readings') AS readings FROM inspections WHERE id = ?",
+  );
+  return (id) => {
+    const row = stmt.get(id);
+    const list: unknown = row?.readings ? JSON.parse(row.readings) : [];
+    return Array.isArray(list) ? (list as Reading[]) : [];
+  };
+}
+
+/**
+ * Issues for each reading far from the design motion without a confirmation. `carried` are the readings
+ * of the inspection an amendment corrects: one of them carried over unchanged (same id and value) was
+ * accepted before, perhaps before this rule existed, and a correction must not be refused for it.
+ */
+export function plausibilityIssues(
+  design: DesignData | null,
+  readings: readonly Reading[],
+  carried: readonly Pick<Reading, 'id' | 'valueSI'>[] = [],
+): Issue[] {
   if (!design) return [];
-  return unconfirmedImplausible(design, readings).map(({ index, check }) => ({
-    path: `readings.${index}.valueSI`,
-    message:
-      `Far from the design motion: ${plausibilityText(check)}. The inspector must confirm this value on the ` +
-      'phone, or measure again, before it can be accepted',
-  }));
+  const before = new Set(carried.map((r) => `${r.id}:${r.valueSI}`));
+  const unconfirmed = unconfirmedImplausible(design, readings);
+  return unconfirmed
+    .filter(({ reading }) => !before.has(`${reading.id}:${reading.valueSI}`))
+    .map(({ index, check }) => ({
+      path: `readings.${index}.valueSI`,
+      message:
+        `Far from the design motion: ${plausibilityText(check)}. The inspector must confirm this value on the ` +
+        'phone, or measure again, before it can be accepted',
+    }));
 }

@@ -119,3 +119,23 @@ test('an analysis with no confirmed out-of-range value does not carry the list',
   expect(detail.analysis).toBeTruthy();
   expect(detail.analysis.confirmedOutOfRange).toBeUndefined();
 });
+
+test('a correction may carry over a reading the original had accepted; a changed one must be confirmed', async () => {
+  const confirmation = { designSI: 9.5, ratio: 9.5 / 2.42, confirmedAt: '2026-05-04T08:11:00.000Z' };
+  const original = makeRecord(skylark, { readings: [period(2.42, { plausibility: confirmation })] });
+  expect((await push([original])).body.results[0].status).toBe('accepted');
+  // The copy an app made before the rule (or one that lost the confirmation) carries the reading bare.
+  const { plausibility: _dropped, ...bare } = original.readings[0];
+  expect(_dropped).toBeDefined();
+
+  const changed = makeRecord(
+    skylark,
+    { amendsId: original.id, readings: [{ ...bare, valueSI: 2.5 }] },
+    { confirm: false },
+  );
+  const refused = (await push([changed])).body.results[0];
+  expect(refused).toMatchObject({ status: 'rejected', issues: [{ path: 'readings.0.valueSI' }] });
+
+  const carried = makeRecord(skylark, { amendsId: original.id, readings: [bare] }, { confirm: false });
+  expect((await push([carried])).body.results[0].status).toBe('accepted');
+});
