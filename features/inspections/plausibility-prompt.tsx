@@ -38,7 +38,8 @@ export function confirmReading(pending: PendingReading, note: string, now: Date 
 
 const likelyCause: Record<PlausibilityCheck['kind'], string> = {
   period:
-    'A swing timed as one pass instead of there and back, or a missed or extra pass, gives half or twice the real period.',
+    'Timing one pass of a swing instead of there and back, a mark that two arms pass, or a missed or ' +
+    'extra pass gives half or twice the real period.',
   speed: 'A speed read in the wrong unit, or a count of half turns, gives a value far from the real one.',
   amplitude: 'An amplitude read across both sides instead of one side of centre gives twice the real value.',
 };
