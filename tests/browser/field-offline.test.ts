@@ -98,6 +98,10 @@ test('an inspection recorded offline arrives once, with its photos and a server 
   const values = page.locator('input[aria-label]:not([aria-label="Note"]):not([aria-label="What is wrong"])');
   const v = await values.count();
   for (let i = 0; i < v; i++) await values.nth(i).fill('1.5');
+  // A typed value over its checklist limit stays passed only with the inspector's reason.
+  const reasons = page.getByRole('textbox', { name: 'Reason for passing a value over its limit' });
+  const r = await reasons.count();
+  for (let i = 0; i < r; i++) await reasons.nth(i).fill('Test value for the offline round');
   await takePhotoFor(page, labels[0].replace('Photo for ', ''), await makeJpeg(page, 'Main pivot, left lug'));
   await takePhotoFor(
     page,
