@@ -12,6 +12,7 @@
 import type { Browser, Page } from 'playwright-core';
 
 import {
+  DEMO_PASSWORD,
   type Running,
   apiGet,
   apiToken,
@@ -198,8 +199,13 @@ test('over-limit pin → stop in the decision → corrective action → verified
 
   // ——— the operator: acknowledges once, reports the corrective action ———
   const ops = await openPage(browser, 'phone');
-  await signIn(ops, app.baseUrl, operatorEmail);
+  // As from the e-mailed link: the notice asks for sign-in, then opens.
   await ops.goto(`${app.baseUrl}/notices/${stopNotice.id}`);
+  await ops.waitForURL(/\/sign-in/);
+  await ops.getByLabel('E-mail').fill(operatorEmail);
+  await ops.getByLabel('Password').fill(DEMO_PASSWORD);
+  await ops.getByRole('button', { name: 'Sign in' }).click();
+  await ops.waitForURL(`**/notices/${stopNotice.id}`);
   await ops.getByRole('button', { name: 'Acknowledge receipt' }).click();
   await ops
     .getByText(/Acknowledged by/)
