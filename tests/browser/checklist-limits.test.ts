@@ -129,3 +129,27 @@ test('an over-limit clearance in the checklist: status at entry, reason to pass,
   await over.scrollIntoViewIfNeeded();
   await screenshot(desk, 'review-checklist-limits-desktop');
 });
+
+test('the template states each limit, and its editor offers the pivot’s design limits', async () => {
+  const token = await apiToken(app.baseUrl, 'admin@pivotwatch.test');
+  const { templates } = await apiGet<{ templates: { id: string; rideClass: string }[] }>(
+    app.baseUrl,
+    '/api/checklist-templates?rideClass=rotating_arm',
+    token,
+  );
+  const admin = await openPage(browser, 'desktop');
+  await signIn(admin, app.baseUrl, 'admin@pivotwatch.test');
+  await admin.waitForURL((url) => url.pathname !== '/sign-in');
+  await admin.goto(`${app.baseUrl}/register/checklists/${templates[0].id}`);
+  const flag = admin.getByText(/^Limit: Bushing clearance limit of pivot 1/).first();
+  await flag.waitFor({ timeout: 30000 });
+  await admin.getByText(/^Limit: 0\.25 mm to 0\.75 mm \(written in the template\)/).waitFor();
+  await flag.scrollIntoViewIfNeeded();
+  await screenshot(admin, 'checklist-template-limits-desktop');
+
+  await admin.goto(`${app.baseUrl}/register/checklists/${templates[0].id}/edit`);
+  const against = admin.getByRole('button', { name: 'Checked against: Pin minimum diameter (design data)' });
+  await against.first().waitFor({ timeout: 30000 });
+  await against.first().scrollIntoViewIfNeeded();
+  await screenshot(admin, 'checklist-template-editor-desktop');
+});
