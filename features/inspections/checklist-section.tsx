@@ -152,7 +152,9 @@ function ItemCard({
           ? String(answer.measurement.valueSI)
           : '',
   );
-  const link = item && onDraft ? readingLink(item) : null;
+  // Shared only where the ride has that pivot: a reading must belong to one of its joints.
+  const linked = item && onDraft ? readingLink(item) : null;
+  const link = linked && design?.pivots.some((p) => p.joint === linked.joint) ? linked : null;
   const target: ReadingTarget | null = link
     ? {
         ...link,

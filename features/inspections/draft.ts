@@ -3,6 +3,8 @@
  * draft, which the screen saves to the device database straight away (nothing typed is ever only in
  * memory).
  */
+import { readingLink } from '@/features/inspections/checklist-limits';
+import type { DesignData } from '@/features/registry/design-data';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import {
   type ChecklistAnswer,
@@ -136,7 +138,11 @@ export type DraftProblem = { itemId: string | null; message: string };
  * What must be done before the inspection can be submitted: every item answered, a note on every
  * failed item, a photo where the template asks for one, and a value where it asks for a measurement.
  */
-export function draftProblems(d: Draft, template: ChecklistTemplate | null): DraftProblem[] {
+export function draftProblems(
+  d: Draft,
+  template: ChecklistTemplate | null,
+  design: DesignData | null = null,
+): DraftProblem[] {
   const problems: DraftProblem[] = [];
   const items = new Map(
     (template?.version.content.areas ?? []).flatMap((a) => a.items.map((i) => [i.id, i] as const)),
@@ -153,6 +159,16 @@ export function draftProblems(d: Draft, template: ChecklistTemplate | null): Dra
     // The status seen at entry (features/inspections/checklist-limits); the server applies the same rule.
     if (a.result === 'pass' && a.measurement?.status === 'over' && !a.overLimitReason?.trim())
       problems.push({ itemId: a.itemId, message: `Over its limit — mark Fail or give a reason: ${a.text}` });
+    // A pin or clearance value is also its pivot's reading, which must say how it was measured.
+    const link = item ? readingLink(item) : null;
+    if (
+      link &&
+      a.result !== 'na' &&
+      a.measurement &&
+      !a.measurement.readingId &&
+      design?.pivots.some((p) => p.joint === link.joint)
+    )
+      problems.push({ itemId: a.itemId, message: `Say how it was measured: ${a.text}` });
   }
   return problems;
 }

@@ -102,7 +102,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
       return null;
     }
   }, [design, draft.readings, draft.checklist, draft.templateVersion, template]);
-  const problems = [...draftProblems(draft, template), ...unstatedMethodProblems(draft.readings)];
+  const problems = [...draftProblems(draft, template, design), ...unstatedMethodProblems(draft.readings)];
   const progress = draftProgress(draft);
 
   const onCapture = async (source: 'camera' | 'library', link: { checklistItemId?: string } = {}) => {

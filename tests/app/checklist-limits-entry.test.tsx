@@ -141,12 +141,15 @@ test('the pin value is the pivot’s reading: created once measured-with is said
   render(<Harness />);
   fireEvent.changeText(screen.getByLabelText(/^Smallest reading/), '58.5');
   expect(latest().readings).toEqual([]);
+  const unsaid = 'Say how it was measured: Main pin outside diameter';
+  expect(draftProblems(latest(), template, design).map((p) => p.message)).toContain(unsaid);
   fireEvent.press(screen.getByRole('radio', { name: 'Micrometer' }));
   fireEvent.press(screen.getByRole('radio', { name: 'None from the register' }));
   expect(latest().readings).toHaveLength(1);
   const reading = latest().readings[0];
   expect(reading).toMatchObject({ kind: 'pin_diameter', joint: 0, entered: '58.5', method: 'micrometer' });
   expect(latest().checklist[0].measurement?.readingId).toBe(reading.id);
+  expect(draftProblems(latest(), template, design).map((p) => p.message)).not.toContain(unsaid);
   expect(screen.getByText(/Kept as the reading “Rod: pin diameter”/)).toBeTruthy();
 
   act(() => {

@@ -102,6 +102,21 @@ test('an inspection recorded offline arrives once, with its photos and a server 
   const reasons = page.getByRole('textbox', { name: 'Reason for passing a value over its limit' });
   const r = await reasons.count();
   for (let i = 0; i < r; i++) await reasons.nth(i).fill('Test value for the offline round');
+  // Pin and clearance values are also their pivot's readings: say how each was measured.
+  for (const method of ['Micrometer', 'Dial indicator']) {
+    const chips = page.getByRole('radio', { name: method, exact: true });
+    const c = await chips.count();
+    for (let i = 0; i < c; i++) await chips.nth(i).click();
+  }
+  const none = page.getByRole('radio', { name: 'None from the register' });
+  for (let guard = 0; guard < 10 && (await none.count()) > 0; guard++) await none.first().click();
+  const progress =
+    (await page
+      .getByText(/ readings · /)
+      .first()
+      .textContent()) ?? '';
+  const fromChecklist = Number(/(\d+) readings/.exec(progress)?.[1] ?? 'NaN');
+  expect(fromChecklist).toBeGreaterThanOrEqual(1);
   await takePhotoFor(page, labels[0].replace('Photo for ', ''), await makeJpeg(page, 'Main pivot, left lug'));
   await takePhotoFor(
     page,
@@ -132,12 +147,14 @@ test('an inspection recorded offline arrives once, with its photos and a server 
     .getByRole('button', { name: /^Add period/ })
     .first()
     .click();
-  await page.getByText(/2 readings · 2 photos/).waitFor();
+  await page.getByText(`${fromChecklist + 2} readings · 2 photos`).waitFor();
 
   // Reload with no network: the draft is all there.
   await page.getByText('Saved on this phone').waitFor();
   await page.reload();
-  await page.getByText(`${n}/${n} answered · 0 failed · 2 readings · 2 photos`).waitFor({ timeout: 30000 });
+  await page
+    .getByText(`${n}/${n} answered · 0 failed · ${fromChecklist + 2} readings · 2 photos`)
+    .waitFor({ timeout: 30000 });
   expect(page.url()).toBe(inspectionUrl);
 
   await page.getByRole('radio', { name: 'Loads' }).click();
