@@ -180,6 +180,11 @@ test('over-limit pin → stop in the decision → corrective action → verified
     .getByText(/Approved by Mira Delacourt/)
     .first()
     .waitFor({ timeout: 15000 });
+  // The desk shows the ride stopped, with the reason, as soon as the decision is back.
+  await desk.getByText('Main pivot pin under its minimum diameter.').first().waitFor({ timeout: 15000 });
+  await desk
+    .getByText('Returns to service when its follow-up inspection is approved', { exact: false })
+    .waitFor();
   await screenshot(desk, 'verdict-approved-stopped-desktop');
 
   // One decision, one notice: the stop, its reason, the finding and the value behind it.
