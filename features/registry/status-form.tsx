@@ -11,6 +11,8 @@ import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
 import { requireReasonOutOfService } from '@/features/registry/ride-form';
 import { ridePatchSchema } from '@/features/registry/schema';
 import { fieldsOf } from '@/features/registry/server-errors';
+import { eases } from '@/features/review/status-rules';
+import { Text } from '@/components/text';
 import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
 
 /**
@@ -42,6 +44,8 @@ export function StatusForm({
     defaultValues,
   });
   const status = useWatch({ control, name: 'status' });
+  // The register may only make a ride stricter; easing a stop or restriction follows the status rules.
+  const choices = rideStatuses.filter((s) => !eases(defaultValues.status, s));
   const save = useServerSubmit(
     { handleSubmit, setError, formState },
     // In service carries no reason; the server clears it the same way.
@@ -57,12 +61,18 @@ export function StatusForm({
           <ChoiceChips
             label="New status"
             value={field.value}
-            options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
+            options={choices.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
             onChange={field.onChange}
             error={fieldState.error?.message}
           />
         )}
       />
+      {choices.length < rideStatuses.length ? (
+        <Text variant="small" muted>
+          A ride that is stopped or restricted goes back to service only through an approved follow-up
+          inspection, or a supervisor’s override with a reason on the ride’s review page.
+        </Text>
+      ) : null}
       {status !== 'in_service' ? (
         <FormText
           control={control}

@@ -171,7 +171,7 @@ describe('StatusForm', () => {
     expect(onSubmit.mock.calls[0][0].statusSince).toBe('2026-11-30T00:00:00.000Z');
   });
 
-  test('putting a ride back in service sends no reason', async () => {
+  test('a restricted ride is not offered "In service": the status rules say how it returns', async () => {
     const onSubmit = jest.fn().mockResolvedValue(undefined);
     render(
       <StatusForm
@@ -179,7 +179,20 @@ describe('StatusForm', () => {
         onSubmit={onSubmit}
       />,
     );
-    fireEvent.press(screen.getByRole('radio', { name: 'In service' }));
+    expect(screen.queryByRole('radio', { name: 'In service' })).toBeNull();
+    expect(screen.getByRole('radio', { name: 'Out of service' })).toBeTruthy();
+    expect(screen.getByText(/approved follow-up inspection/)).toBeTruthy();
+  });
+
+  test('keeping a ride in service sends no reason', async () => {
+    const onSubmit = jest.fn().mockResolvedValue(undefined);
+    render(
+      <StatusForm
+        defaultValues={{ status: 'in_service', statusReason: 'left over', statusSince: '' }}
+        onSubmit={onSubmit}
+      />,
+    );
+    expect(screen.queryByText(/approved follow-up inspection/)).toBeNull();
     fireEvent.press(screen.getByRole('button', { name: 'Save status' }));
     await waitFor(() => expect(onSubmit).toHaveBeenCalled());
     expect(onSubmit.mock.calls[0][0]).toMatchObject({ status: 'in_service', statusReason: null });

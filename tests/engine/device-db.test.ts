@@ -43,7 +43,9 @@ describe('migrations', () => {
       'assignments',
       'cached_checklist_templates',
       'cached_design_versions',
+      'cached_instruments',
       'cached_rides',
+      'cached_settings',
       'decisions',
       'drafts',
       'outbox',
@@ -51,9 +53,9 @@ describe('migrations', () => {
       'sync_meta',
     ]);
     expect(await applyMigrations(dev, deviceMigrationsFromDisk())).toEqual([]);
-    expect(dev.sqlite.prepare('SELECT tag FROM __migrations').all()).toEqual([
-      { tag: deviceMigrationsFromDisk()[0].tag },
-    ]);
+    expect(dev.sqlite.prepare('SELECT tag FROM __migrations ORDER BY tag').all()).toEqual(
+      deviceMigrationsFromDisk().map((m) => ({ tag: m.tag })),
+    );
   });
 
   test('a migration that fails leaves nothing half-applied', async () => {
