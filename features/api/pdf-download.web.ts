@@ -33,7 +33,12 @@ export async function downloadPdf(apiPath: string, fileName: string): Promise<st
       ? new ApiRequestError(res.status, parsed.data.error.code, parsed.data.error.message)
       : new ApiRequestError(res.status, 'http_error', `The PDF could not be made (${res.status}).`);
   }
-  const url = URL.createObjectURL(await res.blob());
+  return saveBlob(await res.blob(), fileName);
+}
+
+/** Hands bytes to the browser as a download from a temporary object URL. */
+export function saveBlob(blob: Blob, fileName: string): string {
+  const url = URL.createObjectURL(blob);
   const a = document.createElement('a');
   a.href = url;
   a.download = fileName;

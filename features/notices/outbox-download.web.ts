@@ -1,4 +1,5 @@
 import { API_BASE, ApiRequestError } from '@/features/api/client';
+import { saveBlob } from '@/features/api/pdf-download.web';
 import { apiErrorSchema } from '@/features/api/errors';
 import { tokenStore } from '@/features/auth/token-store';
 import { outboxAttachmentPath } from '@/features/notices/outbox-api';
@@ -22,15 +23,5 @@ export async function downloadOutboxAttachment(
       ? new ApiRequestError(res.status, parsed.data.error.code, parsed.data.error.message)
       : new ApiRequestError(res.status, 'http_error', `The download failed (${res.status}).`);
   }
-  const url = URL.createObjectURL(await res.blob());
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = fileName;
-  a.rel = 'noopener';
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  // Give the browser a moment to start the download before the URL goes.
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
-  return `Downloaded ${fileName}`;
+  return saveBlob(await res.blob(), fileName);
 }

@@ -24,16 +24,8 @@ export const readingKindLabel: Record<ReadingKind, string> = {
   other: 'Other',
 };
 
-export const readingMethodLabel: Record<InspectionReading['method'], string> = {
-  typed: 'Typed in',
-  tap_timer: 'Tap timer',
-  stopwatch: 'Stopwatch',
-  tachometer: 'Tachometer',
-  micrometer: 'Micrometer',
-  dial_indicator: 'Dial indicator',
-  gauge: 'Gauge',
-  other: 'Other',
-};
+/** The method's words, as the instrument register and the records say them. */
+export { readingMethodWords as readingMethodLabel } from '@/features/instruments/schema';
 
 /**
  * A reading's value with its unit, as typed when the record kept the typed text (lib/measured-format.ts);

@@ -8,6 +8,7 @@ import PDFDocument from 'pdfkit';
 
 import { CAUTION_FULL } from '@/components/caution-text';
 import type { ChecklistAnswer, Reading } from '@/features/inspections/schema';
+import { measuredWithWords } from '@/features/instruments/schema';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine/envelope';
 import {
   formatEnvelopeItem,
@@ -22,7 +23,6 @@ import {
   formatReading,
   formatSpread,
   readingKindLabel,
-  readingMethodLabel,
   reviewStateLabel,
 } from '@/features/review/review-format';
 import { severityInfo } from '@/features/review/schema';
@@ -51,13 +51,6 @@ const orNot = (v: string | number | null | undefined) =>
 /** A reading's value as recorded: the inspector's own digits when the record kept them (one rule). */
 function readingValue(r: Reading): string {
   return formatReading(r, 'si');
-}
-
-function readingMethod(r: Reading): string {
-  const parts = [readingMethodLabel[r.method] ?? r.method];
-  const instrument = (r as Reading & { instrument?: { name: string; serial: string } | null }).instrument;
-  if (instrument) parts.push(`${instrument.name} (serial ${instrument.serial})`);
-  return parts.join(' · ');
 }
 
 function checklistValue(a: ChecklistAnswer): string {
@@ -188,7 +181,7 @@ function readings(doc: Doc, r: InspectionReport) {
     return [
       `${x.label || readingKindLabel[x.kind]}${x.joint === null ? '' : ` (P${x.joint + 1})`}`,
       readingValue(x),
-      readingMethod(x),
+      measuredWithWords(x),
       when(x.takenAt),
       notes.join(' · '),
     ];
