@@ -67,7 +67,15 @@ test('the administrator keeps the register and sets the declaration text', async
   await page.getByText('HR-MIC-0655').waitFor();
   await screenshot(page, 'instruments-register-desktop');
   await page.setViewportSize({ width: 390, height: 844 });
-  await page.getByText('HR-FG-0107').scrollIntoViewIfNeeded();
+  // The narrow layout replaces the table with cards; scroll once the new element has settled.
+  for (let attempt = 0; ; attempt++) {
+    try {
+      await page.getByText('HR-FG-0107').scrollIntoViewIfNeeded({ timeout: 5_000 });
+      break;
+    } catch (err) {
+      if (attempt >= 4) throw err;
+    }
+  }
   await screenshot(page, 'instruments-register-phone');
   await page.context().close();
 });

@@ -120,7 +120,12 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   const admin = await openPage(browser, 'desktop');
   await signIn(admin, app.baseUrl, 'admin@pivotwatch.test');
   await admin.goto(`${app.baseUrl}/admin/outbox`);
-  await admin.getByRole('button', { name: `Message: ${message!.subject}` }).click();
+  // The list has loaded once the subtitle counts the e-mails; a list read before this message was
+  // filed is brought up to date with the screen's own Refresh, as an administrator would.
+  await admin.getByText(/received by the built-in mailbox, newest first/).waitFor({ timeout: 60_000 });
+  const messageButton = admin.getByRole('button', { name: `Message: ${message!.subject}` });
+  if (!(await messageButton.isVisible())) await admin.getByRole('button', { name: 'Refresh' }).click();
+  await messageButton.click();
   await admin.getByLabel(`Attachment: ${pdfName}`).waitFor();
   await screenshot(admin, 'notice-outbox-desktop');
 
