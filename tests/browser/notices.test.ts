@@ -125,7 +125,14 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   await admin.getByText(/received by the built-in mailbox, newest first/).waitFor({ timeout: 60_000 });
   const messageButton = admin.getByRole('button', { name: `Message: ${message!.subject}` });
   if (!(await messageButton.isVisible())) await admin.getByRole('button', { name: 'Refresh' }).click();
-  await messageButton.click();
+  try {
+    await messageButton.click();
+  } catch (err) {
+    // This step has failed now and then in whole-suite runs only; keep what the admin saw for the next look.
+    await screenshot(admin, 'notice-outbox-missing-desktop');
+    console.log('Outbox as shown when the message was not found:\n', await admin.locator('body').innerText());
+    throw err;
+  }
   await admin.getByLabel(`Attachment: ${pdfName}`).waitFor();
   await screenshot(admin, 'notice-outbox-desktop');
 
