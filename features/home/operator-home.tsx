@@ -14,7 +14,7 @@ import { noticeKeys } from '@/features/notices/keys';
 import { isPastDue, noticeHref, noticeKindLabel, todayIso } from '@/features/notices/notice-text';
 import { fetchNotice, useNoticeList } from '@/features/notices/notices-api';
 import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { FindingStateMark } from '@/features/review/finding-state-mark';
 import { SeverityMark } from '@/features/review/severity-mark';
 import { useRidesQuery } from '@/features/rides/api';

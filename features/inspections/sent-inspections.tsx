@@ -12,7 +12,7 @@ import { useStartCorrectionMutation } from '@/features/inspections/field-api';
 import { ReportDownload } from '@/features/inspections/report-download';
 import { inspectionTypeLabel } from '@/features/inspections/schema';
 import { type FindingView, type SentInspection, groupSent } from '@/features/inspections/sent';
-import { formatDate, formatDateTime } from '@/features/registry/text';
+import { formatDate, formatDateTime } from '@/lib/dates';
 import type { FindingSeverity } from '@/features/review/schema';
 
 type FeatherName = React.ComponentProps<typeof Feather>['name'];

@@ -34,7 +34,7 @@ import {
 } from '@/features/instruments/schema';
 import { Panes } from '@/features/registry/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { readingKindLabel } from '@/features/review/review-format';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;

@@ -30,7 +30,7 @@ import {
   findingCloseInputSchema,
   findingReopenInputSchema,
 } from '@/features/notices/schema';
-import { formatDate, formatDateTime } from '@/features/registry/text';
+import { formatDate, formatDateTime } from '@/lib/dates';
 import { FindingStateMark } from '@/features/review/finding-state-mark';
 import { SeverityMark } from '@/features/review/severity-mark';
 

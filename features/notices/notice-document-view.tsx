@@ -12,7 +12,7 @@ import { NoticePhotos } from '@/features/notices/notice-photos';
 import { noticeKindLabel } from '@/features/notices/notice-text';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { formatRatio } from '@/features/loads/format';
-import { formatDate, formatDateTime } from '@/features/registry/text';
+import { formatDate, formatDateTime } from '@/lib/dates';
 import { SeverityMark } from '@/features/review/severity-mark';
 
 type Result = NoticeDocument['results'][number];

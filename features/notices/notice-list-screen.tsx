@@ -17,7 +17,7 @@ import { useNoticeList } from '@/features/notices/notices-api';
 import { type NoticeListItem, noticeListQuerySchema } from '@/features/notices/schema';
 import { operatorChoices, useCompanyListQuery, useRidePageQuery } from '@/features/registry/api';
 import { PagedList } from '@/features/registry/paged-list';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { useListParams } from '@/features/registry/use-list-params';
 import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
 

@@ -23,7 +23,7 @@ import { deliveryStatusLabel, noticeKindLabel } from '@/features/notices/notice-
 import { useAcknowledge, useNotice, useResend } from '@/features/notices/notices-api';
 import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-download';
 import { type NoticeDetail, noticeDeliveryStateInfo } from '@/features/notices/schema';
-import { formatDate, formatDateTime } from '@/features/registry/text';
+import { formatDate, formatDateTime } from '@/lib/dates';
 import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
 import { useRideQuery } from '@/features/rides/api';
 

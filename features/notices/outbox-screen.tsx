@@ -17,7 +17,7 @@ import { NO_LOCAL_MAILBOX, useOutboxMessageQuery, useOutboxQuery } from '@/featu
 import { downloadOutboxAttachment } from '@/features/notices/outbox-download';
 import { attachmentFileName, formatBytes, htmlToText } from '@/features/notices/outbox-text';
 import type { OutboxMessage, outboxMessageResponseSchema } from '@/features/notices/schema';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 
 type FullMessage = z.infer<typeof outboxMessageResponseSchema>['message'];
 type Attachment = OutboxMessage['attachments'][number];

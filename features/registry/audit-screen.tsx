@@ -28,7 +28,7 @@ import {
   auditEntities,
   auditListQuerySchema,
 } from '@/features/registry/schema';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
 import { useUnitSystem } from '@/features/settings/unit-system';

@@ -26,7 +26,7 @@ import { RegisterTabs } from '@/features/registry/register-tabs';
 import { canEditRides } from '@/features/registry/ride-detail-screen';
 import type { ChecklistTemplate, ChecklistTemplateSummary } from '@/features/registry/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { useListParams } from '@/features/registry/use-list-params';
 import { type RideClass, rideClassLabel, rideClassSchema, rideClasses } from '@/features/rides/schema';
 import { z } from 'zod';

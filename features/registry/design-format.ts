@@ -3,6 +3,7 @@
  * system through features/units (never converted by hand here). Pure, so the tables' text is tested.
  */
 import type { DesignMotion, DesignPart } from '@/features/registry/design-data';
+import type { DesignOrigin } from '@/features/registry/schema';
 import {
   type QuantityKind,
   type UnitSystem,
@@ -87,3 +88,10 @@ export function gRange(limit: { min?: number; max?: number } | undefined): strin
   if (limit.min !== undefined && limit.max !== undefined) return `${f(limit.min)} to ${f(limit.max)} g`;
   return limit.min !== undefined ? `≥ ${f(limit.min)} g` : `≤ ${f(limit.max ?? 0)} g`;
 }
+
+export const designOriginLabel: Record<DesignOrigin, string> = {
+  editor: 'Edited in Pivotwatch',
+  import_csv: 'Imported from CSV',
+  import_json: 'Imported from JSON',
+  seed: 'Demo data',
+};

@@ -16,6 +16,7 @@ import { ChainDrawing, pivotPeaks } from '@/features/registry/chain-drawing';
 import { designPose, peakPose } from '@/features/registry/chain-geometry';
 import { type DesignData, designBodies, designToCycleInput } from '@/features/registry/design-data';
 import {
+  designOriginLabel,
   gRange,
   motionKindLabel,
   motionLimitText,
@@ -26,7 +27,7 @@ import {
   q,
 } from '@/features/registry/design-format';
 import type { DesignVersionInfo } from '@/features/registry/schema';
-import { designOriginLabel, formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { type UnitSystem, formatSignificant } from '@/features/units';
 
 export type DesignAnalysis = { result: CycleResult; error: null } | { result: null; error: string };

@@ -23,7 +23,7 @@ import {
 import { DueMark, dueInWords } from '@/features/registry/due-mark';
 import { Panes } from '@/features/registry/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
-import { formatDate, formatDateTime } from '@/features/registry/text';
+import { formatDate, formatDateTime } from '@/lib/dates';
 import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/review/ride-notices-api';
 import { NoticeRow } from '@/features/review/ride-notices';
 import { useRideQuery } from '@/features/rides/api';

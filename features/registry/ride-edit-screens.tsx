@@ -19,7 +19,7 @@ import {
 import { RideNotFound, useRideIdParam } from '@/features/registry/ride-detail-screen';
 import { type Option, RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { StatusForm } from '@/features/registry/status-form';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { useRideQuery } from '@/features/rides/api';
 import { rideHref } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';

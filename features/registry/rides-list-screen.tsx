@@ -29,7 +29,7 @@ import {
 import { PagedList } from '@/features/registry/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { RideCard, rideHref } from '@/features/rides/ride-card';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';

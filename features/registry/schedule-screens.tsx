@@ -40,7 +40,7 @@ import {
   scheduleListQuerySchema,
   scheduleSortKeys,
 } from '@/features/registry/schema';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';

@@ -6,7 +6,7 @@ import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { formatValue } from '@/features/loads/format';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import type { InspectionDetail } from '@/features/review/inspection-schema';
 
 /**

@@ -15,7 +15,7 @@ import { colors, layout, radius, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/features/api/client';
 import type { NoticeListItem } from '@/features/notices/schema';
 import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import {
   type ListedFinding,
   type ReviewState,

@@ -8,7 +8,7 @@ import { IconButton } from '@/components/icon-button';
 import { LabelledLine } from '@/components/labelled-line';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import { formatDate, formatDateTime } from '@/features/registry/text';
+import { formatDate, formatDateTime } from '@/lib/dates';
 import type { ListedFinding } from '@/features/review/decision-api';
 import { type InspectionPhoto, photoName } from '@/features/review/finding-form';
 import { FindingStateMark } from '@/features/review/finding-state-mark';

@@ -18,7 +18,7 @@ import { ChainDrawing, type PivotPeak } from '@/features/registry/chain-drawing'
 import { designPose } from '@/features/registry/chain-geometry';
 import type { DesignData } from '@/features/registry/design-data';
 import { inspectionTypeLabel } from '@/features/registry/schema';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { AnalysisFacts } from '@/features/review/analysis-facts';
 import { ChecklistResults } from '@/features/review/checklist-results';
 import { CycleCharts } from '@/features/review/cycle-charts';

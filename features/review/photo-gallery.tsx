@@ -3,7 +3,7 @@ import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-nat
 
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import type { InspectionPhoto } from '@/features/review/inspection-schema';
 import { usePhotoSource } from '@/features/review/photo-source';
 import { FullSizePhotoViewer } from '@/features/review/photo-viewer';

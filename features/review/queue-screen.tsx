@@ -12,7 +12,7 @@ import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
 import { PagedList } from '@/features/registry/paged-list';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/features/registry/use-list-params';
 import { useReviewQueue } from '@/features/review/queue-api';
 import { QueueFilterPanel, activeFilterCount } from '@/features/review/queue-filters';

@@ -1,6 +1,6 @@
 /** The queue's words and links, shared by the desktop table and the phone cards. */
 import { inspectionTypeLabel } from '@/features/registry/schema';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { type QueueItem, urgencyInfo } from '@/features/review/schema';
 import { rideHref } from '@/features/rides/ride-card';
 

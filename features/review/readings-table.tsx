@@ -10,7 +10,7 @@ import { colors, radius, space } from '@/components/theme';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { formatValue, measuredSources } from '@/features/loads/format';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { plausibilityText } from '@/features/inspections/plausibility';
 import type {
   InspectionDetail,

@@ -5,7 +5,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import type { NoticeKind, NoticeListItem } from '@/features/notices/schema';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
 
 export const noticeKindLabel: Record<NoticeKind, string> = {

@@ -5,7 +5,7 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { auditEntityLabel } from '@/features/registry/audit-screen';
-import { formatDateTime } from '@/features/registry/text';
+import { formatDateTime } from '@/lib/dates';
 import { useInspectionTrail } from '@/features/review/inspection-api';
 
 const actionWord = { create: 'Added', update: 'Changed', delete: 'Removed' } as const;

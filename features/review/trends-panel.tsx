@@ -12,7 +12,7 @@ import { useWide } from '@/components/use-wide';
 import { formatBesideLimit } from '@/features/loads/format';
 import { formatMeasured } from '@/lib/measured-format';
 import { inspectionTypeLabel } from '@/features/registry/schema';
-import { formatDate } from '@/features/registry/text';
+import { formatDate } from '@/lib/dates';
 import { useRideTrends } from '@/features/review/inspection-api';
 import { ReviewChart } from '@/features/review/review-chart';
 import { pivotLabel } from '@/features/review/review-format';

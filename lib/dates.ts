@@ -1,5 +1,3 @@
-import type { DesignOrigin } from '@/features/registry/schema';
-
 /** Dates as people read them here: 3 Mar 2025. Calendar dates (YYYY-MM-DD) are not shifted by time zone. */
 export function formatDate(iso: string): string {
   const calendar = /^\d{4}-\d{2}-\d{2}$/.test(iso);
@@ -18,10 +16,3 @@ export function formatDateTime(iso: string): string {
   if (Number.isNaN(d.getTime())) return iso;
   return `${formatDate(iso)}, ${d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}`;
 }
-
-export const designOriginLabel: Record<DesignOrigin, string> = {
-  editor: 'Edited in Pivotwatch',
-  import_csv: 'Imported from CSV',
-  import_json: 'Imported from JSON',
-  seed: 'Demo data',
-};
