@@ -14,14 +14,14 @@ import { benchReadings } from '@/bench/readings';
 import { designVersions, rides, users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import type { InspectionRecord } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb } from '@/server/db';
 import { demoInspectorEmail, seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
-import { sqliteOf } from '@/server/sync/sqlite-client';
+import { sqliteOf } from '@/server/sqlite-client';
 
 /**
  * Server ingest of a phone's push: 500 inspections with 10 readings each (5,000 readings), sent in the

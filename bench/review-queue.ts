@@ -12,17 +12,17 @@ import { benchReadings } from '@/bench/readings';
 import { users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import type { InspectionRecord } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import { inspectionTypes } from '@/features/registry/schema';
 import { rideClasses, type RideClass } from '@/features/rides/schema';
 import { loadConfig } from '@/server/config';
 import { openDb } from '@/server/db';
-import { addDays } from '@/server/registry/schedules';
-import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
+import { addDays } from '@/server/schedule-due';
+import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { demoPassword, demoRides, seedDemoData } from '@/server/seed/demo';
 import { ANALYSIS_SAMPLES, summariseAnalysis } from '@/server/sync/analysis';
-import { sqliteOf } from '@/server/sync/sqlite-client';
+import { sqliteOf } from '@/server/sqlite-client';
 
 /**
  * The supervisors' queue under load (issue 6): 10,000 rides and 200,000 readings (20,000 inspections of

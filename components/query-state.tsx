@@ -3,7 +3,7 @@ import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { OfflineError } from '@/features/api/client';
+import { OfflineError } from '@/lib/api-errors';
 
 /** Loading and error states for a query, with a retry; renders children only with data. */
 export function QueryState<T>({

@@ -21,7 +21,7 @@
  * 5. Design values (limits, nominal sizes) are shown as stated, in their shortest exact form ("≥ 139 mm",
  *    "≤ 0.5 mm"), never padded with zeros; in the other unit system, to four significant figures.
  */
-import { type Limit, LIMIT_EQUAL_TOLERANCE } from '@/features/loads/engine';
+import { type Limit, LIMIT_EQUAL_TOLERANCE } from '@/lib/limits';
 import {
   type DisplayUnit,
   type QuantityKind,
@@ -31,7 +31,7 @@ import {
   formatSignificant,
   fromSI,
   pickDisplayUnit,
-} from '@/features/units';
+} from '@/lib/units';
 
 /** Computed values: four significant figures (a load of 4731 kN, a rate of 9.450 rpm). */
 export const COMPUTED_SIGNIFICANT_FIGURES = 4;

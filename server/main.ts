@@ -10,8 +10,8 @@ import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
 import { startDeliveryLoop } from '@/server/notices/deliveries';
 import { startReminderJob } from '@/server/notices/reminders';
-import { numberRideFindings } from '@/server/review/findings';
-import { ensureQueueFresh, queueToday } from '@/server/review/queue-refresh';
+import { numberRideFindings } from '@/server/findings/findings';
+import { ensureQueueFresh, queueToday } from '@/server/queue/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 
 export type StartOptions = {

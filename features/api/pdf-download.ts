@@ -1,7 +1,8 @@
 import { File, Paths } from 'expo-file-system';
 
-import { API_BASE, OfflineError } from '@/features/api/client';
-import { tokenStore } from '@/features/auth/token-store';
+import { API_BASE } from '@/features/api/client';
+import { OfflineError } from '@/lib/api-errors';
+import { tokenStore } from '@/features/api/token-store';
 
 export type PaperSize = 'A4' | 'LETTER';
 

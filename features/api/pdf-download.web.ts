@@ -1,6 +1,6 @@
-import { API_BASE, ApiRequestError, OfflineError } from '@/features/api/client';
-import { apiErrorSchema } from '@/features/api/errors';
-import { tokenStore } from '@/features/auth/token-store';
+import { API_BASE } from '@/features/api/client';
+import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
+import { tokenStore } from '@/features/api/token-store';
 
 export type PaperSize = 'A4' | 'LETTER';
 

@@ -1,6 +1,6 @@
 import { QueryClient } from '@tanstack/react-query';
 
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 
 /** Client errors (4xx) will not get better by retrying; connection errors might. */
 export function makeQueryClient(): QueryClient {

@@ -1,6 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import { ApiRequestError, OfflineError, apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import {
   type Role,
   type SessionUser,
@@ -8,7 +9,7 @@ import {
   meResponseSchema,
   signInResponseSchema,
 } from '@/features/auth/schema';
-import { tokenStore } from '@/features/auth/token-store';
+import { tokenStore } from '@/features/api/token-store';
 
 export const authKeys = {
   all: ['auth'] as const,

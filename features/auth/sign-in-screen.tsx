@@ -7,7 +7,7 @@ import { Logo } from '@/components/logo';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import { roleHome, useSignInMutation } from '@/features/auth/api';
 import { forgetNextPath, nextPathAfterSignIn } from '@/features/auth/next-path';
 import { SignInForm } from '@/features/auth/sign-in-form';

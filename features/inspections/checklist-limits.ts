@@ -15,14 +15,14 @@ import {
   worstStatus,
 } from '@/features/loads/engine';
 import type { ChecklistAnswer, Reading, ReadingKind } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import {
   type ChecklistContent,
   type ChecklistItem,
   type DesignLimitQuantity,
   designLimitKind,
 } from '@/features/registry/schema';
-import type { QuantityKind } from '@/features/units';
+import type { QuantityKind } from '@/lib/units';
 
 /** A limit made concrete for one ride: what it is, in SI, and where it comes from. */
 export type ResolvedLimit = {

@@ -4,7 +4,7 @@
  * memory).
  */
 import { readingLink } from '@/features/inspections/checklist-limits';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import {
   type ChecklistAnswer,
@@ -15,6 +15,7 @@ import {
   type PhotoRef,
   type Reading,
   inspectionRecordSchema,
+  type DraftProblem,
 } from '@/features/inspections/schema';
 
 export type Draft = {
@@ -131,8 +132,6 @@ export function removePhoto(d: Draft, id: string, now: Date): Draft {
 export function setNotes(d: Draft, notes: string, now: Date): Draft {
   return touch({ ...d, notes }, now);
 }
-
-export type DraftProblem = { itemId: string | null; message: string };
 
 /**
  * What must be done before the inspection can be submitted: every item answered, a note on every

@@ -7,6 +7,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { randomUUID } from 'expo-crypto';
 import { useCallback, useRef, useState } from 'react';
 
+import { fieldKeys } from '@/features/device-db/field-keys';
 import { useDeviceDb } from '@/features/device-db/provider';
 import {
   readAssignments,
@@ -25,16 +26,6 @@ import { type Draft, newCorrection, newDraft, toRecord } from '@/features/inspec
 import type { Declaration, InspectionType } from '@/features/inspections/schema';
 import { buildSentList } from '@/features/inspections/sent';
 import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
-
-export const fieldKeys = {
-  all: ['field'] as const,
-  rides: () => [...fieldKeys.all, 'rides'] as const,
-  ride: (id: string) => [...fieldKeys.all, 'ride', id] as const,
-  draft: (id: string) => [...fieldKeys.all, 'draft', id] as const,
-  photo: (sha: string) => [...fieldKeys.all, 'photo', sha] as const,
-  /** Sent inspections with the supervisors' decisions on them. */
-  sent: () => [...fieldKeys.all, 'sent'] as const,
-};
 
 /** Device reads are local and cheap; refetch on focus keeps lists honest after a sync. */
 const DEVICE_STALE_MS = 0;

@@ -36,7 +36,7 @@ import {
   useDraftEditor,
   useSubmitDraftMutation,
 } from '@/features/inspections/field-api';
-import { capturePhoto } from '@/features/inspections/photo-capture';
+import { capturePhoto } from '@/features/photos/photo-capture';
 import { PhotosSection } from '@/features/inspections/photos-section';
 import { ReadingsSection } from '@/features/inspections/readings-section';
 import { inspectionTypeLabel, type PhotoRef } from '@/features/inspections/schema';

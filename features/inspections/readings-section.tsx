@@ -20,9 +20,9 @@ import {
   type MeasuredWith,
 } from '@/features/instruments/measured-with';
 import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
-import type { DesignData, DesignMotion } from '@/features/registry/design-data';
+import type { DesignData, DesignMotion } from '@/features/registry/design-schema';
 import { MotionPicture } from '@/features/tap-timer/motion-picture';
-import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/features/units';
+import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
 import { formatMeasured, formatSpreadOf, formatStated, normaliseEntered } from '@/lib/measured-format';
 
 /** What each kind of reading is and in which quantity; how it was measured is the inspector's to say. */

@@ -5,9 +5,18 @@ import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
-import type { PaperSize } from '@/features/api/pdf-download';
-import { downloadInspectionReport } from '@/features/notices/pdf-download';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
+import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api/pdf-download';
+
+/** The inspection report's PDF: the inspector's own copy of what they recorded. */
+const downloadInspectionReport = (
+  inspection: { id: string; rideName: string; submittedAt: string | null },
+  size: PaperSize,
+) =>
+  downloadPdf(
+    `/api/inspections/${encodeURIComponent(inspection.id)}/report.pdf?size=${size}`,
+    pdfFileName(`inspection-${inspection.rideName}-${(inspection.submittedAt ?? '').slice(0, 10)}`, size),
+  );
 
 /**
  * The inspector's own copy of a sent inspection as a PDF. The server makes it from the record it

@@ -61,6 +61,15 @@ export const readingKinds = ['speed', 'period', 'amplitude', 'pin_diameter', 'cl
 export const readingKindSchema = z.enum(readingKinds);
 export type ReadingKind = z.infer<typeof readingKindSchema>;
 
+export const readingKindLabel: Record<ReadingKind, string> = {
+  speed: 'Speed',
+  period: 'Period',
+  amplitude: 'Amplitude',
+  pin_diameter: 'Pin diameter',
+  clearance: 'Bushing clearance',
+  other: 'Other',
+};
+
 export const readingMethods = [
   'typed',
   'tap_timer',
@@ -192,3 +201,6 @@ export const pushResultSchema = z.object({
   ),
 });
 export type PushResult = z.infer<typeof pushResultSchema>;
+
+/** A reason a draft cannot be sent yet, on its item when it has one. */
+export type DraftProblem = { itemId: string | null; message: string };

@@ -6,7 +6,7 @@ import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { fieldKeys } from '@/features/inspections/field-api';
+import { fieldKeys } from '@/features/device-db/field-keys';
 import type { SyncStatus } from '@/features/sync/sync-controller';
 import type { SyncStatusHook } from '@/features/sync/use-sync-status';
 

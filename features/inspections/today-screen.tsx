@@ -11,7 +11,7 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
-import { firstName, greeting, longDate } from '@/features/home/greeting';
+import { firstName, greeting, longDate } from '@/lib/greeting';
 import {
   useFieldRidesQuery,
   useSentInspectionsQuery,

@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 
 import { useDeviceDb } from '@/features/device-db/provider';
 import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
-import { fieldKeys } from '@/features/inspections/field-api';
+import { fieldKeys } from '@/features/device-db/field-keys';
 
 /** Under `fieldKeys.all`, so a finished sync (which invalidates the field's keys) re-reads them. */
 export const fieldInstrumentKeys = {

@@ -13,10 +13,10 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { SessionUser } from '@/features/auth/schema';
-import { type ReadingKind, readingKinds } from '@/features/inspections/schema';
+import { type ReadingKind, readingKinds, readingKindLabel } from '@/features/inspections/schema';
 import {
   useDeclarationSaveMutation,
   useDeclarationSettingQuery,
@@ -32,10 +32,9 @@ import {
   readingMethodWords,
   utcDate,
 } from '@/features/instruments/schema';
-import { Panes } from '@/features/registry/panes';
+import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { formatDateTime } from '@/lib/dates';
-import { readingKindLabel } from '@/features/review/review-format';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 

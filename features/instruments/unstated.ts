@@ -1,5 +1,4 @@
-import type { DraftProblem } from '@/features/inspections/draft';
-import type { Reading } from '@/features/inspections/schema';
+import type { DraftProblem, Reading } from '@/features/inspections/schema';
 
 /**
  * Readings whose method the app filled in before inspectors were asked: recorded without an instrument

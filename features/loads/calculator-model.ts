@@ -2,7 +2,7 @@
  * The load-check calculator's form model: what a person types (strings, in display units) turned into
  * the engine's cycle request (SI). Pure TypeScript so it is tested without a screen.
  */
-import { zodIssues } from '@/features/api/errors';
+import { zodIssues } from '@/lib/api-errors';
 import { type CycleResult, type MotionProfile, analyseCycle } from '@/features/loads/engine';
 import { cycleRequestSchema } from '@/features/loads/schema';
 import {
@@ -10,8 +10,8 @@ import {
   type DesignMotion,
   designBodies,
   designToCycleInput,
-} from '@/features/registry/design-data';
-import { toSI } from '@/features/units';
+} from '@/features/registry/design-schema';
+import { toSI } from '@/lib/units';
 
 export type MotionKind = 'constant' | 'swing' | 'ramp' | 'fixed';
 

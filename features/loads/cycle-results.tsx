@@ -12,7 +12,7 @@ import { useWide } from '@/components/use-wide';
 import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { formatValue } from '@/features/loads/format';
-import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/features/units';
+import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
 import type { MeasuredSource } from '@/lib/measured-format';
 
 const statusHeadline = {

@@ -2,7 +2,7 @@ import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import type { EnvelopeItem } from '@/features/loads/engine';
 import { formatEnvelopeItem, sortByConcern } from '@/features/loads/format';
-import type { UnitSystem } from '@/features/units';
+import type { UnitSystem } from '@/lib/units';
 import type { MeasuredSource } from '@/lib/measured-format';
 
 /**

@@ -3,7 +3,7 @@
  * values to four significant figures, typed values as typed, never rounded across their limit.
  */
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
-import { type QuantityKind, type UnitSystem } from '@/features/units';
+import { type QuantityKind, type UnitSystem } from '@/lib/units';
 import {
   type MeasuredSource,
   formatAgainstLimit,

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-import { zodIssues } from '@/features/api/errors';
+import { zodIssues } from '@/lib/api-errors';
 import {
   ENGINE_ASSUMPTIONS,
   ENGINE_VERSION,

@@ -11,8 +11,8 @@ import { IconButton } from '@/components/icon-button';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
-import { capturePhoto } from '@/features/inspections/photo-capture';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
+import { capturePhoto } from '@/features/photos/photo-capture';
 import { putEvidencePhoto, useReportAction } from '@/features/notices/notices-api';
 import { type NoticeFinding, correctiveActionInputSchema } from '@/features/notices/schema';
 

@@ -14,7 +14,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
 import type { SessionUser } from '@/features/auth/schema';
-import { capturePhoto } from '@/features/inspections/photo-capture';
+import { capturePhoto } from '@/features/photos/photo-capture';
 import { CorrectiveActionForm, problemText } from '@/features/notices/corrective-action-form';
 import { NoticePhotos } from '@/features/notices/notice-photos';
 import { isPastDue, noticeHref, todayIso } from '@/features/notices/notice-text';

@@ -16,10 +16,10 @@ import { noticeHref, noticeKindLabel } from '@/features/notices/notice-text';
 import { useNoticeList } from '@/features/notices/notices-api';
 import { type NoticeListItem, noticeListQuerySchema } from '@/features/notices/schema';
 import { operatorChoices, useCompanyListQuery, useRidePageQuery } from '@/features/registry/api';
-import { PagedList } from '@/features/registry/paged-list';
+import { PagedList } from '@/components/paged-list';
 import { formatDate } from '@/lib/dates';
-import { useListParams } from '@/features/registry/use-list-params';
-import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
+import { useListParams } from '@/components/use-list-params';
+import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
 
 const PAGE_SIZE = 25;
 const LIST_KEYS = ['rideId', 'operatorId', 'page'] as const;

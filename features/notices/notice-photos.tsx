@@ -4,8 +4,8 @@ import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-nat
 
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { usePhotoSource } from '@/features/review/photo-source';
-import { FullSizePhotoViewer } from '@/features/review/photo-viewer';
+import { usePhotoSource } from '@/features/photos/photo-source';
+import { FullSizePhotoViewer } from '@/features/photos/photo-viewer';
 
 export type NoticePhoto = { sha256: string; caption: string };
 

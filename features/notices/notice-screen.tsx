@@ -13,7 +13,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import { useSession } from '@/features/auth/api';
 import type { SessionUser } from '@/features/auth/schema';
 import { problemText } from '@/features/notices/corrective-action-form';
@@ -24,7 +24,7 @@ import { useAcknowledge, useNotice, useResend } from '@/features/notices/notices
 import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-download';
 import { type NoticeDetail, noticeDeliveryStateInfo } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
+import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
 import { useRideQuery } from '@/features/rides/api';
 
 const back = { href: '/notices', label: 'Notices' } as const;

@@ -7,9 +7,9 @@ import {
 } from '@tanstack/react-query';
 import { z } from 'zod';
 
-import { API_BASE, ApiRequestError, OfflineError, apiFetch } from '@/features/api/client';
-import { apiErrorSchema } from '@/features/api/errors';
-import { tokenStore } from '@/features/auth/token-store';
+import { API_BASE, apiFetch } from '@/features/api/client';
+import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
+import { tokenStore } from '@/features/api/token-store';
 import { noticeKeys } from '@/features/notices/keys';
 import {
   type CorrectiveActionInput,
@@ -22,7 +22,7 @@ import {
   noticeListResponseSchema,
   noticeResponseSchema,
 } from '@/features/notices/schema';
-import { type QueryParams, toSearch } from '@/features/registry/api';
+import { type QueryParams, toSearch } from '@/lib/list-params';
 import { reviewKeys } from '@/features/review/keys';
 import { rideKeys } from '@/features/rides/api';
 

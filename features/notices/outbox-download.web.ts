@@ -1,7 +1,7 @@
-import { API_BASE, ApiRequestError } from '@/features/api/client';
+import { API_BASE } from '@/features/api/client';
+import { ApiRequestError, apiErrorSchema } from '@/lib/api-errors';
 import { saveBlob } from '@/features/api/pdf-download.web';
-import { apiErrorSchema } from '@/features/api/errors';
-import { tokenStore } from '@/features/auth/token-store';
+import { tokenStore } from '@/features/api/token-store';
 import { outboxAttachmentPath } from '@/features/notices/outbox-api';
 
 /**

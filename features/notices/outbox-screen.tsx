@@ -11,7 +11,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import { NO_LOCAL_MAILBOX, useOutboxMessageQuery, useOutboxQuery } from '@/features/notices/outbox-api';
 import { downloadOutboxAttachment } from '@/features/notices/outbox-download';

@@ -8,13 +8,3 @@ export const downloadNoticePdf = (notice: { id: string; reference: string }, siz
     `/api/notices/${encodeURIComponent(notice.id)}/pdf?size=${size}`,
     pdfFileName(notice.reference, size),
   );
-
-/** The inspection report's PDF: the inspector's own copy of what they recorded. */
-export const downloadInspectionReport = (
-  inspection: { id: string; rideName: string; submittedAt: string | null },
-  size: PaperSize,
-) =>
-  downloadPdf(
-    `/api/inspections/${encodeURIComponent(inspection.id)}/report.pdf?size=${size}`,
-    pdfFileName(`inspection-${inspection.rideName}-${(inspection.submittedAt ?? '').slice(0, 10)}`, size),
-  );

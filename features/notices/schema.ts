@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 
-import { pageSchema, pagingQuerySchema } from '@/features/registry/schema';
+import { pageSchema, pagingQuerySchema } from '@/lib/list-params';
 import { findingSchema, findingSeverities, findingStates } from '@/features/review/schema';
 import { rideStatuses } from '@/features/rides/schema';
 

@@ -2,7 +2,8 @@ import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tansta
 import { z } from 'zod';
 
 import { apiFetch } from '@/features/api/client';
-import type { DesignData } from '@/features/registry/design-data';
+import { type QueryParams, clean, toSearch } from '@/lib/list-params';
+import type { DesignData } from '@/features/registry/design-schema';
 import {
   type ChecklistContentInput,
   type CompanyInput,
@@ -34,30 +35,6 @@ import {
 } from '@/features/registry/schema';
 import type { RideClass } from '@/features/rides/schema';
 import { rideKeys } from '@/features/rides/api';
-
-/** Query parameters as the API reads them; empty values are left out so keys stay stable. */
-export type QueryParams = Record<string, string | number | readonly string[] | undefined | null>;
-
-export function toSearch(params: QueryParams): string {
-  const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(params)) {
-    if (value === undefined || value === null || value === '') continue;
-    if (Array.isArray(value)) {
-      if (value.length > 0) search.set(key, value.join(','));
-    } else search.set(key, String(value));
-  }
-  const text = search.toString();
-  return text ? `?${text}` : '';
-}
-
-/** Drops empty values so two equal queries make the same cache key whatever their spelling. */
-function clean(params: QueryParams): QueryParams {
-  return Object.fromEntries(
-    Object.entries(params).filter(
-      ([, v]) => v !== undefined && v !== null && v !== '' && !(Array.isArray(v) && v.length === 0),
-    ),
-  );
-}
 
 export const registryKeys = {
   all: ['registry'] as const,

@@ -2,9 +2,9 @@
  * What an audit entry changed, field by field, in words short enough for a list. Pure, so the wording of
  * the log is tested without a screen.
  */
-import { type DesignData, designDataSchema } from '@/features/registry/design-data';
+import { type DesignData, designDataSchema } from '@/features/registry/design-schema';
 import { type ChangeEffect, changeText, diffDesign } from '@/features/registry/design-diff';
-import type { UnitSystem } from '@/features/units';
+import type { UnitSystem } from '@/lib/units';
 
 /** `effect` is set for design-data limits: whether the change loosened or tightened the limit. */
 export type FieldChange = {

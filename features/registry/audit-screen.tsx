@@ -17,8 +17,8 @@ import type { SessionUser } from '@/features/auth/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { entryChanges } from '@/features/registry/audit-diff';
 import { EffectBadge } from '@/features/registry/design-comparison';
-import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
-import { PagedList } from '@/features/registry/paged-list';
+import { FilterGroup, FilterGroups, FilterPanel } from '@/components/filter-panel';
+import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import {
   type AuditAction,
@@ -29,7 +29,7 @@ import {
   auditListQuerySchema,
 } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
-import { useListParams, useSearchText } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/components/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
 import { useUnitSystem } from '@/features/settings/unit-system';
 

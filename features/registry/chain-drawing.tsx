@@ -17,8 +17,8 @@ import {
   niceLength,
   placeLabels,
 } from '@/features/registry/chain-geometry';
-import type { DesignData } from '@/features/registry/design-data';
-import { type UnitSystem, displayUnits, formatQuantity, fromSI, toSI } from '@/features/units';
+import type { DesignData } from '@/features/registry/design-schema';
+import { type UnitSystem, displayUnits, formatQuantity, fromSI, toSI } from '@/lib/units';
 
 const statusColor: Record<EnvelopeStatus, string> = {
   within: colors.within,

@@ -18,8 +18,8 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ChecklistLimitField } from '@/features/registry/checklist-limit-field';
-import { FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
+import { FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import {
   type ChecklistContent,
   type MeasurementKind,
@@ -27,7 +27,7 @@ import {
   checklistTemplatePutSchema,
   measurementKinds,
 } from '@/features/registry/schema';
-import { fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/components/form/server-errors';
 import { useUnitSystem } from '@/features/settings/unit-system';
 
 /** The API's PUT schema (content and reason), with the name the create schema requires. */

@@ -16,7 +16,7 @@ import {
   designLimitKind,
   designLimitQuantities,
 } from '@/features/registry/schema';
-import { type UnitSystem, displayUnits, fromSI, toSI } from '@/features/units';
+import { type UnitSystem, displayUnits, fromSI, toSI } from '@/lib/units';
 import { formatStated, formatTyped, normaliseEntered } from '@/lib/measured-format';
 
 /** What a measured item is checked against, in the words the admin picks from. */

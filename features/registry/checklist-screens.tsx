@@ -10,7 +10,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, layout, radius, space } from '@/components/theme';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { Role, SessionUser } from '@/features/auth/schema';
 import {
@@ -21,13 +21,13 @@ import {
 } from '@/features/registry/api';
 import { ChecklistForm, contentToForm, measurementKindLabel } from '@/features/registry/checklist-form';
 import { limitWords } from '@/features/registry/checklist-limit-field';
-import { Panes } from '@/features/registry/panes';
+import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
-import { canEditRides } from '@/features/registry/ride-detail-screen';
+import { canEditRides } from '@/features/ride-page/ride-detail-screen';
 import type { ChecklistTemplate, ChecklistTemplateSummary } from '@/features/registry/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';
 import { formatDateTime } from '@/lib/dates';
-import { useListParams } from '@/features/registry/use-list-params';
+import { useListParams } from '@/components/use-list-params';
 import { type RideClass, rideClassLabel, rideClassSchema, rideClasses } from '@/features/rides/schema';
 import { z } from 'zod';
 

@@ -11,10 +11,10 @@ import { SelectField } from '@/components/select-field';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
-import { FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
+import { FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { companyInputSchema, siteInputSchema, siteKindLabel, siteKinds } from '@/features/registry/schema';
-import { fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/components/form/server-errors';
 
 /** Several addresses typed in one box, one per line (commas and semicolons work too). */
 export function splitAddresses(text: string): string[] {

@@ -15,10 +15,8 @@ import {
   partKinds,
   type DesignData,
   type DesignPart,
-} from '@/features/registry/design-data';
-
-export const designFileFormats = ['csv', 'json'] as const;
-export type DesignFileFormat = (typeof designFileFormats)[number];
+} from '@/features/registry/design-schema';
+import type { DesignFileFormat } from '@/features/registry/schema/design-files';
 
 /** One problem in an imported file. `row` and `column` are set when the problem has a place in a CSV. */
 export type ImportIssue = { row: number | null; column: string | null; path: string; message: string };

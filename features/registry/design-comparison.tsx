@@ -6,7 +6,7 @@ import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import {
   type DesignChange,
   type DesignSection,
@@ -16,7 +16,7 @@ import {
   summarise,
   summaryText,
 } from '@/features/registry/design-diff';
-import type { UnitSystem } from '@/features/units';
+import type { UnitSystem } from '@/lib/units';
 
 /** The effect of a limit change as a word and an icon together, so colour is never the only signal. */
 export function EffectBadge({ effect }: { effect: 'loosened' | 'tightened' }) {

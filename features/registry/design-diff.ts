@@ -14,7 +14,7 @@ import type {
   DesignPart,
   DesignPivot,
   DesignSeat,
-} from '@/features/registry/design-data';
+} from '@/features/registry/design-schema';
 import { motionKindLabel, partGeometry, partKindLabel, point } from '@/features/registry/design-format';
 import {
   type QuantityKind,
@@ -23,7 +23,7 @@ import {
   fromSI,
   pickDisplayUnit,
   toSI,
-} from '@/features/units';
+} from '@/lib/units';
 
 export type DesignSection =
   'source' | 'general' | 'bodies' | 'parts' | 'pivots' | 'seats' | 'motion' | 'rider';

@@ -2,7 +2,7 @@
  * Design data values as people read them: SI values from the design data shown in the person's unit
  * system through features/units (never converted by hand here). Pure, so the tables' text is tested.
  */
-import type { DesignMotion, DesignPart } from '@/features/registry/design-data';
+import type { DesignMotion, DesignPart } from '@/features/registry/design-schema';
 import type { DesignOrigin } from '@/features/registry/schema';
 import {
   type QuantityKind,
@@ -12,7 +12,7 @@ import {
   formatSignificant,
   fromSI,
   toSI,
-} from '@/features/units';
+} from '@/lib/units';
 
 export const q = (value: number | undefined, kind: QuantityKind, system: UnitSystem): string =>
   value === undefined ? '—' : formatQuantity(value, kind, system).text;

@@ -14,7 +14,7 @@ import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { OfflineError } from '@/features/api/client';
+import { OfflineError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import {
   useDesignImportCheckMutation,
@@ -23,18 +23,18 @@ import {
   useDesignVersionsQuery,
 } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import { loosensALimit } from '@/features/registry/design-diff';
 import { ExportCard, designHref } from '@/features/registry/design-screens';
 import { DesignDrawingPanel, useDesignAnalysis } from '@/features/registry/design-view';
-import { FormText } from '@/features/registry/form-fields';
+import { FormText } from '@/components/form/fields';
 import { type ReportLine, formatFromName, importReport } from '@/features/registry/import-report';
-import { Panes } from '@/features/registry/panes';
+import { Panes } from '@/components/panes';
 import { readPickedFile } from '@/features/registry/read-picked-file';
 import { WithRide } from '@/features/registry/ride-edit-screens';
-import { useRideIdParam } from '@/features/registry/ride-detail-screen';
+import { useRideIdParam } from '@/features/ride-page/ride-detail-screen';
 import { changeReasonSchema } from '@/features/registry/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { applyServerError, fieldsOf } from '@/components/form/server-errors';
 import { useRideQuery } from '@/features/rides/api';
 import { rideHref } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';

@@ -10,7 +10,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, space } from '@/components/theme';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { Role, SessionUser } from '@/features/auth/schema';
 import { designToFile } from '@/features/registry/csv';
@@ -21,7 +21,7 @@ import {
   useDesignVersionsQuery,
 } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import {
   DesignDrawingPanel,
   DesignTables,
@@ -29,8 +29,8 @@ import {
   useDesignAnalysis,
 } from '@/features/registry/design-view';
 import { exportFileName } from '@/features/registry/import-report';
-import { Panes } from '@/features/registry/panes';
-import { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-detail-screen';
+import { Panes } from '@/components/panes';
+import { RideNotFound, canEditRides, useRideIdParam } from '@/features/ride-page/ride-detail-screen';
 import { saveTextFile } from '@/features/registry/save-file';
 import type { DesignVersion, DesignVersionInfo } from '@/features/registry/schema';
 import { designOriginLabel } from '@/features/registry/design-format';

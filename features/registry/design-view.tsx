@@ -14,7 +14,7 @@ import { type CycleResult, ENGINE_VERSION, analyseCycle } from '@/features/loads
 import { formatLimit, formatRatio, formatValue } from '@/features/loads/format';
 import { ChainDrawing, pivotPeaks } from '@/features/registry/chain-drawing';
 import { designPose, peakPose } from '@/features/registry/chain-geometry';
-import { type DesignData, designBodies, designToCycleInput } from '@/features/registry/design-data';
+import { type DesignData, designBodies, designToCycleInput } from '@/features/registry/design-schema';
 import {
   designOriginLabel,
   gRange,
@@ -28,7 +28,7 @@ import {
 } from '@/features/registry/design-format';
 import type { DesignVersionInfo } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
-import { type UnitSystem, formatSignificant } from '@/features/units';
+import { type UnitSystem, formatSignificant } from '@/lib/units';
 
 export type DesignAnalysis = { result: CycleResult; error: null } | { result: null; error: string };
 

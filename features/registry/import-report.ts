@@ -1,4 +1,4 @@
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 
 /** One line of a rejected file's report: where (row and column when the file has them) and what. */
 export type ReportLine = { row: number | null; column: string | null; where: string; message: string };

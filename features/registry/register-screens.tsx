@@ -14,7 +14,7 @@ import { TextField } from '@/components/text-field';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { Role, SessionUser } from '@/features/auth/schema';
 import {
@@ -34,8 +34,8 @@ import {
   type SiteFormInput,
 } from '@/features/registry/company-form';
 import { Field } from '@/features/registry/design-view';
-import { PagedList } from '@/features/registry/paged-list';
-import { Panes } from '@/features/registry/panes';
+import { PagedList } from '@/components/paged-list';
+import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { FormCard } from '@/features/registry/ride-edit-screens';
 import {
@@ -48,7 +48,7 @@ import {
   siteListQuerySchema,
   siteSortKeys,
 } from '@/features/registry/schema';
-import { useListParams, useSearchText } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/components/use-list-params';
 import { RideCard } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';
 

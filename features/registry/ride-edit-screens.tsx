@@ -7,7 +7,7 @@ import { RideStatusMark } from '@/components/status-mark';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import {
   operatorChoices,
@@ -16,7 +16,7 @@ import {
   useRideUpdateMutation,
   useSiteListQuery,
 } from '@/features/registry/api';
-import { RideNotFound, useRideIdParam } from '@/features/registry/ride-detail-screen';
+import { RideNotFound, useRideIdParam } from '@/features/ride-page/ride-detail-screen';
 import { type Option, RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { StatusForm } from '@/features/registry/status-form';
 import { formatDateTime } from '@/lib/dates';

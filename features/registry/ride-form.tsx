@@ -7,10 +7,10 @@ import { ChoiceChips } from '@/components/choice-chips';
 import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
 import { rideStatusLabel } from '@/components/status-mark';
-import { FormNumber, FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
+import { FormNumber, FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { rideInputSchema } from '@/features/registry/schema';
-import { fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/components/form/server-errors';
 import { rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
 
 /**

@@ -20,17 +20,13 @@ import {
   useRidePageQuery,
   useSiteListQuery,
 } from '@/features/registry/api';
-import {
-  FilterGroups,
-  FilterPanel,
-  RideClassFilter,
-  RideStatusFilter,
-} from '@/features/registry/filter-panel';
-import { PagedList } from '@/features/registry/paged-list';
+import { FilterGroups, FilterPanel } from '@/components/filter-panel';
+import { RideClassFilter, RideStatusFilter } from '@/features/rides/ride-filters';
+import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
 import { formatDate } from '@/lib/dates';
-import { useListParams, useSearchText } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/components/use-list-params';
 import { RideCard, rideHref } from '@/features/rides/ride-card';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 

@@ -5,10 +5,10 @@ import { z } from 'zod';
 
 import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
-import { FormNumber, FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
+import { FormNumber, FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { schedulePatchSchema } from '@/features/registry/schema';
-import { fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/components/form/server-errors';
 
 /** An empty date field means "no date": the API takes null for that. */
 const emptyAsNull = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (v === '' ? null : v), schema);

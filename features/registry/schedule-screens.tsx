@@ -25,11 +25,11 @@ import {
   useScheduleUpdateMutation,
 } from '@/features/registry/api';
 import { DueMark, dueInWords, dueStatusLabel } from '@/features/registry/due-mark';
-import { FilterGroup, FilterGroups, FilterPanel } from '@/features/registry/filter-panel';
-import { PagedList } from '@/features/registry/paged-list';
+import { FilterGroup, FilterGroups, FilterPanel } from '@/components/filter-panel';
+import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { WithRide } from '@/features/registry/ride-edit-screens';
-import { useRideIdParam } from '@/features/registry/ride-detail-screen';
+import { useRideIdParam } from '@/features/ride-page/ride-detail-screen';
 import { ScheduleForm, type ScheduleFormInput } from '@/features/registry/schedule-form';
 import {
   type InspectionType,
@@ -41,7 +41,7 @@ import {
   scheduleSortKeys,
 } from '@/features/registry/schema';
 import { formatDate } from '@/lib/dates';
-import { useListParams, useSearchText } from '@/features/registry/use-list-params';
+import { useListParams, useSearchText } from '@/components/use-list-params';
 import { rideHref } from '@/features/rides/ride-card';
 import type { RideSummary } from '@/features/rides/schema';
 

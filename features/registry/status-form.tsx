@@ -6,12 +6,12 @@ import { z } from 'zod';
 import { ChoiceChips } from '@/components/choice-chips';
 import { rideStatusLabel } from '@/components/status-mark';
 import { space } from '@/components/theme';
-import { FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
+import { FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { requireReasonOutOfService } from '@/features/registry/ride-form';
 import { ridePatchSchema } from '@/features/registry/schema';
-import { fieldsOf } from '@/features/registry/server-errors';
-import { eases } from '@/features/review/status-rules';
+import { fieldsOf } from '@/components/form/server-errors';
+import { eases } from '@/features/rides/status-rules';
 import { Text } from '@/components/text';
 import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
 

@@ -16,7 +16,7 @@ import { type ChecklistItem, checklistTemplateResponseSchema } from '@/features/
 import type { InspectionPhoto, InspectionReading } from '@/features/review/inspection-schema';
 import { PhotoThumb } from '@/features/review/photo-gallery';
 import { formatMeasurement } from '@/features/review/review-format';
-import type { UnitSystem } from '@/features/units';
+import type { UnitSystem } from '@/lib/units';
 import { formatAgainstLimit } from '@/lib/measured-format';
 
 type Result = ChecklistAnswer['result'];

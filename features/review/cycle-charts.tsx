@@ -8,14 +8,14 @@ import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { STANDARD_GRAVITY_MS2 } from '@/features/loads/engine';
 import { formatBesideLimit, formatValue } from '@/features/loads/format';
 import { useInspectionCycle } from '@/features/review/inspection-api';
 import type { InspectionCycle } from '@/features/review/inspection-schema';
 import { ReviewChart, type ReviewBand, type ReviewSeries } from '@/features/review/review-chart';
 import { pivotName } from '@/features/review/review-format';
-import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/features/units';
+import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
 import { formatAgainstLimit, formatStated } from '@/lib/measured-format';
 
 export type CycleAxis = 'angle' | 'time';

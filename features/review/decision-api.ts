@@ -4,7 +4,7 @@ import { z } from 'zod';
 
 import { apiFetch } from '@/features/api/client';
 import { reviewKeys } from '@/features/review/keys';
-import { rideNoticeKeys } from '@/features/review/ride-notices-api';
+import { rideNoticeKeys } from '@/features/notices/ride-notices-api';
 import {
   type DecisionInput,
   type DecisionResponse,

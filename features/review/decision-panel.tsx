@@ -12,9 +12,9 @@ import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/s
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import type { NoticeListItem } from '@/features/notices/schema';
-import { applyServerError, fieldsOf } from '@/features/registry/server-errors';
+import { applyServerError, fieldsOf } from '@/components/form/server-errors';
 import { formatDateTime } from '@/lib/dates';
 import {
   type ListedFinding,
@@ -28,8 +28,8 @@ import {
 } from '@/features/review/decision-api';
 import { FindingForm, type FindingValues, type InspectionPhoto } from '@/features/review/finding-form';
 import { FindingsList } from '@/features/review/findings-list';
-import { useRideNotices } from '@/features/review/ride-notices-api';
-import { IssuedNoticeRow, NoticeRow, noticeHref } from '@/features/review/ride-notices';
+import { useRideNotices } from '@/features/notices/ride-notices-api';
+import { IssuedNoticeRow, NoticeRow, noticeHref } from '@/features/notices/ride-notices';
 import { RideStatusControl } from '@/features/review/ride-status-control';
 import { type DecisionInput, decisionInputSchema, severityInfo } from '@/features/review/schema';
 import { useRideQuery } from '@/features/rides/api';

@@ -8,9 +8,9 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
 import { ToggleChips } from '@/components/toggle-chips';
-import { FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
-import { fieldsOf } from '@/features/registry/server-errors';
+import { FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
+import { fieldsOf } from '@/components/form/server-errors';
 import {
   type Finding,
   type FindingInput,

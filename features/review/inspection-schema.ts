@@ -17,7 +17,7 @@ import {
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
 import { auditEntrySchema, inspectionTypeSchema } from '@/features/registry/schema';
 import { findingSchema } from '@/features/review/schema';
-import type { QuantityKind } from '@/features/units';
+import type { QuantityKind } from '@/lib/units';
 
 export const reviewStates = ['submitted', 'approved', 'returned'] as const;
 export const reviewStateSchema = z.enum(reviewStates);

@@ -11,12 +11,12 @@ import { EnvelopeMark, RideStatusMark } from '@/components/status-mark';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RoleGate } from '@/features/auth/role-gate';
 import { useDesignVersionQuery } from '@/features/registry/api';
 import { ChainDrawing, type PivotPeak } from '@/features/registry/chain-drawing';
 import { designPose } from '@/features/registry/chain-geometry';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { AnalysisFacts } from '@/features/review/analysis-facts';
@@ -32,7 +32,7 @@ import { TrailList } from '@/features/review/trail-list';
 import { TrendsPanel } from '@/features/review/trends-panel';
 import { useRideQuery } from '@/features/rides/api';
 import { useUnitSystem } from '@/features/settings/unit-system';
-import type { UnitSystem } from '@/features/units';
+import type { UnitSystem } from '@/lib/units';
 
 /** Below this window width the decision panel follows the readings instead of standing beside them. */
 const TWO_COLUMNS_FROM = 1280;

@@ -12,12 +12,8 @@ import {
   useInspectorsQuery,
   useSiteListQuery,
 } from '@/features/registry/api';
-import {
-  FilterGroups,
-  FilterPanel,
-  RideClassFilter,
-  RideStatusFilter,
-} from '@/features/registry/filter-panel';
+import { FilterGroups, FilterPanel } from '@/components/filter-panel';
+import { RideClassFilter, RideStatusFilter } from '@/features/rides/ride-filters';
 import { calendarDate } from '@/features/registry/schema';
 import { type QueueQuery, type QueueSort } from '@/features/review/schema';
 

@@ -17,8 +17,9 @@ import type {
   InspectionReading,
   StoredAnalysisView,
 } from '@/features/review/inspection-schema';
-import { formatReading, formatSpread, pivotName, readingKindLabel } from '@/features/review/review-format';
-import type { UnitSystem } from '@/features/units';
+import { formatReading, formatSpread, pivotName } from '@/features/review/review-format';
+import { readingKindLabel } from '@/features/inspections/schema';
+import type { UnitSystem } from '@/lib/units';
 
 const headline = {
   within: 'Every checked value is within the design envelope.',

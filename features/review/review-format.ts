@@ -3,7 +3,7 @@
  * kind (features/inspections/schema.ts): speed rad/s, period s, amplitude rad, diameter and clearance m.
  */
 import type { ReadingKind } from '@/features/inspections/schema';
-import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/features/units';
+import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/lib/units';
 import type { InspectionReading } from '@/features/review/inspection-schema';
 import { type MeasuredSource, formatMeasured, formatSpreadOf, formatTyped } from '@/lib/measured-format';
 
@@ -13,15 +13,6 @@ export const readingQuantity: Record<Exclude<ReadingKind, 'other'>, QuantityKind
   amplitude: 'angle',
   pin_diameter: 'lengthSmall',
   clearance: 'lengthSmall',
-};
-
-export const readingKindLabel: Record<ReadingKind, string> = {
-  speed: 'Speed',
-  period: 'Period',
-  amplitude: 'Amplitude',
-  pin_diameter: 'Pin diameter',
-  clearance: 'Bushing clearance',
-  other: 'Other',
 };
 
 /** The method's words, as the instrument register and the records say them. */

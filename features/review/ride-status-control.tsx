@@ -8,12 +8,12 @@ import { FieldFrame } from '@/components/field-frame';
 import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import { FormText } from '@/features/registry/form-fields';
-import { FormFooter, useServerSubmit } from '@/features/registry/form-footer';
+import { FormText } from '@/components/form/fields';
+import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { useSession } from '@/features/auth/api';
-import { fieldsOf } from '@/features/registry/server-errors';
+import { fieldsOf } from '@/components/form/server-errors';
 import { useSetRideStatus } from '@/features/review/decision-api';
-import { statusChoices } from '@/features/review/status-rules';
+import { statusChoices } from '@/features/rides/status-rules';
 import { rideStatusSchema } from '@/features/rides/schema';
 
 const rideStatusFormSchema = z.object({

@@ -6,13 +6,8 @@
  */
 import { z } from 'zod';
 
-import {
-  calendarDate,
-  inspectionTypes,
-  pageSchema,
-  pagingQuerySchema,
-  searchQuery,
-} from '@/features/registry/schema';
+import { calendarDate, inspectionTypes } from '@/features/registry/schema';
+import { pageSchema, pagingQuerySchema, searchQuery } from '@/lib/list-params';
 import { rideClasses, rideStatuses } from '@/features/rides/schema';
 
 // ——— urgency: why something is in the queue, most urgent first ———

@@ -17,7 +17,7 @@ import { useRideTrends } from '@/features/review/inspection-api';
 import { ReviewChart } from '@/features/review/review-chart';
 import { pivotLabel } from '@/features/review/review-format';
 import type { TrendPoint, TrendsResponse } from '@/features/review/schema';
-import { type QuantityKind, type UnitSystem, fromSI, pickDisplayUnit } from '@/features/units';
+import { type QuantityKind, type UnitSystem, fromSI, pickDisplayUnit } from '@/lib/units';
 
 const DAY_MS = 24 * 3600 * 1000;
 

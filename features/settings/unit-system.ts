@@ -1,6 +1,6 @@
 import { useSyncExternalStore } from 'react';
 
-import type { UnitSystem } from '@/features/units';
+import type { UnitSystem } from '@/lib/units';
 import { preferenceStorage } from '@/features/settings/preference-storage';
 
 /**

@@ -2,9 +2,9 @@
  * The sync endpoints over HTTP. JSON calls go through the shared API client; photos go up as raw bytes
  * with XMLHttpRequest, the one browser and React Native API that reports upload progress.
  */
-import { API_BASE, ApiRequestError, OfflineError, apiFetch } from '@/features/api/client';
-import { apiErrorSchema } from '@/features/api/errors';
-import { tokenStore } from '@/features/auth/token-store';
+import { API_BASE, apiFetch } from '@/features/api/client';
+import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
+import { tokenStore } from '@/features/api/token-store';
 import { pushResultSchema } from '@/features/inspections/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
 

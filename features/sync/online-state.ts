@@ -7,7 +7,7 @@
 import { useSyncExternalStore } from 'react';
 
 import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
-import { onReachabilityChange, reportServerReached, serverReached } from '@/features/sync/reachability';
+import { onReachabilityChange, reportServerReached, serverReached } from '@/features/api/reachability';
 
 export function onlineNow(): boolean {
   return isOnline() && serverReached();

@@ -11,7 +11,7 @@
  * the only way out of the outbox is `accepted`, and accepted rows are kept.
  */
 import type { OutboxState } from '@/db/device/schema';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import type { OutboxIssue } from '@/features/device-db/outbox';
 
 export type OutboxEntry = {

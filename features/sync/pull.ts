@@ -3,7 +3,7 @@
  * schema and written together with its new cursor in one transaction: a bad or cut answer changes
  * nothing, and the next pull asks again from the same place.
  */
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import type { DeviceDb } from '@/features/device-db/connection';
 import {
   removeCached,

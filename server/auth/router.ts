@@ -4,7 +4,7 @@ import { rateLimit } from 'express-rate-limit';
 import { signInBodySchema, type SignInResponse } from '@/features/auth/schema';
 import type { ApiDeps } from '@/server/deps';
 import { sendError } from '@/server/http/errors';
-import { currentUser, requireAuth } from '@/server/http/require-auth';
+import { currentUser, requireAuth } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { signIn } from '@/server/auth/service';
 

@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler, Response } from 'express';
 import { z } from 'zod';
 
-import { zodIssues, type ApiError } from '@/features/api/errors';
+import { zodIssues, type ApiError } from '@/lib/api-errors';
 import type { Logger } from '@/server/logger';
 
 type Issue = NonNullable<ApiError['error']['issues']>[number];

@@ -1,7 +1,7 @@
 import type { RequestHandler, Response } from 'express';
 import type { z } from 'zod';
 
-import { zodIssues } from '@/features/api/errors';
+import { zodIssues } from '@/lib/api-errors';
 import { HttpError } from '@/server/http/errors';
 
 type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };

@@ -9,7 +9,7 @@ import type Database from 'better-sqlite3';
 import type { InspectionRecord } from '@/features/inspections/schema';
 import { pastDueAt } from '@/features/instruments/schema';
 import type { Db } from '@/server/db';
-import { sqliteOf } from '@/server/sync/sqlite-client';
+import { sqliteOf } from '@/server/sqlite-client';
 
 type Issue = { path: string; message: string };
 type RegisterRow = { calibrationDueOn: string | null; retiredAt: string | null };

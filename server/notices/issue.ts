@@ -12,7 +12,7 @@ import { inspectionPhotos, inspections } from '@/db/server/inspections';
 import { noticeDeliveries, noticeFindings, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import { companies, designVersions, rides, sites, users } from '@/db/server/schema';
-import { CAUTION_FULL } from '@/components/caution-text';
+import { CAUTION_FULL } from '@/lib/caution-text';
 import {
   formatBesideLimit,
   formatEnvelopeItem,
@@ -29,7 +29,7 @@ import { deliveryKey } from '@/server/mail/mailer';
 import { deliveriesQueued } from '@/server/notices/nudge';
 import { appealText, noticeReference, rideStatusWords, roleWords } from '@/server/notices/words';
 import { recordAudit } from '@/server/registry/audit';
-import { numberRideFindings } from '@/server/review/findings';
+import { numberRideFindings } from '@/server/findings/findings';
 
 export type NoticeTx = Pick<Db, 'select' | 'insert' | 'update' | 'run' | 'get' | 'all'>;
 

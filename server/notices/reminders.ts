@@ -28,7 +28,7 @@ import type { Logger } from '@/server/logger';
 import { deliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate } from '@/server/notices/pdf';
 import { escapeHtml } from '@/server/notices/words';
-import { findingNumber } from '@/server/review/findings';
+import { findingNumber } from '@/server/findings/findings';
 
 /** How far ahead a due date counts as "due soon". */
 export const dueSoonDays = 7;

@@ -7,7 +7,7 @@ import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 import type { z } from 'zod';
 
 type ListQuery = z.output<typeof companyListQuerySchema>;

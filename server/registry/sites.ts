@@ -9,7 +9,7 @@ import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
 type ListQuery = z.output<typeof siteListQuerySchema>;
 type Patch = z.output<typeof sitePatchSchema>;

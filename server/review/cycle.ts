@@ -13,7 +13,7 @@ import { cycleResultToJson, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/feature
 import type { CycleResponse } from '@/features/loads/schema';
 import type { Db } from '@/server/db';
 import { HttpError, notFound } from '@/server/http/errors';
-import type { InspectionHead } from '@/server/review/findings';
+import type { InspectionHead } from '@/server/findings/findings';
 import { ANALYSIS_SAMPLES } from '@/server/sync/analysis';
 
 export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHead): CycleResponse {

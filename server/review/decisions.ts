@@ -15,15 +15,16 @@ import { inspectionSchedules } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
 import { formatEnvelopeItem, measuredSources } from '@/features/loads/format';
 import { severityInfo, type decisionInputSchema, type DecisionResponse } from '@/features/review/schema';
-import { checkTransition, eventForStatus } from '@/features/review/status-rules';
+import { checkTransition, eventForStatus } from '@/features/rides/status-rules';
 import type { Db } from '@/server/db';
 import { conflict } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
-import { dateOf, updateSchedule } from '@/server/registry/schedules';
-import { mustSeeInspection, type InspectionHead } from '@/server/review/findings';
+import { updateSchedule } from '@/server/registry/schedules';
+import { dateOf } from '@/server/schedule-due';
+import { mustSeeInspection, type InspectionHead } from '@/server/findings/findings';
 import { issueInspectionNotice, issueStatusNotice } from '@/server/notices/issue';
 import { mustFindRide } from '@/server/registry/rides';
-import { findingNumber } from '@/server/review/findings';
+import { findingNumber } from '@/server/findings/findings';
 import {
   applyStatus,
   blockingSeverities,
@@ -33,7 +34,7 @@ import {
   openBlockingFindings,
   type AppliedChange,
 } from '@/server/review/ride-status';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
 

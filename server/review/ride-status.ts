@@ -28,14 +28,15 @@ import {
   type RideStatusEvent,
   type TransitionFacts,
   type TransitionProblem,
-} from '@/features/review/status-rules';
+} from '@/features/rides/status-rules';
 import type { Db } from '@/server/db';
 import { conflict, HttpError } from '@/server/http/errors';
 import { issueStatusNotice, type NoticeTx } from '@/server/notices/issue';
 import { recordAudit } from '@/server/registry/audit';
 import { mustFindRide } from '@/server/registry/rides';
-import { createSchedule, dateOf, updateSchedule } from '@/server/registry/schedules';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
+import { createSchedule, updateSchedule } from '@/server/registry/schedules';
+import { dateOf } from '@/server/schedule-due';
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
 type Tx = NoticeTx & Pick<Db, 'delete'>;
 

@@ -9,7 +9,7 @@ import { auditLog } from '@/db/server/schema';
 import type { AuditEntry } from '@/features/registry/schema';
 import type { Db } from '@/server/db';
 import { auditEntryRows, auditRowOrder } from '@/server/registry/audit-query';
-import type { InspectionHead } from '@/server/review/findings';
+import type { InspectionHead } from '@/server/findings/findings';
 
 /** Far more than one inspection's decisions and a ride's changes over its review period. */
 export const TRAIL_LIMIT = 500;

@@ -2,7 +2,7 @@ import { Router } from 'express';
 
 import { listUsers } from '@/server/auth/service';
 import type { ApiDeps } from '@/server/deps';
-import { requireAuth, requireRole } from '@/server/http/require-auth';
+import { requireAuth, requireRole } from '@/server/auth/require-auth';
 
 /** `GET /admin/users` → `{ users }` (admins only; never password hashes). */
 export function adminUsersRouter(deps: ApiDeps): Router {

@@ -2,7 +2,7 @@ import { Router } from 'express';
 
 import { auditListQuerySchema } from '@/features/registry/schema';
 import type { ApiDeps } from '@/server/deps';
-import { requireAuth, requireRole } from '@/server/http/require-auth';
+import { requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { listAudit } from '@/server/registry/audit-query';
 

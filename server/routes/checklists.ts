@@ -8,7 +8,7 @@ import {
   idParamsSchema,
 } from '@/features/registry/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import {
   archiveChecklistTemplate,

@@ -1,8 +1,9 @@
 import express, { Router, type Request } from 'express';
 
-import { zodIssues } from '@/features/api/errors';
-import { designToFile, parseDesignFile, type DesignFileFormat } from '@/features/registry/csv';
+import { zodIssues } from '@/lib/api-errors';
+import { designToFile, parseDesignFile } from '@/features/registry/csv';
 import {
+  type DesignFileFormat,
   designDecisionBodySchema,
   designExportQuerySchema,
   designImportBodySchema,
@@ -14,7 +15,7 @@ import {
 } from '@/features/registry/schema';
 import type { ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import {
   createDesignVersion,

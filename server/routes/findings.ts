@@ -9,7 +9,7 @@ import {
   type TrendsResponse,
 } from '@/features/review/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { inspectionCycle } from '@/server/review/cycle';
 import { decideInspection } from '@/server/review/decisions';
@@ -19,7 +19,7 @@ import {
   listFindings,
   mustSeeInspection,
   updateFinding,
-} from '@/server/review/findings';
+} from '@/server/findings/findings';
 import { inspectionTrail } from '@/server/review/trail';
 import { rideTrends } from '@/server/review/trends';
 

@@ -1,9 +1,9 @@
 import { Router } from 'express';
 import { z } from 'zod';
 
-import { pagingQuerySchema } from '@/features/registry/schema';
+import { pagingQuerySchema } from '@/lib/list-params';
 import { nowOf, type ApiDeps } from '@/server/deps';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { inspectionReport } from '@/server/reports/inspection-report';
 import { renderInspectionReportPdf } from '@/server/reports/inspection-report-pdf';

@@ -3,7 +3,7 @@ import { Router } from 'express';
 import { analyseCycleRequest, solveLoadsRequest } from '@/features/loads/schema';
 import type { ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
-import { requireAuth } from '@/server/http/require-auth';
+import { requireAuth } from '@/server/auth/require-auth';
 
 const invalid = (issues: { path: string; message: string }[]) =>
   new HttpError(400, 'validation_failed', 'The request has invalid fields.', issues);

@@ -6,9 +6,9 @@ import { z } from 'zod';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { companyScope } from '@/server/auth/scope';
 import { forbidden, HttpError, notFound } from '@/server/http/errors';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
-import { operatorMaySeePhoto } from '@/server/notices/loop';
+import { operatorMaySeePhoto } from '@/server/notices/photo-access';
 import {
   findPhoto,
   MAX_PHOTO_BYTES,

@@ -11,7 +11,7 @@ import {
 } from '@/features/registry/schema';
 import type { ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import {
   createCompany,

@@ -4,10 +4,10 @@ import { idParamsSchema } from '@/features/registry/schema';
 import { queueQuerySchema, rideStatusChangeInputSchema } from '@/features/review/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
-import { readQueueJson } from '@/server/review/queue';
-import { queueToday } from '@/server/review/queue-refresh';
+import { readQueueJson } from '@/server/queue/queue';
+import { queueToday } from '@/server/queue/queue-refresh';
 import { changeRideStatus } from '@/server/review/ride-status';
 
 const queueInput = validate({ query: queueQuerySchema });

@@ -10,10 +10,11 @@ import {
 } from '@/features/registry/schema';
 import { companyScope } from '@/server/auth/scope';
 import { nowOf, type ApiDeps } from '@/server/deps';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { findDesignVersion } from '@/server/registry/design';
-import { createRide, deleteRide, listRides, mustFindRide, updateRide } from '@/server/registry/rides';
+import { createRide, deleteRide, listRides, mustFindRide } from '@/server/registry/rides';
+import { updateRide } from '@/server/review/ride-update';
 
 const listInput = validate({ query: rideListQuerySchema });
 const oneRide = validate({ params: idParamsSchema });

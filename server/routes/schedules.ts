@@ -8,7 +8,7 @@ import {
 } from '@/features/registry/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { mustFindRide } from '@/server/registry/rides';
 import {

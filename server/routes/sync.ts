@@ -3,7 +3,7 @@ import { z } from 'zod';
 
 import { pushBatchSchema } from '@/features/inspections/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { scheduleAnalysis } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';

@@ -1,4 +1,4 @@
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 
 /*
  * Design data for the six demo rides, as if copied from each maker's (invented) design document. Every

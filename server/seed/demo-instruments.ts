@@ -10,7 +10,7 @@ import type { InstrumentSnapshot, ReadingKind } from '@/features/inspections/sch
 import type { instrumentMethods } from '@/features/instruments/schema';
 import type { Db } from '@/server/db';
 import { demoUuid } from '@/server/seed/demo-activity';
-import { addDays, dateOf } from '@/server/registry/schedules';
+import { addDays, dateOf } from '@/server/schedule-due';
 
 type DemoInstrument = {
   serial: string;

@@ -19,7 +19,7 @@ import { assertUserCompany } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
-import { addDays, dateOf } from '@/server/registry/schedules';
+import { addDays, dateOf } from '@/server/schedule-due';
 import { addDemoActivity } from '@/server/seed/demo-activity';
 import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';

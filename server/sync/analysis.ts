@@ -14,9 +14,9 @@ import type { InspectionRecord } from '@/features/inspections/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
-import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { templateContentOf } from '@/server/sync/checklist-check';
-import { isOpen } from '@/server/sync/sqlite-client';
+import { isOpen } from '@/server/sqlite-client';
 
 /** The phone analyses with the function's default sampling; the server must use the same to compare. */
 export const ANALYSIS_SAMPLES = 360;

@@ -4,7 +4,7 @@
  * analyse another. Checked at ingest, after the schema (which already requires a plain decimal).
  */
 import type { InspectionRecord } from '@/features/inspections/schema';
-import { type QuantityKind, toSI } from '@/features/units';
+import { type QuantityKind, toSI } from '@/lib/units';
 import { unitOfLabel } from '@/lib/measured-format';
 
 type Issue = { path: string; message: string };

@@ -19,12 +19,12 @@ import {
   type PushResult,
   type Reading,
 } from '@/features/inspections/schema';
-import { zodIssues } from '@/features/api/errors';
-import type { DesignData } from '@/features/registry/design-data';
+import { zodIssues } from '@/lib/api-errors';
+import type { DesignData } from '@/features/registry/design-schema';
 import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
-import { queueDay, refreshQueueInspections } from '@/server/review/queue-refresh';
+import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
 import { enteredIssues } from '@/server/sync/entered-check';
 import {
@@ -32,7 +32,7 @@ import {
   designDataLookup,
   plausibilityIssues,
 } from '@/server/sync/plausibility-check';
-import { sqliteOf } from '@/server/sync/sqlite-client';
+import { sqliteOf } from '@/server/sqlite-client';
 
 export type PushBatch = { batchId: string; records: unknown[] };
 type RecordResult = PushResult['results'][number];

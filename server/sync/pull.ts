@@ -33,7 +33,7 @@ import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry
 import { findDesignVersion } from '@/server/registry/design';
 import { findRide } from '@/server/registry/rides';
 import { assignmentsOf } from '@/server/registry/schedules';
-import { findingNumber } from '@/server/review/findings';
+import { findingNumber } from '@/server/findings/findings';
 
 /** How far before the cursor changes are looked for again (clock skew between processes, slow commits). */
 export const CURSOR_OVERLAP_MS = 5_000;

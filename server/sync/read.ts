@@ -12,7 +12,7 @@ import type { SessionUser } from '@/features/auth/schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { offsetOf } from '@/server/registry/query';
-import { listFindings } from '@/server/review/findings';
+import { listFindings } from '@/server/findings/findings';
 
 const reviewer = alias(users, 'reviewer');
 

@@ -6,7 +6,7 @@
 import { fireEvent, render, screen, waitFor } from '@testing-library/react-native';
 
 import { ChecklistForm, type ChecklistFormInput } from '@/features/registry/checklist-form';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 
 const start: ChecklistFormInput = {
   name: 'Pendulum swing — periodic',

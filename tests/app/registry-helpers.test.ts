@@ -3,12 +3,13 @@
  * server problem lands in a form, the audit log's field changes, and the design values' wording in the
  * person's units (conversion factors from mathjs through features/units, not typed here).
  */
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import { changedFields, valueText } from '@/features/registry/audit-diff';
 import { gRange, motionText, partGeometry, point } from '@/features/registry/design-format';
 import { exportFileName, formatFromName, importReport } from '@/features/registry/import-report';
-import { fieldsOf, pathInWords } from '@/features/registry/server-errors';
-import { registryKeys, toSearch } from '@/features/registry/api';
+import { fieldsOf, pathInWords } from '@/components/form/server-errors';
+import { registryKeys } from '@/features/registry/api';
+import { toSearch } from '@/lib/list-params';
 
 describe('import report', () => {
   test('rows and columns come back from the API’s paths, in file order, whole-file problems last', () => {

@@ -5,7 +5,7 @@
  */
 import { fireEvent, render, screen, waitFor } from '@testing-library/react-native';
 
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { StatusForm } from '@/features/registry/status-form';
 

@@ -6,7 +6,7 @@
 import { render, screen } from '@testing-library/react-native';
 
 import { type NoticeListItem, noticeListItemSchema } from '@/features/notices/schema';
-import { NoticeRow } from '@/features/review/ride-notices';
+import { NoticeRow } from '@/features/notices/ride-notices';
 
 const statusNotice: NoticeListItem = noticeListItemSchema.parse({
   id: 'n-3',

@@ -9,7 +9,7 @@ import type { Browser } from 'playwright-core';
 
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import type { InspectionRecord, Reading } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 
 import {
   type Running,

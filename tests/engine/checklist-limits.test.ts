@@ -27,14 +27,14 @@ import {
   inspectionRecordSchema,
 } from '@/features/inspections/schema';
 import { DEFAULT_NEAR_MARGIN } from '@/features/loads/engine';
-import type { DesignData } from '@/features/registry/design-data';
+import type { DesignData } from '@/features/registry/design-schema';
 import {
   type ChecklistContent,
   type ChecklistItem,
   checklistItemSchema,
   storedChecklistContentSchema,
 } from '@/features/registry/schema';
-import { toSI } from '@/features/units';
+import { toSI } from '@/lib/units';
 
 import { rodDesign } from './support/rod-design';
 

@@ -3,7 +3,7 @@ import * as fc from 'fast-check';
 import { type Limit, evaluateLimit } from '@/features/loads/engine';
 import { formatEnvelopeItem, measuredSources } from '@/features/loads/format';
 import { formatMeasurement, formatReading, formatSpread } from '@/features/review/review-format';
-import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/features/units';
+import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
 import {
   carriedDecimals,
   compareSI,

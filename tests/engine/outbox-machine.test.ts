@@ -3,7 +3,7 @@
  * classified. No outside reference applies; the expected values follow from the rules documented in
  * features/sync/outbox-machine.ts (5 s doubling back-off capped at 15 min).
  */
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import {
   BACKOFF_MAX_MS,
   type OutboxEntry,
@@ -15,7 +15,7 @@ import {
 } from '@/features/sync/outbox-machine';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
-jest.mock('@/features/auth/token-store', () => ({ tokenStore: { get: async () => null } }));
+jest.mock('@/features/api/token-store', () => ({ tokenStore: { get: async () => null } }));
 
 const now = new Date('2026-06-01T08:00:00.000Z');
 const queued: OutboxEntry = {

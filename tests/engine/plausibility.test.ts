@@ -14,8 +14,8 @@ import {
   plausibilityText,
   unconfirmedImplausible,
 } from '@/features/inspections/plausibility';
-import type { DesignMotion } from '@/features/registry/design-data';
-import { toSI } from '@/features/units';
+import type { DesignMotion } from '@/features/registry/design-schema';
+import { toSI } from '@/lib/units';
 import { skylarkDesign } from '@/server/seed/demo-design';
 
 const rpmToRadS = (rpm: number) => toSI(rpm, 'rate', 'rpm');

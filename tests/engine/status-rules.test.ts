@@ -12,7 +12,7 @@ import {
   statusChoices,
   transitionTable,
   type RideStatusEvent,
-} from '@/features/review/status-rules';
+} from '@/features/rides/status-rules';
 import { rideStatuses } from '@/features/rides/schema';
 
 type Status = (typeof rideStatuses)[number];

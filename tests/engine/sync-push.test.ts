@@ -7,7 +7,7 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoBlob, putPhotoBlob } from '@/features/device-db/photos';
 import { saveDraft, submitDraft } from '@/features/device-db/drafts';
@@ -24,7 +24,7 @@ import { fakeJpeg, makeRecord, photoRef } from './support/inspection-fixtures';
 import { type MemoryDeviceDb, memoryDeviceDb } from './support/memory-device-db';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
-jest.mock('@/features/auth/token-store', () => ({ tokenStore: { get: async () => null } }));
+jest.mock('@/features/api/token-store', () => ({ tokenStore: { get: async () => null } }));
 
 let dev: MemoryDeviceDb;
 let server: FakeSyncServer;

@@ -6,7 +6,7 @@ import {
   fromSI,
   pickDisplayUnit,
   toSI,
-} from '@/features/units';
+} from '@/lib/units';
 
 /**
  * Factors from NIST Special Publication 811 (2008), "Guide for the Use of the International System of

@@ -13,7 +13,7 @@ import { checklistTemplates, checklistTemplateVersions } from '@/db/server/schem
 import type { ChecklistAnswer } from '@/features/inspections/schema';
 import { queueResponseSchema } from '@/features/review/schema';
 import { type ChecklistContent, storedChecklistContentSchema } from '@/features/registry/schema';
-import { toSI } from '@/features/units';
+import { toSI } from '@/lib/units';
 import { analysePending } from '@/server/sync/analysis';
 
 import { makeTestServer, type TestServer } from './helpers';

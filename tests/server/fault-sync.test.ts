@@ -22,8 +22,7 @@ import path from 'node:path';
 
 import Database from 'better-sqlite3';
 
-import { ApiRequestError, OfflineError } from '@/features/api/client';
-import { apiErrorSchema } from '@/features/api/errors';
+import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
 import { countOutbox, listOutbox } from '@/features/device-db/outbox';
 import { listPhotoBlobs, putPhotoBlob } from '@/features/device-db/photos';
 import { submitDraft } from '@/features/device-db/drafts';
@@ -38,7 +37,7 @@ import { imageBytes, makeRecord, otherReading, photoRefFor, speedReading } from 
 
 // The app's API client module stores the session with expo-secure-store, which node cannot load; this test
 // passes its token explicitly and never reads the store.
-jest.mock('@/features/auth/token-store', () => ({ tokenStore: { get: async () => null } }));
+jest.mock('@/features/api/token-store', () => ({ tokenStore: { get: async () => null } }));
 jest.setTimeout(120_000);
 
 const N = 60;

@@ -8,7 +8,7 @@ import request from 'supertest';
 import { eq } from 'drizzle-orm';
 
 import { users } from '@/db/server/schema';
-import { apiErrorSchema } from '@/features/api/errors';
+import { apiErrorSchema } from '@/lib/api-errors';
 import { createApp } from '@/server/app';
 import { loadConfig, type Config, type Env } from '@/server/config';
 import { openDb, type Db } from '@/server/db';

@@ -20,7 +20,7 @@ import {
   noticeResponseSchema,
 } from '@/features/notices/schema';
 import { decisionResponseSchema, severityInfo } from '@/features/review/schema';
-import { queueToday, refreshQueue } from '@/server/review/queue-refresh';
+import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
 import { analysePending } from '@/server/sync/analysis';
 
 import { expectApiError } from './helpers';

@@ -15,7 +15,7 @@ import {
   type Finding,
 } from '@/features/review/schema';
 
-import { numberRideFindings } from '@/server/review/findings';
+import { numberRideFindings } from '@/server/findings/findings';
 
 import { expectApiError, makeTestServer, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';

@@ -31,11 +31,11 @@ import { createApp } from '@/server/app';
 import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb } from '@/server/db';
 import { createLogger } from '@/server/logger';
-import { queuePageSql, readQueue } from '@/server/review/queue';
-import { refreshQueue, refreshQueueInspections } from '@/server/review/queue-refresh';
+import { queuePageSql, readQueue } from '@/server/queue/queue';
+import { refreshQueue, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
-import { sqliteOf } from '@/server/sync/sqlite-client';
+import { sqliteOf } from '@/server/sqlite-client';
 
 import { expectApiError, makeTempDir, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';

@@ -1,4 +1,4 @@
-import type { QuantityKind } from '@/features/units';
+import type { QuantityKind } from '@/lib/units';
 import {
   type ChainBody,
   type Vec2,

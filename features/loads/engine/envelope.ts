@@ -1,3 +1,4 @@
+import { LIMIT_EQUAL_TOLERANCE, type Limit } from '@/lib/limits';
 /**
  * Envelope evaluation: a value against its design limit → ratio and status. The ratio is the share of
  * the allowance used: 1 means at the limit, above 1 over it.
@@ -14,13 +15,6 @@ export const ENVELOPE_STATUS_LABEL: Record<EnvelopeStatus, string> = {
 /** Where 'near' starts, as a ratio of the limit, unless the ride's documents say otherwise. */
 export const DEFAULT_NEAR_MARGIN = 0.9;
 
-/**
- * Relative difference below which a value counts as equal to its limit: a value typed as "139.0" mm and a
- * limit of 139.0 mm may reach SI by different roundings (139 × 0.001 vs 0.139) and differ by one unit in
- * the last place, which is no measurement. lib/measured-format.ts shows "at the limit" by the same test.
- */
-export const LIMIT_EQUAL_TOLERANCE = 1e-12;
-
 /** The value, set exactly onto a bound of the limit it equals within LIMIT_EQUAL_TOLERANCE. */
 function onBound(value: number, limit: Limit): number {
   const bounds =
@@ -33,22 +27,6 @@ function onBound(value: number, limit: Limit): number {
       return b;
   return value;
 }
-
-export type Limit =
-  /** value ≤ max (a force, a torque, a speed, a clearance). ratio = value / max. */
-  | { kind: 'upper'; max: number }
-  /**
-   * value ≥ min. With a nominal (a pin's diameter when new) the ratio is the wear allowance used,
-   * (nominal − value) / (nominal − min); without one it is min / value.
-   */
-  | { kind: 'lower'; min: number; nominal?: number }
-  /**
-   * min ≤ value ≤ max, e.g. rider Gz from −1.5 g to +6 g; either side may be left open. The ratio is
-   * measured from a reference toward whichever side the value lies: (value − ref)/(max − ref) or
-   * (ref − value)/(ref − min). The reference is 0 when the range contains 0 (rider limits do), else the
-   * middle of the range; a one-sided range away from 0 has no room to be "near": within or over only.
-   */
-  | { kind: 'range'; min?: number; max?: number; reference?: number };
 
 export type Evaluation = { value: number; limit: Limit; ratio: number; status: EnvelopeStatus };
 
@@ -116,3 +94,5 @@ export function worstStatus(statuses: Iterable<EnvelopeStatus>): EnvelopeStatus 
   for (const s of statuses) if (severity[s] > severity[worst]) worst = s;
   return worst;
 }
+
+export { LIMIT_EQUAL_TOLERANCE, type Limit } from '@/lib/limits';

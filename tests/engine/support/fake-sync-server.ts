@@ -6,7 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import type { InspectionRecord, PushResult } from '@/features/inspections/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
 

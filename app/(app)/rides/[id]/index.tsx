@@ -1,3 +1,3 @@
-import { RideDetailScreen } from '@/features/registry/ride-detail-screen';
+import { RideDetailScreen } from '@/features/ride-page/ride-detail-screen';
 
 export default RideDetailScreen;

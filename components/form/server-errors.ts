@@ -1,7 +1,7 @@
 import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
 
 import type { FormProblem } from '@/components/form-alert';
-import { ApiRequestError, OfflineError } from '@/features/api/client';
+import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 
 /** Words for the API's dotted paths where a form shows a problem it has no field for. */
 export function pathInWords(path: string, labels: Record<string, string> = {}): string {

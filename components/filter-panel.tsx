@@ -4,14 +4,9 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { rideStatusLabel } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { ToggleChips } from '@/components/toggle-chips';
 import { useWide } from '@/components/use-wide';
-import { type RideClass, rideClasses, rideClassLabel, rideStatuses } from '@/features/rides/schema';
-
-type RideStatus = (typeof rideStatuses)[number];
 
 /**
  * A list's search and filters. Desktop: all in view, the search beside its selects. Phone: the search
@@ -92,41 +87,6 @@ export function FilterGroup({ label, children }: { label: string; children: Reac
       </Text>
       {children}
     </View>
-  );
-}
-
-const rideClassOptions = rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }));
-const rideStatusOptions = rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }));
-
-/** Ride class chips for a list's filters; any number may be on. */
-export function RideClassFilter({
-  values,
-  onChange,
-}: {
-  values: readonly RideClass[] | undefined;
-  onChange: (values: RideClass[]) => void;
-}) {
-  return (
-    <FilterGroup label="Ride class">
-      <ToggleChips label="Ride class" values={values ?? []} options={rideClassOptions} onChange={onChange} />
-    </FilterGroup>
-  );
-}
-
-/** Ride status chips for a list's filters; any number may be on. */
-export function RideStatusFilter({
-  label,
-  values,
-  onChange,
-}: {
-  label: string;
-  values: readonly RideStatus[] | undefined;
-  onChange: (values: RideStatus[]) => void;
-}) {
-  return (
-    <FilterGroup label={label}>
-      <ToggleChips label={label} values={values ?? []} options={rideStatusOptions} onChange={onChange} />
-    </FilterGroup>
   );
 }
 

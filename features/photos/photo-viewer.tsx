@@ -4,7 +4,7 @@ import { ActivityIndicator, Image, Modal, StyleSheet, View, useWindowDimensions 
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { usePhotoSource } from '@/features/review/photo-source';
+import { usePhotoSource } from '@/features/photos/photo-source';
 
 /** What the full-size view needs of a photo; `received: false` says the phone has not uploaded it yet. */
 export type ViewedPhoto = { sha256: string; caption: string; received?: boolean };

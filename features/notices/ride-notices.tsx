@@ -6,7 +6,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import type { NoticeKind, NoticeListItem } from '@/features/notices/schema';
 import { formatDateTime } from '@/lib/dates';
-import { NoticeDeliveryMark } from '@/features/review/notice-delivery-mark';
+import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
 
 export const noticeKindLabel: Record<NoticeKind, string> = {
   inspection: 'Inspection notice',

@@ -9,7 +9,7 @@ import { RideStatusMark } from '@/components/status-mark';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { ApiRequestError } from '@/features/api/client';
+import { ApiRequestError } from '@/lib/api-errors';
 import { roleHome } from '@/features/auth/api';
 import { RoleGate } from '@/features/auth/role-gate';
 import type { Role, SessionUser } from '@/features/auth/schema';
@@ -21,11 +21,11 @@ import {
   useDesignAnalysis,
 } from '@/features/registry/design-view';
 import { DueMark, dueInWords } from '@/features/registry/due-mark';
-import { Panes } from '@/features/registry/panes';
+import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/review/ride-notices-api';
-import { NoticeRow } from '@/features/review/ride-notices';
+import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices/ride-notices-api';
+import { NoticeRow } from '@/features/notices/ride-notices';
 import { useRideQuery } from '@/features/rides/api';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';

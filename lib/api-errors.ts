@@ -20,3 +20,25 @@ export function zodIssues(error: z.ZodError): { path: string; message: string }[
     message: issue.message,
   }));
 }
+
+/** An answer from the API that is an error (4xx/5xx), with the error shape's code, message and issues. */
+export class ApiRequestError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly issues: { path: string; message: string }[] = [],
+  ) {
+    super(message);
+    this.name = 'ApiRequestError';
+  }
+}
+
+/** Thrown when the server cannot be reached at all (offline, DNS, connection reset). */
+export class OfflineError extends Error {
+  constructor(cause: unknown) {
+    super('No connection to the Pivotwatch server.');
+    this.name = 'OfflineError';
+    this.cause = cause;
+  }
+}

@@ -5,7 +5,7 @@ import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { space } from '@/components/theme';
-import { type FieldFor, applyServerError } from '@/features/registry/server-errors';
+import { type FieldFor, applyServerError } from '@/components/form/server-errors';
 
 export type ServerSubmit = {
   /** The press handler; takes the press event as react-hook-form's handleSubmit does. */

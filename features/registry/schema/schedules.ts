@@ -1,0 +1,122 @@
+import { email, id, nullableText } from '@/features/registry/schema/fields';
+import { pageSchema, pagingQuerySchema, searchQuery, sortQuery } from '@/lib/list-params';
+import { listOf } from '@/features/registry/schema/rides';
+import { rideClassSchema, rideStatusSchema } from '@/features/rides/schema';
+import { z } from 'zod';
+
+// ——— schedules and assignments ———
+
+export const inspectionTypes = [
+  'daily_pre_opening',
+  'periodic',
+  'annual',
+  'setup_after_assembly',
+  'follow_up',
+] as const;
+export const inspectionTypeSchema = z.enum(inspectionTypes, {
+  error: `One of ${inspectionTypes.join(', ')}`,
+});
+export type InspectionType = z.infer<typeof inspectionTypeSchema>;
+export const inspectionTypeLabel: Record<InspectionType, string> = {
+  daily_pre_opening: 'Daily pre-opening',
+  periodic: 'Periodic',
+  annual: 'Annual',
+  setup_after_assembly: 'Set-up after assembly',
+  follow_up: 'Follow-up',
+};
+
+/**
+ * How many days ahead an inspection counts as due rather than upcoming: a daily check is due on its day,
+ * an annual one a month ahead so it can be booked.
+ */
+export const dueWindowDays: Record<InspectionType, number> = {
+  daily_pre_opening: 0,
+  periodic: 7,
+  annual: 30,
+  setup_after_assembly: 3,
+  follow_up: 7,
+};
+
+/** overdue: the due date has passed · due: within the type's window · upcoming: later · unscheduled: no date. */
+export const dueStatuses = ['overdue', 'due', 'upcoming', 'unscheduled'] as const;
+export const dueStatusSchema = z.enum(dueStatuses);
+export type DueStatus = z.infer<typeof dueStatusSchema>;
+
+/** A calendar date, YYYY-MM-DD. */
+export const calendarDate = () =>
+  z
+    .string({ error: 'Required' })
+    .trim()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Must be a date, YYYY-MM-DD')
+    .refine((v) => {
+      const d = new Date(`${v}T00:00:00Z`);
+      return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === v;
+    }, 'Not a real date');
+
+/**
+ * POST /api/schedules. The next due date is `dueOn` when given (a one-off date: a set-up, a follow-up),
+ * else the last inspection plus the interval. Set `lastDoneOn` when an inspection is done; an explicit
+ * `dueOn` on or before it is then cleared unless the same change sets a new one.
+ */
+export const scheduleInputSchema = z.object({
+  rideId: id(),
+  inspectionType: inspectionTypeSchema,
+  intervalDays: z
+    .number({ error: 'Must be a whole number of days' })
+    .int('Must be a whole number of days')
+    .min(1, 'At least 1 day')
+    .max(3660, 'At most 10 years')
+    .nullable()
+    .optional(),
+  lastDoneOn: calendarDate().nullable().optional(),
+  dueOn: calendarDate().nullable().optional(),
+  /** An inspector's user id; null leaves it unassigned. */
+  assignedTo: z.union([id(), z.null()]).optional(),
+  notes: nullableText(1000).optional(),
+});
+export type ScheduleInput = z.output<typeof scheduleInputSchema>;
+/** PATCH /api/schedules/:id: any subset, except the ride and the inspection type. */
+export const schedulePatchSchema = scheduleInputSchema.omit({ rideId: true, inspectionType: true }).partial();
+export type SchedulePatch = z.output<typeof schedulePatchSchema>;
+
+export const scheduleSchema = z.object({
+  id: z.string(),
+  rideId: z.string(),
+  rideName: z.string(),
+  rideClass: rideClassSchema,
+  rideStatus: rideStatusSchema,
+  siteName: z.string().nullable(),
+  operatorName: z.string(),
+  inspectionType: inspectionTypeSchema,
+  intervalDays: z.number().int().nullable(),
+  lastDoneOn: z.string().nullable(),
+  dueOn: z.string().nullable(),
+  /** `dueOn`, or the last inspection plus the interval; null when neither gives a date. */
+  nextDueOn: z.string().nullable(),
+  dueStatus: dueStatusSchema,
+  /** Days from today to `nextDueOn` (negative when overdue); null when unscheduled. */
+  daysUntilDue: z.number().int().nullable(),
+  assignedTo: z.object({ id: z.string(), name: z.string() }).nullable(),
+  assignedAt: z.string().nullable(),
+  notes: z.string().nullable(),
+  createdAt: z.string(),
+});
+export type Schedule = z.infer<typeof scheduleSchema>;
+
+export const scheduleSortKeys = ['nextDue', 'ride', 'type', 'assignee'] as const;
+export const scheduleListQuerySchema = pagingQuerySchema.extend({
+  rideId: z.string().trim().min(1).optional(),
+  inspectionType: listOf(inspectionTypes).optional(),
+  dueStatus: listOf(dueStatuses).optional(),
+  /** An inspector's id, `me`, or `none` for unassigned. */
+  assignedTo: z.string().trim().min(1).optional(),
+  q: searchQuery(),
+  sort: sortQuery(scheduleSortKeys).optional(),
+});
+export type ScheduleListQuery = z.output<typeof scheduleListQuerySchema>;
+export const scheduleListResponseSchema = pageSchema.extend({ schedules: z.array(scheduleSchema) });
+export const scheduleResponseSchema = z.object({ schedule: scheduleSchema });
+export const assignmentListResponseSchema = z.object({ assignments: z.array(scheduleSchema) });
+export const inspectorListResponseSchema = z.object({
+  inspectors: z.array(z.object({ id: z.string(), name: z.string(), email: z.string() })),
+});

@@ -1,0 +1,287 @@
+/**
+ * Keeps the review queue's read model (`review_queue`) in step with what decides it. The queue is read far
+ * more often than it changes, so its rows are computed on write, and reading a page is one indexed query.
+ *
+ * Call `refreshQueue(db, today, rideIds)` in the same transaction as any change to what decides a ride's
+ * rows: an inspection arriving, analysed or decided; findings added, changed or closed; schedules; the
+ * ride's name, class, status, site or operator. A rename of a site, company or person refreshes their
+ * rides. A change to some inspections alone may use the cheaper `refreshQueueInspections`. `ensureQueueFresh` rebuilds everything once per calendar day, since "overdue" and "past due"
+ * change with the date alone.
+ */
+import type Database from 'better-sqlite3';
+import { sql, type SQL } from 'drizzle-orm';
+import { SQLiteSyncDialect } from 'drizzle-orm/sqlite-core';
+
+import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
+import { inspections } from '@/db/server/inspections';
+import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
+import type { Db } from '@/server/db';
+import { nextDueSql } from '@/server/schedule-due';
+
+type Tx = Pick<Db, 'run'>;
+
+/** Today as the queue sees it: the UTC calendar date. */
+export const queueToday = (now: Date = new Date()) => now.toISOString().slice(0, 10);
+
+let generation = 0;
+
+/**
+ * Bumped by every refresh (even one whose transaction then rolls back: a needless bump only costs a
+ * recount), so readers may keep figures derived from the queue for as long as it stays the same.
+ */
+export const queueGeneration = (): number => generation;
+
+/** Where the statements take today's date and the rides' ids (a JSON array), bound at run time. */
+const TODAY = sql.raw('@today');
+const IDS = sql.raw('@ids');
+
+/**
+ * What a refresh recomputes: every row; the rows of some rides (`@ids` = ride ids); or the rows some
+ * inspections decide (`@ids` = inspection ids): their own, their originals' (an amendment supersedes its
+ * original) and their rides' own rows. The last is for changes that touch those inspections alone (one
+ * arriving, being analysed), and costs the same however many others wait on the ride.
+ */
+type Scope = 'all' | 'rides' | 'inspections';
+
+const inIds = (column: SQL) => sql`${column} IN (SELECT value FROM json_each(${IDS}))`;
+
+/** The two statements of a refresh of `scope`: delete the rows it covers, insert them afresh. */
+function refreshStatements(scope: Scope): SQL[] {
+  const scopeRides = sql`(SELECT x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)})`;
+  const onlyRides = (column: SQL): SQL =>
+    scope === 'all' ? sql`1` : scope === 'rides' ? inIds(column) : sql`${column} IN ${scopeRides}`;
+  // Scoped, the inspections are found through the ride or primary-key index; the unary + keeps SQLite
+  // from preferring the review-state index, which would walk every submitted inspection (ms per write).
+  const pendingScope =
+    scope === 'all'
+      ? sql`i.review_state = 'submitted'`
+      : sql`+i.review_state = 'submitted' AND ${scope === 'rides' ? inIds(sql`i.ride_id`) : inIds(sql`i.id`)}`;
+  const covered =
+    scope === 'all'
+      ? sql`1`
+      : scope === 'rides'
+        ? inIds(sql`${reviewQueue.rideId}`)
+        : sql`${reviewQueue.key} IN (
+            SELECT 'i:' || value FROM json_each(${IDS})
+            UNION ALL SELECT 'i:' || x.amends_id FROM ${inspections} x
+              WHERE ${inIds(sql`x.id`)} AND x.amends_id IS NOT NULL
+            UNION ALL SELECT 'r:' || x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)}
+          )`;
+  return [
+    sql`DELETE FROM ${reviewQueue} WHERE ${covered}`,
+    sql`
+    WITH
+      ride_due AS (
+        SELECT ${inspectionSchedules.rideId} AS ride_id, MIN(${nextDueSql}) AS overdue_since
+        FROM ${inspectionSchedules}
+        WHERE ${nextDueSql} < ${TODAY} AND ${onlyRides(sql`${inspectionSchedules.rideId}`)}
+        GROUP BY ${inspectionSchedules.rideId}
+      ),
+      ride_past AS (
+        SELECT f.ride_id AS ride_id, COUNT(*) AS n, MIN(f.due_on) AS first_due
+        FROM ${findings} f
+        WHERE f.state <> 'closed' AND f.due_on IS NOT NULL AND f.due_on < ${TODAY}
+          AND ${onlyRides(sql`f.ride_id`)}
+        GROUP BY f.ride_id
+      ),
+      -- A returned inspection that was over a limit or failed items keeps its ride flagged until a decision
+      -- resolves it: an amendment (which carries the alarm on), a later approved follow-up, or an override.
+      ride_alarm AS (
+        SELECT * FROM (
+          SELECT x.ride_id AS ride_id, x.id AS inspection_id, x.type AS type, x.inspector_id AS inspector_id,
+            x.analysis_status AS analysis_status, x.failed_items AS failed_items, x.submitted_at AS submitted_at,
+            ROW_NUMBER() OVER (
+              PARTITION BY x.ride_id
+              ORDER BY CASE WHEN x.analysis_status = 'over' THEN 0 ELSE 1 END, x.submitted_at DESC, x.id
+            ) AS k
+          FROM ${inspections} x
+          WHERE x.review_state = 'returned' AND (x.analysis_status = 'over' OR x.failed_items > 0)
+            AND ${onlyRides(sql`x.ride_id`)}
+            AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = x.id)
+            AND NOT EXISTS (
+              SELECT 1 FROM ${inspections} y
+              WHERE y.ride_id = x.ride_id AND y.type = 'follow_up' AND y.review_state = 'approved'
+                AND y.reviewed_at >= x.reviewed_at
+            )
+            AND NOT EXISTS (
+              SELECT 1 FROM ${rideStatusChanges} c
+              WHERE c.ride_id = x.ride_id AND c.override = 1 AND c.at >= x.reviewed_at
+            )
+        ) WHERE k = 1
+      ),
+      pending AS (
+        SELECT i.* FROM ${inspections} i
+        WHERE ${pendingScope}
+          AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
+      )
+    INSERT INTO ${reviewQueue} (
+      key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
+      site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
+      failed_items, overdue_since, findings_past_due, search
+    )
+    SELECT
+      'i:' || i.id, 'inspection', i.id, i.type, r.id, r.name, r.ride_class, r.status, r.site_id,
+      s.name, r.operator_company_id, c.name, i.inspector_id, u.name,
+      CASE
+        WHEN i.analysis_status = 'over' THEN 0
+        WHEN i.failed_items > 0 THEN 1
+        WHEN i.analysis_status = 'near' THEN 2
+        WHEN d.overdue_since IS NOT NULL THEN 3
+        WHEN p.n > 0 THEN 4
+        ELSE 5
+      END,
+      -- Phones may send a local offset; in UTC every item's date sorts and compares as text.
+      COALESCE(strftime('%Y-%m-%dT%H:%M:%fZ', i.submitted_at), i.submitted_at),
+      i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
+      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name)
+    FROM pending i
+      JOIN ${rides} r ON r.id = i.ride_id
+      JOIN ${companies} c ON c.id = r.operator_company_id
+      JOIN ${users} u ON u.id = i.inspector_id
+      LEFT JOIN ${sites} s ON s.id = r.site_id
+      LEFT JOIN ride_due d ON d.ride_id = r.id
+      LEFT JOIN ride_past p ON p.ride_id = r.id
+    UNION ALL
+    SELECT
+      'r:' || r.id, 'ride', al.inspection_id, al.type, r.id, r.name, r.ride_class, r.status, r.site_id,
+      s.name, r.operator_company_id, c.name, al.inspector_id, au.name,
+      CASE
+        WHEN al.analysis_status = 'over' THEN 0
+        WHEN al.failed_items > 0 THEN 1
+        WHEN d.overdue_since IS NOT NULL THEN 3
+        ELSE 4
+      END,
+      COALESCE(
+        strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at, d.overdue_since, p.first_due
+      ),
+      al.analysis_status, COALESCE(al.failed_items, 0), d.overdue_since, COALESCE(p.n, 0),
+      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name ||
+        COALESCE(' ' || au.name, ''))
+    FROM ${rides} r
+      JOIN ${companies} c ON c.id = r.operator_company_id
+      LEFT JOIN ${sites} s ON s.id = r.site_id
+      LEFT JOIN ride_due d ON d.ride_id = r.id
+      LEFT JOIN ride_past p ON p.ride_id = r.id
+      LEFT JOIN ride_alarm al ON al.ride_id = r.id
+      LEFT JOIN ${users} au ON au.id = al.inspector_id
+    WHERE (
+        al.inspection_id IS NOT NULL
+        OR (
+          (d.overdue_since IS NOT NULL OR p.n > 0)
+          AND NOT EXISTS (
+            SELECT 1 FROM ${inspections} i
+            WHERE i.ride_id = r.id AND i.review_state = 'submitted'
+              AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
+          )
+        )
+      )
+      AND ${onlyRides(sql`r.id`)}
+  `,
+  ];
+}
+
+const dialect = new SQLiteSyncDialect();
+const compiled = new Map<Scope, string[]>();
+
+/** The statements as SQL text with named parameters, compiled once. */
+function refreshTexts(scope: Scope): string[] {
+  let texts = compiled.get(scope);
+  if (!texts) {
+    texts = refreshStatements(scope).map((statement) => {
+      const query = dialect.sqlToQuery(statement);
+      if (query.params.length) throw new Error('queue refresh: every value must be a named parameter');
+      return query.sql;
+    });
+    compiled.set(scope, texts);
+  }
+  return texts;
+}
+
+type Params = { today: string; ids: string | null };
+type Connection = Pick<Database.Database, 'prepare'>;
+
+/**
+ * The better-sqlite3 connection under a drizzle database or transaction. Drizzle keeps it on the root
+ * database (`$client`) and, for a transaction, on its session; read by shape, null when not found.
+ */
+function connectionOf(db: object): Connection | null {
+  const session =
+    'session' in db && typeof db.session === 'object' && db.session !== null ? db.session : null;
+  const candidate: unknown =
+    '$client' in db ? db.$client : session && 'client' in session ? session.client : null;
+  return isConnection(candidate) ? candidate : null;
+}
+
+const isConnection = (value: unknown): value is Connection =>
+  typeof value === 'object' && value !== null && 'prepare' in value && typeof value.prepare === 'function';
+
+const prepared = new WeakMap<Connection, Map<string, Database.Statement>>();
+
+/**
+ * Runs one statement. Preparing these statements costs more than running them for a few rides, so each
+ * connection keeps them prepared; without a connection to hand, drizzle runs the same text.
+ */
+function execute(db: Tx, text: string, params: Params): void {
+  const connection = connectionOf(db);
+  if (!connection) {
+    const parts = text
+      .split(/(@today|@ids)\b/)
+      .map((part) =>
+        part === '@today' ? sql`${params.today}` : part === '@ids' ? sql`${params.ids}` : sql.raw(part),
+      );
+    db.run(sql.join(parts));
+    return;
+  }
+  let statements = prepared.get(connection);
+  if (!statements) {
+    statements = new Map();
+    prepared.set(connection, statements);
+  }
+  let statement = statements.get(text);
+  if (!statement) {
+    statement = connection.prepare(text);
+    statements.set(text, statement);
+  }
+  statement.run(params);
+}
+
+function refresh(db: Tx, today: string, scope: Scope, ids: readonly string[] | null): void {
+  generation++;
+  const params: Params = { today, ids: ids ? JSON.stringify([...new Set(ids)]) : null };
+  for (const text of refreshTexts(scope)) execute(db, text, params);
+}
+
+/**
+ * Recomputes the queue rows of the given rides (all rides when `rideIds` is omitted) for `today`
+ * (YYYY-MM-DD). Idempotent; under a millisecond for a few rides, about half a second for 10,000.
+ */
+export function refreshQueue(db: Tx, today: string, rideIds?: readonly string[]): void {
+  if (rideIds && rideIds.length === 0) return;
+  refresh(db, today, rideIds ? 'rides' : 'all', rideIds ?? null);
+}
+
+/**
+ * Recomputes only what the given inspections decide: their rows, their originals' and their rides' own.
+ * Enough when the change touches nothing of the ride beyond these inspections (one arriving, amending
+ * another, being analysed or decided); a change to the ride, its schedules or findings needs
+ * `refreshQueue` for the ride.
+ */
+export function refreshQueueInspections(db: Tx, today: string, inspectionIds: readonly string[]): void {
+  if (inspectionIds.length === 0) return;
+  refresh(db, today, 'inspections', inspectionIds);
+}
+
+const sweptOn = new WeakMap<object, string>();
+
+/**
+ * The day to refresh a few rides for, from a write path: the day the whole queue was last rebuilt for, so
+ * every row is judged against the same date (a pinned test clock included); before any rebuild, today.
+ */
+export const queueDay = (db: Db, now: Date = new Date()): string => sweptOn.get(db) ?? queueToday(now);
+
+/** Rebuilds the whole queue the first time it is read on a new calendar day (and after start-up). */
+export function ensureQueueFresh(db: Db, today: string): void {
+  if (sweptOn.get(db) === today) return;
+  db.transaction((tx) => refreshQueue(tx, today));
+  sweptOn.set(db, today);
+}
