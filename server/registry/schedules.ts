@@ -3,10 +3,7 @@ import { alias } from 'drizzle-orm/sqlite-core';
 
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import {
-  dueWindowDays,
   inspectionTypeLabel,
-  inspectionTypes,
-  type DueStatus,
   type Schedule,
   type ScheduleInput,
   type ScheduleListQuery,
@@ -17,42 +14,8 @@ import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { mustFindRide } from '@/server/registry/rides';
-import { queueDay, refreshQueue } from '@/server/review/queue-refresh';
-
-const DAY_MS = 86_400_000;
-
-/** The calendar date (UTC) of an instant, YYYY-MM-DD. */
-export const dateOf = (at: Date) => at.toISOString().slice(0, 10);
-export const addDays = (date: string, days: number) =>
-  dateOf(new Date(Date.parse(`${date}T00:00:00Z`) + days * DAY_MS));
-const daysBetween = (from: string, to: string) =>
-  Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / DAY_MS);
-
-/** The next due date: the explicit one, else last done + interval; null when neither gives one. */
-export function nextDueOn(s: {
-  dueOn: string | null;
-  lastDoneOn: string | null;
-  intervalDays: number | null;
-}) {
-  if (s.dueOn) return s.dueOn;
-  if (s.lastDoneOn && s.intervalDays) return addDays(s.lastDoneOn, s.intervalDays);
-  return null;
-}
-
-export function dueStatusOf(type: keyof typeof dueWindowDays, next: string | null, today: string): DueStatus {
-  if (next === null) return 'unscheduled';
-  const days = daysBetween(today, next);
-  if (days < 0) return 'overdue';
-  return days <= dueWindowDays[type] ? 'due' : 'upcoming';
-}
-
-// The same two rules in SQL, for filtering and sorting whole lists in the database.
-export const nextDueSql = sql`COALESCE(${inspectionSchedules.dueOn}, CASE WHEN ${inspectionSchedules.lastDoneOn} IS NOT NULL AND ${inspectionSchedules.intervalDays} IS NOT NULL THEN date(${inspectionSchedules.lastDoneOn}, '+' || ${inspectionSchedules.intervalDays} || ' days') END)`;
-const windowSql = sql.raw(
-  `CASE "inspection_schedules"."inspection_type" ${inspectionTypes.map((t) => `WHEN '${t}' THEN ${dueWindowDays[t]}`).join(' ')} END`,
-);
-const dueStatusSql = (today: string) =>
-  sql<DueStatus>`CASE WHEN ${nextDueSql} IS NULL THEN 'unscheduled' WHEN ${nextDueSql} < ${today} THEN 'overdue' WHEN ${nextDueSql} <= date(${today}, '+' || (${windowSql}) || ' days') THEN 'due' ELSE 'upcoming' END`;
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { dateOf, daysBetween, dueStatusOf, dueStatusSql, nextDueOn, nextDueSql } from '@/server/schedule-due';
 
 const assignee = alias(users, 'assignee');
 

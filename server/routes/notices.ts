@@ -10,19 +10,13 @@ import {
 } from '@/features/notices/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError, notFound } from '@/server/http/errors';
-import { currentUser, requireAuth, requireRole } from '@/server/http/require-auth';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import type { MailboxEntry } from '@/server/mail/mailbox';
 import { noticePdf, requeueNotice } from '@/server/notices/deliveries';
-import {
-  acknowledgeNotice,
-  closeFinding,
-  getNotice,
-  listNotices,
-  mustSeeNotice,
-  reopenFinding,
-  reportCorrectiveAction,
-} from '@/server/notices/loop';
+import { reportCorrectiveAction } from '@/server/notices/corrective-action';
+import { acknowledgeNotice, getNotice, listNotices, mustSeeNotice } from '@/server/notices/read';
+import { closeFinding, reopenFinding } from '@/server/review/finding-verdict';
 
 const id = z.string().trim().min(1).max(64);
 const byId = validate({ params: z.object({ id }) });

@@ -9,7 +9,7 @@ import { instruments } from '@/db/server/instruments';
 import type { InstrumentSnapshot, ReadingKind } from '@/features/inspections/schema';
 import type { instrumentMethods } from '@/features/instruments/schema';
 import type { Db } from '@/server/db';
-import { demoUuid } from '@/server/seed/demo-activity';
+import { demoUuid } from '@/server/seed/demo-ids';
 import { addDays, dateOf } from '@/server/schedule-due';
 
 type DemoInstrument = {

@@ -1,6 +1,6 @@
 /**
  * The demo's inspection photos: invented drawings of worn parts rendered to JPEG (assets/demo/, made by
- * server/seed/render-demo-photos.ts). Demo inspections refer to them by SHA-256 like any phone's photos;
+ * scripts/render-demo-photos.ts). Demo inspections refer to them by SHA-256 like any phone's photos;
  * the seed stores their bytes the way an upload does.
  */
 import { createHash } from 'node:crypto';

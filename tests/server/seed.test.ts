@@ -19,7 +19,8 @@ import {
   demoUsers,
   seedDemoData,
 } from '@/server/seed/demo';
-import { demoInspectionId, demoInspections } from '@/server/seed/demo-activity';
+import { demoInspectionId } from '@/server/seed/demo-activity';
+import { demoInspections } from '@/server/seed/demo-inspections';
 import { demoPhotoFiles, demoPhotosDir } from '@/server/seed/demo-photos';
 import { photoPathOf, photosDirOf } from '@/server/sync/photo-store';
 

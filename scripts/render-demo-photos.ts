@@ -2,7 +2,7 @@
  * Draws the demo's inspection photos (invented drawings of worn parts, no real photographs) and renders
  * them to JPEG in assets/demo/ with Debian's chromium. Run by hand when a drawing changes:
  *
- *   npx tsx server/seed/render-demo-photos.ts
+ *   npx tsx scripts/render-demo-photos.ts
  *
  * The JPEGs are committed; the server never runs this.
  */
