@@ -1,7 +1,7 @@
 import { StyleSheet, View } from 'react-native';
 import { SvgXml } from 'react-native-svg';
 
-import { logoMarkSvg } from '@/components/logo-mark';
+import { logoMarkSvg } from '@/lib/logo-mark';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 

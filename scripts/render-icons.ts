@@ -1,12 +1,12 @@
 /**
- * Renders the Pivotwatch mark (components/logo-mark.ts) to the PNG icons the app ships.
+ * Renders the Pivotwatch mark (lib/logo-mark.ts) to the PNG icons the app ships.
  * Run by hand after changing the mark: `npx tsx scripts/render-icons.ts`. Uses Debian's chromium.
  */
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium } from 'playwright-core';
 
-import { logoMarkSvg } from '@/components/logo-mark';
+import { logoMarkSvg } from '@/lib/logo-mark';
 import { launchOptions } from '@/scripts/browser';
 
 // assets/ feeds app.json (app icon, favicon.ico); public/ is copied as-is into the web export.
