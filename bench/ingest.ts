@@ -14,7 +14,7 @@ import { benchReadings } from '@/bench/readings';
 import { designVersions, rides, users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import type { InspectionRecord } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb } from '@/server/db';

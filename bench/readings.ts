@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 
 import type { Reading } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 
 /**
  * The readings of one bench inspection: the main arm's speed (or the swing's period), varied a little by

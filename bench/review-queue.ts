@@ -12,7 +12,7 @@ import { benchReadings } from '@/bench/readings';
 import { users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import type { InspectionRecord } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { inspectionTypes } from '@/features/registry/schema';
 import { rideClasses, type RideClass } from '@/features/rides/schema';
 import { loadConfig } from '@/server/config';

@@ -4,7 +4,7 @@ import { sql } from 'drizzle-orm';
 import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 import { roles } from '@/features/auth/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import {
   auditActions,
   auditEntities,

@@ -15,8 +15,8 @@ import { isPastDue, noticeHref, noticeKindLabel, todayIso } from '@/features/not
 import { fetchNotice, useNoticeList } from '@/features/notices/notices-api';
 import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
 import { formatDate } from '@/lib/dates';
-import { FindingStateMark } from '@/features/review/finding-state-mark';
-import { SeverityMark } from '@/features/review/severity-mark';
+import { FindingStateMark } from '@/features/notices/finding-state-mark';
+import { SeverityMark } from '@/features/notices/severity-mark';
 import { useRidesQuery } from '@/features/rides/api';
 import { RideGrid } from '@/features/rides/ride-grid';
 

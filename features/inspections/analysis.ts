@@ -13,7 +13,7 @@ import {
 } from '@/features/loads/engine';
 import { withChecklistLimits } from '@/features/inspections/checklist-limits';
 import type { ChecklistAnswer, DevicePreview, Reading } from '@/features/inspections/schema';
-import { type DesignData, type MeasuredInputs, designToCycleInput } from '@/features/registry/design-schema';
+import { type DesignData, type MeasuredInputs, designToCycleInput } from '@/features/loads/design-schema';
 import type { ChecklistContent } from '@/features/registry/schema';
 
 /** The latest reading of a kind for a joint (readings are kept in the order they were taken). */

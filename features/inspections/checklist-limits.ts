@@ -15,7 +15,7 @@ import {
   worstStatus,
 } from '@/features/loads/engine';
 import type { ChecklistAnswer, Reading, ReadingKind } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import {
   type ChecklistContent,
   type ChecklistItem,

@@ -29,7 +29,7 @@ import {
   snapshotOf,
 } from '@/features/instruments/measured-with';
 import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import { type UnitSystem, displayUnits, fromSI, toSI } from '@/lib/units';
 import { formatAgainstLimit, formatLimitOnly, formatTyped, normaliseEntered } from '@/lib/measured-format';

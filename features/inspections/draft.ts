@@ -4,7 +4,7 @@
  * memory).
  */
 import { readingLink } from '@/features/inspections/checklist-limits';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import {
   type ChecklistAnswer,

@@ -7,7 +7,7 @@ import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import type { Draft } from '@/features/inspections/draft';
 import type { PhotoRef } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 
 type Props = {
   draft: Draft;

@@ -16,7 +16,7 @@
  *    other kinds (an amplitude on a turning joint, a speed on a swinging one), nor a design value of 0.
  * Typed and timed readings are checked alike: both replace the design motion in the load check.
  */
-import type { DesignData, DesignMotion } from '@/features/registry/design-schema';
+import type { DesignData, DesignMotion } from '@/features/loads/design-schema';
 
 export const PLAUSIBLE_LOW = 0.5;
 export const PLAUSIBLE_HIGH = 1.5;

@@ -20,7 +20,7 @@ import {
   type MeasuredWith,
 } from '@/features/instruments/measured-with';
 import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
-import type { DesignData, DesignMotion } from '@/features/registry/design-schema';
+import type { DesignData, DesignMotion } from '@/features/loads/design-schema';
 import { MotionPicture } from '@/features/tap-timer/motion-picture';
 import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
 import { formatMeasured, formatSpreadOf, formatStated, normaliseEntered } from '@/lib/measured-format';

@@ -10,7 +10,7 @@ import {
   type DesignMotion,
   designBodies,
   designToCycleInput,
-} from '@/features/registry/design-schema';
+} from '@/features/loads/design-schema';
 import { toSI } from '@/lib/units';
 
 export type MotionKind = 'constant' | 'swing' | 'ramp' | 'fixed';

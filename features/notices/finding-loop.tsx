@@ -31,8 +31,8 @@ import {
   findingReopenInputSchema,
 } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { FindingStateMark } from '@/features/review/finding-state-mark';
-import { SeverityMark } from '@/features/review/severity-mark';
+import { FindingStateMark } from '@/features/notices/finding-state-mark';
+import { SeverityMark } from '@/features/notices/severity-mark';
 
 /** Who may verify findings: the server's verifiers (supervisor, admin, inspector). */
 export const isVerifier = (user: SessionUser) =>

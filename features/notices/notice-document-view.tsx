@@ -13,7 +13,7 @@ import { noticeKindLabel } from '@/features/notices/notice-text';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { formatRatio } from '@/features/loads/format';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { SeverityMark } from '@/features/review/severity-mark';
+import { SeverityMark } from '@/features/notices/severity-mark';
 
 type Result = NoticeDocument['results'][number];
 type Load = NoticeDocument['loadSummary'][number];

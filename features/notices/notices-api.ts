@@ -23,7 +23,7 @@ import {
   noticeResponseSchema,
 } from '@/features/notices/schema';
 import { type QueryParams, toSearch } from '@/lib/list-params';
-import { reviewKeys } from '@/features/review/keys';
+import { reviewRoot } from '@/features/api/query-roots';
 import { rideKeys } from '@/features/rides/api';
 
 const enc = encodeURIComponent;
@@ -238,7 +238,7 @@ function invalidateOtherNotices(qc: QueryClient, noticeId: string) {
 function settle(qc: QueryClient, noticeId: string) {
   const jobs: Promise<unknown>[] = [
     invalidateOtherNotices(qc, noticeId),
-    qc.invalidateQueries({ queryKey: reviewKeys.all }),
+    qc.invalidateQueries({ queryKey: reviewRoot }),
     qc.invalidateQueries({ queryKey: rideKeys.all }),
   ];
   // The mutation that is settling still counts as running here.

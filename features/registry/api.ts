@@ -3,7 +3,7 @@ import { z } from 'zod';
 
 import { apiFetch } from '@/features/api/client';
 import { type QueryParams, clean, toSearch } from '@/lib/list-params';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import {
   type ChecklistContentInput,
   type CompanyInput,

@@ -2,7 +2,7 @@
  * What an audit entry changed, field by field, in words short enough for a list. Pure, so the wording of
  * the log is tested without a screen.
  */
-import { type DesignData, designDataSchema } from '@/features/registry/design-schema';
+import { type DesignData, designDataSchema } from '@/features/loads/design-schema';
 import { type ChangeEffect, changeText, diffDesign } from '@/features/registry/design-diff';
 import type { UnitSystem } from '@/lib/units';
 

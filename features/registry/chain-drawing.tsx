@@ -17,7 +17,7 @@ import {
   niceLength,
   placeLabels,
 } from '@/features/registry/chain-geometry';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { type UnitSystem, displayUnits, formatQuantity, fromSI, toSI } from '@/lib/units';
 
 const statusColor: Record<EnvelopeStatus, string> = {

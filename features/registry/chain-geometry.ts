@@ -5,7 +5,7 @@
  * pixels with `fitToView`.
  */
 import type { CycleResult } from '@/features/loads/engine';
-import { type DesignData, designBodies } from '@/features/registry/design-schema';
+import { type DesignData, designBodies } from '@/features/loads/design-schema';
 
 export type Point = readonly [number, number];
 

@@ -23,7 +23,7 @@ import { ChecklistForm, contentToForm, measurementKindLabel } from '@/features/r
 import { limitWords } from '@/features/registry/checklist-limit-field';
 import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
-import { canEditRides } from '@/features/ride-page/ride-detail-screen';
+import { canEditRides } from '@/features/registry/ride-route';
 import type { ChecklistTemplate, ChecklistTemplateSummary } from '@/features/registry/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';
 import { formatDateTime } from '@/lib/dates';

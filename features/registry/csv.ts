@@ -15,7 +15,7 @@ import {
   partKinds,
   type DesignData,
   type DesignPart,
-} from '@/features/registry/design-schema';
+} from '@/features/loads/design-schema';
 import type { DesignFileFormat } from '@/features/registry/schema/design-files';
 
 /** One problem in an imported file. `row` and `column` are set when the problem has a place in a CSV. */

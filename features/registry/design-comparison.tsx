@@ -6,7 +6,7 @@ import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import {
   type DesignChange,
   type DesignSection,

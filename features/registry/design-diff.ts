@@ -14,7 +14,7 @@ import type {
   DesignPart,
   DesignPivot,
   DesignSeat,
-} from '@/features/registry/design-schema';
+} from '@/features/loads/design-schema';
 import { motionKindLabel, partGeometry, partKindLabel, point } from '@/features/registry/design-format';
 import {
   type QuantityKind,

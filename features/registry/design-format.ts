@@ -2,7 +2,7 @@
  * Design data values as people read them: SI values from the design data shown in the person's unit
  * system through features/units (never converted by hand here). Pure, so the tables' text is tested.
  */
-import type { DesignMotion, DesignPart } from '@/features/registry/design-schema';
+import type { DesignMotion, DesignPart } from '@/features/loads/design-schema';
 import type { DesignOrigin } from '@/features/registry/schema';
 import {
   type QuantityKind,

@@ -23,7 +23,7 @@ import {
   useDesignVersionsQuery,
 } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { loosensALimit } from '@/features/registry/design-diff';
 import { ExportCard, designHref } from '@/features/registry/design-screens';
 import { DesignDrawingPanel, useDesignAnalysis } from '@/features/registry/design-view';
@@ -32,7 +32,7 @@ import { type ReportLine, formatFromName, importReport } from '@/features/regist
 import { Panes } from '@/components/panes';
 import { readPickedFile } from '@/features/registry/read-picked-file';
 import { WithRide } from '@/features/registry/ride-edit-screens';
-import { useRideIdParam } from '@/features/ride-page/ride-detail-screen';
+import { useRideIdParam } from '@/features/registry/ride-route';
 import { changeReasonSchema } from '@/features/registry/schema';
 import { applyServerError, fieldsOf } from '@/components/form/server-errors';
 import { useRideQuery } from '@/features/rides/api';

@@ -21,7 +21,7 @@ import {
   useDesignVersionsQuery,
 } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import {
   DesignDrawingPanel,
   DesignTables,
@@ -30,7 +30,7 @@ import {
 } from '@/features/registry/design-view';
 import { exportFileName } from '@/features/registry/import-report';
 import { Panes } from '@/components/panes';
-import { RideNotFound, canEditRides, useRideIdParam } from '@/features/ride-page/ride-detail-screen';
+import { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
 import { saveTextFile } from '@/features/registry/save-file';
 import type { DesignVersion, DesignVersionInfo } from '@/features/registry/schema';
 import { designOriginLabel } from '@/features/registry/design-format';

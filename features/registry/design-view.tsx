@@ -14,7 +14,7 @@ import { type CycleResult, ENGINE_VERSION, analyseCycle } from '@/features/loads
 import { formatLimit, formatRatio, formatValue } from '@/features/loads/format';
 import { ChainDrawing, pivotPeaks } from '@/features/registry/chain-drawing';
 import { designPose, peakPose } from '@/features/registry/chain-geometry';
-import { type DesignData, designBodies, designToCycleInput } from '@/features/registry/design-schema';
+import { type DesignData, designBodies, designToCycleInput } from '@/features/loads/design-schema';
 import {
   designOriginLabel,
   gRange,

@@ -16,7 +16,7 @@ import {
   useRideUpdateMutation,
   useSiteListQuery,
 } from '@/features/registry/api';
-import { RideNotFound, useRideIdParam } from '@/features/ride-page/ride-detail-screen';
+import { RideNotFound, useRideIdParam } from '@/features/registry/ride-route';
 import { type Option, RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { StatusForm } from '@/features/registry/status-form';
 import { formatDateTime } from '@/lib/dates';

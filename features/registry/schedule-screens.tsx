@@ -29,7 +29,7 @@ import { FilterGroup, FilterGroups, FilterPanel } from '@/components/filter-pane
 import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { WithRide } from '@/features/registry/ride-edit-screens';
-import { useRideIdParam } from '@/features/ride-page/ride-detail-screen';
+import { useRideIdParam } from '@/features/registry/ride-route';
 import { ScheduleForm, type ScheduleFormInput } from '@/features/registry/schedule-form';
 import {
   type InspectionType,

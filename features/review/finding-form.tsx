@@ -19,7 +19,7 @@ import {
   findingSeverities,
   severityInfo,
 } from '@/features/review/schema';
-import { SeverityMark } from '@/features/review/severity-mark';
+import { SeverityMark } from '@/features/notices/severity-mark';
 
 export type FindingValues = z.output<typeof findingInputSchema>;
 export type InspectionPhoto = { sha256: string; caption: string };

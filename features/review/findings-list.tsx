@@ -11,8 +11,8 @@ import { colors, layout, radius, space } from '@/components/theme';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import type { ListedFinding } from '@/features/review/decision-api';
 import { type InspectionPhoto, photoName } from '@/features/review/finding-form';
-import { FindingStateMark } from '@/features/review/finding-state-mark';
-import { SeverityMark } from '@/features/review/severity-mark';
+import { FindingStateMark } from '@/features/notices/finding-state-mark';
+import { SeverityMark } from '@/features/notices/severity-mark';
 
 function todayIso(): string {
   const d = new Date();

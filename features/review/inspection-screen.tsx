@@ -16,7 +16,7 @@ import { RoleGate } from '@/features/auth/role-gate';
 import { useDesignVersionQuery } from '@/features/registry/api';
 import { ChainDrawing, type PivotPeak } from '@/features/registry/chain-drawing';
 import { designPose } from '@/features/registry/chain-geometry';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { AnalysisFacts } from '@/features/review/analysis-facts';

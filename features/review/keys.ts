@@ -1,6 +1,8 @@
+import { reviewRoot } from '@/features/api/query-roots';
+
 /** Query keys of the review desk; every query and mutation of the feature keys through these. */
 export const reviewKeys = {
-  all: ['review'] as const,
+  all: reviewRoot,
   queues: () => [...reviewKeys.all, 'queue'] as const,
   /** One page of the queue, keyed by its cleaned query. */
   queue: (query: Record<string, unknown>) => [...reviewKeys.queues(), query] as const,

@@ -1,8 +1,9 @@
 import Feather from '@expo/vector-icons/Feather';
-import { Link, router, useLocalSearchParams } from 'expo-router';
+import { Link, router } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { RideStatusMark } from '@/components/status-mark';
@@ -30,14 +31,7 @@ import { useRideQuery } from '@/features/rides/api';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';
 
-export const canEditRides = (role: Role) => role === 'admin' || role === 'supervisor';
 const isStaff = (role: Role) => role !== 'operator';
-
-/** The ride's id from the route, one string whatever the router hands over. */
-export function useRideIdParam(): string {
-  const { id } = useLocalSearchParams<{ id: string }>();
-  return Array.isArray(id) ? (id[0] ?? '') : (id ?? '');
-}
 
 /**
  * One ride: identity, status (with its reason and since when), site and operator. Staff also see the
@@ -66,20 +60,6 @@ function RideDetail({ id, user }: { id: string; user: SessionUser }) {
     <QueryState query={ride}>
       {({ ride: r, design }) => <RideDetailBody ride={r} design={design} user={user} back={back} />}
     </QueryState>
-  );
-}
-
-export function RideNotFound({ back }: { back: { href: string; label: string } }) {
-  return (
-    <SubScreen title="Ride not found" back={back}>
-      <Card role="alert">
-        <Text variant="heading">There is no ride here for you.</Text>
-        <Text muted>
-          The link may be old, the ride may have been removed, or it belongs to a company whose rides you do
-          not see.
-        </Text>
-      </Card>
-    </SubScreen>
   );
 }
 

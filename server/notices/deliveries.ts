@@ -15,7 +15,7 @@ import { and, asc, eq, lte, or, sql } from 'drizzle-orm';
 import { photos } from '@/db/server/inspections';
 import { noticeDeliveries, notices, type NoticeDeliveryRow } from '@/db/server/notices';
 import { companies } from '@/db/server/schema';
-import { CAUTION_SHORT } from '@/components/caution-text';
+import { CAUTION_SHORT } from '@/lib/caution-text';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine';
 import { formatRatio } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
@@ -26,7 +26,8 @@ import { deliverOnce, sendingLeaseMs, type DeliveryHooks, type DeliveryOutcome }
 import { deliveryKey, type Mailer, type MailErrorInfo, type OutgoingMail } from '@/server/mail/mailer';
 import type { RetryPolicy } from '@/server/mail/retry';
 import { deliveriesQueued, onDeliveriesQueued } from '@/server/notices/nudge';
-import { formatCalendarDate, formatWhen, renderNoticePdf } from '@/server/notices/pdf';
+import { formatCalendarDate, formatWhen } from '@/lib/dates';
+import { renderNoticePdf } from '@/server/notices/pdf';
 import { escapeHtml, noticeSubject, rideStatusWords } from '@/server/notices/words';
 import { photoPathOf } from '@/server/sync/photo-store';
 

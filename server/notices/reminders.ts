@@ -26,7 +26,7 @@ import { severityInfo, type FindingSeverity } from '@/features/review/schema';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { deliveriesQueued } from '@/server/notices/nudge';
-import { formatCalendarDate } from '@/server/notices/pdf';
+import { formatCalendarDate } from '@/lib/dates';
 import { escapeHtml } from '@/server/notices/words';
 import { findingNumber } from '@/server/findings/findings';
 

@@ -3,7 +3,7 @@ import { alias } from 'drizzle-orm/sqlite-core';
 
 import { designVersions, users } from '@/db/server/schema';
 import type { SessionUser } from '@/features/auth/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { diffDesign, loosensALimit } from '@/features/registry/design-diff';
 import type {
   DesignDecisionBody,

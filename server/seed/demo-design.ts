@@ -1,4 +1,4 @@
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 
 /*
  * Design data for the six demo rides, as if copied from each maker's (invented) design document. Every

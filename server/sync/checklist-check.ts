@@ -10,7 +10,7 @@ import { and, eq } from 'drizzle-orm';
 import { checklistTemplateVersions } from '@/db/server/schema';
 import { passedOverLimitWithoutReason } from '@/features/inspections/checklist-limits';
 import type { ChecklistAnswer } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { type ChecklistContent, storedChecklistContentSchema } from '@/features/registry/schema';
 import { formatAgainstLimit } from '@/lib/measured-format';
 import type { Db } from '@/server/db';

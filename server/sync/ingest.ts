@@ -20,7 +20,7 @@ import {
   type Reading,
 } from '@/features/inspections/schema';
 import { zodIssues } from '@/lib/api-errors';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';

@@ -8,7 +8,7 @@ import type Database from 'better-sqlite3';
 
 import { plausibilityText, unconfirmedImplausible } from '@/features/inspections/plausibility';
 import type { Reading } from '@/features/inspections/schema';
-import { type DesignData, designDataSchema } from '@/features/registry/design-schema';
+import { type DesignData, designDataSchema } from '@/features/loads/design-schema';
 
 type Issue = { path: string; message: string };
 

@@ -4,9 +4,9 @@
  * x-axis turned by θ_i = q_0 + … + q_i; a point p goes to origin + R(θ)·p with R = [[cos, −sin], [sin, cos]]).
  */
 import { chainLayout, designPose, fitToView, niceLength, peakPose } from '@/features/registry/chain-geometry';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { analyseCycle } from '@/features/loads/engine';
-import { designToCycleInput } from '@/features/registry/design-schema';
+import { designToCycleInput } from '@/features/loads/design-schema';
 import { skylarkDesign } from '@/server/seed/demo-design';
 
 /** A two-body test chain (round numbers, not a ride): a 14 m arm carrying a 6 m sub-arm. */

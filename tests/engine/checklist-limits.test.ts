@@ -27,7 +27,7 @@ import {
   inspectionRecordSchema,
 } from '@/features/inspections/schema';
 import { DEFAULT_NEAR_MARGIN } from '@/features/loads/engine';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import {
   type ChecklistContent,
   type ChecklistItem,

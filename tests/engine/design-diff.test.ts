@@ -6,7 +6,7 @@
  */
 import * as fc from 'fast-check';
 
-import type { DesignData, DesignMotion, DesignPivot } from '@/features/registry/design-schema';
+import type { DesignData, DesignMotion, DesignPivot } from '@/features/loads/design-schema';
 import {
   type DesignChange,
   changeText,

@@ -14,7 +14,7 @@ import {
   plausibilityText,
   unconfirmedImplausible,
 } from '@/features/inspections/plausibility';
-import type { DesignMotion } from '@/features/registry/design-schema';
+import type { DesignMotion } from '@/features/loads/design-schema';
 import { toSI } from '@/lib/units';
 import { skylarkDesign } from '@/server/seed/demo-design';
 

@@ -1,5 +1,5 @@
 import { analyseCycle, STANDARD_GRAVITY_MS2 } from '@/features/loads/engine';
-import { designBodies, designDataSchema, designToCycleInput } from '@/features/registry/design-schema';
+import { designBodies, designDataSchema, designToCycleInput } from '@/features/loads/design-schema';
 import { demoRides } from '@/server/seed/demo';
 import {
   demoDesigns,

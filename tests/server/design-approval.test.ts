@@ -10,7 +10,7 @@ import { randomUUID } from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
 
 import { auditLog, designVersions } from '@/db/server/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import { designAuditLines, entryChanges } from '@/features/registry/audit-diff';
 import {
   auditListResponseSchema,

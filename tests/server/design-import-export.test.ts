@@ -16,7 +16,7 @@ import {
   partKinds,
   type DesignData,
   type DesignPart,
-} from '@/features/registry/design-schema';
+} from '@/features/loads/design-schema';
 import {
   designImportCheckResponseSchema,
   designResponseSchema,

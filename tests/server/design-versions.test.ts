@@ -2,7 +2,7 @@ import { count, eq } from 'drizzle-orm';
 
 import { auditLog, designVersions } from '@/db/server/schema';
 import { analyseCycle } from '@/features/loads/engine';
-import { designToCycleInput, type DesignData } from '@/features/registry/design-schema';
+import { designToCycleInput, type DesignData } from '@/features/loads/design-schema';
 import {
   designResponseSchema,
   designVersionListResponseSchema,

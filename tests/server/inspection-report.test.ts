@@ -9,7 +9,7 @@ import path from 'node:path';
 import request from 'supertest';
 
 import { users } from '@/db/server/schema';
-import { CAUTION_FULL } from '@/components/caution-text';
+import { CAUTION_FULL } from '@/lib/caution-text';
 import { hashPassword } from '@/server/auth/password';
 import { renderInspectionReportPdf } from '@/server/reports/inspection-report-pdf';
 import { inspectionReport } from '@/server/reports/inspection-report';

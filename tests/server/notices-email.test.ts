@@ -8,7 +8,7 @@ import { eq } from 'drizzle-orm';
 
 import { noticeDeliveries, notices } from '@/db/server/notices';
 import { companies } from '@/db/server/schema';
-import { CAUTION_SHORT } from '@/components/caution-text';
+import { CAUTION_SHORT } from '@/lib/caution-text';
 import { noticeDetailSchema, noticeListResponseSchema } from '@/features/notices/schema';
 import { retryPolicy } from '@/server/mail/retry';
 import {
@@ -17,7 +17,7 @@ import {
   requeueNotice,
   startDeliveryLoop,
 } from '@/server/notices/deliveries';
-import { formatCalendarDate } from '@/server/notices/pdf';
+import { formatCalendarDate } from '@/lib/dates';
 
 import { expectApiError, makeTestServer } from './helpers';
 import {

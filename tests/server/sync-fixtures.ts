@@ -10,7 +10,7 @@ import { designVersions, rides } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/inspections/analysis';
 import { checkAgainstDesign } from '@/features/inspections/plausibility';
 import type { InspectionRecord, PhotoRef, Reading } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 import type { Db } from '@/server/db';
 
 export const sha256Hex = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');

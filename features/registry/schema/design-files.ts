@@ -1,5 +1,5 @@
 import { changeReasonSchema } from '@/features/registry/schema/design';
-import { designDataSchema } from '@/features/registry/design-schema';
+import { designDataSchema } from '@/features/loads/design-schema';
 import { z } from 'zod';
 
 // ——— design data import and export ———

@@ -1,5 +1,5 @@
 import { id, requiredText } from '@/features/registry/schema/fields';
-import { designDataSchema } from '@/features/registry/design-schema';
+import { designDataSchema } from '@/features/loads/design-schema';
 import { rideSummarySchema } from '@/features/rides/schema';
 import { z } from 'zod';
 

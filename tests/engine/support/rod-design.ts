@@ -1,4 +1,4 @@
-import type { DesignData } from '@/features/registry/design-schema';
+import type { DesignData } from '@/features/loads/design-schema';
 
 /**
  * A uniform slender rod pinned at one end, as design data: the textbook body whose pin force when

@@ -7,7 +7,7 @@
 import { createHash } from 'node:crypto';
 import { deflateSync } from 'node:zlib';
 
-import { CAUTION_FULL } from '@/components/caution-text';
+import { CAUTION_FULL } from '@/lib/caution-text';
 import type { NoticeDocument } from '@/features/notices/schema';
 
 // ——— photos ———
