@@ -1,6 +1,6 @@
 import { StyleSheet, View } from 'react-native';
 
-import { CAUTION_FULL, CAUTION_SHORT } from '@/components/caution-text';
+import { CAUTION_FULL, CAUTION_SHORT } from '@/lib/caution-text';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 

@@ -1,6 +1,6 @@
 /**
  * The words the server prints on notices and e-mails, in one place. Severity words come from
- * `severityInfo` (features/review/schema.ts) and the caution from components/caution-text.ts.
+ * `severityInfo` (features/review/schema.ts) and the caution from lib/caution-text.ts.
  */
 import type { Role } from '@/features/auth/schema';
 import type { NoticeDocument } from '@/features/notices/schema';
@@ -42,6 +42,10 @@ export function noticeSubject(doc: Pick<NoticeDocument, 'reference' | 'kind' | '
       : `ride status: ${rideStatusWords[doc.operatingStatus.status].toLowerCase()}`;
   return `${doc.reference} · ${doc.ride.name} · ${what}`;
 }
+
+/** A value as printed, or the words for its absence. */
+export const orNot = (v: string | number | null | undefined, missing = 'Not recorded') =>
+  v === null || v === undefined || v === '' ? missing : String(v);
 
 /** HTML-escapes text for the e-mail bodies. */
 export function escapeHtml(text: string): string {

@@ -6,7 +6,10 @@
  */
 import PDFDocument from 'pdfkit';
 
-import { CAUTION_FULL } from '@/components/caution-text';
+import { CAUTION_FULL } from '@/lib/caution-text';
+import { colors as C } from '@/lib/colors';
+import { formatWhen } from '@/lib/dates';
+import { checkResultVocabulary } from '@/lib/vocabulary';
 import type { ChecklistAnswer, Reading } from '@/features/inspections/schema';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine/envelope';
@@ -22,31 +25,18 @@ import {
   formatMeasurement,
   formatReading,
   formatSpread,
-  readingKindLabel,
   reviewStateLabel,
 } from '@/features/review/review-format';
+import { readingKindLabel } from '@/features/inspections/schema';
 import { severityInfo } from '@/features/review/schema';
 import { rideClassLabel, type RideClass } from '@/features/rides/schema';
-import { FONT_FILES, fontDir, fonts, pdfColors as C } from '@/server/notices/pdf';
+import { orNot } from '@/server/notices/words';
+import { FONT_FILES, fontDir, fonts } from '@/server/pdf/fonts';
 import type { InspectionReport } from '@/server/reports/inspection-report';
 
 export type ReportPaper = 'A4' | 'LETTER';
 
 const MARGIN = 50;
-const checkWords = { pass: 'Pass', fail: 'Fail', na: 'Not applicable' } as const;
-
-/** "3 Dec 2026, 14:05 UTC": the record's times are UTC, and the report says so. */
-function when(iso: string): string {
-  const d = new Date(iso);
-  if (Number.isNaN(d.getTime())) return iso;
-  const months = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
-  const hh = String(d.getUTCHours()).padStart(2, '0');
-  const mm = String(d.getUTCMinutes()).padStart(2, '0');
-  return `${d.getUTCDate()} ${months[d.getUTCMonth()]} ${d.getUTCFullYear()}, ${hh}:${mm} UTC`;
-}
-
-const orNot = (v: string | number | null | undefined) =>
-  v === null || v === undefined || v === '' ? 'Not recorded' : String(v);
 
 /** A reading's value as recorded: the inspector's own digits when the record kept them (one rule). */
 function readingValue(r: Reading): string {
@@ -117,7 +107,7 @@ function identity(doc: Doc, r: InspectionReport) {
   pairs(doc, [
     ['Ride', r.ride.name],
     ['Class', rideClassLabel[r.ride.rideClass as RideClass] ?? r.ride.rideClass],
-    ['Maker, model, serial', [r.ride.maker, r.ride.model, r.ride.serial].map(orNot).join(' · ')],
+    ['Maker, model, serial', [r.ride.maker, r.ride.model, r.ride.serial].map((v) => orNot(v)).join(' · ')],
     ['Site', orNot(r.ride.siteName)],
     ['Operator', r.ride.operatorName],
   ]);
@@ -125,9 +115,9 @@ function identity(doc: Doc, r: InspectionReport) {
   pairs(doc, [
     ['Type', inspectionTypeLabel[i.type] ?? i.type],
     ['Inspector', i.inspectorName],
-    ['Started', when(i.startedAt)],
-    ['Submitted on the phone', when(i.submittedAt)],
-    ['Received by the server', when(i.receivedAt)],
+    ['Started', formatWhen(i.startedAt)],
+    ['Submitted on the phone', formatWhen(i.submittedAt)],
+    ['Received by the server', formatWhen(i.receivedAt)],
     ['Design data', i.designVersion ? `Version ${i.designVersion}` : 'None on record'],
     ['Review', reviewStateLabel[i.reviewState]],
     ...(i.reviewNote ? [['Reviewer’s note', i.reviewNote] as [string, string]] : []),
@@ -151,7 +141,7 @@ function declaration(doc: Doc, r: InspectionReport) {
   doc
     .moveDown(0.3)
     .fillColor(C.textMuted)
-    .text(`Declared by ${d.declaredByName} on ${when(d.declaredAt)}.`);
+    .text(`Declared by ${d.declaredByName} on ${formatWhen(d.declaredAt)}.`);
 }
 
 function checklist(doc: Doc, r: InspectionReport) {
@@ -162,7 +152,13 @@ function checklist(doc: Doc, r: InspectionReport) {
     const note = [a.note, reason ? `Over its limit, passed because: ${reason}` : null]
       .filter(Boolean)
       .join(' · ');
-    return [a.area, a.text, a.result ? checkWords[a.result] : 'Not answered', checklistValue(a), note];
+    return [
+      a.area,
+      a.text,
+      a.result ? checkResultVocabulary[a.result].label : 'Not answered',
+      checklistValue(a),
+      note,
+    ];
   });
   table(doc, ['Area', 'Item', 'Result', 'Measured', 'Note'], rows, [70, '*', 58, 70, 120]);
 }
@@ -182,7 +178,7 @@ function readings(doc: Doc, r: InspectionReport) {
       `${x.label || readingKindLabel[x.kind]}${x.joint === null ? '' : ` (P${x.joint + 1})`}`,
       readingValue(x),
       measuredWithWords(x),
-      when(x.takenAt),
+      formatWhen(x.takenAt),
       notes.join(' · '),
     ];
   });
@@ -194,7 +190,7 @@ function photos(doc: Doc, r: InspectionReport) {
   const rows = r.inspection.photos.map((p) => [
     p.caption || 'No caption',
     p.joint === null ? '' : `P${p.joint + 1}`,
-    when(p.takenAt),
+    formatWhen(p.takenAt),
     `${p.sha256.slice(0, 16)}…`,
     p.received ? 'Received' : 'Not yet received',
   ]);
@@ -254,7 +250,7 @@ function footers(doc: Doc, r: InspectionReport) {
       .fontSize(7.5)
       .fillColor(C.textMuted)
       .text(
-        `Pivotwatch inspection report · ${r.ride.name} · copy for ${r.printedFor}, ${when(r.printedAt)} · page ${p - range.start + 1} of ${range.count}`,
+        `Pivotwatch inspection report · ${r.ride.name} · copy for ${r.printedFor}, ${formatWhen(r.printedAt)} · page ${p - range.start + 1} of ${range.count}`,
         MARGIN,
         y,
         { width: doc.page.width - 2 * MARGIN, lineBreak: false },
@@ -295,7 +291,7 @@ export function renderInspectionReportPdf(r: InspectionReport, paper: ReportPape
     .font('semibold')
     .fontSize(12)
     .fillColor(C.text)
-    .text(`${r.ride.name} — ${when(i.submittedAt)}`);
+    .text(`${r.ride.name} — ${formatWhen(i.submittedAt)}`);
   identity(doc, r);
   declaration(doc, r);
   checklist(doc, r);

@@ -4,14 +4,12 @@
  * the photos and the fonts.
  */
 import { execFileSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
 import path from 'node:path';
 
-import { CAUTION_FULL } from '@/components/caution-text';
+import { CAUTION_FULL } from '@/lib/caution-text';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
 import { severityInfo } from '@/features/review/schema';
-import { pdfColors, renderNoticePdf, type PhotoLoader } from '@/server/notices/pdf';
-import { repoRoot } from '@/server/paths';
+import { renderNoticePdf, type PhotoLoader } from '@/server/notices/pdf';
 import {
   fixtureNotice,
   fixturePhotos,
@@ -270,9 +268,4 @@ test('a ride status notice without an inspection renders with its own title and 
   expect(flat).toContain('RE-INSPECTION NEEDED No');
   expect(flat).toContain('No findings were recorded.');
   expect(flat).toContain(CAUTION_FULL);
-});
-
-test('the PDF palette is the app palette (components/theme.ts)', () => {
-  const theme = readFileSync(path.join(repoRoot, 'components', 'theme.ts'), 'utf8');
-  for (const [name, value] of Object.entries(pdfColors)) expect(theme).toContain(`${name}: '${value}'`);
 });
