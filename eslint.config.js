@@ -1,10 +1,35 @@
-// Flat config: Expo's recommended rules, with prettier handling formatting separately.
+// Flat config: Expo's recommended rules, with prettier handling formatting separately, plus the import
+// rules that keep the layers pointing one way (DEVELOPERS.md, "Layers"). The zones come from
+// lint/layers.js, which a test also reads to prove that a planted violation fails.
 const { defineConfig } = require('eslint/config');
 const expoConfig = require('eslint-config-expo/flat');
+
+const { layerZones } = require('./lint/layers');
 
 module.exports = defineConfig([
   expoConfig,
   {
-    ignores: ['dist/*', 'data/*', 'artifacts/*', 'coverage/*', 'drizzle/*', '.expo/*'],
+    ignores: [
+      'dist/*',
+      'data/*',
+      'artifacts/*',
+      'coverage/*',
+      'drizzle/*',
+      '.expo/*',
+      'tests/lint-fixtures/*',
+    ],
+  },
+  {
+    settings: {
+      // Resolves the `@/…` alias through tsconfig.json, so the import rules see where each import goes.
+      'import/resolver': {
+        typescript: { project: './tsconfig.json' },
+        node: { extensions: ['.js', '.jsx', '.ts', '.tsx', '.web.ts', '.web.tsx', '.d.ts'] },
+      },
+    },
+    rules: {
+      'import/no-cycle': ['error', { ignoreExternal: true }],
+      'import/no-restricted-paths': ['error', { zones: layerZones(__dirname) }],
+    },
   },
 ]);

@@ -12,7 +12,11 @@ module.exports = {
     {
       displayName: 'node',
       testEnvironment: 'node',
-      testMatch: ['<rootDir>/tests/engine/**/*.test.ts', '<rootDir>/tests/server/**/*.test.ts'],
+      testMatch: [
+        '<rootDir>/tests/engine/**/*.test.ts',
+        '<rootDir>/tests/server/**/*.test.ts',
+        '<rootDir>/tests/lint/**/*.test.ts',
+      ],
       moduleNameMapper: alias,
       // jose ships ES modules only; ts-jest (allowJs) turns it into CommonJS for the node project.
       transformIgnorePatterns: ['/node_modules/(?!jose/)'],

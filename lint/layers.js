@@ -1,0 +1,99 @@
+// The one-way layers of Pivotwatch as eslint-plugin-import `no-restricted-paths` zones. DEVELOPERS.md
+// ("Layers") draws the same picture; tests/lint/layers.test.ts plants violations and expects them to fail.
+const path = require('path');
+
+/** Features from the bottom up: a feature may import the ones before it, never the ones after it. */
+const featureOrder = [
+  'api',
+  'auth',
+  'settings',
+  'admin',
+  'photos',
+  'tap-timer',
+  'rides',
+  'loads',
+  'registry',
+  'device-db',
+  'instruments',
+  'sync',
+  'inspections',
+  'notices',
+  'review',
+  'ride-page',
+  'home',
+  'shell',
+];
+
+/**
+ * The contracts: zod shapes shared by the phone and the server, and the pure load engine. Any feature and
+ * the server may import them; they import only lib/ and other contracts.
+ */
+const contractGlobs = [
+  'features/*/schema.ts',
+  'features/*/*-schema.ts',
+  'features/*/schema/**',
+  'features/loads/engine/**',
+];
+
+function layerZones(root) {
+  const abs = (p) => path.join(root, p);
+  const contracts = contractGlobs.map(abs);
+  const zones = [
+    {
+      target: './lib',
+      from: ['./features', './components', './app', './server', './db', './scripts', './bench', './tests'],
+      message: 'lib/ holds pure helpers and imports nothing of ours.',
+    },
+    {
+      target: './components',
+      from: ['./features', './app', './server', './db', './scripts', './bench', './tests'],
+      message: 'components/ is the UI kit: it imports lib/ only, never a feature.',
+    },
+    {
+      target: './features',
+      from: ['./app', './server', './db/server', './scripts', './bench', './tests'],
+      message: 'features/ never imports routes, the server, scripts or tests.',
+    },
+    {
+      target: './server',
+      from: ['./app', './components', './tests'],
+      message:
+        'The server imports lib/, db/, feature contracts and pure feature modules; never React UI or routes.',
+    },
+    {
+      target: './db',
+      from: ['./app', './components', './server', './scripts', './bench', './tests'],
+      message: 'db/ imports lib/ and feature contracts only.',
+    },
+    {
+      target: './db',
+      from: abs('features/**'),
+      except: contracts,
+      message: 'db/ imports lib/ and feature contracts only.',
+    },
+    {
+      target: ['./app', './scripts', './bench'],
+      from: './tests',
+      message: 'Nothing outside tests/ imports from tests/.',
+    },
+    {
+      target: contracts,
+      from: [abs('features/**'), abs('components/**'), abs('app/**'), abs('server/**')],
+      except: contracts,
+      message: 'A contract (schema or engine) imports only lib/ and other contracts.',
+    },
+  ];
+  featureOrder.forEach((feature, i) => {
+    const higher = featureOrder.slice(i + 1);
+    if (higher.length === 0) return;
+    zones.push({
+      target: `./features/${feature}`,
+      from: higher.map((f) => abs(`features/${f}/**`)),
+      except: contracts,
+      message: `features/${feature} sits below ${higher.join(', ')} (DEVELOPERS.md, "Layers"): only their contracts may be imported.`,
+    });
+  });
+  return zones;
+}
+
+module.exports = { featureOrder, contractGlobs, layerZones };
