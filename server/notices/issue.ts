@@ -6,86 +6,39 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, ne, sql } from 'drizzle-orm';
 
-import { inspectionPhotos, inspections } from '@/db/server/inspections';
+import { inspections } from '@/db/server/inspections';
 import { noticeDeliveries, noticeFindings, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
-import { companies, designVersions, rides, sites, users } from '@/db/server/schema';
+import { designVersions, users } from '@/db/server/schema';
 import { CAUTION_FULL } from '@/lib/caution-text';
-import {
-  formatBesideLimit,
-  formatEnvelopeItem,
-  measuredSources,
-  sortByConcern,
-} from '@/features/loads/format';
+import { formatBesideLimit, measuredSources } from '@/features/loads/format';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
-import { severityInfo } from '@/features/review/schema';
 import { rideClassLabel } from '@/features/rides/schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { deliveryKey } from '@/server/mail/mailer';
 import { deliveriesQueued } from '@/server/notices/nudge';
-import { appealText, noticeReference, rideStatusWords, roleWords } from '@/server/notices/words';
-import { recordAudit } from '@/server/registry/audit';
+import { appealText, noticeReference } from '@/server/notices/words';
 import { numberRideFindings } from '@/server/findings/findings';
+import {
+  documentFindings,
+  inspectionPart,
+  issuerOf,
+  joinLines,
+  reinspectionOf,
+  resultsOf,
+  rideContext,
+  signerOf,
+  withCause,
+} from '@/server/notices/document-parts';
+import { recordAudit } from '@/server/registry/audit';
 
 export type NoticeTx = Pick<Db, 'select' | 'insert' | 'update' | 'run' | 'get' | 'all'>;
 
 export type IssuedNotice = { id: string; reference: string; recipients: string[] };
-
-type FindingRow = typeof findings.$inferSelect;
-
-/** The inspection body issuing notices: the register's (first) inspection-body company. */
-function issuerOf(tx: NoticeTx): NoticeDocument['issuer'] {
-  const body = tx
-    .select({ name: companies.name, address: companies.address, phone: companies.phone })
-    .from(companies)
-    .where(eq(companies.kind, 'inspection_body'))
-    .orderBy(asc(companies.createdAt))
-    .get();
-  return body ?? { name: 'The inspection body', address: null, phone: null };
-}
-
-function rideContext(tx: NoticeTx, rideId: string) {
-  const ride = tx
-    .select({
-      id: rides.id,
-      name: rides.name,
-      rideClass: rides.rideClass,
-      maker: rides.maker,
-      model: rides.model,
-      serial: rides.serial,
-      year: rides.year,
-      status: rides.status,
-      statusReason: rides.statusReason,
-      operatorId: companies.id,
-      operatorName: companies.name,
-      operatorAddress: companies.address,
-      noticeEmails: companies.noticeEmails,
-      siteName: sites.name,
-      siteAddress: sites.address,
-      siteLocality: sites.locality,
-    })
-    .from(rides)
-    .innerJoin(companies, eq(companies.id, rides.operatorCompanyId))
-    .leftJoin(sites, eq(sites.id, rides.siteId))
-    .where(eq(rides.id, rideId))
-    .get();
-  if (!ride) throw notFound('No such ride.');
-  return ride;
-}
-
-function signerOf(tx: NoticeTx, userId: string, signedAt: string): NoticeDocument['signature'] {
-  const user = tx
-    .select({ name: users.name, role: users.role })
-    .from(users)
-    .where(eq(users.id, userId))
-    .get();
-  if (!user) throw notFound('No such user.');
-  return { name: user.name, role: roleWords[user.role], signedAt };
-}
 
 /** The next reference of the year. Sequential because every issue runs in a write transaction. */
 function nextReference(tx: NoticeTx, year: number) {
@@ -97,75 +50,6 @@ function nextReference(tx: NoticeTx, year: number) {
   const seq = (last?.seq ?? 0) + 1;
   return { year, seq, reference: noticeReference(year, seq) };
 }
-
-/** Photo captions of the inspections the findings belong to, by inspection and SHA-256. */
-function captionsFor(tx: NoticeTx, rows: FindingRow[]) {
-  const ids = [...new Set(rows.map((f) => f.inspectionId))];
-  const captions = new Map<string, string>();
-  if (ids.length === 0) return captions;
-  for (const p of tx
-    .select({
-      inspectionId: inspectionPhotos.inspectionId,
-      sha256: inspectionPhotos.sha256,
-      caption: inspectionPhotos.caption,
-    })
-    .from(inspectionPhotos)
-    .where(inArray(inspectionPhotos.inspectionId, ids))
-    .all())
-    captions.set(`${p.inspectionId}:${p.sha256}`, p.caption);
-  return captions;
-}
-
-function documentFindings(tx: NoticeTx, rows: FindingRow[]): NoticeDocument['findings'] {
-  const captions = captionsFor(tx, rows);
-  return rows.map((f) => ({
-    id: f.id,
-    number: f.rideNumber ?? f.number,
-    severity: f.severity,
-    description: f.description,
-    ruleRef: f.ruleRef,
-    requiredAction: f.requiredAction,
-    dueOn: f.dueOn,
-    state: f.state,
-    photos: f.photoShas.map((sha256, i) => ({
-      sha256,
-      caption: captions.get(`${f.inspectionId}:${sha256}`) ?? `Photo ${i + 1}`,
-    })),
-  }));
-}
-
-/**
- * Re-inspection is needed when a finding that stops operation is still open, or the ride is not in plain
- * service: only a competent person's check can put it back.
- */
-function reinspectionOf(
-  docFindings: NoticeDocument['findings'],
-  status: NoticeDocument['operatingStatus'],
-): NoticeDocument['reinspection'] {
-  const blocking = docFindings.filter((f) => f.state !== 'closed' && !severityInfo[f.severity].mayOperate);
-  if (blocking.length > 0) {
-    const list = blocking.map((f) => f.number).join(', ');
-    return {
-      required: true,
-      reason:
-        `Finding${blocking.length > 1 ? 's' : ''} ${list} must be corrected and verified closed by the ` +
-        'inspection body, and a follow-up inspection approved, before the ride carries riders again.',
-    };
-  }
-  if (status.status !== 'in_service')
-    return {
-      required: true,
-      reason:
-        `The ride is ${rideStatusWords[status.status].toLowerCase()}; it returns to service only after an ` +
-        'approved follow-up inspection or a supervisor’s recorded override.',
-    };
-  return { required: false, reason: null };
-}
-
-const joinLines = (...parts: (string | null)[]) => {
-  const text = parts.filter((p): p is string => !!p && p.trim() !== '').join('\n');
-  return text === '' ? null : text;
-};
 
 type Common = { userId: string; now: Date; appUrl: string };
 
@@ -455,68 +339,5 @@ export function issueStatusNotice(
     operatorId: ride.operatorId,
     noticeEmails: ride.noticeEmails,
     findingIds: rows.map((f) => f.id),
-  });
-}
-
-const withCause = (status: NoticeDocument['operatingStatus'], cause: string | null | undefined) =>
-  cause ? { ...status, reason: status.reason ? `${status.reason} — ${cause}` : cause } : status;
-
-/** The inspection block and its results against the limits, as an inspection notice shows them. */
-function inspectionPart(tx: NoticeTx, inspectionId: string) {
-  const row = tx
-    .select({
-      id: inspections.id,
-      type: inspections.type,
-      startedAt: inspections.startedAt,
-      analysis: inspections.analysis,
-      record: inspections.record,
-      inspectorName: users.name,
-    })
-    .from(inspections)
-    .innerJoin(users, eq(users.id, inspections.inspectorId))
-    .where(eq(inspections.id, inspectionId))
-    .get();
-  if (!row) throw notFound('No such inspection.');
-  return {
-    inspection: {
-      id: row.id,
-      type: row.type,
-      typeLabel: `${inspectionTypeLabel[row.type]} inspection`,
-      date: row.startedAt.slice(0, 10),
-      inspectorName: row.inspectorName,
-      inspectorCredential: null,
-      designVersion: row.analysis?.designVersion ?? null,
-      engineVersion: row.analysis?.engineVersion ?? null,
-    },
-    results: row.analysis ? resultsOf(row.analysis.envelope, measuredSources(row.record)) : [],
-  };
-}
-
-/**
- * Each value against its limit, formatted once by the one rule (lib/measured-format.ts) and frozen, so the
- * app, the e-mail and the PDF print the same strings; measured values as the inspector typed them.
- */
-export function resultsOf(
-  envelope: Parameters<typeof sortByConcern>[0],
-  sources: ReturnType<typeof measuredSources>,
-): NoticeDocument['results'] {
-  return sortByConcern(envelope).map((item) => {
-    const source = sources.get(item.id);
-    const shown = formatEnvelopeItem(item, 'si', source);
-    return {
-      label: item.label,
-      value: shown.value,
-      limit: shown.limit,
-      ratio: Number.isFinite(item.ratio) ? item.ratio : null,
-      status: item.status,
-      ...(Number.isFinite(item.value) && {
-        measured: {
-          valueSI: item.value,
-          quantity: item.quantity,
-          entered: source?.entered ?? null,
-          unit: source?.unit ?? null,
-        },
-      }),
-    };
   });
 }

@@ -4,7 +4,7 @@
  */
 import { measuredSources } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
-import { resultsOf } from '@/server/notices/issue';
+import { resultsOf } from '@/server/notices/document-parts';
 import { limitEnvelope, limitReadings } from '@/tests/engine/support/limit-values';
 import { fixtureNotice } from '@/tests/server/support/notice-fixture';
 
