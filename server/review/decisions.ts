@@ -12,19 +12,19 @@ import type { z } from 'zod';
 import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { inspectionSchedules } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { formatEnvelopeItem, measuredSources } from '@/features/loads/format';
-import { severityInfo, type decisionInputSchema, type DecisionResponse } from '@/features/review/schema';
-import { checkTransition, eventForStatus } from '@/features/rides/status-rules';
+import { type decisionInputSchema, type DecisionResponse } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
+import { checkTransition, eventForStatus, type RideStatus } from '@/features/rides/status-rules';
 import type { Db } from '@/server/db';
+import { findingNumber, mustSeeInspection, type InspectionHead } from '@/server/findings/findings';
 import { conflict } from '@/server/http/errors';
-import { recordAudit } from '@/server/registry/audit';
-import { updateSchedule } from '@/server/registry/schedules';
-import { dateOf } from '@/server/schedule-due';
-import { mustSeeInspection, type InspectionHead } from '@/server/findings/findings';
 import { issueInspectionNotice, issueStatusNotice } from '@/server/notices/issue';
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { recordAudit } from '@/server/registry/audit';
 import { mustFindRide } from '@/server/registry/rides';
-import { findingNumber } from '@/server/findings/findings';
+import { updateSchedule } from '@/server/registry/schedules';
 import {
   applyStatus,
   blockingSeverities,
@@ -34,7 +34,7 @@ import {
   openBlockingFindings,
   type AppliedChange,
 } from '@/server/review/ride-status';
-import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { dateOf } from '@/server/schedule-due';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
 
@@ -85,6 +85,160 @@ export function causesOf(tx: Pick<Db, 'select'>, inspectionId: string) {
   };
 }
 
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** A decision is made once, and on the latest version: an amended original waits for its amendment. */
+function mustBeUndecided(tx: Tx, before: InspectionHead) {
+  if (before.reviewState !== 'submitted')
+    throw conflict(
+      `This inspection was already ${pastTense[before.reviewState]}` +
+        `${before.reviewedByName ? ` by ${before.reviewedByName}` : ''}` +
+        `${before.reviewedAt ? ` on ${before.reviewedAt.slice(0, 10)}` : ''}; a decision is made once.`,
+      'already_decided',
+    );
+  const amendment = tx
+    .select({ id: inspections.id })
+    .from(inspections)
+    .where(eq(inspections.amendsId, before.id))
+    .get();
+  if (amendment)
+    throw conflict(
+      'The inspector has sent an amendment of this inspection; decide on the amendment instead.',
+      'amended',
+    );
+}
+
+/** An approval records the inspection as done on the ride's schedule of its type. */
+function recordDoneOnSchedule(db: Db, tx: Tx, user: SessionUser, before: InspectionHead, now: Date) {
+  const doneOn = dateOf(new Date(before.submittedAt));
+  const schedule = tx
+    .select({ id: inspectionSchedules.id, lastDoneOn: inspectionSchedules.lastDoneOn })
+    .from(inspectionSchedules)
+    .where(
+      and(eq(inspectionSchedules.rideId, before.rideId), eq(inspectionSchedules.inspectionType, before.type)),
+    )
+    .get();
+  // The registry's own update: the due date moves the same way, and the audit log records it. `db`,
+  // not `tx`: on this one connection it runs as a savepoint inside this transaction.
+  if (schedule && (schedule.lastDoneOn === null || doneOn > schedule.lastDoneOn))
+    updateSchedule(db, user.id, schedule.id, { lastDoneOn: doneOn }, now);
+}
+
+/**
+ * The ride's status, under the rules: the status the decision asks for, else (an approved follow-up on a
+ * ride not in service) the way back to service when nothing still forbids operation.
+ */
+function decidedStatus(
+  tx: Tx,
+  user: SessionUser,
+  before: InspectionHead,
+  ride: { status: RideStatus },
+  d: { input: DecisionInput; reviewState: 'approved' | 'returned'; analysisOver: number; now: Date },
+): AppliedChange | null {
+  const { input, reviewState, analysisOver, now } = d;
+  let change: AppliedChange | null = null;
+  const asked = input.rideStatus;
+  const askedEvent = asked ? eventForStatus(ride.status, asked.status) : null;
+  if (asked && askedEvent) {
+    const check = mustTransition(ride.status, askedEvent, user.role, { reason: asked.reason }, 'rideStatus.');
+    change = applyStatus(tx, {
+      userId: user.id,
+      rideId: before.rideId,
+      event: askedEvent,
+      to: check.to,
+      override: check.override,
+      reason: check.override ? `Override by ${user.name}: ${asked.reason}` : asked.reason,
+      now,
+      inspectionId: before.id,
+    });
+  } else if (
+    !asked &&
+    reviewState === 'approved' &&
+    before.type === 'follow_up' &&
+    ride.status !== 'in_service'
+  ) {
+    // The follow-up path back to service: only when nothing still forbids operation.
+    const check = checkTransition(ride.status, 'follow_up_approved', user.role, {
+      inspectionType: before.type,
+      openBlockingFindings: openBlockingFindings(tx, before.rideId),
+      overLimitValues: analysisOver,
+    });
+    if (check.ok)
+      change = applyStatus(tx, {
+        userId: user.id,
+        rideId: before.rideId,
+        event: 'follow_up_approved',
+        to: check.to,
+        override: false,
+        reason: null,
+        now,
+        inspectionId: before.id,
+      });
+  }
+  return change;
+}
+
+/**
+ * An approval never leaves a ride running on what this inspection found: a finding that forbids
+ * operation needs it out of service, a value over its limit at least restricted.
+ */
+function assertApprovalStops(
+  reviewState: 'approved' | 'returned',
+  causes: { blocking: number; over: number },
+  statusAfter: RideStatus,
+) {
+  const analysisOver = causes.over;
+  if (reviewState === 'approved' && causes.blocking > 0 && statusAfter !== 'out_of_service')
+    throw conflict(
+      `${causes.blocking} finding(s) of this inspection forbid operation, so approving it sets the ride ` +
+        'out of service: send the decision with the ride status out of service and a reason.',
+      'stop_required',
+    );
+  if (reviewState === 'approved' && analysisOver > 0 && statusAfter === 'in_service')
+    throw conflict(
+      `${analysisOver} value(s) of this inspection are over their limits, so approving it needs the ride ` +
+        'out of service or restricted (with a reason); return it if the values are wrong.',
+      'stop_required',
+    );
+}
+
+/** The decision's one notice: an approval's inspection notice, or a return's status notice if it stopped. */
+function decisionNotice(
+  tx: Tx,
+  user: SessionUser,
+  before: InspectionHead,
+  d: {
+    reviewState: 'approved' | 'returned';
+    change: AppliedChange | null;
+    statusCause: string | null;
+    reason: string | null;
+    now: Date;
+    appUrl: string;
+  },
+) {
+  const { reviewState, change, statusCause, now, appUrl } = d;
+  return reviewState === 'approved'
+    ? issueInspectionNotice(tx, {
+        inspectionId: before.id,
+        userId: user.id,
+        now,
+        appUrl,
+        statusChanged: change !== null,
+        statusCause,
+      })
+    : change
+      ? issueStatusNotice(tx, {
+          rideId: before.rideId,
+          userId: user.id,
+          now,
+          appUrl,
+          reason: d.reason,
+          inspectionId: before.id,
+          statusCause,
+        })
+      : null;
+}
+
 export function decideInspection(
   db: Db,
   user: SessionUser,
@@ -96,23 +250,7 @@ export function decideInspection(
 ): DecisionResponse {
   return db.transaction((tx) => {
     const before = mustSeeInspection(tx, user, inspectionId);
-    if (before.reviewState !== 'submitted')
-      throw conflict(
-        `This inspection was already ${pastTense[before.reviewState]}` +
-          `${before.reviewedByName ? ` by ${before.reviewedByName}` : ''}` +
-          `${before.reviewedAt ? ` on ${before.reviewedAt.slice(0, 10)}` : ''}; a decision is made once.`,
-        'already_decided',
-      );
-    const amendment = tx
-      .select({ id: inspections.id })
-      .from(inspections)
-      .where(eq(inspections.amendsId, before.id))
-      .get();
-    if (amendment)
-      throw conflict(
-        'The inspector has sent an amendment of this inspection; decide on the amendment instead.',
-        'amended',
-      );
+    mustBeUndecided(tx, before);
 
     const reviewState = input.decision === 'approve' ? 'approved' : 'returned';
     const ride = mustFindRide(tx, before.rideId);
@@ -137,111 +275,24 @@ export function decideInspection(
       after: stateOf(after),
     });
 
-    if (reviewState === 'approved') {
-      const doneOn = dateOf(new Date(before.submittedAt));
-      const schedule = tx
-        .select({ id: inspectionSchedules.id, lastDoneOn: inspectionSchedules.lastDoneOn })
-        .from(inspectionSchedules)
-        .where(
-          and(
-            eq(inspectionSchedules.rideId, before.rideId),
-            eq(inspectionSchedules.inspectionType, before.type),
-          ),
-        )
-        .get();
-      // The registry's own update: the due date moves the same way, and the audit log records it. `db`,
-      // not `tx`: on this one connection it runs as a savepoint inside this transaction.
-      if (schedule && (schedule.lastDoneOn === null || doneOn > schedule.lastDoneOn))
-        updateSchedule(db, user.id, schedule.id, { lastDoneOn: doneOn }, now);
-    }
+    if (reviewState === 'approved') recordDoneOnSchedule(db, tx, user, before, now);
 
-    // ——— the ride's status, under the rules ———
-    let change: AppliedChange | null = null;
-    const asked = input.rideStatus;
-    const askedEvent = asked ? eventForStatus(ride.status, asked.status) : null;
-    if (asked && askedEvent) {
-      const check = mustTransition(
-        ride.status,
-        askedEvent,
-        user.role,
-        { reason: asked.reason },
-        'rideStatus.',
-      );
-      change = applyStatus(tx, {
-        userId: user.id,
-        rideId: before.rideId,
-        event: askedEvent,
-        to: check.to,
-        override: check.override,
-        reason: check.override ? `Override by ${user.name}: ${asked.reason}` : asked.reason,
-        now,
-        inspectionId: before.id,
-      });
-    } else if (
-      !asked &&
-      reviewState === 'approved' &&
-      before.type === 'follow_up' &&
-      ride.status !== 'in_service'
-    ) {
-      // The follow-up path back to service: only when nothing still forbids operation.
-      const check = checkTransition(ride.status, 'follow_up_approved', user.role, {
-        inspectionType: before.type,
-        openBlockingFindings: openBlockingFindings(tx, before.rideId),
-        overLimitValues: analysisOver,
-      });
-      if (check.ok)
-        change = applyStatus(tx, {
-          userId: user.id,
-          rideId: before.rideId,
-          event: 'follow_up_approved',
-          to: check.to,
-          override: false,
-          reason: null,
-          now,
-          inspectionId: before.id,
-        });
-    }
+    const change = decidedStatus(tx, user, before, ride, { input, reviewState, analysisOver, now });
     const statusAfter = change?.to ?? ride.status;
-    // An approval never leaves a ride running on what this inspection found: a finding that forbids
-    // operation needs it out of service, a value over its limit at least restricted.
-    if (reviewState === 'approved' && causes.blocking > 0 && statusAfter !== 'out_of_service')
-      throw conflict(
-        `${causes.blocking} finding(s) of this inspection forbid operation, so approving it sets the ride ` +
-          'out of service: send the decision with the ride status out of service and a reason.',
-        'stop_required',
-      );
-    if (reviewState === 'approved' && analysisOver > 0 && statusAfter === 'in_service')
-      throw conflict(
-        `${analysisOver} value(s) of this inspection are over their limits, so approving it needs the ride ` +
-          'out of service or restricted (with a reason); return it if the values are wrong.',
-        'stop_required',
-      );
+    assertApprovalStops(reviewState, causes, statusAfter);
     if (change?.to === 'in_service') followUpDone(db, tx, user.id, before.rideId, now);
     else if (statusAfter !== 'in_service') ensureFollowUp(db, tx, user.id, before.rideId, now);
 
-    // ——— the decision's one notice ———
     const statusCause = change && change.to !== 'in_service' ? causes.text : null;
-    const notice =
-      reviewState === 'approved'
-        ? issueInspectionNotice(tx, {
-            inspectionId: before.id,
-            userId: user.id,
-            now,
-            appUrl,
-            statusChanged: change !== null,
-            statusCause,
-          })
-        : change
-          ? issueStatusNotice(tx, {
-              rideId: before.rideId,
-              userId: user.id,
-              now,
-              appUrl,
-              reason: asked?.reason ?? null,
-              inspectionId: before.id,
-              statusCause,
-            })
-          : null;
+    const reason = input.rideStatus?.reason ?? null;
+    const notice = decisionNotice(tx, user, before, {
+      reviewState,
+      change,
+      statusCause,
+      reason,
+      now,
+      appUrl,
+    });
 
     refreshQueue(tx, queueDay(db, now), [before.rideId]);
     const rideAfter = mustFindRide(tx, before.rideId);
