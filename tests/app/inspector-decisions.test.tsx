@@ -5,33 +5,33 @@
  * comment and findings (severity words from `severityInfo`), and can be corrected and resubmitted as an
  * amendment; an approved one says by whom and when. Ride, people and findings are invented demo data.
  */
-import { QueryClientProvider } from '@tanstack/react-query';
 import { eq } from 'drizzle-orm';
 import { Text } from 'react-native';
-import { fireEvent, renderRouter, screen, within } from 'expo-router/testing-library';
+import { fireEvent, screen, within } from 'expo-router/testing-library';
 
 import { outbox } from '@/db/device/schema';
 import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
-import { writeRides } from '@/features/device-db/cache';
+import type { SessionUser } from '@/features/session/schema';
+import { writeRides } from '@/features/sync/cache';
 import { loadDraft, submitDraft } from '@/features/device-db/drafts';
 import { DeviceDbProvider } from '@/features/device-db/provider';
-import { type Draft, toRecord } from '@/features/inspections/draft';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import { type Draft, toRecord } from '@/features/records/draft';
+import type { InspectionRecord } from '@/features/records/schema';
 import { buildSentList } from '@/features/inspections/sent';
 import { TodayScreen } from '@/features/inspections/today-screen';
 import type { RideSummary } from '@/features/rides/schema';
-import { severityInfo } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import type { SyncApi } from '@/features/sync/api';
 import { pull } from '@/features/sync/pull';
 
 import { makeRecord } from '../engine/support/inspection-fixtures';
 import { type MemoryDeviceDb, memoryDeviceDb } from '../engine/support/memory-device-db';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { noSignal } from '@/tests/support/stand-in-api';
 
 jest.setTimeout(30_000);
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
 }));
 
@@ -94,7 +94,7 @@ beforeEach(async () => {
   dev = await memoryDeviceDb();
   await writeRides(dev, [gullWing]);
   // The list must come from the phone alone: any request to the server fails as if there were no signal.
-  jest.spyOn(global, 'fetch').mockRejectedValue(new TypeError('Network request failed'));
+  noSignal();
 });
 
 afterEach(async () => {
@@ -126,25 +126,16 @@ async function pullDecisions(decisions: unknown[]) {
 }
 
 function renderToday() {
-  const queries = makeQueryClient();
+  const queries = sessionClient(inspector, true);
   clients.push(queries);
-  queries.setQueryData(authKeys.session(), { user: inspector, offline: true });
-  const view = renderRouter(
+  const view = renderScreens(
+    queries,
     {
-      _layout: () => {
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={queries}>
-            <DeviceDbProvider open={async () => dev}>
-              <Slot />
-            </DeviceDbProvider>
-          </QueryClientProvider>
-        );
-      },
       today: TodayScreen,
       'inspect/[id]': () => <Text>Recording screen</Text>,
     },
-    { initialUrl: '/today' },
+    '/today',
+    (slot) => <DeviceDbProvider open={async () => dev}>{slot}</DeviceDbProvider>,
   );
   // renderRouter turns on fake timers; the in-memory database waits on real ones between statements.
   jest.useRealTimers();

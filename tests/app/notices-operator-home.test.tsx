@@ -4,14 +4,12 @@
  * in the API's shapes (features/notices/schema.ts, features/rides/schema.ts). Companies, rides and people
  * are the invented demo scenario.
  */
-import { QueryClientProvider } from '@tanstack/react-query';
 import { Text } from 'react-native';
-import { renderRouter, screen, within } from 'expo-router/testing-library';
+import { screen, within } from 'expo-router/testing-library';
 
 import { CAUTION_FULL } from '@/components/caution';
 import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { OperatorHome } from '@/features/home/operator-home';
 import {
   type NoticeDetail,
@@ -20,8 +18,10 @@ import {
   noticeListResponseSchema,
 } from '@/features/notices/schema';
 import { rideListResponseSchema } from '@/features/rides/schema';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { notFound, ok, standInApi } from '@/tests/support/stand-in-api';
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: {
     get: async () => ({ token: 'token-of-priya', expiresAt: '2099-01-01T00:00:00.000Z', user: null }),
     set: async () => {},
@@ -162,23 +162,15 @@ const rides = {
 
 let client: ReturnType<typeof makeQueryClient> | undefined;
 beforeEach(() => {
-  jest.spyOn(global, 'fetch').mockImplementation(async (input) => {
-    const path = new URL(String(input), 'http://pivotwatch.test').pathname;
-    const body =
-      path === '/api/notices'
-        ? list
-        : path === '/api/notices/n-7'
-          ? { notice: newer }
-          : path === '/api/notices/n-5'
-            ? { notice: older }
-            : path === '/api/rides'
-              ? rides
-              : null;
-    return new Response(JSON.stringify(body ?? { error: { code: 'not_found', message: 'No route' } }), {
-      status: body ? 200 : 404,
-      headers: { 'Content-Type': 'application/json' },
-    });
-  });
+  standInApi(
+    {
+      '/api/notices': () => ok(list),
+      '/api/notices/n-7': () => ok({ notice: newer }),
+      '/api/notices/n-5': () => ok({ notice: older }),
+      '/api/rides': () => ok(rides),
+    },
+    notFound('No route'),
+  );
 });
 afterEach(() => {
   client?.clear();
@@ -187,24 +179,13 @@ afterEach(() => {
 });
 
 function renderHome() {
-  const queries = makeQueryClient();
+  const queries = sessionClient(operator);
   client = queries;
-  queries.setQueryData(authKeys.session(), { user: operator, offline: false });
   jest.useFakeTimers({ now: new Date('2026-06-10T08:00:00.000Z') });
-  return renderRouter(
-    {
-      _layout: () => {
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={queries}>
-            <Slot />
-          </QueryClientProvider>
-        );
-      },
-      'my-rides': OperatorHome,
-      'notices/[id]': () => <Text>One notice</Text>,
-    },
-    { initialUrl: '/my-rides' },
+  return renderScreens(
+    queries,
+    { 'my-rides': OperatorHome, 'notices/[id]': () => <Text>One notice</Text> },
+    '/my-rides',
   );
 }
 

@@ -6,20 +6,20 @@
  * markup, the role gate, and the message when mail goes to a real SMTP server. Addresses, rides and
  * companies are the invented demo scenario.
  */
-import { QueryClientProvider } from '@tanstack/react-query';
-import { fireEvent, renderRouter, screen, waitFor, within } from 'expo-router/testing-library';
+import { fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
 import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { OutboxScreen } from '@/features/notices/outbox-screen';
 import {
   type OutboxMessage,
   outboxListResponseSchema,
   outboxMessageResponseSchema,
 } from '@/features/notices/schema';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { type StandInReply, notFound, ok, standInApi } from '@/tests/support/stand-in-api';
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
 }));
 
@@ -81,33 +81,21 @@ const bodies: Record<string, { text: string | null; html: string | null }> = {
   },
 };
 
-type Reply = { status: number; body: unknown };
-let answerList: () => Reply;
+let answerList: () => StandInReply;
 let requests: string[] = [];
-
-function answer(reply: Reply): Response {
-  return new Response(JSON.stringify(reply.body), {
-    status: reply.status,
-    headers: { 'Content-Type': 'application/json' },
-  });
-}
 
 beforeEach(() => {
   requests = [];
   mockWide = true;
   mockDownload.mockReset();
   answerList = () => ({ status: 200, body: { messages: [noticeMail, reminderMail] } });
-  jest.spyOn(global, 'fetch').mockImplementation(async (input) => {
-    const url = new URL(String(input), 'http://pivotwatch.test');
-    requests.push(url.pathname);
-    if (url.pathname === '/api/admin/outbox') return answer(answerList());
-    const one = /^\/api\/admin\/outbox\/([^/]+)$/.exec(url.pathname);
-    if (one) {
-      const m = [noticeMail, reminderMail].find((x) => x.id === one[1]);
-      if (m) return answer({ status: 200, body: { message: { ...m, ...bodies[m.id] } } });
-    }
-    return answer({ status: 404, body: { error: { code: 'not_found', message: 'No such message.' } } });
-  });
+  standInApi((call) => {
+    requests.push(call.path);
+    if (call.path === '/api/admin/outbox') return answerList();
+    const one = /^\/api\/admin\/outbox\/([^/]+)$/.exec(call.path);
+    const m = one && [noticeMail, reminderMail].find((x) => x.id === one[1]);
+    return m ? ok({ message: { ...m, ...bodies[m.id] } }) : undefined;
+  }, notFound('No such message.'));
 });
 
 let client: ReturnType<typeof makeQueryClient> | null = null;
@@ -118,23 +106,9 @@ afterEach(() => {
 });
 
 function renderOutbox(user: SessionUser) {
-  const queries = makeQueryClient();
+  const queries = sessionClient(user);
   client = queries;
-  queries.setQueryData(authKeys.session(), { user, offline: false });
-  return renderRouter(
-    {
-      _layout: () => {
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={queries}>
-            <Slot />
-          </QueryClientProvider>
-        );
-      },
-      'admin/outbox': OutboxScreen,
-    },
-    { initialUrl: '/admin/outbox' },
-  );
+  return renderScreens(queries, { 'admin/outbox': OutboxScreen }, '/admin/outbox');
 }
 
 test('the fixtures are what the API’s schemas accept', () => {
@@ -181,7 +155,7 @@ test('a message shows its text, its facts and a Download button per attachment',
 });
 
 test('a refused download says why', async () => {
-  const { ApiRequestError } = jest.requireActual('@/features/api/client');
+  const { ApiRequestError } = jest.requireActual('@/lib/api-errors');
   mockDownload.mockRejectedValue(new ApiRequestError(404, 'not_found', 'No such attachment in the outbox.'));
   renderOutbox(admin);
   fireEvent.press(await screen.findByRole('button', { name: /^Message: PW-2026-0007/ }));

@@ -11,14 +11,12 @@
  */
 import { createHash } from 'crypto';
 
-import { QueryClientProvider } from '@tanstack/react-query';
 import { fromByteArray } from 'base64-js';
-import { fireEvent, renderRouter, screen, waitFor, within } from 'expo-router/testing-library';
+import { fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
 import { CAUTION_FULL } from '@/components/caution';
 import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { NoticeListScreen } from '@/features/notices/notice-list-screen';
 import { NoticeScreen } from '@/features/notices/notice-screen';
 import {
@@ -31,9 +29,11 @@ import {
   noticeDetailSchema,
   noticeListResponseSchema,
 } from '@/features/notices/schema';
-import { severityInfo } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { type StandInCall, type StandInReply, standInApi } from '@/tests/support/stand-in-api';
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: {
     get: async () => ({ token: 'token-of-tester', expiresAt: '2099-01-01T00:00:00.000Z', user: null }),
     set: async () => {},
@@ -268,14 +268,8 @@ const ride = (status: 'in_service' | 'out_of_service', reason: string | null) =>
 
 // ——— the stand-in server ———
 
-type Call = {
-  method: string;
-  path: string;
-  search: URLSearchParams;
-  headers: Record<string, string>;
-  body: unknown;
-};
-type Reply = { status: number; body?: unknown };
+type Call = StandInCall;
+type Reply = StandInReply;
 
 let server: {
   notice: NoticeDetail;
@@ -412,24 +406,7 @@ beforeEach(() => {
   mockWide = false;
   mockBase64 = fromByteArray(PHOTO_BYTES);
   server = { notice: noticeNow(), photos: new Map(), rideStatus: 'out_of_service', calls: [] };
-  jest.spyOn(global, 'fetch').mockImplementation(async (input, init) => {
-    const url = new URL(String(input), 'http://pivotwatch.test');
-    const raw = init?.body;
-    const call: Call = {
-      method: init?.method ?? 'GET',
-      path: url.pathname,
-      search: url.searchParams,
-      headers: (init?.headers ?? {}) as Record<string, string>,
-      body:
-        typeof raw === 'string' ? JSON.parse(raw) : raw instanceof ArrayBuffer ? new Uint8Array(raw) : raw,
-    };
-    server.calls.push(call);
-    const reply = route(call);
-    return new Response(reply.body === undefined ? null : JSON.stringify(reply.body), {
-      status: reply.status,
-      headers: { 'Content-Type': 'application/json' },
-    });
-  });
+  server.calls = standInApi(route).calls;
 });
 
 let clients: ReturnType<typeof makeQueryClient>[] = [];
@@ -441,25 +418,14 @@ afterEach(() => {
 });
 
 function renderNotices(user: SessionUser, initialUrl: string) {
-  const client = makeQueryClient();
+  const client = sessionClient(user);
   clients.push(client);
-  client.setQueryData(authKeys.session(), { user, offline: false });
   // The operator reads the notice a week after it was issued; finding 2 is due on 20 June.
   jest.useFakeTimers({ now: new Date('2026-06-10T08:00:00.000Z') });
-  return renderRouter(
-    {
-      _layout: () => {
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={client}>
-            <Slot />
-          </QueryClientProvider>
-        );
-      },
-      'notices/index': NoticeListScreen,
-      'notices/[id]': NoticeScreen,
-    },
-    { initialUrl },
+  return renderScreens(
+    client,
+    { 'notices/index': NoticeListScreen, 'notices/[id]': NoticeScreen },
+    initialUrl,
   );
 }
 

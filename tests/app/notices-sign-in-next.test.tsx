@@ -14,11 +14,12 @@ import AuthLayout from '@/app/(auth)/_layout';
 import { makeQueryClient } from '@/features/api/query-client';
 import { authKeys } from '@/features/auth/api';
 import { safeNextPath } from '@/features/auth/next-path';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { SignInScreen } from '@/features/auth/sign-in-screen';
+import { ok, standInApi } from '@/tests/support/stand-in-api';
 
 let mockStored: { token: string; expiresAt: string; user: SessionUser } | null = null;
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: {
     get: async () => mockStored,
     set: async (s: typeof mockStored) => {
@@ -75,16 +76,9 @@ describe('signing in from an e-mailed link', () => {
   beforeEach(() => {
     mockStored = null;
     client = makeQueryClient();
-    jest.spyOn(global, 'fetch').mockImplementation(async (input) => {
-      const url = new URL(String(input), 'http://pivotwatch.test');
-      const body =
-        url.pathname === '/api/auth/sign-in'
-          ? { token: 'token-of-priya', expiresAt: '2099-01-01T00:00:00.000Z', user: operator }
-          : { error: { code: 'not_found', message: 'No such route' } };
-      return new Response(JSON.stringify(body), {
-        status: url.pathname === '/api/auth/sign-in' ? 200 : 404,
-        headers: { 'Content-Type': 'application/json' },
-      });
+    standInApi({
+      '/api/auth/sign-in': () =>
+        ok({ token: 'token-of-priya', expiresAt: '2099-01-01T00:00:00.000Z', user: operator }),
     });
   });
 

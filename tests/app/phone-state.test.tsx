@@ -10,8 +10,10 @@ import { groupSent, type SentInspection } from '@/features/inspections/sent';
 import { headline } from '@/features/inspections/sync-panel';
 import { useOnline } from '@/features/sync/online-state';
 import { photosWaitingCount } from '@/features/sync/photo-counts';
-import { OfflineError, apiFetch } from '@/features/api/client';
-import { reportServerReached, serverReached } from '@/features/sync/reachability';
+import { apiFetch } from '@/features/api/client';
+import { OfflineError } from '@/lib/api-errors';
+import { reportServerReached, serverReached } from '@/features/api/reachability';
+import { noSignal, standInApi } from '@/tests/support/stand-in-api';
 
 afterEach(() => reportServerReached(true));
 
@@ -26,20 +28,15 @@ describe('connection state', () => {
   });
 
   test('the API client reports every outcome: no answer is offline, any answer (even an error) is online', async () => {
-    const realFetch = global.fetch;
-    const answer = (status: number) =>
-      ({ ok: status < 400, status, text: async () => JSON.stringify({ ok: true }) }) as Response;
-    global.fetch = jest
-      .fn()
-      .mockRejectedValueOnce(new TypeError('Failed to fetch'))
-      .mockResolvedValueOnce(answer(503));
     try {
+      noSignal('Failed to fetch');
       await expect(apiFetch('/api/health', { anonymous: true })).rejects.toBeInstanceOf(OfflineError);
       expect(serverReached()).toBe(false);
+      standInApi(() => ({ status: 503, body: { ok: true } }));
       await expect(apiFetch('/api/health', { anonymous: true })).rejects.not.toBeInstanceOf(OfflineError);
       expect(serverReached()).toBe(true);
     } finally {
-      global.fetch = realFetch;
+      jest.restoreAllMocks();
     }
   });
 

@@ -7,19 +7,17 @@
  * Instruments, ride and people are invented demo data; the calibration rule is ours (README), after the
  * common practice that an instrument past its calibration due date is not used for acceptance checks.
  */
-import { QueryClientProvider } from '@tanstack/react-query';
 import { Text } from 'react-native';
-import { fireEvent, renderRouter, screen, waitFor } from 'expo-router/testing-library';
+import { fireEvent, screen, waitFor } from 'expo-router/testing-library';
 
 import { outbox } from '@/db/device/schema';
 import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { loadDraft, saveDraft } from '@/features/device-db/drafts';
 import { DeviceDbProvider } from '@/features/device-db/provider';
-import { type Draft, newDraft } from '@/features/inspections/draft';
+import { type Draft, newDraft } from '@/features/records/draft';
 import { InspectionScreen } from '@/features/inspections/inspection-screen';
-import { inspectionRecordSchema } from '@/features/inspections/schema';
+import { inspectionRecordSchema } from '@/features/records/schema';
 import { measuredWithProblem, nothingChosen } from '@/features/instruments/measured-with';
 import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
 import {
@@ -37,10 +35,12 @@ import { pull } from '@/features/sync/pull';
 import { rodDesign } from '@/tests/engine/support/rod-design';
 
 import { type MemoryDeviceDb, memoryDeviceDb } from '../engine/support/memory-device-db';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { noSignal } from '@/tests/support/stand-in-api';
 
 jest.setTimeout(30_000);
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
 }));
 jest.mock('expo-crypto', () => ({
@@ -164,7 +164,7 @@ beforeEach(async () => {
     now: new Date(),
   });
   await saveDraft(dev, { id: draft.id, rideId: ride.id, data: draft });
-  jest.spyOn(global, 'fetch').mockRejectedValue(new TypeError('Network request failed'));
+  noSignal();
 });
 
 afterEach(async () => {
@@ -176,21 +176,11 @@ afterEach(async () => {
 });
 
 function renderRecording() {
-  const queries = makeQueryClient();
+  const queries = sessionClient(inspector, true);
   clients.push(queries);
-  queries.setQueryData(authKeys.session(), { user: inspector, offline: true });
-  const view = renderRouter(
+  const view = renderScreens(
+    queries,
     {
-      _layout: () => {
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={queries}>
-            <DeviceDbProvider open={async () => dev}>
-              <Slot />
-            </DeviceDbProvider>
-          </QueryClientProvider>
-        );
-      },
       today: () => <Text>Today screen</Text>,
       'inspect/[id]': function Route() {
         const { useLocalSearchParams } = jest.requireActual('expo-router');
@@ -198,7 +188,8 @@ function renderRecording() {
         return <InspectionScreen id={id as string} />;
       },
     },
-    { initialUrl: `/inspect/${draft.id}` },
+    `/inspect/${draft.id}`,
+    (slot) => <DeviceDbProvider open={async () => dev}>{slot}</DeviceDbProvider>,
   );
   jest.useRealTimers();
   return view;

@@ -21,15 +21,11 @@ import {
 import { rideDetailResponseSchema } from '@/features/registry/schema';
 import { approvalConcerns, DecisionPanel } from '@/features/review/decision-panel';
 import { reviewKeys } from '@/features/review/keys';
-import {
-  type Finding,
-  decisionInputSchema,
-  decisionResponseSchema,
-  findingInputSchema,
-  findingPatchSchema,
-} from '@/features/review/schema';
+import { decisionInputSchema, decisionResponseSchema } from '@/features/review/schema';
+import { type Finding, findingInputSchema, findingPatchSchema } from '@/features/notices/finding-schema';
+import { type StandInCall, type StandInReply, standInApi } from '@/tests/support/stand-in-api';
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
 }));
 
@@ -53,8 +49,8 @@ type Detail = {
   };
 };
 
-type Call = { method: string; path: string; search: URLSearchParams; body: unknown };
-type Reply = { status: number; body?: unknown };
+type Call = StandInCall;
+type Reply = StandInReply;
 
 /** The stand-in server: its own state, every request recorded, and routes a test may take over. */
 let server: {
@@ -88,13 +84,6 @@ function finding(over: Partial<Finding>): Finding {
     stateNote: null,
     ...over,
   };
-}
-
-function answer(reply: Reply): Response {
-  return new Response(reply.body === undefined ? null : JSON.stringify(reply.body), {
-    status: reply.status,
-    headers: { 'Content-Type': 'application/json' },
-  });
 }
 
 function route(call: Call): Reply {
@@ -173,17 +162,7 @@ beforeEach(() => {
     calls: [],
     override: () => undefined,
   };
-  jest.spyOn(global, 'fetch').mockImplementation(async (input, init) => {
-    const url = new URL(String(input), 'http://pivotwatch.test');
-    const call: Call = {
-      method: init?.method ?? 'GET',
-      path: url.pathname,
-      search: url.searchParams,
-      body: typeof init?.body === 'string' ? JSON.parse(init.body) : undefined,
-    };
-    server.calls.push(call);
-    return answer((await server.override(call)) ?? route(call));
-  });
+  server.calls = standInApi(async (call) => (await server.override(call)) ?? route(call)).calls;
 });
 
 let clients: QueryClient[] = [];

@@ -10,16 +10,13 @@
  *    (nominal − measured) / (nominal − minimum) (the definition of a wear allowance).
  * Ride, people and data are invented.
  */
-import { QueryClientProvider } from '@tanstack/react-query';
 import { Image, Modal, Text } from 'react-native';
-import { act, fireEvent, renderRouter, screen, waitFor, within } from 'expo-router/testing-library';
+import { act, fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
 import { CAUTION_SHORT } from '@/components/caution';
-import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
-import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
-import type { Reading } from '@/features/inspections/schema';
+import type { SessionUser } from '@/features/session/schema';
+import { analyseInspection, previewDifferences, previewOf } from '@/features/records/analysis';
+import type { Reading } from '@/features/records/schema';
 import {
   STANDARD_GRAVITY_MS2,
   cycleResultToJson,
@@ -30,8 +27,10 @@ import { inspectionResponseSchema } from '@/features/review/inspection-schema';
 import { InspectionReviewScreen } from '@/features/review/inspection-screen';
 import type { TrendsResponse } from '@/features/review/schema';
 import { setUnitSystem } from '@/features/settings/unit-system';
-import { formatQuantity } from '@/features/units';
+import { formatQuantity } from '@/lib/units';
 import { rodDesign } from '@/tests/engine/support/rod-design';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { type StandInCall, standInApi } from '@/tests/support/stand-in-api';
 
 // d3 ships ES modules only, which the app project's jest transform leaves alone; its own UMD builds are
 // the same code in CommonJS form (one per package, each requiring the next by name).
@@ -59,7 +58,7 @@ jest.mock('d3-time-format', () =>
   jest.requireActual(`${process.cwd()}/node_modules/d3-time-format/dist/d3-time-format.min.js`),
 );
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: {
     get: async () => ({ token: 'token-of-mara', expiresAt: '2099-01-01T00:00:00.000Z', user: null }),
     set: async () => {},
@@ -284,13 +283,7 @@ const trends: TrendsResponse = {
 };
 
 let answers: Record<string, () => [number, unknown]>;
-let requests: { url: URL; headers: Record<string, string> }[];
-
-function respond(status: number, body: unknown) {
-  return Promise.resolve(
-    new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } }),
-  );
-}
+let requests: StandInCall[];
 
 const notFound = (message: string): [number, unknown] => [404, { error: { code: 'not_found', message } }];
 
@@ -298,7 +291,6 @@ beforeEach(() => {
   mockWide = true;
   mockPanelProps = null;
   setUnitSystem('si');
-  requests = [];
   answers = {
     '/api/inspections/insp-3': () => [200, inspectionAnswer()],
     '/api/inspections/insp-3/cycle': () => [
@@ -364,13 +356,11 @@ beforeEach(() => {
     ],
     '/api/rides/ride-1/trends': () => [200, trends],
   };
-  jest.spyOn(global, 'fetch').mockImplementation((input, init) => {
-    const url = new URL(String(input), 'http://pivotwatch.test');
-    requests.push({ url, headers: (init?.headers ?? {}) as Record<string, string> });
-    const answer = answers[url.pathname];
+  requests = standInApi((call) => {
+    const answer = answers[call.path];
     const [status, body] = answer ? answer() : notFound('No such route');
-    return respond(status, body);
-  });
+    return { status, body };
+  }).calls;
 });
 
 afterEach(() => {
@@ -378,23 +368,14 @@ afterEach(() => {
 });
 
 function renderReview(user: SessionUser = supervisor, initialUrl = '/review/insp-3') {
-  const client = makeQueryClient();
-  client.setQueryData(authKeys.session(), { user, offline: false });
-  return renderRouter(
+  return renderScreens(
+    sessionClient(user),
     {
-      _layout: () => {
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={client}>
-            <Slot />
-          </QueryClientProvider>
-        );
-      },
       'review/[id]': InspectionReviewScreen,
       'rides/[id]': () => <Text>Page of one ride</Text>,
       'rides/[id]/versions/[version]': () => <Text>One design version</Text>,
     },
-    { initialUrl },
+    initialUrl,
   );
 }
 

@@ -5,18 +5,19 @@
  * answers are invented demo data in the shape of features/review/schema.ts; what is checked is what the
  * screen asks for and what it shows of the answer.
  */
-import { QueryClientProvider } from '@tanstack/react-query';
 import { Text } from 'react-native';
-import { act, fireEvent, renderRouter, screen, waitFor, within } from 'expo-router/testing-library';
+import { act, fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
 import { makeQueryClient } from '@/features/api/query-client';
-import { authKeys } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { QueueScreen } from '@/features/review/queue-screen';
 import { type QueueItem, type QueueResponse, queueResponseSchema } from '@/features/review/schema';
 import { urgencyLook } from '@/features/review/urgency-mark';
+import { contrast } from '@/tests/support/contrast';
+import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { ok, standInApi } from '@/tests/support/stand-in-api';
 
-jest.mock('@/features/auth/token-store', () => ({
+jest.mock('@/features/session/token-store', () => ({
   tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
 }));
 
@@ -89,34 +90,24 @@ let client: ReturnType<typeof makeQueryClient> | null = null;
 /** When set, queue answers wait for it (to see what the screen shows while the next page loads). */
 let hold: Promise<void> | null = null;
 
-function respond(body: unknown, status = 200) {
-  return Promise.resolve(
-    new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } }),
-  );
-}
-
 beforeEach(() => {
   mockWide = true;
   hold = null;
   requests = [];
   queueAnswer = () => ({ items: [overItem, overdueRide], total: 2 });
-  jest.spyOn(global, 'fetch').mockImplementation((input) => {
-    const url = new URL(String(input), 'http://pivotwatch.test');
-    if (url.pathname === '/api/review/queue') {
+  standInApi({
+    '/api/review/queue': async ({ url }) => {
       requests.push(url);
       const page = Number(url.searchParams.get('page') ?? 1);
       const pageSize = Number(url.searchParams.get('pageSize') ?? 25);
       const body = { items: [], total: 0, counts, page, pageSize, ...queueAnswer(url) };
-      return hold ? hold.then(() => respond(body)) : respond(body);
-    }
-    if (url.pathname === '/api/sites') return respond({ sites: [], total: 0, page: 1, pageSize: 200 });
-    if (url.pathname === '/api/companies')
-      return respond({ companies: [], total: 0, page: 1, pageSize: 200 });
-    if (url.pathname === '/api/inspectors')
-      return respond({
-        inspectors: [{ id: 'u-ins', name: 'Tobin Reyes', email: 'tobin.reyes@halvard.example' }],
-      });
-    return respond({ error: { code: 'not_found', message: 'No such route' } }, 404);
+      await hold;
+      return ok(body);
+    },
+    '/api/sites': () => ok({ sites: [], total: 0, page: 1, pageSize: 200 }),
+    '/api/companies': () => ok({ companies: [], total: 0, page: 1, pageSize: 200 }),
+    '/api/inspectors': () =>
+      ok({ inspectors: [{ id: 'u-ins', name: 'Tobin Reyes', email: 'tobin.reyes@halvard.example' }] }),
   });
 });
 
@@ -131,25 +122,16 @@ afterEach(() => {
 const lastRequest = () => requests[requests.length - 1];
 
 function renderQueue(initialUrl = '/review') {
-  const queries = makeQueryClient();
+  const queries = sessionClient(supervisor);
   client = queries;
-  queries.setQueryData(authKeys.session(), { user: supervisor, offline: false });
-  return renderRouter(
+  return renderScreens(
+    queries,
     {
-      _layout: () => {
-        // The app's own layout needs the device and a real session; the queue needs only a query client.
-        const { Slot } = jest.requireActual('expo-router');
-        return (
-          <QueryClientProvider client={queries}>
-            <Slot />
-          </QueryClientProvider>
-        );
-      },
       'review/index': QueueScreen,
       'review/[id]': () => <Text>Review desk of one inspection</Text>,
       'rides/[id]': () => <Text>Page of one ride</Text>,
     },
-    { initialUrl },
+    initialUrl,
   );
 }
 
@@ -326,24 +308,9 @@ describe('the queue, desktop', () => {
 
 describe('who sees it', () => {
   test('an inspector is told the page is not part of their role, and the queue is not asked for', async () => {
-    const queries = makeQueryClient();
+    const queries = sessionClient({ ...supervisor, id: 'u-ins', role: 'inspector' });
     client = queries;
-    queries.setQueryData(authKeys.session(), {
-      user: { ...supervisor, id: 'u-ins', role: 'inspector' },
-      offline: false,
-    });
-    const { Slot } = jest.requireActual('expo-router');
-    renderRouter(
-      {
-        _layout: () => (
-          <QueryClientProvider client={queries}>
-            <Slot />
-          </QueryClientProvider>
-        ),
-        'review/index': QueueScreen,
-      },
-      { initialUrl: '/review' },
-    );
+    renderScreens(queries, { 'review/index': QueueScreen }, '/review');
     expect(await screen.findByText('Not part of your role')).toBeTruthy();
     expect(requests).toHaveLength(0);
   });
@@ -364,23 +331,6 @@ describe('the queue, phone', () => {
     expect(screen.getByRole('button', { name: 'Over limit: 1' })).toBeTruthy();
   });
 });
-
-/**
- * WCAG 2.1 contrast ratio (W3C Recommendation: "relative luminance" and "contrast ratio" definitions;
- * success criterion 1.4.3 asks 4.5:1 for normal text).
- */
-function contrast(a: string, b: string): number {
-  const luminance = (hex: string) => {
-    const n = parseInt(hex.slice(1), 16);
-    const channel = (v: number) => {
-      const c = v / 255;
-      return c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
-    };
-    return 0.2126 * channel((n >> 16) & 255) + 0.7152 * channel((n >> 8) & 255) + 0.0722 * channel(n & 255);
-  };
-  const [hi, lo] = [luminance(a), luminance(b)].sort((x, y) => y - x);
-  return (hi + 0.05) / (lo + 0.05);
-}
 
 describe('urgency marks', () => {
   test('the WCAG formula gives black on white 21:1', () => {
