@@ -13,6 +13,7 @@ import { noticeDeliveries, noticeFindings, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import { designVersions, users } from '@/db/server/schema';
 import { CAUTION_FULL } from '@/lib/caution-text';
+import { appLink, noticePath } from '@/lib/paths';
 import { formatBesideLimit, measuredSources } from '@/features/loads/format';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
@@ -154,7 +155,7 @@ function commonParts(tx: NoticeTx, rideId: string, input: Common) {
     appeal: appealText(issuer.name, ref.reference),
     caution: CAUTION_FULL,
     signature: signerOf(tx, input.userId, issuedAt),
-    url: `${input.appUrl.replace(/\/+$/, '')}/notices/${id}`,
+    url: appLink(input.appUrl, noticePath(id)),
   };
   return { ride, id, ref, base, operatingStatus };
 }
