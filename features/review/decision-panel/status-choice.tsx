@@ -1,0 +1,100 @@
+import { Pressable, StyleSheet, View } from 'react-native';
+
+import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
+import { Text } from '@/components/text';
+import { TextField } from '@/components/text-field';
+import { colors, layout, radius, space } from '@/components/theme';
+import { sharedStyles } from '@/features/review/decision-panel/styles';
+
+/** The ride's status sent with the decision: kept as it is, or made stricter by this decision. */
+export type StatusChoice = 'keep' | 'out_of_service' | 'restricted';
+
+/** The ride's status to send with the decision, and the reason the operator reads with it. */
+export function StatusChoiceField({
+  rideStatus,
+  choice,
+  onChoose,
+  reason,
+  onReasonChange,
+  reasonError,
+}: {
+  rideStatus: RideStatus;
+  choice: StatusChoice;
+  onChoose: (choice: StatusChoice) => void;
+  reason: string;
+  onReasonChange: (reason: string) => void;
+  reasonError: string | undefined;
+}) {
+  // The stricter statuses this decision may set; easing a stop is the follow-up's or an override's.
+  const stricter = (['restricted', 'out_of_service'] as const).filter(
+    (s) => s !== rideStatus && !(rideStatus === 'out_of_service' && s === 'restricted'),
+  );
+  return (
+    <View style={sharedStyles.section}>
+      <Text variant="label" muted>
+        RIDE STATUS WITH THIS DECISION
+      </Text>
+      <View
+        role="radiogroup"
+        accessibilityLabel="Ride status with this decision"
+        style={sharedStyles.buttons}
+      >
+        {(['keep', ...stricter] as StatusChoice[]).map((c) => {
+          const on = c === choice;
+          const label =
+            c === 'keep'
+              ? `Keep ${rideStatusLabel(rideStatus).toLowerCase()}`
+              : `Set ${rideStatusLabel(c).toLowerCase()}`;
+          return (
+            <Pressable
+              key={c}
+              role="radio"
+              aria-checked={on}
+              accessibilityState={{ checked: on }}
+              accessibilityLabel={label}
+              onPress={() => onChoose(c)}
+              style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
+            >
+              <Text variant="label" color={on ? colors.base : colors.textMuted}>
+                {on ? '●' : '○'}
+              </Text>
+              {c === 'keep' ? <Text>{label}</Text> : <RideStatusMark status={c} compact />}
+            </Pressable>
+          );
+        })}
+      </View>
+      {choice !== 'keep' ? (
+        <TextField
+          label="Reason for the status"
+          hint="The operator reads it on the decision’s notice, with the findings and values behind it."
+          value={reason}
+          onChangeText={onReasonChange}
+          error={reasonError}
+          multiline
+        />
+      ) : (
+        <Text variant="small" muted>
+          One decision, one notice: a status set here goes on the approval’s notice to the operator.
+          {rideStatus !== 'in_service'
+            ? ' Approving a follow-up inspection returns the ride to service when nothing forbids operation.'
+            : ''}
+        </Text>
+      )}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  choice: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    minHeight: layout.touchTarget,
+    paddingHorizontal: space.md,
+    borderRadius: radius.md,
+    borderWidth: 1.5,
+    borderColor: colors.border,
+    backgroundColor: colors.surface,
+  },
+  choiceOn: { borderColor: colors.base, borderWidth: 2.5 },
+});
