@@ -12,8 +12,8 @@ import { desc, eq } from 'drizzle-orm';
 
 import { benchReadings } from '@/bench/readings';
 import { designVersions, rides, users } from '@/db/server/schema';
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import { analyseInspection, previewOf } from '@/features/records/analysis';
+import type { InspectionRecord } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';

@@ -7,7 +7,7 @@ import {
   sampleProfile,
   solveInto,
 } from '@/features/loads/engine';
-import { buildPlanckChain } from '@/tests/engine/support/planck-chain';
+import { buildPlanckChain } from '@/bench/planck-chain';
 
 /**
  * Load-engine speed on one core (JavaScript runs the solve on one thread):

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 
-import type { Reading } from '@/features/inspections/schema';
+import type { Reading } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 
 /**

@@ -10,8 +10,8 @@ import { eq } from 'drizzle-orm';
 
 import { benchReadings } from '@/bench/readings';
 import { users } from '@/db/server/schema';
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import { analyseInspection, previewOf } from '@/features/records/analysis';
+import type { InspectionRecord } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { inspectionTypes } from '@/features/registry/schema';
 import { rideClasses, type RideClass } from '@/features/rides/schema';

@@ -17,7 +17,7 @@ import {
   fixturePhotos,
   loadFixturePhoto,
   noticeWithFindings,
-} from '@/tests/server/support/notice-fixture';
+} from '@/scripts/sample-notice';
 
 const outDir = path.join(repoRoot, 'artifacts', 'pdf');
 

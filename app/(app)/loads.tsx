@@ -1,3 +1,3 @@
-import { CalculatorScreen } from '@/features/loads/calculator-screen';
+import { CalculatorScreen } from '@/features/calculator/calculator-screen';
 
 export default CalculatorScreen;

@@ -1,7 +1,8 @@
 import { Redirect, Slot, useGlobalSearchParams } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
-import { roleHome, useSession } from '@/features/auth/api';
+import { useSession } from '@/features/auth/api';
+import { roleHome } from '@/features/auth/hrefs';
 import { nextPathAfterSignIn } from '@/features/auth/next-path';
 
 /**

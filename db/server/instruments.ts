@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { check, index, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 
-import type { ReadingKind } from '@/features/inspections/schema';
+import type { ReadingKind } from '@/features/records/schema';
 import { instrumentMethods } from '@/features/instruments/schema';
 import { users } from '@/db/server/schema';
 

@@ -6,7 +6,8 @@ import { check, index, integer, primaryKey, sqliteTable, text, uniqueIndex } fro
 import { inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { companies, rides, users } from '@/db/server/schema';
-import { deliveryStatuses, noticeKinds, type NoticeDocument } from '@/features/notices/schema';
+import type { NoticeDocument } from '@/features/notices/schema';
+import { deliveryStatuses, noticeKinds } from '@/lib/vocabulary';
 
 /*
  * Notices to operators and what follows them: deliveries by e-mail, the operator's corrective actions,

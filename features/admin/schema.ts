@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-import { roleSchema } from '@/features/auth/schema';
+import { roleSchema } from '@/features/session/schema';
 
 export const adminUserSchema = z.object({
   id: z.string(),

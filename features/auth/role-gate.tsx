@@ -3,8 +3,9 @@ import { StyleSheet, View } from 'react-native';
 
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { roleHome, useSession } from '@/features/auth/api';
-import type { Role, SessionUser } from '@/features/auth/schema';
+import { useSession } from '@/features/auth/api';
+import { roleHome } from '@/features/auth/hrefs';
+import type { Role, SessionUser } from '@/features/session/schema';
 
 /**
  * Shows its children only to the given roles. The server enforces the same rules; this only

@@ -8,7 +8,8 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { roleHome, useSignInMutation } from '@/features/auth/api';
+import { useSignInMutation } from '@/features/auth/api';
+import { roleHome } from '@/features/auth/hrefs';
 import { forgetNextPath, nextPathAfterSignIn } from '@/features/auth/next-path';
 import { SignInForm } from '@/features/auth/sign-in-form';
 

@@ -9,7 +9,7 @@ import { drafts, outbox, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
 import { DeviceDataError } from '@/features/device-db/errors';
 import { queuePhotosForUpload } from '@/features/device-db/photos';
-import { type InspectionRecord, inspectionRecordSchema } from '@/features/inspections/schema';
+import { type InspectionRecord, inspectionRecordSchema } from '@/features/records/schema';
 
 const draftKeySchema = z.object({
   id: z.uuid({ error: 'Must be a UUID' }),

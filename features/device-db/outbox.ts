@@ -4,7 +4,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { type OutboxRow, type OutboxState, outbox, outboxStates } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
 import { DeviceDataError } from '@/features/device-db/errors';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/records/schema';
 
 export type OutboxIssue = { path: string; message: string };
 export type OutboxItem = Omit<OutboxRow, 'json' | 'issues'> & {

@@ -10,7 +10,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { type PhotoBlobRow, type PhotoUploadState, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
 import { DeviceDataError } from '@/features/device-db/errors';
-import type { PhotoRef } from '@/features/inspections/schema';
+import type { PhotoRef } from '@/features/records/schema';
 
 export type PhotoMime = PhotoRef['mime'];
 

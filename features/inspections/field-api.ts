@@ -17,13 +17,13 @@ import {
   readRide,
   readRides,
   readTemplates,
-} from '@/features/device-db/cache';
+} from '@/features/sync/cache';
 import { listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
 import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoDataUri } from '@/features/device-db/photos';
-import { analyseRecord, previewOf } from '@/features/inspections/analysis';
-import { type Draft, newCorrection, newDraft, toRecord } from '@/features/inspections/draft';
-import type { Declaration, InspectionType } from '@/features/inspections/schema';
+import { analyseRecord, previewOf } from '@/features/records/analysis';
+import { type Draft, newCorrection, newDraft, toRecord } from '@/features/records/draft';
+import type { Declaration, InspectionType } from '@/features/records/schema';
 import { buildSentList } from '@/features/inspections/sent';
 import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
 

@@ -16,8 +16,8 @@ import {
   PLAUSIBLE_LOW,
   type PlausibilityCheck,
   plausibilityText,
-} from '@/features/inspections/plausibility';
-import type { Reading } from '@/features/inspections/schema';
+} from '@/features/records/plausibility';
+import type { Reading } from '@/features/records/schema';
 
 /** A reading held back until the inspector answers. */
 export type PendingReading = { reading: Reading; check: PlausibilityCheck };

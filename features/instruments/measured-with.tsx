@@ -5,7 +5,7 @@ import { ChoiceChips } from '@/components/choice-chips';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
-import type { InstrumentSnapshot, ReadingKind } from '@/features/inspections/schema';
+import type { InstrumentSnapshot, ReadingKind } from '@/features/records/schema';
 import {
   type CalibrationStatus,
   type Instrument,

@@ -8,12 +8,7 @@
  */
 import { z } from 'zod';
 
-import {
-  type ReadingKind,
-  readingKinds,
-  readingKindSchema,
-  readingMethods,
-} from '@/features/inspections/schema';
+import { type ReadingKind, readingKinds, readingKindSchema, readingMethods } from '@/features/records/schema';
 
 export type ReadingMethod = (typeof readingMethods)[number];
 

@@ -1,4 +1,4 @@
-import type { DraftProblem, Reading } from '@/features/inspections/schema';
+import type { DraftProblem, Reading } from '@/features/records/schema';
 
 /**
  * Readings whose method the app filled in before inspectors were asked: recorded without an instrument

@@ -9,7 +9,7 @@ import { z } from 'zod';
 
 import { API_BASE, apiFetch } from '@/features/api/client';
 import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
-import { tokenStore } from '@/features/api/token-store';
+import { tokenStore } from '@/features/session/token-store';
 import { noticeKeys } from '@/features/notices/keys';
 import {
   type CorrectiveActionInput,

@@ -1,7 +1,7 @@
 import { API_BASE } from '@/features/api/client';
 import { ApiRequestError, apiErrorSchema } from '@/lib/api-errors';
 import { saveBlob } from '@/features/api/pdf-download.web';
-import { tokenStore } from '@/features/api/token-store';
+import { tokenStore } from '@/features/session/token-store';
 import { outboxAttachmentPath } from '@/features/notices/outbox-api';
 
 /**

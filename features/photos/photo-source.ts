@@ -2,7 +2,7 @@ import { useEffect, useState } from 'react';
 import type { ImageURISource } from 'react-native';
 
 import { API_BASE } from '@/features/api/client';
-import { tokenStore } from '@/features/api/token-store';
+import { tokenStore } from '@/features/session/token-store';
 
 export type PhotoSource = { source: ImageURISource | null; failed: boolean };
 

@@ -13,7 +13,7 @@ import { ToggleChips } from '@/components/toggle-chips';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/role-gate';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { entryChanges } from '@/features/registry/audit-diff';
 import { EffectBadge } from '@/features/registry/design-comparison';
@@ -30,7 +30,7 @@ import {
 } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
-import { rideHref } from '@/features/rides/ride-card';
+import { rideHref } from '@/features/rides/hrefs';
 import { useUnitSystem } from '@/features/settings/unit-system';
 
 const PAGE_SIZE = 30;

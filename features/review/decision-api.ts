@@ -8,16 +8,18 @@ import { rideNoticeKeys } from '@/features/notices/ride-notices-api';
 import {
   type DecisionInput,
   type DecisionResponse,
-  type Finding,
-  type FindingInput,
-  type FindingPatch,
   decisionResponseSchema,
-  findingInputSchema,
-  findingListResponseSchema,
-  findingResponseSchema,
   rideStatusChangeResponseSchema,
   type RideStatusChangeInput,
 } from '@/features/review/schema';
+import {
+  type Finding,
+  type FindingInput,
+  type FindingPatch,
+  findingInputSchema,
+  findingListResponseSchema,
+  findingResponseSchema,
+} from '@/features/notices/finding-schema';
 import { rideKeys } from '@/features/rides/api';
 
 const enc = encodeURIComponent;

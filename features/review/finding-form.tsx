@@ -11,14 +11,13 @@ import { ToggleChips } from '@/components/toggle-chips';
 import { FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { fieldsOf } from '@/components/form/server-errors';
+import { type FindingSeverity, findingSeverities } from '@/features/review/schema';
 import {
   type Finding,
   type FindingInput,
-  type FindingSeverity,
   findingInputSchema,
-  findingSeverities,
   severityInfo,
-} from '@/features/review/schema';
+} from '@/features/notices/finding-schema';
 import { SeverityMark } from '@/features/notices/severity-mark';
 
 export type FindingValues = z.output<typeof findingInputSchema>;

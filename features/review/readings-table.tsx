@@ -11,14 +11,14 @@ import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { formatValue, measuredSources } from '@/features/loads/format';
 import { formatDateTime } from '@/lib/dates';
-import { plausibilityText } from '@/features/inspections/plausibility';
+import { plausibilityText } from '@/features/records/plausibility';
 import type {
   InspectionDetail,
   InspectionReading,
   StoredAnalysisView,
 } from '@/features/review/inspection-schema';
 import { formatReading, formatSpread, pivotName } from '@/features/review/review-format';
-import { readingKindLabel } from '@/features/inspections/schema';
+import { readingKindLabel } from '@/features/records/schema';
 import type { UnitSystem } from '@/lib/units';
 
 const headline = {

@@ -18,8 +18,8 @@
  * - Reopening a finding that forbids operation takes a running ride out of service, with the comment as
  *   the reason. Operators report corrective action; that changes no status.
  */
-import type { Role } from '@/features/auth/schema';
-import { roles } from '@/features/auth/schema';
+import type { Role } from '@/features/session/schema';
+import { roles } from '@/features/session/schema';
 import { rideStatuses } from '@/features/rides/schema';
 
 export type RideStatus = (typeof rideStatuses)[number];

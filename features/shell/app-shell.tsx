@@ -8,7 +8,7 @@ import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { roleLabel } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { type NavItem, isActive, navItems } from '@/features/shell/nav-items';
 import { useOnline } from '@/features/sync/online-state';
 

@@ -1,4 +1,4 @@
-import type { InspectionRecord, PushResult } from '@/features/inspections/schema';
+import type { InspectionRecord, PushResult } from '@/features/records/schema';
 
 export type PhotoUpload = { sha256: string; mime: string; bytes: Uint8Array };
 

@@ -4,8 +4,8 @@
  */
 import { API_BASE, apiFetch } from '@/features/api/client';
 import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
-import { tokenStore } from '@/features/api/token-store';
-import { pushResultSchema } from '@/features/inspections/schema';
+import { tokenStore } from '@/features/session/token-store';
+import { pushResultSchema } from '@/features/records/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
 
 /** A photo of ≤ 1600 px should be up well within this even on a poor signal; past it, retry later. */

@@ -12,7 +12,7 @@ import {
   writeDesignVersions,
   writeRides,
   writeTemplates,
-} from '@/features/device-db/cache';
+} from '@/features/sync/cache';
 import { getSyncMeta, setSyncMeta } from '@/features/device-db/sync-meta';
 import { writeDeclarationSetting, writeInstruments } from '@/features/instruments/device-cache';
 import type { SyncApi } from '@/features/sync/api';

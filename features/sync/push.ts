@@ -9,8 +9,8 @@ import { asc, eq, inArray } from 'drizzle-orm';
 
 import { type OutboxRow, outbox } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
-import type { InspectionRecord, PushResult } from '@/features/inspections/schema';
-import { pushResultSchema } from '@/features/inspections/schema';
+import type { InspectionRecord, PushResult } from '@/features/records/schema';
+import { pushResultSchema } from '@/features/records/schema';
 import type { SyncApi } from '@/features/sync/api';
 import {
   type OutboxEntry,

@@ -1,6 +1,6 @@
 import { errors, jwtVerify, SignJWT } from 'jose';
 
-import { roleSchema, type Role } from '@/features/auth/schema';
+import { roleSchema, type Role } from '@/features/session/schema';
 import type { Config } from '@/server/config';
 import { unauthorized } from '@/server/http/errors';
 

@@ -1,6 +1,6 @@
 import type { RequestHandler, Response } from 'express';
 
-import type { Role, SessionUser } from '@/features/auth/schema';
+import type { Role, SessionUser } from '@/features/session/schema';
 import { verifySessionToken } from '@/server/auth/jwt';
 import { findSessionUser } from '@/server/auth/service';
 import type { Config } from '@/server/config';

@@ -1,4 +1,4 @@
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { forbidden } from '@/server/http/errors';
 
 /**

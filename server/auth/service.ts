@@ -1,7 +1,8 @@
 import { asc, eq, sql } from 'drizzle-orm';
 
 import { companies, users } from '@/db/server/schema';
-import type { Role, SessionUser, SignInBody, SignInResponse } from '@/features/auth/schema';
+import type { SignInBody, SignInResponse } from '@/features/auth/schema';
+import type { Role, SessionUser } from '@/features/session/schema';
 import { signSessionToken } from '@/server/auth/jwt';
 import { hashPassword, verifyPassword } from '@/server/auth/password';
 import type { Config } from '@/server/config';

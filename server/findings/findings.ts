@@ -11,14 +11,14 @@ import type { z } from 'zod';
 import { inspectionPhotos, inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { auditLog, rides, users } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import {
   findingProblems,
   severityInfo,
   type Finding,
   type findingInputSchema,
   type findingPatchSchema,
-} from '@/features/review/schema';
+} from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';

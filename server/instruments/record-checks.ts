@@ -6,7 +6,7 @@
  */
 import type Database from 'better-sqlite3';
 
-import type { InspectionRecord } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/records/schema';
 import { pastDueAt } from '@/features/instruments/schema';
 import type { Db } from '@/server/db';
 import { sqliteOf } from '@/server/sqlite-client';

@@ -13,7 +13,7 @@ import { inspections, photos } from '@/db/server/inspections';
 import { correctiveActions, noticeFindings, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import { rides } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type {
   correctiveActionInputSchema,
   FindingStateResponse,

@@ -19,7 +19,7 @@ import { CAUTION_SHORT } from '@/lib/caution-text';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine';
 import { formatRatio } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
-import { severityInfo } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { deliverOnce, sendingLeaseMs, type DeliveryHooks, type DeliveryOutcome } from '@/server/mail/deliver';

@@ -11,7 +11,7 @@ import { companies, rides, sites, users } from '@/db/server/schema';
 import { formatEnvelopeItem, measuredSources, sortByConcern } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
-import { severityInfo } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { rideStatusWords, roleWords } from '@/server/notices/words';

@@ -11,7 +11,7 @@ import { alias } from 'drizzle-orm/sqlite-core';
 import { correctiveActions, noticeDeliveries, noticeFindings, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import { companies, rides, users } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type {
   CorrectiveAction,
   NoticeDeliveryState,

@@ -2,7 +2,7 @@ import { and, desc, eq, max, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { designVersions, users } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { diffDesign, loosensALimit } from '@/features/registry/design-diff';
 import type {

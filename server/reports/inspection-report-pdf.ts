@@ -10,7 +10,7 @@ import { CAUTION_FULL } from '@/lib/caution-text';
 import { colors as C } from '@/lib/colors';
 import { formatWhen } from '@/lib/dates';
 import { checkResultVocabulary } from '@/lib/vocabulary';
-import type { ChecklistAnswer, Reading } from '@/features/inspections/schema';
+import type { ChecklistAnswer, Reading } from '@/features/records/schema';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine/envelope';
 import {
@@ -27,8 +27,8 @@ import {
   formatSpread,
   reviewStateLabel,
 } from '@/features/review/review-format';
-import { readingKindLabel } from '@/features/inspections/schema';
-import { severityInfo } from '@/features/review/schema';
+import { readingKindLabel } from '@/features/records/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import { rideClassLabel, type RideClass } from '@/features/rides/schema';
 import { orNot } from '@/server/notices/words';
 import { FONT_FILES, fontDir, fonts } from '@/server/pdf/fonts';

@@ -6,7 +6,7 @@
 import { eq } from 'drizzle-orm';
 
 import { companies, rides, sites } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type { Db } from '@/server/db';
 import { getInspection, type InspectionDetail } from '@/server/sync/read';
 

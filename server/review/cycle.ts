@@ -8,7 +8,7 @@ import { eq } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
-import { analyseInspection } from '@/features/inspections/analysis';
+import { analyseInspection } from '@/features/records/analysis';
 import { cycleResultToJson, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
 import type { CycleResponse } from '@/features/loads/schema';
 import type { Db } from '@/server/db';

@@ -10,9 +10,10 @@ import { eq } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { findings } from '@/db/server/review';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type { findingCloseInputSchema, FindingStateResponse } from '@/features/notices/schema';
-import { severityInfo, type FindingSeverity } from '@/features/review/schema';
+import { type FindingSeverity } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import { conflict } from '@/server/http/errors';
 import {

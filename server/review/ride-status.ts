@@ -14,12 +14,9 @@ import type { z } from 'zod';
 import { inspections } from '@/db/server/inspections';
 import { findings, rideStatusChanges } from '@/db/server/review';
 import { inspectionSchedules, rides, users } from '@/db/server/schema';
-import type { Role, SessionUser } from '@/features/auth/schema';
-import {
-  severityInfo,
-  type FindingSeverity,
-  type rideStatusChangeInputSchema,
-} from '@/features/review/schema';
+import type { Role, SessionUser } from '@/features/session/schema';
+import { type FindingSeverity, type rideStatusChangeInputSchema } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import {
   checkTransition,
   eases,

@@ -1,13 +1,8 @@
 import { Router } from 'express';
 
 import { idParamsSchema } from '@/features/registry/schema';
-import {
-  decisionInputSchema,
-  findingInputSchema,
-  findingPatchSchema,
-  type DecisionResponse,
-  type TrendsResponse,
-} from '@/features/review/schema';
+import { decisionInputSchema, type DecisionResponse, type TrendsResponse } from '@/features/review/schema';
+import { findingInputSchema, findingPatchSchema } from '@/features/notices/finding-schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';

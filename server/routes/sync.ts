@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 
-import { pushBatchSchema } from '@/features/inspections/schema';
+import { pushBatchSchema } from '@/features/records/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';

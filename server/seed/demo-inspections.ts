@@ -3,7 +3,7 @@
  * how the supervisor decided (`demo-activity.ts` pushes it through the real paths). Invented values: pin
  * wear and clearances drift toward their limits over months.
  */
-import type { InspectionType, Reading, ReadingKind } from '@/features/inspections/schema';
+import type { InspectionType, Reading, ReadingKind } from '@/features/records/schema';
 import type { FindingSeverity } from '@/features/review/schema';
 import type { DemoPhotoName } from '@/server/seed/demo-photos';
 

@@ -6,7 +6,7 @@
 import { count } from 'drizzle-orm';
 
 import { instruments } from '@/db/server/instruments';
-import type { InstrumentSnapshot, ReadingKind } from '@/features/inspections/schema';
+import type { InstrumentSnapshot, ReadingKind } from '@/features/records/schema';
 import type { instrumentMethods } from '@/features/instruments/schema';
 import type { Db } from '@/server/db';
 import { demoUuid } from '@/server/seed/demo-ids';

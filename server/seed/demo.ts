@@ -12,7 +12,7 @@ import {
   type RideStatus,
   type SiteKind,
 } from '@/db/server/schema';
-import type { Role } from '@/features/auth/schema';
+import type { Role } from '@/features/session/schema';
 import { checklistContentSchema } from '@/features/registry/schema';
 import { hashPassword } from '@/server/auth/password';
 import { assertUserCompany } from '@/server/auth/service';

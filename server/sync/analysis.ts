@@ -8,9 +8,9 @@ import { and, asc, eq, isNull } from 'drizzle-orm';
 
 import { inspections, type StoredAnalysis } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
-import { analyseRecord, previewDifferences, previewOf } from '@/features/inspections/analysis';
-import { confirmedOutOfRange } from '@/features/inspections/plausibility';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import { analyseRecord, previewDifferences, previewOf } from '@/features/records/analysis';
+import { confirmedOutOfRange } from '@/features/records/plausibility';
+import type { InspectionRecord } from '@/features/records/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';

@@ -8,8 +8,8 @@ import type Database from 'better-sqlite3';
 import { and, eq } from 'drizzle-orm';
 
 import { checklistTemplateVersions } from '@/db/server/schema';
-import { passedOverLimitWithoutReason } from '@/features/inspections/checklist-limits';
-import type { ChecklistAnswer } from '@/features/inspections/schema';
+import { passedOverLimitWithoutReason } from '@/features/records/checklist-limits';
+import type { ChecklistAnswer } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { type ChecklistContent, storedChecklistContentSchema } from '@/features/registry/schema';
 import { formatAgainstLimit } from '@/lib/measured-format';

@@ -3,7 +3,7 @@
  * value appears, so a text that does not convert to the stored SI value would show one number and
  * analyse another. Checked at ingest, after the schema (which already requires a plain decimal).
  */
-import type { InspectionRecord } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/records/schema';
 import { type QuantityKind, toSI } from '@/lib/units';
 import { unitOfLabel } from '@/lib/measured-format';
 

@@ -12,13 +12,13 @@ import { createHash } from 'node:crypto';
 
 import type Database from 'better-sqlite3';
 
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import {
   inspectionRecordSchema,
   type InspectionRecord,
   type PushResult,
   type Reading,
-} from '@/features/inspections/schema';
+} from '@/features/records/schema';
 import { zodIssues } from '@/lib/api-errors';
 import type { DesignData } from '@/features/loads/design-schema';
 import { companyScope } from '@/server/auth/scope';

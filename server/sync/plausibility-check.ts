@@ -6,8 +6,8 @@
  */
 import type Database from 'better-sqlite3';
 
-import { plausibilityText, unconfirmedImplausible } from '@/features/inspections/plausibility';
-import type { Reading } from '@/features/inspections/schema';
+import { plausibilityText, unconfirmedImplausible } from '@/features/records/plausibility';
+import type { Reading } from '@/features/records/schema';
 import { type DesignData, designDataSchema } from '@/features/loads/design-schema';
 
 type Issue = { path: string; message: string };

@@ -22,7 +22,7 @@ import {
   rides,
   users,
 } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { PulledDecisionFinding, PullResponse } from '@/features/sync/pull-schema';
 import { companyScope } from '@/server/auth/scope';

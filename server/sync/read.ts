@@ -8,7 +8,7 @@ import { alias } from 'drizzle-orm/sqlite-core';
 
 import { inspectionPhotos, inspectionReadings, inspections, photos } from '@/db/server/inspections';
 import { designVersions, rides, users } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { offsetOf } from '@/server/registry/query';

@@ -9,7 +9,7 @@ import { act, fireEvent, render, screen } from '@testing-library/react-native';
 import { useEffect, useState } from 'react';
 
 import { ChecklistSection } from '@/features/inspections/checklist-section';
-import { type Draft, answerItem, draftProblems, newDraft } from '@/features/inspections/draft';
+import { type Draft, answerItem, draftProblems, newDraft } from '@/features/records/draft';
 import { ReadingsSection } from '@/features/inspections/readings-section';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import { rodDesign } from '@/tests/engine/support/rod-design';

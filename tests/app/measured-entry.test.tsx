@@ -6,10 +6,10 @@
 import { fireEvent, render, screen } from '@testing-library/react-native';
 
 import { ChecklistSection } from '@/features/inspections/checklist-section';
-import { type Draft, newDraft } from '@/features/inspections/draft';
+import { type Draft, newDraft } from '@/features/records/draft';
 import { ReadingsSection } from '@/features/inspections/readings-section';
-import type { Reading } from '@/features/inspections/schema';
-import { readingSchema } from '@/features/inspections/schema';
+import type { Reading } from '@/features/records/schema';
+import { readingSchema } from '@/features/records/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import { rodDesign } from '@/tests/engine/support/rod-design';
 

@@ -11,7 +11,7 @@ import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { measuredSources } from '@/features/loads/format';
 import { NoticeDocumentView } from '@/features/notices/notice-document-view';
 import { limitEnvelope, limitReadings, limitStrings } from '@/tests/engine/support/limit-values';
-import { fixtureNotice } from '@/tests/server/support/notice-fixture';
+import { fixtureNotice } from '@/scripts/sample-notice';
 
 const rowOf = (label: string) => {
   let node = screen.getByText(label).parent;

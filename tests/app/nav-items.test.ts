@@ -1,5 +1,5 @@
-import { roleHome } from '@/features/auth/api';
-import { roles } from '@/features/auth/schema';
+import { roleHome } from '@/features/auth/hrefs';
+import { roles } from '@/features/session/schema';
 import { isActive, navItems } from '@/features/shell/nav-items';
 
 test.each(roles)('the first navigation item of %s is its home', (role) => {

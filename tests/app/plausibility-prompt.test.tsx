@@ -7,9 +7,9 @@
 import { fireEvent, render, screen } from '@testing-library/react-native';
 import { Pressable, Text } from 'react-native';
 
-import type { Draft } from '@/features/inspections/draft';
+import type { Draft } from '@/features/records/draft';
 import { ReadingsSection } from '@/features/inspections/readings-section';
-import type { Reading } from '@/features/inspections/schema';
+import type { Reading } from '@/features/records/schema';
 import { storedAnalysisSchema } from '@/features/review/inspection-schema';
 import { ConfirmedOutOfRange } from '@/features/review/readings-table';
 import { skylarkDesign } from '@/server/seed/demo-design';

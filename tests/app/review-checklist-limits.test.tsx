@@ -8,8 +8,8 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { render, screen, within } from '@testing-library/react-native';
 
 import { makeQueryClient } from '@/features/api/query-client';
-import { checklistItemId } from '@/features/inspections/checklist-limits';
-import type { ChecklistAnswer } from '@/features/inspections/schema';
+import { checklistItemId } from '@/features/records/checklist-limits';
+import type { ChecklistAnswer } from '@/features/records/schema';
 import type { EnvelopeItem } from '@/features/loads/engine';
 import { registryKeys } from '@/features/registry/api';
 import type { ChecklistTemplate } from '@/features/registry/schema';

@@ -1,4 +1,4 @@
-import { parseStoredSession } from '@/features/api/stored-session';
+import { parseStoredSession } from '@/features/session/stored-session';
 
 const user = {
   id: 'u1',

@@ -3,7 +3,7 @@
  * Reference values: uniform slender rod driven at constant speed in a vertical plane (standard
  * rigid-body result, e.g. Meriam & Kraige, Dynamics; from memory): peak pin force mg + m·ω²·L/2.
  */
-import { manualRequest, profileFromRow, runCalculator } from '@/features/loads/calculator-model';
+import { manualRequest, profileFromRow, runCalculator } from '@/features/calculator/calculator-model';
 
 const g = 9.80665;
 const motion = (patch: Partial<Parameters<typeof profileFromRow>[0]>) => ({

@@ -10,7 +10,7 @@
  *   ride's own documents may override (`nearMargin`).
  * Every expected status below is worked out by hand from those rules, in the unit the inspector types.
  */
-import { analyseInspection, analyseRecord } from '@/features/inspections/analysis';
+import { analyseInspection, analyseRecord } from '@/features/records/analysis';
 import {
   checklistEnvelope,
   checklistValueStatus,
@@ -19,13 +19,13 @@ import {
   isGap,
   passedOverLimitWithoutReason,
   resolveLimit,
-} from '@/features/inspections/checklist-limits';
+} from '@/features/records/checklist-limits';
 import {
   type ChecklistAnswer,
   type Reading,
   checklistAnswerSchema,
   inspectionRecordSchema,
-} from '@/features/inspections/schema';
+} from '@/features/records/schema';
 import { DEFAULT_NEAR_MARGIN } from '@/features/loads/engine';
 import type { DesignData } from '@/features/loads/design-schema';
 import {

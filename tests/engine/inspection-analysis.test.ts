@@ -3,9 +3,9 @@
  * peak pin force mg + m·ω²·L/2 (standard rigid-body result, e.g. Meriam & Kraige, Dynamics; from memory).
  * Wear ratio convention (diameter lost / allowance) is common practice in pin wear limits.
  */
-import { analyseInspection, previewDifferences, previewOf } from '@/features/inspections/analysis';
-import { addReading, answerItem, draftProblems, newDraft, toRecord } from '@/features/inspections/draft';
-import type { Reading } from '@/features/inspections/schema';
+import { analyseInspection, previewDifferences, previewOf } from '@/features/records/analysis';
+import { addReading, answerItem, draftProblems, newDraft, toRecord } from '@/features/records/draft';
+import type { Reading } from '@/features/records/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 
 import { rodDesign } from './support/rod-design';

@@ -15,7 +15,7 @@ import {
 } from '@/features/sync/outbox-machine';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
-jest.mock('@/features/api/token-store', () => ({ tokenStore: { get: async () => null } }));
+jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 
 const now = new Date('2026-06-01T08:00:00.000Z');
 const queued: OutboxEntry = {

@@ -1,5 +1,5 @@
 import { type ChainBody, createChain, jointAccelerations, solveInstant } from '@/features/loads/engine';
-import { buildPlanckChain } from '@/tests/engine/support/planck-chain';
+import { buildPlanckChain } from '@/bench/planck-chain';
 
 /**
  * Reference: planck 1.4 (npm), a general-purpose 2D rigid-body engine ported from Box2D, simulating the

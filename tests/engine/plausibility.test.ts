@@ -13,7 +13,7 @@ import {
   designValueSI,
   plausibilityText,
   unconfirmedImplausible,
-} from '@/features/inspections/plausibility';
+} from '@/features/records/plausibility';
 import type { DesignMotion } from '@/features/loads/design-schema';
 import { toSI } from '@/lib/units';
 import { skylarkDesign } from '@/server/seed/demo-design';

@@ -4,7 +4,7 @@
  * inspection is that a ride stopped for a defect runs again only after a competent person's check), so
  * a change to any cell of `features/review/status-rules.ts` shows up here as a named difference.
  */
-import { roles, type Role } from '@/features/auth/schema';
+import { roles, type Role } from '@/features/session/schema';
 import {
   checkTransition,
   eventForStatus,

@@ -11,9 +11,9 @@ import { ApiRequestError } from '@/lib/api-errors';
 import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoBlob, putPhotoBlob } from '@/features/device-db/photos';
 import { saveDraft, submitDraft } from '@/features/device-db/drafts';
-import { readAssignments, readRides, readTemplates } from '@/features/device-db/cache';
+import { readAssignments, readRides, readTemplates } from '@/features/sync/cache';
 import { getSyncMeta } from '@/features/device-db/sync-meta';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/records/schema';
 import { uploadPhotos } from '@/features/sync/photo-upload';
 import { PullResponseError, pull } from '@/features/sync/pull';
 import { MAX_BATCH, pushOutbox } from '@/features/sync/push';
@@ -24,7 +24,7 @@ import { fakeJpeg, makeRecord, photoRef } from './support/inspection-fixtures';
 import { type MemoryDeviceDb, memoryDeviceDb } from './support/memory-device-db';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
-jest.mock('@/features/api/token-store', () => ({ tokenStore: { get: async () => null } }));
+jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 
 let dev: MemoryDeviceDb;
 let server: FakeSyncServer;

@@ -88,12 +88,12 @@ describe('layer rules accept the allowed directions', () => {
     // A lower feature imports a higher feature's contract.
     [
       'features/device-db/planted.ts',
-      "import { inspectionRecordSchema } from '@/features/inspections/schema';\nexport const x = inspectionRecordSchema;\n",
+      "import { inspectionRecordSchema } from '@/features/records/schema';\nexport const x = inspectionRecordSchema;\n",
     ],
     // The server imports a pure feature module and lib.
     [
       'server/planted.ts',
-      "import { analyseRecord } from '@/features/inspections/analysis';\nimport { formatDate } from '@/lib/dates';\nexport const x = [analyseRecord, formatDate];\n",
+      "import { analyseRecord } from '@/features/records/analysis';\nimport { formatDate } from '@/lib/dates';\nexport const x = [analyseRecord, formatDate];\n",
     ],
     ['components/planted.tsx', "import { formatDate } from '@/lib/dates';\nexport const x = formatDate;\n"],
   ];

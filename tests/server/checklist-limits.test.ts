@@ -10,7 +10,7 @@ import { randomUUID } from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
 
 import { checklistTemplates, checklistTemplateVersions } from '@/db/server/schema';
-import type { ChecklistAnswer } from '@/features/inspections/schema';
+import type { ChecklistAnswer } from '@/features/records/schema';
 import { queueResponseSchema } from '@/features/review/schema';
 import { type ChecklistContent, storedChecklistContentSchema } from '@/features/registry/schema';
 import { toSI } from '@/lib/units';

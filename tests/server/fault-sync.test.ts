@@ -26,7 +26,7 @@ import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors'
 import { countOutbox, listOutbox } from '@/features/device-db/outbox';
 import { listPhotoBlobs, putPhotoBlob } from '@/features/device-db/photos';
 import { submitDraft } from '@/features/device-db/drafts';
-import { type InspectionRecord, pushResultSchema } from '@/features/inspections/schema';
+import { type InspectionRecord, pushResultSchema } from '@/features/records/schema';
 import type { SyncApi } from '@/features/sync/api';
 import { syncOnce } from '@/features/sync/sync-run';
 import { startServer, type RunningServer } from '@/server/main';
@@ -37,7 +37,7 @@ import { imageBytes, makeRecord, otherReading, photoRefFor, speedReading } from 
 
 // The app's API client module stores the session with expo-secure-store, which node cannot load; this test
 // passes its token explicitly and never reads the store.
-jest.mock('@/features/api/token-store', () => ({ tokenStore: { get: async () => null } }));
+jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 jest.setTimeout(120_000);
 
 const N = 60;

@@ -14,7 +14,7 @@ import { count, eq } from 'drizzle-orm';
 import { instruments } from '@/db/server/instruments';
 import { auditLog } from '@/db/server/schema';
 import { DEFAULT_DECLARATION_TEXT, instrumentSchema } from '@/features/instruments/schema';
-import type { Reading } from '@/features/inspections/schema';
+import type { Reading } from '@/features/records/schema';
 import { pullResponseSchema } from '@/features/sync/pull-schema';
 import { demoInstruments } from '@/server/seed/demo-instruments';
 

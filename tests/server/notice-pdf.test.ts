@@ -8,14 +8,14 @@ import path from 'node:path';
 
 import { CAUTION_FULL } from '@/lib/caution-text';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
-import { severityInfo } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import { renderNoticePdf, type PhotoLoader } from '@/server/notices/pdf';
 import {
   fixtureNotice,
   fixturePhotos,
   loadFixturePhoto,
   noticeWithFindings,
-} from '@/tests/server/support/notice-fixture';
+} from '@/scripts/sample-notice';
 
 jest.setTimeout(60_000);
 

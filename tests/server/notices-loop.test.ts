@@ -19,7 +19,8 @@ import {
   noticeListResponseSchema,
   noticeResponseSchema,
 } from '@/features/notices/schema';
-import { decisionResponseSchema, severityInfo } from '@/features/review/schema';
+import { decisionResponseSchema } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
 import { analysePending } from '@/server/sync/analysis';
 

@@ -15,7 +15,7 @@ import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
-import { inspectionCycleInput } from '@/features/inspections/analysis';
+import { inspectionCycleInput } from '@/features/records/analysis';
 import { ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';

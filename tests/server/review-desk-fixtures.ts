@@ -10,7 +10,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import request from 'supertest';
 
 import { auditLog } from '@/db/server/schema';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/records/schema';
 import { createUser } from '@/server/auth/service';
 import type { Db } from '@/server/db';
 import { auditRowOrder } from '@/server/registry/audit-query';

@@ -8,12 +8,12 @@ import { randomUUID } from 'node:crypto';
 import { count, eq } from 'drizzle-orm';
 
 import { findings } from '@/db/server/review';
+import { findingSeverities } from '@/features/review/schema';
 import {
   findingListResponseSchema,
   findingResponseSchema,
-  findingSeverities,
   type Finding,
-} from '@/features/review/schema';
+} from '@/features/notices/finding-schema';
 
 import { numberRideFindings } from '@/server/findings/findings';
 

@@ -26,7 +26,7 @@ import {
   urgencies,
   type QueueItem,
 } from '@/features/review/schema';
-import type { InspectionRecord } from '@/features/inspections/schema';
+import type { InspectionRecord } from '@/features/records/schema';
 import { createApp } from '@/server/app';
 import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb } from '@/server/db';

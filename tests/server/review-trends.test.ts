@@ -6,8 +6,8 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import { analyseInspection } from '@/features/inspections/analysis';
-import type { Reading } from '@/features/inspections/schema';
+import { analyseInspection } from '@/features/records/analysis';
+import type { Reading } from '@/features/records/schema';
 import { trendsResponseSchema } from '@/features/review/schema';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';

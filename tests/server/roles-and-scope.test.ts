@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import request from 'supertest';
 
 import { companies, users } from '@/db/server/schema';
-import type { SessionUser } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
 import { companyScope } from '@/server/auth/scope';
 import { createUser } from '@/server/auth/service';
 import { HttpError } from '@/server/http/errors';

@@ -8,7 +8,7 @@ import { and, asc, count, eq } from 'drizzle-orm';
 import { inspectionReadings, inspections, photos, syncBatches } from '@/db/server/inspections';
 import { findings, reviewQueue } from '@/db/server/review';
 import { auditLog, companies, designVersions, rides, sites, users } from '@/db/server/schema';
-import { analyseInspection } from '@/features/inspections/analysis';
+import { analyseInspection } from '@/features/records/analysis';
 import { urgencies } from '@/features/review/schema';
 import { openDb, type OpenedDb } from '@/server/db';
 import {

@@ -11,7 +11,7 @@ import { eq } from 'drizzle-orm';
 import { randomUUID } from 'node:crypto';
 
 import { inspections } from '@/db/server/inspections';
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
+import { analyseInspection, previewOf } from '@/features/records/analysis';
 import { ENGINE_VERSION } from '@/features/loads/engine';
 import { findSessionUser } from '@/server/auth/service';
 import { createApp } from '@/server/app';

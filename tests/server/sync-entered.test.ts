@@ -8,7 +8,7 @@ import { randomUUID } from 'node:crypto';
 import { count, eq } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
-import type { Reading } from '@/features/inspections/schema';
+import type { Reading } from '@/features/records/schema';
 
 import { makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';

@@ -7,9 +7,9 @@ import { createHash, randomUUID } from 'node:crypto';
 import { desc, eq } from 'drizzle-orm';
 
 import { designVersions, rides } from '@/db/server/schema';
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import { checkAgainstDesign } from '@/features/inspections/plausibility';
-import type { InspectionRecord, PhotoRef, Reading } from '@/features/inspections/schema';
+import { analyseInspection, previewOf } from '@/features/records/analysis';
+import { checkAgainstDesign } from '@/features/records/plausibility';
+import type { InspectionRecord, PhotoRef, Reading } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { Db } from '@/server/db';
 

@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { count, eq } from 'drizzle-orm';
 
 import { inspectionPhotos, inspectionReadings, inspections, syncBatches } from '@/db/server/inspections';
-import { pushResultSchema, type InspectionRecord } from '@/features/inspections/schema';
+import { pushResultSchema, type InspectionRecord } from '@/features/records/schema';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';

@@ -7,7 +7,7 @@
 import { createHash } from 'node:crypto';
 
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import type { InspectionRecord, PushResult } from '@/features/inspections/schema';
+import type { InspectionRecord, PushResult } from '@/features/records/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
 
 export type Fault = 'ok' | 'cut-before' | 'cut-after' | '502' | 'garbage';

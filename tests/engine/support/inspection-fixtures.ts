@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 
-import { type InspectionRecord, type PhotoRef, inspectionTypes } from '@/features/inspections/schema';
+import { type InspectionRecord, type PhotoRef, inspectionTypes } from '@/features/records/schema';
 
 /** Invented demo values; only the shape matters to the sync tests. */
 export function makeRecord(overrides: Partial<InspectionRecord> = {}): InspectionRecord {

@@ -6,7 +6,7 @@ import { measuredSources } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { resultsOf } from '@/server/notices/document-parts';
 import { limitEnvelope, limitReadings } from '@/tests/engine/support/limit-values';
-import { fixtureNotice } from '@/tests/server/support/notice-fixture';
+import { fixtureNotice } from '@/scripts/sample-notice';
 
 export function limitResults(): NoticeDocument['results'] {
   return resultsOf(limitEnvelope, measuredSources({ readings: limitReadings }));

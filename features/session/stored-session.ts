@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-import { sessionUserSchema } from '@/features/auth/schema';
+import { sessionUserSchema } from '@/features/session/schema';
 
 /** What the device keeps between launches: the token and the last known user (for offline starts). */
 export const storedSessionSchema = z.object({

@@ -1,6 +1,6 @@
 import * as SecureStore from 'expo-secure-store';
 
-import { type StoredSession, parseStoredSession } from '@/features/api/stored-session';
+import { type StoredSession, parseStoredSession } from '@/features/session/stored-session';
 
 // Native: the session lives in the platform keychain/keystore.
 const KEY = 'pivotwatch.session';

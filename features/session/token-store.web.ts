@@ -1,4 +1,4 @@
-import { type StoredSession, parseStoredSession } from '@/features/api/stored-session';
+import { type StoredSession, parseStoredSession } from '@/features/session/stored-session';
 
 // Web: localStorage, so a signed-in inspector can reload the app with no signal and keep working.
 // See DEVELOPERS.md ("Where the session token lives") for why not a cookie or sessionStorage.

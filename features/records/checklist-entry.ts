@@ -4,13 +4,8 @@
  * how it was measured) or updated with it, and the answer keeps its id, so the checklist and the readings
  * can never hold two different values for one measurement. Pure: no React.
  */
-import type { Draft } from '@/features/inspections/draft';
-import type {
-  ChecklistAnswer,
-  InstrumentSnapshot,
-  Reading,
-  ReadingKind,
-} from '@/features/inspections/schema';
+import type { Draft } from '@/features/records/draft';
+import type { ChecklistAnswer, InstrumentSnapshot, Reading, ReadingKind } from '@/features/records/schema';
 
 type Measurement = NonNullable<ChecklistAnswer['measurement']>;
 

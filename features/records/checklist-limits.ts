@@ -14,7 +14,7 @@ import {
   evaluateLimit,
   worstStatus,
 } from '@/features/loads/engine';
-import type { ChecklistAnswer, Reading, ReadingKind } from '@/features/inspections/schema';
+import type { ChecklistAnswer, Reading, ReadingKind } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import {
   type ChecklistContent,

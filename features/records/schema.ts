@@ -6,6 +6,7 @@
 import { z } from 'zod';
 
 import { inspectionTypeSchema } from '@/features/registry/schema';
+import { checkResults, checkResultVocabulary, labelsOf } from '@/lib/vocabulary';
 
 const uuid = () => z.uuid({ error: 'Must be a UUID' });
 const isoTime = () => z.iso.datetime({ offset: true, error: 'Must be an ISO date-time' });
@@ -22,14 +23,10 @@ const enteredText = () =>
 export { inspectionTypeLabel, inspectionTypeSchema, inspectionTypes } from '@/features/registry/schema';
 export type { InspectionType } from '@/features/registry/schema';
 
-export const checkResults = ['pass', 'fail', 'na'] as const;
+export { checkResults };
 export const checkResultSchema = z.enum(checkResults);
 export type CheckResult = z.infer<typeof checkResultSchema>;
-export const checkResultLabel: Record<CheckResult, string> = {
-  pass: 'Pass',
-  fail: 'Fail',
-  na: 'Not applicable',
-};
+export const checkResultLabel = labelsOf(checkResultVocabulary);
 
 /** One checklist item's answer; the item's text is copied so the record reads on its own later. */
 export const checklistAnswerSchema = z.object({

@@ -11,8 +11,8 @@ import {
   type MotionProfile,
   analyseCycle,
 } from '@/features/loads/engine';
-import { withChecklistLimits } from '@/features/inspections/checklist-limits';
-import type { ChecklistAnswer, DevicePreview, Reading } from '@/features/inspections/schema';
+import { withChecklistLimits } from '@/features/records/checklist-limits';
+import type { ChecklistAnswer, DevicePreview, Reading } from '@/features/records/schema';
 import { type DesignData, type MeasuredInputs, designToCycleInput } from '@/features/loads/design-schema';
 import type { ChecklistContent } from '@/features/registry/schema';
 

@@ -3,7 +3,7 @@
  * draft, which the screen saves to the device database straight away (nothing typed is ever only in
  * memory).
  */
-import { readingLink } from '@/features/inspections/checklist-limits';
+import { readingLink } from '@/features/records/checklist-limits';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import {
@@ -16,7 +16,7 @@ import {
   type Reading,
   inspectionRecordSchema,
   type DraftProblem,
-} from '@/features/inspections/schema';
+} from '@/features/records/schema';
 
 export type Draft = {
   id: string;

@@ -27,9 +27,10 @@ import {
   newMotion,
   rideRequest,
   runCalculator,
-} from '@/features/loads/calculator-model';
+} from '@/features/calculator/calculator-model';
 import { CycleResults } from '@/features/loads/cycle-results';
-import { useRideQuery, useRidesQuery } from '@/features/rides/api';
+import { useRidesQuery } from '@/features/rides/api';
+import { useRideQuery } from '@/features/registry/api';
 import { rideClassLabel } from '@/features/rides/schema';
 import { useUnitSystem } from '@/features/settings/unit-system';
 
