@@ -45,32 +45,14 @@ type Scope = 'all' | 'rides' | 'inspections';
 
 const inIds = (column: SQL) => sql`${column} IN (SELECT value FROM json_each(${IDS}))`;
 
-/** The two statements of a refresh of `scope`: delete the rows it covers, insert them afresh. */
-function refreshStatements(scope: Scope): SQL[] {
-  const scopeRides = sql`(SELECT x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)})`;
-  const onlyRides = (column: SQL): SQL =>
-    scope === 'all' ? sql`1` : scope === 'rides' ? inIds(column) : sql`${column} IN ${scopeRides}`;
-  // Scoped, the inspections are found through the ride or primary-key index; the unary + keeps SQLite
-  // from preferring the review-state index, which would walk every submitted inspection (ms per write).
-  const pendingScope =
-    scope === 'all'
-      ? sql`i.review_state = 'submitted'`
-      : sql`+i.review_state = 'submitted' AND ${scope === 'rides' ? inIds(sql`i.ride_id`) : inIds(sql`i.id`)}`;
-  const covered =
-    scope === 'all'
-      ? sql`1`
-      : scope === 'rides'
-        ? inIds(sql`${reviewQueue.rideId}`)
-        : sql`${reviewQueue.key} IN (
-            SELECT 'i:' || value FROM json_each(${IDS})
-            UNION ALL SELECT 'i:' || x.amends_id FROM ${inspections} x
-              WHERE ${inIds(sql`x.id`)} AND x.amends_id IS NOT NULL
-            UNION ALL SELECT 'r:' || x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)}
-          )`;
-  return [
-    sql`DELETE FROM ${reviewQueue} WHERE ${covered}`,
-    sql`
-    WITH
+type OnlyRides = (column: SQL) => SQL;
+
+/**
+ * What decides a ride's rows, for the rides in scope: its earliest overdue schedule, its findings past
+ * due, the returned inspection that keeps it flagged, and the inspections waiting for a decision.
+ */
+function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
+  return sql`
       ride_due AS (
         SELECT ${inspectionSchedules.rideId} AS ride_id, MIN(${nextDueSql}) AS overdue_since
         FROM ${inspectionSchedules}
@@ -113,12 +95,11 @@ function refreshStatements(scope: Scope): SQL[] {
         SELECT i.* FROM ${inspections} i
         WHERE ${pendingScope}
           AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
-      )
-    INSERT INTO ${reviewQueue} (
-      key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
-      site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
-      failed_items, overdue_since, findings_past_due, search
-    )
+      )`;
+}
+
+/** One row per inspection waiting for a decision (an amendment stands in for its original). */
+const inspectionRows = sql`
     SELECT
       'i:' || i.id, 'inspection', i.id, i.type, r.id, r.name, r.ride_class, r.status, r.site_id,
       s.name, r.operator_company_id, c.name, i.inspector_id, u.name,
@@ -140,8 +121,11 @@ function refreshStatements(scope: Scope): SQL[] {
       JOIN ${users} u ON u.id = i.inspector_id
       LEFT JOIN ${sites} s ON s.id = r.site_id
       LEFT JOIN ride_due d ON d.ride_id = r.id
-      LEFT JOIN ride_past p ON p.ride_id = r.id
-    UNION ALL
+      LEFT JOIN ride_past p ON p.ride_id = r.id`;
+
+/** One row per ride flagged by a returned inspection, or overdue / past due with nothing waiting. */
+function rideRows(onlyRides: OnlyRides): SQL {
+  return sql`
     SELECT
       'r:' || r.id, 'ride', al.inspection_id, al.type, r.id, r.name, r.ride_class, r.status, r.site_id,
       s.name, r.operator_company_id, c.name, al.inspector_id, au.name,
@@ -175,7 +159,44 @@ function refreshStatements(scope: Scope): SQL[] {
           )
         )
       )
-      AND ${onlyRides(sql`r.id`)}
+      AND ${onlyRides(sql`r.id`)}`;
+}
+
+/** The two statements of a refresh of `scope`: delete the rows it covers, insert them afresh. */
+function refreshStatements(scope: Scope): SQL[] {
+  const scopeRides = sql`(SELECT x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)})`;
+  const onlyRides = (column: SQL): SQL =>
+    scope === 'all' ? sql`1` : scope === 'rides' ? inIds(column) : sql`${column} IN ${scopeRides}`;
+  // Scoped, the inspections are found through the ride or primary-key index; the unary + keeps SQLite
+  // from preferring the review-state index, which would walk every submitted inspection (ms per write).
+  const pendingScope =
+    scope === 'all'
+      ? sql`i.review_state = 'submitted'`
+      : sql`+i.review_state = 'submitted' AND ${scope === 'rides' ? inIds(sql`i.ride_id`) : inIds(sql`i.id`)}`;
+  const covered =
+    scope === 'all'
+      ? sql`1`
+      : scope === 'rides'
+        ? inIds(sql`${reviewQueue.rideId}`)
+        : sql`${reviewQueue.key} IN (
+            SELECT 'i:' || value FROM json_each(${IDS})
+            UNION ALL SELECT 'i:' || x.amends_id FROM ${inspections} x
+              WHERE ${inIds(sql`x.id`)} AND x.amends_id IS NOT NULL
+            UNION ALL SELECT 'r:' || x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)}
+          )`;
+  return [
+    sql`DELETE FROM ${reviewQueue} WHERE ${covered}`,
+    sql`
+    WITH
+${rideFacts(onlyRides, pendingScope)}
+    INSERT INTO ${reviewQueue} (
+      key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
+      site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
+      failed_items, overdue_since, findings_past_due, search
+    )
+${inspectionRows}
+    UNION ALL
+${rideRows(onlyRides)}
   `,
   ];
 }
