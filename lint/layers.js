@@ -1,5 +1,6 @@
 // The one-way layers of Pivotwatch as eslint-plugin-import `no-restricted-paths` zones. DEVELOPERS.md
 // ("Layers") draws the same picture; tests/lint/layers.test.ts plants violations and expects them to fail.
+const fs = require('fs');
 const path = require('path');
 
 /** Features from the bottom up: a feature may import the ones before it, never the ones after it. */
@@ -25,6 +26,34 @@ const featureOrder = [
   'ride-page',
   'home',
   'shell',
+];
+
+/** The server's folders and top-level modules from the bottom up, the same rule as the features'. */
+const serverOrder = [
+  'config',
+  'paths',
+  'logger',
+  'db',
+  'sqlite-client',
+  'mail',
+  'deps',
+  'http',
+  'auth',
+  'pdf',
+  'schedule-due',
+  'queue',
+  'registry',
+  'instruments',
+  'findings',
+  'sync',
+  'notices',
+  'review',
+  'reports',
+  'seed',
+  'routes',
+  'web',
+  'app',
+  'main',
 ];
 
 /**
@@ -96,7 +125,20 @@ function layerZones(root) {
       message: `features/${feature} sits below ${higher.join(', ')} (DEVELOPERS.md, "Layers"): only their contracts may be imported.`,
     });
   });
+  const serverPath = (name) => {
+    const folder = path.join(root, 'server', name);
+    return fs.existsSync(folder) ? `./server/${name}` : `./server/${name}.ts`;
+  };
+  serverOrder.forEach((entry, i) => {
+    const higher = serverOrder.slice(i + 1);
+    if (higher.length === 0) return;
+    zones.push({
+      target: serverPath(entry),
+      from: higher.map(serverPath),
+      message: `server/${entry} sits below ${higher.join(', ')} (DEVELOPERS.md, "Layers").`,
+    });
+  });
   return zones;
 }
 
-module.exports = { featureOrder, contractGlobs, layerZones };
+module.exports = { featureOrder, serverOrder, contractGlobs, layerZones };

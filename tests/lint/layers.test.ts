@@ -11,7 +11,10 @@ import { ESLint } from 'eslint';
 
 const root = path.resolve(__dirname, '../..');
 // eslint-disable-next-line @typescript-eslint/no-require-imports
-const { featureOrder } = require('../../lint/layers') as { featureOrder: string[] };
+const { featureOrder, serverOrder } = require('../../lint/layers') as {
+  featureOrder: string[];
+  serverOrder: string[];
+};
 
 // The project's own config, handed over directly: jest cannot run the dynamic import eslint uses to find it.
 // eslint-disable-next-line @typescript-eslint/no-require-imports
@@ -67,6 +70,11 @@ describe('layer rules refuse imports that point upward', () => {
       'A contract',
     ],
     [
+      'server/queue/planted.ts',
+      "import { mustTransition } from '@/server/review/ride-status';\nexport const x = mustTransition;\n",
+      'server/queue sits below',
+    ],
+    [
       'scripts/planted.ts',
       "import { a } from '@/tests/lint-fixtures/cycle/a';\nexport const x = a;\n",
       'Nothing outside tests/',
@@ -113,4 +121,11 @@ test('every feature folder has its place in the documented order', () => {
     .map((d) => d.name)
     .sort();
   expect(folders).toEqual([...featureOrder].sort());
+});
+
+test('every folder and module at the top of server/ has its place in the documented order', () => {
+  const entries = readdirSync(path.join(root, 'server'), { withFileTypes: true })
+    .map((d) => (d.isDirectory() ? d.name : d.name.replace(/\.ts$/, '')))
+    .sort();
+  expect(entries).toEqual([...serverOrder].sort());
 });

@@ -64,6 +64,6 @@ test('nothing the server loads is React, Expo, a route or a test', () => {
   const rel = [...files].map((f) => path.relative(root, f));
   expect(rel).toContain('server/routes/index.ts');
   expect(rel).toContain('features/loads/engine/index.ts');
-  expect(rel.some((f) => f.startsWith('features/inspections/'))).toBe(true);
+  expect(rel.some((f) => f.startsWith('features/records/'))).toBe(true);
   expect(offences).toEqual([]);
 });
