@@ -67,6 +67,208 @@ export type Decision = {
   findings: PulledDecisionFinding[];
 };
 
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** What every part of an answer works from: the rides the caller may see and what changed since. */
+function pullContext(tx: Tx, since: string | null, scope: string | null) {
+  const visibleRideRows = tx
+    .select({ id: rides.id, rideClass: rides.rideClass, createdAt: rides.createdAt })
+    .from(rides)
+    .where(scope === null ? undefined : eq(rides.operatorCompanyId, scope))
+    .all();
+  const visible = new Set(visibleRideRows.map((r) => r.id));
+  const classes = [...new Set(visibleRideRows.map((r) => r.rideClass))];
+
+  const audit =
+    since === null
+      ? []
+      : tx
+          .select({
+            entity: auditLog.entity,
+            entityId: auditLog.entityId,
+            action: auditLog.action,
+            rideId: auditLog.rideId,
+          })
+          .from(auditLog)
+          .where(gte(auditLog.at, since))
+          .all();
+  const audited = (entity: (typeof audit)[number]['entity']) =>
+    new Set(audit.filter((a) => a.entity === entity).map((a) => a.entityId));
+  return { tx, since, scope, visible, classes, visibleRideRows, audit, audited };
+}
+
+type PullContext = ReturnType<typeof pullContext>;
+
+/** Rides and their current design data (and the rides deleted since the cursor). */
+function pulledRides({ tx, since, scope, visible, visibleRideRows, audit, audited }: PullContext) {
+  let rideIds: string[];
+  let designRideIds: string[];
+  const removedRides: string[] = [];
+  if (since === null) {
+    rideIds = [...visible];
+    designRideIds = rideIds;
+  } else {
+    const changed = new Set<string>();
+    for (const r of visibleRideRows) if (r.createdAt >= since) changed.add(r.id);
+    for (const id of audited('ride')) changed.add(id);
+    // A renamed site or operator changes the names every ride summary carries.
+    const sites = [...audited('site')];
+    const companies = [...audited('company')];
+    if (sites.length || companies.length) {
+      const affected = tx
+        .select({ id: rides.id })
+        .from(rides)
+        .where(
+          or(
+            sites.length ? inArray(rides.siteId, sites) : undefined,
+            companies.length ? inArray(rides.operatorCompanyId, companies) : undefined,
+          ),
+        )
+        .all();
+      for (const r of affected) changed.add(r.id);
+    }
+    rideIds = [...changed].filter((id) => visible.has(id));
+    for (const a of audit)
+      if (a.entity === 'ride' && a.action === 'delete' && !visible.has(a.entityId))
+        removedRides.push(a.entityId);
+    const newDesigns = tx
+      .select({ rideId: designVersions.rideId })
+      .from(designVersions)
+      // A revision approved since the cursor was made earlier: its decision is what the phone must see.
+      .where(or(gte(designVersions.createdAt, since), gte(designVersions.decidedAt, since)))
+      .all()
+      .map((d) => d.rideId);
+    designRideIds = [...new Set([...rideIds, ...newDesigns])].filter((id) => visible.has(id));
+  }
+  const rideList = rideIds
+    .map((id) => findRide(tx, id, scope))
+    .filter((r): r is RideSummary => r !== null)
+    .sort((a, b) => a.name.localeCompare(b.name));
+  const designs = designRideIds.flatMap((rideId) => {
+    const design = findDesignVersion(tx, rideId);
+    return design ? [{ ...design, rideId }] : [];
+  });
+  return { rideList, designs, removedRides };
+}
+
+/** Checklist templates for the classes of the caller's rides (and the ones to drop). */
+function pulledTemplates({ tx, since, classes, audited }: PullContext, rideList: RideSummary[]) {
+  let templateIds: string[];
+  const removedTemplates: string[] = [];
+  if (since === null) {
+    templateIds = classes.flatMap((rideClass) => listChecklistTemplates(tx, { rideClass }).map((t) => t.id));
+  } else {
+    const changed = audited('checklist_template');
+    for (const t of tx
+      .select({ id: checklistTemplates.id })
+      .from(checklistTemplates)
+      .where(gte(checklistTemplates.createdAt, since))
+      .all())
+      changed.add(t.id);
+    for (const v of tx
+      .select({ id: checklistTemplateVersions.templateId })
+      .from(checklistTemplateVersions)
+      .where(gte(checklistTemplateVersions.createdAt, since))
+      .all())
+      changed.add(v.id);
+    for (const t of tx
+      .select({ id: checklistTemplates.id })
+      .from(checklistTemplates)
+      .where(and(isNotNull(checklistTemplates.archivedAt), gte(checklistTemplates.archivedAt, since)))
+      .all())
+      changed.add(t.id);
+    // A ride that is new, or changed class, needs its class's templates even if they did not change.
+    const rideClasses = new Set(rideList.map((r) => r.rideClass));
+    for (const rideClass of rideClasses)
+      for (const t of listChecklistTemplates(tx, { rideClass })) changed.add(t.id);
+    templateIds = [...changed];
+  }
+  const templates = templateIds.flatMap((id) => {
+    const template = findChecklistTemplate(tx, id);
+    if (!template) return [];
+    if (template.archivedAt !== null || !classes.includes(template.rideClass)) {
+      removedTemplates.push(id);
+      return [];
+    }
+    return [template];
+  });
+  return { templates, removedTemplates };
+}
+
+/** Decisions on the caller's inspections, each with its findings. */
+function pulledDecisions({ tx, since, audited }: PullContext, userId: string): Decision[] {
+  // A decision is sent again when it, or one of its findings, changed since the cursor. The audit log
+  // has every such change (a finding's entry keeps its inspection id, deleted findings included).
+  const touched =
+    since === null
+      ? []
+      : [
+          ...audited('inspection'),
+          ...tx
+            .select({
+              id: sql<
+                string | null
+              >`json_extract(coalesce(${auditLog.after}, ${auditLog.before}), '$.inspectionId')`,
+            })
+            .from(auditLog)
+            .where(and(eq(auditLog.entity, 'finding'), gte(auditLog.at, since)))
+            .all()
+            .flatMap((r) => (r.id ? [r.id] : [])),
+        ];
+  const decisionRows = tx
+    .select({
+      inspectionId: inspections.id,
+      rideId: inspections.rideId,
+      state: inspections.reviewState,
+      note: inspections.reviewNote,
+      decidedAt: inspections.reviewedAt,
+      decidedByName: users.name,
+    })
+    .from(inspections)
+    .leftJoin(users, eq(users.id, inspections.reviewedBy))
+    .where(
+      and(
+        eq(inspections.inspectorId, userId),
+        ne(inspections.reviewState, 'submitted'),
+        isNotNull(inspections.reviewedAt),
+        since === null
+          ? undefined
+          : or(
+              gte(inspections.reviewedAt, since),
+              touched.length ? inArray(inspections.id, [...new Set(touched)]) : undefined,
+            ),
+      ),
+    )
+    .all()
+    .flatMap((d) => (d.decidedAt === null ? [] : [{ ...d, decidedAt: d.decidedAt }]));
+  const findingsOf = new Map<string, PulledDecisionFinding[]>();
+  if (decisionRows.length)
+    for (const { inspectionId, ...f } of tx
+      .select({
+        inspectionId: findings.inspectionId,
+        id: findings.id,
+        number: findingNumber,
+        severity: findings.severity,
+        description: findings.description,
+        requiredAction: findings.requiredAction,
+        dueOn: findings.dueOn,
+        state: findings.state,
+      })
+      .from(findings)
+      // One parameter however many decisions a first pull carries.
+      .where(
+        sql`${findings.inspectionId} IN (SELECT value FROM json_each(${JSON.stringify(decisionRows.map((d) => d.inspectionId))}))`,
+      )
+      .orderBy(asc(findings.inspectionId), asc(findings.number))
+      .all())
+      findingsOf.set(inspectionId, [...(findingsOf.get(inspectionId) ?? []), f]);
+  const decisions: Decision[] = decisionRows.map((d) => ({
+    ...d,
+    findings: findingsOf.get(d.inspectionId) ?? [],
+  }));
+  return decisions;
+}
+
 /**
  * Builds one answer. `readAt` is when the answer is read (the next cursor); `now` is the business date
  * for assignments' due status (pinned in tests); `overlapMs` lets tests see exact deltas. A cursor in the future (the server's clock was set
@@ -90,199 +292,19 @@ export function buildPull(
 
   // One read transaction, so the answer is a consistent snapshot of the database.
   return db.transaction((tx) => {
-    const visibleRideRows = tx
-      .select({ id: rides.id, rideClass: rides.rideClass, createdAt: rides.createdAt })
-      .from(rides)
-      .where(scope === null ? undefined : eq(rides.operatorCompanyId, scope))
-      .all();
-    const visible = new Set(visibleRideRows.map((r) => r.id));
-    const classes = [...new Set(visibleRideRows.map((r) => r.rideClass))];
-
-    const audit =
-      since === null
-        ? []
-        : tx
-            .select({
-              entity: auditLog.entity,
-              entityId: auditLog.entityId,
-              action: auditLog.action,
-              rideId: auditLog.rideId,
-            })
-            .from(auditLog)
-            .where(gte(auditLog.at, since))
-            .all();
-    const audited = (entity: (typeof audit)[number]['entity']) =>
-      new Set(audit.filter((a) => a.entity === entity).map((a) => a.entityId));
-
-    // ——— rides and their current design data ———
-    let rideIds: string[];
-    let designRideIds: string[];
-    const removedRides: string[] = [];
-    if (since === null) {
-      rideIds = [...visible];
-      designRideIds = rideIds;
-    } else {
-      const changed = new Set<string>();
-      for (const r of visibleRideRows) if (r.createdAt >= since) changed.add(r.id);
-      for (const id of audited('ride')) changed.add(id);
-      // A renamed site or operator changes the names every ride summary carries.
-      const sites = [...audited('site')];
-      const companies = [...audited('company')];
-      if (sites.length || companies.length) {
-        const affected = tx
-          .select({ id: rides.id })
-          .from(rides)
-          .where(
-            or(
-              sites.length ? inArray(rides.siteId, sites) : undefined,
-              companies.length ? inArray(rides.operatorCompanyId, companies) : undefined,
-            ),
-          )
-          .all();
-        for (const r of affected) changed.add(r.id);
-      }
-      rideIds = [...changed].filter((id) => visible.has(id));
-      for (const a of audit)
-        if (a.entity === 'ride' && a.action === 'delete' && !visible.has(a.entityId))
-          removedRides.push(a.entityId);
-      const newDesigns = tx
-        .select({ rideId: designVersions.rideId })
-        .from(designVersions)
-        // A revision approved since the cursor was made earlier: its decision is what the phone must see.
-        .where(or(gte(designVersions.createdAt, since), gte(designVersions.decidedAt, since)))
-        .all()
-        .map((d) => d.rideId);
-      designRideIds = [...new Set([...rideIds, ...newDesigns])].filter((id) => visible.has(id));
-    }
-    const rideList = rideIds
-      .map((id) => findRide(tx, id, scope))
-      .filter((r): r is RideSummary => r !== null)
-      .sort((a, b) => a.name.localeCompare(b.name));
-    const designs = designRideIds.flatMap((rideId) => {
-      const design = findDesignVersion(tx, rideId);
-      return design ? [{ ...design, rideId }] : [];
-    });
-
-    // ——— checklist templates for the classes of those rides ———
-    let templateIds: string[];
-    const removedTemplates: string[] = [];
-    if (since === null) {
-      templateIds = classes.flatMap((rideClass) =>
-        listChecklistTemplates(tx, { rideClass }).map((t) => t.id),
-      );
-    } else {
-      const changed = audited('checklist_template');
-      for (const t of tx
-        .select({ id: checklistTemplates.id })
-        .from(checklistTemplates)
-        .where(gte(checklistTemplates.createdAt, since))
-        .all())
-        changed.add(t.id);
-      for (const v of tx
-        .select({ id: checklistTemplateVersions.templateId })
-        .from(checklistTemplateVersions)
-        .where(gte(checklistTemplateVersions.createdAt, since))
-        .all())
-        changed.add(v.id);
-      for (const t of tx
-        .select({ id: checklistTemplates.id })
-        .from(checklistTemplates)
-        .where(and(isNotNull(checklistTemplates.archivedAt), gte(checklistTemplates.archivedAt, since)))
-        .all())
-        changed.add(t.id);
-      // A ride that is new, or changed class, needs its class's templates even if they did not change.
-      const rideClasses = new Set(rideList.map((r) => r.rideClass));
-      for (const rideClass of rideClasses)
-        for (const t of listChecklistTemplates(tx, { rideClass })) changed.add(t.id);
-      templateIds = [...changed];
-    }
-    const templates = templateIds.flatMap((id) => {
-      const template = findChecklistTemplate(tx, id);
-      if (!template) return [];
-      if (template.archivedAt !== null || !classes.includes(template.rideClass)) {
-        removedTemplates.push(id);
-        return [];
-      }
-      return [template];
-    });
+    const ctx = pullContext(tx, since, scope);
+    const { visible } = ctx;
+    const { rideList, designs, removedRides } = pulledRides(ctx);
+    const { templates, removedTemplates } = pulledTemplates(ctx, rideList);
 
     // ——— assignments: always the whole (short) list, since due status moves with the date alone ———
     // `db`, not `tx`: the registry's function takes the database type; on this one connection it reads
     // inside the same transaction all the same.
     const assignments = assignmentsOf(db, user.id, now).filter((a) => visible.has(a.rideId));
     const mine = new Set(assignments.map((a) => a.id));
-    const removedAssignments = [...audited('schedule')].filter((id) => !mine.has(id));
+    const removedAssignments = [...ctx.audited('schedule')].filter((id) => !mine.has(id));
 
-    // ——— decisions on the caller's inspections ———
-    // A decision is sent again when it, or one of its findings, changed since the cursor. The audit log
-    // has every such change (a finding's entry keeps its inspection id, deleted findings included).
-    const touched =
-      since === null
-        ? []
-        : [
-            ...audited('inspection'),
-            ...tx
-              .select({
-                id: sql<
-                  string | null
-                >`json_extract(coalesce(${auditLog.after}, ${auditLog.before}), '$.inspectionId')`,
-              })
-              .from(auditLog)
-              .where(and(eq(auditLog.entity, 'finding'), gte(auditLog.at, since)))
-              .all()
-              .flatMap((r) => (r.id ? [r.id] : [])),
-          ];
-    const decisionRows = tx
-      .select({
-        inspectionId: inspections.id,
-        rideId: inspections.rideId,
-        state: inspections.reviewState,
-        note: inspections.reviewNote,
-        decidedAt: inspections.reviewedAt,
-        decidedByName: users.name,
-      })
-      .from(inspections)
-      .leftJoin(users, eq(users.id, inspections.reviewedBy))
-      .where(
-        and(
-          eq(inspections.inspectorId, user.id),
-          ne(inspections.reviewState, 'submitted'),
-          isNotNull(inspections.reviewedAt),
-          since === null
-            ? undefined
-            : or(
-                gte(inspections.reviewedAt, since),
-                touched.length ? inArray(inspections.id, [...new Set(touched)]) : undefined,
-              ),
-        ),
-      )
-      .all()
-      .flatMap((d) => (d.decidedAt === null ? [] : [{ ...d, decidedAt: d.decidedAt }]));
-    const findingsOf = new Map<string, PulledDecisionFinding[]>();
-    if (decisionRows.length)
-      for (const { inspectionId, ...f } of tx
-        .select({
-          inspectionId: findings.inspectionId,
-          id: findings.id,
-          number: findingNumber,
-          severity: findings.severity,
-          description: findings.description,
-          requiredAction: findings.requiredAction,
-          dueOn: findings.dueOn,
-          state: findings.state,
-        })
-        .from(findings)
-        // One parameter however many decisions a first pull carries.
-        .where(
-          sql`${findings.inspectionId} IN (SELECT value FROM json_each(${JSON.stringify(decisionRows.map((d) => d.inspectionId))}))`,
-        )
-        .orderBy(asc(findings.inspectionId), asc(findings.number))
-        .all())
-        findingsOf.set(inspectionId, [...(findingsOf.get(inspectionId) ?? []), f]);
-    const decisions: Decision[] = decisionRows.map((d) => ({
-      ...d,
-      findings: findingsOf.get(d.inspectionId) ?? [],
-    }));
+    const decisions = pulledDecisions(ctx, user.id);
 
     // ——— the instrument register and the declaration text: always whole (both are short), so the phone
     // replaces its copy and never keeps an instrument the register has dropped ———
