@@ -6,34 +6,14 @@
  * pivot's reading once the method is said, and the review desk lists it first with its limit and the
  * reason, while the queue counts the inspection as over limit.
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 
-import {
-  type Running,
-  apiGet,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
 const RIDE = 'Twin Comet';
 const ITEM = 'Main pivot diametral clearance, load reversed';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser();
 
 async function startInspection(page: Page) {
   const card = page.getByLabel(`Ride ${RIDE}`);
@@ -46,8 +26,7 @@ async function startInspection(page: Page) {
 }
 
 test('an over-limit clearance in the checklist: status at entry, reason to pass, one reading, first on the desk', async () => {
-  const phone = await openPage(browser, 'phone');
-  await signIn(phone, app.baseUrl, 'inspector@pivotwatch.test');
+  const phone = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await phone.waitForURL('**/today');
   await phone.getByText('Everything is sent').waitFor({ timeout: 60000 });
   await startInspection(phone);
@@ -118,8 +97,7 @@ test('an over-limit clearance in the checklist: status at entry, reason to pass,
   }
   expect(item).toBeDefined();
 
-  const desk = await openPage(browser, 'desktop');
-  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
   await desk.goto(`${app.baseUrl}/review/${item?.inspectionId}`);
   const over = desk.getByLabel(`Item over its limit: ${ITEM}`);
@@ -137,8 +115,7 @@ test('the template states each limit, and its editor offers the pivot’s design
     '/api/checklist-templates?rideClass=rotating_arm',
     token,
   );
-  const admin = await openPage(browser, 'desktop');
-  await signIn(admin, app.baseUrl, 'admin@pivotwatch.test');
+  const admin = await app.signedIn('desktop', 'admin@pivotwatch.test');
   await admin.waitForURL((url) => url.pathname !== '/sign-in');
   await admin.goto(`${app.baseUrl}/register/checklists/${templates[0].id}`);
   const flag = admin.getByText(/^Limit: Bushing clearance limit of pivot 1/).first();

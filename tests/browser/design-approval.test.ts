@@ -5,19 +5,15 @@
  * the admin (a second person) sees the pending revision with the same comparison and approves it with a
  * reason; the audit log then reads the change in words. Screens at phone and desktop size.
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 
 import {
-  type Running,
   type SizeName,
   apiGet,
   apiToken,
-  launchBrowser,
-  openPage,
   screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+  serverAndBrowser,
+} from '@/tests/support/browser/harness';
 
 type Design = {
   version: number;
@@ -25,14 +21,11 @@ type Design = {
   data: { pivots: { joint: number; name: string; maxClearanceM: number }[]; source: { revision: string } };
 };
 
-let app: Running;
-let browser: Browser;
+const app = serverAndBrowser();
 let skylark: string;
 let supervisorToken: string;
 
 beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
   supervisorToken = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
   const list = await apiGet<{ rides: { id: string; name: string }[] }>(
     app.baseUrl,
@@ -40,11 +33,6 @@ beforeAll(async () => {
     supervisorToken,
   );
   skylark = list.rides.find((r) => r.name === 'Skylark')?.id ?? '';
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
 });
 
 const inForce = async () =>
@@ -72,8 +60,7 @@ const LOOSENED = 'Max clearance at Main pivot shaft: 0.6 mm → 0.9 mm (loosened
 test.each<[SizeName]>([['phone'], ['desktop']])(
   'the import shows the comparison and the loosened limit (%s)',
   async (size) => {
-    const page = await openPage(browser, size);
-    await signIn(page, app.baseUrl, 'supervisor@pivotwatch.test');
+    const page = await app.signedIn(size, 'supervisor@pivotwatch.test');
     await page.waitForURL('**/review');
     await page.goto(`${app.baseUrl}/rides/${skylark}/import`);
     await page.getByRole('heading', { name: 'Import design data' }).waitFor();
@@ -108,8 +95,7 @@ test.each<[SizeName]>([['phone'], ['desktop']])(
 test.each<[SizeName]>([['phone'], ['desktop']])(
   'a second person sees the pending revision with its comparison (%s)',
   async (size) => {
-    const page = await openPage(browser, size);
-    await signIn(page, app.baseUrl, 'admin@pivotwatch.test');
+    const page = await app.signedIn(size, 'admin@pivotwatch.test');
     await page.waitForURL((url) => !url.pathname.includes('sign-in'));
     await page.goto(`${app.baseUrl}/rides/${skylark}/design`);
     await page.getByText('Version 2 waits for a second person').waitFor();

@@ -4,49 +4,13 @@
  * inspection with two photos, reload offline and find it intact, go online, sync, and check through the
  * API that exactly one inspection with both photos and a server-side analysis exists.
  */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import type { Page } from 'playwright-core';
 
-import type { Browser, Page } from 'playwright-core';
+import { apiToken, jpegPhoto, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
-import {
-  type Running,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
-
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
-
-/** A real JPEG to pick as a "camera" photo: chromium renders one. */
-async function makeJpeg(page: Page, text: string): Promise<string> {
-  const file = join(mkdtempSync(join(tmpdir(), 'pivotwatch-photo-')), `${text.replace(/\W+/g, '-')}.jpg`);
-  const p = await page
-    .context()
-    .browser()!
-    .newPage({ viewport: { width: 640, height: 480 } });
-  await p.setContent(
-    `<body style="margin:0;background:#6b7b86;font:48px sans-serif;color:#fff">${text}</body>`,
-  );
-  await p.screenshot({ path: file, type: 'jpeg', quality: 80 });
-  await p.close();
-  return file;
-}
+const app = serverAndBrowser();
+/** The "camera" photos: chromium renders each one's words. */
+const look = { background: '#6b7b86', fontPx: 48 };
 
 async function takePhotoFor(page: Page, itemText: string, file: string) {
   const chooser = page.waitForEvent('filechooser');
@@ -59,8 +23,7 @@ async function takePhotoFor(page: Page, itemText: string, file: string) {
 }
 
 test('an inspection recorded offline arrives once, with its photos and a server analysis', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   // The first sync downloads rides, design data, templates and assignments.
   await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
@@ -117,11 +80,15 @@ test('an inspection recorded offline arrives once, with its photos and a server 
       .textContent()) ?? '';
   const fromChecklist = Number(/(\d+) readings/.exec(progress)?.[1] ?? 'NaN');
   expect(fromChecklist).toBeGreaterThanOrEqual(1);
-  await takePhotoFor(page, labels[0].replace('Photo for ', ''), await makeJpeg(page, 'Main pivot, left lug'));
+  await takePhotoFor(
+    page,
+    labels[0].replace('Photo for ', ''),
+    await jpegPhoto(app.browser, 'Main pivot, left lug', look),
+  );
   await takePhotoFor(
     page,
     labels[1].replace('Photo for ', ''),
-    await makeJpeg(page, 'Bushing, witness marks'),
+    await jpegPhoto(app.browser, 'Bushing, witness marks', look),
   );
 
   // A measured swing: amplitude and period for the pivot.

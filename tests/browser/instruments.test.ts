@@ -7,40 +7,17 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import type { Browser } from 'playwright-core';
-
-import type { InspectionRecord, Reading } from '@/features/inspections/schema';
+import type { InspectionRecord, Reading } from '@/features/records/schema';
 import type { Instrument } from '@/features/instruments/schema';
 
-import {
-  type Running,
-  apiGet,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser();
 
 const declaration = 'I inspected this ride in person; this record holds only what I found and measured.';
 
 test('the administrator keeps the register and sets the declaration text', async () => {
-  const page = await openPage(browser, 'desktop');
-  await signIn(page, app.baseUrl, 'admin@pivotwatch.test');
+  const page = await app.signedIn('desktop', 'admin@pivotwatch.test');
   await page.waitForURL((url) => url.pathname !== '/sign-in');
   await page.goto(`${app.baseUrl}/register/instruments`);
   await page.getByText('HR-FG-0107').waitFor({ timeout: 30000 });
@@ -81,8 +58,7 @@ test('the administrator keeps the register and sets the declaration text', async
 });
 
 test('the phone asks how each reading was measured and for the declaration at submit', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
   const card = page.getByLabel('Ride Little Kite');
@@ -194,8 +170,7 @@ test('the review desk shows the declaration and the instrument each reading was 
   });
   expect(((await res.json()) as { results: { status: string }[] }).results[0].status).toBe('accepted');
 
-  const desk = await openPage(browser, 'desktop');
-  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
   await desk.goto(`${app.baseUrl}/review/${record.id}`);
   await desk.getByText(`“${declaration}”`).waitFor({ timeout: 30000 });

@@ -5,39 +5,17 @@
  * through the sync API as the phone would send it; ride and values are the invented demo scenario's.
  */
 import { randomUUID } from 'node:crypto';
-import type { Browser } from 'playwright-core';
 
-import { analyseInspection, previewOf } from '@/features/inspections/analysis';
-import type { InspectionRecord, Reading } from '@/features/inspections/schema';
-import type { DesignData } from '@/features/registry/design-schema';
+import { analyseInspection, previewOf } from '@/features/records/analysis';
+import type { InspectionRecord, Reading } from '@/features/records/schema';
+import type { DesignData } from '@/features/loads/design-schema';
 
-import {
-  type Running,
-  apiGet,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch({ NODE_ENV: 'development' });
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser({ NODE_ENV: 'development' });
 
 test('the phone echoes a typed clearance as typed', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   const card = page.getByLabel('Ride Little Kite');
   await card.waitFor({ timeout: 30000 });
@@ -122,8 +100,7 @@ test('the desk shows a pin typed just above its minimum with the inspector’s d
   const pushed = (await res.json()) as { results: { status: string; issues?: unknown }[] };
   expect(pushed.results[0]).toMatchObject({ status: 'accepted' });
 
-  const desk = await openPage(browser, 'desktop');
-  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
   await desk.goto(`${app.baseUrl}/review/${record.id}`);
   const row = desk.getByText(`${entered} mm`).first();

@@ -5,36 +5,16 @@
  * phone, signs in, acknowledges, reports the corrective action with a photo; the supervisor verifies and
  * closes the finding, and the ride's status follows.
  */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-
-import type { Browser, Page } from 'playwright-core';
-
 import {
   DEMO_PASSWORD,
-  type Running,
   apiGet,
   apiToken,
-  launchBrowser,
-  openPage,
+  jpegPhoto,
   screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+  serverAndBrowser,
+} from '@/tests/support/browser/harness';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch({ NODE_ENV: 'development' });
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser({ NODE_ENV: 'development' });
 
 async function api<T>(path: string, email: string): Promise<T> {
   return apiGet<T>(app.baseUrl, path, await apiToken(app.baseUrl, email));
@@ -49,23 +29,9 @@ type Outbox = {
   }[];
 };
 
-/** A real JPEG for the operator's "photo of the repair": chromium renders one. */
-async function makeJpeg(page: Page, text: string): Promise<string> {
-  const file = join(mkdtempSync(join(tmpdir(), 'pivotwatch-evidence-')), 'repair.jpg');
-  const p = await page.context().newPage();
-  await p.setViewportSize({ width: 640, height: 480 });
-  await p.setContent(
-    `<body style="margin:0;background:#55606a;font:40px sans-serif;color:#fff">${text}</body>`,
-  );
-  await p.screenshot({ path: file, type: 'jpeg', quality: 80 });
-  await p.close();
-  return file;
-}
-
 test('approve → notice e-mailed with PDF → operator acknowledges and reports → supervisor closes; the ride follows', async () => {
   // ——— supervisor: a finding on Tidebreaker's over-limit inspection, then approval ———
-  const desk = await openPage(browser, 'desktop');
-  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
   await desk.getByRole('button', { name: /^Over limit: 1/ }).click();
   await desk
@@ -117,8 +83,7 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   expect(link!.endsWith(`/notices/${noticeId}`)).toBe(true);
 
   // The administrator sees it in the outbox, with the PDF attached.
-  const admin = await openPage(browser, 'desktop');
-  await signIn(admin, app.baseUrl, 'admin@pivotwatch.test');
+  const admin = await app.signedIn('desktop', 'admin@pivotwatch.test');
   await admin.goto(`${app.baseUrl}/admin/outbox`);
   // The list has loaded once the subtitle counts the e-mails; a list read before this message was
   // filed is brought up to date with the screen's own Refresh, as an administrator would.
@@ -137,7 +102,7 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   await screenshot(admin, 'notice-outbox-desktop');
 
   // ——— the operator opens the e-mailed link on a phone, signs in, and lands on the notice ———
-  const phone = await openPage(browser, 'phone');
+  const phone = await app.openPage('phone');
   await phone.goto(`${app.baseUrl}/notices/${noticeId}`);
   await phone.waitForURL(/\/sign-in/);
   await phone.getByLabel('E-mail').fill('operator2@pivotwatch.test');
@@ -159,7 +124,12 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   await phone
     .getByLabel('What was done')
     .fill('Drive controller reset to the design programme; timed 6.0 rpm.');
-  const photo = await makeJpeg(phone, 'Controller display after reset');
+  // The operator's "photo of the repair".
+  const photo = await jpegPhoto(app.browser, 'Controller display after reset', {
+    background: '#55606a',
+    fontPx: 40,
+    name: 'repair.jpg',
+  });
   const chooser = phone.waitForEvent('filechooser');
   await phone.getByRole('button', { name: 'Choose from library' }).click();
   await (await chooser).setFiles(photo);

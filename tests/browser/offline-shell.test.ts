@@ -12,9 +12,9 @@ import { randomUUID } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 
-import { ROOT, type Running, launchBrowser, openPage, screenshot, signIn, startPivotwatch } from './harness';
+import { ROOT, screenshot, serverAndBrowser, signIn } from '@/tests/support/browser/harness';
 
 type Diagnostics = {
   saveDraft(input: { id: string; rideId: string; data: unknown }): Promise<void>;
@@ -26,21 +26,10 @@ type WithDiagnostics = { pivotwatchDevice?: Diagnostics };
 const HOME = /^Good (morning|afternoon|evening), Tomas$/;
 const LOCKED = 'Pivotwatch is open in another tab. Close it, then reload this one.';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser();
 
 async function signedInInspector(): Promise<Page> {
-  const page = await openPage(browser, 'phone');
+  const page = await app.openPage('phone');
   await page.context().addInitScript(() => window.localStorage.setItem('pivotwatch:diagnostics', '1'));
   await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
@@ -112,7 +101,7 @@ test('the app loads offline after one online visit and keeps a draft across offl
   expect((await loadDraft(page, id))?.data).toEqual(changed);
   await page.context().close();
   // Later tests need a server again.
-  app = await startPivotwatch();
+  await app.restart();
 });
 
 test('a second tab is told plainly that the app is open in another one', async () => {

@@ -4,58 +4,25 @@
  * listed under "Waiting to send" and never under "Sent" until the server has it, and the photos waiting
  * are counted per photo attached — here the same picture attached twice, which the phone stores once.
  */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import type { Page } from 'playwright-core';
 
-import type { Browser, Page } from 'playwright-core';
+import { apiGet, apiToken, jpegPhoto, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
-import {
-  type Running,
-  apiGet,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
-
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
-
-async function makeJpeg(page: Page): Promise<string> {
-  const file = join(mkdtempSync(join(tmpdir(), 'pivotwatch-photo-')), 'hanger.jpg');
-  const p = await page.context().newPage();
-  await p.setViewportSize({ width: 640, height: 480 });
-  await p.setContent(
-    '<body style="margin:0;background:#5d6d78;font:48px sans-serif;color:#fff">Hanger</body>',
-  );
-  await p.screenshot({ path: file, type: 'jpeg', quality: 80 });
-  await p.close();
-  return file;
-}
+const app = serverAndBrowser();
 
 const banner = (page: Page) => page.getByText(/^No connection — working/);
 
 test('the banner follows the network; a waiting inspection is not listed as sent; photos count as attached', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
   await page.getByLabel('Ride Little Kite').waitFor({ timeout: 30000 });
   expect(await banner(page).count()).toBe(0);
-  const jpeg = await makeJpeg(page);
+  const jpeg = await jpegPhoto(app.browser, 'Hanger', {
+    background: '#5d6d78',
+    fontPx: 48,
+    name: 'hanger.jpg',
+  });
 
   // The network goes: the banner comes, though the session was loaded online (before: it did not).
   await page.context().setOffline(true);

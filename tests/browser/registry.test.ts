@@ -4,34 +4,17 @@
  * and sets its status; an inspector on a phone reads without edit controls; an operator cannot open
  * another company's ride; a bad design file is refused with its row-and-column report and nothing saved.
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 
-import {
-  type Running,
-  apiGet,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
-let app: Running;
-let browser: Browser;
+const app = serverAndBrowser();
 let rideIds: Record<string, string>;
 
 beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
   const token = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
   const list = await apiGet<{ rides: { id: string; name: string }[] }>(app.baseUrl, '/api/rides', token);
   rideIds = Object.fromEntries(list.rides.map((r) => [r.name, r.id]));
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
 });
 
 /** Waits until `read()` gives `expected` (the list refetches after each URL change), else fails with the last. */
@@ -55,8 +38,7 @@ async function tableRideNames(page: Page): Promise<string[]> {
 }
 
 test('supervisor (desktop) sorts and filters the rides, opens one, sees the chain and its peak loads, sets its status', async () => {
-  const page = await openPage(browser, 'desktop');
-  await signIn(page, app.baseUrl, 'supervisor@pivotwatch.test');
+  const page = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await page.waitForURL('**/review');
   await page.getByRole('link', { name: 'Rides' }).first().click();
   await page.waitForURL('**/rides');
@@ -126,8 +108,7 @@ test('supervisor (desktop) sorts and filters the rides, opens one, sees the chai
 });
 
 test('inspector (phone) reads rides without any edit controls', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
+  const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   await page.getByRole('link', { name: 'Rides' }).click();
   await page.waitForURL('**/rides');
@@ -157,8 +138,7 @@ test('inspector (phone) reads rides without any edit controls', async () => {
 });
 
 test('operator sees an own ride with its status but no design data, and cannot open another company’s ride', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'operator@pivotwatch.test');
+  const page = await app.signedIn('phone', 'operator@pivotwatch.test');
   await page.waitForURL('**/my-rides');
   await page.goto(`${app.baseUrl}/rides/${rideIds['Twin Comet']}`);
   await page.getByRole('heading', { name: 'Twin Comet' }).waitFor();
@@ -193,8 +173,7 @@ test('a bad CSV is refused with its row-and-column report and nothing is saved',
     token,
   );
 
-  const page = await openPage(browser, 'desktop');
-  await signIn(page, app.baseUrl, 'supervisor@pivotwatch.test');
+  const page = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await page.waitForURL('**/review');
   await page.goto(`${app.baseUrl}/rides/${id}/import`);
   await page.getByRole('heading', { name: 'Import design data' }).waitFor();

@@ -5,32 +5,12 @@
  * at phone size (390×844) a supervisor returns another inspection with a comment; the inspector's phone
  * shows both decisions after a sync.
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 
-import {
-  type Running,
-  apiGet,
-  apiToken,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  // Development mode seeds the demo scenario's submitted inspections (tests otherwise start without them).
-  app = await startPivotwatch({ NODE_ENV: 'development' });
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+// Development mode seeds the demo scenario's submitted inspections (tests otherwise start without them).
+const app = serverAndBrowser({ NODE_ENV: 'development' });
 
 async function api<T>(path: string, email: string): Promise<T> {
   return apiGet<T>(app.baseUrl, path, await apiToken(app.baseUrl, email));
@@ -43,14 +23,12 @@ async function syncPhone(page: Page) {
 
 test('queue → flagged inspection → finding, ride out of service, approval; return at phone size; the inspector sees both', async () => {
   // The inspector's phone has synced once before the supervisor decides anything.
-  const phone = await openPage(browser, 'phone');
-  await signIn(phone, app.baseUrl, 'inspector@pivotwatch.test');
+  const phone = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await phone.waitForURL('**/today');
   await phone.getByText('Everything is sent').waitFor({ timeout: 30000 });
 
   // ——— desk: the queue, most urgent first ———
-  const desk = await openPage(browser, 'desktop');
-  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
   await desk.getByRole('button', { name: /^Over limit: 1/ }).click();
   await desk.waitForURL(/urgency=over/);
@@ -143,8 +121,7 @@ test('queue → flagged inspection → finding, ride out of service, approval; r
   expect(trail.entries.every((e) => e.userName === 'Mira Delacourt')).toBe(true);
 
   // ——— phone-size supervisor: return the inspection awaiting sign-off ———
-  const small = await openPage(browser, 'phone');
-  await signIn(small, app.baseUrl, 'supervisor@pivotwatch.test');
+  const small = await app.signedIn('phone', 'supervisor@pivotwatch.test');
   await small.waitForURL('**/review');
   await small.getByRole('button', { name: /^Awaiting sign-off: 1/ }).click();
   await small

@@ -2,30 +2,9 @@
  * Each demo role signs in through the real UI at phone and desktop size and lands on its own home.
  * Source of truth for the accounts: the README's demo table (seeded by server/seed/demo.ts).
  */
-import type { Browser } from 'playwright-core';
+import { type SizeName, screenshot, signIn, serverAndBrowser } from '@/tests/support/browser/harness';
 
-import {
-  type Running,
-  type SizeName,
-  launchBrowser,
-  openPage,
-  screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
-
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser();
 
 const cases = [
   {
@@ -42,7 +21,7 @@ const cases = [
 
 describe.each(['phone', 'desktop'] as SizeName[])('at %s size', (size) => {
   test.each(cases)('$email lands on $path', async ({ email, path, heading, loaded }) => {
-    const page = await openPage(browser, size);
+    const page = await app.openPage(size);
     await page.goto(`${app.baseUrl}/`);
     await page.waitForURL('**/sign-in');
     await signIn(page, app.baseUrl, email);
@@ -55,8 +34,7 @@ describe.each(['phone', 'desktop'] as SizeName[])('at %s size', (size) => {
   });
 
   test('a wrong password is refused with a message and no navigation', async () => {
-    const page = await openPage(browser, size);
-    await signIn(page, app.baseUrl, 'inspector@pivotwatch.test', 'not-the-password');
+    const page = await app.signedIn(size, 'inspector@pivotwatch.test', 'not-the-password');
     await page
       .getByRole('alert')
       .filter({ hasText: /e-mail or password/i })
@@ -68,8 +46,7 @@ describe.each(['phone', 'desktop'] as SizeName[])('at %s size', (size) => {
 });
 
 test('signing out returns to sign-in and guards the app routes', async () => {
-  const page = await openPage(browser, 'phone');
-  await signIn(page, app.baseUrl, 'operator@pivotwatch.test');
+  const page = await app.signedIn('phone', 'operator@pivotwatch.test');
   await page.waitForURL('**/my-rides');
   await page.getByRole('link', { name: 'Account' }).click();
   await page.getByRole('button', { name: 'Sign out' }).click();

@@ -5,24 +5,13 @@
  * spacing of the taps. Then the timed period, far from the ride's design swing, is held back until the
  * inspector keeps it (the plausibility rule) — screenshots of that at 390×844 and 1440×900.
  */
-import type { Browser, CDPSession, Page } from 'playwright-core';
+import type { CDPSession, Page } from 'playwright-core';
 
 import { tapStats } from '@/features/tap-timer/stats';
 
-import { type Running, launchBrowser, screenshot, signIn, sizes, startPivotwatch } from './harness';
+import { screenshot, signIn, sizes, serverAndBrowser } from '@/tests/support/browser/harness';
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser();
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
@@ -48,7 +37,11 @@ async function openTimer(page: Page) {
 }
 
 test('every short touch, click and key press is counted, and the period matches the tap spacing', async () => {
-  const context = await browser.newContext({ viewport: sizes.phone, deviceScaleFactor: 1, hasTouch: true });
+  const context = await app.browser.newContext({
+    viewport: sizes.phone,
+    deviceScaleFactor: 1,
+    hasTouch: true,
+  });
   const page = await context.newPage();
   page.on('pageerror', (err) => console.error(`[page error] ${err.message}`));
   await openTimer(page);
@@ -134,7 +127,7 @@ test('every short touch, click and key press is counted, and the period matches 
 });
 
 test('at desktop size the timer takes mouse clicks and the prompt reads the same', async () => {
-  const context = await browser.newContext({ viewport: sizes.desktop, deviceScaleFactor: 1 });
+  const context = await app.browser.newContext({ viewport: sizes.desktop, deviceScaleFactor: 1 });
   const page = await context.newPage();
   await openTimer(page);
   const pad = page.getByRole('button', { name: 'Tap once per full swing' });

@@ -9,34 +9,19 @@
  * Little Kite's main pivot pin: 90 mm nominal, 89.3 mm minimum (the demo design data, invented). A pin
  * worn under its minimum diameter is a stop in common practice (the maker's wear limit; from memory).
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 
 import {
   DEMO_PASSWORD,
-  type Running,
   apiGet,
   apiToken,
-  launchBrowser,
-  openPage,
   screenshot,
-  signIn,
-  startPivotwatch,
-} from './harness';
+  serverAndBrowser,
+} from '@/tests/support/browser/harness';
 
 jest.setTimeout(300_000);
 
-let app: Running;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startPivotwatch();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const app = serverAndBrowser();
 
 const RIDE = 'Little Kite';
 
@@ -143,8 +128,7 @@ test('over-limit pin → stop in the decision → corrective action → verified
   const noticesBefore = (await noticesOfRide()).total;
 
   // ——— the inspector's phone: a pin worn under its minimum ———
-  const phone = await openPage(browser, 'phone');
-  await signIn(phone, app.baseUrl, 'inspector@pivotwatch.test');
+  const phone = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await phone.waitForURL('**/today');
   await phone.getByText('Everything is sent').waitFor({ timeout: 30000 });
   await recordPinInspection(phone, 'Periodic', '89.05');
@@ -153,8 +137,7 @@ test('over-limit pin → stop in the decision → corrective action → verified
   expect(first.envelope.some((e) => e.status === 'over')).toBe(true);
 
   // ——— the supervisor: a finding, and the stop as part of the approval ———
-  const desk = await openPage(browser, 'desktop');
-  await signIn(desk, app.baseUrl, 'supervisor@pivotwatch.test');
+  const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
   await desk.goto(`${app.baseUrl}/review/${first.id}`);
   await desk.getByRole('button', { name: 'Add finding' }).click();
@@ -203,7 +186,7 @@ test('over-limit pin → stop in the decision → corrective action → verified
   const findingNumber = stopDoc.findings[0].number;
 
   // ——— the operator: acknowledges once, reports the corrective action ———
-  const ops = await openPage(browser, 'phone');
+  const ops = await app.openPage('phone');
   // As from the e-mailed link: the notice asks for sign-in, then opens.
   await ops.goto(`${app.baseUrl}/notices/${stopNotice.id}`);
   await ops.waitForURL(/\/sign-in/);

@@ -7,7 +7,7 @@ import { type Browser, type Page, chromium } from 'playwright-core';
 
 import { launchOptions } from '@/scripts/browser';
 
-export const ROOT = join(__dirname, '..', '..');
+export const ROOT = join(__dirname, '..', '..', '..');
 export const SHOTS = join(ROOT, 'artifacts', 'screenshots');
 export const DEMO_PASSWORD = 'pivotwatch-demo';
 
@@ -115,4 +115,86 @@ export async function apiGet<T>(baseUrl: string, path: string, token: string): P
 export async function screenshot(page: Page, name: string) {
   mkdirSync(SHOTS, { recursive: true });
   await page.screenshot({ path: join(SHOTS, `${name}.png`) });
+}
+
+/** A browser file's server and browser, started before its first test and stopped after its last. */
+export type ServerAndBrowser = {
+  readonly baseUrl: string;
+  readonly dataDir: string;
+  readonly browser: Browser;
+  /** Stops the server now (the browser stays); stopping again after the file is harmless. */
+  stop: () => Promise<void>;
+  /** A fresh server in place of the stopped one (a new port and an empty data folder). */
+  restart: () => Promise<void>;
+  /** A page in a context of its own at 390×844 ('phone') or 1440×900 ('desktop'). */
+  openPage: (size: SizeName) => Promise<Page>;
+  /** A page of its own, signed in through the sign-in form. */
+  signedIn: (size: SizeName, email: string, password?: string) => Promise<Page>;
+};
+
+/**
+ * Starts the real server (with `env`) and Debian's chromium for the calling test file, and stops both
+ * after it. Call it at the top of the file; read its fields inside tests and hooks.
+ */
+export function serverAndBrowser(env: Record<string, string> = {}): ServerAndBrowser {
+  let app: Running | undefined;
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    app = await startPivotwatch(env);
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+  const running = (): Running => {
+    if (!app) throw new Error('The server starts in beforeAll: use it inside a test or a hook.');
+    return app;
+  };
+  const started = (): Browser => {
+    if (!browser) throw new Error('The browser starts in beforeAll: use it inside a test or a hook.');
+    return browser;
+  };
+  return {
+    get baseUrl() {
+      return running().baseUrl;
+    },
+    get dataDir() {
+      return running().dataDir;
+    },
+    get browser() {
+      return started();
+    },
+    stop: () => running().stop(),
+    restart: async () => {
+      await running().stop();
+      app = await startPivotwatch(env);
+    },
+    openPage: (size) => openPage(started(), size),
+    signedIn: async (size, email, password) => {
+      const page = await openPage(started(), size);
+      await signIn(page, running().baseUrl, email, password);
+      return page;
+    },
+  };
+}
+
+/**
+ * A real JPEG file to pick as a photo (the file chooser wants a path): chromium renders `text` on a
+ * plain background, in a page of its own so the app's pages are not disturbed.
+ */
+export async function jpegPhoto(
+  browser: Browser,
+  text: string,
+  look: { background: string; fontPx: number; name?: string },
+): Promise<string> {
+  const name = look.name ?? `${text.replace(/\W+/g, '-')}.jpg`;
+  const file = join(mkdtempSync(join(tmpdir(), 'pivotwatch-photo-')), name);
+  const p = await browser.newPage({ viewport: { width: 640, height: 480 } });
+  await p.setContent(
+    `<body style="margin:0;background:${look.background};font:${look.fontPx}px sans-serif;color:#fff">${text}</body>`,
+  );
+  await p.screenshot({ path: file, type: 'jpeg', quality: 80 });
+  await p.close();
+  return file;
 }
