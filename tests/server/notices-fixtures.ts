@@ -31,7 +31,7 @@ import { analysePending } from '@/server/sync/analysis';
 import { makeTempDir, signInAs, userIdOf } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
 import { demoRide, makeRecord, photoRefFor, speedReading } from './sync-fixtures';
-import { encodePng } from './support/notice-fixture';
+import { encodePng } from '@/scripts/sample-notice';
 
 export const appUrl = 'https://pivotwatch.example.test';
 
