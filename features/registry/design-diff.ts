@@ -316,7 +316,32 @@ export function diffDesign(
   system: UnitSystem = 'si',
 ): DesignChange[] {
   const c = new Collector(system);
-  const b = before;
+  generalChanges(c, before, after);
+  bodyChanges(c, before, after, system);
+  partChanges(c, before, after, system);
+  const joints = new Set([...(before?.pivots ?? []), ...after.pivots].map((p) => p.joint));
+  for (const j of [...joints].sort((x, y) => x - y))
+    pivotChanges(
+      c,
+      before?.pivots.find((p) => p.joint === j),
+      after.pivots.find((p) => p.joint === j),
+    );
+  seatChanges(c, before, after, system);
+  const motionJoints = new Set([...(before?.motion ?? []), ...after.motion].map((m) => m.joint));
+  for (const j of [...motionJoints].sort((x, y) => x - y))
+    motionChanges(
+      c,
+      jointName(after, j) ?? jointName(before, j) ?? `Joint ${j + 1}`,
+      before?.motion.find((m) => m.joint === j),
+      after.motion.find((m) => m.joint === j),
+    );
+  riderChanges(c, before, after);
+  // A ride's first version has nothing to loosen: every limit it sets is new.
+  return c.changes;
+}
+
+/** The source document and the values of the whole ride. */
+function generalChanges(c: Collector, b: DesignData | null, after: DesignData) {
   c.text('source', '', 'Document', b?.source.document, after.source.document);
   c.text('source', '', 'Revision', b?.source.revision, after.source.revision);
 
@@ -332,7 +357,9 @@ export function diffDesign(
     (x, y) => plainPair(x === undefined ? x : x * 100, y === undefined ? y : y * 100, ' % of a limit'),
     'max',
   );
+}
 
+function bodyChanges(c: Collector, b: DesignData | null, after: DesignData, system: UnitSystem) {
   const bodyCount = Math.max(b?.bodies.length ?? 0, after.bodies.length);
   for (let i = 0; i < bodyCount; i++) {
     const ob = b?.bodies[i];
@@ -342,8 +369,12 @@ export function diffDesign(
     const tip = (t: readonly [number, number] | undefined) => (t ? point(t, system) : undefined);
     c.text('bodies', `${where} · ${nb?.name ?? ob?.name}`, 'Next pivot at', tip(ob?.tipM), tip(nb?.tipM));
   }
+}
 
-  const bodyName = (d: DesignData | null, i: number) => d?.bodies[i]?.name ?? `Body ${i + 1}`;
+const bodyName = (d: DesignData | null, i: number) => d?.bodies[i]?.name ?? `Body ${i + 1}`;
+
+/** Parts matched by body and name: one added or removed is said whole, one kept field by field. */
+function partChanges(c: Collector, b: DesignData | null, after: DesignData, system: UnitSystem) {
   for (const pair of matchBy(b?.parts ?? [], after.parts, (p) => `${p.body}|${p.name}`)) {
     const p = pair.after ?? pair.before;
     if (!p) continue;
@@ -368,15 +399,10 @@ export function diffDesign(
       partGeometry(pair.after, system),
     );
   }
+}
 
-  const joints = new Set([...(b?.pivots ?? []), ...after.pivots].map((p) => p.joint));
-  for (const j of [...joints].sort((x, y) => x - y))
-    pivotChanges(
-      c,
-      b?.pivots.find((p) => p.joint === j),
-      after.pivots.find((p) => p.joint === j),
-    );
-
+/** Seats matched by body and name, as parts are. */
+function seatChanges(c: Collector, b: DesignData | null, after: DesignData, system: UnitSystem) {
   for (const pair of matchBy(b?.seats ?? [], after.seats, (s) => `${s.body}|${s.name}`)) {
     const s = pair.after ?? pair.before;
     if (!s) continue;
@@ -409,16 +435,9 @@ export function diffDesign(
     const facing = (f: DesignSeat['facing']) => (f === 'ccw' ? 'Spine + 90° (mirrored)' : 'Spine − 90°');
     c.text('seats', where, 'Chest faces', facing(pair.before.facing), facing(pair.after.facing));
   }
+}
 
-  const motionJoints = new Set([...(b?.motion ?? []), ...after.motion].map((m) => m.joint));
-  for (const j of [...motionJoints].sort((x, y) => x - y))
-    motionChanges(
-      c,
-      jointName(after, j) ?? jointName(b, j) ?? `Joint ${j + 1}`,
-      b?.motion.find((m) => m.joint === j),
-      after.motion.find((m) => m.joint === j),
-    );
-
+function riderChanges(c: Collector, b: DesignData | null, after: DesignData) {
   const axes = [
     ['gz', 'Gz (along the spine)'],
     ['gx', 'Gx (chest to back)'],
@@ -445,8 +464,6 @@ export function diffDesign(
       'min',
     );
   }
-  // A ride's first version has nothing to loosen: every limit it sets is new.
-  return c.changes;
 }
 
 /** True when any limit of `after` is looser than in `before` (the version in force). */
@@ -454,41 +471,10 @@ export function loosensALimit(before: DesignData | null, after: DesignData): boo
   return before !== null && diffDesign(before, after).some((ch) => ch.effect === 'loosened');
 }
 
-export const effectWord: Record<ChangeEffect, string> = {
-  loosened: 'loosened',
-  tightened: 'tightened',
-  changed: 'changed',
-};
-
-/** One change as a sentence: "Max clearance at Main pivot: 0.4 mm → 0.6 mm (loosened)". */
-export function changeText(ch: DesignChange): string {
-  const subject = ch.where ? `${ch.field} at ${ch.where}` : ch.field;
-  const value = (v: string | null) => v ?? 'not given';
-  const words =
-    ch.kind === 'added'
-      ? `${value(ch.after)} (added${ch.limit ? ', tightened' : ''})`
-      : ch.kind === 'removed'
-        ? `${value(ch.before)} removed${ch.limit ? ' (loosened: no longer checked)' : ''}`
-        : `${value(ch.before)} → ${value(ch.after)}${ch.limit ? ` (${effectWord[ch.effect]})` : ''}`;
-  return `${subject}: ${words}`;
-}
-
-export type DesignDiffSummary = { changes: number; loosened: number; tightened: number };
-
-export function summarise(changes: readonly DesignChange[]): DesignDiffSummary {
-  return {
-    changes: changes.length,
-    loosened: changes.filter((ch) => ch.effect === 'loosened').length,
-    tightened: changes.filter((ch) => ch.effect === 'tightened').length,
-  };
-}
-
-/** The summary in words: "7 changes: 2 limits loosened, 1 tightened". */
-export function summaryText(s: DesignDiffSummary): string {
-  if (s.changes === 0) return 'No change from the version in force.';
-  const parts = [
-    s.loosened ? `${s.loosened} limit${s.loosened === 1 ? '' : 's'} loosened` : null,
-    s.tightened ? `${s.tightened} limit${s.tightened === 1 ? '' : 's'} tightened` : null,
-  ].filter(Boolean);
-  return `${s.changes} change${s.changes === 1 ? '' : 's'}${parts.length ? `: ${parts.join(', ')}` : ', no limit changed'}.`;
-}
+export {
+  changeText,
+  effectWord,
+  summarise,
+  summaryText,
+  type DesignDiffSummary,
+} from '@/features/registry/design-diff-text';

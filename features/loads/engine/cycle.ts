@@ -1,4 +1,3 @@
-import type { QuantityKind } from '@/lib/units';
 import {
   type ChainBody,
   type Vec2,
@@ -7,23 +6,16 @@ import {
   solveInto,
   STANDARD_GRAVITY_MS2,
 } from '@/features/loads/engine/chain';
+import { evaluateEnvelope } from '@/features/loads/engine/cycle-envelope';
 import {
   DEFAULT_NEAR_MARGIN,
   type EnvelopeStatus,
   type Evaluation,
-  type Limit,
-  evaluateExtremes,
-  evaluateLimit,
   worstStatus,
 } from '@/features/loads/engine/envelope';
-import {
-  type PinStresses,
-  type PinWear,
-  type ShearPlanes,
-  pinStresses,
-  pinWear,
-} from '@/features/loads/engine/pins';
+import { type PinStresses, type PinWear, type ShearPlanes } from '@/features/loads/engine/pins';
 import { type MotionProfile, defaultCycleDurationS, sampleProfile } from '@/features/loads/engine/profiles';
+import type { QuantityKind } from '@/lib/units';
 
 export const DEFAULT_CYCLE_SAMPLES = 360;
 
@@ -215,14 +207,7 @@ export function analyseCycle(input: CycleInput): CycleResult {
 
   const seats = input.seats ?? [];
   const seatCount = seats.length;
-  const seatBody = Int32Array.from(seats, (s) => s.body);
-  const seatX = Float64Array.from(seats, (s) => s.positionM[0]);
-  const seatY = Float64Array.from(seats, (s) => s.positionM[1]);
-  // The spine's direction in the body frame, so each sample turns it with the body's own cos/sin.
-  const seatSpineC = Float64Array.from(seats, (s) => Math.cos(s.spineAngleRad));
-  const seatSpineS = Float64Array.from(seats, (s) => Math.sin(s.spineAngleRad));
-  const seatTurn = Float64Array.from(seats, (s) => (s.facing === 'ccw' ? 1 : -1));
-  for (const s of seats) if (s.body < 0 || s.body >= n) throw new Error(`Seat ${s.name} is on no body`);
+  const { seatBody, seatX, seatY, seatSpineC, seatSpineS, seatTurn } = seatFrames(seats, n);
   const gx = Array.from({ length: seatCount }, () => new Float64Array(count));
   const gz = Array.from({ length: seatCount }, () => new Float64Array(count));
   // Rider accelerations are reported in standard g whatever gravity the analysis uses.
@@ -267,55 +252,10 @@ export function analyseCycle(input: CycleInput): CycleResult {
     }
   }
 
-  const joints: JointHistory[] = [];
-  for (let i = 0; i < n; i++) {
-    const angle = new Float64Array(count);
-    const rate = new Float64Array(count);
-    const acc = new Float64Array(count);
-    for (let k = 0; k < count; k++) {
-      angle[k] = q[k * n + i];
-      rate[k] = qd[k * n + i];
-      acc[k] = qdd[k * n + i];
-    }
-    const where = (index: number, value: number): PeakAt => ({
-      value,
-      index,
-      timeS: times[index],
-      angleRad: angle[index],
-      armAngleRad: q[index * n],
-    });
-    const pf = indexOfMaxAbs(mag[i]);
-    const pt = indexOfMaxAbs(tau[i]);
-    const angleExtremes = extremesOf(angle);
-    joints.push({
-      name: chain.names[i],
-      angleRad: angle,
-      rateRadS: rate,
-      accelRadS2: acc,
-      forceXN: fx[i],
-      forceYN: fy[i],
-      forceAlongN: along[i],
-      forceAcrossN: across[i],
-      forceMagnitudeN: mag[i],
-      torqueNm: tau[i],
-      peakForce: {
-        ...where(pf, mag[i][pf]),
-        forceN: [fx[i][pf], fy[i][pf]],
-        forceBodyN: [along[i][pf], across[i][pf]],
-      },
-      peakTorque: where(pt, tau[i][pt]),
-      extremes: {
-        magnitudeN: extremesOf(mag[i]),
-        xN: extremesOf(fx[i]),
-        yN: extremesOf(fy[i]),
-        alongN: extremesOf(along[i]),
-        acrossN: extremesOf(across[i]),
-        torqueNm: extremesOf(tau[i]),
-      },
-      peakRateRadS: Math.abs(rate[indexOfMaxAbs(rate)]),
-      amplitudeRad: angleExtremes.range < 2 * Math.PI ? angleExtremes.range / 2 : null,
-    });
-  }
+  const forces = { fx, fy, along, across, mag, tau };
+  const joints = Array.from({ length: n }, (_, i) =>
+    jointHistory(i, chain.names[i], times, q, qd, qdd, forces),
+  );
 
   const seatHistories: SeatHistory[] = seats.map((s, j) => {
     const withTimes = (values: Float64Array) => {
@@ -347,122 +287,80 @@ export function analyseCycle(input: CycleInput): CycleResult {
   };
 }
 
-function evaluateEnvelope(
-  joints: JointHistory[],
-  seats: SeatHistory[],
-  limits: CycleLimits | undefined,
-  margin: number,
-): { envelope: EnvelopeItem[]; pins: PinResult[] } {
-  const envelope: EnvelopeItem[] = [];
-  const pins: PinResult[] = [];
-  const add = (id: string, label: string, quantity: QuantityKind, e: Evaluation) =>
-    envelope.push({ id, label, quantity, ...e });
-  const upper = (max: number): Limit => ({ kind: 'upper', max });
+type JointForces = Record<'fx' | 'fy' | 'along' | 'across' | 'mag' | 'tau', Float64Array[]>;
 
-  (limits?.joints ?? []).forEach((jl, i) => {
-    const joint = joints[i];
-    if (!jl || !joint) return;
-    const key = `joints.${i}`;
-    const who = joint.name;
-    if (jl.maxRateRadS !== undefined)
-      add(
-        `${key}.rate`,
-        `${who}: peak rate`,
-        'rate',
-        evaluateLimit(joint.peakRateRadS, upper(jl.maxRateRadS), margin),
-      );
-    if (jl.maxAmplitudeRad !== undefined && joint.amplitudeRad !== null)
-      add(
-        `${key}.amplitude`,
-        `${who}: swing amplitude`,
-        'angle',
-        evaluateLimit(joint.amplitudeRad, upper(jl.maxAmplitudeRad), margin),
-      );
-    if (jl.maxForceN !== undefined)
-      add(
-        `${key}.force`,
-        `${who}: peak pivot force`,
-        'force',
-        evaluateLimit(joint.peakForce.value, upper(jl.maxForceN), margin),
-      );
-    if (jl.maxTorqueNm !== undefined)
-      add(
-        `${key}.torque`,
-        `${who}: peak drive torque`,
-        'moment',
-        evaluateLimit(Math.abs(joint.peakTorque.value), upper(jl.maxTorqueNm), margin),
-      );
-    const pin = jl.pin;
-    if (!pin) return;
-    const diameter = pin.measuredDiameterM ?? pin.nominalDiameterM;
-    const stresses = pinStresses(joint.peakForce.value, {
-      diameterM: diameter,
-      shear: pin.shear,
-      bearingLengthM: pin.bearingLengthM,
-    });
-    const wear =
-      pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined
-        ? pinWear(pin.nominalDiameterM, pin.minimumDiameterM, pin.measuredDiameterM)
-        : null;
-    pins.push({ joint: i, stresses, wear });
-    if (pin.maxShearStressPa !== undefined)
-      add(
-        `${key}.pin.shear`,
-        `${who}: pin shear stress`,
-        'stress',
-        evaluateLimit(stresses.shearStressPa, upper(pin.maxShearStressPa), margin),
-      );
-    if (pin.maxBearingPressurePa !== undefined)
-      add(
-        `${key}.pin.bearing`,
-        `${who}: pin bearing pressure`,
-        'pressure',
-        evaluateLimit(stresses.bearingPressurePa, upper(pin.maxBearingPressurePa), margin),
-      );
-    if (pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined)
-      add(
-        `${key}.pin.diameter`,
-        `${who}: pin diameter (wear)`,
-        'lengthSmall',
-        evaluateLimit(
-          pin.measuredDiameterM,
-          { kind: 'lower', min: pin.minimumDiameterM, nominal: pin.nominalDiameterM },
-          margin,
-        ),
-      );
-    if (pin.maxClearanceM !== undefined && pin.measuredClearanceM !== undefined)
-      add(
-        `${key}.pin.clearance`,
-        `${who}: bushing clearance`,
-        'lengthSmall',
-        evaluateLimit(pin.measuredClearanceM, upper(pin.maxClearanceM), margin),
-      );
-  });
-
-  const rider = limits?.rider;
-  if (rider) {
-    seats.forEach((seat, j) => {
-      for (const axis of ['gx', 'gz'] as const) {
-        const lim = rider[axis];
-        if (!lim || (lim.min === undefined && lim.max === undefined)) continue;
-        const e = seat.extremes[axis];
-        // Seat histories and limits are in g; envelope items are SI like every other quantity.
-        const si = (v: number | undefined) => (v === undefined ? undefined : v * STANDARD_GRAVITY_MS2);
-        add(
-          `seats.${j}.${axis}`,
-          `${seat.name}: rider ${axis === 'gx' ? 'Gx' : 'Gz'}`,
-          'accel',
-          evaluateExtremes(
-            e.min * STANDARD_GRAVITY_MS2,
-            e.max * STANDARD_GRAVITY_MS2,
-            { kind: 'range', min: si(lim.min), max: si(lim.max) },
-            margin,
-          ),
-        );
-      }
-    });
+/** One joint's history over the cycle from the sampled motion (all joints, per sample) and its forces. */
+function jointHistory(
+  i: number,
+  name: string,
+  times: Float64Array,
+  q: Float64Array,
+  qd: Float64Array,
+  qdd: Float64Array,
+  { fx, fy, along, across, mag, tau }: JointForces,
+): JointHistory {
+  const count = times.length;
+  const n = q.length / count;
+  const angle = new Float64Array(count);
+  const rate = new Float64Array(count);
+  const acc = new Float64Array(count);
+  for (let k = 0; k < count; k++) {
+    angle[k] = q[k * n + i];
+    rate[k] = qd[k * n + i];
+    acc[k] = qdd[k * n + i];
   }
-  return { envelope, pins };
+  const where = (index: number, value: number): PeakAt => ({
+    value,
+    index,
+    timeS: times[index],
+    angleRad: angle[index],
+    armAngleRad: q[index * n],
+  });
+  const pf = indexOfMaxAbs(mag[i]);
+  const pt = indexOfMaxAbs(tau[i]);
+  const angleExtremes = extremesOf(angle);
+  return {
+    name,
+    angleRad: angle,
+    rateRadS: rate,
+    accelRadS2: acc,
+    forceXN: fx[i],
+    forceYN: fy[i],
+    forceAlongN: along[i],
+    forceAcrossN: across[i],
+    forceMagnitudeN: mag[i],
+    torqueNm: tau[i],
+    peakForce: {
+      ...where(pf, mag[i][pf]),
+      forceN: [fx[i][pf], fy[i][pf]],
+      forceBodyN: [along[i][pf], across[i][pf]],
+    },
+    peakTorque: where(pt, tau[i][pt]),
+    extremes: {
+      magnitudeN: extremesOf(mag[i]),
+      xN: extremesOf(fx[i]),
+      yN: extremesOf(fy[i]),
+      alongN: extremesOf(along[i]),
+      acrossN: extremesOf(across[i]),
+      torqueNm: extremesOf(tau[i]),
+    },
+    peakRateRadS: Math.abs(rate[indexOfMaxAbs(rate)]),
+    amplitudeRad: angleExtremes.range < 2 * Math.PI ? angleExtremes.range / 2 : null,
+  };
+}
+
+/** Each seat's place and spine in its body's frame, as arrays the sample loop reads. */
+function seatFrames(seats: readonly Seat[], n: number) {
+  for (const s of seats) if (s.body < 0 || s.body >= n) throw new Error(`Seat ${s.name} is on no body`);
+  return {
+    seatBody: Int32Array.from(seats, (s) => s.body),
+    seatX: Float64Array.from(seats, (s) => s.positionM[0]),
+    seatY: Float64Array.from(seats, (s) => s.positionM[1]),
+    // The spine's direction in the body frame, so each sample turns it with the body's own cos/sin.
+    seatSpineC: Float64Array.from(seats, (s) => Math.cos(s.spineAngleRad)),
+    seatSpineS: Float64Array.from(seats, (s) => Math.sin(s.spineAngleRad)),
+    seatTurn: Float64Array.from(seats, (s) => (s.facing === 'ccw' ? 1 : -1)),
+  };
 }
 
 type Json<T> = T extends Float64Array

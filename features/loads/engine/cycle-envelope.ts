@@ -1,0 +1,135 @@
+/** The whole cycle's results against the design envelope: each joint's, pin's and seat's limits. */
+import { STANDARD_GRAVITY_MS2 } from '@/features/loads/engine/chain';
+import type {
+  CycleLimits,
+  EnvelopeItem,
+  JointHistory,
+  PinResult,
+  SeatHistory,
+} from '@/features/loads/engine/cycle';
+import {
+  type Evaluation,
+  type Limit,
+  evaluateExtremes,
+  evaluateLimit,
+} from '@/features/loads/engine/envelope';
+import { pinStresses, pinWear } from '@/features/loads/engine/pins';
+import type { QuantityKind } from '@/lib/units';
+
+export function evaluateEnvelope(
+  joints: JointHistory[],
+  seats: SeatHistory[],
+  limits: CycleLimits | undefined,
+  margin: number,
+): { envelope: EnvelopeItem[]; pins: PinResult[] } {
+  const envelope: EnvelopeItem[] = [];
+  const pins: PinResult[] = [];
+  const add = (id: string, label: string, quantity: QuantityKind, e: Evaluation) =>
+    envelope.push({ id, label, quantity, ...e });
+  const upper = (max: number): Limit => ({ kind: 'upper', max });
+
+  (limits?.joints ?? []).forEach((jl, i) => {
+    const joint = joints[i];
+    if (!jl || !joint) return;
+    const key = `joints.${i}`;
+    const who = joint.name;
+    if (jl.maxRateRadS !== undefined)
+      add(
+        `${key}.rate`,
+        `${who}: peak rate`,
+        'rate',
+        evaluateLimit(joint.peakRateRadS, upper(jl.maxRateRadS), margin),
+      );
+    if (jl.maxAmplitudeRad !== undefined && joint.amplitudeRad !== null)
+      add(
+        `${key}.amplitude`,
+        `${who}: swing amplitude`,
+        'angle',
+        evaluateLimit(joint.amplitudeRad, upper(jl.maxAmplitudeRad), margin),
+      );
+    if (jl.maxForceN !== undefined)
+      add(
+        `${key}.force`,
+        `${who}: peak pivot force`,
+        'force',
+        evaluateLimit(joint.peakForce.value, upper(jl.maxForceN), margin),
+      );
+    if (jl.maxTorqueNm !== undefined)
+      add(
+        `${key}.torque`,
+        `${who}: peak drive torque`,
+        'moment',
+        evaluateLimit(Math.abs(joint.peakTorque.value), upper(jl.maxTorqueNm), margin),
+      );
+    const pin = jl.pin;
+    if (!pin) return;
+    const diameter = pin.measuredDiameterM ?? pin.nominalDiameterM;
+    const stresses = pinStresses(joint.peakForce.value, {
+      diameterM: diameter,
+      shear: pin.shear,
+      bearingLengthM: pin.bearingLengthM,
+    });
+    const wear =
+      pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined
+        ? pinWear(pin.nominalDiameterM, pin.minimumDiameterM, pin.measuredDiameterM)
+        : null;
+    pins.push({ joint: i, stresses, wear });
+    if (pin.maxShearStressPa !== undefined)
+      add(
+        `${key}.pin.shear`,
+        `${who}: pin shear stress`,
+        'stress',
+        evaluateLimit(stresses.shearStressPa, upper(pin.maxShearStressPa), margin),
+      );
+    if (pin.maxBearingPressurePa !== undefined)
+      add(
+        `${key}.pin.bearing`,
+        `${who}: pin bearing pressure`,
+        'pressure',
+        evaluateLimit(stresses.bearingPressurePa, upper(pin.maxBearingPressurePa), margin),
+      );
+    if (pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined)
+      add(
+        `${key}.pin.diameter`,
+        `${who}: pin diameter (wear)`,
+        'lengthSmall',
+        evaluateLimit(
+          pin.measuredDiameterM,
+          { kind: 'lower', min: pin.minimumDiameterM, nominal: pin.nominalDiameterM },
+          margin,
+        ),
+      );
+    if (pin.maxClearanceM !== undefined && pin.measuredClearanceM !== undefined)
+      add(
+        `${key}.pin.clearance`,
+        `${who}: bushing clearance`,
+        'lengthSmall',
+        evaluateLimit(pin.measuredClearanceM, upper(pin.maxClearanceM), margin),
+      );
+  });
+
+  const rider = limits?.rider;
+  if (rider) {
+    seats.forEach((seat, j) => {
+      for (const axis of ['gx', 'gz'] as const) {
+        const lim = rider[axis];
+        if (!lim || (lim.min === undefined && lim.max === undefined)) continue;
+        const e = seat.extremes[axis];
+        // Seat histories and limits are in g; envelope items are SI like every other quantity.
+        const si = (v: number | undefined) => (v === undefined ? undefined : v * STANDARD_GRAVITY_MS2);
+        add(
+          `seats.${j}.${axis}`,
+          `${seat.name}: rider ${axis === 'gx' ? 'Gx' : 'Gz'}`,
+          'accel',
+          evaluateExtremes(
+            e.min * STANDARD_GRAVITY_MS2,
+            e.max * STANDARD_GRAVITY_MS2,
+            { kind: 'range', min: si(lim.min), max: si(lim.max) },
+            margin,
+          ),
+        );
+      }
+    });
+  }
+  return { envelope, pins };
+}
