@@ -12,5 +12,4 @@ export const adminUserSchema = z.object({
   createdAt: z.string(),
   disabledAt: z.string().nullable(),
 });
-export type AdminUser = z.infer<typeof adminUserSchema>;
 export const adminUserListSchema = z.object({ users: z.array(adminUserSchema) });

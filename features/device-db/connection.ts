@@ -16,7 +16,6 @@ import * as schema from '@/db/device/schema';
 
 export type DeviceSchema = typeof schema;
 export type DeviceDrizzle = SqliteRemoteDatabase<DeviceSchema>;
-export type SqlMethod = Parameters<AsyncRemoteCallback>[2];
 
 /**
  * Runs one statement. drizzle's proxy contract: rows come back as arrays of column values; for `get`,

@@ -107,8 +107,6 @@ export const loadsRequestSchema = z
     });
   });
 
-export type LoadsRequest = z.infer<typeof loadsRequestSchema>;
-
 const rpm = () =>
   num().min(-1000, 'Faster than 1000 rpm is not a ride').max(1000, 'Faster than 1000 rpm is not a ride');
 const seconds = () => num().positive('Must be greater than 0').max(86_400, 'At most a day');
@@ -278,8 +276,6 @@ export const cycleRequestSchema = z
         });
     });
   });
-
-export type CycleRequest = z.infer<typeof cycleRequestSchema>;
 
 export type ValidationIssue = { path: string; message: string };
 export type ApiOutcome<T> = { ok: true; value: T } | { ok: false; issues: ValidationIssue[] };

@@ -31,10 +31,6 @@ import { nextAttemptAt, retryPolicy, shouldRetry, type RetryPolicy } from '@/ser
 /** How long a `sending` row is left alone before it is taken to be a crashed attempt and claimed again. */
 export const sendingLeaseMs = 15 * 60_000;
 
-/** Whether a row claimed at `claimedAt` and still `sending` may be claimed again at `now`. */
-export const isStaleSending = (claimedAt: Date, now: Date) =>
-  now.getTime() - claimedAt.getTime() >= sendingLeaseMs;
-
 type MaybePromise<T> = T | Promise<T>;
 
 export type DeliveryHooks = {

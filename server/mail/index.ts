@@ -9,22 +9,8 @@ import type { Logger } from '@/server/logger';
 import { startFakeSmtp, type FakeSmtp } from '@/server/mail/fake-smtp';
 import { createMailer, type Mailer } from '@/server/mail/mailer';
 
-export { deliverOnce, isStaleSending, sendingLeaseMs } from '@/server/mail/deliver';
-export type { DeliveryHooks, DeliveryOutcome } from '@/server/mail/deliver';
+// The parts (delivery, retry, mailer, mailbox) are imported from their own modules where they are used.
 export { startFakeSmtp } from '@/server/mail/fake-smtp';
-export type { FakeSmtp, SmtpDropFault, SmtpReplyFault } from '@/server/mail/fake-smtp';
-export { idempotencyKeyHeader } from '@/server/mail/mailbox';
-export type { MailboxAttachment, MailboxEntry, MailboxMessage } from '@/server/mail/mailbox';
-export {
-  classifyMailError,
-  createMailer,
-  deliveryKey,
-  describeMailError,
-  MailSendError,
-  messageIdFor,
-} from '@/server/mail/mailer';
-export type { MailAttachment, Mailer, MailErrorInfo, OutgoingMail, SendResult } from '@/server/mail/mailer';
-export { backoffDelayMs, nextAttemptAt, retryPolicy, shouldRetry } from '@/server/mail/retry';
 
 export type MailService = {
   mailer: Mailer;

@@ -46,8 +46,6 @@ const summaryColumns = {
   reviewedAt: inspections.reviewedAt,
 };
 
-export type InspectionSummary = ReturnType<typeof listInspections>['inspections'][number];
-
 export type InspectionListFilter = {
   rideId?: string;
   inspectorId?: string;

@@ -16,7 +16,6 @@ export type DesignOrigin = z.infer<typeof designOriginSchema>;
  */
 export const designApprovalStates = ['pending', 'in_force', 'rejected'] as const;
 export const designApprovalStateSchema = z.enum(designApprovalStates);
-export type DesignApprovalState = z.infer<typeof designApprovalStateSchema>;
 
 /** A version without its data, for version lists. */
 export const designVersionInfoSchema = z.object({
@@ -64,7 +63,6 @@ export const designPutBodySchema = z.object({
   data: designDataSchema,
   basedOnVersion: z.number().int().min(0).optional(),
 });
-export type DesignPutBody = z.output<typeof designPutBodySchema>;
 
 export const designResponseSchema = z.object({ design: designVersionSchema });
 
@@ -76,7 +74,6 @@ export const designPendingResponseSchema = z.object({
   pending: designVersionSchema.nullable(),
   current: designVersionSchema.nullable(),
 });
-export type DesignPendingResponse = z.infer<typeof designPendingResponseSchema>;
 
 /** `POST /api/rides/:id/design/versions/:version/decision`: a second person approves or rejects, with why. */
 export const designDecisionBodySchema = z.object({

@@ -92,4 +92,3 @@ export const rideListPageSchema = pageSchema.extend({ rides: z.array(rideSummary
 export type RideListPage = z.infer<typeof rideListPageSchema>;
 
 export const idParamsSchema = z.object({ id: id() });
-export const rideIdParamsSchema = idParamsSchema;
