@@ -8,7 +8,7 @@
  */
 import { isIP, type Socket } from 'node:net';
 
-import { SMTPServer, type SMTPServerSession } from 'smtp-server';
+import { SMTPServer, type SMTPServerDataStream, type SMTPServerSession } from 'smtp-server';
 
 import type { Logger } from '@/server/logger';
 import { openMailbox, type Mailbox } from '@/server/mail/mailbox';
@@ -57,6 +57,68 @@ const isLoopback = (host: string) =>
 
 const smtpError = (code: number, message: string) =>
   Object.assign(new Error(message), { responseCode: code });
+
+type DataContext = {
+  /** The fault this transaction picked, if any. */
+  fault: Fault | undefined;
+  mailbox: Mailbox;
+  stats: { stored: number; duplicates: number; faults: number };
+  log: Logger | undefined;
+  /** Cuts this transaction's connection. */
+  cut: () => void;
+};
+
+/** Reads a message's data and keeps it in the mailbox, unless the transaction's fault says otherwise. */
+function keepMessage(
+  stream: SMTPServerDataStream,
+  session: SMTPServerSession,
+  callback: (err?: Error | null, message?: string) => void,
+  ctx: DataContext,
+) {
+  const { fault } = ctx;
+  const chunks: Buffer[] = [];
+  // A cut connection destroys the stream with an error; without a listener that would crash the process.
+  stream.on('error', () => undefined);
+  stream.on('data', (chunk: Buffer) => {
+    chunks.push(chunk);
+    if (fault?.kind === 'drop' && fault.when === 'data') ctx.cut();
+  });
+  stream.on('end', () => {
+    if (fault?.kind === 'drop' && fault.when === 'data') return;
+    if (stream.sizeExceeded) return callback(smtpError(552, 'Message too big'));
+    if (fault?.kind === 'reply' && fault.when === 'data') {
+      return callback(smtpError(fault.code, fault.message ?? 'Message refused (fault injected)'));
+    }
+    const envelope = {
+      from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
+      to: session.envelope.rcptTo.map((r) => r.address),
+    };
+    ctx.mailbox.store(Buffer.concat(chunks), envelope).then(
+      (result) => {
+        if (result.status === 'stored') {
+          ctx.stats.stored += 1;
+          ctx.log?.info({ id: result.entry.id, to: result.entry.envelope.to }, 'kept a message');
+        } else {
+          ctx.stats.duplicates += 1;
+          ctx.log?.info({ key: result.key }, 'dropped a message every recipient already holds');
+        }
+        if (fault?.kind === 'drop' && fault.when === 'after-accept') {
+          ctx.cut();
+          return callback();
+        }
+        // A duplicate still gets 250: the client did its job, the recipient already has the message.
+        callback(
+          null,
+          result.status === 'stored' ? `OK: kept as ${result.entry.id}` : 'OK: already delivered',
+        );
+      },
+      (error: unknown) => {
+        ctx.log?.error({ err: error }, 'could not keep a message');
+        callback(smtpError(451, 'Could not store the message, try again later'));
+      },
+    );
+  });
+}
 
 export async function startFakeSmtp(opts: FakeSmtpOptions): Promise<FakeSmtp> {
   const host = opts.host ?? '127.0.0.1';
@@ -118,48 +180,7 @@ export async function startFakeSmtp(opts: FakeSmtpOptions): Promise<FakeSmtp> {
       const key = tx(session);
       const fault = active.get(key);
       active.delete(key);
-      const chunks: Buffer[] = [];
-      // A cut connection destroys the stream with an error; without a listener that would crash the process.
-      stream.on('error', () => undefined);
-      stream.on('data', (chunk: Buffer) => {
-        chunks.push(chunk);
-        if (fault?.kind === 'drop' && fault.when === 'data') cut(session);
-      });
-      stream.on('end', () => {
-        if (fault?.kind === 'drop' && fault.when === 'data') return;
-        if (stream.sizeExceeded) return callback(smtpError(552, 'Message too big'));
-        if (fault?.kind === 'reply' && fault.when === 'data') {
-          return callback(smtpError(fault.code, fault.message ?? 'Message refused (fault injected)'));
-        }
-        const envelope = {
-          from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
-          to: session.envelope.rcptTo.map((r) => r.address),
-        };
-        mailbox.store(Buffer.concat(chunks), envelope).then(
-          (result) => {
-            if (result.status === 'stored') {
-              stats.stored += 1;
-              log?.info({ id: result.entry.id, to: result.entry.envelope.to }, 'kept a message');
-            } else {
-              stats.duplicates += 1;
-              log?.info({ key: result.key }, 'dropped a message every recipient already holds');
-            }
-            if (fault?.kind === 'drop' && fault.when === 'after-accept') {
-              cut(session);
-              return callback();
-            }
-            // A duplicate still gets 250: the client did its job, the recipient already has the message.
-            callback(
-              null,
-              result.status === 'stored' ? `OK: kept as ${result.entry.id}` : 'OK: already delivered',
-            );
-          },
-          (error: unknown) => {
-            log?.error({ err: error }, 'could not keep a message');
-            callback(smtpError(451, 'Could not store the message, try again later'));
-          },
-        );
-      });
+      keepMessage(stream, session, callback, { fault, mailbox, stats, log, cut: () => cut(session) });
     },
   });
   server.on('error', (error) => log?.warn({ err: error }, 'SMTP session error'));
