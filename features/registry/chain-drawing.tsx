@@ -120,70 +120,11 @@ function Drawing({
   return (
     <Svg width={width} height={height}>
       <Rect x={0} y={0} width={width} height={height} fill={colors.surface} />
-      {/* Ground support under the first pivot. */}
-      <Path
-        d={`M ${ground[0]} ${ground[1]} L ${ground[0] - 14} ${ground[1] + 22} L ${ground[0] + 14} ${ground[1] + 22} Z`}
-        fill={colors.surfaceSunk}
-        stroke={colors.textMuted}
-        strokeWidth={1.5}
-      />
-      <Line
-        x1={ground[0] - 22}
-        x2={ground[0] + 22}
-        y1={ground[1] + 22}
-        y2={ground[1] + 22}
-        stroke={colors.textMuted}
-        strokeWidth={2}
-      />
+      <GroundMark at={ground} />
 
-      {layout.shapes.map((s, k) => {
-        const key = `s${k}`;
-        if (s.kind === 'segment') {
-          const [a, b] = [px(s.from), px(s.to)];
-          return (
-            <Line
-              key={key}
-              x1={a[0]}
-              y1={a[1]}
-              x2={b[0]}
-              y2={b[1]}
-              stroke={colors.base}
-              strokeWidth={5}
-              strokeLinecap="round"
-            />
-          );
-        }
-        if (s.kind === 'circle') {
-          const c = px(s.centre);
-          return (
-            <Circle
-              key={key}
-              cx={c[0]}
-              cy={c[1]}
-              r={Math.max(2, s.radius * scale)}
-              fill={s.solid ? colors.surfaceSunk : 'none'}
-              fillOpacity={s.solid ? 0.8 : 0}
-              stroke={colors.base}
-              strokeWidth={s.solid ? 1.5 : 3}
-            />
-          );
-        }
-        if (s.kind === 'rect') {
-          const pts = s.corners.map((c) => px(c).join(',')).join(' ');
-          return (
-            <Polygon
-              key={key}
-              points={pts}
-              fill={s.counterweight ? colors.baseRaised : colors.surfaceSunk}
-              fillOpacity={s.counterweight ? 0.85 : 0.9}
-              stroke={colors.base}
-              strokeWidth={1.5}
-            />
-          );
-        }
-        const c = px(s.at);
-        return <Circle key={key} cx={c[0]} cy={c[1]} r={4} fill={colors.base} />;
-      })}
+      {layout.shapes.map((shape, k) => (
+        <PartShape key={`s${k}`} shape={shape} px={px} scale={scale} />
+      ))}
 
       {layout.seats.map((s, k) => {
         const a = px(s.at);
@@ -221,29 +162,104 @@ function Drawing({
         <PivotLabel key={`pl${i}`} box={boxes[i]} text={l.text} status={l.status} />
       ))}
 
-      <G>
-        <Line
-          x1={16}
-          x2={16 + bar.px}
-          y1={height - 14}
-          y2={height - 14}
-          stroke={colors.text}
-          strokeWidth={2}
-        />
-        <Line x1={16} x2={16} y1={height - 19} y2={height - 9} stroke={colors.text} strokeWidth={2} />
-        <Line
-          x1={16 + bar.px}
-          x2={16 + bar.px}
-          y1={height - 19}
-          y2={height - 9}
-          stroke={colors.text}
-          strokeWidth={2}
-        />
-        <SvgText x={24 + bar.px} y={height - 10} fontSize={12} fontFamily={fonts.mono} fill={colors.text}>
-          {bar.label}
-        </SvgText>
-      </G>
+      <ScaleBar bar={bar} height={height} />
     </Svg>
+  );
+}
+
+/** The ground support under the first pivot. */
+function GroundMark({ at: ground }: { at: Point }) {
+  return (
+    <>
+      <Path
+        d={`M ${ground[0]} ${ground[1]} L ${ground[0] - 14} ${ground[1] + 22} L ${ground[0] + 14} ${ground[1] + 22} Z`}
+        fill={colors.surfaceSunk}
+        stroke={colors.textMuted}
+        strokeWidth={1.5}
+      />
+      <Line
+        x1={ground[0] - 22}
+        x2={ground[0] + 22}
+        y1={ground[1] + 22}
+        y2={ground[1] + 22}
+        stroke={colors.textMuted}
+        strokeWidth={2}
+      />
+    </>
+  );
+}
+
+/** One part of a body as drawn: a rod, a round part, a plate or counterweight, or a point mass. */
+function PartShape({
+  shape: s,
+  px,
+  scale,
+}: {
+  shape: ChainLayout['shapes'][number];
+  px: (p: Point) => Point;
+  scale: number;
+}) {
+  if (s.kind === 'segment') {
+    const [a, b] = [px(s.from), px(s.to)];
+    return (
+      <Line
+        x1={a[0]}
+        y1={a[1]}
+        x2={b[0]}
+        y2={b[1]}
+        stroke={colors.base}
+        strokeWidth={5}
+        strokeLinecap="round"
+      />
+    );
+  }
+  if (s.kind === 'circle') {
+    const c = px(s.centre);
+    return (
+      <Circle
+        cx={c[0]}
+        cy={c[1]}
+        r={Math.max(2, s.radius * scale)}
+        fill={s.solid ? colors.surfaceSunk : 'none'}
+        fillOpacity={s.solid ? 0.8 : 0}
+        stroke={colors.base}
+        strokeWidth={s.solid ? 1.5 : 3}
+      />
+    );
+  }
+  if (s.kind === 'rect') {
+    const pts = s.corners.map((c) => px(c).join(',')).join(' ');
+    return (
+      <Polygon
+        points={pts}
+        fill={s.counterweight ? colors.baseRaised : colors.surfaceSunk}
+        fillOpacity={s.counterweight ? 0.85 : 0.9}
+        stroke={colors.base}
+        strokeWidth={1.5}
+      />
+    );
+  }
+  const c = px(s.at);
+  return <Circle cx={c[0]} cy={c[1]} r={4} fill={colors.base} />;
+}
+
+function ScaleBar({ bar, height }: { bar: ReturnType<typeof scaleBar>; height: number }) {
+  return (
+    <G>
+      <Line x1={16} x2={16 + bar.px} y1={height - 14} y2={height - 14} stroke={colors.text} strokeWidth={2} />
+      <Line x1={16} x2={16} y1={height - 19} y2={height - 9} stroke={colors.text} strokeWidth={2} />
+      <Line
+        x1={16 + bar.px}
+        x2={16 + bar.px}
+        y1={height - 19}
+        y2={height - 9}
+        stroke={colors.text}
+        strokeWidth={2}
+      />
+      <SvgText x={24 + bar.px} y={height - 10} fontSize={12} fontFamily={fonts.mono} fill={colors.text}>
+        {bar.label}
+      </SvgText>
+    </G>
   );
 }
 

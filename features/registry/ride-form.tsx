@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Controller, useForm, useWatch } from 'react-hook-form';
+import { type Control, Controller, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
@@ -121,22 +121,7 @@ export function RideForm({
         label="Description"
         hint="One line, as people name it."
       />
-      <View style={styles.pair}>
-        <View style={styles.half}>
-          <FormText control={control} name="maker" label="Maker" />
-        </View>
-        <View style={styles.half}>
-          <FormText control={control} name="model" label="Model" />
-        </View>
-      </View>
-      <View style={styles.pair}>
-        <View style={styles.half}>
-          <FormText control={control} name="serial" label="Serial number" autoCapitalize="none" />
-        </View>
-        <View style={styles.half}>
-          <FormNumber control={control} name="year" label="Year built" integer />
-        </View>
-      </View>
+      <MakerFields control={control} />
       <Controller
         control={control}
         name="operatorCompanyId"
@@ -168,32 +153,63 @@ export function RideForm({
           />
         )}
       />
-      {mode === 'create' ? (
-        <>
-          <Controller
-            control={control}
-            name="status"
-            render={({ field, fieldState }) => (
-              <ChoiceChips
-                label="Status"
-                value={field.value ?? 'in_service'}
-                options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
-                onChange={field.onChange}
-                error={fieldState.error?.message}
-              />
-            )}
-          />
-          {status && status !== 'in_service' ? (
-            <FormText control={control} name="statusReason" label="Reason for the status" multiline />
-          ) : null}
-        </>
-      ) : null}
+      {mode === 'create' ? <StartingStatus control={control} status={status} /> : null}
       <FormFooter
         save={save}
         submitLabel={mode === 'create' ? 'Add ride' : 'Save changes'}
         onCancel={onCancel}
       />
     </View>
+  );
+}
+
+type RideFormControl = Control<RideFormInput, unknown, RideFormOutput>;
+
+/** Maker, model, serial number and year, two to a row where there is room. */
+function MakerFields({ control }: { control: RideFormControl }) {
+  return (
+    <>
+      <View style={styles.pair}>
+        <View style={styles.half}>
+          <FormText control={control} name="maker" label="Maker" />
+        </View>
+        <View style={styles.half}>
+          <FormText control={control} name="model" label="Model" />
+        </View>
+      </View>
+      <View style={styles.pair}>
+        <View style={styles.half}>
+          <FormText control={control} name="serial" label="Serial number" autoCapitalize="none" />
+        </View>
+        <View style={styles.half}>
+          <FormNumber control={control} name="year" label="Year built" integer />
+        </View>
+      </View>
+    </>
+  );
+}
+
+/** A new ride's starting status, and why when it does not start in service. */
+function StartingStatus({ control, status }: { control: RideFormControl; status: RideFormInput['status'] }) {
+  return (
+    <>
+      <Controller
+        control={control}
+        name="status"
+        render={({ field, fieldState }) => (
+          <ChoiceChips
+            label="Status"
+            value={field.value ?? 'in_service'}
+            options={rideStatuses.map((s) => ({ value: s, label: rideStatusLabel(s) }))}
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      {status && status !== 'in_service' ? (
+        <FormText control={control} name="statusReason" label="Reason for the status" multiline />
+      ) : null}
+    </>
   );
 }
 

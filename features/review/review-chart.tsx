@@ -1,4 +1,4 @@
-import { scaleLinear } from 'd3-scale';
+import { type ScaleLinear, scaleLinear } from 'd3-scale';
 import { line } from 'd3-shape';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
@@ -67,7 +67,6 @@ export function ReviewChart({
   summary,
 }: Props) {
   const [width, setWidth] = useState(0);
-  const finite = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
   const xs = series.flatMap((s) => s.x.filter(finite));
   const bandYs = [band?.min?.y, band?.max?.y].filter(finite);
   const ys = [...series.flatMap((s) => s.y.filter(finite)), ...limits.map((l) => l.y), ...bandYs];
@@ -135,96 +134,140 @@ export function ReviewChart({
               strokeWidth={1.5}
             />
           ) : null}
-          {series.map((s) => {
-            const pts = s.x.map((xv, i) => [xv, s.y[i]] as const);
-            const d =
-              line<readonly [number, number | null]>()
-                .defined((p) => finite(p[0]) && finite(p[1]))
-                .x((p) => x(p[0]))
-                .y((p) => y(p[1] ?? 0))(pts) ?? '';
-            return (
-              <G key={s.label}>
-                <Path
-                  d={d}
-                  stroke={s.color}
-                  strokeWidth={2}
-                  fill="none"
-                  strokeDasharray={s.dashed ? '6 4' : undefined}
-                />
-                {s.dots
-                  ? pts
-                      .filter((p): p is readonly [number, number] => finite(p[0]) && finite(p[1]))
-                      .map(([px, py]) => {
-                        const current = marker !== undefined && px === marker.x;
-                        return (
-                          <Circle
-                            key={`${px}`}
-                            cx={x(px)}
-                            cy={y(py)}
-                            r={current ? 6 : 3.5}
-                            fill={current ? colors.surface : s.color}
-                            stroke={current ? colors.accent : s.color}
-                            strokeWidth={current ? 3 : 1}
-                          />
-                        );
-                      })
-                  : null}
-              </G>
-            );
-          })}
-          {[
-            ...limits,
-            ...(band?.max ? [{ ...band.max, color: colors.over }] : []),
-            ...(band?.min ? [{ ...band.min, color: colors.over }] : []),
-          ].map((l) => (
-            <G key={l.label}>
-              <Line
-                x1={M.left}
-                x2={plotRight}
-                y1={y(l.y)}
-                y2={y(l.y)}
-                stroke={l.color ?? colors.over}
-                strokeWidth={1.5}
-                strokeDasharray="8 5"
-              />
-              <SvgText
-                x={plotRight - 4}
-                // Labels of a lower line sit under it, so two sides of a band never collide.
-                y={band?.min && l.y === band.min.y ? y(l.y) + 14 : y(l.y) - 5}
-                fontSize={11}
-                fontFamily={fonts.semibold}
-                fill={l.color ?? colors.over}
-                textAnchor="end"
-              >
-                {l.label}
-              </SvgText>
-            </G>
+          {series.map((s) => (
+            <SeriesLine key={s.label} series={s} x={x} y={y} marker={marker} />
           ))}
+          <LimitLines limits={limits} band={band} y={y} left={M.left} right={plotRight} />
           <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
         </Svg>
       ) : (
         <View style={{ height }} />
       )}
-      {series.length > 1 ? (
-        <View style={styles.legend}>
-          {series.map((s) => (
-            <View key={s.label} style={styles.legendItem}>
-              <Svg width={18} height={6}>
-                <Line
-                  x1={0}
-                  x2={18}
-                  y1={3}
-                  y2={3}
-                  stroke={s.color}
-                  strokeWidth={3}
-                  strokeDasharray={s.dashed ? '5 3' : undefined}
+      {series.length > 1 ? <Legend series={series} /> : null}
+    </View>
+  );
+}
+
+const finite = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
+
+type Scale = ScaleLinear<number, number>;
+
+/** One series: its line, with gaps where a value is missing, and its dots when asked for. */
+function SeriesLine({
+  series: s,
+  x,
+  y,
+  marker,
+}: {
+  series: ReviewSeries;
+  x: Scale;
+  y: Scale;
+  marker: Props['marker'];
+}) {
+  const pts = s.x.map((xv, i) => [xv, s.y[i]] as const);
+  const d =
+    line<readonly [number, number | null]>()
+      .defined((p) => finite(p[0]) && finite(p[1]))
+      .x((p) => x(p[0]))
+      .y((p) => y(p[1] ?? 0))(pts) ?? '';
+  return (
+    <G>
+      <Path
+        d={d}
+        stroke={s.color}
+        strokeWidth={2}
+        fill="none"
+        strokeDasharray={s.dashed ? '6 4' : undefined}
+      />
+      {s.dots
+        ? pts
+            .filter((p): p is readonly [number, number] => finite(p[0]) && finite(p[1]))
+            .map(([px, py]) => {
+              const current = marker !== undefined && px === marker.x;
+              return (
+                <Circle
+                  key={`${px}`}
+                  cx={x(px)}
+                  cy={y(py)}
+                  r={current ? 6 : 3.5}
+                  fill={current ? colors.surface : s.color}
+                  stroke={current ? colors.accent : s.color}
+                  strokeWidth={current ? 3 : 1}
                 />
-              </Svg>
-              <Text variant="small">{s.label}</Text>
-            </View>
-          ))}
+              );
+            })
+        : null}
+    </G>
+  );
+}
+
+/** The limit lines, each dashed and labelled, with both sides of a band among them. */
+function LimitLines({
+  limits,
+  band,
+  y,
+  left,
+  right,
+}: {
+  limits: ReviewLimit[];
+  band: ReviewBand | undefined;
+  y: Scale;
+  left: number;
+  right: number;
+}) {
+  return (
+    <>
+      {[
+        ...limits,
+        ...(band?.max ? [{ ...band.max, color: colors.over }] : []),
+        ...(band?.min ? [{ ...band.min, color: colors.over }] : []),
+      ].map((l) => (
+        <G key={l.label}>
+          <Line
+            x1={left}
+            x2={right}
+            y1={y(l.y)}
+            y2={y(l.y)}
+            stroke={l.color ?? colors.over}
+            strokeWidth={1.5}
+            strokeDasharray="8 5"
+          />
+          <SvgText
+            x={right - 4}
+            // Labels of a lower line sit under it, so two sides of a band never collide.
+            y={band?.min && l.y === band.min.y ? y(l.y) + 14 : y(l.y) - 5}
+            fontSize={11}
+            fontFamily={fonts.semibold}
+            fill={l.color ?? colors.over}
+            textAnchor="end"
+          >
+            {l.label}
+          </SvgText>
+        </G>
+      ))}
+    </>
+  );
+}
+
+function Legend({ series }: { series: ReviewSeries[] }) {
+  return (
+    <View style={styles.legend}>
+      {series.map((s) => (
+        <View key={s.label} style={styles.legendItem}>
+          <Svg width={18} height={6}>
+            <Line
+              x1={0}
+              x2={18}
+              y1={3}
+              y2={3}
+              stroke={s.color}
+              strokeWidth={3}
+              strokeDasharray={s.dashed ? '5 3' : undefined}
+            />
+          </Svg>
+          <Text variant="small">{s.label}</Text>
         </View>
-      ) : null}
+      ))}
     </View>
   );
 }
