@@ -43,9 +43,9 @@ const pivotLimit = (joint: number, quantity: 'pin_diameter' | 'clearance'): Item
   quantity,
 });
 
-/** The areas every class shares; `extra` adds class-specific items to an area. */
-function areas(extra: Partial<Record<string, Item[]>>): Area[] {
-  const base: Area[] = [
+/** The areas of the structure and its joints: structure and welds, pins and bushings, bolted joints. */
+function structuralAreas(): Area[] {
+  return [
     {
       id: 'structure',
       title: 'Structure and welds',
@@ -108,6 +108,12 @@ function areas(extra: Partial<Record<string, Item[]>>): Area[] {
         look('bolts.locking', 'Locking devices (lock nuts, tab washers, wire) in place'),
       ],
     },
+  ];
+}
+
+/** The areas of operation: rider restraints, drive and brakes, controls, signage and access, documents. */
+function operationalAreas(): Area[] {
+  return [
     {
       id: 'restraints',
       title: 'Rider restraints',
@@ -176,6 +182,11 @@ function areas(extra: Partial<Record<string, Item[]>>): Area[] {
       ],
     },
   ];
+}
+
+/** The areas every class shares; `extra` adds class-specific items to an area. */
+function areas(extra: Partial<Record<string, Item[]>>): Area[] {
+  const base: Area[] = [...structuralAreas(), ...operationalAreas()];
   return base.map((area) => ({ ...area, items: [...area.items, ...(extra[area.id] ?? [])] }));
 }
 
