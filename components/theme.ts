@@ -1,50 +1,8 @@
 /**
- * Pivotwatch design tokens: one place for colour, type, spacing and layout.
- * Palette: a deep harbour-blue base, a neutral slate scale and one copper accent.
- * Every text/background pair used in the UI meets WCAG AA (4.5:1 for body text); the
- * contrast test in tests/app/theme.test.ts checks the pairs listed in `contrastPairs`.
+ * Pivotwatch design tokens: one place for colour, type, spacing and layout. The colours live in
+ * lib/colors.ts (no React, so the server's PDFs and e-mails use the same values) and are re-exported here.
  */
-export const colors = {
-  base: '#102A38',
-  baseRaised: '#1B3B4D',
-  baseText: '#FFFFFF',
-  baseMuted: '#B8CAD4',
-  accent: '#B34A16',
-  accentSoft: '#FBE9DE',
-  bg: '#F3F5F6',
-  surface: '#FFFFFF',
-  surfaceSunk: '#E8ECEE',
-  border: '#CBD4DA',
-  text: '#15232C',
-  textMuted: '#4F5F6A',
-  focus: '#1D6FB8',
-  within: '#18704A',
-  withinSoft: '#E1F2E9',
-  near: '#8A5A00',
-  nearSoft: '#FCF0D6',
-  over: '#B0231A',
-  overSoft: '#FBE3E1',
-  danger: '#B0231A',
-} as const;
-
-/** Text/background pairs the UI uses; each must reach 4.5:1. */
-export const contrastPairs: [string, string][] = [
-  [colors.text, colors.bg],
-  [colors.text, colors.surface],
-  [colors.textMuted, colors.surface],
-  [colors.textMuted, colors.bg],
-  [colors.baseText, colors.base],
-  [colors.baseMuted, colors.base],
-  [colors.baseText, colors.accent],
-  [colors.accent, colors.surface],
-  [colors.within, colors.withinSoft],
-  [colors.near, colors.nearSoft],
-  [colors.over, colors.overSoft],
-  [colors.baseText, colors.baseRaised],
-  [colors.text, colors.accentSoft],
-  [colors.near, colors.nearSoft],
-  [colors.baseMuted, colors.baseRaised],
-];
+export { colors, contrastPairs, type ColorToken } from '@/lib/colors';
 
 export const fonts = {
   regular: 'PlexSans-Regular',

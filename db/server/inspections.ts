@@ -17,10 +17,16 @@ import {
   type DevicePreview,
   type InspectionRecord,
   type PushResult,
-} from '@/features/inspections/schema';
-import type { ConfirmedOutOfRange } from '@/features/inspections/plausibility';
+} from '@/features/records/schema';
+import type { ConfirmedOutOfRange } from '@/features/records/plausibility';
 import type { EnvelopeItem } from '@/features/loads/engine';
-import { inspectionTypes } from '@/features/registry/schema';
+import {
+  envelopeStatuses,
+  inspectionTypes,
+  reviewStates,
+  type EnvelopeStatus,
+  type ReviewState,
+} from '@/lib/vocabulary';
 
 /*
  * Inspections as the phones submit them, and what the server made of them. A submitted inspection is
@@ -28,10 +34,9 @@ import { inspectionTypes } from '@/features/registry/schema';
  * Only the server's analysis (filled in once, after the push is answered) and the review state change.
  */
 
-export const reviewStates = ['submitted', 'approved', 'returned'] as const;
-export type ReviewState = (typeof reviewStates)[number];
-export const envelopeStatuses = ['within', 'near', 'over'] as const;
-export type EnvelopeStatusValue = (typeof envelopeStatuses)[number];
+export { envelopeStatuses, reviewStates };
+export type { ReviewState };
+export type EnvelopeStatusValue = EnvelopeStatus;
 export const photoMimes = ['image/jpeg', 'image/png', 'image/webp'] as const;
 
 // Same helpers as db/server/schema.ts: CHECKs name bare columns so drizzle-kit's table rebuilds keep working.

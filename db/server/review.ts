@@ -5,9 +5,15 @@ import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-o
 
 import { inspections } from '@/db/server/inspections';
 import { rides, users } from '@/db/server/schema';
-import { inspectionTypes } from '@/features/registry/schema';
-import { findingSeverities, findingStates, urgencies } from '@/features/review/schema';
-import { rideClasses, rideStatuses } from '@/features/rides/schema';
+import {
+  envelopeStatuses,
+  findingSeverities,
+  findingStates,
+  inspectionTypes,
+  rideClasses,
+  rideStatuses,
+  urgencies,
+} from '@/lib/vocabulary';
 
 /*
  * The review desk's tables: findings a supervisor writes on an inspection, and the queue's read model.
@@ -134,7 +140,7 @@ export const reviewQueue = sqliteTable(
     inspectorName: text('inspector_name'),
     urgency: integer('urgency').notNull(),
     at: text('at').notNull(),
-    analysisStatus: text('analysis_status', { enum: ['within', 'near', 'over'] }),
+    analysisStatus: text('analysis_status', { enum: envelopeStatuses }),
     failedItems: integer('failed_items').notNull().default(0),
     overdueSince: text('overdue_since'),
     findingsPastDue: integer('findings_past_due').notNull().default(0),

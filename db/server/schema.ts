@@ -3,17 +3,27 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
-import { roles } from '@/features/auth/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import {
   auditActions,
   auditEntities,
   designApprovalStates,
   designOrigins,
-  inspectionTypes,
   type ChecklistContent,
   type CompanyContact,
 } from '@/features/registry/schema';
+import {
+  companyKinds,
+  inspectionTypes,
+  rideClasses,
+  rideStatuses,
+  roles,
+  siteKinds,
+  type CompanyKind,
+  type RideClass,
+  type RideStatus,
+  type SiteKind,
+} from '@/lib/vocabulary';
 
 /*
  * The server's tables. Timestamps are ISO 8601 UTC strings so they read the same in SQL, JSON and logs.
@@ -21,15 +31,9 @@ import {
  * hand-run query.
  */
 
-export const companyKinds = ['inspection_body', 'operator'] as const;
-export const siteKinds = ['park', 'fairground', 'travelling_setup'] as const;
-export const rideClasses = ['pendulum_swing', 'rotating_arm', 'wheel', 'swing_carousel', 'other'] as const;
-export const rideStatuses = ['in_service', 'restricted', 'out_of_service'] as const;
-
-export type CompanyKind = (typeof companyKinds)[number];
-export type SiteKind = (typeof siteKinds)[number];
-export type RideClass = (typeof rideClasses)[number];
-export type RideStatus = (typeof rideStatuses)[number];
+// The enumerations are the vocabulary's (lib/vocabulary.ts): one list for the app, the API and the database.
+export { companyKinds, rideClasses, rideStatuses, siteKinds };
+export type { CompanyKind, RideClass, RideStatus, SiteKind };
 
 const id = () =>
   text('id')

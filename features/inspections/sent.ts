@@ -4,21 +4,17 @@
  * React, no database, so the list works offline and is easy to check.
  */
 import type { OutboxState } from '@/db/device/schema';
-import { type InspectionRecord, type InspectionType, inspectionTypes } from '@/features/inspections/schema';
+import { type InspectionRecord, type InspectionType, inspectionTypes } from '@/features/records/schema';
 import {
   type FindingSeverity,
-  type FindingState,
   findingSeverities,
   findingStates,
-  severityInfo,
 } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
 import type { PulledDecision } from '@/features/sync/pull-schema';
+import { findingStateVocabulary, labelsOf } from '@/lib/vocabulary';
 
-export const findingStateLabel: Record<FindingState, string> = {
-  open: 'Open',
-  action_reported: 'Action reported',
-  closed: 'Closed',
-};
+export const findingStateLabel = labelsOf(findingStateVocabulary);
 
 export type FindingView = {
   key: string;

@@ -1,21 +1,17 @@
 /**
- * The words of the notice screens in one place: kinds and e-mail deliveries. Severity, finding-state,
- * envelope and ride-status words come from their own definitions (severityInfo and the marks).
+ * The notice screens' words for kinds and e-mail deliveries, from the vocabulary (lib/vocabulary.ts), as
+ * every other status word is.
  */
-import type { NoticeDelivery, NoticeKind } from '@/features/notices/schema';
-import type { FindingState } from '@/features/review/schema';
+import {
+  type FindingState,
+  deliveryStatusVocabulary,
+  labelsOf,
+  noticeKindVocabulary,
+} from '@/lib/vocabulary';
 
-export const noticeKindLabel: Record<NoticeKind, string> = {
-  inspection: 'Inspection notice',
-  status_change: 'Ride status notice',
-};
+export const noticeKindLabel = labelsOf(noticeKindVocabulary);
 
-export const deliveryStatusLabel: Record<NoticeDelivery['status'], string> = {
-  pending: 'Waiting to send',
-  sending: 'Sending',
-  sent: 'Sent',
-  failed: 'Failed',
-};
+export const deliveryStatusLabel = labelsOf(deliveryStatusVocabulary);
 
 /** Today as a calendar date (YYYY-MM-DD) on this device, to compare with due dates. */
 export function todayIso(now = new Date()): string {
@@ -26,5 +22,3 @@ export function todayIso(now = new Date()): string {
 /** A finding still open (or awaiting verification) after its due date. */
 export const isPastDue = (f: { dueOn: string | null; state: FindingState }, today = todayIso()) =>
   f.dueOn !== null && f.state !== 'closed' && f.dueOn < today;
-
-export const noticeHref = (id: string) => `/notices/${encodeURIComponent(id)}` as const;

@@ -4,17 +4,11 @@ import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import type { NoticeKind, NoticeListItem } from '@/features/notices/schema';
+import type { NoticeListItem } from '@/features/notices/schema';
+import { noticeKindLabel } from '@/features/notices/notice-text';
 import { formatDateTime } from '@/lib/dates';
 import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
-
-export const noticeKindLabel: Record<NoticeKind, string> = {
-  inspection: 'Inspection notice',
-  status_change: 'Ride status notice',
-};
-
-/** Where a notice is read in the app. */
-export const noticeHref = (id: string) => `/notices/${encodeURIComponent(id)}`;
+import { noticeHref } from '@/features/notices/hrefs';
 
 function acknowledgement(n: NoticeListItem): string {
   if (!n.acknowledgedAt) return 'Not acknowledged yet';

@@ -6,13 +6,25 @@
 import { z } from 'zod';
 
 import { pageSchema, pagingQuerySchema } from '@/lib/list-params';
-import { findingSchema, findingSeverities, findingStates } from '@/features/review/schema';
+import { findingSchema } from '@/features/notices/finding-schema';
 import { rideStatuses } from '@/features/rides/schema';
+import {
+  findingSeverities,
+  findingStates,
+  deliveryStatuses,
+  envelopeStatuses,
+  noticeDeliveryStates,
+  noticeDeliveryStateVocabulary,
+  noticeKinds,
+  type NoticeDeliveryState,
+  type NoticeKind,
+} from '@/lib/vocabulary';
 
-export const noticeKinds = ['inspection', 'status_change'] as const;
-export type NoticeKind = (typeof noticeKinds)[number];
+// Notice kinds and delivery states, with their words and marks, are defined in lib/vocabulary.
+export { deliveryStatuses, noticeDeliveryStates, noticeKinds };
+export type { NoticeDeliveryState, NoticeKind };
 
-const envelopeStatus = z.enum(['within', 'near', 'over']);
+const envelopeStatus = z.enum(envelopeStatuses);
 
 export const noticeDocumentSchema = z.object({
   /** Human reference printed on the notice, e.g. "PW-2026-0007". */
@@ -101,29 +113,8 @@ export type NoticeDocument = z.infer<typeof noticeDocumentSchema>;
 
 // ——— the API around notices ———
 
-/**
- * Where a notice's e-mail stands, over all its recipients: `no_address` when the operator company had no
- * notice address when it was issued (the notice exists and can be read in the app; nothing was sent),
- * `sending` while any delivery is still pending or being sent, then `sent`, `failed` or `partly_sent`.
- */
-export const noticeDeliveryStates = ['no_address', 'sending', 'sent', 'partly_sent', 'failed'] as const;
-export type NoticeDeliveryState = (typeof noticeDeliveryStates)[number];
-export const noticeDeliveryStateInfo: Record<NoticeDeliveryState, { label: string; description: string }> = {
-  no_address: {
-    label: 'No address',
-    description:
-      'The operator company has no notice e-mail address, so nothing was sent. Add one in the register and send the notice again.',
-  },
-  sending: { label: 'Sending', description: 'The e-mail is queued or being sent; failed tries are retried.' },
-  sent: { label: 'Sent', description: 'The e-mail was accepted for every notice address.' },
-  partly_sent: {
-    label: 'Partly sent',
-    description: 'Some addresses received the e-mail; for others it failed after every retry.',
-  },
-  failed: { label: 'Not delivered', description: 'The e-mail failed after every retry.' },
-};
-
-export const deliveryStatuses = ['pending', 'sending', 'sent', 'failed'] as const;
+/** Where a notice's e-mail stands over all its recipients (`noticeDeliveryStates`): its words. */
+export const noticeDeliveryStateInfo = noticeDeliveryStateVocabulary;
 
 export const noticeDeliverySummarySchema = z.object({
   state: z.enum(noticeDeliveryStates),
@@ -131,7 +122,6 @@ export const noticeDeliverySummarySchema = z.object({
   sent: z.number().int(),
   failed: z.number().int(),
 });
-export type NoticeDeliverySummary = z.infer<typeof noticeDeliverySummarySchema>;
 
 /** `GET /api/notices`: operators get their own company's only, whatever the filters say. */
 export const noticeListQuerySchema = pagingQuerySchema.extend({

@@ -13,13 +13,14 @@ import {
   instrumentSnapshotSchema,
   readingKindSchema,
   readingMethods,
-} from '@/features/inspections/schema';
+} from '@/features/records/schema';
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
 import { auditEntrySchema, inspectionTypeSchema } from '@/features/registry/schema';
-import { findingSchema } from '@/features/review/schema';
+import { findingSchema } from '@/features/notices/finding-schema';
 import type { QuantityKind } from '@/lib/units';
+import { reviewStates } from '@/lib/vocabulary';
 
-export const reviewStates = ['submitted', 'approved', 'returned'] as const;
+export { reviewStates };
 export const reviewStateSchema = z.enum(reviewStates);
 export type ReviewState = z.infer<typeof reviewStateSchema>;
 

@@ -2,10 +2,11 @@
  * Words and numbers of the inspection review, in the person's unit system. Readings are stored in SI by
  * kind (features/inspections/schema.ts): speed rad/s, period s, amplitude rad, diameter and clearance m.
  */
-import type { ReadingKind } from '@/features/inspections/schema';
+import type { ReadingKind } from '@/features/records/schema';
 import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/lib/units';
 import type { InspectionReading } from '@/features/review/inspection-schema';
 import { type MeasuredSource, formatMeasured, formatSpreadOf, formatTyped } from '@/lib/measured-format';
+import { labelsOf, reviewStateVocabulary } from '@/lib/vocabulary';
 
 export const readingQuantity: Record<Exclude<ReadingKind, 'other'>, QuantityKind> = {
   speed: 'rate',
@@ -62,11 +63,7 @@ export function formatSpread(
   return formatSpreadOf(r.spreadSI, kind, system, unit);
 }
 
-export const reviewStateLabel = {
-  submitted: 'Awaiting decision',
-  approved: 'Approved',
-  returned: 'Returned to inspector',
-} as const;
+export const reviewStateLabel = labelsOf(reviewStateVocabulary);
 
 /** "P2 · Gondola arm" (pivots count from 1 for people; joint 0 is the ground pivot). */
 export function pivotName(joint: number, names: readonly string[]): string {

@@ -1,19 +1,15 @@
 import { z } from 'zod';
 
-export const rideClasses = ['pendulum_swing', 'rotating_arm', 'wheel', 'swing_carousel', 'other'] as const;
+import { labelsOf, rideClasses, rideClassVocabulary, rideStatuses } from '@/lib/vocabulary';
+
+// Ride classes and statuses, their words and marks, are defined in the vocabulary.
+export { rideClasses, rideStatuses };
 export const rideClassSchema = z.enum(rideClasses);
 export type RideClass = z.infer<typeof rideClassSchema>;
 
-export const rideStatuses = ['in_service', 'restricted', 'out_of_service'] as const;
 export const rideStatusSchema = z.enum(rideStatuses);
 
-export const rideClassLabel: Record<RideClass, string> = {
-  pendulum_swing: 'Pendulum swing',
-  rotating_arm: 'Rotating arm',
-  wheel: 'Wheel',
-  swing_carousel: 'Swing carousel',
-  other: 'Other rotating ride',
-};
+export const rideClassLabel = labelsOf(rideClassVocabulary);
 
 /** One ride as lists show it (GET /api/rides). */
 export const rideSummarySchema = z.object({

@@ -1,25 +1,13 @@
 /**
- * The words the server prints on notices and e-mails, in one place. Severity words come from
- * `severityInfo` (features/review/schema.ts) and the caution from lib/caution-text.ts.
+ * The words the server prints on notices and e-mails that are not the vocabulary's. Status, role and
+ * severity words come from lib/vocabulary.ts, the caution from lib/caution-text.ts.
  */
-import type { Role } from '@/features/auth/schema';
 import type { NoticeDocument } from '@/features/notices/schema';
-import type { rideStatuses } from '@/features/rides/schema';
+import { labelsOf, rideStatusVocabulary, roleVocabulary } from '@/lib/vocabulary';
 
-type RideStatus = (typeof rideStatuses)[number];
+export const rideStatusWords = labelsOf(rideStatusVocabulary);
 
-export const rideStatusWords: Record<RideStatus, string> = {
-  in_service: 'In service',
-  restricted: 'Restricted',
-  out_of_service: 'Out of service',
-};
-
-export const roleWords: Record<Role, string> = {
-  inspector: 'Inspector',
-  supervisor: 'Supervisor',
-  operator: 'Operator',
-  admin: 'Administrator',
-};
+export const roleWords = labelsOf(roleVocabulary);
 
 /** How the operator can disagree with a notice; our own wording. */
 export function appealText(issuerName: string, reference: string): string {

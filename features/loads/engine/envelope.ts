@@ -1,16 +1,14 @@
 import { LIMIT_EQUAL_TOLERANCE, type Limit } from '@/lib/limits';
+import { envelopeStatusVocabulary, labelsOf, type EnvelopeStatus } from '@/lib/vocabulary';
 /**
  * Envelope evaluation: a value against its design limit → ratio and status. The ratio is the share of
- * the allowance used: 1 means at the limit, above 1 over it.
+ * the allowance used: 1 means at the limit, above 1 over it. The statuses, their words and marks are
+ * the vocabulary's (lib/vocabulary.ts).
  */
 
-export type EnvelopeStatus = 'within' | 'near' | 'over';
+export type { EnvelopeStatus };
 
-export const ENVELOPE_STATUS_LABEL: Record<EnvelopeStatus, string> = {
-  within: 'Within',
-  near: 'Near limit',
-  over: 'Over limit',
-};
+export const ENVELOPE_STATUS_LABEL = labelsOf(envelopeStatusVocabulary);
 
 /** Where 'near' starts, as a ratio of the limit, unless the ride's documents say otherwise. */
 export const DEFAULT_NEAR_MARGIN = 0.9;

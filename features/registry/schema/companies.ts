@@ -1,6 +1,8 @@
-import { email, id, nullableText, requiredText } from '@/features/registry/schema/fields';
+import { email, nullableText, requiredText } from '@/features/registry/schema/fields';
 import { pageSchema, pagingQuerySchema, searchQuery, sortQuery } from '@/lib/list-params';
 import { z } from 'zod';
+
+import { companyKinds } from '@/lib/vocabulary';
 
 // ——— operator companies ———
 
@@ -37,7 +39,7 @@ export const companyPatchSchema = companyInputSchema.partial();
 
 export const companySchema = z.object({
   id: z.string(),
-  kind: z.enum(['inspection_body', 'operator']),
+  kind: z.enum(companyKinds),
   name: z.string(),
   noticeEmails: z.array(z.string()),
   phone: z.string().nullable(),

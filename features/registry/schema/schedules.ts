@@ -1,29 +1,19 @@
-import { email, id, nullableText } from '@/features/registry/schema/fields';
+import { id, nullableText } from '@/features/registry/schema/fields';
 import { pageSchema, pagingQuerySchema, searchQuery, sortQuery } from '@/lib/list-params';
 import { listOf } from '@/features/registry/schema/rides';
 import { rideClassSchema, rideStatusSchema } from '@/features/rides/schema';
 import { z } from 'zod';
 
+import { inspectionTypes, inspectionTypeVocabulary, labelsOf } from '@/lib/vocabulary';
+
 // ——— schedules and assignments ———
 
-export const inspectionTypes = [
-  'daily_pre_opening',
-  'periodic',
-  'annual',
-  'setup_after_assembly',
-  'follow_up',
-] as const;
+export { inspectionTypes };
 export const inspectionTypeSchema = z.enum(inspectionTypes, {
   error: `One of ${inspectionTypes.join(', ')}`,
 });
 export type InspectionType = z.infer<typeof inspectionTypeSchema>;
-export const inspectionTypeLabel: Record<InspectionType, string> = {
-  daily_pre_opening: 'Daily pre-opening',
-  periodic: 'Periodic',
-  annual: 'Annual',
-  setup_after_assembly: 'Set-up after assembly',
-  follow_up: 'Follow-up',
-};
+export const inspectionTypeLabel = labelsOf(inspectionTypeVocabulary);
 
 /**
  * How many days ahead an inspection counts as due rather than upcoming: a daily check is due on its day,

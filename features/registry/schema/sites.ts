@@ -2,15 +2,13 @@ import { id, nullableText, requiredText } from '@/features/registry/schema/field
 import { pageSchema, pagingQuerySchema, searchQuery, sortQuery } from '@/lib/list-params';
 import { z } from 'zod';
 
+import { labelsOf, siteKinds, siteKindVocabulary } from '@/lib/vocabulary';
+
 // ——— sites ———
 
-export const siteKinds = ['park', 'fairground', 'travelling_setup'] as const;
+export { siteKinds };
 export const siteKindSchema = z.enum(siteKinds, { error: `One of ${siteKinds.join(', ')}` });
-export const siteKindLabel: Record<(typeof siteKinds)[number], string> = {
-  park: 'Park',
-  fairground: 'Fairground',
-  travelling_setup: 'Travelling set-up',
-};
+export const siteKindLabel = labelsOf(siteKindVocabulary);
 
 export const siteInputSchema = z.object({
   name: requiredText(120),
