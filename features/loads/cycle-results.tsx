@@ -52,97 +52,15 @@ export function CycleResults({
       </Card>
 
       <SectionTitle>Pivot loads over the cycle</SectionTitle>
-      <DataTable
-        label="Pivot loads"
-        rows={result.joints.map((j, i) => ({ j, i }))}
-        rowKey={({ i }) => String(i)}
-        columns={[
-          { key: 'pivot', title: 'Pivot', render: ({ j, i }) => `${i + 1} · ${j.name}`, flex: 1.4 },
-          {
-            key: 'peak',
-            title: 'Peak force',
-            render: ({ j }) => formatValue(j.peakForce.value, 'force', system),
-            numeric: true,
-          },
-          {
-            key: 'where',
-            title: xAxis === 'angle' ? 'At arm angle' : 'At time',
-            render: ({ j }) =>
-              xAxis === 'angle'
-                ? formatValue(wrapAngle(j.peakForce.armAngleRad), 'angle', system)
-                : formatValue(j.peakForce.timeS, 'time', system),
-            numeric: true,
-          },
-          {
-            key: 'range',
-            title: 'Load range',
-            render: ({ j }) => formatValue(j.extremes.magnitudeN.range, 'force', system),
-            numeric: true,
-          },
-          {
-            key: 'torque',
-            title: 'Peak torque',
-            render: ({ j }) => formatValue(Math.abs(j.peakTorque.value), 'moment', system),
-            numeric: true,
-          },
-        ]}
-      />
+      <PivotLoadsTable result={result} system={system} xAxis={xAxis} />
 
       <View style={wide ? styles.chartsWide : styles.charts}>
-        {result.joints.map((j, i) => {
-          const limit = result.envelope.find((e) => e.id === `joints.${i}.force`);
-          const unit = pickDisplayUnit(j.peakForce.value, 'force', system);
-          const toUnit = (v: number) => fromSI(v, 'force', unit.mathjs);
-          const { x, y } = chartPoints(result, i, xAxis, toUnit);
-          return (
-            <Card key={i} style={wide ? styles.chartCardWide : undefined}>
-              <Text variant="heading">
-                Pivot {i + 1} · {j.name}
-              </Text>
-              <LineChart
-                summary={`Force on pivot ${i + 1} over the cycle; peak ${formatValue(j.peakForce.value, 'force', system)}`}
-                series={[{ label: 'Force magnitude', x, y, color: colors.base }]}
-                limits={
-                  limit && limit.limit.kind === 'upper'
-                    ? [
-                        {
-                          label: `Limit ${formatValue(limit.limit.max, 'force', system)}`,
-                          y: toUnit(limit.limit.max),
-                        },
-                      ]
-                    : []
-                }
-                xLabel={xAxis === 'angle' ? 'Main arm angle (°)' : 'Time (s)'}
-                yLabel={`Force (${unit.label})`}
-                xDomain={xAxis === 'angle' ? [0, 360] : undefined}
-                xTicks={xAxis === 'angle' ? [0, 90, 180, 270, 360] : undefined}
-              />
-            </Card>
-          );
-        })}
+        {result.joints.map((_, i) => (
+          <PivotForceChart key={i} result={result} joint={i} system={system} xAxis={xAxis} wide={wide} />
+        ))}
       </View>
 
-      {result.seats.length > 0 ? (
-        <>
-          <SectionTitle>What riders feel (g, gravity included)</SectionTitle>
-          <DataTable
-            label="Rider accelerations"
-            rows={result.seats}
-            rowKey={(s) => s.name}
-            columns={[
-              { key: 'seat', title: 'Seat', render: (s) => s.name, flex: 1.4 },
-              { key: 'gzmin', title: 'Gz min', render: (s) => fmtG(s.extremes.gz.min), numeric: true },
-              { key: 'gzmax', title: 'Gz max', render: (s) => fmtG(s.extremes.gz.max), numeric: true },
-              { key: 'gxmin', title: 'Gx min', render: (s) => fmtG(s.extremes.gx.min), numeric: true },
-              { key: 'gxmax', title: 'Gx max', render: (s) => fmtG(s.extremes.gx.max), numeric: true },
-            ]}
-          />
-          <Text variant="small" muted>
-            Gz runs along the spine (positive pushes the rider into the seat, “eyes down”); Gx runs chest to
-            back. Not low-pass filtered: compare with limits as your standard requires.
-          </Text>
-        </>
-      ) : null}
+      {result.seats.length > 0 ? <RiderAccelerations result={result} /> : null}
 
       {hasEnvelope ? (
         <>
@@ -161,6 +79,112 @@ export function CycleResults({
       </View>
       <Caution />
     </View>
+  );
+}
+
+type Props = { result: CycleResult; system: UnitSystem; xAxis: 'angle' | 'time' };
+
+function PivotLoadsTable({ result, system, xAxis }: Props) {
+  return (
+    <DataTable
+      label="Pivot loads"
+      rows={result.joints.map((j, i) => ({ j, i }))}
+      rowKey={({ i }) => String(i)}
+      columns={[
+        { key: 'pivot', title: 'Pivot', render: ({ j, i }) => `${i + 1} · ${j.name}`, flex: 1.4 },
+        {
+          key: 'peak',
+          title: 'Peak force',
+          render: ({ j }) => formatValue(j.peakForce.value, 'force', system),
+          numeric: true,
+        },
+        {
+          key: 'where',
+          title: xAxis === 'angle' ? 'At arm angle' : 'At time',
+          render: ({ j }) =>
+            xAxis === 'angle'
+              ? formatValue(wrapAngle(j.peakForce.armAngleRad), 'angle', system)
+              : formatValue(j.peakForce.timeS, 'time', system),
+          numeric: true,
+        },
+        {
+          key: 'range',
+          title: 'Load range',
+          render: ({ j }) => formatValue(j.extremes.magnitudeN.range, 'force', system),
+          numeric: true,
+        },
+        {
+          key: 'torque',
+          title: 'Peak torque',
+          render: ({ j }) => formatValue(Math.abs(j.peakTorque.value), 'moment', system),
+          numeric: true,
+        },
+      ]}
+    />
+  );
+}
+
+/** One pivot's force over the cycle, with its limit when the design gives one. */
+function PivotForceChart({
+  result,
+  joint: i,
+  system,
+  xAxis,
+  wide,
+}: Props & { joint: number; wide: boolean }) {
+  const j = result.joints[i];
+  const limit = result.envelope.find((e) => e.id === `joints.${i}.force`);
+  const unit = pickDisplayUnit(j.peakForce.value, 'force', system);
+  const toUnit = (v: number) => fromSI(v, 'force', unit.mathjs);
+  const { x, y } = chartPoints(result, i, xAxis, toUnit);
+  return (
+    <Card style={wide ? styles.chartCardWide : undefined}>
+      <Text variant="heading">
+        Pivot {i + 1} · {j.name}
+      </Text>
+      <LineChart
+        summary={`Force on pivot ${i + 1} over the cycle; peak ${formatValue(j.peakForce.value, 'force', system)}`}
+        series={[{ label: 'Force magnitude', x, y, color: colors.base }]}
+        limits={
+          limit && limit.limit.kind === 'upper'
+            ? [
+                {
+                  label: `Limit ${formatValue(limit.limit.max, 'force', system)}`,
+                  y: toUnit(limit.limit.max),
+                },
+              ]
+            : []
+        }
+        xLabel={xAxis === 'angle' ? 'Main arm angle (°)' : 'Time (s)'}
+        yLabel={`Force (${unit.label})`}
+        xDomain={xAxis === 'angle' ? [0, 360] : undefined}
+        xTicks={xAxis === 'angle' ? [0, 90, 180, 270, 360] : undefined}
+      />
+    </Card>
+  );
+}
+
+function RiderAccelerations({ result }: { result: CycleResult }) {
+  return (
+    <>
+      <SectionTitle>What riders feel (g, gravity included)</SectionTitle>
+      <DataTable
+        label="Rider accelerations"
+        rows={result.seats}
+        rowKey={(s) => s.name}
+        columns={[
+          { key: 'seat', title: 'Seat', render: (s) => s.name, flex: 1.4 },
+          { key: 'gzmin', title: 'Gz min', render: (s) => fmtG(s.extremes.gz.min), numeric: true },
+          { key: 'gzmax', title: 'Gz max', render: (s) => fmtG(s.extremes.gz.max), numeric: true },
+          { key: 'gxmin', title: 'Gx min', render: (s) => fmtG(s.extremes.gx.min), numeric: true },
+          { key: 'gxmax', title: 'Gx max', render: (s) => fmtG(s.extremes.gx.max), numeric: true },
+        ]}
+      />
+      <Text variant="small" muted>
+        Gz runs along the spine (positive pushes the rider into the seat, “eyes down”); Gx runs chest to back.
+        Not low-pass filtered: compare with limits as your standard requires.
+      </Text>
+    </>
   );
 }
 
