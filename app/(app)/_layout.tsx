@@ -2,6 +2,7 @@ import { Redirect, Slot, usePathname } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { useSession } from '@/features/auth/api';
+import { signInHref } from '@/features/auth/hrefs';
 import { rememberNextPath } from '@/features/auth/next-path';
 import { DeviceDbProvider } from '@/features/device-db/provider';
 import { AppShell } from '@/features/shell/app-shell';
@@ -24,7 +25,7 @@ export default function AppLayout() {
     if (comeBackTo(pathname)) rememberNextPath(pathname);
     return (
       // A plain string: on the web, an href object here also carried the page's own params along.
-      <Redirect href={comeBackTo(pathname) ? `/sign-in?next=${encodeURIComponent(pathname)}` : '/sign-in'} />
+      <Redirect href={signInHref(comeBackTo(pathname) ? pathname : null)} />
     );
   }
   const shell = (

@@ -1,6 +1,7 @@
 import { Redirect } from 'expo-router';
 
-import { roleHome, useSession } from '@/features/auth/api';
+import { useSession } from '@/features/auth/api';
+import { roleHome, signInHref } from '@/features/auth/hrefs';
 import { forgetNextPath, nextPathAfterSignIn } from '@/features/auth/next-path';
 
 /**
@@ -9,7 +10,7 @@ import { forgetNextPath, nextPathAfterSignIn } from '@/features/auth/next-path';
  */
 export default function Index() {
   const session = useSession();
-  if (!session.data) return <Redirect href="/sign-in" />;
+  if (!session.data) return <Redirect href={signInHref()} />;
   const next = nextPathAfterSignIn(null);
   forgetNextPath();
   return <Redirect href={next ?? roleHome[session.data.user.role]} />;

@@ -6,6 +6,7 @@ import { Caution } from '@/components/caution';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { roleLabel, useSession, useSignOutMutation } from '@/features/auth/api';
+import { signInHref } from '@/features/auth/hrefs';
 
 export function AccountScreen() {
   const session = useSession();
@@ -26,7 +27,7 @@ export function AccountScreen() {
         label="Sign out"
         tone="danger"
         busy={signOut.isPending}
-        onPress={() => signOut.mutate(undefined, { onSuccess: () => router.replace('/sign-in') })}
+        onPress={() => signOut.mutate(undefined, { onSuccess: () => router.replace(signInHref()) })}
       />
       <Caution full />
     </Screen>

@@ -1,3 +1,5 @@
+import type { Href } from 'expo-router';
+
 /**
  * Where to go after signing in, when the sign-in page was reached from a page of ours (an e-mailed link
  * to a notice, a reload after the session ran out). Only a path on this site is accepted: it starts with
@@ -26,8 +28,9 @@ export function rememberNextPath(path: string): void {
 }
 
 /** The page to go to after signing in: the `next` parameter, else the remembered page. */
-export function nextPathAfterSignIn(param: unknown): string | null {
-  return safeNextPath(param) ?? remembered;
+export function nextPathAfterSignIn(param: unknown): Extract<Href, string> | null {
+  // A path of this site (safeNextPath checked it); which page it names is only known at run time.
+  return (safeNextPath(param) ?? remembered) as Extract<Href, string> | null;
 }
 
 /** Forgets the remembered page once it has been used. */

@@ -2,12 +2,13 @@
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate } from '@/lib/dates';
 import { type QueueItem, urgencyInfo } from '@/features/review/schema';
-import { rideHref } from '@/features/rides/ride-card';
+import { reviewHref } from '@/features/review/hrefs';
+import { rideHref } from '@/features/rides';
 
 /** An inspection opens on the review desk; a ride in the queue for its dates opens the ride's page. */
-export function queueItemHref(item: QueueItem): `/review/${string}` | `/rides/${string}` {
+export function queueItemHref(item: QueueItem) {
   // A ride flagged by a returned inspection opens that inspection.
-  return item.inspectionId ? `/review/${encodeURIComponent(item.inspectionId)}` : rideHref(item.rideId);
+  return item.inspectionId ? reviewHref(item.inspectionId) : rideHref(item.rideId);
 }
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;

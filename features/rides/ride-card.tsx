@@ -6,10 +6,8 @@ import { Card } from '@/components/card';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
+import { rideHref } from '@/features/rides/hrefs';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
-
-/** The route of a ride's own page. */
-export const rideHref = (id: string) => `/rides/${encodeURIComponent(id)}` as const;
 
 /** A ride at a glance. With `link`, the whole card opens the ride's page. */
 export function RideCard({

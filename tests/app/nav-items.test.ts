@@ -12,7 +12,7 @@ test('operators get no staff tools in their navigation', () => {
 });
 
 test('an item is active on its own path and its sub-routes, not on look-alike paths', () => {
-  const item = { href: '/today', label: 'Today', icon: 'sun' as const };
+  const item = { href: '/today' as const, label: 'Today', icon: 'sun' as const };
   expect(isActive(item, '/today')).toBe(true);
   expect(isActive(item, '/today/ride-1')).toBe(true);
   expect(isActive(item, '/todays-notes')).toBe(false);
