@@ -89,174 +89,209 @@ function freshCopy(template: string): { dir: string; open: () => ReturnType<type
   return { dir, open: () => openDb(dir) };
 }
 
+type Figures = {
+  ingestMs: number[];
+  ingestCpu: number[];
+  rawCpu: number[];
+  analysisMs: number[];
+  rawMs: number[];
+  analysed: number;
+};
+
+/** The demo database every run copies: its rides with their current design data, and the demo inspector. */
+async function seedTemplate(template: string) {
+  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: template, WEB_DIR: path.join(template, 'none') });
+  const seeded = openDb(template);
+  await seedDemoData(seeded.db, config);
+  const rideRows = seeded.db.select({ id: rides.id }).from(rides).all();
+  const ridesWithDesign: Ride[] = rideRows.flatMap((r) => {
+    const d = seeded.db
+      .select({ id: designVersions.id, data: designVersions.data })
+      .from(designVersions)
+      .where(eq(designVersions.rideId, r.id))
+      .orderBy(desc(designVersions.version))
+      .get();
+    return d ? [{ id: r.id, designVersionId: d.id, design: d.data }] : [];
+  });
+  const inspectorId = seeded.db
+    .select({ id: users.id })
+    .from(users)
+    .where(eq(users.email, demoInspectorEmail))
+    .get()?.id;
+  sqliteOf(seeded.db).pragma('wal_checkpoint(TRUNCATE)');
+  seeded.close();
+  if (!inspectorId) throw new Error('no demo inspector');
+  return { ridesWithDesign, inspectorId };
+}
+
+/** The push service, batch by batch as the phone sends them, then the analysis of what it stored. */
+async function timePush(a: ReturnType<typeof freshCopy>, records: InspectionRecord[], inspectorId: string) {
+  const db = a.open();
+  const user = findSessionUser(db.db, inspectorId);
+  if (!user) throw new Error('no demo inspector');
+  const receivedAt = new Date();
+  let t0 = now();
+  const c0 = cpuNow();
+  for (let b = 0; b < INSPECTIONS; b += BATCH) {
+    const outcome = ingestBatch(
+      db.db,
+      user,
+      { batchId: randomUUID(), records: records.slice(b, b + BATCH) },
+      receivedAt,
+    );
+    if (outcome.accepted !== Math.min(BATCH, INSPECTIONS - b))
+      throw new Error('a bench record was not accepted');
+  }
+  // Both timings end with a checkpoint, so each leaves its rows in the database file: otherwise
+  // whichever side happens to cross the WAL's auto-checkpoint size pays for the other's copy too.
+  sqliteOf(db.db).pragma('wal_checkpoint(PASSIVE)');
+  const ingestTook = now() - t0;
+  const ingestCpuTook = cpuNow() - c0;
+  t0 = now();
+  const analysed = await analysePending(db.db);
+  const analysisTook = now() - t0;
+  db.close();
+  return { receivedAt, ingestTook, ingestCpuTook, analysisTook, analysed };
+}
+
+/** Raw: the same rows, prepared statements, one transaction. */
+function timeRaw(
+  b: ReturnType<typeof freshCopy>,
+  records: InspectionRecord[],
+  inspectorId: string,
+  receivedAt: Date,
+) {
+  const rows = records.map((r) => {
+    const json = JSON.stringify(r);
+    return {
+      inspection: [
+        r.id,
+        r.rideId,
+        inspectorId,
+        r.type,
+        r.startedAt,
+        r.submittedAt,
+        receivedAt.toISOString(),
+        randomUUID(),
+        r.designVersionId,
+        null,
+        null,
+        null,
+        json,
+        createHash('sha256').update(json).digest('hex'),
+        0,
+      ] as const,
+      readings: r.readings.map(
+        (x) =>
+          [
+            r.id,
+            x.id,
+            r.rideId,
+            x.kind,
+            x.joint,
+            x.label,
+            x.valueSI,
+            x.unit,
+            x.method,
+            x.spreadSI ?? null,
+            x.takenAt,
+            null,
+          ] as const,
+      ),
+    };
+  });
+  const rawDb = b.open();
+  const sqlite = sqliteOf(rawDb.db);
+  // The connection setting the push service makes (server/sync/ingest.ts), so both run alike.
+  sqlite.pragma('temp_store = MEMORY');
+  const insertInspection = sqlite.prepare(
+    `INSERT INTO inspections (id, ride_id, inspector_id, type, started_at, submitted_at, received_at, batch_id,
+       design_version_id, template_id, template_version, amends_id, record, content_sha256, failed_items)
+     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+  );
+  const insertReading = sqlite.prepare(
+    `INSERT INTO inspection_readings (inspection_id, id, ride_id, kind, joint, label, value_si, unit, method,
+       spread_si, taken_at, note) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+  );
+  const t0 = now();
+  const c0 = cpuNow();
+  sqlite.transaction(() => {
+    for (const row of rows) {
+      insertInspection.run(...row.inspection);
+      for (const reading of row.readings) insertReading.run(...reading);
+    }
+  })();
+  sqlite.pragma('wal_checkpoint(PASSIVE)');
+  const rawTook = now() - t0;
+  const rawCpuTook = cpuNow() - c0;
+  rawDb.close();
+  return { rawTook, rawCpuTook };
+}
+
+function report({ ingestMs, ingestCpu, rawCpu, analysisMs, rawMs, analysed }: Figures) {
+  const ingestRate = INSPECTIONS / (median(ingestMs) / 1000);
+  const rawRate = INSPECTIONS / (median(rawMs) / 1000);
+  const analysisRate = analysed / (median(analysisMs) / 1000);
+  // Each run's two figures are measured back to back, so their ratio is steadier than a ratio of medians
+  // on a busy machine.
+  const ratios = ingestMs.map((t, i) => rawMs[i] / t).sort((x, y) => x - y);
+  const cpuRatio = median(rawCpu) / median(ingestCpu);
+  const readings = INSPECTIONS * READINGS_PER;
+  console.log(
+    `${INSPECTIONS} inspections, ${fmt(readings)} readings; push in batches of ${BATCH}; median of ${REPEATS} runs after one warm-up, each on a fresh copy of the seeded database`,
+  );
+  console.log(
+    `ingest (store only):   ${fmt(median(ingestMs), 1)} ms  ${fmt(ingestRate)} inspections/s  ${fmt(ingestRate * READINGS_PER)} readings/s`,
+  );
+  console.log(
+    `raw prepared insert:   ${fmt(median(rawMs), 1)} ms  ${fmt(rawRate)} inspections/s  (same rows, one transaction)`,
+  );
+  console.log(
+    `ingest / raw:          ${fmt(median(ratios) * 100)} %  median of the runs' ratios (lowest ${fmt(ratios[0] * 100)} %, highest ${fmt(ratios[ratios.length - 1] * 100)} %); target ≥ 50 %`,
+  );
+  console.log(
+    `  by CPU time:         ${fmt(cpuRatio * 100)} %  (ingest ${fmt(median(ingestCpu), 1)} ms, raw ${fmt(median(rawCpu), 1)} ms of this process's CPU)`,
+  );
+  console.log(
+    `analysis (afterwards): ${fmt(median(analysisMs), 1)} ms  ${fmt(analysisRate)} inspections/s  (${analysed} analysed per run, 360 samples each)`,
+  );
+}
+
 export async function run() {
   const template = fs.mkdtempSync(path.join(os.tmpdir(), 'pivotwatch-bench-seed-'));
   const dirs: string[] = [template];
   try {
-    const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: template, WEB_DIR: path.join(template, 'none') });
-    const seeded = openDb(template);
-    await seedDemoData(seeded.db, config);
-    const rideRows = seeded.db.select({ id: rides.id }).from(rides).all();
-    const ridesWithDesign: Ride[] = rideRows.flatMap((r) => {
-      const d = seeded.db
-        .select({ id: designVersions.id, data: designVersions.data })
-        .from(designVersions)
-        .where(eq(designVersions.rideId, r.id))
-        .orderBy(desc(designVersions.version))
-        .get();
-      return d ? [{ id: r.id, designVersionId: d.id, design: d.data }] : [];
-    });
-    const inspectorId = seeded.db
-      .select({ id: users.id })
-      .from(users)
-      .where(eq(users.email, demoInspectorEmail))
-      .get()?.id;
-    sqliteOf(seeded.db).pragma('wal_checkpoint(TRUNCATE)');
-    seeded.close();
-    if (!inspectorId) throw new Error('no demo inspector');
-
-    const ingestMs: number[] = [];
-    const ingestCpu: number[] = [];
-    const rawCpu: number[] = [];
-    const analysisMs: number[] = [];
-    const rawMs: number[] = [];
-    let analysed = 0;
+    const { ridesWithDesign, inspectorId } = await seedTemplate(template);
+    const figures: Figures = {
+      ingestMs: [],
+      ingestCpu: [],
+      rawCpu: [],
+      analysisMs: [],
+      rawMs: [],
+      analysed: 0,
+    };
     // One run more than counted: the first warms up the JIT (zod's parsers, the engine), as a running
     // server would be after its first push.
     for (let rep = -1; rep < REPEATS; rep++) {
       const records = makeRecords(ridesWithDesign);
-
-      // ——— the push service, batch by batch as the phone sends them ———
       const a = freshCopy(template);
       dirs.push(a.dir);
-      const db = a.open();
-      const user = findSessionUser(db.db, inspectorId);
-      if (!user) throw new Error('no demo inspector');
-      const receivedAt = new Date();
-      let t0 = now();
-      let c0 = cpuNow();
-      for (let b = 0; b < INSPECTIONS; b += BATCH) {
-        const outcome = ingestBatch(
-          db.db,
-          user,
-          { batchId: randomUUID(), records: records.slice(b, b + BATCH) },
-          receivedAt,
-        );
-        if (outcome.accepted !== Math.min(BATCH, INSPECTIONS - b))
-          throw new Error('a bench record was not accepted');
-      }
-      // Both timings end with a checkpoint, so each leaves its rows in the database file: otherwise
-      // whichever side happens to cross the WAL's auto-checkpoint size pays for the other's copy too.
-      sqliteOf(db.db).pragma('wal_checkpoint(PASSIVE)');
-      const ingestTook = now() - t0;
-      const ingestCpuTook = cpuNow() - c0;
-      t0 = now();
-      analysed = await analysePending(db.db);
-      const analysisTook = now() - t0;
+      const push = await timePush(a, records, inspectorId);
+      figures.analysed = push.analysed;
       if (rep >= 0) {
-        ingestMs.push(ingestTook);
-        ingestCpu.push(ingestCpuTook);
-        analysisMs.push(analysisTook);
+        figures.ingestMs.push(push.ingestTook);
+        figures.ingestCpu.push(push.ingestCpuTook);
+        figures.analysisMs.push(push.analysisTook);
       }
-      db.close();
-
-      // ——— raw: the same rows, prepared statements, one transaction ———
-      const rows = records.map((r) => {
-        const json = JSON.stringify(r);
-        return {
-          inspection: [
-            r.id,
-            r.rideId,
-            inspectorId,
-            r.type,
-            r.startedAt,
-            r.submittedAt,
-            receivedAt.toISOString(),
-            randomUUID(),
-            r.designVersionId,
-            null,
-            null,
-            null,
-            json,
-            createHash('sha256').update(json).digest('hex'),
-            0,
-          ] as const,
-          readings: r.readings.map(
-            (x) =>
-              [
-                r.id,
-                x.id,
-                r.rideId,
-                x.kind,
-                x.joint,
-                x.label,
-                x.valueSI,
-                x.unit,
-                x.method,
-                x.spreadSI ?? null,
-                x.takenAt,
-                null,
-              ] as const,
-          ),
-        };
-      });
       const b = freshCopy(template);
       dirs.push(b.dir);
-      const rawDb = b.open();
-      const sqlite = sqliteOf(rawDb.db);
-      // The connection setting the push service makes (server/sync/ingest.ts), so both run alike.
-      sqlite.pragma('temp_store = MEMORY');
-      const insertInspection = sqlite.prepare(
-        `INSERT INTO inspections (id, ride_id, inspector_id, type, started_at, submitted_at, received_at, batch_id,
-           design_version_id, template_id, template_version, amends_id, record, content_sha256, failed_items)
-         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-      );
-      const insertReading = sqlite.prepare(
-        `INSERT INTO inspection_readings (inspection_id, id, ride_id, kind, joint, label, value_si, unit, method,
-           spread_si, taken_at, note) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-      );
-      t0 = now();
-      c0 = cpuNow();
-      sqlite.transaction(() => {
-        for (const row of rows) {
-          insertInspection.run(...row.inspection);
-          for (const reading of row.readings) insertReading.run(...reading);
-        }
-      })();
-      sqlite.pragma('wal_checkpoint(PASSIVE)');
+      const raw = timeRaw(b, records, inspectorId, push.receivedAt);
       if (rep >= 0) {
-        rawMs.push(now() - t0);
-        rawCpu.push(cpuNow() - c0);
+        figures.rawMs.push(raw.rawTook);
+        figures.rawCpu.push(raw.rawCpuTook);
       }
-      rawDb.close();
     }
-
-    const ingestRate = INSPECTIONS / (median(ingestMs) / 1000);
-    const rawRate = INSPECTIONS / (median(rawMs) / 1000);
-    const analysisRate = analysed / (median(analysisMs) / 1000);
-    // Each run's two figures are measured back to back, so their ratio is steadier than a ratio of medians
-    // on a busy machine.
-    const ratios = ingestMs.map((t, i) => rawMs[i] / t).sort((x, y) => x - y);
-    const cpuRatio = median(rawCpu) / median(ingestCpu);
-    const readings = INSPECTIONS * READINGS_PER;
-    console.log(
-      `${INSPECTIONS} inspections, ${fmt(readings)} readings; push in batches of ${BATCH}; median of ${REPEATS} runs after one warm-up, each on a fresh copy of the seeded database`,
-    );
-    console.log(
-      `ingest (store only):   ${fmt(median(ingestMs), 1)} ms  ${fmt(ingestRate)} inspections/s  ${fmt(ingestRate * READINGS_PER)} readings/s`,
-    );
-    console.log(
-      `raw prepared insert:   ${fmt(median(rawMs), 1)} ms  ${fmt(rawRate)} inspections/s  (same rows, one transaction)`,
-    );
-    console.log(
-      `ingest / raw:          ${fmt(median(ratios) * 100)} %  median of the runs' ratios (lowest ${fmt(ratios[0] * 100)} %, highest ${fmt(ratios[ratios.length - 1] * 100)} %); target ≥ 50 %`,
-    );
-    console.log(
-      `  by CPU time:         ${fmt(cpuRatio * 100)} %  (ingest ${fmt(median(ingestCpu), 1)} ms, raw ${fmt(median(rawCpu), 1)} ms of this process's CPU)`,
-    );
-    console.log(
-      `analysis (afterwards): ${fmt(median(analysisMs), 1)} ms  ${fmt(analysisRate)} inspections/s  (${analysed} analysed per run, 360 samples each)`,
-    );
+    report(figures);
   } finally {
     for (const dir of dirs) fs.rmSync(dir, { recursive: true, force: true });
   }
