@@ -115,6 +115,15 @@ function layerZones(root) {
       message: 'A contract (schema or engine) imports only lib/ and other contracts.',
     },
   ];
+  // Between features, only the other feature's public API (index.ts) and its contracts.
+  featureOrder.forEach((feature) => {
+    zones.push({
+      target: `./features/${feature}`,
+      from: featureOrder.filter((f) => f !== feature).map((f) => abs(`features/${f}/**`)),
+      except: [...contracts, abs('features/*/index.ts')],
+      message: `Another feature is used through its index.ts (its public API) or its contracts.`,
+    });
+  });
   featureOrder.forEach((feature, i) => {
     const higher = featureOrder.slice(i + 1);
     if (higher.length === 0) return;

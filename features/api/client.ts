@@ -1,7 +1,7 @@
 import type { z } from 'zod';
 
 import { reportServerReached } from '@/features/api/reachability';
-import { tokenStore } from '@/features/session/token-store';
+import { tokenStore } from '@/features/session';
 import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
 
 /** Same origin on the web (the server serves the app); configurable for native builds. */

@@ -2,7 +2,7 @@ import { File, Paths } from 'expo-file-system';
 
 import { API_BASE } from '@/features/api/client';
 import { OfflineError } from '@/lib/api-errors';
-import { tokenStore } from '@/features/session/token-store';
+import { tokenStore } from '@/features/session';
 
 export type PaperSize = 'A4' | 'LETTER';
 

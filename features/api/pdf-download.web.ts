@@ -1,6 +1,6 @@
 import { API_BASE } from '@/features/api/client';
 import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
-import { tokenStore } from '@/features/session/token-store';
+import { tokenStore } from '@/features/session';
 
 export type PaperSize = 'A4' | 'LETTER';
 

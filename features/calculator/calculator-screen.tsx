@@ -11,7 +11,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth/role-gate';
+import { RoleGate } from '@/features/auth';
 import {
   type BodyRow,
   type CalculatorOutcome,
@@ -28,11 +28,11 @@ import {
   rideRequest,
   runCalculator,
 } from '@/features/calculator/calculator-model';
-import { CycleResults } from '@/features/loads/cycle-results';
-import { useRidesQuery } from '@/features/rides/api';
-import { useRideQuery } from '@/features/registry/api';
+import { CycleResults } from '@/features/loads';
+import { useRidesQuery } from '@/features/rides';
+import { useRideQuery } from '@/features/registry';
 import { rideClassLabel } from '@/features/rides/schema';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 
 type Source = 'ride' | 'manual';
 

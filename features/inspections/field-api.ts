@@ -7,22 +7,9 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { randomUUID } from 'expo-crypto';
 import { useCallback, useRef, useState } from 'react';
 
-import { fieldKeys } from '@/features/device-db/field-keys';
-import { useDeviceDb } from '@/features/device-db/provider';
-import {
-  readAssignments,
-  readCurrentDesign,
-  readDecisions,
-  readDesignVersion,
-  readRide,
-  readRides,
-  readTemplates,
-} from '@/features/sync/cache';
-import { listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
-import { getOutboxItem, listOutbox } from '@/features/device-db/outbox';
-import { getPhotoDataUri } from '@/features/device-db/photos';
-import { analyseRecord, previewOf } from '@/features/records/analysis';
-import { type Draft, newCorrection, newDraft, toRecord } from '@/features/records/draft';
+import { fieldKeys, useDeviceDb, listDrafts, loadDraft, saveDraft, submitDraft, getOutboxItem, listOutbox, getPhotoDataUri } from '@/features/device-db';
+import { readAssignments, readCurrentDesign, readDecisions, readDesignVersion, readRide, readRides, readTemplates } from '@/features/sync';
+import { analyseRecord, previewOf, type Draft, newCorrection, newDraft, toRecord } from '@/features/records';
 import type { Declaration, InspectionType } from '@/features/records/schema';
 import { buildSentList } from '@/features/inspections/sent';
 import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';

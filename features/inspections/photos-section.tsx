@@ -5,7 +5,7 @@ import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
-import type { Draft } from '@/features/records/draft';
+import type { Draft } from '@/features/records';
 import type { PhotoRef } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 

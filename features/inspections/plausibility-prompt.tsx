@@ -11,12 +11,7 @@ import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
-import {
-  PLAUSIBLE_HIGH,
-  PLAUSIBLE_LOW,
-  type PlausibilityCheck,
-  plausibilityText,
-} from '@/features/records/plausibility';
+import { PLAUSIBLE_HIGH, PLAUSIBLE_LOW, type PlausibilityCheck, plausibilityText } from '@/features/records';
 import type { Reading } from '@/features/records/schema';
 
 /** A reading held back until the inspector answers. */

@@ -6,7 +6,7 @@ import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api/pdf-download';
+import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api';
 
 /** The inspection report's PDF: the inspector's own copy of what they recorded. */
 const downloadInspectionReport = (

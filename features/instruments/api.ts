@@ -1,6 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import {
   type InstrumentInput,
   type InstrumentPatch,

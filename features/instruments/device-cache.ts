@@ -5,7 +5,7 @@
 import { eq } from 'drizzle-orm';
 
 import { cachedInstruments, cachedSettings } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db/connection';
+import type { DeviceDb } from '@/features/device-db';
 import {
   type DeclarationSetting,
   type Instrument,

@@ -1,8 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 
-import { useDeviceDb } from '@/features/device-db/provider';
+import { useDeviceDb, fieldKeys } from '@/features/device-db';
 import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
-import { fieldKeys } from '@/features/device-db/field-keys';
 
 /** Under `fieldKeys.all`, so a finished sync (which invalidates the field's keys) re-reads them. */
 export const fieldInstrumentKeys = {

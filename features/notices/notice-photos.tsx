@@ -4,8 +4,7 @@ import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-nat
 
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { usePhotoSource } from '@/features/photos/photo-source';
-import { FullSizePhotoViewer } from '@/features/photos/photo-viewer';
+import { usePhotoSource, FullSizePhotoViewer } from '@/features/photos';
 
 export type NoticePhoto = { sha256: string; caption: string };
 

@@ -7,9 +7,9 @@ import {
 } from '@tanstack/react-query';
 import { z } from 'zod';
 
-import { API_BASE, apiFetch } from '@/features/api/client';
+import { API_BASE, apiFetch, reviewRoot } from '@/features/api';
 import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
-import { tokenStore } from '@/features/session/token-store';
+import { tokenStore } from '@/features/session';
 import { noticeKeys } from '@/features/notices/keys';
 import {
   type CorrectiveActionInput,
@@ -23,8 +23,7 @@ import {
   noticeResponseSchema,
 } from '@/features/notices/schema';
 import { type QueryParams, toSearch } from '@/lib/list-params';
-import { reviewRoot } from '@/features/api/query-roots';
-import { rideKeys } from '@/features/rides/api';
+import { rideKeys } from '@/features/rides';
 
 const enc = encodeURIComponent;
 

@@ -1,7 +1,7 @@
 import { File, Paths } from 'expo-file-system';
 
-import { API_BASE } from '@/features/api/client';
-import { tokenStore } from '@/features/session/token-store';
+import { API_BASE } from '@/features/api';
+import { tokenStore } from '@/features/session';
 import { outboxAttachmentPath } from '@/features/notices/outbox-api';
 
 /** Saves one attachment of an outbox message: on a phone, into the app's documents folder. */

@@ -1,7 +1,6 @@
-import { API_BASE } from '@/features/api/client';
+import { API_BASE, saveBlob } from '@/features/api';
 import { ApiRequestError, apiErrorSchema } from '@/lib/api-errors';
-import { saveBlob } from '@/features/api/pdf-download.web';
-import { tokenStore } from '@/features/session/token-store';
+import { tokenStore } from '@/features/session';
 import { outboxAttachmentPath } from '@/features/notices/outbox-api';
 
 /**

@@ -12,7 +12,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
+import { RoleGate } from '@/features/auth';
 import { NO_LOCAL_MAILBOX, useOutboxMessageQuery, useOutboxQuery } from '@/features/notices/outbox-api';
 import { downloadOutboxAttachment } from '@/features/notices/outbox-download';
 import { attachmentFileName, formatBytes, htmlToText } from '@/features/notices/outbox-text';

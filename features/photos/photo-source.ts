@@ -1,8 +1,8 @@
 import { useEffect, useState } from 'react';
 import type { ImageURISource } from 'react-native';
 
-import { API_BASE } from '@/features/api/client';
-import { tokenStore } from '@/features/session/token-store';
+import { API_BASE } from '@/features/api';
+import { tokenStore } from '@/features/session';
 
 export type PhotoSource = { source: ImageURISource | null; failed: boolean };
 

@@ -12,7 +12,7 @@ import { TextField } from '@/components/text-field';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth/role-gate';
+import { RoleGate } from '@/features/auth';
 import type { SessionUser } from '@/features/session/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { entryChanges } from '@/features/registry/audit-diff';
@@ -30,8 +30,8 @@ import {
 } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
-import { rideHref } from '@/features/rides/hrefs';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { rideHref } from '@/features/rides';
+import { useUnitSystem } from '@/features/settings';
 
 const PAGE_SIZE = 30;
 const LIST_KEYS = ['entity', 'action', 'rideId', 'from', 'to', 'q', 'sort', 'page'] as const;

@@ -28,7 +28,7 @@ import {
   measurementKinds,
 } from '@/features/registry/schema';
 import { fieldsOf } from '@/components/form/server-errors';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 
 /** The API's PUT schema (content and reason), with the name the create schema requires. */
 export const checklistFormSchema = checklistTemplatePutSchema

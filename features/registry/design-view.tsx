@@ -11,7 +11,7 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { type CycleResult, ENGINE_VERSION, analyseCycle } from '@/features/loads/engine';
-import { formatLimit, formatRatio, formatValue } from '@/features/loads/format';
+import { formatLimit, formatRatio, formatValue } from '@/features/loads';
 import { ChainDrawing, pivotPeaks } from '@/features/registry/chain-drawing';
 import { designPose, peakPose } from '@/features/registry/chain-geometry';
 import { type DesignData, designBodies, designToCycleInput } from '@/features/loads/design-schema';

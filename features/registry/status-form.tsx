@@ -11,7 +11,7 @@ import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { requireReasonOutOfService } from '@/features/registry/ride-form';
 import { ridePatchSchema } from '@/features/registry/schema';
 import { fieldsOf } from '@/components/form/server-errors';
-import { eases } from '@/features/rides/status-rules';
+import { eases } from '@/features/rides';
 import { Text } from '@/components/text';
 import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
 

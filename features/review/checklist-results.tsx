@@ -4,14 +4,14 @@ import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import { disagreeingReadings, envelopeItemOf } from '@/features/records/checklist-limits';
+import { disagreeingReadings, envelopeItemOf } from '@/features/records';
 import type { ChecklistAnswer } from '@/features/records/schema';
 import type { EnvelopeItem } from '@/features/loads/engine';
-import { registryKeys } from '@/features/registry/api';
+import { registryKeys } from '@/features/registry';
 import { type ChecklistItem, checklistTemplateResponseSchema } from '@/features/registry/schema';
 import type { InspectionPhoto, InspectionReading } from '@/features/review/inspection-schema';
 import { PhotoThumb } from '@/features/review/photo-gallery';

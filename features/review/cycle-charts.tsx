@@ -10,7 +10,7 @@ import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError } from '@/lib/api-errors';
 import { STANDARD_GRAVITY_MS2 } from '@/features/loads/engine';
-import { formatBesideLimit, formatValue } from '@/features/loads/format';
+import { formatBesideLimit, formatValue } from '@/features/loads';
 import { useInspectionCycle } from '@/features/review/inspection-api';
 import type { InspectionCycle } from '@/features/review/inspection-schema';
 import { ReviewChart, type ReviewBand, type ReviewSeries } from '@/features/review/review-chart';

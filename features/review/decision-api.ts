@@ -2,9 +2,9 @@ import { hashKey, type QueryClient, useMutation, useQuery, useQueryClient } from
 import { useCallback, useSyncExternalStore } from 'react';
 import { z } from 'zod';
 
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import { reviewKeys } from '@/features/review/keys';
-import { rideNoticeKeys } from '@/features/notices/ride-notices-api';
+import { rideNoticeKeys } from '@/features/notices';
 import {
   type DecisionInput,
   type DecisionResponse,
@@ -20,7 +20,7 @@ import {
   findingListResponseSchema,
   findingResponseSchema,
 } from '@/features/notices/finding-schema';
-import { rideKeys } from '@/features/rides/api';
+import { rideKeys } from '@/features/rides';
 
 const enc = encodeURIComponent;
 

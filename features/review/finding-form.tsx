@@ -18,7 +18,7 @@ import {
   findingInputSchema,
   severityInfo,
 } from '@/features/notices/finding-schema';
-import { SeverityMark } from '@/features/notices/severity-mark';
+import { SeverityMark } from '@/features/notices';
 
 export type FindingValues = z.output<typeof findingInputSchema>;
 export type InspectionPhoto = { sha256: string; caption: string };

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import {
   inspectionCycleSchema,
   inspectionResponseSchema,

@@ -1,4 +1,4 @@
-import { reviewRoot } from '@/features/api/query-roots';
+import { reviewRoot } from '@/features/api';
 
 /** Query keys of the review desk; every query and mutation of the feature keys through these. */
 export const reviewKeys = {

@@ -5,8 +5,7 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { formatDateTime } from '@/lib/dates';
 import type { InspectionPhoto } from '@/features/review/inspection-schema';
-import { usePhotoSource } from '@/features/photos/photo-source';
-import { FullSizePhotoViewer } from '@/features/photos/photo-viewer';
+import { usePhotoSource, FullSizePhotoViewer } from '@/features/photos';
 
 const THUMB = 132;
 

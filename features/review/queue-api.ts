@@ -1,6 +1,6 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import { type QueryParams, toSearch } from '@/lib/list-params';
 import { reviewKeys } from '@/features/review/keys';
 import { type QueueQuery, queueResponseSchema } from '@/features/review/schema';

@@ -6,14 +6,9 @@ import { SelectField } from '@/components/select-field';
 import { TextField } from '@/components/text-field';
 import { space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import {
-  operatorChoices,
-  useCompanyListQuery,
-  useInspectorsQuery,
-  useSiteListQuery,
-} from '@/features/registry/api';
+import { operatorChoices, useCompanyListQuery, useInspectorsQuery, useSiteListQuery } from '@/features/registry';
 import { FilterGroups, FilterPanel } from '@/components/filter-panel';
-import { RideClassFilter, RideStatusFilter } from '@/features/rides/ride-filters';
+import { RideClassFilter, RideStatusFilter } from '@/features/rides';
 import { calendarDate } from '@/features/registry/schema';
 import { type QueueQuery, type QueueSort } from '@/features/review/schema';
 

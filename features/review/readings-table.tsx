@@ -7,11 +7,10 @@ import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { EnvelopeTable } from '@/features/loads/envelope-table';
+import { EnvelopeTable, formatValue, measuredSources } from '@/features/loads';
 import { measuredWithWords } from '@/features/instruments/schema';
-import { formatValue, measuredSources } from '@/features/loads/format';
 import { formatDateTime } from '@/lib/dates';
-import { plausibilityText } from '@/features/records/plausibility';
+import { plausibilityText } from '@/features/records';
 import type {
   InspectionDetail,
   InspectionReading,

@@ -2,9 +2,9 @@
  * The sync endpoints over HTTP. JSON calls go through the shared API client; photos go up as raw bytes
  * with XMLHttpRequest, the one browser and React Native API that reports upload progress.
  */
-import { API_BASE, apiFetch } from '@/features/api/client';
+import { API_BASE, apiFetch } from '@/features/api';
 import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
-import { tokenStore } from '@/features/session/token-store';
+import { tokenStore } from '@/features/session';
 import { pushResultSchema } from '@/features/records/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
 

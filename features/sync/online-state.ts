@@ -7,7 +7,7 @@
 import { useSyncExternalStore } from 'react';
 
 import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
-import { onReachabilityChange, reportServerReached, serverReached } from '@/features/api/reachability';
+import { onReachabilityChange, reportServerReached, serverReached } from '@/features/api';
 
 export function onlineNow(): boolean {
   return isOnline() && serverReached();

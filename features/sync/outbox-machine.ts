@@ -12,7 +12,7 @@
  */
 import type { OutboxState } from '@/db/device/schema';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import type { OutboxIssue } from '@/features/device-db/outbox';
+import type { OutboxIssue } from '@/features/device-db';
 
 export type OutboxEntry = {
   state: OutboxState;

@@ -7,8 +7,8 @@
 import { and, eq, inArray } from 'drizzle-orm';
 
 import { photoBlobs } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db/connection';
-import { getPhotoBytes, markPhotoUploaded } from '@/features/device-db/photos';
+import type { DeviceDb } from '@/features/device-db';
+import { getPhotoBytes, markPhotoUploaded } from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import { type SendFailure, backoffMs, classifyFailure } from '@/features/sync/outbox-machine';
 

@@ -4,7 +4,7 @@
  * nothing, and the next pull asks again from the same place.
  */
 import { ApiRequestError } from '@/lib/api-errors';
-import type { DeviceDb } from '@/features/device-db/connection';
+import type { DeviceDb } from '@/features/device-db';
 import {
   removeCached,
   writeAssignments,
@@ -13,8 +13,8 @@ import {
   writeRides,
   writeTemplates,
 } from '@/features/sync/cache';
-import { getSyncMeta, setSyncMeta } from '@/features/device-db/sync-meta';
-import { writeDeclarationSetting, writeInstruments } from '@/features/instruments/device-cache';
+import { getSyncMeta, setSyncMeta } from '@/features/device-db';
+import { writeDeclarationSetting, writeInstruments } from '@/features/instruments';
 import type { SyncApi } from '@/features/sync/api';
 import { type PullResponse, pullResponseSchema } from '@/features/sync/pull-schema';
 

@@ -8,7 +8,7 @@
 import { asc, eq, inArray } from 'drizzle-orm';
 
 import { type OutboxRow, outbox } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db/connection';
+import type { DeviceDb } from '@/features/device-db';
 import type { InspectionRecord, PushResult } from '@/features/records/schema';
 import { pushResultSchema } from '@/features/records/schema';
 import type { SyncApi } from '@/features/sync/api';

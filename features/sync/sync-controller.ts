@@ -5,10 +5,16 @@
  */
 import { randomUUID } from 'expo-crypto';
 
-import type { DeviceDb } from '@/features/device-db/connection';
-import { type OutboxItem, countOutbox, listOutbox, requeueRejected } from '@/features/device-db/outbox';
-import { type PhotoBlob, listPhotoBlobs } from '@/features/device-db/photos';
-import { getAllSyncMeta } from '@/features/device-db/sync-meta';
+import {
+  type DeviceDb,
+  type OutboxItem,
+  countOutbox,
+  listOutbox,
+  requeueRejected,
+  type PhotoBlob,
+  listPhotoBlobs,
+  getAllSyncMeta,
+} from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
 import { createHttpSyncApi } from '@/features/sync/http-api';

@@ -19,7 +19,7 @@ import {
   type Urgency,
 } from '@/features/review/schema';
 import type { Db } from '@/server/db';
-import { addDays } from '@/server/schedule-due';
+import { addDays } from '@/lib/dates';
 import { ensureQueueFresh, queueGeneration } from '@/server/queue/queue-refresh';
 import { sqliteOf } from '@/server/sqlite-client';
 

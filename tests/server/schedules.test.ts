@@ -9,7 +9,8 @@ import {
   scheduleResponseSchema,
   type Schedule,
 } from '@/features/registry/schema';
-import { addDays, dueStatusOf, nextDueOn } from '@/server/schedule-due';
+import { addDays } from '@/lib/dates';
+import { dueStatusOf, nextDueOn } from '@/server/schedule-due';
 import { demoSchedules } from '@/server/seed/demo-schedules';
 import { auditRowOrder } from '@/server/registry/audit-query';
 

@@ -1,4 +1,4 @@
-import { id, timestamp } from '@/features/registry/schema/fields';
+import { timestamp } from '@/features/registry/schema/fields';
 import { pageSchema, pagingQuerySchema, searchQuery, sortQuery } from '@/lib/list-params';
 import { listOf } from '@/features/registry/schema/rides';
 import { z } from 'zod';

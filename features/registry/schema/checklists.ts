@@ -1,5 +1,5 @@
 import { changeReasonSchema, designVersionParamsSchema } from '@/features/registry/schema/design';
-import { id, nullableText, requiredText } from '@/features/registry/schema/fields';
+import { nullableText, requiredText } from '@/features/registry/schema/fields';
 import { rideClassSchema } from '@/features/rides/schema';
 import type { QuantityKind } from '@/lib/units';
 import { z } from 'zod';

@@ -2,11 +2,10 @@ import { View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
-import { IssuedNoticeRow, NoticeRow } from '@/features/notices/ride-notices';
-import { useRideNotices } from '@/features/notices/ride-notices-api';
+import { IssuedNoticeRow, NoticeRow, useRideNotices } from '@/features/notices';
 import type { NoticeListItem } from '@/features/notices/schema';
 import { sharedStyles } from '@/features/review/decision-panel/styles';
-import { useRideQuery } from '@/features/registry/api';
+import { useRideQuery } from '@/features/registry';
 import { OfflineError } from '@/lib/api-errors';
 
 type IssuedNotice = { id: string; reference: string };

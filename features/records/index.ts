@@ -1,0 +1,34 @@
+/** What other features may use from records: everything else in the folder is its own. */
+export { analyseRecord, previewOf } from '@/features/records/analysis';
+export { answerOfReading, enterChecklistValue, sharedReadingTitle } from '@/features/records/checklist-entry';
+export type { ReadingTarget } from '@/features/records/checklist-entry';
+export {
+  checklistValueStatus,
+  disagreeingReadings,
+  envelopeItemOf,
+  isGap,
+  readingLink,
+  resolveLimit,
+} from '@/features/records/checklist-limits';
+export {
+  addPhoto,
+  addReading,
+  answerItem,
+  draftProblems,
+  draftProgress,
+  newCorrection,
+  newDraft,
+  removePhoto,
+  removeReading,
+  setNotes,
+  toRecord,
+  updatePhoto,
+} from '@/features/records/draft';
+export type { Draft } from '@/features/records/draft';
+export {
+  PLAUSIBLE_HIGH,
+  PLAUSIBLE_LOW,
+  checkReading,
+  plausibilityText,
+} from '@/features/records/plausibility';
+export type { PlausibilityCheck } from '@/features/records/plausibility';
