@@ -14,6 +14,7 @@ module.exports = {
       testEnvironment: 'node',
       testMatch: [
         '<rootDir>/tests/engine/**/*.test.ts',
+        '<rootDir>/tests/device/**/*.test.ts',
         '<rootDir>/tests/server/**/*.test.ts',
         '<rootDir>/tests/lint/**/*.test.ts',
       ],

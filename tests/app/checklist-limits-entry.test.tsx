@@ -12,7 +12,7 @@ import { ChecklistSection } from '@/features/inspections/checklist-section';
 import { type Draft, answerItem, draftProblems, newDraft } from '@/features/records/draft';
 import { ReadingsSection } from '@/features/inspections/readings-section';
 import type { ChecklistTemplate } from '@/features/registry/schema';
-import { rodDesign } from '@/tests/engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 
 jest.mock('expo-crypto', () => ({
   ...jest.requireActual('expo-crypto'),

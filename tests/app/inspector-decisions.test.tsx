@@ -24,8 +24,8 @@ import { severityInfo } from '@/features/notices/finding-schema';
 import type { SyncApi } from '@/features/sync/api';
 import { pull } from '@/features/sync/pull';
 
-import { makeRecord } from '../engine/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb } from '../engine/support/memory-device-db';
+import { makeRecord } from '@/tests/support/inspection-fixtures';
+import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
 import { renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { noSignal } from '@/tests/support/stand-in-api';
 
@@ -41,7 +41,7 @@ jest.mock('expo-crypto', () => ({
   randomUUID: () => jest.requireActual('node:crypto').randomUUID(),
 }));
 
-// The sync engine is tested on its own (tests/engine/sync-push.test.ts); here the panel only shows a status.
+// The sync engine is tested on its own (tests/device/sync-push.test.ts); here the panel only shows a status.
 jest.mock('@/features/sync/use-sync-status', () => ({
   useSyncStatus: () => ({
     waiting: 0,

@@ -11,7 +11,7 @@ import { ReadingsSection } from '@/features/inspections/readings-section';
 import type { Reading } from '@/features/records/schema';
 import { readingSchema } from '@/features/records/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
-import { rodDesign } from '@/tests/engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 
 jest.mock('expo-crypto', () => ({
   ...jest.requireActual('expo-crypto'),

@@ -10,7 +10,7 @@ import { makeQueryClient } from '@/features/api/query-client';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { measuredSources } from '@/features/loads/format';
 import { NoticeDocumentView } from '@/features/notices/notice-document-view';
-import { limitEnvelope, limitReadings, limitStrings } from '@/tests/engine/support/limit-values';
+import { limitEnvelope, limitReadings, limitStrings } from '@/tests/support/limit-values';
 import { fixtureNotice } from '@/scripts/sample-notice';
 
 const rowOf = (label: string) => {

@@ -26,15 +26,15 @@ import {
   measuredWithWords,
   methodsForKind,
   pastDueAt,
-  utcDate,
 } from '@/features/instruments/schema';
+import { addDays, isoDay } from '@/lib/dates';
 import { inspectionDetailSchema } from '@/features/review/inspection-schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { SyncApi } from '@/features/sync/api';
 import { pull } from '@/features/sync/pull';
-import { rodDesign } from '@/tests/engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 
-import { type MemoryDeviceDb, memoryDeviceDb } from '../engine/support/memory-device-db';
+import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
 import { renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { noSignal } from '@/tests/support/stand-in-api';
 
@@ -93,8 +93,8 @@ const ride: RideSummary = {
   operatorName: 'Tamsworth Pier Leisure',
 };
 
-const today = utcDate(new Date());
-const inDays = (n: number) => utcDate(new Date(Date.parse(`${today}T00:00:00Z`) + n * 86_400_000));
+const today = isoDay(new Date());
+const inDays = (n: number) => addDays(today, n);
 const instrument = (
   serial: string,
   name: string,

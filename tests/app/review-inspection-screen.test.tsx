@@ -28,7 +28,7 @@ import { InspectionReviewScreen } from '@/features/review/inspection-screen';
 import type { TrendsResponse } from '@/features/review/schema';
 import { setUnitSystem } from '@/features/settings/unit-system';
 import { formatQuantity } from '@/lib/units';
-import { rodDesign } from '@/tests/engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 import { renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { type StandInCall, standInApi } from '@/tests/support/stand-in-api';
 

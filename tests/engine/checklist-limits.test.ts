@@ -36,7 +36,7 @@ import {
 } from '@/features/registry/schema';
 import { toSI } from '@/lib/units';
 
-import { rodDesign } from './support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 
 // Test rod: pin nominal 60 mm, minimum 58 mm (allowance 2 mm); clearance limit 0.5 mm; speed limit 2 rad/s.
 const design = rodDesign(300, 6);

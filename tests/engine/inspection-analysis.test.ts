@@ -8,7 +8,7 @@ import { addReading, answerItem, draftProblems, newDraft, toRecord } from '@/fea
 import type { Reading } from '@/features/records/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 
-import { rodDesign } from './support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 
 const g = 9.80665;
 const m = 300;

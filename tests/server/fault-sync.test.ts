@@ -31,7 +31,7 @@ import type { SyncApi } from '@/features/sync/api';
 import { syncOnce } from '@/features/sync/sync-run';
 import { startServer, type RunningServer } from '@/server/main';
 
-import { type MemoryDeviceDb, memoryDeviceDb } from '../engine/support/memory-device-db';
+import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
 import { makeTempDir } from './helpers';
 import { imageBytes, makeRecord, otherReading, photoRefFor, speedReading } from './sync-fixtures';
 

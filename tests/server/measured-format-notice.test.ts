@@ -12,7 +12,7 @@ import { formatEnvelopeItem, formatRatio } from '@/features/loads/format';
 import { noticeDocumentSchema } from '@/features/notices/schema';
 import { noticeEmail } from '@/server/notices/deliveries';
 import { renderNoticePdf } from '@/server/notices/pdf';
-import { limitStrings } from '@/tests/engine/support/limit-values';
+import { limitStrings } from '@/tests/support/limit-values';
 import { limitNotice, limitResults } from '@/tests/server/support/limit-notice';
 
 jest.setTimeout(60_000);

@@ -21,7 +21,7 @@ import { ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
 import { expectApiError, makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
 import { pushAccepted, secondInspector } from './review-desk-fixtures';
-import { rodDesign } from '../engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 import { demoRide, makeRecord, rpmToRadS, speedReading } from './sync-fixtures';
 
 // Seeding hashes five passwords; on a busy machine that alone can take seconds.

@@ -39,7 +39,7 @@ import { sqliteOf } from '@/server/sqlite-client';
 
 import { expectApiError, makeTempDir, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
-import { rodDesign } from '../engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 import { makeRecord, rpmToRadS, speedReading } from './sync-fixtures';
 
 const today = '2026-03-10';

@@ -24,7 +24,7 @@ import { ingestBatch } from '@/server/sync/ingest';
 
 import { makeTempDir, makeTestServer, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
-import { rodDesign } from '../engine/support/rod-design';
+import { rodDesign } from '@/tests/support/rod-design';
 import { demoRide, makeRecord, otherReading, rpmToRadS, speedReading } from './sync-fixtures';
 
 let server: TestServer;

@@ -1,7 +1,7 @@
 /**
  * The sync engine end to end on the device side: the real device schema and migrations (in-memory
  * SQLite), the real push/photo/pull code, and a fake server with the idempotency the real one must have
- * (tests/engine/support/fake-sync-server.ts). Faults: a connection cut before or after the server stored
+ * (tests/device/fake-sync-server.ts). Faults: a connection cut before or after the server stored
  * a batch, 502, an answer that is not ours, a server that forgets a record. The invariant checked after
  * each: no record lost on the phone, none stored twice on the server.
  */
@@ -19,9 +19,9 @@ import { PullResponseError, pull } from '@/features/sync/pull';
 import { MAX_BATCH, pushOutbox } from '@/features/sync/push';
 import { syncOnce } from '@/features/sync/sync-run';
 
-import { FakeSyncServer } from './support/fake-sync-server';
-import { fakeJpeg, makeRecord, photoRef } from './support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb } from './support/memory-device-db';
+import { FakeSyncServer } from './fake-sync-server';
+import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
+import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));

@@ -14,7 +14,7 @@ import {
   migrationsFromJournal,
 } from '@/features/device-db/migrations';
 
-const DIR = join(__dirname, '..', '..', '..', 'drizzle', 'device');
+const DIR = join(__dirname, '..', '..', 'drizzle', 'device');
 
 export function deviceMigrationsFromDisk() {
   const journal = JSON.parse(readFileSync(join(DIR, 'meta', '_journal.json'), 'utf8')) as MigrationJournal;

@@ -19,8 +19,12 @@ import {
   sniffImageMime,
 } from '@/features/device-db/photos';
 
-import { fakeJpeg, makeRecord, photoRef } from './support/inspection-fixtures';
-import { type MemoryDeviceDb, deviceMigrationsFromDisk, memoryDeviceDb } from './support/memory-device-db';
+import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
+import {
+  type MemoryDeviceDb,
+  deviceMigrationsFromDisk,
+  memoryDeviceDb,
+} from '@/tests/support/memory-device-db';
 
 let dev: MemoryDeviceDb;
 beforeEach(async () => {
