@@ -9,7 +9,8 @@
  *   from the platform's locale data.
  */
 
-const DAY_MS = 86_400_000;
+/** One day in milliseconds (UTC days have no daylight-saving change). */
+export const DAY_MS = 86_400_000;
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
 
 /** True for a YYYY-MM-DD string (its shape only; see `isRealIsoDay`). */
@@ -56,6 +57,37 @@ export function formatDateTime(iso: string): string {
   const d = new Date(iso);
   if (Number.isNaN(d.getTime())) return iso;
   return `${formatDate(iso)}, ${d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}`;
+}
+
+/** An instant as the phone's own lists stamp it, to the second: "03/12/2026, 14:05:09" (local time). */
+export const formatLocalStamp = (iso: string) => new Date(iso).toLocaleString('en-GB');
+
+/** An instant in short, day and minute: "03/12/2026, 14:05" (local time). */
+export const formatShortStamp = (iso: string) =>
+  new Date(iso).toLocaleString('en-GB', { dateStyle: 'short', timeStyle: 'short' });
+
+/** Today written out in full, as a heading says it: "Thursday 3 December 2026". */
+export function longDate(date: Date = new Date()): string {
+  return date.toLocaleDateString('en-GB', {
+    weekday: 'long',
+    day: 'numeric',
+    month: 'long',
+    year: 'numeric',
+  });
+}
+
+/**
+ * A chart's time-axis label (UTC, like the instants it plots): "3 Dec" while the axis spans under
+ * 120 days, "Dec 26" beyond, so the labels stay short and still tell the ticks apart.
+ */
+export function formatAxisDate(ms: number, spanMs: number): string {
+  const short = spanMs < 120 * DAY_MS;
+  return new Date(ms).toLocaleDateString('en-GB', {
+    day: short ? 'numeric' : undefined,
+    month: 'short',
+    year: short ? undefined : '2-digit',
+    timeZone: 'UTC',
+  });
 }
 
 // ——— in documents (UTC) ———

@@ -7,15 +7,7 @@ import { sql } from 'drizzle-orm';
 
 import { inspectionSchedules } from '@/db/server/schema';
 import { dueWindowDays, inspectionTypes, type DueStatus } from '@/features/registry/schema';
-
-const DAY_MS = 86_400_000;
-
-/** The calendar date (UTC) of an instant, YYYY-MM-DD. */
-export const dateOf = (at: Date) => at.toISOString().slice(0, 10);
-export const addDays = (date: string, days: number) =>
-  dateOf(new Date(Date.parse(`${date}T00:00:00Z`) + days * DAY_MS));
-export const daysBetween = (from: string, to: string) =>
-  Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / DAY_MS);
+import { addDays, daysBetween } from '@/lib/dates';
 
 /** The next due date: the explicit one, else last done + interval; null when neither gives one. */
 export function nextDueOn(s: {

@@ -10,14 +10,12 @@ import { FullScreenWait } from '@/components/full-screen-wait';
 import { Screen } from '@/components/screen';
 import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
-import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
-import { useSession } from '@/features/auth/api';
-import { useDeviceDb } from '@/features/device-db/provider';
-import { putPhotoBlob } from '@/features/device-db/photos';
-import { analyseRecord } from '@/features/inspections/analysis';
-import { ChecklistSection } from '@/features/inspections/checklist-section';
+import { formatLocalStamp } from '@/lib/dates';
+import { useSession } from '@/features/auth';
+import { useDeviceDb, putPhotoBlob } from '@/features/device-db';
 import {
+  analyseRecord,
   type Draft,
   addPhoto,
   addReading,
@@ -28,7 +26,9 @@ import {
   removeReading,
   setNotes,
   updatePhoto,
-} from '@/features/inspections/draft';
+} from '@/features/records';
+import { ChecklistSection } from '@/features/inspections/checklist-section';
+import { todayHref } from '@/features/inspections/hrefs';
 import {
   useDraftQuery,
   useFieldRideQuery,
@@ -36,19 +36,24 @@ import {
   useDraftEditor,
   useSubmitDraftMutation,
 } from '@/features/inspections/field-api';
-import { capturePhoto } from '@/features/photos/photo-capture';
+import { capturePhoto } from '@/features/photos';
 import { PhotosSection } from '@/features/inspections/photos-section';
 import { ReadingsSection } from '@/features/inspections/readings-section';
-import { inspectionTypeLabel, type PhotoRef } from '@/features/inspections/schema';
-import { DeclarationConfirm } from '@/features/instruments/declaration-confirm';
-import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/field-api';
+import { inspectionTypeLabel, type PhotoRef } from '@/features/records/schema';
+import { SubmitStep } from '@/features/inspections/submit-step';
+import {
+  useFieldDeclarationQuery,
+  useFieldInstrumentsQuery,
+  unstatedMethodProblems,
+} from '@/features/instruments';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
-import { unstatedMethodProblems } from '@/features/instruments/unstated';
-import { CycleResults } from '@/features/loads/cycle-results';
-import { measuredSources } from '@/features/loads/format';
-import { useUnitSystem } from '@/features/settings/unit-system';
-import { useSyncStatus } from '@/features/sync/use-sync-status';
-import { TapTimer } from '@/features/tap-timer/tap-timer';
+import { CycleResults, measuredSources } from '@/features/loads';
+import type { DesignData } from '@/features/loads/design-schema';
+import type { ChecklistTemplate } from '@/features/registry/schema';
+import { useUnitSystem } from '@/features/settings';
+import { useSyncStatus } from '@/features/sync';
+import { TapTimer } from '@/features/tap-timer';
+import type { UnitSystem } from '@/lib/units';
 
 type Section = 'checklist' | 'readings' | 'photos' | 'result' | 'submit';
 
@@ -64,7 +69,7 @@ export function InspectionScreen({ id }: { id: string }) {
         <Text muted>
           It may have been submitted already. Submitted inspections are in the outbox on Today.
         </Text>
-        <Button label="Back to Today" onPress={() => router.replace('/today')} />
+        <Button label="Back to Today" onPress={() => router.replace(todayHref)} />
       </Screen>
     );
   return <Recording draft={draft} data={rideQuery.data ?? null} />;
@@ -78,9 +83,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const editor = useDraftEditor(draft.id);
   const submit = useSubmitDraftMutation();
   const sync = useSyncStatus();
-  const dev = useDeviceDb();
-  const [photoBusy, setPhotoBusy] = useState(false);
-  const [photoError, setPhotoError] = useState<string | null>(null);
+  const { photoBusy, photoError, onCapture } = useDraftPhotoCapture(editor.update);
   const instruments = useFieldInstrumentsQuery();
   const declarationSetting = useFieldDeclarationQuery();
   const user = useSession().data?.user ?? null;
@@ -92,63 +95,15 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const change = editor.update;
   const now = () => new Date();
 
-  // The load check follows every reading, on the phone, so the inspector knows before leaving the ride.
-  const result = useMemo(() => {
-    if (!design) return null;
-    try {
-      const content = template?.version.version === draft.templateVersion ? template.version.content : null;
-      return analyseRecord(design, { readings: draft.readings, checklist: draft.checklist }, content, 360);
-    } catch {
-      return null;
-    }
-  }, [design, draft.readings, draft.checklist, draft.templateVersion, template]);
+  const result = useLoadCheck(draft, design, template);
   const problems = [...draftProblems(draft, template, design), ...unstatedMethodProblems(draft.readings)];
-  const progress = draftProgress(draft);
-
-  const onCapture = async (source: 'camera' | 'library', link: { checklistItemId?: string } = {}) => {
-    setPhotoError(null);
-    setPhotoBusy(true);
-    try {
-      const shot = await capturePhoto(source);
-      if (!shot) return;
-      const bytes = toByteArray(shot.base64);
-      const { sha256 } = await putPhotoBlob(dev, { bytes, mime: shot.mime });
-      const ref: PhotoRef = {
-        id: randomUUID(),
-        sha256,
-        mime: shot.mime,
-        bytes: bytes.length,
-        caption: '',
-        joint: null,
-        checklistItemId: link.checklistItemId ?? null,
-        takenAt: new Date().toISOString(),
-      };
-      change((d) => addPhoto(d, ref, now()));
-    } catch (err) {
-      setPhotoError(err instanceof Error ? err.message : 'The photo could not be kept.');
-    } finally {
-      setPhotoBusy(false);
-    }
-  };
 
   return (
     <Screen
       title={draft.rideName}
-      subtitle={`${draft.amendsId ? 'Correction of a returned inspection · ' : ''}${inspectionTypeLabel[draft.type]} · started ${new Date(draft.startedAt).toLocaleString('en-GB')}`}
+      subtitle={`${draft.amendsId ? 'Correction of a returned inspection · ' : ''}${inspectionTypeLabel[draft.type]} · started ${formatLocalStamp(draft.startedAt)}`}
     >
-      <View style={styles.progress} accessibilityLabel="Progress">
-        <Text variant="small">
-          {progress.answered}/{progress.total} answered · {progress.failed} failed · {progress.readings}{' '}
-          readings · {progress.photos} photos
-        </Text>
-        <Text
-          variant="small"
-          color={editor.error ? colors.danger : colors.textMuted}
-          accessibilityLiveRegion="polite"
-        >
-          {editor.error ? 'Not saved — see below' : editor.saving ? 'Saving…' : 'Saved on this phone'}
-        </Text>
-      </View>
+      <ProgressLine draft={draft} saving={editor.saving} error={editor.error} />
       <Segmented<Section>
         label="Part of the inspection"
         value={section}
@@ -218,90 +173,121 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
         />
       ) : null}
       {section === 'result' ? (
-        result ? (
-          <CycleResults
-            result={result}
-            system={system}
-            xAxis={result.joints[0] && design?.motion[0]?.kind === 'constant' ? 'angle' : 'time'}
-            sources={measuredSources(draft)}
-          />
-        ) : (
-          <Card>
-            <Text muted>
-              No design data for this ride on the phone: the load check cannot run. Sync, then try again.
-            </Text>
-          </Card>
-        )
+        <LoadCheck result={result} design={design} draft={draft} system={system} />
       ) : null}
       {section === 'submit' ? (
-        <View style={styles.submit}>
-          <TextField
-            label="Notes for the supervisor"
-            value={draft.notes}
-            onChangeText={(t) => change((d) => setNotes(d, t, now()))}
-            multiline
-          />
-          {problems.length > 0 ? (
-            <Card>
-              <Text variant="heading">Before you submit</Text>
-              {problems.map((p, i) => (
-                <Text key={`${p.itemId}${i}`} color={colors.near}>
-                  • {p.message}
-                </Text>
-              ))}
-            </Card>
-          ) : (
-            <Card>
-              <Text variant="heading">Ready to submit</Text>
-              <Text muted>
-                It goes to the outbox on this phone and is sent as soon as there is a connection. After that
-                it cannot be changed; a correction is sent as an amendment.
-              </Text>
-            </Card>
-          )}
-          {user ? (
-            <DeclarationConfirm
-              text={declarationText}
-              name={user.name}
-              value={declared}
-              onChange={setDeclared}
-              fromDefault={declarationSetting.isSuccess && !declarationSetting.data}
-            />
-          ) : null}
-          {submit.isError ? (
-            <Text role="alert" color={colors.danger}>
-              {(submit.error as Error).message}
-            </Text>
-          ) : null}
-          <Button
-            label="Submit inspection"
-            tone="accent"
-            disabled={problems.length > 0 || editor.saving || !declared || !user}
-            busy={submit.isPending}
-            onPress={async () => {
-              if (!declared || !user) return;
-              try {
-                await submit.mutateAsync({
-                  draft,
-                  template,
-                  declaration: {
-                    text: declarationText,
-                    declaredAt: new Date().toISOString(),
-                    declaredBy: user.id,
-                    declaredByName: user.name,
-                  },
-                });
-              } catch {
-                return; // shown above from submit.error
-              }
-              void sync.syncNow();
-              router.replace('/today');
-            }}
-          />
-        </View>
+        <SubmitStep
+          draft={draft}
+          template={template}
+          problems={problems}
+          saving={editor.saving}
+          onNotes={(t) => change((d) => setNotes(d, t, now()))}
+          user={user}
+          declarationText={declarationText}
+          fromDefault={declarationSetting.isSuccess && !declarationSetting.data}
+          declared={declared}
+          setDeclared={setDeclared}
+          submit={submit}
+          syncNow={() => sync.syncNow()}
+        />
       ) : null}
     </Screen>
   );
+}
+
+/** What is done so far, and whether the last change is saved on the phone. */
+function ProgressLine({ draft, saving, error }: { draft: Draft; saving: boolean; error: Error | null }) {
+  const progress = draftProgress(draft);
+  return (
+    <View style={styles.progress} accessibilityLabel="Progress">
+      <Text variant="small">
+        {progress.answered}/{progress.total} answered · {progress.failed} failed · {progress.readings}{' '}
+        readings · {progress.photos} photos
+      </Text>
+      <Text variant="small" color={error ? colors.danger : colors.textMuted} accessibilityLiveRegion="polite">
+        {error ? 'Not saved — see below' : saving ? 'Saving…' : 'Saved on this phone'}
+      </Text>
+    </View>
+  );
+}
+
+/** The phone's load check of the record so far, or why it cannot run. */
+function LoadCheck({
+  result,
+  design,
+  draft,
+  system,
+}: {
+  result: ReturnType<typeof useLoadCheck>;
+  design: DesignData | null;
+  draft: Draft;
+  system: UnitSystem;
+}) {
+  return result ? (
+    <CycleResults
+      result={result}
+      system={system}
+      xAxis={result.joints[0] && design?.motion[0]?.kind === 'constant' ? 'angle' : 'time'}
+      sources={measuredSources(draft)}
+    />
+  ) : (
+    <Card>
+      <Text muted>
+        No design data for this ride on the phone: the load check cannot run. Sync, then try again.
+      </Text>
+    </Card>
+  );
+}
+
+/** The load check follows every reading, on the phone, so the inspector knows before leaving the ride. */
+function useLoadCheck(draft: Draft, design: DesignData | null, template: ChecklistTemplate | null) {
+  return useMemo(() => {
+    if (!design) return null;
+    try {
+      const content = template?.version.version === draft.templateVersion ? template.version.content : null;
+      return analyseRecord(design, { readings: draft.readings, checklist: draft.checklist }, content, 360);
+    } catch {
+      return null;
+    }
+  }, [design, draft.readings, draft.checklist, draft.templateVersion, template]);
+}
+
+/**
+ * Takes or picks a photo, keeps its bytes on the phone under their hash and adds it to the draft (tied
+ * to a checklist item when one asks for it).
+ */
+function useDraftPhotoCapture(change: (update: (d: Draft) => Draft) => void) {
+  const dev = useDeviceDb();
+  const [photoBusy, setPhotoBusy] = useState(false);
+  const [photoError, setPhotoError] = useState<string | null>(null);
+  const now = () => new Date();
+  const onCapture = async (source: 'camera' | 'library', link: { checklistItemId?: string } = {}) => {
+    setPhotoError(null);
+    setPhotoBusy(true);
+    try {
+      const shot = await capturePhoto(source);
+      if (!shot) return;
+      const bytes = toByteArray(shot.base64);
+      const { sha256 } = await putPhotoBlob(dev, { bytes, mime: shot.mime });
+      const ref: PhotoRef = {
+        id: randomUUID(),
+        sha256,
+        mime: shot.mime,
+        bytes: bytes.length,
+        caption: '',
+        joint: null,
+        checklistItemId: link.checklistItemId ?? null,
+        takenAt: new Date().toISOString(),
+      };
+      change((d) => addPhoto(d, ref, now()));
+    } catch (err) {
+      setPhotoError(err instanceof Error ? err.message : 'The photo could not be kept.');
+    } finally {
+      setPhotoBusy(false);
+    }
+  };
+
+  return { photoBusy, photoError, onCapture };
 }
 
 function PhotoThumb({ photo }: { photo: PhotoRef }) {
@@ -327,6 +313,5 @@ const styles = StyleSheet.create({
     borderColor: colors.border,
     padding: space.md,
   },
-  submit: { gap: space.lg },
   thumb: { width: 112, height: 112, borderRadius: radius.md, backgroundColor: colors.surfaceSunk },
 });

@@ -7,22 +7,22 @@ import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
-import { answerOfReading } from '@/features/inspections/checklist-entry';
-import type { Draft } from '@/features/inspections/draft';
-import { checkReading } from '@/features/inspections/plausibility';
+import { answerOfReading, checkReading } from '@/features/records';
+import type { Draft } from '@/features/records';
 import { type PendingReading, PlausibilityPrompt } from '@/features/inspections/plausibility-prompt';
-import { type Reading, type ReadingKind } from '@/features/inspections/schema';
+import { type Reading, type ReadingKind } from '@/features/records/schema';
 import {
   MeasuredWithPicker,
   measuredWithProblem,
   nothingChosen,
   snapshotOf,
   type MeasuredWith,
-} from '@/features/instruments/measured-with';
-import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
+} from '@/features/instruments';
+import { type Instrument, measuredWithWords } from '@/features/instruments/schema';
+import { isoDay } from '@/lib/dates';
 import type { DesignData, DesignMotion } from '@/features/loads/design-schema';
-import { MotionPicture } from '@/features/tap-timer/motion-picture';
-import { type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
+import { MotionPicture } from '@/features/tap-timer';
+import { type DisplayUnit, type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
 import { formatMeasured, formatSpreadOf, formatStated, normaliseEntered } from '@/lib/measured-format';
 
 /** What each kind of reading is and in which quantity; how it was measured is the inspector's to say. */
@@ -191,11 +191,7 @@ function ReadingInput({
 }) {
   const spec = readingSpec[kind];
   const unit = displayUnits(spec.quantity, system)[0];
-  const [text, setText] = useState('');
-  const [error, setError] = useState<string | undefined>();
   const [timing, setTiming] = useState(false);
-  const [measured, setMeasured] = useState<MeasuredWith>(nothingChosen);
-  const [measuredError, setMeasuredError] = useState<string | undefined>();
   const label = `${bodyName}: ${spec.title.toLowerCase()}`;
   const [pending, setPending] = useState<PendingReading | null>(null);
   const offer = (reading: Reading) => {
@@ -203,14 +199,7 @@ function ReadingInput({
     if (check && !check.plausible) setPending({ reading, check });
     else onAdd(reading);
   };
-  const add = (
-    valueSI: number,
-    method: Reading['method'],
-    spreadSI: number | null = null,
-    instrument?: Reading['instrument'],
-    entered?: string,
-    note?: string,
-  ) => {
+  const add: AddReading = (valueSI, method, spreadSI = null, instrument, entered, note) => {
     offer({
       id: randomUUID(),
       kind,
@@ -225,30 +214,6 @@ function ReadingInput({
       takenAt: new Date().toISOString(),
       ...(note ? { note } : {}),
     });
-  };
-  const submit = () => {
-    // Kept as typed (normalised), so the record shows the inspector's own digits and precision.
-    const entered = normaliseEntered(text);
-    const v = Number(entered);
-    if (entered === null || !Number.isFinite(v)) return setError('Enter a number');
-    if (v <= 0 && kind !== 'clearance') return setError('Must be greater than 0');
-    if (v < 0) return setError('Cannot be negative');
-    setError(undefined);
-    const missing = measuredWithProblem(measured, utcDate(new Date()));
-    if (missing || !measured.method) return setMeasuredError(missing ?? undefined);
-    setMeasuredError(undefined);
-    setText('');
-    const { method, instrument, note } = measured;
-    // Each reading says how it was taken: the next one starts with nothing chosen again.
-    setMeasured(nothingChosen);
-    add(
-      toSI(v, spec.quantity, unit.mathjs),
-      method,
-      null,
-      instrument ? snapshotOf(instrument) : null,
-      entered,
-      method === 'other' ? note.trim() : undefined,
-    );
   };
   return (
     <View style={styles.input}>
@@ -268,6 +233,76 @@ function ReadingInput({
           }}
         />
       ) : null}
+      <TypedReading kind={kind} bodyName={bodyName} unit={unit} instruments={instruments} add={add} />
+      {timer ? (
+        timing ? (
+          timer((periodS, spreadS) => {
+            add(periodS, 'tap_timer', spreadS);
+            setTiming(false);
+          }, per)
+        ) : (
+          <Button label="Time it with taps" tone="quiet" onPress={() => setTiming(true)} />
+        )
+      ) : null}
+    </View>
+  );
+}
+
+/** Adds a reading taken by hand or by the tap timer (spread, instrument, typed text and note when known). */
+type AddReading = (
+  valueSI: number,
+  method: Reading['method'],
+  spreadSI?: number | null,
+  instrument?: Reading['instrument'],
+  entered?: string,
+  note?: string,
+) => void;
+
+/** A reading typed in, with how it was measured; the value is checked here before it is added. */
+function TypedReading({
+  kind,
+  bodyName,
+  unit,
+  instruments,
+  add,
+}: {
+  kind: Exclude<ReadingKind, 'other'>;
+  bodyName: string;
+  unit: DisplayUnit;
+  instruments: Instrument[];
+  add: AddReading;
+}) {
+  const spec = readingSpec[kind];
+  const [text, setText] = useState('');
+  const [error, setError] = useState<string | undefined>();
+  const [measured, setMeasured] = useState<MeasuredWith>(nothingChosen);
+  const [measuredError, setMeasuredError] = useState<string | undefined>();
+  const submit = () => {
+    // Kept as typed (normalised), so the record shows the inspector's own digits and precision.
+    const entered = normaliseEntered(text);
+    const v = Number(entered);
+    if (entered === null || !Number.isFinite(v)) return setError('Enter a number');
+    if (v <= 0 && kind !== 'clearance') return setError('Must be greater than 0');
+    if (v < 0) return setError('Cannot be negative');
+    setError(undefined);
+    const missing = measuredWithProblem(measured, isoDay(new Date()));
+    if (missing || !measured.method) return setMeasuredError(missing ?? undefined);
+    setMeasuredError(undefined);
+    setText('');
+    const { method, instrument, note } = measured;
+    // Each reading says how it was taken: the next one starts with nothing chosen again.
+    setMeasured(nothingChosen);
+    add(
+      toSI(v, spec.quantity, unit.mathjs),
+      method,
+      null,
+      instrument ? snapshotOf(instrument) : null,
+      entered,
+      method === 'other' ? note.trim() : undefined,
+    );
+  };
+  return (
+    <>
       <View style={styles.inputRow}>
         <View style={styles.inputField}>
           <TextField
@@ -292,7 +327,7 @@ function ReadingInput({
         <MeasuredWithPicker
           kind={kind}
           instruments={instruments}
-          today={utcDate(new Date())}
+          today={isoDay(new Date())}
           value={measured}
           onChange={(m) => {
             setMeasured(m);
@@ -301,17 +336,7 @@ function ReadingInput({
           error={measuredError}
         />
       ) : null}
-      {timer ? (
-        timing ? (
-          timer((periodS, spreadS) => {
-            add(periodS, 'tap_timer', spreadS);
-            setTiming(false);
-          }, per)
-        ) : (
-          <Button label="Time it with taps" tone="quiet" onPress={() => setTiming(true)} />
-        )
-      ) : null}
-    </View>
+    </>
   );
 }
 

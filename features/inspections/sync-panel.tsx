@@ -6,16 +6,16 @@ import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { fieldKeys } from '@/features/device-db/field-keys';
-import type { SyncStatus } from '@/features/sync/sync-controller';
-import type { SyncStatusHook } from '@/features/sync/use-sync-status';
+import { formatShortStamp } from '@/lib/dates';
+import { fieldKeys } from '@/features/device-db';
+import type { SyncStatus, SyncStatusHook } from '@/features/sync';
 
 function ago(iso: string | null): string {
   if (!iso) return 'never';
   const s = Math.round((Date.now() - new Date(iso).getTime()) / 1000);
   if (s < 60) return 'just now';
   if (s < 3600) return `${Math.round(s / 60)} min ago`;
-  return new Date(iso).toLocaleString('en-GB', { dateStyle: 'short', timeStyle: 'short' });
+  return formatShortStamp(iso);
 }
 
 const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;

@@ -10,19 +10,21 @@ import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth/role-gate';
-import { firstName, greeting, longDate } from '@/lib/greeting';
+import { RoleGate } from '@/features/auth';
+import { formatLocalStamp, longDate } from '@/lib/dates';
+import { firstName, greeting } from '@/lib/greeting';
 import {
   useFieldRidesQuery,
   useSentInspectionsQuery,
   useStartInspectionMutation,
 } from '@/features/inspections/field-api';
-import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/inspections/schema';
+import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
 import { scheduleSchema } from '@/features/registry/schema';
 import { rideClassLabel } from '@/features/rides/schema';
+import { inspectHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
-import { useSyncStatus } from '@/features/sync/use-sync-status';
+import { useSyncStatus } from '@/features/sync';
 
 /**
  * The inspector's day, read from the phone: inspections a supervisor returned for correction, drafts to
@@ -71,10 +73,10 @@ export function TodayScreen() {
                             <View style={styles.grow}>
                               <Text variant="heading">{r.ride.name}</Text>
                               <Text variant="small" muted>
-                                Last change {new Date(d.updatedAt).toLocaleString('en-GB')}
+                                Last change {formatLocalStamp(d.updatedAt)}
                               </Text>
                             </View>
-                            <Button label="Resume" onPress={() => router.push(`/inspect/${d.id}`)} />
+                            <Button label="Resume" onPress={() => router.push(inspectHref(d.id))} />
                           </Card>
                         )),
                       )}
@@ -107,7 +109,7 @@ function RideToInspect({ entry }: { entry: Entry }) {
   const schedule = entry.assignment ? scheduleSchema.safeParse(entry.assignment) : null;
   const assigned = schedule?.success ? schedule.data : null;
   const begin = (type: InspectionType) =>
-    start.mutate({ rideId: entry.ride.id, type }, { onSuccess: (d) => router.push(`/inspect/${d.id}`) });
+    start.mutate({ rideId: entry.ride.id, type }, { onSuccess: (d) => router.push(inspectHref(d.id)) });
   return (
     <Card accessibilityLabel={`Ride ${entry.ride.name}`}>
       <View style={styles.head}>

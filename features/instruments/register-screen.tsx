@@ -4,37 +4,31 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { CheckField } from '@/components/check-field';
-import { ChoiceChips } from '@/components/choice-chips';
 import { DataTable } from '@/components/data-table';
 import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { SessionUser } from '@/features/auth/schema';
-import { type ReadingKind, readingKinds, readingKindLabel } from '@/features/inspections/schema';
+import { RoleGate } from '@/features/auth';
+import type { SessionUser } from '@/features/session/schema';
+import { readingKindLabel } from '@/features/records/schema';
 import {
   useDeclarationSaveMutation,
   useDeclarationSettingQuery,
-  useInstrumentDeleteMutation,
   useInstrumentListQuery,
-  useInstrumentSaveMutation,
 } from '@/features/instruments/api';
 import {
   type Instrument,
   calibrationStatus,
   calibrationWords,
-  instrumentMethods,
   readingMethodWords,
-  utcDate,
 } from '@/features/instruments/schema';
 import { Panes } from '@/components/panes';
-import { RegisterTabs } from '@/features/registry/register-tabs';
-import { formatDateTime } from '@/lib/dates';
+import { RegisterTabs } from '@/features/registry';
+import { formatDateTime, isoDay } from '@/lib/dates';
+import { InstrumentForm } from '@/features/instruments/instrument-form';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 
@@ -105,7 +99,7 @@ const statusIcon = {
 } as const;
 
 function CalibrationCell({ instrument }: { instrument: Instrument }) {
-  const status = calibrationStatus(instrument.calibrationDueOn, utcDate(new Date()));
+  const status = calibrationStatus(instrument.calibrationDueOn, isoDay(new Date()));
   const mark = statusIcon[status.state];
   return (
     <View style={styles.status}>
@@ -188,168 +182,6 @@ function InstrumentTable({
   );
 }
 
-type FormState = {
-  name: string;
-  serial: string;
-  method: (typeof instrumentMethods)[number] | null;
-  kinds: ReadingKind[];
-  calibratedOn: string;
-  calibrationDueOn: string;
-  notes: string;
-  retired: boolean;
-};
-
-const fromInstrument = (i: Instrument | null): FormState => ({
-  name: i?.name ?? '',
-  serial: i?.serial ?? '',
-  method: (i?.method as FormState['method']) ?? null,
-  kinds: i?.kinds ?? [],
-  calibratedOn: i?.calibratedOn ?? '',
-  calibrationDueOn: i?.calibrationDueOn ?? '',
-  notes: i?.notes ?? '',
-  retired: i ? i.retiredAt !== null : false,
-});
-
-function InstrumentForm({
-  id,
-  initial,
-  onDone,
-}: {
-  id: string | null;
-  initial: Instrument | null;
-  onDone: () => void;
-}) {
-  const [form, setForm] = useState<FormState>(() => fromInstrument(initial));
-  const save = useInstrumentSaveMutation(id);
-  const remove = useInstrumentDeleteMutation();
-  const set = <K extends keyof FormState>(key: K, value: FormState[K]) =>
-    setForm((f) => ({ ...f, [key]: value }));
-  const issues = save.error instanceof ApiRequestError ? save.error.issues : [];
-  const errorOf = (path: string) => issues.find((i) => i.path === path)?.message;
-  const onSave = async () => {
-    try {
-      await save.mutateAsync({
-        name: form.name,
-        serial: form.serial,
-        // Sent as chosen (nothing chosen fails the server's check, which names the field).
-        ...(form.method ? { method: form.method } : {}),
-        kinds: form.kinds,
-        calibratedOn: form.calibratedOn.trim() || null,
-        calibrationDueOn: form.calibrationDueOn.trim() || null,
-        notes: form.notes,
-        retired: form.retired,
-      });
-      onDone();
-    } catch {
-      // Shown from save.error.
-    }
-  };
-  return (
-    <Card>
-      <Text variant="heading">{id ? `Change ${initial?.name ?? 'instrument'}` : 'New instrument'}</Text>
-      <TextField
-        label="Name"
-        value={form.name}
-        onChangeText={(v) => set('name', v)}
-        error={errorOf('name')}
-      />
-      <TextField
-        label="Serial"
-        value={form.serial}
-        onChangeText={(v) => set('serial', v)}
-        autoCapitalize="characters"
-        error={errorOf('serial')}
-      />
-      <ChoiceChips
-        label="Kind of instrument"
-        value={form.method}
-        options={instrumentMethods.map((m) => ({ value: m, label: readingMethodWords[m] }))}
-        onChange={(m) => set('method', m)}
-        error={errorOf('method')}
-      />
-      <View style={styles.group}>
-        <Text variant="label" muted>
-          MEASURES
-        </Text>
-        <ToggleChips
-          label="Readings it measures"
-          values={form.kinds}
-          options={readingKinds.map((k) => ({ value: k, label: readingKindLabel[k] }))}
-          onChange={(kinds) => set('kinds', kinds)}
-        />
-        {errorOf('kinds') ? (
-          <Text variant="small" color={colors.danger}>
-            {errorOf('kinds')}
-          </Text>
-        ) : null}
-      </View>
-      <View style={styles.dates}>
-        <View style={styles.date}>
-          <TextField
-            label="Calibrated on"
-            hint="YYYY-MM-DD"
-            value={form.calibratedOn}
-            onChangeText={(v) => set('calibratedOn', v)}
-            error={errorOf('calibratedOn')}
-          />
-        </View>
-        <View style={styles.date}>
-          <TextField
-            label="Next calibration due"
-            hint="YYYY-MM-DD; usable through this date"
-            value={form.calibrationDueOn}
-            onChangeText={(v) => set('calibrationDueOn', v)}
-            error={errorOf('calibrationDueOn')}
-          />
-        </View>
-      </View>
-      <TextField
-        label="Notes"
-        value={form.notes}
-        onChangeText={(v) => set('notes', v)}
-        multiline
-        error={errorOf('notes')}
-      />
-      {id ? (
-        <CheckField
-          label="Retired: no longer offered to inspectors (kept for the readings that name it)"
-          value={form.retired}
-          onChange={(v) => set('retired', v)}
-        />
-      ) : null}
-      {save.error && issues.length === 0 ? (
-        <Text role="alert" color={colors.danger}>
-          {(save.error as Error).message}
-        </Text>
-      ) : null}
-      <View style={styles.actions}>
-        <Button
-          label={id ? 'Save changes' : 'Add instrument'}
-          tone="accent"
-          busy={save.isPending}
-          onPress={onSave}
-        />
-        <Button label="Cancel" tone="quiet" onPress={onDone} />
-        {id ? (
-          <Button
-            label="Remove (entered by mistake)"
-            tone="quiet"
-            busy={remove.isPending}
-            onPress={async () => {
-              try {
-                await remove.mutateAsync(id);
-                onDone();
-              } catch {
-                // The list stays as it was; the error shows on retry.
-              }
-            }}
-          />
-        ) : null}
-      </View>
-    </Card>
-  );
-}
-
 function DeclarationCard({ admin }: { admin: boolean }) {
   const setting = useDeclarationSettingQuery();
   const save = useDeclarationSaveMutation();
@@ -414,8 +246,6 @@ function DeclarationCard({ admin }: { admin: boolean }) {
 const styles = StyleSheet.create({
   status: { flexDirection: 'row', alignItems: 'center', gap: space.xs, flexWrap: 'wrap' },
   group: { gap: space.sm },
-  dates: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
-  date: { flexGrow: 1, flexBasis: 200 },
   actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   quote: {
     borderLeftWidth: 3,

@@ -9,6 +9,7 @@
 import { z } from 'zod';
 
 import { type ReadingKind, readingKinds, readingKindSchema, readingMethods } from '@/features/records/schema';
+import { daysBetween, isoDay } from '@/lib/dates';
 
 export type ReadingMethod = (typeof readingMethods)[number];
 
@@ -115,13 +116,6 @@ export const instrumentListResponseSchema = z.object({ instruments: z.array(inst
 
 // ——— calibration ———
 
-/** The UTC calendar date of an instant, YYYY-MM-DD. */
-export const utcDate = (at: Date | string) => new Date(at).toISOString().slice(0, 10);
-
-const dayMs = 86_400_000;
-const daysBetween = (from: string, to: string) =>
-  Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / dayMs);
-
 export type CalibrationStatus =
   | { state: 'not_required' }
   | { state: 'current'; daysLeft: number }
@@ -140,7 +134,7 @@ export function calibrationStatus(dueOn: string | null, onDate: string): Calibra
 
 /** True when a reading taken at `takenAt` (ISO instant) used an instrument past its due date. */
 export const pastDueAt = (dueOn: string | null, takenAt: string) =>
-  calibrationStatus(dueOn, utcDate(takenAt)).state === 'past_due';
+  calibrationStatus(dueOn, isoDay(takenAt)).state === 'past_due';
 
 /** The words for a status, e.g. "Calibration due in 6 days (2026-12-09)". */
 export function calibrationWords(dueOn: string | null, status: CalibrationStatus): string {

@@ -8,16 +8,14 @@ import {
   labelsOf,
   noticeKindVocabulary,
 } from '@/lib/vocabulary';
+import { localDay } from '@/lib/dates';
 
 export const noticeKindLabel = labelsOf(noticeKindVocabulary);
 
 export const deliveryStatusLabel = labelsOf(deliveryStatusVocabulary);
 
-/** Today as a calendar date (YYYY-MM-DD) on this device, to compare with due dates. */
-export function todayIso(now = new Date()): string {
-  const pad = (n: number) => String(n).padStart(2, '0');
-  return `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`;
-}
+/** Today as a calendar date (YYYY-MM-DD) on this device, to compare with due dates (lib/dates). */
+export const todayIso = localDay;
 
 /** A finding still open (or awaiting verification) after its due date. */
 export const isPastDue = (f: { dueOn: string | null; state: FindingState }, today = todayIso()) =>

@@ -1,5 +1,5 @@
 import Feather from '@expo/vector-icons/Feather';
-import { Link } from 'expo-router';
+import { type Href, Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
@@ -8,17 +8,10 @@ import { IconButton } from '@/components/icon-button';
 import { LabelledLine } from '@/components/labelled-line';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import { formatDate, formatDateTime } from '@/lib/dates';
+import { formatDate, formatDateTime, localDay } from '@/lib/dates';
 import type { ListedFinding } from '@/features/review/decision-api';
 import { type InspectionPhoto, photoName } from '@/features/review/finding-form';
-import { FindingStateMark } from '@/features/notices/finding-state-mark';
-import { SeverityMark } from '@/features/notices/severity-mark';
-
-function todayIso(): string {
-  const d = new Date();
-  const pad = (n: number) => String(n).padStart(2, '0');
-  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
-}
+import { FindingStateMark, SeverityMark } from '@/features/notices';
 
 /**
  * The inspection's findings in number order. While the inspection is open for decisions each one can be
@@ -40,7 +33,7 @@ export function FindingsList({
   photos: readonly InspectionPhoto[];
   editable: boolean;
   /** The notice where a reported corrective action is verified (closed or reopened). */
-  actionHref?: string | null;
+  actionHref?: Href | null;
   /** The finding whose editor is open, shown in place of its row. */
   editingId: string | null;
   editor: React.ReactNode;
@@ -54,7 +47,7 @@ export function FindingsList({
         No findings recorded for this inspection.
       </Text>
     );
-  const today = todayIso();
+  const today = localDay();
   const sorted = [...findings].sort((a, b) => a.number - b.number);
   return (
     <View style={styles.list} role="list" accessibilityLabel="Findings">

@@ -9,17 +9,15 @@ import { DataTable } from '@/components/data-table';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { formatBesideLimit } from '@/features/loads/format';
+import { formatBesideLimit } from '@/features/loads';
 import { formatMeasured } from '@/lib/measured-format';
 import { inspectionTypeLabel } from '@/features/registry/schema';
-import { formatDate } from '@/lib/dates';
+import { DAY_MS, formatAxisDate, formatDate } from '@/lib/dates';
 import { useRideTrends } from '@/features/review/inspection-api';
 import { ReviewChart } from '@/features/review/review-chart';
 import { pivotLabel } from '@/features/review/review-format';
 import type { TrendPoint, TrendsResponse } from '@/features/review/schema';
 import { type QuantityKind, type UnitSystem, fromSI, pickDisplayUnit } from '@/lib/units';
-
-const DAY_MS = 24 * 3600 * 1000;
 
 type Measure = 'force' | 'diameter' | 'clearance';
 type Joint = TrendsResponse['joints'][number];
@@ -121,13 +119,7 @@ function JointTrends({
     .domain(domain)
     .ticks(wide ? 4 : 3)
     .map((d) => d.getTime());
-  const tickFormat = (ms: number) =>
-    new Date(ms).toLocaleDateString('en-GB', {
-      day: last - first < 120 * DAY_MS ? 'numeric' : undefined,
-      month: 'short',
-      year: last - first < 120 * DAY_MS ? undefined : '2-digit',
-      timeZone: 'UTC',
-    });
+  const tickFormat = (ms: number) => formatAxisDate(ms, last - first);
   const shown = measures.filter((m) => points.some((p) => measureSpec[m].value(p, joint.joint) !== null));
   return (
     <Card accessibilityLabel={`Trends of ${name}`}>

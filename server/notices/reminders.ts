@@ -22,11 +22,13 @@ import {
 } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import { companies, rides } from '@/db/server/schema';
-import { severityInfo, type FindingSeverity } from '@/features/review/schema';
+import { type FindingSeverity } from '@/features/review/schema';
+import { severityInfo } from '@/features/notices/finding-schema';
+import { appLink, noticePath } from '@/lib/paths';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { deliveriesQueued } from '@/server/notices/nudge';
-import { formatCalendarDate } from '@/lib/dates';
+import { addDays, daysBetween, formatCalendarDate, isoDay } from '@/lib/dates';
 import { escapeHtml } from '@/server/notices/words';
 import { findingNumber } from '@/server/findings/findings';
 
@@ -44,10 +46,6 @@ export type ReminderRun = {
   noAddress: string[];
 };
 
-const dayMs = 86_400_000;
-const dateOnly = (d: Date) => d.toISOString().slice(0, 10);
-const daysBetween = (from: string, to: string) =>
-  Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / dayMs);
 const shortHash = (text: string) => createHash('sha256').update(text).digest('hex').slice(0, 24);
 
 type Due = {
@@ -67,7 +65,7 @@ type Due = {
 };
 
 function dueFindings(db: Pick<Db, 'select'>, today: string): Due[] {
-  const soon = dateOnly(new Date(Date.parse(`${today}T00:00:00Z`) + dueSoonDays * dayMs));
+  const soon = addDays(today, dueSoonDays);
   // The latest notice listing the finding: its link is where the operator reports the action.
   const latestNotice = sql<string>`(SELECT n.id FROM ${noticeFindings} nf JOIN ${notices} n ON n.id = nf.notice_id
     WHERE nf.finding_id = ${findings.id} ORDER BY n.issued_at DESC, n.seq DESC LIMIT 1)`;
@@ -137,7 +135,7 @@ export function reminderEmail(companyName: string, items: Due[], today: string, 
     soon.length ? `${soon.length} due within ${dueSoonDays} days` : null,
   ].filter(Boolean);
   const subject = `Reminder: findings ${counts.join(', ')} · ${companyName}`;
-  const link = (i: Due) => `${appUrl.replace(/\/+$/, '')}/notices/${i.noticeId}`;
+  const link = (i: Due) => appLink(appUrl, noticePath(i.noticeId));
   const line = (i: Due) =>
     `- ${i.rideName}, finding ${i.number} [${severityInfo[i.severity].label}]: ${i.description}\n` +
     (i.requiredAction ? `  Required action: ${i.requiredAction}\n` : '') +
@@ -181,7 +179,7 @@ export function reminderEmail(companyName: string, items: Due[], today: string, 
  * due, one e-mail per notice address, queued with the stages recorded. Running again finds nothing new.
  */
 export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
-  const today = dateOnly(now);
+  const today = isoDay(now);
   const at = now.toISOString();
   const run: ReminderRun = { companies: 0, reminded: [], noAddress: [] };
   deps.db.transaction((tx) => {

@@ -16,12 +16,13 @@ import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
 import { inspections } from '@/db/server/inspections';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
+import { isoDay } from '@/lib/dates';
 import { nextDueSql } from '@/server/schedule-due';
 
 type Tx = Pick<Db, 'run'>;
 
 /** Today as the queue sees it: the UTC calendar date. */
-export const queueToday = (now: Date = new Date()) => now.toISOString().slice(0, 10);
+export const queueToday = (now: Date = new Date()) => isoDay(now);
 
 let generation = 0;
 

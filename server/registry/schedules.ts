@@ -15,7 +15,8 @@ import { recordAudit } from '@/server/registry/audit';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { mustFindRide } from '@/server/registry/rides';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
-import { dateOf, daysBetween, dueStatusOf, dueStatusSql, nextDueOn, nextDueSql } from '@/server/schedule-due';
+import { daysBetween, isoDay } from '@/lib/dates';
+import { dueStatusOf, dueStatusSql, nextDueOn, nextDueSql } from '@/server/schedule-due';
 
 const assignee = alias(users, 'assignee');
 
@@ -61,7 +62,7 @@ function toSchedule(row: Row, today: string): Schedule {
 }
 
 export function listSchedules(db: Db, query: ScheduleListQuery, now: Date, me: string) {
-  const today = dateOf(now);
+  const today = isoDay(now);
   const assigned =
     query.assignedTo === undefined
       ? undefined
@@ -119,7 +120,7 @@ export function listSchedules(db: Db, query: ScheduleListQuery, now: Date, me: s
 
 /** The inspections assigned to one user, soonest first (undated last). */
 export function assignmentsOf(db: Db, userId: string, now: Date): Schedule[] {
-  const today = dateOf(now);
+  const today = isoDay(now);
   return scheduleRows(db)
     .where(eq(inspectionSchedules.assignedTo, userId))
     .orderBy(asc(sql`${nextDueSql} IS NULL`), asc(nextDueSql), asc(rides.name))
@@ -129,7 +130,7 @@ export function assignmentsOf(db: Db, userId: string, now: Date): Schedule[] {
 
 export function findSchedule(db: Pick<Db, 'select'>, id: string, now: Date): Schedule | null {
   const row = scheduleRows(db).where(eq(inspectionSchedules.id, id)).get();
-  return row ? toSchedule(row, dateOf(now)) : null;
+  return row ? toSchedule(row, isoDay(now)) : null;
 }
 
 function mustFindSchedule(db: Pick<Db, 'select'>, id: string, now: Date): Schedule {

@@ -34,7 +34,7 @@ import {
   openBlockingFindings,
   type AppliedChange,
 } from '@/server/review/ride-status';
-import { dateOf } from '@/server/schedule-due';
+import { isoDay } from '@/lib/dates';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
 
@@ -110,7 +110,7 @@ function mustBeUndecided(tx: Tx, before: InspectionHead) {
 
 /** An approval records the inspection as done on the ride's schedule of its type. */
 function recordDoneOnSchedule(db: Db, tx: Tx, user: SessionUser, before: InspectionHead, now: Date) {
-  const doneOn = dateOf(new Date(before.submittedAt));
+  const doneOn = isoDay(new Date(before.submittedAt));
   const schedule = tx
     .select({ id: inspectionSchedules.id, lastDoneOn: inspectionSchedules.lastDoneOn })
     .from(inspectionSchedules)

@@ -32,7 +32,7 @@ import { issueStatusNotice, type NoticeTx } from '@/server/notices/issue';
 import { recordAudit } from '@/server/registry/audit';
 import { mustFindRide } from '@/server/registry/rides';
 import { createSchedule, updateSchedule } from '@/server/registry/schedules';
-import { dateOf } from '@/server/schedule-due';
+import { isoDay } from '@/lib/dates';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
 type Tx = NoticeTx & Pick<Db, 'delete'>;
@@ -236,7 +236,7 @@ export function ensureFollowUp(db: Db, tx: Pick<Db, 'select'>, userId: string, r
       .where(and(eq(inspectionSchedules.rideId, rideId), isNull(users.disabledAt)))
       .get()?.id ??
     null;
-  const dueOn = schedule?.dueOn ?? dateOf(now);
+  const dueOn = schedule?.dueOn ?? isoDay(now);
   const notes = 'Booked by the status rules: the ride returns to service after this follow-up is approved.';
   if (schedule) updateSchedule(db, userId, schedule.id, { dueOn, assignedTo: inspector }, now);
   else

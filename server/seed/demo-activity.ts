@@ -22,7 +22,7 @@ import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import { findSessionUser } from '@/server/auth/service';
 import type { Db } from '@/server/db';
 import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry/checklists';
-import { addDays, dateOf } from '@/server/schedule-due';
+import { addDays, isoDay } from '@/lib/dates';
 import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
 import { demoInstrumentSnapshot } from '@/server/seed/demo-instruments';
 import { demoUuid } from '@/server/seed/demo-ids';
@@ -222,7 +222,7 @@ function finish(
         description: f.description,
         ruleRef: f.ruleRef ?? null,
         requiredAction: f.requiredAction ?? null,
-        dueOn: f.dueInDays === undefined ? null : addDays(dateOf(now), f.dueInDays),
+        dueOn: f.dueInDays === undefined ? null : addDays(isoDay(now), f.dueInDays),
         photoShas: (f.photos ?? []).map((name) => demoPhoto(name).sha256),
         createdAt: findingAt,
         createdBy: supervisorId,

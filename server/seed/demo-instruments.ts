@@ -10,7 +10,7 @@ import type { InstrumentSnapshot, ReadingKind } from '@/features/records/schema'
 import type { instrumentMethods } from '@/features/instruments/schema';
 import type { Db } from '@/server/db';
 import { demoUuid } from '@/server/seed/demo-ids';
-import { addDays, dateOf } from '@/server/schedule-due';
+import { addDays, isoDay } from '@/lib/dates';
 
 type DemoInstrument = {
   serial: string;
@@ -123,13 +123,13 @@ const idOf = (serial: string) => demoUuid(`instrument:${serial}`);
 export function demoInstrumentSnapshot(serial: string, now: Date): InstrumentSnapshot {
   const i = demoInstruments.find((d) => d.serial === serial);
   if (!i) throw new Error(`no demo instrument ${serial}`);
-  return { id: idOf(serial), name: i.name, serial, calibrationDueOn: addDays(dateOf(now), i.dueInDays) };
+  return { id: idOf(serial), name: i.name, serial, calibrationDueOn: addDays(isoDay(now), i.dueInDays) };
 }
 
 /** Adds the demo instruments when the register has none (so an emptied register is never refilled twice). */
 export function topUpDemoInstruments(db: Pick<Db, 'select' | 'insert'>, now: Date): void {
   if ((db.select({ n: count() }).from(instruments).get()?.n ?? 0) > 0) return;
-  const today = dateOf(now);
+  const today = isoDay(now);
   for (const i of demoInstruments) {
     const due = addDays(today, i.dueInDays);
     db.insert(instruments)

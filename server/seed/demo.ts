@@ -19,7 +19,7 @@ import { assertUserCompany } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
-import { addDays, dateOf } from '@/server/schedule-due';
+import { addDays, isoDay } from '@/lib/dates';
 import { addDemoActivity } from '@/server/seed/demo-activity';
 import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
@@ -408,7 +408,7 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
       .where(eq(users.email, demoInspectorEmail))
       .get();
     if (!anySchedule) {
-      const today = dateOf(now);
+      const today = isoDay(now);
       const rideIdOf = new Map(demoRideRows.map((r) => [r.serial, r.id]));
       for (const s of demoSchedules) {
         const rideId = rideIdOf.get(s.serial);

@@ -4,6 +4,7 @@ import { listOf } from '@/features/registry/schema/rides';
 import { rideClassSchema, rideStatusSchema } from '@/features/rides/schema';
 import { z } from 'zod';
 
+import { isRealIsoDay } from '@/lib/dates';
 import { inspectionTypes, inspectionTypeVocabulary, labelsOf } from '@/lib/vocabulary';
 
 // ——— schedules and assignments ———
@@ -38,10 +39,7 @@ export const calendarDate = () =>
     .string({ error: 'Required' })
     .trim()
     .regex(/^\d{4}-\d{2}-\d{2}$/, 'Must be a date, YYYY-MM-DD')
-    .refine((v) => {
-      const d = new Date(`${v}T00:00:00Z`);
-      return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === v;
-    }, 'Not a real date');
+    .refine(isRealIsoDay, 'Not a real date');
 
 /**
  * POST /api/schedules. The next due date is `dueOn` when given (a one-off date: a set-up, a follow-up),
