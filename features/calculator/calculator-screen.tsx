@@ -96,47 +96,7 @@ export function CalculatorScreen() {
         ]}
       />
       {source === 'ride' ? (
-        <Card>
-          <Text variant="heading">Ride</Text>
-          <QueryState query={rides} empty={(r) => r.length === 0}>
-            {(list) => (
-              <View style={styles.rideList}>
-                {list.map((r) => {
-                  const selected = r.id === rideId;
-                  return (
-                    <Pressable
-                      key={r.id}
-                      role="radio"
-                      aria-checked={selected}
-                      accessibilityLabel={r.name}
-                      onPress={() => setRideId(r.id)}
-                      style={StyleSheet.flatten([styles.rideOption, selected && styles.rideOptionSelected])}
-                    >
-                      <View style={styles.rideOptionText}>
-                        <Text variant="heading">{r.name}</Text>
-                        <Text variant="small" muted>
-                          {rideClassLabel[r.rideClass]}
-                        </Text>
-                      </View>
-                      <RideStatusMark status={r.status} compact />
-                    </Pressable>
-                  );
-                })}
-              </View>
-            )}
-          </QueryState>
-          {rideId && ride.data && !ride.data.design ? (
-            <Text color={colors.near}>
-              This ride has no design data yet. Ask an administrator to enter it.
-            </Text>
-          ) : null}
-          {ride.data?.design ? (
-            <Text variant="small" muted>
-              Design data v{ride.data.design.version} · {ride.data.design.data.source.document} rev.{' '}
-              {ride.data.design.data.source.revision}
-            </Text>
-          ) : null}
-        </Card>
+        <RidePicker rides={rides} rideId={rideId} onPick={setRideId} ride={ride} />
       ) : (
         <BodiesEditor
           bodies={bodies}
@@ -145,36 +105,10 @@ export function CalculatorScreen() {
         />
       )}
 
-      {motion.length > 0 ? (
-        <Card>
-          <Text variant="heading">Motion of each joint</Text>
-          <Text variant="small" muted>
-            Relative to the body before it. Start from the design values or type what you measured.
-          </Text>
-          {motion.map((row, i) => (
-            <MotionEditor
-              key={i}
-              title={`Joint ${i + 1} · ${jointNames[i] ?? ''}`}
-              row={row}
-              onChange={(r) => setMotion(motion.map((m, k) => (k === i ? r : m)))}
-            />
-          ))}
-        </Card>
-      ) : null}
+      {motion.length > 0 ? <MotionCard motion={motion} jointNames={jointNames} onChange={setMotion} /> : null}
 
       <Button label="Run load check" onPress={run} disabled={source === 'ride' && !design} />
-      {outcome && !outcome.ok ? (
-        <View style={styles.errors} role="alert">
-          <Text variant="heading" color={colors.danger}>
-            Check these inputs
-          </Text>
-          {outcome.issues.map((i) => (
-            <Text key={`${i.path}${i.message}`} color={colors.danger}>
-              {describePath(i.path, jointNames)}: {i.message}
-            </Text>
-          ))}
-        </View>
-      ) : null}
+      {outcome && !outcome.ok ? <InputProblems issues={outcome.issues} jointNames={jointNames} /> : null}
     </View>
   );
 
@@ -224,6 +158,109 @@ export function CalculatorScreen() {
         </Screen>
       )}
     </RoleGate>
+  );
+}
+
+/** The rides to check, one chosen, and which design version of it the check uses. */
+function RidePicker({
+  rides,
+  rideId,
+  onPick,
+  ride,
+}: {
+  rides: ReturnType<typeof useRidesQuery>;
+  rideId: string | null;
+  onPick: (id: string) => void;
+  ride: ReturnType<typeof useRideQuery>;
+}) {
+  return (
+    <Card>
+      <Text variant="heading">Ride</Text>
+      <QueryState query={rides} empty={(r) => r.length === 0}>
+        {(list) => (
+          <View style={styles.rideList}>
+            {list.map((r) => {
+              const selected = r.id === rideId;
+              return (
+                <Pressable
+                  key={r.id}
+                  role="radio"
+                  aria-checked={selected}
+                  accessibilityLabel={r.name}
+                  onPress={() => onPick(r.id)}
+                  style={StyleSheet.flatten([styles.rideOption, selected && styles.rideOptionSelected])}
+                >
+                  <View style={styles.rideOptionText}>
+                    <Text variant="heading">{r.name}</Text>
+                    <Text variant="small" muted>
+                      {rideClassLabel[r.rideClass]}
+                    </Text>
+                  </View>
+                  <RideStatusMark status={r.status} compact />
+                </Pressable>
+              );
+            })}
+          </View>
+        )}
+      </QueryState>
+      {rideId && ride.data && !ride.data.design ? (
+        <Text color={colors.near}>This ride has no design data yet. Ask an administrator to enter it.</Text>
+      ) : null}
+      {ride.data?.design ? (
+        <Text variant="small" muted>
+          Design data v{ride.data.design.version} · {ride.data.design.data.source.document} rev.{' '}
+          {ride.data.design.data.source.revision}
+        </Text>
+      ) : null}
+    </Card>
+  );
+}
+
+function MotionCard({
+  motion,
+  jointNames,
+  onChange,
+}: {
+  motion: MotionRow[];
+  jointNames: string[];
+  onChange: (rows: MotionRow[]) => void;
+}) {
+  return (
+    <Card>
+      <Text variant="heading">Motion of each joint</Text>
+      <Text variant="small" muted>
+        Relative to the body before it. Start from the design values or type what you measured.
+      </Text>
+      {motion.map((row, i) => (
+        <MotionEditor
+          key={i}
+          title={`Joint ${i + 1} · ${jointNames[i] ?? ''}`}
+          row={row}
+          onChange={(r) => onChange(motion.map((m, k) => (k === i ? r : m)))}
+        />
+      ))}
+    </Card>
+  );
+}
+
+function InputProblems({
+  issues,
+  jointNames,
+}: {
+  issues: Extract<CalculatorOutcome, { ok: false }>['issues'];
+  jointNames: string[];
+}) {
+  return (
+    <View style={styles.errors} role="alert">
+      <Text variant="heading" color={colors.danger}>
+        Check these inputs
+      </Text>
+      {issues.map((i) => (
+        <Text key={`${i.path}${i.message}`} color={colors.danger}>
+          {describePath(i.path, jointNames)}: {i.message}
+        </Text>
+      ))}
+    </View>
   );
 }
 

@@ -238,59 +238,8 @@ function ItemsEditor({
                 />
               </View>
             </View>
-            <View style={styles.flags}>
-              <Controller
-                control={control}
-                name={`${base}.photoRequired`}
-                render={({ field }) => (
-                  <CheckField
-                    label="Photo required"
-                    icon="camera"
-                    value={!!field.value}
-                    onChange={field.onChange}
-                  />
-                )}
-              />
-              <Controller
-                control={control}
-                name={`${base}.measurementRequired`}
-                render={({ field }) => (
-                  <CheckField
-                    label="Measurement required"
-                    icon="crosshair"
-                    value={!!field.value}
-                    onChange={field.onChange}
-                  />
-                )}
-              />
-            </View>
-            {measured ? (
-              <View style={wide ? styles.itemRow : styles.itemStack}>
-                <View style={wide ? styles.flex : undefined}>
-                  <Controller
-                    control={control}
-                    name={`${base}.measurementKind`}
-                    render={({ field, fieldState }) => (
-                      <SelectField
-                        label="What is measured"
-                        value={field.value ?? null}
-                        options={measurementKinds.map((k) => ({ value: k, label: measurementKindLabel[k] }))}
-                        onChange={field.onChange}
-                        error={fieldState.error?.message}
-                      />
-                    )}
-                  />
-                </View>
-                <View style={wide ? styles.flex : undefined}>
-                  <FormText
-                    control={control}
-                    name={`${base}.measurementLabel`}
-                    label="Reading label"
-                    hint="e.g. “pin Ø, two stations × two directions”"
-                  />
-                </View>
-              </View>
-            ) : null}
+            <ItemFlags control={control} base={base} />
+            {measured ? <MeasurementFields control={control} base={base} wide={wide} /> : null}
             {measured ? (
               <Controller
                 control={control}
@@ -311,6 +260,74 @@ function ItemsEditor({
       })}
       {itemsError ? <Text color={colors.danger}>{itemsError}</Text> : null}
       <Button label="Add an item" tone="quiet" onPress={() => items.append(newItem())} style={styles.start} />
+    </View>
+  );
+}
+
+type ItemPath = `content.areas.${number}.items.${number}`;
+
+/** Whether the item needs a photo, a measurement, or both. */
+function ItemFlags({ control, base }: { control: Control<ChecklistFormInput>; base: ItemPath }) {
+  return (
+    <View style={styles.flags}>
+      <Controller
+        control={control}
+        name={`${base}.photoRequired`}
+        render={({ field }) => (
+          <CheckField label="Photo required" icon="camera" value={!!field.value} onChange={field.onChange} />
+        )}
+      />
+      <Controller
+        control={control}
+        name={`${base}.measurementRequired`}
+        render={({ field }) => (
+          <CheckField
+            label="Measurement required"
+            icon="crosshair"
+            value={!!field.value}
+            onChange={field.onChange}
+          />
+        )}
+      />
+    </View>
+  );
+}
+
+/** For a measured item: what is measured, and the label its reading carries. */
+function MeasurementFields({
+  control,
+  base,
+  wide,
+}: {
+  control: Control<ChecklistFormInput>;
+  base: ItemPath;
+  wide: boolean;
+}) {
+  return (
+    <View style={wide ? styles.itemRow : styles.itemStack}>
+      <View style={wide ? styles.flex : undefined}>
+        <Controller
+          control={control}
+          name={`${base}.measurementKind`}
+          render={({ field, fieldState }) => (
+            <SelectField
+              label="What is measured"
+              value={field.value ?? null}
+              options={measurementKinds.map((k) => ({ value: k, label: measurementKindLabel[k] }))}
+              onChange={field.onChange}
+              error={fieldState.error?.message}
+            />
+          )}
+        />
+      </View>
+      <View style={wide ? styles.flex : undefined}>
+        <FormText
+          control={control}
+          name={`${base}.measurementLabel`}
+          label="Reading label"
+          hint="e.g. “pin Ø, two stations × two directions”"
+        />
+      </View>
     </View>
   );
 }

@@ -215,196 +215,234 @@ export function Field({ label, value, figure }: { label: string; value: string; 
 
 /** Every table of the design data: bodies, parts, pivots and pins, seats, design motion and rider limits. */
 export function DesignTables({ data, system }: { data: DesignData; system: UnitSystem }) {
-  const bodies = useMemo(() => designBodies(data), [data]);
-  const bodyName = (i: number) => `${i + 1} · ${data.bodies[i]?.name ?? '?'}`;
   return (
     <View style={styles.tables}>
       <SectionTitle>Bodies (combined from their parts)</SectionTitle>
-      <DataTable
-        label="Bodies"
-        rows={bodies.map((b, i) => ({ b, i }))}
-        rowKey={({ i }) => String(i)}
-        columns={[
-          { key: 'body', title: 'Body', render: ({ i }) => bodyName(i), flex: 1.4 },
-          { key: 'mass', title: 'Mass', render: ({ b }) => q(b.massKg, 'mass', system), numeric: true },
-          {
-            key: 'cg',
-            title: 'CG in body frame',
-            render: ({ b }) => point(b.cgM, system),
-            numeric: true,
-            flex: 1.3,
-          },
-          {
-            key: 'inertia',
-            title: 'Inertia about CG',
-            render: ({ b }) => `${formatSignificant(b.inertiaCgKgM2, 4)} kg·m²`,
-            numeric: true,
-          },
-          {
-            key: 'tip',
-            title: 'Next pivot at',
-            render: ({ i }) => {
-              const tip = i < data.bodies.length - 1 ? data.bodies[i].tipM : undefined;
-              return tip ? point(tip, system) : '—';
-            },
-            numeric: true,
-          },
-        ]}
-      />
+      <BodiesTable data={data} system={system} />
 
       <SectionTitle>{`Parts (${data.parts.length})`}</SectionTitle>
-      <DataTable
-        label="Parts"
-        rows={data.parts.map((p, k) => ({ p, k }))}
-        rowKey={({ k }) => String(k)}
-        columns={[
-          { key: 'name', title: 'Part', render: ({ p }) => p.name, flex: 1.5 },
-          { key: 'body', title: 'Body', render: ({ p }) => bodyName(p.body), flex: 1.1 },
-          { key: 'kind', title: 'Kind', render: ({ p }) => partKindLabel[p.kind] },
-          {
-            key: 'mass',
-            title: 'Mass',
-            render: ({ p }) => q(p.massKg, 'mass', system),
-            numeric: true,
-            flex: 0.8,
-          },
-          { key: 'where', title: 'Position and size', render: ({ p }) => partGeometry(p, system), flex: 2.4 },
-        ]}
-      />
+      <PartsTable data={data} system={system} />
 
       <SectionTitle>Pivots and pins</SectionTitle>
-      <DataTable
-        label="Pivots"
-        rows={[...data.pivots].sort((a, b) => a.joint - b.joint)}
-        rowKey={(p) => String(p.joint)}
-        columns={[
-          { key: 'name', title: 'Pivot', render: (p) => `P${p.joint + 1} · ${p.name}`, flex: 1.6 },
-          {
-            key: 'pin',
-            title: 'Pin Ø nominal / min',
-            render: (p) =>
-              `${q(p.nominalDiameterM, 'lengthSmall', system)} / ${q(p.minimumDiameterM, 'lengthSmall', system)}`,
-            numeric: true,
-            flex: 1.4,
-          },
-          {
-            key: 'clear',
-            title: 'Clearance limit',
-            render: (p) => q(p.maxClearanceM, 'lengthSmall', system),
-            numeric: true,
-          },
-          {
-            key: 'shear',
-            title: 'Shear planes',
-            render: (p) => (p.shear === 'double' ? 'Double' : 'Single'),
-            flex: 0.8,
-          },
-          {
-            key: 'bearing',
-            title: 'Bearing length',
-            render: (p) => q(p.bearingLengthM, 'lengthSmall', system),
-            numeric: true,
-          },
-          {
-            key: 'allow',
-            title: 'Allowable shear / bearing',
-            render: (p) =>
-              `${q(p.maxShearStressPa, 'stress', system)} / ${q(p.maxBearingPressurePa, 'stress', system)}`,
-            numeric: true,
-            flex: 1.5,
-          },
-          { key: 'force', title: 'Max force', render: (p) => q(p.maxForceN, 'force', system), numeric: true },
-          {
-            key: 'torque',
-            title: 'Max torque',
-            render: (p) => q(p.maxTorqueNm, 'moment', system),
-            numeric: true,
-          },
-        ]}
-      />
+      <PivotsTable data={data} system={system} />
 
       <SectionTitle>{`Seats (${data.seats.length})`}</SectionTitle>
-      {data.seats.length === 0 ? (
-        <Text muted>No seats given: rider accelerations are not checked.</Text>
-      ) : (
-        <DataTable
-          label="Seats"
-          rows={data.seats.map((s, k) => ({ s, k }))}
-          rowKey={({ k }) => String(k)}
-          columns={[
-            { key: 'name', title: 'Seat', render: ({ s }) => s.name, flex: 1.6 },
-            { key: 'body', title: 'Body', render: ({ s }) => bodyName(s.body) },
-            {
-              key: 'at',
-              title: 'Position',
-              render: ({ s }) => point(s.positionM, system),
-              numeric: true,
-              flex: 1.2,
-            },
-            {
-              key: 'spine',
-              title: 'Spine direction',
-              render: ({ s }) => q(s.spineAngleRad, 'angle', system),
-              numeric: true,
-            },
-            {
-              key: 'facing',
-              title: 'Chest faces',
-              // The chest lies 90° from the spine: clockwise by default, counter-clockwise when mirrored.
-              render: ({ s }) => (s.facing === 'ccw' ? 'Spine + 90° (mirrored)' : 'Spine − 90°'),
-            },
-          ]}
-        />
-      )}
+      <SeatsTable data={data} system={system} />
 
       <SectionTitle>Design motion and limits</SectionTitle>
-      <DataTable
-        label="Design motion"
-        rows={[...data.motion].sort((a, b) => a.joint - b.joint)}
-        rowKey={(m) => String(m.joint)}
-        columns={[
-          {
-            key: 'joint',
-            title: 'Joint',
-            render: (m) => `P${m.joint + 1} · ${data.bodies[m.joint]?.name ?? '?'}`,
-            flex: 1.4,
-          },
-          { key: 'kind', title: 'Motion', render: (m) => motionKindLabel[m.kind] },
-          {
-            key: 'value',
-            title: 'Design value',
-            render: (m) => motionText(m, system),
-            numeric: true,
-            flex: 1.3,
-          },
-          {
-            key: 'limits',
-            title: 'Motion limits',
-            render: (m) => motionLimitText(m, system),
-            numeric: true,
-            flex: 1.6,
-          },
-        ]}
-      />
+      <MotionTable data={data} system={system} />
 
       <SectionTitle>Rider limits</SectionTitle>
-      <Card style={styles.riderCard}>
-        <Field label="Gz (along the spine)" value={gRange(data.rider.gz)} figure />
-        <Field label="Gx (chest to back)" value={gRange(data.rider.gx)} figure />
-        <Field
-          label="Near-limit margin"
-          value={
-            data.nearMargin !== undefined
-              ? `${Math.round(data.nearMargin * 100)} % of a limit`
-              : 'Engine default'
-          }
-          figure
-        />
-        {data.gravityMS2 !== undefined ? (
-          <Field label="Gravity" value={`${data.gravityMS2} m/s²`} figure />
-        ) : null}
-      </Card>
+      <RiderLimits data={data} />
     </View>
+  );
+}
+
+type TableProps = { data: DesignData; system: UnitSystem };
+
+/** "2 · Gondola": a body as the tables name it. */
+const bodyName = (data: DesignData, i: number) => `${i + 1} · ${data.bodies[i]?.name ?? '?'}`;
+
+function BodiesTable({ data, system }: TableProps) {
+  const bodies = useMemo(() => designBodies(data), [data]);
+  return (
+    <DataTable
+      label="Bodies"
+      rows={bodies.map((b, i) => ({ b, i }))}
+      rowKey={({ i }) => String(i)}
+      columns={[
+        { key: 'body', title: 'Body', render: ({ i }) => bodyName(data, i), flex: 1.4 },
+        { key: 'mass', title: 'Mass', render: ({ b }) => q(b.massKg, 'mass', system), numeric: true },
+        {
+          key: 'cg',
+          title: 'CG in body frame',
+          render: ({ b }) => point(b.cgM, system),
+          numeric: true,
+          flex: 1.3,
+        },
+        {
+          key: 'inertia',
+          title: 'Inertia about CG',
+          render: ({ b }) => `${formatSignificant(b.inertiaCgKgM2, 4)} kg·m²`,
+          numeric: true,
+        },
+        {
+          key: 'tip',
+          title: 'Next pivot at',
+          render: ({ i }) => {
+            const tip = i < data.bodies.length - 1 ? data.bodies[i].tipM : undefined;
+            return tip ? point(tip, system) : '—';
+          },
+          numeric: true,
+        },
+      ]}
+    />
+  );
+}
+
+function PartsTable({ data, system }: TableProps) {
+  return (
+    <DataTable
+      label="Parts"
+      rows={data.parts.map((p, k) => ({ p, k }))}
+      rowKey={({ k }) => String(k)}
+      columns={[
+        { key: 'name', title: 'Part', render: ({ p }) => p.name, flex: 1.5 },
+        { key: 'body', title: 'Body', render: ({ p }) => bodyName(data, p.body), flex: 1.1 },
+        { key: 'kind', title: 'Kind', render: ({ p }) => partKindLabel[p.kind] },
+        {
+          key: 'mass',
+          title: 'Mass',
+          render: ({ p }) => q(p.massKg, 'mass', system),
+          numeric: true,
+          flex: 0.8,
+        },
+        { key: 'where', title: 'Position and size', render: ({ p }) => partGeometry(p, system), flex: 2.4 },
+      ]}
+    />
+  );
+}
+
+function PivotsTable({ data, system }: TableProps) {
+  return (
+    <DataTable
+      label="Pivots"
+      rows={[...data.pivots].sort((a, b) => a.joint - b.joint)}
+      rowKey={(p) => String(p.joint)}
+      columns={[
+        { key: 'name', title: 'Pivot', render: (p) => `P${p.joint + 1} · ${p.name}`, flex: 1.6 },
+        {
+          key: 'pin',
+          title: 'Pin Ø nominal / min',
+          render: (p) =>
+            `${q(p.nominalDiameterM, 'lengthSmall', system)} / ${q(p.minimumDiameterM, 'lengthSmall', system)}`,
+          numeric: true,
+          flex: 1.4,
+        },
+        {
+          key: 'clear',
+          title: 'Clearance limit',
+          render: (p) => q(p.maxClearanceM, 'lengthSmall', system),
+          numeric: true,
+        },
+        {
+          key: 'shear',
+          title: 'Shear planes',
+          render: (p) => (p.shear === 'double' ? 'Double' : 'Single'),
+          flex: 0.8,
+        },
+        {
+          key: 'bearing',
+          title: 'Bearing length',
+          render: (p) => q(p.bearingLengthM, 'lengthSmall', system),
+          numeric: true,
+        },
+        {
+          key: 'allow',
+          title: 'Allowable shear / bearing',
+          render: (p) =>
+            `${q(p.maxShearStressPa, 'stress', system)} / ${q(p.maxBearingPressurePa, 'stress', system)}`,
+          numeric: true,
+          flex: 1.5,
+        },
+        { key: 'force', title: 'Max force', render: (p) => q(p.maxForceN, 'force', system), numeric: true },
+        {
+          key: 'torque',
+          title: 'Max torque',
+          render: (p) => q(p.maxTorqueNm, 'moment', system),
+          numeric: true,
+        },
+      ]}
+    />
+  );
+}
+
+function SeatsTable({ data, system }: TableProps) {
+  return data.seats.length === 0 ? (
+    <Text muted>No seats given: rider accelerations are not checked.</Text>
+  ) : (
+    <DataTable
+      label="Seats"
+      rows={data.seats.map((s, k) => ({ s, k }))}
+      rowKey={({ k }) => String(k)}
+      columns={[
+        { key: 'name', title: 'Seat', render: ({ s }) => s.name, flex: 1.6 },
+        { key: 'body', title: 'Body', render: ({ s }) => bodyName(data, s.body) },
+        {
+          key: 'at',
+          title: 'Position',
+          render: ({ s }) => point(s.positionM, system),
+          numeric: true,
+          flex: 1.2,
+        },
+        {
+          key: 'spine',
+          title: 'Spine direction',
+          render: ({ s }) => q(s.spineAngleRad, 'angle', system),
+          numeric: true,
+        },
+        {
+          key: 'facing',
+          title: 'Chest faces',
+          // The chest lies 90° from the spine: clockwise by default, counter-clockwise when mirrored.
+          render: ({ s }) => (s.facing === 'ccw' ? 'Spine + 90° (mirrored)' : 'Spine − 90°'),
+        },
+      ]}
+    />
+  );
+}
+
+function MotionTable({ data, system }: TableProps) {
+  return (
+    <DataTable
+      label="Design motion"
+      rows={[...data.motion].sort((a, b) => a.joint - b.joint)}
+      rowKey={(m) => String(m.joint)}
+      columns={[
+        {
+          key: 'joint',
+          title: 'Joint',
+          render: (m) => `P${m.joint + 1} · ${data.bodies[m.joint]?.name ?? '?'}`,
+          flex: 1.4,
+        },
+        { key: 'kind', title: 'Motion', render: (m) => motionKindLabel[m.kind] },
+        {
+          key: 'value',
+          title: 'Design value',
+          render: (m) => motionText(m, system),
+          numeric: true,
+          flex: 1.3,
+        },
+        {
+          key: 'limits',
+          title: 'Motion limits',
+          render: (m) => motionLimitText(m, system),
+          numeric: true,
+          flex: 1.6,
+        },
+      ]}
+    />
+  );
+}
+
+function RiderLimits({ data }: { data: DesignData }) {
+  return (
+    <Card style={styles.riderCard}>
+      <Field label="Gz (along the spine)" value={gRange(data.rider.gz)} figure />
+      <Field label="Gx (chest to back)" value={gRange(data.rider.gx)} figure />
+      <Field
+        label="Near-limit margin"
+        value={
+          data.nearMargin !== undefined
+            ? `${Math.round(data.nearMargin * 100)} % of a limit`
+            : 'Engine default'
+        }
+        figure
+      />
+      {data.gravityMS2 !== undefined ? (
+        <Field label="Gravity" value={`${data.gravityMS2} m/s²`} figure />
+      ) : null}
+    </Card>
   );
 }
 

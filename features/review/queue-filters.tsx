@@ -6,7 +6,12 @@ import { SelectField } from '@/components/select-field';
 import { TextField } from '@/components/text-field';
 import { space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { operatorChoices, useCompanyListQuery, useInspectorsQuery, useSiteListQuery } from '@/features/registry';
+import {
+  operatorChoices,
+  useCompanyListQuery,
+  useInspectorsQuery,
+  useSiteListQuery,
+} from '@/features/registry';
 import { FilterGroups, FilterPanel } from '@/components/filter-panel';
 import { RideClassFilter, RideStatusFilter } from '@/features/rides';
 import { calendarDate } from '@/features/registry/schema';
@@ -111,9 +116,6 @@ export function QueueFilterPanel({
   onClear: () => void;
 }) {
   const wide = useWide();
-  const sites = useSiteListQuery({ pageSize: 200, sort: 'name' });
-  const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' });
-  const inspectors = useInspectorsQuery();
   // A new filter always starts again at page 1.
   const filter = (patch: QueuePatch) => setQuery({ ...patch, page: undefined });
   const active = activeFilterCount(query);
@@ -123,48 +125,7 @@ export function QueueFilterPanel({
       ? 'Must be on or after the "From" date; not applied'
       : null;
 
-  const siteOptions = [
-    { value: ALL, label: 'All sites' },
-    ...(sites.data?.sites ?? []).map((s) => ({ value: s.id, label: s.name, hint: s.operatorName })),
-  ];
-  const operatorOptions = [
-    { value: ALL, label: 'All operators' },
-    ...operatorChoices(companies.data?.companies),
-  ];
-  const inspectorOptions = [
-    { value: ALL, label: 'All inspectors' },
-    ...(inspectors.data ?? []).map((i) => ({ value: i.id, label: i.name, hint: i.email })),
-  ];
-  const selectStyle = wide ? styles.selectWide : undefined;
-
-  const selects = (
-    <>
-      <View style={selectStyle}>
-        <SelectField
-          label="Site"
-          value={query.siteId ?? ALL}
-          options={siteOptions}
-          onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
-        />
-      </View>
-      <View style={selectStyle}>
-        <SelectField
-          label="Operator"
-          value={query.operatorId ?? ALL}
-          options={operatorOptions}
-          onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
-        />
-      </View>
-      <View style={selectStyle}>
-        <SelectField
-          label="Inspector"
-          value={query.inspectorId ?? ALL}
-          options={inspectorOptions}
-          onChange={(v) => filter({ inspectorId: v === ALL ? undefined : v })}
-        />
-      </View>
-    </>
-  );
+  const selects = <QueueSelects query={query} filter={filter} wide={wide} />;
 
   const sort = (
     <View style={wide ? styles.sortWide : undefined}>
@@ -219,6 +180,64 @@ export function QueueFilterPanel({
       filters={groups}
       phoneOnly={sort}
     />
+  );
+}
+
+/** Where and by whom: one site, operator or inspector at a time. */
+function QueueSelects({
+  query,
+  filter,
+  wide,
+}: {
+  query: Partial<QueueQuery>;
+  filter: (patch: QueuePatch) => void;
+  wide: boolean;
+}) {
+  const sites = useSiteListQuery({ pageSize: 200, sort: 'name' });
+  const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' });
+  const inspectors = useInspectorsQuery();
+
+  const siteOptions = [
+    { value: ALL, label: 'All sites' },
+    ...(sites.data?.sites ?? []).map((s) => ({ value: s.id, label: s.name, hint: s.operatorName })),
+  ];
+  const operatorOptions = [
+    { value: ALL, label: 'All operators' },
+    ...operatorChoices(companies.data?.companies),
+  ];
+  const inspectorOptions = [
+    { value: ALL, label: 'All inspectors' },
+    ...(inspectors.data ?? []).map((i) => ({ value: i.id, label: i.name, hint: i.email })),
+  ];
+  const selectStyle = wide ? styles.selectWide : undefined;
+
+  return (
+    <>
+      <View style={selectStyle}>
+        <SelectField
+          label="Site"
+          value={query.siteId ?? ALL}
+          options={siteOptions}
+          onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
+        />
+      </View>
+      <View style={selectStyle}>
+        <SelectField
+          label="Operator"
+          value={query.operatorId ?? ALL}
+          options={operatorOptions}
+          onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
+        />
+      </View>
+      <View style={selectStyle}>
+        <SelectField
+          label="Inspector"
+          value={query.inspectorId ?? ALL}
+          options={inspectorOptions}
+          onChange={(v) => filter({ inspectorId: v === ALL ? undefined : v })}
+        />
+      </View>
+    </>
   );
 }
 

@@ -69,18 +69,7 @@ export function RideStatusControl({
   );
   return (
     <View style={styles.box}>
-      <View style={styles.now}>
-        <Text variant="label" muted>
-          {rideName.toUpperCase()} NOW
-        </Text>
-        <RideStatusMark status={status} />
-        {status !== 'in_service' && statusReason ? <Text variant="small">{statusReason}</Text> : null}
-        {status !== 'in_service' ? (
-          <Text variant="small" muted>
-            Returns to service when its follow-up inspection is approved, or by a supervisor’s override.
-          </Text>
-        ) : null}
-      </View>
+      <StatusNow rideName={rideName} status={status} statusReason={statusReason} />
       {choices.length === 0 ? (
         <Text variant="small" muted>
           {status === 'in_service'
@@ -94,38 +83,12 @@ export function RideStatusControl({
             name="status"
             render={({ field, fieldState }) => (
               <FieldFrame label="Change the ride's status on its own" error={fieldState.error?.message}>
-                <View role="radiogroup" accessibilityLabel="Ride status" style={styles.choices}>
-                  {[{ status, override: false }, ...choices].map((c) => {
-                    const on = c.status === field.value;
-                    const label =
-                      c.status === status
-                        ? `${rideStatusLabel(c.status)} (no change)`
-                        : c.override
-                          ? `${rideStatusLabel(c.status)} (override)`
-                          : rideStatusLabel(c.status);
-                    return (
-                      <Pressable
-                        key={c.status}
-                        role="radio"
-                        aria-checked={on}
-                        accessibilityState={{ checked: on }}
-                        accessibilityLabel={label}
-                        onPress={() => field.onChange(c.status)}
-                        style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
-                      >
-                        <Text variant="label" color={on ? colors.base : colors.textMuted}>
-                          {on ? '●' : '○'}
-                        </Text>
-                        <RideStatusMark status={c.status} compact />
-                        {c.override ? (
-                          <Text variant="small" muted>
-                            override
-                          </Text>
-                        ) : null}
-                      </Pressable>
-                    );
-                  })}
-                </View>
+                <StatusRadios
+                  current={status}
+                  choices={choices}
+                  value={field.value}
+                  onChange={field.onChange}
+                />
               </FieldFrame>
             )}
           />
@@ -150,6 +113,80 @@ export function RideStatusControl({
           Saved: {rideName} is now {rideStatusLabel(saved).toLowerCase()}; the operator is sent a notice.
         </Text>
       ) : null}
+    </View>
+  );
+}
+
+/** The ride's status now, why, and how it returns to service. */
+function StatusNow({
+  rideName,
+  status,
+  statusReason,
+}: {
+  rideName: string;
+  status: RideStatus;
+  statusReason: string | null;
+}) {
+  return (
+    <View style={styles.now}>
+      <Text variant="label" muted>
+        {rideName.toUpperCase()} NOW
+      </Text>
+      <RideStatusMark status={status} />
+      {status !== 'in_service' && statusReason ? <Text variant="small">{statusReason}</Text> : null}
+      {status !== 'in_service' ? (
+        <Text variant="small" muted>
+          Returns to service when its follow-up inspection is approved, or by a supervisor’s override.
+        </Text>
+      ) : null}
+    </View>
+  );
+}
+
+/** The statuses offered: the current one (no change) first, then what the rules allow, overrides marked. */
+function StatusRadios({
+  current,
+  choices,
+  value,
+  onChange,
+}: {
+  current: RideStatus;
+  choices: ReturnType<typeof statusChoices>;
+  value: RideStatus;
+  onChange: (status: RideStatus) => void;
+}) {
+  return (
+    <View role="radiogroup" accessibilityLabel="Ride status" style={styles.choices}>
+      {[{ status: current, override: false }, ...choices].map((c) => {
+        const on = c.status === value;
+        const label =
+          c.status === current
+            ? `${rideStatusLabel(c.status)} (no change)`
+            : c.override
+              ? `${rideStatusLabel(c.status)} (override)`
+              : rideStatusLabel(c.status);
+        return (
+          <Pressable
+            key={c.status}
+            role="radio"
+            aria-checked={on}
+            accessibilityState={{ checked: on }}
+            accessibilityLabel={label}
+            onPress={() => onChange(c.status)}
+            style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
+          >
+            <Text variant="label" color={on ? colors.base : colors.textMuted}>
+              {on ? '●' : '○'}
+            </Text>
+            <RideStatusMark status={c.status} compact />
+            {c.override ? (
+              <Text variant="small" muted>
+                override
+              </Text>
+            ) : null}
+          </Pressable>
+        );
+      })}
     </View>
   );
 }
