@@ -1,0 +1,152 @@
+/**
+ * Load for the review-queue bench: the real server in a child process (so the load generator does not
+ * share its event loop), driven by autocannon over loopback, with the server's CPU time per request read
+ * from /proc.
+ */
+import { type ChildProcess, execFileSync, spawn } from 'node:child_process';
+import fs from 'node:fs';
+import net from 'node:net';
+import path from 'node:path';
+
+import autocannon from 'autocannon';
+
+export const CONNECTIONS = 50;
+
+export const fmt = (v: number, digits = 0) => v.toLocaleString('en', { maximumFractionDigits: digits });
+const percentile = (sorted: number[], p: number) =>
+  sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))] : NaN;
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export async function startServerProcess(dataDir: string): Promise<{ child: ChildProcess; base: string }> {
+  const port = await freePort();
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join(process.cwd(), 'server/main.ts')], {
+    env: {
+      ...process.env,
+      PORT: String(port),
+      DATA_DIR: dataDir,
+      WEB_DIR: path.join(dataDir, 'none'),
+      NODE_ENV: 'development',
+      SEED_DEMO: '0',
+      // One log line per request is written in production; the bench measures the queue, not the log.
+      LOG_LEVEL: 'warn',
+    },
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
+  let stderr = '';
+  child.stderr?.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+  const base = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 120_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`the server stopped at start:\n${stderr}`);
+    try {
+      if ((await fetch(`${base}/api/health`)).ok) return { child, base };
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) throw new Error(`the server did not start in time:\n${stderr}`);
+    await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+}
+
+const clockTicks = (() => {
+  try {
+    return Number(execFileSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).trim()) || 100;
+  } catch {
+    return 100;
+  }
+})();
+
+/** CPU time (user + system, ms) the process has used so far, from /proc; null where there is none. */
+function cpuMsOf(pid: number | undefined): number | null {
+  try {
+    const stat = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    // utime and stime are the 14th and 15th fields of the line, the 12th and 13th after the name.
+    return ((Number(fields[11]) + Number(fields[12])) / clockTicks) * 1000;
+  } catch {
+    return null;
+  }
+}
+
+export type Figures = {
+  p50: number;
+  p95: number;
+  p99: number;
+  rps: number;
+  requests: number;
+  bad: number;
+  bytes: number;
+  /** The server process's CPU time per request (µs), null where it cannot be read. */
+  serverCpuUs: number | null;
+};
+
+export async function drive(
+  base: string,
+  paths: string[],
+  headers: Record<string, string>,
+  seconds: number,
+  serverPid?: number,
+): Promise<Figures> {
+  const cpuBefore = cpuMsOf(serverPid);
+  const times: number[] = [];
+  let bad = 0;
+  let bytes = 0;
+  let next = 0;
+  const result = await new Promise<autocannon.Result>((resolve, reject) => {
+    const instance = autocannon(
+      {
+        url: base,
+        connections: CONNECTIONS,
+        duration: seconds,
+        headers,
+        requests: [
+          {
+            method: 'GET',
+            setupRequest: (request) => ({ ...request, path: paths[next++ % paths.length] }),
+          },
+        ],
+      },
+      (error: unknown, done) => (error ? reject(error) : resolve(done)),
+    );
+    instance.on('response', (_client, statusCode, resBytes, responseTime) => {
+      times.push(responseTime);
+      bytes += resBytes;
+      if (statusCode !== 200) bad++;
+    });
+  });
+  const cpuAfter = cpuMsOf(serverPid);
+  times.sort((a, b) => a - b);
+  return {
+    p50: percentile(times, 0.5),
+    p95: percentile(times, 0.95),
+    p99: percentile(times, 0.99),
+    rps: times.length / result.duration,
+    requests: times.length,
+    bad: bad + result.errors + result.timeouts,
+    bytes: times.length ? bytes / times.length : 0,
+    serverCpuUs:
+      cpuBefore === null || cpuAfter === null || !times.length
+        ? null
+        : ((cpuAfter - cpuBefore) * 1000) / times.length,
+  };
+}
+
+export function print(label: string, f: Figures) {
+  console.log(
+    `${label.padEnd(22)} p50 ${fmt(f.p50, 2)} ms  p95 ${fmt(f.p95, 2)} ms  p99 ${fmt(f.p99, 2)} ms  ${fmt(f.rps)} req/s  (${fmt(f.requests)} requests, ${f.bad} not 200, ${fmt(f.bytes / 1024, 1)} kB each)`,
+  );
+  if (f.serverCpuUs !== null)
+    console.log(
+      `${''.padEnd(22)} server CPU ${fmt(f.serverCpuUs)} µs per request: about ${fmt(1e6 / f.serverCpuUs)} req/s from one free core`,
+    );
+}

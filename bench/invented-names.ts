@@ -1,0 +1,88 @@
+/** Invented names for the review-queue bench's companies, sites, rides and inspectors. */
+import type { RideClass } from '@/features/rides/schema';
+
+export const placeWords = [
+  'Ashcombe',
+  'Brackwater',
+  'Cindervale',
+  'Dunmere',
+  'Eastwold',
+  'Fallowmere',
+  'Gorsebridge',
+  'Hollin',
+  'Ivelstone',
+  'Jessamy',
+  'Kestle',
+  'Larkmoor',
+  'Marlow Sands',
+  'Nethercott',
+  'Oakhythe',
+  'Pellworth',
+  'Quarrington',
+  'Rushmere',
+  'Saltcote',
+  'Thornby',
+  'Upwick',
+  'Vellacott',
+  'Wrenfold',
+  'Yarrowdale',
+];
+export const companyWords = ['Leisure', 'Amusements', 'Travelling Shows', 'Pleasure Grounds', 'Family Parks'];
+export const siteWords = [
+  'Pier',
+  'Promenade',
+  'Common',
+  'Fairfield',
+  'Gardens',
+  'Showground',
+  'Sands',
+  'Green',
+];
+export const rideFirst = [
+  'Silver',
+  'Copper',
+  'Midnight',
+  'Harbour',
+  'Tumbling',
+  'Rolling',
+  'Lantern',
+  'Saffron',
+  'Gull',
+  'Thistle',
+  'Corsair',
+  'Meadow',
+  'Cobalt',
+  'Ember',
+  'Marigold',
+  'Stormy',
+  'Juniper',
+  'Velvet',
+];
+export const rideSecond: Record<RideClass, string[]> = {
+  pendulum_swing: ['Swing', 'Pendulum', 'Rocker', 'Galleon'],
+  rotating_arm: ['Flyer', 'Spinner', 'Comet', 'Arm'],
+  wheel: ['Wheel', 'Ring', 'Halo'],
+  swing_carousel: ['Chairs', 'Carousel', 'Whirl'],
+  other: ['Kite', 'Twister', 'Drum'],
+};
+export const givenNames = [
+  'Alda',
+  'Bram',
+  'Cosima',
+  'Derwent',
+  'Elsa',
+  'Fenn',
+  'Greer',
+  'Hollis',
+  'Isolde',
+  'Jory',
+];
+export const familyNames = [
+  'Ashdown',
+  'Brightwell',
+  'Caddick',
+  'Dunstan',
+  'Eversley',
+  'Farrant',
+  'Gilchrist',
+];
