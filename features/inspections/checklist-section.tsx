@@ -1,38 +1,19 @@
-import { randomUUID } from 'expo-crypto';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';
-import {
-  type ReadingTarget,
-  enterChecklistValue,
-  sharedReadingTitle,
-} from '@/features/inspections/checklist-entry';
-import {
-  checklistValueStatus,
-  isGap,
-  readingLink,
-  resolveLimit,
-} from '@/features/inspections/checklist-limits';
-import type { Draft } from '@/features/inspections/draft';
-import { type CheckResult, checkResultLabel } from '@/features/inspections/schema';
-import {
-  MeasuredWithPicker,
-  type MeasuredWith,
-  measuredWithProblem,
-  nothingChosen,
-  snapshotOf,
-} from '@/features/instruments/measured-with';
-import { type Instrument, measuredWithWords, utcDate } from '@/features/instruments/schema';
+import { checklistValueStatus, isGap } from '@/features/records';
+import { ChecklistValue } from '@/features/inspections/checklist-value';
+import type { Draft } from '@/features/records';
+import { type CheckResult, checkResultLabel } from '@/features/records/schema';
+import type { Instrument } from '@/features/instruments/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
-import { type UnitSystem, displayUnits, fromSI, toSI } from '@/lib/units';
-import { formatAgainstLimit, formatLimitOnly, formatTyped, normaliseEntered } from '@/lib/measured-format';
+import type { UnitSystem } from '@/lib/units';
 
 type Props = {
   draft: Draft;
@@ -138,74 +119,11 @@ function ItemCard({
   const [noteOpen, setNoteOpen] = useState(!!answer.note);
   // Asked for when Pass is chosen on a value over its limit; kept open while the answer is such a Pass.
   const [reasonAsked, setReasonAsked] = useState(false);
-  const [measured, setMeasured] = useState<MeasuredWith>(nothingChosen);
-  const [measuredError, setMeasuredError] = useState<string | undefined>();
-  const kind = item?.measurementKind && item.measurementKind !== 'count' ? item.measurementKind : null;
-  const unit = kind ? displayUnits(kind, system)[0] : null;
-  // The inspector's own digits come back as typed ("0.40", never "0.40000").
-  const [valueText, setValueText] = useState(() =>
-    answer.measurement?.entered && answer.measurement.unit === (unit?.label ?? answer.measurement.unit)
-      ? answer.measurement.entered
-      : answer.measurement && unit && kind
-        ? formatTyped(fromSI(answer.measurement.valueSI, kind, unit.mathjs))
-        : answer.measurement
-          ? String(answer.measurement.valueSI)
-          : '',
-  );
-  // Shared only where the ride has that pivot: a reading must belong to one of its joints.
-  const linked = item && onDraft ? readingLink(item) : null;
-  const link = linked && design?.pivots.some((p) => p.joint === linked.joint) ? linked : null;
-  const target: ReadingTarget | null = link
-    ? {
-        ...link,
-        label: `${design?.bodies[link.joint]?.name ?? `Pivot ${link.joint + 1}`}: ${sharedReadingTitle[link.kind] ?? link.kind}`,
-      }
-    : null;
-  const resolved = item ? resolveLimit(item, design) : null;
   const check =
     item && answer.measurement ? checklistValueStatus(item, design, answer.measurement.valueSI) : null;
   const status = check && !isGap(check) ? check.status : null;
   const over = status === 'over';
 
-  /** The value and, for a shared quantity, its reading, in one change. */
-  const store = (
-    measurement: Omit<NonNullable<Answer['measurement']>, 'readingId'> | null,
-    by = measured,
-  ) => {
-    if (!target || !onDraft) return onAnswer({ measurement });
-    const ready = measuredWithProblem(by, utcDate(new Date())) === null && by.method;
-    const measuredBy =
-      ready && by.method
-        ? { method: by.method, instrument: by.instrument ? snapshotOf(by.instrument) : null }
-        : null;
-    onDraft((d) =>
-      enterChecklistValue(d, {
-        itemId: answer.itemId,
-        measurement,
-        target,
-        measuredBy,
-        now: new Date(),
-        newId: randomUUID,
-      }),
-    );
-  };
-  const measurementOf = (text: string) => {
-    const entered = normaliseEntered(text);
-    const v = Number(entered);
-    if (entered === null || !Number.isFinite(v)) return null;
-    const valueSI = kind && unit ? toSI(v, kind, unit.mathjs) : v;
-    const seen = item ? checklistValueStatus(item, design, valueSI) : null;
-    return {
-      valueSI,
-      unit: kind && unit ? unit.label : (item?.measurementLabel ?? ''),
-      entered,
-      ...(seen && !isGap(seen) ? { status: seen.status } : {}),
-    };
-  };
-  const saveValue = (text: string) => {
-    setValueText(text);
-    store(measurementOf(text));
-  };
   const choose = (r: CheckResult) => {
     const selected = answer.result === r;
     if (r === 'pass' && !selected && over && !answer.overLimitReason?.trim()) {
@@ -220,19 +138,6 @@ function ItemCard({
     }
   };
   const askReason = over && (reasonAsked || answer.result === 'pass');
-  const shown =
-    check && !isGap(check) && answer.measurement
-      ? formatAgainstLimit(
-          answer.measurement.valueSI,
-          check.resolved.limit,
-          check.resolved.quantity,
-          system,
-          {
-            entered: answer.measurement.entered,
-            unit: answer.measurement.unit,
-          },
-        )
-      : null;
 
   return (
     <Card style={answer.result === 'fail' || over ? styles.failed : undefined}>
@@ -252,123 +157,32 @@ function ItemCard({
             .join(' · ')}
         </Text>
       ) : null}
-      <View style={styles.results} role="radiogroup" accessibilityLabel={`Result for ${answer.text}`}>
-        {(['pass', 'fail', 'na'] as const).map((r) => {
-          const selected = answer.result === r;
-          return (
-            <Pressable
-              key={r}
-              role="radio"
-              aria-checked={selected}
-              accessibilityLabel={`${checkResultLabel[r]}: ${answer.text}`}
-              onPress={() => choose(r)}
-              style={StyleSheet.flatten([
-                styles.result,
-                selected && { backgroundColor: resultStyle[r].bg, borderColor: resultStyle[r].bg },
-              ])}
-            >
-              <Text variant="heading" color={selected ? resultStyle[r].fg : colors.text}>
-                {r === 'na' ? 'N/A' : checkResultLabel[r]}
-              </Text>
-            </Pressable>
-          );
-        })}
-      </View>
-      {item?.measurementRequired || answer.measurement ? (
-        <TextField
-          label={item?.measurementLabel ?? 'Measured value'}
-          unit={unit?.label ?? item?.measurementLabel ?? undefined}
-          value={valueText}
-          onChangeText={saveValue}
-          inputMode="decimal"
-          hint={
-            resolved && !isGap(resolved) && !shown
-              ? `Limit ${formatLimitOnly(resolved.limit, resolved.quantity, system)} (${resolved.source})`
-              : undefined
-          }
-        />
-      ) : null}
-      {shown && status ? (
-        <View style={styles.status} accessibilityLiveRegion="polite">
-          <EnvelopeMark status={status} />
-          <Text variant="small" style={styles.statusText}>
-            <Text variant="figure">{shown.value}</Text> against {shown.limit}
-            <Text variant="small" muted>
-              {' '}
-              ({check && !isGap(check) ? check.resolved.source : ''})
-            </Text>
-          </Text>
-        </View>
-      ) : null}
-      {check && isGap(check) ? (
-        <Text variant="small" color={colors.near}>
-          Not checked: {check.gap}.
-        </Text>
-      ) : null}
-      {target && answer.measurement ? (
-        reading ? (
-          <Text variant="small" muted>
-            Kept as the reading “{reading.label}” · {measuredWithWords(reading)}
-          </Text>
-        ) : (
-          <View style={styles.measured}>
-            <Text variant="small">
-              This value is also the pivot’s reading. Say how it was measured to keep it there.
-            </Text>
-            <MeasuredWithPicker
-              kind={target.kind}
-              instruments={instruments}
-              today={utcDate(new Date())}
-              value={measured}
-              onChange={(m) => {
-                setMeasured(m);
-                const problem = measuredWithProblem(m, utcDate(new Date()));
-                setMeasuredError(m.method && m.instrument !== undefined ? (problem ?? undefined) : undefined);
-                if (!problem) store(measurementOf(valueText), m);
-              }}
-              error={measuredError}
-            />
-          </View>
-        )
-      ) : null}
+      <ResultChoice answer={answer} onChoose={choose} />
+      <ChecklistValue
+        answer={answer}
+        item={item}
+        system={system}
+        onAnswer={onAnswer}
+        design={design}
+        instruments={instruments}
+        reading={reading}
+        onDraft={onDraft}
+        check={check}
+      />
       {askReason ? (
-        <View style={styles.reason} role="alert">
-          <Text variant="heading" color={colors.over}>
-            Over its limit
-          </Text>
-          <Text variant="small">
-            Mark it Fail, or say why this item still passes. Your reason goes with the record to the reviewer.
-          </Text>
-          <TextField
-            label="Reason for passing a value over its limit"
-            value={answer.overLimitReason ?? ''}
-            onChangeText={(overLimitReason) => onAnswer({ overLimitReason })}
-            multiline
-            error={
-              answer.result === 'pass' && !answer.overLimitReason?.trim() ? 'A reason is needed' : undefined
-            }
-          />
-          <View style={styles.reasonActions}>
-            <Button
-              label="Pass with this reason"
-              tone="quiet"
-              disabled={!answer.overLimitReason?.trim()}
-              onPress={() => {
-                onAnswer({ result: 'pass' });
-                setReasonAsked(false);
-              }}
-            />
-            <Button
-              label="Mark Fail"
-              tone="accent"
-              onPress={() => {
-                onAnswer({ result: 'fail' });
-                setNoteOpen(true);
-                setReasonAsked(false);
-              }}
-            />
-          </View>
-        </View>
+        <OverLimitReason
+          answer={answer}
+          onAnswer={onAnswer}
+          onPass={() => {
+            onAnswer({ result: 'pass' });
+            setReasonAsked(false);
+          }}
+          onFail={() => {
+            onAnswer({ result: 'fail' });
+            setNoteOpen(true);
+            setReasonAsked(false);
+          }}
+        />
       ) : null}
       {item?.photoRequired || answer.result === 'fail' ? (
         <Button
@@ -396,6 +210,74 @@ function ItemCard({
   );
 }
 
+/** Pass, fail or not applicable, as one radio group; choosing the selected answer again clears it. */
+function ResultChoice({ answer, onChoose }: { answer: Answer; onChoose: (r: CheckResult) => void }) {
+  return (
+    <View style={styles.results} role="radiogroup" accessibilityLabel={`Result for ${answer.text}`}>
+      {(['pass', 'fail', 'na'] as const).map((r) => {
+        const selected = answer.result === r;
+        return (
+          <Pressable
+            key={r}
+            role="radio"
+            aria-checked={selected}
+            accessibilityLabel={`${checkResultLabel[r]}: ${answer.text}`}
+            onPress={() => onChoose(r)}
+            style={StyleSheet.flatten([
+              styles.result,
+              selected && { backgroundColor: resultStyle[r].bg, borderColor: resultStyle[r].bg },
+            ])}
+          >
+            <Text variant="heading" color={selected ? resultStyle[r].fg : colors.text}>
+              {r === 'na' ? 'N/A' : checkResultLabel[r]}
+            </Text>
+          </Pressable>
+        );
+      })}
+    </View>
+  );
+}
+
+/** A value over its limit marked Pass: the inspector gives the reason, or marks the item Fail. */
+function OverLimitReason({
+  answer,
+  onAnswer,
+  onPass,
+  onFail,
+}: {
+  answer: Answer;
+  onAnswer: (patch: Partial<Answer>) => void;
+  onPass: () => void;
+  onFail: () => void;
+}) {
+  return (
+    <View style={styles.reason} role="alert">
+      <Text variant="heading" color={colors.over}>
+        Over its limit
+      </Text>
+      <Text variant="small">
+        Mark it Fail, or say why this item still passes. Your reason goes with the record to the reviewer.
+      </Text>
+      <TextField
+        label="Reason for passing a value over its limit"
+        value={answer.overLimitReason ?? ''}
+        onChangeText={(overLimitReason) => onAnswer({ overLimitReason })}
+        multiline
+        error={answer.result === 'pass' && !answer.overLimitReason?.trim() ? 'A reason is needed' : undefined}
+      />
+      <View style={styles.reasonActions}>
+        <Button
+          label="Pass with this reason"
+          tone="quiet"
+          disabled={!answer.overLimitReason?.trim()}
+          onPress={onPass}
+        />
+        <Button label="Mark Fail" tone="accent" onPress={onFail} />
+      </View>
+    </View>
+  );
+}
+
 const styles = StyleSheet.create({
   root: { gap: space.xl },
   area: { gap: space.sm },
@@ -412,9 +294,6 @@ const styles = StyleSheet.create({
     backgroundColor: colors.surface,
   },
   addNote: { minHeight: 36, justifyContent: 'center' },
-  status: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
-  statusText: { flexShrink: 1 },
-  measured: { gap: space.sm },
   reason: {
     gap: space.sm,
     padding: space.md,
