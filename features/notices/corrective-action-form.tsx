@@ -12,7 +12,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { capturePhoto } from '@/features/photos/photo-capture';
+import { capturePhoto } from '@/features/photos';
 import { putEvidencePhoto, useReportAction } from '@/features/notices/notices-api';
 import { type NoticeFinding, correctiveActionInputSchema } from '@/features/notices/schema';
 
@@ -57,10 +57,97 @@ export function CorrectiveActionForm({
   const report = useReportAction(noticeId, userName);
   const [note, setNote] = useState('');
   const [noteError, setNoteError] = useState<string | undefined>();
-  const [photos, setPhotos] = useState<Picked[]>([]);
-  const [picking, setPicking] = useState(false);
   const [problem, setProblem] = useState<FormProblem | null>(null);
   const [sending, setSending] = useState(false);
+  const { photos, setPhotos, picking, upload, pick, remove } = useEvidencePhotos(setProblem);
+
+  const submit = async () => {
+    setProblem(null);
+    const input = { note, photoShas: photos.map((p) => p.sha256) };
+    const checked = correctiveActionInputSchema.safeParse(input);
+    if (!checked.success) {
+      const noteIssue = checked.error.issues.find((i) => i.path[0] === 'note');
+      setNoteError(noteIssue?.message);
+      const other = checked.error.issues.filter((i) => i.path[0] !== 'note');
+      if (other.length > 0) setProblem({ message: other[0].message });
+      return;
+    }
+    setNoteError(undefined);
+    setSending(true);
+    try {
+      try {
+        // One at a time: a phone on a weak signal does better with one stream.
+        for (const p of photos) await upload(p);
+      } catch (err) {
+        setProblem({
+          message: 'A photo could not be uploaded, so nothing was sent.',
+          details: [problemText(err), 'Try again, or remove that photo.'],
+        });
+        return;
+      }
+      await report.mutateAsync({ findingId: finding.id, input: checked.data });
+      setNote('');
+      setPhotos([]);
+      onDone();
+    } catch (err) {
+      if (err instanceof ApiRequestError && err.issues.length > 0) {
+        const noteIssue = err.issues.find((i) => i.path === 'note');
+        if (noteIssue) setNoteError(noteIssue.message);
+        setProblem({
+          message: err.message,
+          details: err.issues
+            .filter((i) => i.path !== 'note')
+            .map((i) => {
+              const index = /^photoShas\.(\d+)$/.exec(i.path);
+              return index ? `Photo ${Number(index[1]) + 1}: ${i.message}` : i.message;
+            }),
+        });
+      } else setProblem({ message: problemText(err) });
+    } finally {
+      setSending(false);
+    }
+  };
+
+  return (
+    <View style={styles.form} accessibilityLabel={`Corrective action for finding ${finding.number}`}>
+      <Text variant="heading">Report corrective action</Text>
+      <TextField
+        label="What was done"
+        value={note}
+        onChangeText={(t) => {
+          setNote(t);
+          if (noteError) setNoteError(undefined);
+        }}
+        multiline
+        numberOfLines={4}
+        style={styles.note}
+        error={noteError}
+        hint="What was repaired or replaced, by whom, and how it was checked."
+      />
+      <EvidencePhotos
+        photos={photos}
+        picking={picking}
+        sending={sending}
+        onPick={pick}
+        onRetry={(p) => upload(p).catch(() => undefined)}
+        onRemove={remove}
+      />
+      <FormAlert problem={problem} />
+      <View style={styles.buttons}>
+        <Button label="Send corrective action" tone="accent" onPress={submit} busy={sending} />
+        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={sending} />
+      </View>
+    </View>
+  );
+}
+
+/**
+ * The evidence photos of one action: each is taken or chosen, compressed on the device, hashed (SHA-256)
+ * and its upload started at once; the form's send waits for every upload.
+ */
+function useEvidencePhotos(setProblem: (problem: FormProblem | null) => void) {
+  const [photos, setPhotos] = useState<Picked[]>([]);
+  const [picking, setPicking] = useState(false);
   const uploads = useRef(new Map<string, Promise<void>>());
 
   const mark = (sha: string, change: Partial<Picked>) =>
@@ -116,83 +203,41 @@ export function CorrectiveActionForm({
 
   const remove = (sha: string) => setPhotos((list) => list.filter((p) => p.sha256 !== sha));
 
-  const submit = async () => {
-    setProblem(null);
-    const input = { note, photoShas: photos.map((p) => p.sha256) };
-    const checked = correctiveActionInputSchema.safeParse(input);
-    if (!checked.success) {
-      const noteIssue = checked.error.issues.find((i) => i.path[0] === 'note');
-      setNoteError(noteIssue?.message);
-      const other = checked.error.issues.filter((i) => i.path[0] !== 'note');
-      if (other.length > 0) setProblem({ message: other[0].message });
-      return;
-    }
-    setNoteError(undefined);
-    setSending(true);
-    try {
-      try {
-        // One at a time: a phone on a weak signal does better with one stream.
-        for (const p of photos) await upload(p);
-      } catch (err) {
-        setProblem({
-          message: 'A photo could not be uploaded, so nothing was sent.',
-          details: [problemText(err), 'Try again, or remove that photo.'],
-        });
-        return;
-      }
-      await report.mutateAsync({ findingId: finding.id, input: checked.data });
-      setNote('');
-      setPhotos([]);
-      onDone();
-    } catch (err) {
-      if (err instanceof ApiRequestError && err.issues.length > 0) {
-        const noteIssue = err.issues.find((i) => i.path === 'note');
-        if (noteIssue) setNoteError(noteIssue.message);
-        setProblem({
-          message: err.message,
-          details: err.issues
-            .filter((i) => i.path !== 'note')
-            .map((i) => {
-              const index = /^photoShas\.(\d+)$/.exec(i.path);
-              return index ? `Photo ${Number(index[1]) + 1}: ${i.message}` : i.message;
-            }),
-        });
-      } else setProblem({ message: problemText(err) });
-    } finally {
-      setSending(false);
-    }
-  };
+  return { photos, setPhotos, picking, upload, pick, remove };
+}
 
+/** Buttons to add evidence photos, and each photo with its upload state, a retry and a remove. */
+function EvidencePhotos({
+  photos,
+  picking,
+  sending,
+  onPick,
+  onRetry,
+  onRemove,
+}: {
+  photos: Picked[];
+  picking: boolean;
+  sending: boolean;
+  onPick: (source: 'camera' | 'library') => void;
+  onRetry: (photo: Picked) => void;
+  onRemove: (sha: string) => void;
+}) {
   const full = photos.length >= MAX_PHOTOS;
   return (
-    <View style={styles.form} accessibilityLabel={`Corrective action for finding ${finding.number}`}>
-      <Text variant="heading">Report corrective action</Text>
-      <TextField
-        label="What was done"
-        value={note}
-        onChangeText={(t) => {
-          setNote(t);
-          if (noteError) setNoteError(undefined);
-        }}
-        multiline
-        numberOfLines={4}
-        style={styles.note}
-        error={noteError}
-        hint="What was repaired or replaced, by whom, and how it was checked."
-      />
+    <>
       <View style={styles.pickRow}>
         <Button
           label="Take a photo"
           tone="quiet"
           icon={<Feather name="camera" size={18} color={colors.text} />}
-          onPress={() => pick('camera')}
+          onPress={() => onPick('camera')}
           disabled={picking || sending || full}
         />
         <Button
           label="Choose from library"
           tone="quiet"
           icon={<Feather name="image" size={18} color={colors.text} />}
-          onPress={() => pick('library')}
+          onPress={() => onPick('library')}
           disabled={picking || sending || full}
         />
       </View>
@@ -224,31 +269,21 @@ export function CorrectiveActionForm({
                       : `Upload failed: ${p.error ?? 'try again'}`}
                 </Text>
                 {p.status === 'failed' ? (
-                  <Button
-                    label="Try again"
-                    tone="quiet"
-                    onPress={() => upload(p).catch(() => undefined)}
-                    disabled={sending}
-                  />
+                  <Button label="Try again" tone="quiet" onPress={() => onRetry(p)} disabled={sending} />
                 ) : null}
               </View>
               <IconButton
                 icon="trash-2"
                 tone="danger"
                 label={`Remove photo ${i + 1}`}
-                onPress={() => remove(p.sha256)}
+                onPress={() => onRemove(p.sha256)}
                 disabled={sending}
               />
             </View>
           ))}
         </View>
       ) : null}
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label="Send corrective action" tone="accent" onPress={submit} busy={sending} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={sending} />
-      </View>
-    </View>
+    </>
   );
 }
 

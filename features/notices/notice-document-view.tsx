@@ -11,7 +11,7 @@ import { useWide } from '@/components/use-wide';
 import { NoticePhotos } from '@/features/notices/notice-photos';
 import { noticeKindLabel } from '@/features/notices/notice-text';
 import type { NoticeDocument } from '@/features/notices/schema';
-import { formatRatio } from '@/features/loads/format';
+import { formatRatio } from '@/features/loads';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import { SeverityMark } from '@/features/notices/severity-mark';
 
@@ -23,126 +23,189 @@ type Load = NoticeDocument['loadSummary'][number];
  * PDF. Nothing here reads the findings as they stand now; the finding loop beside it does that.
  */
 export function NoticeDocumentView({ document: doc }: { document: NoticeDocument }) {
-  const wide = useWide();
   const inspection = doc.inspection;
-  const rideLine = [doc.ride.maker, doc.ride.model].filter(Boolean).join(' ');
   return (
     <Card style={styles.card} accessibilityLabel={`Notice ${doc.reference} as issued`}>
-      <View style={StyleSheet.flatten([styles.top, wide && styles.topWide])}>
-        <View style={wide ? styles.grow : undefined}>
-          <Text variant="heading">{doc.issuer.name}</Text>
-          {doc.issuer.address ? (
-            <Text variant="small" muted>
-              {doc.issuer.address}
-            </Text>
-          ) : null}
-          {doc.issuer.phone ? (
-            <Text variant="small" muted>
-              {doc.issuer.phone}
-            </Text>
-          ) : null}
-        </View>
-        <View style={wide ? styles.refWide : undefined}>
-          <Text variant="label" muted>
-            {noticeKindLabel[doc.kind].toUpperCase()}
-          </Text>
-          <Text variant="figureLarge">{doc.reference}</Text>
-          <Text variant="small" muted>
-            Issued {formatDateTime(doc.issuedAt)}
-          </Text>
-        </View>
-      </View>
+      <IssuerHead doc={doc} />
 
       <Section title="To">
         <Text variant="heading">{doc.operator.name}</Text>
         {doc.operator.address ? <Text variant="small">{doc.operator.address}</Text> : null}
       </Section>
 
-      <Section title="Ride">
-        <Facts>
-          <Fact label="Ride" value={doc.ride.name} />
-          <Fact label="Class" value={doc.ride.rideClass} />
-          {rideLine ? <Fact label="Maker and model" value={rideLine} /> : null}
-          {doc.ride.serial ? <Fact label="Serial number" value={doc.ride.serial} /> : null}
-          {doc.ride.year !== null ? <Fact label="Year built" value={String(doc.ride.year)} /> : null}
-          <Fact
-            label="Site"
-            value={
-              doc.site ? [doc.site.name, doc.site.address].filter(Boolean).join(', ') : 'No site recorded'
-            }
-          />
-        </Facts>
-      </Section>
+      <RideFacts doc={doc} />
 
-      {inspection ? (
-        <Section title="Inspection">
-          <Facts>
-            <Fact label="Type" value={inspection.typeLabel} />
-            <Fact label="Date" value={formatDate(inspection.date)} />
-            <Fact
-              label="Inspector"
-              value={
-                inspection.inspectorCredential
-                  ? `${inspection.inspectorName} (${inspection.inspectorCredential})`
-                  : inspection.inspectorName
-              }
-            />
-            {inspection.designVersion !== null ? (
-              <Fact label="Design data" value={`Version ${inspection.designVersion}`} />
-            ) : null}
-            {inspection.engineVersion ? <Fact label="Load engine" value={inspection.engineVersion} /> : null}
-            {doc.checklist ? (
-              <Fact
-                label="Checklist"
-                value={`${doc.checklist.failed} of ${doc.checklist.total} items failed`}
-              />
-            ) : null}
-          </Facts>
+      {inspection ? <InspectionFacts doc={doc} inspection={inspection} /> : null}
+
+      <OperatingStatus doc={doc} />
+
+      <FindingsAsIssued findings={doc.findings} />
+
+      <ResultsAsIssued doc={doc} />
+
+      {doc.note ? (
+        <Section title="Note from the inspection body">
+          <Text>{doc.note}</Text>
         </Section>
       ) : null}
 
-      <Section title="Operating status">
-        <View style={styles.statusRow}>
-          <RideStatusMark status={doc.operatingStatus.status} />
-          {doc.operatingStatus.reason ? <Text style={styles.grow}>{doc.operatingStatus.reason}</Text> : null}
-        </View>
+      <Section title="Signed">
         <Text>
-          <Text variant="label" muted>
-            RE-INSPECTION{' '}
-          </Text>
-          {doc.reinspection.required ? 'Required' : 'Not required'}
-          {doc.reinspection.reason ? ` — ${doc.reinspection.reason}` : ''}
+          {doc.signature.name}, {doc.signature.role} — {formatDateTime(doc.signature.signedAt)}
         </Text>
       </Section>
 
-      {doc.findings.length > 0 ? (
-        <Section title={`Findings (${doc.findings.length})`}>
-          <View style={styles.findings} role="list" accessibilityLabel="Findings as issued">
-            {doc.findings.map((f) => (
-              <View
-                key={f.id}
-                style={styles.finding}
-                role="listitem"
-                accessibilityLabel={`Finding ${f.number} as issued`}
-              >
-                <View style={styles.findingHead}>
-                  <Text variant="heading">Finding {f.number}</Text>
-                  <SeverityMark severity={f.severity} compact />
-                </View>
-                <Text>{f.description}</Text>
-                {f.ruleRef ? <LabelledLine label="Breaches" value={f.ruleRef} /> : null}
-                {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
-                <LabelledLine label="Due" value={f.dueOn ? formatDate(f.dueOn) : 'No due date'} />
-                <NoticePhotos
-                  photos={f.photos}
-                  label={`Photos of finding ${f.number} (${f.photos.length})`}
-                />
-              </View>
-            ))}
-          </View>
-        </Section>
-      ) : null}
+      <Section title="If you disagree">
+        <Text variant="small">{doc.appeal}</Text>
+      </Section>
 
+      <Caution full />
+      {doc.caution !== CAUTION_FULL ? (
+        <View style={styles.printed}>
+          <Text variant="label" muted>
+            CAUTION AS PRINTED ON THIS NOTICE
+          </Text>
+          <Text variant="small">{doc.caution}</Text>
+        </View>
+      ) : null}
+    </Card>
+  );
+}
+
+/** Who issued the notice, and its kind, reference and time of issue. */
+function IssuerHead({ doc }: { doc: NoticeDocument }) {
+  const wide = useWide();
+  return (
+    <View style={StyleSheet.flatten([styles.top, wide && styles.topWide])}>
+      <View style={wide ? styles.grow : undefined}>
+        <Text variant="heading">{doc.issuer.name}</Text>
+        {doc.issuer.address ? (
+          <Text variant="small" muted>
+            {doc.issuer.address}
+          </Text>
+        ) : null}
+        {doc.issuer.phone ? (
+          <Text variant="small" muted>
+            {doc.issuer.phone}
+          </Text>
+        ) : null}
+      </View>
+      <View style={wide ? styles.refWide : undefined}>
+        <Text variant="label" muted>
+          {noticeKindLabel[doc.kind].toUpperCase()}
+        </Text>
+        <Text variant="figureLarge">{doc.reference}</Text>
+        <Text variant="small" muted>
+          Issued {formatDateTime(doc.issuedAt)}
+        </Text>
+      </View>
+    </View>
+  );
+}
+
+function RideFacts({ doc }: { doc: NoticeDocument }) {
+  const rideLine = [doc.ride.maker, doc.ride.model].filter(Boolean).join(' ');
+  return (
+    <Section title="Ride">
+      <Facts>
+        <Fact label="Ride" value={doc.ride.name} />
+        <Fact label="Class" value={doc.ride.rideClass} />
+        {rideLine ? <Fact label="Maker and model" value={rideLine} /> : null}
+        {doc.ride.serial ? <Fact label="Serial number" value={doc.ride.serial} /> : null}
+        {doc.ride.year !== null ? <Fact label="Year built" value={String(doc.ride.year)} /> : null}
+        <Fact
+          label="Site"
+          value={doc.site ? [doc.site.name, doc.site.address].filter(Boolean).join(', ') : 'No site recorded'}
+        />
+      </Facts>
+    </Section>
+  );
+}
+
+function InspectionFacts({
+  doc,
+  inspection,
+}: {
+  doc: NoticeDocument;
+  inspection: NonNullable<NoticeDocument['inspection']>;
+}) {
+  return (
+    <Section title="Inspection">
+      <Facts>
+        <Fact label="Type" value={inspection.typeLabel} />
+        <Fact label="Date" value={formatDate(inspection.date)} />
+        <Fact
+          label="Inspector"
+          value={
+            inspection.inspectorCredential
+              ? `${inspection.inspectorName} (${inspection.inspectorCredential})`
+              : inspection.inspectorName
+          }
+        />
+        {inspection.designVersion !== null ? (
+          <Fact label="Design data" value={`Version ${inspection.designVersion}`} />
+        ) : null}
+        {inspection.engineVersion ? <Fact label="Load engine" value={inspection.engineVersion} /> : null}
+        {doc.checklist ? (
+          <Fact label="Checklist" value={`${doc.checklist.failed} of ${doc.checklist.total} items failed`} />
+        ) : null}
+      </Facts>
+    </Section>
+  );
+}
+
+/** The ride's operating status and whether it must be inspected again, as the notice states them. */
+function OperatingStatus({ doc }: { doc: NoticeDocument }) {
+  return (
+    <Section title="Operating status">
+      <View style={styles.statusRow}>
+        <RideStatusMark status={doc.operatingStatus.status} />
+        {doc.operatingStatus.reason ? <Text style={styles.grow}>{doc.operatingStatus.reason}</Text> : null}
+      </View>
+      <Text>
+        <Text variant="label" muted>
+          RE-INSPECTION{' '}
+        </Text>
+        {doc.reinspection.required ? 'Required' : 'Not required'}
+        {doc.reinspection.reason ? ` — ${doc.reinspection.reason}` : ''}
+      </Text>
+    </Section>
+  );
+}
+
+/** The findings with their photos, as issued (not as they stand now). */
+function FindingsAsIssued({ findings }: { findings: NoticeDocument['findings'] }) {
+  if (findings.length === 0) return null;
+  return (
+    <Section title={`Findings (${findings.length})`}>
+      <View style={styles.findings} role="list" accessibilityLabel="Findings as issued">
+        {findings.map((f) => (
+          <View
+            key={f.id}
+            style={styles.finding}
+            role="listitem"
+            accessibilityLabel={`Finding ${f.number} as issued`}
+          >
+            <View style={styles.findingHead}>
+              <Text variant="heading">Finding {f.number}</Text>
+              <SeverityMark severity={f.severity} compact />
+            </View>
+            <Text>{f.description}</Text>
+            {f.ruleRef ? <LabelledLine label="Breaches" value={f.ruleRef} /> : null}
+            {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
+            <LabelledLine label="Due" value={f.dueOn ? formatDate(f.dueOn) : 'No due date'} />
+            <NoticePhotos photos={f.photos} label={`Photos of finding ${f.number} (${f.photos.length})`} />
+          </View>
+        ))}
+      </View>
+    </Section>
+  );
+}
+
+/** The results against design limits and the peak pivot loads the notice was issued with. */
+function ResultsAsIssued({ doc }: { doc: NoticeDocument }) {
+  return (
+    <>
       {doc.results.length > 0 ? (
         <Section title="Results against design limits">
           <DataTable<Result>
@@ -179,33 +242,7 @@ export function NoticeDocumentView({ document: doc }: { document: NoticeDocument
           />
         </Section>
       ) : null}
-
-      {doc.note ? (
-        <Section title="Note from the inspection body">
-          <Text>{doc.note}</Text>
-        </Section>
-      ) : null}
-
-      <Section title="Signed">
-        <Text>
-          {doc.signature.name}, {doc.signature.role} — {formatDateTime(doc.signature.signedAt)}
-        </Text>
-      </Section>
-
-      <Section title="If you disagree">
-        <Text variant="small">{doc.appeal}</Text>
-      </Section>
-
-      <Caution full />
-      {doc.caution !== CAUTION_FULL ? (
-        <View style={styles.printed}>
-          <Text variant="label" muted>
-            CAUTION AS PRINTED ON THIS NOTICE
-          </Text>
-          <Text variant="small">{doc.caution}</Text>
-        </View>
-      ) : null}
-    </Card>
+    </>
   );
 }
 
