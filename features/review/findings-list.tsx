@@ -58,98 +58,132 @@ export function FindingsList({
               {editor}
             </View>
           );
-        const pastDue = f.dueOn !== null && f.state !== 'closed' && f.dueOn < today;
         return (
-          <View
+          <FindingRow
             key={f.id}
-            role="listitem"
-            accessibilityLabel={`Finding ${f.number}`}
-            style={StyleSheet.flatten([styles.row, f.saving && styles.saving])}
-          >
-            <View style={styles.head}>
-              <Text variant="figure" style={styles.number}>
-                {f.number}
-              </Text>
-              <SeverityMark severity={f.severity} compact />
-              {!editable || f.state !== 'open' ? <FindingStateMark state={f.state} /> : null}
-              {f.saving ? (
-                <Text variant="label" color={colors.focus} accessibilityLiveRegion="polite">
-                  Saving…
-                </Text>
-              ) : null}
-              <View style={styles.spacer} />
-              {editable && !f.saving ? (
-                <View style={styles.actions}>
-                  <IconButton icon="edit-2" label={`Edit finding ${f.number}`} onPress={() => onEdit(f)} />
-                  <IconButton
-                    icon="trash-2"
-                    tone="danger"
-                    label={`Delete finding ${f.number}`}
-                    onPress={() => setConfirming(f.id)}
-                  />
-                </View>
-              ) : null}
-            </View>
-            <Text>{f.description}</Text>
-            {f.ruleRef ? <LabelledLine label="Breaches" value={f.ruleRef} /> : null}
-            {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
-            {f.dueOn ? (
-              <LabelledLine
-                label="Due"
-                value={pastDue ? `${formatDate(f.dueOn)} — past due` : formatDate(f.dueOn)}
-                color={pastDue ? colors.danger : undefined}
-              />
-            ) : null}
-            {f.photoShas.length > 0 ? (
-              <LabelledLine
-                label="Photos"
-                value={f.photoShas.map((sha) => photoName(photos, sha)).join(' · ')}
-              />
-            ) : null}
-            {f.state === 'closed' && f.closedAt ? (
-              <LabelledLine
-                label="Closed"
-                value={`${formatDateTime(f.closedAt)}${f.closedByName ? ` by ${f.closedByName}` : ''}`}
-              />
-            ) : null}
-            {f.stateNote ? <LabelledLine label="Comment" value={f.stateNote} /> : null}
-            {f.state === 'action_reported' && actionHref ? (
-              <Link href={actionHref} asChild>
-                <Pressable
-                  role="link"
-                  accessibilityLabel={`Review corrective action on finding ${f.number}`}
-                  style={styles.actionLink}
-                >
-                  <Text variant="heading" color={colors.accent}>
-                    Review corrective action
-                  </Text>
-                  <Feather name="chevron-right" size={18} color={colors.accent} />
-                </Pressable>
-              </Link>
-            ) : null}
-            {confirming === f.id && editable && !f.saving ? (
-              <View style={styles.confirm} role="alert">
-                <Text variant="heading">Delete finding {f.number}?</Text>
-                <Text variant="small" muted>
-                  It is removed from the inspection; the audit trail keeps a record of it.
-                </Text>
-                <View style={styles.confirmButtons}>
-                  <Button
-                    label="Delete"
-                    tone="danger"
-                    accessibilityLabel={`Confirm deleting finding ${f.number}`}
-                    onPress={() => {
-                      setConfirming(null);
-                      onDelete(f);
-                    }}
-                  />
-                  <Button label="Keep it" tone="quiet" onPress={() => setConfirming(null)} />
-                </View>
-              </View>
-            ) : null}
-          </View>
+            finding={f}
+            photos={photos}
+            editable={editable}
+            actionHref={actionHref}
+            pastDue={f.dueOn !== null && f.state !== 'closed' && f.dueOn < today}
+            confirming={confirming === f.id}
+            onConfirming={(on) => setConfirming(on ? f.id : null)}
+            onEdit={onEdit}
+            onDelete={onDelete}
+          />
         );
       })}
+    </View>
+  );
+}
+
+/** One finding: its number, severity and state, what it says, and its edit and delete actions. */
+function FindingRow({
+  finding: f,
+  photos,
+  editable,
+  actionHref,
+  pastDue,
+  confirming,
+  onConfirming,
+  onEdit,
+  onDelete,
+}: {
+  finding: ListedFinding;
+  photos: readonly InspectionPhoto[];
+  editable: boolean;
+  actionHref: Href | null;
+  pastDue: boolean;
+  /** The second press that deletes it is being asked for. */
+  confirming: boolean;
+  onConfirming: (confirming: boolean) => void;
+  onEdit: (finding: ListedFinding) => void;
+  onDelete: (finding: ListedFinding) => void;
+}) {
+  return (
+    <View
+      role="listitem"
+      accessibilityLabel={`Finding ${f.number}`}
+      style={StyleSheet.flatten([styles.row, f.saving && styles.saving])}
+    >
+      <View style={styles.head}>
+        <Text variant="figure" style={styles.number}>
+          {f.number}
+        </Text>
+        <SeverityMark severity={f.severity} compact />
+        {!editable || f.state !== 'open' ? <FindingStateMark state={f.state} /> : null}
+        {f.saving ? (
+          <Text variant="label" color={colors.focus} accessibilityLiveRegion="polite">
+            Saving…
+          </Text>
+        ) : null}
+        <View style={styles.spacer} />
+        {editable && !f.saving ? (
+          <View style={styles.actions}>
+            <IconButton icon="edit-2" label={`Edit finding ${f.number}`} onPress={() => onEdit(f)} />
+            <IconButton
+              icon="trash-2"
+              tone="danger"
+              label={`Delete finding ${f.number}`}
+              onPress={() => onConfirming(true)}
+            />
+          </View>
+        ) : null}
+      </View>
+      <Text>{f.description}</Text>
+      {f.ruleRef ? <LabelledLine label="Breaches" value={f.ruleRef} /> : null}
+      {f.requiredAction ? <LabelledLine label="Required action" value={f.requiredAction} /> : null}
+      {f.dueOn ? (
+        <LabelledLine
+          label="Due"
+          value={pastDue ? `${formatDate(f.dueOn)} — past due` : formatDate(f.dueOn)}
+          color={pastDue ? colors.danger : undefined}
+        />
+      ) : null}
+      {f.photoShas.length > 0 ? (
+        <LabelledLine label="Photos" value={f.photoShas.map((sha) => photoName(photos, sha)).join(' · ')} />
+      ) : null}
+      {f.state === 'closed' && f.closedAt ? (
+        <LabelledLine
+          label="Closed"
+          value={`${formatDateTime(f.closedAt)}${f.closedByName ? ` by ${f.closedByName}` : ''}`}
+        />
+      ) : null}
+      {f.stateNote ? <LabelledLine label="Comment" value={f.stateNote} /> : null}
+      {f.state === 'action_reported' && actionHref ? (
+        <Link href={actionHref} asChild>
+          <Pressable
+            role="link"
+            accessibilityLabel={`Review corrective action on finding ${f.number}`}
+            style={styles.actionLink}
+          >
+            <Text variant="heading" color={colors.accent}>
+              Review corrective action
+            </Text>
+            <Feather name="chevron-right" size={18} color={colors.accent} />
+          </Pressable>
+        </Link>
+      ) : null}
+      {confirming && editable && !f.saving ? (
+        <View style={styles.confirm} role="alert">
+          <Text variant="heading">Delete finding {f.number}?</Text>
+          <Text variant="small" muted>
+            It is removed from the inspection; the audit trail keeps a record of it.
+          </Text>
+          <View style={styles.confirmButtons}>
+            <Button
+              label="Delete"
+              tone="danger"
+              accessibilityLabel={`Confirm deleting finding ${f.number}`}
+              onPress={() => {
+                onConfirming(false);
+                onDelete(f);
+              }}
+            />
+            <Button label="Keep it" tone="quiet" onPress={() => onConfirming(false)} />
+          </View>
+        </View>
+      ) : null}
     </View>
   );
 }

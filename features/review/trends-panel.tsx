@@ -126,61 +126,19 @@ function JointTrends({
       <Text variant="heading">{name}</Text>
       {shown.length === 0 ? <Text muted>Nothing measured or analysed at this pivot yet.</Text> : null}
       <View style={wide ? styles.rowWide : styles.stack}>
-        {shown.map((m) => {
-          const spec = measureSpec[m];
-          const values = points.map((p) => spec.value(p, joint.joint));
-          const limit = spec.limit(joint);
-          const known = values.filter((v): v is number => v !== null);
-          const unit = pickDisplayUnit(Math.max(...known, limit?.y ?? 0), spec.quantity, system);
-          const toUnit = (v: number) => fromSI(v, spec.quantity, unit.mathjs);
-          const thisValue = current ? spec.value(current, joint.joint) : null;
-          const bound = limit
-            ? ({ side: limit.word === 'Minimum' ? 'min' : 'max', si: limit.y } as const)
-            : null;
-          // Each value is shown against the limit (never rounded across it); measured ones as measured.
-          const fmt = (v: number) => formatBesideLimit(v, bound, spec.quantity, system, m !== 'force').value;
-          const limitText = limit
-            ? (formatBesideLimit(thisValue ?? limit.y, bound, spec.quantity, system, m !== 'force').limit ??
-              '')
-            : '';
-          return (
-            <View key={m} style={wide ? styles.chartWide : undefined}>
-              <Text variant="label" muted>
-                {spec.title.toUpperCase()}
-              </Text>
-              <ReviewChart
-                height={180}
-                summary={[
-                  `${spec.title} at ${name}: ${driftWords(points, values, fmt, (v) => formatMeasured(v, spec.quantity, system, m !== 'force' ? { recover: true } : undefined).text)}`,
-                  limit ? `${limit.word.toLowerCase()} ${limitText}` : 'no limit given',
-                  thisValue !== null ? `this inspection ${fmt(thisValue)}` : null,
-                ]
-                  .filter(Boolean)
-                  .join('; ')}
-                series={[
-                  {
-                    label: spec.title,
-                    x: times,
-                    y: values.map((v) => (v === null ? null : toUnit(v))),
-                    color: colors.base,
-                    dots: true,
-                  },
-                ]}
-                limits={limit ? [{ label: `${limit.word} ${limitText}`, y: toUnit(limit.y) }] : []}
-                marker={marker}
-                xLabel="Submitted"
-                yLabel={unit.label}
-                xDomain={domain}
-                xTicks={ticks}
-                xFormat={tickFormat}
-                zeroBased={m === 'force'}
-              />
-              <Text variant="small" muted>
-                {driftWords(points, values, fmt)}
-              </Text>
-            </View>
-          );
-        })}
+        {shown.map((m) => (
+          <MeasureChart
+            key={m}
+            measure={m}
+            joint={joint}
+            points={points}
+            current={current}
+            name={name}
+            system={system}
+            wide={wide}
+            frame={{ times, domain, ticks, tickFormat, marker }}
+          />
+        ))}
       </View>
       {shown.length > 0 ? (
         <Pressable
@@ -196,34 +154,143 @@ function JointTrends({
         </Pressable>
       ) : null}
       {showNumbers ? (
-        <DataTable
-          label={`Trend values of ${name}`}
-          rows={[...points].reverse()}
-          rowKey={(p) => p.inspectionId}
-          columns={[
-            {
-              key: 'when',
-              title: 'Inspection',
-              render: (p) =>
-                `${formatDate(p.submittedAt)} · ${inspectionTypeLabel[p.type]}${p.inspectionId === currentId ? ' (this one)' : ''}`,
-              flex: 1.8,
-            },
-            ...shown.map((m) => ({
-              key: m,
-              title: measureSpec[m].title,
-              render: (p: TrendPoint) => {
-                const v = measureSpec[m].value(p, joint.joint);
-                if (v === null) return '—';
-                const l = measureSpec[m].limit(joint);
-                const bound = l ? ({ side: l.word === 'Minimum' ? 'min' : 'max', si: l.y } as const) : null;
-                return formatBesideLimit(v, bound, measureSpec[m].quantity, system, m !== 'force').value;
-              },
-              numeric: true,
-            })),
-          ]}
+        <TrendNumbers
+          name={name}
+          joint={joint}
+          points={points}
+          shown={shown}
+          currentId={currentId}
+          system={system}
         />
       ) : null}
     </Card>
+  );
+}
+
+/** The time axis all of a pivot's charts share, and where this inspection sits on it. */
+type TimeFrame = {
+  times: number[];
+  domain: [number, number];
+  ticks: number[];
+  tickFormat: (ms: number) => string;
+  marker: { x: number; label: string } | undefined;
+};
+
+/** One measure at one pivot over the ride's inspections, against its limit, with its drift in words. */
+function MeasureChart({
+  measure: m,
+  joint,
+  points,
+  current,
+  name,
+  system,
+  wide,
+  frame: { times, domain, ticks, tickFormat, marker },
+}: {
+  measure: Measure;
+  joint: Joint;
+  points: TrendPoint[];
+  current: TrendPoint | undefined;
+  name: string;
+  system: UnitSystem;
+  wide: boolean;
+  frame: TimeFrame;
+}) {
+  const spec = measureSpec[m];
+  const values = points.map((p) => spec.value(p, joint.joint));
+  const limit = spec.limit(joint);
+  const known = values.filter((v): v is number => v !== null);
+  const unit = pickDisplayUnit(Math.max(...known, limit?.y ?? 0), spec.quantity, system);
+  const toUnit = (v: number) => fromSI(v, spec.quantity, unit.mathjs);
+  const thisValue = current ? spec.value(current, joint.joint) : null;
+  const bound = limit ? ({ side: limit.word === 'Minimum' ? 'min' : 'max', si: limit.y } as const) : null;
+  // Each value is shown against the limit (never rounded across it); measured ones as measured.
+  const fmt = (v: number) => formatBesideLimit(v, bound, spec.quantity, system, m !== 'force').value;
+  const limitText = limit
+    ? (formatBesideLimit(thisValue ?? limit.y, bound, spec.quantity, system, m !== 'force').limit ?? '')
+    : '';
+  return (
+    <View style={wide ? styles.chartWide : undefined}>
+      <Text variant="label" muted>
+        {spec.title.toUpperCase()}
+      </Text>
+      <ReviewChart
+        height={180}
+        summary={[
+          `${spec.title} at ${name}: ${driftWords(points, values, fmt, (v) => formatMeasured(v, spec.quantity, system, m !== 'force' ? { recover: true } : undefined).text)}`,
+          limit ? `${limit.word.toLowerCase()} ${limitText}` : 'no limit given',
+          thisValue !== null ? `this inspection ${fmt(thisValue)}` : null,
+        ]
+          .filter(Boolean)
+          .join('; ')}
+        series={[
+          {
+            label: spec.title,
+            x: times,
+            y: values.map((v) => (v === null ? null : toUnit(v))),
+            color: colors.base,
+            dots: true,
+          },
+        ]}
+        limits={limit ? [{ label: `${limit.word} ${limitText}`, y: toUnit(limit.y) }] : []}
+        marker={marker}
+        xLabel="Submitted"
+        yLabel={unit.label}
+        xDomain={domain}
+        xTicks={ticks}
+        xFormat={tickFormat}
+        zeroBased={m === 'force'}
+      />
+      <Text variant="small" muted>
+        {driftWords(points, values, fmt)}
+      </Text>
+    </View>
+  );
+}
+
+/** The values behind a pivot's charts, newest first, each beside its limit. */
+function TrendNumbers({
+  name,
+  joint,
+  points,
+  shown,
+  currentId,
+  system,
+}: {
+  name: string;
+  joint: Joint;
+  points: TrendPoint[];
+  shown: Measure[];
+  currentId: string;
+  system: UnitSystem;
+}) {
+  return (
+    <DataTable
+      label={`Trend values of ${name}`}
+      rows={[...points].reverse()}
+      rowKey={(p) => p.inspectionId}
+      columns={[
+        {
+          key: 'when',
+          title: 'Inspection',
+          render: (p) =>
+            `${formatDate(p.submittedAt)} · ${inspectionTypeLabel[p.type]}${p.inspectionId === currentId ? ' (this one)' : ''}`,
+          flex: 1.8,
+        },
+        ...shown.map((m) => ({
+          key: m,
+          title: measureSpec[m].title,
+          render: (p: TrendPoint) => {
+            const v = measureSpec[m].value(p, joint.joint);
+            if (v === null) return '—';
+            const l = measureSpec[m].limit(joint);
+            const bound = l ? ({ side: l.word === 'Minimum' ? 'min' : 'max', si: l.y } as const) : null;
+            return formatBesideLimit(v, bound, measureSpec[m].quantity, system, m !== 'force').value;
+          },
+          numeric: true,
+        })),
+      ]}
+    />
   );
 }
 
