@@ -61,9 +61,20 @@ function IconPartView({ part, paint }: { part: IconPart; paint: (p: Paint) => st
   }
 }
 
+/** A mark's shapes in its 14-unit box, for drawings that place them inside their own SVG. */
+export function MarkShapes({ mark }: { mark: Mark }) {
+  const paint = (p: Paint) => (p === 'white' ? colors.surface : colors[mark[p]]);
+  return (
+    <>
+      {iconParts(mark.icon).map((part, i) => (
+        <IconPartView key={i} part={part} paint={paint} />
+      ))}
+    </>
+  );
+}
+
 /** A mark's icon, `size` px square, hidden from screen readers (the words beside it say the state). */
 export function MarkIcon({ mark, size = 14 }: { mark: Mark; size?: number }) {
-  const paint = (p: Paint) => (p === 'white' ? colors.surface : colors[mark[p]]);
   return (
     <Svg
       width={size}
@@ -72,9 +83,7 @@ export function MarkIcon({ mark, size = 14 }: { mark: Mark; size?: number }) {
       accessibilityElementsHidden
       importantForAccessibility="no"
     >
-      {iconParts(mark.icon).map((part, i) => (
-        <IconPartView key={i} part={part} paint={paint} />
-      ))}
+      <MarkShapes mark={mark} />
     </Svg>
   );
 }

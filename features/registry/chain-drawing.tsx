@@ -2,6 +2,7 @@ import { useMemo, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, G, Line, Path, Polygon, Rect, Text as SvgText } from 'react-native-svg';
 
+import { MarkShapes } from '@/components/mark-icon';
 import { type EnvelopeStatus, envelopeStatusLabel } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, fonts, space } from '@/components/theme';
@@ -18,13 +19,12 @@ import {
   placeLabels,
 } from '@/features/registry/chain-geometry';
 import type { DesignData } from '@/features/loads/design-schema';
+import { ICON_BOX } from '@/lib/mark-icons';
 import { type UnitSystem, displayUnits, formatQuantity, fromSI, toSI } from '@/lib/units';
+import { envelopeStatusVocabulary } from '@/lib/vocabulary';
 
-const statusColor: Record<EnvelopeStatus, string> = {
-  within: colors.within,
-  near: colors.near,
-  over: colors.over,
-};
+/** The status's own colour (its mark's word colour in the vocabulary). */
+const statusColor = (s: EnvelopeStatus) => colors[envelopeStatusVocabulary[s].mark.fg];
 
 export type PivotPeak = { joint: number; forceN: number; status: EnvelopeStatus | null };
 
@@ -265,7 +265,7 @@ function ScaleBar({ bar, height }: { bar: ReturnType<typeof scaleBar>; height: n
 
 /** "P1  412 kN" in a white box beside its pivot, framed in the status colour when a limit exists. */
 function PivotLabel({ box, text, status }: { box: Box; text: string; status: EnvelopeStatus | null }) {
-  const colour = status ? statusColor[status] : colors.text;
+  const colour = status ? statusColor(status) : colors.text;
   return (
     <G>
       <Rect
@@ -292,16 +292,11 @@ function PivotLabel({ box, text, status }: { box: Box; text: string; status: Env
   );
 }
 
-/** The envelope status shapes of components/status-mark.tsx, drawn inside the SVG. */
+/** The envelope status's mark (as on every status badge), 12 px square, drawn inside the SVG. */
 function StatusShape({ status, x, y }: { status: EnvelopeStatus; x: number; y: number }) {
-  const c = statusColor[status];
-  if (status === 'within') return <Circle cx={x + 6} cy={y + 6} r={5.5} fill={c} />;
-  if (status === 'near')
-    return <Path d={`M ${x + 6} ${y} L ${x + 12} ${y + 12} L ${x} ${y + 12} Z`} fill={c} />;
   return (
-    <G>
-      <Rect x={x} y={y} width={12} height={12} rx={2} fill={c} />
-      <Rect x={x + 2} y={y + 5} width={8} height={2.2} fill={colors.surface} />
+    <G transform={`translate(${x} ${y}) scale(${12 / ICON_BOX})`}>
+      <MarkShapes mark={envelopeStatusVocabulary[status].mark} />
     </G>
   );
 }

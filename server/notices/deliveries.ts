@@ -16,6 +16,7 @@ import { photos } from '@/db/server/inspections';
 import { noticeDeliveries, notices, type NoticeDeliveryRow } from '@/db/server/notices';
 import { companies } from '@/db/server/schema';
 import { CAUTION_SHORT } from '@/lib/caution-text';
+import { colors } from '@/lib/colors';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine';
 import { formatRatio } from '@/features/loads/format';
 import type { NoticeDocument } from '@/features/notices/schema';
@@ -28,7 +29,7 @@ import type { RetryPolicy } from '@/server/mail/retry';
 import { deliveriesQueued, onDeliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate, formatWhen } from '@/lib/dates';
 import { renderNoticePdf } from '@/server/notices/pdf';
-import { escapeHtml, noticeSubject, rideStatusWords } from '@/server/notices/words';
+import { escapeHtml, htmlMailStart, noticeSubject, rideStatusWords } from '@/server/notices/words';
 import { photoPathOf } from '@/server/sync/photo-store';
 
 export type DeliveryDeps = {
@@ -192,7 +193,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
     )
     .join('');
   const html = [
-    '<!doctype html><html><body style="font-family: sans-serif; color: #102A38; line-height: 1.4">',
+    htmlMailStart,
     `<p>${h(intro)}</p>`,
     '<table cellpadding="4" style="border-collapse: collapse">',
     ...facts.map(([k, v]) => `<tr><th align="left" valign="top">${h(k)}</th><td>${h(v)}</td></tr>`),
@@ -204,7 +205,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
     doc.note ? `<p><strong>Note from ${h(doc.signature.name)}:</strong> ${h(doc.note)}</p>` : '',
     `<p><a href="${h(doc.url)}">Open notice ${h(doc.reference)}</a> to acknowledge it and to report the corrective action for each finding.</p>`,
     `<p>The complete notice is attached as ${h(doc.reference)}.pdf.</p>`,
-    `<p style="border-left: 4px solid #B34A16; padding-left: 8px; font-size: 90%"><strong>Caution.</strong> ${h(CAUTION_SHORT)}</p>`,
+    `<p style="border-left: 4px solid ${colors.accent}; padding-left: 8px; font-size: 90%"><strong>Caution.</strong> ${h(CAUTION_SHORT)}</p>`,
     '</body></html>',
   ].join('\n');
 

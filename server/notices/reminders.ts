@@ -29,7 +29,7 @@ import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { deliveriesQueued } from '@/server/notices/nudge';
 import { addDays, daysBetween, formatCalendarDate, isoDay } from '@/lib/dates';
-import { escapeHtml } from '@/server/notices/words';
+import { escapeHtml, htmlMailStart } from '@/server/notices/words';
 import { findingNumber } from '@/server/findings/findings';
 
 /** How far ahead a due date counts as "due soon". */
@@ -162,7 +162,7 @@ export function reminderEmail(companyName: string, items: Due[], today: string, 
   const htmlSection = (title: string, list: Due[]) =>
     list.length ? `<h3>${h(title)}</h3><ul>${list.map(htmlItem).join('')}</ul>` : '';
   const html = [
-    '<!doctype html><html><body style="font-family: sans-serif; color: #102A38; line-height: 1.4">',
+    htmlMailStart,
     `<p>To ${h(companyName)}:</p>`,
     '<p>These findings from notices issued to you are still open. Report what you have done about each ' +
       'one with the link beside it; the inspection body then verifies and closes it.</p>',

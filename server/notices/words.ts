@@ -3,6 +3,7 @@
  * severity words come from lib/vocabulary.ts, the caution from lib/caution-text.ts.
  */
 import type { NoticeDocument } from '@/features/notices/schema';
+import { colors } from '@/lib/colors';
 import { labelsOf, rideStatusVocabulary, roleVocabulary } from '@/lib/vocabulary';
 
 export const rideStatusWords = labelsOf(rideStatusVocabulary);
@@ -34,6 +35,9 @@ export function noticeSubject(doc: Pick<NoticeDocument, 'reference' | 'kind' | '
 /** A value as printed, or the words for its absence. */
 export const orNot = (v: string | number | null | undefined, missing = 'Not recorded') =>
   v === null || v === undefined || v === '' ? missing : String(v);
+
+/** The opening of every HTML e-mail: the page in the palette's base colour (lib/colors). */
+export const htmlMailStart = `<!doctype html><html><body style="font-family: sans-serif; color: ${colors.base}; line-height: 1.4">`;
 
 /** HTML-escapes text for the e-mail bodies. */
 export function escapeHtml(text: string): string {
