@@ -4,8 +4,6 @@
  * with pdfkit's own text flow and tables (a report is read top to bottom; it needs no fixed grid like the
  * notice), in the shipped IBM Plex fonts. Deterministic: the PDF's dates and id come from the record.
  */
-import PDFDocument from 'pdfkit';
-
 import { CAUTION_FULL } from '@/lib/caution-text';
 import { colors as C } from '@/lib/colors';
 import { formatWhen } from '@/lib/dates';
@@ -31,7 +29,7 @@ import { readingKindLabel } from '@/features/records/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import { rideClassLabel, type RideClass } from '@/features/rides/schema';
 import { orNot } from '@/server/notices/words';
-import { FONT_FILES, fontDir, fonts } from '@/server/pdf/fonts';
+import { startPdf } from '@/server/pdf/document';
 import type { InspectionReport } from '@/server/reports/inspection-report';
 
 export type ReportPaper = 'A4' | 'LETTER';
@@ -261,29 +259,13 @@ function footers(doc: Doc, r: InspectionReport) {
 /** Renders the report. */
 export function renderInspectionReportPdf(r: InspectionReport, paper: ReportPaper): Promise<Buffer> {
   const i = r.inspection;
-  const submitted = new Date(i.submittedAt);
-  const doc = new PDFDocument({
+  const { doc, finished } = startPdf({
     size: paper,
-    margins: { top: MARGIN, bottom: MARGIN, left: MARGIN, right: MARGIN },
-    bufferPages: true,
-    font: `${fontDir}/${FONT_FILES.regular}`,
-    lang: 'en',
-    displayTitle: true,
-    info: {
-      Title: `Inspection report — ${r.ride.name}`,
-      Author: i.inspectorName,
-      Subject: `${inspectionTypeLabel[i.type] ?? i.type} inspection of ${r.ride.name}`,
-      Creator: 'Pivotwatch',
-      Producer: 'Pivotwatch',
-      ...(Number.isNaN(submitted.getTime()) ? {} : { CreationDate: submitted }),
-    },
-  });
-  for (const [name, data] of Object.entries(fonts())) doc.registerFont(name, data);
-  const chunks: Buffer[] = [];
-  doc.on('data', (c: Buffer) => chunks.push(c));
-  const finished = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
+    margins: MARGIN,
+    title: `Inspection report — ${r.ride.name}`,
+    author: i.inspectorName,
+    subject: `${inspectionTypeLabel[i.type] ?? i.type} inspection of ${r.ride.name}`,
+    createdAt: i.submittedAt,
   });
 
   doc.font('bold').fontSize(18).fillColor(C.base).text('Inspection report', MARGIN, MARGIN);

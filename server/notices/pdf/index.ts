@@ -8,10 +8,6 @@
  * Output is deterministic for a given document: the PDF's creation date and file id come from
  * `issuedAt`, so the same notice renders to the same bytes.
  */
-import path from 'node:path';
-
-import PDFDocument from 'pdfkit';
-
 import type { NoticeDocument } from '@/features/notices/schema';
 import {
   drawFirstHeader,
@@ -30,7 +26,7 @@ import {
   statusBoxes,
 } from '@/server/notices/pdf/sections';
 import { signatureBlock, signatureHeight } from '@/server/notices/pdf/signature';
-import { FONT_FILES, fontDir, fonts } from '@/server/pdf/fonts';
+import { startPdf } from '@/server/pdf/document';
 import { flowText, heading, pairColumns, S, type Layout } from '@/server/pdf/layout';
 
 export type { PhotoLoader };
@@ -42,32 +38,15 @@ const FOOTER_SPACE = 60;
 /** Renders a notice to PDF bytes. Photos that cannot be loaded print as "photo not available". */
 export async function renderNoticePdf(n: NoticeDocument, opts: NoticePdfOptions): Promise<Buffer> {
   const loaded = await loadPhotos(n, opts.loadPhoto);
-  const issued = new Date(n.issuedAt);
   const title = titleOf(n);
-  const doc = new PDFDocument({
+  const { doc, finished } = startPdf({
     size: opts.pageSize,
-    margins: { top: 0, bottom: 0, left: 0, right: 0 },
-    bufferPages: true,
+    margins: 0,
     autoFirstPage: false,
-    font: path.join(fontDir, FONT_FILES.regular),
-    lang: 'en',
-    displayTitle: true,
-    info: {
-      Title: `${title} ${n.reference} — ${n.ride.name}`,
-      Author: n.issuer.name,
-      Subject: `${title} for ${n.operator.name}`,
-      Creator: 'Pivotwatch',
-      Producer: 'Pivotwatch',
-      ...(Number.isNaN(issued.getTime()) ? {} : { CreationDate: issued }),
-    },
-  });
-  for (const [name, data] of Object.entries(fonts())) doc.registerFont(name, data);
-
-  const chunks: Buffer[] = [];
-  doc.on('data', (c: Buffer) => chunks.push(c));
-  const finished = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
+    title: `${title} ${n.reference} — ${n.ride.name}`,
+    author: n.issuer.name,
+    subject: `${title} for ${n.operator.name}`,
+    createdAt: n.issuedAt,
   });
 
   doc.addPage();
