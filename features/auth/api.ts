@@ -1,15 +1,11 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import {
-  type Role,
-  type SessionUser,
-  type SignInBody,
-  meResponseSchema,
-  signInResponseSchema,
-} from '@/features/auth/schema';
-import { tokenStore } from '@/features/api/token-store';
+import { labelsOf, roleVocabulary } from '@/lib/vocabulary';
+import { type SignInBody, meResponseSchema, signInResponseSchema } from '@/features/auth/schema';
+import type { SessionUser } from '@/features/session/schema';
+import { tokenStore } from '@/features/session';
 
 export const authKeys = {
   all: ['auth'] as const,
@@ -77,17 +73,4 @@ export function useSignOutMutation() {
   });
 }
 
-/** Each role's landing route. */
-export const roleHome: Record<Role, string> = {
-  inspector: '/today',
-  supervisor: '/review',
-  operator: '/my-rides',
-  admin: '/admin',
-};
-
-export const roleLabel: Record<Role, string> = {
-  inspector: 'Inspector',
-  supervisor: 'Supervisor',
-  operator: 'Operator',
-  admin: 'Administrator',
-};
+export const roleLabel = labelsOf(roleVocabulary);

@@ -10,11 +10,11 @@ import { StatRow, StatTile } from '@/components/stat-tile';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { useAdminUsersQuery } from '@/features/admin/api';
-import { roleLabel } from '@/features/auth/api';
-import { RoleGate } from '@/features/auth/role-gate';
-import { roles } from '@/features/auth/schema';
-import { useRidesQuery } from '@/features/rides/api';
+import { useAdminUsersQuery } from '@/features/admin';
+import { roleLabel, RoleGate } from '@/features/auth';
+import { outboxHref } from '@/features/notices';
+import { roles } from '@/features/session/schema';
+import { useRidesQuery } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 
 /** Administrator's start page: who can sign in, the ride register at a glance, and the e-mail outbox. */
@@ -89,7 +89,7 @@ function OutboxCard() {
         Notices go to operators by e-mail with their PDF. While the server runs with its built-in mailbox
         (development and the demo) every message it sent can be read here, attachments included.
       </Text>
-      <Link href="/admin/outbox" asChild>
+      <Link href={outboxHref} asChild>
         <Pressable role="link" style={styles.link}>
           <Feather name="mail" size={18} color={colors.accent} />
           <View style={styles.linkText}>

@@ -9,16 +9,22 @@ import { StatRow, StatTile } from '@/components/stat-tile';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth/role-gate';
-import { noticeKeys } from '@/features/notices/keys';
-import { isPastDue, noticeHref, noticeKindLabel, todayIso } from '@/features/notices/notice-text';
-import { fetchNotice, useNoticeList } from '@/features/notices/notices-api';
+import { RoleGate } from '@/features/auth';
+import {
+  noticeKeys,
+  noticeHref,
+  noticesHref,
+  isPastDue,
+  noticeKindLabel,
+  todayIso,
+  fetchNotice,
+  useNoticeList,
+  FindingStateMark,
+  SeverityMark,
+} from '@/features/notices';
 import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
 import { formatDate } from '@/lib/dates';
-import { FindingStateMark } from '@/features/notices/finding-state-mark';
-import { SeverityMark } from '@/features/notices/severity-mark';
-import { useRidesQuery } from '@/features/rides/api';
-import { RideGrid } from '@/features/rides/ride-grid';
+import { useRidesQuery, RideGrid } from '@/features/rides';
 
 /** Enough to hold every notice an operator company has open at once. */
 const NOTICES_PAGE = 100;
@@ -111,7 +117,7 @@ function OperatorNotices() {
               ? 'No notices yet.'
               : 'Every notice is acknowledged and no finding is open.'}
           </Text>
-          <Link href="/notices" asChild>
+          <Link href={noticesHref} asChild>
             <Pressable role="link" style={styles.inlineLink}>
               <Text variant="heading" color={colors.accent}>
                 All notices

@@ -9,8 +9,9 @@ import { SectionTitle } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useStartCorrectionMutation } from '@/features/inspections/field-api';
+import { inspectHref } from '@/features/inspections/hrefs';
 import { ReportDownload } from '@/features/inspections/report-download';
-import { inspectionTypeLabel } from '@/features/inspections/schema';
+import { inspectionTypeLabel } from '@/features/records/schema';
 import { type FindingView, type SentInspection, groupSent } from '@/features/inspections/sent';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import type { FindingSeverity } from '@/features/review/schema';
@@ -173,7 +174,7 @@ export function SentCard({ item }: { item: SentInspection }) {
       {item.decision?.state === 'returned' && item.correction?.state === 'draft' ? (
         <Button
           label="Resume the correction"
-          onPress={() => router.push(`/inspect/${item.correction?.id}`)}
+          onPress={() => router.push(inspectHref(item.correction?.id ?? ''))}
         />
       ) : stage === 'returned' && item.canCorrect ? (
         <>
@@ -181,7 +182,7 @@ export function SentCard({ item }: { item: SentInspection }) {
             label="Correct and resubmit"
             busy={correct.isPending}
             onPress={() =>
-              correct.mutate(item.id, { onSuccess: (draft) => router.push(`/inspect/${draft.id}`) })
+              correct.mutate(item.id, { onSuccess: (draft) => router.push(inspectHref(draft.id)) })
             }
           />
           <Text variant="small" muted>

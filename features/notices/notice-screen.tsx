@@ -14,10 +14,11 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { useSession } from '@/features/auth/api';
-import type { SessionUser } from '@/features/auth/schema';
+import { useSession } from '@/features/auth';
+import type { SessionUser } from '@/features/session/schema';
 import { problemText } from '@/features/notices/corrective-action-form';
 import { FindingLoop } from '@/features/notices/finding-loop';
+import { noticesHref } from '@/features/notices/hrefs';
 import { NoticeDocumentView } from '@/features/notices/notice-document-view';
 import { deliveryStatusLabel, noticeKindLabel } from '@/features/notices/notice-text';
 import { useAcknowledge, useNotice, useResend } from '@/features/notices/notices-api';
@@ -25,9 +26,9 @@ import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-downlo
 import { type NoticeDetail, noticeDeliveryStateInfo } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
-import { useRideQuery } from '@/features/rides/api';
+import { useRideQuery } from '@/features/registry';
 
-const back = { href: '/notices', label: 'Notices' } as const;
+const back = { href: noticesHref, label: 'Notices' } as const;
 
 /**
  * One notice (/notices/:id), the page the e-mail links to. The document as issued, its PDF, the
@@ -77,7 +78,7 @@ function NoticeTrouble({ error, retry }: { error: unknown; retry: () => unknown 
             <Button label="Try again" tone="quiet" onPress={() => retry()} />
           </>
         )}
-        <Link href="/notices" asChild>
+        <Link href={noticesHref} asChild>
           <Pressable role="link" style={styles.link}>
             <Text variant="heading" color={colors.accent}>
               Go to the list of notices

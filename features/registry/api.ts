@@ -1,9 +1,8 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 
-import { apiFetch } from '@/features/api/client';
+import { apiFetch } from '@/features/api';
 import { type QueryParams, clean, toSearch } from '@/lib/list-params';
-import type { DesignData } from '@/features/loads/design-schema';
 import {
   type ChecklistContentInput,
   type CompanyInput,
@@ -26,6 +25,7 @@ import {
   designResponseSchema,
   designVersionListResponseSchema,
   inspectorListResponseSchema,
+  rideDetailResponseSchema,
   rideListPageSchema,
   rideResponseSchema,
   scheduleListResponseSchema,
@@ -34,7 +34,7 @@ import {
   siteResponseSchema,
 } from '@/features/registry/schema';
 import type { RideClass } from '@/features/rides/schema';
-import { rideKeys } from '@/features/rides/api';
+import { RIDES_STALE_MS, rideKeys } from '@/features/rides';
 
 export const registryKeys = {
   all: ['registry'] as const,
@@ -111,14 +111,6 @@ export function useRideUpdateMutation(id: string) {
   });
 }
 
-export function useRideDeleteMutation(id: string) {
-  const invalidate = useInvalidateRegister();
-  return useMutation({
-    mutationFn: () => apiFetch(`/api/rides/${enc(id)}`, { method: 'DELETE' }),
-    onSuccess: invalidate,
-  });
-}
-
 // ——— design data ———
 
 export function useDesignVersionsQuery(rideId: string, enabled = true) {
@@ -146,20 +138,6 @@ export function useDesignVersionQuery(rideId: string, version: number) {
       ).design,
     staleTime: VERSION_STALE_MS,
     enabled: Number.isInteger(version) && version > 0,
-  });
-}
-
-export function useDesignPutMutation(rideId: string) {
-  const client = useQueryClient();
-  return useMutation({
-    mutationFn: (body: { reason: string; data: DesignData; basedOnVersion?: number }) =>
-      apiFetch(`/api/rides/${enc(rideId)}/design`, { method: 'PUT', body, schema: designResponseSchema }),
-    onSuccess: () =>
-      Promise.all([
-        client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),
-        client.invalidateQueries({ queryKey: registryKeys.design(rideId) }),
-        client.invalidateQueries({ queryKey: registryKeys.audit() }),
-      ]),
   });
 }
 
@@ -459,3 +437,18 @@ export function useAuditQuery(query: QueryParams) {
 
 /** Every save adds entries; a short stale time keeps the log close to now without refetch storms. */
 const AUDIT_STALE_MS = 15 * 1000;
+
+/** The ride seen from the register's side: its entry with the design version in force. */
+/**
+ * The ride with its current design data. Parsed with the register's schema (which also carries the
+ * version's origin) so every screen that shares this cache entry sees the same shape.
+ */
+export function useRideQuery(id: string | null) {
+  return useQuery({
+    queryKey: rideKeys.detail(id ?? ''),
+    queryFn: () =>
+      apiFetch(`/api/rides/${encodeURIComponent(id ?? '')}`, { schema: rideDetailResponseSchema }),
+    enabled: !!id,
+    staleTime: RIDES_STALE_MS,
+  });
+}

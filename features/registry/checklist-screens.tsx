@@ -11,8 +11,8 @@ import { Text } from '@/components/text';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, layout, radius, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { Role, SessionUser } from '@/features/auth/schema';
+import { RoleGate } from '@/features/auth';
+import type { Role, SessionUser } from '@/features/session/schema';
 import {
   useChecklistListQuery,
   useChecklistQuery,
@@ -25,16 +25,21 @@ import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { canEditRides } from '@/features/registry/ride-route';
 import type { ChecklistTemplate, ChecklistTemplateSummary } from '@/features/registry/schema';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 import { formatDateTime } from '@/lib/dates';
 import { useListParams } from '@/components/use-list-params';
+import {
+  checklistEditHref,
+  checklistHref,
+  checklistVersionHref,
+  checklistsHref,
+  newChecklistHref,
+} from '@/features/registry/hrefs';
 import { type RideClass, rideClassLabel, rideClassSchema, rideClasses } from '@/features/rides/schema';
 import { z } from 'zod';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 const editors = ['admin', 'supervisor'] as const;
-
-export const checklistHref = (id: string) => `/register/checklists/${encodeURIComponent(id)}`;
 
 const paramString = (v: string | string[] | undefined) => (Array.isArray(v) ? (v[0] ?? '') : (v ?? ''));
 
@@ -88,7 +93,7 @@ function ChecklistsList({ user }: { user: SessionUser }) {
                       label={`New template for ${rideClassLabel[rideClass].toLowerCase()}`}
                       tone="quiet"
                       icon={<Feather name="plus" size={18} color={colors.text} />}
-                      onPress={() => router.push(`/register/checklists/new?rideClass=${rideClass}`)}
+                      onPress={() => router.push(newChecklistHref(rideClass))}
                       style={styles.start}
                     />
                   ) : null}
@@ -136,7 +141,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
   const versions = useChecklistVersionsQuery(id);
   if (template.error instanceof ApiRequestError && template.error.status === 404)
     return (
-      <SubScreen title="Template not found" back={{ href: '/register/checklists', label: 'Checklists' }}>
+      <SubScreen title="Template not found" back={{ href: checklistsHref, label: 'Checklists' }}>
         <Card role="alert">
           <Text>There is no such checklist template (or version).</Text>
         </Card>
@@ -172,7 +177,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
                 <Button
                   label="Edit (makes a new version)"
                   tone="accent"
-                  onPress={() => router.push(`${checklistHref(t.id)}/edit`)}
+                  onPress={() => router.push(checklistEditHref(t.id))}
                 />
               ) : null}
             </Card>
@@ -187,7 +192,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
                     href={
                       v.version === currentVersion
                         ? checklistHref(t.id)
-                        : `${checklistHref(t.id)}/versions/${v.version}`
+                        : checklistVersionHref(t.id, v.version)
                     }
                     asChild
                   >
@@ -218,7 +223,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
             subtitle={`${rideClassLabel[t.rideClass]} · ${t.version.content.areas.length} areas · ${t.version.content.areas.reduce((n, a) => n + a.items.length, 0)} items`}
             back={
               isCurrent
-                ? { href: '/register/checklists', label: 'Checklists' }
+                ? { href: checklistsHref, label: 'Checklists' }
                 : { href: checklistHref(t.id), label: 'Current version' }
             }
           >
@@ -338,7 +343,7 @@ function ChecklistCreate({ rideClass }: { rideClass: RideClass }) {
     <SubScreen
       title="New checklist template"
       subtitle={rideClassLabel[rideClass]}
-      back={{ href: '/register/checklists', label: 'Checklists' }}
+      back={{ href: checklistsHref, label: 'Checklists' }}
     >
       <Card style={styles.formCard}>
         <ChecklistForm

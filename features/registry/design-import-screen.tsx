@@ -15,17 +15,18 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { OfflineError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
+import { RoleGate } from '@/features/auth';
 import {
   useDesignImportCheckMutation,
   useDesignImportMutation,
   useDesignPendingQuery,
   useDesignVersionsQuery,
+  useRideQuery,
 } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
 import type { DesignData } from '@/features/loads/design-schema';
 import { loosensALimit } from '@/features/registry/design-diff';
-import { ExportCard, designHref } from '@/features/registry/design-screens';
+import { ExportCard } from '@/features/registry/design-screens';
 import { DesignDrawingPanel, useDesignAnalysis } from '@/features/registry/design-view';
 import { FormText } from '@/components/form/fields';
 import { type ReportLine, formatFromName, importReport } from '@/features/registry/import-report';
@@ -35,10 +36,9 @@ import { WithRide } from '@/features/registry/ride-edit-screens';
 import { useRideIdParam } from '@/features/registry/ride-route';
 import { changeReasonSchema } from '@/features/registry/schema';
 import { applyServerError, fieldsOf } from '@/components/form/server-errors';
-import { useRideQuery } from '@/features/rides/api';
-import { rideHref } from '@/features/rides/ride-card';
+import { rideDesignHref, rideHref } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 
 /** Picked files larger than this are not design data; refuse before reading them. */
 const MAX_FILE_BYTES = 2 * 1024 * 1024;
@@ -375,7 +375,7 @@ function SaveStep({
     setProblem(null);
     try {
       await importer.mutateAsync({ format: picked.format, content: picked.text, reason, basedOnVersion });
-      router.replace(designHref(ride.id));
+      router.replace(rideDesignHref(ride.id));
     } catch (err) {
       const report = importReport(err);
       if (report) onRejected(report);

@@ -11,14 +11,15 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { Role, SessionUser } from '@/features/auth/schema';
+import { RoleGate } from '@/features/auth';
+import type { Role, SessionUser } from '@/features/session/schema';
 import { designToFile } from '@/features/registry/csv';
 import {
   useDesignDecisionMutation,
   useDesignPendingQuery,
   useDesignVersionQuery,
   useDesignVersionsQuery,
+  useRideQuery,
 } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
 import type { DesignData } from '@/features/loads/design-schema';
@@ -35,15 +36,11 @@ import { saveTextFile } from '@/features/registry/save-file';
 import type { DesignVersion, DesignVersionInfo } from '@/features/registry/schema';
 import { designOriginLabel } from '@/features/registry/design-format';
 import { formatDateTime } from '@/lib/dates';
-import { useRideQuery } from '@/features/rides/api';
-import { rideHref } from '@/features/rides/ride-card';
+import { rideDesignHref, rideHref, rideImportHref, ridesHref, rideVersionHref } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
-
-export const designHref = (rideId: string) => `${rideHref(rideId)}/design`;
-export const versionHref = (rideId: string, version: number) => `${rideHref(rideId)}/versions/${version}`;
 
 /** A ride's current design data in full: drawing, peaks, every table, export, and its version history. */
 export function DesignScreen() {
@@ -54,7 +51,7 @@ export function DesignScreen() {
 function CurrentDesign({ id, user }: { id: string; user: SessionUser }) {
   const ride = useRideQuery(id);
   if (ride.error instanceof ApiRequestError && ride.error.status === 404)
-    return <RideNotFound back={{ href: '/rides', label: 'Rides' }} />;
+    return <RideNotFound back={{ href: ridesHref, label: 'Rides' }} />;
   return (
     <QueryState query={ride}>
       {({ ride: r, design }) =>
@@ -85,10 +82,10 @@ function OldDesign({ id, version, user }: { id: string; version: number; user: S
   const ride = useRideQuery(id);
   const design = useDesignVersionQuery(id, version);
   if (ride.error instanceof ApiRequestError && ride.error.status === 404)
-    return <RideNotFound back={{ href: '/rides', label: 'Rides' }} />;
+    return <RideNotFound back={{ href: ridesHref, label: 'Rides' }} />;
   if (design.error instanceof ApiRequestError && design.error.status === 404)
     return (
-      <SubScreen title="No such version" back={{ href: designHref(id), label: 'Design data' }}>
+      <SubScreen title="No such version" back={{ href: rideDesignHref(id), label: 'Design data' }}>
         <Card role="alert">
           <Text>This ride has no design data version {String(version)}.</Text>
         </Card>
@@ -145,7 +142,7 @@ function DesignPage({
           label="Import a new version"
           tone="quiet"
           icon={<Feather name="upload" size={18} color={colors.text} />}
-          onPress={() => router.push(`${rideHref(ride.id)}/import`)}
+          onPress={() => router.push(rideImportHref(ride.id))}
         />
       ) : null}
       <Card>
@@ -172,7 +169,7 @@ function DesignPage({
       back={
         isCurrent
           ? { href: rideHref(ride.id), label: ride.name }
-          : { href: designHref(ride.id), label: 'Current design data' }
+          : { href: rideDesignHref(ride.id), label: 'Current design data' }
       }
     >
       {canEditRides(role) && (isCurrent || design.approvalState === 'pending') ? (
@@ -203,7 +200,7 @@ function VersionList({
       {versions.map((v) => (
         <Link
           key={v.id}
-          href={v.version === current ? designHref(rideId) : versionHref(rideId, v.version)}
+          href={v.version === current ? rideDesignHref(rideId) : rideVersionHref(rideId, v.version)}
           asChild
         >
           <Pressable

@@ -1,5 +1,5 @@
 import Feather from '@expo/vector-icons/Feather';
-import { router, useLocalSearchParams } from 'expo-router';
+import { type Href, router, useLocalSearchParams } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -15,8 +15,8 @@ import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { Role, SessionUser } from '@/features/auth/schema';
+import { RoleGate } from '@/features/auth';
+import type { Role, SessionUser } from '@/features/session/schema';
 import {
   operatorChoices,
   useCompanyListQuery,
@@ -49,15 +49,23 @@ import {
   siteSortKeys,
 } from '@/features/registry/schema';
 import { useListParams, useSearchText } from '@/components/use-list-params';
-import { RideCard } from '@/features/rides/ride-card';
+import {
+  companiesHref,
+  companyEditHref,
+  companyHref,
+  newCompanyHref,
+  newSiteHref,
+  siteEditHref,
+  siteHref,
+  sitesHref,
+} from '@/features/registry/hrefs';
+import { RideCard } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 const PAGE_SIZE = 25;
 const ALL = '__all';
 
-export const companyHref = (id: string) => `/register/companies/${encodeURIComponent(id)}`;
-export const siteHref = (id: string) => `/register/sites/${encodeURIComponent(id)}`;
 const param = (v: string | string[] | undefined) => (Array.isArray(v) ? (v[0] ?? '') : (v ?? ''));
 
 // ——— companies ———
@@ -82,7 +90,7 @@ function CompaniesList({ user }: { user: SessionUser }) {
             label="New company"
             tone="accent"
             icon={<Feather name="plus" size={18} color={colors.baseText} />}
-            onPress={() => router.push('/register/companies/new')}
+            onPress={() => router.push(newCompanyHref)}
           />
         ) : null
       }
@@ -155,7 +163,7 @@ export function CompanyScreen() {
   return <RoleGate roles={staff}>{(user) => <CompanyView id={param(id)} role={user.role} />}</RoleGate>;
 }
 
-function NotFound({ title, back }: { title: string; back: { href: string; label: string } }) {
+function NotFound({ title, back }: { title: string; back: { href: Href; label: string } }) {
   return (
     <SubScreen title={title} back={back}>
       <Card role="alert">
@@ -189,21 +197,17 @@ function CompanyView({ id, role }: { id: string; role: Role }) {
   const company = useCompanyQuery(id);
   const rides = useRidePageQuery({ operatorId: id, pageSize: 100, sort: 'name' });
   if (company.error instanceof ApiRequestError && company.error.status === 404)
-    return <NotFound title="No such company" back={{ href: '/register/companies', label: 'Companies' }} />;
+    return <NotFound title="No such company" back={{ href: companiesHref, label: 'Companies' }} />;
   return (
     <QueryState query={company}>
       {(c) => (
         <SubScreen
           title={c.name}
           subtitle={c.kind === 'operator' ? 'Operator company' : 'Inspection body'}
-          back={{ href: '/register/companies', label: 'Companies' }}
+          back={{ href: companiesHref, label: 'Companies' }}
           actions={
             role === 'admin' ? (
-              <Button
-                label="Edit company"
-                tone="quiet"
-                onPress={() => router.push(`${companyHref(c.id)}/edit`)}
-              />
+              <Button label="Edit company" tone="quiet" onPress={() => router.push(companyEditHref(c.id))} />
             ) : null
           }
         >
@@ -259,7 +263,7 @@ function CompanyEdit({ id }: { id: string | null }) {
   );
   if (!id)
     return (
-      <SubScreen title="New operator company" back={{ href: '/register/companies', label: 'Companies' }}>
+      <SubScreen title="New operator company" back={{ href: companiesHref, label: 'Companies' }}>
         <FormCard>{form({ name: '', noticeEmails: [], phone: '', address: '', contacts: [] })}</FormCard>
       </SubScreen>
     );
@@ -310,7 +314,7 @@ function SitesList({ user }: { user: SessionUser }) {
             label="New site"
             tone="accent"
             icon={<Feather name="plus" size={18} color={colors.baseText} />}
-            onPress={() => router.push('/register/sites/new')}
+            onPress={() => router.push(newSiteHref)}
           />
         ) : null
       }
@@ -409,17 +413,17 @@ function SiteView({ id, role }: { id: string; role: Role }) {
   const site = useSiteQuery(id);
   const rides = useRidePageQuery({ siteId: id, pageSize: 100, sort: 'name' });
   if (site.error instanceof ApiRequestError && site.error.status === 404)
-    return <NotFound title="No such site" back={{ href: '/register/sites', label: 'Sites' }} />;
+    return <NotFound title="No such site" back={{ href: sitesHref, label: 'Sites' }} />;
   return (
     <QueryState query={site}>
       {(s) => (
         <SubScreen
           title={s.name}
           subtitle={`${siteKindLabel[s.kind]} · ${s.operatorName}`}
-          back={{ href: '/register/sites', label: 'Sites' }}
+          back={{ href: sitesHref, label: 'Sites' }}
           actions={
             role === 'admin' ? (
-              <Button label="Edit site" tone="quiet" onPress={() => router.push(`${siteHref(s.id)}/edit`)} />
+              <Button label="Edit site" tone="quiet" onPress={() => router.push(siteEditHref(s.id))} />
             ) : null
           }
         >
@@ -467,7 +471,7 @@ function SiteEdit({ id }: { id: string | null }) {
     );
   if (!id)
     return (
-      <SubScreen title="New site" back={{ href: '/register/sites', label: 'Sites' }}>
+      <SubScreen title="New site" back={{ href: sitesHref, label: 'Sites' }}>
         <FormCard>
           {form({ name: '', kind: 'park', address: '', locality: '', operatorCompanyId: '' })}
         </FormCard>

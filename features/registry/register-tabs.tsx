@@ -1,24 +1,33 @@
-import { Link, usePathname } from 'expo-router';
+import { type Href, Link, usePathname } from 'expo-router';
 import { Pressable, ScrollView, StyleSheet } from 'react-native';
 
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import type { Role } from '@/features/auth/schema';
+import type { Role } from '@/features/session/schema';
+import {
+  auditHref,
+  checklistsHref,
+  companiesHref,
+  instrumentsHref,
+  schedulesHref,
+  sitesHref,
+} from '@/features/registry/hrefs';
+import { ridesHref } from '@/features/rides';
 
-type Tab = { href: string; label: string; roles: readonly Role[] };
+type Tab = { href: Extract<Href, string>; label: string; roles: readonly Role[] };
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
 const planners = ['admin', 'supervisor'] as const;
 
 /** The register's pages. Schedules and the audit log are for the people who plan and approve. */
 export const registerTabs: Tab[] = [
-  { href: '/rides', label: 'Rides', roles: staff },
-  { href: '/register/schedules', label: 'Schedules', roles: planners },
-  { href: '/register/checklists', label: 'Checklists', roles: staff },
-  { href: '/register/companies', label: 'Companies', roles: staff },
-  { href: '/register/sites', label: 'Sites', roles: staff },
-  { href: '/register/instruments', label: 'Instruments', roles: staff },
-  { href: '/register/audit', label: 'Audit log', roles: planners },
+  { href: ridesHref, label: 'Rides', roles: staff },
+  { href: schedulesHref, label: 'Schedules', roles: planners },
+  { href: checklistsHref, label: 'Checklists', roles: staff },
+  { href: companiesHref, label: 'Companies', roles: staff },
+  { href: sitesHref, label: 'Sites', roles: staff },
+  { href: instrumentsHref, label: 'Instruments', roles: staff },
+  { href: auditHref(), label: 'Audit log', roles: planners },
 ];
 
 export function tabsFor(role: Role): Tab[] {

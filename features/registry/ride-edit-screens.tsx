@@ -8,20 +8,20 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
+import { RoleGate } from '@/features/auth';
 import {
   operatorChoices,
   useCompanyListQuery,
   useRideCreateMutation,
   useRideUpdateMutation,
   useSiteListQuery,
+  useRideQuery,
 } from '@/features/registry/api';
 import { RideNotFound, useRideIdParam } from '@/features/registry/ride-route';
 import { type Option, RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { StatusForm } from '@/features/registry/status-form';
 import { formatDateTime } from '@/lib/dates';
-import { useRideQuery } from '@/features/rides/api';
-import { rideHref } from '@/features/rides/ride-card';
+import { rideHref, ridesHref } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
 
 const LOOKUP = { pageSize: 200, sort: 'name' } as const;
@@ -70,7 +70,7 @@ function RideCreate() {
     <SubScreen
       title="New ride"
       subtitle="Add a ride to the register."
-      back={{ href: '/rides', label: 'Rides' }}
+      back={{ href: ridesHref, label: 'Rides' }}
     >
       <FormCard>
         {options.ready ? (
@@ -194,7 +194,7 @@ function RideStatus({ ride }: { ride: RideSummary }) {
 export function WithRide({ id, children }: { id: string; children: (ride: RideSummary) => React.ReactNode }) {
   const ride = useRideQuery(id);
   if (ride.error instanceof ApiRequestError && ride.error.status === 404)
-    return <RideNotFound back={{ href: '/rides', label: 'Rides' }} />;
+    return <RideNotFound back={{ href: ridesHref, label: 'Rides' }} />;
   return <QueryState query={ride}>{(d) => children(d.ride)}</QueryState>;
 }
 

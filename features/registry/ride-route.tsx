@@ -1,9 +1,9 @@
-import { useLocalSearchParams } from 'expo-router';
+import { type Href, useLocalSearchParams } from 'expo-router';
 
 import { Card } from '@/components/card';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
-import type { Role } from '@/features/auth/schema';
+import type { Role } from '@/features/session/schema';
 
 /** Who may change a ride's register entry, design data, checklists and schedules. */
 export const canEditRides = (role: Role) => role === 'admin' || role === 'supervisor';
@@ -15,7 +15,7 @@ export function useRideIdParam(): string {
 }
 
 /** The register's answer to a ride id it does not show this person (missing, or another company's). */
-export function RideNotFound({ back }: { back: { href: string; label: string } }) {
+export function RideNotFound({ back }: { back: { href: Href; label: string } }) {
   return (
     <SubScreen title="Ride not found" back={back}>
       <Card role="alert">

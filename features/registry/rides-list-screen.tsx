@@ -12,8 +12,8 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { SessionUser } from '@/features/auth/schema';
+import { RoleGate } from '@/features/auth';
+import type { SessionUser } from '@/features/session/schema';
 import {
   operatorChoices,
   useCompanyListQuery,
@@ -21,13 +21,12 @@ import {
   useSiteListQuery,
 } from '@/features/registry/api';
 import { FilterGroups, FilterPanel } from '@/components/filter-panel';
-import { RideClassFilter, RideStatusFilter } from '@/features/rides/ride-filters';
+import { RideClassFilter, RideStatusFilter, newRideHref, rideHref, RideCard } from '@/features/rides';
 import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
 import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
-import { RideCard, rideHref } from '@/features/rides/ride-card';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 
 const PAGE_SIZE = 20;
@@ -137,7 +136,7 @@ function RidesList({ user }: { user: SessionUser }) {
           <Button
             label="New ride"
             tone="accent"
-            onPress={() => router.push('/rides/new')}
+            onPress={() => router.push(newRideHref)}
             icon={<Feather name="plus" size={18} color={colors.baseText} />}
           />
         ) : null

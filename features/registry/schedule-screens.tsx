@@ -15,8 +15,8 @@ import { TextField } from '@/components/text-field';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { SessionUser } from '@/features/auth/schema';
+import { RoleGate } from '@/features/auth';
+import type { SessionUser } from '@/features/session/schema';
 import {
   useInspectorsQuery,
   useRideSchedulesQuery,
@@ -42,12 +42,10 @@ import {
 } from '@/features/registry/schema';
 import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
-import { rideHref } from '@/features/rides/ride-card';
+import { rideHref, rideScheduleHref } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
 
 const planners = ['admin', 'supervisor'] as const;
-
-export const scheduleHref = (rideId: string) => `${rideHref(rideId)}/schedule`;
 
 /** One ride's inspections: each type with its interval, dates, due state and inspector; add or change. */
 export function RideScheduleScreen() {
@@ -227,7 +225,7 @@ function SchedulesList({ user }: { user: SessionUser }) {
               label="Planned inspections"
               rows={page.schedules}
               rowKey={(s) => s.id}
-              rowHref={(s) => scheduleHref(s.rideId)}
+              rowHref={(s) => rideScheduleHref(s.rideId)}
               rowLabel={(s) =>
                 `${s.rideName}, ${inspectionTypeLabel[s.inspectionType]}, ${dueStatusLabel(s.dueStatus)}`
               }
@@ -303,7 +301,7 @@ function ScheduleCard({ schedule: s }: { schedule: Schedule }) {
       <Button
         label="Plan and assign"
         tone="quiet"
-        onPress={() => router.push(scheduleHref(s.rideId))}
+        onPress={() => router.push(rideScheduleHref(s.rideId))}
         style={styles.start}
       />
     </Card>

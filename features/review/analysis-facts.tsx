@@ -5,9 +5,10 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { formatValue } from '@/features/loads/format';
+import { formatValue } from '@/features/loads';
 import { formatDateTime } from '@/lib/dates';
 import type { InspectionDetail } from '@/features/review/inspection-schema';
+import { rideVersionHref } from '@/features/rides';
 
 /**
  * What the result rests on: the engine and design-data versions the server used, when, and where the
@@ -15,9 +16,7 @@ import type { InspectionDetail } from '@/features/review/inspection-schema';
  */
 export function AnalysisFacts({ inspection }: { inspection: InspectionDetail }) {
   const a = inspection.analysis;
-  const versionHref = a
-    ? `/rides/${encodeURIComponent(inspection.rideId)}/versions/${a.designVersion}`
-    : null;
+  const versionHref = a ? rideVersionHref(inspection.rideId, a.designVersion) : null;
   return (
     <Card accessibilityLabel="Analysis facts">
       <Text variant="heading">What the analysis used</Text>

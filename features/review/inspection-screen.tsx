@@ -12,14 +12,20 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth/role-gate';
-import { useDesignVersionQuery } from '@/features/registry/api';
-import { ChainDrawing, type PivotPeak } from '@/features/registry/chain-drawing';
-import { designPose } from '@/features/registry/chain-geometry';
+import { RoleGate } from '@/features/auth';
+import {
+  useDesignVersionQuery,
+  useRideQuery,
+  ChainDrawing,
+  type PivotPeak,
+  designPose,
+} from '@/features/registry';
 import type { DesignData } from '@/features/loads/design-schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { AnalysisFacts } from '@/features/review/analysis-facts';
+import { reviewHref, reviewQueueHref } from '@/features/review/hrefs';
+import { rideHref } from '@/features/rides';
 import { ChecklistResults } from '@/features/review/checklist-results';
 import { CycleCharts } from '@/features/review/cycle-charts';
 import { DecisionPanel } from '@/features/review/decision-panel';
@@ -30,8 +36,7 @@ import { LimitsSection, ReadingsTable } from '@/features/review/readings-table';
 import { pivotName, reviewStateLabel } from '@/features/review/review-format';
 import { TrailList } from '@/features/review/trail-list';
 import { TrendsPanel } from '@/features/review/trends-panel';
-import { useRideQuery } from '@/features/rides/api';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 import type { UnitSystem } from '@/lib/units';
 
 /** Below this window width the decision panel follows the readings instead of standing beside them. */
@@ -49,7 +54,7 @@ export function InspectionReviewScreen() {
   );
 }
 
-const back = { href: '/review' as const, label: 'Review queue' };
+const back = { href: reviewQueueHref, label: 'Review queue' } as const;
 
 export function InspectionReview({ id }: { id: string }) {
   const query = useInspectionReview(id);
@@ -244,7 +249,7 @@ function Header({
   return (
     <Card style={styles.header}>
       <View style={styles.headerTop}>
-        <Link href={`/rides/${encodeURIComponent(i.rideId)}`} asChild>
+        <Link href={rideHref(i.rideId)} asChild>
           <Pressable role="link" accessibilityLabel={`Ride ${i.rideName}`} style={styles.rideLink}>
             <Text variant="title" color={colors.accent}>
               {i.rideName}
@@ -337,7 +342,7 @@ function Fact({ label, value }: { label: string; value: string }) {
 
 function InspectionLink({ id, label }: { id: string; label: string }) {
   return (
-    <Link href={`/review/${encodeURIComponent(id)}`} asChild>
+    <Link href={reviewHref(id)} asChild>
       <Pressable role="link" style={styles.inlineLink}>
         <Feather name="git-commit" size={16} color={colors.accent} />
         <Text variant="heading" color={colors.accent}>

@@ -1,9 +1,23 @@
 import Feather from '@expo/vector-icons/Feather';
-import { Link, router } from 'expo-router';
+import { type Href, Link, router } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
-import { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
+import {
+  RideNotFound,
+  canEditRides,
+  useRideIdParam,
+  useMyAssignmentsQuery,
+  useRideSchedulesQuery,
+  useRideQuery,
+  auditHref,
+  DesignDrawingPanel,
+  DesignVersionCard,
+  Field,
+  useDesignAnalysis,
+  DueMark,
+  dueInWords,
+} from '@/features/registry';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { RideStatusMark } from '@/components/status-mark';
@@ -11,25 +25,22 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { roleHome } from '@/features/auth/api';
-import { RoleGate } from '@/features/auth/role-gate';
-import type { Role, SessionUser } from '@/features/auth/schema';
-import { useMyAssignmentsQuery, useRideSchedulesQuery } from '@/features/registry/api';
-import {
-  DesignDrawingPanel,
-  DesignVersionCard,
-  Field,
-  useDesignAnalysis,
-} from '@/features/registry/design-view';
-import { DueMark, dueInWords } from '@/features/registry/due-mark';
+import { roleHome, RoleGate } from '@/features/auth';
+import type { Role, SessionUser } from '@/features/session/schema';
 import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices/ride-notices-api';
-import { NoticeRow } from '@/features/notices/ride-notices';
-import { useRideQuery } from '@/features/rides/api';
+import { RIDE_NOTICES_PAGE, useRideNotices, NoticeRow } from '@/features/notices';
+import {
+  rideDesignHref,
+  rideEditHref,
+  rideImportHref,
+  rideScheduleHref,
+  ridesHref,
+  rideStatusHref,
+} from '@/features/rides';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
-import { useUnitSystem } from '@/features/settings/unit-system';
+import { useUnitSystem } from '@/features/settings';
 
 const isStaff = (role: Role) => role !== 'operator';
 
@@ -50,8 +61,8 @@ export function RideDetailScreen() {
 
 function RideDetail({ id, user }: { id: string; user: SessionUser }) {
   const ride = useRideQuery(id);
-  const back = isStaff(user.role)
-    ? { href: '/rides' as const, label: 'Rides' }
+  const back: { href: Href; label: string } = isStaff(user.role)
+    ? { href: ridesHref, label: 'Rides' }
     : { href: roleHome[user.role], label: 'My rides' };
   if (ride.error instanceof ApiRequestError && ride.error.status === 404) {
     return <RideNotFound back={back} />;
@@ -72,7 +83,7 @@ function RideDetailBody({
   ride: RideSummary;
   design: DesignVersion | null;
   user: SessionUser;
-  back: { href: string; label: string };
+  back: { href: Href; label: string };
 }) {
   const editor = canEditRides(user.role);
   const staff = isStaff(user.role);
@@ -91,13 +102,7 @@ function RideDetailBody({
         </View>
         <Field label="Site" value={ride.siteName ?? 'No site'} />
         <Field label="Operator" value={ride.operatorName} />
-        {editor ? (
-          <LinkRow
-            href={`/register/audit?rideId=${encodeURIComponent(ride.id)}`}
-            label="History of changes"
-            icon="clock"
-          />
-        ) : null}
+        {editor ? <LinkRow href={auditHref(ride.id)} label="History of changes" icon="clock" /> : null}
       </Card>
       {staff && design ? (
         <DesignVersionCard
@@ -126,7 +131,7 @@ function RideDetailBody({
             <Button
               label="Import design data"
               tone="accent"
-              onPress={() => router.push(`/rides/${encodeURIComponent(ride.id)}/import`)}
+              onPress={() => router.push(rideImportHref(ride.id))}
               style={styles.start}
             />
           ) : null}
@@ -147,13 +152,9 @@ function RideDetailBody({
             <Button
               label="Change status"
               tone="accent"
-              onPress={() => router.push(`/rides/${encodeURIComponent(ride.id)}/status`)}
+              onPress={() => router.push(rideStatusHref(ride.id))}
             />
-            <Button
-              label="Edit ride"
-              tone="quiet"
-              onPress={() => router.push(`/rides/${encodeURIComponent(ride.id)}/edit`)}
-            />
+            <Button label="Edit ride" tone="quiet" onPress={() => router.push(rideEditHref(ride.id))} />
           </>
         ) : null
       }
@@ -170,9 +171,7 @@ function StatusCard({ ride, editor }: { ride: RideSummary; editor: boolean }) {
       <RideStatusMark status={ride.status} />
       {ride.statusReason ? <Field label="Reason" value={ride.statusReason} /> : null}
       <Field label="Since" value={ride.statusSince ? formatDateTime(ride.statusSince) : '—'} />
-      {editor ? (
-        <LinkRow href={`/rides/${encodeURIComponent(ride.id)}/status`} label="Change status" icon="edit-3" />
-      ) : null}
+      {editor ? <LinkRow href={rideStatusHref(ride.id)} label="Change status" icon="edit-3" /> : null}
     </Card>
   );
 }
@@ -184,11 +183,10 @@ function DesignPane({ design }: { design: DesignVersion }) {
 }
 
 function DesignLinks({ rideId, editor }: { rideId: string; editor: boolean }) {
-  const base = `/rides/${encodeURIComponent(rideId)}`;
   return (
     <View style={styles.links}>
-      <LinkRow href={`${base}/design`} label="All design data and versions" icon="layers" />
-      {editor ? <LinkRow href={`${base}/import`} label="Import or export" icon="upload" /> : null}
+      <LinkRow href={rideDesignHref(rideId)} label="All design data and versions" icon="layers" />
+      {editor ? <LinkRow href={rideImportHref(rideId)} label="Import or export" icon="upload" /> : null}
     </View>
   );
 }
@@ -199,7 +197,7 @@ export function LinkRow({
   label,
   icon,
 }: {
-  href: string;
+  href: Href;
   label: string;
   icon: 'layers' | 'upload' | 'edit-3' | 'calendar' | 'list' | 'clock';
 }) {
@@ -237,13 +235,7 @@ function ScheduleCard({ rideId, role }: { rideId: string; role: Role }) {
       ) : (
         rows(query.data).map((s) => <ScheduleLine key={s.id} schedule={s} />)
       )}
-      {planner ? (
-        <LinkRow
-          href={`/rides/${encodeURIComponent(rideId)}/schedule`}
-          label="Plan and assign"
-          icon="calendar"
-        />
-      ) : null}
+      {planner ? <LinkRow href={rideScheduleHref(rideId)} label="Plan and assign" icon="calendar" /> : null}
     </Card>
   );
 }

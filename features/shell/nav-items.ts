@@ -1,45 +1,50 @@
-import type { Role } from '@/features/auth/schema';
+import type { Href } from 'expo-router';
+
+import { accountHref, roleHome } from '@/features/auth';
+import type { Role } from '@/features/session/schema';
+import { noticesHref } from '@/features/notices';
+import { ridesHref } from '@/features/rides';
 
 export type NavIcon = 'sun' | 'inbox' | 'home' | 'users' | 'activity' | 'user' | 'list' | 'file-text';
 export type NavItem = {
-  href: string;
+  href: Extract<Href, string>;
   label: string;
   icon: NavIcon;
   /** Other path prefixes that belong to this item (the register's pages sit under "Rides"). */
   also?: readonly string[];
 };
 
-const rides: NavItem = { href: '/rides', label: 'Rides', icon: 'list', also: ['/register'] };
+const rides: NavItem = { href: ridesHref, label: 'Rides', icon: 'list', also: ['/register'] };
 /** Notices to operators: an operator's own company's, every notice for the inspection body's staff. */
-const notices: NavItem = { href: '/notices', label: 'Notices', icon: 'file-text' };
+const notices: NavItem = { href: noticesHref, label: 'Notices', icon: 'file-text' };
 
 /** What each role sees in the navigation, in order. The first item is the role's home. */
 export const navItems: Record<Role, NavItem[]> = {
   inspector: [
-    { href: '/today', label: 'Today', icon: 'sun' },
+    { href: roleHome.inspector, label: 'Today', icon: 'sun' },
     rides,
     notices,
     { href: '/loads', label: 'Load check', icon: 'activity' },
-    { href: '/account', label: 'Account', icon: 'user' },
+    { href: accountHref, label: 'Account', icon: 'user' },
   ],
   supervisor: [
-    { href: '/review', label: 'Review', icon: 'inbox' },
+    { href: roleHome.supervisor, label: 'Review', icon: 'inbox' },
     rides,
     notices,
     { href: '/loads', label: 'Load check', icon: 'activity' },
-    { href: '/account', label: 'Account', icon: 'user' },
+    { href: accountHref, label: 'Account', icon: 'user' },
   ],
   operator: [
-    { href: '/my-rides', label: 'My rides', icon: 'home' },
+    { href: roleHome.operator, label: 'My rides', icon: 'home' },
     notices,
-    { href: '/account', label: 'Account', icon: 'user' },
+    { href: accountHref, label: 'Account', icon: 'user' },
   ],
   admin: [
-    { href: '/admin', label: 'Admin', icon: 'users' },
+    { href: roleHome.admin, label: 'Admin', icon: 'users' },
     rides,
     notices,
     { href: '/loads', label: 'Load check', icon: 'activity' },
-    { href: '/account', label: 'Account', icon: 'user' },
+    { href: accountHref, label: 'Account', icon: 'user' },
   ],
 };
 

@@ -14,7 +14,7 @@ import {
   cachedRides,
   decisions,
 } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db/connection';
+import type { DeviceDb } from '@/features/device-db';
 import { type RideSummary, rideSummarySchema } from '@/features/rides/schema';
 import {
   type PulledAssignment,
@@ -149,11 +149,6 @@ export async function writeDecisions(
       })
       .run();
   }
-}
-
-export async function readDecision(dev: DeviceDb, inspectionId: string): Promise<PulledDecision | null> {
-  const rows = await dev.db.select().from(decisions).where(eq(decisions.inspectionId, inspectionId)).all();
-  return parseEach(pulledDecisionSchema, rows)[0] ?? null;
 }
 
 /** Every decision the phone holds, for the inspector's list of sent inspections. */

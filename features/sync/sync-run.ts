@@ -3,8 +3,8 @@
  * meta (last success, last error). Runs one at a time per database: a second call while one is running
  * gets the running one.
  */
-import type { DeviceDb } from '@/features/device-db/connection';
-import { setSyncMeta } from '@/features/device-db/sync-meta';
+import type { DeviceDb } from '@/features/device-db';
+import { setSyncMeta } from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import type { SendFailure } from '@/features/sync/outbox-machine';
 import { type PhotoProgress, type PhotoUploadReport, uploadPhotos } from '@/features/sync/photo-upload';
@@ -34,10 +34,6 @@ export function syncOnce(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): 
   const run = runSync(api, dev, options).finally(() => running.delete(dev));
   running.set(dev, run);
   return run;
-}
-
-export function isSyncRunning(dev: DeviceDb): boolean {
-  return running.has(dev);
 }
 
 async function runSync(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): Promise<SyncRunReport> {
