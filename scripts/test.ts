@@ -67,6 +67,8 @@ const quick = process.argv.includes('--no-browser');
 
 check('lint (eslint)', bin('eslint'), ['.', '--max-warnings=0']);
 check('format (prettier --check)', bin('prettier'), ['--check', '.']);
+// tsc checks every link against types/routes.d.ts; say plainly when that file no longer matches app/.
+check('route types (types/routes.d.ts matches app/)', bin('tsx'), ['scripts/route-types.ts', '--check']);
 check('types (tsc --noEmit)', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
 jest('unit and server tests', ['--ci']);
 if (!quick) {
