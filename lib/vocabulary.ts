@@ -113,6 +113,10 @@ export const reviewStateVocabulary: Record<ReviewState, Words> = {
   returned: { label: 'Returned to inspector' },
 };
 
+/** The image types a photo may be stored as. */
+export const photoMimes = ['image/jpeg', 'image/png', 'image/webp'] as const;
+export type PhotoMime = (typeof photoMimes)[number];
+
 /** A value against its limit, best first: disc, triangle, barred square. */
 export const envelopeStatuses = ['within', 'near', 'over'] as const;
 export type EnvelopeStatus = (typeof envelopeStatuses)[number];

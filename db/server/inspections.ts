@@ -23,6 +23,7 @@ import type { EnvelopeItem } from '@/features/loads/engine';
 import {
   envelopeStatuses,
   inspectionTypes,
+  photoMimes,
   reviewStates,
   type EnvelopeStatus,
   type ReviewState,
@@ -37,7 +38,7 @@ import {
 export { envelopeStatuses, reviewStates };
 export type { ReviewState };
 export type EnvelopeStatusValue = EnvelopeStatus;
-export const photoMimes = ['image/jpeg', 'image/png', 'image/webp'] as const;
+export { photoMimes };
 
 // Same helpers as db/server/schema.ts: CHECKs name bare columns so drizzle-kit's table rebuilds keep working.
 const col = (column: { name: string }) => sql.identifier(column.name);

@@ -6,7 +6,7 @@
 import { z } from 'zod';
 
 import { inspectionTypeSchema } from '@/features/registry/schema';
-import { checkResults, checkResultVocabulary, labelsOf } from '@/lib/vocabulary';
+import { checkResults, checkResultVocabulary, labelsOf, photoMimes } from '@/lib/vocabulary';
 
 const uuid = () => z.uuid({ error: 'Must be a UUID' });
 const isoTime = () => z.iso.datetime({ offset: true, error: 'Must be an ISO date-time' });
@@ -140,7 +140,7 @@ export type Reading = z.infer<typeof readingSchema>;
 export const photoRefSchema = z.object({
   id: uuid(),
   sha256: z.string().regex(/^[0-9a-f]{64}$/, 'Must be a lower-case hex SHA-256'),
-  mime: z.enum(['image/jpeg', 'image/png', 'image/webp']),
+  mime: z.enum(photoMimes),
   bytes: z.int().positive(),
   caption: z.string().max(500),
   joint: z.int().min(0).max(9).nullable(),
