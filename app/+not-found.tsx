@@ -1,3 +1,1 @@
-import { NotFoundScreen } from '@/features/shell/not-found-screen';
-
-export default NotFoundScreen;
+export { NotFoundScreen as default } from '@/features/shell/not-found-screen';

@@ -1,3 +1,1 @@
-import { AccountScreen } from '@/features/auth/account-screen';
-
-export default AccountScreen;
+export { AccountScreen as default } from '@/features/auth/account-screen';

@@ -1,3 +1,1 @@
-import { CalculatorScreen } from '@/features/calculator/calculator-screen';
-
-export default CalculatorScreen;
+export { CalculatorScreen as default } from '@/features/calculator/calculator-screen';

@@ -1,3 +1,1 @@
-import { OperatorHome } from '@/features/home/operator-home';
-
-export default OperatorHome;
+export { OperatorHome as default } from '@/features/home/operator-home';

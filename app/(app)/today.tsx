@@ -1,3 +1,1 @@
-import { TodayScreen } from '@/features/inspections/today-screen';
-
-export default TodayScreen;
+export { TodayScreen as default } from '@/features/inspections/today-screen';

@@ -1,3 +1,1 @@
-import { SignInScreen } from '@/features/auth/sign-in-screen';
-
-export default SignInScreen;
+export { SignInScreen as default } from '@/features/auth/sign-in-screen';

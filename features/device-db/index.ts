@@ -12,5 +12,5 @@ export {
   putPhotoBlob,
 } from '@/features/device-db/photos';
 export type { PhotoBlob } from '@/features/device-db/photos';
-export { useDeviceDb } from '@/features/device-db/provider';
+export { DeviceDbProvider, useDeviceDb } from '@/features/device-db/provider';
 export { getAllSyncMeta, getSyncMeta, setSyncMeta } from '@/features/device-db/sync-meta';

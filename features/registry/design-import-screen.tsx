@@ -26,13 +26,13 @@ import {
 import { DesignComparison } from '@/features/registry/design-comparison';
 import type { DesignData } from '@/features/loads/design-schema';
 import { loosensALimit } from '@/features/registry/design-diff';
-import { ExportCard } from '@/features/registry/design-screens';
+import { ExportCard } from '@/features/registry/design-export-card';
 import { DesignDrawingPanel, useDesignAnalysis } from '@/features/registry/design-view';
 import { FormText } from '@/components/form/fields';
 import { type ReportLine, formatFromName, importReport } from '@/features/registry/import-report';
 import { Panes } from '@/components/panes';
 import { readPickedFile } from '@/features/registry/read-picked-file';
-import { WithRide } from '@/features/registry/ride-edit-screens';
+import { WithRide } from '@/features/registry/with-ride';
 import { useRideIdParam } from '@/features/registry/ride-route';
 import { changeReasonSchema } from '@/features/registry/schema';
 import { applyServerError, fieldsOf } from '@/components/form/server-errors';

@@ -1,3 +1,1 @@
-import { AdminHome } from '@/features/home/admin-home';
-
-export default AdminHome;
+export { AdminHome as default } from '@/features/home/admin-home';

@@ -1,3 +1,1 @@
-import { OutboxScreen } from '@/features/notices/outbox-screen';
-
-export default OutboxScreen;
+export { OutboxScreen as default } from '@/features/notices/outbox-screen';

@@ -1,3 +1,1 @@
-import { NoticeScreen } from '@/features/notices/notice-screen';
-
-export default NoticeScreen;
+export { NoticeScreen as default } from '@/features/notices/notice-screen';

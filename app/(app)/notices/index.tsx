@@ -1,3 +1,1 @@
-import { NoticeListScreen } from '@/features/notices/notice-list-screen';
-
-export default NoticeListScreen;
+export { NoticeListScreen as default } from '@/features/notices/notice-list-screen';

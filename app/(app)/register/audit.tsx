@@ -1,3 +1,1 @@
-import { AuditScreen } from '@/features/registry/audit-screen';
-
-export default AuditScreen;
+export { AuditScreen as default } from '@/features/registry/audit-screen';

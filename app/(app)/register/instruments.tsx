@@ -1,3 +1,1 @@
-import { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
-
-export default InstrumentRegisterScreen;
+export { InstrumentRegisterScreen as default } from '@/features/instruments/register-screen';

@@ -1,3 +1,1 @@
-import { SchedulesListScreen } from '@/features/registry/schedule-screens';
-
-export default SchedulesListScreen;
+export { SchedulesListScreen as default } from '@/features/registry/schedules-list-screen';

@@ -1,3 +1,1 @@
-import { InspectionReviewScreen } from '@/features/review/inspection-screen';
-
-export default InspectionReviewScreen;
+export { InspectionReviewScreen as default } from '@/features/review/inspection-screen';

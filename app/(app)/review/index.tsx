@@ -1,3 +1,1 @@
-import { QueueScreen } from '@/features/review/queue-screen';
-
-export default QueueScreen;
+export { QueueScreen as default } from '@/features/review/queue-screen';

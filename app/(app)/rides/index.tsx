@@ -1,3 +1,1 @@
-import { RidesListScreen } from '@/features/registry/rides-list-screen';
-
-export default RidesListScreen;
+export { RidesListScreen as default } from '@/features/registry/rides-list-screen';

@@ -1,3 +1,1 @@
-import { RideCreateScreen } from '@/features/registry/ride-edit-screens';
-
-export default RideCreateScreen;
+export { RideCreateScreen as default } from '@/features/registry/ride-create-screen';

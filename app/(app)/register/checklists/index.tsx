@@ -1,3 +1,1 @@
-import { ChecklistsListScreen } from '@/features/registry/checklist-screens';
-
-export default ChecklistsListScreen;
+export { ChecklistsListScreen as default } from '@/features/registry/checklists-list-screen';

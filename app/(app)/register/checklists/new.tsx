@@ -1,3 +1,1 @@
-import { ChecklistCreateScreen } from '@/features/registry/checklist-screens';
-
-export default ChecklistCreateScreen;
+export { ChecklistCreateScreen as default } from '@/features/registry/checklist-create-screen';

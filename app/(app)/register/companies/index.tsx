@@ -1,3 +1,1 @@
-import { CompaniesListScreen } from '@/features/registry/register-screens';
-
-export default CompaniesListScreen;
+export { CompaniesListScreen as default } from '@/features/registry/companies-list-screen';

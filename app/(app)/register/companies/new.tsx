@@ -1,3 +1,1 @@
-import { CompanyEditScreen } from '@/features/registry/register-screens';
-
-export default CompanyEditScreen;
+export { CompanyEditScreen as default } from '@/features/registry/company-edit-screen';

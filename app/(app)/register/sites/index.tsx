@@ -1,3 +1,1 @@
-import { SitesListScreen } from '@/features/registry/register-screens';
-
-export default SitesListScreen;
+export { SitesListScreen as default } from '@/features/registry/sites-list-screen';

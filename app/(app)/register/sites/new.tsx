@@ -1,3 +1,1 @@
-import { SiteEditScreen } from '@/features/registry/register-screens';
-
-export default SiteEditScreen;
+export { SiteEditScreen as default } from '@/features/registry/site-edit-screen';

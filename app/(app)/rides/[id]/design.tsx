@@ -1,3 +1,1 @@
-import { DesignScreen } from '@/features/registry/design-screens';
-
-export default DesignScreen;
+export { DesignScreen as default } from '@/features/registry/design-screen';

@@ -1,3 +1,1 @@
-import { RideEditScreen } from '@/features/registry/ride-edit-screens';
-
-export default RideEditScreen;
+export { RideEditScreen as default } from '@/features/registry/ride-edit-screen';

@@ -1,3 +1,1 @@
-import { DesignImportScreen } from '@/features/registry/design-import-screen';
-
-export default DesignImportScreen;
+export { DesignImportScreen as default } from '@/features/registry/design-import-screen';

@@ -1,3 +1,1 @@
-import { RideDetailScreen } from '@/features/ride-page/ride-detail-screen';
-
-export default RideDetailScreen;
+export { RideDetailScreen as default } from '@/features/ride-page/ride-detail-screen';

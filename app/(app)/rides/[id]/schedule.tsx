@@ -1,3 +1,1 @@
-import { RideScheduleScreen } from '@/features/registry/schedule-screens';
-
-export default RideScheduleScreen;
+export { RideScheduleScreen as default } from '@/features/registry/ride-schedule-screen';

@@ -1,3 +1,1 @@
-import { RideStatusScreen } from '@/features/registry/ride-edit-screens';
-
-export default RideStatusScreen;
+export { RideStatusScreen as default } from '@/features/registry/ride-status-screen';

@@ -1,3 +1,1 @@
-import { ChecklistEditScreen } from '@/features/registry/checklist-screens';
-
-export default ChecklistEditScreen;
+export { ChecklistEditScreen as default } from '@/features/registry/checklist-edit-screen';

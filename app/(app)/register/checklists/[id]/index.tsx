@@ -1,3 +1,1 @@
-import { ChecklistScreen } from '@/features/registry/checklist-screens';
-
-export default ChecklistScreen;
+export { ChecklistScreen as default } from '@/features/registry/checklist-screen';

@@ -1,3 +1,1 @@
-import { CompanyScreen } from '@/features/registry/register-screens';
-
-export default CompanyScreen;
+export { CompanyScreen as default } from '@/features/registry/company-screen';

@@ -1,3 +1,1 @@
-import { SiteScreen } from '@/features/registry/register-screens';
-
-export default SiteScreen;
+export { SiteScreen as default } from '@/features/registry/site-screen';

@@ -1,3 +1,1 @@
-import { DesignVersionScreen } from '@/features/registry/design-screens';
-
-export default DesignVersionScreen;
+export { DesignVersionScreen as default } from '@/features/registry/design-version-screen';

@@ -1,0 +1,49 @@
+import { Redirect, Slot, usePathname } from 'expo-router';
+
+import { FullScreenWait } from '@/components/full-screen-wait';
+import { useSession, signInHref, rememberNextPath } from '@/features/auth';
+import { DeviceDbProvider } from '@/features/device-db';
+import { AppShell } from '@/features/shell/app-shell';
+import { BackgroundSync } from '@/features/sync';
+
+/**
+ * Everything in this group needs a session; signed-out visitors go to sign-in, which brings them back to
+ * the page they asked for (an e-mailed link to a notice) once they are in.
+ */
+export function AppLayout() {
+  const session = useSession();
+  const pathname = usePathname();
+  if (session.isPending) {
+    // While the session loads this layout renders no Slot, and the router falls back to "/" (which then
+    // sends the person on): remember the page asked for, so "/" can bring them back to it.
+    if (comeBackTo(pathname)) rememberNextPath(pathname);
+    return <FullScreenWait />;
+  }
+  if (!session.data) {
+    if (comeBackTo(pathname)) rememberNextPath(pathname);
+    return (
+      // A plain string: on the web, an href object here also carried the page's own params along.
+      <Redirect href={signInHref(comeBackTo(pathname) ? pathname : null)} />
+    );
+  }
+  const shell = (
+    <AppShell user={session.data.user}>
+      <Slot />
+    </AppShell>
+  );
+  // Only inspectors record in the field; desk roles need no device database (and no single-tab lock).
+  return session.data.user.role === 'inspector' ? (
+    <DeviceDbProvider>
+      <BackgroundSync />
+      {shell}
+    </DeviceDbProvider>
+  ) : (
+    shell
+  );
+}
+
+/**
+ * Whether to return to this page after signing in. Not the start page ("/" picks each role's own) and
+ * not the account page, where people sign out: whoever signs in next wants their own start page.
+ */
+const comeBackTo = (pathname: string | null) => !!pathname && pathname !== '/' && pathname !== '/account';
