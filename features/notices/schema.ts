@@ -171,7 +171,6 @@ export const noticeDeliverySchema = z.object({
   lastError: z.string().nullable(),
   sentAt: z.string().nullable(),
 });
-export type NoticeDelivery = z.infer<typeof noticeDeliverySchema>;
 
 export const correctiveActionSchema = z.object({
   id: z.string(),
