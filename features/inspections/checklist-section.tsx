@@ -141,22 +141,7 @@ function ItemCard({
 
   return (
     <Card style={answer.result === 'fail' || over ? styles.failed : undefined}>
-      <Text variant="heading">{answer.text}</Text>
-      {item?.guidance ? (
-        <Text variant="small" muted>
-          {item.guidance}
-        </Text>
-      ) : null}
-      {item?.photoRequired || item?.measurementRequired ? (
-        <Text variant="small" color={colors.accent}>
-          {[
-            item.photoRequired ? `Photo required (${photos} taken)` : null,
-            item.measurementRequired ? 'Measurement required' : null,
-          ]
-            .filter(Boolean)
-            .join(' · ')}
-        </Text>
-      ) : null}
+      <ItemHeading answer={answer} item={item} photos={photos} />
       <ResultChoice answer={answer} onChoose={choose} />
       <ChecklistValue
         answer={answer}
@@ -207,6 +192,30 @@ function ItemCard({
         </Pressable>
       )}
     </Card>
+  );
+}
+
+/** The item, its guidance, and what it requires (with the photos taken so far). */
+function ItemHeading({ answer, item, photos }: { answer: Answer; item: Item | undefined; photos: number }) {
+  return (
+    <>
+      <Text variant="heading">{answer.text}</Text>
+      {item?.guidance ? (
+        <Text variant="small" muted>
+          {item.guidance}
+        </Text>
+      ) : null}
+      {item?.photoRequired || item?.measurementRequired ? (
+        <Text variant="small" color={colors.accent}>
+          {[
+            item.photoRequired ? `Photo required (${photos} taken)` : null,
+            item.measurementRequired ? 'Measurement required' : null,
+          ]
+            .filter(Boolean)
+            .join(' · ')}
+        </Text>
+      ) : null}
+    </>
   );
 }
 

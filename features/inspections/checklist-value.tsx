@@ -144,32 +144,58 @@ export function ChecklistValue({
         </Text>
       ) : null}
       {target && answer.measurement ? (
-        reading ? (
-          <Text variant="small" muted>
-            Kept as the reading “{reading.label}” · {measuredWithWords(reading)}
-          </Text>
-        ) : (
-          <View style={styles.measured}>
-            <Text variant="small">
-              This value is also the pivot’s reading. Say how it was measured to keep it there.
-            </Text>
-            <MeasuredWithPicker
-              kind={target.kind}
-              instruments={instruments}
-              today={isoDay(new Date())}
-              value={measured}
-              onChange={(m) => {
-                setMeasured(m);
-                const problem = measuredWithProblem(m, isoDay(new Date()));
-                setMeasuredError(m.method && m.instrument !== undefined ? (problem ?? undefined) : undefined);
-                if (!problem) store(measurementOf(valueText), m);
-              }}
-              error={measuredError}
-            />
-          </View>
-        )
+        <PivotReading
+          target={target}
+          reading={reading}
+          instruments={instruments}
+          measured={measured}
+          error={measuredError}
+          onMeasured={(m) => {
+            setMeasured(m);
+            const problem = measuredWithProblem(m, isoDay(new Date()));
+            setMeasuredError(m.method && m.instrument !== undefined ? (problem ?? undefined) : undefined);
+            if (!problem) store(measurementOf(valueText), m);
+          }}
+        />
       ) : null}
     </>
+  );
+}
+
+/** The pivot reading the value also is: kept with how it was measured, or asking how it was measured. */
+function PivotReading({
+  target,
+  reading,
+  instruments,
+  measured,
+  error,
+  onMeasured,
+}: {
+  target: ReadingTarget;
+  reading: Draft['readings'][number] | undefined;
+  instruments: Instrument[];
+  measured: MeasuredWith;
+  error: string | undefined;
+  onMeasured: (m: MeasuredWith) => void;
+}) {
+  return reading ? (
+    <Text variant="small" muted>
+      Kept as the reading “{reading.label}” · {measuredWithWords(reading)}
+    </Text>
+  ) : (
+    <View style={styles.measured}>
+      <Text variant="small">
+        This value is also the pivot’s reading. Say how it was measured to keep it there.
+      </Text>
+      <MeasuredWithPicker
+        kind={target.kind}
+        instruments={instruments}
+        today={isoDay(new Date())}
+        value={measured}
+        onChange={onMeasured}
+        error={error}
+      />
+    </View>
   );
 }
 
