@@ -6,7 +6,7 @@ import type { Href } from 'expo-router';
 
 import type { Role } from '@/features/session/schema';
 
-export const accountHref = '/account' satisfies Href;
+export const accountHref = '/account' as const satisfies Href;
 
 /** The sign-in page, coming back to `next` (a path of this site) once signed in. */
 export const signInHref = (next?: string | null) =>

@@ -6,7 +6,7 @@ import type { Href } from 'expo-router';
 
 import { noticePath } from '@/lib/paths';
 
-export const noticesHref = '/notices' satisfies Href;
+export const noticesHref = '/notices' as const satisfies Href;
 export const noticeHref = (id: string) => noticePath(id) satisfies Href;
 /** The e-mail outbox (an admin page, drawn by the notices feature). */
-export const outboxHref = '/admin/outbox' satisfies Href;
+export const outboxHref = '/admin/outbox' as const satisfies Href;

@@ -12,7 +12,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth';
+import { RoleGate, roleHome } from '@/features/auth';
 import { NO_LOCAL_MAILBOX, useOutboxMessageQuery, useOutboxQuery } from '@/features/notices/outbox-api';
 import { downloadOutboxAttachment } from '@/features/notices/outbox-download';
 import { attachmentFileName, formatBytes, htmlToText } from '@/features/notices/outbox-text';
@@ -22,7 +22,7 @@ import { formatDateTime } from '@/lib/dates';
 type FullMessage = z.infer<typeof outboxMessageResponseSchema>['message'];
 type Attachment = OutboxMessage['attachments'][number];
 
-const back = { href: '/admin' as const, label: 'Administration' };
+const back = { href: roleHome.admin, label: 'Administration' };
 
 /**
  * `/admin/outbox`: every e-mail the server's built-in mailbox received (development, the demo and tests),

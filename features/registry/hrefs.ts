@@ -9,17 +9,17 @@ const company = (id: string) => `/register/companies/${encodeURIComponent(id)}` 
 const site = (id: string) => `/register/sites/${encodeURIComponent(id)}` as const;
 const checklist = (id: string) => `/register/checklists/${encodeURIComponent(id)}` as const;
 
-export const companiesHref = '/register/companies' satisfies Href;
-export const newCompanyHref = '/register/companies/new' satisfies Href;
+export const companiesHref = '/register/companies' as const satisfies Href;
+export const newCompanyHref = '/register/companies/new' as const satisfies Href;
 export const companyHref = (id: string) => company(id) satisfies Href;
 export const companyEditHref = (id: string) => `${company(id)}/edit` as const satisfies Href;
 
-export const sitesHref = '/register/sites' satisfies Href;
-export const newSiteHref = '/register/sites/new' satisfies Href;
+export const sitesHref = '/register/sites' as const satisfies Href;
+export const newSiteHref = '/register/sites/new' as const satisfies Href;
 export const siteHref = (id: string) => site(id) satisfies Href;
 export const siteEditHref = (id: string) => `${site(id)}/edit` as const satisfies Href;
 
-export const checklistsHref = '/register/checklists' satisfies Href;
+export const checklistsHref = '/register/checklists' as const satisfies Href;
 /** A new template, started for one ride class. */
 export const newChecklistHref = (rideClass: string) =>
   `/register/checklists/new?rideClass=${encodeURIComponent(rideClass)}` as const satisfies Href;
@@ -28,8 +28,8 @@ export const checklistEditHref = (id: string) => `${checklist(id)}/edit` as cons
 export const checklistVersionHref = (id: string, version: number) =>
   `${checklist(id)}/versions/${version}` as const satisfies Href;
 
-export const schedulesHref = '/register/schedules' satisfies Href;
-export const instrumentsHref = '/register/instruments' satisfies Href;
+export const schedulesHref = '/register/schedules' as const satisfies Href;
+export const instrumentsHref = '/register/instruments' as const satisfies Href;
 /** The audit log, or one ride's part of it. */
 export const auditHref = (rideId?: string) =>
   (rideId

@@ -8,8 +8,8 @@ import type { Href } from 'expo-router';
 
 const ride = (id: string) => `/rides/${encodeURIComponent(id)}` as const;
 
-export const ridesHref = '/rides' satisfies Href;
-export const newRideHref = '/rides/new' satisfies Href;
+export const ridesHref = '/rides' as const satisfies Href;
+export const newRideHref = '/rides/new' as const satisfies Href;
 export const rideHref = (id: string) => ride(id) satisfies Href;
 export const rideEditHref = (id: string) => `${ride(id)}/edit` as const satisfies Href;
 export const rideStatusHref = (id: string) => `${ride(id)}/status` as const satisfies Href;

@@ -1,6 +1,7 @@
 import type { Href } from 'expo-router';
 
 import { accountHref, roleHome } from '@/features/auth';
+import { calculatorHref } from '@/features/calculator';
 import type { Role } from '@/features/session/schema';
 import { noticesHref } from '@/features/notices';
 import { ridesHref } from '@/features/rides';
@@ -24,14 +25,14 @@ export const navItems: Record<Role, NavItem[]> = {
     { href: roleHome.inspector, label: 'Today', icon: 'sun' },
     rides,
     notices,
-    { href: '/loads', label: 'Load check', icon: 'activity' },
+    { href: calculatorHref, label: 'Load check', icon: 'activity' },
     { href: accountHref, label: 'Account', icon: 'user' },
   ],
   supervisor: [
     { href: roleHome.supervisor, label: 'Review', icon: 'inbox' },
     rides,
     notices,
-    { href: '/loads', label: 'Load check', icon: 'activity' },
+    { href: calculatorHref, label: 'Load check', icon: 'activity' },
     { href: accountHref, label: 'Account', icon: 'user' },
   ],
   operator: [
@@ -43,7 +44,7 @@ export const navItems: Record<Role, NavItem[]> = {
     { href: roleHome.admin, label: 'Admin', icon: 'users' },
     rides,
     notices,
-    { href: '/loads', label: 'Load check', icon: 'activity' },
+    { href: calculatorHref, label: 'Load check', icon: 'activity' },
     { href: accountHref, label: 'Account', icon: 'user' },
   ],
 };
