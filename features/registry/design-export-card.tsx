@@ -1,0 +1,67 @@
+import Feather from '@expo/vector-icons/Feather';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { Card } from '@/components/card';
+import { Text } from '@/components/text';
+import { colors, space } from '@/components/theme';
+import type { DesignData } from '@/features/loads/design-schema';
+import { designToFile } from '@/features/registry/csv';
+import { exportFileName } from '@/features/registry/import-report';
+import { saveTextFile } from '@/features/registry/save-file';
+import type { RideSummary } from '@/features/rides/schema';
+
+/** The design data as a file, the same format import reads (written by the same code as the server’s export). */
+export function ExportCard({
+  ride,
+  version,
+  data,
+}: {
+  ride: RideSummary;
+  version: number;
+  data: DesignData;
+}) {
+  const [saved, setSaved] = useState<string | null>(null);
+  const save = async (format: 'csv' | 'json') => {
+    const name = exportFileName(ride.name, version, format);
+    setSaved(
+      await saveTextFile(
+        name,
+        designToFile(format, data),
+        format === 'csv' ? 'text/csv' : 'application/json',
+      ),
+    );
+  };
+  return (
+    <Card>
+      <Text variant="heading">Export v{version}</Text>
+      <Text variant="small" muted>
+        CSV (one row per part, pivot, seat…) or JSON, in SI units. Import reads the same files back.
+      </Text>
+      <View style={styles.buttons}>
+        <Button
+          label="Download CSV"
+          tone="quiet"
+          icon={<Feather name="download" size={18} color={colors.text} />}
+          onPress={() => save('csv')}
+        />
+        <Button
+          label="Download JSON"
+          tone="quiet"
+          icon={<Feather name="download" size={18} color={colors.text} />}
+          onPress={() => save('json')}
+        />
+      </View>
+      {saved ? (
+        <Text variant="small" muted accessibilityLiveRegion="polite">
+          {saved}
+        </Text>
+      ) : null}
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({
+  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+});
