@@ -1,3 +1,9 @@
+// tsc loads global declarations in the order files reach it, and the last `setTimeout` loaded wins. This
+// file is the first root file (in name order) that reaches the server's node typings, which would let React
+// Native's globals (number timers) load after them and break `setTimeout(...).unref()` in server/main.ts.
+// Loading React Native's first keeps node's last, as for every other file. (`node:timers` does not help:
+// @types/node declares its timers as the globals.) The first bench file in name order must keep this line.
+/// <reference types="react-native" />
 /**
  * Load for the review-queue bench: the real server in a child process (so the load generator does not
  * share its event loop), driven by autocannon over loopback, with the server's CPU time per request read

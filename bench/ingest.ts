@@ -1,8 +1,3 @@
-// tsc loads global declarations in the order files reach it, and the last `setTimeout` loaded wins. This
-// file is the first root file that reaches the server's node typings, which would let React Native's
-// globals (number timers) load after them and break server/main.ts's `setTimeout(...).unref()`. Loading
-// React Native's first keeps node's last, as for every other file. Remove once main.ts imports its timers.
-/// <reference types="react-native" />
 import { createHash, randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
