@@ -140,45 +140,7 @@ function DesignImport({ ride }: { ride: RideSummary }) {
 
   const steps = (
     <>
-      <Card style={styles.step}>
-        <StepTitle n={1} title="Choose the file" />
-        <Text variant="small" muted>
-          CSV with one row per part, pivot, seat, motion and limit, or the JSON form — SI units, as export
-          writes them. The file is checked whole; nothing is saved until you say so below.
-        </Text>
-        <Button
-          label={picked ? 'Choose another file' : 'Choose a CSV or JSON file'}
-          tone={picked ? 'quiet' : 'primary'}
-          icon={<Feather name="file-text" size={18} color={picked ? colors.text : colors.baseText} />}
-          onPress={pick}
-          style={styles.start}
-        />
-        {pickError ? <Text color={colors.danger}>{pickError}</Text> : null}
-        {picked ? (
-          <View style={styles.fileLine}>
-            <Feather name="file" size={16} color={colors.textMuted} />
-            <Text variant="figure" style={styles.flex} numberOfLines={1}>
-              {picked.name}
-            </Text>
-            {picked.size !== null ? (
-              <Text variant="small" muted>
-                {Math.max(1, Math.round(picked.size / 1024))} KB
-              </Text>
-            ) : null}
-          </View>
-        ) : null}
-        {picked ? (
-          <ChoiceChips
-            label="Read it as"
-            value={picked.format}
-            options={[
-              { value: 'csv', label: 'CSV' },
-              { value: 'json', label: 'JSON' },
-            ]}
-            onChange={setFormat}
-          />
-        ) : null}
-      </Card>
+      <ChooseFileStep picked={picked} pickError={pickError} onPick={pick} onFormat={setFormat} />
 
       <Card style={styles.step}>
         <StepTitle n={2} title="Check" />
@@ -216,7 +178,83 @@ function DesignImport({ ride }: { ride: RideSummary }) {
     </>
   );
 
-  const side = (
+  const side = <ImportSide ride={ride} current={current} />;
+
+  return (
+    <SubScreen
+      title="Import design data"
+      subtitle={`${ride.name}${current ? ` · now v${current.version}, ${current.data.source.document} rev. ${current.data.source.revision}` : ''}`}
+      back={{ href: rideHref(ride.id), label: ride.name }}
+    >
+      <Panes main={steps} side={side} sideFirstOnPhone={false} />
+    </SubScreen>
+  );
+}
+
+/** Step 1: the file, its size, and whether it is read as CSV or JSON. */
+function ChooseFileStep({
+  picked,
+  pickError,
+  onPick,
+  onFormat,
+}: {
+  picked: Picked | null;
+  pickError: string | null;
+  onPick: () => void;
+  onFormat: (format: 'csv' | 'json') => void;
+}) {
+  return (
+    <Card style={styles.step}>
+      <StepTitle n={1} title="Choose the file" />
+      <Text variant="small" muted>
+        CSV with one row per part, pivot, seat, motion and limit, or the JSON form — SI units, as export
+        writes them. The file is checked whole; nothing is saved until you say so below.
+      </Text>
+      <Button
+        label={picked ? 'Choose another file' : 'Choose a CSV or JSON file'}
+        tone={picked ? 'quiet' : 'primary'}
+        icon={<Feather name="file-text" size={18} color={picked ? colors.text : colors.baseText} />}
+        onPress={onPick}
+        style={styles.start}
+      />
+      {pickError ? <Text color={colors.danger}>{pickError}</Text> : null}
+      {picked ? (
+        <View style={styles.fileLine}>
+          <Feather name="file" size={16} color={colors.textMuted} />
+          <Text variant="figure" style={styles.flex} numberOfLines={1}>
+            {picked.name}
+          </Text>
+          {picked.size !== null ? (
+            <Text variant="small" muted>
+              {Math.max(1, Math.round(picked.size / 1024))} KB
+            </Text>
+          ) : null}
+        </View>
+      ) : null}
+      {picked ? (
+        <ChoiceChips
+          label="Read it as"
+          value={picked.format}
+          options={[
+            { value: 'csv', label: 'CSV' },
+            { value: 'json', label: 'JSON' },
+          ]}
+          onChange={onFormat}
+        />
+      ) : null}
+    </Card>
+  );
+}
+
+/** Beside the steps: export of the version in force, and what makes a file fail. */
+function ImportSide({
+  ride,
+  current,
+}: {
+  ride: RideSummary;
+  current: NonNullable<ReturnType<typeof useRideQuery>['data']>['design'];
+}) {
+  return (
     <>
       {current ? (
         <ExportCard ride={ride} version={current.version} data={current.data} />
@@ -239,16 +277,6 @@ function DesignImport({ ride }: { ride: RideSummary }) {
         </Text>
       </Card>
     </>
-  );
-
-  return (
-    <SubScreen
-      title="Import design data"
-      subtitle={`${ride.name}${current ? ` · now v${current.version}, ${current.data.source.document} rev. ${current.data.source.revision}` : ''}`}
-      back={{ href: rideHref(ride.id), label: ride.name }}
-    >
-      <Panes main={steps} side={side} sideFirstOnPhone={false} />
-    </SubScreen>
   );
 }
 

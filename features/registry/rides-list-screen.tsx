@@ -85,34 +85,15 @@ function RidesList({ user }: { user: SessionUser }) {
     });
   };
 
-  const siteOptions = [
-    { value: ALL, label: 'All sites' },
-    ...(sites.data?.sites ?? []).map((s) => ({ value: s.id, label: s.name, hint: s.operatorName })),
-  ];
-  const operatorOptions = [
-    { value: ALL, label: 'All operators' },
-    ...operatorChoices(companies.data?.companies),
-  ];
-
   const selects = staff ? (
-    <>
-      <View style={wide ? styles.selectWide : undefined}>
-        <SelectField
-          label="Site"
-          value={query.siteId ?? ALL}
-          options={siteOptions}
-          onChange={(v) => filter({ siteId: v === ALL ? undefined : v })}
-        />
-      </View>
-      <View style={wide ? styles.selectWide : undefined}>
-        <SelectField
-          label="Operator"
-          value={query.operatorId ?? ALL}
-          options={operatorOptions}
-          onChange={(v) => filter({ operatorId: v === ALL ? undefined : v })}
-        />
-      </View>
-    </>
+    <PlaceFilters
+      wide={wide}
+      siteId={query.siteId}
+      operatorId={query.operatorId}
+      sites={sites.data?.sites}
+      companies={companies.data?.companies}
+      onChange={filter}
+    />
   ) : null;
 
   const chips = (
@@ -175,35 +156,102 @@ function RidesList({ user }: { user: SessionUser }) {
         setPage={(page) => setQuery({ page })}
       >
         {(page) => (
-          <>
-            {rides.isFetching ? (
-              <View style={styles.fetching} accessibilityLabel="Updating">
-                <ActivityIndicator color={colors.base} size="small" />
-              </View>
-            ) : null}
-            {page.rides.length === 0 ? (
-              <Card style={styles.empty}>
-                <Text variant="heading">No rides match.</Text>
-                <Text muted>Try fewer filters or another search.</Text>
-              </Card>
-            ) : wide ? (
-              <RideTable
-                rides={page.rides}
-                sort={query.sort}
-                onSort={(sort) => setQuery({ sort, page: undefined })}
-                showOperator={staff}
-              />
-            ) : (
-              <View style={styles.cards}>
-                {page.rides.map((r) => (
-                  <RideCard key={r.id} ride={r} showOperator={staff} link />
-                ))}
-              </View>
-            )}
-          </>
+          <RidesPage
+            rides={page.rides}
+            fetching={rides.isFetching}
+            wide={wide}
+            sort={query.sort}
+            onSort={(sort) => setQuery({ sort, page: undefined })}
+            showOperator={staff}
+          />
         )}
       </PagedList>
     </Screen>
+  );
+}
+
+/** One page of rides: a sortable table where there is room, cards on a phone. */
+function RidesPage({
+  rides,
+  fetching,
+  wide,
+  sort,
+  onSort,
+  showOperator,
+}: {
+  rides: RideSummary[];
+  fetching: boolean;
+  wide: boolean;
+  sort: SortValue<RideSortKey> | undefined;
+  onSort: (sort: SortValue<RideSortKey> | undefined) => void;
+  showOperator: boolean;
+}) {
+  return (
+    <>
+      {fetching ? (
+        <View style={styles.fetching} accessibilityLabel="Updating">
+          <ActivityIndicator color={colors.base} size="small" />
+        </View>
+      ) : null}
+      {rides.length === 0 ? (
+        <Card style={styles.empty}>
+          <Text variant="heading">No rides match.</Text>
+          <Text muted>Try fewer filters or another search.</Text>
+        </Card>
+      ) : wide ? (
+        <RideTable rides={rides} sort={sort} onSort={onSort} showOperator={showOperator} />
+      ) : (
+        <View style={styles.cards}>
+          {rides.map((r) => (
+            <RideCard key={r.id} ride={r} showOperator={showOperator} link />
+          ))}
+        </View>
+      )}
+    </>
+  );
+}
+
+/** Staff narrow the register to one site or one operator. */
+function PlaceFilters({
+  wide,
+  siteId,
+  operatorId,
+  sites,
+  companies,
+  onChange,
+}: {
+  wide: boolean;
+  siteId: string | undefined;
+  operatorId: string | undefined;
+  sites: NonNullable<ReturnType<typeof useSiteListQuery>['data']>['sites'] | undefined;
+  companies: Parameters<typeof operatorChoices>[0];
+  onChange: (patch: { siteId?: string; operatorId?: string }) => void;
+}) {
+  const siteOptions = [
+    { value: ALL, label: 'All sites' },
+    ...(sites ?? []).map((s) => ({ value: s.id, label: s.name, hint: s.operatorName })),
+  ];
+  const operatorOptions = [{ value: ALL, label: 'All operators' }, ...operatorChoices(companies)];
+
+  return (
+    <>
+      <View style={wide ? styles.selectWide : undefined}>
+        <SelectField
+          label="Site"
+          value={siteId ?? ALL}
+          options={siteOptions}
+          onChange={(v) => onChange({ siteId: v === ALL ? undefined : v })}
+        />
+      </View>
+      <View style={wide ? styles.selectWide : undefined}>
+        <SelectField
+          label="Operator"
+          value={operatorId ?? ALL}
+          options={operatorOptions}
+          onChange={(v) => onChange({ operatorId: v === ALL ? undefined : v })}
+        />
+      </View>
+    </>
   );
 }
 
