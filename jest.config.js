@@ -1,13 +1,19 @@
 // Unit and server tests. Browser tests have their own config (jest.browser.config.js).
 const alias = { '^@/(.*)$': '<rootDir>/$1' };
 
+// d3 ships ES modules only; the app project takes their UMD builds (a feature's index.ts may bring a chart).
+const d3 = ['array', 'color', 'format', 'interpolate', 'path', 'scale', 'shape', 'time', 'time-format'];
+const d3Umd = Object.fromEntries(
+  d3.map((p) => [`^d3-${p}$`, `<rootDir>/node_modules/d3-${p}/dist/d3-${p}.js`]),
+);
+
 module.exports = {
   projects: [
     {
       displayName: 'app',
       preset: 'jest-expo',
       testMatch: ['<rootDir>/tests/app/**/*.test.ts?(x)'],
-      moduleNameMapper: alias,
+      moduleNameMapper: { ...alias, ...d3Umd },
     },
     {
       displayName: 'node',
