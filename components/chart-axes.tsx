@@ -4,7 +4,7 @@ import { G, Line, Text as SvgText } from 'react-native-svg';
 import { colors, fonts } from '@/components/theme';
 
 /** Room round a chart's plot for tick labels and axis titles. */
-export type ChartMargin = { top: number; right: number; bottom: number; left: number };
+type ChartMargin = { top: number; right: number; bottom: number; left: number };
 
 type Scale = ScaleLinear<number, number>;
 

@@ -5,7 +5,7 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 
-export type Column<T> = {
+type Column<T> = {
   key: string;
   title: string;
   render: (row: T) => React.ReactNode;

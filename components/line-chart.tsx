@@ -8,14 +8,14 @@ import { AxisTitles, ChartTicks } from '@/components/chart-axes';
 import { Text } from '@/components/text';
 import { colors, fonts, space } from '@/components/theme';
 
-export type ChartSeries = {
+type ChartSeries = {
   label: string;
   x: ArrayLike<number>;
   y: ArrayLike<number>;
   color: string;
   dashed?: boolean;
 };
-export type ChartLimit = { label: string; y: number; color?: string };
+type ChartLimit = { label: string; y: number; color?: string };
 
 type Props = {
   series: ChartSeries[];

@@ -12,9 +12,9 @@ import type { Mark } from '@/lib/vocabulary';
  */
 
 /** A state's words and mark as a screen uses them: its icon's name and its colours as values. */
-export type MarkLook = { label: string; shape: MarkIconName; fg: string; bg: string };
+type MarkLook = { label: string; shape: MarkIconName; fg: string; bg: string };
 
-export const lookOf = (word: { label: string; mark: Mark }): MarkLook => ({
+const lookOf = (word: { label: string; mark: Mark }): MarkLook => ({
   label: word.label,
   shape: word.mark.icon,
   fg: colors[word.mark.fg],

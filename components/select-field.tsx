@@ -6,7 +6,7 @@ import { FieldFrame } from '@/components/field-frame';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 
-export type SelectOption<T extends string> = { value: T; label: string; hint?: string };
+type SelectOption<T extends string> = { value: T; label: string; hint?: string };
 
 /**
  * A labelled choice from a list that may be long (sites, companies, inspectors). The list opens in place

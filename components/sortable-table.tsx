@@ -4,7 +4,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 
-export type SortableColumn<T, K extends string> = {
+type SortableColumn<T, K extends string> = {
   key: string;
   title: string;
   render: (row: T) => React.ReactNode;

@@ -34,9 +34,9 @@ import {
 } from '@/lib/units';
 
 /** Computed values: four significant figures (a load of 4731 kN, a rate of 9.450 rpm). */
-export const COMPUTED_SIGNIFICANT_FIGURES = 4;
+const COMPUTED_SIGNIFICANT_FIGURES = 4;
 /** Shares of a limit, in per cent: three significant figures (87.5 %). */
-export const RATIO_SIGNIFICANT_FIGURES = 3;
+const RATIO_SIGNIFICANT_FIGURES = 3;
 /** Old records without `entered`: a stored value with more significant figures than this was not typed. */
 const TYPED_MAX_SIGNIFICANT = 6;
 /** Past this many decimals a difference is floating-point noise, not a measurement. */
@@ -55,7 +55,7 @@ export type MeasuredSource = {
   recover?: boolean;
 };
 
-export type MeasuredText = { value: string; unit: string; text: string; decimals: number };
+type MeasuredText = { value: string; unit: string; text: string; decimals: number };
 
 /** A number as shown, with what is needed to show it with more digits. */
 type Shown = { text: string; exact: number; decimals: number; fixed: boolean };
@@ -77,7 +77,7 @@ export function normaliseEntered(text: string): string | null {
   return t.replace(/^(-?)\./, '$10.');
 }
 
-export function decimalsOf(text: string): number {
+function decimalsOf(text: string): number {
   const point = text.indexOf('.');
   return point < 0 ? 0 : text.length - point - 1;
 }
@@ -170,7 +170,7 @@ export function carriedDecimals(decimals: number, from: string, to: string): num
 }
 
 /** Decimals that show a spread to two significant figures. */
-export function spreadDecimals(spread: number): number {
+function spreadDecimals(spread: number): number {
   return Math.min(MAX_DECIMALS, Math.max(0, 1 - Math.floor(Math.log10(spread))));
 }
 

@@ -145,9 +145,9 @@ export function formatSignificant(value: number, sig = 4): string {
   return Number(text) === 0 ? '0' : text;
 }
 
-export type FormattedQuantity = { value: string; unit: string; text: string };
+type FormattedQuantity = { value: string; unit: string; text: string };
 
-export type FormatOptions = { unit?: string; sig?: number };
+type FormatOptions = { unit?: string; sig?: number };
 
 /** An SI value shown in the system's units with 3–4 significant figures: `{ value, unit, text }`. */
 export function formatQuantity(

@@ -36,7 +36,7 @@ const overMark: Mark = { icon: 'barred', fg: 'over', bg: 'overSoft' };
 
 /** The four roles. Names are used in the API, the UI and the database. */
 export const roles = ['inspector', 'supervisor', 'operator', 'admin'] as const;
-export type Role = (typeof roles)[number];
+type Role = (typeof roles)[number];
 export const roleVocabulary: Record<Role, Words> = {
   inspector: { label: 'Inspector' },
   supervisor: { label: 'Supervisor' },
@@ -86,7 +86,7 @@ export const inspectionTypes = [
   'setup_after_assembly',
   'follow_up',
 ] as const;
-export type InspectionType = (typeof inspectionTypes)[number];
+type InspectionType = (typeof inspectionTypes)[number];
 export const inspectionTypeVocabulary: Record<InspectionType, Words> = {
   daily_pre_opening: { label: 'Daily pre-opening' },
   periodic: { label: 'Periodic' },
@@ -97,7 +97,7 @@ export const inspectionTypeVocabulary: Record<InspectionType, Words> = {
 
 /** A checklist item's answer. */
 export const checkResults = ['pass', 'fail', 'na'] as const;
-export type CheckResult = (typeof checkResults)[number];
+type CheckResult = (typeof checkResults)[number];
 export const checkResultVocabulary: Record<CheckResult, Words> = {
   pass: { label: 'Pass' },
   fail: { label: 'Fail' },
@@ -274,7 +274,7 @@ export const noticeDeliveryStateVocabulary: Record<NoticeDeliveryState, Marked &
 
 /** One e-mail to one address (a notice's delivery row). */
 export const deliveryStatuses = ['pending', 'sending', 'sent', 'failed'] as const;
-export type DeliveryStatus = (typeof deliveryStatuses)[number];
+type DeliveryStatus = (typeof deliveryStatuses)[number];
 export const deliveryStatusVocabulary: Record<DeliveryStatus, Words> = {
   pending: { label: 'Waiting to send' },
   sending: { label: 'Sending' },

@@ -184,7 +184,7 @@ export function parseEnv(
  * The secret that signs session tokens when JWT_SECRET is not set: generated once and kept in DATA_DIR, so
  * sessions survive restarts without anyone having to invent a secret for a local install.
  */
-export function readOrCreateJwtSecret(dataDir: string): string {
+function readOrCreateJwtSecret(dataDir: string): string {
   const file = path.join(dataDir, 'jwt-secret');
   fs.mkdirSync(dataDir, { recursive: true });
   try {

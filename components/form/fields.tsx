@@ -89,7 +89,7 @@ export function FormNumber<T extends FieldValues, TOut extends FieldValues = T>(
   );
 }
 
-export function parseNumberText(text: string): number | null {
+function parseNumberText(text: string): number | null {
   const t = text.trim().replace(/\s/g, '');
   if (t === '') return null;
   return /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : Number.NaN;

@@ -7,7 +7,7 @@ import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { space } from '@/components/theme';
 import { type FieldFor, applyServerError } from '@/components/form/server-errors';
 
-export type ServerSubmit = {
+type ServerSubmit = {
   /** The press handler; takes the press event as react-hook-form's handleSubmit does. */
   submit: (e?: React.BaseSyntheticEvent) => Promise<unknown>;
   problem: FormProblem | null;

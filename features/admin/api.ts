@@ -3,7 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { apiFetch } from '@/features/api';
 import { adminUserListSchema } from '@/features/admin/schema';
 
-export const adminKeys = {
+const adminKeys = {
   all: ['admin'] as const,
   users: () => [...adminKeys.all, 'users'] as const,
 };

@@ -2,7 +2,7 @@ import { z } from 'zod';
 
 import { roleSchema } from '@/features/session/schema';
 
-export const adminUserSchema = z.object({
+const adminUserSchema = z.object({
   id: z.string(),
   email: z.string(),
   name: z.string(),

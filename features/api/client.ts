@@ -18,7 +18,7 @@ type Options<T> = {
 
 export type ApiFetch = <T = unknown>(path: string, opts?: Options<T>) => Promise<T>;
 
-export type ApiClientConfig = {
+type ApiClientConfig = {
   /** Prefix of every path: '' for the page's own origin, or `http://host:port`. */
   baseUrl: string;
   /** The session token to send, or null when signed out. */

@@ -12,14 +12,14 @@ export const authKeys = {
   session: () => [...authKeys.all, 'session'] as const,
 };
 
-export type Session = { user: SessionUser; offline: boolean } | null;
+type Session = { user: SessionUser; offline: boolean } | null;
 
 /**
  * Resolves the stored session. Online, the server confirms the user (and a revoked or expired
  * token signs the device out). Offline, the last known user is trusted so field work can go on;
  * the server checks the token again at the next sync.
  */
-export async function loadSession(): Promise<Session> {
+async function loadSession(): Promise<Session> {
   const stored = await tokenStore.get();
   if (!stored) return null;
   try {

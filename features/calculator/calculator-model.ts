@@ -34,7 +34,7 @@ export type BodyRow = {
   tipY: string;
 };
 
-export const CALCULATOR_SAMPLES = 720;
+const CALCULATOR_SAMPLES = 720;
 
 export const motionKindLabel: Record<MotionKind, string> = {
   constant: 'Steady speed',
@@ -122,7 +122,7 @@ export function profileFromRow(row: MotionRow): MotionProfile {
   }
 }
 
-export function bodiesFromRows(rows: BodyRow[]) {
+function bodiesFromRows(rows: BodyRow[]) {
   return rows.map((r, i) => {
     const tipX = parse(r.tipX);
     const tipY = parse(r.tipY);

@@ -271,7 +271,7 @@ function fit(rows: MotionRow[], n: number): MotionRow[] {
 }
 
 /** "bodies.1.massKg" → "Gondola · mass" for people; unknown paths are shown as they are. */
-export function describePath(path: string, names: string[]): string {
+function describePath(path: string, names: string[]): string {
   const parts = path.split('.');
   const fields: Record<string, string> = {
     massKg: 'mass',

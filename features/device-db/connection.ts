@@ -14,7 +14,7 @@ import { type AsyncRemoteCallback, type SqliteRemoteDatabase, drizzle } from 'dr
 
 import * as schema from '@/db/device/schema';
 
-export type DeviceSchema = typeof schema;
+type DeviceSchema = typeof schema;
 export type DeviceDrizzle = SqliteRemoteDatabase<DeviceSchema>;
 
 /**

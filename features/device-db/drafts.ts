@@ -16,14 +16,14 @@ const draftKeySchema = z.object({
   rideId: z.string().min(1, 'Required'),
 });
 
-export type Draft<T = unknown> = {
+type Draft<T = unknown> = {
   id: string;
   rideId: string;
   data: T;
   createdAt: string;
   updatedAt: string;
 };
-export type DraftSummary = Omit<Draft, 'data'>;
+type DraftSummary = Omit<Draft, 'data'>;
 
 function issuesOf(error: z.ZodError): { path: string; message: string }[] {
   return error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));

@@ -10,10 +10,10 @@ import { DeviceDbLockedError, DeviceDbOpenError } from '@/features/device-db/err
 import { isDatabaseLockedError } from '@/features/device-db/lock-detection';
 import { applyMigrations } from '@/features/device-db/migrations';
 
-export const DEVICE_DB_NAME = 'pivotwatch-device.db';
+const DEVICE_DB_NAME = 'pivotwatch-device.db';
 
 /** One statement through a prepared statement: rows as value arrays, as drizzle's proxy driver expects. */
-export function expoExecutor(conn: SQLiteDatabase): SqlExecutor {
+function expoExecutor(conn: SQLiteDatabase): SqlExecutor {
   return async (sql, params, method) => {
     const statement = await conn.prepareAsync(sql);
     try {

@@ -12,7 +12,7 @@ export type OutboxItem = Omit<OutboxRow, 'json' | 'issues'> & {
   issues: OutboxIssue[];
 };
 
-export function toOutboxItem(row: OutboxRow): OutboxItem {
+function toOutboxItem(row: OutboxRow): OutboxItem {
   const { json, issues, ...rest } = row;
   return {
     ...rest,

@@ -12,10 +12,10 @@ import type { DeviceDb } from '@/features/device-db/connection';
 import { DeviceDataError } from '@/features/device-db/errors';
 import type { PhotoRef } from '@/features/records/schema';
 
-export type PhotoMime = PhotoRef['mime'];
+type PhotoMime = PhotoRef['mime'];
 
 /** Larger than any photo compressed on the phone (long edge ≤ 1600 px); a guard against the wrong file. */
-export const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
+const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
 
 /** The file signatures of the formats a photo may have (JPEG SOI marker, PNG signature, RIFF…WEBP). */
 export function sniffImageMime(bytes: Uint8Array): PhotoMime | null {

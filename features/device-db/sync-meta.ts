@@ -3,8 +3,8 @@ import { eq } from 'drizzle-orm';
 import { syncMeta } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
 
-export const syncMetaKeys = ['pullCursor', 'lastSuccessAt', 'lastAttemptAt', 'lastError'] as const;
-export type SyncMetaKey = (typeof syncMetaKeys)[number];
+const syncMetaKeys = ['pullCursor', 'lastSuccessAt', 'lastAttemptAt', 'lastError'] as const;
+type SyncMetaKey = (typeof syncMetaKeys)[number];
 
 export async function getSyncMeta(dev: DeviceDb, key: SyncMetaKey): Promise<string | null> {
   const row = await dev.db.select().from(syncMeta).where(eq(syncMeta.key, key)).get();

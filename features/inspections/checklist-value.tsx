@@ -47,7 +47,7 @@ type Item = NonNullable<ChecklistTemplate>['version']['content']['areas'][number
 type Answer = Draft['checklist'][number];
 type Measurement = Omit<NonNullable<Answer['measurement']>, 'readingId'>;
 /** An item's value against its limit on this ride (null without a value or a limit). */
-export type ValueCheck = ReturnType<typeof checklistValueStatus>;
+type ValueCheck = ReturnType<typeof checklistValueStatus>;
 
 /**
  * An item's measured value: typed in the display unit, checked against its limit as it is typed, and,

@@ -18,7 +18,7 @@ import type { Reading } from '@/features/records/schema';
 export type PendingReading = { reading: Reading; check: PlausibilityCheck };
 
 /** The confirmation the reading carries once kept. */
-export function confirmReading(pending: PendingReading, note: string, now: Date = new Date()): Reading {
+function confirmReading(pending: PendingReading, note: string, now: Date = new Date()): Reading {
   const trimmed = note.trim();
   return {
     ...pending.reading,

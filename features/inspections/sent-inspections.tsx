@@ -71,7 +71,7 @@ function severityColour(s: FindingSeverity | null): string {
 }
 
 /** The supervisor's findings, in number order, each with its severity in words. */
-export function FindingList({ findings }: { findings: FindingView[] }) {
+function FindingList({ findings }: { findings: FindingView[] }) {
   return (
     <View style={styles.findings} role="list" accessibilityLabel="Findings">
       {findings.map((f) => (
@@ -118,7 +118,7 @@ function byLine(s: SentInspection): string | null {
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 /** One sent inspection with its decision. Returned ones show the comment and findings in full. */
-export function SentCard({ item }: { item: SentInspection }) {
+function SentCard({ item }: { item: SentInspection }) {
   const stage = stageOf(item);
   const correct = useStartCorrectionMutation();
   const open = stage === 'returned';

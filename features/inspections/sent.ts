@@ -5,16 +5,12 @@
  */
 import type { OutboxState } from '@/db/device/schema';
 import { type InspectionRecord, type InspectionType, inspectionTypes } from '@/features/records/schema';
-import {
-  type FindingSeverity,
-  findingSeverities,
-  findingStates,
-} from '@/features/review/schema';
+import { type FindingSeverity, findingSeverities, findingStates } from '@/features/review/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import type { PulledDecision } from '@/features/sync/pull-schema';
 import { findingStateVocabulary, labelsOf } from '@/lib/vocabulary';
 
-export const findingStateLabel = labelsOf(findingStateVocabulary);
+const findingStateLabel = labelsOf(findingStateVocabulary);
 
 export type FindingView = {
   key: string;
@@ -62,7 +58,7 @@ export type SentInspection = {
 const isOneOf = <T extends string>(values: readonly T[], v: unknown): v is T =>
   typeof v === 'string' && (values as readonly string[]).includes(v);
 
-export function toDecisionView(d: PulledDecision): DecisionView {
+function toDecisionView(d: PulledDecision): DecisionView {
   const state = d.state === 'approved' || d.state === 'returned' ? d.state : 'other';
   const findings = [...(d.findings ?? [])]
     .sort((a, b) => a.number - b.number)
@@ -164,7 +160,7 @@ export function buildSentList(input: {
   return list.sort((a, b) => Number(b.needsAction) - Number(a.needsAction) || when(b).localeCompare(when(a)));
 }
 
-export type SentGroups = {
+type SentGroups = {
   /** Returned by a supervisor and not yet corrected: the inspector has to act. */
   returned: SentInspection[];
   /** Still on this phone, queued or going up: never listed as sent. */

@@ -9,7 +9,7 @@ import {
   instrumentResponseSchema,
 } from '@/features/instruments/schema';
 
-export const instrumentKeys = {
+const instrumentKeys = {
   all: ['instruments'] as const,
   list: () => [...instrumentKeys.all, 'list'] as const,
   declaration: () => [...instrumentKeys.all, 'declaration'] as const,

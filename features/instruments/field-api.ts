@@ -4,7 +4,7 @@ import { useDeviceDb, fieldKeys } from '@/features/device-db';
 import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
 
 /** Under `fieldKeys.all`, so a finished sync (which invalidates the field's keys) re-reads them. */
-export const fieldInstrumentKeys = {
+const fieldInstrumentKeys = {
   instruments: () => [...fieldKeys.all, 'instruments'] as const,
   declaration: () => [...fieldKeys.all, 'declaration'] as const,
 };

@@ -14,7 +14,7 @@ import { daysBetween, isoDay } from '@/lib/dates';
 export type ReadingMethod = (typeof readingMethods)[number];
 
 /** How many days before its due date an instrument is flagged on the phone. */
-export const CALIBRATION_WARNING_DAYS = 14;
+const CALIBRATION_WARNING_DAYS = 14;
 
 /**
  * The methods an inspector can choose for each kind of reading (common practice for amusement-ride pin,
@@ -39,7 +39,7 @@ export const instrumentMethods = [
   'gauge',
   'other',
 ] as const;
-export const instrumentMethodSchema = z.enum(instrumentMethods, { error: 'Choose the kind of instrument' });
+const instrumentMethodSchema = z.enum(instrumentMethods, { error: 'Choose the kind of instrument' });
 
 export const methodChoiceLabel: Record<ReadingMethod, string> = {
   typed: 'Typed in',

@@ -273,7 +273,7 @@ export function designBodies(d: DesignData): ChainBody[] {
 }
 
 /** A joint's design motion as an engine profile. */
-export function designProfile(m: DesignMotion): MotionProfile {
+function designProfile(m: DesignMotion): MotionProfile {
   if (m.kind === 'constant') return { kind: 'constant', rpm: m.rpm ?? 0 };
   if (m.kind === 'swing')
     return { kind: 'swing', amplitudeRad: m.amplitudeRad ?? 0, periodS: m.periodS ?? 1 };

@@ -28,7 +28,7 @@ export function formatRatio(ratio: number | null): string {
 }
 
 /** Envelope items whose value an inspector measured (typed), rather than one the engine computed. */
-export function isMeasuredItem(id: string): boolean {
+function isMeasuredItem(id: string): boolean {
   return /\.pin\.(diameter|clearance)$/.test(id) || id.startsWith('checklist:');
 }
 

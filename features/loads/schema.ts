@@ -17,8 +17,8 @@ import {
 /** Sane upper bounds: a ride chain is short, and a cycle's arrays must stay a reasonable response. */
 export const MAX_BODIES = 10;
 export const MAX_SAMPLES = 100_000;
-export const MAX_POINTS = 20;
-export const MAX_SEATS = 50;
+const MAX_POINTS = 20;
+const MAX_SEATS = 50;
 
 const numberError = (issue: { input?: unknown }) =>
   issue.input === undefined ? 'Required' : 'Must be a finite number';
@@ -31,7 +31,7 @@ const vec2 = () =>
   });
 const count = () => z.int({ error: (i) => (i.input === undefined ? 'Required' : 'Must be a whole number') });
 
-export const chainBodySchema = z.object({
+const chainBodySchema = z.object({
   name: z.string({ error: 'Required' }).trim().min(1, 'Give the body a name').max(80),
   massKg: num().positive('Mass must be greater than 0'),
   cgM: vec2(),
@@ -143,7 +143,7 @@ const measuredProfileSchema = z
       }
   });
 
-export const motionProfileSchema = z.discriminatedUnion(
+const motionProfileSchema = z.discriminatedUnion(
   'kind',
   [
     z.object({ kind: z.literal('fixed'), angleRad: num() }),
@@ -277,10 +277,10 @@ export const cycleRequestSchema = z
     });
   });
 
-export type ValidationIssue = { path: string; message: string };
-export type ApiOutcome<T> = { ok: true; value: T } | { ok: false; issues: ValidationIssue[] };
+type ValidationIssue = { path: string; message: string };
+type ApiOutcome<T> = { ok: true; value: T } | { ok: false; issues: ValidationIssue[] };
 
-export type LoadsResponse = InstantResult & { engineVersion: string };
+type LoadsResponse = InstantResult & { engineVersion: string };
 export type CycleResponse = CycleResultJson & { engineVersion: string; assumptions: readonly string[] };
 
 /** POST /api/loads: validate, solve one instant. The response body is `value`. */

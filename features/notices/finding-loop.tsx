@@ -20,7 +20,7 @@ import { SeverityMark } from '@/features/notices/severity-mark';
 import { ClosePanel, type PanelProps, ReopenPanel } from '@/features/notices/finding-panels';
 
 /** Who may verify findings: the server's verifiers (supervisor, admin, inspector). */
-export const isVerifier = (user: SessionUser) =>
+const isVerifier = (user: SessionUser) =>
   user.role === 'supervisor' || user.role === 'admin' || user.role === 'inspector';
 
 type Panel = 'report' | 'close' | 'reopen' | null;

@@ -13,14 +13,14 @@ import {
   type FindingSeverity,
 } from '@/lib/vocabulary';
 
-export const findingSeveritySchema = z.enum(findingSeverities, {
+const findingSeveritySchema = z.enum(findingSeverities, {
   error: `One of ${findingSeverities.join(', ')}`,
 });
 
 /** Each severity's words and whether the ride may run while such a finding is open (`mayOperate`). */
 export const severityInfo = findingSeverityVocabulary;
 
-export const findingStateSchema = z.enum(findingStates);
+const findingStateSchema = z.enum(findingStates);
 
 const sha256 = z.string().regex(/^[0-9a-f]{64}$/, 'Must be a photo reference (64 hex digits)');
 

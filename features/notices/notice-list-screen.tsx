@@ -27,7 +27,7 @@ const LIST_KEYS = ['rideId', 'operatorId', 'page'] as const;
 const ALL = '__all__';
 
 /** What the acknowledgement column says; operators are asked, staff are told. */
-export function acknowledgementText(n: NoticeListItem, operator: boolean): string {
+function acknowledgementText(n: NoticeListItem, operator: boolean): string {
   if (n.acknowledgedAt)
     return `Acknowledged ${formatDate(n.acknowledgedAt)}${n.acknowledgedByName ? ` by ${n.acknowledgedByName}` : ''}`;
   return operator ? 'Awaiting your acknowledgement' : 'Not acknowledged yet';

@@ -6,7 +6,7 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { usePhotoSource, FullSizePhotoViewer } from '@/features/photos';
 
-export type NoticePhoto = { sha256: string; caption: string };
+type NoticePhoto = { sha256: string; caption: string };
 
 const THUMB = 96;
 

@@ -150,7 +150,7 @@ function useFindingChange<V extends { findingId: string; input: unknown }>(
 }
 
 /** What the operator did about a finding, sent after its photos are on the server. */
-export type ReportAction = { findingId: string; input: CorrectiveActionInput };
+type ReportAction = { findingId: string; input: CorrectiveActionInput };
 
 let savingCounter = 0;
 /** Ids of corrective actions shown before the server has them start with this. */
@@ -181,8 +181,8 @@ export function useReportAction(noticeId: string, userName: string) {
   });
 }
 
-export type CloseFinding = { findingId: string; input: FindingCloseInput };
-export type ReopenFinding = { findingId: string; input: FindingReopenInput };
+type CloseFinding = { findingId: string; input: FindingCloseInput };
+type ReopenFinding = { findingId: string; input: FindingReopenInput };
 
 /**
  * Verifies and closes a finding. It reads "closed" at once; the server's answer brings who closed it and,
@@ -261,7 +261,7 @@ export function useResend(noticeId: string) {
 
 // ——— evidence photos ———
 
-export type EvidencePhoto = { sha256: string; mime: string; bytes: Uint8Array };
+type EvidencePhoto = { sha256: string; mime: string; bytes: Uint8Array };
 
 /**
  * Puts a photo's bytes on the server under their SHA-256 (`PUT /api/photos/:sha256`). The server keeps

@@ -7,7 +7,7 @@ import { outboxListResponseSchema, outboxMessageResponseSchema } from '@/feature
  * Query keys of the admin's outbox. They start with 'notices' so that anything refreshing every notice
  * query (a notice issued or sent again) refreshes the outbox too.
  */
-export const outboxKeys = {
+const outboxKeys = {
   all: ['notices', 'outbox'] as const,
   list: () => [...outboxKeys.all, 'list'] as const,
   message: (id: string) => [...outboxKeys.all, 'message', id] as const,

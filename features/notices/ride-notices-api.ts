@@ -21,7 +21,7 @@ export const rideNoticeKeys = {
 export const RIDE_NOTICES_PAGE = 100;
 
 /** While an e-mail is on its way the list is asked again this often, so "Sending" turns into the outcome. */
-export const SENDING_REFRESH_MS = 5000;
+const SENDING_REFRESH_MS = 5000;
 
 /** The ride's notices, newest first (`GET /api/notices?rideId=`). */
 export function useRideNotices(rideId: string, enabled = true) {

@@ -116,7 +116,7 @@ export type NoticeDocument = z.infer<typeof noticeDocumentSchema>;
 /** Where a notice's e-mail stands over all its recipients (`noticeDeliveryStates`): its words. */
 export const noticeDeliveryStateInfo = noticeDeliveryStateVocabulary;
 
-export const noticeDeliverySummarySchema = z.object({
+const noticeDeliverySummarySchema = z.object({
   state: z.enum(noticeDeliveryStates),
   total: z.number().int(),
   sent: z.number().int(),
@@ -160,7 +160,7 @@ export type NoticeListItem = z.infer<typeof noticeListItemSchema>;
 export const noticeListResponseSchema = pageSchema.extend({ notices: z.array(noticeListItemSchema) });
 export type NoticeListResponse = z.infer<typeof noticeListResponseSchema>;
 
-export const noticeDeliverySchema = z.object({
+const noticeDeliverySchema = z.object({
   id: z.string(),
   recipient: z.string(),
   status: z.enum(deliveryStatuses),
@@ -264,7 +264,7 @@ export type FindingStateResponse = z.infer<typeof findingStateResponseSchema>;
 
 // ——— the admin's view of the local mailbox ———
 
-export const outboxAttachmentSchema = z.object({
+const outboxAttachmentSchema = z.object({
   index: z.number().int(),
   filename: z.string().nullable(),
   contentType: z.string(),

@@ -2,10 +2,10 @@ import { SaveFormat, manipulateAsync } from 'expo-image-manipulator';
 import * as ImagePicker from 'expo-image-picker';
 
 /** Photos are kept small on the phone: long edge at most this many pixels, JPEG. */
-export const PHOTO_LONG_EDGE_PX = 1600;
+const PHOTO_LONG_EDGE_PX = 1600;
 const JPEG_QUALITY = 0.78;
 
-export type CapturedPhoto = {
+type CapturedPhoto = {
   base64: string;
   mime: 'image/jpeg';
   width: number;
@@ -14,13 +14,13 @@ export type CapturedPhoto = {
 };
 
 /** The resize that brings the long edge down to the limit (none when it is already within it). */
-export function resizeFor(width: number, height: number, longEdge = PHOTO_LONG_EDGE_PX) {
+function resizeFor(width: number, height: number, longEdge = PHOTO_LONG_EDGE_PX) {
   if (Math.max(width, height) <= longEdge) return null;
   return width >= height ? { width: longEdge } : { height: longEdge };
 }
 
 /** Decoded size of a base64 string, without decoding it. */
-export function base64Bytes(b64: string): number {
+function base64Bytes(b64: string): number {
   const padding = b64.endsWith('==') ? 2 : b64.endsWith('=') ? 1 : 0;
   return Math.floor((b64.length * 3) / 4) - padding;
 }

@@ -7,7 +7,7 @@ import { colors, layout, space } from '@/components/theme';
 import { usePhotoSource } from '@/features/photos/photo-source';
 
 /** What the full-size view needs of a photo; `received: false` says the phone has not uploaded it yet. */
-export type ViewedPhoto = { sha256: string; caption: string; received?: boolean };
+type ViewedPhoto = { sha256: string; caption: string; received?: boolean };
 
 /**
  * One photo at full size over the page, with its caption and, when given, a line of details under it.

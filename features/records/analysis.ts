@@ -24,7 +24,7 @@ function latest(readings: readonly Reading[], kind: Reading['kind'], joint: numb
 }
 
 /** Which joints have measured motion, and the profile each then runs. */
-export function measuredInputs(design: DesignData, readings: readonly Reading[]): MeasuredInputs {
+function measuredInputs(design: DesignData, readings: readonly Reading[]): MeasuredInputs {
   const n = design.bodies.length;
   const profiles: (MotionProfile | null)[] = [];
   const wear: ({ diameterM?: number; clearanceM?: number } | null)[] = [];

@@ -10,7 +10,7 @@ import type { ChecklistAnswer, InstrumentSnapshot, Reading, ReadingKind } from '
 type Measurement = NonNullable<ChecklistAnswer['measurement']>;
 
 export type ReadingTarget = { kind: ReadingKind; joint: number; label: string };
-export type MeasuredBy = { method: Reading['method']; instrument: InstrumentSnapshot | null };
+type MeasuredBy = { method: Reading['method']; instrument: InstrumentSnapshot | null };
 
 /** What each shared pivot quantity is called in a reading's label (the readings form uses the same words). */
 export const sharedReadingTitle: Partial<Record<ReadingKind, string>> = {

@@ -25,7 +25,7 @@ import {
 import type { QuantityKind } from '@/lib/units';
 
 /** A limit made concrete for one ride: what it is, in SI, and where it comes from. */
-export type ResolvedLimit = {
+type ResolvedLimit = {
   limit: Limit;
   quantity: QuantityKind;
   /** Words for the reviewer: "design data: Main pivot shaft" or "template". */
@@ -34,7 +34,7 @@ export type ResolvedLimit = {
 };
 
 /** Why an item with a limit could not be checked on this ride. */
-export type LimitGap = { gap: string };
+type LimitGap = { gap: string };
 
 export const isGap = <T extends object>(r: T | LimitGap): r is LimitGap => 'gap' in r;
 
@@ -118,10 +118,10 @@ function snapToBound(value: number, limit: Limit): number {
 }
 
 /** Near margin of the ride's documents, else the project's default (the engine uses the same). */
-export const nearMarginOf = (design: DesignData | null) => design?.nearMargin ?? DEFAULT_NEAR_MARGIN;
+const nearMarginOf = (design: DesignData | null) => design?.nearMargin ?? DEFAULT_NEAR_MARGIN;
 
 /** A value (SI) against a resolved limit; speeds are judged by magnitude, as the engine judges rates. */
-export function evaluateChecklistValue(valueSI: number, resolved: ResolvedLimit, margin: number): Evaluation {
+function evaluateChecklistValue(valueSI: number, resolved: ResolvedLimit, margin: number): Evaluation {
   const v = resolved.quantity === 'rate' ? Math.abs(valueSI) : valueSI;
   return evaluateLimit(snapToBound(v, resolved.limit), resolved.limit, margin);
 }
@@ -150,7 +150,7 @@ export function readingLink(item: Pick<ChecklistItem, 'limit'>): { kind: Reading
 }
 
 /** The engine's own envelope item for a pivot reading, where the engine checks that kind. */
-export function engineItemId(kind: ReadingKind, joint: number): string | null {
+function engineItemId(kind: ReadingKind, joint: number): string | null {
   switch (kind) {
     case 'pin_diameter':
       return `joints.${joint}.pin.diameter`;
@@ -243,7 +243,7 @@ export function envelopeItemOf(
   return id ? envelope.find((e) => e.id === id) : undefined;
 }
 
-export type LimitIssue = {
+type LimitIssue = {
   index: number;
   itemId: string;
   /** Null when only the phone's own verdict said "over" (no limit resolvable here). */

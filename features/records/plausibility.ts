@@ -58,7 +58,7 @@ export function designValueSI(motion: DesignMotion | undefined, kind: string): n
   return v !== undefined && Number.isFinite(v) && v > 0 ? v : null;
 }
 
-export function isPlausibleRatio(ratio: number): boolean {
+function isPlausibleRatio(ratio: number): boolean {
   return ratio >= PLAUSIBLE_LOW * (1 - ROUNDING) && ratio <= PLAUSIBLE_HIGH * (1 + ROUNDING);
 }
 
@@ -78,7 +78,7 @@ export function checkReading(
   return { kind, designSI, ratio, plausible: isPlausibleRatio(ratio) };
 }
 
-export function motionOfJoint(design: DesignData, joint: number | null): DesignMotion | undefined {
+function motionOfJoint(design: DesignData, joint: number | null): DesignMotion | undefined {
   return joint === null ? undefined : design.motion.find((m) => m.joint === joint);
 }
 
@@ -105,7 +105,7 @@ const deg = (rad: number) => (rad * 180) / Math.PI;
 const num = (x: number, digits: number) => (Number.isFinite(x) ? x.toFixed(digits) : 'unbounded');
 
 /** The design value in the words and units the field uses (rpm, s, °: the same in SI and US units). */
-export function designValueText(check: Pick<PlausibilityCheck, 'kind' | 'designSI'>): string {
+function designValueText(check: Pick<PlausibilityCheck, 'kind' | 'designSI'>): string {
   if (check.kind === 'speed') return `design speed ${num((check.designSI * 60) / (2 * Math.PI), 2)} rpm`;
   if (check.kind === 'period') return `design period ${num(check.designSI, 2)} s`;
   return `design amplitude ${num(deg(check.designSI), 1)}°`;

@@ -141,7 +141,7 @@ export function useDesignVersionQuery(rideId: string, version: number) {
   });
 }
 
-export type DesignImport = {
+type DesignImport = {
   format: 'csv' | 'json';
   content: string;
   reason: string;
@@ -321,7 +321,7 @@ export function useChecklistVersionsQuery(id: string) {
   });
 }
 
-export type ChecklistSave = {
+type ChecklistSave = {
   name: string;
   rideClass: RideClass;
   content: ChecklistContentInput;

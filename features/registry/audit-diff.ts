@@ -7,7 +7,7 @@ import { type ChangeEffect, changeText, diffDesign } from '@/features/registry/d
 import type { UnitSystem } from '@/lib/units';
 
 /** `effect` is set for design-data limits: whether the change loosened or tightened the limit. */
-export type FieldChange = {
+type FieldChange = {
   field: string;
   before: string | null;
   after: string | null;
@@ -109,7 +109,7 @@ function designOf(side: unknown): DesignData | null {
  * for a second person") and the design comparison with units ("Max clearance at Main pivot: 0.4 mm →
  * 0.6 mm (loosened)"). null when the entry holds no design data after the change (a rejection).
  */
-export function designChanges(before: unknown, after: unknown, system: UnitSystem): FieldChange[] | null {
+function designChanges(before: unknown, after: unknown, system: UnitSystem): FieldChange[] | null {
   const next = designOf(after);
   if (!next) return null;
   const prev = designOf(before);

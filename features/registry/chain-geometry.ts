@@ -195,7 +195,7 @@ function boundsOf(layout: Omit<ChainLayout, 'bounds'>): Bounds {
   return b;
 }
 
-export type ViewFit = {
+type ViewFit = {
   /** Pixels per metre, the same on both axes so the drawing stays to scale. */
   scale: number;
   toScreen: (p: Point) => [number, number];

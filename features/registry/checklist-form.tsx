@@ -35,7 +35,7 @@ export const checklistFormSchema = checklistTemplatePutSchema
   .omit({ basedOnVersion: true })
   .extend({ name: checklistTemplateCreateSchema.shape.name });
 export type ChecklistFormInput = z.input<typeof checklistFormSchema>;
-export type ChecklistFormOutput = z.output<typeof checklistFormSchema>;
+type ChecklistFormOutput = z.output<typeof checklistFormSchema>;
 
 export const measurementKindLabel: Record<MeasurementKind, string> = {
   lengthSmall: 'Small length (mm or in): pins, clearances, wear',

@@ -20,7 +20,7 @@ import { type UnitSystem, displayUnits, fromSI, toSI } from '@/lib/units';
 import { formatStated, formatTyped, normaliseEntered } from '@/lib/measured-format';
 
 /** What a measured item is checked against, in the words the admin picks from. */
-export const designLimitLabel: Record<DesignLimitQuantity, string> = {
+const designLimitLabel: Record<DesignLimitQuantity, string> = {
   pin_diameter: 'Pin minimum diameter (design data)',
   clearance: 'Bushing clearance limit (design data)',
   speed: 'Speed limit (design data)',

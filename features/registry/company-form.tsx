@@ -17,7 +17,7 @@ import { companyInputSchema, siteInputSchema, siteKindLabel, siteKinds } from '@
 import { fieldsOf } from '@/components/form/server-errors';
 
 /** Several addresses typed in one box, one per line (commas and semicolons work too). */
-export function splitAddresses(text: string): string[] {
+function splitAddresses(text: string): string[] {
   return text
     .split(/[\n,;]+/)
     .map((s) => s.trim())
@@ -25,7 +25,7 @@ export function splitAddresses(text: string): string[] {
 }
 
 export type CompanyFormInput = z.input<typeof companyInputSchema>;
-export type CompanyFormOutput = z.output<typeof companyInputSchema>;
+type CompanyFormOutput = z.output<typeof companyInputSchema>;
 
 /** The first problem among a list's entries, as "Address 2: …", for a field that holds the whole list. */
 function entriesError(e: FieldErrors<CompanyFormInput>['noticeEmails'] | undefined, noun: string) {
@@ -174,7 +174,7 @@ function AddressList({
 }
 
 export type SiteFormInput = z.input<typeof siteInputSchema>;
-export type SiteFormOutput = z.output<typeof siteInputSchema>;
+type SiteFormOutput = z.output<typeof siteInputSchema>;
 
 export function SiteForm({
   defaultValues,

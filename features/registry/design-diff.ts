@@ -79,7 +79,7 @@ const minus = (text: string) => text.replace(/^-/, '−');
  * short (0.4 mm stays "0.4 mm", never "0.4000 mm"), otherwise four figures — and always enough figures
  * that two different values never read the same.
  */
-export function numberPair(
+function numberPair(
   a: number | undefined,
   b: number | undefined,
   render: (v: number, figures: number) => string,

@@ -30,7 +30,7 @@ import type { DesignVersionInfo } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { type UnitSystem, formatSignificant } from '@/lib/units';
 
-export type DesignAnalysis = { result: CycleResult; error: null } | { result: null; error: string };
+type DesignAnalysis = { result: CycleResult; error: null } | { result: null; error: string };
 
 /**
  * The engine's cycle at the design motion, run on this device (the same engine the server runs). Design
@@ -102,7 +102,7 @@ export function DesignDrawingPanel({
 }
 
 /** Peak force and torque per pivot at the design motion, against the design force limit. */
-export function PivotPeaksTable({
+function PivotPeaksTable({
   result,
   data,
   system,

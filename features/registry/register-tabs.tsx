@@ -20,7 +20,7 @@ const staff = ['admin', 'supervisor', 'inspector'] as const;
 const planners = ['admin', 'supervisor'] as const;
 
 /** The register's pages. Schedules and the audit log are for the people who plan and approve. */
-export const registerTabs: Tab[] = [
+const registerTabs: Tab[] = [
   { href: ridesHref, label: 'Rides', roles: staff },
   { href: schedulesHref, label: 'Schedules', roles: planners },
   { href: checklistsHref, label: 'Checklists', roles: staff },
@@ -30,7 +30,7 @@ export const registerTabs: Tab[] = [
   { href: auditHref(), label: 'Audit log', roles: planners },
 ];
 
-export function tabsFor(role: Role): Tab[] {
+function tabsFor(role: Role): Tab[] {
   return registerTabs.filter((t) => t.roles.includes(role));
 }
 

@@ -36,7 +36,7 @@ export function requireReasonOutOfService(
 export const rideFormSchema = rideInputSchema.superRefine(requireReasonOutOfService);
 
 export type RideFormInput = z.input<typeof rideFormSchema>;
-export type RideFormOutput = z.output<typeof rideFormSchema>;
+type RideFormOutput = z.output<typeof rideFormSchema>;
 
 export type Option = { value: string; label: string; hint?: string; operatorId?: string };
 

@@ -22,7 +22,7 @@ export const scheduleFormSchema = z.object({
   notes: schedulePatchSchema.shape.notes,
 });
 export type ScheduleFormInput = z.input<typeof scheduleFormSchema>;
-export type ScheduleFormOutput = z.output<typeof scheduleFormSchema>;
+type ScheduleFormOutput = z.output<typeof scheduleFormSchema>;
 
 const NOBODY = '__nobody';
 

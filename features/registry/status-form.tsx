@@ -19,7 +19,7 @@ import { rideStatusSchema, rideStatuses } from '@/features/rides/schema';
  * The status part of the API's ride PATCH, with the status rule; "since" may be left empty (the server
  * then takes the moment of the change).
  */
-export const statusFormSchema = z
+const statusFormSchema = z
   .object({
     status: rideStatusSchema,
     statusReason: ridePatchSchema.shape.statusReason,
@@ -27,8 +27,8 @@ export const statusFormSchema = z
   })
   .superRefine(requireReasonOutOfService);
 
-export type StatusFormInput = z.input<typeof statusFormSchema>;
-export type StatusFormOutput = z.output<typeof statusFormSchema>;
+type StatusFormInput = z.input<typeof statusFormSchema>;
+type StatusFormOutput = z.output<typeof statusFormSchema>;
 
 export function StatusForm({
   defaultValues,

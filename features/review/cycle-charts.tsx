@@ -18,7 +18,7 @@ import { pivotName } from '@/features/review/review-format';
 import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
 import { formatAgainstLimit, formatStated } from '@/lib/measured-format';
 
-export type CycleAxis = 'angle' | 'time';
+type CycleAxis = 'angle' | 'time';
 
 const seatColours = [colors.base, colors.accent, colors.focus, colors.within, colors.near];
 
@@ -248,7 +248,7 @@ type XAxis = {
  * Time, or the main arm's angle. A turning arm is shown from 0° to 360°, with the line broken where it
  * comes round again; a swinging arm keeps its signed angle, its outward and return strokes both drawn.
  */
-export function xValues(cycle: InspectionCycle, axis: CycleAxis): XAxis {
+function xValues(cycle: InspectionCycle, axis: CycleAxis): XAxis {
   if (axis === 'time' || cycle.joints.length === 0)
     return { values: cycle.timeS, breaks: new Set(), label: 'Time (s)', arm: (r) => r };
   const arm = cycle.joints[0].angleRad;

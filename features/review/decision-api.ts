@@ -26,7 +26,7 @@ const enc = encodeURIComponent;
 
 /** A finding as the list holds it: `saving` while the server has not yet answered for it. */
 export type ListedFinding = Finding & { saving?: boolean };
-export type FindingsData = { findings: ListedFinding[] };
+type FindingsData = { findings: ListedFinding[] };
 
 export type ReviewState = DecisionResponse['reviewState'];
 
@@ -117,7 +117,7 @@ export function useCreateFinding(inspectionId: string, rideId: string) {
   });
 }
 
-export type FindingEdit = { finding: Finding; patch: Omit<FindingPatch, 'expectedUpdatedAt'> };
+type FindingEdit = { finding: Finding; patch: Omit<FindingPatch, 'expectedUpdatedAt'> };
 
 /**
  * Changes a finding from the version the editor started with (`finding.updatedAt`): if someone else
@@ -281,7 +281,7 @@ export function useDecide(inspectionId: string, rideId: string) {
 
 // ——— the ride's status ———
 
-export type RideStatusChange = RideStatusChangeInput;
+type RideStatusChange = RideStatusChangeInput;
 
 /**
  * Changes the ride's status outside a decision (`POST /api/rides/:id/status`, under the status rules): a

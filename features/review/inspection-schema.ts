@@ -24,7 +24,7 @@ export { reviewStates };
 export const reviewStateSchema = z.enum(reviewStates);
 export type ReviewState = z.infer<typeof reviewStateSchema>;
 
-export const envelopeStatusSchema = z.enum(['within', 'near', 'over']);
+const envelopeStatusSchema = z.enum(['within', 'near', 'over']);
 
 const quantityKinds = [
   'force',
@@ -61,7 +61,7 @@ const limitSchema: z.ZodType<Limit> = z.discriminatedUnion('kind', [
 ]);
 
 /** One checked value against its design limit, as the engine wrote it (SI). */
-export const envelopeItemSchema = z.object({
+const envelopeItemSchema = z.object({
   id: z.string(),
   label: z.string(),
   quantity: z.enum(quantityKinds),

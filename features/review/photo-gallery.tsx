@@ -10,7 +10,7 @@ import { usePhotoSource, FullSizePhotoViewer } from '@/features/photos';
 const THUMB = 132;
 
 /** The photo's place in the inspection: its pivot or checklist item, for captions and spoken labels. */
-export type PhotoContext = (photo: InspectionPhoto) => string | null;
+type PhotoContext = (photo: InspectionPhoto) => string | null;
 
 /** A square preview that opens the full-size view. Bytes not yet uploaded say so instead of spinning. */
 export function PhotoThumb({

@@ -22,7 +22,7 @@ function cleanQuery(query: Partial<QueueQuery>): Record<string, string | number 
 }
 
 /** The URL of one page of the queue (`GET /api/review/queue`), lists as comma lists. */
-export function queueUrl(query: Partial<QueueQuery>): string {
+function queueUrl(query: Partial<QueueQuery>): string {
   return `/api/review/queue${toSearch(cleanQuery(query) as QueryParams)}`;
 }
 

@@ -19,9 +19,9 @@ import { type QueueQuery, type QueueSort } from '@/features/review/schema';
 
 const ALL = '__all';
 
-export type QueuePatch = Record<string, string | number | readonly string[] | undefined>;
+type QueuePatch = Record<string, string | number | readonly string[] | undefined>;
 
-export const queueSortChoices: { value: QueueSort; label: string }[] = [
+const queueSortChoices: { value: QueueSort; label: string }[] = [
   { value: 'urgency', label: 'Most urgent first' },
   { value: 'newest', label: 'Newest first' },
   { value: 'oldest', label: 'Oldest first' },
@@ -44,7 +44,7 @@ export function activeFilterCount(query: Partial<QueueQuery>): number {
 const dateSchema = calendarDate();
 
 /** The problem with a typed date, in the API schema's own words; null when it is fine or empty. */
-export function dateProblem(text: string): string | null {
+function dateProblem(text: string): string | null {
   if (text.trim() === '') return null;
   const parsed = dateSchema.safeParse(text);
   return parsed.success ? null : (parsed.error.issues[0]?.message ?? 'Must be a date, YYYY-MM-DD');

@@ -20,7 +20,7 @@ export type ReviewSeries = {
 };
 
 /** A dashed, labelled horizontal line: a limit never rests on colour alone. */
-export type ReviewLimit = { label: string; y: number; color?: string };
+type ReviewLimit = { label: string; y: number; color?: string };
 
 /** The allowed range between two limits, tinted, with each side drawn as a limit line. */
 export type ReviewBand = { min?: { label: string; y: number }; max?: { label: string; y: number } };

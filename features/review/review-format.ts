@@ -8,7 +8,7 @@ import type { InspectionReading } from '@/features/review/inspection-schema';
 import { type MeasuredSource, formatMeasured, formatSpreadOf, formatTyped } from '@/lib/measured-format';
 import { labelsOf, reviewStateVocabulary } from '@/lib/vocabulary';
 
-export const readingQuantity: Record<Exclude<ReadingKind, 'other'>, QuantityKind> = {
+const readingQuantity: Record<Exclude<ReadingKind, 'other'>, QuantityKind> = {
   speed: 'rate',
   period: 'time',
   amplitude: 'angle',
@@ -36,7 +36,7 @@ export function formatReading(
 }
 
 /** What the display rule needs to know about how a reading was taken. */
-export function readingSource(r: {
+function readingSource(r: {
   unit: string;
   entered?: string | null;
   spreadSI?: number | null;

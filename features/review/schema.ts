@@ -24,7 +24,7 @@ import {
 
 export { findingSeverities, findingStates, urgencies };
 export type { FindingSeverity, FindingState, Urgency };
-export const urgencySchema = z.enum(urgencies);
+const urgencySchema = z.enum(urgencies);
 
 /** Each urgency's words (`label`, `description`); the queue sorts by the order of `urgencies`. */
 export const urgencyInfo = urgencyVocabulary;

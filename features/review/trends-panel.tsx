@@ -295,7 +295,7 @@ function TrendNumbers({
 }
 
 /** "79.95 mm on 3 Mar 2025 → 79.40 mm on 2 Jun 2025 (−0.55 mm)": the first and latest known values. */
-export function driftWords(
+function driftWords(
   points: readonly TrendPoint[],
   values: readonly (number | null)[],
   fmt: (v: number) => string,

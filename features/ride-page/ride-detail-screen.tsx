@@ -192,7 +192,7 @@ function DesignLinks({ rideId, editor }: { rideId: string; editor: boolean }) {
 }
 
 /** A full-width text link with an icon: a 48 px target, for lists of "go to…" inside cards. */
-export function LinkRow({
+function LinkRow({
   href,
   label,
   icon,

@@ -61,9 +61,9 @@ export const transitionRequirements = [
   'no_over_limit_values',
   'override',
 ] as const;
-export type TransitionRequirement = (typeof transitionRequirements)[number];
+type TransitionRequirement = (typeof transitionRequirements)[number];
 
-export type TransitionRule =
+type TransitionRule =
   | { allowed: true; to: RideStatus; requires: readonly TransitionRequirement[] }
   | { allowed: false; why: string };
 
@@ -156,7 +156,7 @@ export type TransitionProblem = {
   path?: string;
 };
 
-export type TransitionCheck =
+type TransitionCheck =
   { ok: true; to: RideStatus; override: boolean } | { ok: false; problems: TransitionProblem[] };
 
 const filled = (s: string | null | undefined) => typeof s === 'string' && s.trim() !== '';

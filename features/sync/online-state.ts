@@ -9,7 +9,7 @@ import { useSyncExternalStore } from 'react';
 import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
 import { onReachabilityChange, reportServerReached, serverReached } from '@/features/api';
 
-export function onlineNow(): boolean {
+function onlineNow(): boolean {
   return isOnline() && serverReached();
 }
 

@@ -51,7 +51,7 @@ export class OutboxTransitionError extends Error {
   }
 }
 
-export const BACKOFF_BASE_MS = 5_000;
+const BACKOFF_BASE_MS = 5_000;
 export const BACKOFF_MAX_MS = 15 * 60_000;
 
 /** Wait before the next automatic try after `attempts` failed ones: 5 s, 10 s, 20 s, … up to 15 min. */

@@ -14,7 +14,7 @@ import { type SendFailure, backoffMs, classifyFailure } from '@/features/sync/ou
 
 export type PhotoProgress = { sha256: string; sentBytes: number; totalBytes: number };
 
-export type PhotoUploadOptions = {
+type PhotoUploadOptions = {
   now?: () => Date;
   force?: boolean;
   onProgress?: (progress: PhotoProgress) => void;

@@ -30,7 +30,7 @@ export type PullReport = {
 };
 
 /** A server that keeps saying "more" would otherwise hold the sync forever. */
-export const MAX_PULL_PAGES = 20;
+const MAX_PULL_PAGES = 20;
 
 export class PullResponseError extends Error {
   constructor(message: string) {

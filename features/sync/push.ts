@@ -23,7 +23,7 @@ import {
 
 export const MAX_BATCH = 50;
 
-export type PushOptions = {
+type PushOptions = {
   newId: () => string;
   now?: () => Date;
   /** Ignore back-off (the inspector pressed "sync now"). */

@@ -22,9 +22,9 @@ import { photosWaitingCount } from '@/features/sync/photo-counts';
 import { type PhotoProgress, requeuePhoto } from '@/features/sync/photo-upload';
 import { syncOnce } from '@/features/sync/sync-run';
 
-export const SYNC_INTERVAL_MS = 30_000;
+const SYNC_INTERVAL_MS = 30_000;
 /** With nothing to send, still pull now and then: new assignments and decisions arrive that way. */
-export const PULL_INTERVAL_MS = 5 * 60_000;
+const PULL_INTERVAL_MS = 5 * 60_000;
 
 export type SyncStatus = {
   /** Records queued or being sent. */
@@ -46,7 +46,7 @@ export type SyncStatus = {
   online: boolean;
 };
 
-export const emptySyncStatus: SyncStatus = {
+const emptySyncStatus: SyncStatus = {
   waiting: 0,
   accepted: 0,
   needsAttention: [],
@@ -61,7 +61,7 @@ export const emptySyncStatus: SyncStatus = {
   online: true,
 };
 
-export class SyncController {
+class SyncController {
   private status: SyncStatus = { ...emptySyncStatus, online: isOnline() };
   private listeners = new Set<() => void>();
   private teardown: (() => void) | null = null;

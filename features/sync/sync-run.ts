@@ -11,14 +11,14 @@ import { type PhotoProgress, type PhotoUploadReport, uploadPhotos } from '@/feat
 import { type PullReport, pull } from '@/features/sync/pull';
 import { type PushReport, pushOutbox } from '@/features/sync/push';
 
-export type SyncRunOptions = {
+type SyncRunOptions = {
   newId: () => string;
   now?: () => Date;
   force?: boolean;
   onPhotoProgress?: (progress: PhotoProgress) => void;
 };
 
-export type SyncRunReport = {
+type SyncRunReport = {
   push: PushReport;
   photos: PhotoUploadReport | null;
   pull: PullReport | null;

@@ -10,9 +10,9 @@ import Svg, { Circle, Line, Path, Polygon } from 'react-native-svg';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 
-export type PeriodKind = 'swing' | 'revolution';
+type PeriodKind = 'swing' | 'revolution';
 
-export const periodDefinition: Record<PeriodKind, { title: string; text: string }> = {
+const periodDefinition: Record<PeriodKind, { title: string; text: string }> = {
   swing: {
     title: 'One swing = there and back',
     text:

@@ -19,10 +19,10 @@
 
 export const MIN_INTERVALS_FOR_CHECKS = 3;
 export const MAD_TO_SD = 1.4826;
-export const MAD_THRESHOLD = 3;
-export const SD_FLOOR_OF_MEDIAN = 0.02;
+const MAD_THRESHOLD = 3;
+const SD_FLOOR_OF_MEDIAN = 0.02;
 
-export type IntervalVerdict = {
+type IntervalVerdict = {
   /** 0-based: interval i runs from tap i to tap i + 1. */
   index: number;
   seconds: number;
@@ -30,7 +30,7 @@ export type IntervalVerdict = {
   reason: string | null;
 };
 
-export type TapStats = {
+type TapStats = {
   taps: number;
   intervals: IntervalVerdict[];
   used: number;
@@ -61,7 +61,7 @@ export function median(values: readonly number[]): number {
   return s.length % 2 ? s[mid] : (s[mid - 1] + s[mid]) / 2;
 }
 
-export function mean(values: readonly number[]): number {
+function mean(values: readonly number[]): number {
   return values.reduce((a, b) => a + b, 0) / values.length;
 }
 

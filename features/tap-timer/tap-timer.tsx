@@ -23,7 +23,7 @@ import { TapPad } from '@/features/tap-timer/tap-pad';
 export type { TapTimerResult } from '@/features/tap-timer/stats';
 
 /** What the pad says for each kind of period: the swing wording makes "there and back" explicit. */
-export const padWords = {
+const padWords = {
   revolution: {
     label: 'Tap once per revolution',
     hint: 'Tap each time the arm passes your mark',

@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 
 import bcrypt from 'bcryptjs';
 
-export const bcryptCost = 10;
+const bcryptCost = 10;
 
 export function hashPassword(plain: string): Promise<string> {
   return bcrypt.hash(plain, bcryptCost);

@@ -8,7 +8,7 @@ import { currentUser, requireAuth } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { signIn } from '@/server/auth/service';
 
-export const defaultSignInLimit = { windowMs: 15 * 60 * 1000, max: 10 };
+const defaultSignInLimit = { windowMs: 15 * 60 * 1000, max: 10 };
 
 /** `POST /auth/sign-in` and `GET /me`. */
 export function authRouter(deps: ApiDeps): Router {

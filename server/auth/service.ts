@@ -89,7 +89,7 @@ export function assertUserCompany(db: Db, role: Role, companyId: string | null):
   }
 }
 
-export type NewUserInput = {
+type NewUserInput = {
   email: string;
   name: string;
   role: Role;
@@ -113,7 +113,7 @@ export async function createUser(db: Db, input: NewUserInput): Promise<SessionUs
   return user;
 }
 
-export type AdminUserRow = SessionUser & { createdAt: string; disabledAt: string | null };
+type AdminUserRow = SessionUser & { createdAt: string; disabledAt: string | null };
 
 /** Every user, for the admin's people list. Password hashes never leave this module. */
 export function listUsers(db: Db): AdminUserRow[] {

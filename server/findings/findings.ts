@@ -144,7 +144,7 @@ export function listFindings(db: Reader, inspectionId: string): Finding[] {
   return findingRows(db).where(eq(findings.inspectionId, inspectionId)).orderBy(asc(findings.number)).all();
 }
 
-export function findFinding(db: Reader, id: string): Finding | null {
+function findFinding(db: Reader, id: string): Finding | null {
   return findingRows(db).where(eq(findings.id, id)).get() ?? null;
 }
 

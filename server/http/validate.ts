@@ -8,7 +8,7 @@ type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
 type Out<S> = S extends z.ZodType ? z.output<S> : never;
 
 /** The middleware, plus typed getters for what it parsed, so handlers never read `req.body` again. */
-export type Validator<S extends Schemas> = RequestHandler & {
+type Validator<S extends Schemas> = RequestHandler & {
   body: (res: Response) => Out<S['body']>;
   query: (res: Response) => Out<S['query']>;
   params: (res: Response) => Out<S['params']>;

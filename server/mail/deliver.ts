@@ -53,7 +53,7 @@ export type DeliveryOutcome =
   /** The claim found nothing due (already sent, failed, not yet due, or another worker has it). */
   | { status: 'skipped' };
 
-export type DeliverOptions = {
+type DeliverOptions = {
   mailer: Mailer;
   /** Exactly one recipient: the idempotency key stands for one notice to one person. */
   mail: OutgoingMail & { to: string };

@@ -22,7 +22,7 @@ export type SmtpReplyFault = { code: number; when: 'mail' | 'rcpt' | 'data'; mes
 export type SmtpDropFault = { when: 'data' | 'after-accept' };
 type Fault = ({ kind: 'reply' } & SmtpReplyFault) | ({ kind: 'drop' } & SmtpDropFault);
 
-export type FakeSmtpOptions = {
+type FakeSmtpOptions = {
   /** Must be a loopback address; default 127.0.0.1. */
   host?: string;
   /** 0 (the default) picks a free port. */

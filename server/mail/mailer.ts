@@ -168,7 +168,7 @@ function withoutCredentials(smtpUrl: string): string {
 const addressText = (a: unknown): string =>
   typeof a === 'string' ? a : (stringField(a, 'address') ?? JSON.stringify(a));
 
-export type MailerOptions = {
+type MailerOptions = {
   smtpUrl: string;
   from: string;
   logger?: Logger;

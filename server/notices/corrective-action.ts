@@ -30,7 +30,7 @@ import { recordAudit } from '@/server/registry/audit';
 
 type Reader = Pick<Db, 'select'>;
 
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export type FindingHead = {
   id: string;

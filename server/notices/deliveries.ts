@@ -32,7 +32,7 @@ import { renderNoticePdf } from '@/server/notices/pdf';
 import { escapeHtml, htmlMailStart, noticeSubject, rideStatusWords } from '@/server/notices/words';
 import { photoPathOf } from '@/server/sync/photo-store';
 
-export type DeliveryDeps = {
+type DeliveryDeps = {
   db: Db;
   mailer: Mailer;
   /** DATA_DIR: where photo bytes live, for the PDF's thumbnails. */
@@ -46,7 +46,7 @@ export type DeliveryDeps = {
   policy?: RetryPolicy;
 };
 
-export type DeliveryRunResult = { sent: number; retry: number; failed: number; skipped: number };
+type DeliveryRunResult = { sent: number; retry: number; failed: number; skipped: number };
 
 const staleBefore = (now: Date, leaseMs: number) => new Date(now.getTime() - leaseMs).toISOString();
 
@@ -213,7 +213,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
 }
 
 /** Photo bytes for the PDF's thumbnails; null (printed as "not available") when the server lacks them. */
-export function photoLoader(db: Db, dataDir: string) {
+function photoLoader(db: Db, dataDir: string) {
   return async (sha256: string): Promise<Buffer | null> => {
     if (!/^[0-9a-f]{64}$/.test(sha256)) return null;
     const known = db.select({ sha256: photos.sha256 }).from(photos).where(eq(photos.sha256, sha256)).get();
@@ -319,7 +319,7 @@ export async function processDeliveries(
   return result;
 }
 
-export type DeliveryLoop = {
+type DeliveryLoop = {
   /** Run soon (coalesced with a run in progress). */
   nudge: () => void;
   /** Resolves when the run in progress, if any, has finished. */

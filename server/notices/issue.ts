@@ -39,7 +39,7 @@ import { recordAudit } from '@/server/registry/audit';
 
 export type NoticeTx = Pick<Db, 'select' | 'insert' | 'update' | 'run' | 'get' | 'all'>;
 
-export type IssuedNotice = { id: string; reference: string; recipients: string[] };
+type IssuedNotice = { id: string; reference: string; recipients: string[] };
 
 /** The next reference of the year. Sequential because every issue runs in a write transaction. */
 function nextReference(tx: NoticeTx, year: number) {

@@ -70,7 +70,7 @@ function headQuery(db: Reader) {
 
 type HeadRow = Awaited<ReturnType<ReturnType<typeof headQuery>['all']>>[number];
 
-export function deliveryStateOf(total: number, sent: number, failed: number): NoticeDeliveryState {
+function deliveryStateOf(total: number, sent: number, failed: number): NoticeDeliveryState {
   if (total === 0) return 'no_address';
   if (sent + failed < total) return 'sending';
   if (failed === 0) return 'sent';

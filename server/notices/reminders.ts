@@ -33,11 +33,11 @@ import { escapeHtml, htmlMailStart } from '@/server/notices/words';
 import { findingNumber } from '@/server/findings/findings';
 
 /** How far ahead a due date counts as "due soon". */
-export const dueSoonDays = 7;
+const dueSoonDays = 7;
 
-export type ReminderDeps = { db: Db; appUrl: string; logger?: Logger };
+type ReminderDeps = { db: Db; appUrl: string; logger?: Logger };
 
-export type ReminderRun = {
+type ReminderRun = {
   /** Operator companies e-mailed. */
   companies: number;
   /** Finding × stage pairs recorded. */
@@ -127,7 +127,7 @@ function when(dueOn: string, today: string): string {
 }
 
 /** The reminder e-mail for one company. */
-export function reminderEmail(companyName: string, items: Due[], today: string, appUrl: string) {
+function reminderEmail(companyName: string, items: Due[], today: string, appUrl: string) {
   const past = items.filter((i) => i.stage === 'past_due');
   const soon = items.filter((i) => i.stage === 'due_soon');
   const counts = [
@@ -227,7 +227,7 @@ export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
   return run;
 }
 
-export type ReminderJob = { stop: () => void; nextRun: () => Date | null };
+type ReminderJob = { stop: () => void; nextRun: () => Date | null };
 
 /**
  * Schedules `runReminders` with croner: every day at 07:00 UTC unless `schedule` (a cron pattern) and

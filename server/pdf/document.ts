@@ -9,7 +9,7 @@ import PDFDocument from 'pdfkit';
 
 import { FONT_FILES, fontDir, fonts } from '@/server/pdf/fonts';
 
-export type PdfStart = {
+type PdfStart = {
   size: 'A4' | 'LETTER';
   margins: number;
   /** False when the caller adds its first page itself (after setting up its layout). */

@@ -96,7 +96,7 @@ export function drawLine(
   });
 }
 
-export function newPage(l: Layout) {
+function newPage(l: Layout) {
   l.doc.addPage();
   l.runningHeader(l);
   l.y = RUNNING_TOP;

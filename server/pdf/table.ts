@@ -16,8 +16,8 @@ import {
 } from '@/server/pdf/layout';
 import { drawMarkIcon } from '@/server/pdf/marks';
 
-export type Cell = { text: string; style?: TextStyle; mark?: Mark };
-export type Column<R> = { title: string; share: number; align?: 'left' | 'right'; cell: (row: R) => Cell };
+type Cell = { text: string; style?: TextStyle; mark?: Mark };
+type Column<R> = { title: string; share: number; align?: 'left' | 'right'; cell: (row: R) => Cell };
 
 /** Room for a table's header row and its first two rows, kept with the heading above the table. */
 export const TABLE_START = 80;

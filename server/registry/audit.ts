@@ -2,7 +2,7 @@ import { auditLog } from '@/db/server/schema';
 import type { AuditAction, AuditEntity } from '@/features/registry/schema';
 import type { Db } from '@/server/db';
 
-export type AuditEntry = {
+type AuditEntry = {
   userId: string;
   entity: AuditEntity;
   entityId: string;

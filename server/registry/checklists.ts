@@ -18,7 +18,7 @@ import { recordAudit } from '@/server/registry/audit';
 type ContentInput = z.output<typeof checklistContentSchema>;
 
 /** Gives every new area and item an id (kept by later versions) and fills the optional fields. */
-export function normaliseChecklist(content: ContentInput): ChecklistContent {
+function normaliseChecklist(content: ContentInput): ChecklistContent {
   const taken = new Set<string>();
   content.areas.forEach((a) => {
     if (a.id) taken.add(a.id);
@@ -175,7 +175,7 @@ export function listChecklistVersions(db: Pick<Db, 'select'>, id: string) {
     .all();
 }
 
-export type NewTemplate = { name: string; rideClass: RideClass; content: ContentInput; reason?: string };
+type NewTemplate = { name: string; rideClass: RideClass; content: ContentInput; reason?: string };
 
 export function createChecklistTemplate(
   db: Pick<Db, 'transaction'>,
@@ -212,7 +212,7 @@ export function createChecklistTemplate(
   });
 }
 
-export type TemplateChange = {
+type TemplateChange = {
   name?: string;
   content: ContentInput;
   reason: string;

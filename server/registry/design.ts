@@ -126,7 +126,7 @@ function canonical(value: unknown): string {
   );
 }
 
-export type NewDesignVersion = {
+type NewDesignVersion = {
   reason: string;
   data: DesignData;
   origin: DesignOrigin;

@@ -21,5 +21,5 @@ export function orderBy<K extends string>(
   return [descending ? desc(column) : asc(column), ...ties];
 }
 
-export type Paging = { page: number; pageSize: number };
+type Paging = { page: number; pageSize: number };
 export const offsetOf = ({ page, pageSize }: Paging) => (page - 1) * pageSize;

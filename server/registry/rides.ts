@@ -165,7 +165,7 @@ export function createRide(db: Db, userId: string, input: RideInput, now: Date):
 }
 
 /** Extra checks a ride must pass before deletion; other modules (schedules…) add theirs. */
-export type RideDeleteGuard = (db: Pick<Db, 'select'>, rideId: string) => string | null;
+type RideDeleteGuard = (db: Pick<Db, 'select'>, rideId: string) => string | null;
 
 const hasDesignData: RideDeleteGuard = (db, rideId) => {
   const n =

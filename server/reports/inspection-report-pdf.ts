@@ -32,7 +32,7 @@ import { orNot } from '@/server/notices/words';
 import { startPdf } from '@/server/pdf/document';
 import type { InspectionReport } from '@/server/reports/inspection-report';
 
-export type ReportPaper = 'A4' | 'LETTER';
+type ReportPaper = 'A4' | 'LETTER';
 
 const MARGIN = 50;
 

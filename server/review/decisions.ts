@@ -52,7 +52,7 @@ const pastTense = { approved: 'approved', returned: 'returned' } as const;
  * its values over their limits, in words for the notice ("finding 7 (Stop now); Pin diameter, pivot 2:
  * 139.05 mm against ≥ 139.0 mm, over limit").
  */
-export function causesOf(tx: Pick<Db, 'select'>, inspectionId: string) {
+function causesOf(tx: Pick<Db, 'select'>, inspectionId: string) {
   const blocking = tx
     .select({ number: findingNumber, severity: findings.severity, description: findings.description })
     .from(findings)

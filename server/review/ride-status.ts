@@ -65,7 +65,7 @@ export function openBlockingFindings(tx: Pick<Db, 'select'>, rideId: string, exc
 }
 
 /** A refused transition as the API answers it: 403 for the wrong role, 400 naming missing fields. */
-export function transitionError(problems: TransitionProblem[], pathPrefix = ''): HttpError {
+function transitionError(problems: TransitionProblem[], pathPrefix = ''): HttpError {
   const notAllowed = problems.find((p) => p.code === 'not_allowed');
   if (notAllowed) return new HttpError(403, 'forbidden', notAllowed.message);
   const fieldless = problems.find((p) => !p.path);
@@ -139,7 +139,7 @@ export function applyStatus(
 }
 
 /** The rules' record of a change (the register's PATCH writes one too). */
-export function recordStatusChange(
+function recordStatusChange(
   tx: Pick<Db, 'insert'>,
   input: {
     userId: string;

@@ -12,7 +12,7 @@ import { auditEntryRows, auditRowOrder } from '@/server/registry/audit-query';
 import type { InspectionHead } from '@/server/findings/findings';
 
 /** Far more than one inspection's decisions and a ride's changes over its review period. */
-export const TRAIL_LIMIT = 500;
+const TRAIL_LIMIT = 500;
 
 export function inspectionTrail(db: Pick<Db, 'select'>, inspection: InspectionHead): AuditEntry[] {
   // The phone may send its time with an offset; the audit log is in UTC.

@@ -13,7 +13,7 @@ import { findDesignVersion } from '@/server/registry/design';
 import { mustFindRide } from '@/server/registry/rides';
 
 /** Points answered at most: the latest ones, still oldest first (years of daily checks stay readable). */
-export const TRENDS_LIMIT = 1000;
+const TRENDS_LIMIT = 1000;
 
 const amendment = alias(inspections, 'amendment');
 

@@ -38,7 +38,7 @@ import { ingestBatch } from '@/server/sync/ingest';
 
 /** The demo's inspector, who made every demo inspection, and the supervisor who decided them. */
 const demoInspectorEmail = 'inspector@pivotwatch.test';
-export const demoSupervisorEmail = 'supervisor@pivotwatch.test';
+const demoSupervisorEmail = 'supervisor@pivotwatch.test';
 
 type Ctx = {
   db: Db;

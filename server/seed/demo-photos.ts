@@ -22,7 +22,7 @@ export type DemoPhotoName = DemoPhotoFile['name'];
 
 export const demoPhotosDir = path.join(repoRoot, 'assets', 'demo');
 
-export type DemoPhoto = { name: DemoPhotoName; bytes: Uint8Array; sha256: string };
+type DemoPhoto = { name: DemoPhotoName; bytes: Uint8Array; sha256: string };
 
 const loaded = new Map<DemoPhotoName, DemoPhoto>();
 

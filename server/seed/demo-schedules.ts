@@ -5,7 +5,7 @@ import type { InspectionType } from '@/features/registry/schema';
  * opens with some inspections due, exactly one overdue (Tidebreaker's follow-up after its restriction) and
  * some assigned to the demo inspector. As real days pass without inspections, more fall due, as they would.
  */
-export type DemoSchedule = {
+type DemoSchedule = {
   /** The demo ride's serial. */
   serial: string;
   inspectionType: InspectionType;

@@ -34,7 +34,7 @@ import { demoSchedules } from '@/server/seed/demo-schedules';
 
 export const demoPassword = 'pivotwatch-demo';
 
-export const demoInspectionBody = {
+const demoInspectionBody = {
   name: 'Halvard Ride Inspection Services',
   phone: '+44 20 7946 0100',
   noticeEmails: [] as string[],
@@ -109,7 +109,7 @@ export const demoSites: {
   },
 ];
 
-export type DemoRide = {
+type DemoRide = {
   name: string;
   rideClass: RideClass;
   description: string;
@@ -219,14 +219,14 @@ export const demoUsers: { email: string; name: string; role: Role; company: Oper
   },
 ];
 
-export type SeedResult = 'seeded' | 'skipped_existing_users' | 'skipped_production';
+type SeedResult = 'seeded' | 'skipped_existing_users' | 'skipped_production';
 
 /** The demo account the seeded records name as their author. */
-export const demoAuthorEmail = 'admin@pivotwatch.test';
+const demoAuthorEmail = 'admin@pivotwatch.test';
 /** The demo inspector, who gets some of the demo's inspections assigned. */
 export const demoInspectorEmail = 'inspector@pivotwatch.test';
 
-export type SeedOptions = {
+type SeedOptions = {
   /** The seed day; demo dates are relative to it. */
   now?: Date;
   /**
@@ -350,7 +350,7 @@ async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir
  * fixed ids and batch ids let it be added exactly once. Design versions and templates are never deleted
  * (templates are archived), so filling an empty place changes nothing anyone entered. Safe to run again.
  */
-export function topUpDemoData(db: Db, now: Date = new Date(), opts: { activity?: boolean } = {}): void {
+function topUpDemoData(db: Db, now: Date = new Date(), opts: { activity?: boolean } = {}): void {
   db.transaction((tx) => topUpRegister(tx, now));
   if (opts.activity) addDemoActivity(db, now);
 }

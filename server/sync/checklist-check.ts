@@ -24,7 +24,7 @@ const parseContent = (raw: unknown): ChecklistContent | null => {
 };
 
 /** Template content by id and version, read once per batch; null when there is none (or it is unreadable). */
-export function templateContentLookup(
+function templateContentLookup(
   sqlite: Database.Database,
 ): (templateId: string | null, version: number | null) => ChecklistContent | null {
   const stmt = sqlite.prepare<[string, number], { content: string }>(

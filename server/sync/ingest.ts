@@ -34,7 +34,7 @@ import {
 } from '@/server/sync/plausibility-check';
 import { sqliteOf } from '@/server/sqlite-client';
 
-export type PushBatch = { batchId: string; records: unknown[] };
+type PushBatch = { batchId: string; records: unknown[] };
 type RecordResult = PushResult['results'][number];
 type Issue = { path: string; message: string };
 
@@ -360,7 +360,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   return { id: record.id, status: 'accepted' };
 }
 
-export type IngestOutcome = { result: PushResult; replayed: boolean; accepted: number };
+type IngestOutcome = { result: PushResult; replayed: boolean; accepted: number };
 
 /**
  * Stores a batch (already checked against pushBatchSchema) for `user`. A batch id this user has sent

@@ -12,7 +12,7 @@ import { eq } from 'drizzle-orm';
 import { photos, type photoMimes } from '@/db/server/inspections';
 import type { Db } from '@/server/db';
 
-export type PhotoMime = (typeof photoMimes)[number];
+type PhotoMime = (typeof photoMimes)[number];
 
 /** Photos are compressed on the phone to a long edge of 1600 px; 8 MB leaves room for any of those. */
 export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;

@@ -36,14 +36,14 @@ import { assignmentsOf } from '@/server/registry/schedules';
 import { findingNumber } from '@/server/findings/findings';
 
 /** How far before the cursor changes are looked for again (clock skew between processes, slow commits). */
-export const CURSOR_OVERLAP_MS = 5_000;
+const CURSOR_OVERLAP_MS = 5_000;
 
 const CURSOR_PREFIX = 'v1:';
 
-export const cursorOf = (at: Date) => `${CURSOR_PREFIX}${at.toISOString()}`;
+const cursorOf = (at: Date) => `${CURSOR_PREFIX}${at.toISOString()}`;
 
 /** The time a cursor stands for; a 400 naming the parameter when it is not one this server gave out. */
-export function parseCursor(cursor: string): Date {
+function parseCursor(cursor: string): Date {
   const iso = cursor.startsWith(CURSOR_PREFIX) ? cursor.slice(CURSOR_PREFIX.length) : '';
   const at = new Date(iso);
   if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/.test(iso) || Number.isNaN(at.getTime()))
@@ -56,7 +56,7 @@ export function parseCursor(cursor: string): Date {
   return at;
 }
 
-export type Decision = {
+type Decision = {
   inspectionId: string;
   rideId: string;
   state: string;

@@ -46,7 +46,7 @@ const summaryColumns = {
   reviewedAt: inspections.reviewedAt,
 };
 
-export type InspectionListFilter = {
+type InspectionListFilter = {
   rideId?: string;
   inspectorId?: string;
   mine?: boolean;

@@ -172,7 +172,7 @@ const partKindFields: Record<DesignPart['kind'], readonly FieldColumn[]> = {
  * Columns that say which record a row is rather than hold one of its fields: a body's place in the chain
  * (its index in the list) and the rider limit's axis (its key).
  */
-export const keyColumns: Partial<Record<RecordKind, DesignCsvColumn>> = { body: 'body', rider: 'axis' };
+const keyColumns: Partial<Record<RecordKind, DesignCsvColumn>> = { body: 'body', rider: 'axis' };
 
 /** The fields of a record; a part's include those of its kind. */
 export function fieldsOf(record: RecordKind, partKind?: DesignPart['kind']): readonly FieldColumn[] {

@@ -128,7 +128,7 @@ export const checklistItemSchema = z
       });
   });
 
-export const checklistAreaSchema = z.object({
+const checklistAreaSchema = z.object({
   id: itemId().optional(),
   title: requiredText(120),
   items: z.array(checklistItemSchema).min(1, 'Give at least one item').max(100, 'At most 100 items'),
@@ -186,7 +186,7 @@ export const checklistTemplatePutSchema = z.object({
   basedOnVersion: z.number().int().min(1).optional(),
 });
 
-export const checklistVersionInfoSchema = z.object({
+const checklistVersionInfoSchema = z.object({
   version: z.number().int().min(1),
   createdAt: z.string(),
   createdByName: z.string(),

@@ -6,7 +6,7 @@ import { companyKinds } from '@/lib/vocabulary';
 
 // ——— operator companies ———
 
-export const companyContactSchema = z.object({
+const companyContactSchema = z.object({
   name: requiredText(80),
   role: nullableText(80).optional(),
   email: z

@@ -15,7 +15,7 @@ export type DesignOrigin = z.infer<typeof designOriginSchema>;
  * existed are in force; the fields are optional so those records, cached on phones, still parse.
  */
 export const designApprovalStates = ['pending', 'in_force', 'rejected'] as const;
-export const designApprovalStateSchema = z.enum(designApprovalStates);
+const designApprovalStateSchema = z.enum(designApprovalStates);
 
 /** A version without its data, for version lists. */
 export const designVersionInfoSchema = z.object({

@@ -7,7 +7,7 @@ import { labelsOf, siteKinds, siteKindVocabulary } from '@/lib/vocabulary';
 // ——— sites ———
 
 export { siteKinds };
-export const siteKindSchema = z.enum(siteKinds, { error: `One of ${siteKinds.join(', ')}` });
+const siteKindSchema = z.enum(siteKinds, { error: `One of ${siteKinds.join(', ')}` });
 export const siteKindLabel = labelsOf(siteKindVocabulary);
 
 export const siteInputSchema = z.object({

@@ -33,7 +33,7 @@ import { table, TABLE_START } from '@/server/pdf/table';
 
 export type PhotoLoader = (sha256: string) => Promise<Buffer | null> | Buffer | null;
 
-export type LoadedPhoto = { ok: true; data: Buffer } | { ok: false };
+type LoadedPhoto = { ok: true; data: Buffer } | { ok: false };
 
 const THUMB_W = 116;
 const THUMB_H = 87;
