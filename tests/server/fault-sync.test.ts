@@ -9,10 +9,9 @@
  *   - answers 502 to another 10 %: half without forwarding, half after the server has answered;
  * and the server is stopped and started again on the same DATA_DIR and port in the middle of the run.
  *
- * The one piece that is not the phone's code is the HTTP client: features/sync/http-api.ts needs the
- * app's token store and XMLHttpRequest, neither of which exists in node. `fetchSyncApi` below does the
- * same requests with fetch and maps failures to the same errors (OfflineError for a cut connection,
- * ApiRequestError for an HTTP error or an answer that is not ours).
+ * The HTTP side is the phone's too: the sync endpoints of features/sync/http-api.ts over the app's API
+ * client built by createApiClient (pointed at the proxy, with the inspector's token). Node has no
+ * XMLHttpRequest, which the photo upload uses, so tests/support/fetch-xhr.ts stands in for the browser's.
  */
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
@@ -22,15 +21,16 @@ import path from 'node:path';
 
 import Database from 'better-sqlite3';
 
-import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
 import { countOutbox, listOutbox } from '@/features/device-db/outbox';
 import { listPhotoBlobs, putPhotoBlob } from '@/features/device-db/photos';
 import { submitDraft } from '@/features/device-db/drafts';
-import { type InspectionRecord, pushResultSchema } from '@/features/records/schema';
-import type { SyncApi } from '@/features/sync/api';
+import { createApiClient } from '@/features/api';
+import type { InspectionRecord } from '@/features/records/schema';
+import { createHttpSyncApi } from '@/features/sync/http-api';
 import { syncOnce } from '@/features/sync/sync-run';
 import { startServer, type RunningServer } from '@/server/main';
 
+import { FetchXmlHttpRequest } from '@/tests/support/fetch-xhr';
 import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
 import { makeTempDir } from './helpers';
 import { imageBytes, makeRecord, otherReading, photoRefFor, speedReading } from './sync-fixtures';
@@ -38,6 +38,9 @@ import { imageBytes, makeRecord, otherReading, photoRefFor, speedReading } from 
 // The app's API client module stores the session with expo-secure-store, which node cannot load; this test
 // passes its token explicitly and never reads the store.
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
+// The API feature's index also offers the phone's PDF download (expo-file-system, which node cannot load
+// either); sync never downloads a PDF.
+jest.mock('@/features/api/pdf-download', () => ({}));
 jest.setTimeout(120_000);
 
 const N = 60;
@@ -174,65 +177,6 @@ async function startProxy(upstreamPort: () => number, random: () => number, onRe
   };
 }
 
-/** The sync API over fetch, with the same error mapping as the app's client (see the file comment). */
-function fetchSyncApi(base: string, token: string): SyncApi {
-  const call = async (pathname: string, init: RequestInit): Promise<unknown> => {
-    let res: Response;
-    let text: string;
-    try {
-      res = await fetch(`${base}${pathname}`, {
-        ...init,
-        headers: { Accept: 'application/json', Authorization: `Bearer ${token}`, ...init.headers },
-        signal: AbortSignal.timeout(15_000),
-      });
-      text = await res.text();
-    } catch (err) {
-      throw new OfflineError(err);
-    }
-    let json: unknown;
-    try {
-      json = text ? JSON.parse(text) : undefined;
-    } catch {
-      throw new ApiRequestError(
-        res.status,
-        'bad_response',
-        `Unexpected answer from the server (${res.status}).`,
-      );
-    }
-    if (!res.ok) {
-      const parsed = apiErrorSchema.safeParse(json);
-      if (parsed.success) {
-        const e = parsed.data.error;
-        throw new ApiRequestError(res.status, e.code, e.message, e.issues);
-      }
-      throw new ApiRequestError(res.status, 'http_error', `Request failed (${res.status}).`);
-    }
-    return json;
-  };
-  return {
-    push: async (batch) =>
-      pushResultSchema.parse(
-        await call('/api/sync/push', {
-          method: 'POST',
-          headers: { 'Content-Type': 'application/json' },
-          body: JSON.stringify(batch),
-        }),
-      ),
-    putPhoto: async (photo) => {
-      await call(`/api/photos/${photo.sha256}`, {
-        method: 'PUT',
-        headers: { 'Content-Type': photo.mime },
-        // A copy of exactly the photo's bytes (the Uint8Array may sit in a larger buffer).
-        body: photo.bytes.slice(),
-      });
-    },
-    pull: (cursor) =>
-      call(`/api/sync/pull${cursor === null ? '' : `?cursor=${encodeURIComponent(cursor)}`}`, {
-        method: 'GET',
-      }),
-  };
-}
-
 async function directJson(url: string, init: RequestInit = {}): Promise<unknown> {
   const res = await fetch(url, init);
   if (!res.ok) throw new Error(`${init.method ?? 'GET'} ${url}: ${res.status} ${await res.text()}`);
@@ -247,6 +191,7 @@ beforeAll(async () => {
   dev = await memoryDeviceDb();
 });
 afterAll(async () => {
+  delete (global as { XMLHttpRequest?: unknown }).XMLHttpRequest;
   await server?.close();
   await dev.close();
   fs.rmSync(dataDir, { recursive: true, force: true });
@@ -301,7 +246,13 @@ test(`${N} inspections with photos through cuts, 502s and a server restart: none
       if (n === RESTART_AT) restarting = restart();
     },
   );
-  const api = fetchSyncApi(proxy.url, signIn.token);
+  const getToken = async () => signIn.token;
+  // A phone's network gives up on a request that hangs; a cut can leave one hanging.
+  const fetchImpl: typeof fetch = (input, init) =>
+    fetch(input, { ...init, signal: AbortSignal.timeout(15_000) });
+  const apiFetch = createApiClient({ baseUrl: proxy.url, getToken, fetchImpl });
+  const api = createHttpSyncApi({ apiFetch, baseUrl: proxy.url, getToken });
+  (global as { XMLHttpRequest?: unknown }).XMLHttpRequest = FetchXmlHttpRequest;
 
   // The inspector records inspections through the day, three between syncs; some share a photo.
   const records: InspectionRecord[] = [];
