@@ -18,7 +18,7 @@ import {
   type InspectionRecord,
   type PushResult,
 } from '@/features/records/schema';
-import type { ConfirmedOutOfRange } from '@/features/records/plausibility';
+import type { ConfirmedOutOfRange } from '@/features/records/schema';
 import type { EnvelopeItem } from '@/features/loads/engine';
 import {
   envelopeStatuses,

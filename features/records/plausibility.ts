@@ -17,6 +17,7 @@
  * Typed and timed readings are checked alike: both replace the design motion in the load check.
  */
 import type { DesignData, DesignMotion } from '@/features/loads/design-schema';
+import type { ConfirmedOutOfRange, MotionReadingKind } from '@/features/records/schema';
 
 export const PLAUSIBLE_LOW = 0.5;
 export const PLAUSIBLE_HIGH = 1.5;
@@ -25,8 +26,6 @@ export const PLAUSIBLE_HIGH = 1.5;
  * exactly 1.5 × the design value could land a rounding error past the boundary.
  */
 const ROUNDING = 1e-9;
-
-export type MotionReadingKind = 'speed' | 'period' | 'amplitude';
 
 export type PlausibilityCheck = {
   kind: MotionReadingKind;
@@ -127,24 +126,11 @@ type ConfirmableReading = ReadingLike & {
   plausibility?: { confirmedAt: string; note?: string };
 };
 
-export type ConfirmedOutOfRange = {
-  readingId: string;
-  label: string;
-  kind: MotionReadingKind;
-  valueSI: number;
-  designSI: number;
-  ratio: number;
-  confirmedAt: string;
-  note?: string;
-  /** False when a later reading of the same quantity replaced it in the load check. */
-  usedByLoadCheck: boolean;
-};
-
 /**
  * The confirmed readings that are out of range against `design` (the analysis's design data, which is
  * the one the record was checked against at ingest), each marked with whether the load check used it:
  * the latest reading of its kind on its joint, and for a turning joint a period only when no speed was
- * read (features/inspections/analysis.ts, `measuredInputs`).
+ * read (features/records/analysis.ts, `measuredInputs`).
  */
 export function confirmedOutOfRange(
   design: DesignData,

@@ -201,3 +201,20 @@ export type PushResult = z.infer<typeof pushResultSchema>;
 
 /** A reason a draft cannot be sent yet, on its item when it has one. */
 export type DraftProblem = { itemId: string | null; message: string };
+
+/** The motion quantities checked for plausibility against the design motion. */
+export type MotionReadingKind = 'speed' | 'period' | 'amplitude';
+
+/** A reading the inspector confirmed although it lies far from the design motion, as the analysis reports it. */
+export type ConfirmedOutOfRange = {
+  readingId: string;
+  label: string;
+  kind: MotionReadingKind;
+  valueSI: number;
+  designSI: number;
+  ratio: number;
+  confirmedAt: string;
+  note?: string;
+  /** False when a later reading of the same quantity replaced it in the load check. */
+  usedByLoadCheck: boolean;
+};
