@@ -34,6 +34,23 @@ export class ApiRequestError extends Error {
   }
 }
 
+/**
+ * The error a failed answer stands for, for callers that fetch outside the JSON client (bytes in or out):
+ * the API's own error shape when the body is one, else `fallback` under the code `http_error`.
+ */
+export async function errorOfResponse(res: Response, fallback: string): Promise<ApiRequestError> {
+  let body: unknown;
+  try {
+    body = JSON.parse(await res.text());
+  } catch {
+    body = undefined;
+  }
+  const parsed = apiErrorSchema.safeParse(body);
+  if (!parsed.success) return new ApiRequestError(res.status, 'http_error', fallback);
+  const e = parsed.data.error;
+  return new ApiRequestError(res.status, e.code, e.message, e.issues);
+}
+
 /** Thrown when the server cannot be reached at all (offline, DNS, connection reset). */
 export class OfflineError extends Error {
   constructor(cause: unknown) {

@@ -1,5 +1,5 @@
 import { API_BASE } from '@/features/api/client';
-import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
+import { OfflineError, errorOfResponse } from '@/lib/api-errors';
 import { tokenStore } from '@/features/session';
 
 export type PaperSize = 'A4' | 'LETTER';
@@ -21,18 +21,7 @@ export async function downloadPdf(apiPath: string, fileName: string): Promise<st
   } catch (err) {
     throw new OfflineError(err);
   }
-  if (!res.ok) {
-    let body: unknown;
-    try {
-      body = JSON.parse(await res.text());
-    } catch {
-      body = undefined;
-    }
-    const parsed = apiErrorSchema.safeParse(body);
-    throw parsed.success
-      ? new ApiRequestError(res.status, parsed.data.error.code, parsed.data.error.message)
-      : new ApiRequestError(res.status, 'http_error', `The PDF could not be made (${res.status}).`);
-  }
+  if (!res.ok) throw await errorOfResponse(res, `The PDF could not be made (${res.status}).`);
   return saveBlob(await res.blob(), fileName);
 }
 

@@ -8,7 +8,7 @@ import {
 import { z } from 'zod';
 
 import { API_BASE, apiFetch, reviewRoot } from '@/features/api';
-import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
+import { OfflineError, errorOfResponse } from '@/lib/api-errors';
 import { tokenStore } from '@/features/session';
 import { noticeKeys } from '@/features/notices/keys';
 import {
@@ -282,17 +282,5 @@ export async function putEvidencePhoto(photo: EvidencePhoto): Promise<void> {
   } catch (err) {
     throw new OfflineError(err);
   }
-  if (res.ok) return;
-  let body: unknown;
-  try {
-    body = JSON.parse(await res.text());
-  } catch {
-    body = undefined;
-  }
-  const parsed = apiErrorSchema.safeParse(body);
-  if (parsed.success) {
-    const e = parsed.data.error;
-    throw new ApiRequestError(res.status, e.code, e.message, e.issues);
-  }
-  throw new ApiRequestError(res.status, 'http_error', `Photo upload failed (${res.status}).`);
+  if (!res.ok) throw await errorOfResponse(res, `Photo upload failed (${res.status}).`);
 }
