@@ -8,10 +8,17 @@
  */
 import { z } from 'zod';
 
-import { type ReadingKind, readingKinds, readingKindSchema, readingMethods } from '@/features/records/schema';
+import {
+  type ReadingKind,
+  instrumentMethods,
+  readingKinds,
+  readingKindSchema,
+  readingMethods,
+} from '@/features/records/schema';
 import { daysBetween, isoDay } from '@/lib/dates';
 
 export type ReadingMethod = (typeof readingMethods)[number];
+export { instrumentMethods };
 
 /** How many days before its due date an instrument is flagged on the phone. */
 const CALIBRATION_WARNING_DAYS = 14;
@@ -30,24 +37,23 @@ export const methodsForKind: Record<ReadingKind, readonly ReadingMethod[]> = {
   other: ['micrometer', 'dial_indicator', 'gauge', 'stopwatch', 'tachometer', 'other'],
 };
 
-/** The kinds of instrument the register holds: every method that uses a physical instrument. */
-export const instrumentMethods = [
-  'stopwatch',
-  'tachometer',
-  'micrometer',
-  'dial_indicator',
-  'gauge',
-  'other',
-] as const;
 const instrumentMethodSchema = z.enum(instrumentMethods, { error: 'Choose the kind of instrument' });
 
-export const methodChoiceLabel: Record<ReadingMethod, string> = {
+/** Short names of the methods for records and lists (the picker uses `methodChoiceLabel`). */
+export const readingMethodWords: Record<ReadingMethod, string> = {
   typed: 'Typed in',
   tap_timer: 'Tap timer',
   stopwatch: 'Stopwatch',
   tachometer: 'Tachometer',
   micrometer: 'Micrometer',
   dial_indicator: 'Dial indicator',
+  gauge: 'Gauge',
+  other: 'Other',
+};
+
+/** The picker's words: the short names, with a hint where the short one would leave the inspector asking. */
+export const methodChoiceLabel: Record<ReadingMethod, string> = {
+  ...readingMethodWords,
   gauge: 'Gauge (feeler, caliper, angle)',
   other: 'Other (say how)',
 };
@@ -168,18 +174,6 @@ export function measuredWithWords(r: {
   if (r.instrument) return `${method} · ${r.instrument.name} (${r.instrument.serial})`;
   return r.instrument === null ? `${method} · none from the register` : method;
 }
-
-/** Short names of the methods for records and lists (the picker uses `methodChoiceLabel`). */
-export const readingMethodWords: Record<ReadingMethod, string> = {
-  typed: 'Typed in',
-  tap_timer: 'Tap timer',
-  stopwatch: 'Stopwatch',
-  tachometer: 'Tachometer',
-  micrometer: 'Micrometer',
-  dial_indicator: 'Dial indicator',
-  gauge: 'Gauge',
-  other: 'Other',
-};
 
 // ——— the declaration ———
 

@@ -67,9 +67,8 @@ export const readingKindLabel: Record<ReadingKind, string> = {
   other: 'Other',
 };
 
-export const readingMethods = [
-  'typed',
-  'tap_timer',
+/** The methods that use a physical instrument: the kinds of instrument the register holds. */
+export const instrumentMethods = [
   'stopwatch',
   'tachometer',
   'micrometer',
@@ -77,6 +76,8 @@ export const readingMethods = [
   'gauge',
   'other',
 ] as const;
+
+export const readingMethods = ['typed', 'tap_timer', ...instrumentMethods] as const;
 
 /**
  * The instrument register entry a reading was taken with, copied at the time so the record reads on its
