@@ -3,12 +3,30 @@
  * saved on every change, and submission into the outbox. Reads go to the device database, never the
  * network, so all of this works with no signal.
  */
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { type QueryClient, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { randomUUID } from 'expo-crypto';
 import { useCallback, useRef, useState } from 'react';
 
-import { fieldKeys, useDeviceDb, listDrafts, loadDraft, saveDraft, submitDraft, getOutboxItem, listOutbox, getPhotoDataUri } from '@/features/device-db';
-import { readAssignments, readCurrentDesign, readDecisions, readDesignVersion, readRide, readRides, readTemplates } from '@/features/sync';
+import {
+  fieldKeys,
+  useDeviceDb,
+  listDrafts,
+  loadDraft,
+  saveDraft,
+  submitDraft,
+  getOutboxItem,
+  listOutbox,
+  getPhotoDataUri,
+} from '@/features/device-db';
+import {
+  readAssignments,
+  readCurrentDesign,
+  readDecisions,
+  readDesignVersion,
+  readRide,
+  readRides,
+  readTemplates,
+} from '@/features/sync';
 import { analyseRecord, previewOf, type Draft, newCorrection, newDraft, toRecord } from '@/features/records';
 import type { Declaration, InspectionType } from '@/features/records/schema';
 import { buildSentList } from '@/features/inspections/sent';
@@ -23,6 +41,12 @@ function templateFor(list: unknown[], id?: string | null): ChecklistTemplate | n
     if (parsed.success && (!id || parsed.data.id === id)) return parsed.data;
   }
   return null;
+}
+
+/** A draft just saved on the device: the recording screen reads it at once, the rides list shows it. */
+function showStartedDraft(client: QueryClient, draft: Draft) {
+  client.setQueryData(fieldKeys.draft(draft.id), draft);
+  void client.invalidateQueries({ queryKey: fieldKeys.rides() });
 }
 
 /** Rides on the phone, assigned ones first, with any draft in progress for each. */
@@ -104,10 +128,7 @@ export function useStartInspectionMutation() {
       await saveDraft(dev, { id: draft.id, rideId: draft.rideId, data: draft });
       return draft;
     },
-    onSuccess: (draft) => {
-      client.setQueryData(fieldKeys.draft(draft.id), draft);
-      void client.invalidateQueries({ queryKey: fieldKeys.rides() });
-    },
+    onSuccess: (draft) => showStartedDraft(client, draft),
   });
 }
 
@@ -220,8 +241,7 @@ export function useStartCorrectionMutation() {
       return draft;
     },
     onSuccess: (draft) => {
-      client.setQueryData(fieldKeys.draft(draft.id), draft);
-      void client.invalidateQueries({ queryKey: fieldKeys.rides() });
+      showStartedDraft(client, draft);
       void client.invalidateQueries({ queryKey: fieldKeys.sent() });
     },
   });

@@ -199,19 +199,20 @@ export type NoticeDetail = z.infer<typeof noticeDetailSchema>;
 export const noticeResponseSchema = z.object({ notice: noticeDetailSchema });
 
 const photoSha = z.string().regex(/^[0-9a-f]{64}$/, 'Must be a photo reference (64 hex digits)');
+/** Evidence photos, uploaded beforehand and named by their SHA-256: at most 12, each counted once. */
+const evidencePhotos = z
+  .array(photoSha)
+  .max(12, 'At most 12 photos')
+  .default([])
+  .transform((v) => [...new Set(v)]);
+/** A note the finding's next step needs; `ask` is what the form says when it is left empty. */
+const requiredNote = (ask: string) =>
+  z.string({ error: 'Required' }).trim().min(1, ask).max(2000, 'At most 2000 characters');
 
 /** `POST /api/findings/:id/actions`: what the operator did, with evidence photos uploaded beforehand. */
 export const correctiveActionInputSchema = z.object({
-  note: z
-    .string({ error: 'Required' })
-    .trim()
-    .min(1, 'Say what was done')
-    .max(2000, 'At most 2000 characters'),
-  photoShas: z
-    .array(photoSha)
-    .max(12, 'At most 12 photos')
-    .default([])
-    .transform((v) => [...new Set(v)]),
+  note: requiredNote('Say what was done'),
+  photoShas: evidencePhotos,
 });
 export type CorrectiveActionInput = z.input<typeof correctiveActionInputSchema>;
 
@@ -222,16 +223,8 @@ export type CorrectiveActionInput = z.input<typeof correctiveActionInputSchema>;
  * checks that last one and answers 400 naming `evidence` when there is none).
  */
 export const findingCloseInputSchema = z.object({
-  note: z
-    .string({ error: 'Required' })
-    .trim()
-    .min(1, 'Say what you checked and found')
-    .max(2000, 'At most 2000 characters'),
-  photoShas: z
-    .array(photoSha)
-    .max(12, 'At most 12 photos')
-    .default([])
-    .transform((v) => [...new Set(v)]),
+  note: requiredNote('Say what you checked and found'),
+  photoShas: evidencePhotos,
   evidenceRef: z
     .string()
     .trim()
@@ -243,11 +236,7 @@ export type FindingCloseInput = z.input<typeof findingCloseInputSchema>;
 
 /** `POST /api/findings/:id/reopen`: the comment says what is still wrong, and is required. */
 export const findingReopenInputSchema = z.object({
-  note: z
-    .string({ error: 'Required' })
-    .trim()
-    .min(1, 'Say why the finding is reopened')
-    .max(2000, 'At most 2000 characters'),
+  note: requiredNote('Say why the finding is reopened'),
 });
 export type FindingReopenInput = z.input<typeof findingReopenInputSchema>;
 

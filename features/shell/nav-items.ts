@@ -18,35 +18,21 @@ export type NavItem = {
 const rides: NavItem = { href: ridesHref, label: 'Rides', icon: 'list', also: ['/register'] };
 /** Notices to operators: an operator's own company's, every notice for the inspection body's staff. */
 const notices: NavItem = { href: noticesHref, label: 'Notices', icon: 'file-text' };
+const loadCheck: NavItem = { href: calculatorHref, label: 'Load check', icon: 'activity' };
+const account: NavItem = { href: accountHref, label: 'Account', icon: 'user' };
 
 /** What each role sees in the navigation, in order. The first item is the role's home. */
 export const navItems: Record<Role, NavItem[]> = {
-  inspector: [
-    { href: roleHome.inspector, label: 'Today', icon: 'sun' },
-    rides,
-    notices,
-    { href: calculatorHref, label: 'Load check', icon: 'activity' },
-    { href: accountHref, label: 'Account', icon: 'user' },
-  ],
+  inspector: [{ href: roleHome.inspector, label: 'Today', icon: 'sun' }, rides, notices, loadCheck, account],
   supervisor: [
     { href: roleHome.supervisor, label: 'Review', icon: 'inbox' },
     rides,
     notices,
-    { href: calculatorHref, label: 'Load check', icon: 'activity' },
-    { href: accountHref, label: 'Account', icon: 'user' },
+    loadCheck,
+    account,
   ],
-  operator: [
-    { href: roleHome.operator, label: 'My rides', icon: 'home' },
-    notices,
-    { href: accountHref, label: 'Account', icon: 'user' },
-  ],
-  admin: [
-    { href: roleHome.admin, label: 'Admin', icon: 'users' },
-    rides,
-    notices,
-    { href: calculatorHref, label: 'Load check', icon: 'activity' },
-    { href: accountHref, label: 'Account', icon: 'user' },
-  ],
+  operator: [{ href: roleHome.operator, label: 'My rides', icon: 'home' }, notices, account],
+  admin: [{ href: roleHome.admin, label: 'Admin', icon: 'users' }, rides, notices, loadCheck, account],
 };
 
 const under = (prefix: string, pathname: string) => pathname === prefix || pathname.startsWith(`${prefix}/`);
