@@ -1,5 +1,6 @@
 import { ScrollView, StyleSheet, View } from 'react-native';
 
+import { PageTitle } from '@/components/page-title';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
@@ -17,15 +18,7 @@ export function Screen({ title, subtitle, actions, children }: Props) {
   return (
     <ScrollView style={styles.scroll} contentContainerStyle={[styles.content, wide && styles.contentWide]}>
       <View style={styles.inner}>
-        <View style={[styles.header, wide && styles.headerWide]}>
-          <View style={styles.titles}>
-            <Text variant={wide ? 'display' : 'title'} accessibilityRole="header">
-              {title}
-            </Text>
-            {subtitle ? <Text muted>{subtitle}</Text> : null}
-          </View>
-          {actions ? <View style={styles.actions}>{actions}</View> : null}
-        </View>
+        <PageTitle title={title} subtitle={subtitle} actions={actions} />
         {children}
       </View>
     </ScrollView>
@@ -55,10 +48,6 @@ const styles = StyleSheet.create({
   content: { padding: space.lg, paddingBottom: space.xxl },
   contentWide: { padding: space.xxl },
   inner: { width: '100%', maxWidth: layout.maxContentWidth, alignSelf: 'center', gap: space.lg },
-  header: { gap: space.md },
-  headerWide: { flexDirection: 'row', alignItems: 'flex-end', justifyContent: 'space-between' },
-  titles: { gap: space.xs, flexShrink: 1 },
-  actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
   columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
   stack: { gap: space.lg },
   column: { flexBasis: 0, gap: space.lg, minWidth: 0 },

@@ -2,7 +2,7 @@ import { type Href } from 'expo-router';
 import { ScrollView, StyleSheet, View } from 'react-native';
 
 import { BackLink } from '@/components/back-link';
-import { Text } from '@/components/text';
+import { PageTitle } from '@/components/page-title';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 
@@ -26,18 +26,7 @@ export function SubScreen({ title, subtitle, back, badge, actions, wideContent, 
     <ScrollView style={styles.scroll} contentContainerStyle={[styles.content, wide && styles.contentWide]}>
       <View style={[styles.inner, wideContent && wide ? styles.innerFull : null]}>
         {back ? <BackLink href={back.href} label={back.label} /> : null}
-        <View style={[styles.header, wide && styles.headerWide]}>
-          <View style={styles.titles}>
-            <View style={styles.titleRow}>
-              <Text variant={wide ? 'display' : 'title'} role="heading" aria-level={1}>
-                {title}
-              </Text>
-              {badge}
-            </View>
-            {subtitle ? <Text muted>{subtitle}</Text> : null}
-          </View>
-          {actions ? <View style={styles.actions}>{actions}</View> : null}
-        </View>
+        <PageTitle title={title} subtitle={subtitle} badge={badge} actions={actions} />
         {children}
       </View>
     </ScrollView>
@@ -50,9 +39,4 @@ const styles = StyleSheet.create({
   contentWide: { padding: space.xxl, paddingTop: space.xl },
   inner: { width: '100%', maxWidth: layout.maxContentWidth, alignSelf: 'center', gap: space.lg },
   innerFull: { maxWidth: 1600 },
-  header: { gap: space.md },
-  headerWide: { flexDirection: 'row', alignItems: 'flex-end', justifyContent: 'space-between' },
-  titles: { gap: space.xs, flexShrink: 1 },
-  titleRow: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.md },
-  actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
 });
