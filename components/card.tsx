@@ -16,3 +16,6 @@ const styles = StyleSheet.create({
     gap: space.sm,
   },
 });
+
+/** The card's look for a pressable that must read as a card (a Card is a View and takes no pressed state). */
+export const cardLook = styles.card;

@@ -33,50 +33,42 @@ export function ChartTicks({
   return (
     <>
       {yTicks.map((t) => (
-        <G key={`y${t}`}>
-          <Line
-            x1={M.left}
-            x2={width - M.right}
-            y1={y(t)}
-            y2={y(t)}
-            stroke={colors.surfaceSunk}
-            strokeWidth={1}
-          />
-          <SvgText
-            x={M.left - 6}
-            y={y(t) + 4}
-            fontSize={11}
-            fontFamily={fonts.mono}
-            fill={colors.textMuted}
-            textAnchor="end"
-          >
-            {yFormat(t)}
-          </SvgText>
-        </G>
+        <GridTick
+          key={`y${t}`}
+          line={[M.left, y(t), width - M.right, y(t)]}
+          label={[M.left - 6, y(t) + 4, 'end']}
+          text={yFormat(t)}
+        />
       ))}
       {xTicks.map((t) => (
-        <G key={`x${t}`}>
-          <Line
-            x1={x(t)}
-            x2={x(t)}
-            y1={M.top}
-            y2={height - M.bottom}
-            stroke={colors.surfaceSunk}
-            strokeWidth={1}
-          />
-          <SvgText
-            x={x(t)}
-            y={height - M.bottom + 16}
-            fontSize={11}
-            fontFamily={fonts.mono}
-            fill={colors.textMuted}
-            textAnchor="middle"
-          >
-            {xFormat(t)}
-          </SvgText>
-        </G>
+        <GridTick
+          key={`x${t}`}
+          line={[x(t), M.top, x(t), height - M.bottom]}
+          label={[x(t), height - M.bottom + 16, 'middle']}
+          text={xFormat(t)}
+        />
       ))}
     </>
+  );
+}
+
+/** One grid line, from (x1, y1) to (x2, y2), and its value written at (x, y). */
+function GridTick({
+  line: [x1, y1, x2, y2],
+  label: [x, y, anchor],
+  text,
+}: {
+  line: [number, number, number, number];
+  label: [number, number, 'end' | 'middle'];
+  text: string;
+}) {
+  return (
+    <G>
+      <Line x1={x1} x2={x2} y1={y1} y2={y2} stroke={colors.surfaceSunk} strokeWidth={1} />
+      <SvgText x={x} y={y} fontSize={11} fontFamily={fonts.mono} fill={colors.textMuted} textAnchor={anchor}>
+        {text}
+      </SvgText>
+    </G>
   );
 }
 

@@ -2,10 +2,10 @@ import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
-import { Card } from '@/components/card';
+import { Card, cardLook } from '@/components/card';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { colors, space } from '@/components/theme';
 import { rideHref } from '@/features/rides/hrefs';
 import { type RideSummary, rideClassLabel } from '@/features/rides/schema';
 
@@ -52,7 +52,7 @@ export function RideCard({
         role="link"
         accessibilityLabel={`Ride ${ride.name}`}
         // Link (asChild) hands its style to the DOM node as-is on web: one flat object.
-        style={styles.linkCard}
+        style={cardLook}
       >
         {body}
         <View style={styles.open}>
@@ -69,14 +69,5 @@ export function RideCard({
 const styles = StyleSheet.create({
   head: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-start', gap: space.md },
   titles: { flexShrink: 1, gap: 2 },
-  // Same look as Card; Card itself is a View and cannot take a pressed state.
-  linkCard: {
-    backgroundColor: colors.surface,
-    borderRadius: radius.lg,
-    borderWidth: 1,
-    borderColor: colors.border,
-    padding: space.lg,
-    gap: space.sm,
-  },
   open: { flexDirection: 'row', alignItems: 'center', alignSelf: 'flex-end', gap: 2 },
 });
