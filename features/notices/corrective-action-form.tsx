@@ -6,7 +6,7 @@ import { useRef, useState } from 'react';
 import { Image, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
-import { FormAlert, type FormProblem } from '@/components/form-alert';
+import { type FormProblem } from '@/components/form-alert';
 import { IconButton } from '@/components/icon-button';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
@@ -15,6 +15,7 @@ import { ApiRequestError, OfflineError } from '@/lib/api-errors';
 import { capturePhoto } from '@/features/photos';
 import { putEvidencePhoto, useReportAction } from '@/features/notices/notices-api';
 import { type NoticeFinding, correctiveActionInputSchema } from '@/features/notices/schema';
+import { FindingFormFrame } from '@/features/notices/finding-form-frame';
 
 /** The schema's own limit on photos per action. */
 const MAX_PHOTOS = 12;
@@ -109,8 +110,16 @@ export function CorrectiveActionForm({
   };
 
   return (
-    <View style={styles.form} accessibilityLabel={`Corrective action for finding ${finding.number}`}>
-      <Text variant="heading">Report corrective action</Text>
+    <FindingFormFrame
+      label={`Corrective action for finding ${finding.number}`}
+      title="Report corrective action"
+      problem={problem}
+      submitLabel="Send corrective action"
+      submitTone="accent"
+      onSubmit={submit}
+      busy={sending}
+      onCancel={onCancel}
+    >
       <TextField
         label="What was done"
         value={note}
@@ -132,12 +141,7 @@ export function CorrectiveActionForm({
         onRetry={(p) => upload(p).catch(() => undefined)}
         onRemove={remove}
       />
-      <FormAlert problem={problem} />
-      <View style={styles.buttons}>
-        <Button label="Send corrective action" tone="accent" onPress={submit} busy={sending} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={sending} />
-      </View>
-    </View>
+    </FindingFormFrame>
   );
 }
 
@@ -288,19 +292,10 @@ function EvidencePhotos({
 }
 
 const styles = StyleSheet.create({
-  form: {
-    gap: space.md,
-    padding: space.md,
-    borderRadius: radius.md,
-    borderWidth: 2,
-    borderColor: colors.base,
-    backgroundColor: colors.surface,
-  },
   note: { minHeight: 96, textAlignVertical: 'top' },
   pickRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   photos: { gap: space.sm },
   photo: { flexDirection: 'row', alignItems: 'center', gap: space.md },
   preview: { width: 72, height: 72, borderRadius: radius.sm, backgroundColor: colors.surfaceSunk },
   photoText: { flex: 1, gap: 2, alignItems: 'flex-start' },
-  buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });

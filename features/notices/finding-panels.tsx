@@ -6,11 +6,11 @@ import { StyleSheet, View } from 'react-native';
 import type { z } from 'zod';
 
 import { Button } from '@/components/button';
-import { FormAlert } from '@/components/form-alert';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, radius, space } from '@/components/theme';
+import { space } from '@/components/theme';
 import { problemText } from '@/features/notices/corrective-action-form';
+import { FindingFormFrame } from '@/features/notices/finding-form-frame';
 import { putEvidencePhoto, useCloseFinding, useReopenFinding } from '@/features/notices/notices-api';
 import {
   type FindingStateResponse,
@@ -77,13 +77,17 @@ export function ClosePanel({ noticeId, finding, userName, onDone, onCancel }: Pa
     change.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
   };
   return (
-    <View style={styles.panel} accessibilityLabel={title}>
-      <Text variant="heading">{title}</Text>
-      <Text variant="small" muted>
-        Close it once you have checked that the deficiency is put right. Closing does not return the ride to
-        service: when this is its last finding that forbids operation, a follow-up inspection is booked, and
-        its approval does.
-      </Text>
+    <FindingFormFrame
+      label={title}
+      title={title}
+      intro="Close it once you have checked that the deficiency is put right. Closing does not return the ride to service: when this is its last finding that forbids operation, a follow-up inspection is booked, and its approval does."
+      problem={change.error ? { message: problemText(change.error) } : null}
+      submitLabel="Close finding"
+      submitTone="accent"
+      onSubmit={submit}
+      busy={change.isPending}
+      onCancel={onCancel}
+    >
       <TextField
         label="Verification note"
         value={note}
@@ -123,12 +127,7 @@ export function ClosePanel({ noticeId, finding, userName, onDone, onCancel }: Pa
             .join(' · ')}
         </Text>
       ) : null}
-      <FormAlert problem={change.error ? { message: problemText(change.error) } : null} />
-      <View style={styles.buttons}>
-        <Button label="Close finding" tone="accent" onPress={submit} busy={change.isPending} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={change.isPending} />
-      </View>
-    </View>
+    </FindingFormFrame>
   );
 }
 
@@ -197,11 +196,17 @@ function NotePanel<I>({
     change.mutate({ findingId: finding.id, input: checked.data }, { onSuccess: onDone });
   };
   return (
-    <View style={styles.panel} accessibilityLabel={title}>
-      <Text variant="heading">{title}</Text>
-      <Text variant="small" muted>
-        {intro}
-      </Text>
+    <FindingFormFrame
+      label={title}
+      title={title}
+      intro={intro}
+      problem={change.error ? { message: problemText(change.error) } : null}
+      submitLabel={submitLabel}
+      submitTone={submitTone}
+      onSubmit={submit}
+      busy={change.isPending}
+      onCancel={onCancel}
+    >
       <TextField
         label={noteLabel}
         value={note}
@@ -213,23 +218,10 @@ function NotePanel<I>({
         error={error}
         hint={noteHint}
       />
-      <FormAlert problem={change.error ? { message: problemText(change.error) } : null} />
-      <View style={styles.buttons}>
-        <Button label={submitLabel} tone={submitTone} onPress={submit} busy={change.isPending} />
-        <Button label="Cancel" tone="quiet" onPress={onCancel} disabled={change.isPending} />
-      </View>
-    </View>
+    </FindingFormFrame>
   );
 }
 
 const styles = StyleSheet.create({
   buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  panel: {
-    gap: space.md,
-    padding: space.md,
-    borderRadius: radius.md,
-    borderWidth: 2,
-    borderColor: colors.base,
-    backgroundColor: colors.surface,
-  },
 });
