@@ -1,14 +1,9 @@
 import { z } from 'zod';
 
-import { roleSchema } from '@/features/session/schema';
+import { sessionUserSchema } from '@/features/session/schema';
 
-const adminUserSchema = z.object({
-  id: z.string(),
-  email: z.string(),
-  name: z.string(),
-  role: roleSchema,
-  companyId: z.string().nullable(),
-  companyName: z.string().nullable(),
+/** A user as the administrator lists them: who they are (as a session knows them), and since and until when. */
+const adminUserSchema = sessionUserSchema.extend({
   createdAt: z.string(),
   disabledAt: z.string().nullable(),
 });

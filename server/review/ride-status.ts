@@ -93,24 +93,25 @@ export function mustTransition(
 
 export type AppliedChange = { from: RideStatus; to: RideStatus; event: RideStatusEvent; override: boolean };
 
+/** One change of a ride's status, as the rules record it; the inspection or finding that made it, if any. */
+type StatusChange = {
+  userId: string;
+  rideId: string;
+  event: RideStatusEvent;
+  from: RideStatus;
+  to: RideStatus;
+  override: boolean;
+  reason: string | null;
+  now: Date;
+  inspectionId?: string | null;
+  findingId?: string | null;
+};
+
 /**
  * Sets the ride's status (checked by the caller), with its audit entry and its `ride_status_changes` row.
  * In service carries no reason.
  */
-export function applyStatus(
-  tx: Tx,
-  input: {
-    userId: string;
-    rideId: string;
-    event: RideStatusEvent;
-    to: RideStatus;
-    override: boolean;
-    reason: string | null;
-    now: Date;
-    inspectionId?: string | null;
-    findingId?: string | null;
-  },
-): AppliedChange {
+export function applyStatus(tx: Tx, input: Omit<StatusChange, 'from'>): AppliedChange {
   const before = mustFindRide(tx, input.rideId);
   const at = input.now.toISOString();
   tx.update(rides)
@@ -139,21 +140,7 @@ export function applyStatus(
 }
 
 /** The rules' record of a change (the register's PATCH writes one too). */
-function recordStatusChange(
-  tx: Pick<Db, 'insert'>,
-  input: {
-    userId: string;
-    rideId: string;
-    event: RideStatusEvent;
-    from: RideStatus;
-    to: RideStatus;
-    override: boolean;
-    reason: string | null;
-    now: Date;
-    inspectionId?: string | null;
-    findingId?: string | null;
-  },
-) {
+function recordStatusChange(tx: Pick<Db, 'insert'>, input: StatusChange) {
   tx.insert(rideStatusChanges)
     .values({
       rideId: input.rideId,
