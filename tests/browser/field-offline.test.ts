@@ -6,7 +6,13 @@
  */
 import type { Page } from 'playwright-core';
 
-import { apiToken, jpegPhoto, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
+import {
+  apiToken,
+  jpegPhoto,
+  screenshot,
+  serverAndBrowser,
+  startPeriodicInspection,
+} from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
 /** The "camera" photos: chromium renders each one's words. */
@@ -35,14 +41,7 @@ test('an inspection recorded offline arrives once, with its photos and a server 
   await page.getByLabel('Ride Little Kite').waitFor({ timeout: 30000 });
 
   // Start on Little Kite (a one-body pendulum swing), choosing the type.
-  const card = page.getByLabel('Ride Little Kite');
-  await card
-    .getByRole('button', { name: /Start inspection|Another type/ })
-    .first()
-    .click();
-  if (await card.getByRole('radio', { name: 'Periodic' }).count())
-    await card.getByRole('radio', { name: 'Periodic' }).click();
-  await page.waitForURL('**/inspect/**');
+  await startPeriodicInspection(page, 'Little Kite');
   const inspectionUrl = page.url();
 
   // Checklist: everything passes; measured values where the template asks; photos on two of the

@@ -10,7 +10,13 @@ import { randomUUID } from 'node:crypto';
 import type { InspectionRecord, Reading } from '@/features/records/schema';
 import type { Instrument } from '@/features/instruments/schema';
 
-import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
+import {
+  apiGet,
+  apiToken,
+  screenshot,
+  serverAndBrowser,
+  startPeriodicInspection,
+} from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
 
@@ -61,15 +67,7 @@ test('the phone asks how each reading was measured and for the declaration at su
   const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
-  const card = page.getByLabel('Ride Little Kite');
-  await card.waitFor({ timeout: 30000 });
-  await card
-    .getByRole('button', { name: /Start inspection|Another type/ })
-    .first()
-    .click();
-  if (await card.getByRole('radio', { name: 'Periodic' }).count())
-    await card.getByRole('radio', { name: 'Periodic' }).click();
-  await page.waitForURL('**/inspect/**');
+  await startPeriodicInspection(page, 'Little Kite');
 
   await page.getByRole('radio', { name: 'Readings' }).click();
   await page.getByRole('textbox', { name: 'Bushing clearance (diametral)' }).first().fill('0.21');

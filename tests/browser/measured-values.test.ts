@@ -10,22 +10,20 @@ import { analyseInspection, previewOf } from '@/features/records/analysis';
 import type { InspectionRecord, Reading } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 
-import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
+import {
+  apiGet,
+  apiToken,
+  screenshot,
+  serverAndBrowser,
+  startPeriodicInspection,
+} from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser({ NODE_ENV: 'development' });
 
 test('the phone echoes a typed clearance as typed', async () => {
   const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
-  const card = page.getByLabel('Ride Little Kite');
-  await card.waitFor({ timeout: 30000 });
-  await card
-    .getByRole('button', { name: /Start inspection|Another type/ })
-    .first()
-    .click();
-  if (await card.getByRole('radio', { name: 'Periodic' }).count())
-    await card.getByRole('radio', { name: 'Periodic' }).click();
-  await page.waitForURL('**/inspect/**');
+  await startPeriodicInspection(page, 'Little Kite');
   await page.getByRole('radio', { name: 'Readings' }).click();
   await page.getByRole('textbox', { name: 'Bushing clearance (diametral)' }).first().fill('0,40');
   await page.getByRole('radio', { name: 'Gauge (feeler, caliper, angle)' }).first().click();

@@ -6,7 +6,14 @@
  */
 import type { Page } from 'playwright-core';
 
-import { apiGet, apiToken, jpegPhoto, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
+import {
+  apiGet,
+  apiToken,
+  jpegPhoto,
+  screenshot,
+  serverAndBrowser,
+  startPeriodicInspection,
+} from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
 
@@ -29,14 +36,7 @@ test('the banner follows the network; a waiting inspection is not listed as sent
   await banner(page).waitFor({ timeout: 5000 });
   await screenshot(page, 'phone-today-offline-banner');
 
-  const card = page.getByLabel('Ride Little Kite');
-  await card
-    .getByRole('button', { name: /Start inspection|Another type/ })
-    .first()
-    .click();
-  if (await card.getByRole('radio', { name: 'Periodic' }).count())
-    await card.getByRole('radio', { name: 'Periodic' }).click();
-  await page.waitForURL('**/inspect/**');
+  await startPeriodicInspection(page, 'Little Kite');
 
   // Nothing on the checklist applies today (so this test depends on no checklist rule), and one picture
   // is attached twice from the library.

@@ -9,7 +9,13 @@ import type { CDPSession, Page } from 'playwright-core';
 
 import { tapStats } from '@/features/tap-timer/stats';
 
-import { screenshot, signIn, sizes, serverAndBrowser } from '@/tests/support/browser/harness';
+import {
+  screenshot,
+  signIn,
+  sizes,
+  serverAndBrowser,
+  startPeriodicInspection,
+} from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
 
@@ -23,15 +29,7 @@ async function openTimer(page: Page) {
   await page.waitForURL('**/today');
   await page.getByText('Everything is sent').waitFor({ timeout: 30000 });
   // Little Kite: a one-body pendulum with a design swing of 6.5 s (demo data).
-  const card = page.getByLabel('Ride Little Kite');
-  await card.waitFor({ timeout: 30000 });
-  await card
-    .getByRole('button', { name: /Start inspection|Another type/ })
-    .first()
-    .click();
-  if (await card.getByRole('radio', { name: 'Periodic' }).count())
-    await card.getByRole('radio', { name: 'Periodic' }).click();
-  await page.waitForURL('**/inspect/**');
+  await startPeriodicInspection(page, 'Little Kite');
   await page.getByRole('radio', { name: 'Readings' }).click();
   await page.getByRole('button', { name: 'Time it with taps' }).first().click();
 }

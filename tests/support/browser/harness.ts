@@ -198,3 +198,19 @@ export async function jpegPhoto(
   await p.close();
   return file;
 }
+
+/**
+ * On the phone's Today page: starts a periodic inspection of a ride (choosing the type when the ride's
+ * card asks for one) and waits for the recording page.
+ */
+export async function startPeriodicInspection(page: Page, rideName: string) {
+  const card = page.getByLabel(`Ride ${rideName}`);
+  await card.waitFor({ timeout: 30000 });
+  await card
+    .getByRole('button', { name: /Start inspection|Another type/ })
+    .first()
+    .click();
+  if (await card.getByRole('radio', { name: 'Periodic' }).count())
+    await card.getByRole('radio', { name: 'Periodic' }).click();
+  await page.waitForURL('**/inspect/**');
+}
