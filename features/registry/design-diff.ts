@@ -15,6 +15,12 @@ import type {
   DesignPivot,
   DesignSeat,
 } from '@/features/loads/design-schema';
+import type {
+  ChangeEffect,
+  ChangeKind,
+  DesignChange,
+  DesignSection,
+} from '@/features/registry/design-change';
 import { motionKindLabel, partGeometry, partKindLabel, point } from '@/features/registry/design-format';
 import {
   type QuantityKind,
@@ -25,40 +31,18 @@ import {
   toSI,
 } from '@/lib/units';
 
-export type DesignSection =
-  'source' | 'general' | 'bodies' | 'parts' | 'pivots' | 'seats' | 'motion' | 'rider';
-
-/** Whether the field was given before and after: changed (both), added (only after), removed (only before). */
-export type ChangeKind = 'changed' | 'added' | 'removed';
-
-/** For limits: loosened or tightened; for design values and names: changed. */
-export type ChangeEffect = 'loosened' | 'tightened' | 'changed';
-
-export type DesignChange = {
-  section: DesignSection;
-  /** The pivot, body, part, seat or joint the field belongs to ("Main pivot"); '' for ride-wide fields. */
-  where: string;
-  /** The field in words ("Max clearance"). */
-  field: string;
-  /** The value with its unit, or null when it was not given. */
-  before: string | null;
-  after: string | null;
-  kind: ChangeKind;
-  effect: ChangeEffect;
-  /** True for the fields a measured or computed value is checked against. */
-  limit: boolean;
-};
-
-export const sectionLabel: Record<DesignSection, string> = {
-  source: 'Source document',
-  general: 'Whole ride',
-  bodies: 'Bodies',
-  parts: 'Parts',
-  pivots: 'Pivots and pins',
-  seats: 'Seats',
-  motion: 'Design motion and limits',
-  rider: 'Rider limits',
-};
+export {
+  changeText,
+  effectWord,
+  sectionLabel,
+  summarise,
+  summaryText,
+  type ChangeEffect,
+  type ChangeKind,
+  type DesignChange,
+  type DesignDiffSummary,
+  type DesignSection,
+} from '@/features/registry/design-change';
 
 /** The engine's near-limit margin when the design data gives none (features/loads/engine/envelope.ts). */
 const ENGINE_NEAR_MARGIN = 0.9;
@@ -470,11 +454,3 @@ function riderChanges(c: Collector, b: DesignData | null, after: DesignData) {
 export function loosensALimit(before: DesignData | null, after: DesignData): boolean {
   return before !== null && diffDesign(before, after).some((ch) => ch.effect === 'loosened');
 }
-
-export {
-  changeText,
-  effectWord,
-  summarise,
-  summaryText,
-  type DesignDiffSummary,
-} from '@/features/registry/design-diff-text';

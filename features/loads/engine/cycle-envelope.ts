@@ -6,7 +6,7 @@ import type {
   JointHistory,
   PinResult,
   SeatHistory,
-} from '@/features/loads/engine/cycle';
+} from '@/features/loads/engine/cycle-types';
 import {
   type Evaluation,
   type Limit,

@@ -1,157 +1,18 @@
-import {
-  type ChainBody,
-  type Vec2,
-  createChain,
-  createChainWork,
-  solveInto,
-  STANDARD_GRAVITY_MS2,
-} from '@/features/loads/engine/chain';
+import { createChain, createChainWork, solveInto, STANDARD_GRAVITY_MS2 } from '@/features/loads/engine/chain';
 import { evaluateEnvelope } from '@/features/loads/engine/cycle-envelope';
-import {
-  DEFAULT_NEAR_MARGIN,
-  type EnvelopeStatus,
-  type Evaluation,
-  worstStatus,
-} from '@/features/loads/engine/envelope';
-import { type PinStresses, type PinWear, type ShearPlanes } from '@/features/loads/engine/pins';
-import { type MotionProfile, defaultCycleDurationS, sampleProfile } from '@/features/loads/engine/profiles';
-import type { QuantityKind } from '@/lib/units';
+import type {
+  CycleInput,
+  CycleResult,
+  Extremes,
+  JointHistory,
+  PeakAt,
+  Seat,
+  SeatHistory,
+} from '@/features/loads/engine/cycle-types';
+import { DEFAULT_NEAR_MARGIN, worstStatus } from '@/features/loads/engine/envelope';
+import { defaultCycleDurationS, sampleProfile } from '@/features/loads/engine/profiles';
 
 export const DEFAULT_CYCLE_SAMPLES = 360;
-
-/**
- * A rider's seat: a point on a body with the rider's axes. `spineAngleRad` is the direction of the
- * rider's z axis (seat toward head) relative to the body's x-axis. The chest-ward x axis is the spine
- * turned 90° clockwise ('cw', the default: an upright rider facing global +x) or counter-clockwise.
- */
-export type Seat = {
-  name: string;
-  body: number;
-  positionM: Vec2;
-  spineAngleRad: number;
-  facing?: 'cw' | 'ccw';
-};
-
-/** A pin's design data and readings. Diameters and clearance in m, stresses and pressures in Pa. */
-export type PinInput = {
-  shear: ShearPlanes;
-  bearingLengthM: number;
-  nominalDiameterM: number;
-  minimumDiameterM?: number;
-  measuredDiameterM?: number;
-  maxShearStressPa?: number;
-  maxBearingPressurePa?: number;
-  measuredClearanceM?: number;
-  maxClearanceM?: number;
-};
-
-export type JointLimits = {
-  maxRateRadS?: number;
-  maxAmplitudeRad?: number;
-  maxForceN?: number;
-  maxTorqueNm?: number;
-  pin?: PinInput;
-};
-
-/** Limits on a rider axis, in g; either side may be open. */
-export type AxisLimit = { min?: number; max?: number };
-
-export type CycleLimits = {
-  /** Ratio from which a value counts as near its limit. */
-  nearMargin?: number;
-  /** Per joint, in chain order; shorter than the chain or null where a joint has no limits. */
-  joints?: readonly (JointLimits | null | undefined)[];
-  /** Applied to every seat. */
-  rider?: { gx?: AxisLimit; gz?: AxisLimit };
-};
-
-export type CycleInput = {
-  bodies: readonly ChainBody[];
-  /** One per joint, in chain order. */
-  profiles: readonly MotionProfile[];
-  gravityMS2?: number;
-  /** Defaults to the longest natural cycle among the profiles. */
-  durationS?: number;
-  /** Evenly spaced over [0, durationS], both ends included. */
-  samples?: number;
-  seats?: readonly Seat[];
-  limits?: CycleLimits;
-};
-
-export type Extremes = { min: number; max: number; range: number };
-
-export type PeakAt = { value: number; index: number; timeS: number; angleRad: number; armAngleRad: number };
-
-export type JointHistory = {
-  name: string;
-  /** This joint's motion, relative to its parent. */
-  angleRad: Float64Array;
-  rateRadS: Float64Array;
-  accelRadS2: Float64Array;
-  /** Force on body i by its parent, global frame. */
-  forceXN: Float64Array;
-  forceYN: Float64Array;
-  /** The same force in body i's frame: along its x-axis, across it. */
-  forceAlongN: Float64Array;
-  forceAcrossN: Float64Array;
-  forceMagnitudeN: Float64Array;
-  torqueNm: Float64Array;
-  /** Largest force magnitude, where it occurs (this joint's angle and the main arm's angle). */
-  peakForce: PeakAt & { forceN: [number, number]; forceBodyN: [number, number] };
-  /** Largest |torque|; `value` keeps its sign. */
-  peakTorque: PeakAt;
-  /** Load range (max − min) of the magnitude and of each component: what fatigue sees. */
-  extremes: {
-    magnitudeN: Extremes;
-    xN: Extremes;
-    yN: Extremes;
-    alongN: Extremes;
-    acrossN: Extremes;
-    torqueNm: Extremes;
-  };
-  peakRateRadS: number;
-  /** Half the angle travelled end to end when the joint oscillates; null when it turns full circles. */
-  amplitudeRad: number | null;
-};
-
-export type SeatHistory = {
-  name: string;
-  body: number;
-  /** Rider acceleration in g, gravity included (specific force): chest-ward x, spine-ward z. */
-  gx: Float64Array;
-  gz: Float64Array;
-  extremes: {
-    gx: Extremes & { minAtS: number; maxAtS: number };
-    gz: Extremes & { minAtS: number; maxAtS: number };
-  };
-};
-
-export type EnvelopeItem = Evaluation & {
-  /** A stable key, e.g. 'joints.0.force', 'seats.1.gz', 'joints.1.pin.diameter'. */
-  id: string;
-  label: string;
-  quantity: QuantityKind;
-};
-
-export type PinResult = {
-  joint: number;
-  /** At the joint's peak force over the cycle. */
-  stresses: PinStresses;
-  wear: PinWear | null;
-};
-
-export type CycleResult = {
-  gravityMS2: number;
-  samples: number;
-  durationS: number;
-  timeS: Float64Array;
-  joints: JointHistory[];
-  seats: SeatHistory[];
-  pins: PinResult[];
-  envelope: EnvelopeItem[];
-  status: EnvelopeStatus;
-  nearMargin: number;
-};
 
 function extremesOf(values: Float64Array): Extremes {
   let min = Infinity;

@@ -38,12 +38,12 @@ export { localPolynomialFit } from '@/features/loads/engine/smoothing';
 export type { LocalFit } from '@/features/loads/engine/smoothing';
 
 export { DEFAULT_CYCLE_SAMPLES, analyseCycle, cycleResultToJson } from '@/features/loads/engine/cycle';
+export type { CycleResultJson } from '@/features/loads/engine/cycle';
 export type {
   AxisLimit,
   CycleInput,
   CycleLimits,
   CycleResult,
-  CycleResultJson,
   EnvelopeItem,
   Extremes,
   JointHistory,
@@ -53,7 +53,7 @@ export type {
   PinResult,
   Seat,
   SeatHistory,
-} from '@/features/loads/engine/cycle';
+} from '@/features/loads/engine/cycle-types';
 
 export {
   DEFAULT_NEAR_MARGIN,

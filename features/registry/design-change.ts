@@ -1,5 +1,42 @@
-/** A design revision's changes in words: one sentence per change, and the count of limits moved. */
-import type { ChangeEffect, DesignChange } from '@/features/registry/design-diff';
+/**
+ * One change of a design revision (`diffDesign` lists them): what it is, and how it reads — one sentence
+ * per change, and the count of limits moved.
+ */
+
+export type DesignSection =
+  'source' | 'general' | 'bodies' | 'parts' | 'pivots' | 'seats' | 'motion' | 'rider';
+
+/** Whether the field was given before and after: changed (both), added (only after), removed (only before). */
+export type ChangeKind = 'changed' | 'added' | 'removed';
+
+/** For limits: loosened or tightened; for design values and names: changed. */
+export type ChangeEffect = 'loosened' | 'tightened' | 'changed';
+
+export type DesignChange = {
+  section: DesignSection;
+  /** The pivot, body, part, seat or joint the field belongs to ("Main pivot"); '' for ride-wide fields. */
+  where: string;
+  /** The field in words ("Max clearance"). */
+  field: string;
+  /** The value with its unit, or null when it was not given. */
+  before: string | null;
+  after: string | null;
+  kind: ChangeKind;
+  effect: ChangeEffect;
+  /** True for the fields a measured or computed value is checked against. */
+  limit: boolean;
+};
+
+export const sectionLabel: Record<DesignSection, string> = {
+  source: 'Source document',
+  general: 'Whole ride',
+  bodies: 'Bodies',
+  parts: 'Parts',
+  pivots: 'Pivots and pins',
+  seats: 'Seats',
+  motion: 'Design motion and limits',
+  rider: 'Rider limits',
+};
 
 export const effectWord: Record<ChangeEffect, string> = {
   loosened: 'loosened',
