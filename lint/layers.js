@@ -120,8 +120,8 @@ function layerZones(root) {
     zones.push({
       target: `./features/${feature}`,
       from: featureOrder.filter((f) => f !== feature).map((f) => abs(`features/${f}/**`)),
-      except: [...contracts, abs('features/*/index.ts')],
-      message: `Another feature is used through its index.ts (its public API) or its contracts.`,
+      except: [...contracts, abs('features/*/index.ts'), abs('features/*/ui.ts')],
+      message: `Another feature is used through its index.ts or ui.ts (its public API) or its contracts.`,
     });
   });
   featureOrder.forEach((feature, i) => {

@@ -11,7 +11,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import {
   type BodyRow,
   type CalculatorOutcome,
@@ -28,9 +28,9 @@ import {
   rideRequest,
   runCalculator,
 } from '@/features/calculator/calculator-model';
-import { CycleResults } from '@/features/loads';
-import { useRidesQuery } from '@/features/rides';
-import { useRideQuery } from '@/features/registry';
+import { CycleResults } from '@/features/loads/ui';
+import { useRidesQuery } from '@/features/rides/ui';
+import { useRideQuery } from '@/features/registry/ui';
 import { rideClassLabel } from '@/features/rides/schema';
 import { useUnitSystem } from '@/features/settings';
 

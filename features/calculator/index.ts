@@ -1,2 +1,2 @@
-/** What other features may use from the calculator: everything else in the folder is its own. */
+/** What other features and the server may use from calculator: runs anywhere (no React Native). */
 export { calculatorHref } from '@/features/calculator/hrefs';

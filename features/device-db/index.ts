@@ -1,4 +1,4 @@
-/** What other features may use from device-db: everything else in the folder is its own. */
+/** What other features and the server may use from device-db: runs anywhere (no React Native). */
 export type { DeviceDb } from '@/features/device-db/connection';
 export { listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
 export { fieldKeys } from '@/features/device-db/field-keys';
@@ -12,5 +12,4 @@ export {
   putPhotoBlob,
 } from '@/features/device-db/photos';
 export type { PhotoBlob } from '@/features/device-db/photos';
-export { DeviceDbProvider, useDeviceDb } from '@/features/device-db/provider';
 export { getAllSyncMeta, getSyncMeta, setSyncMeta } from '@/features/device-db/sync-meta';

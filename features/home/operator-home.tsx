@@ -9,7 +9,7 @@ import { StatRow, StatTile } from '@/components/stat-tile';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import {
   noticeKeys,
   noticeHref,
@@ -17,14 +17,11 @@ import {
   isPastDue,
   noticeKindLabel,
   todayIso,
-  fetchNotice,
-  useNoticeList,
-  FindingStateMark,
-  SeverityMark,
 } from '@/features/notices';
+import { fetchNotice, useNoticeList, FindingStateMark, SeverityMark } from '@/features/notices/ui';
 import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
 import { formatDate } from '@/lib/dates';
-import { useRidesQuery, RideGrid } from '@/features/rides';
+import { useRidesQuery, RideGrid } from '@/features/rides/ui';
 
 /** Enough to hold every notice an operator company has open at once. */
 const NOTICES_PAGE = 100;

@@ -22,7 +22,7 @@ import {
   measuredWithProblem,
   nothingChosen,
   snapshotOf,
-} from '@/features/instruments';
+} from '@/features/instruments/ui';
 import { type Instrument, measuredWithWords } from '@/features/instruments/schema';
 import { isoDay } from '@/lib/dates';
 import type { DesignData } from '@/features/loads/design-schema';

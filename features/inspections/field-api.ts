@@ -9,7 +9,6 @@ import { useCallback, useRef, useState } from 'react';
 
 import {
   fieldKeys,
-  useDeviceDb,
   listDrafts,
   loadDraft,
   saveDraft,
@@ -18,6 +17,7 @@ import {
   listOutbox,
   getPhotoDataUri,
 } from '@/features/device-db';
+import { useDeviceDb } from '@/features/device-db/ui';
 import {
   readAssignments,
   readCurrentDesign,

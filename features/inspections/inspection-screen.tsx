@@ -12,8 +12,9 @@ import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { formatLocalStamp } from '@/lib/dates';
-import { useSession } from '@/features/auth';
-import { useDeviceDb, putPhotoBlob } from '@/features/device-db';
+import { useSession } from '@/features/auth/ui';
+import { putPhotoBlob } from '@/features/device-db';
+import { useDeviceDb } from '@/features/device-db/ui';
 import {
   analyseRecord,
   type Draft,
@@ -36,23 +37,21 @@ import {
   useDraftEditor,
   useSubmitDraftMutation,
 } from '@/features/inspections/field-api';
-import { capturePhoto } from '@/features/photos';
+import { capturePhoto } from '@/features/photos/ui';
 import { PhotosSection } from '@/features/inspections/photos-section';
 import { ReadingsSection } from '@/features/inspections/readings-section';
 import { inspectionTypeLabel, type PhotoRef } from '@/features/records/schema';
 import { SubmitStep } from '@/features/inspections/submit-step';
-import {
-  useFieldDeclarationQuery,
-  useFieldInstrumentsQuery,
-  unstatedMethodProblems,
-} from '@/features/instruments';
+import { unstatedMethodProblems } from '@/features/instruments';
+import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/ui';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
-import { CycleResults, measuredSources } from '@/features/loads';
+import { measuredSources } from '@/features/loads';
+import { CycleResults } from '@/features/loads/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import { useUnitSystem } from '@/features/settings';
-import { useSyncStatus } from '@/features/sync';
-import { TapTimer } from '@/features/tap-timer';
+import { useSyncStatus } from '@/features/sync/ui';
+import { TapTimer } from '@/features/tap-timer/ui';
 import type { UnitSystem } from '@/lib/units';
 
 type Section = 'checklist' | 'readings' | 'photos' | 'result' | 'submit';

@@ -17,11 +17,11 @@ import {
   nothingChosen,
   snapshotOf,
   type MeasuredWith,
-} from '@/features/instruments';
+} from '@/features/instruments/ui';
 import { type Instrument, measuredWithWords } from '@/features/instruments/schema';
 import { isoDay } from '@/lib/dates';
 import type { DesignData, DesignMotion } from '@/features/loads/design-schema';
-import { MotionPicture } from '@/features/tap-timer';
+import { MotionPicture } from '@/features/tap-timer/ui';
 import { type DisplayUnit, type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
 import { formatMeasured, formatSpreadOf, formatStated, normaliseEntered } from '@/lib/measured-format';
 

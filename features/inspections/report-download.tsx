@@ -6,7 +6,7 @@ import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api';
+import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api/ui';
 
 /** The inspection report's PDF: the inspector's own copy of what they recorded. */
 const downloadInspectionReport = (

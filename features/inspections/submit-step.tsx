@@ -11,7 +11,7 @@ import type { Draft } from '@/features/records';
 import type { useSubmitDraftMutation } from '@/features/inspections/field-api';
 import { todayHref } from '@/features/inspections/hrefs';
 import type { DraftProblem } from '@/features/records/schema';
-import { DeclarationConfirm } from '@/features/instruments';
+import { DeclarationConfirm } from '@/features/instruments/ui';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 
 /**

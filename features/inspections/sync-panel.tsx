@@ -8,7 +8,7 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { formatShortStamp } from '@/lib/dates';
 import { fieldKeys } from '@/features/device-db';
-import type { SyncStatus, SyncStatusHook } from '@/features/sync';
+import type { SyncStatus, SyncStatusHook } from '@/features/sync/ui';
 
 function ago(iso: string | null): string {
   if (!iso) return 'never';

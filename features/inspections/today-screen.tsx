@@ -10,7 +10,7 @@ import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { formatLocalStamp, longDate } from '@/lib/dates';
 import { firstName, greeting } from '@/lib/greeting';
 import {
@@ -24,7 +24,7 @@ import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
-import { useSyncStatus } from '@/features/sync';
+import { useSyncStatus } from '@/features/sync/ui';
 
 /**
  * The inspector's day, read from the phone: inspections a supervisor returned for correction, drafts to

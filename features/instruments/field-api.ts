@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 
-import { useDeviceDb, fieldKeys } from '@/features/device-db';
+import { fieldKeys } from '@/features/device-db';
+import { useDeviceDb } from '@/features/device-db/ui';
 import { readDeclarationSetting, readInstruments } from '@/features/instruments/device-cache';
 
 /** Under `fieldKeys.all`, so a finished sync (which invalidates the field's keys) re-reads them. */

@@ -11,7 +11,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import type { SessionUser } from '@/features/session/schema';
 import { readingKindLabel } from '@/features/records/schema';
 import {
@@ -26,7 +26,7 @@ import {
   readingMethodWords,
 } from '@/features/instruments/schema';
 import { Panes } from '@/components/panes';
-import { RegisterTabs } from '@/features/registry';
+import { RegisterTabs } from '@/features/registry/ui';
 import { formatDateTime, isoDay } from '@/lib/dates';
 import { InstrumentForm } from '@/features/instruments/instrument-form';
 

@@ -1,6 +1,4 @@
-/** What other features may use from loads: everything else in the folder is its own. */
-export { CycleResults } from '@/features/loads/cycle-results';
-export { EnvelopeTable } from '@/features/loads/envelope-table';
+/** What other features and the server may use from loads: runs anywhere (no React Native). */
 export {
   formatBesideLimit,
   formatLimit,

@@ -12,7 +12,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { capturePhoto } from '@/features/photos';
+import { capturePhoto } from '@/features/photos/ui';
 import { putEvidencePhoto, useReportAction } from '@/features/notices/notices-api';
 import { type NoticeFinding, correctiveActionInputSchema } from '@/features/notices/schema';
 import { FindingFormFrame } from '@/features/notices/finding-form-frame';

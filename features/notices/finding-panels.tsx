@@ -18,7 +18,7 @@ import {
   findingCloseInputSchema,
   findingReopenInputSchema,
 } from '@/features/notices/schema';
-import { capturePhoto } from '@/features/photos';
+import { capturePhoto } from '@/features/photos/ui';
 
 /* The verifier's forms on a finding: verify and close it, or reopen it with a comment. */
 

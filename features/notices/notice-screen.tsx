@@ -14,7 +14,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { useSession } from '@/features/auth';
+import { useSession } from '@/features/auth/ui';
 import type { SessionUser } from '@/features/session/schema';
 import { problemText } from '@/features/notices/corrective-action-form';
 import { FindingLoop } from '@/features/notices/finding-loop';
@@ -26,7 +26,7 @@ import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-downlo
 import { type NoticeDetail, noticeDeliveryStateInfo } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
-import { useRideQuery } from '@/features/registry';
+import { useRideQuery } from '@/features/registry/ui';
 
 const back = { href: noticesHref, label: 'Notices' } as const;
 

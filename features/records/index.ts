@@ -1,4 +1,4 @@
-/** What other features may use from records: everything else in the folder is its own. */
+/** What other features and the server may use from records: runs anywhere (no React Native). */
 export { analyseRecord, previewOf } from '@/features/records/analysis';
 export { answerOfReading, enterChecklistValue, sharedReadingTitle } from '@/features/records/checklist-entry';
 export type { ReadingTarget } from '@/features/records/checklist-entry';

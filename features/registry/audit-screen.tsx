@@ -12,7 +12,7 @@ import { TextField } from '@/components/text-field';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import type { SessionUser } from '@/features/session/schema';
 import { useAuditQuery } from '@/features/registry/api';
 import { entryChanges } from '@/features/registry/audit-diff';

@@ -3,7 +3,7 @@ import { StyleSheet } from 'react-native';
 
 import { Card } from '@/components/card';
 import { SubScreen } from '@/components/sub-screen';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useChecklistSaveMutation } from '@/features/registry/api';
 import { ChecklistForm } from '@/features/registry/checklist-form';
 import { checklistHref, checklistsHref } from '@/features/registry/hrefs';

@@ -4,7 +4,7 @@ import { StyleSheet } from 'react-native';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useChecklistQuery, useChecklistSaveMutation } from '@/features/registry/api';
 import { ChecklistForm, contentToForm } from '@/features/registry/checklist-form';
 import { checklistHref } from '@/features/registry/hrefs';

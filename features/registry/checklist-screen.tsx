@@ -9,7 +9,7 @@ import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useChecklistQuery, useChecklistVersionsQuery } from '@/features/registry/api';
 import { measurementKindLabel } from '@/features/registry/checklist-form';
 import { limitWords } from '@/features/registry/checklist-limit-field';

@@ -11,7 +11,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { ToggleChips } from '@/components/toggle-chips';
 import { useListParams } from '@/components/use-list-params';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useChecklistListQuery } from '@/features/registry/api';
 import { checklistHref, newChecklistHref } from '@/features/registry/hrefs';
 import { RegisterTabs } from '@/features/registry/register-tabs';

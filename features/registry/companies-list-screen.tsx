@@ -12,7 +12,7 @@ import { TextField } from '@/components/text-field';
 import { colors } from '@/components/theme';
 import { useListParams, useSearchText } from '@/components/use-list-params';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useCompanyListQuery } from '@/features/registry/api';
 import { companyHref, newCompanyHref } from '@/features/registry/hrefs';
 import { PAGE_SIZE } from '@/features/registry/register-parts';

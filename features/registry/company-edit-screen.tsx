@@ -2,7 +2,7 @@ import { router, useLocalSearchParams } from 'expo-router';
 
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useCompanyQuery, useCompanySaveMutation } from '@/features/registry/api';
 import { CompanyForm, type CompanyFormInput } from '@/features/registry/company-form';
 import { companiesHref, companyHref } from '@/features/registry/hrefs';

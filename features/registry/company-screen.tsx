@@ -8,7 +8,7 @@ import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useCompanyQuery, useRidePageQuery } from '@/features/registry/api';
 import { Field } from '@/features/registry/design-view';
 import { companiesHref, companyEditHref } from '@/features/registry/hrefs';

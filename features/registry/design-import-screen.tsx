@@ -15,7 +15,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { OfflineError } from '@/lib/api-errors';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import {
   useDesignImportCheckMutation,
   useDesignImportMutation,

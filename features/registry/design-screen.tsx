@@ -2,7 +2,7 @@ import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useRideQuery } from '@/features/registry/api';
 import { DesignPage } from '@/features/registry/design-page';
 import { RideNotFound, useRideIdParam } from '@/features/registry/ride-route';

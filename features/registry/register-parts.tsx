@@ -3,7 +3,7 @@ import { type Href } from 'expo-router';
 import { Card } from '@/components/card';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
-import { RideCard } from '@/features/rides';
+import { RideCard } from '@/features/rides/ui';
 import type { RideSummary } from '@/features/rides/schema';
 
 export const PAGE_SIZE = 25;

@@ -2,7 +2,7 @@ import { router } from 'expo-router';
 
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useRideUpdateMutation } from '@/features/registry/api';
 import { RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { useRideFormOptions } from '@/features/registry/ride-form-options';

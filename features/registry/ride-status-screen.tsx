@@ -5,7 +5,7 @@ import { RideStatusMark } from '@/components/status-mark';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useRideUpdateMutation } from '@/features/registry/api';
 import { useRideIdParam } from '@/features/registry/ride-route';
 import { StatusForm } from '@/features/registry/status-form';

@@ -12,7 +12,7 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import type { SessionUser } from '@/features/session/schema';
 import {
   operatorChoices,
@@ -21,7 +21,8 @@ import {
   useSiteListQuery,
 } from '@/features/registry/api';
 import { FilterGroups, FilterPanel } from '@/components/filter-panel';
-import { RideClassFilter, RideStatusFilter, newRideHref, rideHref, RideCard } from '@/features/rides';
+import { newRideHref, rideHref } from '@/features/rides';
+import { RideClassFilter, RideStatusFilter, RideCard } from '@/features/rides/ui';
 import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';

@@ -15,7 +15,7 @@ import { space } from '@/components/theme';
 import { ToggleChips } from '@/components/toggle-chips';
 import { useListParams, useSearchText } from '@/components/use-list-params';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useInspectorsQuery, useScheduleListQuery } from '@/features/registry/api';
 import { DueMark, dueInWords, dueStatusLabel } from '@/features/registry/due-mark';
 import { RegisterTabs } from '@/features/registry/register-tabs';

@@ -3,7 +3,7 @@ import { router, useLocalSearchParams } from 'expo-router';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import {
   operatorChoices,
   useCompanyListQuery,

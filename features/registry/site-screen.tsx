@@ -5,7 +5,7 @@ import { Card } from '@/components/card';
 import { Panes } from '@/components/panes';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { useRidePageQuery, useSiteQuery } from '@/features/registry/api';
 import { Field } from '@/features/registry/design-view';
 import { siteEditHref, sitesHref } from '@/features/registry/hrefs';

@@ -14,7 +14,7 @@ import { colors, space } from '@/components/theme';
 import { ToggleChips } from '@/components/toggle-chips';
 import { useListParams, useSearchText } from '@/components/use-list-params';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { operatorChoices, useCompanyListQuery, useSiteListQuery } from '@/features/registry/api';
 import { newSiteHref, siteHref } from '@/features/registry/hrefs';
 import { PAGE_SIZE } from '@/features/registry/register-parts';

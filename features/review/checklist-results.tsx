@@ -11,7 +11,7 @@ import { colors, layout, radius, space } from '@/components/theme';
 import { disagreeingReadings, envelopeItemOf } from '@/features/records';
 import type { ChecklistAnswer } from '@/features/records/schema';
 import type { EnvelopeItem } from '@/features/loads/engine';
-import { registryKeys } from '@/features/registry';
+import { registryKeys } from '@/features/registry/ui';
 import { type ChecklistItem, checklistTemplateResponseSchema } from '@/features/registry/schema';
 import type { InspectionPhoto, InspectionReading } from '@/features/review/inspection-schema';
 import { PhotoThumb } from '@/features/review/photo-gallery';

@@ -18,7 +18,7 @@ import {
   findingInputSchema,
   severityInfo,
 } from '@/features/notices/finding-schema';
-import { SeverityMark } from '@/features/notices';
+import { SeverityMark } from '@/features/notices/ui';
 
 export type FindingValues = z.output<typeof findingInputSchema>;
 export type InspectionPhoto = { sha256: string; caption: string };

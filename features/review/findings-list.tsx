@@ -11,7 +11,7 @@ import { colors, layout, radius, space } from '@/components/theme';
 import { formatDate, formatDateTime, localDay } from '@/lib/dates';
 import type { ListedFinding } from '@/features/review/decision-api';
 import { type InspectionPhoto, photoName } from '@/features/review/finding-form';
-import { FindingStateMark, SeverityMark } from '@/features/notices';
+import { FindingStateMark, SeverityMark } from '@/features/notices/ui';
 
 /**
  * The inspection's findings in number order. While the inspection is open for decisions each one can be

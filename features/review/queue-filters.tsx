@@ -11,9 +11,9 @@ import {
   useCompanyListQuery,
   useInspectorsQuery,
   useSiteListQuery,
-} from '@/features/registry';
+} from '@/features/registry/ui';
 import { FilterGroups, FilterPanel } from '@/components/filter-panel';
-import { RideClassFilter, RideStatusFilter } from '@/features/rides';
+import { RideClassFilter, RideStatusFilter } from '@/features/rides/ui';
 import { calendarDate } from '@/features/registry/schema';
 import { type QueueQuery, type QueueSort } from '@/features/review/schema';
 

@@ -10,7 +10,7 @@ import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { RoleGate } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { PagedList } from '@/components/paged-list';
 import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';

@@ -4,7 +4,7 @@ import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { auditEntityLabel } from '@/features/registry';
+import { auditEntityLabel } from '@/features/registry/ui';
 import { formatDateTime } from '@/lib/dates';
 import { useInspectionTrail } from '@/features/review/inspection-api';
 

@@ -3,6 +3,7 @@ import { type Href, Link, router } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import { auditHref } from '@/features/registry';
 import {
   RideNotFound,
   canEditRides,
@@ -10,14 +11,13 @@ import {
   useMyAssignmentsQuery,
   useRideSchedulesQuery,
   useRideQuery,
-  auditHref,
   DesignDrawingPanel,
   DesignVersionCard,
   Field,
   useDesignAnalysis,
   DueMark,
   dueInWords,
-} from '@/features/registry';
+} from '@/features/registry/ui';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { RideStatusMark } from '@/components/status-mark';
@@ -25,12 +25,13 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { ApiRequestError } from '@/lib/api-errors';
-import { roleHome, RoleGate } from '@/features/auth';
+import { roleHome } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import type { Role, SessionUser } from '@/features/session/schema';
 import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { RIDE_NOTICES_PAGE, useRideNotices, NoticeRow } from '@/features/notices';
+import { RIDE_NOTICES_PAGE, useRideNotices, NoticeRow } from '@/features/notices/ui';
 import {
   rideDesignHref,
   rideEditHref,

@@ -1,5 +1,4 @@
-/** What other features may use from rides: everything else in the folder is its own. */
-export { RIDES_STALE_MS, rideKeys, useRidesQuery } from '@/features/rides/api';
+/** What other features and the server may use from rides: runs anywhere (no React Native). */
 export {
   newRideHref,
   rideDesignHref,
@@ -11,7 +10,4 @@ export {
   rideVersionHref,
   ridesHref,
 } from '@/features/rides/hrefs';
-export { RideCard } from '@/features/rides/ride-card';
-export { RideClassFilter, RideStatusFilter } from '@/features/rides/ride-filters';
-export { RideGrid } from '@/features/rides/ride-grid';
 export { eases, statusChoices } from '@/features/rides/status-rules';

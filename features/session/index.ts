@@ -1,2 +1,2 @@
-/** What other features may use from session: everything else in the folder is its own. */
+/** What other features and the server may use from session: runs anywhere (no React Native). */
 export { tokenStore } from '@/features/session/token-store';

@@ -1,2 +1,2 @@
-/** What other features may use from settings: everything else in the folder is its own. */
+/** What other features and the server may use from settings: runs anywhere (no React Native). */
 export { useUnitSystem } from '@/features/settings/unit-system';

@@ -1,10 +1,11 @@
 import { Redirect, Slot, usePathname } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
-import { useSession, signInHref, rememberNextPath } from '@/features/auth';
-import { DeviceDbProvider } from '@/features/device-db';
+import { signInHref, rememberNextPath } from '@/features/auth';
+import { useSession } from '@/features/auth/ui';
+import { DeviceDbProvider } from '@/features/device-db/ui';
 import { AppShell } from '@/features/shell/app-shell';
-import { BackgroundSync } from '@/features/sync';
+import { BackgroundSync } from '@/features/sync/ui';
 
 /**
  * Everything in this group needs a session; signed-out visitors go to sign-in, which brings them back to

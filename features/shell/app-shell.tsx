@@ -7,10 +7,10 @@ import { Logo } from '@/components/logo';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { roleLabel } from '@/features/auth';
+import { roleLabel } from '@/features/auth/ui';
 import type { SessionUser } from '@/features/session/schema';
 import { type NavItem, isActive, navItems } from '@/features/shell/nav-items';
-import { useOnline } from '@/features/sync';
+import { useOnline } from '@/features/sync/ui';
 
 /**
  * Phone: content with a bottom bar. Desktop (≥ 1024 px): a side rail with the same items. The connection

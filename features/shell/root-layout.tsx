@@ -8,7 +8,7 @@ import { SafeAreaProvider } from 'react-native-safe-area-context';
 
 import { colors, fontFiles } from '@/components/theme';
 import { makeQueryClient } from '@/features/api';
-import { UpdatePrompt } from '@/features/sync';
+import { UpdatePrompt } from '@/features/sync/ui';
 
 /** Every page's frame: fonts loaded, one query client, the app-update prompt. */
 export function RootLayout() {

@@ -1,6 +1,6 @@
 import { useSyncExternalStore } from 'react';
 
-import { useDeviceDb } from '@/features/device-db';
+import { useDeviceDb } from '@/features/device-db/ui';
 import { type SyncStatus, getSyncController } from '@/features/sync/sync-controller';
 
 export type SyncStatusHook = SyncStatus & {

@@ -4,11 +4,11 @@
  * its own; this walks everything the server's entry points reach, so a pure-looking module that pulls in
  * a screen two steps away is caught too.
  */
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 
 const root = path.resolve(__dirname, '../..');
-const entries = ['server/main.ts', 'server/app.ts', 'scripts/start.ts'];
+const serverEntries = ['server/main.ts', 'server/app.ts', 'scripts/start.ts'];
 const uiPackages =
   /^(react|react-dom|react-native|react-native-[\w-]+|expo|expo-[\w-]+|@expo\/[\w-]+|@tanstack\/react-query|@react-navigation\/[\w-]+)(\/|$)/;
 
@@ -33,7 +33,10 @@ function resolveLocal(from: string, spec: string): string | null {
   return null;
 }
 
-function reach(): { files: Set<string>; offences: string[] } {
+function reach(
+  entries: string[],
+  forbidden: RegExp = uiPackages,
+): { files: Set<string>; offences: string[] } {
   const files = new Set<string>();
   const offences: string[] = [];
   const queue = entries.map((e) => path.join(root, e));
@@ -46,24 +49,45 @@ function reach(): { files: Set<string>; offences: string[] } {
     if (/^(app|components|tests)\//.test(rel)) offences.push(`${rel} is outside what the server may load`);
     const text = readFileSync(file, 'utf8');
     for (const m of text.matchAll(importPattern)) {
+      // A type-only import loads nothing.
+      if (/^\s*(import|export)\s+type\b/.test(m[0])) continue;
       const spec = m[1] ?? m[2] ?? m[3];
       if (!spec) continue;
       if (spec.startsWith('@/') || spec.startsWith('.')) {
         const target = resolveLocal(file, spec);
         if (target) queue.push(target);
         else offences.push(`${rel}: cannot resolve ${spec}`);
-      } else if (uiPackages.test(spec)) offences.push(`${rel} imports ${spec}`);
+      } else if (forbidden.test(spec)) offences.push(`${rel} imports ${spec}`);
     }
   }
   return { files, offences };
 }
 
 test('nothing the server loads is React, Expo, a route or a test', () => {
-  const { files, offences } = reach();
+  const { files, offences } = reach(serverEntries);
   // The walk must really have gone through the server, the engine and the features' contracts.
   const rel = [...files].map((f) => path.relative(root, f));
   expect(rel).toContain('server/routes/index.ts');
   expect(rel).toContain('features/loads/engine/index.ts');
   expect(rel.some((f) => f.startsWith('features/records/'))).toBe(true);
+  expect(offences).toEqual([]);
+});
+
+/**
+ * A feature's index.ts is its public API for code that runs anywhere (the server, pure modules, node
+ * tests); what needs React Native goes through its ui.ts. Expo's storage and crypto modules run in node.
+ */
+const appRuntime =
+  /^(react-native|react-native-[\w-]+|@expo\/vector-icons|expo-router|expo-file-system|expo-image-picker|expo-image-manipulator|expo-document-picker|expo-font|d3-[\w-]+)(\/|$)/;
+
+test("no feature's index.ts reaches React Native, a component or a chart", () => {
+  const features = readdirSync(path.join(root, 'features')).filter((f) =>
+    existsSync(path.join(root, 'features', f, 'index.ts')),
+  );
+  expect(features.length).toBeGreaterThan(10);
+  const { offences } = reach(
+    features.map((f) => path.join('features', f, 'index.ts')),
+    appRuntime,
+  );
   expect(offences).toEqual([]);
 });

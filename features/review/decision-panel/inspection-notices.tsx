@@ -2,10 +2,10 @@ import { View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
-import { IssuedNoticeRow, NoticeRow, useRideNotices } from '@/features/notices';
+import { IssuedNoticeRow, NoticeRow, useRideNotices } from '@/features/notices/ui';
 import type { NoticeListItem } from '@/features/notices/schema';
 import { sharedStyles } from '@/features/review/decision-panel/styles';
-import { useRideQuery } from '@/features/registry';
+import { useRideQuery } from '@/features/registry/ui';
 import { OfflineError } from '@/lib/api-errors';
 
 type IssuedNotice = { id: string; reference: string };

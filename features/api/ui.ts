@@ -1,0 +1,3 @@
+/** What other features may render or hook into from api (needs the app's runtime). */
+export { downloadPdf, pdfFileName } from '@/features/api/pdf-download';
+export type { PaperSize } from '@/features/api/pdf-download';

@@ -1,0 +1,3 @@
+/** What other features may render or hook into from loads (needs the app's runtime). */
+export { CycleResults } from '@/features/loads/cycle-results';
+export { EnvelopeTable } from '@/features/loads/envelope-table';

@@ -1,0 +1,6 @@
+/** What other features may render or hook into from notices (needs the app's runtime). */
+export { FindingStateMark } from '@/features/notices/finding-state-mark';
+export { fetchNotice, useNoticeList } from '@/features/notices/notices-api';
+export { IssuedNoticeRow, NoticeRow } from '@/features/notices/ride-notices';
+export { RIDE_NOTICES_PAGE, rideNoticeKeys, useRideNotices } from '@/features/notices/ride-notices-api';
+export { SeverityMark } from '@/features/notices/severity-mark';

@@ -1,0 +1,25 @@
+/** What other features may render or hook into from registry (needs the app's runtime). */
+export {
+  operatorChoices,
+  registryKeys,
+  useCompanyListQuery,
+  useDesignVersionQuery,
+  useInspectorsQuery,
+  useMyAssignmentsQuery,
+  useRidePageQuery,
+  useRideQuery,
+  useRideSchedulesQuery,
+  useSiteListQuery,
+} from '@/features/registry/api';
+export { auditEntityLabel } from '@/features/registry/audit-screen';
+export { ChainDrawing } from '@/features/registry/chain-drawing';
+export type { PivotPeak } from '@/features/registry/chain-drawing';
+export {
+  DesignDrawingPanel,
+  DesignVersionCard,
+  Field,
+  useDesignAnalysis,
+} from '@/features/registry/design-view';
+export { DueMark, dueInWords } from '@/features/registry/due-mark';
+export { RegisterTabs } from '@/features/registry/register-tabs';
+export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
