@@ -20,6 +20,11 @@ module.exports = defineConfig([
     ],
   },
   {
+    // Config files run in node (CommonJS).
+    files: ['eslint.config.js', 'lint/**/*.js'],
+    languageOptions: { globals: require('globals').node },
+  },
+  {
     settings: {
       // Resolves the `@/…` alias through tsconfig.json, so the import rules see where each import goes.
       'import/resolver': {

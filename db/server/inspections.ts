@@ -16,9 +16,9 @@ import {
   readingMethods,
   type DevicePreview,
   type InspectionRecord,
+  type ConfirmedOutOfRange,
   type PushResult,
 } from '@/features/records/schema';
-import type { ConfirmedOutOfRange } from '@/features/records/schema';
 import type { EnvelopeItem } from '@/features/loads/engine';
 import {
   envelopeStatuses,

@@ -1,3 +1,2 @@
 /** What other features may render or hook into from auth (needs the app's runtime). */
-export { roleLabel, useSession } from '@/features/auth/api';
 export { RoleGate } from '@/features/auth/role-gate';

@@ -29,7 +29,7 @@ import {
   runCalculator,
 } from '@/features/calculator/calculator-model';
 import { CycleResults } from '@/features/loads/ui';
-import { useRidesQuery } from '@/features/rides/ui';
+import { useRidesQuery } from '@/features/rides';
 import { useRideQuery } from '@/features/registry/ui';
 import { rideClassLabel } from '@/features/rides/schema';
 import { useUnitSystem } from '@/features/settings';

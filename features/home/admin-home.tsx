@@ -10,11 +10,12 @@ import { StatRow, StatTile } from '@/components/stat-tile';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { useAdminUsersQuery } from '@/features/admin/ui';
-import { roleLabel, RoleGate } from '@/features/auth/ui';
+import { useAdminUsersQuery } from '@/features/admin';
+import { roleLabel } from '@/features/auth';
+import { RoleGate } from '@/features/auth/ui';
 import { outboxHref } from '@/features/notices';
 import { roles } from '@/features/session/schema';
-import { useRidesQuery } from '@/features/rides/ui';
+import { useRidesQuery } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 
 /** Administrator's start page: who can sign in, the ride register at a glance, and the e-mail outbox. */

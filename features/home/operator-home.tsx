@@ -21,7 +21,8 @@ import {
 import { fetchNotice, useNoticeList, FindingStateMark, SeverityMark } from '@/features/notices/ui';
 import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
 import { formatDate } from '@/lib/dates';
-import { useRidesQuery, RideGrid } from '@/features/rides/ui';
+import { useRidesQuery } from '@/features/rides';
+import { RideGrid } from '@/features/rides/ui';
 
 /** Enough to hold every notice an operator company has open at once. */
 const NOTICES_PAGE = 100;

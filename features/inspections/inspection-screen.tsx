@@ -12,7 +12,7 @@ import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { formatLocalStamp } from '@/lib/dates';
-import { useSession } from '@/features/auth/ui';
+import { useSession } from '@/features/auth';
 import { putPhotoBlob } from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
 import {

@@ -7,8 +7,7 @@ import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
-import { answerOfReading, checkReading } from '@/features/records';
-import type { Draft } from '@/features/records';
+import { answerOfReading, checkReading, type Draft } from '@/features/records';
 import { type PendingReading, PlausibilityPrompt } from '@/features/inspections/plausibility-prompt';
 import { type Reading, type ReadingKind } from '@/features/records/schema';
 import {

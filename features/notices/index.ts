@@ -2,3 +2,4 @@
 export { noticeHref, noticesHref, outboxHref } from '@/features/notices/hrefs';
 export { noticeKeys } from '@/features/notices/keys';
 export { isPastDue, noticeKindLabel, todayIso } from '@/features/notices/notice-text';
+export { RIDE_NOTICES_PAGE, rideNoticeKeys, useRideNotices } from '@/features/notices/ride-notices-api';

@@ -10,7 +10,7 @@ import { SortableTable } from '@/components/sortable-table';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { useSession } from '@/features/auth/ui';
+import { useSession } from '@/features/auth';
 import type { SessionUser } from '@/features/session/schema';
 import { noticeHref } from '@/features/notices/hrefs';
 import { noticeKindLabel } from '@/features/notices/notice-text';

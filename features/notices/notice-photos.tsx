@@ -4,7 +4,8 @@ import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-nat
 
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { usePhotoSource, FullSizePhotoViewer } from '@/features/photos/ui';
+import { usePhotoSource } from '@/features/photos';
+import { FullSizePhotoViewer } from '@/features/photos/ui';
 
 type NoticePhoto = { sha256: string; caption: string };
 

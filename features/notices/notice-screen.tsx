@@ -14,7 +14,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { useSession } from '@/features/auth/ui';
+import { useSession } from '@/features/auth';
 import type { SessionUser } from '@/features/session/schema';
 import { problemText } from '@/features/notices/corrective-action-form';
 import { FindingLoop } from '@/features/notices/finding-loop';

@@ -23,7 +23,7 @@ import {
   noticeResponseSchema,
 } from '@/features/notices/schema';
 import { type QueryParams, toSearch } from '@/lib/list-params';
-import { rideKeys } from '@/features/rides/ui';
+import { rideKeys } from '@/features/rides';
 
 const enc = encodeURIComponent;
 

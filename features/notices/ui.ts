@@ -2,5 +2,4 @@
 export { FindingStateMark } from '@/features/notices/finding-state-mark';
 export { fetchNotice, useNoticeList } from '@/features/notices/notices-api';
 export { IssuedNoticeRow, NoticeRow } from '@/features/notices/ride-notices';
-export { RIDE_NOTICES_PAGE, rideNoticeKeys, useRideNotices } from '@/features/notices/ride-notices-api';
 export { SeverityMark } from '@/features/notices/severity-mark';

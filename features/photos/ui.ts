@@ -1,4 +1,3 @@
 /** What other features may render or hook into from photos (needs the app's runtime). */
 export { capturePhoto } from '@/features/photos/photo-capture';
-export { usePhotoSource } from '@/features/photos/photo-source';
 export { FullSizePhotoViewer } from '@/features/photos/photo-viewer';

@@ -34,7 +34,7 @@ import {
   siteResponseSchema,
 } from '@/features/registry/schema';
 import type { RideClass } from '@/features/rides/schema';
-import { RIDES_STALE_MS, rideKeys } from '@/features/rides/ui';
+import { RIDES_STALE_MS, rideKeys } from '@/features/rides';
 
 export const registryKeys = {
   all: ['registry'] as const,

@@ -4,7 +4,7 @@ import { z } from 'zod';
 
 import { apiFetch } from '@/features/api';
 import { reviewKeys } from '@/features/review/keys';
-import { rideNoticeKeys } from '@/features/notices/ui';
+import { rideNoticeKeys } from '@/features/notices';
 import {
   type DecisionInput,
   type DecisionResponse,
@@ -20,7 +20,7 @@ import {
   findingListResponseSchema,
   findingResponseSchema,
 } from '@/features/notices/finding-schema';
-import { rideKeys } from '@/features/rides/ui';
+import { rideKeys } from '@/features/rides';
 
 const enc = encodeURIComponent;
 

@@ -5,7 +5,8 @@ import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { formatDateTime } from '@/lib/dates';
 import type { InspectionPhoto } from '@/features/review/inspection-schema';
-import { usePhotoSource, FullSizePhotoViewer } from '@/features/photos/ui';
+import { usePhotoSource } from '@/features/photos';
+import { FullSizePhotoViewer } from '@/features/photos/ui';
 
 const THUMB = 132;
 

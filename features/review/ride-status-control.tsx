@@ -10,7 +10,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
-import { useSession } from '@/features/auth/ui';
+import { useSession } from '@/features/auth';
 import { fieldsOf } from '@/components/form/server-errors';
 import { useSetRideStatus } from '@/features/review/decision-api';
 import { statusChoices } from '@/features/rides';

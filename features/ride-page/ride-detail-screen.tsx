@@ -31,7 +31,8 @@ import type { Role, SessionUser } from '@/features/session/schema';
 import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
-import { RIDE_NOTICES_PAGE, useRideNotices, NoticeRow } from '@/features/notices/ui';
+import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices';
+import { NoticeRow } from '@/features/notices/ui';
 import {
   rideDesignHref,
   rideEditHref,

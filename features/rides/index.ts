@@ -1,4 +1,5 @@
 /** What other features and the server may use from rides: runs anywhere (no React Native). */
+export { RIDES_STALE_MS, rideKeys, useRidesQuery } from '@/features/rides/api';
 export {
   newRideHref,
   rideDesignHref,

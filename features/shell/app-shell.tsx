@@ -7,7 +7,7 @@ import { Logo } from '@/components/logo';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { roleLabel } from '@/features/auth/ui';
+import { roleLabel } from '@/features/auth';
 import type { SessionUser } from '@/features/session/schema';
 import { type NavItem, isActive, navItems } from '@/features/shell/nav-items';
 import { useOnline } from '@/features/sync/ui';

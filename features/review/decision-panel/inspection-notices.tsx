@@ -2,7 +2,8 @@ import { View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
-import { IssuedNoticeRow, NoticeRow, useRideNotices } from '@/features/notices/ui';
+import { useRideNotices } from '@/features/notices';
+import { IssuedNoticeRow, NoticeRow } from '@/features/notices/ui';
 import type { NoticeListItem } from '@/features/notices/schema';
 import { sharedStyles } from '@/features/review/decision-panel/styles';
 import { useRideQuery } from '@/features/registry/ui';

@@ -7,7 +7,7 @@ import { QueryState } from '@/components/query-state';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { noticeHref } from '@/features/notices';
-import { useRideNotices } from '@/features/notices/ui';
+import { useRideNotices } from '@/features/notices';
 import { useDecide, useFindings } from '@/features/review/decision-api';
 import { DecisionForm } from '@/features/review/decision-panel/decision-form';
 import { FindingsSection } from '@/features/review/decision-panel/findings-section';

@@ -1,0 +1,2 @@
+/** What other features and the server may use from admin: runs anywhere (no React Native). */
+export { useAdminUsersQuery } from '@/features/admin/api';

@@ -1,0 +1,2 @@
+/** What other features and the server may use from photos: runs anywhere (no React Native). */
+export { usePhotoSource } from '@/features/photos/photo-source';
