@@ -5,12 +5,11 @@ import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
 import { Button } from '@/components/button';
-import { ChoiceChips } from '@/components/choice-chips';
 import { IconButton } from '@/components/icon-button';
-import { SelectField } from '@/components/select-field';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';
+import { FormChoice, FormSelect } from '@/components/form/choices';
 import { FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { companyInputSchema, siteInputSchema, siteKindLabel, siteKinds } from '@/features/registry/schema';
@@ -201,18 +200,11 @@ export function SiteForm({
   return (
     <View style={styles.form}>
       <FormText control={control} name="name" label="Site name" />
-      <Controller
+      <FormChoice
         control={control}
         name="kind"
-        render={({ field, fieldState }) => (
-          <ChoiceChips
-            label="Kind of site"
-            value={field.value}
-            options={siteKinds.map((k) => ({ value: k, label: siteKindLabel[k] }))}
-            onChange={field.onChange}
-            error={fieldState.error?.message}
-          />
-        )}
+        label="Kind of site"
+        options={siteKinds.map((k) => ({ value: k, label: siteKindLabel[k] }))}
       />
       <View style={styles.pair}>
         <View style={styles.half}>
@@ -222,19 +214,12 @@ export function SiteForm({
           <FormText control={control} name="locality" label="Town or locality" />
         </View>
       </View>
-      <Controller
+      <FormSelect
         control={control}
         name="operatorCompanyId"
-        render={({ field, fieldState }) => (
-          <SelectField
-            label="Operator"
-            value={field.value || null}
-            options={operators}
-            placeholder="Choose the operator company"
-            onChange={field.onChange}
-            error={fieldState.error?.message}
-          />
-        )}
+        label="Operator"
+        options={operators}
+        placeholder="Choose the operator company"
       />
       <FormFooter save={save} submitLabel={submitLabel} onCancel={onCancel} />
     </View>

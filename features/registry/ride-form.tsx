@@ -7,6 +7,7 @@ import { ChoiceChips } from '@/components/choice-chips';
 import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
 import { rideStatusLabel } from '@/components/status-mark';
+import { FormChoice, FormSelect } from '@/components/form/choices';
 import { FormNumber, FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { rideInputSchema } from '@/features/registry/schema';
@@ -102,18 +103,11 @@ export function RideForm({
   return (
     <View style={styles.form}>
       <FormText control={control} name="name" label="Name" />
-      <Controller
+      <FormChoice
         control={control}
         name="rideClass"
-        render={({ field, fieldState }) => (
-          <ChoiceChips
-            label="Ride class"
-            value={field.value}
-            options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
-            onChange={field.onChange}
-            error={fieldState.error?.message}
-          />
-        )}
+        label="Ride class"
+        options={rideClasses.map((c) => ({ value: c, label: rideClassLabel[c] }))}
       />
       <FormText
         control={control}
@@ -122,23 +116,16 @@ export function RideForm({
         hint="One line, as people name it."
       />
       <MakerFields control={control} />
-      <Controller
+      <FormSelect
         control={control}
         name="operatorCompanyId"
-        render={({ field, fieldState }) => (
-          <SelectField
-            label="Operator"
-            value={field.value || null}
-            options={operators}
-            placeholder="Choose the operator company"
-            onChange={(v) => {
-              field.onChange(v);
-              const site = sites.find((s) => s.value === defaultValues.siteId);
-              if (site && site.operatorId !== v) setValue('siteId', null);
-            }}
-            error={fieldState.error?.message}
-          />
-        )}
+        label="Operator"
+        options={operators}
+        placeholder="Choose the operator company"
+        onChosen={(v) => {
+          const site = sites.find((s) => s.value === defaultValues.siteId);
+          if (site && site.operatorId !== v) setValue('siteId', null);
+        }}
       />
       <Controller
         control={control}
