@@ -2,11 +2,12 @@ import { scaleLinear } from 'd3-scale';
 import { line } from 'd3-shape';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import Svg, { G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+import { Line, Path } from 'react-native-svg';
 
 import { AxisTitles, ChartTicks } from '@/components/chart-axes';
+import { ChartFrame, LimitLine } from '@/components/chart-frame';
 import { Text } from '@/components/text';
-import { colors, fonts, space } from '@/components/theme';
+import { colors, space } from '@/components/theme';
 
 type ChartSeries = {
   label: string;
@@ -61,86 +62,65 @@ export function LineChart({
     .range([height - M.bottom, M.top]);
 
   return (
-    <View
-      style={styles.wrap}
-      onLayout={(e) => setWidth(e.nativeEvent.layout.width)}
-      accessibilityLabel={summary}
-      role="img"
+    <ChartFrame
+      width={width}
+      onWidth={setWidth}
+      height={height}
+      margin={M}
+      summary={summary}
+      legend={
+        series.length > 1 ? (
+          <View style={styles.legend}>
+            {series.map((s) => (
+              <View key={s.label} style={styles.legendItem}>
+                <View
+                  style={[styles.swatch, { backgroundColor: s.color }, s.dashed && styles.swatchDashed]}
+                />
+                <Text variant="small">{s.label}</Text>
+              </View>
+            ))}
+          </View>
+        ) : null
+      }
     >
-      {width > 0 ? (
-        <Svg width={width} height={height}>
-          <Rect
-            x={M.left}
-            y={M.top}
-            width={width - M.left - M.right}
-            height={height - M.top - M.bottom}
-            fill={colors.surface}
+      <ChartTicks
+        x={x}
+        y={y}
+        xTicks={xTicks ?? x.ticks(6)}
+        yTicks={y.ticks(5)}
+        xFormat={compact}
+        yFormat={compact}
+        width={width}
+        height={height}
+        margin={M}
+      />
+      <Line x1={M.left} x2={width - M.right} y1={y(0)} y2={y(0)} stroke={colors.border} strokeWidth={1} />
+      {series.map((s) => {
+        const pts = Array.from(s.x, (xv, i) => [x(xv), y(s.y[i])] as [number, number]);
+        const d = line()(pts) ?? '';
+        return (
+          <Path
+            key={s.label}
+            d={d}
+            stroke={s.color}
+            strokeWidth={2}
+            fill="none"
+            strokeDasharray={s.dashed ? '6 4' : undefined}
           />
-          <ChartTicks
-            x={x}
-            y={y}
-            xTicks={xTicks ?? x.ticks(6)}
-            yTicks={y.ticks(5)}
-            xFormat={compact}
-            yFormat={compact}
-            width={width}
-            height={height}
-            margin={M}
-          />
-          <Line x1={M.left} x2={width - M.right} y1={y(0)} y2={y(0)} stroke={colors.border} strokeWidth={1} />
-          {series.map((s) => {
-            const pts = Array.from(s.x, (xv, i) => [x(xv), y(s.y[i])] as [number, number]);
-            const d = line()(pts) ?? '';
-            return (
-              <Path
-                key={s.label}
-                d={d}
-                stroke={s.color}
-                strokeWidth={2}
-                fill="none"
-                strokeDasharray={s.dashed ? '6 4' : undefined}
-              />
-            );
-          })}
-          {limits.map((l) => (
-            <G key={l.label}>
-              <Line
-                x1={M.left}
-                x2={width - M.right}
-                y1={y(l.y)}
-                y2={y(l.y)}
-                stroke={l.color ?? colors.over}
-                strokeWidth={1.5}
-                strokeDasharray="8 5"
-              />
-              <SvgText
-                x={width - M.right - 4}
-                y={y(l.y) - 5}
-                fontSize={11}
-                fontFamily={fonts.semibold}
-                fill={l.color ?? colors.over}
-                textAnchor="end"
-              >
-                {l.label}
-              </SvgText>
-            </G>
-          ))}
-          <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
-        </Svg>
-      ) : (
-        <View style={{ height }} />
-      )}
-      {series.length > 1 ? (
-        <View style={styles.legend}>
-          {series.map((s) => (
-            <View key={s.label} style={styles.legendItem}>
-              <View style={[styles.swatch, { backgroundColor: s.color }, s.dashed && styles.swatchDashed]} />
-              <Text variant="small">{s.label}</Text>
-            </View>
-          ))}
-        </View>
-      ) : null}
-    </View>
+        );
+      })}
+      {limits.map((l) => (
+        <LimitLine
+          key={l.label}
+          label={l.label}
+          y={y(l.y)}
+          left={M.left}
+          right={width - M.right}
+          color={l.color}
+        />
+      ))}
+      <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
+    </ChartFrame>
   );
 }
 
@@ -152,7 +132,6 @@ function compact(v: number): string {
 }
 
 const styles = StyleSheet.create({
-  wrap: { width: '100%', gap: space.sm },
   legend: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, paddingLeft: M.left },
   legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
   swatch: { width: 16, height: 3, borderRadius: 2 },

@@ -2,11 +2,12 @@ import { type ScaleLinear, scaleLinear } from 'd3-scale';
 import { line } from 'd3-shape';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import Svg, { Circle, G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+import Svg, { Circle, G, Line, Path, Rect } from 'react-native-svg';
 
 import { AxisTitles, ChartTicks } from '@/components/chart-axes';
+import { ChartFrame, LimitLine } from '@/components/chart-frame';
 import { Text } from '@/components/text';
-import { colors, fonts, space } from '@/components/theme';
+import { colors, space } from '@/components/theme';
 
 /** A line; a null or NaN y leaves a gap (e.g. where an angle wraps from 360° back to 0°). */
 export type ReviewSeries = {
@@ -86,65 +87,51 @@ export function ReviewChart({
   const plotRight = width - M.right;
 
   return (
-    <View
-      style={styles.wrap}
-      onLayout={(e) => setWidth(e.nativeEvent.layout.width)}
-      accessibilityLabel={summary}
-      role="img"
+    <ChartFrame
+      width={width}
+      onWidth={setWidth}
+      height={height}
+      margin={M}
+      summary={summary}
+      legend={series.length > 1 ? <Legend series={series} /> : null}
     >
-      {width > 0 ? (
-        <Svg width={width} height={height}>
-          <Rect
-            x={M.left}
-            y={M.top}
-            width={plotRight - M.left}
-            height={height - M.top - M.bottom}
-            fill={colors.surface}
-          />
-          {band ? (
-            <Rect
-              x={M.left}
-              width={plotRight - M.left}
-              y={y(band.max?.y ?? yDomain[1])}
-              height={Math.max(0, y(band.min?.y ?? yDomain[0]) - y(band.max?.y ?? yDomain[1]))}
-              fill={colors.withinSoft}
-            />
-          ) : null}
-          <ChartTicks
-            x={x}
-            y={y}
-            xTicks={xTicks ?? x.ticks(width < 420 ? 4 : 6)}
-            yTicks={y.ticks(5)}
-            xFormat={xFormat}
-            yFormat={compact}
-            width={width}
-            height={height}
-            margin={M}
-          />
-          {yDomain[0] < 0 ? (
-            <Line x1={M.left} x2={plotRight} y1={y(0)} y2={y(0)} stroke={colors.border} />
-          ) : null}
-          {marker ? (
-            <Line
-              x1={x(marker.x)}
-              x2={x(marker.x)}
-              y1={M.top}
-              y2={height - M.bottom}
-              stroke={colors.accent}
-              strokeWidth={1.5}
-            />
-          ) : null}
-          {series.map((s) => (
-            <SeriesLine key={s.label} series={s} x={x} y={y} marker={marker} />
-          ))}
-          <LimitLines limits={limits} band={band} y={y} left={M.left} right={plotRight} />
-          <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
-        </Svg>
-      ) : (
-        <View style={{ height }} />
-      )}
-      {series.length > 1 ? <Legend series={series} /> : null}
-    </View>
+      {band ? (
+        <Rect
+          x={M.left}
+          width={plotRight - M.left}
+          y={y(band.max?.y ?? yDomain[1])}
+          height={Math.max(0, y(band.min?.y ?? yDomain[0]) - y(band.max?.y ?? yDomain[1]))}
+          fill={colors.withinSoft}
+        />
+      ) : null}
+      <ChartTicks
+        x={x}
+        y={y}
+        xTicks={xTicks ?? x.ticks(width < 420 ? 4 : 6)}
+        yTicks={y.ticks(5)}
+        xFormat={xFormat}
+        yFormat={compact}
+        width={width}
+        height={height}
+        margin={M}
+      />
+      {yDomain[0] < 0 ? <Line x1={M.left} x2={plotRight} y1={y(0)} y2={y(0)} stroke={colors.border} /> : null}
+      {marker ? (
+        <Line
+          x1={x(marker.x)}
+          x2={x(marker.x)}
+          y1={M.top}
+          y2={height - M.bottom}
+          stroke={colors.accent}
+          strokeWidth={1.5}
+        />
+      ) : null}
+      {series.map((s) => (
+        <SeriesLine key={s.label} series={s} x={x} y={y} marker={marker} />
+      ))}
+      <LimitLines limits={limits} band={band} y={y} left={M.left} right={plotRight} />
+      <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
+    </ChartFrame>
   );
 }
 
@@ -222,28 +209,16 @@ function LimitLines({
         ...(band?.max ? [{ ...band.max, color: colors.over }] : []),
         ...(band?.min ? [{ ...band.min, color: colors.over }] : []),
       ].map((l) => (
-        <G key={l.label}>
-          <Line
-            x1={left}
-            x2={right}
-            y1={y(l.y)}
-            y2={y(l.y)}
-            stroke={l.color ?? colors.over}
-            strokeWidth={1.5}
-            strokeDasharray="8 5"
-          />
-          <SvgText
-            x={right - 4}
-            // Labels of a lower line sit under it, so two sides of a band never collide.
-            y={band?.min && l.y === band.min.y ? y(l.y) + 14 : y(l.y) - 5}
-            fontSize={11}
-            fontFamily={fonts.semibold}
-            fill={l.color ?? colors.over}
-            textAnchor="end"
-          >
-            {l.label}
-          </SvgText>
-        </G>
+        <LimitLine
+          key={l.label}
+          label={l.label}
+          y={y(l.y)}
+          left={left}
+          right={right}
+          color={l.color}
+          // Labels of a lower line sit under it, so two sides of a band never collide.
+          labelBelow={Boolean(band?.min && l.y === band.min.y)}
+        />
       ))}
     </>
   );
@@ -288,7 +263,6 @@ function compact(v: number): string {
 }
 
 const styles = StyleSheet.create({
-  wrap: { width: '100%', gap: space.sm },
   legend: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, paddingLeft: M.left },
   legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
 });
