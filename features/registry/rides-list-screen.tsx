@@ -9,7 +9,7 @@ import { SelectField } from '@/components/select-field';
 import { SortableTable, type SortValue } from '@/components/sortable-table';
 import { RideStatusMark, rideStatusLabel } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { TextField } from '@/components/text-field';
+import { SearchField } from '@/components/search-field';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
@@ -128,15 +128,11 @@ function RidesList({ user }: { user: SessionUser }) {
       <FilterPanel
         active={activeFilters}
         search={
-          <TextField
+          <SearchField
             label="Search rides"
             placeholder={wide ? 'Name, maker, model, serial, site or operator' : 'Name, maker, serial, site…'}
             value={search}
             onChangeText={setSearch}
-            autoCapitalize="none"
-            autoCorrect={false}
-            inputMode="search"
-            returnKeyType="search"
           />
         }
         beside={selects}

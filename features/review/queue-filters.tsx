@@ -3,6 +3,7 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { SelectField } from '@/components/select-field';
+import { SearchField } from '@/components/search-field';
 import { TextField } from '@/components/text-field';
 import { space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
@@ -165,15 +166,11 @@ export function QueueFilterPanel({
     <FilterPanel
       active={active}
       search={
-        <TextField
+        <SearchField
           label="Search the queue"
           placeholder={wide ? 'Ride, serial, site, operator or inspector' : 'Ride, site, inspector…'}
           value={search}
           onChangeText={setSearch}
-          autoCapitalize="none"
-          autoCorrect={false}
-          inputMode="search"
-          returnKeyType="search"
         />
       }
       beside={selects}
