@@ -1,13 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
 import { FieldFrame } from '@/components/field-frame';
 import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
+import { RadioOption } from '@/components/radio-option';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { space } from '@/components/theme';
 import { FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { useSession } from '@/features/auth';
@@ -166,25 +167,14 @@ function StatusRadios({
               ? `${rideStatusLabel(c.status)} (override)`
               : rideStatusLabel(c.status);
         return (
-          <Pressable
-            key={c.status}
-            role="radio"
-            aria-checked={on}
-            accessibilityState={{ checked: on }}
-            accessibilityLabel={label}
-            onPress={() => onChange(c.status)}
-            style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
-          >
-            <Text variant="label" color={on ? colors.base : colors.textMuted}>
-              {on ? '●' : '○'}
-            </Text>
+          <RadioOption key={c.status} on={on} label={label} onPress={() => onChange(c.status)}>
             <RideStatusMark status={c.status} compact />
             {c.override ? (
               <Text variant="small" muted>
                 override
               </Text>
             ) : null}
-          </Pressable>
+          </RadioOption>
         );
       })}
     </View>
@@ -195,16 +185,4 @@ const styles = StyleSheet.create({
   box: { gap: space.md },
   now: { gap: space.xs },
   choices: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xs },
-  choice: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-    minHeight: layout.touchTarget,
-    paddingHorizontal: space.md,
-    borderRadius: radius.md,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    backgroundColor: colors.surface,
-  },
-  choiceOn: { borderColor: colors.base, borderWidth: 2.5 },
 });

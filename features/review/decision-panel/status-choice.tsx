@@ -1,9 +1,9 @@
-import { Pressable, StyleSheet, View } from 'react-native';
+import { View } from 'react-native';
 
 import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
+import { RadioOption } from '@/components/radio-option';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, layout, radius, space } from '@/components/theme';
 import { sharedStyles } from '@/features/review/decision-panel/styles';
 
 /** The ride's status sent with the decision: kept as it is, or made stricter by this decision. */
@@ -46,20 +46,9 @@ export function StatusChoiceField({
               ? `Keep ${rideStatusLabel(rideStatus).toLowerCase()}`
               : `Set ${rideStatusLabel(c).toLowerCase()}`;
           return (
-            <Pressable
-              key={c}
-              role="radio"
-              aria-checked={on}
-              accessibilityState={{ checked: on }}
-              accessibilityLabel={label}
-              onPress={() => onChoose(c)}
-              style={StyleSheet.flatten([styles.choice, on && styles.choiceOn])}
-            >
-              <Text variant="label" color={on ? colors.base : colors.textMuted}>
-                {on ? '●' : '○'}
-              </Text>
+            <RadioOption key={c} on={on} label={label} onPress={() => onChoose(c)}>
               {c === 'keep' ? <Text>{label}</Text> : <RideStatusMark status={c} compact />}
-            </Pressable>
+            </RadioOption>
           );
         })}
       </View>
@@ -83,18 +72,3 @@ export function StatusChoiceField({
     </View>
   );
 }
-
-const styles = StyleSheet.create({
-  choice: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-    minHeight: layout.touchTarget,
-    paddingHorizontal: space.md,
-    borderRadius: radius.md,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    backgroundColor: colors.surface,
-  },
-  choiceOn: { borderColor: colors.base, borderWidth: 2.5 },
-});
