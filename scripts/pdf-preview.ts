@@ -12,12 +12,7 @@ import path from 'node:path';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { renderNoticePdf } from '@/server/notices/pdf';
 import { repoRoot } from '@/server/paths';
-import {
-  fixtureNotice,
-  fixturePhotos,
-  loadFixturePhoto,
-  noticeWithFindings,
-} from '@/scripts/sample-notice';
+import { fixtureNotice, fixturePhotos, loadFixturePhoto, noticeWithFindings } from '@/scripts/sample-notice';
 
 const outDir = path.join(repoRoot, 'artifacts', 'pdf');
 

@@ -1,8 +1,7 @@
 import { Redirect, Slot, usePathname } from 'expo-router';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
-import { signInHref, rememberNextPath } from '@/features/auth';
-import { useSession } from '@/features/auth';
+import { rememberNextPath, signInHref, useSession } from '@/features/auth';
 import { DeviceDbProvider } from '@/features/device-db/ui';
 import { AppShell } from '@/features/shell/app-shell';
 import { BackgroundSync } from '@/features/sync/ui';

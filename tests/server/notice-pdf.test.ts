@@ -10,12 +10,7 @@ import { CAUTION_FULL } from '@/lib/caution-text';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import { renderNoticePdf, type PhotoLoader } from '@/server/notices/pdf';
-import {
-  fixtureNotice,
-  fixturePhotos,
-  loadFixturePhoto,
-  noticeWithFindings,
-} from '@/scripts/sample-notice';
+import { fixtureNotice, fixturePhotos, loadFixturePhoto, noticeWithFindings } from '@/scripts/sample-notice';
 
 jest.setTimeout(60_000);
 
