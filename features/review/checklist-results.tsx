@@ -1,13 +1,14 @@
 import Feather from '@expo/vector-icons/Feather';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
 import { apiFetch } from '@/features/api';
 import { EnvelopeMark } from '@/components/status-mark';
+import { DisclosureToggle } from '@/components/disclosure-toggle';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, radius, space } from '@/components/theme';
 import { disagreeingReadings, envelopeItemOf } from '@/features/records';
 import type { ChecklistAnswer } from '@/features/records/schema';
 import type { EnvelopeItem } from '@/features/loads/engine';
@@ -124,17 +125,11 @@ export function ChecklistResults({
         </Card>
       ))}
       {rest.length > 0 ? (
-        <Pressable
-          role="button"
-          aria-expanded={showAll}
-          onPress={() => setShowAll((v) => !v)}
-          style={styles.toggle}
-        >
-          <Feather name={showAll ? 'chevron-up' : 'chevron-down'} size={18} color={colors.accent} />
-          <Text variant="heading" color={colors.accent}>
-            {showAll ? 'Hide the other items' : `Show the other ${rest.length} items`}
-          </Text>
-        </Pressable>
+        <DisclosureToggle
+          open={showAll}
+          onToggle={() => setShowAll((v) => !v)}
+          label={showAll ? 'Hide the other items' : `Show the other ${rest.length} items`}
+        />
       ) : null}
       {showAll ? (
         <View style={styles.list} role="list">
@@ -265,13 +260,6 @@ const styles = StyleSheet.create({
     gap: space.xs,
     alignSelf: 'flex-start',
     minWidth: 130,
-  },
-  toggle: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-    minHeight: layout.touchTarget,
-    alignSelf: 'flex-start',
   },
   list: {
     backgroundColor: colors.surface,

@@ -1,13 +1,13 @@
-import Feather from '@expo/vector-icons/Feather';
 import { scaleUtc } from 'd3-scale';
 import { useState } from 'react';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { DataTable } from '@/components/data-table';
+import { DisclosureToggle } from '@/components/disclosure-toggle';
 import { Text } from '@/components/text';
-import { colors, layout, space } from '@/components/theme';
+import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { formatBesideLimit } from '@/features/loads';
 import { formatMeasured } from '@/lib/measured-format';
@@ -141,17 +141,11 @@ function JointTrends({
         ))}
       </View>
       {shown.length > 0 ? (
-        <Pressable
-          role="button"
-          aria-expanded={showNumbers}
-          onPress={() => setShowNumbers((v) => !v)}
-          style={styles.toggle}
-        >
-          <Feather name={showNumbers ? 'chevron-up' : 'chevron-down'} size={18} color={colors.accent} />
-          <Text variant="heading" color={colors.accent}>
-            {showNumbers ? 'Hide the numbers' : 'Show the numbers'}
-          </Text>
-        </Pressable>
+        <DisclosureToggle
+          open={showNumbers}
+          onToggle={() => setShowNumbers((v) => !v)}
+          label={showNumbers ? 'Hide the numbers' : 'Show the numbers'}
+        />
       ) : null}
       {showNumbers ? (
         <TrendNumbers
@@ -320,11 +314,4 @@ const styles = StyleSheet.create({
   stack: { gap: space.lg },
   rowWide: { flexDirection: 'row', flexWrap: 'wrap', gap: space.lg },
   chartWide: { flexBasis: 240, flexGrow: 1, minWidth: 0, gap: space.xs },
-  toggle: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-    minHeight: layout.touchTarget,
-    alignSelf: 'flex-start',
-  },
 });
