@@ -65,6 +65,11 @@ describe('layer rules refuse imports that point upward', () => {
       'through its index.ts',
     ],
     [
+      'features/records/planted.ts',
+      "import { decisionInputSchema } from '@/features/review/schema';\nexport const x = decisionInputSchema;\n",
+      'features/records sits below',
+    ],
+    [
       'server/planted.ts',
       "import { Card } from '@/components/card';\nexport const x = Card;\n",
       'The server imports',
@@ -98,7 +103,7 @@ describe('layer rules accept the allowed directions', () => {
       'features/review/planted.ts',
       "import { apiFetch } from '@/features/api';\nexport const x = apiFetch;\n",
     ],
-    // A lower feature imports a higher feature's contract.
+    // A feature imports a lower feature's contract.
     [
       'features/device-db/planted.ts',
       "import { inspectionRecordSchema } from '@/features/records/schema';\nexport const x = inspectionRecordSchema;\n",
