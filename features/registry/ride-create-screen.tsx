@@ -4,7 +4,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { RoleGate } from '@/features/auth/ui';
 import { useRideCreateMutation } from '@/features/registry/api';
-import { RideForm, type RideFormInput } from '@/features/registry/ride-form';
+import { RideForm, blankRide } from '@/features/registry/ride-form';
 import { useRideFormOptions } from '@/features/registry/ride-form-options';
 import { FormCard } from '@/features/registry/with-ride';
 import { rideHref, ridesHref } from '@/features/rides';
@@ -17,19 +17,6 @@ export function RideCreateScreen() {
 function RideCreate() {
   const options = useRideFormOptions();
   const create = useRideCreateMutation();
-  const blank: RideFormInput = {
-    name: '',
-    rideClass: 'pendulum_swing',
-    description: '',
-    maker: '',
-    model: '',
-    serial: '',
-    year: null,
-    siteId: null,
-    operatorCompanyId: '',
-    status: 'in_service',
-    statusReason: '',
-  };
   return (
     <SubScreen
       title="New ride"
@@ -40,7 +27,7 @@ function RideCreate() {
         {options.ready ? (
           <RideForm
             mode="create"
-            defaultValues={blank}
+            defaultValues={blankRide}
             operators={options.operators}
             sites={options.sites}
             onSubmit={async (values) => {

@@ -37,6 +37,21 @@ export function requireReasonOutOfService(
 export const rideFormSchema = rideInputSchema.superRefine(requireReasonOutOfService);
 
 export type RideFormInput = z.input<typeof rideFormSchema>;
+
+/** A new ride's starting values: a pendulum swing, in service, with nothing else filled in. */
+export const blankRide: RideFormInput = {
+  name: '',
+  rideClass: 'pendulum_swing',
+  description: '',
+  maker: '',
+  model: '',
+  serial: '',
+  year: null,
+  siteId: null,
+  operatorCompanyId: '',
+  status: 'in_service',
+  statusReason: '',
+};
 type RideFormOutput = z.output<typeof rideFormSchema>;
 
 export type Option = { value: string; label: string; hint?: string; operatorId?: string };

@@ -6,7 +6,7 @@
 import { fireEvent, render, screen, waitFor } from '@testing-library/react-native';
 
 import { ApiRequestError } from '@/lib/api-errors';
-import { RideForm, type RideFormInput } from '@/features/registry/ride-form';
+import { RideForm, blankRide } from '@/features/registry/ride-form';
 import { StatusForm } from '@/features/registry/status-form';
 
 const operators = [
@@ -17,23 +17,16 @@ const sites = [
   { value: 'site-1', label: 'Tamsworth Pier', operatorId: 'op-1' },
   { value: 'site-2', label: 'Lowfield Common fairground', operatorId: 'op-2' },
 ];
-const blank: RideFormInput = {
-  name: '',
-  rideClass: 'pendulum_swing',
-  description: '',
-  maker: '',
-  model: '',
-  serial: '',
-  year: null,
-  siteId: null,
-  operatorCompanyId: '',
-  status: 'in_service',
-  statusReason: '',
-};
 
 function renderCreate(onSubmit = jest.fn().mockResolvedValue(undefined)) {
   render(
-    <RideForm mode="create" defaultValues={blank} operators={operators} sites={sites} onSubmit={onSubmit} />,
+    <RideForm
+      mode="create"
+      defaultValues={blankRide}
+      operators={operators}
+      sites={sites}
+      onSubmit={onSubmit}
+    />,
   );
   return onSubmit;
 }
