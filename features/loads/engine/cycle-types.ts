@@ -126,6 +126,20 @@ export type PinResult = {
   wear: PinWear | null;
 };
 
+/**
+ * Something the person must know about how far to trust a result: a measured record sampled too slowly,
+ * noisy, with gaps, clipped or flat-lined; the smoothing actually used; a free swing's period. Returned
+ * with every result and shown beside it. `joint`/`seat` point at what it concerns (0-based) when it
+ * concerns one; `level` 'info' reports a setting, 'warning' asks for attention.
+ */
+export type CycleWarning = {
+  code: string;
+  level: 'info' | 'warning';
+  message: string;
+  joint?: number;
+  seat?: number;
+};
+
 export type CycleResult = {
   gravityMS2: number;
   samples: number;
@@ -137,4 +151,5 @@ export type CycleResult = {
   envelope: EnvelopeItem[];
   status: EnvelopeStatus;
   nearMargin: number;
+  warnings: CycleWarning[];
 };

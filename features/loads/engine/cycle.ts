@@ -145,6 +145,7 @@ export function analyseCycle(input: CycleInput): CycleResult {
     envelope,
     status: worstStatus(envelope.map((e) => e.status)),
     nearMargin: margin,
+    warnings: [],
   };
 }
 

@@ -44,6 +44,7 @@ export type {
   CycleInput,
   CycleLimits,
   CycleResult,
+  CycleWarning,
   EnvelopeItem,
   Extremes,
   JointHistory,

@@ -40,7 +40,15 @@ export type MotionProfile =
       rateRadS?: readonly number[];
       startAngleRad?: number;
       windowPoints?: number;
-    };
+      /** Low-pass cut-off in Hz for the smoothing; chosen from the record when absent. */
+      cutoffHz?: number;
+    }
+  /**
+   * A free pin: no drive torque. The joint starts at `angleRad` with `rateRadS` (default 0, at rest) at
+   * t = 0 and then moves as the chain's equations of motion say, while the other joints follow their
+   * profiles. Integrated by the cycle analysis, never sampled on its own.
+   */
+  | { kind: 'free'; angleRad: number; rateRadS?: number };
 
 export const DEFAULT_WINDOW_POINTS = { angle: 9, rate: 7 } as const;
 
@@ -57,6 +65,9 @@ export function naturalDurationS(profile: MotionProfile): number | null {
       return profile.periodS;
     case 'measured':
       return profile.timeS[profile.timeS.length - 1] - profile.timeS[0];
+    case 'free':
+      // Its period comes from integrating the chain (features/loads/engine/free-motion.ts).
+      return null;
   }
 }
 
@@ -161,6 +172,8 @@ export function sampleProfile(
     case 'measured':
       sampleMeasured(profile, times, joint, stride, angle, rate, accel);
       return;
+    case 'free':
+      throw new Error('A free joint is integrated with its chain, not sampled on its own');
   }
 }
 
