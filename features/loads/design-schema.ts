@@ -145,6 +145,15 @@ export const designMotionSchema = z
     angleRad: num().optional(),
     maxRateRadS: positive('Rate limit').optional(),
     maxAmplitudeRad: positive('Amplitude limit').optional(),
+    /**
+     * swing: the joint is a free pin while it swings (no drive torque), so a swing is analysed as the free
+     * swing from rest at its amplitude, not as a harmonic.
+     */
+    freeSwing: z.boolean({ error: 'Must be true or false' }).optional(),
+    /** constant and swing: the service-stop deceleration (the design value), rad/s². */
+    serviceDecelRadS2: positive('Service-stop deceleration').max(1000, 'At most 1000 rad/s²').optional(),
+    /** constant and swing: the emergency-stop deceleration (the maker's value), rad/s². */
+    emergencyDecelRadS2: positive('Emergency-stop deceleration').max(1000, 'At most 1000 rad/s²').optional(),
   })
   .superRefine((m, ctx) => {
     const need = (key: 'rpm' | 'amplitudeRad' | 'periodS' | 'angleRad') => {
@@ -157,6 +166,15 @@ export const designMotionSchema = z
       need('periodS');
     }
     if (m.kind === 'fixed') need('angleRad');
+    if (m.freeSwing && m.kind !== 'swing')
+      ctx.addIssue({ code: 'custom', path: ['freeSwing'], message: 'Only a swing motion can swing freely' });
+    for (const key of ['serviceDecelRadS2', 'emergencyDecelRadS2'] as const)
+      if (m[key] !== undefined && m.kind === 'fixed')
+        ctx.addIssue({
+          code: 'custom',
+          path: [key],
+          message: 'A fixed joint does not move, so it has no stop: leave empty',
+        });
   });
 export type DesignMotion = z.infer<typeof designMotionSchema>;
 
@@ -272,9 +290,13 @@ export function designBodies(d: DesignData): ChainBody[] {
   );
 }
 
-/** A joint's design motion as an engine profile. */
+/**
+ * A joint's design motion as an engine profile. A free swing is the swing released from rest at its
+ * amplitude (its period then follows from the chain, not from the design period).
+ */
 function designProfile(m: DesignMotion): MotionProfile {
   if (m.kind === 'constant') return { kind: 'constant', rpm: m.rpm ?? 0 };
+  if (m.kind === 'swing' && m.freeSwing) return { kind: 'free', angleRad: m.amplitudeRad ?? 0 };
   if (m.kind === 'swing')
     return { kind: 'swing', amplitudeRad: m.amplitudeRad ?? 0, periodS: m.periodS ?? 1 };
   return { kind: 'fixed', angleRad: m.angleRad ?? 0 };

@@ -98,6 +98,11 @@ export type JointHistory = {
   peakRateRadS: number;
   /** Half the angle travelled end to end when the joint oscillates; null when it turns full circles. */
   amplitudeRad: number | null;
+  /**
+   * A free joint only: its period found by integrating the chain (one swing, or one turn over the top),
+   * null when none was found within the search (features/loads/engine/free-motion.ts).
+   */
+  freePeriodS?: number | null;
 };
 
 export type SeatHistory = {
@@ -112,11 +117,16 @@ export type SeatHistory = {
   };
 };
 
+/** The load cases a result may merge (features/loads/load-cases.ts): the ride cycle and its stops. */
+export type LoadCaseKind = 'operating' | 'service_stop' | 'emergency_stop';
+
 export type EnvelopeItem = Evaluation & {
   /** A stable key, e.g. 'joints.0.force', 'seats.1.gz', 'joints.1.pin.diameter'. */
   id: string;
   label: string;
   quantity: QuantityKind;
+  /** The load case this value comes from when cases were merged; absent for a single cycle. */
+  loadCase?: LoadCaseKind;
 };
 
 export type PinResult = {

@@ -38,6 +38,14 @@ export { localPolynomialFit } from '@/features/loads/engine/smoothing';
 export type { LocalFit } from '@/features/loads/engine/smoothing';
 
 export { DEFAULT_CYCLE_SAMPLES, analyseCycle, cycleResultToJson } from '@/features/loads/engine/cycle';
+export {
+  FREE_MOTION_ATOL,
+  FREE_MOTION_RTOL,
+  FREE_PERIOD_SEARCH_S,
+  FreeMotionError,
+  integrateFreeMotion,
+} from '@/features/loads/engine/free-motion';
+export type { FreeMotion, FreeMotionOptions } from '@/features/loads/engine/free-motion';
 export type { CycleResultJson } from '@/features/loads/engine/cycle';
 export type {
   AxisLimit,
@@ -49,6 +57,7 @@ export type {
   Extremes,
   JointHistory,
   JointLimits,
+  LoadCaseKind,
   PeakAt,
   PinInput,
   PinResult,
