@@ -126,6 +126,18 @@ export const envelopeStatusVocabulary: Record<EnvelopeStatus, Marked> = {
   over: { label: 'Over limit', mark: overMark },
 };
 
+/**
+ * How much a load check's warning asks of the reader (`CycleWarning.level`): `warning` (attention: the
+ * record or model limits how far the result can be trusted) before `info` (a setting the engine chose or
+ * a value it found, e.g. the smoothing used, a free swing's period). Shapes unlike the envelope's.
+ */
+export const cycleWarningLevels = ['warning', 'info'] as const;
+export type CycleWarningLevel = (typeof cycleWarningLevels)[number];
+export const cycleWarningLevelVocabulary: Record<CycleWarningLevel, Marked> = {
+  warning: { label: 'Check this', mark: { icon: 'square-exclaim', fg: 'near', bg: 'nearSoft' } },
+  info: { label: 'How it was computed', mark: { icon: 'ring', fg: 'info', bg: 'infoSoft' } },
+};
+
 // ——— the review desk ———
 
 /**
@@ -290,4 +302,5 @@ export const markedVocabularies = {
   findingSeverity: findingSeverityVocabulary,
   findingState: findingStateVocabulary,
   noticeDeliveryState: noticeDeliveryStateVocabulary,
+  cycleWarningLevel: cycleWarningLevelVocabulary,
 } as const;

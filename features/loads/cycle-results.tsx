@@ -10,6 +10,7 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
+import { CycleWarnings } from '@/features/loads/cycle-warnings';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { formatValue } from '@/features/loads/format';
 import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
@@ -50,6 +51,12 @@ export function CycleResults({
           {ENGINE_VERSION}
         </Text>
       </Card>
+
+      <CycleWarnings
+        warnings={result.warnings}
+        jointNames={result.joints.map((j) => j.name)}
+        seatNames={result.seats.map((s) => s.name)}
+      />
 
       <SectionTitle>Pivot loads over the cycle</SectionTitle>
       <PivotLoadsTable result={result} system={system} xAxis={xAxis} />

@@ -2,7 +2,7 @@
  * Load-check numbers in the person's unit system, by the one rule of lib/measured-format.ts: computed
  * values to four significant figures, typed values as typed, never rounded across their limit.
  */
-import type { EnvelopeItem, Limit } from '@/features/loads/engine';
+import type { CycleWarning, EnvelopeItem, Limit } from '@/features/loads/engine';
 import { type QuantityKind, type UnitSystem } from '@/lib/units';
 import {
   type MeasuredSource,
@@ -114,4 +114,25 @@ export function sortByConcern(items: readonly EnvelopeItem[]): EnvelopeItem[] {
   return [...items].sort(
     (a, b) => rank[a.status] - rank[b.status] || (b.ratio ?? Infinity) - (a.ratio ?? Infinity),
   );
+}
+
+/**
+ * A result's warnings, those asking for attention first, in the engine's order within each level. An
+ * answer stored or sent before results carried warnings has none (missing reads as empty).
+ */
+export function sortWarnings(warnings: readonly CycleWarning[] | null | undefined): CycleWarning[] {
+  const list = warnings ?? [];
+  return [...list.filter((w) => w.level === 'warning'), ...list.filter((w) => w.level !== 'warning')];
+}
+
+/** What a warning concerns, in the words of the results: "Pivot 2 · Gondola", "Seat Front row"; or null. */
+export function warningSubject(
+  w: Pick<CycleWarning, 'joint' | 'seat'>,
+  jointNames: readonly string[],
+  seatNames: readonly string[],
+): string | null {
+  if (w.joint !== undefined)
+    return `Pivot ${w.joint + 1}${jointNames[w.joint] ? ` · ${jointNames[w.joint]}` : ''}`;
+  if (w.seat !== undefined) return seatNames[w.seat] ? `Seat ${seatNames[w.seat]}` : `Seat ${w.seat + 1}`;
+  return null;
 }

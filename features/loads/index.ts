@@ -5,4 +5,6 @@ export {
   formatRatio,
   formatValue,
   measuredSources,
+  sortWarnings,
+  warningSubject,
 } from '@/features/loads/format';
