@@ -8,3 +8,12 @@ export {
   sortWarnings,
   warningSubject,
 } from '@/features/loads/format';
+export {
+  LOAD_CASE_LABEL,
+  analyseLoadCases,
+  designStops,
+  withLoadCases,
+  type CaseSummary,
+  type LoadCasesResult,
+  type StopSpec,
+} from '@/features/loads/load-cases';
