@@ -4,6 +4,7 @@ import { zodIssues } from '@/lib/api-errors';
 import {
   ENGINE_ASSUMPTIONS,
   ENGINE_VERSION,
+  FreeMotionError,
   analyseCycle,
   cycleResultToJson,
   defaultCycleDurationS,
@@ -168,8 +169,10 @@ const motionProfileSchema = z.discriminatedUnion(
       phaseRad: num().optional(),
     }),
     measuredProfileSchema,
+    // A free pin's state at t = 0; whether the chain can move it is found when it is integrated.
+    z.object({ kind: z.literal('free'), angleRad: num(), rateRadS: num().optional() }),
   ],
-  { error: 'Needs kind: fixed, constant, ramp, swing or measured' },
+  { error: 'Needs kind: fixed, constant, ramp, swing, measured or free' },
 );
 
 const seatSchema = z.object({
@@ -257,6 +260,8 @@ export const cycleRequestSchema = z
       });
     const profiles: MotionProfile[] = v.profiles;
     const duration = v.durationS ?? defaultCycleDurationS(profiles);
+    // A free joint's period, found by integration, is the cycle when nothing else gives one.
+    if (duration === null && profiles.some((p) => p.kind === 'free')) return;
     if (duration === null) {
       ctx.addIssue({
         code: 'custom',
@@ -296,7 +301,15 @@ export function solveLoadsRequest(body: unknown): ApiOutcome<LoadsResponse> {
 export function analyseCycleRequest(body: unknown): ApiOutcome<CycleResponse> {
   const parsed = cycleRequestSchema.safeParse(body);
   if (!parsed.success) return { ok: false, issues: zodIssues(parsed.error) };
-  const result = analyseCycle(parsed.data);
+  let result;
+  try {
+    result = analyseCycle(parsed.data);
+  } catch (error) {
+    // A free joint the chain cannot move, or no period to take as the cycle: the request's fault.
+    if (error instanceof FreeMotionError)
+      return { ok: false, issues: [{ path: error.path.join('.'), message: error.message }] };
+    throw error;
+  }
   return {
     ok: true,
     value: { engineVersion: ENGINE_VERSION, assumptions: ENGINE_ASSUMPTIONS, ...cycleResultToJson(result) },

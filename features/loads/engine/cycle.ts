@@ -10,6 +10,7 @@ import type {
   SeatHistory,
 } from '@/features/loads/engine/cycle-types';
 import { DEFAULT_NEAR_MARGIN, worstStatus } from '@/features/loads/engine/envelope';
+import { integrateFreeMotion } from '@/features/loads/engine/free-motion';
 import { defaultCycleDurationS, sampleProfile } from '@/features/loads/engine/profiles';
 
 export const DEFAULT_CYCLE_SAMPLES = 360;
@@ -44,7 +45,12 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const chain = createChain(input.bodies, gravity);
   const n = chain.size;
   if (input.profiles.length !== n) throw new Error(`profiles needs ${n} entries, one per joint`);
-  const duration = input.durationS ?? defaultCycleDurationS(input.profiles);
+  const given = input.durationS ?? defaultCycleDurationS(input.profiles);
+  // Free joints are integrated first: with no other cycle length, the cycle is one free period.
+  const freeMotion = input.profiles.some((p) => p.kind === 'free')
+    ? integrateFreeMotion(chain, input.profiles, given)
+    : null;
+  const duration = given ?? freeMotion?.cycleS ?? null;
   if (duration === null || !(duration > 0))
     throw new Error('durationS is needed: no profile has a cycle length');
   const count = input.samples ?? DEFAULT_CYCLE_SAMPLES;
@@ -57,7 +63,8 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const q = new Float64Array(count * n);
   const qd = new Float64Array(count * n);
   const qdd = new Float64Array(count * n);
-  input.profiles.forEach((p, i) => sampleProfile(p, times, i, n, q, qd, qdd));
+  if (freeMotion) freeMotion.sample(times, q, qd, qdd);
+  else input.profiles.forEach((p, i) => sampleProfile(p, times, i, n, q, qd, qdd));
 
   const fx = Array.from({ length: n }, () => new Float64Array(count));
   const fy = Array.from({ length: n }, () => new Float64Array(count));
@@ -117,6 +124,7 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const joints = Array.from({ length: n }, (_, i) =>
     jointHistory(i, chain.names[i], times, q, qd, qdd, forces),
   );
+  freeMotion?.free.forEach((i) => (joints[i].freePeriodS = freeMotion.periodS[i]));
 
   const seatHistories: SeatHistory[] = seats.map((s, j) => {
     const withTimes = (values: Float64Array) => {
@@ -145,7 +153,7 @@ export function analyseCycle(input: CycleInput): CycleResult {
     envelope,
     status: worstStatus(envelope.map((e) => e.status)),
     nearMargin: margin,
-    warnings: [],
+    warnings: freeMotion ? freeMotion.warnings(duration) : [],
   };
 }
 
