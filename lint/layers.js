@@ -19,6 +19,7 @@ const featureOrder = [
   'records',
   'device-db',
   'instruments',
+  'motion-recording',
   'sync',
   'notices',
   'review',

@@ -17,6 +17,7 @@ import {
   inspectionRecordSchema,
   type DraftProblem,
 } from '@/features/records/schema';
+import type { MotionRecord } from '@/features/records/motion-record-schema';
 
 export type Draft = {
   id: string;
@@ -34,6 +35,8 @@ export type Draft = {
   notes: string;
   /** Set on a correction of an inspection a supervisor returned: the id of the one it corrects. */
   amendsId?: string | null;
+  /** Ride cycles recorded with the phone's motion sensors; absent from drafts saved before. */
+  motionRecords?: MotionRecord[];
 };
 
 export function newDraft(args: {
@@ -92,6 +95,7 @@ export function newCorrection(args: {
     photos: o.photos.map((p) => ({ ...p })),
     notes: o.notes ?? '',
     amendsId: o.id,
+    ...(o.motionRecords ? { motionRecords: o.motionRecords.map((r) => ({ ...r })) } : {}),
   };
 }
 
@@ -198,7 +202,18 @@ export function toRecord(
     preview,
     amendsId: d.amendsId ?? null,
     declaration,
+    motionRecords: d.motionRecords?.length ? d.motionRecords : undefined,
   });
+}
+
+/** Keeps a recorded ride cycle for its joint, replacing an earlier record of the same joint. */
+export function putMotionRecord(d: Draft, record: MotionRecord, now: Date): Draft {
+  const others = (d.motionRecords ?? []).filter((r) => r.joint !== record.joint);
+  return touch({ ...d, motionRecords: [...others, record] }, now);
+}
+
+export function removeMotionRecord(d: Draft, id: string, now: Date): Draft {
+  return touch({ ...d, motionRecords: (d.motionRecords ?? []).filter((r) => r.id !== id) }, now);
 }
 
 /** Counts for the progress line: answered / total, failed, readings, photos. */

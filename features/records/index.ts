@@ -18,6 +18,8 @@ export {
   draftProgress,
   newCorrection,
   newDraft,
+  putMotionRecord,
+  removeMotionRecord,
   removePhoto,
   removeReading,
   setNotes,
@@ -32,3 +34,11 @@ export {
   plausibilityText,
 } from '@/features/records/plausibility';
 export type { PlausibilityCheck } from '@/features/records/plausibility';
+export {
+  RIDER_CUTOFF_HZ,
+  lowPassZeroPhase,
+  measuredRiderOf,
+  motionProfileOf,
+  motionRecordWarnings,
+} from '@/features/records/motion-record';
+export type { MeasuredRider } from '@/features/records/motion-record';

@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 
+import { motionRecordsSchema } from '@/features/records/motion-record-schema';
 import { inspectionTypeSchema } from '@/features/registry/schema';
 import { checkResults, checkResultVocabulary, labelsOf, photoMimes } from '@/lib/vocabulary';
 
@@ -178,6 +179,8 @@ export const inspectionRecordSchema = z.object({
   amendsId: uuid().nullable().optional(),
   /** Required by the server for every record it accepts now; absent from records stored before. */
   declaration: declarationSchema.optional(),
+  /** Ride cycles recorded with the phone's motion sensors (features/records/motion-record-schema.ts). */
+  motionRecords: motionRecordsSchema.optional(),
 });
 export type InspectionRecord = z.infer<typeof inspectionRecordSchema>;
 

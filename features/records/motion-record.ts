@@ -1,0 +1,164 @@
+/**
+ * A ride cycle recorded with the phone (features/records/motion-record-schema.ts) as the load check uses
+ * it: the joint's recorded rate becomes that joint's `measured` rate profile, and the accelerations felt in
+ * a seat become that seat's measured rider accelerations, kept beside the computed ones. Pure: the
+ * phone's preview and the server's analysis both run it.
+ */
+import type { DesignData } from '@/features/loads/design-schema';
+import type { CycleWarning, MotionProfile } from '@/features/loads/engine';
+import { isTurning, type MeasuredRider, type MotionRecord } from '@/features/records/motion-record-schema';
+
+export type { MeasuredRider };
+
+/**
+ * The low-pass applied to measured rider accelerations before their extremes are read. Ride acceleration
+ * measurement practice filters rider accelerations with a low-pass of a few hertz before comparing them
+ * with limit curves; 5 Hz is the value we recall being used with a Butterworth filter [from memory; verify
+ * against ASTM F2137 before relying on it]. The rigid-body engine has nothing above that either.
+ */
+export const RIDER_CUTOFF_HZ = 5;
+
+/**
+ * A zero-phase low-pass: a second-order Butterworth section (bilinear transform with pre-warping) run
+ * forward and then backward, which doubles its order and cancels its phase lag, so a peak stays where it
+ * was. Samples are taken as evenly spaced at the record's mean rate; each pass starts from the signal's
+ * first value as if it had held there, so the ends do not ring.
+ */
+export function lowPassZeroPhase(
+  timeS: readonly number[],
+  values: readonly number[],
+  cutoffHz: number,
+): number[] {
+  const n = values.length;
+  if (n < 3) return [...values];
+  const fs = (n - 1) / (timeS[n - 1] - timeS[0]);
+  // At or above Nyquist there is nothing to take away.
+  if (!(cutoffHz < 0.45 * fs)) return [...values];
+  const k = Math.tan((Math.PI * cutoffHz) / fs);
+  const q = Math.SQRT1_2;
+  const norm = 1 / (1 + k / q + k * k);
+  const b0 = k * k * norm;
+  const b1 = 2 * b0;
+  const a1 = 2 * (k * k - 1) * norm;
+  const a2 = (1 - k / q + k * k) * norm;
+  const pass = (x: number[]): number[] => {
+    const y = new Array<number>(x.length);
+    let x1 = x[0];
+    let x2 = x[0];
+    let y1 = x[0];
+    let y2 = x[0];
+    for (let i = 0; i < x.length; i++) {
+      const v = b0 * x[i] + b1 * x1 + b0 * x2 - a1 * y1 - a2 * y2;
+      x2 = x1;
+      x1 = x[i];
+      y2 = y1;
+      y1 = v;
+      y[i] = v;
+    }
+    return y;
+  };
+  return pass(pass([...values]).reverse()).reverse();
+}
+
+/** The record of a joint, if one was made and it can stand for the joint's motion. */
+export function recordOfJoint(
+  records: readonly MotionRecord[] | undefined,
+  joint: number,
+): MotionRecord | undefined {
+  return records?.find((r) => r.joint === joint && r.parentRateRadS !== null);
+}
+
+/**
+ * The `measured` rate profile of a recorded joint. A rate has no absolute angle, so the angle starts
+ * where the whole cycles' mean angle comes out at the design's centre of swing (0): a phone cannot say
+ * where a swing is centred, and the design's centre is the best statement there is. A turning joint
+ * starts at 0; over whole turns its start does not change the envelope.
+ */
+export function motionProfileOf(
+  records: readonly MotionRecord[] | undefined,
+  joint: number,
+): MotionProfile | null {
+  const r = recordOfJoint(records, joint);
+  if (!r) return null;
+  const t0 = r.timeS[0];
+  const timeS = r.timeS.map((t) => t - t0);
+  const turning = isTurning(r.rateRadS);
+  let startAngleRad = 0;
+  if (!turning) {
+    // Mean of the trapezoid-integrated angle over the record, weighted by time.
+    let angle = 0;
+    let area = 0;
+    for (let k = 1; k < timeS.length; k++) {
+      const h = timeS[k] - timeS[k - 1];
+      const next = angle + 0.5 * (r.rateRadS[k] + r.rateRadS[k - 1]) * h;
+      area += 0.5 * (angle + next) * h;
+      angle = next;
+    }
+    startAngleRad = -area / (timeS[timeS.length - 1] || 1);
+  }
+  return { kind: 'measured', timeS, rateRadS: [...r.rateRadS], startAngleRad };
+}
+
+/** The extremes of each seat's recorded accelerations (filtered), for seats the design has. */
+export function measuredRiderOf(
+  design: DesignData,
+  records: readonly MotionRecord[] | undefined,
+): MeasuredRider[] {
+  const out: MeasuredRider[] = [];
+  for (const r of records ?? []) {
+    if (r.seat === null || !r.gxG || !r.gzG) continue;
+    const seat = design.seats[r.seat];
+    if (!seat) continue;
+    const gx = lowPassZeroPhase(r.timeS, r.gxG, RIDER_CUTOFF_HZ);
+    const gz = lowPassZeroPhase(r.timeS, r.gzG, RIDER_CUTOFF_HZ);
+    out.push({
+      recordId: r.id,
+      seat: r.seat,
+      name: seat.name,
+      cutoffHz: RIDER_CUTOFF_HZ,
+      gxMin: Math.min(...gx),
+      gxMax: Math.max(...gx),
+      gzMin: Math.min(...gz),
+      gzMax: Math.max(...gz),
+      limits: design.rider,
+    });
+  }
+  return out;
+}
+
+/** What the load check says about the recorded joints: which run the record, and which could not. */
+export function motionRecordWarnings(
+  design: DesignData,
+  records: readonly MotionRecord[] | undefined,
+): CycleWarning[] {
+  const out: CycleWarning[] = [];
+  for (const r of records ?? []) {
+    const pivot = `Pivot ${r.joint + 1}`;
+    if (r.joint >= design.bodies.length)
+      out.push({
+        code: 'motion_record_unused',
+        level: 'warning',
+        joint: r.joint,
+        message: `${pivot} is not in this ride's design data: the motion recorded with the phone was not used.`,
+      });
+    else if (r.parentRateRadS === null)
+      out.push({
+        code: 'motion_record_absolute',
+        level: 'warning',
+        joint: r.joint,
+        message:
+          `${pivot}: the phone measured the body's rate over the ground, and the pivot below it does not ` +
+          'turn steadily, so its own rate could not be taken off. The design motion was used for this pivot.',
+      });
+    else
+      out.push({
+        code: 'motion_record_used',
+        level: 'info',
+        joint: r.joint,
+        message:
+          `${pivot} runs the motion recorded with the phone: ${r.cycles} whole cycle${r.cycles === 1 ? '' : 's'} ` +
+          `at ${Math.round(r.sampleRateHz)} samples a second (uncalibrated phone sensors).`,
+      });
+  }
+  return out;
+}
