@@ -11,6 +11,7 @@ import type {
 } from '@/features/loads/engine/cycle-types';
 import { DEFAULT_NEAR_MARGIN, worstStatus } from '@/features/loads/engine/envelope';
 import { integrateFreeMotion } from '@/features/loads/engine/free-motion';
+import { measuredCycleSamples, measuredWarnings } from '@/features/loads/engine/conditioning/measured';
 import { defaultCycleDurationS, sampleProfile } from '@/features/loads/engine/profiles';
 
 export const DEFAULT_CYCLE_SAMPLES = 360;
@@ -53,7 +54,8 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const duration = given ?? freeMotion?.cycleS ?? null;
   if (duration === null || !(duration > 0))
     throw new Error('durationS is needed: no profile has a cycle length');
-  const count = input.samples ?? DEFAULT_CYCLE_SAMPLES;
+  // A measured record is sampled as densely as it was recorded (capped), so no peak falls between samples.
+  const count = input.samples ?? measuredCycleSamples(input.profiles, duration) ?? DEFAULT_CYCLE_SAMPLES;
   if (!Number.isInteger(count) || count < 2) throw new Error('samples must be an integer ≥ 2');
 
   const times = new Float64Array(count);
@@ -153,7 +155,7 @@ export function analyseCycle(input: CycleInput): CycleResult {
     envelope,
     status: worstStatus(envelope.map((e) => e.status)),
     nearMargin: margin,
-    warnings: freeMotion ? freeMotion.warnings(duration) : [],
+    warnings: [...measuredWarnings(input.profiles), ...(freeMotion ? freeMotion.warnings(duration) : [])],
   };
 }
 

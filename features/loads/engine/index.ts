@@ -1,6 +1,6 @@
 /** The load engine's public API. Pure TypeScript: no React, no I/O; used by the server and the app. */
 
-export const ENGINE_VERSION = '1.0.0';
+export const ENGINE_VERSION = '1.1.0';
 
 export { STANDARD_GRAVITY_MS2, createChain, createChainWork, solveInto } from '@/features/loads/engine/chain';
 export type { Chain, ChainBody, ChainWork, JointState, Vec2 } from '@/features/loads/engine/chain';
@@ -36,6 +36,24 @@ export type { MotionProfile } from '@/features/loads/engine/profiles';
 
 export { localPolynomialFit } from '@/features/loads/engine/smoothing';
 export type { LocalFit } from '@/features/loads/engine/smoothing';
+
+export {
+  MEASURED_CYCLE_SAMPLES,
+  conditionMeasured,
+  measuredCycleSamples,
+} from '@/features/loads/engine/conditioning/measured';
+export type { ConditionedMotion, MeasuredProfile } from '@/features/loads/engine/conditioning/measured';
+export {
+  RIDER_ACCELERATION_CUTOFF_HZ,
+  RIDER_ACCELERATION_POLES,
+  conditionRiderAccelerations,
+} from '@/features/loads/engine/conditioning/rider';
+export type {
+  ConditionedRiderAccelerations,
+  RiderAccelerationOptions,
+} from '@/features/loads/engine/conditioning/rider';
+export { butterworthSections, zeroPhaseLowPass } from '@/features/loads/engine/conditioning/butterworth';
+export { analyseSpacing, unwrapAngles } from '@/features/loads/engine/conditioning/record';
 
 export { DEFAULT_CYCLE_SAMPLES, analyseCycle, cycleResultToJson } from '@/features/loads/engine/cycle';
 export {

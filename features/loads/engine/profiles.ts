@@ -1,4 +1,4 @@
-import { localPolynomialFit } from '@/features/loads/engine/smoothing';
+import { LEGACY_WINDOW_POINTS, conditionMeasured } from '@/features/loads/engine/conditioning/measured';
 
 const RPM_TO_RAD_S = (2 * Math.PI) / 60;
 
@@ -29,9 +29,11 @@ export type MotionProfile =
   /** Harmonic swing q = centre + amplitude·sin(2πt/period + phase). */
   | { kind: 'swing'; amplitudeRad: number; periodS: number; centreRad?: number; phaseRad?: number }
   /**
-   * Measured samples, time with angle or time with rate, smoothed and differentiated by a Savitzky–Golay
-   * local fit (cubic on angles, quadratic on rates). Times are taken relative to the first sample. A
-   * rate record is integrated from `startAngleRad`.
+   * Measured samples, time with angle or time with rate. Angles are unwrapped; the record is resampled
+   * evenly, low-pass filtered with zero phase (`cutoffHz`, or a cut-off chosen from the record) and only
+   * then differentiated (features/loads/engine/conditioning/measured.ts). Times are taken relative to the
+   * first sample. A rate record is integrated from `startAngleRad`. `windowPoints` (former callers): when
+   * given without `cutoffHz`, a Savitzky–Golay fit over that many samples is used instead of the filter.
    */
   | {
       kind: 'measured';
@@ -50,7 +52,8 @@ export type MotionProfile =
    */
   | { kind: 'free'; angleRad: number; rateRadS?: number };
 
-export const DEFAULT_WINDOW_POINTS = { angle: 9, rate: 7 } as const;
+/** The Savitzky–Golay window (samples) used for measured records too short to filter (under 8 samples). */
+export const DEFAULT_WINDOW_POINTS = LEGACY_WINDOW_POINTS;
 
 /** The length of one natural cycle of a profile, or null when it has none (fixed, stopped). */
 export function naturalDurationS(profile: MotionProfile): number | null {
@@ -186,41 +189,7 @@ function sampleMeasured(
   rate: Float64Array,
   accel: Float64Array,
 ): void {
-  const t0 = profile.timeS[0];
-  const rel = profile.timeS.map((t) => t - t0);
-  const scratch = new Float64Array(40);
-  const count = times.length;
-  if (profile.angleRad) {
-    const win = profile.windowPoints ?? DEFAULT_WINDOW_POINTS.angle;
-    for (let k = 0; k < count; k++) {
-      const fit = localPolynomialFit(rel, profile.angleRad, times[k], win, 3, scratch);
-      angle[k * stride + joint] = fit.value;
-      rate[k * stride + joint] = fit.first;
-      accel[k * stride + joint] = fit.second;
-    }
-    return;
-  }
-  const rates = profile.rateRadS;
-  if (!rates) throw new Error('A measured profile needs angleRad or rateRadS');
-  const win = profile.windowPoints ?? DEFAULT_WINDOW_POINTS.rate;
-  // Cycle time 0 is the first measured sample, where the angle is startAngleRad.
-  let q = profile.startAngleRad ?? 0;
-  let prevT = 0;
-  let prevW = 0;
-  let prevA = 0;
-  for (let k = 0; k < count; k++) {
-    const fit = localPolynomialFit(rel, rates, times[k], win, 2, scratch);
-    if (k > 0) {
-      // Trapezoid with the end-slope correction (fourth order): the smoothed rate's own derivative is
-      // at hand, so the integrated angle is as accurate as the fit rather than as the sampling.
-      const h = times[k] - prevT;
-      q += (h / 2) * (prevW + fit.value) + ((h * h) / 12) * (prevA - fit.first);
-    }
-    angle[k * stride + joint] = q;
-    rate[k * stride + joint] = fit.value;
-    accel[k * stride + joint] = fit.first;
-    prevT = times[k];
-    prevW = fit.value;
-    prevA = fit.first;
-  }
+  // Unwrapped, resampled, low-pass filtered, then differentiated (conditioning/measured.ts); done once
+  // per profile object, so the cycle's warnings come from the same conditioning.
+  conditionMeasured(profile).evaluate(times, joint, stride, angle, rate, accel);
 }

@@ -1,0 +1,138 @@
+/**
+ * Zero-phase Butterworth low-pass filtering of evenly sampled records.
+ *
+ * Design: the analog Butterworth prototype (S. Butterworth, "On the theory of filter amplifiers",
+ * Wireless Engineer 7 (1930) 536) of even order N, split into N/2 second-order sections, each mapped to a
+ * digital biquad by the bilinear transform with the cut-off pre-warped by tan(π·f/fs) (A. V. Oppenheim,
+ * R. W. Schafer, Discrete-Time Signal Processing, 3rd ed., §7.2). Each section has unit gain at 0 Hz.
+ *
+ * Zero phase: the cascade runs forward and then backward over the record (the forward–backward scheme of
+ * F. Gustafsson, IEEE Trans. Signal Processing 44 (1996) 988, which scipy's `filtfilt` follows). The
+ * magnitude response is then squared, so the design cut-off is moved up by Winter's correction
+ * C = (2^(1/passes) − 1)^(1/(2N)) so that the two-pass response is −3 dB at the requested cut-off
+ * (D. A. Winter, Biomechanics and Motor Control of Human Movement, 4th ed., 2009, §3.4.4).
+ *
+ * Ends: before filtering, each end is extended by an odd reflection about a local cubic fit at the end,
+ * with a bounded curvature term so value, slope and curvature run on smoothly into the extension; the
+ * filter then starts in its steady state. A zero-phase Butterworth response is maximally flat at 0 Hz, so
+ * slow polynomial-like motion passes unchanged right up to the ends instead of being bent toward a mirror.
+ */
+import { localPolynomialFit } from '@/features/loads/engine/smoothing';
+
+/** One second-order section, y = b0·x + z1 (direct form II transposed), a0 = 1. */
+export type Biquad = { b0: number; b1: number; b2: number; a1: number; a2: number };
+
+/**
+ * The sections of an order-`order` (even) Butterworth low-pass for a record sampled at `sampleRateHz`,
+ * corrected for `passes` runs (2 = forward and backward) so the overall response is −3 dB at `cutoffHz`.
+ */
+export function butterworthSections(
+  order: number,
+  cutoffHz: number,
+  sampleRateHz: number,
+  passes = 2,
+): Biquad[] {
+  if (!(order >= 2 && order % 2 === 0)) throw new Error('The Butterworth order must be even');
+  if (!(cutoffHz > 0 && cutoffHz < sampleRateHz / 2)) throw new Error('The cut-off must lie below Nyquist');
+  const correction = Math.pow(Math.pow(2, 1 / passes) - 1, 1 / (2 * order));
+  const k = Math.tan((Math.PI * cutoffHz) / sampleRateHz) / correction;
+  const sections: Biquad[] = [];
+  for (let j = 0; j < order / 2; j++) {
+    // The conjugate pole pair j of the analog prototype has quality factor 1/(2·sin((2j+1)π/(2N))).
+    const q = 1 / (2 * Math.sin(((2 * j + 1) * Math.PI) / (2 * order)));
+    const norm = 1 / (1 + k / q + k * k);
+    const b0 = k * k * norm;
+    sections.push({
+      b0,
+      b1: 2 * b0,
+      b2: b0,
+      a1: 2 * (k * k - 1) * norm,
+      a2: (1 - k / q + k * k) * norm,
+    });
+  }
+  return sections;
+}
+
+/** Runs the cascade over `x` in place, forward then backward, each pass starting in steady state. */
+export function filterForwardBackward(x: Float64Array, sections: readonly Biquad[]): void {
+  const n = x.length;
+  if (n === 0) return;
+  for (const s of sections) runSection(x, s, 0, n, 1);
+  for (const s of sections) runSection(x, s, n - 1, -1, -1);
+}
+
+function runSection(x: Float64Array, s: Biquad, from: number, to: number, step: number): void {
+  const { b0, b1, b2, a1, a2 } = s;
+  // Steady state for a constant input x0 (unit gain at 0 Hz): the filter starts as if it had always seen x0.
+  const x0 = x[from];
+  let z2 = (b2 - a2) * x0;
+  let z1 = (b1 - a1) * x0 + z2;
+  for (let k = from; k !== to; k += step) {
+    const v = x[k];
+    const y = b0 * v + z1;
+    z1 = b1 * v - a1 * y + z2;
+    z2 = b2 * v - a2 * y;
+    x[k] = y;
+  }
+}
+
+/**
+ * `x` (evenly spaced by `stepS`) with `pad` extension samples before and after, reflected oddly about a
+ * cubic fitted to the `fitPoints` samples at each end. The curvature term 2(1 − cos βτ)/β² equals τ²
+ * near the end (so the extension keeps the end's curvature) and stays bounded far out.
+ */
+export function padForFilter(
+  x: ArrayLike<number>,
+  stepS: number,
+  pad: number,
+  fitPoints: number,
+  cutoffHz: number,
+) {
+  const n = x.length;
+  const p = Math.max(0, Math.min(pad, n - 1));
+  const out = new Float64Array(n + 2 * p);
+  for (let k = 0; k < n; k++) out[p + k] = x[k];
+  if (p === 0) return { values: out, pad: 0 };
+  const times = Float64Array.from({ length: n }, (_, k) => k * stepS);
+  const m = Math.max(5, Math.min(n, fitPoints));
+  const start = localPolynomialFit(times, x, 0, m, 3);
+  const end = localPolynomialFit(times, x, times[n - 1], m, 3);
+  const beta = (Math.PI * cutoffHz) / 4;
+  for (let j = 1; j <= p; j++) {
+    const tau = j * stepS;
+    const bend = beta * tau < 1e-4 ? tau * tau : (2 * (1 - Math.cos(beta * tau))) / (beta * beta);
+    out[p - j] = 2 * start.value - x[j] + start.second * bend;
+    out[p + n - 1 + j] = 2 * end.value - x[n - 1 - j] + end.second * bend;
+  }
+  return { values: out, pad: p };
+}
+
+/**
+ * Zero-phase low-pass of an evenly sampled record: returns the filtered record with `keep` extension samples
+ * still attached at each end (for derivative stencils), or fewer when the record is too short.
+ */
+export function zeroPhaseLowPass(
+  x: ArrayLike<number>,
+  sampleRateHz: number,
+  cutoffHz: number,
+  order: number,
+  keep = 0,
+): { values: Float64Array; pad: number } {
+  const n = x.length;
+  const step = 1 / sampleRateHz;
+  // Detrend by the chord between the ends so a steady rotation's angle filters without a start-up transient.
+  const slope = (x[n - 1] - x[0]) / (n - 1);
+  const rest = Float64Array.from({ length: n }, (_, k) => x[k] - (x[0] + slope * k));
+  // Four periods of the cut-off: the filter's memory has died out well before the record starts.
+  const want = Math.max(keep, Math.ceil((4 * sampleRateHz) / cutoffHz));
+  // A cubic over three quarters of a cut-off period: long enough to average the noise, short enough to
+  // follow the motion (a quadratic over a longer window left the ends visibly biased on a swing).
+  const fitPoints = Math.max(8, Math.round((0.75 * sampleRateHz) / cutoffHz));
+  const padded = padForFilter(rest, step, want, fitPoints, cutoffHz);
+  filterForwardBackward(padded.values, butterworthSections(order, cutoffHz, sampleRateHz, 2));
+  const kept = Math.min(keep, padded.pad);
+  const values = new Float64Array(n + 2 * kept);
+  const offset = padded.pad - kept;
+  for (let k = 0; k < values.length; k++) values[k] = padded.values[offset + k] + x[0] + slope * (k - kept);
+  return { values, pad: kept };
+}
