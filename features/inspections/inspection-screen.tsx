@@ -23,6 +23,9 @@ import {
   answerItem,
   draftProblems,
   draftProgress,
+  measuredRiderOf,
+  putMotionRecord,
+  removeMotionRecord,
   removePhoto,
   removeReading,
   setNotes,
@@ -47,6 +50,7 @@ import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/i
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import { measuredSources } from '@/features/loads';
 import { CycleResults } from '@/features/loads/ui';
+import { MeasuredRiderTable, MotionRecorder } from '@/features/motion-recording/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import { useUnitSystem } from '@/features/settings';
@@ -152,6 +156,16 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           renderTimer={(onUse, per) => <TapTimer per={per} onUse={(t) => onUse(t.periodS, t.spreadS)} />}
         />
       ) : null}
+      {section === 'readings' && design ? (
+        <MotionRecorder
+          design={design}
+          readings={draft.readings}
+          records={draft.motionRecords ?? []}
+          system={system}
+          onKeep={(r) => change((d) => putMotionRecord(d, r, now()))}
+          onRemove={(rid) => change((d) => removeMotionRecord(d, rid, now()))}
+        />
+      ) : null}
       {section === 'photos' ? (
         <PhotosSection
           draft={draft}
@@ -223,12 +237,27 @@ function LoadCheck({
   system: UnitSystem;
 }) {
   return result ? (
-    <CycleResults
-      result={result}
-      system={system}
-      xAxis={result.joints[0] && design?.motion[0]?.kind === 'constant' ? 'angle' : 'time'}
-      sources={measuredSources(draft)}
-    />
+    <>
+      <CycleResults
+        result={result}
+        system={system}
+        xAxis={result.joints[0] && design?.motion[0]?.kind === 'constant' ? 'angle' : 'time'}
+        sources={measuredSources(draft)}
+      />
+      {design ? (
+        <MeasuredRiderTable
+          measured={measuredRiderOf(design, draft.motionRecords)}
+          computed={result.seats.map((s) => ({
+            name: s.name,
+            gxMin: s.extremes.gx.min,
+            gxMax: s.extremes.gx.max,
+            gzMin: s.extremes.gz.min,
+            gzMax: s.extremes.gz.max,
+          }))}
+          system={system}
+        />
+      ) : null}
+    </>
   ) : (
     <Card>
       <Text muted>
@@ -244,11 +273,16 @@ function useLoadCheck(draft: Draft, design: DesignData | null, template: Checkli
     if (!design) return null;
     try {
       const content = template?.version.version === draft.templateVersion ? template.version.content : null;
-      return analyseRecord(design, { readings: draft.readings, checklist: draft.checklist }, content, 360);
+      const record = {
+        readings: draft.readings,
+        checklist: draft.checklist,
+        motionRecords: draft.motionRecords,
+      };
+      return analyseRecord(design, record, content, 360);
     } catch {
       return null;
     }
-  }, [design, draft.readings, draft.checklist, draft.templateVersion, template]);
+  }, [design, draft.readings, draft.checklist, draft.motionRecords, draft.templateVersion, template]);
 }
 
 /**

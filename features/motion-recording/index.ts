@@ -1,6 +1,7 @@
 /** What other features may use from motion-recording: runs anywhere (no React Native). */
 export {
   appendSample,
+  attributeJoint,
   chooseAxis,
   defaultSign,
   emptyTrace,

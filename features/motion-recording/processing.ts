@@ -102,6 +102,26 @@ export function parentRateOf(
   return sum;
 }
 
+/**
+ * Which joint's motion a phone on `body` records. It feels the body's rate over the ground, the sum of
+ * the rates of joints 0…body. A joint held fixed adds nothing, so on a fixed body (a gondola locked to its
+ * arm) the record stands for the nearest joint below that moves; the steady rates below that joint are
+ * taken off (parentRateOf), or, when one of them swings, the record cannot stand for a joint at all.
+ */
+export function attributeJoint(
+  design: DesignData,
+  body: number,
+  readings: readonly Reading[] = [],
+): { joint: number; parentRateRadS: number | null } {
+  let joint = body;
+  const fixed = (i: number) => {
+    const m = design.motion.find((x) => x.joint === i);
+    return !m || m.kind === 'fixed';
+  };
+  while (joint > 0 && fixed(joint)) joint--;
+  return { joint, parentRateRadS: parentRateOf(design, joint, readings) };
+}
+
 export type TrimChoice = {
   joint: number;
   seat: number | null;

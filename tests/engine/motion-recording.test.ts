@@ -14,6 +14,7 @@ import {
   defaultSign,
   emptyTrace,
   appendSample,
+  attributeJoint,
   fromNativeSensors,
   fromWebMotion,
   parentRateOf,
@@ -277,4 +278,15 @@ describe('bad records are refused, naming the field', () => {
       }),
     ).toContain('rateRadS');
   });
+});
+
+test('a phone on a body fixed to the one below records the joint below that moves', () => {
+  const d = hangingRodDesign();
+  const gondola = {
+    ...d,
+    bodies: [{ name: 'Arm', tipM: [0, -4] as [number, number] }, { name: 'Gondola' }],
+    motion: [d.motion[0], { joint: 1, kind: 'fixed' as const, angleRad: 0 }],
+  };
+  expect(attributeJoint(gondola, 1)).toEqual({ joint: 0, parentRateRadS: 0 });
+  expect(attributeJoint(gondola, 0)).toEqual({ joint: 0, parentRateRadS: 0 });
 });
