@@ -34,11 +34,5 @@ export {
   plausibilityText,
 } from '@/features/records/plausibility';
 export type { PlausibilityCheck } from '@/features/records/plausibility';
-export {
-  RIDER_CUTOFF_HZ,
-  lowPassZeroPhase,
-  measuredRiderOf,
-  motionProfileOf,
-  motionRecordWarnings,
-} from '@/features/records/motion-record';
+export { measuredRiderOf, motionProfileOf, motionRecordWarnings } from '@/features/records/motion-record';
 export type { MeasuredRider } from '@/features/records/motion-record';

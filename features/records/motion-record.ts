@@ -5,60 +5,15 @@
  * phone's preview and the server's analysis both run it.
  */
 import type { DesignData } from '@/features/loads/design-schema';
-import type { CycleWarning, MotionProfile } from '@/features/loads/engine';
+import {
+  type CycleWarning,
+  type MotionProfile,
+  RIDER_ACCELERATION_CUTOFF_HZ,
+  conditionRiderAccelerations,
+} from '@/features/loads/engine';
 import { isTurning, type MeasuredRider, type MotionRecord } from '@/features/records/motion-record-schema';
 
 export type { MeasuredRider };
-
-/**
- * The low-pass applied to measured rider accelerations before their extremes are read. Ride acceleration
- * measurement practice filters rider accelerations with a low-pass of a few hertz before comparing them
- * with limit curves; 5 Hz is the value we recall being used with a Butterworth filter [from memory; verify
- * against ASTM F2137 before relying on it]. The rigid-body engine has nothing above that either.
- */
-export const RIDER_CUTOFF_HZ = 5;
-
-/**
- * A zero-phase low-pass: a second-order Butterworth section (bilinear transform with pre-warping) run
- * forward and then backward, which doubles its order and cancels its phase lag, so a peak stays where it
- * was. Samples are taken as evenly spaced at the record's mean rate; each pass starts from the signal's
- * first value as if it had held there, so the ends do not ring.
- */
-export function lowPassZeroPhase(
-  timeS: readonly number[],
-  values: readonly number[],
-  cutoffHz: number,
-): number[] {
-  const n = values.length;
-  if (n < 3) return [...values];
-  const fs = (n - 1) / (timeS[n - 1] - timeS[0]);
-  // At or above Nyquist there is nothing to take away.
-  if (!(cutoffHz < 0.45 * fs)) return [...values];
-  const k = Math.tan((Math.PI * cutoffHz) / fs);
-  const q = Math.SQRT1_2;
-  const norm = 1 / (1 + k / q + k * k);
-  const b0 = k * k * norm;
-  const b1 = 2 * b0;
-  const a1 = 2 * (k * k - 1) * norm;
-  const a2 = (1 - k / q + k * k) * norm;
-  const pass = (x: number[]): number[] => {
-    const y = new Array<number>(x.length);
-    let x1 = x[0];
-    let x2 = x[0];
-    let y1 = x[0];
-    let y2 = x[0];
-    for (let i = 0; i < x.length; i++) {
-      const v = b0 * x[i] + b1 * x1 + b0 * x2 - a1 * y1 - a2 * y2;
-      x2 = x1;
-      x1 = x[i];
-      y2 = y1;
-      y1 = v;
-      y[i] = v;
-    }
-    return y;
-  };
-  return pass(pass([...values]).reverse()).reverse();
-}
 
 /** The record of a joint, if one was made and it can stand for the joint's motion. */
 export function recordOfJoint(
@@ -99,6 +54,9 @@ export function motionProfileOf(
   return { kind: 'measured', timeS, rateRadS: [...r.rateRadS], startAngleRad };
 }
 
+const gMin = (v: readonly number[]) => v.reduce((m, x) => (x < m ? x : m), Infinity);
+const gMax = (v: readonly number[]) => v.reduce((m, x) => (x > m ? x : m), -Infinity);
+
 /** The extremes of each seat's recorded accelerations (filtered), for seats the design has. */
 export function measuredRiderOf(
   design: DesignData,
@@ -109,17 +67,20 @@ export function measuredRiderOf(
     if (r.seat === null || !r.gxG || !r.gzG) continue;
     const seat = design.seats[r.seat];
     if (!seat) continue;
-    const gx = lowPassZeroPhase(r.timeS, r.gxG, RIDER_CUTOFF_HZ);
-    const gz = lowPassZeroPhase(r.timeS, r.gzG, RIDER_CUTOFF_HZ);
+    // The ride-measurement low-pass (features/loads/engine/conditioning/rider.ts: 4-pole zero phase, 5 Hz).
+    const fx = conditionRiderAccelerations(r.timeS, r.gxG);
+    const fz = conditionRiderAccelerations(r.timeS, r.gzG);
+    const gx = fx.values;
+    const gz = fz.values;
     out.push({
       recordId: r.id,
       seat: r.seat,
       name: seat.name,
-      cutoffHz: RIDER_CUTOFF_HZ,
-      gxMin: Math.min(...gx),
-      gxMax: Math.max(...gx),
-      gzMin: Math.min(...gz),
-      gzMax: Math.max(...gz),
+      cutoffHz: fx.cutoffHz ?? fz.cutoffHz ?? RIDER_ACCELERATION_CUTOFF_HZ,
+      gxMin: gMin(gx),
+      gxMax: gMax(gx),
+      gzMin: gMin(gz),
+      gzMax: gMax(gz),
       limits: design.rider,
     });
   }
