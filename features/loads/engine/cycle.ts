@@ -126,7 +126,13 @@ export function analyseCycle(input: CycleInput): CycleResult {
   const joints = Array.from({ length: n }, (_, i) =>
     jointHistory(i, chain.names[i], times, q, qd, qdd, forces),
   );
-  freeMotion?.free.forEach((i) => (joints[i].freePeriodS = freeMotion.periodS[i]));
+  freeMotion?.free.forEach((i) => {
+    const period = freeMotion.periodS[i];
+    joints[i].freePeriodS = period;
+    // A cycle of one whole free turn spans 2π up to round-off: it turns, it does not swing.
+    if (freeMotion.turns[i] && period !== null && duration >= period * (1 - 1e-9))
+      joints[i].amplitudeRad = null;
+  });
 
   const seatHistories: SeatHistory[] = seats.map((s, j) => {
     const withTimes = (values: Float64Array) => {

@@ -69,7 +69,13 @@ export class Dopri5 {
   rejected = 0;
   evaluations = 0;
   private h = 0;
-  private readonly k = Array.from({ length: 7 }, () => new Float64Array(0));
+  private readonly k1: Float64Array;
+  private readonly k2: Float64Array;
+  private readonly k3: Float64Array;
+  private readonly k4: Float64Array;
+  private readonly k5: Float64Array;
+  private readonly k6: Float64Array;
+  private readonly k7: Float64Array;
   private readonly stage: Float64Array;
   private readonly yNew: Float64Array;
 
@@ -82,10 +88,11 @@ export class Dopri5 {
     this.dim = y0.length;
     this.t = t0;
     this.y = Float64Array.from(y0);
-    for (let s = 0; s < 7; s++) this.k[s] = new Float64Array(this.dim);
-    this.stage = new Float64Array(this.dim);
-    this.yNew = new Float64Array(this.dim);
-    this.eval(t0, this.y, this.k[0]);
+    const vector = () => new Float64Array(this.dim);
+    [this.k1, this.k2, this.k3, this.k4, this.k5, this.k6, this.k7] = Array.from({ length: 7 }, vector);
+    this.stage = vector();
+    this.yNew = vector();
+    this.eval(t0, this.y, this.k1);
   }
 
   private eval(t: number, y: Float64Array, out: Float64Array) {
@@ -106,13 +113,13 @@ export class Dopri5 {
   /** Hairer–Wanner's starting step (§II.4): from the sizes of y, f and an estimate of f's change. */
   private initialStep(tEnd: number): number {
     const { y, dim } = this;
-    const f0 = this.k[0];
+    const f0 = this.k1;
     const d0 = this.scaledNorm(y, y, y);
     const d1 = this.scaledNorm(f0, y, y);
     let h0 = d0 < 1e-5 || d1 < 1e-5 ? 1e-6 : 0.01 * (d0 / d1);
     h0 = Math.min(h0, tEnd - this.t, this.options.hMax ?? Infinity);
     for (let i = 0; i < dim; i++) this.stage[i] = y[i] + h0 * f0[i];
-    const f1 = this.k[1];
+    const f1 = this.k2;
     this.eval(this.t + h0, this.stage, f1);
     for (let i = 0; i < dim; i++) this.yNew[i] = f1[i] - f0[i];
     const d2 = this.scaledNorm(this.yNew, y, y) / h0;
@@ -127,7 +134,7 @@ export class Dopri5 {
    */
   step(tEnd: number): DenseSegment {
     const { dim, y, yNew, stage } = this;
-    const [k1, k2, k3, k4, k5, k6, k7] = this.k;
+    const { k1, k2, k3, k4, k5, k6, k7 } = this;
     if (this.h === 0) this.h = this.initialStep(tEnd);
     let rejectedNow = false;
     for (;;) {

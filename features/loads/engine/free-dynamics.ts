@@ -84,19 +84,18 @@ export function measuredSpanS(profiles: readonly MotionProfile[]): number {
 export type FreeAccelerations = (q: Float64Array, qd: Float64Array, qdd: Float64Array) => void;
 
 /**
- * Forward dynamics restricted to the free set, after the unit-acceleration idea of jointAccelerations:
- * the inverse dynamics with q̈_F = 0 gives the free joints' torques without their own accelerations
- * (bias, gravity and the prescribed joints' accelerations), the inverse dynamics without speed or
- * gravity for a unit q̈_j gives column j of M_FF, and M_FF·q̈_F = −τ_F(q̈_F = 0) is solved by Cholesky
- * (M_FF is symmetric and positive definite unless a free joint carries nothing that resists turning).
+ * Forward dynamics restricted to the free set. The inverse dynamics with q̈_F = 0 gives the free joints'
+ * torques without their own accelerations (speed terms, gravity and the prescribed joints'
+ * accelerations); the mass matrix follows from the same pass's positions, since a unit rate at joint j
+ * turns every body i ≥ j about pivot j: M_jk = Σ_{i ≥ max(j,k)} I_G,i + m_i·(r_Gi − p_j)·(r_Gi − p_k)
+ * (the column-by-column route of jointAccelerations gives the same matrix; tests check it). Then
+ * M_FF·q̈_F = −τ_F(q̈_F = 0) is solved by Cholesky: M_FF is symmetric and positive definite unless a free
+ * joint carries nothing that resists turning.
  */
 export function freeAccelerations(chain: Chain, free: readonly number[]): FreeAccelerations {
   const n = chain.size;
   const nf = free.length;
   const work = createChainWork(n);
-  const noGravity: Chain = { ...chain, gravityMS2: 0, gravityX: 0, gravityY: 0 };
-  const zeros = new Float64Array(n);
-  const unit = new Float64Array(n);
   const m = new Float64Array(nf * nf);
   const x = new Float64Array(nf);
   // A size for the chain's inertia, so "no inertia about the pin" is judged relative to the chain.
@@ -110,11 +109,22 @@ export function freeAccelerations(chain: Chain, free: readonly number[]): FreeAc
     for (let k = 0; k < nf; k++) qdd[free[k]] = 0;
     solveInto(chain, q, qd, qdd, 0, work);
     for (let k = 0; k < nf; k++) x[k] = -work.torque[free[k]];
-    for (let col = 0; col < nf; col++) {
-      unit[free[col]] = 1;
-      solveInto(noGravity, q, zeros, unit, 0, work);
-      unit[free[col]] = 0;
-      for (let k = 0; k < nf; k++) m[k * nf + col] = work.torque[free[k]];
+    for (let a = 0; a < nf; a++) {
+      const j = free[a];
+      for (let b = a; b < nf; b++) {
+        const k = free[b];
+        let sum = 0;
+        for (let i = k; i < n; i++) {
+          const gx = work.pivotX[i] + work.cgRelX[i];
+          const gy = work.pivotY[i] + work.cgRelY[i];
+          sum +=
+            chain.inertia[i] +
+            chain.mass[i] *
+              ((gx - work.pivotX[j]) * (gx - work.pivotX[k]) + (gy - work.pivotY[j]) * (gy - work.pivotY[k]));
+        }
+        m[a * nf + b] = sum;
+        m[b * nf + a] = sum;
+      }
     }
     // Cholesky M = L·Lᵀ in place (lower triangle), then forward and back substitution.
     for (let j = 0; j < nf; j++) {

@@ -2,7 +2,7 @@
  * Free joints: pins with no drive torque. Their motion is not given but follows from the chain's
  * equations of motion, M(q)·q̈ + h(q, q̇) = τ with τ = 0 on the free joints, while every other joint
  * follows its profile. Integrated from the state at t = 0 with Dormand–Prince 5(4) under error control
- * (dopri5.ts; rtol = atol = 1e-10 on angles in rad and rates in rad/s), kept step by step with its dense
+ * (dopri5.ts; rtol = atol = 1e-9 on angles in rad and rates in rad/s), kept step by step with its dense
  * output so the cycle can be sampled anywhere. At each sample the free accelerations are recomputed from
  * the dynamics, so the solver finds the free joints' torque 0 to round-off.
  *
@@ -26,8 +26,8 @@ import { type MotionProfile, sampleProfile } from '@/features/loads/engine/profi
 
 export { FreeMotionError } from '@/features/loads/engine/free-dynamics';
 
-export const FREE_MOTION_RTOL = 1e-10;
-export const FREE_MOTION_ATOL = 1e-10;
+export const FREE_MOTION_RTOL = 1e-9;
+export const FREE_MOTION_ATOL = 1e-9;
 /** How long to integrate looking for a period beyond the cycle (simulated time). */
 export const FREE_PERIOD_SEARCH_S = 300;
 const MAX_STEPS = 200_000;
