@@ -46,10 +46,47 @@ export function noise(seed: number): () => number {
 }
 
 /**
- * A phone fixed in the seat (screen facing the rider's right, top toward the head) through the swing:
- * its z rate is the design rate with the sign for a rider facing +x (defaultSign: −1), plus a bias and
- * noise; x reads chest-ward and y spine-ward specific force. Time starts at phase φ.
+ * A phone held in a seat at `seatM` (the body's frame; spine along the body's +y, rider drawn facing +x)
+ * through a harmonic swing θ = A·sin(2πt/T + φ): screen facing the rider's right, top toward the head, so
+ * its z rate is minus the design rate (defaultSign −1), plus a bias and noise, and its x and y read the
+ * chest-ward and spine-ward specific force f = a − g in the body's frame:
+ *   f_x = −θ̈·p_y − θ̇²·p_x + g·sin θ,  f_y = θ̈·p_x − θ̇²·p_y + g·cos θ  (rigid-body kinematics).
  */
+export function seatSwingTrace(opts: {
+  amplitudeRad: number;
+  periodS: number;
+  seatM: [number, number];
+  rateHz: number;
+  durationS: number;
+  phaseRad?: number;
+  biasRadS?: number;
+  noiseRadS?: number;
+  seed?: number;
+}): SensorTrace {
+  const { amplitudeRad: A, periodS } = opts;
+  const [px, py] = opts.seatM;
+  const w = (2 * Math.PI) / periodS;
+  const rnd = noise(opts.seed ?? 7);
+  const trace = emptyTrace();
+  const g = STANDARD_GRAVITY;
+  for (let k = 0; k / opts.rateHz <= opts.durationS; k++) {
+    const t = k / opts.rateHz;
+    const arg = w * t + (opts.phaseRad ?? 0);
+    const q = A * Math.sin(arg);
+    const qd = A * w * Math.cos(arg);
+    const qdd = -A * w * w * Math.sin(arg);
+    const fx = -qdd * py - qd * qd * px + g * Math.sin(q);
+    const fy = qdd * px - qd * qd * py + g * Math.cos(q);
+    appendSample(trace, {
+      tS: t,
+      rate: [0.002 * rnd(), 0.002 * rnd(), -(qd + (opts.biasRadS ?? 0) + (opts.noiseRadS ?? 0) * rnd())],
+      force: [fx / g, fy / g, 0],
+    });
+  }
+  return trace;
+}
+
+/** The hanging rod's seat (tests/support/motion-fixtures hangingRodDesign) through its design swing. */
 export function swingTrace(opts: {
   rateHz: number;
   durationS: number;
@@ -58,25 +95,10 @@ export function swingTrace(opts: {
   noiseRadS?: number;
   seed?: number;
 }): SensorTrace {
-  const { amplitudeRad: A, periodS, seatM: d } = SWING;
-  const w = (2 * Math.PI) / periodS;
-  const rnd = noise(opts.seed ?? 7);
-  const trace = emptyTrace();
-  const g = STANDARD_GRAVITY;
-  for (let k = 0; k * (1 / opts.rateHz) <= opts.durationS; k++) {
-    const t = k / opts.rateHz;
-    const arg = w * t + (opts.phaseRad ?? 0);
-    const q = A * Math.sin(arg);
-    const qd = A * w * Math.cos(arg);
-    const qdd = -A * w * w * Math.sin(arg);
-    // Specific force at the seat in the arm's frame: along the spine (toward the pivot) and across it.
-    const along = (g * Math.cos(q) + d * qd * qd) / g;
-    const across = (d * qdd + g * Math.sin(q)) / g;
-    appendSample(trace, {
-      tS: t,
-      rate: [0.002 * rnd(), 0.002 * rnd(), -(qd + (opts.biasRadS ?? 0) + (opts.noiseRadS ?? 0) * rnd())],
-      force: [across, along, 0],
-    });
-  }
-  return trace;
+  return seatSwingTrace({
+    ...opts,
+    amplitudeRad: SWING.amplitudeRad,
+    periodS: SWING.periodS,
+    seatM: [0, -SWING.seatM],
+  });
 }
