@@ -15,19 +15,18 @@ import { RoleGate } from '@/features/auth/ui';
 import {
   type BodyRow,
   type CalculatorOutcome,
-  type MotionKind,
   type MotionRow,
   designBodyNames,
   exampleBodies,
   exampleMotion,
   manualRequest,
-  motionKindLabel,
   motionRowFromDesign,
   newBody,
   newMotion,
   rideRequest,
   runCalculator,
 } from '@/features/calculator/calculator-model';
+import { MotionCard, NumberField } from '@/features/calculator/motion-editor';
 import { CycleResults } from '@/features/loads/ui';
 import { useRidesQuery } from '@/features/rides';
 import { useRideQuery } from '@/features/registry/ui';
@@ -74,12 +73,25 @@ export function CalculatorScreen() {
   const setMotion = source === 'ride' ? (rows: MotionRow[]) => setRideEdits({ key, rows }) : setManualMotion;
   const jointNames = source === 'ride' && design ? designBodyNames(design) : bodies.map((b) => b.name || '—');
 
+  const [running, setRunning] = useState(false);
   const run = () => {
-    if (source === 'ride') {
-      if (design) setOutcome(runCalculator(rideRequest(design, rideMotion)));
-    } else {
-      setOutcome(runCalculator(manualRequest(bodies, manualMotion)));
-    }
+    const request =
+      source === 'ride'
+        ? design
+          ? rideRequest(design, rideMotion)
+          : null
+        : manualRequest(bodies, manualMotion);
+    if (!request) return;
+    setRunning(true);
+    // Stops and free joints take the engine a moment: let the button show it is working before it holds
+    // the thread.
+    setTimeout(() => {
+      try {
+        setOutcome(runCalculator(request));
+      } finally {
+        setRunning(false);
+      }
+    }, 20);
   };
 
   const switchSource = (s: Source) => setSource(s);
@@ -105,16 +117,18 @@ export function CalculatorScreen() {
         />
       )}
 
-      {motion.length > 0 ? <MotionCard motion={motion} jointNames={jointNames} onChange={setMotion} /> : null}
+      {motion.length > 0 ? (
+        <MotionCard motion={motion} jointNames={jointNames} system={system} onChange={setMotion} />
+      ) : null}
 
-      <Button label="Run load check" onPress={run} disabled={source === 'ride' && !design} />
+      <Button label="Run load check" onPress={run} busy={running} disabled={source === 'ride' && !design} />
       {outcome && !outcome.ok ? <InputProblems issues={outcome.issues} jointNames={jointNames} /> : null}
     </View>
   );
 
   const results =
     outcome && outcome.ok ? (
-      <CycleResults result={outcome.result} system={system} xAxis={outcome.xAxis} />
+      <CycleResults result={outcome.result} system={system} xAxis={outcome.xAxis} cases={outcome.cases} />
     ) : (
       <Card>
         <Text muted>
@@ -216,33 +230,6 @@ function RidePicker({
   );
 }
 
-function MotionCard({
-  motion,
-  jointNames,
-  onChange,
-}: {
-  motion: MotionRow[];
-  jointNames: string[];
-  onChange: (rows: MotionRow[]) => void;
-}) {
-  return (
-    <Card>
-      <Text variant="heading">Motion of each joint</Text>
-      <Text variant="small" muted>
-        Relative to the body before it. Start from the design values or type what you measured.
-      </Text>
-      {motion.map((row, i) => (
-        <MotionEditor
-          key={i}
-          title={`Joint ${i + 1} · ${jointNames[i] ?? ''}`}
-          row={row}
-          onChange={(r) => onChange(motion.map((m, k) => (k === i ? r : m)))}
-        />
-      ))}
-    </Card>
-  );
-}
-
 function InputProblems({
   issues,
   jointNames,
@@ -285,6 +272,12 @@ function describePath(path: string, names: string[]): string {
     rampTimeS: 'ramp time',
     toRpm: 'speed',
     name: 'name',
+    record: 'measured record',
+    timeS: 'record times',
+    rateRadS: 'record rates',
+    cutoffHz: 'cut-off',
+    serviceDecelRadS2: 'service stop',
+    emergencyDecelRadS2: 'emergency stop',
   };
   if ((parts[0] === 'bodies' || parts[0] === 'profiles') && parts[1] !== undefined) {
     const i = Number(parts[1]);
@@ -292,91 +285,6 @@ function describePath(path: string, names: string[]): string {
     return parts[2] ? `${who} · ${fields[parts[2]] ?? parts[2]}` : who;
   }
   return path;
-}
-
-function MotionEditor({
-  title,
-  row,
-  onChange,
-}: {
-  title: string;
-  row: MotionRow;
-  onChange: (r: MotionRow) => void;
-}) {
-  const set = (patch: Partial<MotionRow>) => onChange({ ...row, ...patch });
-  return (
-    <View style={styles.motion}>
-      <Text variant="label" muted>
-        {title.toUpperCase()}
-      </Text>
-      <Segmented<MotionKind>
-        label={`${title} motion`}
-        value={row.kind}
-        onChange={(kind) => set({ kind })}
-        options={(['constant', 'swing', 'ramp', 'fixed'] as const).map((k) => ({
-          value: k,
-          label: motionKindLabel[k],
-        }))}
-      />
-      <View style={styles.fieldRow}>
-        {row.kind === 'constant' || row.kind === 'ramp' ? (
-          <NumberField label="Speed" unit="rpm" value={row.rpm} onChange={(rpm) => set({ rpm })} />
-        ) : null}
-        {row.kind === 'ramp' ? (
-          <NumberField label="Ramp time" unit="s" value={row.rampS} onChange={(rampS) => set({ rampS })} />
-        ) : null}
-        {row.kind === 'swing' ? (
-          <>
-            <NumberField
-              label="Amplitude"
-              unit="°"
-              value={row.amplitudeDeg}
-              onChange={(amplitudeDeg) => set({ amplitudeDeg })}
-            />
-            <NumberField
-              label="Period"
-              unit="s"
-              value={row.periodS}
-              onChange={(periodS) => set({ periodS })}
-            />
-          </>
-        ) : null}
-        {row.kind === 'fixed' ? (
-          <NumberField
-            label="Angle"
-            unit="°"
-            value={row.angleDeg}
-            onChange={(angleDeg) => set({ angleDeg })}
-          />
-        ) : null}
-      </View>
-    </View>
-  );
-}
-
-function NumberField({
-  label,
-  unit,
-  value,
-  onChange,
-}: {
-  label: string;
-  unit: string;
-  value: string;
-  onChange: (v: string) => void;
-}) {
-  return (
-    <View style={styles.numberField}>
-      <TextField
-        label={label}
-        unit={unit}
-        value={value}
-        onChangeText={onChange}
-        inputMode="decimal"
-        keyboardType="numbers-and-punctuation"
-      />
-    </View>
-  );
 }
 
 function BodiesEditor({
@@ -479,9 +387,7 @@ const styles = StyleSheet.create({
   },
   rideOptionSelected: { borderColor: colors.base, backgroundColor: colors.accentSoft },
   rideOptionText: { flexShrink: 1 },
-  motion: { gap: space.sm, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
   fieldRow: { flexDirection: 'row', gap: space.md, flexWrap: 'wrap' },
-  numberField: { flexGrow: 1, flexBasis: 140 },
   body: { gap: space.sm, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
   bodyHead: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' },
   errors: { backgroundColor: colors.overSoft, padding: space.md, borderRadius: radius.md, gap: space.xs },

@@ -13,6 +13,7 @@ import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features
 import { CycleWarnings } from '@/features/loads/cycle-warnings';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { formatValue } from '@/features/loads/format';
+import { type CasesShown, LoadCasesTable } from '@/features/loads/load-cases-table';
 import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
 import type { MeasuredSource } from '@/lib/measured-format';
 
@@ -28,15 +29,21 @@ export function CycleResults({
   system,
   xAxis,
   sources,
+  cases,
 }: {
   result: CycleResult;
   system: UnitSystem;
   xAxis: 'angle' | 'time';
   /** How measured values were typed, by envelope id (`measuredSources`), so they read as typed. */
   sources?: ReadonlyMap<string, MeasuredSource>;
+  /** The stops run besides the ride cycle (features/loads/load-cases.ts), when any were. */
+  cases?: CasesShown | null;
 }) {
   const wide = useWide();
   const hasEnvelope = result.envelope.length > 0;
+  const freeSwings = result.joints.flatMap((j, i) =>
+    j.freePeriodS === undefined ? [] : [{ i, name: j.name, periodS: j.freePeriodS }],
+  );
   return (
     <View style={styles.root}>
       <Card style={styles.headline}>
@@ -50,6 +57,14 @@ export function CycleResults({
           {result.samples} instants over {formatValue(result.durationS, 'time', system)} · engine{' '}
           {ENGINE_VERSION}
         </Text>
+        {freeSwings.map((f) => (
+          <Text key={f.i} variant="figure">
+            Pivot {f.i + 1} · {f.name} swings freely:{' '}
+            {f.periodS === null
+              ? 'no period found within the cycle'
+              : `period ${formatValue(f.periodS, 'time', system)}`}
+          </Text>
+        ))}
       </Card>
 
       <CycleWarnings
@@ -60,6 +75,13 @@ export function CycleResults({
 
       <SectionTitle>Pivot loads over the cycle</SectionTitle>
       <PivotLoadsTable result={result} system={system} xAxis={xAxis} />
+
+      {cases && cases.cases.length > 1 ? (
+        <>
+          <SectionTitle>Ride cycle and stops</SectionTitle>
+          <LoadCasesTable cases={cases.cases} governing={cases.governing} system={system} />
+        </>
+      ) : null}
 
       <View style={wide ? styles.chartsWide : styles.charts}>
         {result.joints.map((_, i) => (

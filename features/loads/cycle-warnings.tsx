@@ -4,8 +4,10 @@ import { MarkIcon, VocabularyMark } from '@/components/mark-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import type { CycleWarning } from '@/features/loads/engine';
-import { sortWarnings, warningSubject } from '@/features/loads/format';
+import { groupWarnings, warningSubject } from '@/features/loads/format';
 import { cycleWarningLevelVocabulary } from '@/lib/vocabulary';
+
+type Grouped = ReturnType<typeof groupWarnings>[number];
 
 /**
  * What the person must know about how far to trust a load check, shown with the result: warnings (a record
@@ -22,22 +24,23 @@ export function CycleWarnings({
   jointNames?: readonly string[];
   seatNames?: readonly string[];
 }) {
-  const sorted = sortWarnings(warnings);
-  if (sorted.length === 0) return null;
-  const attention = sorted.filter((w) => w.level === 'warning');
-  const notes = sorted.filter((w) => w.level !== 'warning');
-  const line = (w: CycleWarning) => {
+  const grouped = groupWarnings(warnings);
+  if (grouped.length === 0) return null;
+  const attention = grouped.filter((g) => g.warning.level === 'warning');
+  const notes = grouped.filter((g) => g.warning.level !== 'warning');
+  const line = ({ warning: w, more }: Grouped) => {
     const subject = warningSubject(w, jointNames, seatNames);
-    return subject ? `${subject}: ${w.message}` : w.message;
+    const text = subject ? `${subject}: ${w.message}` : w.message;
+    return more > 0 ? `${text} (and ${more} more like it)` : text;
   };
   return (
     <View style={styles.root}>
       {attention.length > 0 ? (
         <View style={styles.attention} role="note" aria-label="Warnings about this result">
           <VocabularyMark word={cycleWarningLevelVocabulary.warning} />
-          {attention.map((w, i) => (
-            <Text key={`${w.code}-${i}`} style={styles.attentionText}>
-              {line(w)}
+          {attention.map((g, i) => (
+            <Text key={`${g.warning.code}-${i}`} style={styles.attentionText}>
+              {line(g)}
             </Text>
           ))}
         </View>
@@ -47,13 +50,13 @@ export function CycleWarnings({
           <Text variant="label" muted>
             {cycleWarningLevelVocabulary.info.label.toUpperCase()}
           </Text>
-          {notes.map((w, i) => (
-            <View key={`${w.code}-${i}`} style={styles.note}>
+          {notes.map((g, i) => (
+            <View key={`${g.warning.code}-${i}`} style={styles.note}>
               <View style={styles.noteIcon}>
                 <MarkIcon mark={cycleWarningLevelVocabulary.info.mark} />
               </View>
               <Text variant="small" muted style={styles.noteText}>
-                {line(w)}
+                {line(g)}
               </Text>
             </View>
           ))}

@@ -2,6 +2,7 @@ import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import type { EnvelopeItem } from '@/features/loads/engine';
 import { formatEnvelopeItem, sortByConcern } from '@/features/loads/format';
+import { LOAD_CASE_LABEL } from '@/features/loads/load-cases';
 import type { UnitSystem } from '@/lib/units';
 import type { MeasuredSource } from '@/lib/measured-format';
 
@@ -19,6 +20,8 @@ export function EnvelopeTable({
   sources?: ReadonlyMap<string, MeasuredSource>;
 }) {
   const shown = (i: EnvelopeItem) => formatEnvelopeItem(i, system, sources?.get(i.id));
+  // When stops were run besides the ride cycle, each line says which case its value comes from.
+  const byCase = items.some((i) => i.loadCase !== undefined);
   return (
     <DataTable
       label="Design envelope"
@@ -29,6 +32,16 @@ export function EnvelopeTable({
         { key: 'value', title: 'Value', render: (i) => shown(i).value, numeric: true, flex: 1.2 },
         { key: 'limit', title: 'Limit', render: (i) => shown(i).limit, numeric: true, flex: 1.2 },
         { key: 'ratio', title: 'Of limit', render: (i) => shown(i).ratio, numeric: true, flex: 0.8 },
+        ...(byCase
+          ? [
+              {
+                key: 'case',
+                title: 'From',
+                render: (i: EnvelopeItem) => (i.loadCase ? LOAD_CASE_LABEL[i.loadCase] : '—'),
+                flex: 1.1,
+              },
+            ]
+          : []),
         {
           key: 'status',
           title: 'Status',

@@ -125,6 +125,24 @@ export function sortWarnings(warnings: readonly CycleWarning[] | null | undefine
   return [...list.filter((w) => w.level === 'warning'), ...list.filter((w) => w.level !== 'warning')];
 }
 
+/**
+ * Warnings of the same kind about the same pivot or seat, as one line with how many more there are: the
+ * runs of a stop case (one per start angle) each report theirs, and a list of near-copies would bury the
+ * rest. The first of each kind is kept in full; order as `sortWarnings`.
+ */
+export function groupWarnings(
+  warnings: readonly CycleWarning[] | null | undefined,
+): { warning: CycleWarning; more: number }[] {
+  const groups = new Map<string, { warning: CycleWarning; more: number }>();
+  for (const w of sortWarnings(warnings)) {
+    const key = `${w.level}|${w.code}|${w.joint ?? ''}|${w.seat ?? ''}`;
+    const held = groups.get(key);
+    if (held) held.more++;
+    else groups.set(key, { warning: w, more: 0 });
+  }
+  return [...groups.values()];
+}
+
 /** What a warning concerns, in the words of the results: "Pivot 2 · Gondola", "Seat Front row"; or null. */
 export function warningSubject(
   w: Pick<CycleWarning, 'joint' | 'seat'>,

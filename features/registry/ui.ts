@@ -21,5 +21,6 @@ export {
   useDesignAnalysis,
 } from '@/features/registry/design-view';
 export { DueMark, dueInWords } from '@/features/registry/due-mark';
+export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';
 export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';

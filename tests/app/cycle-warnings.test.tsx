@@ -8,7 +8,7 @@ import { render, screen } from '@testing-library/react-native';
 
 import { CycleResults } from '@/features/loads/cycle-results';
 import { type CycleResult, type CycleWarning, analyseCycle } from '@/features/loads/engine';
-import { sortWarnings, warningSubject } from '@/features/loads/format';
+import { groupWarnings, sortWarnings, warningSubject } from '@/features/loads/format';
 import { cycleWarningLevelVocabulary } from '@/lib/vocabulary';
 
 function rodResult(warnings: CycleWarning[]): CycleResult {
@@ -68,4 +68,19 @@ test('warnings sort before notes; a warning names its pivot or seat', () => {
   expect(warningSubject({}, ['Arm'], ['Front row'])).toBeNull();
   // Two different shapes, so the level never rests on colour alone.
   expect(cycleWarningLevelVocabulary.warning.mark.icon).not.toBe(cycleWarningLevelVocabulary.info.mark.icon);
+});
+
+test('near-copies of one kind about one pivot (one per stop run) read as one line and a count', () => {
+  const runs: CycleWarning[] = [1, 2, 3].map((k) => ({
+    code: 'free-cycle-short',
+    level: 'warning',
+    joint: 1,
+    message: `Emergency stop: the cycle is shorter than the free swing (${k} s)`,
+  }));
+  expect(groupWarnings([...runs, warnings[0]]).map((g) => [g.warning.code, g.more])).toEqual([
+    ['free-cycle-short', 2],
+    ['smoothing', 0],
+  ]);
+  render(<CycleResults result={rodResult(runs)} system="si" xAxis="angle" />);
+  expect(screen.getByText(/\(1 s\) \(and 2 more like it\)$/)).toBeTruthy();
 });
