@@ -133,6 +133,42 @@ test('double pendulum: joint forces agree with planck’s reactions within 0.5 %
   expect(worst).toBeLessThan(0.005 * peak);
 });
 
+test('three free pins over 10 s: energy constant to 1e-7 of Σ m·g·reach, no torque on any pin (energy conservation)', () => {
+  const start = [-Math.PI / 2 + 1.6, 0.3, -0.2];
+  const result = analyseCycle({
+    bodies,
+    gravityMS2: g,
+    profiles: start.map((angleRad) => ({ kind: 'free', angleRad })),
+    durationS: 10,
+    samples: 1001,
+  });
+  const chain = createChain(bodies, g);
+  let scale = 0;
+  let reach = 0;
+  for (const b of bodies) {
+    scale += b.massKg * g * (reach + Math.hypot(...b.cgM));
+    reach += b.tipM ? Math.hypot(...b.tipM) : 0;
+  }
+  const energy = (k: number) =>
+    chainEnergy(
+      chain,
+      result.joints.map((j) => j.angleRad[k]),
+      result.joints.map((j) => j.rateRadS[k]),
+    ).totalJ;
+  const e0 = energy(0);
+  let drift = 0;
+  for (let k = 0; k < result.samples; k++) drift = Math.max(drift, Math.abs(energy(k) - e0));
+  expect(drift).toBeLessThan(1e-7 * scale);
+  // It does move: kinetic energy well above the drift.
+  const last = chainEnergy(
+    chain,
+    result.joints.map((j) => j.angleRad[500]),
+    result.joints.map((j) => j.rateRadS[500]),
+  );
+  expect(last.kineticJ).toBeGreaterThan(0.01 * scale);
+  for (const j of result.joints) for (const t of j.torqueNm) expect(Math.abs(t)).toBeLessThan(1e-9 * scale);
+});
+
 describe('a free gondola on a steadily driven arm (mixed chain)', () => {
   const bs = bodies.slice(0, 2);
   const w = 1.2;

@@ -156,3 +156,37 @@ test('demo pendulum class (domain notes) ±110°: pivot load at the bottom ≈ 3
   expect(result.joints[1].torqueNm.every((t) => Number.isFinite(t))).toBe(true);
   expect(Math.max(...result.joints[0].torqueNm.map(Math.abs))).toBeLessThan(1e-9 * staticLoad * L);
 });
+
+test('a harmonic swing with the free swing’s amplitude and period under-estimates the bottom pin force by about 11 % at 110° (closed forms both ways)', () => {
+  // Demo pendulum class again, as one body: Σm·r = 195,000 kg·m, I_O = 2.7e6 kg·m², 16 t.
+  const rG = 195_000 / 16_000;
+  const bodyOf: ChainBody = {
+    name: 'pendulum',
+    massKg: 16_000,
+    cgM: [rG, 0],
+    inertiaCgKgM2: 2.7e6 - 16_000 * rG * rG,
+  };
+  const A = 110 * deg;
+  const free = analyseCycle({
+    bodies: [bodyOf],
+    profiles: [{ kind: 'free', angleRad: HANGING + A }],
+    gravityMS2: g,
+  });
+  const T = free.durationS;
+  expect(T).toBeCloseTo(4 * Math.sqrt(2.7e6 / (195_000 * g)) * ellipticK(Math.sin(A / 2)), 6);
+  const harmonic = analyseCycle({
+    bodies: [bodyOf],
+    profiles: [{ kind: 'swing', amplitudeRad: A, periodS: T, centreRad: HANGING }],
+    gravityMS2: g,
+  });
+  // Harmonic: at the bottom q̇ = A·2π/T and q̈ = 0, so the pin carries m·g + Σm·r·(2πA/T)².
+  const harmonicBottom = 16_000 * g + 195_000 * ((2 * Math.PI * A) / T) ** 2;
+  const freeBottom = 16_000 * g + (195_000 * 2 * g * 195_000 * (1 - Math.cos(A))) / 2.7e6;
+  expect(harmonic.joints[0].peakForce.value).toBeCloseTo(harmonicBottom, 0);
+  expect(free.joints[0].peakForce.value / freeBottom).toBeCloseTo(1, 4);
+  const shortfall = 1 - harmonicBottom / freeBottom;
+  expect(shortfall).toBeGreaterThan(0.09);
+  expect(shortfall).toBeLessThan(0.13);
+  // And the harmonic model asks a free pin for a drive torque.
+  expect(Math.abs(harmonic.joints[0].peakTorque.value)).toBeGreaterThan(1e5);
+});
