@@ -93,10 +93,15 @@ export function padForFilter(
   const out = new Float64Array(n + 2 * p);
   for (let k = 0; k < n; k++) out[p + k] = x[k];
   if (p === 0) return { values: out, pad: 0 };
-  const times = Float64Array.from({ length: n }, (_, k) => k * stepS);
+  const times = new Float64Array(n);
+  for (let k = 0; k < n; k++) times[k] = k * stepS;
   const m = Math.max(5, Math.min(n, fitPoints));
   const start = localPolynomialFit(times, x, 0, m, 3);
   const end = localPolynomialFit(times, x, times[n - 1], m, 3);
+  // The end samples themselves become the fitted values: a noisy end sample would otherwise stand out of
+  // its own reflection as a spike and tilt the slope at the end.
+  out[p] = start.value;
+  out[p + n - 1] = end.value;
   const beta = (Math.PI * cutoffHz) / 4;
   for (let j = 1; j <= p; j++) {
     const tau = j * stepS;
@@ -122,12 +127,14 @@ export function zeroPhaseLowPass(
   const step = 1 / sampleRateHz;
   // Detrend by the chord between the ends so a steady rotation's angle filters without a start-up transient.
   const slope = (x[n - 1] - x[0]) / (n - 1);
-  const rest = Float64Array.from({ length: n }, (_, k) => x[k] - (x[0] + slope * k));
+  const rest = new Float64Array(n);
+  for (let k = 0; k < n; k++) rest[k] = x[k] - (x[0] + slope * k);
   // Four periods of the cut-off: the filter's memory has died out well before the record starts.
   const want = Math.max(keep, Math.ceil((4 * sampleRateHz) / cutoffHz));
-  // A cubic over three quarters of a cut-off period: long enough to average the noise, short enough to
-  // follow the motion (a quadratic over a longer window left the ends visibly biased on a swing).
-  const fitPoints = Math.max(8, Math.round((0.75 * sampleRateHz) / cutoffHz));
+  // A cubic over one cut-off period: long enough to average the noise, short enough to follow the motion
+  // (tried on noisy swings, rotations and ramps at 25–200 Hz: a quadratic, or a cubic over a half or two
+  // periods, left the ends measurably worse).
+  const fitPoints = Math.max(8, Math.round(sampleRateHz / cutoffHz));
   const padded = padForFilter(rest, step, want, fitPoints, cutoffHz);
   filterForwardBackward(padded.values, butterworthSections(order, cutoffHz, sampleRateHz, 2));
   const kept = Math.min(keep, padded.pad);

@@ -18,6 +18,7 @@ import type { CycleWarning } from '@/features/loads/engine/cycle-types';
 import { zeroPhaseLowPass } from '@/features/loads/engine/conditioning/butterworth';
 import {
   analyseSpacing,
+  estimateNoise,
   heldValueWarnings,
   resampleEven,
   spacingWarnings,
@@ -121,7 +122,8 @@ function conditionUncached(profile: MeasuredProfile): ConditionedMotion {
     });
     return localFitMotion(profile, values, isAngle, legacyWindow, spacing.sampleRateHz, warnings);
   }
-  return filteredMotion(profile, values, isAngle, spacing.sampleRateHz, spacing.spanS, warnings);
+  const gaps = spacing.gaps.length > 0;
+  return filteredMotion(profile, values, isAngle, spacing.sampleRateHz, spacing.spanS, gaps, warnings);
 }
 
 function filteredMotion(
@@ -130,14 +132,19 @@ function filteredMotion(
   isAngle: boolean,
   medianRateHz: number,
   spanS: number,
+  gaps: boolean,
   warnings: CycleWarning[],
 ): ConditionedMotion {
   const n = values.length;
-  const count = Math.max(MIN_FILTER_SAMPLES, Math.min(4 * n, Math.round(spanS * medianRateHz) + 1));
+  // Without gaps the grid keeps one point per sample (at the mean interval), so interpolation barely
+  // touches the noise; with gaps it runs at the median interval and fills them.
+  const count = gaps
+    ? Math.max(MIN_FILTER_SAMPLES, Math.min(4 * n, Math.round(spanS * medianRateHz) + 1))
+    : n;
   const h = spanS / (count - 1);
   const rateHz = 1 / h;
   const grid = resampleEven(profile.timeS, values, count);
-  const content = analyseContent(grid, rateHz);
+  const content = analyseContent(grid, rateHz, estimateNoise(profile.timeS, values));
   const cutoff = profile.cutoffHz ?? content.cutoffHz;
   if (!(cutoff > 0 && cutoff < rateHz / 2))
     throw new Error(`cutoffHz must be above 0 and below half the sample rate (${fmt(rateHz / 2)} Hz)`);

@@ -19,9 +19,38 @@ export type Spacing = {
 };
 
 export function median(values: ArrayLike<number>): number {
-  const s = Float64Array.from(values).sort();
+  const s = Float64Array.from(values);
   const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+  return s.length % 2 ? select(s, m) : (select(s, m - 1) + select(s, m)) / 2;
+}
+
+/**
+ * The k-th smallest value (0-based) of `a`, which it reorders: Hoare's quickselect, linear on average —
+ * sorting thousands of intervals for a median cost more than the filtering itself.
+ */
+export function select(a: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = a.length - 1;
+  while (hi > lo) {
+    const pivot = a[(lo + hi) >> 1];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k];
+  }
+  return a[k];
 }
 
 /** Sample rate, gaps and unevenness of increasing times. */
@@ -29,13 +58,12 @@ export function analyseSpacing(timeS: ArrayLike<number>): Spacing {
   const n = timeS.length;
   const steps = new Float64Array(n - 1);
   for (let k = 1; k < n; k++) steps[k - 1] = timeS[k] - timeS[k - 1];
-  const sorted = Float64Array.from(steps).sort();
-  const medianStep = median(sorted);
+  const medianStep = median(steps);
   const gaps: Spacing['gaps'] = [];
   for (let k = 0; k < steps.length; k++)
     if (steps[k] > GAP_FACTOR * medianStep) gaps.push({ atS: timeS[k] - timeS[0], lengthS: steps[k] });
-  const q1 = sorted[Math.floor(0.25 * (sorted.length - 1))];
-  const q3 = sorted[Math.ceil(0.75 * (sorted.length - 1))];
+  const q1 = select(steps, Math.floor(0.25 * (steps.length - 1)));
+  const q3 = select(steps, Math.ceil(0.75 * (steps.length - 1)));
   return {
     sampleRateHz: 1 / medianStep,
     medianStepS: medianStep,
@@ -43,6 +71,41 @@ export function analyseSpacing(timeS: ArrayLike<number>): Spacing {
     gaps,
     unevenSpread: (q3 - q1) / medianStep,
   };
+}
+
+/**
+ * RMS of the white noise on a record, from how far each sample lies off the cubic through its four
+ * neighbours (Lagrange interpolation at the actual times, so uneven records are fine). Each residual is
+ * scaled by √(1 + Σ lⱼ²) — its standard deviation in units of the noise's — and the noise is the larger of
+ * the median absolute residual ×1.4826 (robust to kinks and spikes; Hampel's MAD scale for a normal law)
+ * and half the residuals' RMS (which still sees a quantised reading whose residuals are mostly zero).
+ */
+export function estimateNoise(timeS: ArrayLike<number>, values: ArrayLike<number>): number {
+  const n = values.length;
+  if (n < 5) return 0;
+  const scaled = new Float64Array(n - 4);
+  let sumSq = 0;
+  const idx = [0, 0, 0, 0];
+  for (let k = 2; k < n - 2; k++) {
+    const t = timeS[k];
+    idx[0] = k - 2;
+    idx[1] = k - 1;
+    idx[2] = k + 1;
+    idx[3] = k + 2;
+    let predicted = 0;
+    let weights = 0;
+    for (let a = 0; a < 4; a++) {
+      const j = idx[a];
+      let l = 1;
+      for (let b = 0; b < 4; b++) if (b !== a) l *= (t - timeS[idx[b]]) / (timeS[j] - timeS[idx[b]]);
+      predicted += l * values[j];
+      weights += l * l;
+    }
+    const e = (values[k] - predicted) / Math.sqrt(1 + weights);
+    scaled[k - 2] = Math.abs(e);
+    sumSq += e * e;
+  }
+  return Math.max(1.4826 * median(scaled), 0.5 * Math.sqrt(sumSq / scaled.length));
 }
 
 /** Removes jumps of more than π between neighbours (an encoder read modulo a turn); counts the fixes. */

@@ -2,17 +2,25 @@
  * The automatic cut-off: chosen from the record's own spectrum.
  *
  * The record (on an even grid, its chord between the ends removed) is windowed with a Hann window and
- * transformed (radix-2 FFT, zero-padded). For white sensor noise every periodogram bin is exponentially
- * distributed around the same level, so the noise floor is the median of the bins above a quarter of the
- * sample rate divided by ln 2 (ride motion has no content there). The motion's content reaches as far as
- * the highest bin that stands clearly above that floor (a threshold of ln(bins) + 5 floors, so pure noise
- * crosses it in well under 1 % of records). Above it the record is noise only, so the cut-off is put a
+ * transformed (radix-2 FFT, zero-padded). White sensor noise of RMS σ (estimated from the raw samples,
+ * `estimateNoise` in record.ts) puts the same level σ²·Σw² into every periodogram bin, each bin spread
+ * exponentially around it. The motion's content reaches as far as
+ * the highest (locally averaged) bin that stands clearly above that floor. Above it the record is noise only, so the cut-off is put a
  * little beyond it: that keeps every harmonic the record can resolve and drops the band where only noise
  * lives (the idea of Wiener's optimal filter reduced to a choice of cut-off). The periodogram of white
  * noise and its exponential (χ² with 2 degrees of freedom) bins: D. B. Percival, A. T. Walden, Spectral
  * Analysis for Physical Applications (1993), ch. 6. FFT: J. W. Cooley, J. W. Tukey, Math. Comp. 19 (1965) 297.
  */
+import { select } from '@/features/loads/engine/conditioning/record';
 
+/**
+ * A smoothed bin counts as motion above this many times the noise floor: the mean of five noise bins
+ * exceeds 6× their level only rarely (a Gamma tail; the Hann window's overlap between neighbouring
+ * bins fattens it), so noise seldom passes.
+ */
+export const CONTENT_THRESHOLD = 6;
+/** Ride motion starts below this: the scan for its content looks at least this far up. */
+export const FIRST_SEARCH_HZ = 1.5;
 /** Cut-off = this × the highest frequency where the motion stands above the noise. */
 export const CONTENT_MARGIN = 1.5;
 /** The automatic cut-off never goes below this (slow rides still keep their ramps and swings). */
@@ -72,8 +80,37 @@ export function fft(re: Float64Array, im: Float64Array): void {
   }
 }
 
+function movingAverage(values: Float64Array, width: number): Float64Array {
+  const out = new Float64Array(values.length);
+  const half = width >> 1;
+  let sum = 0;
+  let count = 0;
+  let lo = 0;
+  let hi = -1;
+  for (let k = 0; k < values.length; k++) {
+    const from = Math.max(0, k - half);
+    const to = Math.min(values.length - 1, k + half);
+    while (hi < to) {
+      hi++;
+      sum += values[hi];
+      count++;
+    }
+    while (lo < from) {
+      sum -= values[lo];
+      lo++;
+      count--;
+    }
+    out[k] = sum / count;
+  }
+  return out;
+}
+
 /** Noise level, motion content and the automatic cut-off of an evenly sampled record. */
-export function analyseContent(values: ArrayLike<number>, sampleRateHz: number): MotionContent {
+export function analyseContent(
+  values: ArrayLike<number>,
+  sampleRateHz: number,
+  noiseRms: number,
+): MotionContent {
   const n = values.length;
   let size = 1;
   while (size < n) size <<= 1;
@@ -95,19 +132,35 @@ export function analyseContent(values: ArrayLike<number>, sampleRateHz: number):
     if (power[k] > peak) peak = power[k];
   }
   const binHz = sampleRateHz / size;
-  const upper = power.subarray(Math.ceil(half / 2));
-  const sorted = Float64Array.from(upper).sort();
-  const measuredFloor = sorted[sorted.length >> 1] / Math.LN2;
-  // A record with (almost) no noise: treat anything 80 dB under its strongest line as the floor.
-  const floor = Math.max(measuredFloor, 1e-8 * peak, 1e-300);
-  const threshold = Math.max(8, Math.log(n / 2) + 5) * floor;
+  // Each bin averaged with its neighbours over about five independent bins (zero padding interpolates
+  // between them): a lone noise bin no longer crosses the threshold, a line of the motion still does.
+  const width = Math.max(1, Math.round((5 * size) / n));
+  const smooth = movingAverage(power, width);
+  // White noise of RMS σ puts σ²·Σw² into every bin on average; the median of the upper half of the band
+  // (no ride moves there) divided by ln 2 measures the same level directly. The larger of the two is used,
+  // since a floor set too low lets noise pass as motion. A record with (almost) no noise: anything 80 dB
+  // under its strongest line is the floor.
+  const upper = power.slice(Math.ceil(half / 2));
+  const floor = Math.max(
+    noiseRms * noiseRms * sumW2,
+    select(upper, upper.length >> 1) / Math.LN2,
+    1e-8 * peak,
+    1e-300,
+  );
+  const threshold = CONTENT_THRESHOLD * floor;
   // The Hann window's main lobe around 0 Hz holds what is left of the trend, not motion.
   const firstBin = Math.ceil((2 * size) / n);
   const lastBin = Math.floor(0.45 * size);
   let content = -1;
   let dominant = -1;
+  // Scan upward; motion is a line or a band joined to the lower ones (a swing's odd harmonics, a ramp's
+  // falling spectrum), so stop once the scan has gone twice as far as the last line found without finding
+  // another. A lone noise excursion far above the motion then cannot set the cut-off.
   for (let k = firstBin; k <= lastBin; k++) {
-    if (power[k] <= threshold) continue;
+    const frontier =
+      Math.max(FIRST_SEARCH_HZ, 2 * (content < 0 ? 0 : content * binHz)) + 4 * (size / n) * binHz;
+    if (k * binHz > frontier) break;
+    if (smooth[k] <= threshold) continue;
     content = k;
     if (dominant < 0 || power[k] > power[dominant]) dominant = k;
   }
@@ -115,7 +168,7 @@ export function analyseContent(values: ArrayLike<number>, sampleRateHz: number):
   const cap = MAX_CUTOFF_FRACTION * sampleRateHz;
   const wanted = contentHz === null ? 0 : CONTENT_MARGIN * contentHz;
   return {
-    noiseRms: Math.sqrt(measuredFloor / sumW2),
+    noiseRms,
     contentHz,
     dominantHz: dominant >= 0 ? dominant * binHz : null,
     cutoffHz: Math.min(cap, Math.max(wanted, MIN_AUTO_CUTOFF_HZ)),
