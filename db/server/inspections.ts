@@ -19,7 +19,9 @@ import {
   type ConfirmedOutOfRange,
   type PushResult,
 } from '@/features/records/schema';
-import type { EnvelopeItem } from '@/features/loads/engine';
+import type { CycleWarning, EnvelopeItem, LoadCaseKind } from '@/features/loads/engine';
+import type { JointModel, PeriodCheck, StoredLoadCase } from '@/features/records/analysis-schema';
+import type { MeasuredRider } from '@/features/records/motion-record-schema';
 import {
   envelopeStatuses,
   inspectionTypes,
@@ -76,6 +78,18 @@ export type StoredAnalysis = {
    * plausibility.ts); absent when there were none, and in analyses made before the rule existed.
    */
   confirmedOutOfRange?: ConfirmedOutOfRange[];
+  /**
+   * How the analysis was made (features/records/analysis-schema.ts): the model each joint ran, the load
+   * cases with their peaks and the governing one, a free swing's period against the measured one, and the
+   * result's warnings. Absent from analyses made by engine 1.0.0, which recorded none of it.
+   */
+  models?: JointModel[];
+  loadCases?: StoredLoadCase[];
+  governingCase?: LoadCaseKind | null;
+  periodChecks?: PeriodCheck[];
+  warnings?: CycleWarning[];
+  /** Rider accelerations measured in a seat with the phone, beside the computed `seats`; absent when none. */
+  measuredRider?: MeasuredRider[];
 };
 
 export const inspections = sqliteTable(

@@ -1,18 +1,21 @@
 /**
  * From an inspection's readings to the load check: measured speed, period and amplitude replace the
  * design motion of their joint; measured pin diameter and clearance are checked against the pivot's
- * wear limits. Pure TypeScript: the phone's instant preview and the server's authoritative analysis
- * run exactly this.
+ * wear limits. A joint the design marks as a free swing runs the free swing from its measured amplitude;
+ * every analysis includes the stops the design data defines. Pure TypeScript: the phone's instant preview
+ * and the server's authoritative analysis run exactly this.
  */
 import {
   type CycleInput,
   type CycleResult,
   ENGINE_VERSION,
   type MotionProfile,
-  analyseCycle,
 } from '@/features/loads/engine';
 import { withChecklistLimits } from '@/features/records/checklist-limits';
+import { type InspectionResult, runLoadCheck } from '@/features/records/load-check';
 import type { ChecklistAnswer, DevicePreview, Reading } from '@/features/records/schema';
+import { motionProfileOf, motionRecordWarnings } from '@/features/records/motion-record';
+import type { MotionRecord } from '@/features/records/motion-record-schema';
 import { type DesignData, type MeasuredInputs, designToCycleInput } from '@/features/loads/design-schema';
 import type { ChecklistContent } from '@/features/registry/schema';
 
@@ -24,7 +27,11 @@ function latest(readings: readonly Reading[], kind: Reading['kind'], joint: numb
 }
 
 /** Which joints have measured motion, and the profile each then runs. */
-function measuredInputs(design: DesignData, readings: readonly Reading[]): MeasuredInputs {
+function measuredInputs(
+  design: DesignData,
+  readings: readonly Reading[],
+  records: readonly MotionRecord[] = [],
+): MeasuredInputs {
   const n = design.bodies.length;
   const profiles: (MotionProfile | null)[] = [];
   const wear: ({ diameterM?: number; clearanceM?: number } | null)[] = [];
@@ -38,14 +45,19 @@ function measuredInputs(design: DesignData, readings: readonly Reading[]): Measu
       // Speed readings are stored in rad/s; a timed period means one revolution per period.
       const rpm = speed ? (speed.valueSI * 60) / (2 * Math.PI) : 60 / (period as Reading).valueSI;
       profile = { kind: 'constant', rpm: Math.sign(m.rpm ?? 1) * Math.abs(rpm) };
-    } else if (m?.kind === 'swing' && (amplitude || period)) {
+    } else if (m?.kind === 'swing' && m.freeSwing && amplitude) {
+      // A free pin swings as the chain's equations say: released from rest at the measured amplitude
+      // (design swings are centred on 0). Its period is computed and compared with a measured one.
+      profile = { kind: 'free', angleRad: amplitude.valueSI };
+    } else if (m?.kind === 'swing' && !m.freeSwing && (amplitude || period)) {
       profile = {
         kind: 'swing',
         amplitudeRad: amplitude?.valueSI ?? m.amplitudeRad ?? 0,
         periodS: period?.valueSI ?? m.periodS ?? 1,
       };
     }
-    profiles.push(profile);
+    // A ride cycle recorded with the phone outranks readings of the same joint (features/records/motion-record).
+    profiles.push(motionProfileOf(records, i) ?? profile);
     const d = latest(readings, 'pin_diameter', i);
     const c = latest(readings, 'clearance', i);
     wear.push(d || c ? { diameterM: d?.valueSI, clearanceM: c?.valueSI } : null);
@@ -57,16 +69,22 @@ export function inspectionCycleInput(
   design: DesignData,
   readings: readonly Reading[],
   samples = 360,
+  records: readonly MotionRecord[] = [],
 ): CycleInput {
-  return designToCycleInput(design, measuredInputs(design, readings), samples);
+  return designToCycleInput(design, measuredInputs(design, readings, records), samples);
 }
 
 export function analyseInspection(
   design: DesignData,
   readings: readonly Reading[],
   samples = 360,
-): CycleResult {
-  return analyseCycle(inspectionCycleInput(design, readings, samples));
+  records: readonly MotionRecord[] = [],
+): InspectionResult {
+  const measured = measuredInputs(design, readings, records);
+  // The operating cycle plus the design's stops, with the model of each joint (features/records/load-check).
+  const result = runLoadCheck(design, designToCycleInput(design, measured, samples), measured, readings);
+  if (records.length) result.warnings = [...result.warnings, ...motionRecordWarnings(design, records)];
+  return result;
 }
 
 /**
@@ -75,12 +93,16 @@ export function analyseInspection(
  */
 export function analyseRecord(
   design: DesignData,
-  record: { readings: readonly Reading[]; checklist: readonly ChecklistAnswer[] },
+  record: {
+    readings: readonly Reading[];
+    checklist: readonly ChecklistAnswer[];
+    motionRecords?: readonly MotionRecord[];
+  },
   template: ChecklistContent | null,
   samples = 360,
-): CycleResult {
-  const result = analyseInspection(design, record.readings, samples);
-  return withChecklistLimits(result, design, template, record.checklist, record.readings);
+): InspectionResult {
+  const result = analyseInspection(design, record.readings, samples, record.motionRecords);
+  return { ...result, ...withChecklistLimits(result, design, template, record.checklist, record.readings) };
 }
 
 /** The summary the phone sends with a submission, and the server compares with its own. */

@@ -71,6 +71,22 @@ export function motionText(m: DesignMotion, system: UnitSystem): string {
   return `held at ${q(m.angleRad ?? 0, 'angle', system)}`;
 }
 
+/** "Free swing" for a swing the design marks as a free pin, else the motion kind's label. */
+export function motionKindText(m: DesignMotion): string {
+  return m.kind === 'swing' && m.freeSwing ? 'Free swing' : motionKindLabel[m.kind];
+}
+
+/** The stop decelerations of one joint: "service 0.5 rad/s², emergency 0.65 rad/s²", or "—". */
+export function motionStopText(m: DesignMotion, system: UnitSystem): string {
+  const parts = [
+    m.serviceDecelRadS2 !== undefined ? `service ${q(m.serviceDecelRadS2, 'angularAccel', system)}` : null,
+    m.emergencyDecelRadS2 !== undefined
+      ? `emergency ${q(m.emergencyDecelRadS2, 'angularAccel', system)}`
+      : null,
+  ].filter(Boolean);
+  return parts.length ? parts.join(', ') : '—';
+}
+
 /** The rate and amplitude limits of one joint, or "—". */
 export function motionLimitText(m: DesignMotion, system: UnitSystem): string {
   const parts = [

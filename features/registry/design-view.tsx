@@ -18,8 +18,9 @@ import { type DesignData, designBodies, designToCycleInput } from '@/features/lo
 import {
   designOriginLabel,
   gRange,
-  motionKindLabel,
+  motionKindText,
   motionLimitText,
+  motionStopText,
   motionText,
   partGeometry,
   partKindLabel,
@@ -405,7 +406,7 @@ function MotionTable({ data, system }: TableProps) {
           render: (m) => `P${m.joint + 1} · ${data.bodies[m.joint]?.name ?? '?'}`,
           flex: 1.4,
         },
-        { key: 'kind', title: 'Motion', render: (m) => motionKindLabel[m.kind] },
+        { key: 'kind', title: 'Motion', render: (m) => motionKindText(m) },
         {
           key: 'value',
           title: 'Design value',
@@ -417,6 +418,13 @@ function MotionTable({ data, system }: TableProps) {
           key: 'limits',
           title: 'Motion limits',
           render: (m) => motionLimitText(m, system),
+          numeric: true,
+          flex: 1.6,
+        },
+        {
+          key: 'stops',
+          title: 'Stop decelerations',
+          render: (m) => motionStopText(m, system),
           numeric: true,
           flex: 1.6,
         },

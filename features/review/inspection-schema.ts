@@ -15,6 +15,7 @@ import {
   readingMethods,
 } from '@/features/records/schema';
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
+import { analysisModelFields, loadCaseKinds } from '@/features/records/analysis-schema';
 import { auditEntrySchema, inspectionTypeSchema } from '@/features/registry/schema';
 import { findingSchema } from '@/features/notices/finding-schema';
 import type { QuantityKind } from '@/lib/units';
@@ -70,6 +71,8 @@ const envelopeItemSchema = z.object({
   // An infinite ratio (no allowance left at all) arrives as null.
   ratio: jsonNumber(Number.POSITIVE_INFINITY),
   status: envelopeStatusSchema,
+  /** The load case the value comes from; absent from analyses made before load cases. */
+  loadCase: z.enum(loadCaseKinds).optional().catch(undefined),
 }) satisfies z.ZodType<EnvelopeItem, unknown>;
 
 /** db/server/inspections.ts StoredAnalysis: the server's own load check of the inspection. */
@@ -119,6 +122,28 @@ export const storedAnalysisSchema = z.object({
     )
     .optional()
     .catch(undefined),
+  /** Models, load cases, period checks and warnings; absent from analyses made by engine 1.0.0. */
+  ...analysisModelFields,
+  /** Rider accelerations measured with the phone in a seat; absent when none were recorded. */
+  measuredRider: z
+    .array(
+      z.object({
+        recordId: z.string(),
+        seat: z.number().int(),
+        name: z.string(),
+        cutoffHz: z.number(),
+        gxMin: z.number(),
+        gxMax: z.number(),
+        gzMin: z.number(),
+        gzMax: z.number(),
+        limits: z.object({
+          gx: z.object({ min: z.number().optional(), max: z.number().optional() }).optional(),
+          gz: z.object({ min: z.number().optional(), max: z.number().optional() }).optional(),
+        }),
+      }),
+    )
+    .optional()
+    .catch(undefined),
 });
 export type StoredAnalysisView = z.infer<typeof storedAnalysisSchema>;
 
@@ -162,6 +187,21 @@ const recordSchema = z.object({
   preview: devicePreviewSchema.nullable().optional(),
   /** The inspector's declaration at submit; records made before it was asked for have none. */
   declaration: declarationSchema.optional().catch(undefined),
+  /** Ride cycles recorded with the phone: what the desk draws of them. */
+  motionRecords: z
+    .array(
+      z.object({
+        id: z.string(),
+        joint: z.number().int(),
+        seat: z.number().int().nullable(),
+        cycles: z.number().int(),
+        sampleRateHz: z.number(),
+        timeS: z.array(z.number()),
+        rateRadS: z.array(z.number()),
+      }),
+    )
+    .optional()
+    .catch(undefined),
   /** Only what the readings table lacks: the instrument each reading was taken with. */
   readings: z
     .array(

@@ -1,20 +1,22 @@
 /**
  * The ride cycle behind an inspection's load check, recomputed on request for the review desk's charts:
  * the stored analysis keeps only peaks and statuses, the whole cycle is cheap to compute again from the
- * same design-data version and readings. Answered in exactly the shape of POST /api/loads/cycle, so the
+ * same design-data version and readings, by the same analysis (the design's stops included: the envelope
+ * names the case each value comes from). Answered in exactly the shape of POST /api/loads/cycle, so the
  * calculator's result view draws it.
  */
 import { eq } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
-import { analyseInspection } from '@/features/records/analysis';
+import { analyseRecord } from '@/features/records/analysis';
 import { cycleResultToJson, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
 import type { CycleResponse } from '@/features/loads/schema';
 import type { Db } from '@/server/db';
 import { HttpError, notFound } from '@/server/http/errors';
 import type { InspectionHead } from '@/server/findings/findings';
 import { ANALYSIS_SAMPLES } from '@/server/sync/analysis';
+import { templateContentOf } from '@/server/sync/checklist-check';
 
 export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHead): CycleResponse {
   const row = db
@@ -22,6 +24,8 @@ export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHe
       record: inspections.record,
       analysis: inspections.analysis,
       designVersionId: inspections.designVersionId,
+      templateId: inspections.templateId,
+      templateVersion: inspections.templateVersion,
     })
     .from(inspections)
     .where(eq(inspections.id, inspection.id))
@@ -41,7 +45,16 @@ export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHe
     );
   let result;
   try {
-    result = analyseInspection(design.data, row.record.readings, ANALYSIS_SAMPLES);
+    // The stored analysis's own computation: readings, recorded cycles, the design's stops, checklist values.
+    const template = templateContentOf(db, row.templateId, row.templateVersion);
+    const {
+      models: _m,
+      loadCases: _c,
+      governingCase: _g,
+      periodChecks: _p,
+      ...cycle
+    } = analyseRecord(design.data, row.record, template, ANALYSIS_SAMPLES);
+    result = cycle;
   } catch (err) {
     const detail = err instanceof Error ? err.message : String(err);
     throw new HttpError(

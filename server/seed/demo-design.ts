@@ -99,9 +99,14 @@ export const skylarkDesign: DesignData = {
       joint: 0,
       kind: 'swing',
       amplitudeRad: deg(110),
-      periodS: 9.5,
+      // A free pin between drive pushes: the engine swings it from rest at 110° and finds 10.4 s.
+      freeSwing: true,
+      periodS: 10.4,
       maxRateRadS: 1.6,
       maxAmplitudeRad: deg(130),
+      // Demo values: the brake shoes at the bottom of the swing, service and emergency.
+      serviceDecelRadS2: 0.5,
+      emergencyDecelRadS2: 0.65,
     },
     { joint: 1, kind: 'fixed', angleRad: 0 },
   ],
@@ -144,7 +149,17 @@ export const twinCometDesign: DesignData = {
     { body: 0, name: 'Gondola A, seat 1', positionM: [10.2, 0.4], spineAngleRad: Math.PI },
     { body: 0, name: 'Gondola A, seat 3', positionM: [10.2, -0.4], spineAngleRad: Math.PI },
   ],
-  motion: [{ joint: 0, kind: 'constant', rpm: 12, maxRateRadS: 1.4 }],
+  // Demo stop decelerations: 5 s service stop, about 2 s on the emergency brake.
+  motion: [
+    {
+      joint: 0,
+      kind: 'constant',
+      rpm: 12,
+      maxRateRadS: 1.4,
+      serviceDecelRadS2: 0.25,
+      emergencyDecelRadS2: 0.6,
+    },
+  ],
   rider: { gx: { min: -2, max: 2 }, gz: { min: -1.2, max: 4 } },
 };
 
@@ -209,8 +224,16 @@ export const lanternWheelDesign: DesignData = {
   ],
   seats: [{ body: 1, name: 'Gondola 1, bench seat', positionM: [0.3, -1.6], spineAngleRad: Math.PI / 2 }],
   motion: [
-    { joint: 0, kind: 'constant', rpm: 1.2, maxRateRadS: 0.15 },
-    { joint: 1, kind: 'constant', rpm: -1.2 },
+    // Demo stop decelerations; the gondola stops with the wheel, so it stays level.
+    {
+      joint: 0,
+      kind: 'constant',
+      rpm: 1.2,
+      maxRateRadS: 0.15,
+      serviceDecelRadS2: 0.02,
+      emergencyDecelRadS2: 0.05,
+    },
+    { joint: 1, kind: 'constant', rpm: -1.2, serviceDecelRadS2: 0.02, emergencyDecelRadS2: 0.05 },
   ],
   rider: { gx: { min: -0.5, max: 0.5 }, gz: { min: 0, max: 1.5 } },
 };
@@ -295,8 +318,23 @@ export const tidebreakerDesign: DesignData = {
     { body: 2, name: 'Gondola, inner seat', positionM: [-0.9, -0.9], spineAngleRad: Math.PI / 2 },
   ],
   motion: [
-    { joint: 0, kind: 'constant', rpm: 6, maxRateRadS: 0.75 },
-    { joint: 1, kind: 'constant', rpm: -12, maxRateRadS: 1.5 },
+    // Demo stop decelerations: both arms brake together, each from its own speed.
+    {
+      joint: 0,
+      kind: 'constant',
+      rpm: 6,
+      maxRateRadS: 0.75,
+      serviceDecelRadS2: 0.1,
+      emergencyDecelRadS2: 0.25,
+    },
+    {
+      joint: 1,
+      kind: 'constant',
+      rpm: -12,
+      maxRateRadS: 1.5,
+      serviceDecelRadS2: 0.2,
+      emergencyDecelRadS2: 0.5,
+    },
     { joint: 2, kind: 'fixed', angleRad: 0 },
   ],
   rider: { gx: { min: -2.5, max: 2.5 }, gz: { min: -1.5, max: 5 } },
@@ -425,6 +463,9 @@ export const littleKiteDesign: DesignData = {
       periodS: 6.5,
       maxRateRadS: 1.5,
       maxAmplitudeRad: deg(85),
+      // Demo values: driven swing braked by its drive wheels.
+      serviceDecelRadS2: 0.9,
+      emergencyDecelRadS2: 1.5,
     },
   ],
   rider: { gx: { min: -1.5, max: 1.5 }, gz: { min: 0, max: 3.5 } },

@@ -9,7 +9,10 @@ import { and, asc, eq, isNull } from 'drizzle-orm';
 import { inspections, type StoredAnalysis } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
 import { analyseRecord, previewDifferences, previewOf } from '@/features/records/analysis';
+import { measuredRiderOf } from '@/features/records/motion-record';
 import { confirmedOutOfRange } from '@/features/records/plausibility';
+import type { AnalysisModelFields } from '@/features/records/analysis-schema';
+import type { LoadCheckExtras } from '@/features/records/load-check';
 import type { InspectionRecord } from '@/features/records/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
@@ -26,12 +29,13 @@ export const noDesignNote =
   'data and amend the inspection to have it checked.';
 
 export function summariseAnalysis(
-  result: CycleResult,
+  result: CycleResult & Partial<LoadCheckExtras>,
   design: { id: string; version: number },
   device: InspectionRecord['preview'],
 ): StoredAnalysis {
   const server = previewOf(result);
   return {
+    ...storedModelFields(result),
     engineVersion: ENGINE_VERSION,
     designVersionId: design.id,
     designVersion: design.version,
@@ -56,6 +60,17 @@ export function summariseAnalysis(
     server,
     device,
     differences: previewDifferences(device, server),
+  };
+}
+
+/** How the analysis was made: models, load cases (peaks only, no histories), period checks, warnings. */
+function storedModelFields(result: CycleResult & Partial<LoadCheckExtras>): AnalysisModelFields {
+  return {
+    models: result.models,
+    loadCases: result.loadCases?.map(({ run: _run, ...summary }) => summary),
+    governingCase: result.governingCase,
+    periodChecks: result.periodChecks,
+    warnings: result.warnings,
   };
 }
 
@@ -93,6 +108,8 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
       // The reviewer must see that a result rests on a value the inspector confirmed as out of range.
       const confirmed = confirmedOutOfRange(design.data, row.record.readings);
       if (confirmed.length) analysis.confirmedOutOfRange = confirmed;
+      const measuredRider = measuredRiderOf(design.data, row.record.motionRecords);
+      if (measuredRider.length) analysis.measuredRider = measuredRider;
     } catch (err) {
       // Stored as a note rather than retried forever: the same inputs would fail the same way.
       const detail = err instanceof Error ? err.message : String(err);

@@ -90,6 +90,8 @@ describe('a rod braked at constant deceleration from steady rotation (closed for
     expect(force?.ratio).toBeCloseTo(eForce / (1.2 * operatingForce), 6);
     // The rate is a motion item: always the operating cycle's.
     expect(r.envelope.find((e) => e.id === 'joints.0.rate')?.loadCase).toBe('operating');
+    // A stop's torque is the brake's: it is not held against the drive torque limit.
+    expect(r.envelope.find((e) => e.id === 'joints.0.torque')?.loadCase).toBe('operating');
     expect(r.governing).toBe('emergency_stop');
     // The operating result alone is untouched.
     expect(r.operating.envelope.find((e) => e.id === 'joints.0.force')?.value).toBeCloseTo(operatingForce, 3);

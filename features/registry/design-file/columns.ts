@@ -54,6 +54,9 @@ export const DESIGN_CSV_COLUMNS = [
   'angle_rad',
   'max_rate_rad_s',
   'max_amplitude_rad',
+  'free_swing',
+  'service_decel_rad_s2',
+  'emergency_decel_rad_s2',
   'axis',
   'min_g',
   'max_g',
@@ -69,11 +72,11 @@ export type Cells = Partial<Record<DesignCsvColumn, string>>;
 /**
  * One field of a record and the cell(s) holding it. `text` is kept as typed (names, document); `word` is
  * trimmed and lower-cased (kinds, shear, facing); `index` is a body or joint number; `number` a value in SI
- * units; `pair` an [x, y] over two columns. An optional field is left out of the data when its cells are
+ * units; `flag` yes or no (true/false); `pair` an [x, y] over two columns. An optional field is left out of the data when its cells are
  * empty; a required one is reported as "Required".
  */
 export type FieldColumn =
-  | { field: string; column: DesignCsvColumn; read: 'text' | 'word' | 'number'; optional: boolean }
+  | { field: string; column: DesignCsvColumn; read: 'text' | 'word' | 'number' | 'flag'; optional: boolean }
   | { field: string; column: 'body' | 'joint'; read: 'index'; optional: false }
   | { field: string; column: readonly [DesignCsvColumn, DesignCsvColumn]; read: 'pair'; optional: boolean };
 
@@ -100,6 +103,12 @@ const number = (field: string, column: DesignCsvColumn, optional = false): Field
   column,
   read: 'number',
   optional,
+});
+const flag = (field: string, column: DesignCsvColumn): FieldColumn => ({
+  field,
+  column,
+  read: 'flag',
+  optional: true,
 });
 const pair = (field: string, x: DesignCsvColumn, y: DesignCsvColumn, optional = false): FieldColumn => ({
   field,
@@ -148,6 +157,9 @@ export const recordFields: Record<RecordKind, readonly FieldColumn[]> = {
     number('angleRad', 'angle_rad', OPTIONAL),
     number('maxRateRadS', 'max_rate_rad_s', OPTIONAL),
     number('maxAmplitudeRad', 'max_amplitude_rad', OPTIONAL),
+    flag('freeSwing', 'free_swing'),
+    number('serviceDecelRadS2', 'service_decel_rad_s2', OPTIONAL),
+    number('emergencyDecelRadS2', 'emergency_decel_rad_s2', OPTIONAL),
   ],
   rider: [number('min', 'min_g', OPTIONAL), number('max', 'max_g', OPTIONAL)],
 };
@@ -200,6 +212,7 @@ export function cellsOf(fields: readonly FieldColumn[], value: Record<string, un
       cells[f.column[0]] = numberText(xy?.[0]);
       cells[f.column[1]] = numberText(xy?.[1]);
     } else if (f.read === 'number') cells[f.column] = numberText(v as number | undefined);
+    else if (f.read === 'flag') cells[f.column] = v === undefined ? '' : v ? 'yes' : 'no';
     else cells[f.column] = v === undefined ? '' : String(v);
   }
   return cells;

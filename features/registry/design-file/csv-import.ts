@@ -213,6 +213,15 @@ function rowReader(row: number, cells: string[], columnIndex: Map<DesignCsvColum
     }
     return [a, b];
   };
+  /** yes/no (or true/false); empty leaves the field out. */
+  const flagAt = (c: DesignCsvColumn): boolean | undefined => {
+    const raw = text(c).toLowerCase();
+    if (raw === '') return undefined;
+    if (raw === 'yes' || raw === 'true') return true;
+    if (raw === 'no' || raw === 'false') return false;
+    at(row, c, `"${text(c)}" is not yes or no`);
+    return undefined;
+  };
   const valueOf = (f: FieldColumn): unknown => {
     switch (f.read) {
       case 'text':
@@ -225,6 +234,8 @@ function rowReader(row: number, cells: string[], columnIndex: Map<DesignCsvColum
         return indexAt(f.column);
       case 'number':
         return numberAt(f.column, !f.optional);
+      case 'flag':
+        return flagAt(f.column);
       case 'pair':
         return pair(f.column[0], f.column[1], !f.optional);
     }
