@@ -17,6 +17,7 @@ import type { Chain } from '@/features/loads/engine/chain';
 import type { CycleWarning } from '@/features/loads/engine/cycle-types';
 import { type DenseSegment, Dopri5, denseState, denseValue } from '@/features/loads/engine/dopri5';
 import {
+  type FreeAccelerations,
   FreeMotionError,
   freeAccelerations,
   measuredSpanS,
@@ -164,9 +165,38 @@ export function integrateFreeMotion(
       ['durationS'],
     );
   }
-  const starts = new Float64Array(segments.map((s) => s.t0));
+  return {
+    free,
+    periodS,
+    turns,
+    cycleS,
+    endS,
+    steps: stepper.steps,
+    rejected: stepper.rejected,
+    evaluations: stepper.evaluations,
+    sample: denseSampler(profiles, free, segments, endS, accelerate, n),
+    warnings: (durationS) => freeWarnings(chain.names, watches, endS, durationS),
+  };
+}
 
-  const sample = (times: Float64Array, q: Float64Array, qd: Float64Array, qdd: Float64Array) => {
+/**
+ * Samples the whole chain: prescribed joints from their profiles, free ones from the dense output, and
+ * the free accelerations recomputed from the dynamics there (so the free torque is 0 to round-off).
+ */
+function denseSampler(
+  profiles: readonly MotionProfile[],
+  free: readonly number[],
+  segments: readonly DenseSegment[],
+  endS: number,
+  accelerate: FreeAccelerations,
+  n: number,
+): FreeMotion['sample'] {
+  const nf = free.length;
+  const starts = new Float64Array(segments.map((s) => s.t0));
+  const Q = new Float64Array(n);
+  const QD = new Float64Array(n);
+  const QDD = new Float64Array(n);
+  return (times, q, qd, qdd) => {
     profiles.forEach((p, i) => {
       if (p.kind !== 'free') sampleProfile(p, times, i, n, q, qd, qdd);
     });
@@ -196,51 +226,45 @@ export function integrateFreeMotion(
       }
     }
   };
+}
 
-  const warnings = (durationS: number): CycleWarning[] =>
-    watches.flatMap((w): CycleWarning[] => {
-      const name = chain.names[w.joint];
-      if (w.at === null)
-        return [
-          {
-            code: 'free-period-none',
-            level: 'warning',
-            joint: w.joint,
-            message: `Free joint (${name}): ${reasonNone(w)} over ${fmtS(endS)} s of integration, so no period is reported`,
-          },
-        ];
-      const list: CycleWarning[] = [
+/** Each free joint's period as the person reads it, for a cycle of the given length. */
+function freeWarnings(
+  names: readonly string[],
+  watches: readonly Watch[],
+  endS: number,
+  durationS: number,
+): CycleWarning[] {
+  return watches.flatMap((w): CycleWarning[] => {
+    const name = names[w.joint];
+    if (w.at === null)
+      return [
         {
-          code: 'free-period',
-          level: 'info',
-          joint: w.joint,
-          message: w.turn
-            ? `Free rotation (${name}): one turn takes ${fmtS(w.at)} s, found by integration`
-            : `Free swing (${name}): period ${fmtS(w.at)} s found by integration`,
-        },
-      ];
-      if (durationS < w.at * (1 - 1e-6))
-        list.push({
-          code: 'free-cycle-short',
+          code: 'free-period-none',
           level: 'warning',
           joint: w.joint,
-          message: `The cycle analysed (${fmtS(durationS)} s) is shorter than the free ${w.turn ? 'turn' : 'swing'} of ${name} (${fmtS(w.at)} s): its peaks may be missed`,
-        });
-      return list;
-    });
-
-  return {
-    free,
-    periodS,
-    turns,
-    cycleS,
-    endS,
-    steps: stepper.steps,
-    rejected: stepper.rejected,
-    evaluations: stepper.evaluations,
-    sample,
-    warnings,
-  };
+          message: `Free joint (${name}): ${reasonNone(w)} over ${fmtS(endS)} s of integration, so no period is reported`,
+        },
+      ];
+    const list: CycleWarning[] = [
+      {
+        code: 'free-period',
+        level: 'info',
+        joint: w.joint,
+        message: w.turn
+          ? `Free rotation (${name}): one turn takes ${fmtS(w.at)} s, found by integration`
+          : `Free swing (${name}): period ${fmtS(w.at)} s found by integration`,
+      },
+    ];
+    if (durationS < w.at * (1 - 1e-6))
+      list.push({
+        code: 'free-cycle-short',
+        level: 'warning',
+        joint: w.joint,
+        message: `The cycle analysed (${fmtS(durationS)} s) is shorter than the free ${w.turn ? 'turn' : 'swing'} of ${name} (${fmtS(w.at)} s): its peaks may be missed`,
+      });
+    return list;
+  });
 }
 
 /**
