@@ -85,6 +85,15 @@ test.each([
     { bodies: [swing], profiles: [{ kind: 'free', angleRad: -Math.PI / 2 }] },
   ],
   [
+    'a free swing too fast to integrate over a day-long cycle',
+    'durationS',
+    {
+      bodies: [{ ...swing, cgM: [0.05, 0], inertiaCgKgM2: 0 }],
+      profiles: [{ kind: 'free', angleRad: 1 }],
+      durationS: 86_400,
+    },
+  ],
+  [
     'a free angle that is not a number',
     'profiles.0.angleRad',
     { bodies: [swing], profiles: [{ kind: 'free', angleRad: 'down' }] },

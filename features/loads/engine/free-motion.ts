@@ -133,7 +133,7 @@ export function integrateFreeMotion(
         throw new FreeMotionError(
           `The free motion needs more than ${MAX_STEPS.toLocaleString('en')} integration steps before ` +
             `${mustReach} s: shorten the cycle or check the bodies`,
-          ['profiles', free[0]],
+          ['durationS'],
         );
       }
       const seg = stepper.step(searchEnd);
