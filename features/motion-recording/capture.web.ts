@@ -30,15 +30,19 @@ export async function askMotionPermission(): Promise<string | null> {
 /** Calls `onSample` for every reading until the returned function is called. */
 export function startMotionCapture(onSample: (s: SensorSample) => void, onNoGyro: () => void): () => void {
   let start: number | null = null;
-  let warned = false;
+  let got = 0;
+  let without = 0;
   const handler = (e: DeviceMotionEvent) => {
-    if (start === null) start = e.timeStamp;
-    const sample = fromWebMotion(e, start);
-    if (sample) onSample(sample);
-    else if (!warned) {
-      warned = true;
-      onNoGyro();
-    }
+    const sample = fromWebMotion(e, start ?? e.timeStamp);
+    if (sample) {
+      if (start === null) {
+        start = e.timeStamp;
+        sample.tS = 0;
+      }
+      got++;
+      onSample(sample);
+      // A browser may send an empty event or two of its own before the sensor's: only a run of them counts.
+    } else if (got === 0 && ++without === 20) onNoGyro();
   };
   window.addEventListener('devicemotion', handler);
   return () => window.removeEventListener('devicemotion', handler);

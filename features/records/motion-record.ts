@@ -94,13 +94,13 @@ export function motionRecordWarnings(
 ): CycleWarning[] {
   const out: CycleWarning[] = [];
   for (const r of records ?? []) {
-    const pivot = `Pivot ${r.joint + 1}`;
     if (r.joint >= design.bodies.length)
       out.push({
         code: 'motion_record_unused',
         level: 'warning',
         joint: r.joint,
-        message: `${pivot} is not in this ride's design data: the motion recorded with the phone was not used.`,
+        message:
+          'This pivot is not in the ride’s design data: the motion recorded with the phone was not used.',
       });
     else if (r.parentRateRadS === null)
       out.push({
@@ -108,7 +108,7 @@ export function motionRecordWarnings(
         level: 'warning',
         joint: r.joint,
         message:
-          `${pivot}: the phone measured the body's rate over the ground, and the pivot below it does not ` +
+          'The phone measured the body’s rate over the ground, and a pivot below it does not ' +
           'turn steadily, so its own rate could not be taken off. The design motion was used for this pivot.',
       });
     else
@@ -117,7 +117,7 @@ export function motionRecordWarnings(
         level: 'info',
         joint: r.joint,
         message:
-          `${pivot} runs the motion recorded with the phone: ${r.cycles} whole cycle${r.cycles === 1 ? '' : 's'} ` +
+          `Runs the motion recorded with the phone: ${r.cycles} whole cycle${r.cycles === 1 ? '' : 's'} ` +
           `at ${Math.round(r.sampleRateHz)} samples a second (uncalibrated phone sensors).`,
       });
   }

@@ -12,6 +12,7 @@ import { RoleGate } from '@/features/auth/ui';
 import { useDesignVersionQuery, useRideQuery } from '@/features/registry/ui';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { AnalysisFacts } from '@/features/review/analysis-facts';
+import { LoadCheckBasis } from '@/features/records/ui';
 import { ChecklistResults } from '@/features/review/checklist-results';
 import { CycleCharts } from '@/features/review/cycle-charts';
 import { DecisionPanel } from '@/features/review/decision-panel';
@@ -22,6 +23,7 @@ import { InspectionHeader, ReviewStateMark } from '@/features/review/inspection-
 import type { InspectionDetail, InspectionPhoto } from '@/features/review/inspection-schema';
 import { PhotoGallery, PhotoViewer } from '@/features/review/photo-gallery';
 import { LimitsSection, ReadingsTable } from '@/features/review/readings-table';
+import { MotionRecordSection } from '@/features/review/motion-record-section';
 import { pivotName } from '@/features/review/review-format';
 import { TrailList } from '@/features/review/trail-list';
 import { TrendsPanel } from '@/features/review/trends-panel';
@@ -89,9 +91,19 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
       <Section title="Against the design limits">
         <LimitsSection inspection={inspection} pivots={pivots} system={system} />
       </Section>
+      {inspection.analysis ? (
+        <Section title="How the load check was made">
+          <LoadCheckBasis {...inspection.analysis} system={system} />
+        </Section>
+      ) : null}
       <Section title="Readings">
         <ReadingsTable readings={withInstruments(inspection)} pivots={pivots} system={system} />
       </Section>
+      {inspection.record.motionRecords?.length || inspection.analysis?.measuredRider?.length ? (
+        <Section title="Recorded with the phone">
+          <MotionRecordSection inspection={inspection} system={system} />
+        </Section>
+      ) : null}
     </>
   );
 
