@@ -60,7 +60,6 @@ export type BodyRow = {
 };
 
 const CALCULATOR_SAMPLES = 720;
-const MAX_CALCULATOR_SAMPLES = 20_000;
 
 export const motionKindLabel: Record<MotionKind, string> = {
   constant: 'Steady speed',
@@ -285,18 +284,18 @@ function withStops(request: unknown, rows: MotionRow[], issues: Issue[]): Calcul
 }
 
 /**
- * A measured record is analysed at least at its own sampling, so no peak between the calculator's
- * instants is missed; other motion is smooth and 720 instants (every half degree of a turn) see its peaks.
+ * Smooth motion is seen at 720 instants (every half degree of a turn); a measured record is left to the
+ * engine, which samples the cycle as densely as the record was taken.
  */
-function samplesFor(profiles: readonly MotionProfile[]): number {
-  const longest = Math.max(0, ...profiles.map((p) => (p.kind === 'measured' ? p.timeS.length : 0)));
-  return Math.min(MAX_CALCULATOR_SAMPLES, Math.max(CALCULATOR_SAMPLES, longest));
+function samplesFor(profiles: readonly MotionProfile[]): number | undefined {
+  return profiles.some((p) => p.kind === 'measured') ? undefined : CALCULATOR_SAMPLES;
 }
 
 /** The request for a registered ride: its design chain and envelope, with the motion as entered. */
 export function rideRequest(design: DesignData, motion: MotionRow[]): CalculatorRequest {
   const { profiles, issues } = profilesFromRows(motion);
-  return withStops(designToCycleInput(design, { profiles }, samplesFor(profiles)), motion, issues);
+  const input = designToCycleInput(design, { profiles });
+  return withStops({ ...input, samples: samplesFor(profiles) }, motion, issues);
 }
 
 /** The request for a chain typed in by hand: no envelope, so no statuses beyond the raw results. */

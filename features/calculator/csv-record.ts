@@ -147,13 +147,22 @@ function clip(line: string): string {
   return line.length > 40 ? `${line.slice(0, 40)}…` : line;
 }
 
-/** A short account of a good record for the screen: samples, span and mean sample rate. */
+/**
+ * A short account of a good record for the screen: samples, span and sample rate. The rate is the median
+ * interval's, so a gap or a stutter does not make the logger's rate read wrong.
+ */
 export function describeRecord(record: Extract<ParsedRecord, { ok: true }>): {
   samples: number;
   spanS: number;
   rateHz: number;
 } {
-  const n = record.timeS.length;
-  const spanS = record.timeS[n - 1] - record.timeS[0];
-  return { samples: n, spanS, rateHz: spanS > 0 ? (n - 1) / spanS : 0 };
+  const t = record.timeS;
+  const n = t.length;
+  const steps = t
+    .slice(1)
+    .map((v, i) => v - t[i])
+    .sort((a, b) => a - b);
+  const mid = steps.length >> 1;
+  const median = steps.length % 2 ? steps[mid] : (steps[mid - 1] + steps[mid]) / 2;
+  return { samples: n, spanS: t[n - 1] - t[0], rateHz: median > 0 ? 1 / median : 0 };
 }

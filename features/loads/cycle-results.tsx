@@ -58,7 +58,7 @@ export function CycleResults({
           {ENGINE_VERSION}
         </Text>
         {freeSwings.map((f) => (
-          <Text key={f.i} variant="figure">
+          <Text key={f.i}>
             Pivot {f.i + 1} · {f.name} swings freely:{' '}
             {f.periodS === null
               ? 'no period found within the cycle'

@@ -3,10 +3,12 @@
  * Reference values: uniform slender rod driven at constant speed in a vertical plane (standard
  * rigid-body result, e.g. Meriam & Kraige, Dynamics; from memory): peak pin force mg + m·ω²·L/2.
  */
+import { rodDesign } from '@/tests/support/rod-design';
 import {
   type MotionRow,
   manualRequest,
   motionRowFromDesign,
+  rideRequest,
   newMotion,
   profileFromRow,
   runCalculator,
@@ -213,6 +215,10 @@ test('the same record with seeded noise of 0.05° at 100 Hz, smoothed automatica
   );
   if (!out.ok) throw new Error(JSON.stringify(out.issues));
   expect(Math.abs(out.result.joints[0].peakForce.value - truth) / truth).toBeLessThan(0.03);
+  // The smoothing actually used comes back with the result, to be shown beside it.
+  expect(out.result.warnings).toContainEqual(
+    expect.objectContaining({ code: 'smoothing', joint: 0, level: 'info' }),
+  );
 });
 
 test('a rate record in rpm of a steady turn gives m·g + m·ω²·L/2 (textbook), a typed cut-off reaches the engine', () => {
@@ -329,4 +335,26 @@ test('a design that marks a free swing and gives stops is prefilled so: free fro
     rpm: '8',
     serviceStop: '',
   });
+});
+
+test('a registered ride with an emergency stop in its design data: prefilled, run, and the governing case named', () => {
+  // The textbook rod as design data (tests/support/rod-design.ts): 6 rpm, pivot force limit 20 kN.
+  const design = rodDesign(200, 4);
+  // A generous rate limit, so the force is the line using most of its allowance.
+  design.motion[0] = { ...design.motion[0], maxRateRadS: 20, emergencyDecelRadS2: 3 };
+  const rows = design.motion.map((m) => motionRowFromDesign(m));
+  expect(rows[0].emergencyStop).toBe('3');
+  const out = runCalculator(rideRequest(design, rows));
+  if (!out.ok) throw new Error(JSON.stringify(out.issues));
+  const r = 2;
+  const w = (6 * 2 * Math.PI) / 60;
+  // Braking at 3 rad/s² adds m·r·α = 1.2 kN at right angles to m·r·ω² (fixed-axis kinetics), so the stop
+  // governs the pivot force: m·(g + r·√(ω⁴ + α²)) against m·(g + r·ω²) running.
+  const stopForce = 200 * (g + r * Math.hypot(w * w, 3));
+  const force = out.result.envelope.find((e) => e.id === 'joints.0.force');
+  expect(force?.loadCase).toBe('emergency_stop');
+  expect(Math.abs((force?.value ?? 0) - stopForce) / stopForce).toBeLessThan(1e-3);
+  expect(out.cases?.governing).toBe('emergency_stop');
+  // The rate limit is the operating cycle's: a stop only slows the ride.
+  expect(out.result.envelope.find((e) => e.id === 'joints.0.rate')?.loadCase).toBe('operating');
 });

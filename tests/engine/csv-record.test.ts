@@ -91,11 +91,18 @@ test('a long wrong file lists only its first five bad lines', () => {
   if (!r.ok) expect(r.problems.map((p) => p.line)).toEqual([2, 3, 4, 5, 6]);
 });
 
-test('the account of a record: samples, span and mean sample rate', () => {
+test('the account of a record: samples, span and the sample rate of its usual interval', () => {
   const text = Array.from({ length: 101 }, (_, i) => `${i / 50},${i}`).join('\n');
   const r = ok(parseRecord(text, 'angle_deg'));
   const d = describeRecord(r);
   expect(d.samples).toBe(101);
   expect(d.spanS).toBeCloseTo(2, 12);
   expect(d.rateHz).toBeCloseTo(50, 9);
+});
+
+test('a gap in a record does not change the sample rate it is said to have', () => {
+  const rows = Array.from({ length: 201 }, (_, i) => i / 100).filter((t) => t < 1 || t >= 1.5);
+  const r = ok(parseRecord(rows.map((t) => `${t},1`).join('\n'), 'rate_rpm'));
+  expect(describeRecord(r).rateHz).toBeCloseTo(100, 6);
+  expect(describeRecord(r).spanS).toBeCloseTo(2, 12);
 });
