@@ -5,7 +5,7 @@
  * stored. Per-record answers: accepted/duplicate → accepted; rejected → kept with the server's reasons;
  * no answer → queued again in a new batch. A failed request puts the whole batch back in the queue.
  */
-import { asc, eq, inArray } from 'drizzle-orm';
+import { asc, eq, inArray, sql } from 'drizzle-orm';
 
 import { type OutboxRow, outbox } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db';
@@ -22,6 +22,11 @@ import {
 } from '@/features/sync/outbox-machine';
 
 export const MAX_BATCH = 50;
+/**
+ * A batch also stops growing at this many characters of JSON (one record always goes): records carrying ride
+ * cycles recorded with the phone are large, and the server takes at most 16 MB per push.
+ */
+export const MAX_BATCH_BYTES = 8_000_000;
 
 type PushOptions = {
   newId: () => string;
@@ -83,6 +88,7 @@ async function claimBatch(
           state: outbox.state,
           batchId: outbox.batchId,
           nextAttemptAt: outbox.nextAttemptAt,
+          bytes: sql<number>`length(${outbox.json})`,
         })
         .from(outbox)
         .where(inArray(outbox.state, ['queued', 'sending']))
@@ -95,10 +101,9 @@ async function claimBatch(
     const batchId = resend?.batchId ?? opts.newId();
     const ids = resend
       ? candidates.filter((c) => c.batchId === batchId).map((c) => c.id)
-      : candidates
-          .filter((c) => c.batchId === null)
-          .slice(0, opts.size)
-          .map((c) => c.id);
+      : withinBytes(candidates.filter((c) => c.batchId === null).slice(0, opts.size), MAX_BATCH_BYTES).map(
+          (c) => c.id,
+        );
 
     const rows = await tx.db
       .select()
@@ -112,6 +117,18 @@ async function claimBatch(
     }
     return { batchId, rows };
   });
+}
+
+/** The leading rows whose JSON adds up to at most `limit` characters, and always the first. */
+function withinBytes<T extends { bytes: number }>(rows: T[], limit: number): T[] {
+  let total = 0;
+  const out: T[] = [];
+  for (const r of rows) {
+    total += Number(r.bytes) || 0;
+    if (out.length > 0 && total > limit) break;
+    out.push(r);
+  }
+  return out;
 }
 
 async function settle(
