@@ -145,7 +145,11 @@ function PivotLoadsTable({ result, system, xAxis }: Props) {
         {
           key: 'torque',
           title: 'Peak torque',
-          render: ({ j }) => formatValue(Math.abs(j.peakTorque.value), 'moment', system),
+          // A free pin carries no torque; the integrator's round-off is not a value to read.
+          render: ({ j }) =>
+            j.freePeriodS !== undefined
+              ? 'None: free pin'
+              : formatValue(Math.abs(j.peakTorque.value), 'moment', system),
           numeric: true,
         },
       ]}

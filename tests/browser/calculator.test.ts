@@ -132,3 +132,30 @@ test('desk: the record picked as a .csv file, with an emergency stop, shows the 
   await screenshot(page, 'calculator-desktop-measured-warnings');
   await page.context().close();
 });
+
+test('a registered ride: its free swing and stops come from its design data, the result names the governing case', async () => {
+  for (const size of ['desktop', 'phone'] as const) {
+    const page = await app.signedIn(size, 'inspector@pivotwatch.test');
+    await page.waitForURL((url) => url.pathname !== '/sign-in');
+    await page.goto(`${app.baseUrl}/loads`);
+    // Skylark (demo data): a pendulum ride whose design marks the arm as a free swing of 110° with a
+    // service stop of 0.5 rad/s² and an emergency stop of 0.65 rad/s².
+    await page.getByRole('radio', { name: 'Skylark' }).click();
+    const arm = page.getByRole('radiogroup', { name: 'Joint 1 · Main arm motion' });
+    await arm.waitFor();
+    expect(await arm.getByRole('radio', { name: 'Free swing' }).getAttribute('aria-checked')).toBe('true');
+    expect(await page.getByLabel('Start angle').inputValue()).toBe('110');
+    expect(await page.getByLabel('Service stop').first().inputValue()).toBe('0.5');
+    expect(await page.getByLabel('Emergency stop').first().inputValue()).toBe('0.65');
+    const period = page.getByText(/^Pivot 1 · Main arm swings freely: period /);
+    await period.waitFor({ timeout: 60_000 });
+    const cases = page.getByLabel('Load cases');
+    await cases.getByText('Emergency stop').first().waitFor();
+    await page.getByText(/^Governing case: /).waitFor();
+    await period.scrollIntoViewIfNeeded();
+    await screenshot(page, `calculator-${size}-ride-free-stops`);
+    await cases.scrollIntoViewIfNeeded();
+    await screenshot(page, `calculator-${size}-ride-cases`);
+    await page.context().close();
+  }
+});
