@@ -49,7 +49,9 @@ import { unstatedMethodProblems } from '@/features/instruments';
 import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/ui';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import { measuredSources } from '@/features/loads';
+import { ENGINE_VERSION } from '@/features/loads/engine';
 import { CycleResults } from '@/features/loads/ui';
+import { LoadCheckBasis } from '@/features/records/ui';
 import { MeasuredRiderTable, MotionRecorder } from '@/features/motion-recording/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
@@ -243,7 +245,18 @@ function LoadCheck({
         system={system}
         xAxis={result.joints[0] && design?.motion[0]?.kind === 'constant' ? 'angle' : 'time'}
         sources={measuredSources(draft)}
+        cases={
+          result.loadCases.length > 1 ? { cases: result.loadCases, governing: result.governingCase } : null
+        }
       />
+      <Card>
+        <LoadCheckBasis
+          models={result.models}
+          periodChecks={result.periodChecks}
+          engineVersion={ENGINE_VERSION}
+          system={system}
+        />
+      </Card>
       {design ? (
         <MeasuredRiderTable
           measured={measuredRiderOf(design, draft.motionRecords)}

@@ -57,6 +57,8 @@ export const noticeDocumentSchema = z.object({
       inspectorCredential: z.string().nullable(),
       designVersion: z.number().int().nullable(),
       engineVersion: z.string().nullable(),
+      /** The load case that governs the envelope ("Emergency stop"); absent from older notices. */
+      governingCase: z.string().nullable().optional(),
     })
     .nullable(),
   /** Readings and computed values against their design limits, formatted with units (SI). */

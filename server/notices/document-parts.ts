@@ -9,6 +9,7 @@ import { inspectionPhotos, inspections } from '@/db/server/inspections';
 import { findings } from '@/db/server/review';
 import { companies, rides, sites, users } from '@/db/server/schema';
 import { formatEnvelopeItem, measuredSources, sortByConcern } from '@/features/loads/format';
+import { LOAD_CASE_LABEL } from '@/features/loads/load-cases';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
@@ -168,6 +169,7 @@ export function inspectionPart(tx: Reader, inspectionId: string) {
       inspectorCredential: null,
       designVersion: row.analysis?.designVersion ?? null,
       engineVersion: row.analysis?.engineVersion ?? null,
+      governingCase: row.analysis?.governingCase ? LOAD_CASE_LABEL[row.analysis.governingCase] : null,
     },
     results: row.analysis ? resultsOf(row.analysis.envelope, measuredSources(row.record)) : [],
   };

@@ -15,6 +15,7 @@ import { designVersions, users } from '@/db/server/schema';
 import { CAUTION_FULL } from '@/lib/caution-text';
 import { appLink, noticePath } from '@/lib/paths';
 import { formatBesideLimit, measuredSources } from '@/features/loads/format';
+import { LOAD_CASE_LABEL } from '@/features/loads/load-cases';
 import { noticeDocumentSchema, type NoticeDocument } from '@/features/notices/schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { rideClassLabel } from '@/features/rides/schema';
@@ -242,6 +243,7 @@ export function issueInspectionNotice(
       inspectorCredential: null,
       designVersion: analysis?.designVersion ?? null,
       engineVersion: analysis?.engineVersion ?? null,
+      governingCase: analysis?.governingCase ? LOAD_CASE_LABEL[analysis.governingCase] : null,
     },
     results: analysis ? resultsOf(analysis.envelope, measuredSources(inspection.record)) : [],
     loadSummary: (analysis?.joints ?? []).map((j, joint) => {

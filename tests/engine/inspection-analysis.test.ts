@@ -7,6 +7,7 @@ import { analyseInspection, previewDifferences, previewOf } from '@/features/rec
 import { addReading, answerItem, draftProblems, newDraft, toRecord } from '@/features/records/draft';
 import type { Reading } from '@/features/records/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
+import type { DesignData } from '@/features/loads/design-schema';
 
 import { rodDesign } from '@/tests/support/rod-design';
 
@@ -149,4 +150,93 @@ test('a draft cannot be submitted until every item is answered, failures explain
   expect(record.templateVersion).toBe(1);
   expect(record.readings).toHaveLength(1);
   expect(record.submittedAt).toBe('2026-12-01T09:30:00.000Z');
+});
+
+/**
+ * A free-swinging rod (pendulum arm drawn along −y, so a swing centred on 0 hangs down). Reference: the
+ * free rigid pendulum's exact period 4·√(I_O/(m·g·r_G))·K(sin(A/2)), K the complete elliptic integral of
+ * the first kind computed by the arithmetic–geometric mean, and the pin force at the bottom
+ * m·g + m·r_G·ω² with ω² = 2·m·g·r_G·(1 − cos A)/I_O from energy (any dynamics textbook; from memory).
+ */
+describe('a ride whose design marks the swing as free', () => {
+  const A = 1.4;
+  const pendulum: DesignData = {
+    ...rodDesign(m, L, 'Free pendulum'),
+    parts: [{ kind: 'rod', body: 0, name: 'Arm', massKg: m, fromM: [0, 0], toM: [0, -L] }],
+    motion: [
+      {
+        joint: 0,
+        kind: 'swing',
+        amplitudeRad: 1.2,
+        periodS: 4.5,
+        freeSwing: true,
+        serviceDecelRadS2: 1.5,
+        emergencyDecelRadS2: 2.5,
+      },
+    ],
+  };
+  pendulum.pivots = [{ ...pendulum.pivots[0], maxForceN: 20_000, maxTorqueNm: 1e6 }];
+  const IO = (m * L * L) / 3;
+  const rG = L / 2;
+  const agm = (a: number, b: number) => {
+    while (Math.abs(a - b) > 1e-15 * a) [a, b] = [(a + b) / 2, Math.sqrt(a * b)];
+    return a;
+  };
+  const K = (k: number) => Math.PI / (2 * agm(1, Math.sqrt(1 - k * k)));
+  const exactPeriod = 4 * Math.sqrt(IO / (m * g * rG)) * K(Math.sin(A / 2));
+  const amplitude = reading({ kind: 'amplitude', valueSI: A, unit: '°' });
+
+  test('an amplitude reading runs the free swing from rest: exact period and bottom pin force', () => {
+    const r = analyseInspection(pendulum, [amplitude], 2001);
+    expect(r.models).toEqual([{ joint: 0, name: 'Rod', model: 'free_swing', source: 'readings' }]);
+    expect(r.joints[0].freePeriodS).toBeCloseTo(exactPeriod, 5);
+    const omega2 = (2 * m * g * rG * (1 - Math.cos(A))) / IO;
+    // Sampled near the bottom: within 1e-4 of the exact peak, never above it.
+    expect(r.joints[0].peakForce.value / (m * g + m * rG * omega2)).toBeCloseTo(1, 4);
+    // A free pin carries no torque.
+    expect(Math.abs(r.joints[0].peakTorque.value)).toBeLessThan(1e-6 * m * g * L);
+  });
+
+  test('the computed period is compared with a measured one: a warning beyond 5 %, a note within', () => {
+    const slow = analyseInspection(pendulum, [
+      amplitude,
+      reading({ kind: 'period', valueSI: exactPeriod * 1.08 }),
+    ]);
+    expect(slow.periodChecks).toHaveLength(1);
+    expect(slow.periodChecks[0].difference).toBeCloseTo(1 / 1.08 - 1, 4);
+    expect(slow.periodChecks[0].amplitudeFrom).toBe('readings');
+    const warning = slow.warnings.find((w) => w.code === 'period_check');
+    expect(warning?.level).toBe('warning');
+    expect(warning?.message).toMatch(/dragging bearing, a drive fault or wrong design data/);
+
+    const close = analyseInspection(pendulum, [
+      amplitude,
+      reading({ kind: 'period', valueSI: exactPeriod * 1.02 }),
+    ]);
+    expect(close.warnings.find((w) => w.code === 'period_check')?.level).toBe('info');
+  });
+
+  test('a period reading alone swings from the design amplitude and says so', () => {
+    const r = analyseInspection(pendulum, [reading({ kind: 'period', valueSI: 4 })]);
+    expect(r.models[0]).toMatchObject({ model: 'free_swing', source: 'design' });
+    expect(r.periodChecks[0].amplitudeFrom).toBe('design');
+  });
+
+  test('without the free mark the same reading is a harmonic swing, with no period check', () => {
+    const harmonic: DesignData = { ...pendulum, motion: [{ ...pendulum.motion[0], freeSwing: undefined }] };
+    const r = analyseInspection(harmonic, [amplitude, reading({ kind: 'period', valueSI: 4 })]);
+    expect(r.models[0]).toMatchObject({ model: 'harmonic_swing', source: 'readings' });
+    expect(r.periodChecks).toEqual([]);
+  });
+
+  test('every analysis includes the design’s stops; the envelope names the case of each value', () => {
+    const r = analyseInspection(pendulum, [amplitude]);
+    expect(r.loadCases.map((c) => c.kind)).toEqual(['operating', 'service_stop', 'emergency_stop']);
+    const force = r.envelope.find((e) => e.id === 'joints.0.force');
+    const worst = Math.max(...r.loadCases.map((c) => c.joints[0].peakForceN));
+    expect(force?.value).toBe(worst);
+    expect(force?.loadCase).toBe(r.loadCases.find((c) => c.joints[0].peakForceN === worst)?.kind);
+    // The phone's preview carries the merged status, so phone and server agree on it.
+    expect(previewOf(r).status).toBe(r.status);
+  });
 });

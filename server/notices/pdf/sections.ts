@@ -131,6 +131,7 @@ export function inspectionPairs(n: NoticeDocument): { left: Pair[]; right: Pair[
     right: [
       ['Design data', i.designVersion === null ? 'Not recorded' : `Version ${i.designVersion}`],
       ['Load engine', i.engineVersion === null ? 'Not recorded' : `Version ${i.engineVersion}`],
+      ...(i.governingCase ? ([['Governing case', i.governingCase]] as Pair[]) : []),
       ['Checklist', checklist],
     ],
   };
