@@ -25,7 +25,7 @@ const PHASE = 4.4;
 const DURATION_S = 16;
 
 /** Feeds the page a swing for `seconds`, dispatching events from a timer as a phone's sensors would. */
-async function feedSwing(page: Page, seat: [number, number]) {
+async function feedSwing(page: Page, seat: [number, number], durationS = DURATION_S) {
   await page.evaluate(
     ({ A, T, PHASE, DURATION_S, seat }) =>
       new Promise<void>((resolve) => {
@@ -59,7 +59,7 @@ async function feedSwing(page: Page, seat: [number, number]) {
           );
         }, 16);
       }),
-    { A, T, PHASE, DURATION_S, seat },
+    { A, T, PHASE, DURATION_S: durationS, seat },
   );
 }
 
@@ -185,4 +185,37 @@ test('a swing recorded with the phone is trimmed, analysed offline, sent, and sh
   await screenshot(desk, 'motion-recording-review-desk');
   await desk.getByLabel('Recorded rate of pivot 1').waitFor();
   await desk.context().close();
+});
+
+test('on a wide screen: too short a recording is refused in plain words, a longer one is kept', async () => {
+  const page = await app.signedIn('desktop', 'inspector@pivotwatch.test');
+  await page.waitForURL('**/today');
+  await startPeriodicInspection(page, 'Little Kite');
+  await page.getByRole('radio', { name: 'Readings' }).click();
+  await page.getByText('Ride cycle from the phone’s motion sensors').waitFor();
+  await page.getByRole('radio', { name: 'Fixed to an arm or gondola' }).click();
+  await page.getByRole('button', { name: 'Start recording' }).click();
+  await page.getByRole('button', { name: 'Stop recording' }).waitFor();
+  await feedSwing(page, [0, -6], 2);
+  await page.getByRole('button', { name: 'Stop recording' }).click();
+  const refusal = page.getByText(/Less than one whole cycle was recorded/);
+  await refusal.waitFor();
+  await refusal.scrollIntoViewIfNeeded();
+  await screenshot(page, 'motion-recording-too-short-desktop');
+  expect(await page.getByRole('button', { name: 'Keep this record' }).count()).toBe(0);
+
+  await page.getByRole('button', { name: 'Discard and record again' }).click();
+  await page.getByRole('button', { name: 'Start recording' }).click();
+  await page.getByRole('button', { name: 'Stop recording' }).waitFor();
+  // On an arm the screen faces the drawing's viewer, so the fed rate (made for a seat) reads reversed: its
+  // rising crossings fall where ωt + φ = π/2 + 2πk, at 3.7 s and 10.5 s — one whole cycle in 12 s.
+  await feedSwing(page, [0, -6], 12);
+  await page.getByRole('button', { name: 'Stop recording' }).click();
+  const summary = page.getByLabel('Recorded cycle summary');
+  await summary.getByText('1 of 1').waitFor();
+  await summary.scrollIntoViewIfNeeded();
+  await screenshot(page, 'motion-recording-review-desktop');
+  await page.getByRole('button', { name: 'Keep this record' }).click();
+  await page.getByLabel('Motion record of pivot 1').waitFor();
+  await page.context().close();
 });
