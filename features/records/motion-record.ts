@@ -94,6 +94,13 @@ export function motionRecordWarnings(
 ): CycleWarning[] {
   const out: CycleWarning[] = [];
   for (const r of records ?? []) {
+    if (r.seat !== null && !design.seats[r.seat])
+      out.push({
+        code: 'motion_record_seat_unknown',
+        level: 'warning',
+        joint: r.joint,
+        message: `The seat the phone rode in (number ${r.seat + 1}) is not in the ride’s design data: its measured accelerations are not shown.`,
+      });
     if (r.joint >= design.bodies.length)
       out.push({
         code: 'motion_record_unused',

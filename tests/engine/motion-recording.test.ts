@@ -218,6 +218,17 @@ describe('the record in the load check', () => {
     expect(result.warnings.some((x) => x.code === 'motion_record_used')).toBe(true);
   });
 
+  test('a record naming a joint or seat the design lacks is not used, and the result says so', () => {
+    const r = { ...record(), joint: 3, seat: 5 };
+    const codes = analyseInspection(d, [], 360, [r]).warnings.map((w) => w.code);
+    expect(codes).toEqual(expect.arrayContaining(['motion_record_seat_unknown', 'motion_record_unused']));
+    expect(measuredRiderOf(d, [r])).toEqual([]);
+    // The design motion ran instead: the same peak as without the record.
+    expect(analyseInspection(d, [], 360, [r]).joints[0].peakForce.value).toBe(
+      analyseInspection(d, [], 360).joints[0].peakForce.value,
+    );
+  });
+
   test('measured rider Gz in the seat: 1 + d·(A·ω)²/g at the bottom of the swing', () => {
     const [rider] = measuredRiderOf(d, [record()]);
     expect(rider.name).toBe('Seat 1');
