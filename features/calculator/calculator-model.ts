@@ -292,20 +292,29 @@ function samplesFor(profiles: readonly MotionProfile[]): number | undefined {
 }
 
 /** The request for a registered ride: its design chain and envelope, with the motion as entered. */
-export function rideRequest(design: DesignData, motion: MotionRow[]): CalculatorRequest {
+export function rideRequest(design: DesignData, motion: MotionRow[], cycleS = ''): CalculatorRequest {
   const { profiles, issues } = profilesFromRows(motion);
   const input = designToCycleInput(design, { profiles });
-  return withStops({ ...input, samples: samplesFor(profiles) }, motion, issues);
+  return withStops({ ...input, samples: samplesFor(profiles), ...duration(cycleS) }, motion, issues);
 }
 
 /** The request for a chain typed in by hand: no envelope, so no statuses beyond the raw results. */
-export function manualRequest(bodies: BodyRow[], motion: MotionRow[]): CalculatorRequest {
+export function manualRequest(bodies: BodyRow[], motion: MotionRow[], cycleS = ''): CalculatorRequest {
   const { profiles, issues } = profilesFromRows(motion);
   return withStops(
-    { bodies: bodiesFromRows(bodies), profiles, samples: samplesFor(profiles) },
+    { bodies: bodiesFromRows(bodies), profiles, samples: samplesFor(profiles), ...duration(cycleS) },
     motion,
     issues,
   );
+}
+
+/**
+ * A typed cycle length, when one is given; otherwise the engine's own (the longest natural cycle among
+ * the joints, a free swing's period): needed when that is longer than a measured record.
+ */
+function duration(cycleS: string): { durationS?: number } {
+  const v = parse(cycleS);
+  return v === undefined ? {} : { durationS: v };
 }
 
 /** Body names of a design, for labelling motion rows. */
@@ -331,7 +340,9 @@ export function runCalculator({ request, stops, issues }: CalculatorRequest): Ca
     const bad = new Set(issues.map((i) => i.path.split('.').slice(0, 2).join('.')));
     const schemaIssues = parsed.success ? [] : zodIssues(parsed.error);
     const kept = schemaIssues.filter(
-      (i) => !bad.has(i.path.split('.').slice(0, 2).join('.')) && !(bad.size > 0 && i.path === 'durationS'),
+      (i) =>
+        !bad.has(i.path.split('.').slice(0, 2).join('.')) &&
+        !(bad.size > 0 && i.path === 'durationS' && /no profile has a cycle length/.test(i.message)),
     );
     return { ok: false, issues: [...issues, ...kept] };
   }

@@ -74,13 +74,14 @@ export function CalculatorScreen() {
   const jointNames = source === 'ride' && design ? designBodyNames(design) : bodies.map((b) => b.name || '—');
 
   const [running, setRunning] = useState(false);
+  const [cycleS, setCycleS] = useState('');
   const run = () => {
     const request =
       source === 'ride'
         ? design
-          ? rideRequest(design, rideMotion)
+          ? rideRequest(design, rideMotion, cycleS)
           : null
-        : manualRequest(bodies, manualMotion);
+        : manualRequest(bodies, manualMotion, cycleS);
     if (!request) return;
     setRunning(true);
     // Stops and free joints take the engine a moment: let the button show it is working before it holds
@@ -119,6 +120,15 @@ export function CalculatorScreen() {
 
       {motion.length > 0 ? (
         <MotionCard motion={motion} jointNames={jointNames} system={system} onChange={setMotion} />
+      ) : null}
+      {motion.length > 0 ? (
+        <NumberField
+          label="Cycle length"
+          unit="s"
+          value={cycleS}
+          onChange={setCycleS}
+          hint="Empty: the longest natural cycle among the joints (a free swing: one period; a record: its length)."
+        />
       ) : null}
 
       <Button label="Run load check" onPress={run} busy={running} disabled={source === 'ride' && !design} />
@@ -272,6 +282,7 @@ function describePath(path: string, names: string[]): string {
     rampTimeS: 'ramp time',
     toRpm: 'speed',
     name: 'name',
+    durationS: 'cycle length',
     record: 'measured record',
     timeS: 'record times',
     rateRadS: 'record rates',
@@ -284,7 +295,8 @@ function describePath(path: string, names: string[]): string {
     const who = parts[0] === 'bodies' ? (names[i] ?? `Body ${i + 1}`) : `Joint ${i + 1}`;
     return parts[2] ? `${who} · ${fields[parts[2]] ?? parts[2]}` : who;
   }
-  return path;
+  const field = parts.length === 1 ? fields[path] : undefined;
+  return field ? field[0].toUpperCase() + field.slice(1) : path;
 }
 
 function BodiesEditor({

@@ -358,3 +358,19 @@ test('a registered ride with an emergency stop in its design data: prefilled, ru
   // The rate limit is the operating cycle's: a stop only slows the ride.
   expect(out.result.envelope.find((e) => e.id === 'joints.0.rate')?.loadCase).toBe('operating');
 });
+
+test('a record shorter than another joint’s natural cycle is refused until a cycle length is typed', () => {
+  const bodies = [
+    { name: 'Arm', massKg: '1000', cgX: '2', cgY: '0', inertia: '1300', tipX: '4', tipY: '0' },
+    rodRow(100, 2),
+  ];
+  // The arm at 1 rpm has a 60 s cycle; the gondola's record lasts 10 s.
+  const record = csv(Array.from({ length: 501 }, (_, k) => [k / 50, -90 + 5 * Math.sin(k / 50)]));
+  const rows = [motion({ kind: 'constant', rpm: '1' }), motion({ kind: 'measured', recordText: record })];
+  const refused = runCalculator(manualRequest(bodies, rows));
+  expect(refused.ok).toBe(false);
+  if (!refused.ok) expect(refused.issues[0].message).toMatch(/longer than the measured record of joint 2/);
+  const ran = runCalculator(manualRequest(bodies, rows, '10'));
+  if (!ran.ok) throw new Error(JSON.stringify(ran.issues));
+  expect(ran.result.durationS).toBe(10);
+});
