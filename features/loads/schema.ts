@@ -8,6 +8,7 @@ import {
   analyseCycle,
   cycleResultToJson,
   defaultCycleDurationS,
+  measuredSampleRateHz,
   naturalDurationS,
   solveInstant,
   type CycleResultJson,
@@ -119,7 +120,10 @@ const measuredProfileSchema = z
     angleRad: z.array(num()).max(MAX_SAMPLES).optional(),
     rateRadS: z.array(num()).max(MAX_SAMPLES).optional(),
     startAngleRad: num().optional(),
+    /** Former callers: a Savitzky–Golay window in samples, used only when cutoffHz is absent. */
     windowPoints: count().min(4, 'At least 4 points').max(101, 'At most 101 points').optional(),
+    /** Low-pass cut-off in Hz; when absent the engine chooses one from the record itself. */
+    cutoffHz: num().positive('Must be greater than 0').optional(),
   })
   .superRefine((p, ctx) => {
     const values = p.angleRad ?? p.rateRadS;
@@ -137,11 +141,23 @@ const measuredProfileSchema = z
     // A cubic fit to angles needs 5 points to smooth anything, a quadratic fit to rates 4.
     if (p.angleRad && p.timeS.length < 5)
       ctx.addIssue({ code: 'custom', path: ['timeS'], message: 'Give at least 5 angle samples' });
+    let increasing = true;
     for (let k = 1; k < p.timeS.length; k++)
       if (!(p.timeS[k] > p.timeS[k - 1])) {
         ctx.addIssue({ code: 'custom', path: ['timeS', k], message: 'Times must increase' });
+        increasing = false;
         break;
       }
+    // The filter cannot pass what the sampling cannot hold: the cut-off must stay below Nyquist.
+    if (increasing && p.cutoffHz !== undefined && p.timeS.length >= 2) {
+      const nyquist = measuredSampleRateHz(p.timeS) / 2;
+      if (!(p.cutoffHz < nyquist))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['cutoffHz'],
+          message: `Must be below half the record's sample rate (${Number(nyquist.toPrecision(3))} Hz here): sample faster or lower the cut-off`,
+        });
+    }
   });
 
 const motionProfileSchema = z.discriminatedUnion(

@@ -41,6 +41,7 @@ export {
   MEASURED_CYCLE_SAMPLES,
   conditionMeasured,
   measuredCycleSamples,
+  measuredSampleRateHz,
 } from '@/features/loads/engine/conditioning/measured';
 export type { ConditionedMotion, MeasuredProfile } from '@/features/loads/engine/conditioning/measured';
 export {

@@ -5,6 +5,10 @@
  * Savitzky–Golay filter (A. Savitzky, M. J. E. Golay, Analytical Chemistry 36 (1964) 1627); the local fit
  * also handles uneven spacing (hand-timed readings) and evaluation between samples. Near the ends the
  * window slides inward instead of shrinking, so every fit uses the same number of points.
+ *
+ * Measured motion is no longer smoothed this way by default (its window counts samples, so its smoothing
+ * changes with the sample rate): see conditioning/measured.ts. It remains for records too short to filter
+ * and for profiles that still give `windowPoints`.
  */
 
 export type LocalFit = { value: number; first: number; second: number };

@@ -17,7 +17,6 @@
  * filter then starts in its steady state. A zero-phase Butterworth response is maximally flat at 0 Hz, so
  * slow polynomial-like motion passes unchanged right up to the ends instead of being bent toward a mirror.
  */
-import { localPolynomialFit } from '@/features/loads/engine/smoothing';
 
 /** One second-order section, y = b0·x + z1 (direct form II transposed), a0 = 1. */
 export type Biquad = { b0: number; b1: number; b2: number; a1: number; a2: number };
@@ -93,11 +92,8 @@ export function padForFilter(
   const out = new Float64Array(n + 2 * p);
   for (let k = 0; k < n; k++) out[p + k] = x[k];
   if (p === 0) return { values: out, pad: 0 };
-  const times = new Float64Array(n);
-  for (let k = 0; k < n; k++) times[k] = k * stepS;
-  const m = Math.max(5, Math.min(n, fitPoints));
-  const start = localPolynomialFit(times, x, 0, m, 3);
-  const end = localPolynomialFit(times, x, times[n - 1], m, 3);
+  const start = endFit(x, stepS, false, fitPoints);
+  const end = endFit(x, stepS, true, fitPoints);
   // The end samples themselves become the fitted values: a noisy end sample would otherwise stand out of
   // its own reflection as a spike and tilt the slope at the end.
   out[p] = start.value;
@@ -110,6 +106,65 @@ export function padForFilter(
     out[p + n - 1 + j] = 2 * end.value - x[n - 1 - j] + end.second * bend;
   }
   return { values: out, pad: p };
+}
+
+/**
+ * Value and curvature at one end from a least-squares cubic over its `fitPoints` samples. The filtered
+ * record's ends follow this fit, so it sets their accuracy: about twice as noisy as inside the record.
+ * (Tried and worse on the test sweep: a window grown by a χ² lack-of-fit test, and the curvature from
+ * a window 1.5–2× longer.)
+ */
+function endFit(x: ArrayLike<number>, stepS: number, atEnd: boolean, fitPoints: number) {
+  return cubicAtEnd(x, stepS, atEnd, Math.max(5, Math.min(x.length, fitPoints)));
+}
+
+/** Cubic least squares over the m samples at one end; u = distance from the end in units of the window. */
+function cubicAtEnd(x: ArrayLike<number>, stepS: number, atEnd: boolean, m: number) {
+  const n = x.length;
+  const a = new Float64Array(20); // 4×4 normal matrix, then the right-hand side at 16
+  const at = (j: number) => x[atEnd ? n - 1 - j : j];
+  for (let j = 0; j < m; j++) {
+    const u = j / (m - 1);
+    const y = at(j);
+    let pr = 1;
+    for (let r = 0; r < 4; r++) {
+      let pc = pr;
+      for (let c = 0; c < 4; c++) {
+        a[r * 4 + c] += pc;
+        pc *= u;
+      }
+      a[16 + r] += pr * y;
+      pr *= u;
+    }
+  }
+  const coef = solve4(a);
+  const w = (m - 1) * stepS;
+  // Curvature is even in the direction of u, so the same expression holds at either end.
+  return { value: coef[0], second: (2 * coef[2]) / (w * w) };
+}
+
+/** Gaussian elimination with partial pivoting of the 4×4 system packed as in cubicAtEnd. */
+function solve4(a: Float64Array): number[] {
+  for (let col = 0; col < 4; col++) {
+    let piv = col;
+    for (let r = col + 1; r < 4; r++) if (Math.abs(a[r * 4 + col]) > Math.abs(a[piv * 4 + col])) piv = r;
+    if (piv !== col) {
+      for (let c = 0; c < 4; c++) [a[col * 4 + c], a[piv * 4 + c]] = [a[piv * 4 + c], a[col * 4 + c]];
+      [a[16 + col], a[16 + piv]] = [a[16 + piv], a[16 + col]];
+    }
+    for (let r = col + 1; r < 4; r++) {
+      const f = a[r * 4 + col] / a[col * 4 + col];
+      for (let c = col; c < 4; c++) a[r * 4 + c] -= f * a[col * 4 + c];
+      a[16 + r] -= f * a[16 + col];
+    }
+  }
+  const out = [0, 0, 0, 0];
+  for (let r = 3; r >= 0; r--) {
+    let sum = a[16 + r];
+    for (let c = r + 1; c < 4; c++) sum -= a[r * 4 + c] * out[c];
+    out[r] = sum / a[r * 4 + r];
+  }
+  return out;
 }
 
 /**

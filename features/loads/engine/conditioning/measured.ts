@@ -135,16 +135,12 @@ function filteredMotion(
   gaps: boolean,
   warnings: CycleWarning[],
 ): ConditionedMotion {
-  const n = values.length;
-  // Without gaps the grid keeps one point per sample (at the mean interval), so interpolation barely
-  // touches the noise; with gaps it runs at the median interval and fills them.
-  const count = gaps
-    ? Math.max(MIN_FILTER_SAMPLES, Math.min(4 * n, Math.round(spanS * medianRateHz) + 1))
-    : n;
+  const count = gridCount(values.length, spanS, medianRateHz, gaps);
   const h = spanS / (count - 1);
   const rateHz = 1 / h;
   const grid = resampleEven(profile.timeS, values, count);
-  const content = analyseContent(grid, rateHz, estimateNoise(profile.timeS, values));
+  const noise = estimateNoise(profile.timeS, values);
+  const content = analyseContent(grid, rateHz, noise);
   const cutoff = profile.cutoffHz ?? content.cutoffHz;
   if (!(cutoff > 0 && cutoff < rateHz / 2))
     throw new Error(`cutoffHz must be above 0 and below half the sample rate (${fmt(rateHz / 2)} Hz)`);
@@ -188,6 +184,27 @@ function filteredMotion(
       }
     },
   };
+}
+
+/**
+ * Points of the even grid a record is filtered on. Without gaps it keeps one point per sample (at the mean
+ * interval), so interpolation barely touches the noise; with gaps it runs at the median interval and
+ * fills them (never more than 4 points per sample).
+ */
+function gridCount(n: number, spanS: number, medianRateHz: number, gaps: boolean): number {
+  return gaps ? Math.max(MIN_FILTER_SAMPLES, Math.min(4 * n, Math.round(spanS * medianRateHz) + 1)) : n;
+}
+
+/**
+ * The sample rate a record is filtered at (Hz): a requested cut-off must lie below half of it. Times must
+ * increase (at least 2 samples).
+ */
+export function measuredSampleRateHz(timeS: readonly number[]): number {
+  const spacing = analyseSpacing(timeS);
+  return (
+    (gridCount(timeS.length, spacing.spanS, spacing.sampleRateHz, spacing.gaps.length > 0) - 1) /
+    spacing.spanS
+  );
 }
 
 /** Cubic Hermite between grid points i and i+1 at fraction u, with slopes `slope` (per second). */
