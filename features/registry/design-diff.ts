@@ -269,7 +269,8 @@ function motionChanges(
 ) {
   const b: Partial<DesignMotion> = before ?? {};
   const a: Partial<DesignMotion> = after ?? {};
-  const kind = (m: Partial<DesignMotion>) => (m.kind ? motionKindLabel[m.kind] : undefined);
+  const kind = (m: Partial<DesignMotion>) =>
+    m.kind === 'swing' && m.freeSwing ? 'Free swing' : m.kind ? motionKindLabel[m.kind] : undefined;
   const rpm = (v: number | undefined) => (v === undefined ? undefined : toSI(v, 'rate', 'rpm'));
   c.text('motion', where, 'Motion', kind(b), kind(a));
   c.quantity('motion', where, 'Design speed', rpm(b.rpm), rpm(a.rpm), 'rate');
@@ -278,6 +279,8 @@ function motionChanges(
   c.quantity('motion', where, 'Held at', b.angleRad, a.angleRad, 'angle');
   c.quantity('motion', where, 'Rate limit', b.maxRateRadS, a.maxRateRadS, 'rate', 'max');
   c.quantity('motion', where, 'Amplitude limit', b.maxAmplitudeRad, a.maxAmplitudeRad, 'angle', 'max');
+  c.quantity('motion', where, 'Service stop', b.serviceDecelRadS2, a.serviceDecelRadS2, 'angularAccel');
+  c.quantity('motion', where, 'Emergency stop', b.emergencyDecelRadS2, a.emergencyDecelRadS2, 'angularAccel');
 }
 
 function partText(p: DesignPart, system: UnitSystem): string {

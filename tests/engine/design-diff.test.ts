@@ -147,6 +147,14 @@ describe('motion limits', () => {
     expect(c).toMatchObject({ field: 'Design period', effect: 'changed', limit: false });
     expect(changeText(c)).toBe('Design period at Main pivot shaft: 9.5 s → 10 s');
   });
+
+  test('stop decelerations and the free swing are shown when they change', () => {
+    const stop = only(diffDesign(base, withMotion({ emergencyDecelRadS2: 0.8 })));
+    expect(stop).toMatchObject({ field: 'Emergency stop', effect: 'changed' });
+    expect(changeText(stop)).toBe('Emergency stop at Main pivot shaft: 0.65 rad/s² → 0.8 rad/s²');
+    const driven = only(diffDesign(base, withMotion({ freeSwing: false })));
+    expect(changeText(driven)).toBe('Motion at Main pivot shaft: Free swing → Swing');
+  });
 });
 
 describe('rider and warning limits', () => {
