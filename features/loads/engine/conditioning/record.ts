@@ -80,7 +80,11 @@ export function analyseSpacing(timeS: ArrayLike<number>): Spacing {
  * the median absolute residual ×1.4826 (robust to kinks and spikes; Hampel's MAD scale for a normal law)
  * and half the residuals' RMS (which still sees a quantised reading whose residuals are mostly zero).
  */
-export function estimateNoise(timeS: ArrayLike<number>, values: ArrayLike<number>): number {
+export function estimateNoise(
+  timeS: ArrayLike<number>,
+  values: ArrayLike<number>,
+  robustOnly = false,
+): number {
   const n = values.length;
   if (n < 5) return 0;
   const scaled = new Float64Array(n - 4);
@@ -105,7 +109,8 @@ export function estimateNoise(timeS: ArrayLike<number>, values: ArrayLike<number
     scaled[k - 2] = Math.abs(e);
     sumSq += e * e;
   }
-  return Math.max(1.4826 * median(scaled), 0.5 * Math.sqrt(sumSq / scaled.length));
+  const robust = 1.4826 * median(scaled);
+  return robustOnly ? robust : Math.max(robust, 0.5 * Math.sqrt(sumSq / scaled.length));
 }
 
 /** Removes jumps of more than π between neighbours (an encoder read modulo a turn); counts the fixes. */
@@ -185,11 +190,14 @@ export function heldValueWarnings(
     warnings.push({
       code: 'flat_record',
       level: 'warning',
-      message: `The ${what} reads exactly the same value throughout: a stuck or disconnected sensor, or a joint that did not move. Check the record.`,
+      message: `The ${what} reads exactly the same value throughout, without any noise: a stuck or disconnected sensor, a typed-in constant, or a joint that truly held still (or, for a rate, turned perfectly steadily). Check the record.`,
     });
     return warnings;
   }
   const runs = runsOfEqual(values, 3);
+  // Exactly repeated values stand out only on a record that is noisy elsewhere: a noise-free (computed
+  // or typed) record may hold a value exactly and rightly.
+  if (runs.length === 0 || !(estimateNoise(timeS, values, true) > 1e-9 * (hi - lo))) return warnings;
   const atExtreme = runs.filter((r) => values[r.start] === hi || values[r.start] === lo);
   const clippedSamples = atExtreme.reduce((sum, r) => sum + r.length, 0);
   if (atExtreme.length > 0 && clippedSamples >= Math.max(5, 0.005 * n)) {
@@ -197,7 +205,7 @@ export function heldValueWarnings(
     warnings.push({
       code: 'clipped',
       level: 'warning',
-      message: `The ${what} looks clipped: ${clippedSamples} samples sit at its highest or lowest value (first at ${fmt(timeS[first.start] - timeS[0], 3)} s), as when a sensor reaches the end of its range. The peaks there are cut off; the loads may be under-estimated.`,
+      message: `The ${what} may be clipped: ${clippedSamples} samples sit exactly at its highest or lowest value (first at ${fmt(timeS[first.start] - timeS[0], 3)} s), as when a sensor reaches the end of its range and cuts the peaks off, so the loads may be under-estimated. If the ride really held that value exactly, this does not apply.`,
     });
   }
   const flat = runs.filter(
@@ -210,7 +218,7 @@ export function heldValueWarnings(
     warnings.push({
       code: 'flat_lined',
       level: 'warning',
-      message: `The ${what} repeats exactly the same value for ${fmt(to - from, 2)} s (from ${fmt(from, 3)} s)${flat.length > 1 ? ` and in ${flat.length - 1} more place${flat.length > 2 ? 's' : ''}` : ''}: a stuck sensor or a held value. The motion there is not measured.`,
+      message: `The ${what} repeats exactly the same value for ${fmt(to - from, 2)} s (from ${fmt(from, 3)} s)${flat.length > 1 ? ` and in ${flat.length - 1} more place${flat.length > 2 ? 's' : ''}` : ''}: a stuck sensor or a held value, so the motion there may not be measured. A real sensor's noise rarely repeats a value exactly.`,
     });
   }
   return warnings;
