@@ -17,6 +17,7 @@
 import type { CycleWarning } from '@/features/loads/engine/cycle-types';
 import { zeroPhaseLowPass } from '@/features/loads/engine/conditioning/butterworth';
 import {
+  GAP_FACTOR,
   analyseSpacing,
   estimateNoise,
   heldValueWarnings,
@@ -138,7 +139,7 @@ function filteredMotion(
   const count = gridCount(values.length, spanS, medianRateHz, gaps);
   const h = spanS / (count - 1);
   const rateHz = 1 / h;
-  const grid = resampleEven(profile.timeS, values, count);
+  const grid = resampleEven(profile.timeS, values, count, GAP_FACTOR / medianRateHz);
   const noise = estimateNoise(profile.timeS, values);
   const content = analyseContent(grid, rateHz, noise);
   const cutoff = profile.cutoffHz ?? content.cutoffHz;

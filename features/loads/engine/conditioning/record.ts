@@ -4,6 +4,7 @@
  * plain arrays; the warnings they return are worded for an inspector.
  */
 import type { CycleWarning } from '@/features/loads/engine/cycle-types';
+import { localPolynomialFit } from '@/features/loads/engine/smoothing';
 
 /** An interval longer than this many times the median one is a gap. */
 export const GAP_FACTOR = 3;
@@ -130,27 +131,62 @@ export function unwrapAngles(angles: ArrayLike<number>): { values: Float64Array;
 }
 
 /**
- * Linear interpolation of the record onto `count` even points from 0 to the record's span (times relative
- * to the first sample). Where the record is even the grid falls on the samples themselves.
+ * Interpolation of the record onto `count` even points from 0 to the record's span (times relative to the
+ * first sample): linear between neighbouring samples (where the record is even the grid falls on the
+ * samples themselves), but across a gap (an interval over `gapS`) a cubic Hermite whose end slopes come
+ * from a quadratic fitted to the samples on each side alone, so the filled stretch joins the motion
+ * smoothly instead of with two kinks the differentiation would turn into spikes.
  */
 export function resampleEven(
   timeS: ArrayLike<number>,
   values: ArrayLike<number>,
   count: number,
+  gapS = Infinity,
 ): Float64Array {
   const t0 = timeS[0];
-  const span = timeS[timeS.length - 1] - t0;
+  const n = timeS.length;
+  const span = timeS[n - 1] - t0;
   const out = new Float64Array(count);
   let j = 0;
+  let slopesFor = -1;
+  let sa = 0;
+  let sb = 0;
   for (let k = 0; k < count; k++) {
     const t = k === count - 1 ? span : (k * span) / (count - 1);
-    while (j < timeS.length - 2 && timeS[j + 1] - t0 <= t) j++;
+    while (j < n - 2 && timeS[j + 1] - t0 <= t) j++;
     const ta = timeS[j] - t0;
     const tb = timeS[j + 1] - t0;
-    const u = tb > ta ? Math.min(1, Math.max(0, (t - ta) / (tb - ta))) : 0;
-    out[k] = values[j] + u * (values[j + 1] - values[j]);
+    const h = tb - ta;
+    const u = h > 0 ? Math.min(1, Math.max(0, (t - ta) / h)) : 0;
+    if (h > gapS) {
+      if (slopesFor !== j) {
+        sa = sideSlope(timeS, values, Math.max(0, j - 8), j + 1, timeS[j]);
+        sb = sideSlope(timeS, values, j + 1, Math.min(n, j + 10), timeS[j + 1]);
+        slopesFor = j;
+      }
+      const u2 = u * u;
+      const u3 = u2 * u;
+      out[k] =
+        (2 * u3 - 3 * u2 + 1) * values[j] +
+        (u3 - 2 * u2 + u) * h * sa +
+        (-2 * u3 + 3 * u2) * values[j + 1] +
+        (u3 - u2) * h * sb;
+    } else out[k] = values[j] + u * (values[j + 1] - values[j]);
   }
   return out;
+}
+
+/** Slope at time t of a quadratic (a line with 2 samples) fitted to samples [from, to). */
+function sideSlope(timeS: ArrayLike<number>, values: ArrayLike<number>, from: number, to: number, t: number) {
+  const m = to - from;
+  if (m < 2) return 0;
+  const times = new Float64Array(m);
+  const vals = new Float64Array(m);
+  for (let i = 0; i < m; i++) {
+    times[i] = timeS[from + i] - t;
+    vals[i] = values[from + i];
+  }
+  return localPolynomialFit(times, vals, 0, m, Math.min(2, m - 1)).first;
 }
 
 type Run = { start: number; length: number };

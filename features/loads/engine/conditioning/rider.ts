@@ -13,6 +13,7 @@
 import type { CycleWarning } from '@/features/loads/engine/cycle-types';
 import { zeroPhaseLowPass } from '@/features/loads/engine/conditioning/butterworth';
 import {
+  GAP_FACTOR,
   analyseSpacing,
   heldValueWarnings,
   resampleEven,
@@ -80,7 +81,7 @@ export function conditionRiderAccelerations(
     });
     return { values: [...values], cutoffHz: null, sampleRateHz: rateHz, warnings };
   }
-  const grid = resampleEven(timeS, values, count);
+  const grid = resampleEven(timeS, values, count, GAP_FACTOR * spacing.medianStepS);
   const { values: filtered } = zeroPhaseLowPass(grid, rateHz, cutoff, RIDER_ACCELERATION_POLES / 2);
   const h = spacing.spanS / (count - 1);
   const t0 = timeS[0];
