@@ -79,7 +79,12 @@ export function CycleResults({
       {cases && cases.cases.length > 1 ? (
         <>
           <SectionTitle>Ride cycle and stops</SectionTitle>
-          <LoadCasesTable cases={cases.cases} governing={cases.governing} system={system} />
+          <LoadCasesTable
+            cases={cases.cases}
+            governing={cases.governing}
+            envelope={cases.envelope ?? result.envelope}
+            system={system}
+          />
         </>
       ) : null}
 

@@ -4,20 +4,42 @@ import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
-import type { LoadCaseKind } from '@/features/loads/engine';
-import { formatValue } from '@/features/loads/format';
-import { type CaseSummary, LOAD_CASE_LABEL } from '@/features/loads/load-cases';
+import type { EnvelopeItem, LoadCaseKind } from '@/features/loads/engine';
+import { formatRatio, formatValue } from '@/features/loads/format';
+import { type CaseSummary, LOAD_CASE_LABEL, governingItem } from '@/features/loads/load-cases';
 import type { UnitSystem } from '@/lib/units';
 
+/** A case as a table row: a fresh analysis's summary or a stored one (peaks only). */
+type CaseRow = Pick<CaseSummary, 'kind' | 'label' | 'joints' | 'status'>;
+
 /** The load cases as a result shows them: the ride cycle and each stop, with the governing one named. */
-export type CasesShown = { cases: readonly CaseSummary[]; governing: LoadCaseKind | null };
+export type CasesShown = {
+  cases: readonly CaseRow[];
+  governing: LoadCaseKind | null;
+  /** The merged envelope, to name the item that makes the governing case govern. */
+  envelope?: readonly Pick<EnvelopeItem, 'label' | 'ratio'>[];
+};
+
+const STOPS_NOTE =
+  'Stops brake from full speed at the design deceleration (service) and the maker’s (emergency), ramping to ' +
+  'rest; a rotating joint is braked at its worst arm angle, a swing at the centre.';
+
+/** "Governing case: Emergency stop (P1 pivot force at 87 % of its limit)." */
+export function governingText(governing: LoadCaseKind | null, envelope: CasesShown['envelope']): string {
+  if (!governing) return '';
+  const top = envelope ? governingItem(envelope) : null;
+  const why = top
+    ? ` (${top.label} at ${formatRatio(Number.isFinite(top.ratio) ? top.ratio : null)} of its limit)`
+    : '';
+  return `Governing case: ${LOAD_CASE_LABEL[governing]}${why}.`;
+}
 
 /**
  * The ride cycle and its stops side by side: each pivot's peak force and the largest drive torque in each
- * case, and the case's worst status; then which case governs the envelope (the envelope table names the
- * case of each line).
+ * case, and the case's worst status; then which case governs the envelope and by which item (the envelope
+ * table names the case of each line).
  */
-export function LoadCasesTable({ cases, governing, system }: CasesShown & { system: UnitSystem }) {
+export function LoadCasesTable({ cases, governing, envelope, system }: CasesShown & { system: UnitSystem }) {
   const joints = cases[0]?.joints ?? [];
   const hasStatus = cases.some((c) => c.status !== null);
   return (
@@ -36,7 +58,7 @@ export function LoadCasesTable({ cases, governing, system }: CasesShown & { syst
           ...joints.map((j, i) => ({
             key: `force${i}`,
             title: `Pivot ${i + 1} force`,
-            render: (c: CaseSummary) => formatValue(c.joints[i].peakForceN, 'force', system),
+            render: (c: CaseRow) => formatValue(c.joints[i].peakForceN, 'force', system),
             numeric: true,
           })),
           {
@@ -51,7 +73,7 @@ export function LoadCasesTable({ cases, governing, system }: CasesShown & { syst
                 {
                   key: 'status',
                   title: 'Worst status',
-                  render: (c: CaseSummary) => (c.status ? <EnvelopeMark status={c.status} compact /> : '—'),
+                  render: (c: CaseRow) => (c.status ? <EnvelopeMark status={c.status} compact /> : '—'),
                   flex: 1.1,
                 },
               ]
@@ -59,16 +81,14 @@ export function LoadCasesTable({ cases, governing, system }: CasesShown & { syst
         ]}
       />
       <Text variant="small" muted>
-        {governing
-          ? `Governing case: ${LOAD_CASE_LABEL[governing]}. Stops brake from full speed at the deceleration given, ramping to rest; a rotating joint is braked at its worst arm angle.`
-          : 'Stops brake from full speed at the deceleration given, ramping to rest; a rotating joint is braked at its worst arm angle.'}
+        {[governingText(governing, envelope), STOPS_NOTE].filter(Boolean).join(' ')}
       </Text>
     </View>
   );
 }
 
 /** The largest drive torque of the case, with the pivot it acts on. */
-function peakTorque(c: CaseSummary, system: UnitSystem): string {
+function peakTorque(c: CaseRow, system: UnitSystem): string {
   let at = 0;
   c.joints.forEach((j, i) => {
     if (Math.abs(j.peakTorqueNm) > Math.abs(c.joints[at].peakTorqueNm)) at = i;

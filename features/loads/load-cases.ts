@@ -111,7 +111,14 @@ const fromStops = (e: EnvelopeItem) =>
   stopQuantities.has(e.quantity) && !/\.pin\.(diameter|clearance)$/.test(e.id);
 
 /** NaN is unreadable, so it counts as the worst. */
-const ratioOf = (e: EnvelopeItem) => (Number.isNaN(e.ratio) ? Infinity : e.ratio);
+const ratioOf = (e: Pick<EnvelopeItem, 'ratio'>) => (Number.isNaN(e.ratio) ? Infinity : e.ratio);
+
+/** The envelope item using most of its allowance (an unreadable one first): its case governs. */
+export function governingItem<T extends Pick<EnvelopeItem, 'ratio'>>(envelope: readonly T[]): T | null {
+  let top: T | null = null;
+  for (const e of envelope) if (!top || ratioOf(e) > ratioOf(top)) top = e;
+  return top;
+}
 
 /** How a joint stops: from steady rotation (start angle swept) or at the centre of its swing (two ways). */
 type Stopper = {
@@ -391,13 +398,8 @@ export function analyseLoadCases(input: CycleInput, stops: readonly StopSpec[]):
   // The operating order first (it lists every item), then anything only a stop has. Without stops the
   // result is the single cycle's, untagged, exactly as analyseCycle gives it.
   const envelope = cases.length > 1 ? [...merged.values()].map((h) => h.item) : operating.envelope;
-  let governing: LoadCaseKind | null = null;
-  let top = -Infinity;
-  for (const e of envelope)
-    if (ratioOf(e) > top) {
-      top = ratioOf(e);
-      governing = e.loadCase ?? 'operating';
-    }
+  const top = governingItem(envelope);
+  const governing: LoadCaseKind | null = top ? (top.loadCase ?? 'operating') : null;
   return {
     operating,
     cases,

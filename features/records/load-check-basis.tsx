@@ -1,12 +1,10 @@
 import Feather from '@expo/vector-icons/Feather';
 import { StyleSheet, View } from 'react-native';
 
-import { DataTable } from '@/components/data-table';
-import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import type { LoadCaseKind } from '@/features/loads/engine';
-import { LOAD_CASE_LABEL, formatValue } from '@/features/loads';
+import type { EnvelopeItem, LoadCaseKind } from '@/features/loads/engine';
+import { LoadCasesTable } from '@/features/loads/ui';
 import {
   type JointModel,
   PERIOD_DIFFERENCE_WARNING,
@@ -26,6 +24,8 @@ type Props = {
   /** Shown as a table unless the result view already shows them. */
   loadCases?: readonly Pick<StoredLoadCase, 'kind' | 'label' | 'joints' | 'status'>[];
   governingCase?: LoadCaseKind | null;
+  /** The merged envelope, to name what makes the governing case govern. */
+  envelope?: readonly Pick<EnvelopeItem, 'label' | 'ratio'>[];
   engineVersion: string;
   system: UnitSystem;
 };
@@ -40,6 +40,7 @@ export function LoadCheckBasis({
   periodChecks,
   loadCases,
   governingCase,
+  envelope,
   engineVersion,
   system,
 }: Props) {
@@ -59,7 +60,17 @@ export function LoadCheckBasis({
       )}
       {periodChecks?.length ? <PeriodChecks checks={periodChecks} /> : null}
       {loadCases && loadCases.length > 1 ? (
-        <LoadCases cases={loadCases} governing={governingCase ?? null} system={system} />
+        <View style={styles.block}>
+          <Text variant="label" muted>
+            LOAD CASES
+          </Text>
+          <LoadCasesTable
+            cases={loadCases}
+            governing={governingCase ?? null}
+            envelope={envelope}
+            system={system}
+          />
+        </View>
       ) : null}
     </View>
   );
@@ -98,56 +109,6 @@ function PeriodChecks({ checks }: { checks: readonly PeriodCheck[] }) {
           </View>
         );
       })}
-    </View>
-  );
-}
-
-function LoadCases({
-  cases,
-  governing,
-  system,
-}: {
-  cases: readonly Pick<StoredLoadCase, 'kind' | 'label' | 'joints' | 'status'>[];
-  governing: LoadCaseKind | null;
-  system: UnitSystem;
-}) {
-  const joints = cases[0]?.joints ?? [];
-  return (
-    <View style={styles.block}>
-      <Text variant="label" muted>
-        LOAD CASES
-      </Text>
-      <DataTable
-        label="Load cases"
-        rows={[...cases]}
-        rowKey={(c) => c.kind}
-        columns={[
-          {
-            key: 'case',
-            title: 'Case',
-            render: (c) => (c.kind === governing ? `${c.label} (governs)` : c.label),
-            flex: 1.4,
-          },
-          ...joints.map((j, i) => ({
-            key: `force${i}`,
-            title: `P${i + 1} peak force`,
-            render: (c: Pick<StoredLoadCase, 'joints'>) =>
-              formatValue(c.joints[i]?.peakForceN ?? Number.NaN, 'force', system),
-            numeric: true,
-          })),
-          {
-            key: 'status',
-            title: 'Worst status',
-            render: (c) => (c.status ? <EnvelopeMark status={c.status} compact /> : '—'),
-            flex: 1.1,
-          },
-        ]}
-      />
-      <Text variant="small" muted>
-        {governing ? `Governing case: ${LOAD_CASE_LABEL[governing]}. ` : ''}Stops brake from full speed at the
-        design deceleration (service) and the maker’s (emergency), ramping to rest; a rotating joint is braked
-        at its worst arm angle, a swing at the centre.
-      </Text>
     </View>
   );
 }

@@ -8,7 +8,7 @@ import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { formatValue, measuredSources } from '@/features/loads';
-import { EnvelopeTable } from '@/features/loads/ui';
+import { CycleWarnings, EnvelopeTable } from '@/features/loads/ui';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { formatDateTime } from '@/lib/dates';
 import { plausibilityText } from '@/features/records';
@@ -62,6 +62,11 @@ export function LimitsSection({
           {a.status ? headline[a.status] : 'The design data gives no limits: loads only, no statuses.'}
         </Text>
       </Card>
+      <CycleWarnings
+        warnings={a.warnings}
+        jointNames={a.joints.map((j) => j.name)}
+        seatNames={a.seats.map((x) => x.name)}
+      />
       <ConfirmedOutOfRange items={a.confirmedOutOfRange ?? []} />
       {a.envelope.length > 0 ? (
         <EnvelopeTable
@@ -102,7 +107,11 @@ export function LimitsSection({
           {
             key: 'torque',
             title: 'Peak torque',
-            render: ({ j }) => formatValue(Math.abs(j.peakTorqueNm), 'moment', system),
+            // A free pin carries no torque; what the integration leaves is round-off, not a value to read.
+            render: ({ i, j }) =>
+              a.models?.some((m) => m.joint === i && m.model === 'free_swing')
+                ? 'None: free pin'
+                : formatValue(Math.abs(j.peakTorqueNm), 'moment', system),
             numeric: true,
           },
         ]}

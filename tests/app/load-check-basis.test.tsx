@@ -47,6 +47,7 @@ test('models, a period that differs and the load cases with the governing one', 
       periodChecks={r.periodChecks}
       loadCases={r.loadCases}
       governingCase={r.governingCase}
+      envelope={r.envelope}
       engineVersion="1.1.0"
       system="si"
     />,
@@ -61,6 +62,10 @@ test('models, a period that differs and the load cases with the governing one', 
   const governing = r.loadCases.find((c) => c.kind === r.governingCase);
   expect(screen.getByText(`${governing?.label} (governs)`)).toBeTruthy();
   expect(screen.getByText(new RegExp(`Governing case: ${governing?.label}`))).toBeTruthy();
+  // The line also names the item that makes that case govern: the one using most of its allowance.
+  const top = [...r.envelope].sort((a, b) => b.ratio - a.ratio)[0];
+  expect(top.loadCase ?? 'operating').toBe(r.governingCase);
+  expect(screen.getByText(new RegExp(`\\(${top.label} at \\d`))).toBeTruthy();
 });
 
 test('an analysis made before models were recorded says so', () => {
