@@ -12,6 +12,7 @@ export {
   LOAD_CASE_LABEL,
   analyseLoadCases,
   designStops,
+  governingText,
   governingItem,
   withLoadCases,
   type CaseSummary,

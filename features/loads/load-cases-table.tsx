@@ -5,8 +5,8 @@ import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import type { EnvelopeItem, LoadCaseKind } from '@/features/loads/engine';
-import { formatRatio, formatValue } from '@/features/loads/format';
-import { type CaseSummary, LOAD_CASE_LABEL, governingItem } from '@/features/loads/load-cases';
+import { formatValue } from '@/features/loads/format';
+import { type CaseSummary, governingText } from '@/features/loads/load-cases';
 import type { UnitSystem } from '@/lib/units';
 
 /** A case as a table row: a fresh analysis's summary or a stored one (peaks only). */
@@ -23,16 +23,6 @@ export type CasesShown = {
 const STOPS_NOTE =
   'Stops brake from full speed at the design deceleration (service) and the maker’s (emergency), ramping to ' +
   'rest; a rotating joint is braked at its worst arm angle, a swing at the centre.';
-
-/** "Governing case: Emergency stop (P1 pivot force at 87 % of its limit)." */
-export function governingText(governing: LoadCaseKind | null, envelope: CasesShown['envelope']): string {
-  if (!governing) return '';
-  const top = envelope ? governingItem(envelope) : null;
-  const why = top
-    ? ` (${top.label} at ${formatRatio(Number.isFinite(top.ratio) ? top.ratio : null)} of its limit)`
-    : '';
-  return `Governing case: ${LOAD_CASE_LABEL[governing]}${why}.`;
-}
 
 /**
  * The ride cycle and its stops side by side: each pivot's peak force and the largest drive torque in each

@@ -30,6 +30,7 @@ import {
   worstStatus,
 } from '@/features/loads/engine';
 import type { DesignData } from '@/features/loads/design-schema';
+import { formatRatio } from '@/features/loads/format';
 import type { QuantityKind } from '@/lib/units';
 
 export type { LoadCaseKind };
@@ -413,4 +414,19 @@ export function analyseLoadCases(input: CycleInput, stops: readonly StopSpec[]):
 /** The merged result as one cycle result: the operating histories with the cases' envelope and warnings. */
 export function withLoadCases(r: LoadCasesResult): CycleResult {
   return { ...r.operating, envelope: r.envelope, status: r.status, warnings: r.warnings };
+}
+
+/** "Governing case: Emergency stop (P1 pivot force at 87 % of its limit)." */
+export function governingText(
+  governing: LoadCaseKind | null,
+  envelope: readonly Pick<EnvelopeItem, 'label' | 'ratio'>[] | undefined,
+): string {
+  if (!governing) return '';
+  const top = envelope ? governingItem(envelope) : null;
+  const why = !top
+    ? ''
+    : Number.isFinite(top.ratio)
+      ? ` (${top.label} at ${formatRatio(top.ratio)} of its limit)`
+      : ` (${top.label}: no allowance left, or unreadable)`;
+  return `Governing case: ${LOAD_CASE_LABEL[governing]}${why}.`;
 }

@@ -18,6 +18,8 @@ import {
   measuredSources,
   sortByConcern,
 } from '@/features/loads/format';
+import { governingText } from '@/features/loads/load-cases';
+import { jointModelText, modelsNotRecorded, periodCheckText } from '@/features/records/analysis-schema';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import {
   formatMeasurement,
@@ -209,6 +211,7 @@ function loadCheck(doc: Doc, r: InspectionReport) {
       MARGIN,
     )
     .moveDown(0.4);
+  loadCheckBasis(doc, a);
   // The same strings as the review desk and the notices: typed values as typed, never across the limit.
   const sources = measuredSources(r.inspection.record);
   const rows = sortByConcern(a.envelope).map((e) => {
@@ -222,6 +225,21 @@ function loadCheck(doc: Doc, r: InspectionReport) {
       .fillColor(C.textMuted)
       .text(`Differences from the phone’s preview: ${a.differences.join('; ')}`);
   }
+}
+
+/** How the check was made: each joint's model, free-swing periods, the governing case, the warnings. */
+function loadCheckBasis(doc: Doc, a: NonNullable<InspectionReport['inspection']['analysis']>) {
+  const lines = [
+    a.models?.length
+      ? `Models: ${a.models.map((m) => `P${m.joint + 1} ${m.name}: ${jointModelText(m)}`).join('; ')}.`
+      : `${modelsNotRecorded(a.engineVersion)}.`,
+    ...(a.periodChecks ?? []).map((p) => `Free swing period, ${p.name}: ${periodCheckText(p)}.`),
+    governingText(a.governingCase ?? null, a.envelope),
+    ...(a.warnings ?? []).filter((w) => w.level === 'warning').map((w) => `Check: ${w.message}`),
+  ].filter(Boolean);
+  doc.fillColor(C.textMuted);
+  for (const line of lines) doc.text(line, MARGIN);
+  doc.fillColor(C.text).moveDown(0.4);
 }
 
 function findingsSection(doc: Doc, r: InspectionReport) {

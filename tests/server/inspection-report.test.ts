@@ -13,6 +13,7 @@ import { CAUTION_FULL } from '@/lib/caution-text';
 import { hashPassword } from '@/server/auth/password';
 import { renderInspectionReportPdf } from '@/server/reports/inspection-report-pdf';
 import { inspectionReport } from '@/server/reports/inspection-report';
+import { analysePending } from '@/server/sync/analysis';
 
 import { expectApiError, makeTestServer, signInAs, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
@@ -92,6 +93,18 @@ test('the inspector downloads their own report: what they recorded, the caution,
   expect(pdf.pages[0].width).toBeCloseTo(595.28, 1);
   expect(pdf.pages[0].height).toBeCloseTo(841.89, 1);
   expect(pdf.flat).toMatch(new RegExp(`page 1 of ${pdf.total}`));
+});
+
+test('the load check says how it was made: each joint’s model and the governing case with its item', async () => {
+  await analysePending(server.db);
+  const res = await get(inspectorToken, `/api/inspections/${recordId}/report.pdf`);
+  expect(res.status).toBe(200);
+  const pdf = parse(res.body as Buffer);
+  // Twin Comet's design gives service and emergency stops, so its check runs them as load cases.
+  expect(pdf.flat).toMatch(/Models: P1 [^:]+: steady rotation, from the readings/);
+  expect(pdf.flat).toMatch(
+    /Governing case: (Operating cycle|Service stop|Emergency stop) \(.+ at [\d.,]+ ?% of its limit\)\./,
+  );
 });
 
 test('US Letter on request (8.5 × 11 in, ANSI/ASME Y14.1 = 612 × 792 pt)', async () => {
