@@ -77,6 +77,15 @@ export const loadCaseKinds = [
 const envelopeStatusSchema = z.enum(['within', 'near', 'over']);
 
 /** One load case's peaks over all its runs (features/loads/load-cases.ts CaseSummary, without histories). */
+/** A seat's rider-acceleration extremes over a cycle, in g, as stored analyses keep them. */
+export const seatExtremesSchema = z.object({
+  name: z.string(),
+  gxMin: z.number(),
+  gxMax: z.number(),
+  gzMin: z.number(),
+  gzMax: z.number(),
+});
+
 export const storedLoadCaseSchema = z.object({
   kind: z.enum(loadCaseKinds),
   label: z.string(),
@@ -85,15 +94,7 @@ export const storedLoadCaseSchema = z.object({
   durationS: z.number(),
   runs: z.number().int(),
   joints: z.array(z.object({ name: z.string(), peakForceN: z.number(), peakTorqueNm: z.number() })),
-  seats: z.array(
-    z.object({
-      name: z.string(),
-      gxMin: z.number(),
-      gxMax: z.number(),
-      gzMin: z.number(),
-      gzMax: z.number(),
-    }),
-  ),
+  seats: z.array(seatExtremesSchema),
   status: envelopeStatusSchema.nullable(),
 });
 export type StoredLoadCase = z.infer<typeof storedLoadCaseSchema>;

@@ -15,7 +15,7 @@ import {
   readingMethods,
 } from '@/features/records/schema';
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
-import { analysisModelFields, loadCaseKinds } from '@/features/records/analysis-schema';
+import { analysisModelFields, loadCaseKinds, seatExtremesSchema } from '@/features/records/analysis-schema';
 import { auditEntrySchema, inspectionTypeSchema } from '@/features/registry/schema';
 import { findingSchema } from '@/features/notices/finding-schema';
 import type { QuantityKind } from '@/lib/units';
@@ -92,15 +92,7 @@ export const storedAnalysisSchema = z.object({
       forceRangeN: z.number(),
     }),
   ),
-  seats: z.array(
-    z.object({
-      name: z.string(),
-      gxMin: z.number(),
-      gxMax: z.number(),
-      gzMin: z.number(),
-      gzMax: z.number(),
-    }),
-  ),
+  seats: z.array(seatExtremesSchema),
   envelope: z.array(envelopeItemSchema),
   server: devicePreviewSchema,
   device: devicePreviewSchema.nullable(),
