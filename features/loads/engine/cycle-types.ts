@@ -103,6 +103,11 @@ export type JointHistory = {
    * null when none was found within the search (features/loads/engine/free-motion.ts).
    */
   freePeriodS?: number | null;
+  /**
+   * Free joints only: the largest |torque| inverse dynamics finds on the free pin over the cycle. Ideally
+   * 0; what remains is the integration's round-off, so it checks the free motion. `torqueNm` reports 0.
+   */
+  freeTorqueResidualNm?: number;
 };
 
 export type SeatHistory = {

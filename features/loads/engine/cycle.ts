@@ -122,6 +122,15 @@ export function analyseCycle(input: CycleInput): CycleResult {
     }
   }
 
+  // A free pin carries no torque by definition. What inverse dynamics returns there is the integration's
+  // round-off (kept as the joint's residual, a check on the dynamics); the result reports the 0 itself.
+  const freeResidual = new Map<number, number>();
+  freeMotion?.free.forEach((i) => {
+    let worst = 0;
+    for (let k = 0; k < count; k++) worst = Math.max(worst, Math.abs(tau[i][k]));
+    freeResidual.set(i, worst);
+    tau[i].fill(0);
+  });
   const forces = { fx, fy, along, across, mag, tau };
   const joints = Array.from({ length: n }, (_, i) =>
     jointHistory(i, chain.names[i], times, q, qd, qdd, forces),
@@ -129,6 +138,7 @@ export function analyseCycle(input: CycleInput): CycleResult {
   freeMotion?.free.forEach((i) => {
     const period = freeMotion.periodS[i];
     joints[i].freePeriodS = period;
+    joints[i].freeTorqueResidualNm = freeResidual.get(i) ?? 0;
     // A cycle of one whole free turn spans 2π up to round-off: it turns, it does not swing.
     if (freeMotion.turns[i] && period !== null && duration >= period * (1 - 1e-9))
       joints[i].amplitudeRad = null;
