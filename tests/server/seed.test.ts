@@ -26,6 +26,9 @@ import { photoPathOf, photosDirOf } from '@/server/sync/photo-store';
 
 import { makeTempDir } from './helpers';
 
+// Seeding the demo history analyses every demo inspection with its load cases: seconds on a busy 2-core machine.
+jest.setTimeout(30_000);
+
 const dirs: string[] = [];
 const opened: OpenedDb[] = [];
 function freshDb(): OpenedDb {
