@@ -7,11 +7,14 @@
 import type { Page } from 'playwright-core';
 
 import {
+  addReading,
   apiToken,
   jpegPhoto,
   screenshot,
   serverAndBrowser,
   startPeriodicInspection,
+  swingAmplitude,
+  swingPeriod,
 } from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
@@ -92,27 +95,9 @@ test('an inspection recorded offline arrives once, with its photos and a server 
 
   // A measured swing: amplitude and period for the pivot.
   await page.getByRole('radio', { name: 'Readings' }).click();
-  await page.getByRole('textbox', { name: 'Swing amplitude (each side)' }).first().fill('70');
   // Nothing is chosen for the inspector: the method, then the instrument from the register.
-  await page.getByRole('radio', { name: 'Gauge (feeler, caliper, angle)' }).first().click();
-  await page
-    .getByRole('radio', { name: /^Digital inclinometer, serial/ })
-    .first()
-    .click();
-  await page
-    .getByRole('button', { name: /^Add swing amplitude/ })
-    .first()
-    .click();
-  await page.getByRole('textbox', { name: 'Period (one turn or one swing)' }).first().fill('6.4');
-  await page.getByRole('radio', { name: 'Stopwatch' }).first().click();
-  await page
-    .getByRole('radio', { name: /^Digital stopwatch, serial/ })
-    .first()
-    .click();
-  await page
-    .getByRole('button', { name: /^Add period/ })
-    .first()
-    .click();
+  await addReading(page, swingAmplitude('70'));
+  await addReading(page, swingPeriod('6.4'));
   await page.getByText(`${fromChecklist + 2} readings · 2 photos`).waitFor();
 
   // Reload with no network: the draft is all there.

@@ -4,51 +4,29 @@
  * a free swing, its computed period set against the measured one, and the stops shown as load cases; on
  * the review desk, a seeded Skylark inspection says how its load check was made and which case governs.
  */
-import type { Page } from 'playwright-core';
 
-import { screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
+import {
+  addReading,
+  screenshot,
+  serverAndBrowser,
+  startPeriodicInspection,
+  swingAmplitude,
+  swingPeriod,
+} from '@/tests/support/browser/harness';
 
 // Development mode seeds the demo's submitted inspections for the desk.
 const app = serverAndBrowser({ NODE_ENV: 'development' });
-
-async function startPeriodic(page: Page, ride: string) {
-  const card = page.getByLabel(`Ride ${ride}`);
-  await card.waitFor({ timeout: 30000 });
-  const other = card.getByRole('button', { name: 'Another type of inspection…' });
-  if (await other.count()) await other.click();
-  else await card.getByRole('button', { name: 'Start inspection' }).click();
-  await card.getByRole('radio', { name: 'Periodic', exact: true }).click();
-  await page.waitForURL('**/inspect/**');
-}
 
 test('phone: a free swing with its period compared and the stops as load cases', async () => {
   const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
   await page.waitForURL('**/today');
   await page.getByText('Everything is sent').waitFor({ timeout: 60000 });
-  await startPeriodic(page, 'Skylark');
+  await startPeriodicInspection(page, 'Skylark');
 
   await page.getByRole('radio', { name: 'Readings' }).click();
-  await page.getByRole('textbox', { name: 'Swing amplitude (each side)' }).first().fill('108');
-  await page.getByRole('radio', { name: 'Gauge (feeler, caliper, angle)' }).first().click();
-  await page
-    .getByRole('radio', { name: /^Digital inclinometer, serial/ })
-    .first()
-    .click();
-  await page
-    .getByRole('button', { name: /^Add swing amplitude/ })
-    .first()
-    .click();
+  await addReading(page, swingAmplitude('108'));
   // 11.5 s measured; the free swing from 108° takes about 10.3 s.
-  await page.getByRole('textbox', { name: 'Period (one turn or one swing)' }).first().fill('11.5');
-  await page.getByRole('radio', { name: 'Stopwatch' }).first().click();
-  await page
-    .getByRole('radio', { name: /^Digital stopwatch, serial/ })
-    .first()
-    .click();
-  await page
-    .getByRole('button', { name: /^Add period/ })
-    .first()
-    .click();
+  await addReading(page, swingPeriod('11.5'));
   // A value far from the design asks for confirmation first.
   const confirm = page.getByRole('button', { name: /^Keep / });
   if (await confirm.count()) await confirm.first().click();

@@ -214,3 +214,33 @@ export async function startPeriodicInspection(page: Page, rideName: string) {
     await card.getByRole('radio', { name: 'Periodic' }).click();
   await page.waitForURL('**/inspect/**');
 }
+
+/**
+ * On the inspection's Readings step: types a reading of the first pivot, chooses how it was measured and
+ * the instrument from the register (nothing is chosen for the inspector), then adds it.
+ */
+export async function addReading(
+  page: Page,
+  r: { field: string; value: string; method: string; instrument: RegExp; add: RegExp },
+) {
+  await page.getByRole('textbox', { name: r.field }).first().fill(r.value);
+  await page.getByRole('radio', { name: r.method }).first().click();
+  await page.getByRole('radio', { name: r.instrument }).first().click();
+  await page.getByRole('button', { name: r.add }).first().click();
+}
+
+/** A swing amplitude by digital inclinometer and a period by stopwatch, as most walks record them. */
+export const swingAmplitude = (value: string) => ({
+  field: 'Swing amplitude (each side)',
+  value,
+  method: 'Gauge (feeler, caliper, angle)',
+  instrument: /^Digital inclinometer, serial/,
+  add: /^Add swing amplitude/,
+});
+export const swingPeriod = (value: string) => ({
+  field: 'Period (one turn or one swing)',
+  value,
+  method: 'Stopwatch',
+  instrument: /^Digital stopwatch, serial/,
+  add: /^Add period/,
+});
