@@ -1,4 +1,8 @@
 import { type ChainBody, type MotionProfile, analyseCycle, conditionMeasured } from '@/features/loads/engine';
+import { median, timeCalls } from '@/bench/timing';
+
+/** Median ms per call of `fn`, this bench's run length and warm-up. */
+const time = (fn: () => void) => median(timeCalls(fn, 1.5, 30));
 
 /**
  * Measured-motion speed on one core: a 60 s ride cycle recorded at 100 Hz (6,001 samples per joint) on a
@@ -60,26 +64,7 @@ function records(): MotionProfile[] {
   ];
 }
 
-const now = () => performance.now();
 const fmt = (v: number, digits = 2) => v.toLocaleString('en', { maximumFractionDigits: digits });
-
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)];
-}
-
-/** Median ms per call over about a second, after a warm-up. */
-function time(fn: () => void, seconds = 1.5, warmup = 30): number {
-  for (let i = 0; i < warmup; i++) fn();
-  const times: number[] = [];
-  const end = now() + seconds * 1000;
-  while (now() < end) {
-    const t0 = now();
-    fn();
-    times.push(now() - t0);
-  }
-  return median(times);
-}
 
 export function run(): void {
   const measured = records();

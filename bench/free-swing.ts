@@ -9,6 +9,10 @@ import {
   integrateFreeMotion,
 } from '@/features/loads/engine';
 import { buildPlanckChain } from '@/bench/planck-chain';
+import { median, now, timeCalls } from '@/bench/timing';
+
+/** Per-call times of `fn` in ms, this bench's run length and warm-up. */
+const time = (fn: () => void) => timeCalls(fn, 2, 30);
 
 /**
  * Free-joint speed on one core: a 10 s free swing of a 3-body chain (all three pins free, released from
@@ -29,26 +33,7 @@ const PROFILES: MotionProfile[] = START.map((angleRad) => ({ kind: 'free', angle
 const DURATION_S = 10;
 const G = 9.80665;
 
-const now = () => performance.now();
 const fmt = (v: number, digits = 2) => v.toLocaleString('en', { maximumFractionDigits: digits });
-
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)];
-}
-
-/** Per-call times in ms of `fn`, repeated for `seconds` after a warm-up. */
-function time(fn: () => void, seconds = 2, warmup = 30): number[] {
-  for (let i = 0; i < warmup; i++) fn();
-  const times: number[] = [];
-  const end = now() + seconds * 1000;
-  while (now() < end) {
-    const t0 = now();
-    fn();
-    times.push(now() - t0);
-  }
-  return times;
-}
 
 function planckMs(dt: number, velocityIterations: number, positionIterations: number): number {
   const runs: number[] = [];

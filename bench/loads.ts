@@ -8,6 +8,10 @@ import {
   solveInto,
 } from '@/features/loads/engine';
 import { buildPlanckChain } from '@/bench/planck-chain';
+import { median, now, percentile, timeCalls } from '@/bench/timing';
+
+/** Per-call times of `fn` in ms, this bench's run length and warm-up. */
+const time = (fn: () => void) => timeCalls(fn, 1, 20);
 
 /**
  * Load-engine speed on one core (JavaScript runs the solve on one thread):
@@ -30,32 +34,7 @@ const PROFILES: MotionProfile[] = [
 ];
 const SAMPLES = 3600;
 
-const now = () => performance.now();
-
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)];
-}
-
-function percentile(values: number[], p: number): number {
-  const s = [...values].sort((a, b) => a - b);
-  return s[Math.min(s.length - 1, Math.floor(p * s.length))];
-}
-
 const fmt = (v: number, digits = 2) => v.toLocaleString('en', { maximumFractionDigits: digits });
-
-/** Repeats `fn` until `seconds` pass (after a warm-up) and returns the per-call times in ms. */
-function time(fn: () => void, seconds = 1, warmup = 20): number[] {
-  for (let i = 0; i < warmup; i++) fn();
-  const times: number[] = [];
-  const end = now() + seconds * 1000;
-  while (now() < end) {
-    const t0 = now();
-    fn();
-    times.push(now() - t0);
-  }
-  return times;
-}
 
 function rawSolve(count: number): number {
   const bodies = BODIES.slice(0, count);
