@@ -20,7 +20,14 @@ import {
   type PushResult,
 } from '@/features/records/schema';
 import type { CycleWarning, EnvelopeItem, LoadCaseKind } from '@/features/loads/engine';
-import type { JointModel, PeriodCheck, StoredLoadCase } from '@/features/records/analysis-schema';
+import type {
+  JointModel,
+  JointRanges,
+  PeriodCheck,
+  StoredFatigueDetail,
+  StoredLoadCase,
+  StoredPinCheck,
+} from '@/features/records/analysis-schema';
 import type { MeasuredRider } from '@/features/records/motion-record-schema';
 import {
   envelopeStatuses,
@@ -63,8 +70,13 @@ export type StoredAnalysis = {
     /** The main arm's angle at the peak, where an inspector would look for the worst case. */
     peakForceAtArmAngleRad: number;
     peakTorqueNm: number;
-    /** Max − min of the force magnitude over the cycle: what fatigue sees. */
-    forceRangeN: number;
+    /**
+     * Analyses made before engine 1.2.0 only: max − min of the force's size, which hides a reversal. No
+     * longer stored or shown as a range.
+     */
+    forceRangeN?: number;
+    /** Force ranges per component in the carried body's frame (features/records/analysis-schema.ts). */
+    ranges?: JointRanges;
   }[];
   seats: { name: string; gxMin: number; gxMax: number; gzMin: number; gzMax: number }[];
   envelope: EnvelopeItem[];
@@ -90,6 +102,10 @@ export type StoredAnalysis = {
   warnings?: CycleWarning[];
   /** Rider accelerations measured in a seat with the phone, beside the computed `seats`; absent when none. */
   measuredRider?: MeasuredRider[];
+  /** Per fatigue detail: damage per load case and per ride cycle; absent without fatigue design data. */
+  fatigue?: StoredFatigueDetail[];
+  /** Per pivot with pin data: EN 1993-1-8 utilisations at the peak force. */
+  pinChecks?: StoredPinCheck[];
 };
 
 export const inspections = sqliteTable(

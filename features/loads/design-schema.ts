@@ -93,6 +93,108 @@ export const designPartSchema = z.discriminatedUnion(
 );
 export type DesignPart = z.infer<typeof designPartSchema>;
 
+/** Non-destructive test methods (EN ISO 9712 abbreviations, used across the trade). */
+export const ndtMethods = ['VT', 'MT', 'PT', 'UT', 'ET'] as const;
+export type NdtMethod = (typeof ndtMethods)[number];
+
+/** One NDT the maker requires at a pivot: the method and how often, from the maker's manual. */
+export const ndtPlanSchema = z.object({
+  method: z.enum(ndtMethods, { error: `One of ${ndtMethods.join(', ')}` }),
+  intervalDays: z
+    .int({ error: 'Must be a whole number of days' })
+    .min(1, 'At least 1 day')
+    .max(3660, 'At most 3660 days'),
+  /** Where on the pivot, or the manual's reference. */
+  note: z.string().trim().max(200).optional(),
+});
+export type NdtPlan = z.infer<typeof ndtPlanSchema>;
+
+/**
+ * A pivot's pin and plates for EN 1993-1-8 §3.13 Table 3.10. Geometry of a clevis (double shear): the
+ * inner plate (the lug) `b` thick, the two outer plates (the cheeks) `a` thick each, a gap `c` between
+ * each cheek and the lug. Single shear: one plate `a` and one `b`. Steel strengths in Pa. The pin's
+ * diameter is the pivot's (the measured one when an inspection measured it). Partial factors default to
+ * EN 1993-1-8's recommended values (γM0 = 1.0, γM2 = 1.25, γM6,ser = 1.0) and the load factor γF to 1.0
+ * (the peak is checked as computed); a National Annex or the ride's design standard may set others.
+ */
+export const pinCheckSchema = z.object({
+  /** The pin's steel, by name (e.g. "S355", "42CrMo4+QT"), for the record. */
+  pinGrade: z.string().trim().min(1, 'Required').max(40),
+  pinFyPa: positive('Pin yield strength'),
+  pinFuPa: positive('Pin ultimate strength'),
+  plateGrade: z.string().trim().min(1, 'Required').max(40),
+  plateFyPa: positive('Plate yield strength'),
+  innerPlateM: positive('Inner plate thickness'),
+  outerPlateM: positive('Outer plate thickness'),
+  gapM: num().min(0, 'Cannot be negative'),
+  /** The pin can be replaced in service: the serviceability limits of Table 3.10 apply too. */
+  replaceable: z.boolean({ error: 'Must be true or false' }).optional(),
+  gammaM0: num().min(1, 'At least 1').max(3).optional(),
+  gammaM2: num().min(1, 'At least 1').max(3).optional(),
+  gammaM6ser: num().min(1, 'At least 1').max(3).optional(),
+  gammaF: num().min(1, 'At least 1').max(3).optional(),
+});
+export type PinCheckData = z.infer<typeof pinCheckSchema>;
+
+/**
+ * Where on a pivot fatigue is checked: a pin in shear, a lug's net section, a weld toe… The stress there
+ * follows one component of the pivot's force (or its torque) in the frame of the member that carries the
+ * detail: `member` 'body' is the body hanging on the pivot (body `joint`, its x-axis along the body),
+ * 'parent' the body (or, for joint 0, the ground: global x across, y up) that holds the pivot. The stress per
+ * unit load is given (MPa per kN, or per kN·m for torque) or derived from a section area (stress = load /
+ * (area × shear planes)). Category and curve per EN 1993-1-9 §7 (Δσ_C, or Δτ_C for `shear`, at 2×10⁶).
+ */
+export const fatigueDetailKinds = ['pin_shear', 'lug_net_section', 'weld_toe', 'bolt', 'other'] as const;
+export type FatigueDetailKind = (typeof fatigueDetailKinds)[number];
+export const fatigueComponents = ['along', 'across', 'torque'] as const;
+export type FatigueComponent = (typeof fatigueComponents)[number];
+
+export const fatigueDetailSchema = z
+  .object({
+    joint: index(),
+    name: name(),
+    kind: z.enum(fatigueDetailKinds, { error: `One of ${fatigueDetailKinds.join(', ')}` }),
+    member: z.enum(['body', 'parent'], { error: 'body or parent' }),
+    component: z.enum(fatigueComponents, { error: `One of ${fatigueComponents.join(', ')}` }),
+    stressPerKnMPa: positive('Stress per kN').optional(),
+    sectionAreaMm2: positive('Section area').optional(),
+    shearPlanes: z.union([z.literal(1), z.literal(2)], { error: '1 or 2' }).optional(),
+    categoryMPa: positive('Detail category').max(200, 'At most 200 MPa'),
+    shear: z.boolean({ error: 'Must be true or false' }).optional(),
+    gammaFf: num().min(1, 'At least 1').max(3).optional(),
+    gammaMf: num().min(1, 'At least 1').max(3).optional(),
+    /** The Miner sum the design accepts for this detail (EN 1993-1-9: 1.0). */
+    damageLimit: num().gt(0, 'Must be greater than 0').max(1, 'At most 1').optional(),
+  })
+  .superRefine((f, ctx) => {
+    if ((f.stressPerKnMPa === undefined) === (f.sectionAreaMm2 === undefined))
+      ctx.addIssue({
+        code: 'custom',
+        path: ['stressPerKnMPa'],
+        message: 'Give either the stress per kN or the section area, not both',
+      });
+    if (f.component === 'torque' && f.sectionAreaMm2 !== undefined)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['sectionAreaMm2'],
+        message: 'A torque needs the stress per kN·m, not an area',
+      });
+    if (f.shearPlanes !== undefined && f.sectionAreaMm2 === undefined)
+      ctx.addIssue({ code: 'custom', path: ['shearPlanes'], message: 'Only with a section area' });
+  });
+export type FatigueDetail = z.infer<typeof fatigueDetailSchema>;
+
+/**
+ * How the ride runs, for fatigue: one ride cycle (a programme, start to stop) is `rideCycleS` seconds of
+ * the design motion followed by `stopsPerRideCycle` service stops (default 1).
+ */
+export const fatigueDataSchema = z.object({
+  rideCycleS: positive('Ride cycle time').max(86400, 'At most a day'),
+  stopsPerRideCycle: z.int({ error: 'Must be a whole number' }).min(0).max(100).optional(),
+  details: z.array(fatigueDetailSchema).max(100),
+});
+export type FatigueData = z.infer<typeof fatigueDataSchema>;
+
 /** The pivot at body `joint`'s inboard end: its pin, wear limits and design load limits. */
 export const designPivotSchema = z
   .object({
@@ -107,6 +209,10 @@ export const designPivotSchema = z
     maxBearingPressurePa: positive('Bearing limit').optional(),
     maxForceN: positive('Force limit').optional(),
     maxTorqueNm: positive('Torque limit').optional(),
+    /** The pin and its plates for the EN 1993-1-8 §3.13 (Table 3.10) checks; absent: no pin check. */
+    pinCheck: pinCheckSchema.optional(),
+    /** The NDT the maker's manual asks for at this pivot: methods and intervals. */
+    ndt: z.array(ndtPlanSchema).max(10).optional(),
   })
   .superRefine((p, ctx) => {
     if (!(p.minimumDiameterM < p.nominalDiameterM))
@@ -200,6 +306,8 @@ export const designDataSchema = z
     motion: z.array(designMotionSchema).max(MAX_BODIES),
     rider: z.object({ gx: axisLimit.optional(), gz: axisLimit.optional() }),
     nearMargin: num().gt(0).lt(1).optional(),
+    /** Fatigue details and how the ride runs; absent: no fatigue assessment. */
+    fatigue: fatigueDataSchema.optional(),
   })
   .superRefine((d, ctx) => {
     const n = d.bodies.length;
@@ -253,6 +361,14 @@ export const designDataSchema = z
     };
     onePerJoint('pivots', true);
     onePerJoint('motion', true);
+    d.fatigue?.details.forEach((f, k) => {
+      if (f.joint >= n)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['fatigue', 'details', k, 'joint'],
+          message: `No joint ${f.joint} in the chain`,
+        });
+    });
   });
 export type DesignData = z.infer<typeof designDataSchema>;
 

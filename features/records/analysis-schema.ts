@@ -143,3 +143,65 @@ export function periodCheckText(p: PeriodCheck): string {
 /** Whether a period check differs by more than the stated share. */
 export const periodDiffers = (p: PeriodCheck) =>
   p.difference === null || Math.abs(p.difference) > PERIOD_DIFFERENCE_WARNING;
+
+/**
+ * A pivot's force ranges (max − min over the cycle) per component, in the frame of the body the pivot
+ * carries (`frame` names it): what a detail that follows one component sees. The size of the force hides
+ * a full reversal on a rotating arm, so it is not a range fatigue can use.
+ */
+export const jointRangesSchema = z.object({
+  frame: z.string(),
+  alongN: z.number(),
+  acrossN: z.number(),
+  torqueNm: z.number(),
+});
+export type JointRanges = z.infer<typeof jointRangesSchema>;
+
+/**
+ * One fatigue detail of the design data (`detail` indexes `fatigue.details`) over one analysis: per load
+ * case the largest stress range counted and the Miner damage of one run of that case (rainflow per ASTM
+ * E1049 §5.4.4, S-N curve per EN 1993-1-9 §7), and the damage of one ride cycle (the operating cycle
+ * scaled to the ride cycle time, plus its service stops).
+ */
+export const storedFatigueDetailSchema = z.object({
+  detail: z.number().int(),
+  joint: z.number().int(),
+  name: z.string(),
+  categoryMPa: z.number(),
+  shear: z.boolean(),
+  /** MPa per kN (per kN·m for a torque), as given or derived from the section. */
+  stressPerKnMPa: z.number(),
+  cases: z.array(z.object({ kind: z.enum(loadCaseKinds), maxRangeMPa: z.number(), damage: z.number() })),
+  damagePerRideCycle: z.number(),
+  damageLimit: z.number(),
+});
+export type StoredFatigueDetail = z.infer<typeof storedFatigueDetailSchema>;
+
+/**
+ * A pivot's pin checked per EN 1993-1-8 §3.13 Table 3.10 at the peak force of all load cases (times γF):
+ * utilisation ratios (design effect ÷ design resistance; above 1 fails). The serviceability ratios are
+ * null unless the pin is replaceable.
+ */
+export const storedPinCheckSchema = z.object({
+  joint: z.number().int(),
+  name: z.string(),
+  forceN: z.number(),
+  diameterM: z.number(),
+  shear: z.number(),
+  bearing: z.number(),
+  bending: z.number(),
+  combined: z.number(),
+  bearingService: z.number().nullable(),
+  bendingService: z.number().nullable(),
+});
+export type StoredPinCheck = z.infer<typeof storedPinCheckSchema>;
+
+/** The pivot-life parts of an analysis; absent from analyses made before they existed. */
+export const analysisLifeFields = {
+  fatigue: z.array(storedFatigueDetailSchema).optional().catch(undefined),
+  pinChecks: z.array(storedPinCheckSchema).optional().catch(undefined),
+};
+export type AnalysisLifeFields = {
+  fatigue?: StoredFatigueDetail[];
+  pinChecks?: StoredPinCheck[];
+};
