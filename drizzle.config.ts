@@ -9,6 +9,8 @@ export default defineConfig({
     './db/server/review.ts',
     './db/server/notices.ts',
     './db/server/instruments.ts',
+    './db/server/life.ts',
+    './db/server/ndt.ts',
   ],
   out: './drizzle/server',
 });
