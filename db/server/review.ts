@@ -144,6 +144,12 @@ export const reviewQueue = sqliteTable(
     failedItems: integer('failed_items').notNull().default(0),
     overdueSince: text('overdue_since'),
     findingsPastDue: integer('findings_past_due').notNull().default(0),
+    /** The ride's earliest NDT due date (from ride_life_flags), when it has NDT plans. */
+    ndtDueOn: text('ndt_due_on'),
+    /** A pin or bushing projected (cautiously) to reach its limit before the next scheduled inspection. */
+    wearLimitOn: text('wear_limit_on'),
+    /** The earlier inspection date suggested for it. */
+    wearSuggestedOn: text('wear_suggested_on'),
     /** Lower-cased ride, serial, site, operator and inspector names, for the free-text search. */
     search: text('search').notNull(),
   },
