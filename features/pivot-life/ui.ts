@@ -1,0 +1,2 @@
+/** What other features may use from pivot-life that needs the app's runtime: screens' parts and hooks. */
+export {};
