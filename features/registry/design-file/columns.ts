@@ -16,6 +16,9 @@ export const designCsvRecords = [
   'seat',
   'motion',
   'rider',
+  'ndt',
+  'fatigue',
+  'fatigue_detail',
 ] as const;
 export type RecordKind = (typeof designCsvRecords)[number];
 
@@ -46,6 +49,19 @@ export const DESIGN_CSV_COLUMNS = [
   'max_bearing_pressure_pa',
   'max_force_n',
   'max_torque_nm',
+  'pin_grade',
+  'pin_fy_pa',
+  'pin_fu_pa',
+  'plate_grade',
+  'plate_fy_pa',
+  'inner_plate_m',
+  'outer_plate_m',
+  'gap_m',
+  'replaceable_pin',
+  'gamma_m0',
+  'gamma_m2',
+  'gamma_m6_ser',
+  'gamma_f',
   'spine_angle_rad',
   'facing',
   'rpm',
@@ -64,27 +80,65 @@ export const DESIGN_CSV_COLUMNS = [
   'revision',
   'gravity_m_s2',
   'near_margin',
+  'method',
+  'interval_days',
+  'note',
+  'ride_cycle_s',
+  'stops_per_ride_cycle',
+  'member',
+  'component',
+  'stress_per_kn_mpa',
+  'section_area_mm2',
+  'shear_planes',
+  'category_mpa',
+  'in_shear',
+  'gamma_ff',
+  'gamma_mf',
+  'damage_limit',
 ] as const;
 export type DesignCsvColumn = (typeof DESIGN_CSV_COLUMNS)[number];
 
 export type Cells = Partial<Record<DesignCsvColumn, string>>;
 
 /**
- * One field of a record and the cell(s) holding it. `text` is kept as typed (names, document); `word` is
- * trimmed and lower-cased (kinds, shear, facing); `index` is a body or joint number; `number` a value in SI
- * units; `flag` yes or no (true/false); `pair` an [x, y] over two columns. An optional field is left out of the data when its cells are
- * empty; a required one is reported as "Required".
+ * The unit of a number column whose unit is not the SI one its name would suggest: the fatigue detail's
+ * values are in the units of EN 1993-1-9 (as the design data holds them), an NDT interval in days.
  */
-export type FieldColumn =
-  | { field: string; column: DesignCsvColumn; read: 'text' | 'word' | 'number' | 'flag'; optional: boolean }
-  | { field: string; column: 'body' | 'joint'; read: 'index'; optional: false }
-  | { field: string; column: readonly [DesignCsvColumn, DesignCsvColumn]; read: 'pair'; optional: boolean };
+export const columnUnitWords: Partial<Record<DesignCsvColumn, string>> = {
+  stress_per_kn_mpa: 'MPa per kN (per kN·m for a torque)',
+  section_area_mm2: 'mm²',
+  category_mpa: 'MPa',
+  interval_days: 'whole days',
+  stops_per_ride_cycle: 'a whole number',
+  shear_planes: '1 or 2',
+};
 
-const text = (field: string, column: DesignCsvColumn): FieldColumn => ({
+/**
+ * One field of a record and the cell(s) holding it. `text` is kept as typed (names, document); `word` is
+ * trimmed and lower-cased (kinds, shear, facing); `code` trimmed and upper-cased (an NDT method); `index` is a body or joint number; `number` a value in the
+ * unit its column names (SI, except the fatigue detail's MPa and mm² of EN 1993-1-9); `flag` yes or no
+ * (true/false); `pair` an [x, y] over two columns. An optional field is left out of the data when its cells
+ * are empty; a required one is reported as "Required". A field with a `group` lives in an object of that
+ * name inside the record (a pivot's `pinCheck`): the object is there when any of its cells is filled, and
+ * then its required fields are required.
+ */
+type Group = 'pinCheck';
+export type FieldColumn = { group?: Group } & (
+  | {
+      field: string;
+      column: DesignCsvColumn;
+      read: 'text' | 'word' | 'code' | 'number' | 'flag';
+      optional: boolean;
+    }
+  | { field: string; column: 'body' | 'joint'; read: 'index'; optional: false }
+  | { field: string; column: readonly [DesignCsvColumn, DesignCsvColumn]; read: 'pair'; optional: boolean }
+);
+
+const text = (field: string, column: DesignCsvColumn, optional = false): FieldColumn => ({
   field,
   column,
   read: 'text',
-  optional: false,
+  optional,
 });
 const word = (field: string, column: DesignCsvColumn, optional = false): FieldColumn => ({
   field,
@@ -117,6 +171,7 @@ const pair = (field: string, x: DesignCsvColumn, y: DesignCsvColumn, optional = 
   optional,
 });
 const OPTIONAL = true;
+const inGroup = (group: Group, fields: FieldColumn[]): FieldColumn[] => fields.map((f) => ({ ...f, group }));
 
 /**
  * The fields of each record kind, in the order import reads them (so problems in one row are listed in
@@ -140,6 +195,21 @@ export const recordFields: Record<RecordKind, readonly FieldColumn[]> = {
     number('maxBearingPressurePa', 'max_bearing_pressure_pa', OPTIONAL),
     number('maxForceN', 'max_force_n', OPTIONAL),
     number('maxTorqueNm', 'max_torque_nm', OPTIONAL),
+    ...inGroup('pinCheck', [
+      text('pinGrade', 'pin_grade'),
+      number('pinFyPa', 'pin_fy_pa'),
+      number('pinFuPa', 'pin_fu_pa'),
+      text('plateGrade', 'plate_grade'),
+      number('plateFyPa', 'plate_fy_pa'),
+      number('innerPlateM', 'inner_plate_m'),
+      number('outerPlateM', 'outer_plate_m'),
+      number('gapM', 'gap_m'),
+      flag('replaceable', 'replaceable_pin'),
+      number('gammaM0', 'gamma_m0', OPTIONAL),
+      number('gammaM2', 'gamma_m2', OPTIONAL),
+      number('gammaM6ser', 'gamma_m6_ser', OPTIONAL),
+      number('gammaF', 'gamma_f', OPTIONAL),
+    ]),
   ],
   seat: [
     index('body'),
@@ -162,6 +232,32 @@ export const recordFields: Record<RecordKind, readonly FieldColumn[]> = {
     number('emergencyDecelRadS2', 'emergency_decel_rad_s2', OPTIONAL),
   ],
   rider: [number('min', 'min_g', OPTIONAL), number('max', 'max_g', OPTIONAL)],
+  // The joint says which pivot's list the plan joins; it is not a field of the plan itself.
+  ndt: [
+    { field: 'method', column: 'method', read: 'code', optional: false },
+    number('intervalDays', 'interval_days'),
+    text('note', 'note', OPTIONAL),
+  ],
+  // The fatigue record's fields are those of `fatigue` beside its list of details.
+  fatigue: [
+    number('rideCycleS', 'ride_cycle_s'),
+    number('stopsPerRideCycle', 'stops_per_ride_cycle', OPTIONAL),
+  ],
+  fatigue_detail: [
+    index('joint'),
+    text('name', 'name'),
+    word('kind', 'kind'),
+    word('member', 'member'),
+    word('component', 'component'),
+    number('stressPerKnMPa', 'stress_per_kn_mpa', OPTIONAL),
+    number('sectionAreaMm2', 'section_area_mm2', OPTIONAL),
+    number('shearPlanes', 'shear_planes', OPTIONAL),
+    number('categoryMPa', 'category_mpa'),
+    flag('shear', 'in_shear'),
+    number('gammaFf', 'gamma_ff', OPTIONAL),
+    number('gammaMf', 'gamma_mf', OPTIONAL),
+    number('damageLimit', 'damage_limit', OPTIONAL),
+  ],
 };
 
 const round = [pair('centreM', 'x_m', 'y_m'), number('radiusM', 'radius_m')];
@@ -184,7 +280,11 @@ const partKindFields: Record<DesignPart['kind'], readonly FieldColumn[]> = {
  * Columns that say which record a row is rather than hold one of its fields: a body's place in the chain
  * (its index in the list) and the rider limit's axis (its key).
  */
-const keyColumns: Partial<Record<RecordKind, DesignCsvColumn>> = { body: 'body', rider: 'axis' };
+const keyColumns: Partial<Record<RecordKind, DesignCsvColumn>> = {
+  body: 'body',
+  rider: 'axis',
+  ndt: 'joint',
+};
 
 /** The fields of a record; a part's include those of its kind. */
 export function fieldsOf(record: RecordKind, partKind?: DesignPart['kind']): readonly FieldColumn[] {
@@ -206,7 +306,8 @@ export function columnsOf(record: RecordKind, partKind?: DesignPart['kind']): De
 export function cellsOf(fields: readonly FieldColumn[], value: Record<string, unknown>): Cells {
   const cells: Cells = {};
   for (const f of fields) {
-    const v = value[f.field];
+    const holder = f.group ? (value[f.group] as Record<string, unknown> | undefined) : value;
+    const v = holder?.[f.field];
     if (f.read === 'pair') {
       const xy = v as readonly number[] | undefined;
       cells[f.column[0]] = numberText(xy?.[0]);
@@ -218,13 +319,19 @@ export function cellsOf(fields: readonly FieldColumn[], value: Record<string, un
   return cells;
 }
 
-/** The cell of a field (for a pair, `element` 1 is the y column; anything else the x column). */
+/**
+ * The cell of a field (for a pair, `element` 1 is the y column; anything else the x column; for a group,
+ * `element` names the field inside it, and the group as a whole has no one cell).
+ */
 export function columnOf(
   fields: readonly FieldColumn[],
   field: PropertyKey | undefined,
   element: PropertyKey | undefined,
 ): DesignCsvColumn | null {
-  const f = fields.find((c) => c.field === field);
+  const grouped = fields.some((c) => c.group !== undefined && c.group === field);
+  const f = grouped
+    ? fields.find((c) => c.group === field && c.field === element)
+    : fields.find((c) => c.group === undefined && c.field === field);
   if (f === undefined) return null;
   if (typeof f.column === 'string') return f.column;
   return element === 1 ? f.column[1] : f.column[0];

@@ -23,11 +23,16 @@ export function designToCsv(d: DesignData): string {
   d.bodies.forEach((b, i) => add('body', b, { body: String(i) }));
   d.parts.forEach((p) => add('part', p, {}, fieldsOf('part', p.kind)));
   d.pivots.forEach((p) => add('pivot', p));
+  d.pivots.forEach((p) => p.ndt?.forEach((plan) => add('ndt', plan, { joint: String(p.joint) })));
   d.seats.forEach((s) => add('seat', s));
   d.motion.forEach((m) => add('motion', m));
   for (const axis of ['gx', 'gz'] as const) {
     const limit = d.rider[axis];
     if (limit) add('rider', limit, { axis });
+  }
+  if (d.fatigue) {
+    add('fatigue', d.fatigue);
+    d.fatigue.details.forEach((f) => add('fatigue_detail', f));
   }
   const lines = [DESIGN_CSV_COLUMNS.join(',')];
   for (const [record, cells] of rows)

@@ -11,6 +11,7 @@ import {
   type FieldColumn,
   type RecordKind,
   columnOf,
+  columnUnitWords,
   columnsOf,
   designCsvRecords,
   fieldsOf,
@@ -26,8 +27,11 @@ import {
 
 type At = (row: number | null, column: string | null, message: string) => void;
 
-/** Where each field of the data came from in the file, to put a validation problem back on its cell. */
-type Origin = { row: number; kind?: DesignPart['kind'] };
+/**
+ * Where each field of the data came from in the file, to put a validation problem back on its cell. A
+ * pivot's `ndt` holds the rows of its NDT plans, in the order of its list.
+ */
+type Origin = { row: number; kind?: DesignPart['kind']; ndt?: number[] };
 type Origins = {
   source?: number;
   analysis?: number;
@@ -37,6 +41,8 @@ type Origins = {
   seats: Origin[];
   motion: Origin[];
   rider: Partial<Record<'gx' | 'gz', number>>;
+  fatigue?: number;
+  details: Origin[];
 };
 
 type Fields = Record<string, unknown>;
@@ -50,6 +56,10 @@ type Draft = {
   seats: Fields[];
   motion: Fields[];
   rider: Partial<Record<'gx' | 'gz', Fields>>;
+  /** NDT plans as read, each with its row and the joint its pivot is found by once every row is read. */
+  ndt: { row: number; joint: number | undefined; plan: Fields }[];
+  fatigue?: Fields;
+  details: Fields[];
 };
 
 /** The data's lists and the record kind of their rows. */
@@ -93,8 +103,25 @@ export function parseDesignCsv(text: string): ImportResult {
   const header = readHeader(headerRecord, at);
   if (!header) return { ok: false, issues };
 
-  const origins: Origins = { bodies: [], parts: [], pivots: [], seats: [], motion: [], rider: {} };
-  const draft: Draft = { bodies: [], parts: [], pivots: [], seats: [], motion: [], rider: {} };
+  const origins: Origins = {
+    bodies: [],
+    parts: [],
+    pivots: [],
+    seats: [],
+    motion: [],
+    rider: {},
+    details: [],
+  };
+  const draft: Draft = {
+    bodies: [],
+    parts: [],
+    pivots: [],
+    seats: [],
+    motion: [],
+    rider: {},
+    ndt: [],
+    details: [],
+  };
   for (const { row, cells } of rows) {
     if (cells.length > header.width && cells.slice(header.width).some((c) => c.trim() !== ''))
       at(row, null, `This row has ${cells.length} cells but the header has ${header.width} columns`);
@@ -112,6 +139,15 @@ export function parseDesignCsv(text: string): ImportResult {
   }
   if (!draft.source)
     at(null, 'record', 'No source row: add one with record "source", the document and its revision');
+  placeNdtPlans(draft, origins, at);
+  if (draft.details.length > 0 && !draft.fatigue)
+    at(
+      null,
+      'record',
+      'Fatigue detail rows need a fatigue row: add one with record "fatigue" and the ride cycle time (ride_cycle_s)',
+    );
+  const fatigue =
+    draft.fatigue || draft.details.length > 0 ? { ...draft.fatigue, details: draft.details } : undefined;
 
   // Problems found while reading come first; the schema then checks everything it can still see.
   const parsed = designDataSchema.safeParse({
@@ -123,8 +159,13 @@ export function parseDesignCsv(text: string): ImportResult {
     seats: draft.seats,
     motion: draft.motion,
     rider: draft.rider,
+    ...(fatigue ? { fatigue } : {}),
   });
-  if (!parsed.success) addSchemaIssues(parsed.error.issues, origins, issues, draft.source !== undefined);
+  if (!parsed.success)
+    addSchemaIssues(parsed.error.issues, origins, issues, {
+      source: draft.source !== undefined,
+      fatigue: draft.fatigue !== undefined,
+    });
   if (issues.length > 0 || !parsed.success) return { ok: false, issues: sortIssues(issues) };
   return { ok: true, data: parsed.data };
 }
@@ -185,7 +226,7 @@ function rowReader(row: number, cells: string[], columnIndex: Map<DesignCsvColum
         c,
         /^[+-]?\d+,\d+$/.test(raw)
           ? `"${raw}" uses a decimal comma: write ${raw.replace(',', '.')}`
-          : `"${raw}" is not a number (SI units, point as the decimal mark)`,
+          : `"${raw}" is not a number (${columnUnitWords[c] ?? 'SI units'}, point as the decimal mark)`,
       );
       return undefined;
     }
@@ -225,11 +266,13 @@ function rowReader(row: number, cells: string[], columnIndex: Map<DesignCsvColum
   const valueOf = (f: FieldColumn): unknown => {
     switch (f.read) {
       case 'text':
-        return cell(f.column);
+        return f.optional && text(f.column) === '' ? undefined : cell(f.column);
       case 'word': {
         const word = text(f.column).toLowerCase();
         return f.optional && word === '' ? undefined : word;
       }
+      case 'code':
+        return text(f.column).toUpperCase();
       case 'index':
         return indexAt(f.column);
       case 'number':
@@ -250,12 +293,27 @@ function rowReader(row: number, cells: string[], columnIndex: Map<DesignCsvColum
         if (c !== 'record' && !allowed.includes(c) && text(c) !== '')
           at(row, c, `Leave empty in ${what} rows`);
     },
-    /** The record's fields in the table's order; an optional one with empty cells is left out. */
+    /**
+     * The record's fields in the table's order; an optional one with empty cells is left out. A group's
+     * fields make an object of the group's name, there only when one of its cells is filled.
+     */
     fields(list: readonly FieldColumn[]): Fields {
-      const value: Fields = {};
-      for (const f of list) {
-        const v = valueOf(f);
-        if (v !== undefined || !f.optional) value[f.field] = v;
+      const read = (fields: readonly FieldColumn[]) => {
+        const value: Fields = {};
+        for (const f of fields) {
+          const v = valueOf(f);
+          if (v !== undefined || !f.optional) value[f.field] = v;
+        }
+        return value;
+      };
+      const value = read(list.filter((f) => f.group === undefined));
+      const groups = new Set(list.flatMap((f) => (f.group ? [f.group] : [])));
+      for (const group of groups) {
+        const fields = list.filter((f) => f.group === group);
+        const filled = fields.some((f) =>
+          (typeof f.column === 'string' ? [f.column] : f.column).some((c) => text(c) !== ''),
+        );
+        if (filled) value[group] = read(fields);
       }
       return value;
     },
@@ -313,6 +371,27 @@ function takeRecord(record: RecordKind, r: RowReader, draft: Draft, origins: Ori
       origins[list].push({ row });
       return;
     }
+    case 'ndt': {
+      r.onlyUsed(columnsOf('ndt'), 'ndt');
+      draft.ndt.push({ row, joint: r.indexAt('joint'), plan: r.fields(recordFields.ndt) });
+      return;
+    }
+    case 'fatigue': {
+      r.onlyUsed(columnsOf('fatigue'), 'fatigue');
+      if (origins.fatigue !== undefined)
+        at(row, 'record', `Only one fatigue row is allowed (the first is on row ${origins.fatigue})`);
+      else {
+        origins.fatigue = row;
+        draft.fatigue = r.fields(recordFields.fatigue);
+      }
+      return;
+    }
+    case 'fatigue_detail': {
+      r.onlyUsed(columnsOf('fatigue_detail'), 'fatigue_detail');
+      draft.details.push(r.fields(recordFields.fatigue_detail));
+      origins.details.push({ row });
+      return;
+    }
     case 'rider': {
       r.onlyUsed(columnsOf('rider'), 'rider');
       const axis = r.text('axis').toLowerCase();
@@ -331,19 +410,39 @@ function takeRecord(record: RecordKind, r: RowReader, draft: Draft, origins: Ori
   }
 }
 
+/**
+ * Each NDT plan joins the list of the pivot of its joint (rows of one joint keep their order); a plan whose
+ * joint has no pivot row is reported on its joint cell.
+ */
+function placeNdtPlans(draft: Draft, origins: Origins, at: At) {
+  for (const { row, joint, plan } of draft.ndt) {
+    if (joint === undefined) continue;
+    const k = draft.pivots.findIndex((p) => p.joint === joint);
+    if (k < 0) {
+      at(row, 'joint', `No pivot row for joint ${joint}: an NDT plan belongs to a pivot`);
+      continue;
+    }
+    const plans = (draft.pivots[k].ndt ??= []) as Fields[];
+    plans.push(plan);
+    (origins.pivots[k].ndt ??= []).push(row);
+  }
+}
+
 /** The schema's problems, each on its cell; a cell already reported while reading is not reported again. */
 function addSchemaIssues(
   schemaIssues: readonly { path: PropertyKey[]; message: string }[],
   origins: Origins,
   issues: ImportIssue[],
-  hasSource: boolean,
+  has: { source: boolean; fatigue: boolean },
 ) {
   const seen = new Set(issues.map((i) => `${i.row}:${i.column}`));
   for (const issue of schemaIssues) {
     const { row, column } = placeOf(issue.path, origins);
     // A cell already reported while reading (not a number, required) needs no second message.
     if (row !== null && seen.has(`${row}:${column}`)) continue;
-    if (row === null && issue.path[0] === 'source' && !hasSource) continue;
+    // A missing source or fatigue row is reported once, as such, not again field by field.
+    if (row === null && issue.path[0] === 'source' && !has.source) continue;
+    if (row === null && issue.path[0] === 'fatigue' && issue.path[1] !== 'details' && !has.fatigue) continue;
     issues.push({
       row,
       column,
@@ -362,6 +461,21 @@ function placeOf(path: PropertyKey[], origins: Origins): { row: number | null; c
     return { row: origins.analysis ?? null, column: columnOf(recordFields.analysis, head, undefined) };
   if (head === 'rider' && (second === 'gx' || second === 'gz'))
     return { row: origins.rider[second] ?? null, column: columnOf(recordFields.rider, third, undefined) };
+  if (head === 'fatigue') {
+    if (second !== 'details')
+      return { row: origins.fatigue ?? null, column: columnOf(recordFields.fatigue, second, undefined) };
+    const origin = typeof third === 'number' ? origins.details[third] : undefined;
+    return {
+      row: origin?.row ?? null,
+      column: origin ? columnOf(recordFields.fatigue_detail, fourth, undefined) : null,
+    };
+  }
+  if (head === 'pivots' && third === 'ndt') {
+    const pivot = typeof second === 'number' ? origins.pivots[second] : undefined;
+    const row = typeof fourth === 'number' ? pivot?.ndt?.[fourth] : undefined;
+    if (row === undefined) return { row: pivot?.row ?? null, column: null };
+    return { row, column: columnOf(recordFields.ndt, path[4], undefined) };
+  }
   if (isList(head)) {
     const origin = typeof second === 'number' ? origins[head][second] : undefined;
     return {
