@@ -465,6 +465,7 @@ export function designToCycleInput(d: DesignData, measured: MeasuredInputs = {},
                 maxBearingPressurePa: p.maxBearingPressurePa,
                 measuredClearanceM: wear?.clearanceM,
                 maxClearanceM: p.maxClearanceM,
+                en1993: p.pinCheck,
               }
             : undefined,
         };

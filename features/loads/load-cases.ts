@@ -108,8 +108,11 @@ const stopQuantities: ReadonlySet<QuantityKind> = new Set<QuantityKind>([
   'pressure',
   'accel',
 ]);
+// A pin check (EN 1993-1-8 Table 3.10) follows the pivot force whatever its quantity (the pin's bending
+// moment too): a stop that raises the force raises every check, so the merged item is the peak over cases.
 const fromStops = (e: EnvelopeItem) =>
-  stopQuantities.has(e.quantity) && !/\.pin\.(diameter|clearance)$/.test(e.id);
+  (stopQuantities.has(e.quantity) && !/\.pin\.(diameter|clearance)$/.test(e.id)) ||
+  /\.pin\.en1993\./.test(e.id);
 
 /** NaN is unreadable, so it counts as the worst. */
 const ratioOf = (e: Pick<EnvelopeItem, 'ratio'>) => (Number.isNaN(e.ratio) ? Infinity : e.ratio);

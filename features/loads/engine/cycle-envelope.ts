@@ -13,6 +13,7 @@ import {
   evaluateExtremes,
   evaluateLimit,
 } from '@/features/loads/engine/envelope';
+import { type PinCheckResult, checkPin } from '@/features/loads/engine/pin-checks';
 import { pinStresses, pinWear } from '@/features/loads/engine/pins';
 import type { QuantityKind } from '@/lib/units';
 
@@ -73,7 +74,9 @@ export function evaluateEnvelope(
       pin.minimumDiameterM !== undefined && pin.measuredDiameterM !== undefined
         ? pinWear(pin.nominalDiameterM, pin.minimumDiameterM, pin.measuredDiameterM)
         : null;
-    pins.push({ joint: i, stresses, wear });
+    const check = pin.en1993 ? checkPin(joint.peakForce.value, diameter, pin.shear, pin.en1993) : null;
+    pins.push({ joint: i, stresses, wear, ...(check ? { check } : {}) });
+    if (check) envelope.push(...pinCheckItems(key, who, check, margin));
     if (pin.maxShearStressPa !== undefined)
       add(
         `${key}.pin.shear`,
@@ -132,4 +135,54 @@ export function evaluateEnvelope(
     });
   }
   return { envelope, pins };
+}
+
+/** The standard every pin-check item is labelled with. */
+export const PIN_CHECK_STANDARD = 'EN 1993-1-8 Table 3.10';
+
+/**
+ * A pin's Table 3.10 checks as envelope items (`joints.<i>.pin.en1993.<check>`): each design effect
+ * against its design resistance, so the ratio is the utilisation. The combined check's left side grows
+ * as F², so it is held as the design force against the force at which the left side reaches 1: the ratio
+ * is then √((M/M_Rd)² + (F_v/F_v,Rd)²), and it passes and fails exactly when the Table's check does.
+ */
+export function pinCheckItems(key: string, who: string, c: PinCheckResult, margin: number): EnvelopeItem[] {
+  const items: EnvelopeItem[] = [];
+  const std = PIN_CHECK_STANDARD;
+  const item = (id: string, label: string, quantity: QuantityKind, effect: number, resistance: number) =>
+    items.push({
+      id: `${key}.pin.en1993.${id}`,
+      label: `${who}: ${label} (${std})`,
+      quantity,
+      ...evaluateLimit(effect, { kind: 'upper', max: resistance }, margin),
+    });
+  const plate = (p: 'inner' | 'outer') => (p === 'inner' ? 'inner plate' : 'outer plate');
+  const planes = c.shear === 'double' ? 'per shear plane' : 'single shear';
+  item('shear', `pin shear ${planes}, γM2`, 'force', c.shearCheck.effect, c.shearCheck.resistance);
+  item(
+    'bearing',
+    `pin bearing on the ${plate(c.bearingCheck.plate)}, γM0`,
+    'force',
+    c.bearingCheck.effect,
+    c.bearingCheck.resistance,
+  );
+  item('bending', 'pin bending moment, γM0', 'moment', c.bendingCheck.effect, c.bendingCheck.resistance);
+  item('combined', 'pin shear and bending combined', 'force', c.designForceN, c.combinedResistanceN);
+  if (c.bearingServiceCheck)
+    item(
+      'bearing_ser',
+      `pin bearing on the ${plate(c.bearingServiceCheck.plate)}, serviceability, γM6,ser`,
+      'force',
+      c.bearingServiceCheck.effect,
+      c.bearingServiceCheck.resistance,
+    );
+  if (c.bendingServiceCheck)
+    item(
+      'bending_ser',
+      'pin bending moment, serviceability, γM6,ser',
+      'moment',
+      c.bendingServiceCheck.effect,
+      c.bendingServiceCheck.resistance,
+    );
+  return items;
 }

@@ -1,6 +1,7 @@
 /** The shapes of a whole-cycle analysis: what goes in (bodies, profiles, seats, limits) and what comes out. */
 import type { ChainBody, Vec2 } from '@/features/loads/engine/chain';
 import type { EnvelopeStatus, Evaluation } from '@/features/loads/engine/envelope';
+import type { PinCheckInput, PinCheckResult } from '@/features/loads/engine/pin-checks';
 import type { PinStresses, PinWear, ShearPlanes } from '@/features/loads/engine/pins';
 import type { MotionProfile } from '@/features/loads/engine/profiles';
 import type { QuantityKind } from '@/lib/units';
@@ -29,6 +30,8 @@ export type PinInput = {
   maxBearingPressurePa?: number;
   measuredClearanceM?: number;
   maxClearanceM?: number;
+  /** The pin and plates for the EN 1993-1-8 Table 3.10 checks (features/loads/engine/pin-checks.ts). */
+  en1993?: PinCheckInput;
 };
 
 export type JointLimits = {
@@ -139,6 +142,8 @@ export type PinResult = {
   /** At the joint's peak force over the cycle. */
   stresses: PinStresses;
   wear: PinWear | null;
+  /** EN 1993-1-8 Table 3.10 at the same peak, when the pin's data is given. */
+  check?: PinCheckResult | null;
 };
 
 /**

@@ -97,6 +97,22 @@ export {
 export type { EnvelopeStatus, Evaluation, Limit } from '@/features/loads/engine/envelope';
 
 export { pinStresses, pinWear } from '@/features/loads/engine/pins';
+export {
+  PIN_CHECK_DEFAULT_FACTORS,
+  checkPin,
+  pinBendingMoment,
+  pinCheckFactors,
+  pinChecksAtPeak,
+  pinUtilisations,
+} from '@/features/loads/engine/pin-checks';
+export type {
+  PinCheckFactors,
+  PinCheckInput,
+  PinCheckResult,
+  PinCheckTerm,
+  PinUtilisations,
+} from '@/features/loads/engine/pin-checks';
+export { PIN_CHECK_STANDARD, pinCheckItems } from '@/features/loads/engine/cycle-envelope';
 export type { PinGeometry, PinStresses, PinWear, ShearPlanes } from '@/features/loads/engine/pins';
 
 /** The idealisations every result rests on; shown with results, never hidden. */
