@@ -82,6 +82,8 @@ export type CaseSummary = {
   status: EnvelopeStatus | null;
   /** The run holding this case's worst item (else its largest main-pivot force), whole, for charts. */
   run: CycleResult;
+  /** Every run of the case, whole: fatigue counts each (features/fatigue/detail-damage.ts). */
+  results: readonly CycleResult[];
 };
 
 export type LoadCasesResult = {
@@ -330,6 +332,7 @@ function summarise(
     seats,
     status: items.size ? worstStatus([...items.values()].map((h) => h.item.status)) : null,
     run,
+    results: runs,
   };
 }
 

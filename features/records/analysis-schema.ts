@@ -171,7 +171,15 @@ export const storedFatigueDetailSchema = z.object({
   shear: z.boolean(),
   /** MPa per kN (per kN·m for a torque), as given or derived from the section. */
   stressPerKnMPa: z.number(),
-  cases: z.array(z.object({ kind: z.enum(loadCaseKinds), maxRangeMPa: z.number(), damage: z.number() })),
+  cases: z.array(
+    z.object({
+      kind: z.enum(loadCaseKinds),
+      maxRangeMPa: z.number(),
+      damage: z.number(),
+      /** This case's part of damagePerRideCycle (an emergency stop's is 0: it is counted per event). */
+      perRideCycle: z.number().optional(),
+    }),
+  ),
   damagePerRideCycle: z.number(),
   damageLimit: z.number(),
 });
