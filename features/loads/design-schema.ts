@@ -140,9 +140,10 @@ export type PinCheckData = z.infer<typeof pinCheckSchema>;
  * Where on a pivot fatigue is checked: a pin in shear, a lug's net section, a weld toe… The stress there
  * follows one component of the pivot's force (or its torque) in the frame of the member that carries the
  * detail: `member` 'body' is the body hanging on the pivot (body `joint`, its x-axis along the body),
- * 'parent' the body (or, for joint 0, the ground: global x across, y up) that holds the pivot. The stress per
- * unit load is given (MPa per kN, or per kN·m for torque) or derived from a section area (stress = load /
- * (area × shear planes)). Category and curve per EN 1993-1-9 §7 (Δσ_C, or Δτ_C for `shear`, at 2×10⁶).
+ * 'parent' the body (or, for joint 0, the ground, whose frame is the global one: 'along' is global x,
+ * 'across' global y, up) that holds the pivot and carries the reaction. The stress per unit load is given
+ * (MPa per kN, or per kN·m for torque) or derived from a section area (stress = load / (area × shear
+ * planes)). Category and curve per EN 1993-1-9 §7 (Δσ_C, or Δτ_C for `shear`, at 2×10⁶).
  */
 export const fatigueDetailKinds = ['pin_shear', 'lug_net_section', 'weld_toe', 'bolt', 'other'] as const;
 export type FatigueDetailKind = (typeof fatigueDetailKinds)[number];
