@@ -145,8 +145,8 @@ export const cycleWarningLevelVocabulary: Record<CycleWarningLevel, Marked> = {
  * a shape; the two that mirror a load-check status keep that status's shape and colours.
  * - `over`: the server's load check put a value over its limit
  * - `failed`: checklist items marked failed
- * - `near`: a value near its limit
- * - `overdue`: the ride has an inspection past its due date
+ * - `near`: a value near its limit, or a pin's wear projected to reach its limit before the next inspection
+ * - `overdue`: the ride has an inspection, or a planned NDT, past its due date
  * - `past_due`: the ride has findings still open after their due date
  * - `awaiting`: a submitted inspection with nothing flagged, waiting for sign-off
  */
@@ -163,10 +163,14 @@ export const urgencyVocabulary: Record<Urgency, Marked & { description: string }
     description: 'Checklist items were marked failed.',
     mark: { icon: 'crossed', fg: 'failed', bg: 'failedSoft' },
   },
-  near: { label: 'Near limit', description: 'A value is near its design limit.', mark: nearMark },
+  near: {
+    label: 'Near limit',
+    description: 'A value is near its design limit, or wear may reach its limit before the next inspection.',
+    mark: nearMark,
+  },
   overdue: {
     label: 'Overdue',
-    description: 'An inspection of the ride is past its due date.',
+    description: 'An inspection or a planned NDT of the ride is past its due date.',
     mark: { icon: 'clock-overdue', fg: 'overdue', bg: 'overdueSoft' },
   },
   past_due: {

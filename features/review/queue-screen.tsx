@@ -246,8 +246,8 @@ function EmptyQueue({ narrowed, onClear }: { narrowed: boolean; onClear: () => v
         <>
           <Text variant="heading">The queue is clear.</Text>
           <Text muted>
-            No submitted inspection is waiting for sign-off, no ride has an inspection overdue, and no finding
-            is past its due date.
+            No submitted inspection is waiting for sign-off, no ride has an inspection or NDT overdue, no
+            finding is past its due date, and no wear is projected past its limit before the next inspection.
           </Text>
         </>
       )}

@@ -13,11 +13,27 @@ export function queueItemHref(item: QueueItem) {
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
+/**
+ * What the ride's pivot life flags: an NDT past its due date, and a pin or bushing that may reach its wear
+ * limit before the next scheduled inspection, with the earlier date suggested for an inspection.
+ */
+export function queueItemLifeFacts(item: QueueItem): string[] {
+  const facts: string[] = [];
+  if (item.ndtDueOn) facts.push(`NDT overdue since ${formatDate(item.ndtDueOn)}`);
+  if (item.wearSuggestedOn)
+    facts.push(
+      `Wear may reach its limit${item.wearLimitOn ? ` by ${formatDate(item.wearLimitOn)}` : ''}, before the ` +
+        `next inspection: inspect by ${formatDate(item.wearSuggestedOn)}`,
+    );
+  return facts;
+}
+
 /** What the item is: the inspection and who did it, or what is late on the ride. */
 export function queueItemWhat(item: QueueItem): string {
   if (item.kind === 'inspection' && item.inspectionType) {
     const type = inspectionTypeLabel[item.inspectionType];
-    return item.inspectorName ? `${type} inspection by ${item.inspectorName}` : `${type} inspection`;
+    const what = item.inspectorName ? `${type} inspection by ${item.inspectorName}` : `${type} inspection`;
+    return [what, ...queueItemLifeFacts(item)].join(' · ');
   }
   const parts: string[] = [];
   // A returned inspection that was over a limit or failed items: the ride stays flagged until resolved.
@@ -29,6 +45,7 @@ export function queueItemWhat(item: QueueItem): string {
     );
   if (item.overdueSince) parts.push(`Inspection overdue since ${formatDate(item.overdueSince)}`);
   if (item.findingsPastDue > 0) parts.push(`${plural(item.findingsPastDue, 'finding', 'findings')} past due`);
+  parts.push(...queueItemLifeFacts(item));
   return parts.join(' · ') || urgencyInfo[item.urgency].description;
 }
 

@@ -157,6 +157,15 @@ export const queueItemSchema = z.object({
   /** The ride's earliest missed inspection due date, when it has one. */
   overdueSince: z.string().nullable(),
   findingsPastDue: z.number().int(),
+  /** The ride's earliest NDT due date when it is past (a planned test overdue or never made); else null. */
+  ndtDueOn: z.string().nullable().optional(),
+  /**
+   * The earliest date a pin or bushing may reach its wear limit (the prediction interval's side), when
+   * that falls before the next scheduled inspection; else null.
+   */
+  wearLimitOn: z.string().nullable().optional(),
+  /** The earlier inspection date suggested for that wear; null without a wear flag. */
+  wearSuggestedOn: z.string().nullable().optional(),
 });
 export type QueueItem = z.infer<typeof queueItemSchema>;
 

@@ -14,6 +14,7 @@ import { SQLiteSyncDialect } from 'drizzle-orm/sqlite-core';
 
 import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
 import { inspections } from '@/db/server/inspections';
+import { rideLifeFlags } from '@/db/server/ndt';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
 import { isoDay } from '@/lib/dates';
@@ -50,7 +51,9 @@ type OnlyRides = (column: SQL) => SQL;
 
 /**
  * What decides a ride's rows, for the rides in scope: its earliest overdue schedule, its findings past
- * due, the returned inspection that keeps it flagged, and the inspections waiting for a decision.
+ * due, the returned inspection that keeps it flagged, the inspections waiting for a decision, and its
+ * pivot-life flags (server/pivot-life/flags.ts keeps `ride_life_flags`): an NDT past its due date counts
+ * as overdue like an inspection, and a wear limit projected before the next inspection as near a limit.
  */
 function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
   return sql`
@@ -92,6 +95,15 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
             )
         ) WHERE k = 1
       ),
+      ride_life AS (
+        SELECT lf.ride_id AS ride_id,
+          CASE WHEN lf.ndt_due_on < ${TODAY} THEN lf.ndt_due_on END AS ndt_overdue_since,
+          CASE WHEN lf.wear_suggested_on IS NOT NULL THEN lf.wear_limit_on END AS wear_limit_on,
+          lf.wear_suggested_on AS wear_suggested_on
+        FROM ${rideLifeFlags} lf
+        WHERE (lf.ndt_due_on < ${TODAY} OR lf.wear_suggested_on IS NOT NULL)
+          AND ${onlyRides(sql`lf.ride_id`)}
+      ),
       pending AS (
         SELECT i.* FROM ${inspections} i
         WHERE ${pendingScope}
@@ -107,14 +119,15 @@ const inspectionRows = sql`
       CASE
         WHEN i.analysis_status = 'over' THEN 0
         WHEN i.failed_items > 0 THEN 1
-        WHEN i.analysis_status = 'near' THEN 2
-        WHEN d.overdue_since IS NOT NULL THEN 3
+        WHEN i.analysis_status = 'near' OR lf.wear_suggested_on IS NOT NULL THEN 2
+        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN 3
         WHEN p.n > 0 THEN 4
         ELSE 5
       END,
       -- Phones may send a local offset; in UTC every item's date sorts and compares as text.
       COALESCE(strftime('%Y-%m-%dT%H:%M:%fZ', i.submitted_at), i.submitted_at),
       i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
+      lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name)
     FROM pending i
       JOIN ${rides} r ON r.id = i.ride_id
@@ -122,7 +135,8 @@ const inspectionRows = sql`
       JOIN ${users} u ON u.id = i.inspector_id
       LEFT JOIN ${sites} s ON s.id = r.site_id
       LEFT JOIN ride_due d ON d.ride_id = r.id
-      LEFT JOIN ride_past p ON p.ride_id = r.id`;
+      LEFT JOIN ride_past p ON p.ride_id = r.id
+      LEFT JOIN ride_life lf ON lf.ride_id = r.id`;
 
 /** One row per ride flagged by a returned inspection, or overdue / past due with nothing waiting. */
 function rideRows(onlyRides: OnlyRides): SQL {
@@ -133,13 +147,23 @@ function rideRows(onlyRides: OnlyRides): SQL {
       CASE
         WHEN al.analysis_status = 'over' THEN 0
         WHEN al.failed_items > 0 THEN 1
-        WHEN d.overdue_since IS NOT NULL THEN 3
+        WHEN lf.wear_suggested_on IS NOT NULL THEN 2
+        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN 3
         ELSE 4
       END,
       COALESCE(
-        strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at, d.overdue_since, p.first_due
+        strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at,
+        -- The earliest missed date (a schedule's or an NDT's), else the first finding past due, else the
+        -- suggested inspection date of a wear flag.
+        CASE
+          WHEN d.overdue_since IS NULL THEN lf.ndt_overdue_since
+          WHEN lf.ndt_overdue_since IS NULL THEN d.overdue_since
+          ELSE min(d.overdue_since, lf.ndt_overdue_since)
+        END,
+        p.first_due, lf.wear_suggested_on
       ),
       al.analysis_status, COALESCE(al.failed_items, 0), d.overdue_since, COALESCE(p.n, 0),
+      lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name ||
         COALESCE(' ' || au.name, ''))
     FROM ${rides} r
@@ -148,11 +172,12 @@ function rideRows(onlyRides: OnlyRides): SQL {
       LEFT JOIN ride_due d ON d.ride_id = r.id
       LEFT JOIN ride_past p ON p.ride_id = r.id
       LEFT JOIN ride_alarm al ON al.ride_id = r.id
+      LEFT JOIN ride_life lf ON lf.ride_id = r.id
       LEFT JOIN ${users} au ON au.id = al.inspector_id
     WHERE (
         al.inspection_id IS NOT NULL
         OR (
-          (d.overdue_since IS NOT NULL OR p.n > 0)
+          (d.overdue_since IS NOT NULL OR p.n > 0 OR lf.ride_id IS NOT NULL)
           AND NOT EXISTS (
             SELECT 1 FROM ${inspections} i
             WHERE i.ride_id = r.id AND i.review_state = 'submitted'
@@ -193,7 +218,7 @@ ${rideFacts(onlyRides, pendingScope)}
     INSERT INTO ${reviewQueue} (
       key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
       site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
-      failed_items, overdue_since, findings_past_due, search
+      failed_items, overdue_since, findings_past_due, ndt_due_on, wear_limit_on, wear_suggested_on, search
     )
 ${inspectionRows}
     UNION ALL

@@ -51,6 +51,9 @@ const itemFields = (
     'failedItems',
     'overdueSince',
     'findingsPastDue',
+    'ndtDueOn',
+    'wearLimitOn',
+    'wearSuggestedOn',
   ] as const satisfies readonly (keyof QueueItem)[]
 )
   .map((k) =>

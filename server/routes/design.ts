@@ -13,7 +13,7 @@ import {
   idParamsSchema,
   type DesignVersion,
 } from '@/features/registry/schema';
-import type { ApiDeps } from '@/server/deps';
+import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
@@ -25,6 +25,7 @@ import {
   listDesignVersions,
   mustFindDesignVersion,
 } from '@/server/registry/design';
+import { refreshRideLifeFlagsAfter } from '@/server/pivot-life/flags';
 import { mustFindRide } from '@/server/registry/rides';
 
 const byRide = validate({ params: idParamsSchema });
@@ -116,6 +117,7 @@ export function designRouter(deps: ApiDeps): Router {
   router.post('/rides/:id/design/versions/:version/decision', ...editors, decisionInput, (_req, res) => {
     const { id, version } = decisionInput.params(res);
     const design = decideDesignVersion(deps.db, currentUser(res), id, version, decisionInput.body(res));
+    refreshRideLifeFlagsAfter(deps.db, id, nowOf(deps)); // an approval changes the NDT plans in force
     res.json({ design });
   });
 
@@ -127,6 +129,7 @@ export function designRouter(deps: ApiDeps): Router {
       basedOnVersion,
       origin: 'editor',
     });
+    refreshRideLifeFlagsAfter(deps.db, putInput.params(res).id, nowOf(deps));
     res.status(201).json({ design });
   });
 
@@ -155,6 +158,7 @@ export function designRouter(deps: ApiDeps): Router {
       basedOnVersion: upload.basedOnVersion,
       origin: upload.format === 'csv' ? 'import_csv' : 'import_json',
     });
+    refreshRideLifeFlagsAfter(deps.db, ride.id, nowOf(deps));
     res.status(201).json({ design });
   });
 

@@ -10,6 +10,7 @@ import { nowOf, type ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
+import { refreshRideLifeFlagsAfter } from '@/server/pivot-life/flags';
 import { mustFindRide } from '@/server/registry/rides';
 import {
   assignmentsOf,
@@ -61,6 +62,7 @@ export function schedulesRouter(deps: ApiDeps): Router {
   });
   router.post('/schedules', ...planners, createInput, (_req, res) => {
     const schedule = createSchedule(deps.db, currentUser(res).id, createInput.body(res), nowOf(deps));
+    refreshRideLifeFlagsAfter(deps.db, schedule.rideId, nowOf(deps)); // the next inspection a wear flag is against
     res.status(201).json({ schedule });
   });
   router.patch('/schedules/:id', ...planners, patchInput, (_req, res) => {
@@ -71,10 +73,13 @@ export function schedulesRouter(deps: ApiDeps): Router {
       patchInput.body(res),
       nowOf(deps),
     );
+    refreshRideLifeFlagsAfter(deps.db, schedule.rideId, nowOf(deps));
     res.json({ schedule });
   });
   router.delete('/schedules/:id', ...planners, byId, (_req, res) => {
+    const rideId = findSchedule(deps.db, byId.params(res).id, nowOf(deps))?.rideId;
     deleteSchedule(deps.db, currentUser(res).id, byId.params(res).id, nowOf(deps));
+    if (rideId) refreshRideLifeFlagsAfter(deps.db, rideId, nowOf(deps));
     res.status(204).end();
   });
   router.get('/inspectors', ...planners, (_req, res) => {

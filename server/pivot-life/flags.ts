@@ -1,0 +1,53 @@
+/**
+ * Each ride's pivot-life flags (`ride_life_flags`): the earliest NDT due date over its pivots and planned
+ * methods, and the earliest cautious wear-limit date that falls before the next scheduled inspection with
+ * the earlier inspection date suggested for it. The review queue sits below this layer, so it reads these
+ * in SQL; whatever changes them calls `refreshRideLifeFlags`, which then refreshes the ride's queue rows.
+ *
+ * Called after an NDT record is added, an analysis is stored, a running-log day is entered or imported,
+ * design data is stored, and a schedule changes — inside the same transaction as the change.
+ */
+import { eq } from 'drizzle-orm';
+
+import { rideLifeFlags } from '@/db/server/ndt';
+import { earliestNdtDue } from '@/features/pivot-life/ndt-due';
+import type { Db } from '@/server/db';
+import { rideNdtDue } from '@/server/pivot-life/ndt';
+import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+
+type Tx = Pick<Db, 'select' | 'insert' | 'delete' | 'run' | 'get' | 'all'>;
+
+export type RideLifeFlags = {
+  ndtDueOn: string | null;
+  wearLimitOn: string | null;
+  wearSuggestedOn: string | null;
+};
+
+/** What the flags of a ride are on `today`, without writing them. */
+export function rideLifeFlagsOf(db: Tx, rideId: string, today: string): RideLifeFlags {
+  const ndtDueOn = earliestNdtDue([...rideNdtDue(db, rideId, today).values()].flat());
+  return { ndtDueOn, wearLimitOn: null, wearSuggestedOn: null };
+}
+
+/**
+ * Writes the ride's flags for `today` (the queue's day: `queueDay(db, now)`) and refreshes its queue rows.
+ * A ride with nothing to flag keeps no row.
+ */
+export function refreshRideLifeFlags(db: Tx, rideId: string, today: string, now: Date = new Date()): void {
+  const flags = rideLifeFlagsOf(db, rideId, today);
+  if (flags.ndtDueOn === null && flags.wearLimitOn === null && flags.wearSuggestedOn === null) {
+    db.delete(rideLifeFlags).where(eq(rideLifeFlags.rideId, rideId)).run();
+  } else {
+    const values = { ...flags, updatedAt: now.toISOString() };
+    db.insert(rideLifeFlags)
+      .values({ rideId, ...values })
+      .onConflictDoUpdate({ target: rideLifeFlags.rideId, set: values })
+      .run();
+  }
+  refreshQueue(db, today, [rideId]);
+}
+
+/** The same in a transaction of its own, for a route to call after a write that may move the flags. */
+export function refreshRideLifeFlagsAfter(db: Db, rideId: string, now: Date): void {
+  db.transaction((tx) => refreshRideLifeFlags(tx, rideId, queueDay(db, now), now));
+}

@@ -1,0 +1,177 @@
+import { createHash } from 'node:crypto';
+
+import express, { Router, type RequestHandler } from 'express';
+import { and, eq } from 'drizzle-orm';
+import { z } from 'zod';
+
+import { ndtRecords } from '@/db/server/ndt';
+import { rides } from '@/db/server/schema';
+import { idParamsSchema } from '@/features/registry/schema';
+import { ndtRecordInputSchema, type NdtRecordCreated, type RideNdt } from '@/features/pivot-life/ndt-schema';
+import { isoDay } from '@/lib/dates';
+import { companyScope } from '@/server/auth/scope';
+import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
+import { nowOf, type ApiDeps } from '@/server/deps';
+import type { Db } from '@/server/db';
+import { forbidden, HttpError, notFound } from '@/server/http/errors';
+import { validate } from '@/server/http/validate';
+import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
+import { addNdtRecord, rideNdt } from '@/server/pivot-life/ndt';
+import {
+  findNdtReport,
+  isPdf,
+  MAX_NDT_REPORT_BYTES,
+  ndtReportPathOf,
+  storeNdtReport,
+} from '@/server/pivot-life/ndt-report-store';
+import { queueDay } from '@/server/queue/queue-refresh';
+import { mustFindRide } from '@/server/registry/rides';
+
+const oneRide = validate({ params: idParamsSchema });
+const addInput = validate({ params: idParamsSchema, body: ndtRecordInputSchema });
+const byHash = validate({
+  params: z.object({
+    sha256: z.string().regex(/^[0-9a-f]{64}$/, 'Must be the report’s SHA-256 as 64 lower-case hex digits'),
+  }),
+});
+
+const megabytes = (n: number) => `${(n / 1048576).toFixed(1)} MB`;
+
+/** The raw body parser for a report, its "too large" turned into a 413 that names the limit. */
+const rawPdf: RequestHandler = (() => {
+  const parse = express.raw({
+    type: ['application/pdf', 'application/octet-stream'],
+    limit: MAX_NDT_REPORT_BYTES,
+  });
+  const tooLarge = z.object({ type: z.literal('entity.too.large'), length: z.number().optional() });
+  return (req, res, next) =>
+    parse(req, res, (err?: unknown) => {
+      const big = tooLarge.safeParse(err);
+      if (big.success) {
+        const size = big.data.length === undefined ? '' : ` (this one is ${megabytes(big.data.length)})`;
+        next(
+          new HttpError(
+            413,
+            'payload_too_large',
+            `The report is larger than the ${megabytes(MAX_NDT_REPORT_BYTES)} limit${size}; send a smaller PDF ` +
+              '(scanned pages at a lower resolution).',
+          ),
+        );
+        return;
+      }
+      next(err);
+    });
+})();
+
+/** An operator may read a report attached to an NDT record of one of their company's rides. */
+function operatorMaySeeReport(db: Pick<Db, 'select'>, companyId: string, sha256: string): boolean {
+  const row = db
+    .select({ id: ndtRecords.id })
+    .from(ndtRecords)
+    .innerJoin(rides, eq(rides.id, ndtRecords.rideId))
+    .where(and(eq(ndtRecords.reportSha256, sha256), eq(rides.operatorCompanyId, companyId)))
+    .limit(1)
+    .get();
+  return row !== undefined;
+}
+
+/**
+ * NDT at the ride's pivots.
+ *
+ * - `GET /rides/:id/ndt` → `RideNdt`: per pivot of the design in force its plans, due dates and records
+ *   (staff; the ride's operator for their own rides; 404 for others').
+ * - `POST /rides/:id/ndt-records` (inspector, supervisor, admin) with `ndtRecordInputSchema` → 201
+ *   `{ record, notInPlan, message }`; 400 naming the field for bad input, a pivot the design lacks, a date
+ *   after today or a report not uploaded. The ride's pivot-life flags and queue rows follow at once.
+ * - `PUT /ndt-reports/:sha256` (inspector, supervisor, admin) with the PDF's raw bytes (application/pdf or
+ *   application/octet-stream, at most 20 MB) → 201 `{ stored: true, sha256 }`, 200 when already held; 415
+ *   `not_a_pdf` when the bytes do not start with `%PDF-`, 415 `unsupported_media_type` for another
+ *   Content-Type, 413 `payload_too_large`, 400 `hash_mismatch`.
+ * - `GET /ndt-reports/:sha256` → the PDF (staff; operators only reports on their company's rides' records).
+ */
+export function ndtRouter(deps: ApiDeps): Router {
+  const router = Router();
+  const auth = requireAuth(deps);
+  const recorders = requireRole('inspector', 'supervisor', 'admin');
+
+  router.get('/rides/:id/ndt', auth, oneRide, (_req, res) => {
+    const ride = mustFindRide(deps.db, oneRide.params(res).id, companyScope(currentUser(res)));
+    const body: RideNdt = rideNdt(deps.db, ride.id, isoDay(nowOf(deps)));
+    res.json(body);
+  });
+
+  router.post('/rides/:id/ndt-records', auth, recorders, addInput, (_req, res) => {
+    const ride = mustFindRide(deps.db, addInput.params(res).id);
+    const now = nowOf(deps);
+    const body: NdtRecordCreated = deps.db.transaction((tx) => {
+      const created = addNdtRecord(tx, ride.id, addInput.body(res), currentUser(res).id, now, isoDay(now));
+      refreshRideLifeFlags(tx, ride.id, queueDay(deps.db, now), now);
+      return created;
+    });
+    res.status(201).json(body);
+  });
+
+  router.put('/ndt-reports/:sha256', auth, recorders, byHash, rawPdf, async (req, res) => {
+    const { sha256 } = byHash.params(res);
+    const body: unknown = req.body;
+    if (!Buffer.isBuffer(body))
+      throw new HttpError(
+        415,
+        'unsupported_media_type',
+        'Send the report as its raw bytes with Content-Type application/pdf.',
+      );
+    if (!isPdf(body))
+      throw new HttpError(
+        415,
+        'not_a_pdf',
+        body.length === 0
+          ? 'The upload is empty; send the report’s bytes.'
+          : 'The file is not a PDF (it does not begin with %PDF-), so it was not stored.',
+      );
+    const actual = createHash('sha256').update(body).digest('hex');
+    if (actual !== sha256)
+      throw new HttpError(
+        400,
+        'hash_mismatch',
+        'The bytes received do not match the SHA-256 in the address; the upload was cut short or changed. ' +
+          'Nothing was stored; send it again.',
+        [{ path: 'params.sha256', message: `The bytes hash to ${actual}` }],
+      );
+    const { stored } = await storeNdtReport(
+      deps.db,
+      deps.config.dataDir,
+      { sha256, bytes: body, userId: currentUser(res).id },
+      nowOf(deps),
+    );
+    res.status(stored ? 201 : 200).json({ stored, sha256 });
+  });
+
+  router.get('/ndt-reports/:sha256', auth, byHash, (_req, res, next) => {
+    const { sha256 } = byHash.params(res);
+    const scope = companyScope(currentUser(res));
+    if (scope !== null && !operatorMaySeeReport(deps.db, scope, sha256))
+      throw forbidden('Operators see the NDT reports of their own rides.');
+    if (!findNdtReport(deps.db, sha256)) throw notFound('The server has no NDT report with this SHA-256.');
+    res.setHeader('Content-Type', 'application/pdf');
+    res.setHeader('Content-Disposition', `inline; filename="ndt-report-${sha256.slice(0, 12)}.pdf"`);
+    // Private: behind sign-in. Immutable: the address is the content's own hash.
+    res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
+    res.sendFile(
+      ndtReportPathOf(deps.config.dataDir, sha256),
+      { cacheControl: false, lastModified: false },
+      (err) => {
+        if (!err) return;
+        if (res.headersSent) {
+          next(err);
+          return;
+        }
+        res.removeHeader('Cache-Control');
+        res.removeHeader('Content-Type');
+        res.removeHeader('Content-Disposition');
+        next(notFound('The report is recorded but its file is missing on the server.'));
+      },
+    );
+  });
+
+  return router;
+}
