@@ -11,6 +11,7 @@ import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
 import { loadsRouter } from '@/server/routes/loads';
+import { ndtRouter } from '@/server/routes/ndt';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
 import { registerRouter } from '@/server/routes/register';
@@ -35,6 +36,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(auditRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
+  router.use(ndtRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(apiNotFound);
