@@ -128,7 +128,7 @@ function putDay(
   entry: RunningLogEntry,
   source: RunningLogSource,
   now: Date,
-): RunningLogRow {
+): { entry: RunningLogRow; replaced: boolean } {
   const before = findDay(tx, ride.id, entry.day);
   const values = {
     cycles: entry.cycles ?? null,
@@ -153,7 +153,7 @@ function putDay(
     before: before ? { runningLog: auditValue(before) } : null,
     after: { runningLog: auditValue(after) },
   });
-  return after;
+  return { entry: after, replaced: before !== null };
 }
 
 function assertDay(day: string, today: string, path: string): void {
@@ -173,7 +173,7 @@ export function saveRunningLogDay(
   entry: RunningLogEntry,
   now: Date,
   today: string,
-): RunningLogRow {
+): { entry: RunningLogRow; replaced: boolean } {
   const ride = mustFindRide(db, rideId, scope);
   assertDay(entry.day, today, 'day');
   return db.transaction((tx) => putDay(tx, ride, userId, entry, 'typed', now));
@@ -191,10 +191,7 @@ export function importRunningLog(
   const ride = mustFindRide(db, rideId, scope);
   return db.transaction((tx) => {
     let replaced = 0;
-    for (const entry of entries) {
-      if (findDay(tx, ride.id, entry.day)) replaced++;
-      putDay(tx, ride, userId, entry, 'csv', now);
-    }
+    for (const entry of entries) if (putDay(tx, ride, userId, entry, 'csv', now).replaced) replaced++;
     return { saved: entries.length, replaced };
   });
 }

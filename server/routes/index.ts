@@ -10,6 +10,7 @@ import { designRouter } from '@/server/routes/design';
 import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
+import { lifeRouter } from '@/server/routes/life';
 import { loadsRouter } from '@/server/routes/loads';
 import { ndtRouter } from '@/server/routes/ndt';
 import { noticesRouter } from '@/server/routes/notices';
@@ -39,6 +40,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(ndtRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
+  router.use(lifeRouter(deps));
   router.use(apiNotFound);
   return router;
 }
