@@ -7,6 +7,7 @@ type Bench = { name: string; load: () => Promise<{ run: () => void | Promise<voi
 const benches: Bench[] = [
   { name: 'load engine', load: () => import('@/bench/loads') },
   { name: 'free swing', load: () => import('@/bench/free-swing') },
+  { name: 'fatigue', load: () => import('@/bench/fatigue') },
   { name: 'measured motion', load: () => import('@/bench/conditioning') },
   { name: 'server ingest', load: () => import('@/bench/ingest') },
   { name: 'review queue', load: () => import('@/bench/review-queue') },

@@ -71,6 +71,8 @@ export function createApp(deps: ApiDeps): Express {
   // A phone's push batch (up to 50 inspections with their readings) may exceed the 2 MB kept for
   // everything else; a 413 there would make the phone re-send the same batch for ever.
   app.use('/api/sync/push', express.json({ limit: '16mb' }));
+  // A history of 1,000,000 values for rainflow counting is about 20 MB of JSON.
+  app.use('/api/fatigue', express.json({ limit: '32mb' }));
   app.use(express.json({ limit: '2mb' }));
 
   app.use('/api', apiRouter(deps));

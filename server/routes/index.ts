@@ -7,6 +7,7 @@ import { adminUsersRouter } from '@/server/routes/admin-users';
 import { auditRouter } from '@/server/routes/audit';
 import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
+import { fatigueRouter } from '@/server/routes/fatigue';
 import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
@@ -38,6 +39,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(ndtRouter(deps));
+  router.use(fatigueRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(lifeRouter(deps));
