@@ -1,4 +1,5 @@
 import type { DesignData } from '@/features/loads/design-schema';
+import { withLife } from '@/server/seed/demo-design-life';
 
 /*
  * Design data for the six demo rides, as if copied from each maker's (invented) design document. Every
@@ -11,6 +12,8 @@ import type { DesignData } from '@/features/loads/design-schema';
  * angle of 0 puts the body's x-axis along global +x. Pendulum arms are drawn along the body's −y axis, so
  * a swing centred on 0 hangs straight down. A rider's spine angle is the seat-to-head direction in the
  * body frame (π/2 = the body's +y).
+ *
+ * Each ride's pin-check data, NDT plans and fatigue details are in demo-design-life.ts (`withLife`).
  */
 
 const deg = (d: number) => (d * Math.PI) / 180;
@@ -26,7 +29,7 @@ const RIDER_KG = 85;
  * own centre adds no force at either pivot, so the pivot forces hold; the riders' small extra acceleration
  * from the spin (ω²R ≈ 0.16 g at 6 rpm and 4 m) is not in the seat results.
  */
-export const skylarkDesign: DesignData = {
+export const skylarkDesign: DesignData = withLife('ORW-PX15-0412', {
   source: { document: 'Orrin Ride Works PX-15 design report DR-PX15-004', revision: 'C' },
   bodies: [{ name: 'Main arm', tipM: [0, -15] }, { name: 'Ring gondola' }],
   parts: [
@@ -113,14 +116,14 @@ export const skylarkDesign: DesignData = {
   ],
   rider: { gx: { min: -2, max: 2 }, gz: { min: -1, max: 5 } },
   nearMargin: 0.9,
-};
+});
 
 /**
  * Twin Comet — one rotating arm, 2 × 10 m, a four-seat gondola rigidly fixed at each tip, turning in a
  * vertical plane. One body: the gondolas are parts of the arm. The design load case is one gondola full
  * and the other empty, which puts the arm out of balance by four riders.
  */
-export const twinCometDesign: DesignData = {
+export const twinCometDesign: DesignData = withLife('BME-TA2-0097', {
   source: { document: 'Brede Motion Engineering TA-2 structural calculation SC-TA2-11', revision: '4' },
   bodies: [{ name: 'Arm with gondolas' }],
   parts: [
@@ -162,7 +165,7 @@ export const twinCometDesign: DesignData = {
     },
   ],
   rider: { gx: { min: -2, max: 2 }, gz: { min: -1.2, max: 4 } },
-};
+});
 
 /**
  * Lantern Wheel — 32 m observation wheel, 18 enclosed gondolas. Two bodies: the wheel (rim, spokes, hub
@@ -170,7 +173,7 @@ export const twinCometDesign: DesignData = {
  * hanger pin and its riders are checked. The gondola turns against the wheel at the same speed, so it
  * stays level (its hanger joint's relative motion is −1.2 rpm).
  */
-export const lanternWheelDesign: DesignData = {
+export const lanternWheelDesign: DesignData = withLife('MFW-LW18-0031', {
   source: { document: 'Marrow & Finch LW-18 design file DF-18-02', revision: 'B' },
   bodies: [{ name: 'Wheel', tipM: [16, 0] }, { name: 'Gondola 1' }],
   parts: [
@@ -237,14 +240,14 @@ export const lanternWheelDesign: DesignData = {
     { joint: 1, kind: 'constant', rpm: -1.2, serviceDecelRadS2: 0.02, emergencyDecelRadS2: 0.05 },
   ],
   rider: { gx: { min: -0.5, max: 0.5 }, gz: { min: 0, max: 1.5 } },
-};
+});
 
 /**
  * Tidebreaker — main arm (14 m with a counterweight) turning at 6 rpm, a 4 m powered sub-arm on its tip
  * turning at −12 rpm relative to it, and a gondola locked to the sub-arm. Three bodies. The sub-arm
  * pivot's force limit is close to what the design motion gives: the demo's near-limit pivot.
  */
-export const tidebreakerDesign: DesignData = {
+export const tidebreakerDesign: DesignData = withLife('ORW-RX30-0158', {
   source: { document: 'Orrin Ride Works RX-30 design report DR-RX30-011', revision: 'E' },
   bodies: [{ name: 'Main arm', tipM: [14, 0] }, { name: 'Sub-arm', tipM: [4, 0] }, { name: 'Gondola' }],
   parts: [
@@ -339,7 +342,7 @@ export const tidebreakerDesign: DesignData = {
     { joint: 2, kind: 'fixed', angleRad: 0 },
   ],
   rider: { gx: { min: -2.5, max: 2.5 }, gz: { min: -1.5, max: 5 } },
-};
+});
 
 /*
  * Whirligig Chairs — swing carousel: crown of radius 7 m turning at 10 rpm about a vertical axis, chain
@@ -365,7 +368,7 @@ export const whirligigHanger = {
   omegaRadS: whirligigOmega,
 };
 
-export const whirligigDesign: DesignData = {
+export const whirligigDesign: DesignData = withLife('QCW-SC32-0264', {
   source: { document: 'Quillon Carousel Works SC-32 type test file TT-SC32', revision: '7' },
   gravityMS2: 16.2,
   bodies: [{ name: 'Hanger chain', tipM: [0, -6] }, { name: 'Seat with rider' }],
@@ -414,13 +417,13 @@ export const whirligigDesign: DesignData = {
     { joint: 1, kind: 'fixed', angleRad: 0 },
   ],
   rider: { gx: { min: -1, max: 1 }, gz: { min: 0, max: 2.5 } },
-};
+});
 
 /**
  * Little Kite — small pendulum for younger riders: a 6 m arm with a 12-seat gondola and a counterweight,
  * swinging ±75°. One body: the gondola is fixed to the arm.
  */
-export const littleKiteDesign: DesignData = {
+export const littleKiteDesign: DesignData = withLife('ORW-PX6-0733', {
   source: { document: 'Orrin Ride Works PX-6 design report DR-PX6-002', revision: 'A' },
   bodies: [{ name: 'Arm and gondola' }],
   parts: [
@@ -470,7 +473,7 @@ export const littleKiteDesign: DesignData = {
     },
   ],
   rider: { gx: { min: -1.5, max: 1.5 }, gz: { min: 0, max: 3.5 } },
-};
+});
 
 /** Design data by the demo ride's serial (serials are unique in the demo). */
 export const demoDesigns: Record<string, DesignData> = {

@@ -13,9 +13,15 @@ import {
 } from '@/features/registry/csv';
 import {
   designDataSchema,
+  fatigueComponents,
+  fatigueDetailKinds,
+  ndtMethods,
   partKinds,
   type DesignData,
   type DesignPart,
+  type FatigueDetail,
+  type NdtPlan,
+  type PinCheckData,
 } from '@/features/loads/design-schema';
 import {
   designImportCheckResponseSchema,
@@ -23,6 +29,7 @@ import {
   rideListPageSchema,
   rideResponseSchema,
 } from '@/features/registry/schema';
+import { csvCell, readCsv } from '@/features/registry/design-file/csv-text';
 import { demoRides } from '@/server/seed/demo';
 import { demoDesigns, littleKiteDesign, tidebreakerDesign } from '@/server/seed/demo-design';
 
@@ -77,6 +84,8 @@ describe('round trip (pure)', () => {
       'pivot',
       'pivot',
       'pivot',
+      // Each pivot's NDT plans, pivot by pivot in the order of its list.
+      ...tidebreakerDesign.pivots.flatMap((p) => (p.ndt ?? []).map(() => 'ndt')),
       'seat',
       'seat',
       'motion',
@@ -84,7 +93,11 @@ describe('round trip (pure)', () => {
       'motion',
       'rider',
       'rider',
+      'fatigue',
+      ...(tidebreakerDesign.fatigue?.details ?? []).map(() => 'fatigue_detail'),
     ]);
+    expect(tidebreakerDesign.pivots.flatMap((p) => p.ndt ?? []).length).toBeGreaterThan(0);
+    expect(tidebreakerDesign.fatigue?.details.length).toBeGreaterThan(0);
   });
 
   // Names with commas, quotes, line breaks and non-Latin text; numbers of any size, −0 included.
@@ -131,6 +144,73 @@ describe('round trip (pure)', () => {
     );
   }
 
+  const factor = fc.double({ min: 1, max: 3, noNaN: true });
+  const pinCheckArb: fc.Arbitrary<PinCheckData> = fc.record(
+    {
+      pinGrade: text.map((s) => s.slice(0, 40).trim() || 'S355'),
+      pinFyPa: positive,
+      pinFuPa: positive,
+      plateGrade: text.map((s) => s.slice(0, 40).trim() || 'S355'),
+      plateFyPa: positive,
+      innerPlateM: positive,
+      outerPlateM: positive,
+      gapM: fc.double({ min: 0, max: 1, noNaN: true }),
+      replaceable: fc.boolean(),
+      gammaM0: factor,
+      gammaM2: factor,
+      gammaM6ser: factor,
+      gammaF: factor,
+    },
+    {
+      requiredKeys: [
+        'pinGrade',
+        'pinFyPa',
+        'pinFuPa',
+        'plateGrade',
+        'plateFyPa',
+        'innerPlateM',
+        'outerPlateM',
+        'gapM',
+      ],
+    },
+  );
+  const ndtArb: fc.Arbitrary<NdtPlan> = fc.record(
+    { method: fc.constantFrom(...ndtMethods), intervalDays: fc.integer({ min: 1, max: 3660 }), note: text },
+    { requiredKeys: ['method', 'intervalDays'] },
+  );
+  /** A fatigue detail: its stress from a factor or, for a force, from a section (with or without planes). */
+  const detailArb = (n: number): fc.Arbitrary<FatigueDetail> =>
+    fc
+      .record(
+        {
+          joint: fc.integer({ min: 0, max: n - 1 }),
+          name: text,
+          kind: fc.constantFrom(...fatigueDetailKinds),
+          member: fc.constantFrom('body' as const, 'parent' as const),
+          component: fc.constantFrom(...fatigueComponents),
+          stress: fc.oneof(
+            fc.record({ stressPerKnMPa: positive }),
+            fc.record(
+              { sectionAreaMm2: positive, shearPlanes: fc.constantFrom(1 as const, 2 as const) },
+              { requiredKeys: ['sectionAreaMm2'] },
+            ),
+          ),
+          categoryMPa: fc.double({ min: 1, max: 200, noNaN: true }),
+          shear: fc.boolean(),
+          gammaFf: factor,
+          gammaMf: factor,
+          damageLimit: fc.double({ min: 0.01, max: 1, noNaN: true }),
+        },
+        {
+          requiredKeys: ['joint', 'name', 'kind', 'member', 'component', 'stress', 'categoryMPa'],
+        },
+      )
+      .map(({ stress, ...f }) =>
+        f.component === 'torque' && !('stressPerKnMPa' in stress)
+          ? { ...f, stressPerKnMPa: stress.sectionAreaMm2 }
+          : { ...f, ...stress },
+      );
+
   const designArb: fc.Arbitrary<DesignData> = fc.integer({ min: 1, max: 3 }).chain((n) => {
     const joints = Array.from({ length: n }, (_, i) => i);
     const optionalKeys = <T>(arb: fc.Arbitrary<T>) => fc.option(arb, { nil: undefined });
@@ -159,6 +239,8 @@ describe('round trip (pure)', () => {
                 maxBearingPressurePa: optionalKeys(positive),
                 maxForceN: optionalKeys(positive),
                 maxTorqueNm: optionalKeys(positive),
+                pinCheck: optionalKeys(pinCheckArb),
+                ndt: optionalKeys(fc.array(ndtArb, { minLength: 1, maxLength: 3 })),
               })
               .map(({ wear, ...p }) => ({ ...p, joint, minimumDiameterM: p.nominalDiameterM * (1 - wear) })),
           ),
@@ -193,6 +275,16 @@ describe('round trip (pure)', () => {
             ),
           ),
         ),
+        fatigue: optionalKeys(
+          fc.record(
+            {
+              rideCycleS: fc.double({ min: 0.1, max: 86400, noNaN: true }),
+              stopsPerRideCycle: fc.integer({ min: 0, max: 100 }),
+              details: fc.array(detailArb(n), { maxLength: 3 }),
+            },
+            { requiredKeys: ['rideCycleS', 'details'] },
+          ),
+        ),
         rider: fc.record(
           {
             gx: fc.record({ min: optionalKeys(real(-10, -0.1)), max: optionalKeys(real(0.1, 10)) }),
@@ -224,6 +316,19 @@ describe('round trip (pure)', () => {
   test('the generator reaches every part kind', () => {
     const kinds = new Set(fc.sample(designArb, 200).flatMap((d) => d.parts.map((p) => p.kind)));
     expect([...kinds].sort()).toEqual([...partKinds].sort());
+  });
+
+  test('the generator reaches pin checks, NDT plans and every form of fatigue detail', () => {
+    const sample = fc.sample(designArb, 200);
+    const details = sample.flatMap((d) => d.fatigue?.details ?? []);
+    expect(sample.some((d) => d.pivots.some((p) => p.pinCheck))).toBe(true);
+    expect(
+      new Set(sample.flatMap((d) => d.pivots.flatMap((p) => p.ndt ?? []).map((n) => n.method))).size,
+    ).toBe(ndtMethods.length);
+    expect(details.some((f) => f.stressPerKnMPa !== undefined)).toBe(true);
+    expect(details.some((f) => f.shearPlanes !== undefined)).toBe(true);
+    expect(details.some((f) => f.component === 'torque')).toBe(true);
+    expect(sample.some((d) => d.fatigue && d.fatigue.details.length === 0)).toBe(true);
   });
 });
 
@@ -312,7 +417,7 @@ describe('CSV errors: every problem with its row and column, no data', () => {
       [
         5,
         'record',
-        'Unknown record "gondola"; use one of source, analysis, body, part, pivot, seat, motion, rider',
+        'Unknown record "gondola"; use one of source, analysis, body, part, pivot, seat, motion, rider, ndt, fatigue, fatigue_detail',
       ],
     ]);
     // And what the schema can still see: no parts, no pivot, no motion for joint 0.
@@ -322,12 +427,126 @@ describe('CSV errors: every problem with its row and column, no data', () => {
   });
 });
 
+describe('pin checks, NDT plans and fatigue data in the CSV', () => {
+  const rowsOf = (d: DesignData) => readCsv(designToCsv(d)).records.map((r) => r.cells);
+  const col = (name: string) => DESIGN_CSV_COLUMNS.indexOf(name as (typeof DESIGN_CSV_COLUMNS)[number]);
+  const join = (rows: string[][]) => rows.map((r) => r.map(csvCell).join(',')).join('\n');
+  const rowsOfKind = (rows: string[][], record: string) =>
+    rows.flatMap((r, i) => (r[0] === record ? [i] : []));
+
+  test('bad pin-check, NDT and fatigue cells are each reported on their row and column, all at once', () => {
+    const rows = rowsOf(littleKiteDesign);
+    const [pivot] = rowsOfKind(rows, 'pivot');
+    const [ndt1, ndt2] = rowsOfKind(rows, 'ndt');
+    const [fatigue] = rowsOfKind(rows, 'fatigue');
+    const [d1, d2, d3] = rowsOfKind(rows, 'fatigue_detail');
+    rows[pivot][col('pin_fy_pa')] = 'strong';
+    rows[pivot][col('pin_fu_pa')] = '';
+    rows[ndt1][col('method')] = 'xr';
+    rows[ndt2][col('interval_days')] = '0';
+    rows[fatigue][col('ride_cycle_s')] = '-5';
+    rows[d1][col('stress_per_kn_mpa')] = '0.5';
+    rows[d2][col('member')] = 'arm';
+    rows[d3][col('in_shear')] = 'maybe';
+    rows[d3][col('category_mpa')] = '250';
+    const result = parseDesignCsv(join(rows));
+    const issues = issuesOf(result);
+    // Rows in the file are 1-based: rows[k] is row k + 1.
+    expect(issues.map((i) => [i.row, i.column, i.message])).toEqual([
+      [pivot + 1, 'pin_fy_pa', '"strong" is not a number (SI units, point as the decimal mark)'],
+      [pivot + 1, 'pin_fu_pa', 'Required'],
+      [ndt1 + 1, 'method', 'One of VT, MT, PT, UT, ET'],
+      [ndt2 + 1, 'interval_days', 'At least 1 day'],
+      [fatigue + 1, 'ride_cycle_s', 'Ride cycle time must be greater than 0'],
+      [d1 + 1, 'stress_per_kn_mpa', 'Give either the stress per kN or the section area, not both'],
+      [d2 + 1, 'member', 'body or parent'],
+      [d3 + 1, 'in_shear', '"maybe" is not yes or no'],
+      [d3 + 1, 'category_mpa', 'At most 200 MPa'],
+    ]);
+    expect(issues[0].path).toBe(`row ${pivot + 1}, pin_fy_pa`);
+    // A method is read whatever its case, as the trade writes it.
+    rows[ndt1][col('method')] = ' ut ';
+    const ndtOnly = issuesOf(parseDesignCsv(join(rows))).filter((i) => i.row === ndt1 + 1);
+    expect(ndtOnly).toEqual([]);
+  });
+
+  test('structure: an NDT plan without its pivot, details without a fatigue row, two fatigue rows, a detail on a missing joint', () => {
+    const rows = rowsOf(littleKiteDesign);
+    const [ndt1] = rowsOfKind(rows, 'ndt');
+    const [fatigue] = rowsOfKind(rows, 'fatigue');
+    const [d1] = rowsOfKind(rows, 'fatigue_detail');
+    const [seat] = rowsOfKind(rows, 'seat');
+    rows[ndt1][col('joint')] = '3';
+    rows[d1][col('joint')] = '5';
+    rows[seat][col('gap_m')] = '0.004';
+    const twice = [...rows, rows[fatigue]];
+    expect(issuesOf(parseDesignCsv(join(twice))).map((i) => [i.row, i.column, i.message])).toEqual([
+      [ndt1 + 1, 'joint', 'No pivot row for joint 3: an NDT plan belongs to a pivot'],
+      [seat + 1, 'gap_m', 'Leave empty in seat rows'],
+      [d1 + 1, 'joint', 'No joint 5 in the chain'],
+      [twice.length, 'record', `Only one fatigue row is allowed (the first is on row ${fatigue + 1})`],
+    ]);
+    const noFatigue = rows.filter((_r, i) => i !== fatigue);
+    expect(issuesOf(parseDesignCsv(join(noFatigue))).filter((i) => i.row === null)).toEqual([
+      {
+        row: null,
+        column: 'record',
+        path: 'record',
+        message:
+          'Fatigue detail rows need a fatigue row: add one with record "fatigue" and the ride cycle time (ride_cycle_s)',
+      },
+    ]);
+  });
+
+  test('a file written before pin checks, NDT plans and fatigue existed still imports, as it always did', () => {
+    // The header export wrote before these columns were added (features/registry/README.md, earlier revision).
+    const oldHeader =
+      'record,body,joint,name,kind,mass_kg,x_m,y_m,to_x_m,to_y_m,radius_m,width_m,height_m,inertia_kg_m2,tip_x_m,tip_y_m,shear,bearing_length_m,nominal_diameter_m,minimum_diameter_m,max_clearance_m,max_shear_stress_pa,max_bearing_pressure_pa,max_force_n,max_torque_nm,spine_angle_rad,facing,rpm,amplitude_rad,period_s,angle_rad,max_rate_rad_s,max_amplitude_rad,free_swing,service_decel_rad_s2,emergency_decel_rad_s2,axis,min_g,max_g,document,revision,gravity_m_s2,near_margin'.split(
+        ',',
+      );
+    const { fatigue: _f, ...rest } = littleKiteDesign;
+    const old: DesignData = {
+      ...rest,
+      pivots: littleKiteDesign.pivots.map(({ pinCheck: _p, ndt: _n, ...p }) => p),
+    };
+    const rows = rowsOf(old).slice(1);
+    const oldFile = join([oldHeader, ...rows.map((r) => oldHeader.map((c) => r[col(c)]))]);
+    const result = parseDesignCsv(oldFile);
+    expect(issuesOf(result)).toEqual([]);
+    expect(result.ok && result.data).toEqual(old);
+    expect(result.ok && result.data.fatigue).toBeUndefined();
+  });
+});
+
 describe('JSON errors', () => {
   test('not JSON, or JSON that is not valid design data', () => {
     const broken = parseDesignJson('{"source": ');
     expect(broken.ok || broken.issues[0]).toMatchObject({ path: '(file)', row: null });
     const wrong = parseDesignJson(JSON.stringify({ ...littleKiteDesign, bodies: [] }));
     expect(wrong.ok || wrong.issues.map((i) => i.path)).toContain('bodies');
+  });
+
+  test('pin-check, NDT and fatigue problems are named by their path in the data', () => {
+    const [pivot] = littleKiteDesign.pivots;
+    const fatigue = littleKiteDesign.fatigue;
+    if (!pivot.pinCheck || !pivot.ndt || !fatigue) throw new Error('Little Kite needs its life data');
+    const bad = {
+      ...littleKiteDesign,
+      pivots: [
+        {
+          ...pivot,
+          pinCheck: { ...pivot.pinCheck, gapM: -0.001 },
+          ndt: [pivot.ndt[0], { method: 'RT', intervalDays: 365 }],
+        },
+      ],
+      fatigue: { ...fatigue, details: [{ ...fatigue.details[0], component: 'torque' }] },
+    };
+    const result = parseDesignJson(JSON.stringify(bad));
+    expect(result.ok || result.issues.map((i) => [i.path, i.message])).toEqual([
+      ['pivots.0.pinCheck.gapM', 'Cannot be negative'],
+      ['pivots.0.ndt.1.method', 'One of VT, MT, PT, UT, ET'],
+      ['fatigue.details.0.sectionAreaMm2', 'A torque needs the stress per kN·m, not an area'],
+    ]);
   });
 });
 
