@@ -22,6 +22,7 @@ import {
   storedPinCheckSchema,
 } from '@/features/records/analysis-schema';
 import type { Db } from '@/server/db';
+import { rideNdtDue } from '@/server/pivot-life/ndt';
 import { runningLogDays } from '@/server/pivot-life/running-log';
 import { findDesignVersion } from '@/server/registry/design';
 import { mustFindRide } from '@/server/registry/rides';
@@ -188,15 +189,15 @@ function latestPinChecks(db: Pick<Db, 'select'>, rideId: string): Map<number, Pi
 }
 
 /**
- * Wear trends and NDT due dates per pivot. INTEGRATION POINT: empty until server/pivot-life/wear.ts
- * (`rideWearTrends`) and server/pivot-life/ndt.ts (`rideNdtDue`) are wired in here.
+ * Wear trends and NDT due dates per pivot. INTEGRATION POINT (wear): empty until server/pivot-life/wear.ts
+ * (`rideWearTrends`) is wired in here.
  */
 function wearAndNdt(
-  _db: Pick<Db, 'select'>,
-  _rideId: string,
-  _today: string,
+  db: Pick<Db, 'select'>,
+  rideId: string,
+  today: string,
 ): { wear: Map<number, PivotLife['wear']>; ndt: Map<number, PivotLife['ndt']> } {
-  return { wear: new Map(), ndt: new Map() };
+  return { wear: new Map(), ndt: rideNdtDue(db, rideId, today) };
 }
 
 export function rideLife(db: Pick<Db, 'select'>, rideId: string, today: string): RideLife {

@@ -11,6 +11,8 @@ import type { RunningLogEntry, RunningLogRow } from '@/features/pivot-life/schem
 import { dayProblem } from '@/features/pivot-life';
 import type { Db } from '@/server/db';
 import { HttpError } from '@/server/http/errors';
+import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
+import { queueDay } from '@/server/queue/queue-refresh';
 import { recordAudit } from '@/server/registry/audit';
 import { mustFindRide } from '@/server/registry/rides';
 
@@ -176,7 +178,12 @@ export function saveRunningLogDay(
 ): { entry: RunningLogRow; replaced: boolean } {
   const ride = mustFindRide(db, rideId, scope);
   assertDay(entry.day, today, 'day');
-  return db.transaction((tx) => putDay(tx, ride, userId, entry, 'typed', now));
+  return db.transaction((tx) => {
+    const saved = putDay(tx, ride, userId, entry, 'typed', now);
+    // The log moves the wear projections by cycles, and with them the ride's flags in the review queue.
+    refreshRideLifeFlags(tx, ride.id, queueDay(db, now), now);
+    return saved;
+  });
 }
 
 /** Days from a CSV file (already checked whole): all saved in one transaction, or none. */
@@ -192,6 +199,7 @@ export function importRunningLog(
   return db.transaction((tx) => {
     let replaced = 0;
     for (const entry of entries) if (putDay(tx, ride, userId, entry, 'csv', now).replaced) replaced++;
+    refreshRideLifeFlags(tx, ride.id, queueDay(db, now), now);
     return { saved: entries.length, replaced };
   });
 }
