@@ -62,7 +62,7 @@ function countReversals(pv: Float64Array, startRule: boolean): RainflowArrays {
       const y = Math.abs(b - a);
       if (x < y) break;
       range[k] = y;
-      mean[k] = (a + b) / 2;
+      mean[k] = 0.5 * a + 0.5 * b; // (a + b) / 2 could overflow near ±Number.MAX_VALUE
       if (startRule && top === 3) {
         // Y contains S: half a cycle; S's successor becomes the starting point.
         count[k++] = 0.5;
@@ -81,7 +81,7 @@ function countReversals(pv: Float64Array, startRule: boolean): RainflowArrays {
     const a = stack[j];
     const b = stack[j + 1];
     range[k] = Math.abs(b - a);
-    mean[k] = (a + b) / 2;
+    mean[k] = 0.5 * a + 0.5 * b;
     count[k++] = 0.5;
   }
   return { range, mean, count, length: k };

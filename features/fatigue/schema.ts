@@ -10,6 +10,9 @@ export const MAX_SERIES_POINTS = 1_000_000;
 /** Longest list of cycles `POST /api/fatigue/damage` takes. */
 export const MAX_CYCLES = 1_000_000;
 
+/** Largest magnitude a value may have, so that every range between two values is still finite. */
+export const MAX_ABS_VALUE = Number.MAX_VALUE / 2;
+
 /** Bad values named one by one up to this many; a whole series of bad values must not make a huge 400. */
 const MAX_NAMED_VALUES = 5;
 
@@ -37,9 +40,14 @@ const seriesSchema = z
     let bad = 0;
     for (let i = 0; i < value.length; i++) {
       const v: unknown = value[i];
-      if (typeof v === 'number' && Number.isFinite(v)) continue;
-      if (bad < MAX_NAMED_VALUES)
-        ctx.addIssue({ code: 'custom', message: 'Must be a finite number.', path: [i] });
+      if (typeof v === 'number' && Math.abs(v) <= MAX_ABS_VALUE) continue;
+      if (bad < MAX_NAMED_VALUES) {
+        const message =
+          typeof v === 'number' && Number.isFinite(v)
+            ? 'Too large: the range between two values must stay finite (at most ±8.9e307).'
+            : 'Must be a finite number.';
+        ctx.addIssue({ code: 'custom', message, path: [i] });
+      }
       bad++;
     }
     if (bad > MAX_NAMED_VALUES) {

@@ -4,6 +4,7 @@ import { minerDamage, rainflow } from '@/features/fatigue';
 import { damageRequestSchema, rainflowRequestSchema } from '@/features/fatigue/schema';
 import { requireAuth, requireRole } from '@/server/auth/require-auth';
 import type { ApiDeps } from '@/server/deps';
+import { HttpError } from '@/server/http/errors';
 import { validate } from '@/server/http/validate';
 
 /**
@@ -27,14 +28,23 @@ export function fatigueRouter(deps: ApiDeps): Router {
     const cycles = body.series
       ? rainflow(body.series).map((c) => ({ rangeMPa: c.range, count: c.count }))
       : (body.cycles ?? []);
-    res.json(
-      minerDamage(cycles, {
-        categoryMPa: body.detailCategoryMPa,
-        shear: body.shear,
-        gammaFf: body.gammaFf,
-        gammaMf: body.gammaMf,
-      }),
-    );
+    const result = minerDamage(cycles, {
+      categoryMPa: body.detailCategoryMPa,
+      shear: body.shear,
+      gammaFf: body.gammaFf,
+      gammaMf: body.gammaMf,
+    });
+    // Absurd magnitudes (a range of 1e200 MPa, a category of 1e-200) overflow the sum; JSON has no ∞.
+    if (!Number.isFinite(result.damage)) {
+      const path = body.series ? 'series' : 'cycles';
+      throw new HttpError(400, 'validation_failed', 'Some fields are missing or invalid.', [
+        {
+          path,
+          message: 'The damage is too large to compute: check the ranges, counts and detail category.',
+        },
+      ]);
+    }
+    res.json(result);
   });
   return router;
 }

@@ -283,6 +283,8 @@ describe('POST /api/fatigue/damage', () => {
     ['γ_Ff below 1', { ...ok, cycles: [{ rangeMPa: 60, count: 1 }], gammaFf: 0.9 }, ['gammaFf']],
     ['γ_Mf below 1', { ...ok, cycles: [{ rangeMPa: 60, count: 1 }], gammaMf: 0 }, ['gammaMf']],
     ['γ_Mf null', { ...ok, cycles: [{ rangeMPa: 60, count: 1 }], gammaMf: null }, ['gammaMf']],
+    ['a range too large to sum', { ...ok, cycles: [{ rangeMPa: 1e200, count: 1 }] }, ['cycles']],
+    ['a value too large for a finite range', { ...ok, series: [0, 1e308, -1e308] }, ['series.1', 'series.2']],
     ['shear not a boolean', { ...ok, cycles: [{ rangeMPa: 60, count: 1 }], shear: 'yes' }, ['shear']],
   ])('%s → 400 naming the field, nothing changes', async (_what, body, paths) => {
     const before = tableCounts();
