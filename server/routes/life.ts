@@ -17,6 +17,7 @@ import { currentUser, requireAuth } from '@/server/auth/require-auth';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
 import { validate } from '@/server/http/validate';
+import { refreshRideLifeFlagsAfter } from '@/server/pivot-life/flags';
 import { rideLife } from '@/server/pivot-life/life';
 import {
   importRunningLog,
@@ -108,6 +109,7 @@ export function lifeRouter(deps: ApiDeps): Router {
       nowOf(deps),
       today(),
     );
+    refreshRideLifeFlagsAfter(deps.db, id, nowOf(deps)); // logged cycles move the wear projections
     res.status(body.replaced ? 200 : 201).json(body);
   });
 
@@ -131,6 +133,7 @@ export function lifeRouter(deps: ApiDeps): Router {
       parsed.entries,
       nowOf(deps),
     );
+    refreshRideLifeFlagsAfter(deps.db, ride.id, nowOf(deps));
     res.json(body);
   });
 

@@ -25,6 +25,7 @@ import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { storeDemoPhotos } from '@/server/seed/demo-photos';
+import { topUpDemoNdt } from '@/server/seed/demo-ndt';
 import { demoSchedules } from '@/server/seed/demo-schedules';
 
 /*
@@ -383,6 +384,12 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
         })
         .run();
     }
+    topUpDemoNdt(
+      tx,
+      demoRideRows.map((r) => r.id),
+      author.id,
+      now,
+    );
 
     topUpDemoInstruments(tx, now);
 
