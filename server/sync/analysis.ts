@@ -17,6 +17,7 @@ import type { InspectionRecord } from '@/features/records/schema';
 import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
+import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
 import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { templateContentOf } from '@/server/sync/checklist-check';
 import { isOpen } from '@/server/sqlite-client';
@@ -78,6 +79,7 @@ function storedModelFields(result: CycleResult & Partial<LoadCheckExtras>): Anal
 export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean {
   const row = db
     .select({
+      rideId: inspections.rideId,
       record: inspections.record,
       designVersionId: inspections.designVersionId,
       templateId: inspections.templateId,
@@ -130,6 +132,8 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
       .where(and(eq(inspections.id, id), isNull(inspections.analysedAt)))
       .run();
     if (changed.changes > 0) refreshQueueInspections(tx, queueDay(db, now), [id]);
+    // Its pin and bushing readings move the ride's wear projections, which the queue flags.
+    if (changed.changes > 0) refreshRideLifeFlags(tx, row.rideId, queueDay(db, now), now);
     return changed.changes > 0;
   });
 }
