@@ -6,7 +6,7 @@
 import { randomUUID } from 'node:crypto';
 
 import { sql } from 'drizzle-orm';
-import { check, index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { check, index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 
 import { rides, users } from '@/db/server/schema';
 import { ndtMethods } from '@/features/loads/design-schema';
@@ -87,3 +87,29 @@ export const rideLifeFlags = sqliteTable('ride_life_flags', {
   wearSuggestedOn: text('wear_suggested_on'),
   updatedAt: text('updated_at').notNull(),
 });
+
+export const ndtReminderStages = ['due_soon', 'past_due'] as const;
+export type NdtReminderStage = (typeof ndtReminderStages)[number];
+
+/**
+ * Which NDT reminders an operator was sent: each planned test (ride, pivot, method) for each due date gets
+ * each stage once, so a daily run never repeats itself, and a new test (a new due date) starts afresh.
+ */
+export const ndtReminders = sqliteTable(
+  'ndt_reminders',
+  {
+    rideId: text('ride_id')
+      .notNull()
+      .references(() => rides.id, { onDelete: 'cascade' }),
+    joint: integer('joint').notNull(),
+    method: text('method', { enum: ndtMethods }).notNull(),
+    dueOn: text('due_on').notNull(),
+    stage: text('stage', { enum: ndtReminderStages }).notNull(),
+    sentAt: text('sent_at').notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.rideId, t.joint, t.method, t.dueOn, t.stage] }),
+    check('ndt_reminders_stage_check', oneOf(t.stage, ndtReminderStages)),
+    check('ndt_reminders_method_check', oneOf(t.method, ndtMethods)),
+  ],
+);
