@@ -24,6 +24,7 @@ import {
 import type { Db } from '@/server/db';
 import { rideNdtDue } from '@/server/pivot-life/ndt';
 import { runningLogDays } from '@/server/pivot-life/running-log';
+import { rideWearTrends } from '@/server/pivot-life/wear';
 import { findDesignVersion } from '@/server/registry/design';
 import { mustFindRide } from '@/server/registry/rides';
 
@@ -188,18 +189,6 @@ function latestPinChecks(db: Pick<Db, 'select'>, rideId: string): Map<number, Pi
   return out;
 }
 
-/**
- * Wear trends and NDT due dates per pivot. INTEGRATION POINT (wear): empty until server/pivot-life/wear.ts
- * (`rideWearTrends`) is wired in here.
- */
-function wearAndNdt(
-  db: Pick<Db, 'select'>,
-  rideId: string,
-  today: string,
-): { wear: Map<number, PivotLife['wear']>; ndt: Map<number, PivotLife['ndt']> } {
-  return { wear: new Map(), ndt: rideNdtDue(db, rideId, today) };
-}
-
 export function rideLife(db: Pick<Db, 'select'>, rideId: string, today: string): RideLife {
   mustFindRide(db, rideId);
   const current = findDesignVersion(db, rideId);
@@ -208,12 +197,15 @@ export function rideLife(db: Pick<Db, 'select'>, rideId: string, today: string):
   const rideCycleS = basis.rideCycleS ?? current?.data.fatigue?.rideCycleS ?? null;
   const log = summariseLog(runningLogDays(db, rideId), rideCycleS);
   const pins = latestPinChecks(db, rideId);
-  const { wear, ndt } = wearAndNdt(db, rideId, today);
+  const wear = rideWearTrends(db, rideId, today);
+  const ndt = rideNdtDue(db, rideId, today);
 
   const design = current?.data ?? basis.design;
   const joints = new Set<number>([
     ...(design?.pivots.map((p) => p.joint) ?? []),
     ...basis.details.map((d) => d.joint),
+    ...wear.keys(),
+    ...ndt.keys(),
   ]);
   const kindOf = (detail: number) => basis.design?.fatigue?.details[detail]?.kind ?? 'other';
   const pivots: PivotLife[] = [...joints]
