@@ -63,7 +63,7 @@ export type MinerCycle = { rangeMPa: number; count: number; cyclesToFailure: num
 export type MinerResult = { damage: number; cycles: MinerCycle[]; curve: SnCurve };
 
 /**
- * Palmgren–Miner damage D = Σ nᵢ/Nᵢ (EN 1993-1-9 §8 and Annex A) of stress ranges (MPa, as given,
+ * Palmgren–Miner damage D = Σ nᵢ/Nᵢ (EN 1993-1-9; clause numbers §8 and Annex A from memory) of stress ranges (MPa, as given,
  * before γ_Ff) with their counts. Each entry echoes its range and count, with N_R and the damage of the
  * factored range γ_Ff·Δσ on the curve for Δσ_C/γ_Mf.
  */

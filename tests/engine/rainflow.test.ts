@@ -10,7 +10,7 @@ import {
 
 /**
  * Rainflow counting against ASTM E1049-85 (reapproved 2017) §5.4.4: its worked example, an independent
- * reference written straight from the standard's numbered steps (lists and splices, nothing shared with
+ * reference written straight from the standard's numbered steps (step numbering [mem]; lists and splices, nothing shared with
  * the typed-array engine), and properties any rainflow count has.
  */
 
@@ -123,7 +123,7 @@ describe('series without reversals and other edges', () => {
     expect(rainflowRepeating([0, 5])).toEqual([{ range: 5, mean: 2.5, count: 1 }]);
   });
 
-  test('monotonic runs and equal neighbours reduce to their turning points (ASTM E1049 §5.4.4 step 1)', () => {
+  test('monotonic runs and equal neighbours reduce to their turning points (ASTM E1049 §5.4.4, peak-valley reduction)', () => {
     expect(Array.from(peaksAndValleys([0, 1, 2, 2, 3, 1, 1, -1, 4]))).toEqual([0, 3, -1, 4]);
     expect(rainflow([0, 1, 2, 3])).toEqual([{ range: 3, mean: 1.5, count: 0.5 }]);
   });

@@ -1,7 +1,7 @@
 import { N_C, N_D, N_L, cyclesToFailure, minerDamage, snCurve } from '@/features/fatigue';
 
 /**
- * EN 1993-1-9 §7 fatigue strength curves and the Palmgren–Miner sum (EN 1993-1-9 §8 / Annex A) against
+ * EN 1993-1-9 §7 fatigue strength curves and the Palmgren–Miner sum (EN 1993-1-9 §8 / Annex A [mem]) against
  * the standard's own definitions (Δσ_D = (2/5)^(1/3)·Δσ_C, Δσ_L = (5/100)^(1/5)·Δσ_D, Δτ_L =
  * (2/100)^(1/5)·Δτ_C, slopes 3 and 5 / 5) and values worked by hand. The rounded ratios and the
  * category-71 points are the ones in /work/shared/notes/domain.md (EN 1993-1-9 curves, ratios
@@ -43,7 +43,7 @@ describe('EN 1993-1-9 §7 curve points', () => {
     }
   });
 
-  test('slopes: m = 3 above Δσ_D, m = 5 between Δσ_D and Δσ_L; shear m = 5 (EN 1993-1-9 Fig. 7.1, 7.2)', () => {
+  test('slopes: m = 3 above Δσ_D, m = 5 between Δσ_D and Δσ_L; shear m = 5 (EN 1993-1-9 §7; figure numbers 7.1, 7.2 [mem])', () => {
     const c = snCurve(90);
     // Halving a range above Δσ_D (here 180 → 90) multiplies life by 2³; between D and L by 2⁵ (30·2 → 30).
     expect(cyclesToFailure(90, c) / cyclesToFailure(180, c)).toBeCloseTo(8, 10);
