@@ -14,7 +14,7 @@ import { confirmedOutOfRange } from '@/features/records/plausibility';
 import type { AnalysisModelFields } from '@/features/records/analysis-schema';
 import type { LoadCheckExtras } from '@/features/records/load-check';
 import type { InspectionRecord } from '@/features/records/schema';
-import { ENGINE_VERSION, type CycleResult } from '@/features/loads/engine';
+import { ENGINE_VERSION, pinChecksAtPeak, type CycleResult } from '@/features/loads/engine';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
@@ -107,6 +107,9 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
       const template = templateContentOf(db, row.templateId, row.templateVersion);
       const result = analyseRecord(design.data, row.record, template, ANALYSIS_SAMPLES);
       analysis = summariseAnalysis(result, design, row.record.preview);
+      // EN 1993-1-8 Table 3.10 at the peak force over every load case (pivots with pin-check data).
+      const pinChecks = pinChecksAtPeak(result, design.data.pivots);
+      if (pinChecks.length) analysis.pinChecks = pinChecks;
       // The reviewer must see that a result rests on a value the inspector confirmed as out of range.
       const confirmed = confirmedOutOfRange(design.data, row.record.readings);
       if (confirmed.length) analysis.confirmedOutOfRange = confirmed;

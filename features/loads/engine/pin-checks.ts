@@ -206,13 +206,17 @@ export function pinUtilisations(r: PinCheckResult): PinUtilisations {
 /**
  * Each joint's pin check at its peak force over every load case (`loadCases[].joints[i].peakForceN`, the
  * operating cycle's own peak when there are no cases), with the pin data and diameter the cycle's
- * envelope used. Structural types, so a merged result (features/loads/load-cases.ts) fits as it is.
+ * envelope used, named after its pivot when `pivots` names it (else the joint's body). Structural types,
+ * so a merged result (features/loads/load-cases.ts) fits as it is.
  */
-export function pinChecksAtPeak(result: {
-  joints: readonly { name: string; peakForce: { value: number } }[];
-  pins: readonly { joint: number; check?: PinCheckResult | null }[];
-  loadCases?: readonly { joints: readonly { peakForceN: number }[] }[];
-}): (PinUtilisations & { joint: number; name: string })[] {
+export function pinChecksAtPeak(
+  result: {
+    joints: readonly { name: string; peakForce: { value: number } }[];
+    pins: readonly { joint: number; check?: PinCheckResult | null }[];
+    loadCases?: readonly { joints: readonly { peakForceN: number }[] }[];
+  },
+  pivots: readonly { joint: number; name: string }[] = [],
+): (PinUtilisations & { joint: number; name: string })[] {
   const out: (PinUtilisations & { joint: number; name: string })[] = [];
   for (const pin of result.pins) {
     const check = pin.check;
@@ -222,7 +226,8 @@ export function pinChecksAtPeak(result: {
     for (const c of result.loadCases ?? [])
       peak = Math.max(peak, Math.abs(c.joints[pin.joint]?.peakForceN ?? 0));
     const again = checkPin(peak, check.diameterM, check.shear, check.input);
-    out.push({ joint: pin.joint, name: joint.name, ...pinUtilisations(again) });
+    const name = pivots.find((p) => p.joint === pin.joint)?.name ?? joint.name;
+    out.push({ joint: pin.joint, name, ...pinUtilisations(again) });
   }
   return out;
 }
