@@ -1,2 +1,8 @@
 /** What other features may use from pivot-life that needs the app's runtime: screens' parts and hooks. */
-export {};
+export {
+  pivotLifeKeys,
+  useLogDayMutation,
+  useLogImportMutation,
+  useRideLifeQuery,
+  useRunningLogQuery,
+} from '@/features/pivot-life/api';
