@@ -4,7 +4,17 @@
  */
 
 export type DesignSection =
-  'source' | 'general' | 'bodies' | 'parts' | 'pivots' | 'seats' | 'motion' | 'rider';
+  | 'source'
+  | 'general'
+  | 'bodies'
+  | 'parts'
+  | 'pivots'
+  | 'pinChecks'
+  | 'ndt'
+  | 'seats'
+  | 'motion'
+  | 'rider'
+  | 'fatigue';
 
 /** Whether the field was given before and after: changed (both), added (only after), removed (only before). */
 export type ChangeKind = 'changed' | 'added' | 'removed';
@@ -33,9 +43,12 @@ export const sectionLabel: Record<DesignSection, string> = {
   bodies: 'Bodies',
   parts: 'Parts',
   pivots: 'Pivots and pins',
+  pinChecks: 'Pin checks (EN 1993-1-8)',
+  ndt: 'NDT plans',
   seats: 'Seats',
   motion: 'Design motion and limits',
   rider: 'Rider limits',
+  fatigue: 'Fatigue (EN 1993-1-9)',
 };
 
 export const effectWord: Record<ChangeEffect, string> = {

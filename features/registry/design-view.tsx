@@ -27,6 +27,7 @@ import {
   point,
   q,
 } from '@/features/registry/design-format';
+import { FatigueSection, NdtPlanTable, PinCheckTable } from '@/features/registry/design-life-tables';
 import type { DesignVersionInfo } from '@/features/registry/schema';
 import { formatDateTime } from '@/lib/dates';
 import { type UnitSystem, formatSignificant } from '@/lib/units';
@@ -214,7 +215,10 @@ export function Field({ label, value, figure }: { label: string; value: string; 
   );
 }
 
-/** Every table of the design data: bodies, parts, pivots and pins, seats, design motion and rider limits. */
+/**
+ * Every table of the design data: bodies, parts, pivots and pins, pin checks, NDT plans, seats, design
+ * motion, rider limits and fatigue.
+ */
 export function DesignTables({ data, system }: { data: DesignData; system: UnitSystem }) {
   return (
     <View style={styles.tables}>
@@ -227,6 +231,12 @@ export function DesignTables({ data, system }: { data: DesignData; system: UnitS
       <SectionTitle>Pivots and pins</SectionTitle>
       <PivotsTable data={data} system={system} />
 
+      <SectionTitle>Pin checks (EN 1993-1-8 §3.13)</SectionTitle>
+      <PinCheckTable data={data} system={system} />
+
+      <SectionTitle>NDT plans</SectionTitle>
+      <NdtPlanTable data={data} />
+
       <SectionTitle>{`Seats (${data.seats.length})`}</SectionTitle>
       <SeatsTable data={data} system={system} />
 
@@ -235,6 +245,9 @@ export function DesignTables({ data, system }: { data: DesignData; system: UnitS
 
       <SectionTitle>Rider limits</SectionTitle>
       <RiderLimits data={data} />
+
+      <SectionTitle>Fatigue (EN 1993-1-9)</SectionTitle>
+      <FatigueSection data={data} system={system} />
     </View>
   );
 }
