@@ -6,7 +6,9 @@
  * idempotency key work the same way). A finding already past due when first seen gets only `past_due`.
  *
  * Only findings the operator was told about (listed on a notice) and still `open` are included: one with
- * a corrective action reported is waiting for the inspection body, not for the operator.
+ * a corrective action reported is waiting for the inspection body, not for the operator. *
+ * The same message lists the company's planned NDT coming due within 30 days or overdue, each stage once
+ * per due date (server/notices/ndt-reminders.ts).
  */
 import { createHash } from 'node:crypto';
 
@@ -31,6 +33,12 @@ import { deliveriesQueued } from '@/server/notices/nudge';
 import { addDays, daysBetween, formatCalendarDate, isoDay } from '@/lib/dates';
 import { escapeHtml, htmlMailStart } from '@/server/notices/words';
 import { findingNumber } from '@/server/findings/findings';
+import {
+  dueNdtTests,
+  ndtReminderSections,
+  recordNdtReminders,
+  type NdtReminderItem,
+} from '@/server/notices/ndt-reminders';
 
 /** How far ahead a due date counts as "due soon". */
 const dueSoonDays = 7;
@@ -44,6 +52,8 @@ type ReminderRun = {
   reminded: { findingId: string; stage: ReminderStage }[];
   /** Companies with findings to remind about but no notice address (nothing recorded, so they get it later). */
   noAddress: string[];
+  /** Planned NDT × due date × stage recorded (server/notices/ndt-reminders.ts). */
+  ndt: { rideId: string; joint: number; method: string; dueOn: string; stage: ReminderStage }[];
 };
 
 const shortHash = (text: string) => createHash('sha256').update(text).digest('hex').slice(0, 24);
@@ -126,31 +136,46 @@ function when(dueOn: string, today: string): string {
   return `due in ${days} day${days === 1 ? '' : 's'}`;
 }
 
-/** The reminder e-mail for one company. */
-function reminderEmail(companyName: string, items: Due[], today: string, appUrl: string) {
+type NdtSections = ReturnType<typeof ndtReminderSections>;
+
+/** The reminder e-mail for one company: its findings, and its planned NDT coming or past due. */
+function reminderEmail(companyName: string, items: Due[], today: string, appUrl: string, ndt: NdtSections) {
   const past = items.filter((i) => i.stage === 'past_due');
   const soon = items.filter((i) => i.stage === 'due_soon');
   const counts = [
     past.length ? `${past.length} past due` : null,
     soon.length ? `${soon.length} due within ${dueSoonDays} days` : null,
   ].filter(Boolean);
-  const subject = `Reminder: findings ${counts.join(', ')} · ${companyName}`;
+  const subject = `Reminder: ${[counts.length ? `findings ${counts.join(', ')}` : null, ndt.subject]
+    .filter(Boolean)
+    .join(' · ')} · ${companyName}`;
   const link = (i: Due) => appLink(appUrl, noticePath(i.noticeId));
   const line = (i: Due) =>
     `- ${i.rideName}, finding ${i.number} [${severityInfo[i.severity].label}]: ${i.description}\n` +
     (i.requiredAction ? `  Required action: ${i.requiredAction}\n` : '') +
     `  Due ${formatCalendarDate(i.dueOn)} (${when(i.dueOn, today)}) · notice ${i.noticeReference}: ${link(i)}`;
   const section = (title: string, list: Due[]) => (list.length ? [title, ...list.map(line), ''] : []);
-  const text = [
-    `To ${companyName}:`,
-    '',
-    'These findings from notices issued to you are still open. Report what you have done about each one ' +
-      'with the link beside it; the inspection body then verifies and closes it.',
-    '',
-    ...section('Past due:', past),
-    ...section(`Due within ${dueSoonDays} days:`, soon),
-    'You receive one reminder per finding when it comes due and one if it passes its due date.',
-  ].join('\n');
+  const findingsText = items.length
+    ? [
+        'These findings from notices issued to you are still open. Report what you have done about each one ' +
+          'with the link beside it; the inspection body then verifies and closes it.',
+        '',
+        ...section('Past due:', past),
+        ...section(`Due within ${dueSoonDays} days:`, soon),
+        'You receive one reminder per finding when it comes due and one if it passes its due date.',
+        '',
+      ]
+    : [];
+  const ndtText = ndt.text.length
+    ? [
+        'The non-destructive tests (NDT) the design data plans at these rides’ pivots are coming due or ' +
+          'overdue. Have them made by a certified technician and the records added; the link shows each ' +
+          'pivot’s plan and records.',
+        '',
+        ...ndt.text,
+      ]
+    : [];
+  const text = [`To ${companyName}:`, '', ...findingsText, ...ndtText].join('\n').trimEnd();
 
   const h = escapeHtml;
   const htmlItem = (i: Due) =>
@@ -164,11 +189,22 @@ function reminderEmail(companyName: string, items: Due[], today: string, appUrl:
   const html = [
     htmlMailStart,
     `<p>To ${h(companyName)}:</p>`,
-    '<p>These findings from notices issued to you are still open. Report what you have done about each ' +
-      'one with the link beside it; the inspection body then verifies and closes it.</p>',
-    htmlSection('Past due', past),
-    htmlSection(`Due within ${dueSoonDays} days`, soon),
-    '<p>You receive one reminder per finding when it comes due and one if it passes its due date.</p>',
+    ...(items.length
+      ? [
+          '<p>These findings from notices issued to you are still open. Report what you have done about each ' +
+            'one with the link beside it; the inspection body then verifies and closes it.</p>',
+          htmlSection('Past due', past),
+          htmlSection(`Due within ${dueSoonDays} days`, soon),
+          '<p>You receive one reminder per finding when it comes due and one if it passes its due date.</p>',
+        ]
+      : []),
+    ...(ndt.html
+      ? [
+          '<p>The non-destructive tests (NDT) the design data plans at these rides’ pivots are coming due or ' +
+            'overdue. Have them made by a certified technician and the records added.</p>',
+          ndt.html,
+        ]
+      : []),
     '</body></html>',
   ].join('\n');
   return { subject, text, html };
@@ -181,14 +217,20 @@ function reminderEmail(companyName: string, items: Due[], today: string, appUrl:
 export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
   const today = isoDay(now);
   const at = now.toISOString();
-  const run: ReminderRun = { companies: 0, reminded: [], noAddress: [] };
+  const run: ReminderRun = { companies: 0, reminded: [], noAddress: [], ndt: [] };
   deps.db.transaction((tx) => {
     const byCompany = new Map<string, Due[]>();
     for (const item of dueFindings(tx, today))
       byCompany.set(item.companyId, [...(byCompany.get(item.companyId) ?? []), item]);
+    const ndtByCompany = new Map<string, NdtReminderItem[]>();
+    for (const item of dueNdtTests(tx, today)) {
+      ndtByCompany.set(item.companyId, [...(ndtByCompany.get(item.companyId) ?? []), item]);
+      if (!byCompany.has(item.companyId)) byCompany.set(item.companyId, []);
+    }
 
     for (const [companyId, items] of byCompany) {
-      const { companyName, noticeEmails } = items[0];
+      const ndt = ndtByCompany.get(companyId) ?? [];
+      const { companyName, noticeEmails } = items[0] ?? ndt[0];
       const recipients = [...new Set(noticeEmails.map((e) => e.trim().toLowerCase()).filter(Boolean))];
       if (recipients.length === 0) {
         run.noAddress.push(companyName);
@@ -198,8 +240,17 @@ export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
         );
         continue;
       }
-      const pairs = items.map((i) => `${i.findingId}:${i.stage}`).sort();
-      const content = reminderEmail(companyName, items, today, deps.appUrl);
+      const pairs = [
+        ...items.map((i) => `${i.findingId}:${i.stage}`),
+        ...ndt.map((i) => `ndt:${i.rideId}:${i.joint}:${i.method}:${i.dueOn}:${i.stage}`),
+      ].sort();
+      const content = reminderEmail(
+        companyName,
+        items,
+        today,
+        deps.appUrl,
+        ndtReminderSections(ndt, today, deps.appUrl),
+      );
       tx.insert(noticeDeliveries)
         .values(
           recipients.map((recipient) => ({
@@ -215,12 +266,17 @@ export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
         )
         .onConflictDoNothing()
         .run();
-      tx.insert(findingReminders)
-        .values(items.map((i) => ({ findingId: i.findingId, stage: i.stage, sentAt: at })))
-        .onConflictDoNothing()
-        .run();
+      if (items.length)
+        tx.insert(findingReminders)
+          .values(items.map((i) => ({ findingId: i.findingId, stage: i.stage, sentAt: at })))
+          .onConflictDoNothing()
+          .run();
+      recordNdtReminders(tx, ndt, at);
       run.companies += 1;
       run.reminded.push(...items.map((i) => ({ findingId: i.findingId, stage: i.stage })));
+      run.ndt.push(
+        ...ndt.map(({ rideId, joint, method, dueOn, stage }) => ({ rideId, joint, method, dueOn, stage })),
+      );
     }
   });
   if (run.companies > 0) deliveriesQueued();
@@ -243,7 +299,12 @@ export function startReminderJob(
       try {
         const run = runReminders(deps, deps.now?.() ?? new Date());
         deps.logger?.info(
-          { companies: run.companies, reminded: run.reminded.length, noAddress: run.noAddress },
+          {
+            companies: run.companies,
+            reminded: run.reminded.length,
+            ndt: run.ndt.length,
+            noAddress: run.noAddress,
+          },
           'finding reminders queued',
         );
       } catch (error) {

@@ -1,8 +1,8 @@
 /**
  * The demo's NDT history: for every demo ride whose design in force plans NDT at a pivot, one earlier test
  * per planned method, so the demo opens with due dates spread over the coming months rather than every
- * plan "never tested". One test per ride falls due within the window, to show the state. Invented
- * technicians; added only to rides without any NDT record, so it is safe to run again.
+ * plan "never tested". Invented technicians; added only to rides without any NDT record, so it is safe to
+ * run again.
  */
 import { and, asc, eq, inArray } from 'drizzle-orm';
 
@@ -46,10 +46,12 @@ export function topUpDemoNdt(
     let n = 0;
     for (const pivot of current?.data.pivots ?? [])
       for (const plan of pivot.ndt ?? []) {
-        // The first test of each ride falls due in 12 days (inside the 30-day window); the others are
-        // part-way through their intervals.
-        const ago =
-          n === 0 ? plan.intervalDays - 12 : Math.round(plan.intervalDays * (0.35 + 0.1 * ((r + n) % 4)));
+        // Part-way through its interval and at least 45 days from due: the demo opens with nothing due
+        // within the 30-day window, so its reminders and queue start quiet.
+        const ago = Math.max(
+          0,
+          Math.min(Math.round(plan.intervalDays * (0.2 + 0.1 * ((r + n) % 4))), plan.intervalDays - 45),
+        );
         const technician = technicians[(r + n) % technicians.length];
         const result: NdtResult = (r + n) % 5 === 3 ? 'acceptable_indications' : 'no_indications';
         tx.insert(ndtRecords)
