@@ -6,3 +6,5 @@ export {
   useRideLifeQuery,
   useRunningLogQuery,
 } from '@/features/pivot-life/api';
+export { PinCheckRows } from '@/features/pivot-life/pin-check-rows';
+export { WearRows } from '@/features/pivot-life/wear-rows';

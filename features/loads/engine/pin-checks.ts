@@ -54,7 +54,9 @@ export const PIN_CHECK_DEFAULT_FACTORS = {
 
 export type PinCheckFactors = { gammaM0: number; gammaM2: number; gammaM6ser: number; gammaF: number };
 
-export function pinCheckFactors(input: PinCheckInput): PinCheckFactors {
+export function pinCheckFactors(
+  input: Pick<PinCheckInput, 'gammaM0' | 'gammaM2' | 'gammaM6ser' | 'gammaF'>,
+): PinCheckFactors {
   const d = PIN_CHECK_DEFAULT_FACTORS;
   return {
     gammaM0: input.gammaM0 ?? d.gammaM0,
