@@ -12,7 +12,9 @@ import { eq } from 'drizzle-orm';
 import { rideLifeFlags } from '@/db/server/ndt';
 import { earliestNdtDue } from '@/features/pivot-life/ndt-due';
 import type { Db } from '@/server/db';
+import type { WearTrend } from '@/features/pivot-life/schema';
 import { rideNdtDue } from '@/server/pivot-life/ndt';
+import { rideWearTrends } from '@/server/pivot-life/wear';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
 type Tx = Pick<Db, 'select' | 'insert' | 'delete' | 'run' | 'get' | 'all'>;
@@ -23,10 +25,25 @@ export type RideLifeFlags = {
   wearSuggestedOn: string | null;
 };
 
+const earlier = (a: string | null, b: string | null) => (a === null ? b : b === null || a <= b ? a : b);
+
+/**
+ * The cautious date a trend reaches its limit, as its flag was decided: the prediction bound's date (the
+ * line's own when the readings leave no interval), or the logged-cycles date when that comes first.
+ */
+const cautiousOn = (t: WearTrend) => earlier(t.earliestOn ?? t.projectedOn, t.projectedByCyclesOn);
+
 /** What the flags of a ride are on `today`, without writing them. */
 export function rideLifeFlagsOf(db: Tx, rideId: string, today: string): RideLifeFlags {
   const ndtDueOn = earliestNdtDue([...rideNdtDue(db, rideId, today).values()].flat());
-  return { ndtDueOn, wearLimitOn: null, wearSuggestedOn: null };
+  let wearLimitOn: string | null = null;
+  let wearSuggestedOn: string | null = null;
+  for (const trend of [...rideWearTrends(db, rideId, today).values()].flat()) {
+    if (!trend.flagged) continue;
+    wearLimitOn = earlier(wearLimitOn, cautiousOn(trend));
+    wearSuggestedOn = earlier(wearSuggestedOn, trend.suggestedOn ?? today);
+  }
+  return { ndtDueOn, wearLimitOn, wearSuggestedOn };
 }
 
 /**
