@@ -30,7 +30,10 @@ function rowsOf(pin: PinUtilisation): Row[] {
     {
       key: 'combined',
       label: 'Shear and bending combined',
-      formula: '(M_Ed / M_Rd)² + (F_v,Ed / F_v,Rd)² ≤ 1',
+      // The envelope holds the same check as a load against a load (√ of this sum); say both.
+      formula:
+        '(M_Ed / M_Rd)² + (F_v,Ed / F_v,Rd)² ≤ 1; the load is at ' +
+        `${formatShareOfLimit(Math.sqrt(pin.combined))} of the load that brings it to 1`,
       ratio: pin.combined,
     },
   ];

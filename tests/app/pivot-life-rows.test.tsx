@@ -90,6 +90,8 @@ test('pin checks: each utilisation with its mark and formula, the standard and t
       new RegExp(`${shown.replace('.', '\\.')}Within`),
     );
   expect(screen.getByText(/0\.6·A·f_up \/ γM2/)).toBeTruthy();
+  // The envelope's form of the combined check: the load at √0.201617 = 44.9 % of the load that reaches 1.
+  expect(screen.getByText(/the load is at 44\.9 % of the load that brings it to 1/)).toBeTruthy();
   expect(screen.getByText(/Partial factors γM0 = 1, γM2 = 1\.25, γM6,ser = 1, γF = 1\./)).toBeTruthy();
   expect(screen.getByText(/400\.0 kN, pin diameter 60 mm/)).toBeTruthy();
 });

@@ -167,7 +167,13 @@ export function pinCheckItems(key: string, who: string, c: PinCheckResult, margi
     c.bearingCheck.resistance,
   );
   item('bending', 'pin bending moment, γM0', 'moment', c.bendingCheck.effect, c.bendingCheck.resistance);
-  item('combined', 'pin shear and bending combined', 'force', c.designForceN, c.combinedResistanceN);
+  item(
+    'combined',
+    'pin load against the load at which shear and bending combined reach 1',
+    'force',
+    c.designForceN,
+    c.combinedResistanceN,
+  );
   if (c.bearingServiceCheck)
     item(
       'bearing_ser',
