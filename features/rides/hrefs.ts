@@ -18,3 +18,5 @@ export const rideVersionHref = (id: string, version: number) =>
   `${ride(id)}/versions/${version}` as const satisfies Href;
 export const rideImportHref = (id: string) => `${ride(id)}/import` as const satisfies Href;
 export const rideScheduleHref = (id: string) => `${ride(id)}/schedule` as const satisfies Href;
+export const rideLogHref = (id: string) => `${ride(id)}/log` as const satisfies Href;
+export const rideNdtHref = (id: string) => `${ride(id)}/ndt` as const satisfies Href;

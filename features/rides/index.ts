@@ -6,6 +6,8 @@ export {
   rideEditHref,
   rideHref,
   rideImportHref,
+  rideLogHref,
+  rideNdtHref,
   rideScheduleHref,
   rideStatusHref,
   rideVersionHref,

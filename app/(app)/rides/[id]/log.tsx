@@ -1,0 +1,1 @@
+export { RunningLogScreen as default } from '@/features/pivot-life/running-log-screen';
