@@ -28,3 +28,10 @@ export {
   governingFatigueCase,
 } from '@/features/fatigue/detail-damage';
 export type { DetailCaseFatigue, DetailFatigue, FatigueCase } from '@/features/fatigue/detail-damage';
+export {
+  FATIGUE_BASIS,
+  FATIGUE_CASE_WORDS,
+  categoryText,
+  cyclesToLimitText,
+  formatDamage,
+} from '@/features/fatigue/damage-format';

@@ -13,6 +13,14 @@ import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features
 import { CycleWarnings } from '@/features/loads/cycle-warnings';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { formatValue } from '@/features/loads/format';
+import {
+  FORCE_RANGE_TITLE,
+  RANGES_NOTE,
+  TORQUE_RANGE_TITLE,
+  forceRangeText,
+  jointRangesOf,
+  torqueRangeText,
+} from '@/features/loads/joint-ranges';
 import { type CasesShown, LoadCasesTable } from '@/features/loads/load-cases-table';
 import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
 import type { MeasuredSource } from '@/lib/measured-format';
@@ -75,6 +83,9 @@ export function CycleResults({
 
       <SectionTitle>Pivot loads over the cycle</SectionTitle>
       <PivotLoadsTable result={result} system={system} xAxis={xAxis} />
+      <Text variant="small" muted>
+        {RANGES_NOTE}
+      </Text>
 
       {cases && cases.cases.length > 1 ? (
         <>
@@ -143,9 +154,10 @@ function PivotLoadsTable({ result, system, xAxis }: Props) {
         },
         {
           key: 'range',
-          title: 'Load range',
-          render: ({ j }) => formatValue(j.extremes.magnitudeN.range, 'force', system),
+          title: FORCE_RANGE_TITLE,
+          render: ({ j }) => forceRangeText(jointRangesOf(j), system),
           numeric: true,
+          flex: 1.8,
         },
         {
           key: 'torque',
@@ -155,6 +167,13 @@ function PivotLoadsTable({ result, system, xAxis }: Props) {
             j.freePeriodS !== undefined
               ? 'None: free pin'
               : formatValue(Math.abs(j.peakTorque.value), 'moment', system),
+          numeric: true,
+        },
+        {
+          key: 'torqueRange',
+          title: TORQUE_RANGE_TITLE,
+          render: ({ j }) =>
+            j.freePeriodS !== undefined ? 'None: free pin' : torqueRangeText(jointRangesOf(j), system),
           numeric: true,
         },
       ]}

@@ -19,3 +19,13 @@ export {
   type LoadCasesResult,
   type StopSpec,
 } from '@/features/loads/load-cases';
+export {
+  FORCE_RANGE_TITLE,
+  RANGES_NOTE,
+  TORQUE_RANGE_TITLE,
+  forceRangeText,
+  jointRangesOf,
+  rangesNotRecorded,
+  torqueRangeText,
+  type RangesShown,
+} from '@/features/loads/joint-ranges';

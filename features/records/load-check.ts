@@ -13,11 +13,13 @@ import type {
   MotionProfile,
 } from '@/features/loads/engine';
 import { type CaseSummary, analyseLoadCases, designStops, withLoadCases } from '@/features/loads';
+import { fatigueOfLoadCases } from '@/features/fatigue';
 import {
   type JointModel,
   type JointModelKind,
   PERIOD_DIFFERENCE_WARNING,
   type PeriodCheck,
+  type StoredFatigueDetail,
   periodCheckText,
 } from '@/features/records/analysis-schema';
 import type { Reading } from '@/features/records/schema';
@@ -29,6 +31,8 @@ export type LoadCheckExtras = {
   loadCases: CaseSummary[];
   governingCase: LoadCaseKind | null;
   periodChecks: PeriodCheck[];
+  /** Per fatigue detail of the design data: damage per case and per ride cycle; absent without one. */
+  fatigue?: StoredFatigueDetail[];
 };
 export type InspectionResult = CycleResult & LoadCheckExtras;
 
@@ -108,7 +112,25 @@ function periodWarning(p: PeriodCheck): CycleWarning {
   };
 }
 
-/** The operating cycle and the design's stops, merged, with the models and period checks. */
+/**
+ * Each fatigue detail's damage over the load cases (features/fatigue). A detail that cannot be assessed
+ * leaves a warning instead of failing the whole load check.
+ */
+function fatigueOf(design: DesignData, cases: readonly CaseSummary[]) {
+  if (!design.fatigue?.details.length) return { fatigue: undefined, warnings: [] };
+  try {
+    return { fatigue: fatigueOfLoadCases(design, cases), warnings: [] };
+  } catch (err) {
+    const warning: CycleWarning = {
+      code: 'fatigue_failed',
+      level: 'warning',
+      message: `Fatigue could not be assessed: ${err instanceof Error ? err.message : String(err)}`,
+    };
+    return { fatigue: undefined, warnings: [warning] };
+  }
+}
+
+/** The operating cycle and the design's stops, merged, with the models, period checks and fatigue. */
 export function runLoadCheck(
   design: DesignData,
   input: CycleInput,
@@ -123,12 +145,14 @@ export function runLoadCheck(
     result.joints.map((j) => j.name),
   );
   const checks = periodChecks(readings, result, models);
+  const fatigue = fatigueOf(design, cases.cases);
   return {
     ...result,
-    warnings: [...result.warnings, ...checks.map(periodWarning)],
+    warnings: [...result.warnings, ...checks.map(periodWarning), ...fatigue.warnings],
     models,
     loadCases: cases.cases,
     governingCase: cases.governing,
     periodChecks: checks,
+    ...(fatigue.fatigue ? { fatigue: fatigue.fatigue } : {}),
   };
 }

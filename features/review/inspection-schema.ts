@@ -15,7 +15,13 @@ import {
   readingMethods,
 } from '@/features/records/schema';
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
-import { analysisModelFields, loadCaseKinds, seatExtremesSchema } from '@/features/records/analysis-schema';
+import {
+  analysisLifeFields,
+  analysisModelFields,
+  jointRangesSchema,
+  loadCaseKinds,
+  seatExtremesSchema,
+} from '@/features/records/analysis-schema';
 import { auditEntrySchema, inspectionTypeSchema } from '@/features/registry/schema';
 import { findingSchema } from '@/features/notices/finding-schema';
 import type { QuantityKind } from '@/lib/units';
@@ -89,7 +95,10 @@ export const storedAnalysisSchema = z.object({
       peakForceN: z.number(),
       peakForceAtArmAngleRad: z.number(),
       peakTorqueNm: z.number(),
-      forceRangeN: z.number(),
+      /** Analyses before engine 1.2.0 only: the range of the force's size, no longer shown as a range. */
+      forceRangeN: z.number().optional(),
+      /** Component ranges in the carried body's frame; absent from analyses before engine 1.2.0. */
+      ranges: jointRangesSchema.optional().catch(undefined),
     }),
   ),
   seats: z.array(seatExtremesSchema),
@@ -116,6 +125,8 @@ export const storedAnalysisSchema = z.object({
     .catch(undefined),
   /** Models, load cases, period checks and warnings; absent from analyses made by engine 1.0.0. */
   ...analysisModelFields,
+  /** Fatigue per detail and pin checks; absent from analyses before engine 1.2.0. */
+  ...analysisLifeFields,
   /** Rider accelerations measured with the phone in a seat; absent when none were recorded. */
   measuredRider: z
     .array(

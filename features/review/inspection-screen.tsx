@@ -14,6 +14,7 @@ import { inspectionTypeLabel } from '@/features/registry/schema';
 import { AnalysisFacts } from '@/features/review/analysis-facts';
 import { LoadCheckBasis } from '@/features/records/ui';
 import { ChecklistResults } from '@/features/review/checklist-results';
+import { FatigueTable } from '@/features/review/fatigue-table';
 import { CycleCharts } from '@/features/review/cycle-charts';
 import { DecisionPanel } from '@/features/review/decision-panel';
 import { reviewQueueHref } from '@/features/review/hrefs';
@@ -94,6 +95,11 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
       {inspection.analysis ? (
         <Section title="How the load check was made">
           <LoadCheckBasis {...inspection.analysis} system={system} />
+        </Section>
+      ) : null}
+      {inspection.analysis?.fatigue?.length ? (
+        <Section title="Fatigue of the pivots’ details">
+          <FatigueTable fatigue={inspection.analysis.fatigue} pivots={pivots} system={system} />
         </Section>
       ) : null}
       <Section title="Readings">

@@ -7,7 +7,16 @@ import { DataTable } from '@/components/data-table';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { formatValue, measuredSources } from '@/features/loads';
+import {
+  FORCE_RANGE_TITLE,
+  RANGES_NOTE,
+  TORQUE_RANGE_TITLE,
+  forceRangeText,
+  formatValue,
+  measuredSources,
+  rangesNotRecorded,
+  torqueRangeText,
+} from '@/features/loads';
 import { CycleWarnings, EnvelopeTable } from '@/features/loads/ui';
 import { measuredWithWords } from '@/features/instruments/schema';
 import { formatDateTime } from '@/lib/dates';
@@ -41,6 +50,8 @@ export function LimitsSection({
   system: UnitSystem;
 }) {
   const a = inspection.analysis;
+  const freePin = (joint: number) =>
+    a?.models?.some((m) => m.joint === joint && m.model === 'free_swing') ?? false;
   if (!a) {
     return (
       <Card>
@@ -100,22 +111,37 @@ export function LimitsSection({
           },
           {
             key: 'range',
-            title: 'Load range',
-            render: ({ j }) => formatValue(j.forceRangeN, 'force', system),
+            title: FORCE_RANGE_TITLE,
+            // Older analyses kept only the range of the force's size, which hides a reversal: not shown.
+            render: ({ j }) =>
+              j.ranges ? forceRangeText(j.ranges, system) : rangesNotRecorded(a.engineVersion),
             numeric: true,
+            flex: 1.8,
           },
           {
             key: 'torque',
             title: 'Peak torque',
             // A free pin carries no torque; what the integration leaves is round-off, not a value to read.
             render: ({ i, j }) =>
-              a.models?.some((m) => m.joint === i && m.model === 'free_swing')
+              freePin(i) ? 'None: free pin' : formatValue(Math.abs(j.peakTorqueNm), 'moment', system),
+            numeric: true,
+          },
+          {
+            key: 'torqueRange',
+            title: TORQUE_RANGE_TITLE,
+            render: ({ i, j }) =>
+              freePin(i)
                 ? 'None: free pin'
-                : formatValue(Math.abs(j.peakTorqueNm), 'moment', system),
+                : j.ranges
+                  ? torqueRangeText(j.ranges, system)
+                  : rangesNotRecorded(a.engineVersion),
             numeric: true,
           },
         ]}
       />
+      <Text variant="small" muted>
+        {RANGES_NOTE}
+      </Text>
       <Caution />
     </View>
   );

@@ -33,6 +33,9 @@ import { rideClassLabel, type RideClass } from '@/features/rides/schema';
 import { orNot } from '@/server/notices/words';
 import { startPdf } from '@/server/pdf/document';
 import type { InspectionReport } from '@/server/reports/inspection-report';
+import { fatigueTable, pivotLoadsTable } from '@/server/reports/inspection-report-loads';
+import { FATIGUE_BASIS } from '@/features/fatigue';
+import { RANGES_NOTE } from '@/features/loads';
 
 type ReportPaper = 'A4' | 'LETTER';
 
@@ -219,6 +222,16 @@ function loadCheck(doc: Doc, r: InspectionReport) {
     return [e.label, shown.value, shown.limit, shown.ratio, ENVELOPE_STATUS_LABEL[e.status]];
   });
   table(doc, ['Quantity', 'Value', 'Limit', 'Of limit', 'Status'], rows, ['*', 80, 90, 55, 65]);
+  const loads = pivotLoadsTable(a, 'si');
+  doc.moveDown(0.6);
+  table(doc, loads.head, loads.rows, loads.widths);
+  doc.moveDown(0.3).fillColor(C.textMuted).text(RANGES_NOTE, MARGIN).fillColor(C.text);
+  const fatigue = fatigueTable(a, 'si');
+  if (fatigue) {
+    heading(doc, 'Fatigue of the pivots’ details');
+    table(doc, fatigue.head, fatigue.rows, fatigue.widths);
+    doc.moveDown(0.3).fillColor(C.textMuted).text(FATIGUE_BASIS, MARGIN).fillColor(C.text);
+  }
   if (a.differences.length > 0) {
     doc
       .moveDown(0.4)

@@ -15,6 +15,7 @@ import type { AnalysisModelFields } from '@/features/records/analysis-schema';
 import type { LoadCheckExtras } from '@/features/records/load-check';
 import type { InspectionRecord } from '@/features/records/schema';
 import { ENGINE_VERSION, pinChecksAtPeak, type CycleResult } from '@/features/loads/engine';
+import { jointRangesOf } from '@/features/loads';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
@@ -48,7 +49,8 @@ export function summariseAnalysis(
       peakForceN: j.peakForce.value,
       peakForceAtArmAngleRad: j.peakForce.armAngleRad,
       peakTorqueNm: j.peakTorque.value,
-      forceRangeN: j.extremes.magnitudeN.range,
+      // Component ranges in the carried body's frame; the range of the force's size hid reversals.
+      ranges: jointRangesOf(j),
     })),
     seats: result.seats.map((s) => ({
       name: s.name,
@@ -61,6 +63,7 @@ export function summariseAnalysis(
     server,
     device,
     differences: previewDifferences(device, server),
+    ...(result.fatigue ? { fatigue: result.fatigue } : {}),
   };
 }
 
@@ -68,7 +71,7 @@ export function summariseAnalysis(
 function storedModelFields(result: CycleResult & Partial<LoadCheckExtras>): AnalysisModelFields {
   return {
     models: result.models,
-    loadCases: result.loadCases?.map(({ run: _run, ...summary }) => summary),
+    loadCases: result.loadCases?.map(({ run: _run, results: _results, ...summary }) => summary),
     governingCase: result.governingCase,
     periodChecks: result.periodChecks,
     warnings: result.warnings,

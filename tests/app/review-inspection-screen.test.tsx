@@ -24,6 +24,9 @@ import {
   ENGINE_VERSION,
 } from '@/features/loads/engine';
 import { inspectionResponseSchema } from '@/features/review/inspection-schema';
+import type { DesignData } from '@/features/loads/design-schema';
+import { jointRangesOf } from '@/features/loads';
+import { formatDamage } from '@/features/fatigue';
 import { InspectionReviewScreen } from '@/features/review/inspection-screen';
 import type { TrendsResponse } from '@/features/review/schema';
 import { setUnitSystem } from '@/features/settings/unit-system';
@@ -96,8 +99,26 @@ const MASS_KG = 100;
 const LENGTH_M = 4;
 const RPM = 6;
 const OMEGA = (RPM * 2 * Math.PI) / 60;
-// One body, "Rod", on one pivot, "Main pivot", with a 20 kN force limit and pin wear limits.
-const design = rodDesign(MASS_KG, LENGTH_M);
+// One body, "Rod", on one pivot, "Main pivot", with a 20 kN force limit and pin wear limits, and one
+// fatigue detail: the pin's lug following the force across the rod, 40 MPa per kN, category 80.
+const RIDE_CYCLE_S = 120;
+const design: DesignData = {
+  ...rodDesign(MASS_KG, LENGTH_M),
+  fatigue: {
+    rideCycleS: RIDE_CYCLE_S,
+    details: [
+      {
+        joint: 0,
+        name: 'Lug net section',
+        kind: 'lug_net_section',
+        member: 'body',
+        component: 'across',
+        stressPerKnMPa: 40,
+        categoryMPa: 80,
+      },
+    ],
+  },
+};
 
 const readings: Reading[] = [
   {
@@ -242,13 +263,14 @@ function inspectionAnswer(over: Record<string, unknown> = {}) {
             peakForceN: j.peakForce.value,
             peakForceAtArmAngleRad: j.peakForce.armAngleRad,
             peakTorqueNm: j.peakTorque.value,
-            forceRangeN: j.extremes.magnitudeN.range,
+            ranges: jointRangesOf(j),
           })),
           seats: [],
           envelope: result.envelope,
           server,
           device,
           differences: previewDifferences(device, server),
+          fatigue: result.fatigue,
         }),
       ),
       analysisNote: null,
@@ -379,6 +401,16 @@ function renderReview(user: SessionUser = supervisor, initialUrl = '/review/insp
   );
 }
 
+/** The pivot's row of the peak pivot loads, once the design version has named the pivot. */
+async function pivotRow() {
+  const table = await screen.findByLabelText('Peak pivot loads');
+  const name = await within(table).findByText('P1 · Main pivot');
+  let node: typeof name | null = name;
+  while (node && node.props.role !== 'row') node = node.parent;
+  if (!node) throw new Error('No row holds the pivot');
+  return node;
+}
+
 /** The table row (role="row") that holds a text, found by walking up from the text. */
 function rowWith(text: string) {
   let node: ReturnType<typeof screen.getByText> | null = screen.getByText(text);
@@ -470,6 +502,60 @@ describe('inspection review', () => {
     expect(within(raw).getByText('Micrometer · Outside micrometer 50–75 mm (MC-1)')).toBeTruthy();
     // A reading with no instrument recorded reads as before.
     expect(within(rowWith('Bushing clearance, main pivot')).getByText('Dial indicator')).toBeTruthy();
+  });
+
+  test('pivot ranges along and across the rod in its own frame: 2·m·g each (textbook fixed-axis rotation)', async () => {
+    renderReview();
+    const row = await pivotRow();
+    // Across the rod m·g·cos θ, along it −m·ω²·r_G + m·g·sin θ: both range over 2·m·g per turn.
+    const twoMg = formatQuantity(2 * MASS_KG * STANDARD_GRAVITY_MS2, 'force', 'si').text;
+    expect(within(row).getByText(`${twoMg} / ${twoMg} (Rod frame)`)).toBeTruthy();
+    expect(screen.getAllByText('Force range along / across'.toUpperCase()).length).toBeGreaterThan(0);
+    // The force's size only ranges over m·ω²·L = 158 N, which hides the reversal: never shown as a range.
+    const sizeRange = formatQuantity(MASS_KG * OMEGA ** 2 * LENGTH_M, 'force', 'si').text;
+    expect(within(row).queryByText(sizeRange)).toBeNull();
+  });
+
+  test('an analysis stored before component ranges says they were not recorded, not the size’s range', async () => {
+    const old = inspectionAnswer();
+    const analysis = old.inspection.analysis as { engineVersion: string; joints: Record<string, unknown>[] };
+    analysis.engineVersion = '1.1.0';
+    analysis.joints = analysis.joints.map(({ ranges: _r, ...j }) => ({ ...j, forceRangeN: 158 }));
+    answers['/api/inspections/insp-3'] = () => [200, old];
+    renderReview();
+    const row = await pivotRow();
+    expect(within(row).getAllByText('Not recorded (engine 1.1.0)')).toHaveLength(2);
+    expect(within(row).queryByText('158 N')).toBeNull();
+  });
+
+  test('fatigue per detail: the lug’s range 40 MPa/kN × 2·m·g and its Miner damage per ride cycle (EN 1993-1-9)', async () => {
+    renderReview();
+    const table = await screen.findByLabelText('Fatigue per detail');
+    // Δσ = 40 × 1.961 kN = 78.45 MPa > Δσ_D = 0.737 × 80 = 58.96 MPa, so m = 3: one turn does
+    // (78.45/80)³ / 2×10⁶ = 4.716×10⁻⁷; a 120 s ride cycle is 12 turns of 10 s (6 rpm): 5.659×10⁻⁶.
+    const rangeMPa = (40 * 2 * MASS_KG * STANDARD_GRAVITY_MS2) / 1000;
+    const perTurn = (rangeMPa / 80) ** 3 / 2e6;
+    const perRide = perTurn * (RIDE_CYCLE_S / (60 / RPM));
+    expect(perRide / 5.659e-6).toBeCloseTo(1, 3);
+    // The stored analysis's values (360 instants per turn: the sampled range within 10⁻⁴ of the textbook's).
+    const stored = result.fatigue?.[0];
+    expect((stored?.cases[0].maxRangeMPa ?? 0) / rangeMPa).toBeCloseTo(1, 4);
+    expect((stored?.damagePerRideCycle ?? 0) / perRide).toBeCloseTo(1, 3);
+    await screen.findByText('P1 · Main pivot · Lug net section');
+    const row = rowWith('P1 · Main pivot · Lug net section');
+    expect(within(row).getByText('Δσ_C 80 MPa')).toBeTruthy();
+    expect(
+      within(row).getByText(
+        `Operating cycle: ${formatQuantity((stored?.cases[0].maxRangeMPa ?? 0) * 1e6, 'stress', 'si').text}`,
+      ),
+    ).toBeTruthy();
+    expect(within(row).getByText(formatDamage(stored?.damagePerRideCycle ?? 0))).toBeTruthy();
+    expect(within(row).getByText('Operating cycle')).toBeTruthy();
+    expect(within(row).getByText('No emergency stop in the design')).toBeTruthy();
+    expect(within(table).getAllByText(/P1 · Main pivot · Lug net section/)).toHaveLength(1);
+    expect(screen.getAllByText(/rainflow \(ASTM E1049-85, §5.4.4\)/).length).toBeGreaterThan(0);
+    expect(screen.getAllByText(/EN 1993-1-9 §7 S-N curve/).length).toBeGreaterThan(0);
+    expect(screen.getAllByText(CAUTION_SHORT).length).toBeGreaterThan(1);
   });
 
   test('a record stored before declarations says so rather than showing one', async () => {

@@ -40,7 +40,7 @@ describe('constant rotation: the textbook driven rod over one revolution (m = 10
     expect(joint.peakForce.forceBodyN[0]).toBeCloseTo(-1881, 0);
   });
 
-  it('reports the load range 1881 − 81 = 1800 N, the range fatigue sees (textbook 2·mω²L/2)', () => {
+  it('reports the magnitude’s range 1881 − 81 = 1800 N (textbook 2·mω²L/2), while along the arm it is 2·m·g', () => {
     expect(joint.extremes.magnitudeN.max).toBeCloseTo(1881, 0);
     expect(joint.extremes.magnitudeN.min).toBeCloseTo(81, 0);
     expect(joint.extremes.magnitudeN.range).toBeCloseTo(2 * 100 * 9, 6);

@@ -89,7 +89,11 @@ export type JointHistory = {
   peakForce: PeakAt & { forceN: [number, number]; forceBodyN: [number, number] };
   /** Largest |torque|; `value` keeps its sign. */
   peakTorque: PeakAt;
-  /** Load range (max − min) of the magnitude and of each component: what fatigue sees. */
+  /**
+   * Extremes and range (max − min) of the magnitude and of each component. A fatigue detail follows one
+   * component in its member's frame (features/fatigue/detail-stress.ts); the magnitude's range hides a
+   * reversal (on a turning arm the force reverses while its size barely changes), so it is no load range.
+   */
   extremes: {
     magnitudeN: Extremes;
     xN: Extremes;

@@ -1,6 +1,6 @@
 /** The load engine's public API. Pure TypeScript: no React, no I/O; used by the server and the app. */
 
-export const ENGINE_VERSION = '1.1.0';
+export const ENGINE_VERSION = '1.2.0';
 
 export { STANDARD_GRAVITY_MS2, createChain, createChainWork, solveInto } from '@/features/loads/engine/chain';
 export type { Chain, ChainBody, ChainWork, JointState, Vec2 } from '@/features/loads/engine/chain';
