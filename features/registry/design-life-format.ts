@@ -12,8 +12,12 @@ import type {
   NdtMethod,
   PinCheckData,
 } from '@/features/loads/design-schema';
-import { q } from '@/features/registry/design-format';
-import { type UnitSystem, convert, formatSignificant } from '@/lib/units';
+import { quantityPair } from '@/features/registry/design-diff-collector';
+import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/lib/units';
+
+/** A design value in the system's unit, as stated: "650 MPa", "35 mm" (converted: four figures). */
+export const q = (value: number, kind: QuantityKind, system: UnitSystem): string =>
+  quantityPair(value, undefined, kind, system)[0] ?? '—';
 
 /** A design value as stated: up to six figures, no padding zeros ("1.15", "0.062", "20106"). */
 export const stated = (v: number) => String(Number(v.toPrecision(6))).replace(/^-/, '−');
@@ -64,8 +68,9 @@ export function detailLoadText(d: Pick<FatigueDetail, 'joint' | 'member' | 'comp
 }
 
 /** MPa per kN (per kN·m for a torque), in the system's units. */
-function perLoadText(mpaPerKn: number, torque: boolean, system: UnitSystem): string {
-  if (system === 'si') return `${formatSignificant(mpaPerKn, 3)} MPa/${torque ? 'kN·m' : 'kN'}`;
+function perLoadText(mpaPerKn: number, torque: boolean, system: UnitSystem, given: boolean): string {
+  if (system === 'si')
+    return `${given ? stated(mpaPerKn) : formatSignificant(mpaPerKn, 3)} MPa/${torque ? 'kN·m' : 'kN'}`;
   const value = torque
     ? convert(mpaPerKn, 'MPa/(kN m)', 'ksi/(kip ft)')
     : convert(mpaPerKn, 'MPa/kN', 'ksi/kip');
@@ -91,14 +96,14 @@ export function stressFactorText(
   system: UnitSystem,
 ): string {
   const torque = d.component === 'torque';
-  if (d.stressPerKnMPa !== undefined) return perLoadText(d.stressPerKnMPa, torque, system);
+  if (d.stressPerKnMPa !== undefined) return perLoadText(d.stressPerKnMPa, torque, system, true);
   if (d.sectionAreaMm2 === undefined) return '—';
   const planes = d.shearPlanes ?? 1;
   const area =
     system === 'si'
       ? `${stated(d.sectionAreaMm2)} mm²`
       : `${formatSignificant(convert(d.sectionAreaMm2, 'mm^2', 'in^2'), 4)} in²`;
-  const derived = perLoadText(stressPerLoad(d), torque, system);
+  const derived = perLoadText(stressPerLoad(d), torque, system, false);
   return `${area}${planes === 2 ? ', 2 planes' : ''} → ${derived}`;
 }
 

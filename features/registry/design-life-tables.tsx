@@ -5,8 +5,8 @@ import { DataTable } from '@/components/data-table';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import type { DesignData, DesignPivot, FatigueDetail, NdtPlan } from '@/features/loads/design-schema';
-import { q } from '@/features/registry/design-format';
 import {
+  q,
   categoryText,
   curveText,
   detailLoadText,
