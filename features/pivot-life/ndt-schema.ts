@@ -75,6 +75,7 @@ export type NdtRecord = z.infer<typeof ndtRecordSchema>;
 /** `GET /api/rides/:id/ndt`: per pivot of the current design, its plans with due states and its records. */
 export const rideNdtSchema = z.object({
   rideId: z.string(),
+  rideName: z.string(),
   asOf: isoDate,
   designVersion: z.number().nullable(),
   pivots: z.array(

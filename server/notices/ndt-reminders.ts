@@ -64,7 +64,7 @@ export function dueNdtTests(db: Pick<Db, 'select'>, today: string): NdtReminderI
         .all()
         .map((s) => `${s.joint}:${s.method}:${s.dueOn}:${s.stage}`),
     );
-    for (const pivot of rideNdt(db, ride.rideId, today).pivots)
+    for (const pivot of rideNdt(db, { id: ride.rideId, name: ride.rideName }, today).pivots)
       for (const due of pivot.due) {
         if (due.dueOn === null || due.dueOn > horizon) continue;
         const stage: NdtReminderStage = due.dueOn < today ? 'past_due' : 'due_soon';

@@ -111,13 +111,15 @@ export function rideNdtDue(db: Reader, rideId: string, today: string): Map<numbe
 }
 
 /** `GET /api/rides/:id/ndt`: every pivot of the design in force, its plans, due dates and records. */
-export function rideNdt(db: Reader, rideId: string, today: string): RideNdt {
+export function rideNdt(db: Reader, ride: { id: string; name: string }, today: string): RideNdt {
+  const rideId = ride.id;
   const assembled = assemble(db, rideId);
   const current = assembled.versions[assembled.versions.length - 1];
   const due = dueByJoint(assembled, today);
   const joints = new Set(current?.data.pivots.map((p) => p.joint) ?? []);
   return {
     rideId,
+    rideName: ride.name,
     asOf: today,
     designVersion: current?.version ?? null,
     pivots: (current?.data.pivots ?? []).map((p) => ({

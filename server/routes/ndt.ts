@@ -96,7 +96,7 @@ export function ndtRouter(deps: ApiDeps): Router {
 
   router.get('/rides/:id/ndt', auth, oneRide, (_req, res) => {
     const ride = mustFindRide(deps.db, oneRide.params(res).id, companyScope(currentUser(res)));
-    const body: RideNdt = rideNdt(deps.db, ride.id, isoDay(nowOf(deps)));
+    const body: RideNdt = rideNdt(deps.db, ride, isoDay(nowOf(deps)));
     res.json(body);
   });
 

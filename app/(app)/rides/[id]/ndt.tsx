@@ -1,0 +1,1 @@
+export { NdtScreen as default } from '@/features/pivot-life/ndt-screen';
