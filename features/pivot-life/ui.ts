@@ -8,3 +8,7 @@ export {
 } from '@/features/pivot-life/api';
 export { PinCheckRows } from '@/features/pivot-life/pin-check-rows';
 export { WearRows } from '@/features/pivot-life/wear-rows';
+export { ndtKeys, useAddNdtRecordMutation, useRideNdtQuery } from '@/features/pivot-life/ndt-api';
+export { NdtDueMark } from '@/features/pivot-life/ndt-due-mark';
+export { NdtRows } from '@/features/pivot-life/ndt-rows';
+export { NdtScreen } from '@/features/pivot-life/ndt-screen';
