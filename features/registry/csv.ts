@@ -1,6 +1,7 @@
 /**
  * Design data import and export: a CSV with one row per record (source, analysis settings, body, part,
- * pivot, seat, motion, rider limit) and the JSON form of the DesignData object. Pure TypeScript (no React,
+ * pivot with its pin-check data, NDT plan, seat, motion, rider limit, fatigue settings, fatigue detail) and
+ * the JSON form of the DesignData object. Pure TypeScript (no React,
  * no I/O), so the server and the app read and write files the same way. The format is described in
  * features/registry/README.md; the CSV's columns and which field each holds are one table
  * (`design-file/columns.ts`) that export, import and the error report all read.
