@@ -17,8 +17,13 @@
  */
 import type { DesignData, FatigueDetail } from '@/features/loads/design-schema';
 import type { CycleResult, LoadCaseKind } from '@/features/loads/engine';
-import { detailStressFactor, detailStressHistory } from '@/features/fatigue/detail-stress';
-import { rainflow, rainflowRepeating, type RainflowCycle } from '@/features/fatigue/rainflow';
+import { detailLoadHistory, detailStressFactor } from '@/features/fatigue/detail-stress';
+import {
+  type RainflowArrays,
+  type RainflowCycle,
+  rainflowArrays,
+  rainflowRepeatingArrays,
+} from '@/features/fatigue/rainflow';
 import { minerDamage } from '@/features/fatigue/sn-curve';
 
 /** The Miner sum EN 1993-1-9 accepts unless the design says otherwise. */
@@ -50,17 +55,25 @@ export type DetailFatigue = {
   damageLimit: number;
 };
 
-/** Largest range and Miner damage of counted cycles for one detail. */
+/**
+ * Largest range and Miner damage of counted cycles for one detail, each range times `scale` (the stress
+ * per unit of the counted load; 1 when the cycles are already in MPa).
+ */
 export function damageOfCycles(
-  cycles: readonly RainflowCycle[],
+  cycles: readonly RainflowCycle[] | RainflowArrays,
   detail: Pick<FatigueDetail, 'categoryMPa' | 'shear' | 'gammaFf' | 'gammaMf'>,
+  scale = 1,
 ): { maxRangeMPa: number; damage: number } {
+  const arrays = 'length' in cycles && !Array.isArray(cycles) ? (cycles as RainflowArrays) : null;
+  const list = arrays ? null : (cycles as readonly RainflowCycle[]);
+  const n = arrays ? arrays.length : (list?.length ?? 0);
   let maxRangeMPa = 0;
   const counted: { rangeMPa: number; count: number }[] = [];
-  for (const c of cycles) {
-    if (!(c.range > 0)) continue;
-    maxRangeMPa = Math.max(maxRangeMPa, c.range);
-    counted.push({ rangeMPa: c.range, count: c.count });
+  for (let i = 0; i < n; i++) {
+    const rangeMPa = (arrays ? arrays.range[i] : (list as readonly RainflowCycle[])[i].range) * scale;
+    if (!(rangeMPa > 0)) continue;
+    maxRangeMPa = Math.max(maxRangeMPa, rangeMPa);
+    counted.push({ rangeMPa, count: arrays ? arrays.count[i] : (list as readonly RainflowCycle[])[i].count });
   }
   if (counted.length === 0) return { maxRangeMPa, damage: 0 };
   const { damage } = minerDamage(counted, {
@@ -72,18 +85,45 @@ export function damageOfCycles(
   return { maxRangeMPa, damage };
 }
 
+/**
+ * The counted load a detail follows, in N (N·m), per run and counting: rainflow is linear (ranges scale
+ * with the load and do not change with its sign), so details that follow the same component share one
+ * count and only their factors differ; a reaction torque counts as the torque itself.
+ */
+const countedLoads = new WeakMap<CycleResult, Map<string, RainflowArrays>>();
+
+function countedLoad(
+  result: CycleResult,
+  detail: Pick<FatigueDetail, 'joint' | 'member' | 'component'>,
+  repeating: boolean,
+): RainflowArrays {
+  const member = detail.component === 'torque' ? 'body' : detail.member;
+  const key = `${detail.joint}|${member}|${detail.component}|${repeating ? 'r' : 'o'}`;
+  let byKey = countedLoads.get(result);
+  if (!byKey) {
+    byKey = new Map();
+    countedLoads.set(result, byKey);
+  }
+  let counted = byKey.get(key);
+  if (!counted) {
+    const load = detailLoadHistory(result, { joint: detail.joint, member, component: detail.component });
+    counted = repeating ? rainflowRepeatingArrays(load) : rainflowArrays(load);
+    byKey.set(key, counted);
+  }
+  return counted;
+}
+
 /** One case for one detail: the operating cycle as a repeating block, a stop once (its worst run). */
 export function detailCaseDamage(
   detail: FatigueDetail,
   kind: LoadCaseKind,
   results: readonly CycleResult[],
 ): { maxRangeMPa: number; damage: number } {
+  const perN = detailStressFactor(detail) / 1000;
   let maxRangeMPa = 0;
   let damage = 0;
   for (const result of results) {
-    const stress = detailStressHistory(result, detail);
-    const cycles = kind === 'operating' ? rainflowRepeating(stress) : rainflow(stress);
-    const one = damageOfCycles(cycles, detail);
+    const one = damageOfCycles(countedLoad(result, detail, kind === 'operating'), detail, perN);
     maxRangeMPa = Math.max(maxRangeMPa, one.maxRangeMPa);
     damage = Math.max(damage, one.damage);
   }

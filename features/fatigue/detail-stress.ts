@@ -7,9 +7,9 @@
  * member's x-axis, 'across' its y-axis.
  * - member 'body': the force on body i by its parent at joint i, in body i's frame — the engine's
  *   `forceAlongN` / `forceAcrossN` — and the torque `torqueNm` on body i.
- * - member 'parent': the reaction on the holding member (Newton's third law: −F, −torque), turned into the
- *   parent's frame by the parent's absolute angle θ_{i−1}. For joint 0 the holder is the ground, whose
- *   frame is the global one: 'along' is global x, 'across' global y (up).
+ * - member 'parent': the reaction on the holding member (Newton's third law: −F, −torque) in the parent's
+ *   frame, turned by the parent's absolute angle θ_{i−1} = θ_i − q_i. For joint 0 the holder is the ground,
+ *   whose frame is the global one: 'along' is global x, 'across' global y (up).
  * The sign of a stress is a convention only; ranges, which fatigue counts, do not depend on it.
  *
  * Pure TypeScript: the server's analysis, the design basis and the app run this same code.
@@ -30,19 +30,50 @@ export function detailStressFactor(
   return 1000 / (detail.sectionAreaMm2 * (detail.shearPlanes ?? 1));
 }
 
-/** Each sample's absolute angle of body `body` (θ = sum of the relative joint angles up to it). */
-export function absoluteAngles(result: CycleResult, body: number): Float64Array {
-  const theta = new Float64Array(result.samples);
-  for (let j = 0; j <= body; j++) {
-    const q = result.joints[j].angleRad;
-    for (let k = 0; k < theta.length; k++) theta[k] += q[k];
+/**
+ * The reaction on the holding member in its own frame, per sample: −F turned from body i's frame back by
+ * the joint's relative angle q_i (θ_{i−1} = θ_i − q_i), which needs no sum of angles up the chain; for
+ * joint 0 it is −F in global axes. Both components are kept per result, since a pivot's details often
+ * follow both.
+ */
+const parentFrames = new WeakMap<CycleResult, Map<number, { along: Float64Array; across: Float64Array }>>();
+
+function parentFrame(result: CycleResult, joint: number): { along: Float64Array; across: Float64Array } {
+  let byJoint = parentFrames.get(result);
+  if (!byJoint) {
+    byJoint = new Map();
+    parentFrames.set(result, byJoint);
   }
-  return theta;
+  const held = byJoint.get(joint);
+  if (held) return held;
+  const j = result.joints[joint];
+  const count = result.samples;
+  const along = new Float64Array(count);
+  const across = new Float64Array(count);
+  if (joint === 0) {
+    for (let k = 0; k < count; k++) {
+      along[k] = -j.forceXN[k];
+      across[k] = -j.forceYN[k];
+    }
+  } else {
+    const a = j.forceAlongN;
+    const b = j.forceAcrossN;
+    const q = j.angleRad;
+    for (let k = 0; k < count; k++) {
+      const c = Math.cos(q[k]);
+      const s = Math.sin(q[k]);
+      along[k] = -(a[k] * c - b[k] * s);
+      across[k] = -(a[k] * s + b[k] * c);
+    }
+  }
+  const frame = { along, across };
+  byJoint.set(joint, frame);
+  return frame;
 }
 
 /**
  * The load the detail follows, N (N·m for a torque), per sample: the component in the carrying member's
- * frame, as the header describes.
+ * frame, as the header describes. Read only: the arrays may be shared between details.
  */
 export function detailLoadHistory(
   result: CycleResult,
@@ -50,39 +81,27 @@ export function detailLoadHistory(
 ): Float64Array {
   const joint = result.joints[detail.joint];
   if (!joint) throw new Error(`The analysis has no joint ${detail.joint}`);
-  const count = result.samples;
-  const out = new Float64Array(count);
-  if (detail.member === 'body') {
-    const source =
-      detail.component === 'torque'
-        ? joint.torqueNm
-        : detail.component === 'along'
-          ? joint.forceAlongN
-          : joint.forceAcrossN;
-    out.set(source);
-    return out;
-  }
-  // The holding member carries the reaction: −F and −torque.
+  if (detail.member === 'body')
+    return detail.component === 'torque'
+      ? joint.torqueNm
+      : detail.component === 'along'
+        ? joint.forceAlongN
+        : joint.forceAcrossN;
   if (detail.component === 'torque') {
-    for (let k = 0; k < count; k++) out[k] = -joint.torqueNm[k];
+    // The holding member carries the reaction torque.
+    const out = new Float64Array(result.samples);
+    for (let k = 0; k < out.length; k++) out[k] = -joint.torqueNm[k];
     return out;
   }
-  const theta = detail.joint === 0 ? null : absoluteAngles(result, detail.joint - 1);
-  const along = detail.component === 'along';
-  for (let k = 0; k < count; k++) {
-    const x = -joint.forceXN[k];
-    const y = -joint.forceYN[k];
-    const c = theta ? Math.cos(theta[k]) : 1;
-    const s = theta ? Math.sin(theta[k]) : 0;
-    out[k] = along ? x * c + y * s : -x * s + y * c;
-  }
-  return out;
+  const frame = parentFrame(result, detail.joint);
+  return detail.component === 'along' ? frame.along : frame.across;
 }
 
 /** The detail's stress per sample, MPa: the load in kN (kN·m) times the detail's stress factor. */
 export function detailStressHistory(result: CycleResult, detail: FatigueDetail): Float64Array {
   const load = detailLoadHistory(result, detail);
   const perN = detailStressFactor(detail) / 1000;
-  for (let k = 0; k < load.length; k++) load[k] *= perN;
-  return load;
+  const out = new Float64Array(load.length);
+  for (let k = 0; k < load.length; k++) out[k] = load[k] * perN;
+  return out;
 }

@@ -13,12 +13,7 @@ export type { RainflowArrays, RainflowCycle } from '@/features/fatigue/rainflow'
 export { N_C, N_D, N_L, cyclesToFailure, minerDamage, snCurve } from '@/features/fatigue/sn-curve';
 export type { MinerCycle, MinerOptions, MinerResult, SnCurve, SnOptions } from '@/features/fatigue/sn-curve';
 
-export {
-  absoluteAngles,
-  detailLoadHistory,
-  detailStressFactor,
-  detailStressHistory,
-} from '@/features/fatigue/detail-stress';
+export { detailLoadHistory, detailStressFactor, detailStressHistory } from '@/features/fatigue/detail-stress';
 export {
   DEFAULT_DAMAGE_LIMIT,
   damageOfCycles,
