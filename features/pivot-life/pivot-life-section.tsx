@@ -7,7 +7,7 @@ import { Caution } from '@/components/caution';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
-import type { FatigueDetailKind } from '@/features/loads/design-schema';
+import type { DesignData, FatigueDetailKind } from '@/features/loads/design-schema';
 import { useRideLifeQuery } from '@/features/pivot-life/api';
 import {
   FATIGUE_KIND_WORDS,
@@ -21,12 +21,30 @@ import {
   projectedText,
   smallNumberText,
 } from '@/features/pivot-life/life-words';
+import { PinCheckRows } from '@/features/pivot-life/pin-check-rows';
 import type { DetailLife, PivotLife, RideLife } from '@/features/pivot-life/schema';
+import { WearRows } from '@/features/pivot-life/wear-rows';
+import { useUnitSystem } from '@/features/settings';
 import { formatDate } from '@/lib/dates';
 import { formatSignificant } from '@/lib/units';
 
 /** A pivot's other rows (wear, pins, NDT), drawn by the parts that own them. */
 export type PivotRows = (pivot: PivotLife, life: RideLife, compact: boolean) => ReactNode;
+
+/**
+ * The wear trends, the pin checks and the NDT due dates of one pivot. The pin's partial factors are named
+ * from the design data when the reader may see it (staff); without it the standard's values are named.
+ */
+function OtherRows({ pivot, design }: { pivot: PivotLife; design: DesignData | null }) {
+  const [system] = useUnitSystem();
+  const pinCheck = design?.pivots.find((p) => p.joint === pivot.joint)?.pinCheck ?? null;
+  return (
+    <>
+      <WearRows trends={pivot.wear} system={system} />
+      {pivot.pin ? <PinCheckRows pin={pivot.pin} pinCheck={pinCheck} system={system} /> : null}
+    </>
+  );
+}
 
 const STATUS_FILL = { within: colors.within, near: colors.near, over: colors.over } as const;
 
@@ -38,11 +56,10 @@ export function LifeBar({ lifeUsed }: { lifeUsed: number }) {
     <View style={styles.barRow}>
       <View
         style={styles.barTrack}
-        role="meter"
-        aria-valuemin={0}
-        aria-valuemax={100}
-        aria-valuenow={Math.min(100, lifeUsed * 100)}
-        aria-label={`Life used ${lifeUsedText(lifeUsed)}`}
+        accessible
+        role="progressbar"
+        accessibilityValue={{ min: 0, max: 100, now: Math.round(Math.min(100, lifeUsed * 100)) }}
+        accessibilityLabel={`Life used ${lifeUsedText(lifeUsed)}`}
       >
         <View style={[styles.barFill, { width, backgroundColor: STATUS_FILL[status] }]} />
       </View>
@@ -85,11 +102,13 @@ function PivotBlock({
   life,
   compact,
   rows,
+  design,
 }: {
   pivot: PivotLife;
   life: RideLife;
   compact: boolean;
   rows?: PivotRows;
+  design: DesignData | null;
 }) {
   return (
     <View style={styles.pivot} accessibilityLabel={`Pivot ${pivot.name}`}>
@@ -103,7 +122,7 @@ function PivotBlock({
       ) : (
         pivot.details.map((d) => <DetailRow key={d.detail} detail={d} life={life} compact={compact} />)
       )}
-      {rows ? rows(pivot, life, compact) : null}
+      {rows ? rows(pivot, life, compact) : <OtherRows pivot={pivot} design={design} />}
     </View>
   );
 }
@@ -134,10 +153,12 @@ export function PivotLifeBody({
   life,
   compact = false,
   rows,
+  design = null,
 }: {
   life: RideLife;
   compact?: boolean;
   rows?: PivotRows;
+  design?: DesignData | null;
 }) {
   return (
     <>
@@ -148,7 +169,7 @@ export function PivotLifeBody({
         <Text muted>The design data names no pivots.</Text>
       ) : (
         life.pivots.map((p) => (
-          <PivotBlock key={p.joint} pivot={p} life={life} compact={compact} rows={rows} />
+          <PivotBlock key={p.joint} pivot={p} life={life} compact={compact} rows={rows} design={design} />
         ))
       )}
       {compact ? (
@@ -174,11 +195,14 @@ export function PivotLifeSection({
   rideId,
   compact = false,
   rows,
+  design = null,
   links = [],
 }: {
   rideId: string;
   compact?: boolean;
   rows?: PivotRows;
+  /** The design in force, when the reader may see it: it names the pin checks' partial factors. */
+  design?: DesignData | null;
   links?: LinkSpec[];
 }) {
   const query = useRideLifeQuery(rideId);
@@ -190,7 +214,7 @@ export function PivotLifeSection({
       ) : query.error || !query.data ? (
         <Text muted>The pivot life could not be loaded.</Text>
       ) : (
-        <PivotLifeBody life={query.data} compact={compact} rows={rows} />
+        <PivotLifeBody life={query.data} compact={compact} rows={rows} design={design} />
       )}
       {links.map((l) => (
         <Link key={l.label} href={l.href} asChild>

@@ -31,12 +31,14 @@ import type { Role, SessionUser } from '@/features/session/schema';
 import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
+import { PivotLifeSection } from '@/features/pivot-life/ui';
 import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices';
 import { NoticeRow } from '@/features/notices/ui';
 import {
   rideDesignHref,
   rideEditHref,
   rideImportHref,
+  rideLogHref,
   rideScheduleHref,
   ridesHref,
   rideStatusHref,
@@ -89,6 +91,7 @@ function RideDetailBody({
 }) {
   const editor = canEditRides(user.role);
   const staff = isStaff(user.role);
+  const lifeLinks = [{ href: rideLogHref(ride.id), label: 'Running log' }];
 
   const info = (
     <>
@@ -115,6 +118,7 @@ function RideDetailBody({
       ) : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
       {staff ? <NoticesCard rideId={ride.id} /> : null}
+      {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}
     </>
   );
 
@@ -139,6 +143,7 @@ function RideDetailBody({
           ) : null}
         </Card>
       )}
+      <PivotLifeSection rideId={ride.id} design={design?.data ?? null} links={lifeLinks} />
     </>
   ) : null;
 
