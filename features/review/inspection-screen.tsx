@@ -9,6 +9,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { RoleGate } from '@/features/auth/ui';
+import { PivotLifeSection } from '@/features/pivot-life/ui';
 import { useDesignVersionQuery, useRideQuery } from '@/features/registry/ui';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { AnalysisFacts } from '@/features/review/analysis-facts';
@@ -102,6 +103,8 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
           <FatigueTable fatigue={inspection.analysis.fatigue} pivots={pivots} system={system} />
         </Section>
       ) : null}
+      {/* The ride's life as of today (the running log and its latest analysis), beside this inspection's own. */}
+      <PivotLifeSection rideId={inspection.rideId} compact design={data} />
       <Section title="Readings">
         <ReadingsTable readings={withInstruments(inspection)} pivots={pivots} system={system} />
       </Section>
