@@ -21,6 +21,7 @@ import {
   projectedText,
   smallNumberText,
 } from '@/features/pivot-life/life-words';
+import { NdtRows } from '@/features/pivot-life/ndt-rows';
 import { PinCheckRows } from '@/features/pivot-life/pin-check-rows';
 import type { DetailLife, PivotLife, RideLife } from '@/features/pivot-life/schema';
 import { WearRows } from '@/features/pivot-life/wear-rows';
@@ -35,13 +36,14 @@ export type PivotRows = (pivot: PivotLife, life: RideLife, compact: boolean) => 
  * The wear trends, the pin checks and the NDT due dates of one pivot. The pin's partial factors are named
  * from the design data when the reader may see it (staff); without it the standard's values are named.
  */
-function OtherRows({ pivot, design }: { pivot: PivotLife; design: DesignData | null }) {
+function OtherRows({ pivot, life, design }: { pivot: PivotLife; life: RideLife; design: DesignData | null }) {
   const [system] = useUnitSystem();
   const pinCheck = design?.pivots.find((p) => p.joint === pivot.joint)?.pinCheck ?? null;
   return (
     <>
       <WearRows trends={pivot.wear} system={system} />
       {pivot.pin ? <PinCheckRows pin={pivot.pin} pinCheck={pinCheck} system={system} /> : null}
+      {pivot.ndt.length ? <NdtRows due={pivot.ndt} asOf={life.asOf} /> : null}
     </>
   );
 }
@@ -122,7 +124,7 @@ function PivotBlock({
       ) : (
         pivot.details.map((d) => <DetailRow key={d.detail} detail={d} life={life} compact={compact} />)
       )}
-      {rows ? rows(pivot, life, compact) : <OtherRows pivot={pivot} design={design} />}
+      {rows ? rows(pivot, life, compact) : <OtherRows pivot={pivot} life={life} design={design} />}
     </View>
   );
 }

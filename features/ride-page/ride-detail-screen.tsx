@@ -39,6 +39,7 @@ import {
   rideEditHref,
   rideImportHref,
   rideLogHref,
+  rideNdtHref,
   rideScheduleHref,
   ridesHref,
   rideStatusHref,
@@ -91,7 +92,10 @@ function RideDetailBody({
 }) {
   const editor = canEditRides(user.role);
   const staff = isStaff(user.role);
-  const lifeLinks = [{ href: rideLogHref(ride.id), label: 'Running log' }];
+  const lifeLinks = [
+    { href: rideLogHref(ride.id), label: 'Running log' },
+    { href: rideNdtHref(ride.id), label: 'NDT records' },
+  ];
 
   const info = (
     <>

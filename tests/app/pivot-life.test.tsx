@@ -68,7 +68,16 @@ const life: RideLife = rideLifeSchema.parse({
         },
       ],
       wear: [],
-      ndt: [],
+      ndt: [
+        {
+          method: 'MT',
+          intervalDays: 365,
+          lastOn: '2025-05-01',
+          lastResult: 'no_indications',
+          dueOn: '2026-05-01',
+          state: 'overdue',
+        },
+      ],
       pin: {
         forceN: 120_000,
         diameterM: 0.09,
@@ -122,6 +131,10 @@ describe('the Pivot life section', () => {
     expect(within(weld).getByText('Over limit')).toBeTruthy();
     expect(within(weld).getByText(`limit reached (${formatDate('2026-06-15')})`)).toBeTruthy();
 
+    // The pivot's other parts: its NDT due (E's rows) and its EN 1993-1-8 pin checks (D's rows).
+    const axlePivot = screen.getByLabelText('Pivot Main axle');
+    expect(within(axlePivot).getByLabelText('NDT due')).toBeTruthy();
+    expect(within(axlePivot).getByLabelText(/^Pin checks, /)).toBeTruthy();
     expect(screen.getByText(/from the inspection submitted/)).toBeTruthy();
     expect(
       screen.getByText(/3 days, .* 319 ride cycles \(ride cycle 150 s\); 2\.43 ride cycles a day/),
