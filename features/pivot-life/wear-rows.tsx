@@ -126,6 +126,9 @@ export function WearRows({ trends, system }: { trends: readonly WearTrend[]; sys
     );
   return (
     <View style={styles.block} accessibilityLabel="Wear trends">
+      <Text variant="label" muted>
+        WEAR TRENDS
+      </Text>
       {trends.map((t) => (
         <TrendRow key={t.quantity} t={t} system={system} />
       ))}
