@@ -10,6 +10,7 @@ import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
 import { startDeliveryLoop } from '@/server/notices/deliveries';
 import { startReminderJob } from '@/server/notices/reminders';
+import { backfillRideLifeFlags } from '@/server/pivot-life/flags';
 import { numberRideFindings } from '@/server/findings/findings';
 import { ensureQueueFresh, queueToday } from '@/server/queue/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
@@ -47,6 +48,8 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
     }
     // Findings stored before rides numbered them get their number on the ride once, before anyone reads them.
     database.db.transaction((tx) => numberRideFindings(tx));
+    // Rides stored before their pivot-life flags existed get them once (NDT due, wear), before the queue.
+    backfillRideLifeFlags(database.db, queueToday());
     // The review queue is built before the first request, so no supervisor waits for a full rebuild.
     ensureQueueFresh(database.db, queueToday());
   } catch (error) {

@@ -316,6 +316,9 @@ function AddRecord({ data }: { data: RideNdt }) {
         error={errors.technician}
         autoComplete="name"
       />
+      <Text variant="label" muted>
+        EN ISO 9712 LEVEL
+      </Text>
       <Segmented
         label="EN ISO 9712 level"
         value={level}

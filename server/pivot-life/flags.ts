@@ -7,9 +7,10 @@
  * Called after an NDT record is added, an analysis is stored, a running-log day is entered or imported,
  * design data is stored, and a schedule changes — inside the same transaction as the change.
  */
-import { eq } from 'drizzle-orm';
+import { eq, notExists, sql } from 'drizzle-orm';
 
 import { rideLifeFlags } from '@/db/server/ndt';
+import { rides } from '@/db/server/schema';
 import { earliestNdtDue } from '@/features/pivot-life/ndt-due';
 import type { Db } from '@/server/db';
 import type { WearTrend } from '@/features/pivot-life/schema';
@@ -48,20 +49,36 @@ export function rideLifeFlagsOf(db: Tx, rideId: string, today: string): RideLife
 
 /**
  * Writes the ride's flags for `today` (the queue's day: `queueDay(db, now)`) and refreshes its queue rows.
- * A ride with nothing to flag keeps no row.
+ * A ride with nothing to flag keeps a row of nulls, which says its flags have been worked out.
  */
 export function refreshRideLifeFlags(db: Tx, rideId: string, today: string, now: Date = new Date()): void {
-  const flags = rideLifeFlagsOf(db, rideId, today);
-  if (flags.ndtDueOn === null && flags.wearLimitOn === null && flags.wearSuggestedOn === null) {
-    db.delete(rideLifeFlags).where(eq(rideLifeFlags.rideId, rideId)).run();
-  } else {
-    const values = { ...flags, updatedAt: now.toISOString() };
-    db.insert(rideLifeFlags)
-      .values({ rideId, ...values })
-      .onConflictDoUpdate({ target: rideLifeFlags.rideId, set: values })
-      .run();
-  }
+  const values = { ...rideLifeFlagsOf(db, rideId, today), updatedAt: now.toISOString() };
+  db.insert(rideLifeFlags)
+    .values({ rideId, ...values })
+    .onConflictDoUpdate({ target: rideLifeFlags.rideId, set: values })
+    .run();
   refreshQueue(db, today, [rideId]);
+}
+
+/**
+ * Works out the flags of every ride that has none yet (data stored before the flags existed), one ride per
+ * transaction so requests are never held for long. Run at start, before the queue is first built.
+ */
+export function backfillRideLifeFlags(db: Db, today: string, now: Date = new Date()): number {
+  const missing = db
+    .select({ id: rides.id })
+    .from(rides)
+    .where(
+      notExists(
+        db
+          .select({ one: sql`1` })
+          .from(rideLifeFlags)
+          .where(eq(rideLifeFlags.rideId, rides.id)),
+      ),
+    )
+    .all();
+  for (const { id } of missing) db.transaction((tx) => refreshRideLifeFlags(tx, id, today, now));
+  return missing.length;
 }
 
 /** The same in a transaction of its own, for a route to call after a write that may move the flags. */

@@ -47,6 +47,7 @@ const person = (role: SessionUser['role'], name: string): SessionUser => ({
   name,
   role,
   companyId: role === 'operator' ? 'company-1' : null,
+  companyName: role === 'operator' ? 'Tamsworth Pier Leisure' : null,
 });
 const inspector = person('inspector', 'Tomas Reyne');
 const operator = person('operator', 'Priya Castellan');

@@ -14,7 +14,9 @@ import { designVersions, users } from '@/db/server/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { rideNdtSchema, ndtRecordCreatedSchema } from '@/features/pivot-life/ndt-schema';
 import { queueResponseSchema } from '@/features/review/schema';
+import { backfillRideLifeFlags } from '@/server/pivot-life/flags';
 import { refreshQueue } from '@/server/queue/queue-refresh';
+import { rideLifeFlags } from '@/db/server/ndt';
 import { reviewQueue } from '@/db/server/review';
 
 import { expectApiError, type TestServer } from './helpers';
@@ -208,6 +210,20 @@ describe('due dates and the queue', () => {
     expect(res.status).toBe(201);
     expect(res.body.notInPlan).toBe(true);
     expect(res.body.message).toMatch(/ET is not in Main pivot’s NDT plan \(MT, UT, VT\)/);
+  });
+});
+
+describe('data stored before the flags existed', () => {
+  it('gets its flags once at start, and the queue follows', async () => {
+    server.db.delete(rideLifeFlags).where(eq(rideLifeFlags.rideId, rideId)).run();
+    refreshQueue(server.db, today, [rideId]);
+    expect(await queueRow()).toBeUndefined();
+    // This ride and the demo rides no write has touched yet.
+    expect(backfillRideLifeFlags(server.db, today)).toBeGreaterThanOrEqual(1);
+    // The VT plan added by version 2 (2026-11-20) is still never tested: overdue.
+    expect(await queueRow()).toMatchObject({ urgency: 'overdue', ndtDueOn: '2026-11-20' });
+    expect(backfillRideLifeFlags(server.db, today)).toBe(0);
+    expectQueueAsRebuilt();
   });
 });
 
