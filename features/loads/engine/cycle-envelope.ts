@@ -157,19 +157,19 @@ export function pinCheckItems(key: string, who: string, c: PinCheckResult, margi
       ...evaluateLimit(effect, { kind: 'upper', max: resistance }, margin),
     });
   const plate = (p: 'inner' | 'outer') => (p === 'inner' ? 'inner plate' : 'outer plate');
-  const planes = c.shear === 'double' ? 'per shear plane' : 'single shear';
+  const planes = c.shear === 'double' ? 'per plane' : 'one plane';
   item('shear', `pin shear ${planes}, γM2`, 'force', c.shearCheck.effect, c.shearCheck.resistance);
   item(
     'bearing',
-    `pin bearing on the ${plate(c.bearingCheck.plate)}, γM0`,
+    `pin bearing, ${plate(c.bearingCheck.plate)}, γM0`,
     'force',
     c.bearingCheck.effect,
     c.bearingCheck.resistance,
   );
-  item('bending', 'pin bending moment, γM0', 'moment', c.bendingCheck.effect, c.bendingCheck.resistance);
+  item('bending', 'pin bending, γM0', 'moment', c.bendingCheck.effect, c.bendingCheck.resistance);
   item(
     'combined',
-    'pin load against the load at which shear and bending combined reach 1',
+    'pin shear + bending interaction, as load',
     'force',
     c.designForceN,
     c.combinedResistanceN,
@@ -177,7 +177,7 @@ export function pinCheckItems(key: string, who: string, c: PinCheckResult, margi
   if (c.bearingServiceCheck)
     item(
       'bearing_ser',
-      `pin bearing on the ${plate(c.bearingServiceCheck.plate)}, serviceability, γM6,ser`,
+      `pin bearing (serviceability), ${plate(c.bearingServiceCheck.plate)}, γM6,ser`,
       'force',
       c.bearingServiceCheck.effect,
       c.bearingServiceCheck.resistance,
@@ -185,7 +185,7 @@ export function pinCheckItems(key: string, who: string, c: PinCheckResult, margi
   if (c.bendingServiceCheck)
     item(
       'bending_ser',
-      'pin bending moment, serviceability, γM6,ser',
+      'pin bending (serviceability), γM6,ser',
       'moment',
       c.bendingServiceCheck.effect,
       c.bendingServiceCheck.resistance,
