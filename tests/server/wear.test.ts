@@ -105,6 +105,8 @@ test('the main axle’s diameter and clearance projected to the design limits, b
 
   // 100 ride cycles every day from the first reading's day to yesterday: 161 days, 16 100 cycles.
   const operator = userIdOf(server.db, 'operator@pivotwatch.test');
+  // This test's log alone (a demo log, if the seed ever has one, would change the counts).
+  server.db.delete(runningLog).where(eq(runningLog.rideId, wheel.id)).run();
   server.db
     .insert(runningLog)
     .values(
