@@ -118,9 +118,14 @@ export function curveText(d: Pick<FatigueDetail, 'shear'>): string {
   return d.shear ? 'Shear: m = 5 to 10⁸' : 'Direct: m = 3 to 5×10⁶, then 5 to 10⁸';
 }
 
-/** A partial factor or limit as given, else its default marked "(default)". */
+/** A partial factor or limit as given, else its default marked * (the tables say what * means). */
 export function givenOr(value: number | undefined, fallback: number): string {
-  return value === undefined ? `${stated(fallback)} (default)` : stated(value);
+  return value === undefined ? `${stated(fallback)}*` : stated(value);
+}
+
+/** "γFf 1* · γMf 1.15": a detail's partial factors, * where the default 1 applies. */
+export function fatigueFactorsText(d: Pick<FatigueDetail, 'gammaFf' | 'gammaMf'>): string {
+  return `γFf ${givenOr(d.gammaFf, 1)} · γMf ${givenOr(d.gammaMf, 1)}`;
 }
 
 /** "42CrMo4+QT · f_y 550 MPa · f_u 800 MPa". */

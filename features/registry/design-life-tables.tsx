@@ -10,6 +10,7 @@ import {
   categoryText,
   curveText,
   detailLoadText,
+  fatigueFactorsText,
   fatigueKindLabel,
   givenOr,
   ndtIntervalText,
@@ -135,9 +136,9 @@ export function FatigueSection({ data, system }: TableProps) {
           rows={fatigue.details.map((d, k) => ({ d, k }))}
           rowKey={({ k }) => String(k)}
           columns={[
-            { key: 'name', title: 'Detail', render: ({ d }) => d.name, flex: 1.6 },
-            { key: 'pivot', title: 'Pivot', render: ({ d }) => pivotLabel(data, d.joint), flex: 1.3 },
-            { key: 'kind', title: 'Kind', render: ({ d }) => fatigueKindLabel[d.kind], flex: 1 },
+            { key: 'name', title: 'Detail', render: ({ d }) => d.name, flex: 1.5 },
+            { key: 'pivot', title: 'Pivot', render: ({ d }) => pivotLabel(data, d.joint), flex: 1.2 },
+            { key: 'kind', title: 'Kind', render: ({ d }) => fatigueKindLabel[d.kind], flex: 0.9 },
             { key: 'load', title: 'Load followed', render: ({ d }) => detailLoadText(d, data), flex: 2 },
             {
               key: 'factor',
@@ -146,21 +147,19 @@ export function FatigueSection({ data, system }: TableProps) {
               numeric: true,
               flex: 1.6,
             },
-            { key: 'cat', title: 'Category', render: ({ d }) => categoryText(d, system), flex: 1.3 },
-            { key: 'curve', title: 'S-N curve', render: ({ d }) => curveText(d), flex: 1.5 },
             {
-              key: 'gamma',
-              title: 'γFf / γMf',
-              render: ({ d }) => `${givenOr(d.gammaFf, 1)} / ${givenOr(d.gammaMf, 1)}`,
-              numeric: true,
-              flex: 1,
+              key: 'cat',
+              title: 'Category and S-N curve',
+              render: ({ d }) => `${categoryText(d, system)}\n${curveText(d)}`,
+              flex: 1.7,
             },
+            { key: 'gamma', title: 'Partial factors', render: ({ d }) => fatigueFactorsText(d), flex: 1.1 },
             {
               key: 'limit',
               title: 'Damage limit',
               render: ({ d }) => givenOr(d.damageLimit, 1),
               numeric: true,
-              flex: 0.9,
+              flex: 0.8,
             },
           ]}
         />
@@ -168,7 +167,8 @@ export function FatigueSection({ data, system }: TableProps) {
       <Text variant="small" muted>
         Each detail’s stress follows one component of its pivot’s load in the frame of the member carrying it;
         ranges are counted by rainflow (ASTM E1049) and summed by Palmgren–Miner on the EN 1993-1-9 curve of
-        its category. A ride cycle is its time of the design motion and its service stops.
+        its category. A ride cycle is its time of the design motion and its service stops. * Not given: the
+        default (γFf = γMf = 1; damage limit 1, the Miner sum of EN 1993-1-9).
       </Text>
     </View>
   );

@@ -50,9 +50,9 @@ describe.each([
     expect(shown('Force along Arm and gondola (carried body, its frame)')).toBe(true);
     // A 90 mm pin in double shear: A = π·90²/4 = 6362 mm², 1000 / (2 × 6362) = 0.0786 MPa per kN.
     expect(shown('6362 mm², 2 planes → 0.0786 MPa/kN')).toBe(true);
-    expect(shown('100 (Δτ_C 100 MPa)')).toBe(true);
-    expect(shown('71 (Δσ_C 71 MPa)')).toBe(true);
-    expect(shown('1 (default) / 1.15')).toBe(true);
+    expect(shown('100 (Δτ_C 100 MPa)\nShear: m = 5 to 10⁸')).toBe(true);
+    expect(shown('71 (Δσ_C 71 MPa)\nDirect: m = 3 to 5×10⁶, then 5 to 10⁸')).toBe(true);
+    expect(shown('γFf 1* · γMf 1.15')).toBe(true);
   });
 });
 
@@ -68,7 +68,7 @@ test('US units: strengths in ksi, thicknesses in inches, stress per load in ksi 
   expect(shown('0.516 ksi/kip')).toBe(true);
   expect(shown('9.861 in², 2 planes → 0.0507 ksi/kip')).toBe(true);
   // The category keeps its name (its MPa number) and shows its value converted: 71 MPa = 10.30 ksi (four figures, as every converted value).
-  expect(shown('71 (Δσ_C 10.30 ksi)')).toBe(true);
+  expect(shown(/^71 \(Δσ_C 10\.30 ksi\)\s/)).toBe(true);
 });
 
 test('design data without pin checks, NDT plans or fatigue says so instead of an empty table', () => {
