@@ -43,6 +43,8 @@ export function NoticeDocumentView({ document: doc }: { document: NoticeDocument
 
       <ResultsAsIssued doc={doc} />
 
+      {doc.pivotLife ? <PivotLifeAsIssued life={doc.pivotLife} /> : null}
+
       {doc.note ? (
         <Section title="Note from the inspection body">
           <Text>{doc.note}</Text>
@@ -246,6 +248,32 @@ function ResultsAsIssued({ doc }: { doc: NoticeDocument }) {
   );
 }
 
+/** The ride's pivot life in the words frozen into the notice, with its assumptions and standards. */
+function PivotLifeAsIssued({ life }: { life: NonNullable<NoticeDocument['pivotLife']> }) {
+  return (
+    <Section title={`Pivot life as of ${formatDate(life.asOf)}`}>
+      <Text variant="small" muted>
+        {life.basis} {life.log}
+      </Text>
+      {life.pivots.map((p) => (
+        <View key={p.name} style={styles.lifePivot}>
+          <Text variant="heading">{p.name}</Text>
+          {p.lines.map((line) => (
+            <Text key={line} variant="small">
+              • {line}
+            </Text>
+          ))}
+        </View>
+      ))}
+      {[...life.assumptions, ...life.standards].map((a) => (
+        <Text key={a} variant="small" muted>
+          {a}
+        </Text>
+      ))}
+    </Section>
+  );
+}
+
 function Section({ title, children }: { title: string; children: React.ReactNode }) {
   return (
     <View style={styles.section}>
@@ -273,6 +301,7 @@ function Fact({ label, value }: { label: string; value: string }) {
 }
 
 const styles = StyleSheet.create({
+  lifePivot: { gap: 2 },
   card: { gap: space.lg },
   top: { gap: space.md, paddingBottom: space.md, borderBottomWidth: 2, borderBottomColor: colors.base },
   topWide: { flexDirection: 'row', alignItems: 'flex-start' },

@@ -7,6 +7,7 @@ import { z } from 'zod';
 
 import { pageSchema, pagingQuerySchema } from '@/lib/list-params';
 import { findingSchema } from '@/features/notices/finding-schema';
+import { noticePivotLifeSchema } from '@/features/pivot-life/notice-schema';
 import { rideStatuses } from '@/features/rides/schema';
 import {
   findingSeverities,
@@ -102,6 +103,11 @@ export const noticeDocumentSchema = z.object({
   ),
   operatingStatus: z.object({ status: z.enum(rideStatuses), reason: z.string().nullable() }),
   reinspection: z.object({ required: z.boolean(), reason: z.string().nullable() }),
+  /**
+   * The ride's pivot life when the notice was issued (fatigue life used and projected limit dates, NDT due
+   * dates, flagged wear projections), in words; absent from notices issued before it was kept.
+   */
+  pivotLife: noticePivotLifeSchema.nullable().optional(),
   /** The supervisor's comment on the decision, if any. */
   note: z.string().nullable(),
   /** How the operator can disagree with the notice, in our words. */

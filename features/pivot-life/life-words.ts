@@ -6,7 +6,8 @@
 import type { FatigueDetailKind } from '@/features/loads/design-schema';
 import { envelopeStatus, type EnvelopeStatus } from '@/features/loads/engine';
 import { RATE_WINDOW_DAYS } from '@/features/pivot-life/life-math';
-import type { DetailLife, RideLife } from '@/features/pivot-life/schema';
+import type { NoticePivotLife } from '@/features/pivot-life/notice-schema';
+import type { DetailLife, NdtDue, RideLife, WearTrend } from '@/features/pivot-life/schema';
 import { formatShareOfLimit } from '@/lib/measured-format';
 import { formatSignificant } from '@/lib/units';
 
@@ -121,4 +122,61 @@ export function logText(life: Pick<RideLife, 'log' | 'basis'>, date: DateText): 
       : '';
   const cycle = basis.rideCycleS !== null ? ` (ride cycle ${formatSignificant(basis.rideCycleS, 3)} s)` : '';
   return `Running log: ${log.entries} ${log.entries === 1 ? 'day' : 'days'}, ${span}, ${cyclesText(log.cyclesLogged)} ride cycles${cycle}${rate}.`;
+}
+
+const NDT_STATE_WORDS: Record<NdtDue['state'], string> = {
+  overdue: 'overdue',
+  due: 'due soon',
+  upcoming: 'upcoming',
+  never_tested: 'never tested',
+};
+
+/** An NDT method's due date in words: "MT every 365 days: due 1 May 2026 (overdue)". */
+export function ndtLine(d: NdtDue, date: DateText): string {
+  const due = d.dueOn ? `due ${date(d.dueOn)}` : 'no due date';
+  const last = d.lastOn ? `; last tested ${date(d.lastOn)}` : '';
+  return `NDT ${d.method} every ${d.intervalDays} days: ${due} (${NDT_STATE_WORDS[d.state]})${last}`;
+}
+
+const WEAR_WORDS: Record<WearTrend['quantity'], string> = {
+  pin_diameter: 'Pin diameter',
+  clearance: 'Bushing clearance',
+};
+
+/** A flagged wear projection in words; null for one not flagged. */
+export function wearFlagLine(t: WearTrend, date: DateText): string | null {
+  if (!t.flagged) return null;
+  const when = t.earliestOn ?? t.projectedOn;
+  return (
+    `${WEAR_WORDS[t.quantity]}: the wear limit may be reached by ${when ? date(when) : 'an unknown date'}` +
+    `${t.projectedOn && t.projectedOn !== when ? ` (trend ${date(t.projectedOn)})` : ''}` +
+    `${t.nextInspectionOn ? `, before the next inspection on ${date(t.nextInspectionOn)}` : ''}` +
+    `${t.suggestedOn ? `; inspect by ${date(t.suggestedOn)}` : ''}`
+  );
+}
+
+/**
+ * The life as a notice carries it; null when there is nothing to say (no fatigue details, no NDT plans,
+ * no flagged wear on any pivot).
+ */
+export function lifeNoticePart(life: RideLife, date: DateText): NoticePivotLife | null {
+  const pivots = life.pivots
+    .map((p) => ({
+      name: p.name,
+      lines: [
+        ...p.details.map((d) => detailLine(d, life, date)),
+        ...p.ndt.map((d) => ndtLine(d, date)),
+        ...p.wear.map((t) => wearFlagLine(t, date)).filter((l): l is string => l !== null),
+      ],
+    }))
+    .filter((p) => p.lines.length > 0);
+  if (pivots.length === 0) return null;
+  return {
+    asOf: life.asOf,
+    basis: basisText(life.basis, date),
+    log: logText(life, date),
+    pivots,
+    assumptions: [...LIFE_ASSUMPTIONS],
+    standards: Object.values(LIFE_STANDARDS),
+  };
 }

@@ -29,6 +29,7 @@ import type { RetryPolicy } from '@/server/mail/retry';
 import { deliveriesQueued, onDeliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate, formatWhen } from '@/lib/dates';
 import { renderNoticePdf } from '@/server/notices/pdf';
+import { pivotLifeHtml, pivotLifeTextLines } from '@/server/notices/pivot-life-mail';
 import { escapeHtml, htmlMailStart, noticeSubject, rideStatusWords } from '@/server/notices/words';
 import { photoPathOf } from '@/server/sync/photo-store';
 
@@ -172,6 +173,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
     doc.findings.length > 0 ? `Findings (${doc.findings.length}):` : 'No findings are listed on this notice.',
     ...findingLines(doc),
     ...resultLines(doc),
+    ...pivotLifeTextLines(doc),
     ...(doc.note ? ['', `Note from ${doc.signature.name}: ${doc.note}`] : []),
     '',
     'Open the notice to acknowledge it and to report the corrective action for each finding:',
@@ -202,6 +204,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
       ? `<h3>Findings (${doc.findings.length})</h3><ol>${findingItems}</ol>`
       : '<p>No findings are listed on this notice.</p>',
     resultsHtml(doc),
+    pivotLifeHtml(doc),
     doc.note ? `<p><strong>Note from ${h(doc.signature.name)}:</strong> ${h(doc.note)}</p>` : '',
     `<p><a href="${h(doc.url)}">Open notice ${h(doc.reference)}</a> to acknowledge it and to report the corrective action for each finding.</p>`,
     `<p>The complete notice is attached as ${h(doc.reference)}.pdf.</p>`,

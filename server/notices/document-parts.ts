@@ -11,11 +11,14 @@ import { companies, rides, sites, users } from '@/db/server/schema';
 import { formatEnvelopeItem, measuredSources, sortByConcern } from '@/features/loads/format';
 import { LOAD_CASE_LABEL } from '@/features/loads/load-cases';
 import type { NoticeDocument } from '@/features/notices/schema';
+import { lifeNoticePart } from '@/features/pivot-life/life-words';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
+import { rideLife } from '@/server/pivot-life/life';
 import { rideStatusWords, roleWords } from '@/server/notices/words';
+import { formatCalendarDate, isoDay } from '@/lib/dates';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -202,4 +205,17 @@ export function resultsOf(
       }),
     };
   });
+}
+
+/**
+ * The ride's pivot life as the notice carries it, in the documents' UTC dates; null when the ride has
+ * nothing to say there. A life that cannot be worked out (damaged data) leaves the notice without it rather
+ * than stopping the decision that issues the notice.
+ */
+export function pivotLifePart(tx: Reader, rideId: string, now: Date): NoticeDocument['pivotLife'] {
+  try {
+    return lifeNoticePart(rideLife(tx, rideId, isoDay(now)), formatCalendarDate);
+  } catch {
+    return null;
+  }
 }

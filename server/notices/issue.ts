@@ -30,6 +30,7 @@ import {
   inspectionPart,
   issuerOf,
   joinLines,
+  pivotLifePart,
   reinspectionOf,
   resultsOf,
   rideContext,
@@ -264,6 +265,7 @@ export function issueInspectionNotice(
     findings: docFindings,
     operatingStatus,
     reinspection: reinspectionOf(docFindings, operatingStatus),
+    pivotLife: pivotLifePart(tx, ride.id, input.now),
     note: inspection.reviewNote,
   } satisfies NoticeDocument);
 
@@ -329,6 +331,7 @@ export function issueStatusNotice(
     findings: docFindings,
     operatingStatus: status,
     reinspection: reinspectionOf(docFindings, status),
+    pivotLife: pivotLifePart(tx, ride.id, input.now),
     note: input.reason,
   } satisfies NoticeDocument);
 

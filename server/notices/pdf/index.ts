@@ -25,6 +25,7 @@ import {
   ridePairs,
   statusBoxes,
 } from '@/server/notices/pdf/sections';
+import { pivotLifeSection } from '@/server/notices/pdf/pivot-life';
 import { signatureBlock, signatureHeight } from '@/server/notices/pdf/signature';
 import { startPdf } from '@/server/pdf/document';
 import { flowText, heading, pairColumns, S, type Layout } from '@/server/pdf/layout';
@@ -88,6 +89,8 @@ export async function renderNoticePdf(n: NoticeDocument, opts: NoticePdfOptions)
   if (n.findings.length > 0) severityLegend(l);
   // A status notice made outside an inspection has no readings or load check: leave those sections out.
   if (n.inspection || n.results.length > 0) resultsSection(l, n);
+  // Before the load summary, whose caution box closes the computed parts of the notice.
+  pivotLifeSection(l, n);
   loadSection(l, n, { showEmpty: n.inspection !== null });
   if (n.note) paragraphSection(l, 'Supervisor’s note', n.note);
   paragraphSection(l, 'How to appeal', n.appeal, signatureHeight(l, n));
