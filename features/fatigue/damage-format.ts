@@ -39,9 +39,9 @@ export function formatDamage(d: number): string {
   return `${mantissa.toFixed(3)} × 10${power}`;
 }
 
-/** Ride cycles until the damage limit: "1.234 million", "56,700", "no limit (no damage)". */
+/** Ride cycles until the damage limit: "1.234 million", "56,700", "Never: no damage". */
 export function cyclesToLimitText(damagePerRideCycle: number, damageLimit: number): string {
-  if (!(damagePerRideCycle > 0)) return 'not reached (no damage)';
+  if (!(damagePerRideCycle > 0)) return 'Never: no damage';
   const n = damageLimit / damagePerRideCycle;
   if (n >= 1e9) return `${Number((n / 1e9).toPrecision(4))} billion`;
   if (n >= 1e6) return `${Number((n / 1e6).toPrecision(4))} million`;

@@ -27,9 +27,9 @@ export const RANGES_NOTE =
   'Ranges are max − min over the ride cycle of the force along and across the body each pivot carries, ' +
   'in that body’s own frame (named), and of the torque. The force’s size alone would hide a reversal.';
 
-/** "938 kN / 3.12 kN (Arm frame)". */
+/** "938 kN / 3.12 kN" and, on a line of its own, "(Arm frame)". */
 export function forceRangeText(r: RangesShown, system: UnitSystem): string {
-  return `${formatValue(r.alongN, 'force', system)} / ${formatValue(r.acrossN, 'force', system)} (${r.frame} frame)`;
+  return `${formatValue(r.alongN, 'force', system)} / ${formatValue(r.acrossN, 'force', system)}\n(${r.frame} frame)`;
 }
 
 export function torqueRangeText(r: RangesShown, system: UnitSystem): string {

@@ -44,10 +44,9 @@ export function FatigueTable({
           {
             key: 'detail',
             title: 'Detail',
-            render: ({ d }) => `${pivotName(d.joint, pivots)} · ${d.name}`,
-            flex: 1.6,
+            render: ({ d }) => `${pivotName(d.joint, pivots)} · ${d.name}\n${categoryText(d)}`,
+            flex: 1.7,
           },
-          { key: 'category', title: 'Category', render: ({ d }) => categoryText(d), flex: 1 },
           {
             key: 'ranges',
             title: 'Largest stress range',
@@ -58,25 +57,30 @@ export function FatigueTable({
                     `${FATIGUE_CASE_WORDS[c.kind]}: ${formatValue(c.maxRangeMPa * MPA, 'stress', system)}`,
                 )
                 .join('\n'),
-            flex: 1.8,
+            flex: 1.7,
           },
           {
             key: 'perRide',
             title: 'Damage per ride cycle',
             render: ({ d }) => formatDamage(d.damagePerRideCycle),
             numeric: true,
+            flex: 1.1,
           },
           {
             key: 'governing',
             title: 'Governing case',
             render: ({ governing }) => (governing ? FATIGUE_CASE_WORDS[governing] : 'None: no damage'),
+            flex: 1.2,
           },
           {
             key: 'toLimit',
             title: 'Ride cycles to limit',
+            // The limit is said where the design sets one other than EN 1993-1-9's D = 1.
             render: ({ d }) =>
-              `${cyclesToLimitText(d.damagePerRideCycle, d.damageLimit)} (D = ${formatDamage(d.damageLimit)})`,
+              cyclesToLimitText(d.damagePerRideCycle, d.damageLimit) +
+              (d.damageLimit === 1 ? '' : `\n(limit D = ${formatDamage(d.damageLimit)})`),
             numeric: true,
+            flex: 1.1,
           },
           {
             key: 'emergency',
@@ -86,6 +90,7 @@ export function FatigueTable({
               return e ? formatDamage(e.damage) : 'No emergency stop in the design';
             },
             numeric: true,
+            flex: 1.2,
           },
         ]}
       />

@@ -541,9 +541,9 @@ describe('inspection review', () => {
     const stored = result.fatigue?.[0];
     expect((stored?.cases[0].maxRangeMPa ?? 0) / rangeMPa).toBeCloseTo(1, 4);
     expect((stored?.damagePerRideCycle ?? 0) / perRide).toBeCloseTo(1, 3);
-    await screen.findByText('P1 · Main pivot · Lug net section');
-    const row = rowWith('P1 · Main pivot · Lug net section');
-    expect(within(row).getByText('Δσ_C 80 MPa')).toBeTruthy();
+    // The detail with its EN 1993-1-9 category on a line of its own.
+    await screen.findByText('P1 · Main pivot · Lug net section Δσ_C 80 MPa');
+    const row = rowWith('P1 · Main pivot · Lug net section Δσ_C 80 MPa');
     expect(
       within(row).getByText(
         `Operating cycle: ${formatQuantity((stored?.cases[0].maxRangeMPa ?? 0) * 1e6, 'stress', 'si').text}`,
