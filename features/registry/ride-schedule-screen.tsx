@@ -1,3 +1,4 @@
+import { Link } from 'expo-router';
 import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
@@ -6,7 +7,7 @@ import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
-import { colors, space } from '@/components/theme';
+import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
 import {
@@ -21,7 +22,7 @@ import { useRideIdParam } from '@/features/registry/ride-route';
 import { ScheduleForm, type ScheduleFormInput } from '@/features/registry/schedule-form';
 import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/registry/schema';
 import { planners } from '@/features/registry/screen-access';
-import { rideHref } from '@/features/rides';
+import { rideHref, rideNdtHref } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
 import { formatDate } from '@/lib/dates';
 
@@ -119,11 +120,24 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
           </View>
         )}
       </QueryState>
+      <Card accessibilityLabel="NDT due dates">
+        <Text variant="heading">NDT</Text>
+        <Text muted>
+          The tests the design data plans at each pivot fall due on dates of their own, from each test’s last
+          record.
+        </Text>
+        <Link href={rideNdtHref(ride.id)} style={styles.ndtLink}>
+          <Text variant="heading" color={colors.accent}>
+            NDT due dates and records ›
+          </Text>
+        </Link>
+      </Card>
     </SubScreen>
   );
 }
 
 const styles = StyleSheet.create({
+  ndtLink: { minHeight: layout.touchTarget, paddingVertical: space.sm },
   list: { gap: space.md },
   grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-start' },
   cell: { flexBasis: 420, flexGrow: 1 },
