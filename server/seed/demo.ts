@@ -26,6 +26,7 @@ import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { storeDemoPhotos } from '@/server/seed/demo-photos';
 import { topUpDemoNdt } from '@/server/seed/demo-ndt';
+import { topUpDemoRunningLog } from '@/server/seed/demo-running-log';
 import { demoSchedules } from '@/server/seed/demo-schedules';
 
 /*
@@ -385,6 +386,12 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
         .run();
     }
     topUpDemoNdt(
+      tx,
+      demoRideRows.map((r) => r.id),
+      author.id,
+      now,
+    );
+    topUpDemoRunningLog(
       tx,
       demoRideRows.map((r) => r.id),
       author.id,
