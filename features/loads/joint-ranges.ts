@@ -24,8 +24,9 @@ export const FORCE_RANGE_TITLE = 'Force range along / across';
 export const TORQUE_RANGE_TITLE = 'Torque range';
 
 export const RANGES_NOTE =
-  'Ranges are max − min over the operating cycle of the force along and across the body each pivot carries, ' +
-  'in that body’s own frame (named), and of the torque. The force’s size alone would hide a reversal.';
+  'Ranges are max − min over the operating cycle of the force along and across the body each pivot ' +
+  'carries, in that body’s own frame (named), and of the torque. The force’s size alone would hide a ' +
+  'reversal.';
 
 /** "938 kN / 3.12 kN" and, on a line of its own, "(Arm frame)". */
 export function forceRangeText(r: RangesShown, system: UnitSystem): string {
