@@ -200,6 +200,29 @@ export type WearProjectionInput = {
   dayAtCycles?: (cycles: number) => string | null;
 };
 
+/**
+ * Wear does not run backwards: a reading farther from the limit than the one before by more than this
+ * share of the series' first distance to the limit means the part was renewed or reworked, and the trend
+ * starts again from it (measurement scatter is far smaller). Our own rule, stated where trends are shown.
+ */
+export const RENEWAL_SHARE = 0.2;
+
+/** The readings since the last renewal (see RENEWAL_SHARE), in date order. */
+export function sinceRenewal<T extends { valueM: number }>(
+  sorted: readonly T[],
+  limit: number | null,
+  side: LimitSide,
+): T[] {
+  if (limit === null) return [...sorted];
+  let start = 0;
+  for (let i = 1; i < sorted.length; i++) {
+    const away =
+      side === 'below' ? sorted[i].valueM - sorted[i - 1].valueM : sorted[i - 1].valueM - sorted[i].valueM;
+    if (away > RENEWAL_SHARE * Math.abs(limit - sorted[start].valueM)) start = i;
+  }
+  return sorted.slice(start);
+}
+
 /** Days before the cautious date at which to suggest an inspection (never before today). */
 export const SUGGEST_DAYS_BEFORE = 14;
 
@@ -224,15 +247,19 @@ const wholeDays = (x: number) => Math.floor(x + 1e-6);
 const earlier = (a: string | null, b: string | null) => (a === null ? b : b === null ? a : a < b ? a : b);
 
 /**
- * Least squares against days (from the first reading) and against logged cycles; the dates where the line
- * and the 95 % bound reach the limit, searched from the latest reading on. Flagged when the earliest of
- * the cautious date (the line's own when two readings leave no interval) and the by-cycles date falls on or
- * before the next scheduled inspection; the suggested inspection is SUGGEST_DAYS_BEFORE days before it,
- * never before today.
+ * Least squares over the readings since the last renewal (`points` are those), against days from the first
+ * of them and against logged cycles; the dates where the line and the 95 % bound reach the limit, searched
+ * from the latest reading on. Flagged when the earliest of the cautious date (the line's own when two
+ * readings leave no interval) and the by-cycles date falls on or before the next scheduled inspection; the
+ * suggested inspection is SUGGEST_DAYS_BEFORE days before it, never before today.
  */
 export function projectWear(input: WearProjectionInput): WearProjection {
-  const readings = [...input.readings].sort((a, b) => (a.on < b.on ? -1 : a.on > b.on ? 1 : 0));
   const side: LimitSide = input.quantity === 'pin_diameter' ? 'below' : 'above';
+  const readings = sinceRenewal(
+    [...input.readings].sort((a, b) => (a.on < b.on ? -1 : a.on > b.on ? 1 : 0)),
+    input.limitM,
+    side,
+  );
   const first = readings[0]?.on;
   const byDay = first ? fitLine(readings.map((r) => ({ x: daysBetween(first, r.on), y: r.valueM }))) : null;
   const counted = readings.filter((r): r is WearReading & { cycles: number } => r.cycles !== null);

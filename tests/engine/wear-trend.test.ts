@@ -167,6 +167,22 @@ describe('a wear projection', () => {
     });
   });
 
+  it('a renewed part starts the trend again (our rule: a step back from the limit of over 20 % of the first gap)', () => {
+    // A new pin (w = 0 again) on 2026-06-04, worn 10 µm by 2026-07-04: 1/3 µm a day from the renewal, so the
+    // 100 µm allowance is used on day 300 = 2027-03-31. The 50 µm step back is far over 20 % of 100 µm.
+    const renewed = [
+      ...readings,
+      { on: '2026-06-04', valueM: diameter(0), cycles: null },
+      { on: '2026-07-04', valueM: diameter(10), cycles: null },
+    ];
+    const p = projectWear({ ...base, readings: renewed, today: '2026-07-10' });
+    expect(p.points.map((x) => x.on)).toEqual(['2026-06-04', '2026-07-04']);
+    expect(p.slopePerDay).toBeCloseTo((-10 / 30) * um, 15);
+    expect(p.projectedOn).toBe('2027-03-31');
+    // Scatter of a few µm is no renewal: the hand series (steps of 7–18 µm toward the limit) keeps all five.
+    expect(projectWear(base).points).toHaveLength(5);
+  });
+
   it('two readings: the line through both, no interval, the line’s date decides the flag', () => {
     // Through (0, 0) and (120, 50 µm): 5/12 µm/day; reaches 100 µm at day 240 = 2026-09-02.
     const p = projectWear({ ...base, readings: [readings[0], readings[4]], nextInspectionOn: '2026-09-05' });
