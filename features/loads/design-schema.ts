@@ -172,7 +172,10 @@ export const fatigueDetailSchema = z
       ctx.addIssue({
         code: 'custom',
         path: ['stressPerKnMPa'],
-        message: 'Give either the stress per kN or the section area, not both',
+        message:
+          f.stressPerKnMPa === undefined
+            ? 'Give the stress per kN or the section area it comes from'
+            : 'Give either the stress per kN or the section area, not both',
       });
     if (f.component === 'torque' && f.sectionAreaMm2 !== undefined)
       ctx.addIssue({

@@ -498,6 +498,17 @@ describe('pin checks, NDT plans and fatigue data in the CSV', () => {
     ]);
   });
 
+  test('a detail with neither its stress per kN nor its section: said on the stress cell; planes need a section', () => {
+    const rows = rowsOf(littleKiteDesign);
+    const [d1] = rowsOfKind(rows, 'fatigue_detail');
+    expect(rows[d1][col('shear_planes')]).toBe('2');
+    rows[d1][col('section_area_mm2')] = '';
+    expect(issuesOf(parseDesignCsv(join(rows))).map((i) => [i.row, i.column, i.message])).toEqual([
+      [d1 + 1, 'stress_per_kn_mpa', 'Give the stress per kN or the section area it comes from'],
+      [d1 + 1, 'shear_planes', 'Only with a section area'],
+    ]);
+  });
+
   test('a file written before pin checks, NDT plans and fatigue existed still imports, as it always did', () => {
     // The header export wrote before these columns were added (features/registry/README.md, earlier revision).
     const oldHeader =
