@@ -128,9 +128,10 @@ export function fatigueFactorsText(d: Pick<FatigueDetail, 'gammaFf' | 'gammaMf'>
   return `γFf ${givenOr(d.gammaFf, 1)} · γMf ${givenOr(d.gammaMf, 1)}`;
 }
 
-/** "42CrMo4+QT · f_y 550 MPa · f_u 800 MPa". */
-export function pinSteelText(p: PinCheckData, system: UnitSystem): string {
-  return `${p.pinGrade} · f_y ${q(p.pinFyPa, 'stress', system)} · f_u ${q(p.pinFuPa, 'stress', system)}`;
+/** "42CrMo4+QT · f_y 550 MPa · f_u 800 MPa"; `lines` puts the strengths under the grade (a table cell). */
+export function pinSteelText(p: PinCheckData, system: UnitSystem, lines = false): string {
+  const strengths = `f_y ${q(p.pinFyPa, 'stress', system)} · f_u ${q(p.pinFuPa, 'stress', system)}`;
+  return `${p.pinGrade}${lines ? '\n' : ' · '}${strengths}`;
 }
 
 /** "S355 · f_y 335 MPa". */

@@ -54,7 +54,7 @@ export function PinCheckTable({ data, system }: TableProps) {
         rowKey={({ p }) => String(p.joint)}
         columns={[
           { key: 'pivot', title: 'Pivot', render: ({ p }) => pivotLabel(data, p.joint), flex: 1.3 },
-          { key: 'pin', title: 'Pin steel', render: ({ c }) => pinSteelText(c, system), flex: 1.7 },
+          { key: 'pin', title: 'Pin steel', render: ({ c }) => pinSteelText(c, system, true), flex: 1.7 },
           { key: 'plate', title: 'Plate steel', render: ({ c }) => plateSteelText(c, system), flex: 1.1 },
           {
             key: 'plates',
