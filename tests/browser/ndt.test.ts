@@ -48,6 +48,7 @@ test('an inspector adds an MT record with its report PDF at phone size; the supe
   const hash = createHash('sha256').update(pdf).digest('hex');
 
   const page = await app.signedIn('phone', 'inspector@pivotwatch.test');
+  await page.waitForURL((url) => !url.pathname.includes('sign-in'));
   await page.goto(`${app.baseUrl}/rides/${rideId}/ndt`);
   const form = page.getByLabel('Add NDT record', { exact: true });
   await form.waitFor();
@@ -89,6 +90,7 @@ test('an inspector adds an MT record with its report PDF at phone size; the supe
   ).toBe(hash);
 
   const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
+  await desk.waitForURL('**/review');
   await desk.goto(`${app.baseUrl}/rides/${rideId}/ndt`);
   await desk.getByLabel(`NDT at ${pivotName}`).getByRole('button', { name: 'Report PDF' }).first().waitFor();
   await screenshot(desk, 'ndt-desktop');
