@@ -12,7 +12,7 @@
  */
 import { addDays, daysBetween } from '@/lib/dates';
 
-export type LogDay = { day: string; cycles: number | null | undefined; hours: number | null | undefined };
+export type LogDay = { day: string; cycles?: number | null; hours?: number | null };
 
 /** The window the running rate is taken over, in calendar days. */
 export const RATE_WINDOW_DAYS = 90;
