@@ -47,6 +47,8 @@ type PickedReport = { name: string; bytes: Uint8Array };
 
 const recorders: SessionUser['role'][] = ['inspector', 'supervisor', 'admin'];
 const megabytes = (n: number) => `${(n / 1048576).toFixed(1)} MB`;
+/** A file's size in words: kB below a megabyte, so a one-page report does not read as 0.0 MB. */
+const fileSize = (n: number) => (n < 1048576 ? `${Math.max(1, Math.round(n / 1024))} kB` : megabytes(n));
 
 /**
  * A ride's NDT: per pivot the tests the design data plans with when each falls due, and the records
@@ -361,7 +363,7 @@ function AddRecord({ data }: { data: RideNdt }) {
         </Text>
         {report ? (
           <Text testID="ndt-report-picked">
-            📄 {report.name} · {megabytes(report.bytes.length)}
+            PDF: {report.name} · {fileSize(report.bytes.length)}
           </Text>
         ) : null}
         <View style={styles.reportActions}>
