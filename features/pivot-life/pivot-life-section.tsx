@@ -15,6 +15,7 @@ import {
   LIFE_STANDARDS,
   LOAD_CASE_WORDS,
   basisText,
+  cyclesText,
   lifeStatus,
   lifeUsedText,
   logText,
@@ -90,8 +91,8 @@ function DetailRow({ detail, life, compact }: { detail: DetailLife; life: RideLi
       </Text>
       {compact ? null : (
         <Text variant="small" muted>
-          Damage {smallNumberText(detail.damage)} from {formatSignificant(detail.cyclesLogged, 4)} ride cycles
-          · {smallNumberText(detail.damagePerRideCycle)} per ride cycle
+          Damage {smallNumberText(detail.damage)} from {cyclesText(detail.cyclesLogged)} ride cycles ·{' '}
+          {smallNumberText(detail.damagePerRideCycle)} per ride cycle
           {detail.governingCase ? ` · mostly from the ${LOAD_CASE_WORDS[detail.governingCase]}` : ''}
         </Text>
       )}
