@@ -10,6 +10,7 @@ import { randomUUID } from 'node:crypto';
 
 import { and, eq } from 'drizzle-orm';
 
+import { runningLog } from '@/db/server/life';
 import { rideLifeFlags } from '@/db/server/ndt';
 import { reviewQueue } from '@/db/server/review';
 import { inspectionSchedules } from '@/db/server/schema';
@@ -49,6 +50,8 @@ beforeAll(async () => {
   server = await makePinnedServer(new Date(`${today}T10:00:00Z`));
   api = await demoClients(server.app);
   wheel = demoRide(server.db, 'Lantern Wheel');
+  // The hand computation is by days alone: without the demo's running log no date comes from cycles.
+  server.db.delete(runningLog).where(eq(runningLog.rideId, wheel.id)).run();
 });
 afterAll(() => server.close());
 
