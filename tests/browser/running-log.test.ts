@@ -89,3 +89,26 @@ test('an operator logs a day at phone size; the supervisor sees the life it feed
     .waitFor();
   await screenshot(logDesk, 'running-log-desktop');
 });
+
+test('a notice carries the ride’s life as issued, read by the operator at both sizes', async () => {
+  const token = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
+  // A change of status issues a notice; its frozen document carries the life.
+  const res = await fetch(`${app.baseUrl}/api/rides/${rideId}/status`, {
+    method: 'POST',
+    headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
+    body: JSON.stringify({
+      status: 'restricted',
+      reason: 'Hub weld toe to be checked by MT before full programme',
+    }),
+  });
+  expect(res.status).toBe(200);
+  const { notice } = (await res.json()) as { notice: { id: string } };
+  for (const size of ['phone', 'desktop'] as const) {
+    const page = await app.signedIn(size, 'operator@pivotwatch.test');
+    await page.goto(`${app.baseUrl}/notices/${notice.id}`);
+    const life = page.getByText(/^PIVOT LIFE AS OF /);
+    await life.waitFor({ timeout: 60_000 });
+    await life.scrollIntoViewIfNeeded();
+    await screenshot(page, `pivot-life-notice-${size}`);
+  }
+});
