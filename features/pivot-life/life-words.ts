@@ -93,7 +93,11 @@ export function projectedText(d: DetailLife, life: Pick<RideLife, 'log'>, date: 
 
 /** "Life used 31.9 % of a limit of 1 · limit on 21 Mar 2027" for one detail. */
 export function detailLine(d: DetailLife, life: Pick<RideLife, 'log'>, date: DateText): string {
-  return `${d.name}: life used ${lifeUsedText(d.lifeUsed)} · projected limit ${projectedText(d, life, date)}`;
+  const projected =
+    d.projectedLimitOn !== null
+      ? `projected limit ${projectedText(d, life, date)}`
+      : `no projected limit (${projectedText(d, life, date)})`;
+  return `${d.name}: life used ${lifeUsedText(d.lifeUsed)} · ${projected}`;
 }
 
 /** Where the damage per ride cycle comes from. */
