@@ -13,7 +13,7 @@ import { inspections } from '@/db/server/inspections';
 import { fatigueOfLoadCases, governingFatigueCase } from '@/features/fatigue';
 import { designToCycleInput, type DesignData } from '@/features/loads/design-schema';
 import { analyseLoadCases, designStops } from '@/features/loads/load-cases';
-import type { LoadCaseKind } from '@/features/loads/engine';
+import { pinChecksAtPeak, type LoadCaseKind } from '@/features/loads/engine';
 import { accumulateDetail, summariseLog } from '@/features/pivot-life/life-math';
 import type { DetailLife, PinUtilisation, PivotLife, RideLife } from '@/features/pivot-life/schema';
 import {
@@ -136,26 +136,40 @@ function inspectionBasis(db: Pick<Db, 'select'>, rideId: string): Basis | null {
   };
 }
 
-/** The design motion's fatigue, per design version (the load cases take a while; a version never changes). */
-const designFatigueCache = new Map<string, BasisDetail[]>();
+/**
+ * The design motion's fatigue and pin checks, per design version (the load cases take a while; a version
+ * never changes).
+ */
+type DesignLife = { details: BasisDetail[]; pins: Map<number, PinUtilisation> };
+const designLifeCache = new Map<string, DesignLife>();
 const DESIGN_CACHE_SIZE = 50;
 
-function designDetails(version: DesignVersion): BasisDetail[] {
-  const cached = designFatigueCache.get(version.id);
+function designLife(version: DesignVersion): DesignLife {
+  const cached = designLifeCache.get(version.id);
   if (cached) return cached;
   const cases = analyseLoadCases(designToCycleInput(version.data), designStops(version.data));
-  const details = fatigueOfLoadCases(version.data, cases.cases).map((d) => ({
-    detail: d.detail,
-    joint: d.joint,
-    name: d.name,
-    categoryMPa: d.categoryMPa,
-    damagePerRideCycle: d.damagePerRideCycle,
-    damageLimit: d.damageLimit,
-    governingCase: governingFatigueCase(d),
-  }));
-  if (designFatigueCache.size >= DESIGN_CACHE_SIZE) designFatigueCache.clear();
-  designFatigueCache.set(version.id, details);
-  return details;
+  const details = version.data.fatigue?.details.length
+    ? fatigueOfLoadCases(version.data, cases.cases).map((d) => ({
+        detail: d.detail,
+        joint: d.joint,
+        name: d.name,
+        categoryMPa: d.categoryMPa,
+        damagePerRideCycle: d.damagePerRideCycle,
+        damageLimit: d.damageLimit,
+        governingCase: governingFatigueCase(d),
+      }))
+    : [];
+  // EN 1993-1-8 at the peak over the design's load cases, as a stored analysis keeps them.
+  const pins = new Map<number, PinUtilisation>();
+  const checks = pinChecksAtPeak(
+    { joints: cases.operating.joints, pins: cases.operating.pins, loadCases: cases.cases },
+    version.data.pivots,
+  );
+  for (const { joint, name: _name, ...pin } of checks) pins.set(joint, pin);
+  if (designLifeCache.size >= DESIGN_CACHE_SIZE) designLifeCache.clear();
+  const life = { details, pins };
+  designLifeCache.set(version.id, life);
+  return life;
 }
 
 function designBasis(version: DesignVersion | null): Basis {
@@ -177,7 +191,7 @@ function designBasis(version: DesignVersion | null): Basis {
     designVersion: version.version,
     rideCycleS: fatigue.rideCycleS,
     design: version.data,
-    details: designDetails(version),
+    details: designLife(version).details,
   };
 }
 
@@ -196,7 +210,9 @@ export function rideLife(db: Pick<Db, 'select'>, rideId: string, today: string):
   // The log's hours are converted at the ride cycle time the damage per ride cycle was worked out for.
   const rideCycleS = basis.rideCycleS ?? current?.data.fatigue?.rideCycleS ?? null;
   const log = summariseLog(runningLogDays(db, rideId), rideCycleS);
-  const pins = latestPinChecks(db, rideId);
+  // Pin checks from the latest analysis that made them, else from the design motion's load cases.
+  const analysedPins = latestPinChecks(db, rideId);
+  const pins = analysedPins.size || !current ? analysedPins : designLife(current).pins;
   const wear = rideWearTrends(db, rideId, today);
   const ndt = rideNdtDue(db, rideId, today);
 
