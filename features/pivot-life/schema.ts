@@ -16,7 +16,11 @@ export const runningLogEntrySchema = z
   .object({
     day: isoDate,
     cycles: z.int({ error: 'Must be a whole number' }).min(0, 'Cannot be negative').max(100_000).optional(),
-    hours: z.number({ error: 'Must be a number' }).min(0, 'Cannot be negative').max(24, 'At most 24').optional(),
+    hours: z
+      .number({ error: 'Must be a number' })
+      .min(0, 'Cannot be negative')
+      .max(24, 'At most 24')
+      .optional(),
     note: z.string().trim().max(200).optional(),
   })
   .refine((e) => e.cycles !== undefined || e.hours !== undefined, {

@@ -75,6 +75,9 @@ export function topUpDemoRunningLog(
         source: 'csv' as const,
       });
     }
-    for (let i = 0; i < rows.length; i += 200) tx.insert(runningLog).values(rows.slice(i, i + 200)).run();
+    for (let i = 0; i < rows.length; i += 200)
+      tx.insert(runningLog)
+        .values(rows.slice(i, i + 200))
+        .run();
   });
 }
