@@ -35,6 +35,7 @@ const featureOrder = [
 const serverOrder = [
   'config',
   'paths',
+  'files',
   'logger',
   'db',
   'sqlite-client',

@@ -32,12 +32,15 @@ export function formatDamage(d: number): string {
     mantissa /= 10;
     e += 1;
   }
-  const power = String(e)
+  return `${mantissa.toFixed(3)} × ${powerOfTen(e)}`;
+}
+
+/** "10⁻⁷": a power of ten with its exponent in superscript. */
+export const powerOfTen = (exponent: number): string =>
+  `10${String(exponent)
     .split('')
     .map((c) => SUPERSCRIPT[c] ?? c)
-    .join('');
-  return `${mantissa.toFixed(3)} × 10${power}`;
-}
+    .join('')}`;
 
 /** Ride cycles until the damage limit: "1.234 million", "56,700", "Never: no damage". */
 export function cyclesToLimitText(damagePerRideCycle: number, damageLimit: number): string {

@@ -29,4 +29,5 @@ export {
   categoryText,
   cyclesToLimitText,
   formatDamage,
+  powerOfTen,
 } from '@/features/fatigue/damage-format';

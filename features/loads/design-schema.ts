@@ -97,6 +97,15 @@ export type DesignPart = z.infer<typeof designPartSchema>;
 export const ndtMethods = ['VT', 'MT', 'PT', 'UT', 'ET'] as const;
 export type NdtMethod = (typeof ndtMethods)[number];
 
+/** Each method's name in words (EN ISO 9712's method names). */
+export const NDT_METHOD_WORDS: Record<NdtMethod, string> = {
+  VT: 'Visual testing',
+  MT: 'Magnetic particle testing',
+  PT: 'Penetrant testing',
+  UT: 'Ultrasonic testing',
+  ET: 'Eddy current testing',
+};
+
 /** One NDT the maker requires at a pivot: the method and how often, from the maker's manual. */
 export const ndtPlanSchema = z.object({
   method: z.enum(ndtMethods, { error: `One of ${ndtMethods.join(', ')}` }),

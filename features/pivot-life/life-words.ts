@@ -3,6 +3,7 @@
  * every place says the same. Pure: dates come through the caller's formatter (the app's local format, or
  * the documents' UTC one).
  */
+import { powerOfTen } from '@/features/fatigue';
 import type { FatigueDetailKind } from '@/features/loads/design-schema';
 import { envelopeStatus, type EnvelopeStatus } from '@/features/loads/engine';
 import { RATE_WINDOW_DAYS } from '@/features/pivot-life/life-math';
@@ -50,30 +51,12 @@ export const lifeStatus = (lifeUsed: number): EnvelopeStatus => envelopeStatus(l
 
 export const lifeUsedText = (lifeUsed: number) => formatShareOfLimit(lifeUsed);
 
-const SUPERSCRIPT: Record<string, string> = {
-  '-': '⁻',
-  '0': '⁰',
-  '1': '¹',
-  '2': '²',
-  '3': '³',
-  '4': '⁴',
-  '5': '⁵',
-  '6': '⁶',
-  '7': '⁷',
-  '8': '⁸',
-  '9': '⁹',
-};
-
 /** A small computed number to three significant figures: 3.20 × 10⁻⁷; ordinary sizes plainly. */
 export function smallNumberText(x: number): string {
   if (x === 0 || !Number.isFinite(x)) return formatSignificant(x, 3);
   if (Math.abs(x) >= 0.01 && Math.abs(x) < 1e6) return formatSignificant(x, 3);
   const [mantissa, exponent] = x.toExponential(2).split('e');
-  const power = String(Number(exponent))
-    .split('')
-    .map((c) => SUPERSCRIPT[c] ?? c)
-    .join('');
-  return `${mantissa} × 10${power}`;
+  return `${mantissa} × ${powerOfTen(Number(exponent))}`;
 }
 
 /** Ride cycles as a count people read: whole numbers, with thin groups. */

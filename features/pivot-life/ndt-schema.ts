@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 
-import { ndtMethods } from '@/features/loads/design-schema';
+import { NDT_METHOD_WORDS, ndtMethods } from '@/features/loads/design-schema';
 import { ndtDueSchema } from '@/features/pivot-life/schema';
 
 /**
@@ -30,13 +30,7 @@ export const ndtResultInfo: Record<NdtResult, { label: string; description: stri
 export const ndtLevels = [1, 2, 3] as const;
 export type NdtLevel = (typeof ndtLevels)[number];
 
-export const NDT_METHOD_WORDS: Record<(typeof ndtMethods)[number], string> = {
-  VT: 'Visual testing',
-  MT: 'Magnetic particle testing',
-  PT: 'Penetrant testing',
-  UT: 'Ultrasonic testing',
-  ET: 'Eddy current testing',
-};
+export { NDT_METHOD_WORDS };
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
 const sha256 = z.string().regex(/^[0-9a-f]{64}$/, 'The report’s SHA-256 as 64 lower-case hex digits');

@@ -7,7 +7,7 @@
 import { z } from 'zod';
 
 import { ndtMethods } from '@/features/loads/design-schema';
-import { loadCaseKinds } from '@/features/records/analysis-schema';
+import { loadCaseKinds, storedPinCheckSchema } from '@/features/records/analysis-schema';
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'A date as YYYY-MM-DD');
 
@@ -96,16 +96,8 @@ export const ndtDueSchema = z.object({
 });
 export type NdtDue = z.infer<typeof ndtDueSchema>;
 
-export const pinUtilisationSchema = z.object({
-  forceN: z.number(),
-  diameterM: z.number(),
-  shear: z.number(),
-  bearing: z.number(),
-  bending: z.number(),
-  combined: z.number(),
-  bearingService: z.number().nullable(),
-  bendingService: z.number().nullable(),
-});
+/** A pivot's EN 1993-1-8 utilisations, as the analysis stores them (without the pivot's joint and name). */
+export const pinUtilisationSchema = storedPinCheckSchema.omit({ joint: true, name: true });
 export type PinUtilisation = z.infer<typeof pinUtilisationSchema>;
 
 export const pivotLifeSchema = z.object({

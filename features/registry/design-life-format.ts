@@ -3,15 +3,16 @@
  * person's unit system. Design values are shown as the document states them (no padding zeros); unit
  * conversions go through lib/units. Pure, so the tables' text is tested.
  */
-import type {
-  DesignData,
-  DesignPivot,
-  FatigueComponent,
-  FatigueDetail,
-  FatigueDetailKind,
-  NdtMethod,
-  PinCheckData,
+import {
+  NDT_METHOD_WORDS,
+  type DesignData,
+  type DesignPivot,
+  type FatigueComponent,
+  type FatigueDetail,
+  type FatigueDetailKind,
+  type PinCheckData,
 } from '@/features/loads/design-schema';
+import { detailStressFactor } from '@/features/fatigue';
 import { quantityPair } from '@/features/registry/design-diff-collector';
 import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/lib/units';
 
@@ -22,13 +23,8 @@ export const q = (value: number, kind: QuantityKind, system: UnitSystem): string
 /** A design value as stated: up to six figures, no padding zeros ("1.15", "0.062", "20106"). */
 export const stated = (v: number) => String(Number(v.toPrecision(6))).replace(/^-/, '−');
 
-export const ndtMethodLabel: Record<NdtMethod, string> = {
-  VT: 'Visual testing',
-  MT: 'Magnetic particle testing',
-  PT: 'Penetrant testing',
-  UT: 'Ultrasonic testing',
-  ET: 'Eddy current testing',
-};
+/** Each NDT method in words (one list, beside the methods in the design-data contract). */
+export const ndtMethodLabel = NDT_METHOD_WORDS;
 
 /** "every 365 days (1 year)": whole years are named, as manuals state them. */
 export function ndtIntervalText(days: number): string {
@@ -77,15 +73,8 @@ function perLoadText(mpaPerKn: number, torque: boolean, system: UnitSystem, give
   return `${formatSignificant(value, 3)} ksi/${torque ? 'kip·ft' : 'kip'}`;
 }
 
-/**
- * MPa per kN (per kN·m): as given, or 1000 / (area × shear planes) — the rule the fatigue engine applies
- * (features/fatigue/detail-stress.ts), repeated here so the register reads it without the engine.
- */
-export function stressPerLoad(
-  d: Pick<FatigueDetail, 'stressPerKnMPa' | 'sectionAreaMm2' | 'shearPlanes'>,
-): number {
-  return d.stressPerKnMPa ?? 1000 / ((d.sectionAreaMm2 ?? Infinity) * (d.shearPlanes ?? 1));
-}
+/** The stress per unit load (MPa per kN, or per kN·m): the fatigue engine's own rule, given or derived. */
+export const stressPerLoad = detailStressFactor;
 
 /**
  * The stress per unit load as given, or the section it comes from and what that gives:

@@ -3,7 +3,6 @@
  * photos (server/sync/photo-store.ts), a file appears only whole (written under a temporary name, flushed,
  * renamed) and its `ndt_reports` row is written after it, so a row always means the bytes are there.
  */
-import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -11,6 +10,7 @@ import { eq } from 'drizzle-orm';
 
 import { ndtReports } from '@/db/server/ndt';
 import type { Db } from '@/server/db';
+import { writeWhole } from '@/server/files';
 
 /** A scanned report of a few pages fits well inside this; a larger file is refused with 413. */
 export const MAX_NDT_REPORT_BYTES = 20 * 1024 * 1024;
@@ -27,32 +27,6 @@ export function isPdf(bytes: Uint8Array): boolean {
 export const ndtReportsDirOf = (dataDir: string) => path.join(dataDir, 'ndt-reports');
 export const ndtReportPathOf = (dataDir: string, sha256: string) =>
   path.join(ndtReportsDirOf(dataDir), sha256);
-
-async function writeWhole(file: string, bytes: Uint8Array): Promise<void> {
-  const dir = path.dirname(file);
-  await fs.promises.mkdir(dir, { recursive: true });
-  const temp = path.join(dir, `.${path.basename(file)}.${randomUUID()}.part`);
-  const handle = await fs.promises.open(temp, 'wx');
-  try {
-    await handle.writeFile(bytes);
-    await handle.sync();
-  } finally {
-    await handle.close();
-  }
-  try {
-    // Atomic on one file system: a reader sees no file or the whole file.
-    await fs.promises.rename(temp, file);
-  } catch (err) {
-    await fs.promises.rm(temp, { force: true });
-    throw err;
-  }
-  const dirHandle = await fs.promises.open(dir, 'r');
-  try {
-    await dirHandle.sync();
-  } finally {
-    await dirHandle.close();
-  }
-}
 
 export function findNdtReport(db: Pick<Db, 'select'>, sha256: string) {
   return db.select().from(ndtReports).where(eq(ndtReports.sha256, sha256)).get() ?? null;

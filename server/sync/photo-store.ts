@@ -3,7 +3,6 @@
  * whole (written to a temporary name, flushed, then renamed), and its `photos` row is written after it,
  * so a row always means the bytes are there; re-sent bytes find the row and are not written again.
  */
-import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -11,6 +10,7 @@ import { eq } from 'drizzle-orm';
 
 import { photos, type photoMimes } from '@/db/server/inspections';
 import type { Db } from '@/server/db';
+import { TEMP_SUFFIX, writeWhole } from '@/server/files';
 
 type PhotoMime = (typeof photoMimes)[number];
 
@@ -33,8 +33,6 @@ export function sniffImage(bytes: Uint8Array): PhotoMime | null {
 
 export const photosDirOf = (dataDir: string) => path.join(dataDir, 'photos');
 export const photoPathOf = (dataDir: string, sha256: string) => path.join(photosDirOf(dataDir), sha256);
-
-const TEMP_SUFFIX = '.part';
 
 /** Removes temporary files an interrupted upload left behind (older than an hour, so never a live one). */
 export function sweepPartialPhotos(dataDir: string, now = Date.now()): number {
@@ -59,33 +57,6 @@ export function sweepPartialPhotos(dataDir: string, now = Date.now()): number {
     }
   }
   return removed;
-}
-
-async function writeWhole(file: string, bytes: Uint8Array): Promise<void> {
-  const dir = path.dirname(file);
-  await fs.promises.mkdir(dir, { recursive: true });
-  const temp = path.join(dir, `.${path.basename(file)}.${randomUUID()}${TEMP_SUFFIX}`);
-  const handle = await fs.promises.open(temp, 'wx');
-  try {
-    await handle.writeFile(bytes);
-    await handle.sync();
-  } finally {
-    await handle.close();
-  }
-  try {
-    // Rename is atomic on one file system: readers see no file or the whole file, never part of one.
-    await fs.promises.rename(temp, file);
-  } catch (err) {
-    await fs.promises.rm(temp, { force: true });
-    throw err;
-  }
-  // Make the rename itself durable before the database row says the photo is stored.
-  const dirHandle = await fs.promises.open(dir, 'r');
-  try {
-    await dirHandle.sync();
-  } finally {
-    await dirHandle.close();
-  }
 }
 
 export function findPhoto(db: Pick<Db, 'select'>, sha256: string) {

@@ -1,0 +1,38 @@
+/**
+ * Writing a stored file whole: photos and NDT reports are kept by content, and a database row says the
+ * bytes are there, so a file must never be seen half written.
+ */
+import { randomUUID } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+
+/** What an interrupted write leaves behind (swept later by its store). */
+export const TEMP_SUFFIX = '.part';
+
+/** Writes to a temporary name, flushes, renames into place, then makes the rename durable. */
+export async function writeWhole(file: string, bytes: Uint8Array): Promise<void> {
+  const dir = path.dirname(file);
+  await fs.promises.mkdir(dir, { recursive: true });
+  const temp = path.join(dir, `.${path.basename(file)}.${randomUUID()}${TEMP_SUFFIX}`);
+  const handle = await fs.promises.open(temp, 'wx');
+  try {
+    await handle.writeFile(bytes);
+    await handle.sync();
+  } finally {
+    await handle.close();
+  }
+  try {
+    // Rename is atomic on one file system: readers see no file or the whole file, never part of one.
+    await fs.promises.rename(temp, file);
+  } catch (err) {
+    await fs.promises.rm(temp, { force: true });
+    throw err;
+  }
+  // Make the rename itself durable before the database row says the file is stored.
+  const dirHandle = await fs.promises.open(dir, 'r');
+  try {
+    await dirHandle.sync();
+  } finally {
+    await dirHandle.close();
+  }
+}
