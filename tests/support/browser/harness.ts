@@ -174,6 +174,10 @@ export function serverAndBrowser(env: Record<string, string> = {}): ServerAndBro
     signedIn: async (size, email, password) => {
       const page = await openPage(started(), size);
       await signIn(page, running().baseUrl, email, password);
+      // Signed in once the app leaves the sign-in page: a test that goes elsewhere sooner cancels the
+      // sign-in and lands signed out. (A wrong password, given on purpose, stays on the page.)
+      if (password === undefined)
+        await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 30_000 });
       return page;
     },
   };
