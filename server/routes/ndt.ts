@@ -1,5 +1,3 @@
-import { createHash } from 'node:crypto';
-
 import express, { Router, type RequestHandler } from 'express';
 import { and, eq } from 'drizzle-orm';
 import { z } from 'zod';
@@ -13,6 +11,7 @@ import { companyScope } from '@/server/auth/scope';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import type { Db } from '@/server/db';
+import { assertContentHash } from '@/server/http/content-hash';
 import { forbidden, HttpError, notFound } from '@/server/http/errors';
 import { validate } from '@/server/http/validate';
 import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
@@ -128,15 +127,7 @@ export function ndtRouter(deps: ApiDeps): Router {
           ? 'The upload is empty; send the report’s bytes.'
           : 'The file is not a PDF (it does not begin with %PDF-), so it was not stored.',
       );
-    const actual = createHash('sha256').update(body).digest('hex');
-    if (actual !== sha256)
-      throw new HttpError(
-        400,
-        'hash_mismatch',
-        'The bytes received do not match the SHA-256 in the address; the upload was cut short or changed. ' +
-          'Nothing was stored; send it again.',
-        [{ path: 'params.sha256', message: `The bytes hash to ${actual}` }],
-      );
+    assertContentHash(body, sha256);
     const { stored } = await storeNdtReport(
       deps.db,
       deps.config.dataDir,

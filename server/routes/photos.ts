@@ -1,10 +1,9 @@
-import { createHash } from 'node:crypto';
-
 import express, { Router, type RequestHandler } from 'express';
 import { z } from 'zod';
 
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { companyScope } from '@/server/auth/scope';
+import { assertContentHash } from '@/server/http/content-hash';
 import { forbidden, HttpError, notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
@@ -86,15 +85,7 @@ export function photosRouter(deps: ApiDeps): Router {
           ? 'The upload is empty; send the photo’s bytes.'
           : 'The file is not a JPEG, PNG or WebP image, so it was not stored.',
       );
-    const actual = createHash('sha256').update(body).digest('hex');
-    if (actual !== sha256)
-      throw new HttpError(
-        400,
-        'hash_mismatch',
-        'The bytes received do not match the SHA-256 in the address; the upload was cut short or changed. ' +
-          'Nothing was stored; send it again.',
-        [{ path: 'params.sha256', message: `The bytes hash to ${actual}` }],
-      );
+    assertContentHash(body, sha256);
     const { stored } = await storePhoto(
       deps.db,
       deps.config.dataDir,
