@@ -51,7 +51,9 @@ test('an inspector adds an MT record with its report PDF at phone size; the supe
   await page.waitForURL((url) => !url.pathname.includes('sign-in'));
   await page.goto(`${app.baseUrl}/rides/${rideId}/ndt`);
   const form = page.getByLabel('Add NDT record', { exact: true });
-  await form.waitFor();
+  // The inspector's phone opens its on-device database on first load; on a loaded 2-core runner that and
+  // the ride's NDT page can take longer than the default wait.
+  await form.waitFor({ timeout: 60_000 });
   await screenshot(page, 'ndt-phone-before');
 
   await form.getByRole('radio', { name: pivotName, exact: true }).click();
