@@ -91,6 +91,11 @@ export const users = sqliteTable(
     companyId: text('company_id').references(() => companies.id, { onDelete: 'restrict' }),
     createdAt: createdAt(),
     disabledAt: text('disabled_at'),
+    /**
+     * Session tokens issued before this instant (ISO 8601 UTC) are refused on every request. Moved by
+     * sign-out, a password change or reset, disabling and a role or company change (server/auth/sessions.ts).
+     */
+    tokensValidAfter: text('tokens_valid_after'),
   },
   (t) => [
     check('users_role_check', oneOf(t.role, roles)),

@@ -169,6 +169,12 @@ export const inspectionRecordSchema = z.object({
   templateId: z.string().min(1).nullable(),
   templateVersion: z.int().min(1).nullable(),
   type: inspectionTypeSchema,
+  /**
+   * The user id of the person who recorded it on the phone. The server refuses a record whose author is not
+   * the signed-in user, so a shared phone can never send one person's work under another's name. Absent
+   * from records stored before phones wrote it (those go under the token's user, as before).
+   */
+  authorId: z.string().min(1).max(100).optional(),
   startedAt: isoTime(),
   submittedAt: isoTime(),
   checklist: z.array(checklistAnswerSchema).max(500),

@@ -1,0 +1,1 @@
+ALTER TABLE `users` ADD `tokens_valid_after` text;
