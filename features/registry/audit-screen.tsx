@@ -49,15 +49,37 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   corrective_action: 'Corrective action',
   instrument: 'Instrument',
   setting: 'Setting',
+  user: 'Person',
 };
 
 const actionSpec: Record<
   AuditAction,
-  { label: string; icon: 'plus-circle' | 'edit-3' | 'trash-2'; color: string }
+  {
+    label: string;
+    icon:
+      | 'plus-circle'
+      | 'edit-3'
+      | 'trash-2'
+      | 'mail'
+      | 'key'
+      | 'lock'
+      | 'unlock'
+      | 'log-out'
+      | 'alert-triangle';
+    color: string;
+  }
 > = {
   create: { label: 'Added', icon: 'plus-circle', color: colors.within },
   update: { label: 'Changed', icon: 'edit-3', color: colors.text },
   delete: { label: 'Removed', icon: 'trash-2', color: colors.over },
+  invite: { label: 'Invited', icon: 'mail', color: colors.text },
+  password_set: { label: 'Password set', icon: 'key', color: colors.text },
+  password_change: { label: 'Password changed', icon: 'key', color: colors.text },
+  password_reset: { label: 'Password reset', icon: 'key', color: colors.text },
+  disable: { label: 'Disabled', icon: 'lock', color: colors.over },
+  enable: { label: 'Re-enabled', icon: 'unlock', color: colors.within },
+  sign_out: { label: 'Signed out', icon: 'log-out', color: colors.text },
+  sign_in_failed: { label: 'Failed sign-in', icon: 'alert-triangle', color: colors.over },
 };
 
 /** Who changed what in the register, design data, templates and schedules, and when. */

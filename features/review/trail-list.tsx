@@ -5,10 +5,24 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { auditEntityLabel } from '@/features/registry/ui';
+import type { AuditAction } from '@/features/registry/schema/audit';
 import { formatDateTime } from '@/lib/dates';
 import { useInspectionTrail } from '@/features/review/inspection-api';
 
-const actionWord = { create: 'Added', update: 'Changed', delete: 'Removed' } as const;
+/** An inspection's trail only ever holds create/update/delete; the people words read sensibly anyway. */
+const actionWord: Record<AuditAction, string> = {
+  create: 'Added',
+  update: 'Changed',
+  delete: 'Removed',
+  invite: 'Invited',
+  password_set: 'Password set for',
+  password_change: 'Password changed for',
+  password_reset: 'Password reset for',
+  disable: 'Disabled',
+  enable: 'Re-enabled',
+  sign_out: 'Signed out',
+  sign_in_failed: 'Failed sign-in for',
+};
 
 /** Who did what to this inspection and its findings, and when: newest first, as the server keeps it. */
 export function TrailList({ inspectionId }: { inspectionId: string }) {

@@ -18,10 +18,28 @@ export const auditEntities = [
   'corrective_action',
   'instrument',
   'setting',
+  'user',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;
-export const auditActions = ['create', 'update', 'delete'] as const;
+/**
+ * What happened. Beyond create/update/delete, people and sessions have their own words: an invitation, a
+ * password set by a link or changed by its owner, an administrator's reset, disabling and re-enabling, a
+ * server-side sign-out and a failed sign-in (kept so an administrator can see who is being tried).
+ */
+export const auditActions = [
+  'create',
+  'update',
+  'delete',
+  'invite',
+  'password_set',
+  'password_change',
+  'password_reset',
+  'disable',
+  'enable',
+  'sign_out',
+  'sign_in_failed',
+] as const;
 export const auditActionSchema = z.enum(auditActions);
 export type AuditAction = z.infer<typeof auditActionSchema>;
 
