@@ -9,6 +9,12 @@ import { check, index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-cor
  * Timestamps are ISO 8601 UTC strings, so ordering by text is ordering by time.
  */
 
+/*
+ * One person's data per phone: drafts, outbox rows, cached decisions and photo bytes carry `author_id`, the
+ * user id of the person signed in when they were made. Nullable because rows from before it existed have
+ * none; the first person bound to the phone adopts them (features/device-db/device-owner.ts).
+ */
+
 export const outboxKinds = ['inspection'] as const;
 /** queued → sending → accepted | rejected; a failed send goes back to queued (see features/sync/outbox-machine). */
 export const outboxStates = ['queued', 'sending', 'accepted', 'rejected'] as const;
@@ -73,8 +79,9 @@ export const drafts = sqliteTable(
     json: text('json').notNull(),
     createdAt: text('created_at').notNull(),
     updatedAt: text('updated_at').notNull(),
+    authorId: text('author_id'),
   },
-  (t) => [index('drafts_updated_idx').on(t.updatedAt)],
+  (t) => [index('drafts_updated_idx').on(t.updatedAt), index('drafts_author_idx').on(t.authorId)],
 );
 
 /**
@@ -96,9 +103,11 @@ export const outbox = sqliteTable(
     nextAttemptAt: text('next_attempt_at'),
     createdAt: text('created_at').notNull(),
     updatedAt: text('updated_at').notNull(),
+    authorId: text('author_id'),
   },
   (t) => [
     index('outbox_state_idx').on(t.state, t.nextAttemptAt),
+    index('outbox_author_idx').on(t.authorId, t.state),
     index('outbox_batch_idx').on(t.batchId),
     check('outbox_kind_check', sql`${col(t.kind)} IN (${oneOf(outboxKinds)})`),
     check('outbox_state_check', sql`${col(t.state)} IN (${oneOf(outboxStates)})`),
@@ -121,6 +130,8 @@ export const photoBlobs = sqliteTable(
     nextAttemptAt: text('next_attempt_at'),
     createdAt: text('created_at').notNull(),
     updatedAt: text('updated_at').notNull(),
+    /** Who took it; only they upload it (a photo two people stored keeps its first author). */
+    authorId: text('author_id'),
   },
   (t) => [
     index('photo_blobs_state_idx').on(t.uploadState),
@@ -135,6 +146,8 @@ export const decisions = sqliteTable('decisions', {
   inspectionId: text('inspection_id').primaryKey(),
   json: text('json').notNull(),
   updatedAt: text('updated_at').notNull(),
+  /** The person whose pull brought it. */
+  authorId: text('author_id'),
 });
 
 /** The inspection body's instrument register as last pulled (replaced whole on every pull). */

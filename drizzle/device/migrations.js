@@ -3,12 +3,14 @@
 import journal from './meta/_journal.json';
 import m0000 from './0000_device_foundation.sql';
 import m0001 from './0001_instruments_and_settings.sql';
+import m0002 from './0002_author_on_device_rows.sql';
 
   export default {
     journal,
     migrations: {
       m0000,
-m0001
+m0001,
+m0002
     }
   }
   
