@@ -11,6 +11,7 @@ export default defineConfig({
     './db/server/instruments.ts',
     './db/server/life.ts',
     './db/server/ndt.ts',
+    './db/server/accounts.ts',
   ],
   out: './drizzle/server',
 });
