@@ -6,6 +6,14 @@ import { unauthorized } from '@/server/http/errors';
 
 export const tokenIssuer = 'pivotwatch';
 const algorithm = 'HS256';
+/**
+ * The issue time in milliseconds, beside JWT's whole-second `iat`: a sign-out followed by a new sign-in within
+ * the same second must end the old token and keep the new one (compared with `users.tokens_valid_after`).
+ */
+const issuedAtMsClaim = 'iat_ms';
+
+/** What a verified token says: whose it is, the role it was issued with, and when it was issued. */
+export type VerifiedSession = { userId: string; role: Role; issuedAtMs: number };
 
 type TokenConfig = Pick<Config, 'jwtSecret' | 'jwtTtlSeconds'>;
 
@@ -17,7 +25,7 @@ export async function signSessionToken(
 ): Promise<{ token: string; expiresAt: string }> {
   const issuedAt = Math.floor(now.getTime() / 1000);
   const expiresAt = issuedAt + config.jwtTtlSeconds;
-  const token = await new SignJWT({ role: user.role })
+  const token = await new SignJWT({ role: user.role, [issuedAtMsClaim]: now.getTime() })
     .setProtectedHeader({ alg: algorithm, typ: 'JWT' })
     .setSubject(user.id)
     .setIssuer(tokenIssuer)
@@ -35,12 +43,14 @@ export async function verifySessionToken(
   token: string,
   config: Pick<Config, 'jwtSecret'>,
   now: number = Date.now(),
-): Promise<{ userId: string; role: Role }> {
+): Promise<VerifiedSession> {
   // A token already verified with this secret needs only its expiry checked again: the signature cannot
-  // have changed. This takes the HMAC off every request of a busy desk; the user row is still re-read.
+  // have changed. This takes the HMAC off every request of a busy desk; the user row (and with it the
+  // session stamp, server/auth/require-auth.ts) is still re-read on every request.
   const known = verifiedTokens(config.jwtSecret).get(token);
   if (known) {
-    if (known.expiresAtMs > now) return { userId: known.userId, role: known.role };
+    if (known.expiresAtMs > now)
+      return { userId: known.userId, role: known.role, issuedAtMs: known.issuedAtMs };
     throw unauthorized('Your session has expired. Sign in again.', 'session_expired');
   }
   try {
@@ -51,12 +61,14 @@ export async function verifySessionToken(
     });
     const role = roleSchema.safeParse(payload.role);
     if (!payload.sub || !role.success) throw unauthorized('Your session is not valid. Sign in again.');
+    const issuedAtMs = issuedAtMsOf(payload);
     remember(config.jwtSecret, token, {
       userId: payload.sub,
       role: role.data,
+      issuedAtMs,
       expiresAtMs: (payload.exp ?? 0) * 1000,
     });
-    return { userId: payload.sub, role: role.data };
+    return { userId: payload.sub, role: role.data, issuedAtMs };
   } catch (error) {
     if (error instanceof errors.JWTExpired) {
       throw unauthorized('Your session has expired. Sign in again.', 'session_expired');
@@ -65,7 +77,22 @@ export async function verifySessionToken(
   }
 }
 
-type VerifiedToken = { userId: string; role: Role; expiresAtMs: number };
+/**
+ * Tokens signed before the millisecond claim existed carry only `iat`; their issue time is the start of that
+ * second, so a stamp later in the same second still ends them. A claim that disagrees with `iat` by more than
+ * a second (the claim must fall inside `iat`'s second) is not ours.
+ */
+function issuedAtMsOf(payload: { iat?: number; [claim: string]: unknown }): number {
+  const seconds = (payload.iat ?? 0) * 1000;
+  const ms = payload[issuedAtMsClaim];
+  if (ms === undefined) return seconds;
+  if (typeof ms !== 'number' || !Number.isFinite(ms) || ms < seconds || ms - seconds >= 1000) {
+    throw unauthorized('Your session is not valid. Sign in again.');
+  }
+  return ms;
+}
+
+type VerifiedToken = VerifiedSession & { expiresAtMs: number };
 
 /** At most this many verified tokens are remembered per secret; the oldest goes first. */
 const VERIFIED_TOKEN_LIMIT = 1000;

@@ -2,7 +2,7 @@ import type { RequestHandler, Response } from 'express';
 
 import type { Role, SessionUser } from '@/features/session/schema';
 import { verifySessionToken } from '@/server/auth/jwt';
-import { findSessionUser } from '@/server/auth/service';
+import { findSessionUserWithStamp } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { forbidden, unauthorized } from '@/server/http/errors';
@@ -11,19 +11,27 @@ const bearer = /^Bearer\s+(\S+)\s*$/i;
 
 /**
  * Accepts `Authorization: Bearer <token>`, then re-reads the user so a disabled or deleted account is
- * refused at once. The user is kept on `res.locals.user`; read it with `currentUser(res)`.
+ * refused at once, and so is a token issued before the user's session stamp (`users.tokens_valid_after`,
+ * moved by sign-out, a password change, disabling or a role change: server/auth/sessions.ts). The user is
+ * kept on `res.locals.user`; read it with `currentUser(res)`.
  */
 export function requireAuth(deps: { db: Db; config: Config }): RequestHandler {
   return async (req, res, next) => {
     const match = bearer.exec(req.get('authorization') ?? '');
     if (!match) throw unauthorized();
-    const { userId } = await verifySessionToken(match[1], deps.config);
-    const user = findSessionUser(deps.db, userId);
-    if (!user) throw unauthorized('Your account is no longer active. Sign in again.');
-    res.locals.user = user;
+    const { userId, issuedAtMs } = await verifySessionToken(match[1], deps.config);
+    const found = findSessionUserWithStamp(deps.db, userId);
+    if (!found) throw unauthorized('Your account is no longer active. Sign in again.');
+    if (found.tokensValidAfterMs !== null && issuedAtMs < found.tokensValidAfterMs) {
+      throw unauthorized(sessionEndedMessage, 'session_ended');
+    }
+    res.locals.user = found.user;
     next();
   };
 }
+
+const sessionEndedMessage =
+  'This session was ended: you signed out, or your password or access changed. Sign in again.';
 
 /** The signed-in user; only valid behind `requireAuth`. */
 export function currentUser(res: Response): SessionUser {

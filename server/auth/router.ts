@@ -7,10 +7,12 @@ import { sendError } from '@/server/http/errors';
 import { currentUser, requireAuth } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { signIn } from '@/server/auth/service';
+import { endSessions } from '@/server/auth/sessions';
+import { recordSessionAudit } from '@/server/auth/session-audit';
 
 const defaultSignInLimit = { windowMs: 15 * 60 * 1000, max: 10 };
 
-/** `POST /auth/sign-in` and `GET /me`. */
+/** `POST /auth/sign-in`, `POST /auth/sign-out` and `GET /me`. */
 export function authRouter(deps: ApiDeps): Router {
   const router = Router();
   const limit = deps.signInLimit ?? defaultSignInLimit;
@@ -36,6 +38,22 @@ export function authRouter(deps: ApiDeps): Router {
   router.post('/auth/sign-in', signInLimiter, signInInput, async (_req, res) => {
     const response: SignInResponse = await signIn(deps.db, deps.config, signInInput.body(res));
     res.json(response);
+  });
+
+  // Ends every session of the signed-in person, on every device: the stamp moves, so each token they hold
+  // (this one included) is refused from the next request on. Stamped by the real clock, as tokens are.
+  router.post('/auth/sign-out', requireAuth(deps), (_req, res) => {
+    const user = currentUser(res);
+    deps.db.transaction((tx) => {
+      endSessions(tx, user.id, new Date());
+      recordSessionAudit(tx, {
+        userId: user.id,
+        entityId: user.id,
+        action: 'sign_out',
+        summary: `${user.name} signed out; every session ended`,
+      });
+    });
+    res.status(204).end();
   });
 
   router.get('/me', requireAuth(deps), (_req, res) => {

@@ -24,7 +24,7 @@ const sessionUserColumns = {
 const preparedSessionUser = new WeakMap<Db, ReturnType<typeof prepareSessionUser>>();
 const prepareSessionUser = (db: Db) =>
   db
-    .select({ ...sessionUserColumns, disabledAt: users.disabledAt })
+    .select({ ...sessionUserColumns, disabledAt: users.disabledAt, tokensValidAfter: users.tokensValidAfter })
     .from(users)
     .leftJoin(companies, eq(companies.id, users.companyId))
     .where(eq(users.id, sql.placeholder('userId')))
@@ -40,10 +40,21 @@ function sessionUserQuery(db: Db) {
 
 /** The signed-in user as the API shows it, or null when the account is missing or disabled. */
 export function findSessionUser(db: Db, userId: string): SessionUser | null {
+  return findSessionUserWithStamp(db, userId)?.user ?? null;
+}
+
+/**
+ * The signed-in user and the instant before which their tokens are refused (ms since the epoch, or null when
+ * no session was ever ended), in one read: `requireAuth` runs this on every request.
+ */
+export function findSessionUserWithStamp(
+  db: Db,
+  userId: string,
+): { user: SessionUser; tokensValidAfterMs: number | null } | null {
   const row = sessionUserQuery(db).get({ userId });
   if (!row || row.disabledAt !== null) return null;
-  const { disabledAt: _disabledAt, ...user } = row;
-  return user;
+  const { disabledAt: _disabledAt, tokensValidAfter, ...user } = row;
+  return { user, tokensValidAfterMs: tokensValidAfter === null ? null : Date.parse(tokensValidAfter) };
 }
 
 export async function signIn(db: Db, config: Config, body: SignInBody): Promise<SignInResponse> {
