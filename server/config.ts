@@ -60,6 +60,13 @@ const envSchema = z.object({
   ),
   NODE_ENV: z.preprocess(emptyAsUnset, z.enum(['development', 'production', 'test']).default('development')),
   LOG_LEVEL: z.preprocess(emptyAsUnset, z.enum(logLevels).optional()),
+  COMPUTE_TIME_LIMIT_MS: z.preprocess(
+    emptyAsUnset,
+    z.coerce.number().int().min(1).max(600_000).default(10_000),
+  ),
+  PHOTO_UPLOADS_PER_HOUR: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).default(300)),
+  PHOTO_MB_PER_DAY: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).default(500)),
+  PHOTO_GRACE_DAYS: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).max(3650).default(14)),
   SEED_DEMO: z.preprocess(emptyAsUnset, z.enum(['0', '1']).optional()),
   TRUST_PROXY: z.preprocess(
     emptyAsUnset,
@@ -113,6 +120,18 @@ export type Config = {
   jwtTtlSeconds: number;
   nodeEnv: 'development' | 'production' | 'test';
   logLevel: (typeof logLevels)[number];
+  /**
+   * How long one analysis in a worker thread may run (COMPUTE_TIME_LIMIT_MS, default 10 s) before it is
+   * stopped, so no request can hold a worker for ever.
+   */
+  computeTimeLimitMs: number;
+  /**
+   * Per person: photo uploads stored per rolling hour (PHOTO_UPLOADS_PER_HOUR, default 300: a day's
+   * inspections synced at once) and megabytes stored per rolling 24 h (PHOTO_MB_PER_DAY, default 500).
+   */
+  photoQuota: { perHour: number; bytesPerDay: number };
+  /** Days a photo no record, finding, corrective action or notice uses is kept (PHOTO_GRACE_DAYS, 14). */
+  photoGraceDays: number;
   /** Whether start-up may seed the demo scenario into an empty database (never in production). */
   seedDemo: boolean;
   /**
@@ -172,6 +191,9 @@ export function parseEnv(
     jwtTtlSeconds: ttlSeconds(e.JWT_TTL),
     nodeEnv: e.NODE_ENV,
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
+    computeTimeLimitMs: e.COMPUTE_TIME_LIMIT_MS,
+    photoQuota: { perHour: e.PHOTO_UPLOADS_PER_HOUR, bytesPerDay: e.PHOTO_MB_PER_DAY * 1024 * 1024 },
+    photoGraceDays: e.PHOTO_GRACE_DAYS,
     seedDemo: e.NODE_ENV !== 'production' && e.SEED_DEMO !== '0',
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     smtpUrl: e.SMTP_URL ?? null,
