@@ -208,6 +208,29 @@ function duplicateIds(record: InspectionRecord): Issue[] {
   return issues;
 }
 
+/** How far a phone's clock may run ahead of the server's before its submission time is refused. */
+export const CLOCK_SKEW_MS = 5 * 60 * 1000;
+
+/**
+ * The phone's times must be possible: submitted no later than the server received it (give or take the
+ * skew), and started no later than submitted. A record dated in the future would otherwise move the
+ * ride's schedule on approval.
+ */
+function timeOfRecordIssues(record: InspectionRecord, receivedAt: string): Issue[] {
+  const submitted = Date.parse(record.submittedAt);
+  const issues: Issue[] = [];
+  if (submitted > Date.parse(receivedAt) + CLOCK_SKEW_MS)
+    issues.push({
+      path: 'submittedAt',
+      message:
+        `Later than the server received it (${receivedAt}); check the phone's date and time, then send ` +
+        'it again',
+    });
+  if (Date.parse(record.startedAt) > submitted)
+    issues.push({ path: 'startedAt', message: 'Later than the submission time; an inspection starts first' });
+  return issues;
+}
+
 const rejected = (id: string | null, issues: Issue[]): RecordResult => ({ id, status: 'rejected', issues });
 
 /** The id the phone will look for in the answer, even when the rest of the record is unusable. */
@@ -260,6 +283,16 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   const parsed = inspectionRecordSchema.safeParse(raw);
   if (!parsed.success) return rejected(idOf(raw), zodIssues(parsed.error));
   const record = parsed.data;
+  // The token says who is sending; a record written on the phone by someone else (a shared phone) is
+  // theirs to send, never this person's.
+  if (record.authorId !== undefined && record.authorId !== ctx.user.id)
+    return rejected(record.id, [
+      {
+        path: 'authorId',
+        message:
+          'This inspection was recorded by another person; it can only be sent when they are signed in',
+      },
+    ]);
   const sameIds = duplicateIds(record);
   if (sameIds.length) return rejected(record.id, sameIds);
 
@@ -286,6 +319,8 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   if (untrue.length) return rejected(record.id, untrue);
   const mistyped = enteredIssues(record);
   if (mistyped.length) return rejected(record.id, mistyped);
+  const untimely = timeOfRecordIssues(record, ctx.receivedAt);
+  if (untimely.length) return rejected(record.id, untimely);
 
   const ride = rideOf(ctx, record.rideId);
   if (!ride)
