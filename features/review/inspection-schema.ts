@@ -249,6 +249,11 @@ export const inspectionDetailSchema = z.object({
   readings: z.array(inspectionReadingSchema),
   photos: z.array(inspectionPhotoSchema),
   amendedBy: z.array(z.object({ id: z.string(), submittedAt: z.string() })).default([]),
+  /**
+   * Why the person reading may not approve it (they recorded it, and the inspection body does not allow
+   * approving one's own), or null; absent from older servers.
+   */
+  approvalRefusal: z.string().nullable().optional(),
   // Added by the findings work; a shape this screen does not know must not blank the whole page.
   findings: z.array(findingSchema).optional().catch(undefined),
 });

@@ -232,6 +232,7 @@ function DecisionColumn({
       reviewNote={inspection.reviewNote}
       photos={inspection.photos.map((p) => ({ sha256: p.sha256, caption: p.caption }))}
       envelope={inspection.analysis?.envelope}
+      approvalRefusal={inspection.approvalRefusal}
     />
   ) : (
     <Card>

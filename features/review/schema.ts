@@ -97,6 +97,21 @@ export const decisionResponseSchema = z.object({
 });
 export type DecisionResponse = z.infer<typeof decisionResponseSchema>;
 
+// ——— approving one's own inspections ———
+
+/**
+ * `GET /api/settings/self-approval` (staff) and `PUT` (admins): whether a supervisor (or administrator) may
+ * approve an inspection they recorded themselves. Off unless an administrator turns it on: a second pair
+ * of eyes on every approval is the safe default.
+ */
+export const selfApprovalSettingSchema = z.object({
+  allowed: z.boolean(),
+  updatedAt: z.string().nullable(),
+  updatedByName: z.string().nullable(),
+});
+export type SelfApprovalSetting = z.infer<typeof selfApprovalSettingSchema>;
+export const selfApprovalInputSchema = z.strictObject({ allowed: z.boolean({ error: 'true or false' }) });
+
 // ——— the queue ———
 
 const queueSortKeys = ['urgency', 'newest', 'oldest', 'ride'] as const;

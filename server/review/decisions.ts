@@ -19,11 +19,12 @@ import { severityInfo } from '@/features/notices/finding-schema';
 import { checkTransition, eventForStatus, type RideStatus } from '@/features/rides/status-rules';
 import type { Db } from '@/server/db';
 import { findingNumber, mustSeeInspection, type InspectionHead } from '@/server/findings/findings';
-import { conflict } from '@/server/http/errors';
+import { conflict, HttpError } from '@/server/http/errors';
 import { issueInspectionNotice, issueStatusNotice } from '@/server/notices/issue';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 import { recordAudit } from '@/server/registry/audit';
 import { mustFindRide } from '@/server/registry/rides';
+import { approvalRefusal } from '@/server/review/self-approval';
 import { updateSchedule } from '@/server/registry/schedules';
 import {
   applyStatus,
@@ -108,9 +109,25 @@ function mustBeUndecided(tx: Tx, before: InspectionHead) {
     );
 }
 
+/**
+ * The day an inspection counts as done: the phone's submission day, unless the server received it earlier
+ * than that (a phone clock running ahead, or a record stored before ingest refused future times) — the
+ * schedule never moves on a time only the phone vouches for.
+ */
+function doneOnOf(tx: Tx, before: InspectionHead): string {
+  const row = tx
+    .select({ receivedAt: inspections.receivedAt })
+    .from(inspections)
+    .where(eq(inspections.id, before.id))
+    .get();
+  const submitted = Date.parse(before.submittedAt);
+  const received = row ? Date.parse(row.receivedAt) : Number.NaN;
+  return isoDay(Number.isNaN(received) || submitted <= received ? submitted : received);
+}
+
 /** An approval records the inspection as done on the ride's schedule of its type. */
 function recordDoneOnSchedule(db: Db, tx: Tx, user: SessionUser, before: InspectionHead, now: Date) {
-  const doneOn = isoDay(new Date(before.submittedAt));
+  const doneOn = doneOnOf(tx, before);
   const schedule = tx
     .select({ id: inspectionSchedules.id, lastDoneOn: inspectionSchedules.lastDoneOn })
     .from(inspectionSchedules)
@@ -251,6 +268,8 @@ export function decideInspection(
   return db.transaction((tx) => {
     const before = mustSeeInspection(tx, user, inspectionId);
     mustBeUndecided(tx, before);
+    const refusal = input.decision === 'approve' ? approvalRefusal(tx, user, before.inspectorId) : null;
+    if (refusal) throw new HttpError(403, 'own_inspection', refusal);
 
     const reviewState = input.decision === 'approve' ? 'approved' : 'returned';
     const ride = mustFindRide(tx, before.rideId);

@@ -7,6 +7,7 @@ import { currentUser, requireAuth, requireRole } from '@/server/auth/require-aut
 import { validate } from '@/server/http/validate';
 import { inspectionReport } from '@/server/reports/inspection-report';
 import { renderInspectionReportPdf } from '@/server/reports/inspection-report-pdf';
+import { approvalRefusal } from '@/server/review/self-approval';
 import { getInspection, listInspections } from '@/server/sync/read';
 
 const byId = validate({ params: z.object({ id: z.string().trim().min(1).max(64) }) });
@@ -44,7 +45,11 @@ export function inspectionsRouter(deps: ApiDeps): Router {
   });
 
   router.get('/inspections/:id', ...staff, byId, (_req, res) => {
-    res.json({ inspection: getInspection(deps.db, currentUser(res), byId.params(res).id) });
+    const user = currentUser(res);
+    const inspection = getInspection(deps.db, user, byId.params(res).id);
+    res.json({
+      inspection: { ...inspection, approvalRefusal: approvalRefusal(deps.db, user, inspection.inspectorId) },
+    });
   });
 
   router.get('/inspections/:id/report.pdf', ...staff, reportInput, async (_req, res) => {

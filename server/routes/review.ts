@@ -1,7 +1,11 @@
 import { Router } from 'express';
 
 import { idParamsSchema } from '@/features/registry/schema';
-import { queueQuerySchema, rideStatusChangeInputSchema } from '@/features/review/schema';
+import {
+  queueQuerySchema,
+  rideStatusChangeInputSchema,
+  selfApprovalInputSchema,
+} from '@/features/review/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
@@ -9,9 +13,11 @@ import { validate } from '@/server/http/validate';
 import { readQueueJson } from '@/server/queue/queue';
 import { queueToday } from '@/server/queue/queue-refresh';
 import { changeRideStatus } from '@/server/review/ride-status';
+import { getSelfApprovalSetting, setSelfApproval } from '@/server/review/self-approval';
 
 const queueInput = validate({ query: queueQuerySchema });
 const statusInput = validate({ params: idParamsSchema, body: rideStatusChangeInputSchema });
+const selfApprovalInput = validate({ body: selfApprovalInputSchema });
 
 /**
  * The supervisors' review desk (supervisors and admins; inspectors and operators get 403).
@@ -26,6 +32,8 @@ const statusInput = validate({ params: idParamsSchema, body: rideStatusChangeInp
  *   a decision, under the status rules (`features/review/status-rules.ts`): a stop or restriction
  *   (supervisor, admin) or an override back towards service (supervisor only); the reason is required;
  *   recorded, audited, and one notice to the operator. 403 when the rules refuse the role, 409 on no change.
+ * - `GET /settings/self-approval` → `{ selfApproval: { allowed, updatedAt, updatedByName } }`; `PUT` (admins)
+ *   `{ allowed }` → the same, audited: whether a supervisor may approve an inspection they recorded.
  */
 export function reviewRouter(deps: ApiDeps): Router {
   const router = Router();
@@ -51,6 +59,21 @@ export function reviewRouter(deps: ApiDeps): Router {
     );
     res.json({ ride: { id: ride.id, status: ride.status, statusReason: ride.statusReason }, notice });
   });
+
+  router.get('/settings/self-approval', ...deciders, (_req, res) => {
+    res.json({ selfApproval: getSelfApprovalSetting(deps.db) });
+  });
+
+  router.put(
+    '/settings/self-approval',
+    requireAuth(deps),
+    requireRole('admin'),
+    selfApprovalInput,
+    (_req, res) => {
+      const { allowed } = selfApprovalInput.body(res);
+      res.json({ selfApproval: setSelfApproval(deps.db, currentUser(res).id, allowed, nowOf(deps)) });
+    },
+  );
 
   return router;
 }

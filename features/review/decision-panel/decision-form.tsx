@@ -8,6 +8,7 @@ import { Button } from '@/components/button';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { applyServerError, fieldsOf } from '@/components/form/server-errors';
 import type { RideStatus } from '@/components/status-mark';
+import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { type ListedFinding, useDecide } from '@/features/review/decision-api';
 import { approvalConcerns, approvalWarning } from '@/features/review/decision-panel/approval-concerns';
@@ -29,6 +30,7 @@ export function DecisionForm({
   rideStatus,
   findings,
   envelope,
+  approvalRefusal,
 }: {
   decide: ReturnType<typeof useDecide>;
   problem: FormProblem | null;
@@ -39,6 +41,8 @@ export function DecisionForm({
   rideStatus: RideStatus;
   findings: readonly ListedFinding[];
   envelope: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
+  /** The server's reason this person may not approve (their own inspection), or null. */
+  approvalRefusal: string | null;
 }) {
   const [warning, setWarning] = useState<'hard' | 'soft' | null>(null);
   const [choice, setChoice] = useState<StatusChoice>('keep');
@@ -136,7 +140,12 @@ export function DecisionForm({
         />
       ) : null}
       <FormAlert problem={problem} />
-      <DecisionButtons decide={decide} onApprove={() => approve(false)} onReturn={giveBack} />
+      {approvalRefusal ? <Text testID="approval-refusal">{approvalRefusal}</Text> : null}
+      <DecisionButtons
+        decide={decide}
+        onApprove={approvalRefusal ? null : () => approve(false)}
+        onReturn={giveBack}
+      />
     </View>
   );
 }
@@ -180,18 +189,21 @@ function DecisionButtons({
   onReturn,
 }: {
   decide: ReturnType<typeof useDecide>;
-  onApprove: () => void;
+  /** Null when this person may not approve: the button is not offered at all. */
+  onApprove: (() => void) | null;
   onReturn: () => void;
 }) {
   return (
     <View style={sharedStyles.buttons}>
-      <Button
-        label="Approve inspection"
-        tone="accent"
-        busy={decide.isPending && decide.variables?.decision === 'approve'}
-        disabled={decide.isPending}
-        onPress={onApprove}
-      />
+      {onApprove ? (
+        <Button
+          label="Approve inspection"
+          tone="accent"
+          busy={decide.isPending && decide.variables?.decision === 'approve'}
+          disabled={decide.isPending}
+          onPress={onApprove}
+        />
+      ) : null}
       <Button
         label="Return to inspector"
         tone="quiet"

@@ -25,6 +25,8 @@ type Props = {
   photos: { sha256: string; caption: string }[];
   /** The server's checked values against their limits (the analysis envelope), for the approve warning. */
   envelope?: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
+  /** Why this person may not approve it (their own inspection), from the server; null or absent: they may. */
+  approvalRefusal?: string | null;
 };
 
 /**
@@ -98,6 +100,7 @@ export function DecisionPanel(props: Props) {
             rideStatus={rideStatus}
             findings={findings.data?.findings ?? []}
             envelope={props.envelope ?? []}
+            approvalRefusal={props.approvalRefusal ?? null}
           />
         </Card>
       ) : null}
