@@ -2,11 +2,12 @@
  * Drafts: the inspection being recorded, saved whole on every change (one small transaction: is it
  * still a draft, then an upsert), and moved to the outbox on submit.
  */
-import { desc, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 
 import { drafts, outbox, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
+import { getDeviceOwner, ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
 import { queuePhotosForUpload } from '@/features/device-db/photos';
 import { type InspectionRecord, inspectionRecordSchema } from '@/features/records/schema';
@@ -48,10 +49,18 @@ export async function saveDraft(
   }
   if (json === undefined) throw new DeviceDataError('The draft cannot be saved: it has no data.');
   const at = now.toISOString();
-  const row = { id: key.data.id, rideId: key.data.rideId, json, createdAt: at, updatedAt: at };
   await dev.transaction(async (tx) => {
-    const sent = await tx.db.select({ id: outbox.id }).from(outbox).where(eq(outbox.id, row.id)).get();
+    const sent = await tx.db.select({ id: outbox.id }).from(outbox).where(eq(outbox.id, key.data.id)).get();
     if (sent) throw new DeviceDataError('This inspection was submitted and can no longer be changed.');
+    const authorId = await getDeviceOwner(tx);
+    const theirs = await tx.db
+      .select({ authorId: drafts.authorId })
+      .from(drafts)
+      .where(eq(drafts.id, key.data.id))
+      .get();
+    if (theirs && theirs.authorId !== authorId)
+      throw new DeviceDataError('This draft belongs to someone else on this phone.');
+    const row = { id: key.data.id, rideId: key.data.rideId, json, createdAt: at, updatedAt: at, authorId };
     await tx.db
       .insert(drafts)
       .values(row)
@@ -64,7 +73,11 @@ export async function saveDraft(
 }
 
 export async function loadDraft<T = unknown>(dev: DeviceDb, id: string): Promise<Draft<T> | null> {
-  const row = await dev.db.select().from(drafts).where(eq(drafts.id, id)).get();
+  const row = await dev.db
+    .select()
+    .from(drafts)
+    .where(and(eq(drafts.id, id), ownedBy(drafts.authorId)))
+    .get();
   if (!row) return null;
   return {
     id: row.id,
@@ -75,7 +88,7 @@ export async function loadDraft<T = unknown>(dev: DeviceDb, id: string): Promise
   };
 }
 
-/** Drafts, most recently changed first; without their data, so listing stays cheap. */
+/** The signed-in person's drafts, most recently changed first; without their data, so listing stays cheap. */
 export async function listDrafts(dev: DeviceDb, rideId?: string): Promise<DraftSummary[]> {
   const query = dev.db
     .select({
@@ -85,19 +98,24 @@ export async function listDrafts(dev: DeviceDb, rideId?: string): Promise<DraftS
       updatedAt: drafts.updatedAt,
     })
     .from(drafts);
-  const filtered = rideId ? query.where(eq(drafts.rideId, rideId)) : query;
+  const mine = ownedBy(drafts.authorId);
+  const filtered = query.where(rideId ? and(mine, eq(drafts.rideId, rideId)) : mine);
   return filtered.orderBy(desc(drafts.updatedAt)).all();
 }
 
 /** Discards a draft (the inspector's explicit choice). Its photos stay until a clean-up removes unused ones. */
 export async function deleteDraft(dev: DeviceDb, id: string): Promise<void> {
-  await dev.db.delete(drafts).where(eq(drafts.id, id)).run();
+  await dev.db
+    .delete(drafts)
+    .where(and(eq(drafts.id, id), ownedBy(drafts.authorId)))
+    .run();
 }
 
 /**
  * Submit: the finished record goes into the outbox and its draft is removed, in one transaction. The
  * record must pass the shared schema and every photo it names must be stored on the phone; otherwise
- * nothing changes and the error lists what to fix.
+ * nothing changes and the error lists what to fix. The record carries its author (the phone's person), so
+ * the server can refuse it under anyone else's name.
  */
 export async function submitDraft(
   dev: DeviceDb,
@@ -110,12 +128,20 @@ export async function submitDraft(
       'The inspection is not complete or has invalid values.',
       issuesOf(parsed.error),
     );
-  const rec = parsed.data;
+  let rec = parsed.data;
   const shas = [...new Set(rec.photos.map((p) => p.sha256))];
   const at = now.toISOString();
   await dev.transaction(async (tx) => {
     const sent = await tx.db.select({ id: outbox.id }).from(outbox).where(eq(outbox.id, rec.id)).get();
     if (sent) throw new DeviceDataError('This inspection was already submitted.');
+    const authorId = await getDeviceOwner(tx);
+    if (authorId !== null) {
+      if (rec.authorId !== undefined && rec.authorId !== authorId)
+        throw new DeviceDataError('This inspection was recorded by someone else.', [
+          { path: 'authorId', message: 'Not the person signed in on this phone' },
+        ]);
+      rec = { ...rec, authorId };
+    }
     if (shas.length > 0) {
       const held = new Set(
         (
@@ -143,6 +169,7 @@ export async function submitDraft(
         attempts: 0,
         createdAt: at,
         updatedAt: at,
+        authorId: rec.authorId ?? null,
       })
       .run();
     await queuePhotosForUpload(tx, shas, now);

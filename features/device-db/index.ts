@@ -7,9 +7,18 @@ export type { OutboxIssue, OutboxItem } from '@/features/device-db/outbox';
 export {
   getPhotoBytes,
   getPhotoDataUri,
+  listOwnPhotoBlobs,
   listPhotoBlobs,
   markPhotoUploaded,
   putPhotoBlob,
 } from '@/features/device-db/photos';
 export type { PhotoBlob } from '@/features/device-db/photos';
 export { getAllSyncMeta, getSyncMeta, setSyncMeta } from '@/features/device-db/sync-meta';
+export {
+  bindDeviceOwner,
+  countUnsentWork,
+  getDeviceOwner,
+  ownedBy,
+  releaseDeviceOwner,
+} from '@/features/device-db/device-owner';
+export type { UnsentWork } from '@/features/device-db/device-owner';

@@ -3,6 +3,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 
 import { type OutboxRow, type OutboxState, outbox, outboxStates } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
+import { ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
 import type { InspectionRecord } from '@/features/records/schema';
 
@@ -21,16 +22,24 @@ function toOutboxItem(row: OutboxRow): OutboxItem {
   };
 }
 
+/** The signed-in person's outbox rows (another person's stay sealed: see device-owner.ts). */
 export async function listOutbox(dev: DeviceDb, states?: OutboxState[]): Promise<OutboxItem[]> {
-  const query = dev.db.select().from(outbox);
-  const rows = states
-    ? await query.where(inArray(outbox.state, states)).orderBy(asc(outbox.createdAt)).all()
-    : await query.orderBy(asc(outbox.createdAt)).all();
+  const mine = ownedBy(outbox.authorId);
+  const rows = await dev.db
+    .select()
+    .from(outbox)
+    .where(states ? and(mine, inArray(outbox.state, states)) : mine)
+    .orderBy(asc(outbox.createdAt))
+    .all();
   return rows.map(toOutboxItem);
 }
 
 export async function getOutboxItem(dev: DeviceDb, id: string): Promise<OutboxItem | null> {
-  const row = await dev.db.select().from(outbox).where(eq(outbox.id, id)).get();
+  const row = await dev.db
+    .select()
+    .from(outbox)
+    .where(and(eq(outbox.id, id), ownedBy(outbox.authorId)))
+    .get();
   return row ? toOutboxItem(row) : null;
 }
 
@@ -38,6 +47,7 @@ export async function countOutbox(dev: DeviceDb): Promise<Record<OutboxState, nu
   const rows = await dev.db
     .select({ state: outbox.state, n: sql<number>`count(*)` })
     .from(outbox)
+    .where(ownedBy(outbox.authorId))
     .groupBy(outbox.state)
     .all();
   const counts = Object.fromEntries(outboxStates.map((s) => [s, 0])) as Record<OutboxState, number>;
@@ -51,7 +61,11 @@ export async function countOutbox(dev: DeviceDb): Promise<Record<OutboxState, nu
  */
 export async function requeueRejected(dev: DeviceDb, id: string, now = new Date()): Promise<void> {
   await dev.transaction(async (tx) => {
-    const row = await tx.db.select({ state: outbox.state }).from(outbox).where(eq(outbox.id, id)).get();
+    const row = await tx.db
+      .select({ state: outbox.state })
+      .from(outbox)
+      .where(and(eq(outbox.id, id), ownedBy(outbox.authorId)))
+      .get();
     if (!row) throw new DeviceDataError('No such record in the outbox.');
     if (row.state !== 'rejected') throw new DeviceDataError(`The record is ${row.state}, not rejected.`);
     await tx.db

@@ -9,6 +9,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 
 import { type PhotoBlobRow, type PhotoUploadState, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
+import { getDeviceOwner, ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
 import type { PhotoRef } from '@/features/records/schema';
 
@@ -70,6 +71,7 @@ export async function putPhotoBlob(
       .where(eq(photoBlobs.sha256, hash))
       .get();
     if (existing) return { sha256: hash, created: false };
+    const authorId = await getDeviceOwner(tx);
     await tx.db
       .insert(photoBlobs)
       .values({
@@ -80,6 +82,7 @@ export async function putPhotoBlob(
         uploadState: 'local',
         createdAt: at,
         updatedAt: at,
+        authorId,
       })
       .run();
     return { sha256: hash, created: true };
@@ -97,6 +100,7 @@ const blobColumns = {
   nextAttemptAt: photoBlobs.nextAttemptAt,
   createdAt: photoBlobs.createdAt,
   updatedAt: photoBlobs.updatedAt,
+  authorId: photoBlobs.authorId,
 };
 
 /** A photo's state without its bytes. */
@@ -128,6 +132,16 @@ export async function listPhotoBlobs(dev: DeviceDb, states?: PhotoUploadState[])
   return states
     ? query.where(inArray(photoBlobs.uploadState, states)).orderBy(asc(photoBlobs.createdAt)).all()
     : query.orderBy(asc(photoBlobs.createdAt)).all();
+}
+
+/** Like `listPhotoBlobs`, only the signed-in person's photos: what the sync status counts and uploads. */
+export async function listOwnPhotoBlobs(dev: DeviceDb, states: PhotoUploadState[]): Promise<PhotoBlob[]> {
+  return dev.db
+    .select(blobColumns)
+    .from(photoBlobs)
+    .where(and(ownedBy(photoBlobs.authorId), inArray(photoBlobs.uploadState, states)))
+    .orderBy(asc(photoBlobs.createdAt))
+    .all();
 }
 
 export async function markPhotoUploaded(dev: DeviceDb, sha: string, now = new Date()): Promise<void> {

@@ -14,7 +14,7 @@ import {
   cachedRides,
   decisions,
 } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db';
+import { type DeviceDb, getDeviceOwner, ownedBy } from '@/features/device-db';
 import { type RideSummary, rideSummarySchema } from '@/features/rides/schema';
 import {
   type PulledAssignment,
@@ -138,22 +138,26 @@ export async function writeDecisions(
   items: PulledDecision[],
   now = new Date(),
 ): Promise<void> {
+  const authorId = await getDeviceOwner(dev);
   for (const d of items) {
-    const row = { inspectionId: d.inspectionId, json: JSON.stringify(d), updatedAt: iso(now) };
+    const row = { inspectionId: d.inspectionId, json: JSON.stringify(d), updatedAt: iso(now), authorId };
     await dev.db
       .insert(decisions)
       .values(row)
       .onConflictDoUpdate({
         target: decisions.inspectionId,
-        set: { json: row.json, updatedAt: row.updatedAt },
+        set: { json: row.json, updatedAt: row.updatedAt, authorId },
       })
       .run();
   }
 }
 
-/** Every decision the phone holds, for the inspector's list of sent inspections. */
+/** Every decision the phone holds for the signed-in person, for their list of sent inspections. */
 export async function readDecisions(dev: DeviceDb): Promise<PulledDecision[]> {
-  return parseEach(pulledDecisionSchema, await dev.db.select().from(decisions).all());
+  return parseEach(
+    pulledDecisionSchema,
+    await dev.db.select().from(decisions).where(ownedBy(decisions.authorId)).all(),
+  );
 }
 
 export async function removeCached(

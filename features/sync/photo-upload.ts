@@ -7,7 +7,7 @@
 import { and, eq, inArray } from 'drizzle-orm';
 
 import { photoBlobs } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db';
+import { type DeviceDb, ownedBy } from '@/features/device-db';
 import { getPhotoBytes, markPhotoUploaded } from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import { type SendFailure, backoffMs, classifyFailure } from '@/features/sync/outbox-machine';
@@ -39,7 +39,7 @@ export async function uploadPhotos(
     })
     .from(photoBlobs)
     // `uploading` here means a run was interrupted: it goes again.
-    .where(inArray(photoBlobs.uploadState, ['pending', 'uploading']))
+    .where(and(inArray(photoBlobs.uploadState, ['pending', 'uploading']), ownedBy(photoBlobs.authorId)))
     .orderBy(photoBlobs.createdAt)
     .all();
 

@@ -5,10 +5,10 @@
  * stored. Per-record answers: accepted/duplicate → accepted; rejected → kept with the server's reasons;
  * no answer → queued again in a new batch. A failed request puts the whole batch back in the queue.
  */
-import { asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 
 import { type OutboxRow, outbox } from '@/db/device/schema';
-import type { DeviceDb } from '@/features/device-db';
+import { type DeviceDb, ownedBy } from '@/features/device-db';
 import type { InspectionRecord, PushResult } from '@/features/records/schema';
 import { pushResultSchema } from '@/features/records/schema';
 import type { SyncApi } from '@/features/sync/api';
@@ -91,7 +91,8 @@ async function claimBatch(
           bytes: sql<number>`length(${outbox.json})`,
         })
         .from(outbox)
-        .where(inArray(outbox.state, ['queued', 'sending']))
+        // Only the phone's person's records: another's stay sealed until they sign in again.
+        .where(and(inArray(outbox.state, ['queued', 'sending']), ownedBy(outbox.authorId)))
         .orderBy(asc(outbox.createdAt), asc(outbox.id))
         .all()
     ).filter((c) => !opts.skip.has(c.id) && isDue(c, opts.now, opts.force));
@@ -117,6 +118,11 @@ async function claimBatch(
     }
     return { batchId, rows };
   });
+}
+
+/** Records queued before phones wrote the author get it from their row (adopted by the phone's person). */
+function withAuthor(record: InspectionRecord, authorId: string | null): InspectionRecord {
+  return record.authorId === undefined && authorId !== null ? { ...record, authorId } : record;
 }
 
 /** The leading rows whose JSON adds up to at most `limit` characters, and always the first. */
@@ -168,7 +174,7 @@ export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptio
 
     let result: PushResult;
     try {
-      const records = batch.rows.map((r) => JSON.parse(r.json) as InspectionRecord);
+      const records = batch.rows.map((r) => withAuthor(JSON.parse(r.json) as InspectionRecord, r.authorId));
       result = pushResultSchema.parse(await api.push({ batchId: batch.batchId, records }));
     } catch (err) {
       const failure = classifyFailure(err);

@@ -12,9 +12,10 @@ import {
   listOutbox,
   requeueRejected,
   type PhotoBlob,
-  listPhotoBlobs,
+  listOwnPhotoBlobs,
   getAllSyncMeta,
 } from '@/features/device-db';
+import { tokenStore } from '@/features/session';
 import type { SyncApi } from '@/features/sync/api';
 import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
 import { createHttpSyncApi } from '@/features/sync/http-api';
@@ -90,8 +91,8 @@ class SyncController {
     const [counts, outboxItems, photos, refused, meta] = await Promise.all([
       countOutbox(this.dev),
       listOutbox(this.dev),
-      listPhotoBlobs(this.dev, ['pending', 'uploading']),
-      listPhotoBlobs(this.dev, ['rejected']),
+      listOwnPhotoBlobs(this.dev, ['pending', 'uploading']),
+      listOwnPhotoBlobs(this.dev, ['rejected']),
       getAllSyncMeta(this.dev),
     ]);
     this.set({
@@ -118,6 +119,7 @@ class SyncController {
       await syncOnce(this.api, this.dev, {
         newId: this.newId,
         force,
+        signedInUserId: (await tokenStore.get())?.user.id ?? null,
         onPhotoProgress: (p) => this.set({ currentPhoto: p }),
       });
     } catch (err) {

@@ -4,7 +4,7 @@
  * gets the running one.
  */
 import type { DeviceDb } from '@/features/device-db';
-import { setSyncMeta } from '@/features/device-db';
+import { getDeviceOwner, setSyncMeta } from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import type { SendFailure } from '@/features/sync/outbox-machine';
 import { type PhotoProgress, type PhotoUploadReport, uploadPhotos } from '@/features/sync/photo-upload';
@@ -15,6 +15,11 @@ type SyncRunOptions = {
   newId: () => string;
   now?: () => Date;
   force?: boolean;
+  /**
+   * Whose token the requests carry. When given and the phone is bound to someone else (a change of person
+   * is under way), nothing is sent or pulled: the records would go under the wrong name.
+   */
+  signedInUserId?: string | null;
   onPhotoProgress?: (progress: PhotoProgress) => void;
 };
 
@@ -38,6 +43,16 @@ export function syncOnce(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): 
 
 async function runSync(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): Promise<SyncRunReport> {
   const clock = options.now ?? (() => new Date());
+  if (options.signedInUserId !== undefined) {
+    const owner = await getDeviceOwner(dev);
+    if (options.signedInUserId === null || owner !== options.signedInUserId)
+      return {
+        push: { batches: 0, accepted: 0, rejected: 0, requeued: 0, failure: null },
+        photos: null,
+        pull: null,
+        error: null,
+      };
+  }
   await setSyncMeta(dev, 'lastAttemptAt', clock().toISOString());
   const stop = (f: SendFailure | null) => f !== null && (f.kind === 'network' || f.kind === 'auth');
 
