@@ -24,6 +24,7 @@ import { companyScope } from '@/server/auth/scope';
 import type { Db } from '@/server/db';
 import { findingNumber } from '@/server/findings/findings';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
+import { operatorMaySeePhoto } from '@/server/notices/photo-access';
 import { currentFindings } from '@/server/notices/read';
 import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
 import { recordAudit } from '@/server/registry/audit';
@@ -125,17 +126,21 @@ export function rideNow(db: Reader, rideId: string) {
 
 /**
  * `photoShas` must name photos the server already has (uploaded with PUT /api/photos/:sha256); a 400
- * names each one that is missing.
+ * names each one that is missing. An operator (`scopeOf` their company) may attach only photos their
+ * company uploaded or can already see: anyone else's counts as missing, in the same words, so knowing a
+ * hash neither reaches a photo nor tells whether it exists.
  */
-export function assertPhotosUploaded(db: Reader, shas: string[]) {
+export function assertPhotosUploaded(db: Pick<Db, 'select' | 'get'>, shas: string[], scopeOf?: SessionUser) {
   if (shas.length === 0) return;
+  const company = scopeOf ? companyScope(scopeOf) : null;
   const have = new Set(
     db
       .select({ sha256: photos.sha256 })
       .from(photos)
       .where(inArray(photos.sha256, shas))
       .all()
-      .map((p) => p.sha256),
+      .map((p) => p.sha256)
+      .filter((sha) => company === null || operatorMaySeePhoto(db, company, sha)),
   );
   const issues = shas.flatMap((sha, i) =>
     have.has(sha)
@@ -169,7 +174,7 @@ export function reportCorrectiveAction(
           'back, ask the inspection body to reopen it.',
         'finding_closed',
       );
-    assertPhotosUploaded(tx, input.photoShas);
+    assertPhotosUploaded(tx, input.photoShas, user);
     const at = now.toISOString();
     const action = tx
       .insert(correctiveActions)
