@@ -8,6 +8,7 @@ import { alias } from 'drizzle-orm/sqlite-core';
 
 import { inspectionReadings, inspections } from '@/db/server/inspections';
 import type { TrendsResponse } from '@/features/review/schema';
+import type { SessionUser } from '@/features/session/schema';
 import type { Db } from '@/server/db';
 import { findDesignVersion } from '@/server/registry/design';
 import { mustFindRide } from '@/server/registry/rides';
@@ -17,7 +18,11 @@ const TRENDS_LIMIT = 1000;
 
 const amendment = alias(inspections, 'amendment');
 
-export function rideTrends(db: Pick<Db, 'select'>, rideId: string): TrendsResponse {
+/**
+ * Scoped like the inspections themselves (server/sync/read.ts): staff see every inspection of the ride,
+ * an inspector only their own, so another inspector's readings never reach them through a chart.
+ */
+export function rideTrends(db: Pick<Db, 'select'>, user: SessionUser, rideId: string): TrendsResponse {
   mustFindRide(db, rideId);
   const design = findDesignVersion(db, rideId)?.data ?? null;
   const jointCount = design?.bodies.length ?? 0;
@@ -49,6 +54,7 @@ export function rideTrends(db: Pick<Db, 'select'>, rideId: string): TrendsRespon
     .where(
       and(
         eq(inspections.rideId, rideId),
+        user.role === 'inspector' ? eq(inspections.inspectorId, user.id) : undefined,
         notExists(
           db.select({ id: amendment.id }).from(amendment).where(eq(amendment.amendsId, inspections.id)),
         ),

@@ -37,7 +37,7 @@ const decisionInput = validate({ params: idParamsSchema, body: decisionInputSche
  *   it was submitted, newest first
  * - `GET /inspections/:id/cycle` → the ride cycle the load check rests on, as `POST /loads/cycle` answers
  * - `GET /rides/:id/trends` → the ride's inspections oldest first with peak forces, pin diameters and
- *   clearances
+ *   clearances (an inspector's own only, as with the inspections themselves)
  */
 export function findingsRouter(deps: ApiDeps): Router {
   const router = Router();
@@ -100,7 +100,7 @@ export function findingsRouter(deps: ApiDeps): Router {
   });
 
   router.get('/rides/:id/trends', ...staff, byId, (_req, res) => {
-    const body: TrendsResponse = rideTrends(deps.db, byId.params(res).id);
+    const body: TrendsResponse = rideTrends(deps.db, currentUser(res), byId.params(res).id);
     res.json(body);
   });
 

@@ -12,7 +12,7 @@ import { trendsResponseSchema } from '@/features/review/schema';
 
 import { expectApiError, makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
-import { pushAccepted } from './review-desk-fixtures';
+import { pushAccepted, secondInspector } from './review-desk-fixtures';
 import { demoRide, makeRecord } from './sync-fixtures';
 
 // Seeding hashes five passwords; on a busy machine that alone can take seconds.
@@ -144,4 +144,18 @@ test('a ride with no inspections has its joints and no points; staff read, opera
   expectApiError(await api.operator.get(`/api/rides/${skylark.id}/trends`), 403, 'forbidden');
   expectApiError(await api.anonymous.get(`/api/rides/${skylark.id}/trends`), 401, 'unauthorized');
   expectApiError(await api.supervisor.get('/api/rides/missing/trends'), 404, 'not_found');
+});
+
+test('an inspector sees only their own inspections in a ride’s trends, as with the inspections themselves', async () => {
+  const other = await secondInspector(server.app, server.db, 'trends.other@pivotwatch.test');
+  const theirs = inspectionOn('2026-05-12', 104, 0.1597, 0.0003);
+  const res = await other.post('/api/sync/push', { batchId: randomUUID(), records: [theirs] });
+  expect(res.body.results[0].status).toBe('accepted');
+  const idsFor = async (client: Pick<Clients['inspector'], 'get'>) =>
+    trendsResponseSchema
+      .parse((await client.get(`/api/rides/${skylark.id}/trends`)).body)
+      .points.map((p) => p.inspectionId);
+  expect(await idsFor(api.inspector)).not.toContain(theirs.id);
+  expect(await idsFor(other)).toEqual([theirs.id]);
+  expect(await idsFor(api.supervisor)).toContain(theirs.id);
 });
