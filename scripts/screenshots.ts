@@ -1,6 +1,7 @@
 /**
  * Screenshots of every role's pages at phone and desktop size, from a running Pivotwatch
- * (`npm start` first). `npx tsx scripts/screenshots.ts [baseUrl] [path ...]` → artifacts/screenshots/.
+ * (`npm start` first; it listens on loopback and seeds the demo users there).
+ * `npx tsx scripts/screenshots.ts [baseUrl] [path ...]` → artifacts/screenshots/.
  * Extra paths are visited after sign-in (e.g. /loads) for each role that can open them.
  */
 import { mkdirSync } from 'node:fs';
@@ -13,7 +14,7 @@ const roles = ['inspector', 'supervisor', 'operator', 'admin'];
 const sizes = { phone: { width: 390, height: 844 }, desktop: { width: 1440, height: 900 } };
 
 async function main() {
-  const [baseUrl = 'http://localhost:8080', ...paths] = process.argv.slice(2);
+  const [baseUrl = 'http://127.0.0.1:8080', ...paths] = process.argv.slice(2);
   const out = join(__dirname, '..', 'artifacts', 'screenshots', 'manual');
   mkdirSync(out, { recursive: true });
   const browser = await chromium.launch(launchOptions());

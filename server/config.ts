@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
+import { isIP } from 'node:net';
 import path from 'node:path';
 
 import { z } from 'zod';
@@ -9,6 +10,8 @@ const logLevels = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']
 /** `90s`, `30m`, `12h`, `7d` or a bare number of seconds. */
 const ttlPattern = /^(\d+)\s*(s|m|h|d)?$/;
 const ttlUnitSeconds = { s: 1, m: 60, h: 3600, d: 86400 } as const;
+/** A session token lasts at most a week: one that leaks (a lost phone, a shared browser) must die on its own. */
+const maxTtlSeconds = 7 * 86400;
 
 /** Read from the environment; empty strings count as unset so `FOO= npm start` falls back to the default. */
 const emptyAsUnset = (value: unknown) => (value === '' ? undefined : value);
@@ -56,6 +59,10 @@ const envSchema = z.object({
       .trim()
       .regex(ttlPattern, 'must look like 90s, 30m, 12h or 7d')
       .refine((v) => ttlSeconds(v) > 0, 'must be longer than zero')
+      .refine(
+        (v) => ttlSeconds(v) <= maxTtlSeconds,
+        'must be at most 7d (604800 seconds): a token that leaks has to stop working within a week',
+      )
       .default('12h'),
   ),
   NODE_ENV: z.preprocess(emptyAsUnset, z.enum(['development', 'production', 'test']).default('development')),
@@ -67,17 +74,16 @@ const envSchema = z.object({
   PHOTO_UPLOADS_PER_HOUR: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).default(300)),
   PHOTO_MB_PER_DAY: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).default(500)),
   PHOTO_GRACE_DAYS: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).max(3650).default(14)),
-  SEED_DEMO: z.preprocess(emptyAsUnset, z.enum(['0', '1']).optional()),
-  TRUST_PROXY: z.preprocess(
+  HOST: z.preprocess(
     emptyAsUnset,
     z
       .string()
-      .regex(
-        /^(true|false|\d+|[\w.:/, -]+)$/,
-        'must be true, false, a hop count or a list of proxy addresses',
-      )
-      .optional(),
+      .trim()
+      .refine(isListenHost, 'must be an IP address (127.0.0.1, 0.0.0.0, ::) or a host name')
+      .default('127.0.0.1'),
   ),
+  SEED_DEMO: z.preprocess(emptyAsUnset, z.enum(['0', '1']).optional()),
+  TRUST_PROXY: z.preprocess(emptyAsUnset, z.string().trim().transform(parseTrustProxy).optional()),
   SMTP_URL: z.preprocess(
     emptyAsUnset,
     z
@@ -112,6 +118,11 @@ export type Env = Record<string, string | undefined>;
 
 export type Config = {
   port: number;
+  /**
+   * The interface the server listens on (HOST). Loopback (127.0.0.1) by default, so a fresh `npm start` is
+   * reachable from this machine only; `0.0.0.0` or `::` opens it to the network (then run it for real: README).
+   */
+  host: string;
   /** Absolute path; holds the database, the generated JWT secret and uploaded files. */
   dataDir: string;
   /** Absolute path of the web export served on the same origin. */
@@ -132,13 +143,18 @@ export type Config = {
   photoQuota: { perHour: number; bytesPerDay: number };
   /** Days a photo no record, finding, corrective action or notice uses is kept (PHOTO_GRACE_DAYS, 14). */
   photoGraceDays: number;
-  /** Whether start-up may seed the demo scenario into an empty database (never in production). */
+  /**
+   * Whether start-up may seed the demo scenario (users with a published password) into an empty database:
+   * with SEED_DEMO=1, or outside production when HOST is a loopback address and SEED_DEMO is not 0. Never in
+   * production (SEED_DEMO=1 there is refused).
+   */
   seedDemo: boolean;
   /**
-   * Express's `trust proxy`: behind a reverse proxy the sign-in limit must count each client's own address,
-   * not the proxy's, or one person's typos would lock everyone out. Off by default.
+   * Express's `trust proxy` (TRUST_PROXY): behind a reverse proxy the sign-in limits must count each
+   * client's own address, not the proxy's. A hop count or the proxies' addresses, never `true` (that would
+   * believe any X-Forwarded-For, so anyone could pick the address the limits count). Off by default.
    */
-  trustProxy: boolean | number | string;
+  trustProxy: false | number | string[];
   /**
    * Where notice e-mails go out (SMTP_URL). Unset outside production means the built-in loopback mailbox
    * (server/mail/fake-smtp.ts) receives them; production refuses to start without it.
@@ -164,10 +180,86 @@ function ttlSeconds(value: string): number {
   return Number(match[1]) * ttlUnitSeconds[unit];
 }
 
-function parseTrustProxy(value: string | undefined): boolean | number | string {
-  if (value === undefined || value === 'false') return false;
-  if (value === 'true') return true;
-  return /^\d+$/.test(value) ? Number(value) : value;
+/** An IP address or a host name that `listen()` can resolve. */
+function isListenHost(value: string): boolean {
+  return isIP(value) !== 0 || /^[a-z\d]([a-z\d-]*[a-z\d])?(\.[a-z\d]([a-z\d-]*[a-z\d])?)*$/i.test(value);
+}
+
+/** Whether HOST keeps the server on this machine: 127.0.0.0/8, ::1 (also IPv4-mapped) or `localhost`. */
+export function isLoopbackHost(host: string): boolean {
+  const h = host.toLowerCase().replace(/^::ffff:/, '');
+  return h === 'localhost' || h === '::1' || (isIP(h) === 4 && h.startsWith('127.'));
+}
+
+/** The ranges `proxy-addr` (under Express's `trust proxy`) knows by name. */
+const namedProxyRanges = ['loopback', 'linklocal', 'uniquelocal'];
+
+function isProxyAddress(item: string): boolean {
+  if (namedProxyRanges.includes(item)) return true;
+  const [address, prefix, ...rest] = item.split('/');
+  const family = isIP(address);
+  if (family === 0 || rest.length > 0) return false;
+  if (prefix === undefined) return true;
+  // A prefix length, or (IPv4 only) a netmask such as 255.255.255.0, as proxy-addr accepts.
+  if (/^\d{1,3}$/.test(prefix)) return Number(prefix) <= (family === 4 ? 32 : 128);
+  return family === 4 && isIP(prefix) === 4;
+}
+
+/** TRUST_PROXY: `false`/`0` (off), a hop count, or a comma-separated list of proxy addresses/ranges. */
+function parseTrustProxy(value: string, ctx: z.RefinementCtx): false | number | string[] {
+  if (value === 'false' || value === '0') return false;
+  if (value === 'true') {
+    ctx.addIssue({
+      code: 'custom',
+      message:
+        'must not be true: that believes any X-Forwarded-For header, so anyone could choose the address the ' +
+        'sign-in limits count. Give the number of proxies in front of Pivotwatch (e.g. 1) or their ' +
+        'addresses (e.g. loopback or 10.0.0.5)',
+    });
+    return z.NEVER;
+  }
+  if (/^\d+$/.test(value)) return Number(value);
+  const items = value.split(',').map((item) => item.trim());
+  const bad = items.filter((item) => !isProxyAddress(item));
+  if (bad.length > 0) {
+    ctx.addIssue({
+      code: 'custom',
+      message:
+        `${bad.map((b) => `"${b}"`).join(', ')} is not a hop count, an IP address or range (10.0.0.0/8), ` +
+        'or loopback, linklocal or uniquelocal',
+    });
+    return z.NEVER;
+  }
+  return items;
+}
+
+/** Production never seeds demo users; refusing SEED_DEMO=1 there says so rather than ignoring it. */
+function demoSeeding(e: { NODE_ENV: Config['nodeEnv']; SEED_DEMO?: '0' | '1'; HOST: string }): boolean {
+  if (e.NODE_ENV === 'production') {
+    if (e.SEED_DEMO === '1') {
+      throw new ConfigError(
+        'Invalid server configuration:\n  SEED_DEMO: must not be 1 in production: the demo users share a ' +
+          'published password. Create the first administrator with `npm run create-admin` instead.',
+      );
+    }
+    return false;
+  }
+  if (e.SEED_DEMO !== undefined) return e.SEED_DEMO === '1';
+  return isLoopbackHost(e.HOST);
+}
+
+/** One line for the start-up log: whether demo data may be seeded, and which rule decided it. */
+export function demoSeedingReason(config: Pick<Config, 'seedDemo' | 'host' | 'nodeEnv'>): string {
+  if (config.nodeEnv === 'production') return 'demo data: never seeded in production';
+  const loopback = isLoopbackHost(config.host);
+  if (config.seedDemo) {
+    return loopback
+      ? `demo data: seeded into an empty database (HOST ${config.host} is loopback; SEED_DEMO=0 turns it off)`
+      : `demo data: seeded into an empty database because SEED_DEMO=1, although HOST ${config.host} is open to the network`;
+  }
+  return loopback
+    ? 'demo data: not seeded (SEED_DEMO=0)'
+    : `demo data: not seeded (HOST ${config.host} is not loopback; SEED_DEMO=1 would seed it anyway)`;
 }
 
 /** Parses the environment without touching the disk. Throws ConfigError naming every bad variable. */
@@ -194,8 +286,9 @@ export function parseEnv(
     computeTimeLimitMs: e.COMPUTE_TIME_LIMIT_MS,
     photoQuota: { perHour: e.PHOTO_UPLOADS_PER_HOUR, bytesPerDay: e.PHOTO_MB_PER_DAY * 1024 * 1024 },
     photoGraceDays: e.PHOTO_GRACE_DAYS,
-    seedDemo: e.NODE_ENV !== 'production' && e.SEED_DEMO !== '0',
-    trustProxy: parseTrustProxy(e.TRUST_PROXY),
+    host: e.HOST,
+    seedDemo: demoSeeding(e),
+    trustProxy: e.TRUST_PROXY ?? false,
     smtpUrl: e.SMTP_URL ?? null,
     mailFrom: e.MAIL_FROM,
     appUrl: (e.APP_URL ?? `http://localhost:${e.PORT}`).replace(/\/+$/, ''),

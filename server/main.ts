@@ -1,10 +1,10 @@
 import fs from 'node:fs';
 import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
+import { isIP, type AddressInfo } from 'node:net';
 import path from 'node:path';
 
 import { createApp } from '@/server/app';
-import { ConfigError, loadConfig, type Config, type Env } from '@/server/config';
+import { ConfigError, demoSeedingReason, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
 import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
@@ -42,6 +42,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   const database = openDb(config.dataDir);
 
   try {
+    logger.info({ host: config.host, seedDemo: config.seedDemo }, demoSeedingReason(config));
     if (config.seedDemo) {
       const result = await seedDemoData(database.db, config);
       if (result === 'seeded') logger.info('seeded the demo scenario (password: pivotwatch-demo)');
@@ -65,7 +66,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
 
   const app = createApp({ db: database.db, config, logger, mail });
   const server = await new Promise<Server>((resolve, reject) => {
-    const s = app.listen(config.port, (error?: Error) => (error ? reject(error) : resolve(s)));
+    const s = app.listen(config.port, config.host, (error?: Error) => (error ? reject(error) : resolve(s)));
   }).catch(async (error: unknown) => {
     await mail.close();
     database.close();
@@ -73,7 +74,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   });
 
   const port = (server.address() as AddressInfo).port;
-  const url = `http://localhost:${port}`;
+  const url = localUrl(config.host, port);
   // Links in notices point at the port actually bound when APP_URL does not say otherwise (PORT=0 in tests).
   if (!(opts.env?.APP_URL ?? process.env.APP_URL)) config.appUrl = url;
 
@@ -87,7 +88,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   if (!fs.existsSync(path.join(config.webDir, 'index.html'))) {
     logger.warn({ webDir: config.webDir }, 'no web export found; the API works, the app pages will not');
   }
-  logger.info({ url, dataDir: config.dataDir }, 'Pivotwatch is listening');
+  logger.info({ url, host: config.host, dataDir: config.dataDir }, 'Pivotwatch is listening');
 
   let closing: Promise<void> | undefined;
   const close = () => {
@@ -126,6 +127,12 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   }
 
   return { port, url, config, close };
+}
+
+/** Where this machine reaches the server: a wildcard HOST (every interface) answers on loopback too. */
+function localUrl(host: string, port: number): string {
+  const reachable = host === '0.0.0.0' || host === '::' ? '127.0.0.1' : host;
+  return `http://${isIP(reachable) === 6 ? `[${reachable}]` : reachable}:${port}`;
 }
 
 if (require.main === module) {

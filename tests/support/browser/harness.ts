@@ -41,6 +41,8 @@ export async function startPivotwatch(env: Record<string, string> = {}): Promise
       DATA_DIR: dataDir,
       LOG_LEVEL: 'warn',
       NODE_ENV: 'test',
+      // Loopback, whatever the calling shell exports: the tests sign in as the demo users, seeded only there.
+      HOST: '127.0.0.1',
       ...env,
     },
     stdio: ['ignore', 'ignore', 'pipe'],
