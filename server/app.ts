@@ -6,6 +6,7 @@ import { pinoHttp } from 'pino-http';
 import type { ApiDeps } from '@/server/deps';
 import { apiCachePolicy } from '@/server/http/cache-policy';
 import { errorHandler, sendError } from '@/server/http/errors';
+import { smallJsonBody } from '@/server/http/json-body';
 import { apiRouter } from '@/server/routes';
 import { webRouter } from '@/server/web';
 
@@ -71,12 +72,8 @@ export function createApp(deps: ApiDeps): Express {
   app.use(compression());
   // Before the parsers, so their 400/413 answers are no-store too.
   app.use('/api', apiCachePolicy);
-  // A phone's push batch (up to 50 inspections with their readings) may exceed the 2 MB kept for
-  // everything else; a 413 there would make the phone re-send the same batch for ever.
-  app.use('/api/sync/push', express.json({ limit: '16mb' }));
-  // A history of 1,000,000 values for rainflow counting is about 20 MB of JSON.
-  app.use('/api/fatigue', express.json({ limit: '32mb' }));
-  app.use(express.json({ limit: '2mb' }));
+  // 2 MB for everything; the sync push and fatigue routes parse their larger bodies after sign-in.
+  app.use(smallJsonBody);
 
   app.use('/api', apiRouter(deps));
   app.use(webRouter(deps.config.webDir));

@@ -5,16 +5,18 @@ import { damageRequestSchema, rainflowRequestSchema } from '@/features/fatigue/s
 import { requireAuth, requireRole } from '@/server/auth/require-auth';
 import type { ApiDeps } from '@/server/deps';
 import { HttpError } from '@/server/http/errors';
+import { fatigueJsonBody } from '@/server/http/json-body';
 import { validate } from '@/server/http/validate';
 
 /**
  * `POST /fatigue/rainflow` (ASTM E1049 §5.4.4 cycle counting) and `POST /fatigue/damage` (EN 1993-1-9
  * Palmgren–Miner sum): the pure engine of features/fatigue behind HTTP, for staff. They read and write
- * no stored data. Their bodies may hold a million values: app.ts gives /api/fatigue a larger JSON limit.
+ * no stored data. Their bodies may hold a million values: they parse up to 32 MB, after sign-in.
  */
 export function fatigueRouter(deps: ApiDeps): Router {
   const router = Router();
-  const staff = [requireAuth(deps), requireRole('admin', 'supervisor', 'inspector')];
+  // The large parser only after the token and role are checked (server/http/json-body.ts).
+  const staff = [requireAuth(deps), requireRole('admin', 'supervisor', 'inspector'), fatigueJsonBody];
   const rainflowInput = validate({ body: rainflowRequestSchema });
   const damageInput = validate({ body: damageRequestSchema });
 

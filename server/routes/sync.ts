@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { pushBatchSchema } from '@/features/records/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
+import { syncPushJsonBody } from '@/server/http/json-body';
 import { validate } from '@/server/http/validate';
 import { scheduleAnalysis } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
@@ -35,7 +36,8 @@ export function syncRouter(deps: ApiDeps): Router {
   // Inspections a stop or crash left unanalysed are picked up as soon as the app is running again.
   scheduleAnalysis(deps.db, deps.logger);
 
-  router.post('/sync/push', ...phones, pushInput, (_req, res) => {
+  // The large parser only after the token and role are checked (server/http/json-body.ts).
+  router.post('/sync/push', ...phones, syncPushJsonBody, pushInput, (_req, res) => {
     const user = currentUser(res);
     const { result, replayed, accepted } = ingestBatch(deps.db, user, pushInput.body(res));
     res.json(result);
