@@ -1,1 +1,1 @@
-export { AccountScreen as default } from '@/features/auth/account-screen';
+export { AccountScreen as default } from '@/features/shell/account-screen';

@@ -57,16 +57,53 @@ export function useSignInMutation() {
     },
     onSuccess: (user) => {
       const session: Session = { user, offline: false };
+      // Whatever the last person left in memory (their token may simply have run out) is not this one's.
+      client.clear();
       client.setQueryData(authKeys.session(), session);
     },
   });
 }
 
+/** How long sign-out waits for the server to end the session before going on without it. */
+const SIGN_OUT_SERVER_WAIT_MS = 5000;
+
+/**
+ * Ends the session on the server too (best effort: offline, or with the server away, the token just
+ * stays unused until it runs out), so a copied token stops working at once.
+ */
+async function endServerSession(): Promise<void> {
+  const abort = new AbortController();
+  const timer = setTimeout(() => abort.abort(), SIGN_OUT_SERVER_WAIT_MS);
+  try {
+    await apiFetch('/api/auth/sign-out', { method: 'POST', signal: abort.signal });
+  } catch {
+    // Offline, timed out or already ended: signing out on this phone goes on regardless.
+  } finally {
+    clearTimeout(timer);
+  }
+}
+
+type SignOutOptions = {
+  /**
+   * Runs after the server was told and before the token is removed, e.g. to wipe this person's data from
+   * the phone. A failure there does not keep the person signed in.
+   */
+  beforeClear?: () => Promise<void>;
+};
+
 export function useSignOutMutation() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: () => tokenStore.clear(),
-    onSuccess: () => {
+    mutationFn: async (options: SignOutOptions | void) => {
+      await endServerSession();
+      try {
+        await options?.beforeClear?.();
+      } catch {
+        // The phone stays bound to this person, so the next person's sign-in wipes it before anything shows.
+      }
+      await tokenStore.clear();
+    },
+    onSettled: () => {
       client.clear();
       client.setQueryData(authKeys.session(), null as Session);
     },

@@ -4,6 +4,7 @@ import { FullScreenWait } from '@/components/full-screen-wait';
 import { rememberNextPath, signInHref, useSession } from '@/features/auth';
 import { DeviceDbProvider } from '@/features/device-db/ui';
 import { AppShell } from '@/features/shell/app-shell';
+import { DeviceOwnerGate } from '@/features/shell/device-owner-gate';
 import { BackgroundSync } from '@/features/sync/ui';
 
 /**
@@ -34,8 +35,10 @@ export function AppLayout() {
   // Only inspectors record in the field; desk roles need no device database (and no single-tab lock).
   return session.data.user.role === 'inspector' ? (
     <DeviceDbProvider>
-      <BackgroundSync />
-      {shell}
+      <DeviceOwnerGate userId={session.data.user.id}>
+        <BackgroundSync />
+        {shell}
+      </DeviceOwnerGate>
     </DeviceDbProvider>
   ) : (
     shell

@@ -1,16 +1,16 @@
-import { router } from 'expo-router';
-
-import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
-import { roleLabel, useSession, useSignOutMutation } from '@/features/auth/api';
-import { signInHref } from '@/features/auth/hrefs';
+import { roleLabel, useSession } from '@/features/auth';
+import { InspectorSignOut, SignOutButton } from '@/features/shell/sign-out-card';
 
+/**
+ * The person's own page. It lives in the shell, above the device database and sync, because signing out
+ * an inspector has to count and wipe what the phone holds for them.
+ */
 export function AccountScreen() {
   const session = useSession();
-  const signOut = useSignOutMutation();
   const user = session.data?.user;
   if (!user) return null;
   return (
@@ -23,12 +23,7 @@ export function AccountScreen() {
           {user.companyName ? ` · ${user.companyName}` : ''}
         </Text>
       </Card>
-      <Button
-        label="Sign out"
-        tone="danger"
-        busy={signOut.isPending}
-        onPress={() => signOut.mutate(undefined, { onSuccess: () => router.replace(signInHref()) })}
-      />
+      {user.role === 'inspector' ? <InspectorSignOut /> : <SignOutButton />}
       <Caution full />
     </Screen>
   );
