@@ -111,6 +111,16 @@ const envSchema = z.object({
       .refine(isHttpUrl, 'must be an http:// or https:// URL, e.g. https://pivotwatch.example.net')
       .optional(),
   ),
+  BACKUP_DIR: z.preprocess(emptyAsUnset, z.string().optional()),
+  BACKUP_INTERVAL: z.preprocess(
+    emptyAsUnset,
+    z
+      .string()
+      .trim()
+      .regex(/^(off|(\d+)\s*(s|m|h|d)?)$/, 'must look like 30m, 12h or 1d, or off')
+      .default('24h'),
+  ),
+  BACKUP_KEEP: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).max(1000).default(14)),
 });
 
 /** Variables as strings; looser than NodeJS.ProcessEnv, whose NODE_ENV some type packages make required. */
@@ -164,6 +174,12 @@ export type Config = {
   mailFrom: string;
   /** The app's public address, for links in e-mails (APP_URL); no trailing slash. */
   appUrl: string;
+  /** Absolute path where backups go (BACKUP_DIR, default DATA_DIR/backups); best on another disk. */
+  backupDir: string;
+  /** Seconds between scheduled backups (BACKUP_INTERVAL, default 24 h); 0 when set to `off`. */
+  backupIntervalSeconds: number;
+  /** How many scheduled or manual backups are kept (BACKUP_KEEP, default 14); older ones are removed. */
+  backupKeep: number;
 };
 
 export class ConfigError extends Error {
@@ -292,6 +308,9 @@ export function parseEnv(
     smtpUrl: e.SMTP_URL ?? null,
     mailFrom: e.MAIL_FROM,
     appUrl: (e.APP_URL ?? `http://localhost:${e.PORT}`).replace(/\/+$/, ''),
+    backupDir: path.resolve(cwd, e.BACKUP_DIR ?? path.join(e.DATA_DIR, 'backups')),
+    backupIntervalSeconds: e.BACKUP_INTERVAL === 'off' ? 0 : ttlSeconds(e.BACKUP_INTERVAL),
+    backupKeep: e.BACKUP_KEEP,
   };
 }
 

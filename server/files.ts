@@ -14,7 +14,8 @@ export async function writeWhole(file: string, bytes: Uint8Array): Promise<void>
   const dir = path.dirname(file);
   await fs.promises.mkdir(dir, { recursive: true });
   const temp = path.join(dir, `.${path.basename(file)}.${randomUUID()}${TEMP_SUFFIX}`);
-  const handle = await fs.promises.open(temp, 'wx');
+  // Photos, reports and notices are private records: readable by the server's own user only.
+  const handle = await fs.promises.open(temp, 'wx', 0o600);
   try {
     await handle.writeFile(bytes);
     await handle.sync();
@@ -34,5 +35,18 @@ export async function writeWhole(file: string, bytes: Uint8Array): Promise<void>
     await dirHandle.sync();
   } finally {
     await dirHandle.close();
+  }
+}
+
+/**
+ * Everything the server creates afterwards (database, WAL, mailbox, secrets, backups) is private to its
+ * user whatever the shell's umask was: new directories 0700, new files 0600. Worker threads cannot set it;
+ * they inherit the process's.
+ */
+export function restrictNewFiles(): void {
+  try {
+    process.umask(0o077);
+  } catch {
+    // In a worker thread: the main thread has set it for the whole process.
   }
 }

@@ -4,10 +4,13 @@ import { isIP, type AddressInfo } from 'node:net';
 import path from 'node:path';
 
 import { createApp } from '@/server/app';
+import { lockDataDir, startBackupJob } from '@/server/backup';
 import { ConfigError, demoSeedingReason, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
+import { restrictNewFiles } from '@/server/files';
 import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
+import { startAccountMailLoop } from '@/server/auth/account-mail';
 import { startDeliveryLoop } from '@/server/notices/deliveries';
 import { startReminderJob } from '@/server/notices/reminders';
 import { backfillRideLifeFlags } from '@/server/pivot-life/flags';
@@ -37,9 +40,26 @@ const shutdownGraceMs = 10_000;
 
 /** Opens and migrates the database, seeds the demo scenario when allowed, and listens on PORT. */
 export async function startServer(opts: StartOptions = {}): Promise<RunningServer> {
+  restrictNewFiles();
   const config = loadConfig({ ...process.env, ...opts.env });
   const logger = opts.logger ?? createLogger(config);
-  const database = openDb(config.dataDir);
+  // One server per DATA_DIR (and none during a restore); the lock goes when the process does, however it ends.
+  fs.mkdirSync(config.dataDir, { recursive: true, mode: 0o700 });
+  const dataDirLock = lockDataDir(config.dataDir);
+  let opened: ReturnType<typeof openDb>;
+  try {
+    opened = openDb(config.dataDir, { backupDir: config.backupDir });
+  } catch (error) {
+    dataDirLock.release();
+    throw error;
+  }
+  const database = {
+    ...opened,
+    close: () => {
+      opened.close();
+      dataDirLock.release();
+    },
+  };
 
   try {
     logger.info({ host: config.host, seedDemo: config.seedDemo }, demoSeedingReason(config));
@@ -84,7 +104,20 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
     dataDir: config.dataDir,
     logger,
   });
+  // Invitations and reset links queued before a restart go out now; new ones as they are queued.
+  const accountMailLoop = startAccountMailLoop({ db: database.db, mailer: mail.mailer, logger });
   const reminderJob = startReminderJob({ db: database.db, appUrl: config.appUrl, logger });
+  const backupJob =
+    config.backupIntervalSeconds > 0
+      ? startBackupJob({
+          sqlite: database.sqlite,
+          dataDir: config.dataDir,
+          backupDir: config.backupDir,
+          intervalMs: config.backupIntervalSeconds * 1000,
+          keep: config.backupKeep,
+          logger,
+        })
+      : null;
   if (!fs.existsSync(path.join(config.webDir, 'index.html'))) {
     logger.warn({ webDir: config.webDir }, 'no web export found; the API works, the app pages will not');
   }
@@ -99,8 +132,8 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
       reminderJob.stop();
       server.close(() => {
         clearTimeout(force);
-        void deliveryLoop
-          .stop()
+        void Promise.all([deliveryLoop.stop(), accountMailLoop.stop()])
+          .then(() => backupJob?.stop())
           .then(() => mail.close())
           .finally(() => {
             database.close();
