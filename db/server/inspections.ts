@@ -207,7 +207,11 @@ export const photos = sqliteTable(
       .notNull()
       .references(() => users.id, { onDelete: 'restrict' }),
   },
-  (t) => [check('photos_mime_check', oneOf(t.mime, photoMimes))],
+  (t) => [
+    check('photos_mime_check', oneOf(t.mime, photoMimes)),
+    // Each person's upload quota counts their photos in the last hour and day (server/sync/photo-quota.ts).
+    index('photos_uploader_idx').on(t.uploadedBy, t.storedAt),
+  ],
 );
 
 /** A photo as an inspection uses it. No foreign key to `photos`: the record may arrive before the bytes. */

@@ -1,0 +1,1 @@
+CREATE INDEX `photos_uploader_idx` ON `photos` (`uploaded_by`,`stored_at`);
