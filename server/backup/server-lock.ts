@@ -34,6 +34,8 @@ export function lockDataDir(dataDir: string): DataDirLock {
   try {
     // In exclusive locking mode the lock a write transaction takes is kept after it commits.
     lock.pragma('locking_mode = EXCLUSIVE');
+    // The file holds no data; a journal beside it would only be litter.
+    lock.pragma('journal_mode = OFF');
     lock.exec('BEGIN EXCLUSIVE');
     lock.exec('COMMIT');
   } catch (error) {
