@@ -29,8 +29,9 @@ export function deviceMigrationsFromDisk() {
 
 export type MemoryDeviceDb = DeviceDb & { sqlite: Database.Database; statements: string[] };
 
-export async function memoryDeviceDb(): Promise<MemoryDeviceDb> {
-  const sqlite = new Database(':memory:');
+/** `from`: a copy of another one's `sqlite.serialize()`, so a test can start many cases from one built state. */
+export async function memoryDeviceDb(from?: Buffer): Promise<MemoryDeviceDb> {
+  const sqlite = new Database(from ?? ':memory:');
   const statements: string[] = [];
   const execute: SqlExecutor = async (sql, params, method) => {
     statements.push(sql);

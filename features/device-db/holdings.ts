@@ -1,0 +1,80 @@
+/**
+ * What the phone's database holds, grouped by what it is for: work not yet on the server, and sent work
+ * kept for reference until the pruning policy lets it go. Sizes are the stored text and photo bytes;
+ * the database file also holds indexes and free pages, given apart.
+ */
+import { type AnyColumn, sql } from 'drizzle-orm';
+
+import { drafts, outbox, photoBlobs } from '@/db/device/schema';
+import type { DeviceDb } from '@/features/device-db/connection';
+
+type Amount = { count: number; bytes: number };
+
+export type DeviceHoldings = {
+  drafts: Amount;
+  /** Records queued, being sent, or refused by the server: not on the server. */
+  unsentRecords: Amount;
+  /** Records the server accepted, kept for reference and corrections. */
+  sentRecords: Amount;
+  /** Photos not yet on the server (named by a draft or an unsent record, or refused). */
+  unsentPhotos: Amount;
+  /** Photos the server has. */
+  sentPhotos: Amount;
+  /** The database file: all pages, and the free ones inside it that a compaction would give back. */
+  fileBytes: number;
+  freeBytes: number;
+};
+
+const amount = (row: { n: number | null; bytes: number | null } | undefined): Amount => ({
+  count: Number(row?.n ?? 0),
+  bytes: Number(row?.bytes ?? 0),
+});
+
+async function pragmaNumber(dev: DeviceDb, name: 'page_count' | 'page_size' | 'freelist_count') {
+  const rows = await dev.db.values<[number]>(sql.raw(`PRAGMA ${name}`));
+  return Number(rows[0]?.[0] ?? 0);
+}
+
+export async function readDeviceHoldings(dev: DeviceDb): Promise<DeviceHoldings> {
+  const textBytes = (column: AnyColumn) => sql<number>`coalesce(sum(length(${column})), 0)`;
+  const draftRow = await dev.db
+    .select({ n: sql<number>`count(*)`, bytes: textBytes(drafts.json) })
+    .from(drafts)
+    .get();
+  const outboxRows = await dev.db
+    .select({
+      sent: sql<number>`${outbox.state} = 'accepted'`,
+      n: sql<number>`count(*)`,
+      bytes: textBytes(outbox.json),
+    })
+    .from(outbox)
+    .groupBy(sql`${outbox.state} = 'accepted'`)
+    .all();
+  const photoRows = await dev.db
+    .select({
+      sent: sql<number>`${photoBlobs.uploadState} = 'uploaded'`,
+      n: sql<number>`count(*)`,
+      bytes: sql<number>`coalesce(sum(${photoBlobs.bytes}), 0)`,
+    })
+    .from(photoBlobs)
+    .groupBy(sql`${photoBlobs.uploadState} = 'uploaded'`)
+    .all();
+  const pageSize = await pragmaNumber(dev, 'page_size');
+  return {
+    drafts: amount(draftRow),
+    unsentRecords: amount(outboxRows.find((r) => !Number(r.sent))),
+    sentRecords: amount(outboxRows.find((r) => Number(r.sent))),
+    unsentPhotos: amount(photoRows.find((r) => !Number(r.sent))),
+    sentPhotos: amount(photoRows.find((r) => Number(r.sent))),
+    fileBytes: (await pragmaNumber(dev, 'page_count')) * pageSize,
+    freeBytes: (await pragmaNumber(dev, 'freelist_count')) * pageSize,
+  };
+}
+
+/**
+ * Gives the free pages back to the phone (SQLite keeps deleted space inside the file for reuse). It
+ * rewrites the whole file, so only on the person's request; a failure changes nothing and is reported.
+ */
+export async function compactDeviceDb(dev: DeviceDb): Promise<void> {
+  await dev.db.run(sql.raw('VACUUM'));
+}
