@@ -7,4 +7,7 @@ export const fieldKeys = {
   photo: (sha: string) => [...fieldKeys.all, 'photo', sha] as const,
   /** Sent inspections with the supervisors' decisions on them. */
   sent: () => [...fieldKeys.all, 'sent'] as const,
+  /** What the phone's database holds, and the storage room the platform reports. */
+  holdings: () => [...fieldKeys.all, 'holdings'] as const,
+  space: () => [...fieldKeys.all, 'space'] as const,
 };

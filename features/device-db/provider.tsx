@@ -14,6 +14,7 @@ import type { DeviceDb } from '@/features/device-db/connection';
 import { exposeDiagnostics } from '@/features/device-db/diagnostics';
 import { DeviceDbLockedError } from '@/features/device-db/errors';
 import { openDeviceDb } from '@/features/device-db/open-device-db';
+import { requestPersistentStorage } from '@/features/device-db/storage-space';
 
 const DeviceDbContext = createContext<DeviceDb | null>(null);
 
@@ -38,6 +39,8 @@ export function DeviceDbProvider({ children, open = openDeviceDb }: Props) {
     open().then(
       (db) => {
         exposeDiagnostics(db);
+        // Unsent inspections live here: ask the browser not to clear them when the disk fills.
+        void requestPersistentStorage();
         if (live) setState({ status: 'ready', db });
       },
       (err: unknown) => {
@@ -84,6 +87,11 @@ export function useDeviceDb(): DeviceDb {
   const db = useContext(DeviceDbContext);
   if (!db) throw new Error('useDeviceDb() needs <DeviceDbProvider> above it.');
   return db;
+}
+
+/** The open device database, or null where none is open (desk roles keep nothing on the device). */
+export function useOptionalDeviceDb(): DeviceDb | null {
+  return useContext(DeviceDbContext);
 }
 
 const styles = StyleSheet.create({
