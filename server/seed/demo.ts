@@ -207,6 +207,8 @@ export const demoUsers: { email: string; name: string; role: Role; company: Oper
   { email: 'admin@pivotwatch.test', name: 'Rowan Ashby', role: 'admin', company: null },
   { email: 'supervisor@pivotwatch.test', name: 'Mira Delacourt', role: 'supervisor', company: null },
   { email: 'inspector@pivotwatch.test', name: 'Tomas Reyne', role: 'inspector', company: null },
+  // A second inspector, so two people can share one phone in the demo (and in the shared-phone test).
+  { email: 'inspector2@pivotwatch.test', name: 'Lena Marwick', role: 'inspector', company: null },
   {
     email: 'operator@pivotwatch.test',
     name: 'Priya Castellan',

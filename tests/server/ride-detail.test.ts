@@ -19,7 +19,8 @@ const tokens: Record<string, string> = {};
 beforeAll(async () => {
   server = await makeTestServer();
   for (const user of demoUsers) tokens[user.email] = await signInAs(server.app, user.email);
-});
+  // One password hash per demo account: slow on a busy machine.
+}, 30_000);
 afterAll(() => server.close());
 
 const get = (path: string, email?: string) => {
