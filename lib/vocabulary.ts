@@ -44,6 +44,15 @@ export const roleVocabulary: Record<Role, Words> = {
   admin: { label: 'Administrator' },
 };
 
+/** Where an account stands: signing in, waiting for its invitation to be taken up, or turned off. */
+export const accountStates = ['active', 'invited', 'disabled'] as const;
+export type AccountState = (typeof accountStates)[number];
+export const accountStateVocabulary: Record<AccountState, Words & { description: string }> = {
+  active: { label: 'Active', description: 'Can sign in.' },
+  invited: { label: 'Invited', description: 'Has not yet chosen a password from the invitation.' },
+  disabled: { label: 'Disabled', description: 'Cannot sign in until an administrator enables the account.' },
+};
+
 /** The inspection body (one, the issuer of notices) and the ride operators it inspects for. */
 export const companyKinds = ['inspection_body', 'operator'] as const;
 export type CompanyKind = (typeof companyKinds)[number];

@@ -1,2 +1,3 @@
 /** What other features may render or hook into from auth (needs the app's runtime). */
 export { RoleGate } from '@/features/auth/role-gate';
+export { PasswordChangeCard } from '@/features/auth/password-change-card';

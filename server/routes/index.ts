@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { authRouter } from '@/server/auth/router';
 import type { ApiDeps } from '@/server/deps';
 import { apiNotFound } from '@/server/http/errors';
+import { accountRouter } from '@/server/routes/account';
 import { adminUsersRouter } from '@/server/routes/admin-users';
 import { auditRouter } from '@/server/routes/audit';
 import { checklistsRouter } from '@/server/routes/checklists';
@@ -29,6 +30,7 @@ export function apiRouter(deps: ApiDeps): Router {
     res.json({ ok: true });
   });
   router.use(authRouter(deps));
+  router.use(accountRouter(deps));
   router.use(ridesRouter(deps));
   router.use(registerRouter(deps));
   router.use(designRouter(deps));
