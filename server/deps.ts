@@ -11,6 +11,11 @@ export type ApiDeps = {
   logger: Logger;
   /** Failed sign-ins allowed per IP and window; defaults to 10 per 15 minutes. */
   signInLimit?: { windowMs: number; max: number };
+  /**
+   * Failed sign-ins allowed per account e-mail (from any address) and window; defaults to `signInLimit`
+   * when that is given (tests), else 10 per 15 minutes.
+   */
+  accountSignInLimit?: { windowMs: number; max: number };
   /** The clock for due dates and timestamps; tests pin it. Defaults to the system clock. */
   now?: () => Date;
   /**

@@ -57,7 +57,19 @@ export function findSessionUserWithStamp(
   return { user, tokensValidAfterMs: tokensValidAfter === null ? null : Date.parse(tokensValidAfter) };
 }
 
-export async function signIn(db: Db, config: Config, body: SignInBody): Promise<SignInResponse> {
+/** Why a sign-in was refused, for the audit log only (the answer never tells an unknown e-mail apart). */
+export type SignInFailure = {
+  /** The account tried, when one has this e-mail. */
+  userId: string | null;
+  reason: 'wrong_password' | 'unknown_account' | 'account_disabled';
+};
+
+export async function signIn(
+  db: Db,
+  config: Config,
+  body: SignInBody,
+  onFailure?: (failure: SignInFailure) => void,
+): Promise<SignInResponse> {
   const row = db
     .select({ id: users.id, passwordHash: users.passwordHash, disabledAt: users.disabledAt })
     .from(users)
@@ -65,8 +77,12 @@ export async function signIn(db: Db, config: Config, body: SignInBody): Promise<
     .get();
   // Unknown e-mail and wrong password take the same path, time and answer.
   const passwordOk = await verifyPassword(body.password, row?.passwordHash ?? null);
-  if (!row || !passwordOk) throw badCredentials();
+  if (!row || !passwordOk) {
+    onFailure?.({ userId: row?.id ?? null, reason: row ? 'wrong_password' : 'unknown_account' });
+    throw badCredentials();
+  }
   if (row.disabledAt !== null) {
+    onFailure?.({ userId: row.id, reason: 'account_disabled' });
     // Only someone who knows the password learns the account exists, and they need to know why it fails.
     throw unauthorized('This account is disabled. Ask an administrator to restore it.', 'account_disabled');
   }

@@ -37,6 +37,8 @@ export async function makeTestServer(
     seed?: boolean;
     /** 'app-default' leaves the limit to createApp (10 failures per 15 minutes). */
     signInLimit?: { windowMs: number; max: number } | 'app-default';
+    /** Failed sign-ins per account e-mail; unset follows `signInLimit` (server/auth/router.ts). */
+    accountSignInLimit?: { windowMs: number; max: number };
   } = {},
 ): Promise<TestServer> {
   const dataDir = makeTempDir();
@@ -56,6 +58,7 @@ export async function makeTestServer(
       opts.signInLimit === 'app-default'
         ? undefined
         : (opts.signInLimit ?? { windowMs: 60_000, max: 10_000 }),
+    accountSignInLimit: opts.accountSignInLimit,
   });
   return {
     app,
