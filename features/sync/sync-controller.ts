@@ -147,6 +147,8 @@ class SyncController {
   }
 
   private start() {
+    // The connection may have changed while nobody listened (e.g. signed out offline, signed in online).
+    this.set({ online: isOnline() });
     const offReturn = onConnectionReturn(() => {
       this.set({ online: true });
       void this.syncNow();
