@@ -36,7 +36,8 @@ async function pragmaNumber(dev: DeviceDb, name: 'page_count' | 'page_size' | 'f
 }
 
 export async function readDeviceHoldings(dev: DeviceDb): Promise<DeviceHoldings> {
-  const textBytes = (column: AnyColumn) => sql<number>`coalesce(sum(length(${column})), 0)`;
+  // Bytes, not characters; and a blob's length is known without reading it, unlike a text's.
+  const textBytes = (column: AnyColumn) => sql<number>`coalesce(sum(length(CAST(${column} AS BLOB))), 0)`;
   const draftRow = await dev.db
     .select({ n: sql<number>`count(*)`, bytes: textBytes(drafts.json) })
     .from(drafts)

@@ -22,3 +22,5 @@ export {
   releaseDeviceOwner,
 } from '@/features/device-db/device-owner';
 export type { UnsentWork } from '@/features/device-db/device-owner';
+export { pruneDevice } from '@/features/device-db/prune';
+export type { PruneReport } from '@/features/device-db/prune';

@@ -8,7 +8,7 @@
  * A browser may evict a whole origin's storage when the disk fills, so a phone that never let go of
  * anything would in the end lose unsent work too; pruning the sent part keeps room for what matters.
  */
-import { and, eq, inArray, sql } from 'drizzle-orm';
+import { inArray, sql } from 'drizzle-orm';
 
 import { decisions, drafts, outbox, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
@@ -87,7 +87,28 @@ function decisionState(json: string): string | null {
   }
 }
 
-/** What the rule needs from the phone, read inside the pruning transaction. */
+/** The SHA-256 of each photo a record's `photos` array (as JSON text) names; nothing for text that is not one. */
+function photoShas(photosJson: string | null): string[] {
+  if (!photosJson) return [];
+  try {
+    const photos = JSON.parse(photosJson) as unknown;
+    if (!Array.isArray(photos)) return [];
+    return photos.flatMap((p) =>
+      p && typeof p === 'object' && typeof (p as { sha256?: unknown }).sha256 === 'string'
+        ? [(p as { sha256: string }).sha256]
+        : [],
+    );
+  } catch {
+    return [];
+  }
+}
+
+/**
+ * What the rule needs from the phone, read inside the pruning transaction. Records can carry megabytes of
+ * recorded ride cycles, so only the two small parts are taken out of their JSON in SQL (`json_extract`
+ * reads a path without building the whole document, unlike `json_each`), and nothing large crosses to
+ * JavaScript.
+ */
 async function readFacts(tx: DeviceDb) {
   const rows = await tx.db
     .select({
@@ -95,12 +116,14 @@ async function readFacts(tx: DeviceDb) {
       state: outbox.state,
       updatedAt: outbox.updatedAt,
       amendsId: sql<string | null>`json_extract(${outbox.json}, '$.amendsId')`,
+      photos: sql<string | null>`json_extract(${outbox.json}, '$.photos')`,
     })
     .from(outbox)
     .all();
+  const records = rows.map((r) => ({ ...r, shas: photoShas(r.photos) }));
   const correctedOnServer = new Set<string>();
   const correctionUnsent = new Set<string>();
-  for (const r of rows) {
+  for (const r of records) {
     if (!r.amendsId) continue;
     (r.state === 'accepted' ? correctedOnServer : correctionUnsent).add(r.amendsId);
   }
@@ -108,23 +131,27 @@ async function readFacts(tx: DeviceDb) {
     .select({ id: decisions.inspectionId, json: decisions.json })
     .from(decisions)
     .all();
-  // A photo named by an accepted record and still on the phone without being uploaded.
-  const waiting = await tx.db
-    .selectDistinct({ id: outbox.id })
-    .from(outbox)
-    .innerJoin(sql`json_each(${outbox.json}, '$.photos') AS p`, sql`1`)
-    .innerJoin(photoBlobs, sql`${photoBlobs.sha256} = json_extract(p.value, '$.sha256')`)
-    .where(and(eq(outbox.state, 'accepted'), sql`${photoBlobs.uploadState} <> 'uploaded'`))
-    .all();
+  const notUploaded = new Set(
+    (
+      await tx.db
+        .select({ sha: photoBlobs.sha256 })
+        .from(photoBlobs)
+        .where(sql`${photoBlobs.uploadState} <> 'uploaded'`)
+        .all()
+    ).map((b) => b.sha),
+  );
   const draftTexts = (await tx.db.select({ json: drafts.json }).from(drafts).all()).map((d) => d.json);
+  const accepted = records.filter((r) => r.state === 'accepted');
   return {
-    accepted: rows
-      .filter((r) => r.state === 'accepted')
-      .map((r) => ({ id: r.id, acceptedAt: r.updatedAt, amendsId: r.amendsId })),
+    records,
+    accepted: accepted.map((r) => ({ id: r.id, acceptedAt: r.updatedAt, amendsId: r.amendsId })),
     decisionOf: new Map(decisionRows.map((d) => [d.id, decisionState(d.json)])),
     correctedOnServer,
     correctionUnsent,
-    photosWaiting: new Set(waiting.map((w) => w.id)),
+    // A photo the phone holds that has not gone up yet: its record waits for it.
+    photosWaiting: new Set(
+      accepted.filter((r) => r.shas.some((sha) => notUploaded.has(sha))).map((r) => r.id),
+    ),
     namedByDrafts: new Set(draftTexts.flatMap((t) => (t.match(UUID_RE) ?? []).map((id) => id.toLowerCase()))),
     draftShas: new Set(draftTexts.flatMap((t) => t.match(SHA_RE) ?? [])),
   };
@@ -152,13 +179,9 @@ export async function pruneDevice(
     for (const ids of chunks(goes)) await tx.db.delete(outbox).where(inArray(outbox.id, ids)).run();
 
     // Photos named by any record left (every state, every author) or by any draft stay.
+    const gone = new Set(goes);
     const named = new Set(facts.draftShas);
-    const refs = await tx.db
-      .select({ sha: sql<string | null>`json_extract(p.value, '$.sha256')` })
-      .from(outbox)
-      .innerJoin(sql`json_each(${outbox.json}, '$.photos') AS p`, sql`1`)
-      .all();
-    for (const r of refs) if (r.sha) named.add(r.sha);
+    for (const r of facts.records) if (!gone.has(r.id)) r.shas.forEach((sha) => named.add(sha));
     const orphanBefore = new Date(now.getTime() - policy.orphanPhotoDays * DAY_MS).toISOString();
     const candidates = await tx.db
       .select({ sha: photoBlobs.sha256, bytes: photoBlobs.bytes })

@@ -3,8 +3,13 @@
  * meta (last success, last error). Runs one at a time per database: a second call while one is running
  * gets the running one.
  */
-import type { DeviceDb } from '@/features/device-db';
-import { getDeviceOwner, setSyncMeta } from '@/features/device-db';
+import {
+  type DeviceDb,
+  type PruneReport,
+  getDeviceOwner,
+  pruneDevice,
+  setSyncMeta,
+} from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import type { SendFailure } from '@/features/sync/outbox-machine';
 import { type PhotoProgress, type PhotoUploadReport, uploadPhotos } from '@/features/sync/photo-upload';
@@ -29,6 +34,8 @@ type SyncRunReport = {
   pull: PullReport | null;
   /** The first thing that went wrong, in words for the inspector; null when everything went through. */
   error: string | null;
+  /** Sent work the phone let go of afterwards (features/device-db/prune.ts); null when it did not run. */
+  pruned?: PruneReport | null;
 };
 
 const running = new WeakMap<DeviceDb, Promise<SyncRunReport>>();
@@ -83,5 +90,29 @@ async function runSync(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): Pr
   } else {
     await setSyncMeta(dev, 'lastError', error);
   }
-  return { push, photos, pull: pulled, error };
+  const pruned = await pruneAfterRun(dev, clock(), {
+    changed: push.accepted > 0 || (photos?.uploaded ?? 0) > 0 || (pulled?.decisions ?? 0) > 0,
+  });
+  return { push, photos, pull: pulled, error, pruned };
+}
+
+/**
+ * Lets go of sent work the policy no longer keeps. It reads every record's photo list, so it runs when a
+ * run changed what the policy looks at (records accepted, photos uploaded, decisions pulled), and
+ * otherwise once an hour, since time alone also ends a keeping time. Whatever the network did.
+ */
+const PRUNE_EVERY_MS = 60 * 60_000;
+const lastPruneAt = new WeakMap<DeviceDb, number>();
+
+async function pruneAfterRun(dev: DeviceDb, now: Date, { changed }: { changed: boolean }) {
+  const last = lastPruneAt.get(dev);
+  if (!changed && last !== undefined && Math.abs(now.getTime() - last) < PRUNE_EVERY_MS) return null;
+  try {
+    const report = await pruneDevice(dev, { now });
+    lastPruneAt.set(dev, now.getTime());
+    return report;
+  } catch {
+    // Keeping more than needed is harmless; the next run tries again.
+    return null;
+  }
 }

@@ -19,6 +19,7 @@ import type { InspectionRecord, PhotoRef } from '@/features/records/schema';
 import { uploadPhotos } from '@/features/sync/photo-upload';
 import { pull } from '@/features/sync/pull';
 import { pushOutbox } from '@/features/sync/push';
+import { syncOnce } from '@/features/sync/sync-run';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
@@ -378,4 +379,15 @@ test('a sent record that a draft names stays, whatever its decision (a correctio
   expect(outboxIds().has(rec.id)).toBe(true);
   dev.sqlite.prepare('DELETE FROM drafts WHERE id = ?').run(draftId);
   expect(await pruneDevice(dev, { now: day(60) })).toMatchObject({ records: 1, photos: 1 });
+});
+
+test('every sync ends by applying the policy: a decision pulled in that run lets an old record go', async () => {
+  const rec = await submitWith(day(0), [await newPhoto(day(0))]);
+  const first = await syncOnce(server, dev, { newId: randomUUID, now: () => day(0) });
+  expect(first).toMatchObject({ error: null, pruned: { records: 0, photos: 0 } });
+  expect(outboxIds().has(rec.id)).toBe(true);
+  server.pullPages.push({ cursor: 'c2', decisions: [{ inspectionId: rec.id, state: 'approved' }] });
+  const later = await syncOnce(server, dev, { newId: randomUUID, now: () => day(31) });
+  expect(later.pruned).toMatchObject({ records: 1, photos: 1 });
+  expect(outboxIds().size).toBe(0);
 });
