@@ -1,13 +1,15 @@
-import express, { Router, type RequestHandler } from 'express';
+import express, { Router, type RequestHandler, type Response } from 'express';
+import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { companyScope } from '@/server/auth/scope';
 import { assertContentHash } from '@/server/http/content-hash';
-import { forbidden, HttpError, notFound } from '@/server/http/errors';
+import { forbidden, HttpError, notFound, sendError } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { operatorMaySeePhoto } from '@/server/notices/photo-access';
+import { photoQuotaRefusal, type QuotaExceeded } from '@/server/sync/photo-quota';
 import {
   findPhoto,
   MAX_PHOTO_BYTES,
@@ -49,6 +51,11 @@ const rawPhoto: RequestHandler = (() => {
     });
 })();
 
+const refuse = (res: Response, refusal: QuotaExceeded): never => {
+  res.setHeader('Retry-After', String(refusal.retryAfterS));
+  throw refusal;
+};
+
 /**
  * Photo bytes, addressed by their SHA-256. Staff read and upload any; operators upload their corrective
  * evidence, and read only photos on their company's notices, on corrective actions on those, or uploaded
@@ -58,7 +65,10 @@ const rawPhoto: RequestHandler = (() => {
  *   8 MB) → 201 `{ stored: true, sha256 }` the first time, 200 `{ stored: false, sha256 }` when the server
  *   already has them. 400 `hash_mismatch` when the bytes do not hash to the path, 413 `payload_too_large`,
  *   415 `not_an_image` when the bytes are not a JPEG, PNG or WebP file (whatever the Content-Type said),
- *   415 `unsupported_media_type` for a body sent as something else entirely.
+ *   415 `unsupported_media_type` for a body sent as something else entirely. 429 `upload_quota` (with
+ *   Retry-After) when the person has stored their hour's count or day's bytes of new photos
+ *   (server/sync/photo-quota.ts; checked before the body is read, from Content-Length, and again after),
+ *   or 429 `too_many_uploads` after twice the hour's count of attempts of any outcome.
  * - `GET /photos/:sha256` → the bytes with their type and a year's private cache (content never changes);
  *   404 JSON when the server does not have them.
  */
@@ -67,7 +77,45 @@ export function photosRouter(deps: ApiDeps): Router {
   const signedIn = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin', 'operator')];
   sweepPartialPhotos(deps.config.dataDir);
 
-  router.put('/photos/:sha256', ...signedIn, byHash, rawPhoto, async (req, res) => {
+  const quota = deps.config.photoQuota;
+  // Every attempt counts here, refused ones too (each may be 8 MB to read and hash); kept in memory.
+  const attempts = rateLimit({
+    windowMs: 3_600_000,
+    limit: quota.perHour * 2,
+    keyGenerator: (_req, res) => `photos:${currentUser(res).id}`,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    // The key is the signed-in person, not an address.
+    validate: { keyGeneratorIpFallback: false },
+    handler: (_req, res) => {
+      sendError(
+        res,
+        429,
+        'too_many_uploads',
+        'Too many photo uploads from you in the last hour; the phone keeps the photos and sends them later.',
+      );
+    },
+  });
+  // Before the body is read: a person over their quota does not get to send 8 MB first.
+  const quotaBeforeBody: RequestHandler = (req, res, next) => {
+    const { sha256 } = byHash.params(res);
+    if (findPhoto(deps.db, sha256) === null) {
+      const declared = Number(req.headers['content-length']);
+      const refusal = photoQuotaRefusal(
+        deps.db,
+        currentUser(res).id,
+        quota,
+        nowOf(deps),
+        Number.isFinite(declared) && declared > 0 ? declared : 0,
+      );
+      if (refusal) refuse(res, refusal);
+    }
+    next();
+  };
+
+  const quotaChecks = [attempts, quotaBeforeBody];
+
+  router.put('/photos/:sha256', ...signedIn, byHash, ...quotaChecks, rawPhoto, async (req, res) => {
     const { sha256 } = byHash.params(res);
     const body: unknown = req.body;
     if (!Buffer.isBuffer(body))
@@ -86,6 +134,12 @@ export function photosRouter(deps: ApiDeps): Router {
           : 'The file is not a JPEG, PNG or WebP image, so it was not stored.',
       );
     assertContentHash(body, sha256);
+    // Again with the bytes actually sent (a chunked upload declares no length).
+    const refusal =
+      findPhoto(deps.db, sha256) === null
+        ? photoQuotaRefusal(deps.db, currentUser(res).id, quota, nowOf(deps), body.length)
+        : null;
+    if (refusal) refuse(res, refusal);
     const { stored } = await storePhoto(
       deps.db,
       deps.config.dataDir,
