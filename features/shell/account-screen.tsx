@@ -3,6 +3,7 @@ import { Caution } from '@/components/caution';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { roleLabel, useSession } from '@/features/auth';
+import { PhoneStorageCard } from '@/features/device-db/ui';
 import { InspectorSignOut, SignOutButton } from '@/features/shell/sign-out-card';
 
 /**
@@ -23,6 +24,7 @@ export function AccountScreen() {
           {user.companyName ? ` · ${user.companyName}` : ''}
         </Text>
       </Card>
+      <PhoneStorageCard />
       {user.role === 'inspector' ? <InspectorSignOut /> : <SignOutButton />}
       <Caution full />
     </Screen>

@@ -8,6 +8,7 @@ import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { roleLabel } from '@/features/auth';
+import { LowStorageBanner } from '@/features/device-db/ui';
 import type { SessionUser } from '@/features/session/schema';
 import { type NavItem, isActive, navItems } from '@/features/shell/nav-items';
 import { useOnline } from '@/features/sync/ui';
@@ -48,6 +49,7 @@ export function AppShell({ user, children }: { user: SessionUser; children: Reac
         </View>
         <View style={styles.wideMain}>
           {offline ? <OfflineBanner /> : null}
+          <LowStorageBanner />
           {children}
         </View>
       </View>
@@ -63,6 +65,7 @@ export function AppShell({ user, children }: { user: SessionUser; children: Reac
         </Text>
       </View>
       {offline ? <OfflineBanner /> : null}
+      <LowStorageBanner />
       <View style={styles.phoneMain}>{children}</View>
       <View
         style={[styles.bottomBar, { paddingBottom: Math.max(insets.bottom, space.xs) }]}
