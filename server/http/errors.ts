@@ -38,6 +38,13 @@ export const apiNotFound: RequestHandler = (req, res) => {
 
 /** The shapes body-parser gives its errors. */
 const bodyParserErrorSchema = z.object({ type: z.string(), status: z.number().int() });
+/** A client error a library raised: http-errors style marked safe to show, or the router's URIError. */
+function libraryClientError(err: unknown): number | null {
+  const shape = z.object({ status: z.number().int().min(400).max(499), expose: z.boolean().optional() });
+  const found = shape.safeParse(err);
+  if (!found.success) return null;
+  return found.data.expose === true || err instanceof URIError ? found.data.status : null;
+}
 
 /** Status codes whose generic message we are happy to show for errors raised by middleware. */
 const genericClientErrors: Record<number, [code: string, message: string]> = {
@@ -82,6 +89,14 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
         sendError(res, status, generic[0], generic[1]);
         return;
       }
+    }
+    // Client errors raised below the routes (a malformed percent-escape in a path parameter is the
+    // router's URIError with status 400): the client's mistake, answered in the API's shape.
+    const clientStatus = libraryClientError(err);
+    if (clientStatus !== null) {
+      const [code, message] = genericClientErrors[clientStatus] ?? genericClientErrors[400];
+      sendError(res, clientStatus, code, message);
+      return;
     }
     logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
     sendError(

@@ -1,5 +1,5 @@
 import type { RequestHandler, Response } from 'express';
-import type { z } from 'zod';
+import { z } from 'zod';
 
 import { zodIssues } from '@/lib/api-errors';
 import { HttpError } from '@/server/http/errors';
@@ -64,4 +64,33 @@ export function validate<S extends Schemas>(schemas: S): Validator<S> {
     query: getter('query'),
     params: getter('params'),
   });
+}
+
+/**
+ * A PATCH body: a JSON object naming at least one of `schema`'s fields and nothing else, then `schema`
+ * itself. An empty body would otherwise reach the database as an update of nothing, and a misspelt
+ * field would be dropped in silence while the client thinks it changed something.
+ */
+export function patchBody<S extends z.ZodObject>(schema: S) {
+  const fields = Object.keys(schema.shape);
+  const listed = fields.join(', ');
+  return z
+    .unknown()
+    .superRefine((body, ctx) => {
+      if (typeof body !== 'object' || body === null || Array.isArray(body)) {
+        ctx.addIssue({ code: 'custom', message: `Send a JSON object with the fields to change (${listed})` });
+        return;
+      }
+      const keys = Object.keys(body);
+      if (keys.length === 0)
+        ctx.addIssue({ code: 'custom', message: `Nothing to change: send at least one of ${listed}` });
+      for (const key of keys)
+        if (!fields.includes(key))
+          ctx.addIssue({
+            code: 'custom',
+            path: [key],
+            message: `Not a field that can be changed here (${listed})`,
+          });
+    })
+    .pipe(schema);
 }

@@ -9,7 +9,7 @@ import {
 import type { ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
-import { validate } from '@/server/http/validate';
+import { patchBody, validate } from '@/server/http/validate';
 import {
   createInstrument,
   deleteInstrument,
@@ -36,7 +36,7 @@ export function instrumentsRouter(deps: ApiDeps): Router {
   const admin = [requireAuth(deps), requireRole('admin')];
   const byId = validate({ params: idParamsSchema });
   const create = validate({ body: instrumentInputSchema });
-  const patch = validate({ params: idParamsSchema, body: instrumentPatchSchema });
+  const patch = validate({ params: idParamsSchema, body: patchBody(instrumentPatchSchema) });
   const declaration = validate({ body: declarationSettingInputSchema });
 
   router.get('/instruments', ...staff, (_req, res) => {

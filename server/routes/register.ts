@@ -12,7 +12,7 @@ import {
 import type { ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
-import { validate } from '@/server/http/validate';
+import { patchBody, validate } from '@/server/http/validate';
 import {
   createCompany,
   deleteCompany,
@@ -41,7 +41,7 @@ export function registerRouter(deps: ApiDeps): Router {
 
   const companyList = validate({ query: companyListQuerySchema });
   const companyCreate = validate({ body: companyInputSchema });
-  const companyPatch = validate({ params: idParamsSchema, body: companyPatchSchema });
+  const companyPatch = validate({ params: idParamsSchema, body: patchBody(companyPatchSchema) });
 
   router.get('/companies', ...staff, companyList, (_req, res) => {
     res.json(listCompanies(deps.db, companyList.query(res)));
@@ -70,7 +70,7 @@ export function registerRouter(deps: ApiDeps): Router {
 
   const siteList = validate({ query: siteListQuerySchema });
   const siteCreate = validate({ body: siteInputSchema });
-  const sitePatch = validate({ params: idParamsSchema, body: sitePatchSchema });
+  const sitePatch = validate({ params: idParamsSchema, body: patchBody(sitePatchSchema) });
 
   router.get('/sites', ...staff, siteList, (_req, res) => {
     res.json(listSites(deps.db, siteList.query(res)));

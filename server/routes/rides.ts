@@ -11,7 +11,7 @@ import {
 import { companyScope } from '@/server/auth/scope';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
-import { validate } from '@/server/http/validate';
+import { patchBody, validate } from '@/server/http/validate';
 import { findDesignVersion } from '@/server/registry/design';
 import { createRide, deleteRide, listRides, mustFindRide } from '@/server/registry/rides';
 import { updateRide } from '@/server/review/ride-update';
@@ -19,7 +19,7 @@ import { updateRide } from '@/server/review/ride-update';
 const listInput = validate({ query: rideListQuerySchema });
 const oneRide = validate({ params: idParamsSchema });
 const createInput = validate({ body: rideInputSchema });
-const patchInput = validate({ params: idParamsSchema, body: ridePatchSchema });
+const patchInput = validate({ params: idParamsSchema, body: patchBody(ridePatchSchema) });
 
 /**
  * The rides of the register.

@@ -9,7 +9,7 @@ import {
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
-import { validate } from '@/server/http/validate';
+import { patchBody, validate } from '@/server/http/validate';
 import { refreshRideLifeFlagsAfter } from '@/server/pivot-life/flags';
 import { mustFindRide } from '@/server/registry/rides';
 import {
@@ -25,7 +25,7 @@ import {
 const byId = validate({ params: idParamsSchema });
 const listInput = validate({ query: scheduleListQuerySchema });
 const createInput = validate({ body: scheduleInputSchema });
-const patchInput = validate({ params: idParamsSchema, body: schedulePatchSchema });
+const patchInput = validate({ params: idParamsSchema, body: patchBody(schedulePatchSchema) });
 
 /**
  * Inspection schedules (admin and supervisor) and an inspector's own assignments.
