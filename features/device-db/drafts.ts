@@ -2,12 +2,12 @@
  * Drafts: the inspection being recorded, saved whole on every change (one small transaction: is it
  * still a draft, then an upsert), and moved to the outbox on submit.
  */
-import { and, desc, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 
 import { drafts, outbox, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
-import { getDeviceOwner, ownedBy } from '@/features/device-db/device-owner';
+import { currentOwnerSql, ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
 import { queuePhotosForUpload } from '@/features/device-db/photos';
 import { type InspectionRecord, inspectionRecordSchema } from '@/features/records/schema';
@@ -31,6 +31,30 @@ function issuesOf(error: z.ZodError): { path: string; message: string }[] {
 }
 
 /**
+ * In one statement (drafts are saved on every change): whether the id is already in the outbox, the
+ * phone's person, and the author of an existing draft with that id (undefined when there is none).
+ */
+async function draftFacts(
+  tx: DeviceDb,
+  id: string,
+): Promise<{ sent: boolean; authorId: string | null; draftAuthor: string | null | undefined }> {
+  const row = await tx.db
+    .select({
+      sent: sql<number>`EXISTS (SELECT 1 FROM ${outbox} WHERE ${outbox.id} = ${id})`,
+      authorId: sql<string | null>`${currentOwnerSql}`,
+      draftExists: sql<number>`EXISTS (SELECT 1 FROM ${drafts} WHERE ${drafts.id} = ${id})`,
+      draftAuthor: sql<string | null>`(SELECT ${drafts.authorId} FROM ${drafts} WHERE ${drafts.id} = ${id})`,
+    })
+    .from(sql`(SELECT 1)`)
+    .get();
+  return {
+    sent: Number(row?.sent) === 1,
+    authorId: row?.authorId ?? null,
+    draftAuthor: Number(row?.draftExists) === 1 ? (row?.draftAuthor ?? null) : undefined,
+  };
+}
+
+/**
  * Saves the in-progress record (any JSON value; its shape is the recording screen's). Refuses a record
  * that was already submitted: a submitted inspection is immutable, a correction is an amendment.
  */
@@ -50,15 +74,9 @@ export async function saveDraft(
   if (json === undefined) throw new DeviceDataError('The draft cannot be saved: it has no data.');
   const at = now.toISOString();
   await dev.transaction(async (tx) => {
-    const sent = await tx.db.select({ id: outbox.id }).from(outbox).where(eq(outbox.id, key.data.id)).get();
+    const { sent, authorId, draftAuthor } = await draftFacts(tx, key.data.id);
     if (sent) throw new DeviceDataError('This inspection was submitted and can no longer be changed.');
-    const authorId = await getDeviceOwner(tx);
-    const theirs = await tx.db
-      .select({ authorId: drafts.authorId })
-      .from(drafts)
-      .where(eq(drafts.id, key.data.id))
-      .get();
-    if (theirs && theirs.authorId !== authorId)
+    if (draftAuthor !== undefined && draftAuthor !== authorId)
       throw new DeviceDataError('This draft belongs to someone else on this phone.');
     const row = { id: key.data.id, rideId: key.data.rideId, json, createdAt: at, updatedAt: at, authorId };
     await tx.db
@@ -132,9 +150,8 @@ export async function submitDraft(
   const shas = [...new Set(rec.photos.map((p) => p.sha256))];
   const at = now.toISOString();
   await dev.transaction(async (tx) => {
-    const sent = await tx.db.select({ id: outbox.id }).from(outbox).where(eq(outbox.id, rec.id)).get();
+    const { sent, authorId } = await draftFacts(tx, rec.id);
     if (sent) throw new DeviceDataError('This inspection was already submitted.');
-    const authorId = await getDeviceOwner(tx);
     if (authorId !== null) {
       if (rec.authorId !== undefined && rec.authorId !== authorId)
         throw new DeviceDataError('This inspection was recorded by someone else.', [

@@ -172,6 +172,8 @@ class SyncController {
   private stop() {
     this.teardown?.();
     this.teardown = null;
+    // Nobody shows it now (signed out): the next person must not see this one's counts or refused records.
+    this.status = { ...emptySyncStatus, online: isOnline() };
   }
 }
 
