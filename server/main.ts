@@ -10,6 +10,7 @@ import { openDb } from '@/server/db';
 import { restrictNewFiles } from '@/server/files';
 import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
+import { releaseInterruptedSends } from '@/server/mail/deliver';
 import { startAccountMailLoop } from '@/server/auth/account-mail';
 import { startDeliveryLoop } from '@/server/notices/deliveries';
 import { startReminderJob } from '@/server/notices/reminders';
@@ -67,6 +68,9 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
       const result = await seedDemoData(database.db, config);
       if (result === 'seeded') logger.info('seeded the demo scenario (password: pivotwatch-demo)');
     }
+    // Holding DATA_DIR's lock, no earlier send can still be running: what a crash interrupted goes out now.
+    const released = releaseInterruptedSends(database.sqlite, new Date());
+    if (released > 0) logger.warn({ released }, 'e-mails interrupted by a stop are sent again');
     // Findings stored before rides numbered them get their number on the ride once, before anyone reads them.
     database.db.transaction((tx) => numberRideFindings(tx));
     // Rides stored before their pivot-life flags existed get them once (NDT due, wear), before the queue.
@@ -162,6 +166,27 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   return { port, url, config, close };
 }
 
+/**
+ * An exception nothing caught, or a rejected promise nobody awaited, leaves the process in a state no one
+ * planned for (a loop half-stopped, a connection in an unknown state). It is logged and the process exits
+ * non-zero, for its supervisor (systemd, a container runtime) to start a clean one; every write is one
+ * SQLite transaction, so nothing half-written outlives the exit. Returns the uninstaller.
+ */
+export function exitOnCrash(logger: Logger, exit: (code: number) => void = (code) => process.exit(code)) {
+  const onCrash = (what: string) => (error: unknown) => {
+    logger.fatal({ err: error }, `${what}; exiting so that a clean process is started`);
+    exit(1);
+  };
+  const onException = onCrash('uncaught exception');
+  const onRejection = onCrash('unhandled promise rejection');
+  process.on('uncaughtException', onException);
+  process.on('unhandledRejection', onRejection);
+  return () => {
+    process.off('uncaughtException', onException);
+    process.off('unhandledRejection', onRejection);
+  };
+}
+
 /** Where this machine reaches the server: a wildcard HOST (every interface) answers on loopback too. */
 function localUrl(host: string, port: number): string {
   const reachable = host === '0.0.0.0' || host === '::' ? '127.0.0.1' : host;
@@ -169,6 +194,8 @@ function localUrl(host: string, port: number): string {
 }
 
 if (require.main === module) {
+  // Fatal lines are written whatever LOG_LEVEL says, so the default level does for this logger.
+  exitOnCrash(createLogger({ logLevel: 'info' }));
   startServer().catch((error: unknown) => {
     if (error instanceof ConfigError) {
       console.error(error.message);

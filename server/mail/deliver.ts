@@ -18,6 +18,8 @@
  * the same message. The lease is far longer than the mailer's timeouts, so a slow attempt still running is
  * never doubled. Claiming before sending also keeps two workers from sending the same row at once.
  */
+import type Database from 'better-sqlite3';
+
 import type { Logger } from '@/server/logger';
 import {
   describeMailError,
@@ -109,4 +111,29 @@ export async function deliverOnce(opts: DeliverOptions): Promise<DeliveryOutcome
   await opts.hooks.markFailed({ attempt, error, at: now() });
   opts.logger?.error({ key: opts.mail.idempotencyKey, attempt, error }, 'delivery failed');
   return { status: 'failed', attempt, error };
+}
+
+/**
+ * The tables whose rows go through `deliverOnce`: notices (server/notices/deliveries.ts) and account
+ * e-mails (server/auth/account-mail.ts). Both have `status`, `next_attempt_at`.
+ */
+export const deliveryTables = ['notice_deliveries', 'account_mail'] as const;
+
+/**
+ * At start-up, before any sending: a row still `sending` was claimed by a process that is gone (only one
+ * server may use a DATA_DIR, server/backup/server-lock.ts), so its attempt is surely over and the row is due
+ * again now instead of after the lease; a restarted server would otherwise leave it unsent for 15 minutes.
+ * It goes out under the same idempotency key, so our mailbox drops a copy and a real server shows one
+ * the mail client can tell is the same (the accepted case in the file comment). Returns how many rows.
+ */
+export function releaseInterruptedSends(sqlite: Database.Database, now: Date): number {
+  let released = 0;
+  for (const table of deliveryTables) {
+    const exists = sqlite.prepare("SELECT 1 FROM sqlite_master WHERE type = 'table' AND name = ?").get(table);
+    if (!exists) continue;
+    released += sqlite
+      .prepare(`UPDATE ${table} SET status = 'pending', next_attempt_at = ? WHERE status = 'sending'`)
+      .run(now.toISOString()).changes;
+  }
+  return released;
 }
