@@ -18,6 +18,7 @@ import { backfillRideLifeFlags } from '@/server/pivot-life/flags';
 import { numberRideFindings } from '@/server/findings/findings';
 import { ensureQueueFresh, queueToday } from '@/server/queue/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
+import { startPhotoCleanup } from '@/server/sync/photo-cleanup';
 
 export type StartOptions = {
   /** Overrides on top of `process.env` (e.g. `{ PORT: '0', DATA_DIR: tmp }` in tests). */
@@ -111,6 +112,12 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   // Invitations and reset links queued before a restart go out now; new ones as they are queued.
   const accountMailLoop = startAccountMailLoop({ db: database.db, mailer: mail.mailer, logger });
   const reminderJob = startReminderJob({ db: database.db, appUrl: config.appUrl, logger });
+  const photoCleanup = startPhotoCleanup({
+    db: database.db,
+    dataDir: config.dataDir,
+    graceDays: config.photoGraceDays,
+    logger,
+  });
   const backupJob =
     config.backupIntervalSeconds > 0
       ? startBackupJob({
@@ -134,6 +141,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
       const force = setTimeout(() => server.closeAllConnections(), shutdownGraceMs);
       force.unref();
       reminderJob.stop();
+      photoCleanup.stop();
       server.close(() => {
         clearTimeout(force);
         void Promise.all([deliveryLoop.stop(), accountMailLoop.stop()])
