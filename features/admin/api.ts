@@ -1,16 +1,89 @@
-import { useQuery } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { z } from 'zod';
 
 import { apiFetch } from '@/features/api';
-import { adminUserListSchema } from '@/features/admin/schema';
+import {
+  adminUserListSchema,
+  adminUserSchema,
+  createPersonResponseSchema,
+  personResponseSchema,
+  type CreatePersonBody,
+  type UpdatePersonBody,
+} from '@/features/admin/schema';
 
 const adminKeys = {
   all: ['admin'] as const,
-  users: () => [...adminKeys.all, 'users'] as const,
+  people: () => [...adminKeys.all, 'users'] as const,
+  person: (id: string) => [...adminKeys.all, 'users', id] as const,
 };
 
-export function useAdminUsersQuery() {
+function usePeopleQuery() {
   return useQuery({
-    queryKey: adminKeys.users(),
-    queryFn: async () => (await apiFetch('/api/admin/users', { schema: adminUserListSchema })).users,
+    queryKey: adminKeys.people(),
+    queryFn: () => apiFetch('/api/admin/users', { schema: adminUserListSchema }),
+  });
+}
+
+/** Everyone who has an account (the administrator's home counts them). */
+export function useAdminUsersQuery() {
+  const query = usePeopleQuery();
+  return { ...query, data: query.data?.users };
+}
+
+/** Everyone, and the operator companies an operator may belong to. */
+export { usePeopleQuery };
+
+export function usePersonQuery(id: string) {
+  return useQuery({
+    queryKey: adminKeys.person(id),
+    queryFn: async () =>
+      (await apiFetch(`/api/admin/users/${encodeURIComponent(id)}`, { schema: personResponseSchema })).person,
+  });
+}
+
+const userAnswer = z.object({ user: adminUserSchema });
+
+/** After any change the list and the person's page are read again (state, last change, history). */
+function useInvalidatePeople() {
+  const client = useQueryClient();
+  return () => client.invalidateQueries({ queryKey: adminKeys.people() });
+}
+
+export function useCreatePersonMutation() {
+  const invalidate = useInvalidatePeople();
+  return useMutation({
+    mutationFn: (body: CreatePersonBody) =>
+      apiFetch('/api/admin/users', { body, schema: createPersonResponseSchema }),
+    onSuccess: invalidate,
+  });
+}
+
+export function useUpdatePersonMutation(id: string) {
+  const invalidate = useInvalidatePeople();
+  return useMutation({
+    mutationFn: async (body: UpdatePersonBody) =>
+      (
+        await apiFetch(`/api/admin/users/${encodeURIComponent(id)}`, {
+          method: 'PATCH',
+          body,
+          schema: userAnswer,
+        })
+      ).user,
+    onSuccess: invalidate,
+  });
+}
+
+/** Disable, enable, or send a reset link (a fresh invitation for someone who never chose a password). */
+export function usePersonActionMutation(id: string) {
+  const invalidate = useInvalidatePeople();
+  return useMutation({
+    mutationFn: async (action: 'disable' | 'enable' | 'reset') =>
+      (
+        await apiFetch(`/api/admin/users/${encodeURIComponent(id)}/${action}`, {
+          method: 'POST',
+          schema: userAnswer,
+        })
+      ).user,
+    onSuccess: invalidate,
   });
 }

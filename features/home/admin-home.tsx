@@ -10,7 +10,7 @@ import { StatRow, StatTile } from '@/components/stat-tile';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
-import { useAdminUsersQuery } from '@/features/admin';
+import { peopleHref, useAdminUsersQuery } from '@/features/admin';
 import { roleLabel } from '@/features/auth';
 import { RoleGate } from '@/features/auth/ui';
 import { outboxHref } from '@/features/notices';
@@ -39,6 +39,17 @@ export function AdminHome() {
                   ))}
                 </StatRow>
                 <SectionTitle>People</SectionTitle>
+                <Link href={peopleHref} asChild>
+                  <Pressable role="link" style={styles.link}>
+                    <Feather name="users" size={18} color={colors.accent} />
+                    <View style={styles.linkText}>
+                      <Text variant="heading" color={colors.accent}>
+                        Manage people: invite, change roles, disable, reset
+                      </Text>
+                    </View>
+                    <Feather name="chevron-right" size={18} color={colors.accent} />
+                  </Pressable>
+                </Link>
                 <DataTable
                   label="People"
                   rows={list}

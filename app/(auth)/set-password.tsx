@@ -1,0 +1,1 @@
+export { SetPasswordScreen as default } from '@/features/auth/set-password-screen';
