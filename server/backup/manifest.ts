@@ -84,7 +84,7 @@ export function listBackups(backupDir: string): BackupEntry[] {
   const entries: BackupEntry[] = [];
   for (const name of names) {
     const dir = path.join(backupDir, name);
-    if (isPartialName(name) || !fs.statSync(dir).isDirectory()) continue;
+    if (isPartialName(name) || !fs.statSync(dir, { throwIfNoEntry: false })?.isDirectory()) continue;
     try {
       entries.push({ name, dir, manifest: readManifest(dir), problem: null });
     } catch (error) {
