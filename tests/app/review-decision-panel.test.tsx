@@ -46,6 +46,7 @@ type Detail = {
     reviewedByName: string | null;
     rideStatus: 'in_service' | 'restricted' | 'out_of_service';
     rideStatusReason: string | null;
+    approvalRefusal?: string | null;
   };
 };
 
@@ -212,6 +213,7 @@ function Desk() {
       reviewState={i.reviewState}
       reviewNote={i.reviewNote}
       photos={photos}
+      approvalRefusal={i.approvalRefusal}
     />
   );
 }
@@ -783,5 +785,24 @@ describe('after approval: the notice and the corrective-action loop', () => {
     await renderDeskWithFindings();
     expect(within(screen.getByLabelText('Finding 1')).queryByLabelText('State: Open')).toBeNull();
     expect(server.calls.some((c) => c.path === '/api/notices')).toBe(false);
+  });
+});
+
+describe('one’s own inspection', () => {
+  test('the server’s reason replaces Approve; returning it stays possible', async () => {
+    const reason =
+      'You recorded this inspection, so another supervisor must approve it (an administrator can allow ' +
+      'approving one’s own inspections). You may still return it.';
+    server.detail.inspection.approvalRefusal = reason;
+    await renderDesk();
+    expect(screen.getByText(reason)).toBeTruthy();
+    expect(screen.queryByRole('button', { name: 'Approve inspection' })).toBeNull();
+    expect(screen.getByRole('button', { name: 'Return to inspector' })).toBeTruthy();
+  });
+
+  test('without a reason (another’s inspection, or an older server) Approve is offered', async () => {
+    await renderDesk();
+    expect(screen.getByRole('button', { name: 'Approve inspection' })).toBeTruthy();
+    expect(screen.queryByTestId('approval-refusal')).toBeNull();
   });
 });
