@@ -292,3 +292,42 @@ export function sessionUserOf(db: Db, id: string): SessionUser {
   if (!user) throw notFound('No such person.');
   return user;
 }
+
+/**
+ * The first administrator of an install, made from the command line (`npm run create-admin`). The audit
+ * entry names the new administrator as its own author: there is no one else yet.
+ */
+export async function createAdministrator(
+  db: Db,
+  input: { email: string; name: string; password: string },
+  now: Date,
+): Promise<AdminUser> {
+  const email = input.email.trim().toLowerCase();
+  const passwordHash = await hashPassword(input.password);
+  return db.transaction((tx) => {
+    if (tx.select({ id: users.id }).from(users).where(eq(users.email, email)).get()) {
+      throw conflict(`A person with the e-mail ${email} already exists.`, 'email_taken');
+    }
+    const { id } = tx
+      .insert(users)
+      .values({
+        email,
+        name: input.name,
+        role: 'admin',
+        passwordHash,
+        companyId: null,
+        createdAt: now.toISOString(),
+      })
+      .returning({ id: users.id })
+      .get();
+    const user = adminUser(tx, id);
+    recordPeopleAudit(tx, {
+      userId: id,
+      entityId: id,
+      action: 'create',
+      summary: `${user.name} added as administrator from the command line`,
+      after: snapshot(user),
+    });
+    return user;
+  });
+}
