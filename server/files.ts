@@ -50,3 +50,22 @@ export function restrictNewFiles(): void {
     // In a worker thread: the main thread has set it for the whole process.
   }
 }
+
+/**
+ * Creates `dir` 0700, or takes group and other access off one an earlier release left open (its photos
+ * were written 0644 then). Says which, so the caller can log a change; `failed` when it is not ours to change.
+ */
+export function makePrivateDir(dir: string): 'created' | 'tightened' | 'kept' | 'failed' {
+  const before = fs.statSync(dir, { throwIfNoEntry: false });
+  if (!before) {
+    fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
+    return 'created';
+  }
+  if ((before.mode & 0o077) === 0) return 'kept';
+  try {
+    fs.chmodSync(dir, before.mode & 0o700);
+    return 'tightened';
+  } catch {
+    return 'failed';
+  }
+}

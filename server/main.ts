@@ -7,7 +7,7 @@ import { createApp } from '@/server/app';
 import { lockDataDir, startBackupJob } from '@/server/backup';
 import { ConfigError, demoSeedingReason, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
-import { restrictNewFiles } from '@/server/files';
+import { makePrivateDir, restrictNewFiles } from '@/server/files';
 import { createLogger, type Logger } from '@/server/logger';
 import { startMailService } from '@/server/mail';
 import { releaseInterruptedSends } from '@/server/mail/deliver';
@@ -46,7 +46,11 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   const config = loadConfig({ ...process.env, ...opts.env });
   const logger = opts.logger ?? createLogger(config);
   // One server per DATA_DIR (and none during a restore); the lock goes when the process does, however it ends.
-  fs.mkdirSync(config.dataDir, { recursive: true, mode: 0o700 });
+  const privacy = makePrivateDir(config.dataDir);
+  if (privacy === 'tightened')
+    logger.warn({ dataDir: config.dataDir }, 'DATA_DIR was open to others; now 0700');
+  if (privacy === 'failed')
+    logger.warn({ dataDir: config.dataDir }, 'DATA_DIR is open to others; make it 0700');
   const dataDirLock = lockDataDir(config.dataDir);
   let opened: ReturnType<typeof openDb>;
   try {

@@ -90,6 +90,10 @@ export function startBackupJob(opts: BackupJobOptions): BackupJob {
   const earliest = now().getTime() + overdueDelayMs;
   const due = newest?.manifest ? Date.parse(newest.manifest.createdAt) + opts.intervalMs : earliest;
   schedule(new Date(Math.max(due, earliest)));
+  opts.logger?.info(
+    { backupDir: opts.backupDir, everyHours: opts.intervalMs / 3_600_000, keep: opts.keep, next: dueAt },
+    'backups scheduled',
+  );
 
   return {
     nextAt: () => dueAt,

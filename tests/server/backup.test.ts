@@ -24,7 +24,7 @@ import {
 import { sha256OfFile } from '@/server/backup/manifest';
 import { parseEnv } from '@/server/config';
 import { databaseFileName, migrationState, openDb } from '@/server/db';
-import { restrictNewFiles, writeWhole } from '@/server/files';
+import { makePrivateDir, restrictNewFiles, writeWhole } from '@/server/files';
 import { serverMigrationsDir } from '@/server/paths';
 import { ndtReportsDirOf, storeNdtReport } from '@/server/pivot-life/ndt-report-store';
 import { photosDirOf, storePhoto } from '@/server/sync/photo-store';
@@ -352,4 +352,15 @@ test('BACKUP_* settings: defaults, off, and clear errors', () => {
   });
   expect(() => parseEnv({ BACKUP_INTERVAL: 'daily' })).toThrow(/BACKUP_INTERVAL/);
   expect(() => parseEnv({ BACKUP_KEEP: '0' })).toThrow(/BACKUP_KEEP/);
+});
+
+test('a DATA_DIR an earlier release left open to others is made 0700 at start', () => {
+  const dir = path.join(tempDir(), 'old-data');
+  fs.mkdirSync(dir);
+  fs.chmodSync(dir, 0o755);
+  expect(makePrivateDir(dir)).toBe('tightened');
+  expect(mode(dir)).toBe(0o700);
+  expect(makePrivateDir(dir)).toBe('kept');
+  expect(makePrivateDir(path.join(dir, 'new'))).toBe('created');
+  expect(mode(path.join(dir, 'new'))).toBe(0o700);
 });
