@@ -14,6 +14,7 @@ import { currentUser, requireAuth, requireRole } from '@/server/auth/require-aut
 import { validate } from '@/server/http/validate';
 import type { MailboxEntry } from '@/server/mail/mailbox';
 import { noticePdf, requeueNotice } from '@/server/notices/deliveries';
+import { cachedNoticePdf } from '@/server/notices/pdf/cache';
 import { reportCorrectiveAction } from '@/server/notices/corrective-action';
 import { acknowledgeNotice, getNotice, listNotices, mustSeeNotice } from '@/server/notices/read';
 import { closeFinding, reopenFinding } from '@/server/review/finding-verdict';
@@ -96,8 +97,12 @@ export function noticesRouter(deps: ApiDeps): Router {
   });
 
   router.get('/notices/:id/pdf', signedIn, pdfInput, async (_req, res) => {
-    const { document } = mustSeeNotice(deps.db, currentUser(res), pdfInput.params(res).id);
-    const pdf = await noticePdf(deps.db, deps.config.dataDir, document, pdfInput.query(res).size);
+    const { id, document } = mustSeeNotice(deps.db, currentUser(res), pdfInput.params(res).id);
+    const pageSize = pdfInput.query(res).size;
+    // Rendered once per notice, paper size and content, then read from disk (server/notices/pdf/cache.ts).
+    const { pdf } = await cachedNoticePdf(deps.db, deps.config.dataDir, { id, document, pageSize }, () =>
+      noticePdf(deps.db, deps.config.dataDir, document, pageSize),
+    );
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `inline; filename="${safeFileName(document.reference)}.pdf"`);
     res.setHeader('Cache-Control', 'private, no-cache');

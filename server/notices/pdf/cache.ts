@@ -1,0 +1,106 @@
+/**
+ * Notice PDFs cached on disk, one per notice and paper size: DATA_DIR/cache/notice-pdfs/<notice>.<size>.
+ * <key>.pdf. Rendering one takes 0.5–1.7 s of the event loop; the notice's document is frozen when it is
+ * issued, so the same PDF can be served again. The key is a hash of everything the PDF prints from:
+ * the document, the paper size, which of its photos the server holds (a photo uploaded after the notice
+ * was issued appears in the next PDF), and the code that draws it (the renderer, its words and fonts:
+ * a new version of Pivotwatch renders afresh). Files are written whole (server/files.ts), so a reader
+ * never sees half a PDF; an older file for the same notice and size is removed when a newer one is written.
+ */
+import { createHash } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+
+import { inArray } from 'drizzle-orm';
+
+import { photos } from '@/db/server/inspections';
+import type { NoticeDocument } from '@/features/notices/schema';
+import type { Db } from '@/server/db';
+import { writeWhole } from '@/server/files';
+import { repoRoot } from '@/server/paths';
+
+type PageSize = 'A4' | 'LETTER';
+
+export const noticePdfCacheDirOf = (dataDir: string) => path.join(dataDir, 'cache', 'notice-pdfs');
+
+/** What draws a notice: its renderer, the shared PDF parts, the words and formats in lib/, the fonts. */
+const rendererSources = ['server/notices/pdf', 'server/pdf', 'server/notices', 'lib', 'fonts'];
+
+let rendererStamp: string | undefined;
+
+/** A hash of the drawing code's files, read once per process (the code changes only with a restart). */
+function stampOfRenderer(): string {
+  if (rendererStamp !== undefined) return rendererStamp;
+  const hash = createHash('sha256');
+  for (const dir of rendererSources) {
+    const abs = path.join(repoRoot, dir);
+    let names: string[];
+    try {
+      names = fs.readdirSync(abs).sort();
+    } catch {
+      continue;
+    }
+    for (const name of names) {
+      const file = path.join(abs, name);
+      if (!fs.statSync(file).isFile()) continue;
+      hash.update(`${dir}/${name}\0`);
+      hash.update(fs.readFileSync(file));
+    }
+  }
+  rendererStamp = hash.digest('hex');
+  return rendererStamp;
+}
+
+function keyOf(db: Pick<Db, 'select'>, doc: NoticeDocument, pageSize: PageSize): string {
+  const json = JSON.stringify(doc);
+  const named = [...new Set(json.match(/\b[0-9a-f]{64}\b/g) ?? [])];
+  const held =
+    named.length === 0
+      ? []
+      : db
+          .select({ sha256: photos.sha256 })
+          .from(photos)
+          .where(inArray(photos.sha256, named))
+          .all()
+          .map((r) => r.sha256)
+          .sort();
+  return createHash('sha256')
+    .update(`${stampOfRenderer()}\0${pageSize}\0${held.join(',')}\0${json}`)
+    .digest('hex')
+    .slice(0, 32);
+}
+
+/**
+ * The notice's PDF from the cache, or rendered by `render` and cached. `cached` says which, for the log
+ * and the tests. A cache that cannot be written (a full disk) still answers the rendered PDF.
+ */
+export async function cachedNoticePdf(
+  db: Db,
+  dataDir: string,
+  notice: { id: string; document: NoticeDocument; pageSize: PageSize },
+  render: () => Promise<Buffer>,
+): Promise<{ pdf: Buffer; cached: boolean }> {
+  const dir = noticePdfCacheDirOf(dataDir);
+  // Notice ids are UUIDs; anything else is hashed so it can never leave the folder.
+  const safeId = /^[0-9a-zA-Z-]{1,64}$/.test(notice.id)
+    ? notice.id
+    : createHash('sha256').update(notice.id).digest('hex');
+  const prefix = `${safeId}.${notice.pageSize}.`;
+  const file = path.join(dir, `${prefix}${keyOf(db, notice.document, notice.pageSize)}.pdf`);
+  try {
+    return { pdf: await fs.promises.readFile(file), cached: true };
+  } catch {
+    // Not cached yet (or no longer): render below.
+  }
+  const pdf = await render();
+  try {
+    await writeWhole(file, pdf);
+    const stale = (await fs.promises.readdir(dir)).filter(
+      (name) => name.startsWith(prefix) && name.endsWith('.pdf') && path.join(dir, name) !== file,
+    );
+    await Promise.all(stale.map((name) => fs.promises.rm(path.join(dir, name), { force: true })));
+  } catch {
+    // The cache is only a cache: the PDF is answered all the same.
+  }
+  return { pdf, cached: false };
+}

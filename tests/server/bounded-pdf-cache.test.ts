@@ -1,0 +1,89 @@
+/**
+ * Notice PDFs are rendered once per notice, paper size and content, then served from the disk cache
+ * (server/notices/pdf/cache.ts): the second GET renders nothing and answers the very same bytes; the other
+ * paper size is its own file; a photo the notice names, uploaded after the first render, makes a new PDF.
+ */
+import fs from 'node:fs';
+
+import { sql } from 'drizzle-orm';
+import request from 'supertest';
+
+import { notices } from '@/db/server/notices';
+import * as deliveries from '@/server/notices/deliveries';
+import { noticePdfCacheDirOf } from '@/server/notices/pdf/cache';
+
+import { signInAs } from './helpers';
+import {
+  approveAndIssue,
+  inspectWithFindings,
+  makeNoticeServer,
+  pdfText,
+  photoPng,
+  type NoticeServer,
+} from './notices-fixtures';
+import { sha256Hex } from './sync-fixtures';
+
+let s: NoticeServer;
+let token: string;
+beforeAll(async () => {
+  s = await makeNoticeServer(new Date('2026-05-04T08:00:00Z'));
+  token = await signInAs(s.app, 'supervisor@pivotwatch.test');
+});
+afterAll(() => s.close());
+
+const getPdf = (id: string, size = 'A4') =>
+  request(s.app)
+    .get(`/api/notices/${id}/pdf?size=${size}`)
+    .set('Authorization', `Bearer ${token}`)
+    .buffer(true)
+    .parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+const cached = () => fs.readdirSync(noticePdfCacheDirOf(s.config.dataDir)).sort();
+
+test('the second GET is served from the cache, byte for byte; sizes and new photos get their own', async () => {
+  const inspected = await inspectWithFindings(
+    s,
+    'Skylark',
+    [{ severity: 'fix_by_date', description: 'Step edge worn', dueOn: '2026-05-30', photos: [0] }],
+    1,
+  );
+  const notice = approveAndIssue(s, inspected.inspectionId);
+  // The notice also names a photo the server does not hold yet (its upload still on the way).
+  const late = photoPng(301);
+  const lateSha = sha256Hex(late);
+  s.db.run(
+    sql`UPDATE ${notices} SET document = json_insert(document, '$.findings[0].photos[#]', json_object('sha256', ${lateSha}, 'caption', 'Late photo')) WHERE id = ${notice.id}`,
+  );
+  const renders = jest.spyOn(deliveries, 'noticePdf');
+
+  const first = await getPdf(notice.id);
+  expect(first.status).toBe(200);
+  expect(first.headers['content-type']).toBe('application/pdf');
+  expect(renders).toHaveBeenCalledTimes(1);
+  const second = await getPdf(notice.id);
+  expect(renders).toHaveBeenCalledTimes(1);
+  expect(Buffer.compare(second.body as Buffer, first.body as Buffer)).toBe(0);
+  expect(cached()).toHaveLength(1);
+  // An independent reader (pdf-parse) finds the notice in the cached copy.
+  expect(await pdfText(second.body as Buffer)).toContain(notice.reference);
+
+  const letter = await getPdf(notice.id, 'LETTER');
+  expect(letter.status).toBe(200);
+  expect(renders).toHaveBeenCalledTimes(2);
+  expect(Buffer.compare(letter.body as Buffer, first.body as Buffer)).not.toBe(0);
+  expect(cached()).toHaveLength(2);
+
+  // The late photo arrives: the next A4 PDF is drawn again with it, and replaces the older file.
+  expect((await s.putPhoto('inspector@pivotwatch.test', late, lateSha)).status).toBe(201);
+  const withPhoto = await getPdf(notice.id);
+  expect(renders).toHaveBeenCalledTimes(3);
+  expect((withPhoto.body as Buffer).length).toBeGreaterThan((first.body as Buffer).length);
+  expect(cached()).toHaveLength(2);
+  const again = await getPdf(notice.id);
+  expect(renders).toHaveBeenCalledTimes(3);
+  expect(Buffer.compare(again.body as Buffer, withPhoto.body as Buffer)).toBe(0);
+  renders.mockRestore();
+}, 60_000);
