@@ -12,6 +12,7 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 
 import type { InspectionRecord } from '@/features/records/schema';
+import { dataDirInUse } from '@/server/backup';
 import { databaseFileName, openDb } from '@/server/db';
 import { seedDemoData } from '@/server/seed/demo';
 
@@ -91,6 +92,8 @@ test('a SIGKILL in the middle of pushes loses no accepted record and doubles non
   }));
 
   server = await spawnServer(dataDir);
+  // The running server holds DATA_DIR: no second server, no restore.
+  expect(dataDirInUse(dataDir)).toBe(true);
   const token = await signIn(server.url, 'inspector@pivotwatch.test');
   const accepted = new Set<string>();
   const answered: Answer[] = [];
@@ -115,6 +118,8 @@ test('a SIGKILL in the middle of pushes loses no accepted record and doubles non
   await Promise.all([lane(), lane(), lane(), lane()]);
   expect(await killed).toBe('SIGKILL');
   server = null;
+  // The operating system dropped the lock with the killed process: nothing stale to clear by hand.
+  expect(dataDirInUse(dataDir)).toBe(false);
   expect(answered.length).toBeGreaterThanOrEqual(3);
   expect(answered.length).toBeLessThan(BATCHES);
   for (const a of answered) expect(a.results.every((r) => r.status === 'accepted')).toBe(true);
