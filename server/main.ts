@@ -4,7 +4,7 @@ import { isIP, type AddressInfo } from 'node:net';
 import path from 'node:path';
 
 import { createApp } from '@/server/app';
-import { lockDataDir, startBackupJob } from '@/server/backup';
+import { DataDirBusyError, lockDataDir, startBackupJob } from '@/server/backup';
 import { ConfigError, demoSeedingReason, loadConfig, type Config, type Env } from '@/server/config';
 import { openDb } from '@/server/db';
 import { makePrivateDir, restrictNewFiles } from '@/server/files';
@@ -209,7 +209,7 @@ if (require.main === module) {
   // Fatal lines are written whatever LOG_LEVEL says, so the default level does for this logger.
   exitOnCrash(createLogger({ logLevel: 'info' }));
   startServer().catch((error: unknown) => {
-    if (error instanceof ConfigError) {
+    if (error instanceof ConfigError || error instanceof DataDirBusyError) {
       console.error(error.message);
     } else {
       console.error('Pivotwatch could not start:', error);
