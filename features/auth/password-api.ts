@@ -13,11 +13,16 @@ import { tokenStore } from '@/features/session';
 
 const linkPath = (token: string) => `/api/auth/password-links/${encodeURIComponent(token)}`;
 
-/** Keeps the fresh session the server answered with, so this device stays (or becomes) signed in. */
-function useKeepSession() {
+/**
+ * Keeps the fresh session the server answered with, so this device stays (or becomes) signed in. A link
+ * may sign in someone other than whoever used the device last: then, as at sign-in, nothing the last
+ * person left in memory is kept (`fresh`).
+ */
+function useKeepSession(fresh: boolean) {
   const client = useQueryClient();
   return async (res: SignInResponse) => {
     await tokenStore.set({ token: res.token, expiresAt: res.expiresAt, user: res.user });
+    if (fresh) client.clear();
     client.setQueryData(authKeys.session(), { user: res.user, offline: false });
     return res.user;
   };
@@ -25,7 +30,7 @@ function useKeepSession() {
 
 /** The person's own change; the server ends their other sessions and answers a new one for this device. */
 export function usePasswordChangeMutation() {
-  const keep = useKeepSession();
+  const keep = useKeepSession(false);
   return useMutation({
     mutationFn: async (body: PasswordChangeBody) =>
       keep(await apiFetch('/api/auth/password', { body, schema: passwordChangeResponseSchema })),
@@ -44,7 +49,7 @@ export function usePasswordLinkQuery(token: string | null) {
 
 /** Sets the password from a link and signs this device in as its owner. */
 export function useSetPasswordMutation(token: string) {
-  const keep = useKeepSession();
+  const keep = useKeepSession(true);
   return useMutation({
     mutationFn: async (password: string) =>
       keep(
