@@ -1,14 +1,16 @@
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
-import { Screen } from '@/components/screen';
+import { Column, Columns, Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { roleLabel, useSession } from '@/features/auth';
+import { PasswordChangeCard } from '@/features/auth/ui';
 import { PhoneStorageCard } from '@/features/device-db/ui';
 import { InspectorSignOut, SignOutButton } from '@/features/shell/sign-out-card';
 
 /**
  * The person's own page. It lives in the shell, above the device database and sync, because signing out
- * an inspector has to count and wipe what the phone holds for them.
+ * an inspector has to count and wipe what the phone holds for them. Who you are and signing out first
+ * (the phone's thumb reach), then the password and the phone's storage; side by side on a wide screen.
  */
 export function AccountScreen() {
   const session = useSession();
@@ -16,16 +18,23 @@ export function AccountScreen() {
   if (!user) return null;
   return (
     <Screen title="Account">
-      <Card>
-        <Text variant="heading">{user.name}</Text>
-        <Text muted>{user.email}</Text>
-        <Text>
-          {roleLabel[user.role]}
-          {user.companyName ? ` · ${user.companyName}` : ''}
-        </Text>
-      </Card>
-      <PhoneStorageCard />
-      {user.role === 'inspector' ? <InspectorSignOut /> : <SignOutButton />}
+      <Columns>
+        <Column>
+          <Card>
+            <Text variant="heading">{user.name}</Text>
+            <Text muted>{user.email}</Text>
+            <Text>
+              {roleLabel[user.role]}
+              {user.companyName ? ` · ${user.companyName}` : ''}
+            </Text>
+          </Card>
+          {user.role === 'inspector' ? <InspectorSignOut /> : <SignOutButton />}
+        </Column>
+        <Column>
+          <PasswordChangeCard user={user} />
+          <PhoneStorageCard />
+        </Column>
+      </Columns>
       <Caution full />
     </Screen>
   );

@@ -104,8 +104,11 @@ test('unsent work: the warning says what and how much; keeping it signs out and 
   const api = standInApi({ '/api/auth/sign-out': () => ({ status: 204 }) });
   const { queued, draftId } = await withUnsentWork();
   renderAccount();
+  // The screen also carries the password change and (an inspector's) phone storage.
+  await screen.findByText(/Changing it signs you out on every/);
+  await screen.findByLabelText('Storage on this phone');
   fireEvent.press(await screen.findByRole('button', { name: 'Sign out' }));
-  await screen.findByText('Not yet on the server');
+  await screen.findByText('Not yet on the server', {}, { timeout: 10_000 });
   screen.getByText('• 1 inspection being recorded (not yet submitted)');
   screen.getByText('• 1 submitted inspection not yet sent');
   screen.getByRole('button', { name: 'Send now' });
@@ -113,7 +116,7 @@ test('unsent work: the warning says what and how much; keeping it signs out and 
   expect(mockTokenClear).not.toHaveBeenCalled();
 
   fireEvent.press(screen.getByRole('button', { name: 'Sign out and keep it for me here' }));
-  await screen.findByText('Sign-in page');
+  await screen.findByText('Sign-in page', {}, { timeout: 10_000 });
   expect(api.callsTo('POST', '/api/auth/sign-out')).toHaveLength(1);
   expect(mockTokenClear).toHaveBeenCalledTimes(1);
   expect(await getDeviceOwner(dev)).toBeNull();
@@ -127,8 +130,9 @@ test('"Send now" syncs first and counts again; "Stay signed in" keeps everything
   await withUnsentWork();
   renderAccount();
   fireEvent.press(await screen.findByRole('button', { name: 'Sign out' }));
+  const sendNow = await screen.findByRole('button', { name: 'Send now' }, { timeout: 10_000 });
   await act(async () => {
-    fireEvent.press(await screen.findByRole('button', { name: 'Send now' }));
+    fireEvent.press(sendNow);
   });
   expect(mockSyncNow).toHaveBeenCalledTimes(1);
   // Nothing went (the sync is a stand-in): the warning stays, and says so.
@@ -145,10 +149,10 @@ test('offline: no "Send now", the sign-out still goes through on the phone', asy
   await withUnsentWork();
   renderAccount();
   fireEvent.press(await screen.findByRole('button', { name: 'Sign out' }));
-  await screen.findByText(/No connection/);
+  await screen.findByText(/No connection/, {}, { timeout: 10_000 });
   expect(screen.queryByRole('button', { name: 'Send now' })).toBeNull();
   fireEvent.press(screen.getByRole('button', { name: 'Sign out and keep it for me here' }));
-  await screen.findByText('Sign-in page');
+  await screen.findByText('Sign-in page', {}, { timeout: 10_000 });
   expect(mockTokenClear).toHaveBeenCalledTimes(1);
   expect(await getDeviceOwner(dev)).toBeNull();
 });
@@ -158,7 +162,7 @@ test('nothing unsent: no warning, straight to sign-in', async () => {
   dev.sqlite.prepare(`INSERT INTO cached_rides (id, json, updated_at) VALUES ('r1', '{}', '')`).run();
   renderAccount();
   fireEvent.press(await screen.findByRole('button', { name: 'Sign out' }));
-  await screen.findByText('Sign-in page');
+  await screen.findByText('Sign-in page', {}, { timeout: 10_000 });
   expect(screen.queryByText('Not yet on the server')).toBeNull();
   expect(api.callsTo('POST', '/api/auth/sign-out')).toHaveLength(1);
   await waitFor(() =>
@@ -169,8 +173,10 @@ test('nothing unsent: no warning, straight to sign-in', async () => {
 test('a desk role signs out without a device database', async () => {
   const api = standInApi({ '/api/auth/sign-out': () => ({ status: 204 }) });
   renderAccount({ ...inspector, id: 'u-sup', role: 'supervisor' });
+  await screen.findByText(/Changing it signs you out on every/);
+  expect(screen.queryByLabelText('Storage on this phone')).toBeNull();
   fireEvent.press(await screen.findByRole('button', { name: 'Sign out' }));
-  await screen.findByText('Sign-in page');
+  await screen.findByText('Sign-in page', {}, { timeout: 10_000 });
   expect(api.callsTo('POST', '/api/auth/sign-out')).toHaveLength(1);
   expect(mockTokenClear).toHaveBeenCalledTimes(1);
 });
