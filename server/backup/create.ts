@@ -100,7 +100,13 @@ async function backUpStoredFiles(dataDir: string, backupDir: string, temp: strin
           // Gone from the previous backup, or links not possible there: copy instead.
         }
       }
-      await fs.promises.copyFile(path.join(dataDir, dir, name), target, fs.constants.COPYFILE_FICLONE);
+      try {
+        await fs.promises.copyFile(path.join(dataDir, dir, name), target, fs.constants.COPYFILE_FICLONE);
+      } catch (error) {
+        // Removed since the listing (the cleanup of unreferenced photos): it is not part of this backup.
+        if ((error as { code?: string }).code === 'ENOENT') continue;
+        throw error;
+      }
       await fs.promises.chmod(target, 0o600);
       const { size } = await fs.promises.stat(target);
       files.push({ path: rel, bytes: size, sha256: await sha256OfFile(target) });
