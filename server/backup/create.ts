@@ -172,6 +172,8 @@ export async function createBackup(opts: BackupOptions): Promise<BackupResult> {
       bytes: (await fs.promises.stat(dbCopy)).size,
       sha256: await sha256OfFile(dbCopy),
     };
+    // Listed after the database copy: a store writes the file before its row, so every file a row in the
+    // copy names is on disk by now.
     const stored = await backUpStoredFiles(opts.dataDir, opts.backupDir, temp);
     const manifest: BackupManifest = {
       format: 'pivotwatch-backup',
