@@ -5,10 +5,12 @@
  */
 import express, { type RequestHandler } from 'express';
 
+import { refuseDeepJson } from '@/server/http/json-depth';
+
 /** Paths that parse their own larger bodies (after authentication); the small parser leaves them alone. */
 const largeBodyPaths = ['/api/sync/push', '/api/fatigue/'];
 
-const small = express.json({ limit: '2mb' });
+const small = express.json({ limit: '2mb', verify: refuseDeepJson });
 
 /** The app-wide parser: 2 MB, except on the paths above, whose routers parse after sign-in. */
 export const smallJsonBody: RequestHandler = (req, res, next) => {
@@ -24,7 +26,7 @@ export const smallJsonBody: RequestHandler = (req, res, next) => {
  * A phone's push batch (up to 50 inspections with their readings) may exceed 2 MB; a 413 there would make
  * the phone re-send the same batch for ever.
  */
-export const syncPushJsonBody = express.json({ limit: '16mb' });
+export const syncPushJsonBody = express.json({ limit: '16mb', verify: refuseDeepJson });
 
 /** A history of 1,000,000 values for rainflow counting is about 20 MB of JSON. */
-export const fatigueJsonBody = express.json({ limit: '32mb' });
+export const fatigueJsonBody = express.json({ limit: '32mb', verify: refuseDeepJson });
