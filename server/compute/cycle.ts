@@ -19,6 +19,7 @@ export const HTTP_CYCLE_MAX_POINTS = 100_000;
 type Issue = { path: string; message: string };
 
 const lengthOf = (value: unknown) => (Array.isArray(value) ? value.length : 0);
+const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 /**
  * The size check, on the raw body before it is queued (cheap: it reads three fields). A body of the wrong
@@ -28,13 +29,16 @@ export function cycleSizeIssue(body: unknown): Issue | null {
   if (typeof body !== 'object' || body === null) return null;
   const { samples, bodies, seats } = body as Record<string, unknown>;
   if (typeof samples !== 'number' || !Number.isFinite(samples)) return null;
-  const rows = Math.max(1, lengthOf(bodies) + lengthOf(seats));
+  const bodyCount = lengthOf(bodies);
+  const seatCount = lengthOf(seats);
+  const rows = Math.max(1, bodyCount + seatCount);
   if (samples * rows <= HTTP_CYCLE_MAX_POINTS) return null;
   const most = Math.floor(HTTP_CYCLE_MAX_POINTS / rows);
   return {
     path: 'samples',
     message:
-      `At most ${most.toLocaleString('en')} samples for ${rows} bodies and seats over the API ` +
+      `At most ${most.toLocaleString('en')} samples for ${plural(bodyCount, 'body', 'bodies')} and ` +
+      `${plural(seatCount, 'seat', 'seats')} over the API ` +
       `(samples × (bodies + seats) ≤ ${HTTP_CYCLE_MAX_POINTS.toLocaleString('en')}); ask for fewer samples`,
   };
 }
