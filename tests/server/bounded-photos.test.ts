@@ -4,6 +4,9 @@
  * quota is their own; the refusal is a 429 with Retry-After and stores nothing. Limits are set low here
  * (3 photos an hour, 1 MB a day) so the edges are reached with a few small uploads.
  */
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+
 import { eq, sql } from 'drizzle-orm';
 import request from 'supertest';
 
@@ -94,6 +97,44 @@ test('the day’s bytes: a photo that would pass 1 MB in 24 hours is refused and
     expect((await send(next)).status).toBe(201);
   } finally {
     daily.close();
+  }
+});
+
+test('over the quota, an upload is answered 429 before its body is read', async () => {
+  // 8 MB declared is past the 1 MB day (the supervisor has sent 1 kB); only the first 64 kB are sent.
+  const listener = http.createServer(server.app);
+  await new Promise<void>((resolve) => listener.listen(0, '127.0.0.1', resolve));
+  try {
+    const { port } = listener.address() as AddressInfo;
+    const answer = await new Promise<{ status: number; code: string }>((resolve, reject) => {
+      const req = http.request({
+        host: '127.0.0.1',
+        port,
+        method: 'PUT',
+        path: `/api/photos/${'a'.repeat(64)}`,
+        headers: {
+          Authorization: `Bearer ${supervisor}`,
+          'Content-Type': 'image/jpeg',
+          'Content-Length': String(8 * 1024 * 1024),
+        },
+      });
+      req.write(Buffer.alloc(64 * 1024));
+      req.on('response', (res) => {
+        let body = '';
+        res.on('data', (d) => (body += String(d)));
+        res.on('end', () => {
+          resolve({ status: res.statusCode ?? 0, code: JSON.parse(body).error.code });
+          req.destroy();
+        });
+      });
+      req.on('error', (error) => {
+        if ((error as NodeJS.ErrnoException).code !== 'ECONNRESET') reject(error);
+      });
+    });
+    expect(answer).toEqual({ status: 429, code: 'upload_quota' });
+  } finally {
+    listener.closeAllConnections();
+    await new Promise((resolve) => listener.close(resolve));
   }
 });
 
