@@ -2,7 +2,7 @@
  * People administration end to end against the real server, web export and loopback mailbox: an
  * administrator invites an inspector at desktop size; the invitation goes out by SMTP; the link from the
  * e-mail, opened on a phone, sets a password and signs the new inspector in; the administrator then sees
- * the account active, and the used link no longer works.
+ * the account active, the used link no longer works, and the inspector changes her own password.
  */
 import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
@@ -60,6 +60,21 @@ test('an invited inspector sets a password from the e-mailed link and is signed 
   await phone.waitForURL('**/today', { timeout: 30_000 });
   await phone.getByRole('heading', { name: /Wren/ }).first().waitFor();
   await screenshot(phone, 'set-password-signed-in-phone');
+
+  // Her own password, changed on the Account screen: the phone stays signed in.
+  await phone.getByRole('link', { name: 'Account' }).click();
+  await phone.getByLabel('Current password', { exact: true }).fill('lantern wheel at dusk');
+  await phone.getByLabel('New password', { exact: true }).fill('harbour lights at dawn');
+  await phone.getByLabel('New password again', { exact: true }).fill('harbour lights at dawn');
+  await phone.getByRole('button', { name: 'Change password' }).click();
+  await phone.getByText(/Password changed/).waitFor();
+  await screenshot(phone, 'account-password-changed-phone');
+  const changed = await fetch(`${app.baseUrl}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: 'harbour lights at dawn' }),
+  });
+  expect(changed.status).toBe(200);
 
   // The link works once: opened again it says so.
   const again = await app.openPage('phone');
