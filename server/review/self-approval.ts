@@ -62,8 +62,12 @@ export function setSelfApproval(
   });
 }
 
-/** Why `user` may not approve an inspection recorded by `inspectorId`, or null when they may. */
+/**
+ * Why `user` may not approve an inspection recorded by `inspectorId`, or null when they may (or decide
+ * nothing at all: inspectors and operators are refused by their role, not by this rule).
+ */
 export function approvalRefusal(db: Reader, user: SessionUser, inspectorId: string): string | null {
+  if (user.role !== 'supervisor' && user.role !== 'admin') return null;
   if (user.id !== inspectorId || getSelfApprovalSetting(db).allowed) return null;
   return (
     'You recorded this inspection, so another supervisor must approve it (an administrator can allow ' +
