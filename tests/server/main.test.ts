@@ -2,7 +2,7 @@ import fs from 'node:fs';
 
 import { startFakeSmtp } from '@/server/mail';
 import { startServer } from '@/server/main';
-import { demoPassword } from '@/server/seed/demo';
+import { demoPassword, demoUsers } from '@/server/seed/demo';
 
 import { makeTempDir } from './helpers';
 
@@ -51,7 +51,7 @@ test('starts on a free port, seeds, serves the API; a restart keeps users and se
     const users = await fetch(`${second.url}/api/admin/users`, {
       headers: { Authorization: `Bearer ${(await admin.json()).token}` },
     });
-    expect((await users.json()).users).toHaveLength(5);
+    expect((await users.json()).users).toHaveLength(demoUsers.length);
   } finally {
     await second.close();
   }
