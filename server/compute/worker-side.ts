@@ -6,13 +6,13 @@ import { parentPort } from 'node:worker_threads';
 
 import type { WorkerReply } from '@/server/compute/pool';
 
-export function serveJobs<I, O>(handle: (input: I) => O): void {
+export function serveJobs<I, O>(handle: (input: I) => O | Promise<O>): void {
   const port = parentPort;
   if (!port) throw new Error('serveJobs runs only inside a worker thread.');
-  port.on('message', ({ id, input }: { id: number; input: I }) => {
+  port.on('message', async ({ id, input }: { id: number; input: I }) => {
     let reply: WorkerReply<O>;
     try {
-      reply = { id, ok: true, output: handle(input) };
+      reply = { id, ok: true, output: await handle(input) };
     } catch (error) {
       reply = { id, ok: false, message: error instanceof Error ? error.message : String(error) };
     }

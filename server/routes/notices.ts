@@ -13,8 +13,9 @@ import { HttpError, notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import type { MailboxEntry } from '@/server/mail/mailbox';
-import { noticePdf, requeueNotice } from '@/server/notices/deliveries';
+import { requeueNotice } from '@/server/notices/deliveries';
 import { cachedNoticePdf } from '@/server/notices/pdf/cache';
+import { createNoticePdfPool, renderNoticePdfOffThread } from '@/server/notices/pdf/render-off-thread';
 import { reportCorrectiveAction } from '@/server/notices/corrective-action';
 import { acknowledgeNotice, getNotice, listNotices, mustSeeNotice } from '@/server/notices/read';
 import { closeFinding, reopenFinding } from '@/server/review/finding-verdict';
@@ -81,6 +82,7 @@ const safeFileName = (name: string) => name.replace(/[^\w.-]+/g, '_');
  */
 export function noticesRouter(deps: ApiDeps): Router {
   const router = Router();
+  const pdfPool = createNoticePdfPool();
   const signedIn = requireAuth(deps);
   const operator = [signedIn, requireRole('operator')];
   const verifiers = [signedIn, requireRole('supervisor', 'admin', 'inspector')];
@@ -99,9 +101,9 @@ export function noticesRouter(deps: ApiDeps): Router {
   router.get('/notices/:id/pdf', signedIn, pdfInput, async (_req, res) => {
     const { id, document } = mustSeeNotice(deps.db, currentUser(res), pdfInput.params(res).id);
     const pageSize = pdfInput.query(res).size;
-    // Rendered once per notice, paper size and content, then read from disk (server/notices/pdf/cache.ts).
+    // Drawn once per notice, paper size and content in a worker thread, then read from disk.
     const { pdf } = await cachedNoticePdf(deps.db, deps.config.dataDir, { id, document, pageSize }, () =>
-      noticePdf(deps.db, deps.config.dataDir, document, pageSize),
+      renderNoticePdfOffThread(pdfPool, deps.db, deps.config.dataDir, document, pageSize),
     );
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `inline; filename="${safeFileName(document.reference)}.pdf"`);

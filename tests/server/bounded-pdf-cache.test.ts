@@ -1,16 +1,18 @@
 /**
- * Notice PDFs are rendered once per notice, paper size and content, then served from the disk cache
- * (server/notices/pdf/cache.ts): the second GET renders nothing and answers the very same bytes; the other
- * paper size is its own file; a photo the notice names, uploaded after the first render, makes a new PDF.
+ * Notice PDFs are drawn in a worker thread once per notice, paper size and content, then served from the
+ * disk cache (server/notices/pdf/cache.ts): the second GET renders nothing and answers the very same
+ * bytes; the other paper size is its own file; a photo the notice names, uploaded after the first render,
+ * makes a new PDF.
  */
 import fs from 'node:fs';
 
-import { sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import request from 'supertest';
 
 import { notices } from '@/db/server/notices';
-import * as deliveries from '@/server/notices/deliveries';
+import { noticePdf } from '@/server/notices/deliveries';
 import { noticePdfCacheDirOf } from '@/server/notices/pdf/cache';
+import * as offThread from '@/server/notices/pdf/render-off-thread';
 
 import { signInAs } from './helpers';
 import {
@@ -57,12 +59,16 @@ test('the second GET is served from the cache, byte for byte; sizes and new phot
   s.db.run(
     sql`UPDATE ${notices} SET document = json_insert(document, '$.findings[0].photos[#]', json_object('sha256', ${lateSha}, 'caption', 'Late photo')) WHERE id = ${notice.id}`,
   );
-  const renders = jest.spyOn(deliveries, 'noticePdf');
+  const renders = jest.spyOn(offThread, 'renderNoticePdfOffThread');
 
   const first = await getPdf(notice.id);
   expect(first.status).toBe(200);
   expect(first.headers['content-type']).toBe('application/pdf');
   expect(renders).toHaveBeenCalledTimes(1);
+  // Drawn in the worker thread: the same bytes as drawn in this process.
+  const document = s.db.select().from(notices).where(eq(notices.id, notice.id)).get()!.document;
+  const here = await noticePdf(s.db, s.config.dataDir, document, 'A4');
+  expect(Buffer.compare(first.body as Buffer, here)).toBe(0);
   const second = await getPdf(notice.id);
   expect(renders).toHaveBeenCalledTimes(1);
   expect(Buffer.compare(second.body as Buffer, first.body as Buffer)).toBe(0);
