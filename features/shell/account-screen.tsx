@@ -2,6 +2,7 @@ import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
 import { Column, Columns, Screen } from '@/components/screen';
 import { Text } from '@/components/text';
+import { useWide } from '@/components/use-wide';
 import { roleLabel, useSession } from '@/features/auth';
 import { PasswordChangeCard } from '@/features/auth/ui';
 import { PhoneStorageCard } from '@/features/device-db/ui';
@@ -14,27 +15,42 @@ import { InspectorSignOut, SignOutButton } from '@/features/shell/sign-out-card'
  */
 export function AccountScreen() {
   const session = useSession();
+  const wide = useWide();
   const user = session.data?.user;
   if (!user) return null;
+  const who = (
+    <>
+      <Card>
+        <Text variant="heading">{user.name}</Text>
+        <Text muted>{user.email}</Text>
+        <Text>
+          {roleLabel[user.role]}
+          {user.companyName ? ` · ${user.companyName}` : ''}
+        </Text>
+      </Card>
+      {user.role === 'inspector' ? <InspectorSignOut /> : <SignOutButton />}
+    </>
+  );
+  const settings = (
+    <>
+      <PasswordChangeCard user={user} />
+      <PhoneStorageCard />
+    </>
+  );
   return (
     <Screen title="Account">
-      <Columns>
-        <Column>
-          <Card>
-            <Text variant="heading">{user.name}</Text>
-            <Text muted>{user.email}</Text>
-            <Text>
-              {roleLabel[user.role]}
-              {user.companyName ? ` · ${user.companyName}` : ''}
-            </Text>
-          </Card>
-          {user.role === 'inspector' ? <InspectorSignOut /> : <SignOutButton />}
-        </Column>
-        <Column>
-          <PasswordChangeCard user={user} />
-          <PhoneStorageCard />
-        </Column>
-      </Columns>
+      {/* Columns only side by side: stacked, a Column's zero basis would fold its cards over each other. */}
+      {wide ? (
+        <Columns>
+          <Column>{who}</Column>
+          <Column>{settings}</Column>
+        </Columns>
+      ) : (
+        <>
+          {who}
+          {settings}
+        </>
+      )}
       <Caution full />
     </Screen>
   );

@@ -152,3 +152,21 @@ test('a shared phone never mixes two inspectors’ work', async () => {
   expect(inspection.photos[0].received).toBe(true);
   await page.context().close();
 });
+
+test('the Account page: password and phone storage beside who you are, at 1440 and 390', async () => {
+  const desk = await app.signedIn('desktop', 'inspector@pivotwatch.test');
+  await desk.goto(`${app.baseUrl}/account`);
+  await desk.getByLabel('Storage on this phone').waitFor({ timeout: 30_000 });
+  await desk.getByText(/Changing it signs you out on every/).waitFor();
+  await desk.getByRole('button', { name: 'Sign out' }).waitFor();
+  await screenshot(desk, 'desktop-account-inspector');
+  await desk.context().close();
+
+  const phone = await app.signedIn('phone', 'supervisor@pivotwatch.test');
+  await phone.goto(`${app.baseUrl}/account`);
+  await phone.getByText(/Changing it signs you out on every/).waitFor({ timeout: 30_000 });
+  // A desk role keeps nothing on the phone: no storage card.
+  expect(await phone.getByLabel('Storage on this phone').count()).toBe(0);
+  await screenshot(phone, 'phone-account-supervisor');
+  await phone.context().close();
+});
