@@ -12,4 +12,6 @@ export const reviewKeys = {
   findings: (inspectionId: string) => [...reviewKeys.inspection(inspectionId), 'findings'] as const,
   trail: (inspectionId: string) => [...reviewKeys.inspection(inspectionId), 'trail'] as const,
   trends: (rideId: string) => [...reviewKeys.all, 'trends', rideId] as const,
+  /** Whether supervisors may approve inspections they recorded (the inspection body's setting). */
+  selfApproval: () => [...reviewKeys.all, 'self-approval'] as const,
 };

@@ -11,6 +11,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
+import { SelfApprovalCard } from '@/features/review/self-approval-card';
 import { PagedList } from '@/components/paged-list';
 import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
@@ -50,10 +51,12 @@ const LIST_KEYS = [
  * Desktop: one dense table. Phone: the same items as cards.
  */
 export function QueueScreen() {
-  return <RoleGate roles={['supervisor', 'admin']}>{() => <Queue />}</RoleGate>;
+  return (
+    <RoleGate roles={['supervisor', 'admin']}>{(user) => <Queue admin={user.role === 'admin'} />}</RoleGate>
+  );
 }
 
-function Queue() {
+function Queue({ admin }: { admin: boolean }) {
   const wide = useWide();
   const [query, setQuery] = useListParams(queueQuerySchema, LIST_KEYS);
   // A range given the wrong way round is not sent; the "To" field says why.
@@ -130,6 +133,7 @@ function Queue() {
           </>
         )}
       </PagedList>
+      {admin ? <SelfApprovalCard /> : null}
     </Screen>
   );
 }

@@ -111,6 +111,7 @@ export const selfApprovalSettingSchema = z.object({
 });
 export type SelfApprovalSetting = z.infer<typeof selfApprovalSettingSchema>;
 export const selfApprovalInputSchema = z.strictObject({ allowed: z.boolean({ error: 'true or false' }) });
+export const selfApprovalResponseSchema = z.object({ selfApproval: selfApprovalSettingSchema });
 
 // ——— the queue ———
 

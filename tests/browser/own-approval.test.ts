@@ -1,7 +1,8 @@
 /**
  * A supervisor who recorded an inspection themselves opens it on the review desk: Approve is not offered,
  * the desk says why and that returning it is still possible (the inspection body's default, server-side in
- * server/review/self-approval.ts). Desktop (1440×900) and phone (390×844). Names are the invented demo's.
+ * server/review/self-approval.ts). Desktop (1440×900) and phone (390×844). An administrator then allows it
+ * from the review desk, and the supervisor is offered Approve. Names are the invented demo's.
  */
 import { randomUUID } from 'node:crypto';
 
@@ -44,4 +45,21 @@ test('the desk explains why a supervisor cannot approve their own inspection, at
     await screenshot(page, `own-approval-${size}`);
     await page.context().close();
   }
+
+  // An administrator allows it from the review desk; the supervisor's desk then offers Approve.
+  const admin = await app.signedIn('desktop', 'admin@pivotwatch.test');
+  await admin.goto(`${app.baseUrl}/review`);
+  const allow = admin.getByRole('checkbox', { name: 'Supervisors may approve inspections they recorded' });
+  await allow.waitFor({ timeout: 30_000 });
+  expect(await allow.getAttribute('aria-checked')).toBe('false');
+  await allow.click();
+  await admin.getByText(/^Changed .* by Rowan Ashby$/).waitFor();
+  expect(await allow.getAttribute('aria-checked')).toBe('true');
+  await allow.scrollIntoViewIfNeeded();
+  await screenshot(admin, 'own-approval-setting-desktop');
+
+  const desk = await app.signedIn('phone', 'supervisor@pivotwatch.test');
+  await desk.goto(`${app.baseUrl}/review/${record.id}`);
+  await desk.getByRole('button', { name: 'Approve inspection' }).waitFor({ timeout: 30_000 });
+  expect(await desk.getByTestId('approval-refusal').count()).toBe(0);
 });
