@@ -32,7 +32,10 @@ export function Columns({ children }: { children: React.ReactNode }) {
 }
 
 export function Column({ children, grow = 1 }: { children: React.ReactNode; grow?: number }) {
-  return <View style={[styles.column, { flexGrow: grow }]}>{children}</View>;
+  const wide = useWide();
+  // Side by side the columns share the row from a zero basis; stacked, a zero basis would give each a
+  // height of nothing and let the next one draw over it.
+  return <View style={wide ? [styles.column, { flexGrow: grow }] : styles.stacked}>{children}</View>;
 }
 
 export function SectionTitle({ children }: { children: string }) {
@@ -51,5 +54,6 @@ const styles = StyleSheet.create({
   columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
   stack: { gap: space.lg },
   column: { flexBasis: 0, gap: space.lg, minWidth: 0 },
+  stacked: { gap: space.lg },
   section: { marginTop: space.sm },
 });
