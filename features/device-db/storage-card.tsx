@@ -47,8 +47,8 @@ function StorageCardBody({ dev }: { dev: DeviceDb }) {
       ) : null}
       <Text variant="small" muted>
         Sent inspections and their photos stay {defaultPrunePolicy.keepDays} days after the server took them,
-        and for as long as a supervisor&apos;s decision or your correction is awaited. Drafts and anything not
-        yet sent are never removed.
+        and for as long as a supervisor&apos;s decision or your correction is awaited; Free space now lets the
+        decided ones go at once. Drafts and anything not yet sent are never removed.
       </Text>
       <Button
         label="Free space now"
@@ -196,7 +196,7 @@ const styles = StyleSheet.create({
   },
   list: { gap: space.xs, paddingVertical: space.xs },
   row: { flexDirection: 'row', gap: space.md, flexWrap: 'wrap' },
-  rowLabel: { width: 160 },
-  grow: { flex: 1, minWidth: 160 },
+  rowLabel: { width: 132 },
+  grow: { flex: 1, minWidth: 150 },
   outcome: { gap: space.xs },
 });
