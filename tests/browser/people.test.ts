@@ -88,6 +88,11 @@ test('an invited inspector sets a password from the e-mailed link and is signed 
   await admin.getByText(/chose a password from the invitation/).waitFor({ timeout: 30_000 });
   await screenshot(admin, 'person-desktop');
 
+  // The password card beside who is signed in, on a wide screen.
+  await admin.goto(`${app.baseUrl}/account`);
+  await admin.getByRole('button', { name: 'Change password' }).waitFor({ timeout: 60_000 });
+  await screenshot(admin, 'account-desktop');
+
   const adminPhone = await app.signedIn('phone', 'admin@pivotwatch.test');
   await adminPhone.goto(`${app.baseUrl}/admin/people`);
   await adminPhone.getByText('Wren Aldous').first().waitFor({ timeout: 60_000 });
