@@ -157,9 +157,11 @@ describe('planning', () => {
     const { inspectors } = inspectorListResponseSchema.parse(
       (await api.supervisor.get('/api/inspectors')).body,
     );
-    expect(inspectors.map((i) => i.name)).toEqual(['Tomas Reyne']);
+    // The demo's two inspectors, by name.
+    expect(inspectors.map((i) => i.name)).toEqual(['Lena Marwick', 'Tomas Reyne']);
+    const tomas = inspectors.find((i) => i.name === 'Tomas Reyne')!;
     const assigned = scheduleResponseSchema.parse(
-      (await api.supervisor.patch(`/api/schedules/${created.id}`, { assignedTo: inspectors[0].id })).body,
+      (await api.supervisor.patch(`/api/schedules/${created.id}`, { assignedTo: tomas.id })).body,
     ).schedule;
     expect(assigned.assignedTo?.name).toBe('Tomas Reyne');
     expect(assigned.assignedAt).toBe(now.toISOString());
