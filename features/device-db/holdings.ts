@@ -3,10 +3,11 @@
  * kept for reference until the pruning policy lets it go. Sizes are the stored text and photo bytes;
  * the database file also holds indexes and free pages, given apart.
  */
-import { type AnyColumn, sql } from 'drizzle-orm';
+import { type AnyColumn, not, sql } from 'drizzle-orm';
 
 import { drafts, outbox, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
+import { ownedBy } from '@/features/device-db/device-owner';
 
 type Amount = { count: number; bytes: number };
 
@@ -20,6 +21,11 @@ export type DeviceHoldings = {
   unsentPhotos: Amount;
   /** Photos the server has. */
   sentPhotos: Amount;
+  /**
+   * Unsent work another person left sealed on this phone (drafts, records and their photos), as one count
+   * and size only: the signed-in person learns that space is taken, never what it is.
+   */
+  keptForOthers: Amount;
   /** The database file: all pages, and the free ones inside it that a compaction would give back. */
   fileBytes: number;
   freeBytes: number;
@@ -41,6 +47,7 @@ export async function readDeviceHoldings(dev: DeviceDb): Promise<DeviceHoldings>
   const draftRow = await dev.db
     .select({ n: sql<number>`count(*)`, bytes: textBytes(drafts.json) })
     .from(drafts)
+    .where(ownedBy(drafts.authorId))
     .get();
   const outboxRows = await dev.db
     .select({
@@ -49,6 +56,7 @@ export async function readDeviceHoldings(dev: DeviceDb): Promise<DeviceHoldings>
       bytes: textBytes(outbox.json),
     })
     .from(outbox)
+    .where(ownedBy(outbox.authorId))
     .groupBy(sql`${outbox.state} = 'accepted'`)
     .all();
   const photoRows = await dev.db
@@ -58,8 +66,21 @@ export async function readDeviceHoldings(dev: DeviceDb): Promise<DeviceHoldings>
       bytes: sql<number>`coalesce(sum(${photoBlobs.bytes}), 0)`,
     })
     .from(photoBlobs)
+    .where(ownedBy(photoBlobs.authorId))
     .groupBy(sql`${photoBlobs.uploadState} = 'uploaded'`)
     .all();
+  const others = await dev.db
+    .select({
+      n: sql<number>`(SELECT count(*) FROM ${drafts} WHERE NOT ${ownedBy(drafts.authorId)})
+        + (SELECT count(*) FROM ${outbox} WHERE NOT ${ownedBy(outbox.authorId)} AND ${outbox.state} <> 'accepted')`,
+      bytes: sql<number>`(SELECT ${textBytes(drafts.json)} FROM ${drafts} WHERE NOT ${ownedBy(drafts.authorId)})
+        + (SELECT ${textBytes(outbox.json)} FROM ${outbox}
+           WHERE NOT ${ownedBy(outbox.authorId)} AND ${outbox.state} <> 'accepted')
+        + (SELECT coalesce(sum(${photoBlobs.bytes}), 0) FROM ${photoBlobs}
+           WHERE ${not(ownedBy(photoBlobs.authorId))} AND ${photoBlobs.uploadState} <> 'uploaded')`,
+    })
+    .from(sql`(SELECT 1)`)
+    .get();
   const pageSize = await pragmaNumber(dev, 'page_size');
   return {
     drafts: amount(draftRow),
@@ -67,6 +88,7 @@ export async function readDeviceHoldings(dev: DeviceDb): Promise<DeviceHoldings>
     sentRecords: amount(outboxRows.find((r) => Number(r.sent))),
     unsentPhotos: amount(photoRows.find((r) => !Number(r.sent))),
     sentPhotos: amount(photoRows.find((r) => Number(r.sent))),
+    keptForOthers: amount(others),
     fileBytes: (await pragmaNumber(dev, 'page_count')) * pageSize,
     freeBytes: (await pragmaNumber(dev, 'freelist_count')) * pageSize,
   };

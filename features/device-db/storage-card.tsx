@@ -138,6 +138,14 @@ function HoldingsList({ holdings: h }: { holdings: DeviceHoldings }) {
         h.sentRecords.bytes + h.sentPhotos.bytes,
       )}`,
     ],
+    ...(h.keptForOthers.count > 0
+      ? ([
+          [
+            'Kept for someone else',
+            `${plural(h.keptForOthers.count, 'unsent item')} · ${formatBytes(h.keptForOthers.bytes)} (sent when its author signs in)`,
+          ],
+        ] as [string, string][])
+      : []),
     [
       'Database file',
       `${formatBytes(h.fileBytes)}${h.freeBytes > 0 ? ` (${formatBytes(h.freeBytes)} of it reusable)` : ''}`,

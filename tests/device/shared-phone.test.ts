@@ -14,6 +14,7 @@ import {
   releaseDeviceOwner,
 } from '@/features/device-db/device-owner';
 import { listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
+import { readDeviceHoldings } from '@/features/device-db/holdings';
 import { DeviceDataError } from '@/features/device-db/errors';
 import { countOutbox, getOutboxItem, listOutbox } from '@/features/device-db/outbox';
 import { getPhotoBlob, listOwnPhotoBlobs, putPhotoBlob } from '@/features/device-db/photos';
@@ -186,6 +187,11 @@ describe('a change of person', () => {
     expect(await countOutbox(dev)).toEqual({ queued: 0, sending: 0, accepted: 0, rejected: 0 });
     expect(await countUnsentWork(dev)).toEqual({ drafts: 0, queued: 0, rejected: 0, photos: 0 });
     expect(await listOwnPhotoBlobs(dev, ['pending', 'uploading', 'local'])).toEqual([]);
+    // The storage card: Boris's own holdings are empty; Anna's sealed work is one count and size only.
+    const held = await readDeviceHoldings(dev);
+    expect([held.drafts.count, held.unsentRecords.count, held.unsentPhotos.count]).toEqual([0, 0, 0]);
+    expect(held.keptForOthers.count).toBe(2); // her draft and her queued record
+    expect(held.keptForOthers.bytes).toBeGreaterThan(fakeJpeg(1).length); // ... and the photo it needs
     await expect(saveDraft(dev, { id: annaDraft, rideId: 'ride-demo-1', data: {} })).rejects.toThrow(
       'belongs to someone else',
     );
