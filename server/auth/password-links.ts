@@ -22,7 +22,7 @@ import { queueAccountMail, type AccountMailContent } from '@/server/auth/account
 import { signSessionToken } from '@/server/auth/jwt';
 import { hashPassword, verifyPassword } from '@/server/auth/password';
 import { findSessionUser } from '@/server/auth/service';
-import { recordPeopleAudit } from '@/server/auth/people-audit';
+import { recordUserAudit } from '@/server/auth/user-audit';
 import { endSessions } from '@/server/auth/sessions';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
@@ -195,7 +195,7 @@ export async function usePasswordLink(
     if (claimed.changes !== 1) throw linkGone('used');
     tx.update(users).set({ passwordHash }).where(eq(users.id, link.userId)).run();
     endSessions(tx, link.userId, now);
-    recordPeopleAudit(tx, {
+    recordUserAudit(tx, {
       userId: link.userId,
       entityId: link.userId,
       action: 'password_set',
@@ -233,7 +233,7 @@ export async function changeOwnPassword(
   db.transaction((tx) => {
     tx.update(users).set({ passwordHash }).where(eq(users.id, user.id)).run();
     endSessions(tx, user.id, now);
-    recordPeopleAudit(tx, {
+    recordUserAudit(tx, {
       userId: user.id,
       entityId: user.id,
       action: 'password_change',

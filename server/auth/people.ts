@@ -16,7 +16,7 @@ import { roleVocabulary } from '@/lib/vocabulary';
 import { assertUserCompany, findSessionUser } from '@/server/auth/service';
 import { hashPassword } from '@/server/auth/password';
 import { issuePasswordLink } from '@/server/auth/password-links';
-import { recordPeopleAudit } from '@/server/auth/people-audit';
+import { recordUserAudit } from '@/server/auth/user-audit';
 import { endSessions } from '@/server/auth/sessions';
 import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
@@ -162,7 +162,7 @@ export async function createPerson(
       .get();
     const user = adminUser(tx, created.id);
     const roleWords = roleVocabulary[body.role].label;
-    recordPeopleAudit(tx, {
+    recordUserAudit(tx, {
       userId: actor.id,
       entityId: created.id,
       action: invited ? 'invite' : 'create',
@@ -217,7 +217,7 @@ export function updatePerson(db: Db, actor: SessionUser, id: string, patch: Upda
       companyId !== before.companyId ? `company to ${after.companyName ?? 'none'}` : null,
     ].filter(Boolean);
     if (changes.length > 0) {
-      recordPeopleAudit(tx, {
+      recordUserAudit(tx, {
         userId: actor.id,
         entityId: id,
         action: 'update',
@@ -242,7 +242,7 @@ export function setDisabled(db: Db, actor: SessionUser, id: string, disabled: bo
       .run();
     if (disabled) endSessions(tx, id, ctx.now);
     const after = adminUser(tx, id);
-    recordPeopleAudit(tx, {
+    recordUserAudit(tx, {
       userId: actor.id,
       entityId: id,
       action: disabled ? 'disable' : 'enable',
@@ -273,7 +273,7 @@ export async function resetPerson(db: Db, actor: SessionUser, id: string, ctx: C
     tx.update(users).set({ passwordHash }).where(eq(users.id, id)).run();
     endSessions(tx, id, ctx.now);
     issuePasswordLink(tx, { user: target, purpose, sender: actor, ...ctx });
-    recordPeopleAudit(tx, {
+    recordUserAudit(tx, {
       userId: actor.id,
       entityId: id,
       action: purpose === 'invite' ? 'invite' : 'password_reset',
@@ -321,7 +321,7 @@ export async function createAdministrator(
       .returning({ id: users.id })
       .get();
     const user = adminUser(tx, id);
-    recordPeopleAudit(tx, {
+    recordUserAudit(tx, {
       userId: id,
       entityId: id,
       action: 'create',

@@ -6,7 +6,7 @@ import { currentUser, requireAuth } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { signIn } from '@/server/auth/service';
 import { endSessions } from '@/server/auth/sessions';
-import { recordSessionAudit } from '@/server/auth/session-audit';
+import { recordUserAudit } from '@/server/auth/user-audit';
 import {
   accountSignInLimiter,
   addressSignInLimiter,
@@ -44,7 +44,7 @@ export function authRouter(deps: ApiDeps): Router {
     const user = currentUser(res);
     deps.db.transaction((tx) => {
       endSessions(tx, user.id, new Date());
-      recordSessionAudit(tx, {
+      recordUserAudit(tx, {
         userId: user.id,
         entityId: user.id,
         action: 'sign_out',

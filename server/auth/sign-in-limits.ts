@@ -1,7 +1,7 @@
 import type { Request, RequestHandler } from 'express';
 import { rateLimit } from 'express-rate-limit';
 
-import { recordSessionAudit } from '@/server/auth/session-audit';
+import { recordUserAudit } from '@/server/auth/user-audit';
 import type { SignInFailure } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
@@ -107,7 +107,7 @@ export function auditFailedSignIn(
 ): void {
   const { email, address } = attempt;
   const reason = reasonWords[failure.reason];
-  recordSessionAudit(deps.db, {
+  recordUserAudit(deps.db, {
     userId: null,
     entityId: failure.userId ?? email,
     action: 'sign_in_failed',
