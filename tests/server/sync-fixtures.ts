@@ -146,6 +146,11 @@ export function makeRecord(
     amendsId: null,
     declaration: testDeclaration,
     ...patch,
+    // A record submitted at a given time started 40 minutes before it (the server refuses a start after
+    // the submission), unless the test gives its own start.
+    ...(patch.submittedAt && !patch.startedAt
+      ? { startedAt: new Date(Date.parse(patch.submittedAt) - 40 * 60_000).toISOString() }
+      : {}),
     // After the patch: its readings are the ones given, confirmed above where the phone would have asked.
     readings,
   };
