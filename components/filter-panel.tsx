@@ -105,5 +105,6 @@ const styles = StyleSheet.create({
     columnGap: space.xl,
     rowGap: space.md,
   },
-  group: { gap: space.xs },
+  // A long chip list wraps inside the card instead of running past its edge.
+  group: { gap: space.xs, flexShrink: 1, maxWidth: '100%' },
 });
