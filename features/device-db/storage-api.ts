@@ -28,6 +28,9 @@ export function useDeviceHoldingsQuery(dev: DeviceDb) {
     queryKey: fieldKeys.holdings(),
     queryFn: () => readDeviceHoldings(dev),
     staleTime: 10_000,
+    // Syncs re-read the field's queries only where the sync panel is on screen (Today); Account has none, so
+    // the card looks again on its own: a few counts, cheap.
+    refetchInterval: 15_000,
   });
 }
 

@@ -5,7 +5,7 @@
  * then lets it and its photo go — in the browser's own SQLite (wa-sqlite on OPFS), compaction included.
  * The 30-day wait of the pruning after each sync is tested with pinned times in tests/device/prune.test.ts.
  */
-import type { Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 
 import {
   apiGet,
@@ -35,10 +35,41 @@ async function sendInspectionWithPhoto(page: Page) {
   await page.getByRole('checkbox', { name: /make this declaration/ }).click();
   await page.getByRole('button', { name: 'Submit inspection' }).click();
   await page.waitForURL('**/today');
+  // "Everything is sent" may still be the line from before the submit: wait for the server instead, until it
+  // holds the inspection and its photo (a sync runs at once and every 30 s while something waits).
+  const token = await apiToken(app.baseUrl, 'inspector@pivotwatch.test');
+  type Listed = { inspections: { id: string }[] };
+  type Detail = { inspection: { photos: { received: boolean }[] } };
+  const deadline = Date.now() + 90_000;
+  for (;;) {
+    const { inspections } = await apiGet<Listed>(app.baseUrl, '/api/inspections?mine=1', token);
+    const detail = inspections[0]
+      ? await apiGet<Detail>(app.baseUrl, `/api/inspections/${inspections[0].id}`, token)
+      : null;
+    if (detail?.inspection.photos[0]?.received) break;
+    if (Date.now() > deadline) throw new Error('the inspection and its photo never reached the server');
+    await page.waitForTimeout(500);
+  }
   await page.getByText('Everything is sent').waitFor({ timeout: 60000 });
 }
 
 const storageCard = (page: Page) => page.getByLabel('Storage on this phone');
+
+/**
+ * Waits until the card's "Not yet sent" and "Sent, kept for reference" rows read these counts. By row, not by
+ * text alone: "1 inspection, 1 photo" is also what "Not yet sent" reads before the sync has run.
+ */
+async function cardReads(card: Locator, want: { notYetSent: string; sent: string }) {
+  const row = (label: string, value: string) => new RegExp(`${label}\\s+${value} · `);
+  const deadline = Date.now() + 90_000;
+  let text = await card.innerText();
+  while (!row('Not yet sent', want.notYetSent).test(text) && Date.now() < deadline) {
+    await card.page().waitForTimeout(500);
+    text = await card.innerText();
+  }
+  expect(text).toMatch(row('Not yet sent', want.notYetSent));
+  expect(text).toMatch(row('Sent, kept for reference', want.sent));
+}
 
 test('Account shows what the phone keeps; sent work stays while its decision is awaited and goes once decided', async () => {
   const page = await app.openPage('phone');
@@ -51,13 +82,14 @@ test('Account shows what the phone keeps; sent work stays while its decision is 
   await page.waitForURL('**/account');
   const card = storageCard(page);
   await card.getByText(/ free of /).waitFor({ timeout: 30000 });
-  await card.getByText(/^1 inspection, 1 photo · /).waitFor();
+  // The record goes first and its photo at the same or the next sync (every 30 s while something waits).
+  await cardReads(card, { notYetSent: '0 inspections, 0 photos', sent: '1 inspection, 1 photo' });
   await screenshot(page, 'phone-account-storage');
 
   // Sent today, no decision yet: nothing may go.
   await card.getByRole('button', { name: 'Free space now' }).click();
   await card.getByText(/^Nothing more can go yet/).waitFor();
-  await card.getByText(/^1 inspection, 1 photo · /).waitFor();
+  await cardReads(card, { notYetSent: '0 inspections, 0 photos', sent: '1 inspection, 1 photo' });
 
   // A supervisor approves it; the inspector's next sync brings the decision to the phone.
   const supervisor = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
@@ -85,7 +117,7 @@ test('Account shows what the phone keeps; sent work stays while its decision is 
   // record and its photo go at once, from the browser's own SQLite, and the file is compacted.
   await page.getByRole('link', { name: 'Account' }).click();
   await page.waitForURL('**/account');
-  await card.getByText(/^1 inspection, 1 photo · /).waitFor();
+  await cardReads(card, { notYetSent: '0 inspections, 0 photos', sent: '1 inspection, 1 photo' });
   await card.getByRole('button', { name: 'Free space now' }).click();
   await card.getByText(/^Removed 1 sent inspection and 1 photo/).waitFor({ timeout: 30000 });
   expect(await card.getByText(/could not be compacted/).count()).toBe(0);
