@@ -8,6 +8,9 @@ const d3Umd = Object.fromEntries(
 );
 
 module.exports = {
+  // Server suites seed the demo (one bcrypt hash per demo user) in beforeAll; on a loaded 2-core machine
+  // that has passed 5 s. Each test still fails on its own assertions; this only gives hooks room.
+  testTimeout: 20_000,
   projects: [
     {
       displayName: 'app',
