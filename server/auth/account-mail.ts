@@ -7,13 +7,14 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import { and, asc, eq, lte, or, sql } from 'drizzle-orm';
+import { asc } from 'drizzle-orm';
 
 import { accountMail } from '@/db/server/accounts';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
-import { deliverOnce, sendingLeaseMs, type DeliveryHooks } from '@/server/mail/deliver';
-import type { Mailer, MailErrorInfo } from '@/server/mail/mailer';
+import { sqliteOf } from '@/server/sqlite-client';
+import { deliverOnce, deliveryDue, deliveryRowHooks } from '@/server/mail/deliver';
+import type { Mailer } from '@/server/mail/mailer';
 
 export type AccountMailContent = { subject: string; text: string; html: string };
 
@@ -45,51 +46,6 @@ export function queueAccountMail(
   });
 }
 
-function dueCondition(now: Date) {
-  return or(
-    and(eq(accountMail.status, 'pending'), lte(accountMail.nextAttemptAt, now.toISOString())),
-    and(
-      eq(accountMail.status, 'sending'),
-      lte(accountMail.claimedAt, new Date(now.getTime() - sendingLeaseMs).toISOString()),
-    ),
-  );
-}
-
-const errorText = (e: MailErrorInfo) =>
-  [e.responseCode, e.code, e.message].filter((x) => x !== null).join(' ');
-
-function hooksFor(db: Db, id: string): DeliveryHooks {
-  return {
-    claim: (now) => {
-      const row = db
-        .update(accountMail)
-        .set({ status: 'sending', attempts: sql`${accountMail.attempts} + 1`, claimedAt: now.toISOString() })
-        .where(and(eq(accountMail.id, id), dueCondition(now)))
-        .returning({ attempts: accountMail.attempts })
-        .get();
-      return row ? { attempt: row.attempts } : null;
-    },
-    markSent: ({ messageId, at }) => {
-      db.update(accountMail)
-        .set({ status: 'sent', messageId, sentAt: at.toISOString(), lastError: null, content: null })
-        .where(eq(accountMail.id, id))
-        .run();
-    },
-    markRetry: ({ error, nextAttemptAt }) => {
-      db.update(accountMail)
-        .set({ status: 'pending', nextAttemptAt: nextAttemptAt.toISOString(), lastError: errorText(error) })
-        .where(eq(accountMail.id, id))
-        .run();
-    },
-    markFailed: ({ error }) => {
-      db.update(accountMail)
-        .set({ status: 'failed', lastError: errorText(error) })
-        .where(eq(accountMail.id, id))
-        .run();
-    },
-  };
-}
-
 type AccountMailDeps = { db: Db; mailer: Mailer; logger?: Logger };
 
 /** Sends every account e-mail due at `now`, one at a time; returns how many went out. */
@@ -97,7 +53,7 @@ export async function processAccountMail(deps: AccountMailDeps, now: Date = new 
   const rows = deps.db
     .select()
     .from(accountMail)
-    .where(dueCondition(now))
+    .where(deliveryDue(accountMail, now))
     .orderBy(asc(accountMail.nextAttemptAt))
     .limit(50)
     .all();
@@ -107,7 +63,7 @@ export async function processAccountMail(deps: AccountMailDeps, now: Date = new 
     const outcome = await deliverOnce({
       mailer: deps.mailer,
       mail: { to: row.recipient, idempotencyKey: row.idempotencyKey, ...row.content },
-      hooks: hooksFor(deps.db, row.id),
+      hooks: deliveryRowHooks(sqliteOf(deps.db), 'account_mail', row.id, { forgetContent: true }),
       now: () => now,
       logger: deps.logger,
     });

@@ -19,6 +19,8 @@
  * never doubled. Claiming before sending also keeps two workers from sending the same row at once.
  */
 import type Database from 'better-sqlite3';
+import { and, eq, lte, or, type SQL } from 'drizzle-orm';
+import type { SQLiteColumn } from 'drizzle-orm/sqlite-core';
 
 import type { Logger } from '@/server/logger';
 import {
@@ -136,4 +138,71 @@ export function releaseInterruptedSends(sqlite: Database.Database, now: Date): n
       .run(now.toISOString()).changes;
   }
   return released;
+}
+
+/** One line for a failed attempt, kept on the row: `451 EENVELOPE: mailbox busy`. */
+export function mailErrorText(e: MailErrorInfo): string {
+  const codes = [e.responseCode, e.code].filter((x) => x !== null).join(' ');
+  return codes ? `${codes}: ${e.message}` : e.message;
+}
+
+/**
+ * The claim/sent/retry/failed updates of one row of a delivery table (`deliveryTables`: the same columns in
+ * each). The claim is one statement: only a row that is due — pending and past its time, or left `sending`
+ * longer than the lease — can be claimed, so two runs never send the same row together. `forgetContent`
+ * clears the message once sent (an account e-mail carries a set-password link).
+ */
+export function deliveryRowHooks(
+  sqlite: Database.Database,
+  table: (typeof deliveryTables)[number],
+  id: string,
+  opts: { forgetContent?: boolean } = {},
+): DeliveryHooks {
+  return {
+    claim: (now) => {
+      const row = sqlite
+        .prepare(
+          `UPDATE ${table} SET status = 'sending', attempts = attempts + 1, claimed_at = @now
+           WHERE id = @id AND ((status = 'pending' AND next_attempt_at <= @now)
+             OR (status = 'sending' AND claimed_at <= @stale))
+           RETURNING attempts`,
+        )
+        .get({
+          id,
+          now: now.toISOString(),
+          stale: new Date(now.getTime() - sendingLeaseMs).toISOString(),
+        }) as { attempts: number } | undefined;
+      return row ? { attempt: row.attempts } : null;
+    },
+    markSent: ({ messageId, at }) => {
+      const content = opts.forgetContent ? ', content = NULL' : '';
+      sqlite
+        .prepare(
+          `UPDATE ${table} SET status = 'sent', message_id = ?, sent_at = ?, last_error = NULL${content}
+           WHERE id = ?`,
+        )
+        .run(messageId, at.toISOString(), id);
+    },
+    markRetry: ({ error, nextAttemptAt: next }) => {
+      sqlite
+        .prepare(`UPDATE ${table} SET status = 'pending', next_attempt_at = ?, last_error = ? WHERE id = ?`)
+        .run(next.toISOString(), mailErrorText(error), id);
+    },
+    markFailed: ({ error }) => {
+      sqlite
+        .prepare(`UPDATE ${table} SET status = 'failed', last_error = ? WHERE id = ?`)
+        .run(mailErrorText(error), id);
+    },
+  };
+}
+
+/** Rows a run may take at `now`: pending and due, or left `sending` by an attempt that never finished. */
+export function deliveryDue(
+  t: { status: SQLiteColumn; nextAttemptAt: SQLiteColumn; claimedAt: SQLiteColumn },
+  now: Date,
+): SQL | undefined {
+  return or(
+    and(eq(t.status, 'pending'), lte(t.nextAttemptAt, now.toISOString())),
+    and(eq(t.status, 'sending'), lte(t.claimedAt, new Date(now.getTime() - sendingLeaseMs).toISOString())),
+  );
 }

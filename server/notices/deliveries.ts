@@ -10,7 +10,7 @@
  */
 import fs from 'node:fs';
 
-import { and, asc, eq, lte, or, sql } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 
 import { photos } from '@/db/server/inspections';
 import { noticeDeliveries, notices, type NoticeDeliveryRow } from '@/db/server/notices';
@@ -23,8 +23,9 @@ import type { NoticeDocument } from '@/features/notices/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
-import { deliverOnce, sendingLeaseMs, type DeliveryHooks, type DeliveryOutcome } from '@/server/mail/deliver';
-import { deliveryKey, type Mailer, type MailErrorInfo, type OutgoingMail } from '@/server/mail/mailer';
+import { sqliteOf } from '@/server/sqlite-client';
+import { deliverOnce, deliveryDue, deliveryRowHooks, type DeliveryOutcome } from '@/server/mail/deliver';
+import { deliveryKey, type Mailer, type OutgoingMail } from '@/server/mail/mailer';
 import type { RetryPolicy } from '@/server/mail/retry';
 import { deliveriesQueued, onDeliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate, formatWhen } from '@/lib/dates';
@@ -48,62 +49,6 @@ type DeliveryDeps = {
 };
 
 type DeliveryRunResult = { sent: number; retry: number; failed: number; skipped: number };
-
-const staleBefore = (now: Date, leaseMs: number) => new Date(now.getTime() - leaseMs).toISOString();
-
-/** Rows a run may take at `now`: pending and due, or left `sending` by an attempt that never finished. */
-function dueCondition(now: Date) {
-  const at = now.toISOString();
-  return or(
-    and(eq(noticeDeliveries.status, 'pending'), lte(noticeDeliveries.nextAttemptAt, at)),
-    and(
-      eq(noticeDeliveries.status, 'sending'),
-      lte(noticeDeliveries.claimedAt, staleBefore(now, sendingLeaseMs)),
-    ),
-  );
-}
-
-const errorText = (e: MailErrorInfo) =>
-  [e.responseCode, e.code].filter((x) => x !== null).join(' ') +
-  (e.responseCode || e.code ? ': ' : '') +
-  e.message;
-
-function hooksFor(db: Db, id: string): DeliveryHooks {
-  return {
-    // One statement: only a row that is due can be claimed, so two runs never send the same row together.
-    claim: (now) => {
-      const row = db
-        .update(noticeDeliveries)
-        .set({
-          status: 'sending',
-          attempts: sql`${noticeDeliveries.attempts} + 1`,
-          claimedAt: now.toISOString(),
-        })
-        .where(and(eq(noticeDeliveries.id, id), dueCondition(now)))
-        .returning({ attempts: noticeDeliveries.attempts })
-        .get();
-      return row ? { attempt: row.attempts } : null;
-    },
-    markSent: ({ messageId, at }) => {
-      db.update(noticeDeliveries)
-        .set({ status: 'sent', messageId, sentAt: at.toISOString(), lastError: null })
-        .where(eq(noticeDeliveries.id, id))
-        .run();
-    },
-    markRetry: ({ error, nextAttemptAt }) => {
-      db.update(noticeDeliveries)
-        .set({ status: 'pending', nextAttemptAt: nextAttemptAt.toISOString(), lastError: errorText(error) })
-        .where(eq(noticeDeliveries.id, id))
-        .run();
-    },
-    markFailed: ({ error }) => {
-      db.update(noticeDeliveries)
-        .set({ status: 'failed', lastError: errorText(error) })
-        .where(eq(noticeDeliveries.id, id))
-        .run();
-    },
-  };
-}
 
 // ——— the notice e-mail ———
 
@@ -281,14 +226,14 @@ export async function processDeliveries(
   const rows = deps.db
     .select()
     .from(noticeDeliveries)
-    .where(dueCondition(now))
+    .where(deliveryDue(noticeDeliveries, now))
     .orderBy(asc(noticeDeliveries.nextAttemptAt), asc(noticeDeliveries.createdAt))
     .limit(deps.batchSize ?? 50)
     .all();
   const result: DeliveryRunResult = { sent: 0, retry: 0, failed: 0, skipped: 0 };
   const pdfs = new Map<string, Promise<{ doc: NoticeDocument; pdf: Buffer }>>();
   for (const row of rows) {
-    const hooks = hooksFor(deps.db, row.id);
+    const hooks = deliveryRowHooks(sqliteOf(deps.db), 'notice_deliveries', row.id);
     let mail: OutgoingMail & { to: string };
     try {
       mail = await mailFor(deps, row, pdfs);
