@@ -58,6 +58,14 @@ export { analyseSpacing, unwrapAngles } from '@/features/loads/engine/conditioni
 
 export { DEFAULT_CYCLE_SAMPLES, analyseCycle, cycleResultToJson } from '@/features/loads/engine/cycle';
 export {
+  boundCycle,
+  cycleSeries,
+  pickSampleIndices,
+  pickValues,
+  valuesPerSample,
+} from '@/features/loads/engine/decimate';
+export type { BoundedCycle } from '@/features/loads/engine/decimate';
+export {
   FREE_MOTION_ATOL,
   FREE_MOTION_RTOL,
   FREE_PERIOD_SEARCH_S,
