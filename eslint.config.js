@@ -37,4 +37,19 @@ module.exports = defineConfig([
       'import/no-restricted-paths': ['error', { zones: layerZones(__dirname) }],
     },
   },
+  {
+    // mathjs is a build-time tool: unit factors are generated from it (scripts/gen-unit-factors.ts), so
+    // the web bundle and the server never carry it.
+    files: ['**/*.{js,jsx,ts,tsx}'],
+    ignores: ['scripts/**', 'tests/**', 'bench/**'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [{ name: 'mathjs', message: 'Use lib/units.ts (factors generated at build time).' }],
+          patterns: [{ group: ['mathjs/*'], message: 'Use lib/units.ts (factors generated at build time).' }],
+        },
+      ],
+    },
+  },
 ]);

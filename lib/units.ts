@@ -1,18 +1,13 @@
-import { create, createUnitDependencies, unitDependencies } from 'mathjs';
+import { UNIT_FACTORS, type UnitName } from '@/lib/unit-factors.generated';
 
 /**
  * Units at the edges: everything inside is SI (m, kg, s, N, N·m, rad, Pa); values are converted only
- * for display and entry. Conversion factors come from mathjs's unit definitions, never typed by hand,
- * and are cached per pair because all our units are linear (no offsets).
+ * for display and entry. Conversion factors are computed from mathjs's unit definitions at build time
+ * (scripts/gen-unit-factors.ts writes lib/unit-factors.generated.ts), never typed by hand; mathjs itself
+ * stays out of the app and the server. All our units are linear (no offsets), so a factor is enough.
  */
 
-// Only the unit machinery is pulled in, not the whole of mathjs.
-const math = create({ unitDependencies, createUnitDependencies });
-// Not in mathjs: revolutions per minute (defined through its 'cycle' = 2π rad) and standard gravity as
-// a unit (9.80665 m/s², the CGPM 1901 value; 'g' in mathjs is the gram).
-math.createUnit('rpm', '1 cycle/min');
-math.createUnit('gee', '9.80665 m/s^2');
-math.createUnit('ksi', '1000 psi');
+export type { UnitName } from '@/lib/unit-factors.generated';
 
 export type UnitSystem = 'si' | 'us';
 
@@ -31,10 +26,10 @@ export type QuantityKind =
   | 'time'
   | 'frequency';
 
-/** A display unit: its label as printed, its mathjs name, and the SI unit it converts from. */
-export type DisplayUnit = { label: string; mathjs: string };
+/** A display unit: its label as printed and its unit name in mathjs's syntax (the generated table's key). */
+export type DisplayUnit = { label: string; mathjs: UnitName };
 
-const SI_BASE: Record<QuantityKind, string> = {
+const SI_BASE: Record<QuantityKind, UnitName> = {
   force: 'N',
   moment: 'N m',
   length: 'm',
@@ -50,7 +45,11 @@ const SI_BASE: Record<QuantityKind, string> = {
   frequency: 'Hz',
 };
 
-const u = (label: string, mathjs: string = label): DisplayUnit => ({ label, mathjs });
+function u(label: UnitName): DisplayUnit;
+function u(label: string, mathjs: UnitName): DisplayUnit;
+function u(label: string, mathjs?: UnitName): DisplayUnit {
+  return { label, mathjs: mathjs ?? (label as UnitName) };
+}
 
 /**
  * The display units per system, smallest first; a value is shown in the largest unit it reaches at
@@ -89,30 +88,34 @@ const DISPLAY: Record<UnitSystem, Record<QuantityKind, DisplayUnit[]>> = {
   },
 };
 
-const factorCache = new Map<string, number>();
+const FACTORS: Readonly<Record<string, Readonly<Record<string, number>>>> = UNIT_FACTORS;
 
-/** How many `to` make one `from` (mathjs unit names, e.g. 'lbf', 'kN m', 'rpm'). */
+/** Whether the generated table has factors for a unit name (mathjs syntax). */
+export function isKnownUnit(name: string): name is UnitName {
+  return Object.prototype.hasOwnProperty.call(FACTORS, name);
+}
+
+/**
+ * How many `to` make one `from` (unit names in mathjs's syntax, e.g. 'lbf', 'kN m', 'rpm'). Throws for a
+ * unit the table does not have or for two different quantities, as mathjs did.
+ */
 export function conversionFactor(from: string, to: string): number {
-  const key = `${from}>${to}`;
-  let f = factorCache.get(key);
-  if (f === undefined) {
-    f = math.unit(1, from).toNumber(to);
-    factorCache.set(key, f);
-  }
+  const f = isKnownUnit(from) && isKnownUnit(to) ? FACTORS[from][to] : undefined;
+  if (f === undefined) throw new Error(`No conversion from "${from}" to "${to}"`);
   return f;
 }
 
-export function convert(value: number, from: string, to: string): number {
+export function convert(value: number, from: UnitName, to: UnitName): number {
   return value * conversionFactor(from, to);
 }
 
-/** An SI value of a kind, in a named display unit (mathjs name). */
-export function fromSI(valueSI: number, kind: QuantityKind, unit: string): number {
+/** An SI value of a kind, in a named display unit. */
+export function fromSI(valueSI: number, kind: QuantityKind, unit: UnitName): number {
   return convert(valueSI, SI_BASE[kind], unit);
 }
 
 /** A value entered in a named unit, back to SI for the kind. */
-export function toSI(value: number, kind: QuantityKind, unit: string): number {
+export function toSI(value: number, kind: QuantityKind, unit: UnitName): number {
   return convert(value, unit, SI_BASE[kind]);
 }
 
@@ -158,7 +161,8 @@ export function formatQuantity(
 ): FormattedQuantity {
   const unit = options.unit
     ? (DISPLAY[system][kind].find((d) => d.label === options.unit || d.mathjs === options.unit) ??
-      u(options.unit))
+        // Any other name is taken as a unit name; conversion refuses one the table lacks.
+        { label: options.unit, mathjs: options.unit as UnitName })
     : pickDisplayUnit(valueSI, kind, system);
   const shown = fromSI(valueSI, kind, unit.mathjs);
   const value = formatSignificant(shown, options.sig ?? 4);

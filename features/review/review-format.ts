@@ -3,7 +3,7 @@
  * kind (features/inspections/schema.ts): speed rad/s, period s, amplitude rad, diameter and clearance m.
  */
 import type { ReadingKind } from '@/features/records/schema';
-import { type QuantityKind, type UnitSystem, convert, formatSignificant } from '@/lib/units';
+import { type QuantityKind, type UnitSystem, conversionFactor, formatSignificant } from '@/lib/units';
 import type { InspectionReading } from '@/features/review/inspection-schema';
 import { type MeasuredSource, formatMeasured, formatSpreadOf, formatTyped } from '@/lib/measured-format';
 import { labelsOf, reviewStateVocabulary } from '@/lib/vocabulary';
@@ -74,7 +74,7 @@ export function pivotLabel(joint: number, name: string | null | undefined): stri
   return name ? `P${joint + 1} · ${name}` : `P${joint + 1}`;
 }
 
-/** SI units a typed unit may convert from; the first that mathjs accepts tells the quantity. */
+/** SI units a typed unit may convert from; the first with a factor to it tells the quantity. */
 const SI_CANDIDATES = ['m', 'N', 'N m', 'rad', 'rad/s', 's', 'Pa', 'kg', 'm/s^2', 'Hz'];
 
 /**
@@ -90,7 +90,7 @@ export function formatMeasurement(m: { valueSI: number; unit: string; entered?: 
   if (unit)
     for (const base of SI_CANDIDATES) {
       try {
-        return `${formatTyped(convert(m.valueSI, base, name))} ${unit}`;
+        return `${formatTyped(m.valueSI * conversionFactor(base, name))} ${unit}`;
       } catch {
         // Not this quantity; try the next.
       }
