@@ -7,6 +7,7 @@ import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 
 import { buildServiceWorker } from './build-sw';
+import { describePrecompress, precompressDir } from './precompress';
 
 export const ROOT = join(__dirname, '..');
 export const DIST = join(ROOT, 'dist');
@@ -28,6 +29,7 @@ const SOURCES = [
   'package-lock.json',
   'scripts/build-web.ts',
   'scripts/build-sw.ts',
+  'scripts/precompress.ts',
 ];
 
 function newestMtime(path: string): number {
@@ -60,6 +62,7 @@ export async function buildWeb({ force = false } = {}): Promise<void> {
   console.log(
     `[pivotwatch] service worker: ${sw.count} files precached (${(sw.size / 1048576).toFixed(1)} MB)`,
   );
+  console.log(`[pivotwatch] ${describePrecompress(await precompressDir(DIST))}`);
   writeFileSync(STAMP, new Date().toISOString());
 }
 

@@ -69,7 +69,8 @@ export function createApp(deps: ApiDeps): Express {
     }),
   );
 
-  app.use(compression());
+  // API answers only: the web export is sent precompressed at build time (server/web.ts).
+  app.use('/api', compression());
   // Before the parsers, so their 400/413 answers are no-store too.
   app.use('/api', apiCachePolicy);
   // 2 MB for everything; the sync push and fatigue routes parse their larger bodies after sign-in.
