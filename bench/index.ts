@@ -11,6 +11,14 @@ const benches: Bench[] = [
   { name: 'measured motion', load: () => import('@/bench/conditioning') },
   { name: 'server ingest', load: () => import('@/bench/ingest') },
   { name: 'review queue', load: () => import('@/bench/review-queue') },
+  {
+    // It builds the web export and drives chromium for minutes, so it runs on its own.
+    name: 'web app: bytes per phase, offline reload',
+    load: async () => ({
+      run: () =>
+        console.log('`npm run bench:web` (scripts/bench-web.ts): figures beside the issue #16 goals'),
+    }),
+  },
 ];
 
 async function main() {
