@@ -117,25 +117,39 @@ export class TransferLog {
   }
 
   /**
-   * What the page needed by `to`: its own network bytes (and its dedicated workers'), plus, for every
-   * answer it took from the service worker's cache, the bytes the worker fetched that file with — the
-   * page waited for them either way.
+   * The service worker's bytes per file that the page also asked for by `to`: when the worker's precache
+   * fetched a file first, the page got it from a cache (the worker's, or the HTTP cache the fetch filled)
+   * for next to nothing, yet it waited for those bytes all the same.
    */
-  needed(to: number): Transfer {
-    const taken = new Set(
-      this.entries.filter((e) => !e.byWorker && e.fromCache && e.at <= to).map((e) => e.url),
-    );
-    return sum(
-      this.entries.filter((e) => !e.fromCache && (e.byWorker ? taken.has(e.url) && e.at <= to : e.at <= to)),
-    );
+  private sharedByWorker(to: number): Map<string, number> {
+    const asked = new Set(this.entries.filter((e) => !e.byWorker && e.at <= to).map((e) => e.url));
+    const shared = new Map<string, number>();
+    for (const e of this.entries)
+      if (e.byWorker && !e.fromCache && e.at <= to && asked.has(e.url))
+        shared.set(e.url, Math.max(shared.get(e.url) ?? 0, e.bytes));
+    return shared;
   }
 
-  /** The service worker's fetches that the page had not taken from its cache by `to` (its precache). */
+  /**
+   * What the page needed by `to`: its own network bytes (and its dedicated workers'), each file counted
+   * at least with the bytes the service worker fetched it with (see `sharedByWorker`).
+   */
+  needed(to: number): Transfer {
+    const shared = this.sharedByWorker(to);
+    const own = this.entries.filter((e) => !e.byWorker && e.at <= to);
+    const counted = new Set<string>();
+    const entries = own.map((e) => {
+      const fromWorker = counted.has(e.url) ? 0 : (shared.get(e.url) ?? 0);
+      counted.add(e.url);
+      return { ...e, bytes: Math.max(e.fromCache ? 0 : e.bytes, fromWorker) };
+    });
+    return sum(entries);
+  }
+
+  /** The rest of the service worker's fetches: its precache of what the page had not asked for by `to`. */
   background(to: number): Transfer {
-    const taken = new Set(
-      this.entries.filter((e) => !e.byWorker && e.fromCache && e.at <= to).map((e) => e.url),
-    );
-    return sum(this.entries.filter((e) => e.byWorker && !e.fromCache && !taken.has(e.url)));
+    const shared = this.sharedByWorker(to);
+    return sum(this.entries.filter((e) => e.byWorker && !e.fromCache && !shared.has(e.url)));
   }
 
   /** The largest files, for reading a figure that missed its goal. */
