@@ -1,10 +1,9 @@
-import { scaleLinear } from 'd3-scale';
-import { line } from 'd3-shape';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Line, Path } from 'react-native-svg';
 
 import { AxisTitles, ChartTicks } from '@/components/chart-axes';
+import { useChartD3 } from '@/components/chart-d3-loader';
 import { ChartFrame, LimitLine } from '@/components/chart-frame';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
@@ -34,7 +33,8 @@ type Props = {
 const M = { top: 12, right: 16, bottom: 40, left: 60 };
 
 /**
- * A line chart drawn with react-native-svg, scales and paths from d3 (d3-scale, d3-shape).
+ * A line chart drawn with react-native-svg, scales and paths from d3 (d3-scale, d3-shape; on the web
+ * loaded with the first chart, see chart-d3-loader.web.ts).
  * Limit lines are dashed and labelled, so a limit never depends on colour alone.
  */
 export function LineChart({
@@ -48,41 +48,43 @@ export function LineChart({
   summary,
 }: Props) {
   const [width, setWidth] = useState(0);
+  const d3 = useChartD3();
+  const legend =
+    series.length > 1 ? (
+      <View style={styles.legend}>
+        {series.map((s) => (
+          <View key={s.label} style={styles.legendItem}>
+            <View style={[styles.swatch, { backgroundColor: s.color }, s.dashed && styles.swatchDashed]} />
+            <Text variant="small">{s.label}</Text>
+          </View>
+        ))}
+      </View>
+    ) : null;
+  const frame = { onWidth: setWidth, height, margin: M, summary, legend };
+  // Until d3 is here the frame stays as before its first measure: its height, legend and summary.
+  if (!d3)
+    return (
+      <ChartFrame {...frame} width={0}>
+        {null}
+      </ChartFrame>
+    );
   const xs = series.flatMap((s) => Array.from(s.x));
   const ys = [...series.flatMap((s) => Array.from(s.y)), ...limits.map((l) => l.y)];
   const xExtent: [number, number] = xDomain ?? [Math.min(...xs), Math.max(...xs)];
   const yMin = Math.min(0, ...ys);
   const yMax = Math.max(...ys, 1e-9);
-  const x = scaleLinear()
+  const x = d3
+    .scaleLinear()
     .domain(xExtent)
     .range([M.left, Math.max(M.left + 10, width - M.right)]);
-  const y = scaleLinear()
+  const y = d3
+    .scaleLinear()
     .domain([yMin, yMax * 1.08])
     .nice()
     .range([height - M.bottom, M.top]);
 
   return (
-    <ChartFrame
-      width={width}
-      onWidth={setWidth}
-      height={height}
-      margin={M}
-      summary={summary}
-      legend={
-        series.length > 1 ? (
-          <View style={styles.legend}>
-            {series.map((s) => (
-              <View key={s.label} style={styles.legendItem}>
-                <View
-                  style={[styles.swatch, { backgroundColor: s.color }, s.dashed && styles.swatchDashed]}
-                />
-                <Text variant="small">{s.label}</Text>
-              </View>
-            ))}
-          </View>
-        ) : null
-      }
-    >
+    <ChartFrame {...frame} width={width}>
       <ChartTicks
         x={x}
         y={y}
@@ -97,7 +99,7 @@ export function LineChart({
       <Line x1={M.left} x2={width - M.right} y1={y(0)} y2={y(0)} stroke={colors.border} strokeWidth={1} />
       {series.map((s) => {
         const pts = Array.from(s.x, (xv, i) => [x(xv), y(s.y[i])] as [number, number]);
-        const d = line()(pts) ?? '';
+        const d = d3.line()(pts) ?? '';
         return (
           <Path
             key={s.label}

@@ -1,10 +1,10 @@
-import { type ScaleLinear, scaleLinear } from 'd3-scale';
-import { line } from 'd3-shape';
+import type { ScaleLinear } from 'd3-scale';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, G, Line, Path, Rect } from 'react-native-svg';
 
 import { AxisTitles, ChartTicks } from '@/components/chart-axes';
+import { type ChartD3, useChartD3 } from '@/components/chart-d3-loader';
 import { ChartFrame, LimitLine } from '@/components/chart-frame';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
@@ -50,7 +50,8 @@ type Props = {
 const M = { top: 14, right: 16, bottom: 40, left: 60 };
 
 /**
- * The review desk's chart: d3 scales and paths drawn with react-native-svg, like components/line-chart,
+ * The review desk's chart: d3 scales and paths drawn with react-native-svg, like components/line-chart
+ * (d3 on the web loads with the first chart, components/chart-d3-loader.web.ts),
  * plus what the desk needs there: gaps in a line, a tinted limit band, dots and a marker.
  */
 export function ReviewChart({
@@ -68,6 +69,21 @@ export function ReviewChart({
   summary,
 }: Props) {
   const [width, setWidth] = useState(0);
+  const d3 = useChartD3();
+  const frame = {
+    onWidth: setWidth,
+    height,
+    margin: M,
+    summary,
+    legend: series.length > 1 ? <Legend series={series} /> : null,
+  };
+  // Until d3 is here the frame stays as before its first measure: its height, legend and summary.
+  if (!d3)
+    return (
+      <ChartFrame {...frame} width={0}>
+        {null}
+      </ChartFrame>
+    );
   const xs = series.flatMap((s) => s.x.filter(finite));
   const bandYs = [band?.min?.y, band?.max?.y].filter(finite);
   const ys = [...series.flatMap((s) => s.y.filter(finite)), ...limits.map((l) => l.y), ...bandYs];
@@ -77,24 +93,19 @@ export function ReviewChart({
   const yDomain: [number, number] = zeroBased
     ? [Math.min(0, lo), Math.max(0, hi) + pad]
     : [lo - pad, hi + pad];
-  const x = scaleLinear()
+  const x = d3
+    .scaleLinear()
     .domain(xExtent)
     .range([M.left, Math.max(M.left + 10, width - M.right)]);
-  const y = scaleLinear()
+  const y = d3
+    .scaleLinear()
     .domain(yDomain)
     .nice()
     .range([height - M.bottom, M.top]);
   const plotRight = width - M.right;
 
   return (
-    <ChartFrame
-      width={width}
-      onWidth={setWidth}
-      height={height}
-      margin={M}
-      summary={summary}
-      legend={series.length > 1 ? <Legend series={series} /> : null}
-    >
+    <ChartFrame {...frame} width={width}>
       {band ? (
         <Rect
           x={M.left}
@@ -127,7 +138,7 @@ export function ReviewChart({
         />
       ) : null}
       {series.map((s) => (
-        <SeriesLine key={s.label} series={s} x={x} y={y} marker={marker} />
+        <SeriesLine key={s.label} series={s} x={x} y={y} marker={marker} line={d3.line} />
       ))}
       <LimitLines limits={limits} band={band} y={y} left={M.left} right={plotRight} />
       <AxisTitles xLabel={xLabel} yLabel={yLabel} width={width} height={height} margin={M} />
@@ -145,11 +156,13 @@ function SeriesLine({
   x,
   y,
   marker,
+  line,
 }: {
   series: ReviewSeries;
   x: Scale;
   y: Scale;
   marker: Props['marker'];
+  line: ChartD3['line'];
 }) {
   const pts = s.x.map((xv, i) => [xv, s.y[i]] as const);
   const d =

@@ -1,9 +1,9 @@
-import { scaleUtc } from 'd3-scale';
 import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { useChartD3 } from '@/components/chart-d3-loader';
 import { DataTable } from '@/components/data-table';
 import { DisclosureToggle } from '@/components/disclosure-toggle';
 import { Text } from '@/components/text';
@@ -115,10 +115,15 @@ function JointTrends({
       : [first - DAY_MS, last + DAY_MS];
   const current = points.find((p) => p.inspectionId === currentId);
   const marker = current ? { x: Date.parse(current.submittedAt), label: 'This inspection' } : undefined;
-  const ticks = scaleUtc()
-    .domain(domain)
-    .ticks(wide ? 4 : 3)
-    .map((d) => d.getTime());
+  // No ticks until d3 is here; the charts wait for it too, so none is drawn without them.
+  const d3 = useChartD3();
+  const ticks = d3
+    ? d3
+        .scaleUtc()
+        .domain(domain)
+        .ticks(wide ? 4 : 3)
+        .map((d) => d.getTime())
+    : [];
   const tickFormat = (ms: number) => formatAxisDate(ms, last - first);
   const shown = measures.filter((m) => points.some((p) => measureSpec[m].value(p, joint.joint) !== null));
   return (
