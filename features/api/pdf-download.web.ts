@@ -1,6 +1,7 @@
 import { API_BASE } from '@/features/api/client';
 import { OfflineError, errorOfResponse } from '@/lib/api-errors';
 import { tokenStore } from '@/features/session';
+import { saveBlob } from '@/features/api/save-blob';
 
 export type PaperSize = 'A4' | 'LETTER';
 
@@ -23,21 +24,6 @@ export async function downloadPdf(apiPath: string, fileName: string): Promise<st
   }
   if (!res.ok) throw await errorOfResponse(res, `The PDF could not be made (${res.status}).`);
   return saveBlob(await res.blob(), fileName);
-}
-
-/** Hands bytes to the browser as a download from a temporary object URL. */
-export function saveBlob(blob: Blob, fileName: string): string {
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = fileName;
-  a.rel = 'noopener';
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  // Give the browser a moment to start the download before the URL goes.
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
-  return `Downloaded ${fileName}`;
 }
 
 /** "PW-2026-0001-A4.pdf": safe on every file system, with the paper size in the name. */
