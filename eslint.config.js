@@ -38,6 +38,26 @@ module.exports = defineConfig([
     },
   },
   {
+    // Icons come from components/feather-icon (the glyphs in use, subset for the web); the whole Feather
+    // set would bring its full font back. The typescript-eslint rule leaves core no-restricted-imports free.
+    files: ['**/*.ts', '**/*.tsx'],
+    ignores: ['components/app-fonts.ts'],
+    rules: {
+      '@typescript-eslint/no-restricted-imports': [
+        'error',
+        {
+          paths: [
+            {
+              name: '@expo/vector-icons/Feather',
+              message:
+                "Use Feather from '@/components/feather-icon' (icons in use only; see scripts/build-fonts.ts).",
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
     // mathjs is a build-time tool: unit factors are generated from it (scripts/gen-unit-factors.ts), so
     // the web bundle and the server never carry it.
     files: ['**/*.{js,jsx,ts,tsx}'],

@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link, type Href } from 'expo-router';
 import { Pressable, StyleSheet } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 

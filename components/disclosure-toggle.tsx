@@ -1,6 +1,6 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Pressable, StyleSheet } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';

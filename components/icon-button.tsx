@@ -1,6 +1,6 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Pressable, StyleSheet } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { colors, layout, radius } from '@/components/theme';
 
 /** A square icon-only button with a spoken label (move up, remove…); a full touch target. */

@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { FieldFrame } from '@/components/field-frame';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';

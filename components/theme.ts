@@ -4,20 +4,17 @@
  */
 export { colors, contrastPairs, type ColorToken } from '@/lib/colors';
 
+/**
+ * Font family names as the app registers them (`components/app-fonts.ts`): IBM Plex's TTF on a phone, its
+ * WOFF2 subsets on the web.
+ */
 export const fonts = {
-  regular: 'PlexSans-Regular',
-  semibold: 'PlexSans-SemiBold',
-  bold: 'PlexSans-Bold',
+  regular: 'PivotwatchSans-Regular',
+  semibold: 'PivotwatchSans-SemiBold',
+  bold: 'PivotwatchSans-Bold',
   /** Monospaced figures so columns of numbers line up. */
-  mono: 'PlexMono-Medium',
+  mono: 'PivotwatchMono-Medium',
 } as const;
-
-export const fontFiles = {
-  [fonts.regular]: require('@/fonts/IBMPlexSans_400Regular.ttf'),
-  [fonts.semibold]: require('@/fonts/IBMPlexSans_600SemiBold.ttf'),
-  [fonts.bold]: require('@/fonts/IBMPlexSans_700Bold.ttf'),
-  [fonts.mono]: require('@/fonts/IBMPlexMono_500Medium.ttf'),
-};
 
 /** Type scale (px). Phone body text stays at 16 for outdoor legibility. */
 export const type = {

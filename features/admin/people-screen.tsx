@@ -1,4 +1,3 @@
-import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
 import { useMemo, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
@@ -6,6 +5,7 @@ import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { ChoiceChips } from '@/components/choice-chips';
+import Feather from '@/components/feather-icon';
 import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { SearchField } from '@/components/search-field';

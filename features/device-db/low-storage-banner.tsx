@@ -3,10 +3,10 @@
  * draft fails to save (or the browser clears the site). Only where a device database is open: desk
  * roles keep nothing that could be lost.
  */
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { accountHref } from '@/features/auth';

@@ -2,11 +2,11 @@
  * Storage on this phone, for the Account screen: the room the platform reports, what the phone keeps and
  * why, and "Free space now". Renders nothing where no device database is open (desk roles).
  */
-import Feather from '@expo/vector-icons/Feather';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import type { DeviceDb } from '@/features/device-db/connection';

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
 import { DataTable } from '@/components/data-table';
+import Feather from '@/components/feather-icon';
 import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { StatRow, StatTile } from '@/components/stat-tile';

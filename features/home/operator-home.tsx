@@ -1,8 +1,8 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useQueries } from '@tanstack/react-query';
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { StatRow, StatTile } from '@/components/stat-tile';

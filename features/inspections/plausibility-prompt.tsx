@@ -3,11 +3,11 @@
  * the confirmation, and the supervisor sees it was confirmed) or measure again. Nothing counts until the
  * inspector answers, so a mistimed swing never reaches the load check unnoticed.
  */
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, radius, space } from '@/components/theme';

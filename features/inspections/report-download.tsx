@@ -1,8 +1,8 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';

@@ -1,10 +1,10 @@
-import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { SectionTitle } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';

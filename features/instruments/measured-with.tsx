@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { ChoiceChips } from '@/components/choice-chips';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { colors, layout, radius, space } from '@/components/theme';

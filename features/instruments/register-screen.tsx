@@ -1,10 +1,10 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { DataTable } from '@/components/data-table';
+import Feather from '@/components/feather-icon';
 import { QueryState } from '@/components/query-state';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';

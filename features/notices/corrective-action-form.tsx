@@ -1,4 +1,3 @@
-import Feather from '@expo/vector-icons/Feather';
 import { sha256 } from '@noble/hashes/sha256';
 import { bytesToHex } from '@noble/hashes/utils';
 import { toByteArray } from 'base64-js';
@@ -6,6 +5,7 @@ import { useRef, useState } from 'react';
 import { Image, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import Feather from '@/components/feather-icon';
 import { type FormProblem } from '@/components/form-alert';
 import { IconButton } from '@/components/icon-button';
 import { Text } from '@/components/text';

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';
 import { SortableTable } from '@/components/sortable-table';

@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { usePhotoSource } from '@/features/photos';

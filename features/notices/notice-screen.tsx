@@ -1,10 +1,10 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link, useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { FormAlert } from '@/components/form-alert';
 import { Column, Columns } from '@/components/screen';
 import { Segmented } from '@/components/segmented';

@@ -1,10 +1,10 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 import type { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { LabelledLine } from '@/components/labelled-line';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';

@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import type { NoticeListItem } from '@/features/notices/schema';

@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { ActivityIndicator, Image, Modal, StyleSheet, View, useWindowDimensions } from 'react-native';
 
 import { Button } from '@/components/button';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { usePhotoSource } from '@/features/photos/photo-source';

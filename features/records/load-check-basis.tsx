@@ -1,6 +1,6 @@
-import Feather from '@expo/vector-icons/Feather';
 import { StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import type { EnvelopeItem, LoadCaseKind } from '@/features/loads/engine';

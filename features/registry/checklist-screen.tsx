@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link, router, useLocalSearchParams } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Panes } from '@/components/panes';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';

@@ -1,7 +1,7 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useMemo, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';

@@ -1,4 +1,3 @@
-import Feather from '@expo/vector-icons/Feather';
 import { zodResolver } from '@hookform/resolvers/zod';
 import * as DocumentPicker from 'expo-document-picker';
 import { router } from 'expo-router';
@@ -10,6 +9,7 @@ import { z } from 'zod';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { ChoiceChips } from '@/components/choice-chips';
+import Feather from '@/components/feather-icon';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link, router } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Panes } from '@/components/panes';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';
 import { SortableTable, type SortValue } from '@/components/sortable-table';

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { router } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { PagedList } from '@/components/paged-list';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';

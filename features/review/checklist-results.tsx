@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { apiFetch } from '@/features/api';
 import { EnvelopeMark } from '@/components/status-mark';
 import { DisclosureToggle } from '@/components/disclosure-toggle';

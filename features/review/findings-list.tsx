@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { type Href, Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import Feather from '@/components/feather-icon';
 import { IconButton } from '@/components/icon-button';
 import { LabelledLine } from '@/components/labelled-line';
 import { Text } from '@/components/text';

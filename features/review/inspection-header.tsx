@@ -1,8 +1,8 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { EnvelopeMark, RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';

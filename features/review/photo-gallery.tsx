@@ -1,6 +1,6 @@
-import Feather from '@expo/vector-icons/Feather';
 import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-native';
 
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { formatDateTime } from '@/lib/dates';

@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
 import { CAUTION_SHORT } from '@/components/caution';
+import Feather from '@/components/feather-icon';
 import { Screen } from '@/components/screen';
 import { SortableTable } from '@/components/sortable-table';
 import { EnvelopeMark } from '@/components/status-mark';

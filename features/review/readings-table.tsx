@@ -1,9 +1,9 @@
-import Feather from '@expo/vector-icons/Feather';
 import { StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
 import { DataTable } from '@/components/data-table';
+import Feather from '@/components/feather-icon';
 import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';

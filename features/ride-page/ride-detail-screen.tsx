@@ -1,8 +1,8 @@
-import Feather from '@expo/vector-icons/Feather';
 import { type Href, Link, router } from 'expo-router';
 import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import Feather from '@/components/feather-icon';
 import { auditHref } from '@/features/registry';
 import {
   RideNotFound,

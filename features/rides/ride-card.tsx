@@ -1,8 +1,8 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Card, cardLook } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';

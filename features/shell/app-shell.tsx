@@ -1,8 +1,8 @@
-import Feather from '@expo/vector-icons/Feather';
 import { Link, usePathname } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
 
+import Feather from '@/components/feather-icon';
 import { Logo } from '@/components/logo';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';

@@ -1,20 +1,19 @@
-import Feather from '@expo/vector-icons/Feather';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { useFonts } from 'expo-font';
 import { Slot } from 'expo-router';
 import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 
-import { colors, fontFiles } from '@/components/theme';
+import { useAppFonts } from '@/components/app-fonts';
+import { colors } from '@/components/theme';
 import { makeQueryClient } from '@/features/api';
 import { UpdatePrompt } from '@/features/sync/ui';
 
-/** Every page's frame: fonts loaded, one query client, the app-update prompt. */
+/** Every page's frame: the fonts, one query client, the app-update prompt. */
 export function RootLayout() {
-  const [fontsLoaded, fontError] = useFonts({ ...fontFiles, ...Feather.font });
+  const fontsReady = useAppFonts();
   const [client] = useState<QueryClient>(makeQueryClient);
-  if (!fontsLoaded && !fontError) {
+  if (!fontsReady) {
     return (
       <View style={styles.splash}>
         <ActivityIndicator color={colors.baseText} />
