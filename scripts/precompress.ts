@@ -19,9 +19,9 @@ const brotli = promisify(brotliCompress);
 const gz = promisify(gzip);
 
 /** Text and binary formats that shrink; PNG, JPEG and WOFF2 are compressed already. */
-export const COMPRESSIBLE = /\.(html|js|mjs|css|json|webmanifest|map|svg|ico|txt|xml|wasm|ttf|otf)$/i;
+export const COMPRESSIBLE = /\.(html|js|mjs|css|json|webmanifest|svg|ico|txt|xml|wasm|ttf|otf)$/i;
 const VARIANT = /\.(br|gz)$/;
-const TEXT = /\.(html|js|mjs|css|json|webmanifest|map|svg|txt|xml)$/i;
+const TEXT = /\.(html|js|mjs|css|json|webmanifest|svg|txt|xml)$/i;
 
 /** Below this a compressed copy saves less than the request's own headers. */
 const MIN_BYTES = 256;

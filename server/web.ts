@@ -18,7 +18,7 @@ app first and then starts the server.</p>
 
 type Encoding = 'br' | 'gzip';
 /** The formats `scripts/precompress.ts` writes copies of (kept in step with its COMPRESSIBLE). */
-const compressible = /\.(html|js|mjs|css|json|webmanifest|map|svg|ico|txt|xml|wasm|ttf|otf)$/i;
+const compressible = /\.(html|js|mjs|css|json|webmanifest|svg|ico|txt|xml|wasm|ttf|otf)$/i;
 const variantExt: Record<Encoding, string> = { br: '.br', gzip: '.gz' };
 
 /**
