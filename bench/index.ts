@@ -11,6 +11,8 @@ const benches: Bench[] = [
   { name: 'measured motion', load: () => import('@/bench/conditioning') },
   { name: 'server ingest', load: () => import('@/bench/ingest') },
   { name: 'review queue', load: () => import('@/bench/review-queue') },
+  { name: 'ride cycle over HTTP', load: () => import('@/bench/cycle-http') },
+  { name: 'notice PDF', load: () => import('@/bench/notice-pdf') },
   {
     // It builds the web export and drives chromium for minutes, so it runs on its own.
     name: 'web app: bytes per phase, offline reload',

@@ -1,3 +1,4 @@
+import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
@@ -9,7 +10,13 @@ import { EnvelopeMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
-import { type CycleResult, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
+import {
+  BOUNDED_CYCLE_VALUES,
+  type CycleResult,
+  ENGINE_ASSUMPTIONS,
+  ENGINE_VERSION,
+  boundCycle,
+} from '@/features/loads/engine';
 import { CycleWarnings } from '@/features/loads/cycle-warnings';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
 import { formatValue } from '@/features/loads/format';
@@ -48,6 +55,9 @@ export function CycleResults({
   cases?: CasesShown | null;
 }) {
   const wide = useWide();
+  // The charts draw a bounded set of instants (every peak kept): a 10,000-sample record is no heavier to
+  // draw than the 360 of a cycle that fits whole, and that one is drawn as it is.
+  const drawn = useMemo(() => boundCycle(result, BOUNDED_CYCLE_VALUES).result, [result]);
   const hasEnvelope = result.envelope.length > 0;
   const freeSwings = result.joints.flatMap((j, i) =>
     j.freePeriodS === undefined ? [] : [{ i, name: j.name, periodS: j.freePeriodS }],
@@ -101,7 +111,7 @@ export function CycleResults({
 
       <View style={wide ? styles.chartsWide : styles.charts}>
         {result.joints.map((_, i) => (
-          <PivotForceChart key={i} result={result} joint={i} system={system} xAxis={xAxis} wide={wide} />
+          <PivotForceChart key={i} result={drawn} joint={i} system={system} xAxis={xAxis} wide={wide} />
         ))}
       </View>
 

@@ -11,6 +11,7 @@ import { useWide } from '@/components/use-wide';
 import { ApiRequestError } from '@/lib/api-errors';
 import { STANDARD_GRAVITY_MS2 } from '@/features/loads/engine';
 import { formatBesideLimit, formatValue } from '@/features/loads';
+import type { CycleResolution } from '@/features/loads/cycle-resolution-schema';
 import { useInspectionCycle } from '@/features/review/inspection-api';
 import type { InspectionCycle } from '@/features/review/inspection-schema';
 import { ReviewChart, type ReviewBand, type ReviewSeries } from '@/features/review/review-chart';
@@ -36,7 +37,8 @@ export function CycleCharts({
   pivots: readonly string[];
   system: UnitSystem;
 }) {
-  const cycle = useInspectionCycle(inspectionId);
+  const [resolution, setResolution] = useState<CycleResolution>('bounded');
+  const cycle = useInspectionCycle(inspectionId, true, resolution);
   const [axis, setAxis] = useState<CycleAxis>('angle');
   if (cycle.isPending) {
     return (
@@ -65,6 +67,21 @@ export function CycleCharts({
       </Card>
     );
   }
+  if (resolution === 'full' && cycle.error instanceof ApiRequestError && cycle.error.status === 400) {
+    // More samples than the server sends whole: its reason, and the way back to the bounded series.
+    return (
+      <Card role="note">
+        <Text variant="heading">Every instant is more than the server sends</Text>
+        <Text muted>{cycle.error.issues[0]?.message ?? cycle.error.message}</Text>
+        <Button
+          label="Show the bounded series"
+          tone="quiet"
+          onPress={() => setResolution('bounded')}
+          style={styles.retry}
+        />
+      </Card>
+    );
+  }
   if (cycle.error || !cycle.data) {
     return (
       <Card role="alert">
@@ -73,19 +90,30 @@ export function CycleCharts({
       </Card>
     );
   }
-  return <Charts cycle={cycle.data} axis={axis} onAxis={setAxis} pivots={pivots} system={system} />;
+  return (
+    <Charts
+      cycle={cycle.data}
+      axis={axis}
+      onAxis={setAxis}
+      onFull={() => setResolution('full')}
+      pivots={pivots}
+      system={system}
+    />
+  );
 }
 
 function Charts({
   cycle,
   axis,
   onAxis,
+  onFull,
   pivots,
   system,
 }: {
   cycle: InspectionCycle;
   axis: CycleAxis;
   onAxis: (a: CycleAxis) => void;
+  onFull: () => void;
   pivots: readonly string[];
   system: UnitSystem;
 }) {
@@ -98,7 +126,13 @@ function Charts({
         <Text variant="small" muted style={styles.toolbarText}>
           {cycle.samples} instants over {formatValue(cycle.durationS, 'time', system)} · engine{' '}
           {cycle.engineVersion}
+          {cycle.sampleIndex
+            ? ` · drawn through ${cycle.sampleIndex.length} of them, every peak and trough kept`
+            : null}
         </Text>
+        {cycle.sampleIndex ? (
+          <Button label="Every instant" tone="quiet" onPress={onFull} style={styles.retry} />
+        ) : null}
         <Segmented
           label="Chart against"
           value={axis}

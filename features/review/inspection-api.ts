@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 
 import { apiFetch } from '@/features/api';
+import type { CycleResolution } from '@/features/loads/cycle-resolution-schema';
 import {
   inspectionCycleSchema,
   inspectionResponseSchema,
@@ -32,14 +33,18 @@ export function useInspectionReview(id: string) {
 }
 
 /**
- * The inspection's ride cycle as the server recomputes it for the charts (`GET /api/inspections/:id/cycle`).
- * A 404 means there is no design data to run the engine on; the screen says so instead of retrying.
+ * The inspection's ride cycle as the server recomputes it for the charts (`GET /api/inspections/:id/cycle`),
+ * bounded (every peak kept) unless every sample is asked for. A 404 means there is no design data to run
+ * the engine on; the screen says so instead of retrying.
  */
-export function useInspectionCycle(id: string, enabled = true) {
+export function useInspectionCycle(id: string, enabled = true, resolution: CycleResolution = 'bounded') {
   return useQuery({
-    queryKey: reviewKeys.cycle(id),
+    queryKey: reviewKeys.cycle(id, resolution),
     queryFn: ({ signal }) =>
-      apiFetch(`/api/inspections/${enc(id)}/cycle`, { schema: inspectionCycleSchema, signal }),
+      apiFetch(`/api/inspections/${enc(id)}/cycle${resolution === 'full' ? '?resolution=full' : ''}`, {
+        schema: inspectionCycleSchema,
+        signal,
+      }),
     enabled: enabled && !!id,
     staleTime: CYCLE_STALE_MS,
     // The chain drawing and the charts both read it; the second must not ask again after a 404.

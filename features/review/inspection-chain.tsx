@@ -36,7 +36,9 @@ function ChainSection({
   const c = cycle.data;
   const angles = useMemo(() => {
     if (pose === 'peak' && c && c.joints.length > 0) {
-      const k = c.joints[0].peakForce.index;
+      // The peak's index counts the full analysis's samples; a bounded answer keeps that instant.
+      const peak = c.joints[0].peakForce.index;
+      const k = c.sampleIndex ? c.sampleIndex.indexOf(peak) : peak;
       return c.joints.map((j) => j.angleRad[k] ?? 0);
     }
     return designPose(data);

@@ -15,6 +15,7 @@ import {
   readingMethods,
 } from '@/features/records/schema';
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
+import { CYCLE_RESOLUTIONS } from '@/features/loads/cycle-resolution-schema';
 import {
   analysisLifeFields,
   analysisModelFields,
@@ -282,10 +283,14 @@ const seatExtremes = z.object({
 /**
  * `GET /api/inspections/:id/cycle`: the same JSON as `POST /api/loads/cycle` (the engine's cycle result
  * with plain arrays), for the inspection's readings on its design version. Only what the charts use.
+ * `resolution` 'bounded' means the series hold the instants `sampleIndex` names (every peak kept), not all
+ * `samples`; an answer without it (an older server) holds every sample.
  */
 export const inspectionCycleSchema = z.object({
   engineVersion: z.string(),
   samples: z.number().int(),
+  resolution: z.enum(CYCLE_RESOLUTIONS).default('full'),
+  sampleIndex: z.array(z.number().int()).optional(),
   durationS: z.number(),
   timeS: series,
   status: envelopeStatusSchema,

@@ -1,15 +1,39 @@
 /**
  * The worker thread that analyses a ride cycle for `POST /api/loads/cycle` (started by pool.ts, never
- * imported). It validates, analyses and serialises, so the main thread neither computes nor builds the
- * large JSON answer.
+ * imported). It validates, analyses, cuts the series to the asked resolution, serialises and (when the
+ * client takes gzip) compresses, so the main thread only sends bytes.
  */
-import { analyseCycleRequest } from '@/features/loads/schema';
+import zlib from 'node:zlib';
+
+import { zodIssues } from '@/lib/api-errors';
+import { FreeMotionError, analyseCycle } from '@/features/loads/engine';
+import type { CycleResolution } from '@/features/loads/cycle-resolution-schema';
+import { cycleRequestSchema } from '@/features/loads/schema';
+import { cycleAnswer } from '@/server/compute/cycle-series';
 import { serveJobs } from '@/server/compute/worker-side';
 
+export type CycleJobInput = { body: unknown; resolution: CycleResolution; gzip: boolean };
 export type CycleJobOutput =
-  { ok: true; json: string } | { ok: false; issues: { path: string; message: string }[] };
+  | { ok: true; json: string }
+  | { ok: true; gzip: Uint8Array }
+  | { ok: false; issues: { path: string; message: string }[] };
 
-serveJobs((body: unknown): CycleJobOutput => {
-  const outcome = analyseCycleRequest(body);
-  return outcome.ok ? { ok: true, json: JSON.stringify(outcome.value) } : outcome;
+// As analyseCycleRequest (features/loads/schema.ts), but the typed arrays are cut before they become JSON.
+serveJobs(({ body, resolution, gzip }: CycleJobInput): CycleJobOutput => {
+  const parsed = cycleRequestSchema.safeParse(body);
+  if (!parsed.success) return { ok: false, issues: zodIssues(parsed.error) };
+  let result;
+  try {
+    result = analyseCycle(parsed.data);
+  } catch (error) {
+    // A free joint the chain cannot move, or no period to take as the cycle: the request's fault.
+    if (error instanceof FreeMotionError)
+      return { ok: false, issues: [{ path: error.path.join('.'), message: error.message }] };
+    throw error;
+  }
+  const answer = cycleAnswer(result, resolution);
+  if (!answer.ok) return answer;
+  const json = JSON.stringify(answer.value);
+  // Level 1: within a few per cent of the default level's size here, in half its time.
+  return gzip ? { ok: true, gzip: zlib.gzipSync(json, { level: 1 }) } : { ok: true, json };
 });

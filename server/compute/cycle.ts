@@ -1,16 +1,16 @@
 /**
  * The ride cycle's analysis over HTTP, bounded twice: by size before any work (samples × rows of output,
  * refused with a 400 naming `samples`), and by time while it runs in a worker thread (a job that overruns
- * is stopped). The phone's own calculator runs the same engine locally and is not limited by this.
+ * is stopped). What it answers is bounded too (cycle-series.ts). The phone's own calculator runs the same engine locally and is not limited by this.
  */
 import path from 'node:path';
 
-import type { CycleJobOutput } from '@/server/compute/cycle-worker';
+import type { CycleJobInput, CycleJobOutput } from '@/server/compute/cycle-worker';
 import { createWorkerPool, type WorkerPool } from '@/server/compute/pool';
 
 /**
- * Samples × (bodies + seats) one request may ask for. Each sample of each body or seat is about 150 bytes
- * of JSON, so this keeps an answer near 15 MB and its analysis near a second on a small server. It equals the
+ * Samples × (bodies + seats) one request may ask for: this keeps its analysis near a second on a small
+ * server (the answer's size is bounded apart from it, server/compute/cycle-series.ts). It equals the
  * densest measured record the engine samples by itself (10,000 samples) times the most bodies (10), so a
  * request that leaves `samples` out is never refused by it.
  */
@@ -43,10 +43,10 @@ export function cycleSizeIssue(body: unknown): Issue | null {
   };
 }
 
-export type CyclePool = WorkerPool<unknown, CycleJobOutput>;
+export type CyclePool = WorkerPool<CycleJobInput, CycleJobOutput>;
 
 export function createCyclePool(timeoutMs: number): CyclePool {
-  return createWorkerPool<unknown, CycleJobOutput>({
+  return createWorkerPool<CycleJobInput, CycleJobOutput>({
     file: path.join(__dirname, 'cycle-worker.ts'),
     timeoutMs,
   });

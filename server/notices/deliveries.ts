@@ -30,6 +30,7 @@ import type { RetryPolicy } from '@/server/mail/retry';
 import { deliveriesQueued, onDeliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate, formatWhen } from '@/lib/dates';
 import { renderNoticePdf } from '@/server/notices/pdf';
+import { cachedNoticePdf } from '@/server/notices/pdf/cache';
 import { pivotLifeHtml, pivotLifeTextLines } from '@/server/notices/pivot-life-mail';
 import { escapeHtml, htmlMailStart, noticeSubject, rideStatusWords } from '@/server/notices/words';
 import { photoPathOf } from '@/server/sync/photo-store';
@@ -200,7 +201,14 @@ async function mailFor(
         .where(eq(notices.id, noticeId))
         .get();
       if (!notice) throw new Error(`notice ${noticeId} is missing`);
-      const pdf = await noticePdf(deps.db, deps.dataDir, notice.document, deps.pageSize);
+      // The same file GET /api/notices/:id/pdf serves: drawn once per notice and paper size.
+      const pageSize = deps.pageSize ?? 'A4';
+      const { pdf } = await cachedNoticePdf(
+        deps.db,
+        deps.dataDir,
+        { id: noticeId, document: notice.document, pageSize },
+        () => noticePdf(deps.db, deps.dataDir, notice.document, pageSize),
+      );
       return { doc: notice.document, pdf };
     })();
     pdfs.set(noticeId, rendered);

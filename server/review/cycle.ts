@@ -3,22 +3,26 @@
  * the stored analysis keeps only peaks and statuses, the whole cycle is cheap to compute again from the
  * same design-data version and readings, by the same analysis (the design's stops included: the envelope
  * names the case each value comes from). Answered in exactly the shape of POST /api/loads/cycle, so the
- * calculator's result view draws it.
+ * calculator's result view draws it, with the same bounded series (server/compute/cycle-series.ts).
  */
 import { eq } from 'drizzle-orm';
 
 import { inspections } from '@/db/server/inspections';
 import { designVersions } from '@/db/server/schema';
 import { analyseRecord } from '@/features/records/analysis';
-import { cycleResultToJson, ENGINE_ASSUMPTIONS, ENGINE_VERSION } from '@/features/loads/engine';
-import type { CycleResponse } from '@/features/loads/schema';
+import type { CycleResolution } from '@/features/loads/cycle-resolution-schema';
 import type { Db } from '@/server/db';
+import { cycleAnswer, type CycleAnswer } from '@/server/compute/cycle-series';
 import { HttpError, notFound } from '@/server/http/errors';
 import type { InspectionHead } from '@/server/findings/findings';
 import { ANALYSIS_SAMPLES } from '@/server/sync/analysis';
 import { templateContentOf } from '@/server/sync/checklist-check';
 
-export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHead): CycleResponse {
+export function inspectionCycle(
+  db: Pick<Db, 'select'>,
+  inspection: InspectionHead,
+  resolution: CycleResolution = 'bounded',
+): CycleAnswer {
   const row = db
     .select({
       record: inspections.record,
@@ -63,5 +67,8 @@ export function inspectionCycle(db: Pick<Db, 'select'>, inspection: InspectionHe
       `The ride cycle could not be computed from these readings and design data: ${detail}`,
     );
   }
-  return { engineVersion: ENGINE_VERSION, assumptions: ENGINE_ASSUMPTIONS, ...cycleResultToJson(result) };
+  const answer = cycleAnswer(result, resolution);
+  if (!answer.ok)
+    throw new HttpError(400, 'validation_failed', 'The request has invalid fields.', answer.issues);
+  return answer.value;
 }

@@ -1,5 +1,6 @@
 import { Router } from 'express';
 
+import { cycleQuerySchema } from '@/features/loads/cycle-resolution-schema';
 import { idParamsSchema } from '@/features/registry/schema';
 import { decisionInputSchema, type DecisionResponse, type TrendsResponse } from '@/features/review/schema';
 import { findingInputSchema, findingPatchSchema } from '@/features/notices/finding-schema';
@@ -19,6 +20,7 @@ import { inspectionTrail } from '@/server/review/trail';
 import { rideTrends } from '@/server/review/trends';
 
 const byId = validate({ params: idParamsSchema });
+const cycleInput = validate({ params: idParamsSchema, query: cycleQuerySchema });
 const createInput = validate({ params: idParamsSchema, body: findingInputSchema });
 const patchInput = validate({ params: idParamsSchema, body: findingPatchSchema });
 const decisionInput = validate({ params: idParamsSchema, body: decisionInputSchema });
@@ -36,6 +38,7 @@ const decisionInput = validate({ params: idParamsSchema, body: decisionInputSche
  * - `GET /inspections/:id/trail` → `{ entries }`: its and its findings' audit entries, and the ride's since
  *   it was submitted, newest first
  * - `GET /inspections/:id/cycle` → the ride cycle the load check rests on, as `POST /loads/cycle` answers
+ *   (bounded series with every peak kept; `?resolution=full` for every sample, within a cap)
  * - `GET /rides/:id/trends` → the ride's inspections oldest first with peak forces, pin diameters and
  *   clearances (an inspector's own only, as with the inspections themselves)
  */
@@ -94,9 +97,9 @@ export function findingsRouter(deps: ApiDeps): Router {
     res.json({ entries: inspectionTrail(deps.db, inspection) });
   });
 
-  router.get('/inspections/:id/cycle', ...staff, byId, (_req, res) => {
-    const inspection = mustSeeInspection(deps.db, currentUser(res), byId.params(res).id);
-    res.json(inspectionCycle(deps.db, inspection));
+  router.get('/inspections/:id/cycle', ...staff, cycleInput, (_req, res) => {
+    const inspection = mustSeeInspection(deps.db, currentUser(res), cycleInput.params(res).id);
+    res.json(inspectionCycle(deps.db, inspection, cycleInput.query(res).resolution));
   });
 
   router.get('/rides/:id/trends', ...staff, byId, (_req, res) => {

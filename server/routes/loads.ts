@@ -1,11 +1,16 @@
 import { Router } from 'express';
 
+import { cycleQuerySchema } from '@/features/loads/cycle-resolution-schema';
 import { solveLoadsRequest } from '@/features/loads/schema';
 import type { ApiDeps } from '@/server/deps';
 import { createCyclePool, cycleSizeIssue } from '@/server/compute/cycle';
+import { fullResolutionIssue } from '@/server/compute/cycle-series';
 import { ComputeBusyError, ComputeTimeoutError } from '@/server/compute/pool';
 import { HttpError } from '@/server/http/errors';
+import { validate } from '@/server/http/validate';
 import { requireAuth } from '@/server/auth/require-auth';
+
+const cycleQuery = validate({ query: cycleQuerySchema });
 
 const invalid = (issues: { path: string; message: string }[]) =>
   new HttpError(400, 'validation_failed', 'The request has invalid fields.', issues);
@@ -15,7 +20,8 @@ const invalid = (issues: { path: string; message: string }[]) =>
  * runs for its offline preview. Any signed-in role may use them; they read and write no stored data.
  *
  * The cycle is bounded (server/compute/cycle.ts): too many samples for its bodies and seats is a 400 naming
- * `samples` before any work; the analysis runs in a worker thread, and one that overruns the server's
+ * `samples` before any work; its series come bounded with every peak kept, or whole with `?resolution=full`
+ * up to a cap (server/compute/cycle-series.ts, a 400 naming `query.resolution` beyond it); the analysis runs in a worker thread, and one that overruns the server's
  * limit (COMPUTE_TIME_LIMIT_MS) is stopped with a 422 `too_much_work`; with every worker busy and the line
  * full, a 503 `busy` with Retry-After. One instant is a few microseconds and stays on the main thread.
  */
@@ -29,10 +35,12 @@ export function loadsRouter(deps: ApiDeps): Router {
     res.json(outcome.value);
   });
 
-  router.post('/loads/cycle', requireAuth(deps), async (req, res) => {
-    const tooLarge = cycleSizeIssue(req.body);
+  router.post('/loads/cycle', requireAuth(deps), cycleQuery, async (req, res) => {
+    const { resolution } = cycleQuery.query(res);
+    const tooLarge = cycleSizeIssue(req.body) ?? (resolution === 'full' ? fullSizeIssue(req.body) : null);
     if (tooLarge) throw invalid([tooLarge]);
-    const outcome = await cycles.run(req.body).catch((error: unknown) => {
+    const gzip = req.acceptsEncodings('gzip') === 'gzip';
+    const outcome = await cycles.run({ body: req.body, resolution, gzip }).catch((error: unknown) => {
       if (error instanceof ComputeTimeoutError)
         throw new HttpError(
           422,
@@ -51,8 +59,24 @@ export function loadsRouter(deps: ApiDeps): Router {
       throw error;
     });
     if (!outcome.ok) throw invalid(outcome.issues);
-    // Already JSON: the worker serialised it, so the main thread only sends the text.
-    res.type('application/json').send(outcome.json);
+    // Already JSON, compressed when the client takes gzip (the compression middleware leaves an encoded
+    // body alone): the worker did the work, so the main thread only sends bytes.
+    res.type('application/json');
+    if ('json' in outcome) {
+      res.send(outcome.json);
+      return;
+    }
+    res.setHeader('Content-Encoding', 'gzip');
+    res.vary('Accept-Encoding');
+    res.send(Buffer.from(outcome.gzip.buffer, outcome.gzip.byteOffset, outcome.gzip.byteLength));
   });
   return router;
+}
+
+/** A full answer known to be over the cap from the request alone (samples given); else the worker checks. */
+function fullSizeIssue(body: unknown) {
+  if (typeof body !== 'object' || body === null) return null;
+  const { samples, bodies, seats } = body as Record<string, unknown>;
+  if (typeof samples !== 'number' || !Number.isFinite(samples) || !Array.isArray(bodies)) return null;
+  return fullResolutionIssue(samples, bodies.length, Array.isArray(seats) ? seats.length : 0);
 }

@@ -93,3 +93,35 @@ test('the second GET is served from the cache, byte for byte; sizes and new phot
   expect(Buffer.compare(again.body as Buffer, withPhoto.body as Buffer)).toBe(0);
   renders.mockRestore();
 }, 60_000);
+
+test('the e-mail attachment is drawn into the same cache: the GET that follows renders nothing', async () => {
+  const inspected = await inspectWithFindings(
+    s,
+    'Tidebreaker',
+    [
+      {
+        severity: 'fix_by_date',
+        description: 'Handrail paint chipped at the exit ramp',
+        dueOn: '2026-05-30',
+      },
+    ],
+    0,
+  );
+  const notice = approveAndIssue(s, inspected.inspectionId);
+  const renders = jest.spyOn(offThread, 'renderNoticePdfOffThread');
+  const run = await s.deliver();
+  expect(run.sent).toBeGreaterThan(0);
+  const mails = s.fake.list().filter((m) => m.subject.includes(notice.reference));
+  expect(mails.length).toBeGreaterThan(0);
+  const message = await s.fake.get(mails[0].id);
+  const attachment = message!.attachments[0].content;
+  // Drawn once for the e-mail, at the paper size the server sends (A4 unless set), and kept.
+  expect(cached().filter((name) => name.startsWith(`${notice.id}.A4.`))).toHaveLength(1);
+
+  const served = await getPdf(notice.id);
+  expect(served.status).toBe(200);
+  expect(renders).not.toHaveBeenCalled();
+  expect(Buffer.compare(served.body as Buffer, attachment)).toBe(0);
+  expect(await pdfText(served.body as Buffer)).toContain(notice.reference);
+  renders.mockRestore();
+}, 60_000);

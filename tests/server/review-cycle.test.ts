@@ -107,6 +107,16 @@ test('the recomputed cycle of a rod inspection follows the closed form, sample b
   );
   expect(calculator.status).toBe(200);
   expect(res.body).toEqual(calculator.body);
+
+  // 360 samples of one rod fit the bounded answer whole; asking for every sample gives the same answer.
+  expect(res.body.resolution).toBe('full');
+  expect((await api.supervisor.get(`/api/inspections/${record.id}/cycle?resolution=full`)).body).toEqual(
+    res.body,
+  );
+  const bad = await api.supervisor.get(`/api/inspections/${record.id}/cycle?resolution=every`);
+  expect(expectApiError(bad, 400, 'validation_failed').issues?.map((i) => i.path)).toEqual([
+    'query.resolution',
+  ]);
 });
 
 test('the design version the analysis used is kept when the ride’s design data changes later', async () => {

@@ -3,10 +3,11 @@
  * of the cycle so the arrays stay aligned (time, angles, forces, rider accelerations at the same instants).
  *
  * Which instants are kept: the first and the last; for every series its exact global minimum and maximum;
- * then, for as many equal buckets of the cycle as the bound allows, the instant of each series' minimum and
- * maximum within each bucket (the min/max idea of line-chart downsampling). So no peak or trough is ever
- * rounded or moved: a kept value is a computed sample, at its own instant; what is dropped lies between
- * two kept samples of its bucket. Pure: no React, no I/O; the server and the app run the same code.
+ * then, for the series the app draws (each pivot's force, each seat's Gx and Gz), the instant of the
+ * minimum and of the maximum within each of as many equal buckets of the cycle as the bound allows (the
+ * min/max idea of line-chart downsampling), so every value dropped from a drawn series lies between
+ * kept values of its bucket. Nothing is rounded or moved: a kept value is a computed sample at its own
+ * instant. Pure: no React, no I/O; the server and the app run the same code.
  */
 import type { CycleResult, JointHistory, SeatHistory } from '@/features/loads/engine/cycle-types';
 
@@ -25,45 +26,72 @@ function extremeIndices(values: Series, from: number, to: number): [number, numb
   return [lo, hi];
 }
 
-function bucketIndices(series: readonly Series[], n: number, buckets: number, into: Set<number>) {
+/** Marks kept instants in `marks` (1 = kept) and returns how many are marked now. */
+function markBuckets(drawn: readonly Series[], n: number, buckets: number, marks: Uint8Array, count: number) {
   for (let b = 0; b < buckets; b++) {
     const from = Math.floor((b * n) / buckets);
     const to = Math.floor(((b + 1) * n) / buckets);
-    for (const s of series) {
+    for (const s of drawn) {
       const [lo, hi] = extremeIndices(s, from, to);
-      if (lo >= 0) into.add(lo);
-      if (hi >= 0) into.add(hi);
+      if (lo >= 0 && marks[lo] === 0) {
+        marks[lo] = 1;
+        count++;
+      }
+      if (hi >= 0 && marks[hi] === 0) {
+        marks[hi] = 1;
+        count++;
+      }
     }
   }
+  return count;
 }
+
+const markedIndices = (marks: Uint8Array) => {
+  const out: number[] = [];
+  for (let k = 0; k < marks.length; k++) if (marks[k] === 1) out.push(k);
+  return out;
+};
 
 /**
  * The sample indices to keep, ascending, for series of `n` samples each: all of them when `n ≤ maxPoints`,
- * else at most `max(maxPoints, 2 + 2 × series)` (the must-keep instants alone: ends and global extremes).
- * The bucket count starts as large as the bound allows and shrinks until the kept instants fit, so the
- * result is as fine as the bound permits (series that turn at the same instants share their indices).
+ * else at most `max(maxPoints, 2 + 2 × series)` (the must-keep instants alone: the ends and every series'
+ * global extremes). The `drawn` series (a subset, or all) also keep their minimum and maximum in each of
+ * as many equal buckets as the bound allows: the bucket count starts where it surely fits (two instants
+ * per drawn series per bucket) and grows while what is kept still fits, since drawn series that turn at
+ * the same instants share them.
  */
-export function pickSampleIndices(series: readonly Series[], n: number, maxPoints: number): number[] {
+export function pickSampleIndices(
+  series: readonly Series[],
+  n: number,
+  maxPoints: number,
+  drawn: readonly Series[] = series,
+): number[] {
   if (n <= maxPoints) return Array.from({ length: n }, (_, k) => k);
-  const must = new Set<number>([0, n - 1]);
+  const must = new Uint8Array(n);
+  must[0] = 1;
+  must[n - 1] = 1;
   for (const s of series) {
     const [lo, hi] = extremeIndices(s, 0, n);
-    if (lo >= 0) must.add(lo);
-    if (hi >= 0) must.add(hi);
+    if (lo >= 0) must[lo] = 1;
+    if (hi >= 0) must[hi] = 1;
   }
-  const sorted = (set: Set<number>) => Array.from(set).sort((a, b) => a - b);
-  const room = maxPoints - must.size;
-  if (room <= 0 || series.length === 0) return sorted(must);
-  let buckets = Math.max(1, Math.min(n, Math.floor(room / 2)));
-  for (;;) {
-    const kept = new Set(must);
-    bucketIndices(series, n, buckets, kept);
-    if (kept.size <= maxPoints) return sorted(kept);
-    if (buckets === 1) return sorted(must);
-    // Shrink in proportion to the overshoot, by at least one bucket, so this ends in a few rounds.
-    const scaled = Math.floor((buckets * room) / (kept.size - must.size));
-    buckets = Math.max(1, Math.min(buckets - 1, scaled));
+  const mustCount = must.reduce((a, m) => a + m, 0);
+  const room = maxPoints - mustCount;
+  let best = must;
+  if (room > 0 && drawn.length > 0) {
+    let buckets = Math.min(n, Math.max(1, Math.floor(room / (2 * drawn.length))));
+    for (let round = 0; round < 4; round++) {
+      const kept = must.slice();
+      const count = markBuckets(drawn, n, buckets, kept, mustCount);
+      if (count > maxPoints) break;
+      best = kept;
+      const next = Math.min(n, Math.floor((buckets * room) / Math.max(1, count - mustCount)));
+      if (next <= buckets) break;
+      // Grow in proportion to the room left, a little short of it, so the next round usually still fits.
+      buckets = Math.max(buckets + 1, Math.floor(buckets + (next - buckets) * 0.9));
+    }
   }
+  return markedIndices(best);
 }
 
 /** The values of `values` at `indices`, as the same kind of array. */
@@ -90,6 +118,14 @@ const JOINT_SERIES = [
 ] as const satisfies readonly (keyof JointHistory)[];
 const SEAT_SERIES = ['gx', 'gz'] as const satisfies readonly (keyof SeatHistory)[];
 
+/**
+ * The series the app draws over the cycle: each pivot's force magnitude and each seat's Gx and Gz
+ * (features/loads/cycle-results.tsx, features/review/cycle-charts.tsx); they keep every bucket's extremes.
+ */
+export function drawnCycleSeries(result: Pick<CycleResult, 'joints' | 'seats'>): Float64Array[] {
+  return [...result.joints.map((j) => j.forceMagnitudeN), ...result.seats.flatMap((s) => [s.gx, s.gz])];
+}
+
 /** Every per-sample series of a cycle result (time excluded: its extremes are its ends). */
 export function cycleSeries(result: Pick<CycleResult, 'joints' | 'seats'>): Float64Array[] {
   return [
@@ -101,6 +137,14 @@ export function cycleSeries(result: Pick<CycleResult, 'joints' | 'seats'>): Floa
 /** How many numbers a cycle's series hold per sample: time, nine per joint, two per seat. */
 export const valuesPerSample = (joints: number, seats: number) =>
   1 + JOINT_SERIES.length * joints + SEAT_SERIES.length * seats;
+
+/**
+ * Numbers in a bounded cycle's series, for an HTTP answer (server/compute/cycle-series.ts) and for the
+ * charts drawn from a cycle computed on the phone: about 220 KB of JSON. For a three-body chain that is
+ * ~430 instants, about as many as the widest chart has pixels across; a 360-sample cycle of up to three
+ * bodies and two seats (32 numbers a sample) fits whole, so it is drawn and sent as it is.
+ */
+export const BOUNDED_CYCLE_VALUES = 12_000;
 
 export type BoundedCycle = {
   result: CycleResult;
@@ -117,7 +161,7 @@ export function boundCycle(result: CycleResult, maxValues: number): BoundedCycle
   const perSample = valuesPerSample(result.joints.length, result.seats.length);
   const maxPoints = Math.max(2, Math.floor(maxValues / perSample));
   const n = result.timeS.length;
-  const indices = pickSampleIndices(cycleSeries(result), n, maxPoints);
+  const indices = pickSampleIndices(cycleSeries(result), n, maxPoints, drawnCycleSeries(result));
   if (indices.length === n) return { result, sampleIndex: null };
   const pick = (values: Float64Array) => pickValues(values, indices);
   const joints = result.joints.map((j): JointHistory => {

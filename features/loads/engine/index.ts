@@ -58,8 +58,10 @@ export { analyseSpacing, unwrapAngles } from '@/features/loads/engine/conditioni
 
 export { DEFAULT_CYCLE_SAMPLES, analyseCycle, cycleResultToJson } from '@/features/loads/engine/cycle';
 export {
+  BOUNDED_CYCLE_VALUES,
   boundCycle,
   cycleSeries,
+  drawnCycleSeries,
   pickSampleIndices,
   pickValues,
   valuesPerSample,

@@ -1,0 +1,105 @@
+// The first bench file in name order that reaches the server's node typings: React Native's globals must
+// load before them (see bench/http-load.ts for why), so this file carries the same reference.
+/// <reference types="react-native" />
+import { cpuMsOf, loadLine, startSeededServer, timedRequest, type Timed } from '@/bench/seeded-server';
+import { median, percentile } from '@/bench/timing';
+
+/**
+ * A whole ride cycle over HTTP (issue 16's table): `POST /api/loads/cycle` for a three-body chain at 3,600
+ * samples, timed from the request to its last byte on a kept-alive loopback connection (gzip, as a
+ * browser asks), against the real server in its own process. The answer carries bounded series with
+ * every peak kept (server/compute/cycle-series.ts); the same request at `?resolution=full` is timed in the
+ * same run for the ratio. Goal: median and p95 ≤ 15 ms. CYCLE_HTTP_RUNS sets the timed requests.
+ */
+
+const RUNS = Number(process.env.CYCLE_HTTP_RUNS ?? 60);
+const WARMUP = 10;
+const GOAL_MS = 15;
+
+// Invented chain, as bench/loads.ts: main arm, sub-arm, gondola.
+const body = JSON.stringify({
+  bodies: [
+    { name: 'main arm', massKg: 8000, cgM: [3, 0.1], inertiaCgKgM2: 120_000, tipM: [12, 0] },
+    { name: 'sub-arm', massKg: 1500, cgM: [1.2, -0.2], inertiaCgKgM2: 1500, tipM: [2.5, 0.3] },
+    { name: 'gondola', massKg: 4000, cgM: [0, -1.5], inertiaCgKgM2: 6000 },
+  ],
+  profiles: [
+    { kind: 'ramp', toRpm: 12, rampTimeS: 8, holdAfterS: 52 },
+    { kind: 'swing', amplitudeRad: 0.6, periodS: 4.1 },
+    { kind: 'swing', amplitudeRad: 0.3, periodS: 2.3, phaseRad: 1 },
+  ],
+  samples: 3600,
+});
+
+const fmt = (v: number, digits = 2) => v.toLocaleString('en', { maximumFractionDigits: digits });
+
+type Figures = { median: number; p95: number; bytes: number; rawBytes: number; cpuMs: number | null };
+
+async function measure(
+  url: string,
+  headers: Record<string, string>,
+  pid: number | undefined,
+  runs: number,
+): Promise<Figures> {
+  const once = async (): Promise<Timed> => {
+    const res = await timedRequest(url, { method: 'POST', headers, body });
+    if (res.status !== 200) throw new Error(`${url} answered ${res.status}: ${res.text().slice(0, 300)}`);
+    return res;
+  };
+  for (let i = 0; i < WARMUP; i++) await once();
+  const cpuBefore = cpuMsOf(pid);
+  const times: number[] = [];
+  let last: Timed | undefined;
+  for (let i = 0; i < runs; i++) {
+    last = await once();
+    times.push(last.ms);
+  }
+  const cpuAfter = cpuMsOf(pid);
+  return {
+    median: median(times),
+    p95: percentile(times, 0.95),
+    bytes: last!.bytes,
+    rawBytes: Buffer.byteLength(last!.text()),
+    cpuMs: cpuBefore === null || cpuAfter === null ? null : (cpuAfter - cpuBefore) / runs,
+  };
+}
+
+const line = (label: string, f: Figures) =>
+  `${label.padEnd(26)} median ${fmt(f.median)} ms  p95 ${fmt(f.p95)} ms  ` +
+  `${fmt(f.bytes / 1024, 1)} kB sent (${fmt(f.rawBytes / 1024, 1)} kB JSON)` +
+  (f.cpuMs === null ? '' : `  server CPU ${fmt(f.cpuMs)} ms a request`);
+
+export async function run() {
+  const server = await startSeededServer();
+  try {
+    const headers = await server.signIn('supervisor@pivotwatch.test');
+    const url = `${server.base}/api/loads/cycle`;
+    console.log(
+      `POST /api/loads/cycle, 3 bodies × 3,600 samples, one request at a time, ${RUNS} after ${WARMUP} warm-up`,
+    );
+    const bounded = await measure(url, headers, server.pid, RUNS);
+    const full = await measure(
+      `${url}?resolution=full`,
+      headers,
+      server.pid,
+      Math.max(5, Math.round(RUNS / 4)),
+    );
+    console.log(line('bounded (the default):', bounded));
+    console.log(line('?resolution=full:', full));
+    const pass = (v: number) => (v <= GOAL_MS ? 'PASS' : 'MISS');
+    console.log(
+      `goal ≤ ${GOAL_MS} ms request to last byte: median ${pass(bounded.median)}, p95 ${pass(bounded.p95)}; ` +
+        `bounded ÷ full time ${fmt((bounded.median / full.median) * 100, 0)} % in this run`,
+    );
+    console.log(loadLine());
+  } finally {
+    await server.stop();
+  }
+}
+
+if (require.main === module) {
+  run().catch((error: unknown) => {
+    console.error(error);
+    process.exitCode = 1;
+  });
+}
