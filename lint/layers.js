@@ -123,10 +123,15 @@ function layerZones(root) {
       message: 'A contract (schema or engine) imports only lib/ and other contracts.',
     },
   ];
-  // Between features, only the other feature's public API (index.ts) and its contracts.
+  // Between features, only the other feature's public API (index.ts) and its contracts. The shell's
+  // bundles (features/shell/bundles/) are the exception: they stand in for the route files, which import
+  // screens directly, and group them into the web export's lazily loaded chunks.
   featureOrder.forEach((feature) => {
     zones.push({
-      target: `./features/${feature}`,
+      target:
+        feature === 'shell'
+          ? ['./features/shell/*', './features/shell/!(bundles)/**']
+          : `./features/${feature}`,
       from: featureOrder.filter((f) => f !== feature).map((f) => abs(`features/${f}/**`)),
       except: [...contracts, abs('features/*/index.ts'), abs('features/*/ui.ts')],
       message: `Another feature is used through its index.ts or ui.ts (its public API) or its contracts.`,

@@ -8,16 +8,21 @@ import { join } from 'node:path';
 
 import { buildServiceWorker } from './build-sw';
 import { describePrecompress, precompressDir } from './precompress';
+import { deferSharedChunk, moveSourceMaps } from './web-chunks';
 
 export const ROOT = join(__dirname, '..');
 export const DIST = join(ROOT, 'dist');
 const STAMP = join(DIST, '.pivotwatch-build');
+/** The export's source maps: which modules each chunk holds (kept out of dist/, see web-chunks.ts). */
+export const WEB_MAPS = join(ROOT, 'artifacts', 'web-maps');
 
 /** Everything that ends up in the web bundle. */
 const SOURCES = [
   'app',
   'components',
   'features',
+  'lib',
+  'metro',
   'db',
   'drizzle',
   'assets',
@@ -30,6 +35,7 @@ const SOURCES = [
   'scripts/build-web.ts',
   'scripts/build-sw.ts',
   'scripts/precompress.ts',
+  'scripts/web-chunks.ts',
 ];
 
 function newestMtime(path: string): number {
@@ -51,12 +57,19 @@ export function webBuildIsStale(): boolean {
 export async function buildWeb({ force = false } = {}): Promise<void> {
   if (!force && !webBuildIsStale()) return;
   console.log('[pivotwatch] building the web app (expo export)…');
-  const res = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', 'dist', '--clear'], {
-    cwd: ROOT,
-    stdio: ['ignore', 'inherit', 'inherit'],
-    env: { ...process.env, CI: '1', EXPO_NO_TELEMETRY: '1' },
-  });
+  const res = spawnSync(
+    'npx',
+    ['expo', 'export', '--platform', 'web', '--output-dir', 'dist', '--clear', '--source-maps'],
+    {
+      cwd: ROOT,
+      stdio: ['ignore', 'inherit', 'inherit'],
+      env: { ...process.env, CI: '1', EXPO_NO_TELEMETRY: '1' },
+    },
+  );
   if (res.status !== 0) throw new Error(`expo export failed with exit code ${res.status}`);
+  moveSourceMaps(DIST, WEB_MAPS);
+  const shared = deferSharedChunk(DIST);
+  console.log(`[pivotwatch] shared chunk loads after sign-in: ${shared ?? 'none in this build'}`);
   const sw = await buildServiceWorker(DIST);
   sw.warnings.forEach((w) => console.warn(`[pivotwatch] service worker: ${w}`));
   console.log(

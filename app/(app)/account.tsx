@@ -1,1 +1,1 @@
-export { AccountScreen as default } from '@/features/shell/account-screen';
+export { AccountScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { CalculatorScreen as default } from '@/features/calculator/calculator-screen';
+export { CalculatorScreen as default } from '@/features/shell/lazy-screens';

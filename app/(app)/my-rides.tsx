@@ -1,1 +1,1 @@
-export { OperatorHome as default } from '@/features/home/operator-home';
+export { OperatorHome as default } from '@/features/shell/lazy-screens';

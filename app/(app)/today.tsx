@@ -1,1 +1,1 @@
-export { TodayScreen as default } from '@/features/inspections/today-screen';
+export { TodayScreen as default } from '@/features/shell/lazy-screens';

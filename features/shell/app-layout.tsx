@@ -1,11 +1,9 @@
 import { Redirect, Slot, usePathname } from 'expo-router';
+import { useEffect } from 'react';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { rememberNextPath, signInHref, useSession } from '@/features/auth';
-import { DeviceDbProvider } from '@/features/device-db/ui';
-import { AppShell } from '@/features/shell/app-shell';
-import { DeviceOwnerGate } from '@/features/shell/device-owner-gate';
-import { BackgroundSync } from '@/features/sync/ui';
+import { SignedInFrame, preloadSignedIn } from '@/features/shell/lazy-screens';
 
 /**
  * Everything in this group needs a session; signed-out visitors go to sign-in, which brings them back to
@@ -14,6 +12,10 @@ import { BackgroundSync } from '@/features/sync/ui';
 export function AppLayout() {
   const session = useSession();
   const pathname = usePathname();
+  const role = session.data?.user.role;
+  useEffect(() => {
+    if (role) preloadSignedIn(role);
+  }, [role]);
   if (session.isPending) {
     // While the session loads this layout renders no Slot, and the router falls back to "/" (which then
     // sends the person on): remember the page asked for, so "/" can bring them back to it.
@@ -27,21 +29,11 @@ export function AppLayout() {
       <Redirect href={signInHref(comeBackTo(pathname) ? pathname : null)} />
     );
   }
-  const shell = (
-    <AppShell user={session.data.user}>
+  // The frame (navigation, an inspector's device database) and every screen load after sign-in.
+  return (
+    <SignedInFrame user={session.data.user}>
       <Slot />
-    </AppShell>
-  );
-  // Only inspectors record in the field; desk roles need no device database (and no single-tab lock).
-  return session.data.user.role === 'inspector' ? (
-    <DeviceDbProvider>
-      <DeviceOwnerGate userId={session.data.user.id}>
-        <BackgroundSync />
-        {shell}
-      </DeviceOwnerGate>
-    </DeviceDbProvider>
-  ) : (
-    shell
+    </SignedInFrame>
   );
 }
 

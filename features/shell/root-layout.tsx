@@ -7,9 +7,8 @@ import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { useAppFonts } from '@/components/app-fonts';
 import { colors } from '@/components/theme';
 import { makeQueryClient } from '@/features/api';
-import { UpdatePrompt } from '@/features/sync/ui';
 
-/** Every page's frame: the fonts, one query client, the app-update prompt. */
+/** Every page's frame: the fonts and one query client (the update prompt comes with sign-in: signed-in-frame.tsx). */
 export function RootLayout() {
   const fontsReady = useAppFonts();
   const [client] = useState<QueryClient>(makeQueryClient);
@@ -23,7 +22,6 @@ export function RootLayout() {
   return (
     <SafeAreaProvider>
       <QueryClientProvider client={client}>
-        <UpdatePrompt />
         <Slot />
       </QueryClientProvider>
     </SafeAreaProvider>

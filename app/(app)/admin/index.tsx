@@ -1,1 +1,1 @@
-export { AdminHome as default } from '@/features/home/admin-home';
+export { AdminHome as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { OutboxScreen as default } from '@/features/notices/outbox-screen';
+export { OutboxScreen as default } from '@/features/shell/lazy-screens';

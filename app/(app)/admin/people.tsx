@@ -1,1 +1,1 @@
-export { PeopleScreen as default } from '@/features/admin/people-screen';
+export { PeopleScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { InspectRoute as default } from '@/features/inspections/inspect-route';
+export { InspectRoute as default } from '@/features/shell/lazy-screens';

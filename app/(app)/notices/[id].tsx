@@ -1,1 +1,1 @@
-export { NoticeScreen as default } from '@/features/notices/notice-screen';
+export { NoticeScreen as default } from '@/features/shell/lazy-screens';

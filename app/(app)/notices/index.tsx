@@ -1,1 +1,1 @@
-export { NoticeListScreen as default } from '@/features/notices/notice-list-screen';
+export { NoticeListScreen as default } from '@/features/shell/lazy-screens';

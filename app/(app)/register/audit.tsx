@@ -1,1 +1,1 @@
-export { AuditScreen as default } from '@/features/registry/audit-screen';
+export { AuditScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { InstrumentRegisterScreen as default } from '@/features/instruments/register-screen';
+export { InstrumentRegisterScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { SchedulesListScreen as default } from '@/features/registry/schedules-list-screen';
+export { SchedulesListScreen as default } from '@/features/shell/lazy-screens';

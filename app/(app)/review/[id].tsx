@@ -1,1 +1,1 @@
-export { InspectionReviewScreen as default } from '@/features/review/inspection-screen';
+export { InspectionReviewScreen as default } from '@/features/shell/lazy-screens';

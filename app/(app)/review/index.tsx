@@ -1,1 +1,1 @@
-export { QueueScreen as default } from '@/features/review/queue-screen';
+export { QueueScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { RidesListScreen as default } from '@/features/registry/rides-list-screen';
+export { RidesListScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { RideCreateScreen as default } from '@/features/registry/ride-create-screen';
+export { RideCreateScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { PersonScreen as default } from '@/features/admin/person-screen';
+export { PersonScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { ChecklistsListScreen as default } from '@/features/registry/checklists-list-screen';
+export { ChecklistsListScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { ChecklistCreateScreen as default } from '@/features/registry/checklist-create-screen';
+export { ChecklistCreateScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { CompaniesListScreen as default } from '@/features/registry/companies-list-screen';
+export { CompaniesListScreen as default } from '@/features/shell/lazy-screens';

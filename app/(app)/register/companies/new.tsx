@@ -1,1 +1,1 @@
-export { CompanyEditScreen as default } from '@/features/registry/company-edit-screen';
+export { CompanyEditScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { SitesListScreen as default } from '@/features/registry/sites-list-screen';
+export { SitesListScreen as default } from '@/features/shell/lazy-screens';

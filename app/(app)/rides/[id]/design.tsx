@@ -1,1 +1,1 @@
-export { DesignScreen as default } from '@/features/registry/design-screen';
+export { DesignScreen as default } from '@/features/shell/lazy-screens';

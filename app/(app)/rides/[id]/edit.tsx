@@ -1,1 +1,1 @@
-export { RideEditScreen as default } from '@/features/registry/ride-edit-screen';
+export { RideEditScreen as default } from '@/features/shell/lazy-screens';

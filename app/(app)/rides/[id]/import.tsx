@@ -1,1 +1,1 @@
-export { DesignImportScreen as default } from '@/features/registry/design-import-screen';
+export { DesignImportScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { RideDetailScreen as default } from '@/features/ride-page/ride-detail-screen';
+export { RideDetailScreen as default } from '@/features/shell/lazy-screens';

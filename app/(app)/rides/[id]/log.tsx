@@ -1,1 +1,1 @@
-export { RunningLogScreen as default } from '@/features/pivot-life/running-log-screen';
+export { RunningLogScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { NdtScreen as default } from '@/features/pivot-life/ndt-screen';
+export { NdtScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { RideScheduleScreen as default } from '@/features/registry/ride-schedule-screen';
+export { RideScheduleScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { RideStatusScreen as default } from '@/features/registry/ride-status-screen';
+export { RideStatusScreen as default } from '@/features/shell/lazy-screens';

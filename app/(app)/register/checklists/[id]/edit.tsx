@@ -1,1 +1,1 @@
-export { ChecklistEditScreen as default } from '@/features/registry/checklist-edit-screen';
+export { ChecklistEditScreen as default } from '@/features/shell/lazy-screens';

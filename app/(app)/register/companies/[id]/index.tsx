@@ -1,1 +1,1 @@
-export { CompanyScreen as default } from '@/features/registry/company-screen';
+export { CompanyScreen as default } from '@/features/shell/lazy-screens';

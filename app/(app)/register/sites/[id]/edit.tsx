@@ -1,1 +1,1 @@
-export { SiteEditScreen as default } from '@/features/registry/site-edit-screen';
+export { SiteEditScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { SiteScreen as default } from '@/features/registry/site-screen';
+export { SiteScreen as default } from '@/features/shell/lazy-screens';

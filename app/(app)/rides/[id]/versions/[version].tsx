@@ -1,1 +1,1 @@
-export { DesignVersionScreen as default } from '@/features/registry/design-version-screen';
+export { DesignVersionScreen as default } from '@/features/shell/lazy-screens';

@@ -1,1 +1,1 @@
-export { ChecklistScreen as default } from '@/features/registry/checklist-screen';
+export { ChecklistScreen as default } from '@/features/shell/lazy-screens';

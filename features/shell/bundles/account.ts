@@ -1,0 +1,2 @@
+/** The person's own account page. */
+export { AccountScreen } from '@/features/shell/account-screen';

@@ -1,0 +1,2 @@
+/** The load calculator. */
+export { CalculatorScreen } from '@/features/calculator/calculator-screen';

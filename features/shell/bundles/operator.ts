@@ -1,0 +1,2 @@
+/** The ride operator's home. */
+export { OperatorHome } from '@/features/home/operator-home';

@@ -1,0 +1,25 @@
+/** The rides and the register behind them (companies, sites, checklists, schedules, instruments, audit). */
+export { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
+export { NdtScreen } from '@/features/pivot-life/ndt-screen';
+export { RunningLogScreen } from '@/features/pivot-life/running-log-screen';
+export { AuditScreen } from '@/features/registry/audit-screen';
+export { ChecklistCreateScreen } from '@/features/registry/checklist-create-screen';
+export { ChecklistEditScreen } from '@/features/registry/checklist-edit-screen';
+export { ChecklistScreen } from '@/features/registry/checklist-screen';
+export { ChecklistsListScreen } from '@/features/registry/checklists-list-screen';
+export { CompaniesListScreen } from '@/features/registry/companies-list-screen';
+export { CompanyEditScreen } from '@/features/registry/company-edit-screen';
+export { CompanyScreen } from '@/features/registry/company-screen';
+export { DesignImportScreen } from '@/features/registry/design-import-screen';
+export { DesignScreen } from '@/features/registry/design-screen';
+export { DesignVersionScreen } from '@/features/registry/design-version-screen';
+export { RideCreateScreen } from '@/features/registry/ride-create-screen';
+export { RideEditScreen } from '@/features/registry/ride-edit-screen';
+export { RideScheduleScreen } from '@/features/registry/ride-schedule-screen';
+export { RideStatusScreen } from '@/features/registry/ride-status-screen';
+export { RidesListScreen } from '@/features/registry/rides-list-screen';
+export { SchedulesListScreen } from '@/features/registry/schedules-list-screen';
+export { SiteEditScreen } from '@/features/registry/site-edit-screen';
+export { SiteScreen } from '@/features/registry/site-screen';
+export { SitesListScreen } from '@/features/registry/sites-list-screen';
+export { RideDetailScreen } from '@/features/ride-page/ride-detail-screen';

@@ -1,0 +1,39 @@
+import { type ComponentType, type ReactNode, Suspense, lazy } from 'react';
+
+import { FullScreenWait } from '@/components/full-screen-wait';
+import { loadShared } from '@/features/shell/load-shared';
+
+/** One area's bundle: the `import()` of a module under features/shell/bundles/. */
+export type BundleLoader<M> = () => Promise<M>;
+
+/** Imports a bundle once the shared chunk has run (its modules require what that chunk defines). */
+export function loadBundle<M>(load: BundleLoader<M>): Promise<M> {
+  return loadShared().then(load);
+}
+
+/** A screen or frame component as a bundle exports it. */
+type Exported = (props: never) => ReactNode;
+/** The props the exported component takes (none for a screen). */
+type PropsOf<C extends Exported> = Parameters<C> extends [infer P, ...unknown[]] ? P : object;
+
+/**
+ * A component of a bundle that loads when it first renders; until then the same wait as while the session
+ * loads. Metro puts each `import()` target (with what only it uses) into a chunk of its own on the web.
+ */
+export function lazyScreen<M extends Record<K, Exported>, K extends keyof M & string>(
+  load: BundleLoader<M>,
+  name: K,
+): (props: PropsOf<M[K]>) => ReactNode {
+  const Lazy = lazy(() =>
+    loadBundle(load).then((bundle) => ({ default: bundle[name] as unknown as ComponentType<object> })),
+  );
+  function LazyScreen(props: PropsOf<M[K]>) {
+    return (
+      <Suspense fallback={<FullScreenWait />}>
+        <Lazy {...(props as object)} />
+      </Suspense>
+    );
+  }
+  LazyScreen.displayName = `Lazy(${name})`;
+  return LazyScreen;
+}

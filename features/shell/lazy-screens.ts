@@ -1,0 +1,78 @@
+/**
+ * Every signed-in screen as a lazy component: the routes in app/(app) re-export these, so the entry bundle
+ * holds only the shell, sign-in and set-password, and each area's screens load when first opened (the
+ * split points are in bundle-loaders.web.ts).
+ */
+import type { Role } from '@/features/session/schema';
+import {
+  account,
+  admin,
+  calculator,
+  frame,
+  inspector,
+  notices,
+  operator,
+  review,
+  rides,
+} from '@/features/shell/bundle-loaders';
+import { type BundleLoader, lazyScreen, loadBundle } from '@/features/shell/lazy-screen';
+
+/** The bundle of each role's home (the first page after signing in). */
+const homeBundle: Record<Role, BundleLoader<unknown>> = { inspector, supervisor: review, operator, admin };
+
+/**
+ * Starts loading the signed-in frame and the role's home together as soon as the session is known, so
+ * the two arrive in parallel rather than one after the other.
+ */
+export function preloadSignedIn(role: Role): void {
+  // A failure shows where the component renders (the route's own error); nothing to do here.
+  loadBundle(frame).catch(() => undefined);
+  loadBundle(homeBundle[role]).catch(() => undefined);
+}
+
+export const SignedInFrame = lazyScreen(frame, 'SignedInFrame');
+
+export const TodayScreen = lazyScreen(inspector, 'TodayScreen');
+export const InspectRoute = lazyScreen(inspector, 'InspectRoute');
+
+export const QueueScreen = lazyScreen(review, 'QueueScreen');
+export const InspectionReviewScreen = lazyScreen(review, 'InspectionReviewScreen');
+
+export const RidesListScreen = lazyScreen(rides, 'RidesListScreen');
+export const RideCreateScreen = lazyScreen(rides, 'RideCreateScreen');
+export const RideDetailScreen = lazyScreen(rides, 'RideDetailScreen');
+export const RideEditScreen = lazyScreen(rides, 'RideEditScreen');
+export const RideStatusScreen = lazyScreen(rides, 'RideStatusScreen');
+export const RideScheduleScreen = lazyScreen(rides, 'RideScheduleScreen');
+export const DesignScreen = lazyScreen(rides, 'DesignScreen');
+export const DesignImportScreen = lazyScreen(rides, 'DesignImportScreen');
+export const DesignVersionScreen = lazyScreen(rides, 'DesignVersionScreen');
+export const RunningLogScreen = lazyScreen(rides, 'RunningLogScreen');
+export const NdtScreen = lazyScreen(rides, 'NdtScreen');
+export const AuditScreen = lazyScreen(rides, 'AuditScreen');
+export const ChecklistsListScreen = lazyScreen(rides, 'ChecklistsListScreen');
+export const ChecklistCreateScreen = lazyScreen(rides, 'ChecklistCreateScreen');
+export const ChecklistScreen = lazyScreen(rides, 'ChecklistScreen');
+export const ChecklistEditScreen = lazyScreen(rides, 'ChecklistEditScreen');
+export const CompaniesListScreen = lazyScreen(rides, 'CompaniesListScreen');
+export const CompanyScreen = lazyScreen(rides, 'CompanyScreen');
+export const CompanyEditScreen = lazyScreen(rides, 'CompanyEditScreen');
+export const SitesListScreen = lazyScreen(rides, 'SitesListScreen');
+export const SiteScreen = lazyScreen(rides, 'SiteScreen');
+export const SiteEditScreen = lazyScreen(rides, 'SiteEditScreen');
+export const SchedulesListScreen = lazyScreen(rides, 'SchedulesListScreen');
+export const InstrumentRegisterScreen = lazyScreen(rides, 'InstrumentRegisterScreen');
+
+export const NoticeListScreen = lazyScreen(notices, 'NoticeListScreen');
+export const NoticeScreen = lazyScreen(notices, 'NoticeScreen');
+
+export const OperatorHome = lazyScreen(operator, 'OperatorHome');
+
+export const AdminHome = lazyScreen(admin, 'AdminHome');
+export const PeopleScreen = lazyScreen(admin, 'PeopleScreen');
+export const PersonScreen = lazyScreen(admin, 'PersonScreen');
+export const OutboxScreen = lazyScreen(admin, 'OutboxScreen');
+
+export const CalculatorScreen = lazyScreen(calculator, 'CalculatorScreen');
+
+export const AccountScreen = lazyScreen(account, 'AccountScreen');

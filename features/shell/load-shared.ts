@@ -1,0 +1,4 @@
+/** A phone's bundle is one file: nothing is shared between chunks (see load-shared.web.ts). */
+export function loadShared(): Promise<void> {
+  return Promise.resolve();
+}

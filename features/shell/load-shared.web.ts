@@ -1,0 +1,31 @@
+/**
+ * The code that two or more signed-in bundles share sits in one chunk of the web export (`__common`).
+ * Expo's page would load it with the entry, before the sign-in form; scripts/build-web.ts takes it out
+ * of index.html and leaves its address in `<meta name="pivotwatch-shared">`. The bundles' modules require
+ * what it defines, so every bundle is imported only after `loadShared()` has run it (lazy-screen.tsx).
+ */
+let shared: Promise<void> | null = null;
+
+export function sharedChunkUrl(): string | null {
+  return document.querySelector('meta[name="pivotwatch-shared"]')?.getAttribute('content') || null;
+}
+
+/** Runs the shared chunk once (no-op in development, where there is no such chunk). */
+export function loadShared(): Promise<void> {
+  if (shared) return shared;
+  const src = sharedChunkUrl();
+  if (!src) return (shared = Promise.resolve());
+  shared = new Promise<void>((resolve, reject) => {
+    const script = document.createElement('script');
+    script.src = src;
+    script.onload = () => resolve();
+    script.onerror = () => {
+      // Offline before the service worker held it, or the server away: the next attempt tries again.
+      script.remove();
+      shared = null;
+      reject(new Error('Pivotwatch could not load its screens. Check the connection and try again.'));
+    };
+    document.head.appendChild(script);
+  });
+  return shared;
+}

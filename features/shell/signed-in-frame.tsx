@@ -1,0 +1,30 @@
+import { DeviceDbProvider } from '@/features/device-db/ui';
+import type { SessionUser } from '@/features/session/schema';
+import { AppShell } from '@/features/shell/app-shell';
+import { DeviceOwnerGate } from '@/features/shell/device-owner-gate';
+import { BackgroundSync, UpdatePrompt } from '@/features/sync/ui';
+
+/**
+ * What every signed-in page sits in, loaded after sign-in (app-layout.tsx). The update prompt mounts
+ * here, and with it the service worker's registration: the worker precaches every chunk of the app, which
+ * should not compete with the sign-in form on a weak signal.
+ */
+export function SignedInFrame({ user, children }: { user: SessionUser; children: React.ReactNode }) {
+  const shell = <AppShell user={user}>{children}</AppShell>;
+  return (
+    <>
+      <UpdatePrompt />
+      {/* Only inspectors record in the field; desk roles need no device database (and no single-tab lock). */}
+      {user.role === 'inspector' ? (
+        <DeviceDbProvider>
+          <DeviceOwnerGate userId={user.id}>
+            <BackgroundSync />
+            {shell}
+          </DeviceOwnerGate>
+        </DeviceDbProvider>
+      ) : (
+        shell
+      )}
+    </>
+  );
+}
