@@ -270,22 +270,28 @@ export async function measureFirstScreen(
   };
 }
 
+/** One offline reload: wall-clock seconds, and the main thread's CPU seconds for the new page. */
+export type Reload = { seconds: number; mainThreadCpu: number };
+
 /**
  * Phase 3: with the network off and the CPU slowed `slowdown` times (DevTools' CPU throttling), reloads
- * the signed-in inspector's Today `runs` times; seconds from the reload until Today is interactive (its
- * heading and a ride's start button on screen), one figure per run.
+ * the signed-in inspector's Today `runs` times, each until Today is interactive (its heading and a ride's
+ * start button on screen). Besides the wall-clock time it reads the page's main-thread CPU time (CDP
+ * `Performance` in thread ticks: the document's own, which restarts with each navigation), which other
+ * processes on a busy machine disturb far less.
  */
 export async function measureOfflineReload(
   inspector: FirstScreen,
   runs: number,
   slowdown = 4,
-): Promise<number[]> {
+): Promise<Reload[]> {
   const page = inspector.tab;
   await page.waitForFunction(() => navigator.serviceWorker?.controller != null, null, { timeout: 90_000 });
   const cdp = await inspector.context.newCDPSession(page);
+  await cdp.send('Performance.enable', { timeDomain: 'threadTicks' });
   await inspector.context.setOffline(true);
   await cdp.send('Emulation.setCPUThrottlingRate', { rate: slowdown });
-  const seconds: number[] = [];
+  const reloads: Reload[] = [];
   try {
     for (let i = 0; i < runs; i += 1) {
       const started = performance.now();
@@ -298,14 +304,17 @@ export async function measureOfflineReload(
         .getByRole('button', { name: /Start inspection|Another type/ })
         .first()
         .waitFor({ timeout: 60_000 });
-      seconds.push((performance.now() - started) / 1000);
+      const seconds = (performance.now() - started) / 1000;
+      const { metrics } = await cdp.send('Performance.getMetrics');
+      const mainThreadCpu = metrics.find((m) => m.name === 'TaskDuration')?.value ?? NaN;
+      reloads.push({ seconds, mainThreadCpu });
     }
   } finally {
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
     await inspector.context.setOffline(false);
     await cdp.detach();
   }
-  return seconds;
+  return reloads;
 }
 
 export function median(values: number[]): number {
