@@ -8,6 +8,8 @@ import { GOALS, measureFirstScreen, measureSignIn, type Transfer } from '@/scrip
 import { serverAndBrowser } from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
+// A first visit waits for the service worker's precache too; on a busy machine that takes a while.
+jest.setTimeout(240_000);
 
 const describeBytes = (t: Transfer) =>
   `JS ${t.js} B, fonts ${t.fonts} B, other ${t.other} B, total ${t.total} B in ${t.requests} requests`;
