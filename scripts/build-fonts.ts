@@ -25,28 +25,15 @@ import {
   usedIconNames,
 } from '@/scripts/font-usage';
 
-/** Layout features HarfBuzz (as in Chromium) applies to left-to-right Latin/Greek text without being asked. */
-const defaultFeatures = [
-  'abvm',
-  'blwm',
-  'ccmp',
-  'locl',
-  'mark',
-  'mkmk',
-  'rlig',
-  'rvrn',
-  'ltra',
-  'ltrm',
-  'calt',
-  'clig',
-  'curs',
-  'dist',
-  'kern',
-  'liga',
-  'rclt',
-  'frac',
-  'numr',
-  'dnom',
+/**
+ * Layout features kept: those HarfBuzz (as in Chromium) applies to left-to-right Latin and Greek text by
+ * itself, and those FreeType's auto-hinter reads to sort glyphs into styles (superscripts, ordinals, small
+ * capitals …; afstyles.h), so each glyph hints as in the full font. Stylistic sets and alternates go.
+ */
+const keptFeatures = [
+  ...['abvm', 'blwm', 'ccmp', 'locl', 'mark', 'mkmk', 'rlig', 'rvrn', 'ltra', 'ltrm'],
+  ...['calt', 'clig', 'curs', 'dist', 'kern', 'liga', 'rclt', 'frac', 'numr', 'dnom'],
+  ...['c2cp', 'c2sc', 'ordn', 'pcap', 'sinf', 'smcp', 'subs', 'sups', 'titl'],
 ];
 
 export type WebFace = { source: string; out: string; family: string; style: string };
@@ -200,7 +187,7 @@ export async function buildTextFace(face: WebFace, text: string): Promise<Buffer
   const renamed = replaceTable(ttf, 'name', writeNames(subsetNames(readNames(tableOf(ttf, 'name')), face)));
   return subsetFont(renamed, text, {
     targetFormat: 'woff2',
-    keepFeatures: defaultFeatures,
+    keepFeatures: keptFeatures,
     dropTables: ['STAT'],
     preserveNameIds: [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 16, 17],
   });

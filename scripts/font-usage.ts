@@ -26,6 +26,12 @@ export const baseRanges: readonly (readonly [number, number])[] = [
   [0x20, 0x7e],
   [0xa0, 0xff],
   [0x100, 0x17f],
+  // The Greek alphabet: the app writes Δ, γ, σ, τ and Ω, and FreeType's auto-hinter (Chromium on Linux)
+  // sets Greek glyphs against zones measured on other Greek letters (ο, Ο, θ …): without those they hint
+  // a shade differently from the full font.
+  [0x391, 0x3a1],
+  [0x3a3, 0x3a9],
+  [0x3b1, 0x3c9],
   [0x2010, 0x2027],
   [0x202f, 0x2030],
   [0x2032, 0x2033],
@@ -33,6 +39,10 @@ export const baseRanges: readonly (readonly [number, number])[] = [
   [0x2044, 0x2044],
   [0x20ac, 0x20ac],
   [0x2212, 0x2212],
+  // The Latin ligatures' own code points (ﬀ ﬁ ﬂ ﬃ ﬄ ﬅ ﬆ). Text never uses them, but with them in the cmap
+  // FreeType's auto-hinter (Chromium on Linux) counts the "fi"-style ligature glyphs as Latin and hints them
+  // as it does in the full font; without them the ligatures render a shade differently.
+  [0xfb00, 0xfb06],
 ];
 
 function sourceFiles(roots: readonly string[]): string[] {
