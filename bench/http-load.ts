@@ -33,9 +33,14 @@ function freePort(): Promise<number> {
   });
 }
 
-export async function startServerProcess(dataDir: string): Promise<{ child: ChildProcess; base: string }> {
+/** `nodeArgs` go before the script, e.g. `--cpu-prof` flags for a profile of the server alone. */
+export async function startServerProcess(
+  dataDir: string,
+  nodeArgs: string[] = [],
+): Promise<{ child: ChildProcess; base: string }> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(process.cwd(), 'server/main.ts')], {
+  const script = path.join(process.cwd(), 'server/main.ts');
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], {
     env: {
       ...process.env,
       PORT: String(port),

@@ -1,4 +1,5 @@
-import { asc, eq, sql } from 'drizzle-orm';
+import type Database from 'better-sqlite3';
+import { asc, eq, getTableName, sql } from 'drizzle-orm';
 
 import { companies, users } from '@/db/server/schema';
 import type { SignInBody, SignInResponse } from '@/features/auth/schema';
@@ -8,6 +9,7 @@ import { hashPassword, verifyPassword } from '@/server/auth/password';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { HttpError, unauthorized } from '@/server/http/errors';
+import { sqliteOf } from '@/server/sqlite-client';
 
 const badCredentials = () => unauthorized('E-mail or password is incorrect.', 'invalid_credentials');
 
@@ -38,6 +40,32 @@ function sessionUserQuery(db: Db) {
   return query;
 }
 
+type SessionUserRow = SessionUser & { disabledAt: string | null; tokensValidAfter: string | null };
+
+/**
+ * The same read on the connection itself. drizzle's prepared query maps every row through its column
+ * decoders, which cost several times the lookup on a request that does little else (the review queue
+ * answers from memory). A transaction has no connection of its own, so it takes the drizzle query.
+ */
+const rawSessionUser = new WeakMap<Database.Database, Database.Statement<[string], SessionUserRow>>();
+function sessionUserRow(db: Db, userId: string): SessionUserRow | undefined {
+  if (!('$client' in db)) return sessionUserQuery(db).get({ userId });
+  const sqlite = sqliteOf(db);
+  let statement = rawSessionUser.get(sqlite);
+  if (!statement) {
+    const u = (column: { name: string }) => `u."${column.name}"`;
+    statement = sqlite.prepare<[string], SessionUserRow>(
+      `SELECT ${u(users.id)} AS id, ${u(users.email)} AS email, ${u(users.name)} AS name, ${u(users.role)} AS role, ` +
+        `${u(users.companyId)} AS companyId, c."${companies.name.name}" AS companyName, ` +
+        `${u(users.disabledAt)} AS disabledAt, ${u(users.tokensValidAfter)} AS tokensValidAfter ` +
+        `FROM "${getTableName(users)}" u LEFT JOIN "${getTableName(companies)}" c ` +
+        `ON c."${companies.id.name}" = ${u(users.companyId)} WHERE ${u(users.id)} = ?`,
+    );
+    rawSessionUser.set(sqlite, statement);
+  }
+  return statement.get(userId);
+}
+
 /** The signed-in user as the API shows it, or null when the account is missing or disabled. */
 export function findSessionUser(db: Db, userId: string): SessionUser | null {
   return findSessionUserWithStamp(db, userId)?.user ?? null;
@@ -51,7 +79,7 @@ export function findSessionUserWithStamp(
   db: Db,
   userId: string,
 ): { user: SessionUser; tokensValidAfterMs: number | null } | null {
-  const row = sessionUserQuery(db).get({ userId });
+  const row = sessionUserRow(db, userId);
   if (!row || row.disabledAt !== null) return null;
   const { disabledAt: _disabledAt, tokensValidAfter, ...user } = row;
   return { user, tokensValidAfterMs: tokensValidAfter === null ? null : Date.parse(tokensValidAfter) };

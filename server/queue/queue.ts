@@ -214,6 +214,20 @@ function countRows(cache: Cache, sql: string, params: (string | number)[]): numb
   return counts;
 }
 
+/**
+ * What the queue's pages stand on, as of `today` (the queue is rebuilt first if it was built for another
+ * day): equal stamps mean equal pages for equal queries, so a caller may keep whatever it derived from a
+ * page (its JSON text, compressed bytes, an ETag) for as long as the stamp stays the same. The stamp moves
+ * with any refresh in this process (the queue's generation) and any commit by another connection
+ * (`PRAGMA data_version`). Null inside a transaction, whose reads may yet roll back.
+ */
+export function queueStamp(db: Db, today: string): string | null {
+  ensureQueueFresh(db, today);
+  const cache = cacheOf(db);
+  if (cache.sqlite.inTransaction) return null;
+  return `${queueGeneration()}:${cache.dataVersion.get() ?? 0}`;
+}
+
 type Page = Omit<QueueResponse, 'items'> & {
   /** The items as a JSON array, ready to send. */
   itemsJson: string;

@@ -18,7 +18,7 @@ import { ndtRouter } from '@/server/routes/ndt';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
 import { registerRouter } from '@/server/routes/register';
-import { reviewRouter } from '@/server/routes/review';
+import { reviewQueueRouter, reviewRouter } from '@/server/routes/review';
 import { ridesRouter } from '@/server/routes/rides';
 import { schedulesRouter } from '@/server/routes/schedules';
 import { syncRouter } from '@/server/routes/sync';
@@ -29,6 +29,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.get('/health', (_req, res) => {
     res.json({ ok: true });
   });
+  router.use(reviewQueueRouter(deps));
   router.use(authRouter(deps));
   router.use(accountRouter(deps));
   router.use(ridesRouter(deps));
