@@ -7,7 +7,6 @@ import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import type { DesignData } from '@/features/loads/design-schema';
-import { designToFile } from '@/features/registry/csv';
 import { exportFileName } from '@/features/registry/import-report';
 import { saveTextFile } from '@/features/registry/save-file';
 import type { RideSummary } from '@/features/rides/schema';
@@ -25,6 +24,11 @@ export function ExportCard({
   const [saved, setSaved] = useState<string | null>(null);
   const save = async (format: 'csv' | 'json') => {
     const name = exportFileName(ride.name, version, format);
+    // The app's only use of the design file code (the server reads imports): on the web it is a chunk of
+    // its own, fetched on the first press rather than with every ride page.
+    const csv = await import('@/features/registry/csv').catch(() => null);
+    if (!csv) return setSaved('The file could not be made here without a connection. Try again online.');
+    const { designToFile } = csv;
     setSaved(
       await saveTextFile(
         name,

@@ -66,6 +66,16 @@ describe('heavy libraries behind one door', () => {
     expect(dynamicUsers).toEqual(['components/chart-d3-loader.web.ts']);
   });
 
+  test('the design file code (CSV and JSON) is reached in the app only through the export card’s import()', () => {
+    const isDesignFile = (s: string) => s === '@/features/registry/csv';
+    const staticUsers = files
+      .filter((f) => f.path !== 'features/registry/csv.ts' && valueImports(f.text).some(isDesignFile))
+      .map((f) => f.path);
+    expect(staticUsers).toEqual([]);
+    const dynamicUsers = files.filter((f) => dynamicImports(f.text).some(isDesignFile)).map((f) => f.path);
+    expect(dynamicUsers).toEqual(['features/registry/design-export-card.tsx']);
+  });
+
   test('the api feature’s runs-anywhere index does not bring the PDF download (the sign-in form needs it)', () => {
     const index = files.find((f) => f.path === 'features/api/index.ts');
     expect(index && valueImports(index.text).filter((s) => /pdf-download/.test(s))).toEqual([]);
