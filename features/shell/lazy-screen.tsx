@@ -24,9 +24,19 @@ export function lazyScreen<M extends Record<K, Exported>, K extends keyof M & st
   load: BundleLoader<M>,
   name: K,
 ): (props: PropsOf<M[K]>) => ReactNode {
-  const Lazy = lazy(() =>
-    loadBundle(load).then((bundle) => ({ default: bundle[name] as unknown as ComponentType<object> })),
-  );
+  // React.lazy keeps a failed load for good; a fresh one after a failure lets the error screen's "Retry"
+  // (or coming back with a signal) fetch the chunk again instead of failing on without asking.
+  const fresh = () =>
+    lazy(() =>
+      loadBundle(load).then(
+        (bundle) => ({ default: bundle[name] as unknown as ComponentType<object> }),
+        (err: unknown) => {
+          Lazy = fresh();
+          throw err;
+        },
+      ),
+    );
+  let Lazy = fresh();
   function LazyScreen(props: PropsOf<M[K]>) {
     return (
       <Suspense fallback={<FullScreenWait />}>
