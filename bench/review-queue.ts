@@ -137,7 +137,6 @@ export async function run() {
     const health = await drive(server.base, ['/api/health'], {}, SECONDS, pid);
     await drive(server.base, paths, auth, WARMUP_SECONDS);
     const queue = await drive(server.base, paths, auth, SECONDS, pid);
-    const unseen = await drive(server.base, unseenPaths(), auth, SECONDS, pid);
     // What a browser sends: every answer may come compressed (the queue's pages are compressed once and
     // kept; the health answer is below the compression threshold).
     const browser = { 'accept-encoding': 'gzip, deflate, br' };
@@ -145,6 +144,8 @@ export async function run() {
     const healthBrowser = await drive(server.base, ['/api/health'], browser, SECONDS, pid);
     await drive(server.base, paths, { ...auth, ...browser }, WARMUP_SECONDS);
     const queueBrowser = await drive(server.base, paths, { ...auth, ...browser }, SECONDS, pid);
+    // Last: it fills and empties the remembered pages, which would weigh on whatever ran after it.
+    const unseen = await drive(server.base, unseenPaths(), auth, SECONDS, pid);
 
     const load = os
       .loadavg()
