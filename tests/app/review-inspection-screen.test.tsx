@@ -19,6 +19,7 @@ import { analyseInspection, previewDifferences, previewOf } from '@/features/rec
 import type { Reading } from '@/features/records/schema';
 import {
   STANDARD_GRAVITY_MS2,
+  boundCycle,
   cycleResultToJson,
   ENGINE_ASSUMPTIONS,
   ENGINE_VERSION,
@@ -596,6 +597,49 @@ describe('inspection review', () => {
     expect(screen.getByText(/cannot run the load engine over a ride cycle/)).toBeTruthy();
     // Asked once: a 404 is not retried.
     expect(requests.filter((r) => r.url.pathname.endsWith('/cycle'))).toHaveLength(1);
+  });
+
+  test('a bounded cycle says how many instants it draws and offers every one; a refusal reads the reason', async () => {
+    // The server's bounded answer (server/compute/cycle-series.ts), cut here to a small bound.
+    const cut = boundCycle(result, 1200);
+    expect(cut.sampleIndex).not.toBeNull();
+    const refusal = 'Full resolution is limited to 500,000 numbers; this cycle has 600,000';
+    answers['/api/inspections/insp-3/cycle'] = () => {
+      const last = requests.filter((r) => r.url.pathname.endsWith('/cycle')).pop();
+      return last?.url.searchParams.get('resolution') === 'full'
+        ? [
+            400,
+            {
+              error: {
+                code: 'validation_failed',
+                message: 'The request has invalid fields.',
+                issues: [{ path: 'query.resolution', message: refusal }],
+              },
+            },
+          ]
+        : [
+            200,
+            {
+              engineVersion: ENGINE_VERSION,
+              assumptions: ENGINE_ASSUMPTIONS,
+              ...cycleResultToJson(cut.result),
+              resolution: 'bounded',
+              sampleIndex: cut.sampleIndex,
+            },
+          ];
+    };
+    renderReview();
+    expect(
+      await screen.findByText(new RegExp(`drawn through ${cut.sampleIndex!.length} of them`)),
+    ).toBeTruthy();
+    // The peak still reads as the full analysis's: the bounded series keep it.
+    const chart = await screen.findByLabelText(/^Force on P1 · Main pivot over the ride cycle/);
+    expect(chart.props.accessibilityLabel).toContain('peak ');
+    fireEvent.press(screen.getByRole('button', { name: 'Every instant' }));
+    expect(await screen.findByText(refusal)).toBeTruthy();
+    expect(requests.some((r) => r.url.searchParams.get('resolution') === 'full')).toBe(true);
+    fireEvent.press(screen.getByRole('button', { name: 'Show the bounded series' }));
+    expect(await screen.findByText(new RegExp(`drawn through ${cut.sampleIndex!.length}`))).toBeTruthy();
   });
 
   test('failed checklist items come first with their notes and photos; the rest on request', async () => {
