@@ -88,6 +88,19 @@ describe('what each chunk of the export holds', () => {
     // The device database's engine: its worker is a chunk of its own, started only by the inspector's frame.
     expect(where('node_modules/expo-sqlite/web/worker.ts')).toEqual(['worker']);
   });
+
+  test('heavy libraries sit in chunks of their own, behind their one import(); mathjs in none', () => {
+    const holders = (re: RegExp) =>
+      chunkFiles()
+        .filter((f) => modulesOf(f).some((m) => re.test(m)))
+        .map((f) => f.replace(/-[0-9a-f]+\.js$/, ''));
+    // components/chart-d3-loader.web.ts, fetched with the first chart drawn.
+    expect(holders(/^node_modules\/d3-[a-z-]+\//)).toEqual(['chart-d3']);
+    // features/registry/design-export-card.tsx, fetched on the first Download press.
+    expect(holders(/^features\/registry\/design-file\/csv-(import|export)\.ts$/)).toEqual(['csv']);
+    // Unit factors are generated at build time (scripts/gen-unit-factors.ts).
+    expect(holders(/^node_modules\/mathjs\//)).toEqual([]);
+  });
 });
 
 const app = serverAndBrowser();
