@@ -16,18 +16,33 @@ import {
   rides,
 } from '@/features/shell/bundle-loaders';
 import { type BundleLoader, lazyScreen, loadBundle } from '@/features/shell/lazy-screen';
+import { backgroundMoment } from '@/features/shell/load-shared';
 
 /** The bundle of each role's home (the first page after signing in). */
 const homeBundle: Record<Role, BundleLoader<unknown>> = { inspector, supervisor: review, operator, admin };
 
+/** Every area each role's navigation reaches (features/shell/nav-items.ts). */
+const roleAreas: Record<Role, BundleLoader<unknown>[]> = {
+  inspector: [inspector, rides, notices, calculator, account],
+  supervisor: [review, rides, notices, calculator, account],
+  operator: [operator, notices, account],
+  admin: [admin, rides, notices, calculator, account],
+};
+
 /**
  * Starts loading the signed-in frame and the role's home together as soon as the session is known, so
- * the two arrive in parallel rather than one after the other.
+ * the two arrive in parallel rather than one after the other. Then, in the background, the rest of the
+ * role's areas: a signal lost right after signing in, before the service worker holds the app, must not
+ * leave one of the role's pages unreachable (it never did when the app was one bundle).
  */
 export function preloadSignedIn(role: Role): void {
-  // A failure shows where the component renders (the route's own error); nothing to do here.
-  loadBundle(frame).catch(() => undefined);
-  loadBundle(homeBundle[role]).catch(() => undefined);
+  Promise.all([loadBundle(frame), loadBundle(homeBundle[role])])
+    .then(backgroundMoment)
+    .then(async () => {
+      for (const area of roleAreas[role]) await loadBundle(area);
+    })
+    // A failure shows where the component renders (the route's own error, with a retry); nothing to do here.
+    .catch(() => undefined);
 }
 
 export const SignedInFrame = lazyScreen(frame, 'SignedInFrame');

@@ -2,3 +2,8 @@
 export function loadShared(): Promise<void> {
   return Promise.resolve();
 }
+
+/** Nothing to wait for: the whole app is in the bundle. */
+export function backgroundMoment(): Promise<void> {
+  return Promise.resolve();
+}

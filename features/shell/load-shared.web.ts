@@ -29,3 +29,26 @@ export function loadShared(): Promise<void> {
   });
   return shared;
 }
+
+/** How long after the first screen the rest of a role's areas wait for the service worker at most. */
+const BACKGROUND_AFTER_MS = 5000;
+
+/**
+ * Resolves once the service worker controls the page (its precache is complete, so chunks come from it)
+ * or a few seconds have passed, whichever is first.
+ */
+export function backgroundMoment(): Promise<void> {
+  return new Promise((resolve) => {
+    const sw = typeof navigator !== 'undefined' ? navigator.serviceWorker : undefined;
+    if (!sw || sw.controller) return resolve();
+    const timer = setTimeout(resolve, BACKGROUND_AFTER_MS);
+    sw.addEventListener(
+      'controllerchange',
+      () => {
+        clearTimeout(timer);
+        resolve();
+      },
+      { once: true },
+    );
+  });
+}
