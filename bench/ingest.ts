@@ -24,7 +24,9 @@ import { sqliteOf } from '@/server/sqlite-client';
  * a savepoint per record, the batch's stored answer), against a raw better-sqlite3 prepared insert of the
  * same inspection and reading rows in one transaction, measured in the same run on fresh copies of the
  * same seeded database. Then the follow-up analysis of those 500 with the load engine, separately.
- * Target (issue 5): ingest ≥ 50 % of the raw insert's rate.
+ * Target (issue 16): ingest ≥ 65 % of the raw insert's rate, median of the paired runs. The push commits
+ * once per batch of 50 (each answer is durable before the phone hears it) where the raw insert commits
+ * once, so part of the gap is the nine extra commits and their fsyncs, not the push's own work.
  */
 
 const INSPECTIONS = 500;
@@ -242,7 +244,7 @@ function report({ ingestMs, ingestCpu, rawCpu, analysisMs, rawMs, analysed }: Fi
     `raw prepared insert:   ${fmt(median(rawMs), 1)} ms  ${fmt(rawRate)} inspections/s  (same rows, one transaction)`,
   );
   console.log(
-    `ingest / raw:          ${fmt(median(ratios) * 100)} %  median of the runs' ratios (lowest ${fmt(ratios[0] * 100)} %, highest ${fmt(ratios[ratios.length - 1] * 100)} %); target ≥ 50 %`,
+    `ingest / raw:          ${fmt(median(ratios) * 100)} %  median of the runs' ratios (lowest ${fmt(ratios[0] * 100)} %, highest ${fmt(ratios[ratios.length - 1] * 100)} %); target ≥ 65 %`,
   );
   console.log(
     `  by CPU time:         ${fmt(cpuRatio * 100)} %  (ingest ${fmt(median(ingestCpu), 1)} ms, raw ${fmt(median(rawCpu), 1)} ms of this process's CPU)`,

@@ -23,13 +23,24 @@ const parseContent = (raw: unknown): ChecklistContent | null => {
   return parsed.success ? parsed.data : null;
 };
 
+/** Prepared once per connection: a push asks for them batch after batch. */
+const contentStatements = new WeakMap<
+  Database.Database,
+  Database.Statement<[string, number], { content: string }>
+>();
+
 /** Template content by id and version, read once per batch; null when there is none (or it is unreadable). */
 function templateContentLookup(
   sqlite: Database.Database,
 ): (templateId: string | null, version: number | null) => ChecklistContent | null {
-  const stmt = sqlite.prepare<[string, number], { content: string }>(
-    'SELECT content FROM checklist_template_versions WHERE template_id = ? AND version = ?',
-  );
+  let prepared = contentStatements.get(sqlite);
+  if (!prepared) {
+    prepared = sqlite.prepare<[string, number], { content: string }>(
+      'SELECT content FROM checklist_template_versions WHERE template_id = ? AND version = ?',
+    );
+    contentStatements.set(sqlite, prepared);
+  }
+  const stmt = prepared;
   const seen = new Map<string, ChecklistContent | null>();
   return (templateId, version) => {
     if (templateId === null || version === null) return null;
@@ -64,9 +75,15 @@ export function templateContentOf(
   return row ? parseContent(row.content) : null;
 }
 
-/** What the ingest check reads, once per batch: template versions and design versions by id. */
-export function checklistLimitLookup(sqlite: Database.Database) {
-  return { template: templateContentLookup(sqlite), design: designDataLookup(sqlite) };
+/**
+ * What the ingest check reads, once per batch: template versions and design versions by id (`design`: the
+ * batch's own design lookup when it has one, so each version is read once per batch).
+ */
+export function checklistLimitLookup(
+  sqlite: Database.Database,
+  design: (id: string) => DesignData | null = designDataLookup(sqlite),
+) {
+  return { template: templateContentLookup(sqlite), design };
 }
 
 /** Issues for each answer passed over its limit without a reason. */

@@ -12,32 +12,74 @@ import { type DesignData, designDataSchema } from '@/features/loads/design-schem
 
 type Issue = { path: string; message: string };
 
-/** Design data by version id, read once per batch; null for an id with no (readable) data. */
+type ParsedDesign = { text: string; design: DesignData | null };
+type DesignCache = {
+  stmt: Database.Statement<[string], { data: string }>;
+  parsed: Map<string, ParsedDesign>;
+};
+
+/** Parsed design versions kept per connection: a push re-reads the same few designs batch after batch. */
+const designCaches = new WeakMap<Database.Database, DesignCache>();
+/** Enough for every version a busy day's pushes name; past it the cache starts again rather than grow. */
+const DESIGN_CACHE_SIZE = 256;
+
+function designCacheOf(sqlite: Database.Database): DesignCache {
+  let cache = designCaches.get(sqlite);
+  if (!cache) {
+    cache = { stmt: sqlite.prepare('SELECT data FROM design_versions WHERE id = ?'), parsed: new Map() };
+    designCaches.set(sqlite, cache);
+  }
+  return cache;
+}
+
+/**
+ * Design data by version id, read once per batch; null for an id with no (readable) data. Checking the
+ * design schema costs more than storing a record, so a version is parsed once per connection and the
+ * parse reused while the stored text is the same (the text is re-read every batch, so nothing stale is
+ * ever used).
+ */
 export function designDataLookup(sqlite: Database.Database): (id: string) => DesignData | null {
-  const stmt = sqlite.prepare<[string], { data: string }>('SELECT data FROM design_versions WHERE id = ?');
+  const { stmt, parsed } = designCacheOf(sqlite);
   const seen = new Map<string, DesignData | null>();
   return (id) => {
     let design = seen.get(id);
     if (design === undefined) {
       const row = stmt.get(id);
-      const parsed = row ? designDataSchema.safeParse(JSON.parse(row.data)) : null;
-      design = parsed?.success ? parsed.data : null;
+      const kept = parsed.get(id);
+      if (!row) design = null;
+      else if (kept && kept.text === row.data) design = kept.design;
+      else {
+        const result = designDataSchema.safeParse(JSON.parse(row.data));
+        design = result.success ? result.data : null;
+        if (parsed.size >= DESIGN_CACHE_SIZE) parsed.clear();
+        parsed.set(id, { text: row.data, design });
+      }
       seen.set(id, design);
     }
     return design;
   };
 }
 
+const readingsStatements = new WeakMap<
+  Database.Database,
+  Database.Statement<[string], { readings: string | null }>
+>();
+
 /**
  * The readings of an accepted inspection, by its id (empty when there is none): an amendment may carry
  * them over unchanged, and what was accepted once is not asked again.
  */
 export function acceptedReadingsLookup(sqlite: Database.Database): (id: string) => readonly Reading[] {
-  const stmt = sqlite.prepare<[string], { readings: string | null }>(
-    "SELECT json_extract(record, '$.readings') AS readings FROM inspections WHERE id = ?",
-  );
+  let stmt = readingsStatements.get(sqlite);
+  if (!stmt) {
+    stmt = sqlite.prepare<[string], { readings: string | null }>(
+      "SELECT json_extract(record, '$.readings') AS readings FROM inspections WHERE id = ?",
+    );
+    readingsStatements.set(sqlite, stmt);
+  }
+  const st = stmt;
   return (id) => {
-    const row = stmt.get(id);
+    const row = st.get(id);
     const list: unknown = row?.readings ? JSON.parse(row.readings) : [];
     return Array.isArray(list) ? (list as Reading[]) : [];
   };
