@@ -43,10 +43,11 @@ function typedSI(entered: string, unit: string, kind: QuantityKind | null): numb
   return null;
 }
 
+const message = (unit: string) =>
+  `The typed text does not say the stored value (read in ${unit || 'no unit'}); send the value as typed`;
+
 export function enteredIssues(record: InspectionRecord): Issue[] {
   const issues: Issue[] = [];
-  const message = (unit: string) =>
-    `The typed text does not say the stored value (read in ${unit || 'no unit'}); send the value as typed`;
   record.readings.forEach((r, i) => {
     if (r.entered === undefined) return;
     const si =
