@@ -36,10 +36,13 @@ const roleAreas: Record<Role, BundleLoader<unknown>[]> = {
  * leave one of the role's pages unreachable (it never did when the app was one bundle).
  */
 export function preloadSignedIn(role: Role): void {
-  Promise.all([loadBundle(frame), loadBundle(homeBundle[role])])
+  // An inspector's device database (its worker and .wasm) starts opening as soon as the frame's code is
+  // here, alongside the home screen's chunk, rather than once the frame has rendered.
+  const framed = loadBundle(frame).then((m) => m.warmUp(role));
+  Promise.all([framed, loadBundle(homeBundle[role])])
     .then(backgroundMoment)
-    .then(async () => {
-      for (const area of roleAreas[role]) await loadBundle(area);
+    .then(async (ahead) => {
+      if (ahead) for (const area of roleAreas[role]) await loadBundle(area);
     })
     // A failure shows where the component renders (the route's own error, with a retry); nothing to do here.
     .catch(() => undefined);

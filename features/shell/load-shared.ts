@@ -3,7 +3,7 @@ export function loadShared(): Promise<void> {
   return Promise.resolve();
 }
 
-/** Nothing to wait for: the whole app is in the bundle. */
-export function backgroundMoment(): Promise<void> {
-  return Promise.resolve();
+/** Nothing to load ahead: the whole app is in the bundle. */
+export function backgroundMoment(): Promise<boolean> {
+  return Promise.resolve(false);
 }

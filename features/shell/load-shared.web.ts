@@ -34,19 +34,28 @@ export function loadShared(): Promise<void> {
 const BACKGROUND_AFTER_MS = 5000;
 
 /**
- * Resolves once the service worker controls the page (its precache is complete, so chunks come from it)
- * or a few seconds have passed, whichever is first.
+ * Whether a service worker controlled this page when it loaded: its precache was complete then, so every
+ * chunk of this version can come from it with no network, and nothing needs loading ahead.
  */
-export function backgroundMoment(): Promise<void> {
+const heldAtStart = typeof navigator !== 'undefined' && navigator.serviceWorker?.controller != null;
+
+/**
+ * Resolves `true` once the service worker controls the page (its precache is complete, so chunks come from
+ * it) or a few seconds have passed, whichever is first; `false` straight away when a worker already held
+ * the page at start (a reload, offline or not), where loading the other areas ahead would only compete
+ * with the first screen for the main thread.
+ */
+export function backgroundMoment(): Promise<boolean> {
   return new Promise((resolve) => {
+    if (heldAtStart) return resolve(false);
     const sw = typeof navigator !== 'undefined' ? navigator.serviceWorker : undefined;
-    if (!sw || sw.controller) return resolve();
-    const timer = setTimeout(resolve, BACKGROUND_AFTER_MS);
+    if (!sw || sw.controller) return resolve(true);
+    const timer = setTimeout(() => resolve(true), BACKGROUND_AFTER_MS);
     sw.addEventListener(
       'controllerchange',
       () => {
         clearTimeout(timer);
-        resolve();
+        resolve(true);
       },
       { once: true },
     );

@@ -1,5 +1,5 @@
-import { DeviceDbProvider } from '@/features/device-db/ui';
-import type { SessionUser } from '@/features/session/schema';
+import { DeviceDbProvider, openDeviceDb } from '@/features/device-db/ui';
+import type { Role, SessionUser } from '@/features/session/schema';
 import { AppShell } from '@/features/shell/app-shell';
 import { DeviceOwnerGate } from '@/features/shell/device-owner-gate';
 import { BackgroundSync, UpdatePrompt } from '@/features/sync/ui';
@@ -27,4 +27,12 @@ export function SignedInFrame({ user, children }: { user: SessionUser; children:
       )}
     </>
   );
+}
+
+/**
+ * Starts what the role's first screen will wait for before it renders: an inspector's device database
+ * (opened once; the provider gets the same open connection). A failure is left for the provider to show.
+ */
+export function warmUp(role: Role): void {
+  if (role === 'inspector') openDeviceDb().catch(() => undefined);
 }
