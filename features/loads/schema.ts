@@ -313,21 +313,30 @@ export function solveLoadsRequest(body: unknown): ApiOutcome<LoadsResponse> {
   return { ok: true, value: { engineVersion: ENGINE_VERSION, ...result } };
 }
 
-/** POST /api/loads/cycle: validate, analyse the whole cycle. The response body is `value`. */
-export function analyseCycleRequest(body: unknown): ApiOutcome<CycleResponse> {
+/** Validate a cycle request and analyse the whole cycle, as the engine's typed arrays. */
+export function analyseCycleBody(body: unknown): ApiOutcome<ReturnType<typeof analyseCycle>> {
   const parsed = cycleRequestSchema.safeParse(body);
   if (!parsed.success) return { ok: false, issues: zodIssues(parsed.error) };
-  let result;
   try {
-    result = analyseCycle(parsed.data);
+    return { ok: true, value: analyseCycle(parsed.data) };
   } catch (error) {
     // A free joint the chain cannot move, or no period to take as the cycle: the request's fault.
     if (error instanceof FreeMotionError)
       return { ok: false, issues: [{ path: error.path.join('.'), message: error.message }] };
     throw error;
   }
+}
+
+/** POST /api/loads/cycle: validate, analyse the whole cycle. The response body is `value`. */
+export function analyseCycleRequest(body: unknown): ApiOutcome<CycleResponse> {
+  const analysed = analyseCycleBody(body);
+  if (!analysed.ok) return analysed;
   return {
     ok: true,
-    value: { engineVersion: ENGINE_VERSION, assumptions: ENGINE_ASSUMPTIONS, ...cycleResultToJson(result) },
+    value: {
+      engineVersion: ENGINE_VERSION,
+      assumptions: ENGINE_ASSUMPTIONS,
+      ...cycleResultToJson(analysed.value),
+    },
   };
 }

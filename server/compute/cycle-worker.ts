@@ -5,10 +5,8 @@
  */
 import zlib from 'node:zlib';
 
-import { zodIssues } from '@/lib/api-errors';
-import { FreeMotionError, analyseCycle } from '@/features/loads/engine';
 import type { CycleResolution } from '@/features/loads/cycle-resolution-schema';
-import { cycleRequestSchema } from '@/features/loads/schema';
+import { analyseCycleBody } from '@/features/loads/schema';
 import { cycleAnswer } from '@/server/compute/cycle-series';
 import { serveJobs } from '@/server/compute/worker-side';
 
@@ -20,18 +18,9 @@ export type CycleJobOutput =
 
 // As analyseCycleRequest (features/loads/schema.ts), but the typed arrays are cut before they become JSON.
 serveJobs(({ body, resolution, gzip }: CycleJobInput): CycleJobOutput => {
-  const parsed = cycleRequestSchema.safeParse(body);
-  if (!parsed.success) return { ok: false, issues: zodIssues(parsed.error) };
-  let result;
-  try {
-    result = analyseCycle(parsed.data);
-  } catch (error) {
-    // A free joint the chain cannot move, or no period to take as the cycle: the request's fault.
-    if (error instanceof FreeMotionError)
-      return { ok: false, issues: [{ path: error.path.join('.'), message: error.message }] };
-    throw error;
-  }
-  const answer = cycleAnswer(result, resolution);
+  const analysed = analyseCycleBody(body);
+  if (!analysed.ok) return analysed;
+  const answer = cycleAnswer(analysed.value, resolution);
   if (!answer.ok) return answer;
   const json = JSON.stringify(answer.value);
   // Level 1: within a few per cent of the default level's size here, in half its time.
