@@ -1,3 +1,4 @@
+import type { DeviceDb } from '@/features/device-db';
 import { DeviceDbProvider, openDeviceDb } from '@/features/device-db/ui';
 import type { Role, SessionUser } from '@/features/session/schema';
 import { AppShell } from '@/features/shell/app-shell';
@@ -16,7 +17,7 @@ export function SignedInFrame({ user, children }: { user: SessionUser; children:
       <UpdatePrompt />
       {/* Only inspectors record in the field; desk roles need no device database (and no single-tab lock). */}
       {user.role === 'inspector' ? (
-        <DeviceDbProvider>
+        <DeviceDbProvider open={openOnce}>
           <DeviceOwnerGate userId={user.id}>
             <BackgroundSync />
             {shell}
@@ -29,10 +30,23 @@ export function SignedInFrame({ user, children }: { user: SessionUser; children:
   );
 }
 
+/** The device database's first opening, started by `warmUp` before the frame renders. */
+let early: Promise<DeviceDb> | null = null;
+
 /**
  * Starts what the role's first screen will wait for before it renders: an inspector's device database
- * (opened once; the provider gets the same open connection). A failure is left for the provider to show.
+ * (opened once; the provider takes this very attempt, so a refusal such as another tab holding the
+ * database is shown by the provider as before).
  */
 export function warmUp(role: Role): void {
-  if (role === 'inspector') openDeviceDb().catch(() => undefined);
+  if (role !== 'inspector' || early) return;
+  early = openDeviceDb();
+  early.catch(() => undefined);
+}
+
+/** The provider's opener: the early attempt once, then a fresh one (its "Try again"). */
+function openOnce(): Promise<DeviceDb> {
+  const attempt = early ?? openDeviceDb();
+  early = null;
+  return attempt;
 }
