@@ -1,7 +1,8 @@
 /**
  * A bar across the top of the app when a new version is ready. It sits in the layout flow (above the
  * screens, not over them), so it never hides the navigation or a form's buttons. Registering the
- * service worker happens here too: mounting this once in the signed-in frame (after sign-in) is all the web build needs.
+ * service worker happens here too: mounting this once in the signed-in frame (after sign-in) is all the
+ * web build needs.
  */
 import { StyleSheet, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
