@@ -9,12 +9,13 @@
  * share its event loop), driven by autocannon over loopback, with the server's CPU time per request read
  * from /proc.
  */
-import { type ChildProcess, execFileSync, spawn } from 'node:child_process';
+import { type ChildProcess, execFileSync } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import path from 'node:path';
 
 import autocannon from 'autocannon';
+
+import { startLocalServer } from '@/scripts/local-server';
 
 export const CONNECTIONS = 50;
 
@@ -22,51 +23,24 @@ export const fmt = (v: number, digits = 0) => v.toLocaleString('en', { maximumFr
 const percentile = (sorted: number[], p: number) =>
   sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))] : NaN;
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-}
-
 /** `nodeArgs` go before the script, e.g. `--cpu-prof` flags for a profile of the server alone. */
 export async function startServerProcess(
   dataDir: string,
   nodeArgs: string[] = [],
 ): Promise<{ child: ChildProcess; base: string }> {
-  const port = await freePort();
-  const script = path.join(process.cwd(), 'server/main.ts');
-  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], {
+  const { child, baseUrl } = await startLocalServer({
+    dataDir,
+    nodeArgs,
     env: {
-      ...process.env,
-      PORT: String(port),
-      DATA_DIR: dataDir,
       WEB_DIR: path.join(dataDir, 'none'),
       NODE_ENV: 'development',
       SEED_DEMO: '0',
       // One log line per request is written in production; the bench measures the queue, not the log.
       LOG_LEVEL: 'warn',
     },
-    stdio: ['ignore', 'ignore', 'pipe'],
+    timeoutMs: 120_000,
   });
-  let stderr = '';
-  child.stderr?.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
-  const base = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 120_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`the server stopped at start:\n${stderr}`);
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) return { child, base };
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) throw new Error(`the server did not start in time:\n${stderr}`);
-    await new Promise((resolve) => setTimeout(resolve, 200));
-  }
+  return { child, base: baseUrl };
 }
 
 const clockTicks = (() => {

@@ -14,16 +14,13 @@
  * `--url <baseUrl>` measure a server already running with demo data instead (nothing is built).
  * Run it under the browser lock when others share the machine: `flock /tmp/pw-browser.lock npm run bench:web`.
  */
-import { type ChildProcess, spawn } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
-import { cpus, loadavg, tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { cpus, loadavg } from 'node:os';
 
 import { chromium } from 'playwright-core';
 
 import { launchOptions } from './browser';
-import { buildWeb, ROOT } from './build-web';
+import { buildWeb } from './build-web';
+import { startLocalServer } from './local-server';
 import {
   GOALS,
   measureFirstScreen,
@@ -41,56 +38,6 @@ const verdict = (ok: boolean) => (ok ? 'PASS' : 'MISS');
 function row(label: string, t: Transfer, goal = ''): string {
   const cells = [kb(t.js), kb(t.fonts), kb(t.other), kb(t.total)].map((c) => c.padStart(9));
   return `${label.padEnd(44)}${cells.join(' ')}  ${String(t.requests).padStart(4)}  ${goal}`;
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const addr = srv.address();
-      srv.close(() => (typeof addr === 'object' && addr ? resolve(addr.port) : reject(new Error('no port'))));
-    });
-  });
-}
-
-/** The real server (tsx server/main.ts) on loopback, so the demo data is seeded into a fresh DATA_DIR. */
-async function startServer(): Promise<{ baseUrl: string; stop: () => Promise<void> }> {
-  const port = await freePort();
-  const dataDir = mkdtempSync(join(tmpdir(), 'pivotwatch-bench-web-'));
-  const child: ChildProcess = spawn(join(ROOT, 'node_modules', '.bin', 'tsx'), ['server/main.ts'], {
-    cwd: ROOT,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATA_DIR: dataDir, LOG_LEVEL: 'warn' },
-    stdio: ['ignore', 'ignore', 'pipe'],
-  });
-  let stderr = '';
-  child.stderr?.on('data', (d) => (stderr += String(d)));
-  const baseUrl = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 90_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited early (${child.exitCode}):\n${stderr}`);
-    if (
-      await fetch(`${baseUrl}/api/health`).then(
-        (r) => r.ok,
-        () => false,
-      )
-    )
-      break;
-    if (Date.now() > deadline) throw new Error(`server did not answer within 90 s:\n${stderr}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  return {
-    baseUrl,
-    stop: async () => {
-      if (child.exitCode === null) {
-        const exited = new Promise((r) => child.once('exit', r));
-        child.kill('SIGTERM');
-        await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
-        if (child.exitCode === null) child.kill('SIGKILL');
-      }
-      child.stderr?.destroy();
-      rmSync(dataDir, { recursive: true, force: true });
-    },
-  };
 }
 
 function option(name: string): string | undefined {
@@ -174,7 +121,7 @@ async function main() {
     return;
   }
   await buildWeb({ force: process.argv.includes('--force') });
-  const server = await startServer();
+  const server = await startLocalServer();
   try {
     await measure(server.baseUrl, runs);
   } finally {

@@ -1,11 +1,10 @@
-import { type ChildProcess, spawn } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
+import { mkdirSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { type Browser, type Page, chromium } from 'playwright-core';
 
 import { launchOptions } from '@/scripts/browser';
+import { startLocalServer } from '@/scripts/local-server';
 
 export const ROOT = join(__dirname, '..', '..', '..');
 export const SHOTS = join(ROOT, 'artifacts', 'screenshots');
@@ -17,66 +16,15 @@ export const sizes = {
 } as const;
 export type SizeName = keyof typeof sizes;
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const addr = srv.address();
-      srv.close(() => (typeof addr === 'object' && addr ? resolve(addr.port) : reject(new Error('no port'))));
-    });
-  });
-}
-
 export type Running = { baseUrl: string; dataDir: string; stop: () => Promise<void> };
 
-/** Starts the real server (tsx server/main.ts) on a free port with an empty temp DATA_DIR. */
+/** Starts the real server on a free loopback port with an empty temporary DATA_DIR (scripts/local-server.ts). */
 export async function startPivotwatch(env: Record<string, string> = {}): Promise<Running> {
-  const port = await freePort();
-  const dataDir = mkdtempSync(join(tmpdir(), 'pivotwatch-browser-'));
-  const child: ChildProcess = spawn(join(ROOT, 'node_modules', '.bin', 'tsx'), ['server/main.ts'], {
-    cwd: ROOT,
-    env: {
-      ...process.env,
-      PORT: String(port),
-      DATA_DIR: dataDir,
-      LOG_LEVEL: 'warn',
-      NODE_ENV: 'test',
-      // Loopback, whatever the calling shell exports: the tests sign in as the demo users, seeded only there.
-      HOST: '127.0.0.1',
-      ...env,
-    },
-    stdio: ['ignore', 'ignore', 'pipe'],
+  const { baseUrl, dataDir, stop } = await startLocalServer({
+    env: { NODE_ENV: 'test', ...env },
+    timeoutMs: 60_000,
   });
-  let stderr = '';
-  child.stderr?.on('data', (d) => (stderr += String(d)));
-  const baseUrl = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 60000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited early (${child.exitCode}):\n${stderr}`);
-    try {
-      const res = await fetch(`${baseUrl}/api/health`);
-      if (res.ok) break;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) throw new Error(`server did not answer within 60 s:\n${stderr}`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
-  return {
-    baseUrl,
-    dataDir,
-    stop: async () => {
-      if (child.exitCode === null) {
-        const exited = new Promise((r) => child.once('exit', r));
-        child.kill('SIGTERM');
-        await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
-        if (child.exitCode === null) child.kill('SIGKILL');
-      }
-      // The stderr pipe would otherwise keep jest waiting after the run.
-      child.stderr?.destroy();
-      rmSync(dataDir, { recursive: true, force: true });
-    },
-  };
+  return { baseUrl, dataDir, stop };
 }
 
 export async function launchBrowser(): Promise<Browser> {
