@@ -5,8 +5,17 @@
  */
 import path from 'node:path';
 
+import type { Response } from 'express';
+
 import type { CycleJobInput, CycleJobOutput } from '@/server/compute/cycle-worker';
-import { createWorkerPool, type WorkerPool } from '@/server/compute/pool';
+import {
+  ComputeBusyError,
+  ComputeTimeoutError,
+  createWorkerPool,
+  type WorkerPool,
+} from '@/server/compute/pool';
+import type { ApiDeps } from '@/server/deps';
+import { HttpError } from '@/server/http/errors';
 
 /**
  * Samples × (bodies + seats) one request may ask for: this keeps its analysis near a second on a small
@@ -49,5 +58,38 @@ export function createCyclePool(timeoutMs: number): CyclePool {
   return createWorkerPool<CycleJobInput, CycleJobOutput>({
     file: path.join(__dirname, 'cycle-worker.ts'),
     timeoutMs,
+  });
+}
+
+/** One pool per app for every cycle route (`POST /loads/cycle`, `GET /inspections/:id/cycle`). */
+const pools = new WeakMap<ApiDeps, CyclePool>();
+export function cyclePoolOf(deps: ApiDeps): CyclePool {
+  let pool = pools.get(deps);
+  if (!pool) {
+    pool = createCyclePool(deps.config.computeTimeLimitMs);
+    pools.set(deps, pool);
+  }
+  return pool;
+}
+
+/**
+ * A cycle job's answer, with the pool's refusals as HTTP errors: a job that overran the server's limit
+ * (COMPUTE_TIME_LIMIT_MS) is a 422 `too_much_work`; every worker busy and the line full, a 503 `busy`
+ * with Retry-After.
+ */
+export function runCycleJob(pool: CyclePool, input: CycleJobInput, res: Response): Promise<CycleJobOutput> {
+  return pool.run(input).catch((error: unknown) => {
+    if (error instanceof ComputeTimeoutError)
+      throw new HttpError(
+        422,
+        'too_much_work',
+        `The analysis took longer than the server allows (${error.limitMs / 1000} s) and was stopped: ` +
+          'ask for fewer samples or a shorter cycle.',
+      );
+    if (error instanceof ComputeBusyError) {
+      res.setHeader('Retry-After', '5');
+      throw new HttpError(503, 'busy', 'The server is busy with other analyses; try again in a few seconds.');
+    }
+    throw error;
   });
 }

@@ -3,9 +3,8 @@ import { Router } from 'express';
 import { cycleQuerySchema } from '@/features/loads/cycle-resolution-schema';
 import { solveLoadsRequest } from '@/features/loads/schema';
 import type { ApiDeps } from '@/server/deps';
-import { createCyclePool, cycleSizeIssue } from '@/server/compute/cycle';
+import { cyclePoolOf, cycleSizeIssue, runCycleJob } from '@/server/compute/cycle';
 import { fullResolutionIssue } from '@/server/compute/cycle-series';
-import { ComputeBusyError, ComputeTimeoutError } from '@/server/compute/pool';
 import { HttpError } from '@/server/http/errors';
 import { validate } from '@/server/http/validate';
 import { requireAuth } from '@/server/auth/require-auth';
@@ -27,7 +26,7 @@ const invalid = (issues: { path: string; message: string }[]) =>
  */
 export function loadsRouter(deps: ApiDeps): Router {
   const router = Router();
-  const cycles = createCyclePool(deps.config.computeTimeLimitMs);
+  const cycles = cyclePoolOf(deps);
 
   router.post('/loads', requireAuth(deps), (req, res) => {
     const outcome = solveLoadsRequest(req.body);
@@ -40,35 +39,17 @@ export function loadsRouter(deps: ApiDeps): Router {
     const tooLarge = cycleSizeIssue(req.body) ?? (resolution === 'full' ? fullSizeIssue(req.body) : null);
     if (tooLarge) throw invalid([tooLarge]);
     const gzip = req.acceptsEncodings('gzip') === 'gzip';
-    const outcome = await cycles.run({ body: req.body, resolution, gzip }).catch((error: unknown) => {
-      if (error instanceof ComputeTimeoutError)
-        throw new HttpError(
-          422,
-          'too_much_work',
-          `The analysis took longer than the server allows (${error.limitMs / 1000} s) and was stopped: ` +
-            'ask for fewer samples or a shorter cycle.',
-        );
-      if (error instanceof ComputeBusyError) {
-        res.setHeader('Retry-After', '5');
-        throw new HttpError(
-          503,
-          'busy',
-          'The server is busy with other analyses; try again in a few seconds.',
-        );
-      }
-      throw error;
-    });
-    if (!outcome.ok) throw invalid(outcome.issues);
+    const outcome = await runCycleJob(cycles, { kind: 'request', body: req.body, resolution, gzip }, res);
+    if (!outcome.ok) throw invalid('issues' in outcome ? outcome.issues : []);
+    if (!('body' in outcome)) throw new Error('The cycle worker answered a request with a stored answer.');
     // Already JSON, compressed when the client takes gzip (the compression middleware leaves an encoded
-    // body alone): the worker did the work, so the main thread only sends bytes.
-    res.type('application/json');
-    if ('json' in outcome) {
-      res.send(outcome.json);
-      return;
-    }
-    res.setHeader('Content-Encoding', 'gzip');
+    // body alone): the worker did the work, so the main thread only sends bytes. No ETag: it would hash
+    // the whole body on the main thread for an answer to a POST, which no cache revalidates.
+    res.setHeader('Content-Type', 'application/json; charset=utf-8');
     res.vary('Accept-Encoding');
-    res.send(Buffer.from(outcome.gzip.buffer, outcome.gzip.byteOffset, outcome.gzip.byteLength));
+    if (outcome.gzip) res.setHeader('Content-Encoding', 'gzip');
+    res.setHeader('Content-Length', outcome.body.byteLength);
+    res.end(outcome.body);
   });
   return router;
 }
