@@ -7,7 +7,7 @@ import { findingInputSchema, findingPatchSchema } from '@/features/notices/findi
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
-import { inspectionCycle } from '@/server/review/cycle';
+import { inspectionCycles } from '@/server/review/cycle';
 import { decideInspection } from '@/server/review/decisions';
 import {
   createFinding,
@@ -38,7 +38,8 @@ const decisionInput = validate({ params: idParamsSchema, body: decisionInputSche
  * - `GET /inspections/:id/trail` → `{ entries }`: its and its findings' audit entries, and the ride's since
  *   it was submitted, newest first
  * - `GET /inspections/:id/cycle` → the ride cycle the load check rests on, as `POST /loads/cycle` answers
- *   (bounded series with every peak kept; `?resolution=full` for every sample, within a cap)
+ *   (bounded series with every peak kept; `?resolution=full` for every sample, within a cap), computed in
+ *   the cycle worker and kept per inspection and inputs (server/review/cycle.ts), with an ETag
  * - `GET /rides/:id/trends` → the ride's inspections oldest first with peak forces, pin diameters and
  *   clearances (an inspector's own only, as with the inspections themselves)
  */
@@ -47,6 +48,7 @@ export function findingsRouter(deps: ApiDeps): Router {
   const auth = requireAuth(deps);
   const staff = [auth, requireRole('inspector', 'supervisor', 'admin')];
   const deciders = [auth, requireRole('supervisor', 'admin')];
+  const cycles = inspectionCycles(deps);
 
   router.get('/inspections/:id/findings', ...staff, byId, (_req, res) => {
     const inspection = mustSeeInspection(deps.db, currentUser(res), byId.params(res).id);
@@ -97,9 +99,9 @@ export function findingsRouter(deps: ApiDeps): Router {
     res.json({ entries: inspectionTrail(deps.db, inspection) });
   });
 
-  router.get('/inspections/:id/cycle', ...staff, cycleInput, (_req, res) => {
+  router.get('/inspections/:id/cycle', ...staff, cycleInput, async (req, res) => {
     const inspection = mustSeeInspection(deps.db, currentUser(res), cycleInput.params(res).id);
-    res.json(inspectionCycle(deps.db, inspection, cycleInput.query(res).resolution));
+    await cycles.send(req, res, inspection, cycleInput.query(res).resolution);
   });
 
   router.get('/rides/:id/trends', ...staff, byId, (_req, res) => {

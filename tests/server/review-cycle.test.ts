@@ -160,3 +160,70 @@ test('inspectors read only their own; operators 403; unknown 404', async () => {
   expectApiError(await api.operator.get(`/api/inspections/${record.id}/cycle`), 403, 'forbidden');
   expectApiError(await api.supervisor.get(`/api/inspections/${randomUUID()}/cycle`), 404, 'not_found');
 });
+
+describe('kept answers: computed once per inspection and inputs, a new answer when they change', () => {
+  const peakOf = (rpmNow: number) => {
+    const w = rpmToRadS(rpmNow);
+    return m * 9.80665 + m * w * w * (L / 2);
+  };
+
+  test('the same answer and ETag again, a 304 for it, a new one for a changed record and for an amendment', async () => {
+    const rod = rodDesign(m, L, 'Rod, kept answers');
+    const rideId = await rodRide('Review rod, kept');
+    const design = await api.admin.put(`/api/rides/${rideId}/design`, { reason: 'Kept', data: rod });
+    const ride = { id: rideId, designVersionId: design.body.design.id, design: rod };
+    const original = makeRecord(ride, { readings: [speedReading(rpm)] });
+    await pushAccepted(server.db, api.inspector, [original]);
+    const url = `/api/inspections/${original.id}/cycle`;
+
+    const first = await api.supervisor.get(url);
+    expect(first.status).toBe(200);
+    const etag = first.headers.etag as string;
+    expect(etag).toMatch(/^W\/"/);
+    // Largest pin force m·g + m·ω²·L/2 (closed form above), sampled at 360 points per turn.
+    expect(first.body.joints[0].peakForce.value).toBeGreaterThan(peakOf(rpm) * (1 - 1e-4));
+    const again = await api.supervisor.get(url);
+    expect(again.headers.etag).toBe(etag);
+    expect(again.body).toEqual(first.body);
+    // Conditional GET with the validator held (RFC 9110 §13.1.2): nothing resent.
+    const revalidated = await api.supervisor.get(url).set('If-None-Match', etag);
+    expect(revalidated.status).toBe(304);
+
+    // The answer rests on the record's stored hash: a record rewritten in place with its hash (not a
+    // path the product has: a stored record never changes) shows the answer is kept, not recomputed, and
+    // a new hash gives a new answer from the new readings.
+    const faster = { ...original, readings: [speedReading(2 * rpm)] };
+    server.db.update(inspections).set({ record: faster }).where(eq(inspections.id, original.id)).run();
+    expect((await api.supervisor.get(url)).headers.etag).toBe(etag);
+    server.db
+      .update(inspections)
+      .set({ contentSha256: 'f'.repeat(64) })
+      .where(eq(inspections.id, original.id))
+      .run();
+    const rewritten = await api.supervisor.get(url);
+    expect(rewritten.headers.etag).not.toBe(etag);
+    expect(rewritten.body.joints[0].peakForce.value).toBeGreaterThan(peakOf(2 * rpm) * (1 - 1e-4));
+    expect(rewritten.body.joints[0].peakForce.value).toBeLessThanOrEqual(peakOf(2 * rpm) * (1 + 1e-9));
+    server.db
+      .update(inspections)
+      .set({ record: original, contentSha256: 'e'.repeat(64) })
+      .where(eq(inspections.id, original.id))
+      .run();
+    expect((await api.supervisor.get(url)).body).toEqual(first.body);
+
+    // An amendment with other readings is its own inspection with its own answer; the original keeps its.
+    const amendment = makeRecord(ride, { readings: [speedReading(1.5 * rpm)], amendsId: original.id });
+    await pushAccepted(server.db, api.inspector, [amendment]);
+    const amended = await api.supervisor.get(`/api/inspections/${amendment.id}/cycle`);
+    expect(amended.status).toBe(200);
+    expect(amended.headers.etag).not.toBe(etag);
+    expect(amended.body.joints[0].peakForce.value).toBeGreaterThan(peakOf(1.5 * rpm) * (1 - 1e-4));
+    expect(amended.body.joints[0].peakForce.value).toBeLessThanOrEqual(peakOf(1.5 * rpm) * (1 + 1e-9));
+    expect((await api.supervisor.get(url)).body).toEqual(first.body);
+
+    // Asked for several times at once (one computation), at the other resolution (kept apart): the same
+    // numbers, since 360 samples of one rod fit the bounded answer whole.
+    const together = await Promise.all([1, 2, 3].map(() => api.admin.get(`${url}?resolution=full`)));
+    together.forEach((r) => expect(r.body).toEqual(first.body));
+  });
+});
