@@ -17,11 +17,21 @@ type Series = ArrayLike<number>;
 function extremeIndices(values: Series, from: number, to: number): [number, number] {
   let lo = -1;
   let hi = -1;
+  let loValue = 0;
+  let hiValue = 0;
   for (let k = from; k < to; k++) {
     const v = values[k];
     if (v !== v) continue;
-    if (lo < 0 || v < values[lo]) lo = k;
-    if (hi < 0 || v > values[hi]) hi = k;
+    if (lo < 0) {
+      lo = hi = k;
+      loValue = hiValue = v;
+    } else if (v < loValue) {
+      lo = k;
+      loValue = v;
+    } else if (v > hiValue) {
+      hi = k;
+      hiValue = v;
+    }
   }
   return [lo, hi];
 }
