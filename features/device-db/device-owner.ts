@@ -112,6 +112,10 @@ async function adoptUnowned(tx: DeviceDb, userId: string): Promise<void> {
  * its in-memory caches too.
  */
 export async function bindDeviceOwner(dev: DeviceDb, userId: string): Promise<{ changed: boolean }> {
+  // The usual start (the same person again) is one read. Only bind and release write the owner, each in
+  // one transaction behind the same queue, so a read that finds this person bound is as good as one
+  // inside a transaction; any other answer is checked again inside the transaction below.
+  if ((await getDeviceOwner(dev)) === userId) return { changed: false };
   return dev.transaction(async (tx) => {
     const current = await getDeviceOwner(tx);
     if (current === userId) return { changed: false };

@@ -33,14 +33,27 @@ export function migrationsFromJournal(
     });
 }
 
+/**
+ * The tags already applied. A database that has them reads them in one statement (the common case: every
+ * start of the app); only a fresh one, without the table yet, creates it first.
+ */
+async function appliedTags(deviceDb: DeviceDb): Promise<Set<string>> {
+  const read = async () =>
+    new Set((await deviceDb.db.values<[string]>('SELECT tag FROM __migrations')).map((row) => row[0]));
+  try {
+    return await read();
+  } catch {
+    // No table yet (a fresh database). Any other failure repeats below and is reported from there.
+    await deviceDb.db.run(
+      'CREATE TABLE IF NOT EXISTS __migrations (tag TEXT PRIMARY KEY NOT NULL, applied_at TEXT NOT NULL)',
+    );
+    return read();
+  }
+}
+
 /** Runs the migrations not yet applied; returns the tags it applied. */
 export async function applyMigrations(deviceDb: DeviceDb, migrations: DeviceMigration[]): Promise<string[]> {
-  await deviceDb.db.run(
-    'CREATE TABLE IF NOT EXISTS __migrations (tag TEXT PRIMARY KEY NOT NULL, applied_at TEXT NOT NULL)',
-  );
-  const done = new Set(
-    (await deviceDb.db.values<[string]>('SELECT tag FROM __migrations')).map((row) => row[0]),
-  );
+  const done = await appliedTags(deviceDb);
   const applied: string[] = [];
   for (const migration of migrations) {
     if (done.has(migration.tag)) continue;

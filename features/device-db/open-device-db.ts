@@ -12,9 +12,18 @@ import { applyMigrations } from '@/features/device-db/migrations';
 
 const DEVICE_DB_NAME = 'pivotwatch-device.db';
 
-/** One statement through a prepared statement: rows as value arrays, as drizzle's proxy driver expects. */
+/**
+ * One statement, as drizzle's proxy driver expects (rows as value arrays). On the web every call below is
+ * a message to the database's worker and back through the page's main thread, so each statement uses as
+ * few as it can: one for a statement without parameters that returns nothing (BEGIN, COMMIT, a
+ * migration's DDL), and for a single row no fetch of the remaining rows.
+ */
 function expoExecutor(conn: SQLiteDatabase): SqlExecutor {
   return async (sql, params, method) => {
+    if (method === 'run' && params.length === 0) {
+      await conn.execAsync(sql);
+      return { rows: [] };
+    }
     const statement = await conn.prepareAsync(sql);
     try {
       const bind = params as SQLiteBindValue[];
@@ -23,8 +32,12 @@ function expoExecutor(conn: SQLiteDatabase): SqlExecutor {
         return { rows: [] };
       }
       const result = await statement.executeForRawResultAsync<Record<string, SQLiteBindValue>>(bind);
-      const rows = await result.getAllAsync();
-      return { rows: method === 'get' ? rows[0] : rows };
+      if (method === 'get') {
+        const row = await result.getFirstAsync();
+        // No row: undefined, as drizzle's proxy driver expects (its declared type leaves that out).
+        return { rows: row ?? (undefined as never) };
+      }
+      return { rows: await result.getAllAsync() };
     } finally {
       await statement.finalizeAsync();
     }

@@ -62,6 +62,19 @@ describe('migrations', () => {
     );
   });
 
+  test('a database already up to date is checked with one read and nothing else (every start of the app)', async () => {
+    dev.statements.length = 0;
+    expect(await applyMigrations(dev, deviceMigrationsFromDisk())).toEqual([]);
+    expect(dev.statements).toEqual(['SELECT tag FROM __migrations']);
+  });
+
+  test('a database behind the bundle gets only the migrations it lacks', async () => {
+    const extra = { tag: '9999_extra', statements: ['CREATE TABLE extra (x TEXT)'] };
+    expect(await applyMigrations(dev, [...deviceMigrationsFromDisk(), extra])).toEqual(['9999_extra']);
+    expect(tables()).toContain('extra');
+    expect(await applyMigrations(dev, [...deviceMigrationsFromDisk(), extra])).toEqual([]);
+  });
+
   test('a migration that fails leaves nothing half-applied', async () => {
     const broken = [{ tag: '9999_broken', statements: ['CREATE TABLE extra (x TEXT)', 'NOT SQL AT ALL'] }];
     await expect(applyMigrations(dev, broken)).rejects.toThrow();

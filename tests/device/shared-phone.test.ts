@@ -239,6 +239,20 @@ describe('a change of person', () => {
     expect(await getSyncMeta(dev, 'pullCursor')).toBe('cursor-42');
   });
 
+  test('the same person again is one read of the owner, with no transaction (the usual start)', async () => {
+    await bindDeviceOwner(dev, ANNA);
+    dev.statements.length = 0;
+    expect(await bindDeviceOwner(dev, ANNA)).toEqual({ changed: false });
+    expect(dev.statements).toHaveLength(1);
+    expect(dev.statements[0]).toMatch(/^select .* from "sync_meta" where/i);
+    // Someone else is still checked and bound inside one transaction.
+    dev.statements.length = 0;
+    expect(await bindDeviceOwner(dev, BORIS)).toEqual({ changed: true });
+    expect(dev.statements[1]).toBe('BEGIN IMMEDIATE');
+    expect(dev.statements.at(-1)).toBe('COMMIT');
+    expect(await getDeviceOwner(dev)).toBe(BORIS);
+  });
+
   test('a sync under another person’s token while the phone is still bound to the first sends nothing', async () => {
     await bindDeviceOwner(dev, ANNA);
     await submitted();
