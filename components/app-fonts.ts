@@ -23,3 +23,6 @@ export function useAppFonts(): boolean {
   const [loaded, error] = useFonts(fontFiles);
   return loaded || error !== null;
 }
+
+/** Nothing left to load on a phone: every face loaded before the first screen (see app-fonts.web.ts). */
+export function loadSignedInFonts(): void {}

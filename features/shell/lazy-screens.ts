@@ -3,6 +3,7 @@
  * holds only the shell, sign-in and set-password, and each area's screens load when first opened (the
  * split points are in bundle-loaders.web.ts).
  */
+import { loadSignedInFonts } from '@/components/app-fonts';
 import type { Role } from '@/features/session/schema';
 import {
   account,
@@ -36,6 +37,8 @@ const roleAreas: Record<Role, BundleLoader<unknown>[]> = {
  * leave one of the role's pages unreachable (it never did when the app was one bundle).
  */
 export function preloadSignedIn(role: Role): void {
+  // The figures' face and the icons (the pages before sign-in draw neither).
+  loadSignedInFonts();
   // An inspector's device database (its worker and .wasm) starts opening as soon as the frame's code is
   // here, alongside the home screen's chunk, rather than once the frame has rendered.
   const framed = loadBundle(frame).then((m) => m.warmUp(role));

@@ -106,18 +106,22 @@ describe('what each chunk of the export holds', () => {
 const app = serverAndBrowser();
 
 /** The worker's own fetch of the .wasm is not the page's; before sign-in there must be none at all. */
-type Fetched = { scripts: string[]; wasm: string[] };
+type Fetched = { scripts: string[]; wasm: string[]; fonts: string[] };
 
-/** Every script and .wasm the page fetches from now on (by file name). */
+/** Every script, .wasm and font the page fetches from now on (by file name). */
 function recordFetches(page: Page): Fetched {
-  const fetched: Fetched = { scripts: [], wasm: [] };
+  const fetched: Fetched = { scripts: [], wasm: [], fonts: [] };
   page.on('request', (req) => {
     const name = new URL(req.url()).pathname.split('/').pop() ?? '';
     if (name.endsWith('.wasm')) fetched.wasm.push(name);
+    else if (name.endsWith('.woff2')) fetched.fonts.push(name);
     else if (req.resourceType() === 'script' || name.endsWith('.js')) fetched.scripts.push(name);
   });
   return fetched;
 }
+
+/** Font files by face (`sans-400.<hash>.woff2` → `sans-400`). */
+const faces = (names: string[]) => [...new Set(names.map((n) => n.split('.')[0]))].sort();
 
 const prefixes = (names: string[]) => [...new Set(names.map((n) => n.replace(/-[0-9a-f]+\.js$/, '')))].sort();
 
@@ -129,8 +133,11 @@ test('before the sign-in form only the entry loads; the inspector then gets its 
   const fetched = recordFetches(page);
   await page.goto(`${app.baseUrl}/`);
   await page.getByLabel('E-mail').waitFor();
+  await page.waitForLoadState('networkidle');
   expect(prefixes(fetched.scripts)).toEqual(['__expo-metro-runtime', 'entry']);
   expect(fetched.wasm).toEqual([]);
+  // Only the faces the sign-in page draws (components/app-fonts.web.ts): no figures' mono face, no icons.
+  expect(faces(fetched.fonts)).toEqual(['sans-400', 'sans-600', 'sans-700']);
   expect(await serviceWorkers(page)).toBe(0);
 
   await signIn(page, app.baseUrl, 'inspector@pivotwatch.test');
@@ -141,6 +148,8 @@ test('before the sign-in form only the entry loads; the inspector then gets its 
     .waitFor();
   const after = prefixes(fetched.scripts);
   expect(after).toEqual(expect.arrayContaining(['__common', 'frame', 'inspector', 'worker']));
+  // The signed-in pages' faces come with their code.
+  expect(faces(fetched.fonts)).toEqual(['feather-icons', 'mono-500', 'sans-400', 'sans-600', 'sans-700']);
   // Only the inspector's area: the desk's and the register's chunks wait until those pages are opened.
   expect(after).not.toContain('review');
   expect(after).not.toContain('rides');
