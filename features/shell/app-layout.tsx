@@ -3,7 +3,7 @@ import { useEffect } from 'react';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { rememberNextPath, signInHref, useSession } from '@/features/auth';
-import { SignedInFrame, preloadSignedIn } from '@/features/shell/lazy-screens';
+import { SignedInFrame, forgetStoredSessionPreload, preloadSignedIn } from '@/features/shell/lazy-screens';
 
 /**
  * Everything in this group needs a session; signed-out visitors go to sign-in, which brings them back to
@@ -13,9 +13,11 @@ export function AppLayout() {
   const session = useSession();
   const pathname = usePathname();
   const role = session.data?.user.role;
+  const signedOut = !session.isPending && !session.data;
   useEffect(() => {
     if (role) preloadSignedIn(role);
-  }, [role]);
+    else if (signedOut) forgetStoredSessionPreload();
+  }, [role, signedOut]);
   if (session.isPending) {
     // While the session loads this layout renders no Slot, and the router falls back to "/" (which then
     // sends the person on): remember the page asked for, so "/" can bring them back to it.

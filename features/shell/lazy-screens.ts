@@ -4,6 +4,7 @@
  * split points are in bundle-loaders.web.ts).
  */
 import { loadSignedInFonts } from '@/components/app-fonts';
+import { tokenStore } from '@/features/session';
 import type { Role } from '@/features/session/schema';
 import {
   account,
@@ -37,6 +38,14 @@ const roleAreas: Record<Role, BundleLoader<unknown>[]> = {
  * leave one of the role's pages unreachable (it never did when the app was one bundle).
  */
 export function preloadSignedIn(role: Role): void {
+  if (startedFor === role) {
+    // Already started for the stored session as the app started (preloadStoredSession); the session the
+    // server confirms is normally that one. Only the first confirmation is spared: a later sign-in starts
+    // again as before.
+    startedFor = null;
+    return;
+  }
+  startedFor = null;
   // The figures' face and the icons (the pages before sign-in draw neither).
   loadSignedInFonts();
   // An inspector's device database (its worker and .wasm) starts opening as soon as the frame's code is
@@ -49,6 +58,32 @@ export function preloadSignedIn(role: Role): void {
     })
     // A failure shows where the component renders (the route's own error, with a retry); nothing to do here.
     .catch(() => undefined);
+}
+
+/** The role whose areas `preloadStoredSession` started loading, until the session is confirmed. */
+let startedFor: Role | null = null;
+
+/**
+ * On a reload of a signed-in page (the usual way back to a phone's app, often with no signal), starts
+ * loading the stored person's frame and home while the first render runs, instead of after the session
+ * is confirmed: an inspector's device database then opens in its worker alongside that work. Should the
+ * server answer with someone else or no one, the page shows what it answers (the chunks only arrived
+ * early). Called once as the app starts (root-layout.tsx).
+ */
+export function preloadStoredSession(): void {
+  tokenStore
+    .get()
+    .then((stored) => {
+      if (!stored) return;
+      preloadSignedIn(stored.user.role);
+      startedFor = stored.user.role;
+    })
+    .catch(() => undefined);
+}
+
+/** The session turned out to be no one's (ended, or signed out): whoever signs in next starts afresh. */
+export function forgetStoredSessionPreload(): void {
+  startedFor = null;
 }
 
 export const SignedInFrame = lazyScreen(frame, 'SignedInFrame');
