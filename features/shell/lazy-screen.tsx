@@ -2,13 +2,20 @@ import { type ComponentType, type ReactNode, Suspense, lazy } from 'react';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { loadShared } from '@/features/shell/load-shared';
+import { afterChunkFailure, isChunkLoadFailure } from '@/features/shell/stale-build';
 
 /** One area's bundle: the `import()` of a module under features/shell/bundles/. */
 export type BundleLoader<M> = () => Promise<M>;
 
-/** Imports a bundle once the shared chunk has run (its modules require what that chunk defines). */
+/**
+ * Imports a bundle once the shared chunk has run (its modules require what that chunk defines). A chunk
+ * that does not arrive may belong to a build the server has replaced: then the page reloads to the new
+ * one (stale-build.web.ts), else the failure has a plain message.
+ */
 export function loadBundle<M>(load: BundleLoader<M>): Promise<M> {
-  return loadShared().then(load);
+  return loadShared()
+    .then(load)
+    .catch((err: unknown) => (isChunkLoadFailure(err) ? afterChunkFailure() : Promise.reject(err)));
 }
 
 /** A screen or frame component as a bundle exports it. */

@@ -23,7 +23,9 @@ export function loadShared(): Promise<void> {
       // Offline before the service worker held it, or the server away: the next attempt tries again.
       script.remove();
       shared = null;
-      reject(new Error('Pivotwatch could not load its screens. Check the connection and try again.'));
+      const err = new Error('Pivotwatch could not load its screens. Check the connection and try again.');
+      err.name = 'ChunkLoadError';
+      reject(err);
     };
     document.head.appendChild(script);
   });
