@@ -1,8 +1,13 @@
 // The first bench file in name order that reaches the server's node typings: React Native's globals must
 // load before them (see bench/http-load.ts for why), so this file carries the same reference.
 /// <reference types="react-native" />
+import path from 'node:path';
+
+import Database from 'better-sqlite3';
+
 import { cpuMsOf, loadLine, startSeededServer, timedRequest, type Timed } from '@/bench/seeded-server';
 import { median, percentile } from '@/bench/timing';
+import { databaseFileName } from '@/server/db';
 
 /**
  * A whole ride cycle over HTTP (issue 16's table): `POST /api/loads/cycle` for a three-body chain at 3,600
@@ -10,6 +15,9 @@ import { median, percentile } from '@/bench/timing';
  * browser asks), against the real server in its own process. The answer carries bounded series with
  * every peak kept (server/compute/cycle-series.ts); the same request at `?resolution=full` is timed in the
  * same run for the ratio. Goal: median and p95 ≤ 15 ms. CYCLE_HTTP_RUNS sets the timed requests.
+ *
+ * Beside it, for information: `GET /api/inspections/:id/cycle` for a demo inspection, its first request
+ * (computed in the cycle worker) and the requests after it (the kept answer, server/review/cycle.ts).
  */
 
 const RUNS = Number(process.env.CYCLE_HTTP_RUNS ?? 60);
@@ -69,6 +77,26 @@ const line = (label: string, f: Figures) =>
   `${fmt(f.bytes / 1024, 1)} kB sent (${fmt(f.rawBytes / 1024, 1)} kB JSON)` +
   (f.cpuMs === null ? '' : `  server CPU ${fmt(f.cpuMs)} ms a request`);
 
+/** An analysed demo inspection's cycle: the first answer, then the kept one. */
+async function inspectionCycle(base: string, dataDir: string, headers: Record<string, string>) {
+  const db = new Database(path.join(dataDir, databaseFileName), { readonly: true });
+  const row = db
+    .prepare('SELECT id FROM inspections WHERE analysis IS NOT NULL ORDER BY received_at, id LIMIT 1')
+    .get() as { id: string } | undefined;
+  db.close();
+  if (!row) return;
+  const url = `${base}/api/inspections/${row.id}/cycle`;
+  const first = await timedRequest(url, { headers });
+  if (first.status !== 200) throw new Error(`${url} answered ${first.status}`);
+  const kept: number[] = [];
+  for (let i = 0; i < RUNS; i++) kept.push((await timedRequest(url, { headers })).ms);
+  console.log(
+    `GET /api/inspections/:id/cycle (a demo inspection): first ${fmt(first.ms, 1)} ms (computed in the worker), ` +
+      `then kept: median ${fmt(median(kept))} ms  p95 ${fmt(percentile(kept, 0.95))} ms  ` +
+      `${fmt(first.bytes / 1024, 1)} kB sent`,
+  );
+}
+
 export async function run() {
   const server = await startSeededServer();
   try {
@@ -91,6 +119,7 @@ export async function run() {
       `goal ≤ ${GOAL_MS} ms request to last byte: median ${pass(bounded.median)}, p95 ${pass(bounded.p95)}; ` +
         `bounded ÷ full time ${fmt((bounded.median / full.median) * 100, 0)} % in this run`,
     );
+    await inspectionCycle(server.base, server.dataDir, headers);
     console.log(loadLine());
   } finally {
     await server.stop();
