@@ -1,5 +1,3 @@
-import { useEffect, useState } from 'react';
-
 import type { DeviceDb } from '@/features/device-db';
 import { DeviceDbProvider, openDeviceDb } from '@/features/device-db/ui';
 import type { Role, SessionUser } from '@/features/session/schema';
@@ -21,7 +19,7 @@ export function SignedInFrame({ user, children }: { user: SessionUser; children:
       {user.role === 'inspector' ? (
         <DeviceDbProvider open={openOnce}>
           <DeviceOwnerGate userId={user.id}>
-            <BackgroundSyncSoon />
+            <BackgroundSync />
             {shell}
           </DeviceOwnerGate>
         </DeviceDbProvider>
@@ -30,29 +28,6 @@ export function SignedInFrame({ user, children }: { user: SessionUser; children:
       )}
     </>
   );
-}
-
-/** How long background sync waits at most for the first screen to be on and the page idle. */
-const BACKGROUND_SYNC_AFTER_MS = 2000;
-
-/**
- * Background sync (on connection return, every half minute) starts once the first screen has had its
- * turn: its first reads (outbox, photos, sync state) would otherwise queue ahead of the screen's own reads
- * of the device database, which runs one statement at a time. A screen that shows sync state (Today)
- * starts the same controller itself when it mounts, so nothing waits for this on that screen.
- */
-function BackgroundSyncSoon() {
-  const [on, setOn] = useState(false);
-  useEffect(() => {
-    const start = () => setOn(true);
-    if (typeof requestIdleCallback === 'function') {
-      const idle = requestIdleCallback(start, { timeout: BACKGROUND_SYNC_AFTER_MS });
-      return () => cancelIdleCallback(idle);
-    }
-    const timer = setTimeout(start, BACKGROUND_SYNC_AFTER_MS);
-    return () => clearTimeout(timer);
-  }, []);
-  return on ? <BackgroundSync /> : null;
 }
 
 /** The device database's first opening, started by `warmUp` before the frame renders. */
