@@ -16,29 +16,29 @@ import { databaseFileName, openDb } from '@/server/db';
 import { demoInspectorEmail, seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
+import { MAX_BATCH } from '@/features/sync/push';
 import { sqliteOf } from '@/server/sqlite-client';
 
 /**
  * Server ingest of a phone's push: 500 inspections with 10 readings each (5,000 readings), sent in the
- * phone's batches of 50 through the push service (validation, ride and design checks, duplicate check,
- * the accepted records stored together, the review queue's rows, the batch's stored answer), against a
- * raw better-sqlite3 prepared insert of the same inspection and reading rows in one transaction, measured
- * in the same run on fresh copies of the same seeded database. Then the follow-up analysis of those 500
- * with the load engine, separately. Target (issue 16): ingest ≥ 65 % of the raw insert's rate, median of
- * the paired runs.
+ * phone's batches (MAX_BATCH, features/sync/push.ts) through the push service (validation, ride and design
+ * checks, duplicate check, the accepted records stored together, the review queue's rows, the batch's stored
+ * answer), against a raw better-sqlite3 prepared insert of the same inspection and reading rows in one
+ * transaction, measured in the same run on fresh copies of the same seeded database. Then the follow-up
+ * analysis of those 500 with the load engine, separately. Target (issue 16): ingest ≥ 65 % of the raw
+ * insert's rate, median of the paired runs.
  *
- * What the push must do and the raw side does not: commit once per batch of 50 (each answer is committed
- * before the phone hears it) where the raw insert commits once, and write each inspection's review-queue
- * row (eleven B-trees). Each commit writes every page it changed to the WAL, and the random-keyed indexes
- * (readings by inspection id, the queue's) are rewritten by batch after batch: the push writes about 2.5
- * times the raw insert's WAL pages. Both sides run with the connection's settings from openDb, printed
- * below: WAL with `synchronous` as SQLite reports it (NORMAL, better-sqlite3's build default for WAL,
- * makes a commit survive a crash of the server but not of the machine; no fsync per commit).
+ * What the push must do and the raw side does not: commit once per batch (each answer is committed before
+ * the phone hears it) where the raw insert commits once, and write each inspection's review-queue row
+ * (eleven B-trees). Each commit writes every page it changed to the WAL and, at the server's
+ * `synchronous=FULL` (set by openDb so that an accepted push survives a power cut), syncs it to disk. Both
+ * sides run with the connection's settings from openDb, printed below.
  */
 
 const INSPECTIONS = 500;
 const READINGS_PER = 10;
-const BATCH = 50;
+/** The phone's batch size: the bench pushes as the phone does. */
+const BATCH = MAX_BATCH;
 const REPEATS = 7;
 
 const now = () => performance.now();

@@ -111,6 +111,10 @@ export function openDb(dataDir: string, opts: OpenDbOptions = {}): OpenedDb {
   restrictDatabaseFiles(file);
   // WAL lets readers carry on while a write commits; the timeout rides out a brief lock from another process.
   sqlite.pragma('journal_mode = WAL');
+  // Every commit reaches the disk before it returns: a phone deletes its copy of a record once the server
+  // has accepted it, so an accepted push must survive a power cut, not only a crash of this process.
+  // (better-sqlite3 builds SQLite with NORMAL as WAL's default, where only checkpoints are synced.)
+  sqlite.pragma('synchronous = FULL');
   sqlite.pragma('foreign_keys = ON');
   sqlite.pragma('busy_timeout = 5000');
   const db = drizzle(sqlite, { schema });

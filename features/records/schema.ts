@@ -190,10 +190,13 @@ export const inspectionRecordSchema = z.object({
 });
 export type InspectionRecord = z.infer<typeof inspectionRecordSchema>;
 
+/** The most records one push may carry (the phone's batches are this size, see features/sync/push.ts). */
+export const PUSH_MAX_RECORDS = 200;
+
 /** POST /api/sync/push: a batch of records with a key that makes re-sending the batch harmless. */
 export const pushBatchSchema = z.object({
   batchId: uuid(),
-  records: z.array(z.unknown()).min(1).max(200),
+  records: z.array(z.unknown()).min(1).max(PUSH_MAX_RECORDS),
 });
 
 /** Per-record outcome: accepted (new or already had), or rejected with reasons naming fields. */

@@ -10,7 +10,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { type OutboxRow, outbox } from '@/db/device/schema';
 import { type DeviceDb, ownedBy } from '@/features/device-db';
 import type { InspectionRecord, PushResult } from '@/features/records/schema';
-import { pushResultSchema } from '@/features/records/schema';
+import { PUSH_MAX_RECORDS, pushResultSchema } from '@/features/records/schema';
 import type { SyncApi } from '@/features/sync/api';
 import {
   type OutboxEntry,
@@ -21,7 +21,11 @@ import {
   transition,
 } from '@/features/sync/outbox-machine';
 
-export const MAX_BATCH = 50;
+/**
+ * Records per push: as many as the server takes in one (each push is one commit on the server and one round
+ * trip on what is often a slow, high-latency link). The byte limit below keeps a push of large records small.
+ */
+export const MAX_BATCH = PUSH_MAX_RECORDS;
 /**
  * A batch also stops growing at this many characters of JSON (one record always goes): records carrying ride
  * cycles recorded with the phone are large, and the server takes at most 16 MB per push.

@@ -13,7 +13,7 @@ import { getPhotoBlob, putPhotoBlob } from '@/features/device-db/photos';
 import { saveDraft, submitDraft } from '@/features/device-db/drafts';
 import { readAssignments, readRides, readTemplates } from '@/features/sync/cache';
 import { getSyncMeta } from '@/features/device-db/sync-meta';
-import type { InspectionRecord } from '@/features/records/schema';
+import { type InspectionRecord, pushBatchSchema } from '@/features/records/schema';
 import { uploadPhotos } from '@/features/sync/photo-upload';
 import { PullResponseError, pull } from '@/features/sync/pull';
 import { MAX_BATCH, pushOutbox } from '@/features/sync/push';
@@ -55,13 +55,21 @@ async function statesOnPhone() {
 }
 
 test(`sends in batches of at most ${MAX_BATCH}, each with its own batch id`, async () => {
-  await submit(120);
+  const total = 2 * MAX_BATCH + 20;
+  await submit(total);
   const report = await pushOutbox(server, dev, opts());
-  expect(report).toMatchObject({ batches: 3, accepted: 120, rejected: 0, requeued: 0, failure: null });
+  expect(report).toMatchObject({ batches: 3, accepted: total, rejected: 0, requeued: 0, failure: null });
   expect(new Set(server.batchIdsSeen).size).toBe(3);
-  expect([...server.batches.values()].map((b) => b.results.length)).toEqual([50, 50, 20]);
-  expect(server.records.size).toBe(120);
+  expect([...server.batches.values()].map((b) => b.results.length)).toEqual([MAX_BATCH, MAX_BATCH, 20]);
+  expect(server.records.size).toBe(total);
   expect(new Set(await statesOnPhone())).toEqual(new Set(['accepted']));
+});
+
+test('the phone’s batch is the most the server takes in one push, and no more', () => {
+  const records = Array.from({ length: MAX_BATCH + 1 }, () => ({}));
+  const batchId = randomUUID();
+  expect(pushBatchSchema.safeParse({ batchId, records: records.slice(0, MAX_BATCH) }).success).toBe(true);
+  expect(pushBatchSchema.safeParse({ batchId, records }).success).toBe(false);
 });
 
 test('a connection cut after the server stored the batch: the re-send reuses the batch id, nothing doubles', async () => {
