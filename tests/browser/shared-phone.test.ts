@@ -59,7 +59,10 @@ test('a shared phone never mixes two inspectors’ work', async () => {
     name: 'hanger.jpg',
   });
 
-  // Tomas, with no signal: one inspection submitted (nothing applies today, one photo)…
+  // Tomas, with no signal: one inspection submitted (nothing applies today, one photo)… Only once the
+  // service worker holds the page are all the app's screens on the phone (its precache fills on install):
+  // before that, a screen not opened yet could not load offline.
+  await page.waitForFunction(() => navigator.serviceWorker?.controller != null, null, { timeout: 60_000 });
   await page.context().setOffline(true);
   await startPeriodicInspection(page, 'Little Kite');
   const na = page.getByRole('radio', { name: /^Not applicable: / });
