@@ -6,6 +6,7 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 
 import { cpuMsOf, loadLine, startSeededServer, timedRequest, type Timed } from '@/bench/seeded-server';
+import { threeBodyCycle } from '@/bench/three-body-chain';
 import { median, percentile } from '@/bench/timing';
 import { databaseFileName } from '@/server/db';
 
@@ -24,20 +25,8 @@ const RUNS = Number(process.env.CYCLE_HTTP_RUNS ?? 60);
 const WARMUP = 10;
 const GOAL_MS = 15;
 
-// Invented chain, as bench/loads.ts: main arm, sub-arm, gondola.
-const body = JSON.stringify({
-  bodies: [
-    { name: 'main arm', massKg: 8000, cgM: [3, 0.1], inertiaCgKgM2: 120_000, tipM: [12, 0] },
-    { name: 'sub-arm', massKg: 1500, cgM: [1.2, -0.2], inertiaCgKgM2: 1500, tipM: [2.5, 0.3] },
-    { name: 'gondola', massKg: 4000, cgM: [0, -1.5], inertiaCgKgM2: 6000 },
-  ],
-  profiles: [
-    { kind: 'ramp', toRpm: 12, rampTimeS: 8, holdAfterS: 52 },
-    { kind: 'swing', amplitudeRad: 0.6, periodS: 4.1 },
-    { kind: 'swing', amplitudeRad: 0.3, periodS: 2.3, phaseRad: 1 },
-  ],
-  samples: 3600,
-});
+// The invented three-body chain of bench/loads.ts.
+const body = JSON.stringify(threeBodyCycle(3600));
 
 const fmt = (v: number, digits = 2) => v.toLocaleString('en', { maximumFractionDigits: digits });
 

@@ -1,6 +1,4 @@
 import {
-  type ChainBody,
-  type MotionProfile,
   analyseCycle,
   createChain,
   createChainWork,
@@ -8,6 +6,7 @@ import {
   solveInto,
 } from '@/features/loads/engine';
 import { buildPlanckChain } from '@/bench/planck-chain';
+import { THREE_BODIES, THREE_PROFILES } from '@/bench/three-body-chain';
 import { median, now, percentile, timeCalls } from '@/bench/timing';
 
 /** Per-call times of `fn` in ms, this bench's run length and warm-up. */
@@ -21,17 +20,9 @@ const time = (fn: () => void) => timeCalls(fn, 1, 20);
  * Targets (issue 3): ≥ 2 million body-samples/s; a 3,600-sample 3-body cycle in under 5 ms.
  */
 
-// Invented chain: main arm, sub-arm, gondola.
-const BODIES: ChainBody[] = [
-  { name: 'main arm', massKg: 8000, cgM: [3, 0.1], inertiaCgKgM2: 120_000, tipM: [12, 0] },
-  { name: 'sub-arm', massKg: 1500, cgM: [1.2, -0.2], inertiaCgKgM2: 1500, tipM: [2.5, 0.3] },
-  { name: 'gondola', massKg: 4000, cgM: [0, -1.5], inertiaCgKgM2: 6000 },
-];
-const PROFILES: MotionProfile[] = [
-  { kind: 'ramp', toRpm: 12, rampTimeS: 8, holdAfterS: 52 },
-  { kind: 'swing', amplitudeRad: 0.6, periodS: 4.1 },
-  { kind: 'swing', amplitudeRad: 0.3, periodS: 2.3, phaseRad: 1 },
-];
+// The invented chain shared with the cycle benches and tests (bench/three-body-chain.ts).
+const BODIES = THREE_BODIES;
+const PROFILES = THREE_PROFILES;
 const SAMPLES = 3600;
 
 const fmt = (v: number, digits = 2) => v.toLocaleString('en', { maximumFractionDigits: digits });

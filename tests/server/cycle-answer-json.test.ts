@@ -11,21 +11,10 @@ import zlib from 'node:zlib';
 import { analyseCycle, type CycleInput, type CycleResult } from '@/features/loads/engine';
 import { analyseCycleBody } from '@/features/loads/schema';
 import { cycleAnswer, cycleAnswerBytes } from '@/server/compute/cycle-series';
+import { threeBodyCycle } from '@/bench/three-body-chain';
 
-// Invented chains (as bench/loads.ts): main arm, sub-arm, gondola.
-const threeBody = (samples: number): CycleInput => ({
-  bodies: [
-    { name: 'main arm', massKg: 8000, cgM: [3, 0.1], inertiaCgKgM2: 120_000, tipM: [12, 0] },
-    { name: 'sub-arm', massKg: 1500, cgM: [1.2, -0.2], inertiaCgKgM2: 1500, tipM: [2.5, 0.3] },
-    { name: 'gondola', massKg: 4000, cgM: [0, -1.5], inertiaCgKgM2: 6000 },
-  ],
-  profiles: [
-    { kind: 'ramp', toRpm: 12, rampTimeS: 8, holdAfterS: 52 },
-    { kind: 'swing', amplitudeRad: 0.6, periodS: 4.1 },
-    { kind: 'swing', amplitudeRad: 0.3, periodS: 2.3, phaseRad: 1 },
-  ],
-  samples,
-});
+// The invented chain of the benches (bench/three-body-chain.ts): main arm, sub-arm, gondola.
+const threeBody = threeBodyCycle;
 
 const withSeatsAndLimits = (samples: number): CycleInput => ({
   ...threeBody(samples),

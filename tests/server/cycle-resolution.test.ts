@@ -14,6 +14,7 @@ import {
 } from '@/server/compute/cycle-series';
 
 import { type TestServer, expectApiError, makeTestServer, signInAs } from './helpers';
+import { threeBodyCycle } from '@/bench/three-body-chain';
 
 jest.setTimeout(30_000);
 
@@ -30,18 +31,8 @@ const post = (body: object, query = '') =>
 
 // Invented three-body chain (as bench/loads.ts) with one seat: 3 × 9 + 2 + 1 = 30 numbers per sample.
 const threeBody = (samples: number) => ({
-  bodies: [
-    { name: 'main arm', massKg: 8000, cgM: [3, 0.1], inertiaCgKgM2: 120_000, tipM: [12, 0] },
-    { name: 'sub-arm', massKg: 1500, cgM: [1.2, -0.2], inertiaCgKgM2: 1500, tipM: [2.5, 0.3] },
-    { name: 'gondola', massKg: 4000, cgM: [0, -1.5], inertiaCgKgM2: 6000 },
-  ],
-  profiles: [
-    { kind: 'ramp', toRpm: 12, rampTimeS: 8, holdAfterS: 52 },
-    { kind: 'swing', amplitudeRad: 0.6, periodS: 4.1 },
-    { kind: 'swing', amplitudeRad: 0.3, periodS: 2.3, phaseRad: 1 },
-  ],
+  ...threeBodyCycle(samples),
   seats: [{ name: 'row 1', body: 2, positionM: [0, -2], spineAngleRad: 1.2 }],
-  samples,
 });
 
 type Json = Record<string, unknown> & { joints: Record<string, unknown>[]; seats: Record<string, unknown>[] };
