@@ -38,10 +38,11 @@ export function TodayScreen() {
   const others = sent.data?.filter((s) => !s.needsAction) ?? [];
   const sync = useSyncStatus();
   const wide = useWide();
-  // First visit on a fresh phone: fetch the round while there is a connection.
+  // First visit on a fresh phone: fetch the round while there is a connection. Only once the phone's own
+  // record of the last sync has been read: before that every opening of Today looks like a first visit.
   const firstSync = useRef(false);
   useEffect(() => {
-    if (firstSync.current || sync.lastSuccessAt) return;
+    if (firstSync.current || !sync.loaded || sync.lastSuccessAt) return;
     firstSync.current = true;
     void sync.syncNow();
   }, [sync]);

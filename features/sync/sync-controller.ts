@@ -45,6 +45,8 @@ export type SyncStatus = {
   lastError: string | null;
   running: boolean;
   online: boolean;
+  /** False until the counts and the last sync's outcome have been read from the phone once. */
+  loaded: boolean;
 };
 
 const emptySyncStatus: SyncStatus = {
@@ -60,6 +62,7 @@ const emptySyncStatus: SyncStatus = {
   lastError: null,
   running: false,
   online: true,
+  loaded: false,
 };
 
 class SyncController {
@@ -108,6 +111,7 @@ class SyncController {
       lastSuccessAt: meta.lastSuccessAt ?? null,
       lastAttemptAt: meta.lastAttemptAt ?? null,
       lastError: meta.lastError ?? null,
+      loaded: true,
     });
   };
 
