@@ -51,6 +51,7 @@ export async function verifySessionToken(
       issuer: tokenIssuer,
       algorithms: [algorithm],
       requiredClaims: ['sub', 'exp', 'iat'],
+      currentDate: new Date(now),
     });
     const role = roleSchema.safeParse(payload.role);
     if (!payload.sub || !role.success) throw unauthorized('Your session is not valid. Sign in again.');
