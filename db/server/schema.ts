@@ -117,6 +117,11 @@ export const sites = sqliteTable(
     kind: text('kind', { enum: siteKinds }).notNull(),
     address: text('address'),
     locality: text('locality'),
+    /**
+     * The site's IANA time zone ("Pacific/Auckland"): its "today", due dates, reminder hour and the times
+     * shown for it. Null means the inspection body's default (the `time_zone` setting).
+     */
+    timeZone: text('time_zone'),
     operatorCompanyId: text('operator_company_id')
       .notNull()
       .references(() => companies.id, { onDelete: 'restrict' }),
