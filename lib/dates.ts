@@ -1,13 +1,16 @@
 /**
  * Dates in one place, pure. Two kinds of value travel through Pivotwatch: calendar dates ("ISO days",
  * YYYY-MM-DD, e.g. a due date) and instants (ISO 8601 UTC, e.g. when a record was submitted).
- * - ISO days and their arithmetic are UTC: the day of an instant is its UTC day, and a day plus n days
- *   never meets a daylight-saving change.
- * - The app shows dates in the person's own time zone (`formatDate`, `formatDateTime`).
- * - The server's documents (notices, e-mails, reports) have no reader's time zone, so they print in UTC
- *   and say so (`formatCalendarDate`, `formatWhen`). Their month words are fixed, where the app's come
- *   from the platform's locale data.
+ * - ISO days and their arithmetic carry no time zone: a day plus n days never meets a daylight-saving change.
+ * - Which day it is depends on where: each site has an IANA time zone (else the inspection body's default),
+ *   and "today", due and overdue, the reminder hour and every time shown are taken in it (`dayInZone`,
+ *   `hourInZone`, `startOfDayInZone`), through date-fns and @date-fns/tz, which read the platform's tz data.
+ * - One date format ("3 Dec 2026", `formatDate`) and one date-time format ("3 Dec 2026, 14:05",
+ *   `formatDateTime`) everywhere, with fixed English month words whatever the platform's locale. Where the
+ *   reader may be elsewhere (notices, PDFs, e-mails, audit) the zone is written after the time (`formatWhen`).
  */
+import { tz, tzOffset } from '@date-fns/tz';
+import { format } from 'date-fns';
 
 /** One day in milliseconds (UTC days have no daylight-saving change). */
 export const DAY_MS = 86_400_000;
@@ -19,8 +22,9 @@ export const isIsoDay = (value: string) => ISO_DAY.test(value);
 /** The UTC calendar date of an instant, YYYY-MM-DD. */
 export const isoDay = (at: Date | string | number) => new Date(at).toISOString().slice(0, 10);
 
-/** Today as a calendar date in this device's own time zone, to compare with due dates on screen. */
-export function localDay(now = new Date()): string {
+/** Today as a calendar date in this device's own time zone (or in `zone` when given). */
+export function localDay(now = new Date(), zone?: string | null): string {
+  if (zone) return dayInZone(now, zone);
   const pad = (n: number) => String(n).padStart(2, '0');
   return `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`;
 }
@@ -38,42 +42,119 @@ export const addDays = (day: string, days: number) => isoDay(Date.parse(`${day}T
 export const daysBetween = (from: string, to: string) =>
   Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / DAY_MS);
 
-// ——— on screen ———
+// ——— time zones ———
 
-/** Dates as people read them here: 3 Mar 2025. Calendar dates (YYYY-MM-DD) are not shifted by time zone. */
-export function formatDate(iso: string): string {
-  const calendar = isIsoDay(iso);
-  const d = new Date(calendar ? `${iso}T12:00:00Z` : iso);
-  if (Number.isNaN(d.getTime())) return iso;
-  return d.toLocaleDateString('en-GB', {
-    day: 'numeric',
-    month: 'short',
-    year: 'numeric',
-    ...(calendar ? { timeZone: 'UTC' } : {}),
-  });
+/** The zone a site falls back to when neither it nor the inspection body names one. */
+export const FALLBACK_TIME_ZONE = 'UTC';
+
+// An IANA name: Area/Location (with sub-locations), or one of the bare names the database keeps (UTC).
+const ZONE_NAME = /^[A-Za-z][A-Za-z0-9_+-]*(\/[A-Za-z0-9_+-]+)*$/;
+
+/**
+ * True for an IANA time zone name this platform's Intl knows ("Pacific/Auckland", "UTC"). Offsets such as
+ * "+02:00" are refused: a fixed offset never follows a site's daylight-saving rules.
+ */
+export function isTimeZone(zone: string): boolean {
+  if (!ZONE_NAME.test(zone)) return false;
+  try {
+    new Intl.DateTimeFormat('en-GB', { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
 }
 
-export function formatDateTime(iso: string): string {
-  const d = new Date(iso);
-  if (Number.isNaN(d.getTime())) return iso;
-  return `${formatDate(iso)}, ${d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}`;
+/** Why a zone is refused, in words for a form or an API error; null when it is a zone Intl knows. */
+export function timeZoneProblem(zone: string): string | null {
+  return isTimeZone(zone)
+    ? null
+    : `"${zone}" is not a time zone this system knows. Use an IANA name such as Europe/London, ` +
+        'America/Los_Angeles or Pacific/Auckland.';
 }
 
-/** An instant as the phone's own lists stamp it, to the second: "03/12/2026, 14:05:09" (local time). */
-export const formatLocalStamp = (iso: string) => new Date(iso).toLocaleString('en-GB');
+/** This device's own zone (the browser's or the phone's setting). */
+export function deviceTimeZone(): string {
+  try {
+    return Intl.DateTimeFormat().resolvedOptions().timeZone || FALLBACK_TIME_ZONE;
+  } catch {
+    return FALLBACK_TIME_ZONE;
+  }
+}
 
-/** An instant in short, day and minute: "03/12/2026, 14:05" (local time). */
-export const formatShortStamp = (iso: string) =>
-  new Date(iso).toLocaleString('en-GB', { dateStyle: 'short', timeStyle: 'short' });
+/** Every zone the platform lists, for pickers (the fallback and the device's zone at least). */
+export function knownTimeZones(): string[] {
+  const listed = (Intl as { supportedValuesOf?: (key: string) => string[] }).supportedValuesOf?.('timeZone');
+  return [...new Set([FALLBACK_TIME_ZONE, ...(listed ?? [deviceTimeZone()])])].sort();
+}
 
-/** Today written out in full, as a heading says it: "Thursday 3 December 2026". */
-export function longDate(date: Date = new Date()): string {
-  return date.toLocaleDateString('en-GB', {
-    weekday: 'long',
-    day: 'numeric',
-    month: 'long',
-    year: 'numeric',
-  });
+const zoneOr = (zone: string | null | undefined) => (zone && isTimeZone(zone) ? zone : deviceTimeZone());
+
+/** The calendar date of an instant in a zone, YYYY-MM-DD. */
+export const dayInZone = (at: Date | string | number, zone: string) =>
+  format(new Date(at), 'yyyy-MM-dd', { in: tz(zone) });
+
+/** The hour (0–23) on a clock in the zone at an instant. */
+export const hourInZone = (at: Date | string | number, zone: string) =>
+  Number(format(new Date(at), 'H', { in: tz(zone) }));
+
+/**
+ * The instant a calendar day begins in a zone (its first moment: midnight, or the first minute after a
+ * daylight-saving gap that swallows midnight).
+ */
+export function startOfDayInZone(day: string, zone: string): Date {
+  const [y, m, d] = day.split('-').map(Number);
+  // Midnight local = midnight UTC minus the zone's offset then; the offset is read twice so a change on
+  // that day (the offset at UTC midnight differs from the one at local midnight) lands right.
+  const utcMidnight = Date.UTC(y, m - 1, d);
+  const first = utcMidnight - tzOffset(zone, new Date(utcMidnight)) * 60_000;
+  const second = utcMidnight - tzOffset(zone, new Date(first)) * 60_000;
+  return new Date(dayInZone(second, zone) === day ? second : first);
+}
+
+/** The zone's offset from UTC at an instant, as "UTC+13:00" / "UTC−08:00" (a true minus sign). */
+export function zoneOffsetLabel(at: Date | string | number, zone: string): string {
+  const minutes = tzOffset(zone, new Date(at));
+  const sign = minutes < 0 ? '−' : '+';
+  const abs = Math.abs(minutes);
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `UTC${sign}${pad(Math.floor(abs / 60))}:${pad(abs % 60)}`;
+}
+
+// ——— the one date and one date-time format ———
+
+const DATE = 'd MMM yyyy';
+const TIME = 'HH:mm';
+
+/**
+ * A date as people read it here: "3 Dec 2026". A calendar date (YYYY-MM-DD) is not shifted; an instant
+ * shows its day in `zone` (the site's), else the device's own zone. Anything unreadable comes back as given.
+ */
+export function formatDate(value: string, zone?: string | null): string {
+  if (isIsoDay(value)) {
+    return isRealIsoDay(value) ? format(new Date(`${value}T12:00:00Z`), DATE, { in: tz('UTC') }) : value;
+  }
+  const d = new Date(value);
+  if (Number.isNaN(d.getTime())) return value;
+  return format(d, DATE, { in: tz(zoneOr(zone)) });
+}
+
+/** An instant as a date and a 24-hour time in `zone` (else the device's zone): "3 Dec 2026, 14:05". */
+export function formatDateTime(value: string, zone?: string | null): string {
+  if (isIsoDay(value)) return formatDate(value);
+  const d = new Date(value);
+  if (Number.isNaN(d.getTime())) return value;
+  return format(d, `${DATE}, ${TIME}`, { in: tz(zoneOr(zone)) });
+}
+
+/** The same format for the phone's own lists (drafts, sent records), in the device's zone. */
+export const formatLocalStamp = (iso: string) => formatDateTime(iso);
+
+/** The same format again; kept for screens that asked for a short stamp. */
+export const formatShortStamp = (iso: string) => formatDateTime(iso);
+
+/** A day written out in full, as a heading says it: "Thursday 3 December 2026" (in `zone` when given). */
+export function longDate(date: Date = new Date(), zone?: string | null): string {
+  return format(date, 'EEEE d MMMM yyyy', { in: tz(zoneOr(zone)) });
 }
 
 /**
@@ -81,34 +162,35 @@ export function longDate(date: Date = new Date()): string {
  * 120 days, "Dec 26" beyond, so the labels stay short and still tell the ticks apart.
  */
 export function formatAxisDate(ms: number, spanMs: number): string {
-  const short = spanMs < 120 * DAY_MS;
-  return new Date(ms).toLocaleDateString('en-GB', {
-    day: short ? 'numeric' : undefined,
-    month: 'short',
-    year: short ? undefined : '2-digit',
-    timeZone: 'UTC',
-  });
+  return format(new Date(ms), spanMs < 120 * DAY_MS ? 'd MMM' : 'MMM yy', { in: tz('UTC') });
 }
 
-// ——— in documents (UTC) ———
+// ——— with the zone written out (documents, audit) ———
 
-const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+/** "2026-03-20" → "20 Mar 2026", the one date format, for a calendar date. */
+export const formatCalendarDate = (date: string) => formatDate(date);
 
-/** "2026-03-20" → "20 Mar 2026": day, month word, year, which reads the same on both sides of the ocean. */
-export function formatCalendarDate(date: string): string {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(date);
-  if (!m) return date;
-  return `${Number(m[3])} ${MONTHS[Number(m[2]) - 1] ?? m[2]} ${m[1]}`;
-}
-
-/** A calendar date as above; an instant as its date and time in UTC ("3 Dec 2026, 14:05 UTC"). */
-export function formatWhen(value: string): string {
+/**
+ * A calendar date as above; an instant as its date and time in `zone` followed by the zone, so a reader
+ * elsewhere knows which clock: "3 Dec 2026, 14:05 UTC", "3 Dec 2026, 06:05 America/Los_Angeles (UTC−08:00)".
+ */
+export function formatWhen(value: string, zone: string = FALLBACK_TIME_ZONE): string {
   if (isIsoDay(value)) return formatCalendarDate(value);
   const d = new Date(value);
   if (Number.isNaN(d.getTime())) return value;
-  const iso = d.toISOString();
-  return `${formatCalendarDate(iso.slice(0, 10))}, ${iso.slice(11, 16)} UTC`;
+  const z = isTimeZone(zone) ? zone : FALLBACK_TIME_ZONE;
+  return `${formatDateTime(value, z)} ${zoneLabel(d, z)}`;
 }
 
-/** `formatWhen` without the time: the UTC date of an instant, or the calendar date itself. */
-export const formatWhenDay = (value: string) => formatWhen(value).replace(/, \d{2}:\d{2} UTC$/, '');
+/** The zone as `formatWhen` writes it: "UTC", or "Pacific/Auckland (UTC+13:00)" at that instant. */
+export function zoneLabel(at: Date | string | number, zone: string): string {
+  return zone === 'UTC' || zone === 'Etc/UTC' ? 'UTC' : `${zone} (${zoneOffsetLabel(at, zone)})`;
+}
+
+/** `formatWhen` without the time: the day of an instant in `zone`, or the calendar date itself. */
+export function formatWhenDay(value: string, zone: string = FALLBACK_TIME_ZONE): string {
+  if (isIsoDay(value)) return formatCalendarDate(value);
+  const d = new Date(value);
+  if (Number.isNaN(d.getTime())) return value;
+  return formatDate(value, isTimeZone(zone) ? zone : FALLBACK_TIME_ZONE);
+}
