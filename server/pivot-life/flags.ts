@@ -17,6 +17,7 @@ import type { WearTrend } from '@/features/pivot-life/schema';
 import { rideNdtDue } from '@/server/pivot-life/ndt';
 import { rideWearTrends } from '@/server/pivot-life/wear';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { rideDay } from '@/server/schedule-due';
 
 type Tx = Pick<Db, 'select' | 'insert' | 'delete' | 'run' | 'get' | 'all'>;
 
@@ -52,7 +53,8 @@ export function rideLifeFlagsOf(db: Tx, rideId: string, today: string): RideLife
  * A ride with nothing to flag keeps a row of nulls, which says its flags have been worked out.
  */
 export function refreshRideLifeFlags(db: Tx, rideId: string, today: string, now: Date = new Date()): void {
-  const values = { ...rideLifeFlagsOf(db, rideId, today), updatedAt: now.toISOString() };
+  // `today` is the queue's clock: an instant, whose date at the ride's site is the ride's day.
+  const values = { ...rideLifeFlagsOf(db, rideId, rideDay(db, rideId, today)), updatedAt: now.toISOString() };
   db.insert(rideLifeFlags)
     .values({ rideId, ...values })
     .onConflictDoUpdate({ target: rideLifeFlags.rideId, set: values })

@@ -17,13 +17,16 @@ import { inspections } from '@/db/server/inspections';
 import { rideLifeFlags } from '@/db/server/ndt';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
-import { isoDay } from '@/lib/dates';
-import { nextDueSql } from '@/server/schedule-due';
+import { nextDueSql, rideTodaySql, zoneDays } from '@/server/schedule-due';
 
-type Tx = Pick<Db, 'run'>;
+type Tx = Pick<Db, 'run'> | Pick<Db, 'run' | 'select'>;
 
-/** Today as the queue sees it: the UTC calendar date. */
-export const queueToday = (now: Date = new Date()) => isoDay(now);
+/**
+ * The queue's clock: the instant it judges "overdue" and "past due" at. Each ride's day is that instant's
+ * date on its site's clock (`zoneDays`, server/schedule-due.ts); a plain YYYY-MM-DD instead pins one day
+ * for every ride.
+ */
+export const queueToday = (now: Date = new Date()) => now.toISOString();
 
 let generation = 0;
 
@@ -33,7 +36,7 @@ let generation = 0;
  */
 export const queueGeneration = (): number => generation;
 
-/** Where the statements take today's date and the rides' ids (a JSON array), bound at run time. */
+/** Where the statements take each zone's day (`zoneDays`' JSON) and the rides' ids (a JSON array), bound at run time. */
 const TODAY = sql.raw('@today');
 const IDS = sql.raw('@ids');
 
@@ -60,13 +63,14 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
       ride_due AS (
         SELECT ${inspectionSchedules.rideId} AS ride_id, MIN(${nextDueSql}) AS overdue_since
         FROM ${inspectionSchedules}
-        WHERE ${nextDueSql} < ${TODAY} AND ${onlyRides(sql`${inspectionSchedules.rideId}`)}
+        WHERE ${nextDueSql} < ${rideTodaySql(TODAY, inspectionSchedules.rideId)}
+          AND ${onlyRides(sql`${inspectionSchedules.rideId}`)}
         GROUP BY ${inspectionSchedules.rideId}
       ),
       ride_past AS (
         SELECT f.ride_id AS ride_id, COUNT(*) AS n, MIN(f.due_on) AS first_due
         FROM ${findings} f
-        WHERE f.state <> 'closed' AND f.due_on IS NOT NULL AND f.due_on < ${TODAY}
+        WHERE f.state <> 'closed' AND f.due_on IS NOT NULL AND f.due_on < ${rideTodaySql(TODAY, sql`f.ride_id`)}
           AND ${onlyRides(sql`f.ride_id`)}
         GROUP BY f.ride_id
       ),
@@ -97,11 +101,11 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
       ),
       ride_life AS (
         SELECT lf.ride_id AS ride_id,
-          CASE WHEN lf.ndt_due_on < ${TODAY} THEN lf.ndt_due_on END AS ndt_overdue_since,
+          CASE WHEN lf.ndt_due_on < ${rideTodaySql(TODAY, sql`lf.ride_id`)} THEN lf.ndt_due_on END AS ndt_overdue_since,
           CASE WHEN lf.wear_suggested_on IS NOT NULL THEN lf.wear_limit_on END AS wear_limit_on,
           lf.wear_suggested_on AS wear_suggested_on
         FROM ${rideLifeFlags} lf
-        WHERE (lf.ndt_due_on < ${TODAY} OR lf.wear_suggested_on IS NOT NULL)
+        WHERE (lf.ndt_due_on < ${rideTodaySql(TODAY, sql`lf.ride_id`)} OR lf.wear_suggested_on IS NOT NULL)
           AND ${onlyRides(sql`lf.ride_id`)}
       ),
       pending AS (
@@ -294,7 +298,10 @@ function execute(db: Tx, text: string, params: Params): void {
 
 function refresh(db: Tx, today: string, scope: Scope, ids: readonly string[] | null): void {
   generation++;
-  const params: Params = { today, ids: ids ? JSON.stringify([...new Set(ids)]) : null };
+  const params: Params = {
+    today: zoneDays('select' in db ? db : null, today),
+    ids: ids ? JSON.stringify([...new Set(ids)]) : null,
+  };
   for (const text of refreshTexts(scope)) execute(db, text, params);
 }
 
@@ -318,17 +325,22 @@ export function refreshQueueInspections(db: Tx, today: string, inspectionIds: re
   refresh(db, today, 'inspections', inspectionIds);
 }
 
-const sweptOn = new WeakMap<object, string>();
+/** Per database: the clock the whole queue was last rebuilt at, and the zones' days it gave. */
+const sweptOn = new WeakMap<object, { clock: string; days: string }>();
 
 /**
- * The day to refresh a few rides for, from a write path: the day the whole queue was last rebuilt for, so
- * every row is judged against the same date (a pinned test clock included); before any rebuild, today.
+ * The clock to refresh a few rides at, from a write path: the one the whole queue was last rebuilt at, so
+ * every row is judged against the same days (a pinned test clock included); before any rebuild, now.
  */
-export const queueDay = (db: Db, now: Date = new Date()): string => sweptOn.get(db) ?? queueToday(now);
+export const queueDay = (db: Db, now: Date = new Date()): string => sweptOn.get(db)?.clock ?? queueToday(now);
 
-/** Rebuilds the whole queue the first time it is read on a new calendar day (and after start-up). */
+/**
+ * Rebuilds the whole queue the first time it is read after a new day begins at any site (and after
+ * start-up): its overdue rows move with each site's date alone.
+ */
 export function ensureQueueFresh(db: Db, today: string): void {
-  if (sweptOn.get(db) === today) return;
+  const days = zoneDays(db, today);
+  if (sweptOn.get(db)?.days === days) return;
   db.transaction((tx) => refreshQueue(tx, today));
-  sweptOn.set(db, today);
+  sweptOn.set(db, { clock: today, days });
 }
