@@ -1,4 +1,4 @@
-import { router } from 'expo-router';
+import { Link, router } from 'expo-router';
 import { useEffect, useRef, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
@@ -8,7 +8,7 @@ import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
 import { formatLocalStamp, longDate } from '@/lib/dates';
@@ -20,6 +20,7 @@ import {
 } from '@/features/inspections/field-api';
 import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
 import { scheduleSchema } from '@/features/registry/schema';
+import { rideHref } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
@@ -115,7 +116,14 @@ function RideToInspect({ entry }: { entry: Entry }) {
     <Card accessibilityLabel={`Ride ${entry.ride.name}`}>
       <View style={styles.head}>
         <View style={styles.grow}>
-          <Text variant="heading">{entry.ride.name}</Text>
+          {/* The ride's name opens its page (status, schedule, its own Start inspection). */}
+          <Link href={rideHref(entry.ride.id)} asChild>
+            <Pressable role="link" style={styles.name}>
+              <Text variant="heading" color={colors.accent}>
+                {entry.ride.name} ›
+              </Text>
+            </Pressable>
+          </Link>
           <Text variant="small" muted>
             {rideClassLabel[entry.ride.rideClass]} · {entry.ride.siteName ?? 'No site'}
           </Text>
@@ -155,9 +163,7 @@ function RideToInspect({ entry }: { entry: Entry }) {
       )}
       {assigned && !choosing ? (
         <Pressable onPress={() => setChoosing(true)} accessibilityRole="button" style={styles.other}>
-          <Text variant="small" color={colors.accent}>
-            Another type of inspection…
-          </Text>
+          <Text color={colors.accent}>Another type of inspection…</Text>
         </Pressable>
       ) : null}
       {start.isError ? (
@@ -187,5 +193,6 @@ const styles = StyleSheet.create({
     backgroundColor: colors.surface,
   },
   typeSuggested: { borderColor: colors.base },
-  other: { minHeight: 36, justifyContent: 'center' },
+  other: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
+  name: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
 });
