@@ -47,6 +47,12 @@ export function rideTimeZone(db: Reader, rideId: string): string {
   return resolveZone(row?.zone, defaultTimeZone(db));
 }
 
+/**
+ * In a select that joins `sites`: the site's zone, else the default (the setting, validated when written),
+ * else UTC. Written out in full: drizzle drops table names from columns inside a select's sql.
+ */
+export const siteZoneSql = sql<string>`COALESCE("sites"."time_zone", (SELECT json_extract(st."value", '$.zone') FROM "settings" st WHERE st."key" = 'time_zone'), 'UTC')`;
+
 /** The key under which `zoneDays` keeps the default zone's day (rides with no site, or a site with no zone). */
 const DEFAULT_KEY = '*';
 

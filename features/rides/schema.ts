@@ -26,6 +26,12 @@ export const rideSummarySchema = z.object({
   statusSince: z.string().nullable(),
   siteId: z.string().nullable(),
   siteName: z.string().nullable(),
+  /**
+   * The IANA zone the ride's days are counted in (its site's, else the inspection body's default). The
+   * phone keeps it with the ride, so "today" and due dates follow the site's clock offline; absent in
+   * copies cached before zones, which then use the phone's own zone.
+   */
+  siteTimeZone: z.string().optional(),
   operatorCompanyId: z.string(),
   operatorName: z.string(),
 });

@@ -4,7 +4,7 @@
  * date (`ndt_reminders`). Rides are found through their pivot-life flags (kept whenever NDT records, design
  * data or schedules change), so the daily run reads only rides with something coming due.
  */
-import { and, asc, eq, lte } from 'drizzle-orm';
+import { and, asc, eq, inArray, lte } from 'drizzle-orm';
 
 import { ndtReminders, rideLifeFlags, type NdtReminderStage } from '@/db/server/ndt';
 import { companies, rides } from '@/db/server/schema';
@@ -33,7 +33,11 @@ export type NdtReminderItem = {
 };
 
 /** Planned tests newly due within the window or newly past due on `today`, by company then ride. */
-export function dueNdtTests(db: Pick<Db, 'select'>, today: string): NdtReminderItem[] {
+export function dueNdtTests(
+  db: Pick<Db, 'select'>,
+  today: string,
+  rideIds?: readonly string[],
+): NdtReminderItem[] {
   const horizon = addDays(today, NDT_DUE_WINDOW_DAYS);
   const candidates = db
     .select({
@@ -46,7 +50,7 @@ export function dueNdtTests(db: Pick<Db, 'select'>, today: string): NdtReminderI
     .from(rideLifeFlags)
     .innerJoin(rides, eq(rides.id, rideLifeFlags.rideId))
     .innerJoin(companies, eq(companies.id, rides.operatorCompanyId))
-    .where(lte(rideLifeFlags.ndtDueOn, horizon))
+    .where(and(lte(rideLifeFlags.ndtDueOn, horizon), rideIds ? inArray(rides.id, [...rideIds]) : undefined))
     .orderBy(asc(companies.name), asc(rides.name))
     .all();
   const items: NdtReminderItem[] = [];

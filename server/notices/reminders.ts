@@ -13,7 +13,7 @@
 import { createHash } from 'node:crypto';
 
 import { Cron } from 'croner';
-import { and, asc, eq, isNotNull, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 
 import {
   findingReminders,
@@ -23,14 +23,15 @@ import {
   type ReminderStage,
 } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
-import { companies, rides } from '@/db/server/schema';
+import { companies, rides, sites } from '@/db/server/schema';
 import { type FindingSeverity } from '@/features/review/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import { appLink, noticePath } from '@/lib/paths';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
 import { deliveriesQueued } from '@/server/notices/nudge';
-import { addDays, daysBetween, formatCalendarDate, isoDay } from '@/lib/dates';
+import { addDays, dayInZone, daysBetween, formatCalendarDate, hourInZone } from '@/lib/dates';
+import { siteZoneSql } from '@/server/schedule-due';
 import { escapeHtml, htmlMailStart } from '@/server/notices/words';
 import { findingNumber } from '@/server/findings/findings';
 import {
@@ -42,6 +43,9 @@ import {
 
 /** How far ahead a due date counts as "due soon". */
 const dueSoonDays = 7;
+
+/** The hour on each site's clock from which its reminders go out (07:00 local). */
+export const REMINDER_HOUR = 7;
 
 type ReminderDeps = { db: Db; appUrl: string; logger?: Logger };
 
@@ -74,7 +78,7 @@ type Due = {
   stage: ReminderStage;
 };
 
-function dueFindings(db: Pick<Db, 'select'>, today: string): Due[] {
+function dueFindings(db: Pick<Db, 'select'>, today: string, rideIds: readonly string[]): Due[] {
   const soon = addDays(today, dueSoonDays);
   // The latest notice listing the finding: its link is where the operator reports the action.
   const latestNotice = sql<string>`(SELECT n.id FROM ${noticeFindings} nf JOIN ${notices} n ON n.id = nf.notice_id
@@ -105,6 +109,7 @@ function dueFindings(db: Pick<Db, 'select'>, today: string): Due[] {
         eq(findings.state, 'open'),
         isNotNull(findings.dueOn),
         sql`${findings.dueOn} <= ${soon}`,
+        inArray(findings.rideId, [...rideIds]),
         sql`EXISTS (SELECT 1 FROM ${noticeFindings} nf WHERE nf.finding_id = ${findings.id})`,
       ),
     )
@@ -210,20 +215,57 @@ function reminderEmail(companyName: string, items: Due[], today: string, appUrl:
   return { subject, text, html };
 }
 
+type ZoneGroup = { zone: string; today: string; rideIds: string[] };
+
 /**
- * One run of the reminder job at `now`: for each operator company with findings newly due soon or past
- * due, one e-mail per notice address, queued with the stages recorded. Running again finds nothing new.
+ * The rides whose site clock has reached the reminder hour at `now`, by zone (a site's zone, else the
+ * inspection body's default), each with the date on that clock: their "today".
+ */
+export function reminderGroups(db: Pick<Db, 'select'>, now: Date, hour = REMINDER_HOUR): ZoneGroup[] {
+  const byZone = new Map<string, string[]>();
+  for (const r of db
+    .select({ id: rides.id, zone: siteZoneSql })
+    .from(rides)
+    .leftJoin(sites, eq(sites.id, rides.siteId))
+    .all())
+    byZone.set(r.zone, [...(byZone.get(r.zone) ?? []), r.id]);
+  return [...byZone]
+    .filter(([zone]) => hourInZone(now, zone) >= hour)
+    .sort(([a], [b]) => a.localeCompare(b))
+    .map(([zone, rideIds]) => ({ zone, today: dayInZone(now, zone), rideIds }));
+}
+
+/**
+ * One run of the reminder job at `now`: for the rides whose site clock has reached 07:00 (its own date
+ * being their "today"), each operator company with findings newly due soon or past due gets one e-mail per
+ * notice address and zone, queued with the stages recorded. Running again finds nothing new, so an hourly
+ * job sends each site's reminders at its first run from 07:00 local.
  */
 export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
-  const today = isoDay(now);
   const at = now.toISOString();
   const run: ReminderRun = { companies: 0, reminded: [], noAddress: [], ndt: [] };
   deps.db.transaction((tx) => {
+    for (const group of reminderGroups(tx, now)) remindGroup(deps, tx, group, at, run);
+  });
+  if (run.companies > 0) deliveriesQueued();
+  return run;
+}
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+function remindGroup(
+  deps: ReminderDeps,
+  tx: Tx,
+  { today, rideIds }: ZoneGroup,
+  at: string,
+  run: ReminderRun,
+) {
+  {
     const byCompany = new Map<string, Due[]>();
-    for (const item of dueFindings(tx, today))
+    for (const item of dueFindings(tx, today, rideIds))
       byCompany.set(item.companyId, [...(byCompany.get(item.companyId) ?? []), item]);
     const ndtByCompany = new Map<string, NdtReminderItem[]>();
-    for (const item of dueNdtTests(tx, today)) {
+    for (const item of dueNdtTests(tx, today, rideIds)) {
       ndtByCompany.set(item.companyId, [...(ndtByCompany.get(item.companyId) ?? []), item]);
       if (!byCompany.has(item.companyId)) byCompany.set(item.companyId, []);
     }
@@ -278,22 +320,21 @@ export function runReminders(deps: ReminderDeps, now: Date): ReminderRun {
         ...ndt.map(({ rideId, joint, method, dueOn, stage }) => ({ rideId, joint, method, dueOn, stage })),
       );
     }
-  });
-  if (run.companies > 0) deliveriesQueued();
-  return run;
+  }
 }
 
 type ReminderJob = { stop: () => void; nextRun: () => Date | null };
 
 /**
- * Schedules `runReminders` with croner: every day at 07:00 UTC unless `schedule` (a cron pattern) and
- * `timezone` say otherwise. A run that throws is logged; the next day's run tries again.
+ * Schedules `runReminders` with croner: at the top of every hour (UTC), so each site's reminders go out
+ * from 07:00 on its own clock, unless `schedule` (a cron pattern) and `timezone` say otherwise. A run that
+ * throws is logged; the next hour's run tries again.
  */
 export function startReminderJob(
   deps: ReminderDeps & { schedule?: string; timezone?: string; now?: () => Date },
 ): ReminderJob {
   const job = new Cron(
-    deps.schedule ?? '0 7 * * *',
+    deps.schedule ?? '0 * * * *',
     { timezone: deps.timezone ?? 'UTC', protect: true },
     () => {
       try {

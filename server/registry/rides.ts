@@ -12,6 +12,7 @@ import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { assertSite } from '@/server/registry/sites';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { siteZoneSql } from '@/server/schedule-due';
 
 const rideListColumns = {
   id: rides.id,
@@ -27,6 +28,8 @@ const rideListColumns = {
   statusSince: rides.statusSince,
   siteId: rides.siteId,
   siteName: sites.name,
+  // The site's zone, else the inspection body's default (server/schedule-due.ts), else UTC.
+  siteTimeZone: siteZoneSql,
   operatorCompanyId: rides.operatorCompanyId,
   operatorName: companies.name,
 };

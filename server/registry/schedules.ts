@@ -15,8 +15,16 @@ import { recordAudit } from '@/server/registry/audit';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { mustFindRide } from '@/server/registry/rides';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
-import { daysBetween, isoDay } from '@/lib/dates';
-import { dueStatusOf, dueStatusSql, nextDueOn, nextDueSql } from '@/server/schedule-due';
+import { dayInZone, daysBetween } from '@/lib/dates';
+import {
+  dueStatusOf,
+  dueStatusSql,
+  nextDueOn,
+  nextDueSql,
+  rideTodaySql,
+  siteZoneSql,
+  zoneDays,
+} from '@/server/schedule-due';
 
 const assignee = alias(users, 'assignee');
 
@@ -29,6 +37,7 @@ function scheduleRows(db: Pick<Db, 'select'>) {
       rideClass: rides.rideClass,
       rideStatus: rides.status,
       siteName: sites.name,
+      siteTimeZone: siteZoneSql,
       operatorName: companies.name,
       inspectionType: inspectionSchedules.inspectionType,
       intervalDays: inspectionSchedules.intervalDays,
@@ -49,8 +58,10 @@ function scheduleRows(db: Pick<Db, 'select'>) {
 
 type Row = ReturnType<ReturnType<typeof scheduleRows>['all']>[number];
 
-function toSchedule(row: Row, today: string): Schedule {
+/** A schedule as of `now`: due and overdue are counted from the date on its site's clock. */
+function toSchedule(row: Row, now: Date): Schedule {
   const { assignedToId, assignedToName, ...rest } = row;
+  const today = dayInZone(now, row.siteTimeZone);
   const next = nextDueOn(row);
   return {
     ...rest,
@@ -62,7 +73,7 @@ function toSchedule(row: Row, today: string): Schedule {
 }
 
 export function listSchedules(db: Db, query: ScheduleListQuery, now: Date, me: string) {
-  const today = isoDay(now);
+  const today = rideTodaySql(zoneDays(db, now.toISOString()), inspectionSchedules.rideId);
   const assigned =
     query.assignedTo === undefined
       ? undefined
@@ -111,7 +122,7 @@ export function listSchedules(db: Db, query: ScheduleListQuery, now: Date, me: s
     .offset(offsetOf(query))
     .all();
   return {
-    schedules: rows.map((r) => toSchedule(r, today)),
+    schedules: rows.map((r) => toSchedule(r, now)),
     total,
     page: query.page,
     pageSize: query.pageSize,
@@ -120,17 +131,16 @@ export function listSchedules(db: Db, query: ScheduleListQuery, now: Date, me: s
 
 /** The inspections assigned to one user, soonest first (undated last). */
 export function assignmentsOf(db: Db, userId: string, now: Date): Schedule[] {
-  const today = isoDay(now);
   return scheduleRows(db)
     .where(eq(inspectionSchedules.assignedTo, userId))
     .orderBy(asc(sql`${nextDueSql} IS NULL`), asc(nextDueSql), asc(rides.name))
     .all()
-    .map((r) => toSchedule(r, today));
+    .map((r) => toSchedule(r, now));
 }
 
 export function findSchedule(db: Pick<Db, 'select'>, id: string, now: Date): Schedule | null {
   const row = scheduleRows(db).where(eq(inspectionSchedules.id, id)).get();
-  return row ? toSchedule(row, isoDay(now)) : null;
+  return row ? toSchedule(row, now) : null;
 }
 
 function mustFindSchedule(db: Pick<Db, 'select'>, id: string, now: Date): Schedule {

@@ -10,6 +10,7 @@ import { recordAudit } from '@/server/registry/audit';
 import { assertOperatorCompany } from '@/server/registry/companies';
 import { contains, offsetOf, orderBy } from '@/server/registry/query';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { siteZoneSql } from '@/server/schedule-due';
 
 type ListQuery = z.output<typeof siteListQuerySchema>;
 type Patch = z.output<typeof sitePatchSchema>;
@@ -20,6 +21,9 @@ const siteColumns = {
   kind: sites.kind,
   address: sites.address,
   locality: sites.locality,
+  timeZone: sites.timeZone,
+  // The site's zone, else the inspection body's default (server/schedule-due.ts), else UTC.
+  effectiveTimeZone: siteZoneSql,
   operatorCompanyId: sites.operatorCompanyId,
   operatorName: companies.name,
   createdAt: sites.createdAt,
@@ -87,6 +91,7 @@ export function createSite(db: Db, userId: string, input: SiteInput): Site {
         kind: input.kind,
         address: input.address ?? null,
         locality: input.locality ?? null,
+        timeZone: input.timeZone ?? null,
         operatorCompanyId: input.operatorCompanyId,
       })
       .returning({ id: sites.id })
@@ -114,6 +119,7 @@ export function updateSite(db: Db, userId: string, id: string, patch: Patch): Si
         ...(patch.kind !== undefined && { kind: patch.kind }),
         ...(patch.address !== undefined && { address: patch.address }),
         ...(patch.locality !== undefined && { locality: patch.locality }),
+        ...(patch.timeZone !== undefined && { timeZone: patch.timeZone }),
         ...(patch.operatorCompanyId !== undefined && { operatorCompanyId: patch.operatorCompanyId }),
       })
       .where(eq(sites.id, id))
@@ -129,7 +135,9 @@ export function updateSite(db: Db, userId: string, id: string, patch: Patch): Si
       after,
     });
     // The review queue shows (and searches) the site's name on each of its rides' items.
-    if (after.name !== before.name) refreshQueue(tx, queueDay(db), ridesOfSite(tx, id));
+    // A new zone moves the day its rides' overdue items are judged on.
+    if (after.name !== before.name || after.effectiveTimeZone !== before.effectiveTimeZone)
+      refreshQueue(tx, queueDay(db), ridesOfSite(tx, id));
     return after;
   });
 }

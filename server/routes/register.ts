@@ -8,8 +8,9 @@ import {
   siteInputSchema,
   siteListQuerySchema,
   sitePatchSchema,
+  timeZoneSettingInputSchema,
 } from '@/features/registry/schema';
-import type { ApiDeps } from '@/server/deps';
+import { nowOf, type ApiDeps } from '@/server/deps';
 import { notFound } from '@/server/http/errors';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { patchBody, validate } from '@/server/http/validate';
@@ -21,6 +22,7 @@ import {
   updateCompany,
 } from '@/server/registry/companies';
 import { createSite, deleteSite, findSite, listSites, updateSite } from '@/server/registry/sites';
+import { getTimeZoneSetting, setDefaultTimeZone } from '@/server/registry/time-zone';
 
 const byId = validate({ params: idParamsSchema });
 
@@ -32,7 +34,9 @@ const byId = validate({ params: idParamsSchema });
  *   pageSize }`; `GET /companies/:id` → `{ company }`; `POST /companies` → 201 `{ company }`;
  *   `PATCH /companies/:id` → `{ company }`; `DELETE /companies/:id` → 204, 409 while anything is attached.
  * - `GET /sites?q=&operatorId=&kind=&sort=&page=&pageSize=` → `{ sites, total, page, pageSize }`, and the
- *   same five routes as companies.
+ *   same five routes as companies. A site's `timeZone` is an IANA name Intl knows, or null for the default.
+ * - `GET /settings/time-zone` → `{ timeZone: { zone, updatedAt, updatedByName } }`: the inspection body's
+ *   default zone for sites that name none (UTC until set); `PUT` (admins) `{ zone }` → the same, audited.
  */
 export function registerRouter(deps: ApiDeps): Router {
   const router = Router();
@@ -91,6 +95,15 @@ export function registerRouter(deps: ApiDeps): Router {
   router.delete('/sites/:id', ...admin, byId, (_req, res) => {
     deleteSite(deps.db, currentUser(res).id, byId.params(res).id);
     res.status(204).end();
+  });
+
+  const zoneInput = validate({ body: timeZoneSettingInputSchema });
+  router.get('/settings/time-zone', ...staff, (_req, res) => {
+    res.json({ timeZone: getTimeZoneSetting(deps.db) });
+  });
+  router.put('/settings/time-zone', ...admin, zoneInput, (_req, res) => {
+    const { zone } = zoneInput.body(res);
+    res.json({ timeZone: setDefaultTimeZone(deps.db, currentUser(res).id, zone, nowOf(deps)) });
   });
 
   return router;

@@ -22,7 +22,8 @@ import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
 import { findSessionUser } from '@/server/auth/service';
 import type { Db } from '@/server/db';
 import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry/checklists';
-import { addDays, isoDay } from '@/lib/dates';
+import { addDays, dayInZone } from '@/lib/dates';
+import { rideTimeZone } from '@/server/schedule-due';
 import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
 import { demoInstrumentSnapshot } from '@/server/seed/demo-instruments';
 import { demoUuid } from '@/server/seed/demo-ids';
@@ -196,6 +197,8 @@ function finish(
   now: Date,
 ): void {
   const submitted = Date.parse(record.submittedAt);
+  // Due dates count from the date at the ride's site, as the app and the queue read them.
+  const siteDay = dayInZone(now, rideTimeZone(db, record.rideId));
   analyseOne(db, record.id, new Date(receivedAt.getTime() + 1_000));
   const reviewedAt = spec.review
     ? new Date(submitted + spec.review.hoursLater * 3_600_000).toISOString()
@@ -222,7 +225,7 @@ function finish(
         description: f.description,
         ruleRef: f.ruleRef ?? null,
         requiredAction: f.requiredAction ?? null,
-        dueOn: f.dueInDays === undefined ? null : addDays(isoDay(now), f.dueInDays),
+        dueOn: f.dueInDays === undefined ? null : addDays(siteDay, f.dueInDays),
         photoShas: (f.photos ?? []).map((name) => demoPhoto(name).sha256),
         createdAt: findingAt,
         createdBy: supervisorId,

@@ -19,7 +19,7 @@ import { assertUserCompany } from '@/server/auth/service';
 import type { Config } from '@/server/config';
 import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
-import { addDays, isoDay } from '@/lib/dates';
+import { addDays, dayInZone, isoDay } from '@/lib/dates';
 import { addDemoActivity } from '@/server/seed/demo-activity';
 import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
@@ -93,6 +93,8 @@ export const demoSites: {
   kind: SiteKind;
   address: string;
   locality: string;
+  /** A real IANA zone for an invented place: the demo's sites are spread far from UTC on purpose. */
+  timeZone: string;
   operator: OperatorName;
 }[] = [
   {
@@ -100,6 +102,7 @@ export const demoSites: {
     kind: 'park',
     address: 'Pier Approach',
     locality: 'Tamsworth',
+    timeZone: 'Europe/London',
     operator: 'Tamsworth Pier Leisure',
   },
   {
@@ -107,9 +110,24 @@ export const demoSites: {
     kind: 'travelling_setup',
     address: 'Lowfield Common, north field',
     locality: 'Lowfield',
+    timeZone: 'America/Los_Angeles',
+    operator: 'Corvane Travelling Shows',
+  },
+  {
+    name: 'Marrowby Wharf winter fair',
+    kind: 'travelling_setup',
+    address: 'Marrowby Wharf, east apron',
+    locality: 'Marrowby',
+    timeZone: 'Pacific/Auckland',
     operator: 'Corvane Travelling Shows',
   },
 ];
+
+/** The day at a demo site's clock: the seed's relative dates count from it, as the app will. */
+export function demoSiteDay(siteName: string | undefined, now: Date): string {
+  const zone = demoSites.find((s) => s.name === siteName)?.timeZone;
+  return zone ? dayInZone(now, zone) : isoDay(now);
+}
 
 type DemoRide = {
   name: string;
@@ -424,11 +442,11 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
       .where(eq(users.email, demoInspectorEmail))
       .get();
     if (!anySchedule) {
-      const today = isoDay(now);
       const rideIdOf = new Map(demoRideRows.map((r) => [r.serial, r.id]));
       for (const s of demoSchedules) {
         const rideId = rideIdOf.get(s.serial);
         if (!rideId) continue;
+        const today = demoSiteDay(demoRides.find((r) => r.serial === s.serial)?.site, now);
         const assigned = s.assignToDemoInspector && inspector ? inspector.id : null;
         tx.insert(inspectionSchedules)
           .values({

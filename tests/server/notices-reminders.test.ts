@@ -21,7 +21,7 @@ import {
 
 jest.setTimeout(60_000);
 
-const start = new Date('2026-05-04T09:00:00.000Z');
+const start = new Date('2026-05-04T15:00:00.000Z');
 let s: NoticeServer;
 let tams: Inspected;
 let corvane: Inspected;
@@ -52,10 +52,13 @@ afterAll(() => s.close());
 const reminders = () => s.db.select().from(findingReminders).all();
 const reminderRows = () =>
   s.db.select().from(noticeDeliveries).where(eq(noticeDeliveries.kind, 'reminder')).all();
+// Reminders go out from 07:00 on each site's clock. The demo's Tamsworth Pier keeps Europe/London time
+// (BST, UTC+1, in May) and Lowfield Common America/Los_Angeles (PDT, UTC−7, in May; offsets from the IANA
+// tz database), so 14:00 UTC is 15:00 and 07:00 there: both have had their reminder hour, on the same date.
 const run = (at: string) => runReminders({ db: s.db, appUrl }, new Date(at));
 
 test('a run reminds each company once about its open findings due within 7 days or past due', async () => {
-  const result = run('2026-05-04T07:00:00.000Z');
+  const result = run('2026-05-04T14:00:00.000Z');
   expect(result.companies).toBe(2);
   expect(new Set(result.reminded.map((r) => `${r.findingId}:${r.stage}`))).toEqual(
     new Set([
@@ -89,27 +92,27 @@ test('a run reminds each company once about its open findings due within 7 days 
 test('running again the same day, or later in the same stage, sends nothing new', async () => {
   const before = reminderRows().length;
   expect(run('2026-05-04T19:00:00.000Z')).toMatchObject({ companies: 0, reminded: [] });
-  expect(run('2026-05-06T07:00:00.000Z')).toMatchObject({ companies: 0, reminded: [] });
+  expect(run('2026-05-06T14:00:00.000Z')).toMatchObject({ companies: 0, reminded: [] });
   expect(reminderRows()).toHaveLength(before);
 });
 
 test('each finding gets each stage once: due soon, then past due', async () => {
   // 9 May: the handrail (due 8 May) is now past due; the drain (due 30 May) is still more than 7 days out.
-  const result = run('2026-05-09T07:00:00.000Z');
+  const result = run('2026-05-09T14:00:00.000Z');
   expect(result.reminded).toEqual(
     expect.arrayContaining([{ findingId: tams.findingIds[0], stage: 'past_due' }]),
   );
   expect(result.reminded).toHaveLength(1);
   // 23 May: the drain comes within 7 days; 11 May: the guard (due 10 May) is past due.
   expect(
-    run('2026-05-23T07:00:00.000Z')
+    run('2026-05-23T14:00:00.000Z')
       .reminded.map((r) => r.stage)
       .sort(),
   ).toEqual(['due_soon', 'past_due']);
-  expect(run('2026-06-30T07:00:00.000Z').reminded.map((r) => `${r.findingId}:${r.stage}`)).toEqual([
+  expect(run('2026-06-30T14:00:00.000Z').reminded.map((r) => `${r.findingId}:${r.stage}`)).toEqual([
     `${tams.findingIds[2]}:past_due`,
   ]);
-  expect(run('2026-07-30T07:00:00.000Z').reminded).toEqual([]);
+  expect(run('2026-07-30T14:00:00.000Z').reminded).toEqual([]);
   const stages = new Map<string, string[]>();
   for (const r of reminders()) stages.set(r.findingId, [...(stages.get(r.findingId) ?? []), r.stage].sort());
   expect(Object.fromEntries(stages)).toEqual({
@@ -120,12 +123,13 @@ test('each finding gets each stage once: due soon, then past due', async () => {
   });
 });
 
-test('the job is scheduled daily with croner, at 07:00 UTC unless told otherwise', () => {
+test('the job runs hourly with croner (each site from 07:00 on its clock) unless told otherwise', () => {
   const job = startReminderJob({ db: s.db, appUrl });
   const custom = startReminderJob({ db: s.db, appUrl, schedule: '30 5 * * 1-5', timezone: 'UTC' });
   try {
     const next = job.nextRun();
-    expect(next?.toISOString()).toMatch(/T07:00:00\.000Z$/);
+    expect(next?.toISOString()).toMatch(/T\d\d:00:00\.000Z$/);
+    expect(next!.getTime() - Date.now()).toBeLessThanOrEqual(3_600_000);
     const weekday = custom.nextRun();
     expect(weekday?.toISOString()).toMatch(/T05:30:00\.000Z$/);
     expect([1, 2, 3, 4, 5]).toContain(weekday?.getUTCDay());

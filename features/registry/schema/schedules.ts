@@ -74,6 +74,8 @@ export const scheduleSchema = z.object({
   rideClass: rideClassSchema,
   rideStatus: rideStatusSchema,
   siteName: z.string().nullable(),
+  /** The zone the ride's site counts its days in; due status and days until due are counted on it. */
+  siteTimeZone: z.string().optional(),
   operatorName: z.string(),
   inspectionType: inspectionTypeSchema,
   intervalDays: z.number().int().nullable(),
