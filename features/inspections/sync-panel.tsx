@@ -4,6 +4,7 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { formatShortStamp } from '@/lib/dates';
@@ -34,6 +35,21 @@ export function headline(
   return 'Everything is sent';
 }
 
+/**
+ * Said plainly while the phone has no network: that it is offline, what waits on it, and that it goes by
+ * itself when the connection returns (nothing is sent meanwhile, so nothing fails either).
+ */
+export function offlineLine(s: Pick<SyncStatus, 'waiting' | 'photosWaiting'>): string {
+  const parts = [
+    s.waiting > 0 ? count(s.waiting, 'inspection') : null,
+    s.photosWaiting > 0 ? count(s.photosWaiting, 'photo') : null,
+  ].filter((p): p is string => p !== null);
+  if (parts.length === 0)
+    return 'This phone is offline. Nothing is waiting; what you record is kept here until the connection returns.';
+  const one = s.waiting + s.photosWaiting === 1;
+  return `This phone is offline. ${parts.join(' and ')} ${one ? 'waits' : 'wait'} here and will be sent when the connection returns.`;
+}
+
 /** What is waiting to go to the server, how the last sync went, and a way to sync now. */
 export function SyncPanel({ status }: { status: SyncStatusHook }) {
   const client = useQueryClient();
@@ -54,7 +70,6 @@ export function SyncPanel({ status }: { status: SyncStatusHook }) {
           <Text variant="heading">{headline(status)}</Text>
           <Text variant="small" muted>
             {photoLine} · last sync {ago(status.lastSuccessAt)}
-            {status.online ? '' : ' · no connection'}
           </Text>
         </View>
         <Button
@@ -65,6 +80,14 @@ export function SyncPanel({ status }: { status: SyncStatusHook }) {
           onPress={() => void status.syncNow()}
         />
       </View>
+      {status.online ? null : (
+        <View style={styles.offline} role="status" accessibilityLiveRegion="polite">
+          <Feather name="cloud-off" size={16} color={colors.near} />
+          <Text variant="small" color={colors.near} style={styles.grow}>
+            {offlineLine(status)}
+          </Text>
+        </View>
+      )}
       {status.lastError ? (
         <Text variant="small" color={colors.near} role="alert">
           Last attempt: {status.lastError} Nothing is lost; it will try again.
@@ -99,5 +122,6 @@ const styles = StyleSheet.create({
   panel: { gap: space.sm },
   row: { flexDirection: 'row', alignItems: 'center', gap: space.md },
   grow: { flex: 1, gap: 2 },
+  offline: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
   attention: { gap: space.xs, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
 });

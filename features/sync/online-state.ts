@@ -1,13 +1,18 @@
 /**
- * Whether the app is online, as the "No connection" banner shows it: the platform's network state (the
- * browser's online/offline events) and, since a network can be up while the server cannot be reached
- * (and a phone has no network events without a library), what the last request found. When the network
+ * Whether the app is online, as the "No connection" banner shows it: the platform's network state
+ * (`network.ts`: expo-network on a phone, the browser's online/offline events on the web) and, since a
+ * network can be up while the server cannot be reached, what the last request found. When the network
  * comes back, the banner goes at once; the next request that fails brings it back.
  */
 import { useSyncExternalStore } from 'react';
 
-import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
+import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/network';
+import { wireQueryNetwork } from '@/features/sync/query-network';
 import { onReachabilityChange, reportServerReached, serverReached } from '@/features/api';
+
+// Every signed-in page shows the connection (the shell's banner), so this module loads with the signed-in
+// code: from then on react-query's online and focus managers follow the same network state.
+wireQueryNetwork();
 
 function onlineNow(): boolean {
   return isOnline() && serverReached();

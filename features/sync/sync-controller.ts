@@ -1,7 +1,9 @@
 /**
  * Keeps one device database in step with the server while the app runs: a sync when the connection
- * returns, on demand, and every half minute while anything waits (each record's back-off decides whether
- * it goes). Publishes a status snapshot for `useSyncStatus`.
+ * returns, on demand, when the app comes back to the foreground, and every half minute while anything
+ * waits (each record's back-off decides whether it goes). While the network is down nothing is sent: a
+ * push that cannot arrive only spends the records' back-off. Publishes a status snapshot for
+ * `useSyncStatus`.
  */
 import { randomUUID } from 'expo-crypto';
 
@@ -17,7 +19,13 @@ import {
 } from '@/features/device-db';
 import { tokenStore } from '@/features/session';
 import type { SyncApi } from '@/features/sync/api';
-import { isOnline, onConnectionLoss, onConnectionReturn } from '@/features/sync/connectivity';
+import {
+  isOnline,
+  networkKnown,
+  onAppFocus,
+  onConnectionLoss,
+  onConnectionReturn,
+} from '@/features/sync/network';
 import { createHttpSyncApi } from '@/features/sync/http-api';
 import { photosWaitingCount } from '@/features/sync/photo-counts';
 import { type PhotoProgress, requeuePhoto } from '@/features/sync/photo-upload';
@@ -115,8 +123,16 @@ class SyncController {
     });
   };
 
-  /** `force` skips the back-off: the inspector asked, or the connection just came back. */
+  /**
+   * `force` skips the back-off: the inspector asked, or the connection just came back. With the network
+   * down it sends nothing and only re-reads the counts; the connection's return starts the sync.
+   */
   syncNow = async ({ force = true }: { force?: boolean } = {}): Promise<void> => {
+    if (!isOnline()) {
+      this.set({ online: false });
+      await this.refresh().catch(() => undefined);
+      return;
+    }
     this.set({ running: true });
     this.lastRunAt = Date.now();
     try {
@@ -158,19 +174,24 @@ class SyncController {
       void this.syncNow();
     });
     const offLoss = onConnectionLoss(() => this.set({ online: false }));
-    const timer = setInterval(() => {
+    const due = () => {
       const somethingWaits = this.status.waiting > 0 || this.status.photosWaiting > 0;
       if (isOnline() && (somethingWaits || Date.now() - this.lastRunAt >= PULL_INTERVAL_MS))
         void this.syncNow({ force: false });
-    }, SYNC_INTERVAL_MS);
+    };
+    const offFocus = onAppFocus((focused) => (focused ? due() : undefined));
+    const timer = setInterval(due, SYNC_INTERVAL_MS);
     this.teardown = () => {
       offReturn();
       offLoss();
+      offFocus();
       clearInterval(timer);
     };
-    void this.refresh()
-      .catch(() => undefined)
-      .then(() => (isOnline() ? this.syncNow({ force: false }) : undefined));
+    // A phone reads its network state asynchronously: decide on the first sync once it is known.
+    void Promise.all([this.refresh().catch(() => undefined), networkKnown()]).then(() => {
+      this.set({ online: isOnline() });
+      return isOnline() ? this.syncNow({ force: false }) : undefined;
+    });
   }
 
   private stop() {

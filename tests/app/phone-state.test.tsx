@@ -3,8 +3,9 @@
  * (not how the session was loaded), photos waiting are counted per photo attached, a record is listed
  * as sent only once the server has it, and "Everything is sent" is said only when it is true.
  */
+// First: expo-network's native side stood in for, before the connection state loads (tests/support/phone-network.ts).
+import { networkBecomes, noNetwork, wifi } from '@/tests/support/phone-network';
 import { act, renderHook } from '@testing-library/react-native';
-import { AppState } from 'react-native';
 
 import { groupSent, type SentInspection } from '@/features/inspections/sent';
 import { headline } from '@/features/inspections/sync-panel';
@@ -40,18 +41,14 @@ describe('connection state', () => {
     }
   });
 
-  test('on a phone, coming back to the foreground clears a failure from before (the next request decides)', () => {
-    const listeners: ((s: string) => void)[] = [];
-    const spy = jest.spyOn(AppState, 'addEventListener').mockImplementation((_type, cb) => {
-      listeners.push(cb as (s: string) => void);
-      return { remove: () => undefined } as ReturnType<typeof AppState.addEventListener>;
-    });
+  test("on a phone, the network's return clears a failure from before (the next request decides)", () => {
     const { result } = renderHook(() => useOnline());
     act(() => reportServerReached(false));
     expect(result.current).toBe(false);
-    act(() => listeners.forEach((l) => l('active')));
+    networkBecomes(noNetwork);
+    expect(result.current).toBe(false);
+    networkBecomes(wifi);
     expect(result.current).toBe(true);
-    spy.mockRestore();
   });
 });
 
