@@ -12,8 +12,8 @@ import {
   scheduleListResponseSchema,
   siteListResponseSchema,
   siteResponseSchema,
+  rideListPageSchema,
 } from '@/features/registry/schema';
-import { rideListPageSchema } from '@/features/registry/schema';
 import { reminderGroups, REMINDER_HOUR } from '@/server/notices/reminders';
 
 import { expectApiError, type TestServer } from './helpers';
