@@ -49,7 +49,7 @@ const styles = StyleSheet.create({
     alignSelf: 'flex-start',
   },
   option: {
-    minHeight: layout.touchTarget - 6,
+    minHeight: layout.touchTarget - 4,
     paddingHorizontal: space.lg,
     justifyContent: 'center',
     alignItems: 'center',

@@ -1,4 +1,4 @@
-import { forwardRef } from 'react';
+import { forwardRef, useState } from 'react';
 import { StyleSheet, TextInput, View, type TextInputProps } from 'react-native';
 
 import { Text } from '@/components/text';
@@ -6,22 +6,42 @@ import { colors, fonts, layout, radius, space } from '@/components/theme';
 
 type Props = TextInputProps & { label: string; error?: string; hint?: string; unit?: string };
 
-/** A labelled input with its error under it; the label is the accessible name. */
+/** A multi-line input starts at about three lines and grows with its text up to this height, then scrolls. */
+export const MULTILINE_MIN_HEIGHT = 88;
+export const MULTILINE_MAX_HEIGHT = 280;
+
+/**
+ * A labelled input with its error under it; the label is the accessible name. A multi-line input grows
+ * with what is typed (a fail note, say), so the inspector sees the whole text without scrolling inside it.
+ */
 export const TextField = forwardRef<TextInput, Props>(function TextField(
-  { label, error, hint, unit, style, ...rest },
+  { label, error, hint, unit, style, multiline, onContentSizeChange, ...rest },
   ref,
 ) {
+  const [contentHeight, setContentHeight] = useState(0);
+  const grown = multiline
+    ? {
+        minHeight: MULTILINE_MIN_HEIGHT,
+        height: Math.min(MULTILINE_MAX_HEIGHT, Math.max(MULTILINE_MIN_HEIGHT, Math.ceil(contentHeight))),
+        textAlignVertical: 'top' as const,
+      }
+    : null;
   return (
     <View style={styles.field}>
       <Text variant="label" muted>
         {label.toUpperCase()}
       </Text>
-      <View style={[styles.box, error ? styles.boxError : null]}>
+      <View style={[styles.box, multiline && styles.boxMultiline, error ? styles.boxError : null]}>
         <TextInput
           ref={ref}
           accessibilityLabel={label}
           placeholderTextColor={colors.textMuted}
-          style={[styles.input, style]}
+          multiline={multiline}
+          onContentSizeChange={(e) => {
+            setContentHeight(e.nativeEvent.contentSize.height);
+            onContentSizeChange?.(e);
+          }}
+          style={[styles.input, grown, style]}
           {...rest}
         />
         {unit ? (
@@ -55,6 +75,7 @@ const styles = StyleSheet.create({
     backgroundColor: colors.surface,
     paddingHorizontal: space.md,
   },
+  boxMultiline: { alignItems: 'flex-start' },
   boxError: { borderColor: colors.danger },
   // minWidth 0 lets the input shrink on web, where it has an intrinsic width, so the unit stays inside.
   input: {

@@ -5,11 +5,16 @@ import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, fonts, layout, radius, space } from '@/components/theme';
 import { checklistValueStatus, isGap } from '@/features/records';
 import { ChecklistValue } from '@/features/inspections/checklist-value';
 import type { Draft } from '@/features/records';
-import { type CheckResult, checkResultLabel } from '@/features/records/schema';
+import {
+  type CheckResult,
+  type DraftProblem,
+  type PhotoRef,
+  checkResultLabel,
+} from '@/features/records/schema';
 import type { Instrument } from '@/features/instruments/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
@@ -28,6 +33,12 @@ type Props = {
   instruments?: Instrument[];
   /** One change of the whole draft (an answer and its reading together); without it values stay unshared. */
   onDraft?: (update: (d: Draft) => Draft) => void;
+  /** Shows a photo taken for an item, as a thumbnail on its card. */
+  Thumb?: (props: { photo: PhotoRef; size?: number; label?: string }) => React.ReactNode;
+  /** Each item's card as it mounts (null as it unmounts), so a blocker can bring it into view. */
+  itemRef?: (itemId: string, node: View | null) => void;
+  /** The blocker the inspector came from: its item's card says what is left to do. */
+  pointedAt?: DraftProblem | null;
 };
 
 const resultStyle: Record<CheckResult, { bg: string; fg: string }> = {
@@ -46,6 +57,9 @@ export function ChecklistSection({
   design = null,
   instruments = [],
   onDraft,
+  Thumb,
+  itemRef,
+  pointedAt,
 }: Props) {
   const items = new Map(
     (template?.version.content.areas ?? []).flatMap((a) => a.items.map((i) => [i.id, i] as const)),
@@ -74,7 +88,10 @@ export function ChecklistSection({
                 answer={answer}
                 item={items.get(answer.itemId)}
                 system={system}
-                photos={draft.photos.filter((p) => p.checklistItemId === answer.itemId).length}
+                photos={draft.photos.filter((p) => p.checklistItemId === answer.itemId)}
+                Thumb={Thumb}
+                itemRef={itemRef}
+                pointedAt={pointedAt?.itemId === answer.itemId ? pointedAt : null}
                 onAnswer={(patch) => onAnswer(answer.itemId, patch)}
                 onPhoto={() => onPhoto(answer.itemId)}
                 design={design}
@@ -96,18 +113,24 @@ function ItemCard({
   answer,
   item,
   system,
-  photos,
   onAnswer,
   onPhoto,
   design,
   instruments,
   reading,
   onDraft,
+  photos: taken,
+  Thumb,
+  itemRef,
+  pointedAt,
 }: {
   answer: Answer;
   item: Item | undefined;
   system: UnitSystem;
-  photos: number;
+  photos: PhotoRef[];
+  Thumb?: Props['Thumb'];
+  itemRef?: Props['itemRef'];
+  pointedAt: DraftProblem | null;
   onAnswer: (patch: Partial<Answer>) => void;
   onPhoto: () => void;
   design: DesignData | null;
@@ -116,6 +139,7 @@ function ItemCard({
   reading: Draft['readings'][number] | undefined;
   onDraft?: Props['onDraft'];
 }) {
+  const photos = taken.length;
   const [noteOpen, setNoteOpen] = useState(!!answer.note);
   // Asked for when Pass is chosen on a value over its limit; kept open while the answer is such a Pass.
   const [reasonAsked, setReasonAsked] = useState(false);
@@ -140,58 +164,83 @@ function ItemCard({
   const askReason = over && (reasonAsked || answer.result === 'pass');
 
   return (
-    <Card style={answer.result === 'fail' || over ? styles.failed : undefined}>
-      <ItemHeading answer={answer} item={item} photos={photos} />
-      <ResultChoice answer={answer} onChoose={choose} />
-      <ChecklistValue
-        answer={answer}
-        item={item}
-        system={system}
-        onAnswer={onAnswer}
-        design={design}
-        instruments={instruments}
-        reading={reading}
-        onDraft={onDraft}
-        check={check}
-      />
-      {askReason ? (
-        <OverLimitReason
-          answer={answer}
-          onAnswer={onAnswer}
-          onPass={() => {
-            onAnswer({ result: 'pass' });
-            setReasonAsked(false);
-          }}
-          onFail={() => {
-            onAnswer({ result: 'fail' });
-            setNoteOpen(true);
-            setReasonAsked(false);
-          }}
-        />
-      ) : null}
-      {item?.photoRequired || answer.result === 'fail' ? (
-        <Button
-          label={photos > 0 ? `Add another photo (${photos})` : 'Take a photo of this'}
-          tone="quiet"
-          onPress={onPhoto}
-          accessibilityLabel={`Photo for ${answer.text}`}
-        />
-      ) : null}
-      {noteOpen || answer.result === 'fail' ? (
-        <TextField
-          label={answer.result === 'fail' ? 'What is wrong' : 'Note'}
-          value={answer.note ?? ''}
-          onChangeText={(note) => onAnswer({ note })}
-          multiline
-        />
-      ) : (
-        <Pressable onPress={() => setNoteOpen(true)} accessibilityRole="button" style={styles.addNote}>
-          <Text variant="small" color={colors.accent}>
-            + Add a note
+    // The card's frame is what a blocker brings into view and focuses.
+    <View
+      ref={(node) => itemRef?.(answer.itemId, node)}
+      tabIndex={-1}
+      role="group"
+      accessibilityLabel={answer.text}
+    >
+      <Card
+        style={StyleSheet.flatten([
+          answer.result === 'fail' || over ? styles.failed : undefined,
+          pointedAt ? styles.pointed : undefined,
+        ])}
+      >
+        <ItemHeading answer={answer} item={item} photos={photos} />
+        {pointedAt ? (
+          <Text color={colors.near} style={styles.pointedText}>
+            To do: {pointedAt.message}
           </Text>
-        </Pressable>
-      )}
-    </Card>
+        ) : null}
+        <ResultChoice answer={answer} onChoose={choose} />
+        <ChecklistValue
+          answer={answer}
+          item={item}
+          system={system}
+          onAnswer={onAnswer}
+          design={design}
+          instruments={instruments}
+          reading={reading}
+          onDraft={onDraft}
+          check={check}
+        />
+        {askReason ? (
+          <OverLimitReason
+            answer={answer}
+            onAnswer={onAnswer}
+            onPass={() => {
+              onAnswer({ result: 'pass' });
+              setReasonAsked(false);
+            }}
+            onFail={() => {
+              onAnswer({ result: 'fail' });
+              setNoteOpen(true);
+              setReasonAsked(false);
+            }}
+          />
+        ) : null}
+        {Thumb && taken.length > 0 ? (
+          <View style={styles.thumbs} role="list" accessibilityLabel={`Photos for ${answer.text}`}>
+            {taken.map((p, n) => (
+              <View key={p.id} role="listitem">
+                <Thumb photo={p} size={72} label={`Photo ${n + 1} for ${answer.text}`} />
+              </View>
+            ))}
+          </View>
+        ) : null}
+        {item?.photoRequired || answer.result === 'fail' ? (
+          <Button
+            label={photos > 0 ? `Add another photo (${photos})` : 'Take a photo of this'}
+            tone="quiet"
+            onPress={onPhoto}
+            accessibilityLabel={`Photo for ${answer.text}`}
+          />
+        ) : null}
+        {noteOpen || answer.result === 'fail' ? (
+          <TextField
+            label={answer.result === 'fail' ? 'What is wrong' : 'Note'}
+            value={answer.note ?? ''}
+            onChangeText={(note) => onAnswer({ note })}
+            multiline
+          />
+        ) : (
+          <Pressable onPress={() => setNoteOpen(true)} accessibilityRole="button" style={styles.addNote}>
+            <Text color={colors.accent}>+ Add a note</Text>
+          </Pressable>
+        )}
+      </Card>
+    </View>
   );
 }
 
@@ -302,7 +351,10 @@ const styles = StyleSheet.create({
     borderColor: colors.border,
     backgroundColor: colors.surface,
   },
-  addNote: { minHeight: 36, justifyContent: 'center' },
+  addNote: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
+  pointed: { borderColor: colors.near, borderWidth: 3 },
+  pointedText: { fontFamily: fonts.semibold },
+  thumbs: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   reason: {
     gap: space.sm,
     padding: space.md,

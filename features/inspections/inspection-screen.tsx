@@ -1,16 +1,19 @@
 import { toByteArray } from 'base64-js';
 import { randomUUID } from 'expo-crypto';
 import { router } from 'expo-router';
-import { useMemo, useState } from 'react';
-import { Image, StyleSheet, View } from 'react-native';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { Image, type ScrollView, StyleSheet, View } from 'react-native';
 
+import { ActionBar } from '@/components/action-bar';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { Screen } from '@/components/screen';
-import { Segmented } from '@/components/segmented';
+import { IconButton } from '@/components/icon-button';
+import { type Step, StepTabs } from '@/components/step-tabs';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
+import { UndoSnackbar } from '@/components/undo-snackbar';
 import { formatLocalStamp } from '@/lib/dates';
 import { useSession } from '@/features/auth';
 import { putPhotoBlob } from '@/features/device-db';
@@ -26,8 +29,6 @@ import {
   measuredRiderOf,
   putMotionRecord,
   removeMotionRecord,
-  removePhoto,
-  removeReading,
   setNotes,
   updatePhoto,
 } from '@/features/records';
@@ -43,8 +44,11 @@ import {
 import { capturePhoto } from '@/features/photos/ui';
 import { PhotosSection } from '@/features/inspections/photos-section';
 import { ReadingsSection } from '@/features/inspections/readings-section';
-import { inspectionTypeLabel, type PhotoRef } from '@/features/records/schema';
-import { SubmitStep } from '@/features/inspections/submit-step';
+import { type DraftProblem, inspectionTypeLabel, type PhotoRef } from '@/features/records/schema';
+import { InspectionFrame } from '@/features/inspections/inspection-frame';
+import { jumpTo } from '@/features/inspections/jump-to';
+import { type Removed, UNDO_WINDOW_MS, putBack, removedText, takeOut } from '@/features/inspections/removal';
+import { SubmitStep, submitAction } from '@/features/inspections/submit-step';
 import { unstatedMethodProblems } from '@/features/instruments';
 import { useFieldDeclarationQuery, useFieldInstrumentsQuery } from '@/features/instruments/ui';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
@@ -61,6 +65,14 @@ import { TapTimer } from '@/features/tap-timer/ui';
 import type { UnitSystem } from '@/lib/units';
 
 type Section = 'checklist' | 'readings' | 'photos' | 'result' | 'submit';
+
+const sections: { value: Section; label: string }[] = [
+  { value: 'checklist', label: 'Checklist' },
+  { value: 'readings', label: 'Readings' },
+  { value: 'photos', label: 'Photos' },
+  { value: 'result', label: 'Loads' },
+  { value: 'submit', label: 'Submit' },
+];
 
 /** Recording one inspection on the phone: every change is saved on the device at once. */
 export function InspectionScreen({ id }: { id: string }) {
@@ -82,6 +94,9 @@ export function InspectionScreen({ id }: { id: string }) {
 
 type RideData = ReturnType<typeof useFieldRideQuery>['data'];
 
+/** A tapped blocker: the part it is about, and the item to bring into view (`at` tells two taps apart). */
+type Jump = { problem: DraftProblem; at: number };
+
 function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const [section, setSection] = useState<Section>('checklist');
   const [system] = useUnitSystem();
@@ -99,30 +114,79 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const template = data?.template ?? null;
   const change = editor.update;
   const now = () => new Date();
+  const scroll = useRef<ScrollView>(null);
+  const targets = useRef(new Map<string, View>());
+  const readingsTop = useRef<View>(null);
+  const [jump, setJump] = useState<Jump | null>(null);
+  const undo = useUndoRemoval(change);
 
   const result = useLoadCheck(draft, design, template);
   const problems = [...draftProblems(draft, template, design), ...unstatedMethodProblems(draft.readings)];
 
+  const goTo = (next: Section, keep?: Jump) => {
+    setDeclared(false);
+    setSection(next);
+    setJump(keep ?? null);
+    if (!keep) scroll.current?.scrollTo({ y: 0, animated: false });
+  };
+  // After the part a blocker is about has rendered: its item (or the readings) into view, with the focus.
+  useEffect(() => {
+    if (!jump) return;
+    const id = jump.problem.itemId;
+    jumpTo(id ? (targets.current.get(id) ?? null) : readingsTop.current, scroll.current);
+  }, [jump]);
+
+  const at = sections.findIndex((s) => s.value === section);
+  const next = sections[at + 1];
+  const previous = sections[at - 1];
+  const action = submitAction({
+    draft,
+    template,
+    problems,
+    saving: editor.saving,
+    user,
+    declarationText,
+    declared,
+    submit,
+    syncNow: () => sync.syncNow(),
+  });
+
   return (
-    <Screen
+    <InspectionFrame
+      ref={scroll}
       title={draft.rideName}
       subtitle={`${draft.amendsId ? 'Correction of a returned inspection · ' : ''}${inspectionTypeLabel[draft.type]} · started ${formatLocalStamp(draft.startedAt)}`}
+      snackbar={undo.snackbar}
+      bar={
+        <ActionBar label="Inspection actions">
+          <SaveState saving={editor.saving} error={editor.error} step={at + 1} of={sections.length} />
+          {previous ? (
+            <IconButton
+              icon="chevron-left"
+              label={`Back to ${previous.label}`}
+              onPress={() => goTo(previous.value)}
+            />
+          ) : null}
+          {next ? (
+            <Button label={`Next: ${next.label}`} onPress={() => goTo(next.value)} />
+          ) : (
+            <Button
+              label="Submit inspection"
+              tone="accent"
+              disabled={action.disabled}
+              busy={action.busy}
+              onPress={() => void action.run()}
+            />
+          )}
+        </ActionBar>
+      }
     >
-      <ProgressLine draft={draft} saving={editor.saving} error={editor.error} />
-      <Segmented<Section>
+      <ProgressLine draft={draft} />
+      <StepTabs<Section>
         label="Part of the inspection"
         value={section}
-        onChange={(next) => {
-          setDeclared(false);
-          setSection(next);
-        }}
-        options={[
-          { value: 'checklist', label: 'Checklist' },
-          { value: 'readings', label: 'Readings' },
-          { value: 'photos', label: 'Photos' },
-          { value: 'result', label: 'Loads' },
-          { value: 'submit', label: 'Submit' },
-        ]}
+        onChange={(s) => goTo(s)}
+        steps={stepsOf(draft, problems)}
       />
       {editor.error ? (
         <Text role="alert" color={colors.danger}>
@@ -145,18 +209,26 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           design={design}
           instruments={instruments.data ?? []}
           onDraft={change}
+          Thumb={PhotoThumb}
+          itemRef={(itemId, node) =>
+            node ? targets.current.set(itemId, node) : targets.current.delete(itemId)
+          }
+          pointedAt={jump?.problem.itemId ? jump.problem : null}
         />
       ) : null}
       {section === 'readings' ? (
-        <ReadingsSection
-          draft={draft}
-          design={design}
-          system={system}
-          onAdd={(r) => change((d) => addReading(d, r, now()))}
-          onRemove={(rid) => change((d) => removeReading(d, rid, now()))}
-          instruments={instruments.data ?? []}
-          renderTimer={(onUse, per) => <TapTimer per={per} onUse={(t) => onUse(t.periodS, t.spreadS)} />}
-        />
+        <View ref={readingsTop} tabIndex={-1} accessibilityLabel="Readings" style={styles.part}>
+          <ReadingsSection
+            draft={draft}
+            design={design}
+            system={system}
+            onAdd={(r) => change((d) => addReading(d, r, now()))}
+            onRemove={(rid) => undo.remove('reading', rid)}
+            instruments={instruments.data ?? []}
+            renderTimer={(onUse, per) => <TapTimer per={per} onUse={(t) => onUse(t.periodS, t.spreadS)} />}
+          />
+          {jump && !jump.problem.itemId ? <Text color={colors.near}>{jump.problem.message}</Text> : null}
+        </View>
       ) : null}
       {section === 'readings' && design ? (
         <MotionRecorder
@@ -175,7 +247,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           Thumb={PhotoThumb}
           onCapture={(source) => void onCapture(source)}
           onUpdate={(pid, patch) => change((d) => updatePhoto(d, pid, patch, now()))}
-          onRemove={(pid) => change((d) => removePhoto(d, pid, now()))}
+          onRemove={(pid) => undo.remove('photo', pid)}
           busy={photoBusy}
           error={photoError}
           photoItems={
@@ -193,9 +265,7 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
       {section === 'submit' ? (
         <SubmitStep
           draft={draft}
-          template={template}
           problems={problems}
-          saving={editor.saving}
           onNotes={(t) => change((d) => setNotes(d, t, now()))}
           user={user}
           declarationText={declarationText}
@@ -203,15 +273,66 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
           declared={declared}
           setDeclared={setDeclared}
           submit={submit}
-          syncNow={() => sync.syncNow()}
+          onProblem={(problem) =>
+            goTo(problem.itemId ? 'checklist' : 'readings', { problem, at: Date.now() })
+          }
         />
       ) : null}
-    </Screen>
+    </InspectionFrame>
   );
 }
 
-/** What is done so far, and whether the last change is saved on the phone. */
-function ProgressLine({ draft, saving, error }: { draft: Draft; saving: boolean; error: Error | null }) {
+/** Each step's state in a word or a count, so the row says where work is left. */
+function stepsOf(draft: Draft, problems: DraftProblem[]): Step<Section>[] {
+  const p = draftProgress(draft);
+  return sections.map((s) => {
+    switch (s.value) {
+      case 'checklist':
+        return { ...s, detail: `${p.answered}/${p.total}`, attention: p.answered < p.total };
+      case 'readings':
+        return { ...s, detail: String(p.readings) };
+      case 'photos':
+        return { ...s, detail: String(p.photos) };
+      case 'submit':
+        return problems.length > 0
+          ? { ...s, detail: `${problems.length} to do`, attention: true }
+          : { ...s, detail: 'ready' };
+      default:
+        return s;
+    }
+  });
+}
+
+/** Removals of photos and readings, saved at once and offered back for a while (features/inspections/removal). */
+function useUndoRemoval(change: (update: (d: Draft) => Draft) => void) {
+  const [last, setLast] = useState<{ removed: Removed; token: string } | null>(null);
+  const remove = (kind: Removed['kind'], id: string) => {
+    const out: { removed?: Removed } = {};
+    change((d) => {
+      const taken = takeOut(d, kind, id, new Date());
+      if (!taken) return d;
+      out.removed = taken.removed;
+      return taken.draft;
+    });
+    if (out.removed) setLast({ removed: out.removed, token: randomUUID() });
+  };
+  const snackbar = last ? (
+    <UndoSnackbar
+      message={removedText(last.removed)}
+      token={last.token}
+      windowMs={UNDO_WINDOW_MS}
+      onUndo={() => {
+        change((d) => putBack(d, last.removed, new Date()));
+        setLast(null);
+      }}
+      onExpire={() => setLast(null)}
+    />
+  ) : null;
+  return { remove, snackbar };
+}
+
+/** What is done so far. */
+function ProgressLine({ draft }: { draft: Draft }) {
   const progress = draftProgress(draft);
   return (
     <View style={styles.progress} accessibilityLabel="Progress">
@@ -219,8 +340,34 @@ function ProgressLine({ draft, saving, error }: { draft: Draft; saving: boolean;
         {progress.answered}/{progress.total} answered · {progress.failed} failed · {progress.readings}{' '}
         readings · {progress.photos} photos
       </Text>
-      <Text variant="small" color={error ? colors.danger : colors.textMuted} accessibilityLiveRegion="polite">
-        {error ? 'Not saved — see below' : saving ? 'Saving…' : 'Saved on this phone'}
+    </View>
+  );
+}
+
+/** Whether the last change is saved on the phone, and where in the inspection the inspector is. */
+function SaveState({
+  saving,
+  error,
+  step,
+  of,
+}: {
+  saving: boolean;
+  error: Error | null;
+  step: number;
+  of: number;
+}) {
+  return (
+    <View style={styles.saveState}>
+      <Text
+        variant="small"
+        color={error ? colors.danger : colors.text}
+        accessibilityLiveRegion="polite"
+        numberOfLines={1}
+      >
+        {error ? 'Not saved — see above' : saving ? 'Saving…' : 'Saved on this phone'}
+      </Text>
+      <Text variant="small" muted numberOfLines={1}>
+        Step {step} of {of}
       </Text>
     </View>
   );
@@ -336,18 +483,21 @@ function useDraftPhotoCapture(change: (update: (d: Draft) => Draft) => void) {
   return { photoBusy, photoError, onCapture };
 }
 
-function PhotoThumb({ photo }: { photo: PhotoRef }) {
+/** A photo from the device store, as a square of `size` px (112 in the photo list). */
+function PhotoThumb({ photo, size = 112, label }: { photo: PhotoRef; size?: number; label?: string }) {
   const uri = usePhotoUriQuery(photo.sha256);
   return (
     <Image
       source={{ uri: uri.data ?? undefined }}
-      style={styles.thumb}
-      accessibilityLabel={photo.caption || 'Photo'}
+      style={[styles.thumb, { width: size, height: size }]}
+      accessibilityLabel={label ?? (photo.caption || 'Photo')}
     />
   );
 }
 
 const styles = StyleSheet.create({
+  part: { gap: space.md },
+  saveState: { flex: 1, minWidth: 0 },
   progress: {
     flexDirection: 'row',
     flexWrap: 'wrap',
@@ -359,5 +509,5 @@ const styles = StyleSheet.create({
     borderColor: colors.border,
     padding: space.md,
   },
-  thumb: { width: 112, height: 112, borderRadius: radius.md, backgroundColor: colors.surfaceSunk },
+  thumb: { borderRadius: radius.md, backgroundColor: colors.surfaceSunk },
 });

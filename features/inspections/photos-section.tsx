@@ -4,7 +4,7 @@ import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, space } from '@/components/theme';
+import { colors, layout, space } from '@/components/theme';
 import type { Draft } from '@/features/records';
 import type { PhotoRef } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
@@ -109,7 +109,12 @@ export function PhotosSection({
               />
             ) : null}
           </View>
-          <Button label="Remove photo" tone="danger" onPress={() => onRemove(photo.id)} />
+          <Button
+            label="Remove photo"
+            tone="danger"
+            onPress={() => onRemove(photo.id)}
+            accessibilityLabel={`Remove photo ${n + 1}`}
+          />
         </Card>
       ))}
     </View>
@@ -138,11 +143,11 @@ const styles = StyleSheet.create({
   photoMeta: { flex: 1, gap: space.sm },
   chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   chip: {
-    minHeight: 40,
+    minHeight: layout.touchTarget,
     maxWidth: 320,
     justifyContent: 'center',
     paddingHorizontal: space.md,
-    borderRadius: 20,
+    borderRadius: layout.touchTarget / 2,
     borderWidth: 1.5,
     borderColor: colors.border,
     backgroundColor: colors.surface,

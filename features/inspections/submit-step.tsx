@@ -1,11 +1,11 @@
 import { router } from 'expo-router';
-import { StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
-import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
-import { colors, space } from '@/components/theme';
+import { colors, layout, space } from '@/components/theme';
 import type { SessionUser } from '@/features/session/schema';
 import type { Draft } from '@/features/records';
 import type { useSubmitDraftMutation } from '@/features/inspections/field-api';
@@ -14,15 +14,67 @@ import type { DraftProblem } from '@/features/records/schema';
 import { DeclarationConfirm } from '@/features/instruments/ui';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 
+type SubmitInput = {
+  draft: Draft;
+  template: ChecklistTemplate | null;
+  problems: DraftProblem[];
+  /** A change of the draft is still being saved on the phone. */
+  saving: boolean;
+  user: SessionUser | null;
+  declarationText: string;
+  declared: boolean;
+  submit: ReturnType<typeof useSubmitDraftMutation>;
+  syncNow: () => Promise<unknown>;
+};
+
 /**
- * The last step of recording: notes for the supervisor, what still stands in the way, the inspector's
- * declaration, and the submit that puts the inspection in the phone's outbox.
+ * The submit that puts the inspection in the phone's outbox, for the action bar: open only with nothing
+ * standing in the way, the last change saved and the declaration made.
  */
-export function SubmitStep({
+export function submitAction({
   draft,
   template,
   problems,
   saving,
+  user,
+  declarationText,
+  declared,
+  submit,
+  syncNow,
+}: SubmitInput) {
+  const run = async () => {
+    if (!declared || !user) return;
+    try {
+      await submit.mutateAsync({
+        draft,
+        template,
+        declaration: {
+          text: declarationText,
+          declaredAt: new Date().toISOString(),
+          declaredBy: user.id,
+          declaredByName: user.name,
+        },
+      });
+    } catch {
+      return; // shown in the submit step from submit.error
+    }
+    void syncNow();
+    router.replace(todayHref);
+  };
+  return {
+    disabled: problems.length > 0 || saving || !declared || !user,
+    busy: submit.isPending,
+    run,
+  };
+}
+
+/**
+ * The last step of recording: notes for the supervisor, what still stands in the way (each a tap away
+ * from its item), and the inspector's declaration. The submit itself is in the bar under the page.
+ */
+export function SubmitStep({
+  draft,
+  problems,
   onNotes,
   user,
   declarationText,
@@ -30,13 +82,10 @@ export function SubmitStep({
   declared,
   setDeclared,
   submit,
-  syncNow,
+  onProblem,
 }: {
   draft: Draft;
-  template: ChecklistTemplate | null;
   problems: DraftProblem[];
-  /** A change of the draft is still being saved on the phone. */
-  saving: boolean;
   onNotes: (text: string) => void;
   user: SessionUser | null;
   declarationText: string;
@@ -45,7 +94,8 @@ export function SubmitStep({
   declared: boolean;
   setDeclared: (declared: boolean) => void;
   submit: ReturnType<typeof useSubmitDraftMutation>;
-  syncNow: () => Promise<unknown>;
+  /** Goes to the item (or the part) a problem is about. */
+  onProblem: (problem: DraftProblem) => void;
 }) {
   return (
     <View style={styles.submit}>
@@ -53,11 +103,25 @@ export function SubmitStep({
       {problems.length > 0 ? (
         <Card>
           <Text variant="heading">Before you submit</Text>
-          {problems.map((p, i) => (
-            <Text key={`${p.itemId}${i}`} color={colors.near}>
-              • {p.message}
-            </Text>
-          ))}
+          <Text variant="small" muted>
+            Tap one to go to it.
+          </Text>
+          <View role="list" accessibilityLabel="Before you submit">
+            {problems.map((p, i) => (
+              <Pressable
+                key={`${p.itemId}${i}`}
+                role="link"
+                accessibilityLabel={`Go to: ${p.message}`}
+                onPress={() => onProblem(p)}
+                style={styles.problem}
+              >
+                <Feather name="arrow-right" size={18} color={colors.near} />
+                <Text color={colors.near} style={styles.problemText}>
+                  {p.message}
+                </Text>
+              </Pressable>
+            ))}
+          </View>
         </Card>
       ) : (
         <Card>
@@ -82,35 +146,19 @@ export function SubmitStep({
           {(submit.error as Error).message}
         </Text>
       ) : null}
-      <Button
-        label="Submit inspection"
-        tone="accent"
-        disabled={problems.length > 0 || saving || !declared || !user}
-        busy={submit.isPending}
-        onPress={async () => {
-          if (!declared || !user) return;
-          try {
-            await submit.mutateAsync({
-              draft,
-              template,
-              declaration: {
-                text: declarationText,
-                declaredAt: new Date().toISOString(),
-                declaredBy: user.id,
-                declaredByName: user.name,
-              },
-            });
-          } catch {
-            return; // shown above from submit.error
-          }
-          void syncNow();
-          router.replace(todayHref);
-        }}
-      />
     </View>
   );
 }
 
 const styles = StyleSheet.create({
   submit: { gap: space.lg },
+  problem: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    minHeight: layout.touchTarget,
+    borderTopWidth: 1,
+    borderTopColor: colors.surfaceSunk,
+  },
+  problemText: { flex: 1 },
 });
