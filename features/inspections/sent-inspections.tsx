@@ -8,7 +8,7 @@ import Feather from '@/components/feather-icon';
 import { SectionTitle } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { useStartCorrectionMutation } from '@/features/inspections/field-api';
+import { useStartCorrectionMutation, useStartInspectionMutation } from '@/features/inspections/field-api';
 import { inspectHref } from '@/features/inspections/hrefs';
 import { ReportDownload } from '@/features/inspections/report-download';
 import { inspectionTypeLabel } from '@/features/records/schema';
@@ -121,6 +121,7 @@ const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one :
 function SentCard({ item }: { item: SentInspection }) {
   const stage = stageOf(item);
   const correct = useStartCorrectionMutation();
+  const start = useStartInspectionMutation();
   const open = stage === 'returned';
   const [showFindings, setShowFindings] = useState(open);
   const d = item.decision;
@@ -190,6 +191,23 @@ function SentCard({ item }: { item: SentInspection }) {
             for, then submit it; it goes as a correction of this one.
           </Text>
         </>
+      ) : stage === 'returned' && item.rideId ? (
+        <>
+          <Button
+            label="Start a new inspection of this ride"
+            busy={start.isPending}
+            onPress={() =>
+              start.mutate(
+                { rideId: item.rideId ?? '', type: item.type ?? 'periodic' },
+                { onSuccess: (draft) => router.push(inspectHref(draft.id)) },
+              )
+            }
+          />
+          <Text variant="small" muted>
+            This inspection was sent from another device, so it cannot be copied here. The new inspection
+            starts empty: record the ride again with the corrections asked for above.
+          </Text>
+        </>
       ) : stage === 'returned' ? (
         <Text variant="small" muted>
           This inspection was sent from another device, so it cannot be copied here. Start a new inspection of
@@ -197,9 +215,9 @@ function SentCard({ item }: { item: SentInspection }) {
         </Text>
       ) : null}
       {item.send === 'sent' || item.send === 'unknown' ? <ReportDownload inspection={item} /> : null}
-      {correct.isError ? (
+      {correct.isError || start.isError ? (
         <Text role="alert" color={colors.danger}>
-          {correct.error.message}
+          {(correct.error ?? start.error)?.message}
         </Text>
       ) : null}
     </Card>

@@ -31,6 +31,7 @@ import type { Role, SessionUser } from '@/features/session/schema';
 import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
+import { InspectRideCard } from '@/features/inspections/ui';
 import { PivotLifeSection } from '@/features/pivot-life/ui';
 import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices';
 import { NoticeRow } from '@/features/notices/ui';
@@ -99,6 +100,8 @@ function RideDetailBody({
 
   const info = (
     <>
+      {/* The inspector's next step on this ride comes first: on a phone it is what they came for. */}
+      {user.role === 'inspector' ? <InspectRideCard rideId={ride.id} /> : null}
       <StatusCard ride={ride} editor={editor} />
       <Card>
         <Text variant="heading">Ride</Text>

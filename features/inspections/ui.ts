@@ -1,0 +1,2 @@
+/** What other features may render from the inspector's field screens (needs the app's runtime). */
+export { InspectRideCard } from '@/features/inspections/inspect-ride-card';
