@@ -13,33 +13,36 @@ import { type DesignData, designDataSchema } from '@/features/loads/design-schem
 type Issue = { path: string; message: string };
 
 type ParsedDesign = { text: string; design: DesignData | null };
-type DesignCache = {
-  stmt: Database.Statement<[string], { data: string }>;
-  parsed: Map<string, ParsedDesign>;
-};
 
-/** Parsed design versions kept per connection: a push re-reads the same few designs batch after batch. */
-const designCaches = new WeakMap<Database.Database, DesignCache>();
+/** The design-data statement, prepared once per connection. */
+const designStatements = new WeakMap<Database.Database, Database.Statement<[string], { data: string }>>();
+
+/**
+ * Parsed design versions by id, kept for the process: a push re-reads the same few designs batch after
+ * batch, and a new connection (a restart of the server's, a test's or a bench's database) names the same
+ * versions again. A parse is reused only for the very text it was made from, so it is the same answer
+ * whichever connection read that text.
+ */
+const parsed = new Map<string, ParsedDesign>();
 /** Enough for every version a busy day's pushes name; past it the cache starts again rather than grow. */
 const DESIGN_CACHE_SIZE = 256;
 
-function designCacheOf(sqlite: Database.Database): DesignCache {
-  let cache = designCaches.get(sqlite);
-  if (!cache) {
-    cache = { stmt: sqlite.prepare('SELECT data FROM design_versions WHERE id = ?'), parsed: new Map() };
-    designCaches.set(sqlite, cache);
+function designStatementOf(sqlite: Database.Database) {
+  let stmt = designStatements.get(sqlite);
+  if (!stmt) {
+    stmt = sqlite.prepare<[string], { data: string }>('SELECT data FROM design_versions WHERE id = ?');
+    designStatements.set(sqlite, stmt);
   }
-  return cache;
+  return stmt;
 }
 
 /**
  * Design data by version id, read once per batch; null for an id with no (readable) data. Checking the
- * design schema costs more than storing a record, so a version is parsed once per connection and the
- * parse reused while the stored text is the same (the text is re-read every batch, so nothing stale is
- * ever used).
+ * design schema costs more than storing a record, so a version's text is parsed once and the parse reused
+ * while the stored text is the same (the text is re-read every batch, so nothing stale is ever used).
  */
 export function designDataLookup(sqlite: Database.Database): (id: string) => DesignData | null {
-  const { stmt, parsed } = designCacheOf(sqlite);
+  const stmt = designStatementOf(sqlite);
   const seen = new Map<string, DesignData | null>();
   return (id) => {
     let design = seen.get(id);

@@ -7,6 +7,7 @@
  */
 import { randomUUID } from 'node:crypto';
 
+import Database from 'better-sqlite3';
 import { eq, inArray } from 'drizzle-orm';
 import * as fc from 'fast-check';
 
@@ -14,6 +15,7 @@ import { inspectionPhotos, inspectionReadings, inspections } from '@/db/server/i
 import { inspectionRecordSchema, pushResultSchema } from '@/features/records/schema';
 import { sqliteOf } from '@/server/sqlite-client';
 import { compiledRecordSchema } from '@/server/sync/ingest';
+import { designDataLookup } from '@/server/sync/plausibility-check';
 
 import { makeTestServer, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
@@ -151,6 +153,40 @@ test('a design version whose stored data changes is judged by the new data in th
     expect(second.results[0].status).toBe('accepted');
   } finally {
     sqlite.prepare('UPDATE design_versions SET data = ? WHERE id = ?').run(data, comet.designVersionId);
+  }
+});
+
+test('two databases naming the same design version with different data each get their own', () => {
+  // Parsed designs are kept for the process, keyed by id and the exact stored text: another database (a
+  // restarted server's, a copy) whose version of the same id says 40 rpm must not get this one's parse.
+  const { data } = sqliteOf(server.db)
+    .prepare('SELECT data FROM design_versions WHERE id = ?')
+    .get(comet.designVersionId) as { data: string };
+  const design = JSON.parse(data);
+  const changed = {
+    ...design,
+    motion: design.motion.map((m: { joint: number }) => (m.joint === 0 ? { ...m, rpm: 40 } : m)),
+  };
+  const databaseWith = (text: string) => {
+    const db = new Database(':memory:');
+    db.exec('CREATE TABLE design_versions (id TEXT PRIMARY KEY, data TEXT NOT NULL)');
+    db.prepare('INSERT INTO design_versions (id, data) VALUES (?, ?)').run(comet.designVersionId, text);
+    return db;
+  };
+  const first = databaseWith(data);
+  const second = databaseWith(JSON.stringify(changed));
+  try {
+    const rpm = (db: Database.Database) =>
+      designDataLookup(db)(comet.designVersionId)?.motion.find((m) => m.joint === 0)?.rpm;
+    // In turn, so each lookup follows the other database's.
+    for (let i = 0; i < 2; i++) {
+      expect(rpm(first)).toBe(design.motion.find((m: { joint: number }) => m.joint === 0).rpm);
+      expect(rpm(second)).toBe(40);
+      expect(rpm(sqliteOf(server.db))).toBe(rpm(first));
+    }
+  } finally {
+    first.close();
+    second.close();
   }
 });
 
