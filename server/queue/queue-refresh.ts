@@ -194,9 +194,21 @@ function rideRows(onlyRides: OnlyRides): SQL {
 
 /** The two statements of a refresh of `scope`: delete the rows it covers, insert them afresh. */
 function refreshStatements(scope: Scope): SQL[] {
-  const scopeRides = sql`(SELECT x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)})`;
+  // The inspections' rides are found once per statement (a materialised CTE, a handful of rows) rather
+  // than by a lookup of every inspection in each of the five places that keep to them.
+  const scopeRides =
+    scope === 'inspections'
+      ? sql`
+      scope_rides AS MATERIALIZED (
+        SELECT DISTINCT x.ride_id AS ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)}
+      ),`
+      : sql``;
   const onlyRides = (column: SQL): SQL =>
-    scope === 'all' ? sql`1` : scope === 'rides' ? inIds(column) : sql`${column} IN ${scopeRides}`;
+    scope === 'all'
+      ? sql`1`
+      : scope === 'rides'
+        ? inIds(column)
+        : sql`${column} IN (SELECT ride_id FROM scope_rides)`;
   // Scoped, the inspections are found through the ride or primary-key index; the unary + keeps SQLite
   // from preferring the review-state index, which would walk every submitted inspection (ms per write).
   const pendingScope =
@@ -217,7 +229,7 @@ function refreshStatements(scope: Scope): SQL[] {
   return [
     sql`DELETE FROM ${reviewQueue} WHERE ${covered}`,
     sql`
-    WITH
+    WITH${scopeRides}
 ${rideFacts(onlyRides, pendingScope)}
     INSERT INTO ${reviewQueue} (
       key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
