@@ -6,7 +6,7 @@ import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { type PaperSize, downloadPdf, pdfFileName } from '@/features/api/ui';
+import { type PaperSize, downloadPdf, handOverVerb, pdfFileName } from '@/features/api/ui';
 
 /** The inspection report's PDF: the inspector's own copy of what they recorded. */
 const downloadInspectionReport = (
@@ -19,8 +19,9 @@ const downloadInspectionReport = (
   );
 
 /**
- * The inspector's own copy of a sent inspection as a PDF. The server makes it from the record it
- * accepted, so it needs a connection; the record itself stays on the phone either way.
+ * The inspector's own copy of a sent inspection as a PDF: the share sheet on a phone, a download on the
+ * web. The server makes it from the record it accepted, so it needs a connection; the record itself
+ * stays on the phone either way.
  */
 export function ReportDownload({
   inspection,
@@ -41,7 +42,7 @@ export function ReportDownload({
           : err instanceof ApiRequestError || err instanceof Error
             ? err.message
             : 'Try again.';
-      setMessage({ ok: false, text: `The report could not be downloaded. ${why}` });
+      setMessage({ ok: false, text: `The report could not be fetched. ${why}` });
     } finally {
       setBusy(null);
     }
@@ -56,7 +57,7 @@ export function ReportDownload({
           icon={icon}
           busy={busy === 'A4'}
           disabled={busy !== null}
-          accessibilityLabel={`Download the inspection report of ${inspection.rideName}, A4 PDF`}
+          accessibilityLabel={`${handOverVerb} the inspection report of ${inspection.rideName}, A4 PDF`}
           onPress={() => download('A4')}
         />
         <Button
@@ -64,7 +65,7 @@ export function ReportDownload({
           tone="quiet"
           busy={busy === 'LETTER'}
           disabled={busy !== null}
-          accessibilityLabel={`Download the inspection report of ${inspection.rideName}, US Letter PDF`}
+          accessibilityLabel={`${handOverVerb} the inspection report of ${inspection.rideName}, US Letter PDF`}
           onPress={() => download('LETTER')}
         />
       </View>

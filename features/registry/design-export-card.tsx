@@ -6,9 +6,9 @@ import { Card } from '@/components/card';
 import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
+import { fileTypes, saveOrShareText } from '@/features/api/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import { exportFileName } from '@/features/registry/import-report';
-import { saveTextFile } from '@/features/registry/save-file';
 import type { RideSummary } from '@/features/rides/schema';
 
 /** The design data as a file, the same format import reads (written by the same code as the server’s export). */
@@ -29,13 +29,7 @@ export function ExportCard({
     const csv = await import('@/features/registry/csv').catch(() => null);
     if (!csv) return setSaved('The file could not be made here without a connection. Try again online.');
     const { designToFile } = csv;
-    setSaved(
-      await saveTextFile(
-        name,
-        designToFile(format, data),
-        format === 'csv' ? 'text/csv' : 'application/json',
-      ),
-    );
+    setSaved(await saveOrShareText(name, designToFile(format, data), fileTypes[format]));
   };
   return (
     <Card>

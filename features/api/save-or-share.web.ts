@@ -1,0 +1,33 @@
+/**
+ * Every file the app hands to a person goes through here; in the browser, as a download. A plain link
+ * cannot carry the session token, so a file the API makes is fetched with it and handed to the browser
+ * from a temporary Blob URL. The phone's pair (`save-or-share.ts`) opens the share sheet.
+ */
+import { API_BASE } from '@/features/api/client';
+import type { FileType } from '@/features/api/file-types';
+import { saveBlob } from '@/features/api/save-blob';
+import { OfflineError, errorOfResponse } from '@/lib/api-errors';
+import { tokenStore } from '@/features/session';
+
+/** The word for what a press does here, for labels: a browser downloads. */
+export const handOverVerb = 'Download';
+
+/** A file the API makes (`apiPath` from `/api/…`), fetched with the session token. */
+export async function saveOrShareApiFile(apiPath: string, fileName: string, type: FileType): Promise<string> {
+  const session = await tokenStore.get();
+  let res: Response;
+  try {
+    res = await fetch(`${API_BASE}${apiPath}`, {
+      headers: { Accept: type.mimeType, ...(session ? { Authorization: `Bearer ${session.token}` } : {}) },
+    });
+  } catch (err) {
+    throw new OfflineError(err);
+  }
+  if (!res.ok) throw await errorOfResponse(res, `The file could not be made (${res.status}).`);
+  return saveBlob(await res.blob(), fileName);
+}
+
+/** A text file made in the page (an export): nothing to fetch, so it works offline. */
+export async function saveOrShareText(fileName: string, text: string, type: FileType): Promise<string> {
+  return saveBlob(new Blob([text], { type: type.mimeType }), fileName);
+}
