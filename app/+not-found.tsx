@@ -1,1 +1,4 @@
-export { NotFoundScreen as default } from '@/features/shell/not-found-screen';
+import { titled } from '@/components/route-title';
+import { NotFoundScreen } from '@/features/shell/not-found-screen';
+
+export default titled(NotFoundScreen, { page: 'Page not found' });

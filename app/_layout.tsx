@@ -1,2 +1,2 @@
-export { ErrorBoundary } from 'expo-router';
+export { ErrorBoundary } from '@/components/route-error';
 export { RootLayout as default } from '@/features/shell/root-layout';

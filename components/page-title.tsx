@@ -1,5 +1,6 @@
 import { StyleSheet, View } from 'react-native';
 
+import { HeadingTitle } from '@/components/route-title';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
@@ -12,11 +13,15 @@ type Props = {
   actions?: React.ReactNode;
 };
 
-/** A page's title block (Screen, SubScreen): the page's one heading, and its actions beside it on a desktop. */
+/**
+ * A page's title block (Screen, SubScreen): the page's one heading, and its actions beside it on a desktop.
+ * It also names the browser tab after the heading's object (components/route-title.tsx).
+ */
 export function PageTitle({ title, subtitle, badge, actions }: Props) {
   const wide = useWide();
   return (
     <View style={[styles.header, wide && styles.headerWide]}>
+      <HeadingTitle title={title} subtitle={subtitle} />
       <View style={styles.titles}>
         <View style={styles.titleRow}>
           {/* An h1 on the web, a header to native screen readers. */}

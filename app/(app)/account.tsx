@@ -1,1 +1,4 @@
-export { AccountScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { AccountScreen } from '@/features/shell/lazy-screens';
+
+export default titled(AccountScreen, { page: 'Account' });

@@ -1,1 +1,4 @@
-export { StartRedirect as default } from '@/features/auth/start-redirect';
+import { titled } from '@/components/route-title';
+import { StartRedirect } from '@/features/auth/start-redirect';
+
+export default titled(StartRedirect, { page: 'Start' });

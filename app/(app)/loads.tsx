@@ -1,1 +1,4 @@
-export { CalculatorScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { CalculatorScreen } from '@/features/shell/lazy-screens';
+
+export default titled(CalculatorScreen, { page: 'Load check' });

@@ -1,1 +1,4 @@
-export { OperatorHome as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { OperatorHome } from '@/features/shell/lazy-screens';
+
+export default titled(OperatorHome, { page: 'My rides' });

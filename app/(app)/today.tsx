@@ -1,1 +1,4 @@
-export { TodayScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { TodayScreen } from '@/features/shell/lazy-screens';
+
+export default titled(TodayScreen, { page: 'Today' });

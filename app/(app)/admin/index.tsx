@@ -1,1 +1,4 @@
-export { AdminHome as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { AdminHome } from '@/features/shell/lazy-screens';
+
+export default titled(AdminHome, { page: 'Administration' });

@@ -1,1 +1,4 @@
-export { OutboxScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { OutboxScreen } from '@/features/shell/lazy-screens';
+
+export default titled(OutboxScreen, { page: 'Outbox' });

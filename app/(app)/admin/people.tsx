@@ -1,1 +1,4 @@
-export { PeopleScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { PeopleScreen } from '@/features/shell/lazy-screens';
+
+export default titled(PeopleScreen, { page: 'People' });

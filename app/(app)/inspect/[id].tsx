@@ -1,1 +1,4 @@
-export { InspectRoute as default } from '@/features/shell/lazy-screens';
+import { objectIsHeading, titled } from '@/components/route-title';
+import { InspectRoute } from '@/features/shell/lazy-screens';
+
+export default titled(InspectRoute, { page: 'Inspection', object: objectIsHeading });

@@ -1,1 +1,4 @@
-export { NoticeScreen as default } from '@/features/shell/lazy-screens';
+import { objectIsHeading, titled } from '@/components/route-title';
+import { NoticeScreen } from '@/features/shell/lazy-screens';
+
+export default titled(NoticeScreen, { page: 'Notice', object: objectIsHeading });

@@ -1,1 +1,4 @@
-export { NoticeListScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { NoticeListScreen } from '@/features/shell/lazy-screens';
+
+export default titled(NoticeListScreen, { page: 'Notices' });

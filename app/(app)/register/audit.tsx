@@ -1,1 +1,4 @@
-export { AuditScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { AuditScreen } from '@/features/shell/lazy-screens';
+
+export default titled(AuditScreen, { page: 'Audit log' });

@@ -1,1 +1,4 @@
-export { InstrumentRegisterScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { InstrumentRegisterScreen } from '@/features/shell/lazy-screens';
+
+export default titled(InstrumentRegisterScreen, { page: 'Instruments' });

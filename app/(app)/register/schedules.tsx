@@ -1,1 +1,4 @@
-export { SchedulesListScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { SchedulesListScreen } from '@/features/shell/lazy-screens';
+
+export default titled(SchedulesListScreen, { page: 'Schedules' });

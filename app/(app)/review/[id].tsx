@@ -1,1 +1,4 @@
-export { InspectionReviewScreen as default } from '@/features/shell/lazy-screens';
+import { objectLeadsSubtitle, titled } from '@/components/route-title';
+import { InspectionReviewScreen } from '@/features/shell/lazy-screens';
+
+export default titled(InspectionReviewScreen, { page: 'Review', object: objectLeadsSubtitle });

@@ -1,1 +1,4 @@
-export { QueueScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { QueueScreen } from '@/features/shell/lazy-screens';
+
+export default titled(QueueScreen, { page: 'Review' });

@@ -1,1 +1,4 @@
-export { RidesListScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { RidesListScreen } from '@/features/shell/lazy-screens';
+
+export default titled(RidesListScreen, { page: 'Rides' });

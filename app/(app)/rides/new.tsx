@@ -1,1 +1,4 @@
-export { RideCreateScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { RideCreateScreen } from '@/features/shell/lazy-screens';
+
+export default titled(RideCreateScreen, { page: 'New ride' });

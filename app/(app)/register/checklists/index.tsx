@@ -1,1 +1,4 @@
-export { ChecklistsListScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { ChecklistsListScreen } from '@/features/shell/lazy-screens';
+
+export default titled(ChecklistsListScreen, { page: 'Checklists' });

@@ -1,1 +1,4 @@
-export { ChecklistCreateScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { ChecklistCreateScreen } from '@/features/shell/lazy-screens';
+
+export default titled(ChecklistCreateScreen, { page: 'New checklist' });

@@ -1,1 +1,4 @@
-export { CompaniesListScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { CompaniesListScreen } from '@/features/shell/lazy-screens';
+
+export default titled(CompaniesListScreen, { page: 'Companies' });

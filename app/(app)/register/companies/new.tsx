@@ -1,1 +1,4 @@
-export { CompanyEditScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { CompanyEditScreen } from '@/features/shell/lazy-screens';
+
+export default titled(CompanyEditScreen, { page: 'New company' });

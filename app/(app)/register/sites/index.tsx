@@ -1,1 +1,4 @@
-export { SitesListScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { SitesListScreen } from '@/features/shell/lazy-screens';
+
+export default titled(SitesListScreen, { page: 'Sites' });

@@ -1,1 +1,4 @@
-export { SiteEditScreen as default } from '@/features/shell/lazy-screens';
+import { titled } from '@/components/route-title';
+import { SiteEditScreen } from '@/features/shell/lazy-screens';
+
+export default titled(SiteEditScreen, { page: 'New site' });

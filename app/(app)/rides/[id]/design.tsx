@@ -1,1 +1,4 @@
-export { DesignScreen as default } from '@/features/shell/lazy-screens';
+import { objectLeadsSubtitle, titled } from '@/components/route-title';
+import { DesignScreen } from '@/features/shell/lazy-screens';
+
+export default titled(DesignScreen, { page: 'Design data', object: objectLeadsSubtitle });

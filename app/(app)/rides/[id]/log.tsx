@@ -1,1 +1,4 @@
-export { RunningLogScreen as default } from '@/features/shell/lazy-screens';
+import { objectLeadsSubtitle, titled } from '@/components/route-title';
+import { RunningLogScreen } from '@/features/shell/lazy-screens';
+
+export default titled(RunningLogScreen, { page: 'Running log', object: objectLeadsSubtitle });

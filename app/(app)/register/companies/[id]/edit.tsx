@@ -1,1 +1,4 @@
-export { CompanyEditScreen as default } from '@/features/shell/lazy-screens';
+import { objectAfter, titled } from '@/components/route-title';
+import { CompanyEditScreen } from '@/features/shell/lazy-screens';
+
+export default titled(CompanyEditScreen, { page: 'Edit company', object: objectAfter('Edit ') });

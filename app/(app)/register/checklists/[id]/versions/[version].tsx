@@ -1,1 +1,4 @@
-export { ChecklistScreen as default } from '@/features/shell/lazy-screens';
+import { objectIsHeading, titled } from '@/components/route-title';
+import { ChecklistScreen } from '@/features/shell/lazy-screens';
+
+export default titled(ChecklistScreen, { page: 'Checklist version', object: objectIsHeading });
