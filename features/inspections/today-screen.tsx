@@ -13,11 +13,7 @@ import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
 import { formatLocalStamp, longDate } from '@/lib/dates';
 import { firstName, greeting } from '@/lib/greeting';
-import {
-  useFieldRidesQuery,
-  useSentInspectionsQuery,
-  useStartInspectionMutation,
-} from '@/features/inspections/field-api';
+import { useFieldRidesQuery, useStartInspectionMutation } from '@/features/inspections/field-api';
 import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
 import { scheduleSchema } from '@/features/registry/schema';
 import { rideHref } from '@/features/rides';
@@ -25,7 +21,7 @@ import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
-import { useSyncStatus } from '@/features/sync/ui';
+import { useTodayData } from '@/features/inspections/use-today-data';
 
 /**
  * The inspector's day, read from the phone: inspections a supervisor returned for correction, drafts to
@@ -33,11 +29,10 @@ import { useSyncStatus } from '@/features/sync/ui';
  * the phone has synced.
  */
 export function TodayScreen() {
-  const rides = useFieldRidesQuery();
-  const sent = useSentInspectionsQuery();
+  // From the phone's database; on a reload, from the last snapshot until the database answers.
+  const { rides, sent, sync } = useTodayData();
   const returned = sent.data?.filter((s) => s.needsAction) ?? [];
   const others = sent.data?.filter((s) => !s.needsAction) ?? [];
-  const sync = useSyncStatus();
   const wide = useWide();
   // First visit on a fresh phone: fetch the round while there is a connection. Only once the phone's own
   // record of the last sync has been read: before that every opening of Today looks like a first visit.
