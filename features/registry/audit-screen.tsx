@@ -99,7 +99,7 @@ function Audit({ user }: { user: SessionUser }) {
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
 
   return (
-    <Screen title="Rides" subtitle="Audit log: every change to the register, with who made it and when.">
+    <Screen title="Audit log" subtitle="Every change to the register, with who made it and when.">
       <RegisterTabs role={user.role} />
       <FilterPanel
         active={

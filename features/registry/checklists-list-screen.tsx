@@ -41,7 +41,10 @@ function ChecklistsList({ user }: { user: SessionUser }) {
   const templates = useChecklistListQuery();
   const shown = query.rideClass.length ? query.rideClass : [...rideClasses];
   return (
-    <Screen title="Rides" subtitle="Checklist templates per ride class. Each change makes a new version.">
+    <Screen
+      title="Checklists"
+      subtitle="Checklist templates per ride class. Each change makes a new version."
+    >
       <RegisterTabs role={user.role} />
       <Card>
         <Text variant="label" muted>

@@ -33,7 +33,7 @@ function CompaniesList({ user }: { user: SessionUser }) {
   const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
   return (
     <Screen
-      title="Rides"
+      title="Companies"
       subtitle="Operator companies: ride owners, their contacts and notice addresses."
       actions={
         user.role === 'admin' ? (

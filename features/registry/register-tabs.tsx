@@ -1,8 +1,9 @@
 import { type Href, Link, usePathname } from 'expo-router';
-import { Pressable, ScrollView, StyleSheet } from 'react-native';
+import { Pressable, ScrollView, StyleSheet, View } from 'react-native';
 
 import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
+import { useWide } from '@/components/use-wide';
 import type { Role } from '@/features/session/schema';
 import {
   auditHref,
@@ -34,12 +35,33 @@ function tabsFor(role: Role): Tab[] {
   return registerTabs.filter((t) => t.roles.includes(role));
 }
 
-/** A row of links between the register's pages; scrolls sideways on a phone. */
+/**
+ * Links between the register's pages: one row on a desktop; on a phone they wrap onto as many rows as
+ * they need (a row that scrolled sideways hid the later tabs, the current one among them, past the edge
+ * with nothing to say they were there).
+ */
 export function RegisterTabs({ role }: { role: Role }) {
   const pathname = usePathname();
+  const wide = useWide();
   const tabs = tabsFor(role);
   if (tabs.length < 2) return null;
-  return (
+  const links = tabs.map((t) => {
+    const active = pathname === t.href || pathname.startsWith(`${t.href}/`);
+    return (
+      <Link key={t.href} href={t.href} asChild>
+        <Pressable
+          role="link"
+          aria-current={active ? 'page' : undefined}
+          style={StyleSheet.flatten([styles.tab, active && styles.tabActive])}
+        >
+          <Text variant="label" color={active ? colors.baseText : colors.text}>
+            {t.label}
+          </Text>
+        </Pressable>
+      </Link>
+    );
+  });
+  return wide ? (
     <ScrollView
       horizontal
       showsHorizontalScrollIndicator={false}
@@ -47,30 +69,21 @@ export function RegisterTabs({ role }: { role: Role }) {
       role="navigation"
       accessibilityLabel="Register"
     >
-      {tabs.map((t) => {
-        const active = pathname === t.href || pathname.startsWith(`${t.href}/`);
-        return (
-          <Link key={t.href} href={t.href} asChild>
-            <Pressable
-              role="link"
-              aria-current={active ? 'page' : undefined}
-              style={StyleSheet.flatten([styles.tab, active && styles.tabActive])}
-            >
-              <Text variant="label" color={active ? colors.baseText : colors.text}>
-                {t.label}
-              </Text>
-            </Pressable>
-          </Link>
-        );
-      })}
+      {links}
     </ScrollView>
+  ) : (
+    <View style={[styles.row, styles.wrap]} role="navigation" accessibilityLabel="Register">
+      {links}
+    </View>
   );
 }
 
 const styles = StyleSheet.create({
   row: { gap: space.xs, paddingVertical: 2 },
+  wrap: { flexDirection: 'row', flexWrap: 'wrap' },
   tab: {
     minHeight: layout.touchTarget - 4,
+    paddingVertical: space.xs,
     paddingHorizontal: space.lg,
     justifyContent: 'center',
     borderRadius: radius.md,

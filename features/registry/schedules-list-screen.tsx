@@ -50,7 +50,7 @@ function SchedulesList({ user }: { user: SessionUser }) {
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
 
   return (
-    <Screen title="Rides" subtitle="Planned inspections across the register, soonest first.">
+    <Screen title="Schedules" subtitle="Planned inspections across the register, soonest first.">
       <RegisterTabs role={user.role} />
       <FilterPanel
         active={

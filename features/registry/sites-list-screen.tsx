@@ -44,8 +44,8 @@ function SitesList({ user }: { user: SessionUser }) {
   const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
   return (
     <Screen
-      title="Rides"
-      subtitle="Sites: parks, fairgrounds and travelling set-ups."
+      title="Sites"
+      subtitle="Parks, fairgrounds and travelling set-ups."
       actions={
         user.role === 'admin' ? (
           <Button
