@@ -32,6 +32,7 @@ import {
   scheduleResponseSchema,
   siteListResponseSchema,
   siteResponseSchema,
+  timeZoneSettingResponseSchema,
 } from '@/features/registry/schema';
 import type { RideClass } from '@/features/rides/schema';
 import { RIDES_STALE_MS, rideKeys } from '@/features/rides';
@@ -450,5 +451,28 @@ export function useRideQuery(id: string | null) {
       apiFetch(`/api/rides/${encodeURIComponent(id ?? '')}`, { schema: rideDetailResponseSchema }),
     enabled: !!id,
     staleTime: RIDES_STALE_MS,
+  });
+}
+
+// ——— the inspection body's default time zone ———
+
+const TIME_ZONE_PATH = '/api/settings/time-zone';
+
+/** The default zone of sites that name none (GET /api/settings/time-zone). */
+export function useTimeZoneSettingQuery() {
+  return useQuery({
+    queryKey: [...registryKeys.all, 'time-zone'] as const,
+    queryFn: async () => (await apiFetch(TIME_ZONE_PATH, { schema: timeZoneSettingResponseSchema })).timeZone,
+    staleTime: REGISTER_STALE_MS,
+  });
+}
+
+/** Sets the default zone (admins); sites, rides and schedules read anew, since their days may move. */
+export function useTimeZoneSettingMutation() {
+  const invalidate = useInvalidateRegister();
+  return useMutation({
+    mutationFn: (zone: string) =>
+      apiFetch(TIME_ZONE_PATH, { method: 'PUT', body: { zone }, schema: timeZoneSettingResponseSchema }),
+    onSuccess: invalidate,
   });
 }

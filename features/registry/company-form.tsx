@@ -181,9 +181,12 @@ export function SiteForm({
   submitLabel,
   onSubmit,
   onCancel,
+  defaultZone,
 }: {
   defaultValues: SiteFormInput;
   operators: { value: string; label: string }[];
+  /** The inspection body's default zone, named in the hint. */
+  defaultZone?: string;
   submitLabel: string;
   onSubmit: (values: SiteFormOutput) => Promise<unknown>;
   onCancel?: () => void;
@@ -195,7 +198,7 @@ export function SiteForm({
   const save = useServerSubmit(
     { handleSubmit, setError, formState },
     onSubmit,
-    fieldsOf(['name', 'kind', 'address', 'locality', 'operatorCompanyId']),
+    fieldsOf(['name', 'kind', 'address', 'locality', 'timeZone', 'operatorCompanyId']),
   );
   return (
     <View style={styles.form}>
@@ -214,6 +217,19 @@ export function SiteForm({
           <FormText control={control} name="locality" label="Town or locality" />
         </View>
       </View>
+      <FormText
+        control={control}
+        name="timeZone"
+        label="Time zone"
+        placeholder="e.g. America/Los_Angeles"
+        autoCapitalize="none"
+        hint={
+          'The site’s clock (an IANA name such as Europe/London or Pacific/Auckland): its “today”, due ' +
+          `dates, 07:00 reminders and times shown. Leave empty for the inspection body’s default${
+            defaultZone ? ` (${defaultZone})` : ''
+          }.`
+        }
+      />
       <FormSelect
         control={control}
         name="operatorCompanyId"

@@ -9,6 +9,7 @@ import {
   useCompanyListQuery,
   useSiteQuery,
   useSiteSaveMutation,
+  useTimeZoneSettingQuery,
 } from '@/features/registry/api';
 import { SiteForm, type SiteFormInput } from '@/features/registry/company-form';
 import { siteHref, sitesHref } from '@/features/registry/hrefs';
@@ -26,11 +27,13 @@ function SiteEdit({ id }: { id: string | null }) {
   const save = useSiteSaveMutation(id);
   const companies = useCompanyListQuery({ pageSize: 200, sort: 'name' });
   const operators = operatorChoices(companies.data?.companies);
+  const defaultZone = useTimeZoneSettingQuery().data?.zone;
   const form = (values: SiteFormInput) =>
     companies.data ? (
       <SiteForm
         defaultValues={values}
         operators={operators}
+        defaultZone={defaultZone}
         submitLabel={id ? 'Save changes' : 'Add site'}
         onSubmit={async (v) => {
           const res = await save.mutateAsync(v);
@@ -45,7 +48,7 @@ function SiteEdit({ id }: { id: string | null }) {
     return (
       <SubScreen title="New site" back={{ href: sitesHref, label: 'Sites' }}>
         <FormCard>
-          {form({ name: '', kind: 'park', address: '', locality: '', operatorCompanyId: '' })}
+          {form({ name: '', kind: 'park', address: '', locality: '', timeZone: '', operatorCompanyId: '' })}
         </FormCard>
       </SubScreen>
     );
@@ -59,6 +62,7 @@ function SiteEdit({ id }: { id: string | null }) {
               kind: s.kind,
               address: s.address ?? '',
               locality: s.locality ?? '',
+              timeZone: s.timeZone ?? '',
               operatorCompanyId: s.operatorCompanyId,
             })}
           </FormCard>

@@ -44,6 +44,10 @@ function SiteView({ id, role }: { id: string; role: Role }) {
               <Card>
                 <Field label="Address" value={s.address ?? '—'} />
                 <Field label="Locality" value={s.locality ?? '—'} />
+                <Field
+                  label="Time zone"
+                  value={s.timeZone ?? `${s.effectiveTimeZone} (the inspection body’s default)`}
+                />
                 <Field label="Operator" value={s.operatorName} />
               </Card>
             }

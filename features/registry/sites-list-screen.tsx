@@ -19,6 +19,7 @@ import { operatorChoices, useCompanyListQuery, useSiteListQuery } from '@/featur
 import { newSiteHref, siteHref } from '@/features/registry/hrefs';
 import { PAGE_SIZE } from '@/features/registry/register-parts';
 import { RegisterTabs } from '@/features/registry/register-tabs';
+import { TimeZoneCard } from '@/features/registry/time-zone-card';
 import {
   type Site,
   siteKindLabel,
@@ -103,6 +104,7 @@ function SitesList({ user }: { user: SessionUser }) {
                   sortKey: 'locality',
                   render: (s) => s.locality ?? '—',
                 },
+                { key: 'zone', title: 'Time zone', flex: 1.3, render: (s) => s.effectiveTimeZone },
                 {
                   key: 'operator',
                   title: 'Operator',
@@ -124,7 +126,7 @@ function SitesList({ user }: { user: SessionUser }) {
               <Card key={s.id}>
                 <Text variant="heading">{s.name}</Text>
                 <Text variant="small" muted>
-                  {siteKindLabel[s.kind]} · {s.locality ?? '—'} · {s.rideCount} rides
+                  {siteKindLabel[s.kind]} · {s.locality ?? '—'} · {s.effectiveTimeZone} · {s.rideCount} rides
                 </Text>
                 <Text variant="small">{s.operatorName}</Text>
                 <Button
@@ -138,6 +140,7 @@ function SitesList({ user }: { user: SessionUser }) {
           )
         }
       </PagedList>
+      {user.role === 'admin' ? <TimeZoneCard /> : null}
     </Screen>
   );
 }

@@ -22,13 +22,24 @@ export const timeZoneSchema = z
     if (problem) ctx.addIssue({ code: 'custom', message: problem });
   });
 
+/** A site's zone as a form sends it: empty (or null) = the inspection body's default. */
+const siteTimeZoneSchema = z
+  .string()
+  .trim()
+  .max(64)
+  .superRefine((zone, ctx) => {
+    const problem = zone === '' ? null : timeZoneProblem(zone);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  })
+  .transform((zone) => (zone === '' ? null : zone));
+
 export const siteInputSchema = z.object({
   name: requiredText(120),
   kind: siteKindSchema,
   address: nullableText(300).optional(),
   locality: nullableText(120).optional(),
   /** The site's IANA time zone; null or absent = the inspection body's default. */
-  timeZone: timeZoneSchema.nullable().optional(),
+  timeZone: siteTimeZoneSchema.nullable().optional(),
   operatorCompanyId: id(),
 });
 export type SiteInput = z.output<typeof siteInputSchema>;
