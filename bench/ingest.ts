@@ -12,10 +12,12 @@ import type { InspectionRecord } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';
-import { databaseFileName, openDb } from '@/server/db';
+import { databaseFileName, openDb, type Db } from '@/server/db';
+import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { demoInspectorEmail, seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
+import { statementsFor } from '@/server/sync/ingest-store';
 import { MAX_BATCH } from '@/features/sync/push';
 import { sqliteOf } from '@/server/sqlite-client';
 
@@ -179,12 +181,31 @@ function insertLike(sqlite: ReturnType<typeof sqliteOf>, table: string, row: Row
   );
 }
 
+/**
+ * The raw side prepares its statements before its timer; a running server's connection has the push's
+ * prepared since its first push. So the push's are prepared here too, on each fresh copy, changing
+ * nothing: the store's statements, and the queue refresh's in a transaction that is rolled back.
+ */
+function prepareLikeARunningServer(db: Db) {
+  statementsFor(db);
+  const rollBack = new Error('roll back');
+  try {
+    db.transaction((tx) => {
+      refreshQueueInspections(tx, queueDay(db), [randomUUID()]);
+      throw rollBack;
+    });
+  } catch (err) {
+    if (err !== rollBack) throw err;
+  }
+}
+
 /** The push service, batch by batch as the phone sends them, then the analysis of what it stored. */
 async function timePush(a: ReturnType<typeof freshCopy>, records: InspectionRecord[], inspectorId: string) {
   const db = a.open();
   const user = findSessionUser(db.db, inspectorId);
   if (!user) throw new Error('no demo inspector');
   const settings = settingsOf(sqliteOf(db.db));
+  prepareLikeARunningServer(db.db);
   const receivedAt = new Date();
   let t0 = now();
   const c0 = cpuNow();
