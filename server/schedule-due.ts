@@ -12,8 +12,8 @@ import { eq, isNotNull, sql, type SQL } from 'drizzle-orm';
 
 import { settings } from '@/db/server/instruments';
 import { inspectionSchedules, rides, sites } from '@/db/server/schema';
-import { dueWindowDays, inspectionTypes, type DueStatus } from '@/features/registry/schema';
-import { addDays, dayInZone, daysBetween, FALLBACK_TIME_ZONE, isIsoDay, isTimeZone } from '@/lib/dates';
+import { dueStatusOn, dueWindowDays, inspectionTypes, type DueStatus } from '@/features/registry/schema';
+import { addDays, dayInZone, FALLBACK_TIME_ZONE, isIsoDay, isTimeZone } from '@/lib/dates';
 import type { Db } from '@/server/db';
 
 type Reader = Pick<Db, 'select'>;
@@ -104,12 +104,11 @@ export function nextDueOn(s: {
   return null;
 }
 
-export function dueStatusOf(type: keyof typeof dueWindowDays, next: string | null, today: string): DueStatus {
-  if (next === null) return 'unscheduled';
-  const days = daysBetween(today, next);
-  if (days < 0) return 'overdue';
-  return days <= dueWindowDays[type] ? 'due' : 'upcoming';
-}
+export const dueStatusOf = (
+  type: keyof typeof dueWindowDays,
+  next: string | null,
+  today: string,
+): DueStatus => dueStatusOn(type, next, today);
 
 // The same two rules in SQL, for filtering and sorting whole lists in the database.
 export const nextDueSql = sql`COALESCE(${inspectionSchedules.dueOn}, CASE WHEN ${inspectionSchedules.lastDoneOn} IS NOT NULL AND ${inspectionSchedules.intervalDays} IS NOT NULL THEN date(${inspectionSchedules.lastDoneOn}, '+' || ${inspectionSchedules.intervalDays} || ' days') END)`;

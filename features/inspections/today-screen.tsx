@@ -11,11 +11,11 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
-import { formatLocalStamp, longDate } from '@/lib/dates';
+import { formatDate, formatLocalStamp, localDay, longDate } from '@/lib/dates';
 import { firstName, greeting } from '@/lib/greeting';
 import { useFieldRidesQuery, useStartInspectionMutation } from '@/features/inspections/field-api';
 import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
-import { scheduleSchema } from '@/features/registry/schema';
+import { dueStatusOn, scheduleSchema } from '@/features/registry/schema';
 import { rideHref } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref } from '@/features/inspections/hrefs';
@@ -105,6 +105,9 @@ function RideToInspect({ entry }: { entry: Entry }) {
   const [choosing, setChoosing] = useState(false);
   const schedule = entry.assignment ? scheduleSchema.safeParse(entry.assignment) : null;
   const assigned = schedule?.success ? schedule.data : null;
+  // Due and overdue on the site's clock, worked out now (offline too), not as of the last pull.
+  const siteToday = localDay(new Date(), entry.ride.siteTimeZone);
+  const dueStatus = assigned ? dueStatusOn(assigned.inspectionType, assigned.nextDueOn, siteToday) : null;
   const begin = (type: InspectionType) =>
     start.mutate({ rideId: entry.ride.id, type }, { onSuccess: (d) => router.push(inspectHref(d.id)) });
   return (
@@ -126,10 +129,10 @@ function RideToInspect({ entry }: { entry: Entry }) {
         <RideStatusMark status={entry.ride.status} compact />
       </View>
       {assigned ? (
-        <Text variant="small" color={assigned.dueStatus === 'overdue' ? colors.over : colors.text}>
+        <Text variant="small" color={dueStatus === 'overdue' ? colors.over : colors.text}>
           Assigned: {inspectionTypeLabel[assigned.inspectionType]}
-          {assigned.nextDueOn ? ` · due ${assigned.nextDueOn}` : ''}
-          {assigned.dueStatus === 'overdue' ? ' · overdue' : ''}
+          {assigned.nextDueOn ? ` · due ${formatDate(assigned.nextDueOn)}` : ''}
+          {dueStatus === 'overdue' ? ' · overdue' : ''}
         </Text>
       ) : null}
       {choosing ? (

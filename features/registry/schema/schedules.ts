@@ -4,7 +4,7 @@ import { listOf } from '@/features/registry/schema/rides';
 import { rideClassSchema, rideStatusSchema } from '@/features/rides/schema';
 import { z } from 'zod';
 
-import { isRealIsoDay } from '@/lib/dates';
+import { daysBetween, isRealIsoDay } from '@/lib/dates';
 import { inspectionTypes, inspectionTypeVocabulary, labelsOf } from '@/lib/vocabulary';
 
 // ——— schedules and assignments ———
@@ -32,6 +32,18 @@ export const dueWindowDays: Record<InspectionType, number> = {
 export const dueStatuses = ['overdue', 'due', 'upcoming', 'unscheduled'] as const;
 export const dueStatusSchema = z.enum(dueStatuses);
 export type DueStatus = z.infer<typeof dueStatusSchema>;
+
+/**
+ * A schedule's due status on `today` (the date on its site's clock): overdue the day after its due date,
+ * due within its type's window, else upcoming. The server (server/schedule-due.ts) and the phone, which
+ * works it out offline from the ride's `siteTimeZone`, share it.
+ */
+export function dueStatusOn(type: InspectionType, next: string | null, today: string): DueStatus {
+  if (next === null) return 'unscheduled';
+  const days = daysBetween(today, next);
+  if (days < 0) return 'overdue';
+  return days <= dueWindowDays[type] ? 'due' : 'upcoming';
+}
 
 /** A calendar date, YYYY-MM-DD. */
 export const calendarDate = () =>
