@@ -19,7 +19,7 @@ import {
   hasTodaySnapshot,
   readTodaySnapshot,
   writeTodaySnapshot,
-} from '@/features/device-db/today-snapshot';
+} from '@/features/session/today-snapshot';
 import {
   SEEDED_AT,
   followTodaySnapshot,
