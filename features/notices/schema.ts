@@ -45,6 +45,8 @@ export const noticeDocumentSchema = z.object({
     year: z.number().int().nullable(),
   }),
   site: z.object({ name: z.string(), address: z.string().nullable() }).nullable(),
+  /** The site's IANA zone when issued: times print on its clock, named. Absent on older notices (UTC). */
+  timeZone: z.string().optional(),
   /** Null for a notice of a status change made outside an inspection. */
   inspection: z
     .object({

@@ -28,7 +28,7 @@ import {
   auditEntities,
   auditListQuerySchema,
 } from '@/features/registry/schema';
-import { formatDateTime } from '@/lib/dates';
+import { deviceTimeZone, formatDateTime, zoneLabel } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
 import { rideHref } from '@/features/rides';
 import { useUnitSystem } from '@/features/settings';
@@ -99,7 +99,10 @@ function Audit({ user }: { user: SessionUser }) {
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
 
   return (
-    <Screen title="Audit log" subtitle="Every change to the register, with who made it and when.">
+    <Screen
+      title="Audit log"
+      subtitle={`Every change to the register, with who made it and when (times in ${zoneLabel(new Date(), deviceTimeZone())}).`}
+    >
       <RegisterTabs role={user.role} />
       <FilterPanel
         active={

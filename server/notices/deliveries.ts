@@ -108,7 +108,7 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
     ...(inspection ? [['Inspection', inspection] as [string, string]] : []),
     ['Operating status', status],
     ['Re-inspection', reinspection],
-    ['Issued', `${formatWhen(doc.issuedAt)} by ${doc.signature.name}, ${doc.signature.role}`],
+    ['Issued', `${formatWhen(doc.issuedAt, doc.timeZone)} by ${doc.signature.name}, ${doc.signature.role}`],
   ];
 
   const text = [

@@ -38,6 +38,7 @@ import {
   withCause,
 } from '@/server/notices/document-parts';
 import { recordAudit } from '@/server/registry/audit';
+import { rideTimeZone } from '@/server/schedule-due';
 
 export type NoticeTx = Pick<Db, 'select' | 'insert' | 'update' | 'run' | 'get' | 'all'>;
 
@@ -154,6 +155,8 @@ function commonParts(tx: NoticeTx, rideId: string, input: Common) {
     site: ride.siteName
       ? { name: ride.siteName, address: joinLines(ride.siteAddress, ride.siteLocality) }
       : null,
+    // The site's clock, frozen with the notice: its PDF and e-mail print times on it, named.
+    timeZone: rideTimeZone(tx, rideId),
     appeal: appealText(issuer.name, ref.reference),
     caution: CAUTION_FULL,
     signature: signerOf(tx, input.userId, issuedAt),

@@ -107,7 +107,7 @@ export function drawFooters(l: Layout, n: NoticeDocument) {
     const pw = textWidth(l, pageWord, { ...s, font: 'semibold' });
     drawLine(
       l,
-      `${titleOf(n)} ${n.reference}  ·  issued ${formatWhenDay(n.issuedAt)}  ·  ${n.issuer.name}`,
+      `${titleOf(n)} ${n.reference}  ·  issued ${formatWhenDay(n.issuedAt, n.timeZone)}  ·  ${n.issuer.name}`,
       s,
       l.left,
       y + 7,
@@ -143,7 +143,7 @@ export function titleBlock(l: Layout, n: NoticeDocument, band: number) {
   ry += lineHeight(l, refStyle) + 3;
   draw(l, 'ISSUED', S.label, rx, ry, refW, 'right');
   ry += lineHeight(l, S.label);
-  draw(l, formatWhen(n.issuedAt), { ...S.body, font: 'semibold' }, rx, ry, refW, 'right');
+  draw(l, formatWhen(n.issuedAt, n.timeZone), { ...S.body, font: 'semibold' }, rx, ry, refW, 'right');
   ry += lineHeight(l, S.body);
 
   l.y = Math.max(y + leftH, ry) + 10;

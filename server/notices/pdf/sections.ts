@@ -123,7 +123,7 @@ export function inspectionPairs(n: NoticeDocument): { left: Pair[]; right: Pair[
     : 'No checklist recorded';
   return {
     left: [
-      ['Date', formatWhen(i.date), S.bodyStrong],
+      ['Date', formatWhen(i.date, n.timeZone), S.bodyStrong],
       ['Type', i.typeLabel],
       ['Inspector', i.inspectorName],
       ['Credential', orNot(i.inspectorCredential)],

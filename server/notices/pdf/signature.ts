@@ -26,7 +26,7 @@ function signatureParts(l: Layout, n: NoticeDocument) {
   const leftPairs: Pair[] = [
     ['Name', sig.name, S.bodyStrong],
     ['Role', sig.role],
-    ['Date', formatWhen(sig.signedAt)],
+    ['Date', formatWhen(sig.signedAt, n.timeZone)],
   ];
   const rows = ['Name', 'Role', 'Date'];
   const introL = `Issued for ${n.issuer.name}`;
