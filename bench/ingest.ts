@@ -8,7 +8,7 @@ import { desc, eq } from 'drizzle-orm';
 import { benchReadings } from '@/bench/readings';
 import { designVersions, rides, users } from '@/db/server/schema';
 import { analyseInspection, previewOf } from '@/features/records/analysis';
-import type { InspectionRecord } from '@/features/records/schema';
+import { PUSH_MAX_RECORDS, type InspectionRecord } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';
@@ -18,15 +18,14 @@ import { demoInspectorEmail, seedDemoData } from '@/server/seed/demo';
 import { analysePending } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
 import { statementsFor } from '@/server/sync/ingest-store';
-import { MAX_BATCH } from '@/features/sync/push';
 import { sqliteOf } from '@/server/sqlite-client';
 
 /**
  * Server ingest of a phone's push: 500 inspections with 10 readings each (5,000 readings), sent in the
- * phone's batches (MAX_BATCH, features/sync/push.ts) through the push service (validation, ride and design
- * checks, duplicate check, the accepted records stored together, the review queue's rows, the batch's stored
- * answer), against a raw better-sqlite3 prepared insert of the same inspection and reading rows in one
- * transaction, measured in the same run on fresh copies of the same seeded database. Then the follow-up
+ * phone's batches (PUSH_MAX_RECORDS a request, as features/sync/push.ts sends them) through the push
+ * service (validation, ride and design checks, duplicate check, the accepted records stored together, the
+ * review queue's rows, the batch's stored answer), against a raw better-sqlite3 prepared insert of the same
+ * rows in one transaction, measured in the same run on fresh copies of the same seeded database. Then the follow-up
  * analysis of those 500 with the load engine, separately. Target (issue 16): ingest ≥ 65 % of the raw
  * insert's rate, median of the paired runs.
  *
@@ -44,8 +43,12 @@ import { sqliteOf } from '@/server/sqlite-client';
 
 const INSPECTIONS = 500;
 const READINGS_PER = 10;
-/** The phone's batch size: the bench pushes as the phone does. */
-const BATCH = MAX_BATCH;
+/**
+ * The phone's batch size (features/sync/push.ts sends PUSH_MAX_RECORDS a request): the bench pushes as the
+ * phone does. Read from the shared schema rather than the phone's sync code, which brings the device
+ * database with it.
+ */
+const BATCH = PUSH_MAX_RECORDS;
 const REPEATS = 7;
 
 const now = () => performance.now();
