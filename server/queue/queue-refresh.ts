@@ -18,6 +18,7 @@ import { rideLifeFlags } from '@/db/server/ndt';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
 import { nextDueSql, rideTodaySql, zoneDays } from '@/server/schedule-due';
+import { sqliteOf } from '@/server/sqlite-client';
 
 type Tx = Pick<Db, 'run'> | Pick<Db, 'run' | 'select'>;
 
@@ -337,8 +338,42 @@ export function refreshQueueInspections(db: Tx, today: string, inspectionIds: re
   refresh(db, today, 'inspections', inspectionIds);
 }
 
-/** Per database: the clock the whole queue was last rebuilt at, and the zones' days it gave. */
-const sweptOn = new WeakMap<object, { clock: string; days: string }>();
+/**
+ * Per database: the clock the whole queue was last rebuilt at, the zones' days it gave, and when those
+ * days were last found unchanged (see `unchangedSince`).
+ */
+type Swept = { clock: string; days: string; checked: Check | null };
+const sweptOn = new WeakMap<object, Swept>();
+
+/**
+ * Every zone's midnight falls on a quarter hour of UTC (offsets are whole quarter hours), so within one
+ * quarter hour no site's date can change: the zones' days found for one instant hold for the rest of it,
+ * as long as nothing was written that could change which zones there are (a refresh in this process, a
+ * commit by another connection).
+ */
+const QUARTER_HOUR_MS = 15 * 60 * 1000;
+type Check = { slot: number; generation: number; version: number };
+const dataVersions = new WeakMap<Database.Database, Database.Statement<[], number>>();
+
+function checkOf(db: Db, clock: string): Check | null {
+  const at = Date.parse(clock);
+  // A pinned YYYY-MM-DD costs nothing to compare; only instants are worth remembering.
+  if (/^\d{4}-\d{2}-\d{2}$/.test(clock) || Number.isNaN(at)) return null;
+  const sqlite = sqliteOf(db);
+  let version = dataVersions.get(sqlite);
+  if (!version) {
+    version = sqlite.prepare<[], number>('PRAGMA data_version').pluck();
+    dataVersions.set(sqlite, version);
+  }
+  return {
+    slot: Math.floor(at / QUARTER_HOUR_MS),
+    generation,
+    version: version.get() ?? 0,
+  };
+}
+
+const sameCheck = (a: Check | null, b: Check | null) =>
+  a !== null && b !== null && a.slot === b.slot && a.generation === b.generation && a.version === b.version;
 
 /**
  * The clock to refresh a few rides at, from a write path: the one the whole queue was last rebuilt at, so
@@ -348,11 +383,19 @@ export const queueDay = (db: Db, now: Date = new Date()): string => sweptOn.get(
 
 /**
  * Rebuilds the whole queue the first time it is read after a new day begins at any site (and after
- * start-up): its overdue rows move with each site's date alone.
+ * start-up): its overdue rows move with each site's date alone. It is asked on every read of the queue,
+ * so the zones' days (two queries and a date per zone) are worked out again only in a new quarter hour
+ * or after a write.
  */
 export function ensureQueueFresh(db: Db, today: string): void {
+  const swept = sweptOn.get(db);
+  const check = swept ? checkOf(db, today) : null;
+  if (swept && sameCheck(swept.checked, check)) return;
   const days = zoneDays(db, today);
-  if (sweptOn.get(db)?.days === days) return;
+  if (swept?.days === days) {
+    swept.checked = check;
+    return;
+  }
   db.transaction((tx) => refreshQueue(tx, today));
-  sweptOn.set(db, { clock: today, days });
+  sweptOn.set(db, { clock: today, days, checked: checkOf(db, today) });
 }
