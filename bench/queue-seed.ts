@@ -26,11 +26,11 @@ import { users } from '@/db/server/schema';
 import type { InspectionRecord } from '@/features/records/schema';
 import { inspectionTypes } from '@/features/registry/schema';
 import { rideClasses, type RideClass } from '@/features/rides/schema';
-import { addDays } from '@/lib/dates';
+import { addDays, isoDay } from '@/lib/dates';
 import type { Db } from '@/server/db';
 import { loadConfig } from '@/server/config';
 import { openDb } from '@/server/db';
-import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
+import { refreshQueue } from '@/server/queue/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
 import { sqliteOf } from '@/server/sqlite-client';
 
@@ -410,7 +410,8 @@ export async function seed(): Promise<Seeded> {
   await seedDemoData(db, config);
   const sqlite = sqliteOf(db);
   const rnd = random(6);
-  const today = queueToday();
+  // A calendar date (the queue's clock is now an instant; the seed counts its dates in days from this one).
+  const today = isoDay(new Date());
   const now = new Date().toISOString();
   const byClass = templates();
   const staff = db
