@@ -10,7 +10,8 @@
  * touch target is 48 (components/theme.ts, the product outline asks for ≥ 44).
  */
 import { ScrollView, StyleSheet, Text, type View } from 'react-native';
-import { act, fireEvent, render, screen, waitFor, within } from 'expo-router/testing-library';
+import { act, render } from '@testing-library/react-native';
+import { fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
 import { Button } from '@/components/button';
 import { ChoiceChips } from '@/components/choice-chips';
