@@ -1,17 +1,18 @@
-import { router } from 'expo-router';
+import { Link, router } from 'expo-router';
 import { useState } from 'react';
-import { StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import Feather from '@/components/feather-icon';
 import { SectionTitle } from '@/components/screen';
 import { Text } from '@/components/text';
-import { colors, radius, space } from '@/components/theme';
+import { colors, layout, radius, space } from '@/components/theme';
 import { useStartCorrectionMutation, useStartInspectionMutation } from '@/features/inspections/field-api';
 import { inspectHref } from '@/features/inspections/hrefs';
 import { ReportDownload } from '@/features/inspections/report-download';
 import { inspectionTypeLabel } from '@/features/records/schema';
+import { rideHref } from '@/features/rides';
 import { type FindingView, type SentInspection, groupSent } from '@/features/inspections/sent';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import type { FindingSeverity } from '@/features/review/schema';
@@ -133,7 +134,18 @@ function SentCard({ item }: { item: SentInspection }) {
       accessibilityLabel={`${title}: ${stages[stage].label}`}
     >
       <View style={styles.shrink}>
-        <Text variant="heading">{title}</Text>
+        {item.rideId ? (
+          // The ride's name opens the ride's page (its status, schedule and Start inspection).
+          <Link href={rideHref(item.rideId)} asChild>
+            <Pressable role="link" style={styles.name}>
+              <Text variant="heading" color={colors.accent}>
+                {title} ›
+              </Text>
+            </Pressable>
+          </Link>
+        ) : (
+          <Text variant="heading">{title}</Text>
+        )}
         <Text variant="small" muted>
           {item.submittedAt ? `Submitted ${formatDateTime(item.submittedAt)}` : 'Sent from another device'}
           {item.amends ? ' · a correction' : ''}
@@ -271,6 +283,7 @@ export function SentInspections({ list }: { list: SentInspection[] }) {
 
 const styles = StyleSheet.create({
   shrink: { flexShrink: 1, gap: 2 },
+  name: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
   mark: {
     flexDirection: 'row',
     alignItems: 'center',
