@@ -118,9 +118,9 @@ function identity(doc: Doc, r: InspectionReport) {
   pairs(doc, [
     ['Type', inspectionTypeLabel[i.type] ?? i.type],
     ['Inspector', i.inspectorName],
-    ['Started', formatWhen(i.startedAt)],
-    ['Submitted on the phone', formatWhen(i.submittedAt)],
-    ['Received by the server', formatWhen(i.receivedAt)],
+    ['Started', formatWhen(i.startedAt, r.ride.siteTimeZone)],
+    ['Submitted on the phone', formatWhen(i.submittedAt, r.ride.siteTimeZone)],
+    ['Received by the server', formatWhen(i.receivedAt, r.ride.siteTimeZone)],
     ['Design data', i.designVersion ? `Version ${i.designVersion}` : 'None on record'],
     ['Review', reviewStateLabel[i.reviewState]],
     ...(i.reviewNote ? [['Reviewer’s note', i.reviewNote] as [string, string]] : []),
@@ -144,7 +144,7 @@ function declaration(doc: Doc, r: InspectionReport) {
   doc
     .moveDown(0.3)
     .fillColor(C.textMuted)
-    .text(`Declared by ${d.declaredByName} on ${formatWhen(d.declaredAt)}.`);
+    .text(`Declared by ${d.declaredByName} on ${formatWhen(d.declaredAt, r.ride.siteTimeZone)}.`);
 }
 
 function checklist(doc: Doc, r: InspectionReport) {
@@ -181,7 +181,7 @@ function readings(doc: Doc, r: InspectionReport) {
       `${x.label || readingKindLabel[x.kind]}${x.joint === null ? '' : ` (P${x.joint + 1})`}`,
       readingValue(x),
       measuredWithWords(x),
-      formatWhen(x.takenAt),
+      formatWhen(x.takenAt, r.ride.siteTimeZone),
       notes.join(' · '),
     ];
   });
@@ -193,7 +193,7 @@ function photos(doc: Doc, r: InspectionReport) {
   const rows = r.inspection.photos.map((p) => [
     p.caption || 'No caption',
     p.joint === null ? '' : `P${p.joint + 1}`,
-    formatWhen(p.takenAt),
+    formatWhen(p.takenAt, r.ride.siteTimeZone),
     `${p.sha256.slice(0, 16)}…`,
     p.received ? 'Received' : 'Not yet received',
   ]);
@@ -279,7 +279,7 @@ function footers(doc: Doc, r: InspectionReport) {
       .fontSize(7.5)
       .fillColor(C.textMuted)
       .text(
-        `Pivotwatch inspection report · ${r.ride.name} · copy for ${r.printedFor}, ${formatWhen(r.printedAt)} · page ${p - range.start + 1} of ${range.count}`,
+        `Pivotwatch inspection report · ${r.ride.name} · copy for ${r.printedFor}, ${formatWhen(r.printedAt, r.ride.siteTimeZone)} · page ${p - range.start + 1} of ${range.count}`,
         MARGIN,
         y,
         { width: doc.page.width - 2 * MARGIN, lineBreak: false },
@@ -304,7 +304,7 @@ export function renderInspectionReportPdf(r: InspectionReport, paper: ReportPape
     .font('semibold')
     .fontSize(12)
     .fillColor(C.text)
-    .text(`${r.ride.name} — ${formatWhen(i.submittedAt)}`);
+    .text(`${r.ride.name} — ${formatWhen(i.submittedAt, r.ride.siteTimeZone)}`);
   identity(doc, r);
   declaration(doc, r);
   checklist(doc, r);

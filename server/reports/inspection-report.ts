@@ -9,6 +9,7 @@ import { companies, rides, sites } from '@/db/server/schema';
 import type { SessionUser } from '@/features/session/schema';
 import type { Db } from '@/server/db';
 import { getInspection, type InspectionDetail } from '@/server/sync/read';
+import { siteZoneSql } from '@/server/schedule-due';
 
 export type InspectionReport = {
   inspection: InspectionDetail;
@@ -19,6 +20,8 @@ export type InspectionReport = {
     model: string | null;
     serial: string | null;
     siteName: string | null;
+    /** The site's clock (else the inspection body's default): the report prints its times on it, named. */
+    siteTimeZone: string;
     operatorName: string;
   };
   /** Who asked for this copy and when: printed in the footer, never part of the record. */
@@ -36,6 +39,7 @@ export function inspectionReport(db: Db, user: SessionUser, id: string, now: Dat
       model: rides.model,
       serial: rides.serial,
       siteName: sites.name,
+      siteTimeZone: siteZoneSql,
       operatorName: companies.name,
     })
     .from(rides)

@@ -149,5 +149,7 @@ test('the same report printed at the same moment is the same bytes', async () =>
   const a = await renderInspectionReportPdf(inspectionReport(server.db, session, recordId, at), 'A4');
   const b = await renderInspectionReportPdf(inspectionReport(server.db, session, recordId, at), 'A4');
   expect(a.equals(b)).toBe(true);
-  expect(parse(a).flat).toContain('copy for Tomas Reyne, 5 May 2026, 09:00 UTC');
+  // Printed on the site's clock, named: Tamsworth Pier keeps Europe/London time, BST (UTC+1) in May (IANA
+  // tz database, `europe`: from the last Sunday in March), so 09:00 UTC reads 10:00.
+  expect(parse(a).flat).toContain('copy for Tomas Reyne, 5 May 2026, 10:00 Europe/London (UTC+01:00)');
 });
