@@ -116,7 +116,7 @@ function NoticePage({ notice, user }: { notice: NoticeDetail; user: SessionUser 
   return (
     <SubScreen
       title={notice.reference}
-      subtitle={`${noticeKindLabel[notice.kind]} · ${notice.rideName} · ${notice.operatorName} · ${issuedOn.toLowerCase()}`}
+      subtitle={`${noticeKindLabel[notice.kind]} · ${notice.rideName} · ${notice.operatorName} · as issued on ${formatDate(notice.issuedAt)}`}
       back={back}
       wideContent
     >
