@@ -6,7 +6,7 @@
  */
 import type { DeviceDb } from '@/features/device-db/connection';
 import { countOutbox, listOutbox } from '@/features/device-db/outbox';
-import { deleteDraft, listDrafts, loadDraft, saveDraft } from '@/features/device-db/drafts';
+import { deleteDraft, listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
 
 export const DIAGNOSTICS_FLAG = 'pivotwatch:diagnostics';
 
@@ -25,6 +25,7 @@ export function exposeDiagnostics(db: DeviceDb): void {
       loadDraft: (id: string) => loadDraft(db, id),
       listDrafts: () => listDrafts(db),
       deleteDraft: (id: string) => deleteDraft(db, id),
+      submitDraft: (record: unknown) => submitDraft(db, record),
       listOutbox: () => listOutbox(db),
       countOutbox: () => countOutbox(db),
     },
