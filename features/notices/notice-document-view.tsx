@@ -1,8 +1,10 @@
+import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Card } from '@/components/card';
 import { CAUTION_FULL, Caution } from '@/components/caution';
 import { DataTable } from '@/components/data-table';
+import { DisclosureToggle } from '@/components/disclosure-toggle';
 import { LabelledLine } from '@/components/labelled-line';
 import { EnvelopeMark, RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
@@ -41,9 +43,10 @@ export function NoticeDocumentView({ document: doc }: { document: NoticeDocument
 
       <FindingsAsIssued findings={doc.findings} />
 
-      <ResultsAsIssued doc={doc} />
-
-      {doc.pivotLife ? <PivotLifeAsIssued life={doc.pivotLife} /> : null}
+      <ResultsFold doc={doc}>
+        <ResultsAsIssued doc={doc} />
+        {doc.pivotLife ? <PivotLifeAsIssued life={doc.pivotLife} /> : null}
+      </ResultsFold>
 
       {doc.note ? (
         <Section title="Note from the inspection body">
@@ -201,6 +204,35 @@ function FindingsAsIssued({ findings }: { findings: NoticeDocument['findings'] }
         ))}
       </View>
     </Section>
+  );
+}
+
+/**
+ * The results, load summary and pivot life behind a disclosure: folded on a phone, where they ran to
+ * several screens between the operator and the rest of the notice; open on a desktop. The toggle says
+ * what is folded and how many values are over or near their limits, so nothing alarming hides unseen.
+ */
+function ResultsFold({ doc, children }: { doc: NoticeDocument; children: React.ReactNode }) {
+  const wide = useWide();
+  const [open, setOpen] = useState(wide);
+  if (doc.results.length === 0 && doc.loadSummary.length === 0 && !doc.pivotLife) return null;
+  const over = doc.results.filter((r) => r.status === 'over').length;
+  const near = doc.results.filter((r) => r.status === 'near').length;
+  const parts = [
+    doc.results.length > 0 ? `${doc.results.length} ${doc.results.length === 1 ? 'value' : 'values'}` : null,
+    over > 0 ? `${over} over limit` : null,
+    near > 0 ? `${near} near limit` : null,
+  ].filter(Boolean);
+  const counted = parts.length > 0 ? ` (${parts.join(', ')})` : '';
+  return (
+    <View style={styles.section} accessibilityLabel="Results as issued">
+      <DisclosureToggle
+        open={open}
+        onToggle={() => setOpen(!open)}
+        label={open ? 'Hide the full results' : `Show the full results${counted}`}
+      />
+      {open ? children : null}
+    </View>
   );
 }
 

@@ -20,6 +20,7 @@ import { problemText } from '@/features/notices/corrective-action-form';
 import { FindingLoop } from '@/features/notices/finding-loop';
 import { noticesHref } from '@/features/notices/hrefs';
 import { NoticeDocumentView } from '@/features/notices/notice-document-view';
+import { NoticeSummary } from '@/features/notices/notice-summary';
 import { deliveryStatusLabel, noticeKindLabel } from '@/features/notices/notice-text';
 import { useAcknowledge, useNotice, useResend } from '@/features/notices/notices-api';
 import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-download';
@@ -31,9 +32,11 @@ import { useRideQuery } from '@/features/registry/ui';
 const back = { href: noticesHref, label: 'Notices' } as const;
 
 /**
- * One notice (/notices/:id), the page the e-mail links to. The document as issued, its PDF, the
- * acknowledgement, and each finding's loop as it stands now; staff also see the e-mail deliveries.
- * Phone: one column in that order. Desktop: the document beside everything that can be done about it.
+ * One notice (/notices/:id), the page the e-mail links to, in order of what the reader must do: what the
+ * notice asks (operating status, re-inspection, what to do by when, the caution), the acknowledgement,
+ * each finding's loop as it stands now, the ride's status now, then the document as issued (its results
+ * folded on a phone), its PDF and, for staff, the e-mail deliveries. A phone shows that order in one
+ * column; a desktop puts the summary and the document on the left, what can be done on the right.
  */
 export function NoticeScreen() {
   const params = useLocalSearchParams<{ id?: string }>();
@@ -95,6 +98,8 @@ function NoticePage({ notice, user }: { notice: NoticeDetail; user: SessionUser 
   const staff = user.role !== 'operator';
   const issuedOn = `As issued on ${formatDate(notice.issuedAt)}`;
 
+  const summary = <NoticeSummary notice={notice} />;
+  const acknowledgement = <AcknowledgementPanel notice={notice} user={user} />;
   const document = (
     <View style={styles.block}>
       <Text variant="label" muted role="heading" aria-level={2}>
@@ -103,15 +108,10 @@ function NoticePage({ notice, user }: { notice: NoticeDetail; user: SessionUser 
       <NoticeDocumentView document={notice.document} />
     </View>
   );
-  const side = (
-    <>
-      <PdfPanel notice={notice} />
-      <AcknowledgementPanel notice={notice} user={user} />
-      <RideNow rideId={notice.rideId} />
-      <FindingsNow notice={notice} user={user} />
-      {staff ? <DeliveriesPanel notice={notice} user={user} /> : null}
-    </>
-  );
+  const findings = <FindingsNow notice={notice} user={user} />;
+  const rideNow = <RideNow rideId={notice.rideId} />;
+  const pdf = <PdfPanel notice={notice} />;
+  const deliveries = staff ? <DeliveriesPanel notice={notice} user={user} /> : null;
 
   return (
     <SubScreen
@@ -121,14 +121,32 @@ function NoticePage({ notice, user }: { notice: NoticeDetail; user: SessionUser 
       wideContent
     >
       {wide ? (
-        <Columns>
-          <Column grow={3}>{document}</Column>
-          <Column grow={2}>{side}</Column>
-        </Columns>
+        <>
+          <Columns>
+            <Column grow={3}>{summary}</Column>
+            <Column grow={2}>
+              {acknowledgement}
+              {rideNow}
+            </Column>
+          </Columns>
+          <Columns>
+            <Column grow={3}>{document}</Column>
+            <Column grow={2}>
+              {findings}
+              {pdf}
+              {deliveries}
+            </Column>
+          </Columns>
+        </>
       ) : (
         <>
+          {summary}
+          {acknowledgement}
+          {findings}
+          {rideNow}
           {document}
-          {side}
+          {pdf}
+          {deliveries}
         </>
       )}
     </SubScreen>

@@ -14,7 +14,7 @@ import { createHash } from 'crypto';
 import { fromByteArray } from 'base64-js';
 import { fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
-import { CAUTION_FULL } from '@/components/caution';
+import { CAUTION_FULL, CAUTION_SHORT } from '@/components/caution';
 import { makeQueryClient } from '@/features/api/query-client';
 import type { SessionUser } from '@/features/session/schema';
 import { NoticeListScreen } from '@/features/notices/notice-list-screen';
@@ -495,7 +495,14 @@ describe('an operator', () => {
     expect(within(second).getByLabelText(`Severity: ${severityInfo.fix_by_date.label}`)).toBeTruthy();
     expect(within(second).getByText(/^DUE 20 Jun 2026$/)).toBeTruthy();
 
-    // Results with their envelope marks; the load summary; the note, the appeal and the full caution.
+    // Results with their envelope marks; the load summary (folded on a phone, the toggle counting what is
+    // over and near its limit); the note, the appeal and the full caution.
+    expect(within(doc).queryByText('Main pivot pin diameter')).toBeNull();
+    fireEvent.press(
+      within(doc).getByRole('button', {
+        name: 'Show the full results (2 values, 1 over limit, 1 near limit)',
+      }),
+    );
     expect(within(doc).getByText('Main pivot pin diameter')).toBeTruthy();
     expect(within(doc).getByLabelText('Over limit')).toBeTruthy();
     expect(within(doc).getByLabelText('Near limit')).toBeTruthy();
@@ -509,6 +516,58 @@ describe('an operator', () => {
     const now = screen.getByLabelText('Findings now');
     expect(within(within(now).getByLabelText('Finding 2')).getByText(/^DUE 20 Jun 2026$/)).toBeTruthy();
     expect(within(within(now).getByLabelText('Finding 1')).getByText(/^DUE No due date$/)).toBeTruthy();
+  });
+
+  test('on a phone: status, what to do by when and Acknowledge come before the document and its results', async () => {
+    const view = renderNotices(operator, `/notices/${NOTICE}`);
+    const summary = await screen.findByLabelText('What this notice asks');
+    expect(
+      within(within(summary).getByLabelText('Operating status')).getByLabelText('Out of service'),
+    ).toBeTruthy();
+    expect(within(summary).getByText('Main pivot pin below its wear limit')).toBeTruthy();
+    expect(
+      within(summary).getByText(/^Re-inspection required — The ride returns to service only after/),
+    ).toBeTruthy();
+    // What to do: each finding's required action and when it is due; one that forbids operation without a
+    // date is due before the ride carries riders again (the severity's rule, lib/vocabulary.ts).
+    const toDo = within(summary).getByLabelText('What to do and by when');
+    const first = within(toDo).getByLabelText('To do: finding 1');
+    expect(within(first).getByText('Replace the main pivot pin and bushing.')).toBeTruthy();
+    expect(within(first).getByText('Before the ride carries riders again')).toBeTruthy();
+    expect(within(within(toDo).getByLabelText('To do: finding 2')).getByText('By 20 Jun 2026')).toBeTruthy();
+    // The short safety caution stands in the summary; the document keeps the full one.
+    expect(within(summary).getByText(CAUTION_SHORT)).toBeTruthy();
+
+    // Order on the page (the tree's order is the phone's top-to-bottom order, one column).
+    const order = [
+      summary,
+      screen.getByRole('button', { name: 'Acknowledge receipt' }),
+      screen.getByLabelText('Findings now'),
+      screen.getByLabelText('Notice PW-2026-0007 as issued'),
+      screen.getByRole('button', { name: /^Show the full results/ }),
+    ];
+    const all = view.UNSAFE_root.findAll(() => true);
+    const at = order.map((n) => all.indexOf(n));
+    expect(at.every((i) => i >= 0)).toBe(true);
+    expect([...at].sort((a, b) => a - b)).toEqual(at);
+    // Folded: none of the results' rows are drawn until asked for.
+    expect(screen.queryByText('Main pivot pin diameter')).toBeNull();
+    expect(screen.getByRole('button', { name: /^Show the full results/, expanded: false })).toBeTruthy();
+  });
+
+  test('on a desktop the results are open, and the summary still leads', async () => {
+    mockWide = true;
+    const view = renderNotices(operator, `/notices/${NOTICE}`);
+    const summary = await screen.findByLabelText('What this notice asks');
+    expect(screen.getByText('Main pivot pin diameter')).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'Hide the full results' })).toBeTruthy();
+    const all = view.UNSAFE_root.findAll(() => true);
+    expect(all.indexOf(summary)).toBeLessThan(
+      all.indexOf(screen.getByLabelText('Notice PW-2026-0007 as issued')),
+    );
+    expect(all.indexOf(screen.getByRole('button', { name: 'Acknowledge receipt' }))).toBeLessThan(
+      all.indexOf(screen.getByLabelText('Notice PW-2026-0007 as issued')),
+    );
   });
 
   test('never sees the inspection body’s controls', async () => {
