@@ -1,11 +1,11 @@
 /**
- * Today's snapshot (features/session/today-snapshot.ts) in the query cache: seeded before Today renders, and dropped as soon
+ * Today's snapshot (today-snapshot.ts) in the query cache: seeded before Today renders, and dropped as soon
  * as what it copies changes on the phone.
  */
 import type { QueryClient } from '@tanstack/react-query';
 
 import { fieldKeys } from '@/features/device-db/field-keys';
-import { clearTodaySnapshot, readTodaySnapshot } from '@/features/session';
+import { clearTodaySnapshot, readTodaySnapshot } from '@/features/device-db/today-snapshot';
 
 /** The update time given to seeded data: long out of date, so every reader reads the database at once. */
 export const SEEDED_AT = 1;

@@ -1,14 +1,13 @@
 /**
  * What Today shows — the rides with their drafts, what was sent, and the sync panel's counts — read from
- * the device database, with the last snapshot of them (features/session/today-snapshot.ts) drawn
+ * the device database, with the last snapshot of them (features/device-db/today-snapshot.ts) drawn
  * meanwhile on a reload: the signed-in frame seeds the snapshot into the query cache before Today renders, marked out of date so
  * that Today reads the database at once and replaces it, and saves a new snapshot whenever Today has read.
  */
 import { useEffect, useState } from 'react';
 
 import { useSession } from '@/features/auth';
-import { SEEDED_AT } from '@/features/device-db';
-import { readTodaySnapshot, writeTodaySnapshot } from '@/features/session';
+import { SEEDED_AT, readTodaySnapshot, writeTodaySnapshot } from '@/features/device-db';
 import { useFieldRidesQuery, useSentInspectionsQuery } from '@/features/inspections/field-api';
 import { type SyncStatus, useSyncStatus } from '@/features/sync/ui';
 

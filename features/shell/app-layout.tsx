@@ -3,7 +3,7 @@ import { useEffect } from 'react';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { rememberNextPath, signInHref, useSession } from '@/features/auth';
-import { clearTodaySnapshot } from '@/features/session';
+import { clearTodaySnapshot } from '@/features/device-db';
 import { SignedInFrame, forgetStoredSessionPreload, preloadSignedIn } from '@/features/shell/lazy-screens';
 
 /**

@@ -6,8 +6,7 @@ import { Button } from '@/components/button';
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { bindDeviceOwner } from '@/features/device-db';
-import { clearTodaySnapshot } from '@/features/session';
+import { bindDeviceOwner, clearTodaySnapshot } from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
 
 type State =

@@ -8,9 +8,13 @@ import { FormAlert } from '@/components/form-alert';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { signInHref, useSignOutMutation } from '@/features/auth';
-import { type UnsentWork, countUnsentWork, releaseDeviceOwner } from '@/features/device-db';
+import {
+  type UnsentWork,
+  clearTodaySnapshot,
+  countUnsentWork,
+  releaseDeviceOwner,
+} from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
-import { clearTodaySnapshot } from '@/features/session';
 import { sendable, unsentWorkLines } from '@/features/shell/unsent-work';
 import { useOnline, useSyncStatus } from '@/features/sync/ui';
 

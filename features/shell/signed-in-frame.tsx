@@ -4,11 +4,11 @@ import { useCallback, useEffect, useState } from 'react';
 import {
   type DeviceDb,
   bindDeviceOwner,
+  clearTodaySnapshot,
   followTodaySnapshot,
   seedTodayFromSnapshot,
 } from '@/features/device-db';
 import { DeviceDbProvider, openDeviceDb } from '@/features/device-db/ui';
-import { clearTodaySnapshot } from '@/features/session';
 import type { Role, SessionUser } from '@/features/session/schema';
 import { AppShell } from '@/features/shell/app-shell';
 import { DeviceOwnerGate } from '@/features/shell/device-owner-gate';
@@ -32,7 +32,7 @@ export function SignedInFrame({ user, children }: { user: SessionUser; children:
 
 /**
  * An inspector's pages sit on the device database, bound to them before any screen reads it. With a
- * snapshot of this person's Today (features/session/today-snapshot.ts) the pages render at once, Today from
+ * snapshot of this person's Today (features/device-db/today-snapshot.ts) the pages render at once, Today from
  * the snapshot, while the database opens and is bound: every statement waits for that (provider.tsx,
  * `early`). Without one — a first visit, after a sign-out, another person — they wait as before.
  */

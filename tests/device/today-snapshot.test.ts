@@ -19,7 +19,7 @@ import {
   hasTodaySnapshot,
   readTodaySnapshot,
   writeTodaySnapshot,
-} from '@/features/session/today-snapshot';
+} from '@/features/device-db/today-snapshot';
 import {
   SEEDED_AT,
   followTodaySnapshot,
