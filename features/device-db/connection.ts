@@ -50,7 +50,7 @@ export function createDeviceDb(execute: SqlExecutor, close: () => Promise<void> 
     },
   };
 
-  const handle: DeviceDb = {
+  return {
     db: queued,
     transaction: (fn) =>
       mutex.runExclusive(async () => {
@@ -69,50 +69,5 @@ export function createDeviceDb(execute: SqlExecutor, close: () => Promise<void> 
         }
       }),
     close: () => mutex.runExclusive(close),
-  };
-  rawExecutors.set(handle, execute);
-  return handle;
-}
-
-/** Each handle's own executor, for a gated handle taking over from it (below). */
-const rawExecutors = new WeakMap<DeviceDb, SqlExecutor>();
-
-/** A handle handed out before the database is ready, and what makes it ready. */
-export type GatedDeviceDb = {
-  /** Usable at once; its statements wait until `open`, and fail with the reason given to `fail`. */
-  dev: DeviceDb;
-  /** From now on the statements run on `ready` (itself no longer to be used directly). */
-  open(ready: DeviceDb): void;
-  fail(reason: unknown): void;
-};
-
-/**
- * A device database handle that screens may take before the database has opened (migrated, bound to its
- * person): every statement, transactions included, waits until `open` and then runs on that database in
- * the order given. Lets a screen render from other sources meanwhile without any read running early.
- */
-export function createGatedDeviceDb(): GatedDeviceDb {
-  let open!: (execute: SqlExecutor) => void;
-  let fail!: (reason: unknown) => void;
-  const ready = new Promise<SqlExecutor>((resolve, reject) => {
-    open = resolve;
-    fail = reject;
-  });
-  // Nobody may be waiting yet: a failure is still reported to every later statement.
-  ready.catch(() => undefined);
-  let closeReady: () => Promise<void> = async () => {};
-  const dev = createDeviceDb(
-    (sql, params, method) => ready.then((execute) => execute(sql, params, method)),
-    () => ready.then(() => closeReady()),
-  );
-  return {
-    dev,
-    open: (db) => {
-      const execute = rawExecutors.get(db);
-      if (!execute) throw new Error('Not a device database handle.');
-      closeReady = () => db.close();
-      open(execute);
-    },
-    fail: (reason) => fail(reason),
   };
 }

@@ -24,15 +24,3 @@ export {
 export type { UnsentWork } from '@/features/device-db/device-owner';
 export { pruneDevice } from '@/features/device-db/prune';
 export type { PruneReport } from '@/features/device-db/prune';
-export {
-  clearTodaySnapshot,
-  hasTodaySnapshot,
-  readTodaySnapshot,
-  writeTodaySnapshot,
-} from '@/features/device-db/today-snapshot';
-export type { TodaySnapshot } from '@/features/device-db/today-snapshot';
-export {
-  SEEDED_AT,
-  followTodaySnapshot,
-  seedTodayFromSnapshot,
-} from '@/features/device-db/today-snapshot-cache';

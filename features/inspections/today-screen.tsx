@@ -13,7 +13,11 @@ import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
 import { formatDate, formatLocalStamp, localDay, longDate } from '@/lib/dates';
 import { firstName, greeting } from '@/lib/greeting';
-import { useFieldRidesQuery, useStartInspectionMutation } from '@/features/inspections/field-api';
+import {
+  useFieldRidesQuery,
+  useSentInspectionsQuery,
+  useStartInspectionMutation,
+} from '@/features/inspections/field-api';
 import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
 import { dueStatusOn, scheduleSchema } from '@/features/registry/schema';
 import { rideHref } from '@/features/rides';
@@ -21,7 +25,7 @@ import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
-import { useTodayData } from '@/features/inspections/use-today-data';
+import { useSyncStatus } from '@/features/sync/ui';
 
 /**
  * The inspector's day, read from the phone: inspections a supervisor returned for correction, drafts to
@@ -29,10 +33,11 @@ import { useTodayData } from '@/features/inspections/use-today-data';
  * the phone has synced.
  */
 export function TodayScreen() {
-  // From the phone's database; on a reload, from the last snapshot until the database answers.
-  const { rides, sent, sync } = useTodayData();
+  const rides = useFieldRidesQuery();
+  const sent = useSentInspectionsQuery();
   const returned = sent.data?.filter((s) => s.needsAction) ?? [];
   const others = sent.data?.filter((s) => !s.needsAction) ?? [];
+  const sync = useSyncStatus();
   const wide = useWide();
   // First visit on a fresh phone: fetch the round while there is a connection. Only once the phone's own
   // record of the last sync has been read: before that every opening of Today looks like a first visit.

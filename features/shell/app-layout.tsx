@@ -3,7 +3,6 @@ import { useEffect } from 'react';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { rememberNextPath, signInHref, useSession } from '@/features/auth';
-import { clearTodaySnapshot } from '@/features/device-db';
 import { SignedInFrame, forgetStoredSessionPreload, preloadSignedIn } from '@/features/shell/lazy-screens';
 
 /**
@@ -17,11 +16,7 @@ export function AppLayout() {
   const signedOut = !session.isPending && !session.data;
   useEffect(() => {
     if (role) preloadSignedIn(role);
-    else if (signedOut) {
-      forgetStoredSessionPreload();
-      // Signed out (or the session ended): no one's Today is drawn before the next binding.
-      clearTodaySnapshot();
-    }
+    else if (signedOut) forgetStoredSessionPreload();
   }, [role, signedOut]);
   if (session.isPending) {
     // While the session loads this layout renders no Slot, and the router falls back to "/" (which then

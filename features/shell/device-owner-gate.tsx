@@ -6,7 +6,7 @@ import { Button } from '@/components/button';
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { bindDeviceOwner, clearTodaySnapshot } from '@/features/device-db';
+import { bindDeviceOwner } from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
 
 type State =
@@ -28,10 +28,7 @@ export function DeviceOwnerGate({ userId, children }: { userId: string; children
     bindDeviceOwner(dev, userId).then(
       ({ changed }) => {
         // Reads of the device made for someone else must not be shown from memory either.
-        if (changed) {
-          client.removeQueries({ predicate: (q) => q.queryKey[0] !== 'auth' });
-          clearTodaySnapshot();
-        }
+        if (changed) client.removeQueries({ predicate: (q) => q.queryKey[0] !== 'auth' });
         if (live) setState({ status: 'bound', userId });
       },
       (err: unknown) => {

@@ -8,12 +8,7 @@ import { FormAlert } from '@/components/form-alert';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 import { signInHref, useSignOutMutation } from '@/features/auth';
-import {
-  type UnsentWork,
-  clearTodaySnapshot,
-  countUnsentWork,
-  releaseDeviceOwner,
-} from '@/features/device-db';
+import { type UnsentWork, countUnsentWork, releaseDeviceOwner } from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
 import { sendable, unsentWorkLines } from '@/features/shell/unsent-work';
 import { useOnline, useSyncStatus } from '@/features/sync/ui';
@@ -47,11 +42,8 @@ export function InspectorSignOut() {
   const [checking, setChecking] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
 
-  const leave = () => {
-    // Whoever signs in next must not see this person's Today, even for a moment.
-    clearTodaySnapshot();
+  const leave = () =>
     signOut.mutate({ beforeClear: () => releaseDeviceOwner(dev) }, { onSettled: goToSignIn });
-  };
 
   const start = async () => {
     setChecking(true);
