@@ -4,7 +4,7 @@
  * and the load check's envelope table formats the same values to the same strings.
  */
 import { QueryClientProvider } from '@tanstack/react-query';
-import { render, screen, within } from '@testing-library/react-native';
+import { fireEvent, render, screen, within } from '@testing-library/react-native';
 
 import { makeQueryClient } from '@/features/api/query-client';
 import { EnvelopeTable } from '@/features/loads/envelope-table';
@@ -52,6 +52,8 @@ test('the notice view prints the document’s strings, the share of the limit by
       <NoticeDocumentView document={{ ...fixtureNotice, findings: [], results }} />
     </QueryClientProvider>,
   );
+  // On a phone the results are folded below what the notice asks; open them as the operator would.
+  fireEvent.press(screen.getByRole('button', { name: /^Show the full results/ }));
   for (const s of limitStrings) {
     const row = rowOf(s.label);
     expect(within(row).getByText(s.value)).toBeTruthy();
