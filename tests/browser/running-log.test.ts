@@ -106,6 +106,13 @@ test('a notice carries the ride’s life as issued, read by the operator at both
   for (const size of ['phone', 'desktop'] as const) {
     const page = await app.signedIn(size, 'operator@pivotwatch.test');
     await page.goto(`${app.baseUrl}/notices/${notice.id}`);
+    // On a phone the document's results and life are folded below what the notice asks: open them.
+    if (size === 'phone') {
+      await page
+        .getByRole('button')
+        .filter({ hasText: /Show the full results/ })
+        .click({ timeout: 60_000 });
+    }
     const life = page.getByText(/^PIVOT LIFE AS OF /);
     await life.waitFor({ timeout: 60_000 });
     await life.scrollIntoViewIfNeeded();
