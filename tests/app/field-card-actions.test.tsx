@@ -15,6 +15,7 @@ import type { SentInspection } from '@/features/inspections/sent';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { newDraft } from '@/features/records/draft';
 import type { RideSummary } from '@/features/rides/schema';
+import { makeRideSummary } from '@/tests/support/inspection-fixtures';
 import type { SessionUser } from '@/features/session/schema';
 import type { SyncApi } from '@/features/sync/api';
 import { pull } from '@/features/sync/pull';
@@ -40,23 +41,11 @@ const inspector: SessionUser = {
   companyId: null,
   companyName: null,
 };
-const ride: RideSummary = {
+const ride: RideSummary = makeRideSummary({
   id: 'ride-kestrel',
   name: 'Kestrel Loop',
   rideClass: 'pendulum_swing',
-  description: null,
-  maker: null,
-  model: null,
-  serial: null,
-  year: null,
-  status: 'in_service',
-  statusReason: null,
-  statusSince: null,
-  siteId: null,
-  siteName: null,
-  operatorCompanyId: 'op-1',
-  operatorName: 'Tamsworth Pier Leisure',
-};
+});
 
 let dev: MemoryDeviceDb;
 let clients: ReturnType<typeof makeQueryClient>[] = [];

@@ -30,6 +30,7 @@ import { type Draft, newDraft } from '@/features/records/draft';
 import type { PhotoRef, Reading } from '@/features/records/schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import type { RideSummary } from '@/features/rides/schema';
+import { makeRideSummary } from '@/tests/support/inspection-fixtures';
 import type { SessionUser } from '@/features/session/schema';
 import type { SyncApi } from '@/features/sync/api';
 import { pull } from '@/features/sync/pull';
@@ -85,23 +86,7 @@ const inspector: SessionUser = {
   companyId: null,
   companyName: null,
 };
-const ride: RideSummary = {
-  id: 'ride-rod',
-  name: 'Test Rod',
-  rideClass: 'rotating_arm',
-  description: null,
-  maker: null,
-  model: null,
-  serial: null,
-  year: null,
-  status: 'in_service',
-  statusReason: null,
-  statusSince: null,
-  siteId: null,
-  siteName: null,
-  operatorCompanyId: 'op-1',
-  operatorName: 'Tamsworth Pier Leisure',
-};
+const ride: RideSummary = makeRideSummary({ id: 'ride-rod', name: 'Test Rod' });
 const item = (id: string, text: string, photoRequired = false) => ({
   id,
   text,

@@ -11,6 +11,7 @@ import { makeQueryClient } from '@/features/api/query-client';
 import { DeviceDbProvider } from '@/features/device-db/provider';
 import { TodayScreen } from '@/features/inspections/today-screen';
 import type { RideSummary } from '@/features/rides/schema';
+import { makeRideSummary } from '@/tests/support/inspection-fixtures';
 import type { SessionUser } from '@/features/session/schema';
 import { writeAssignments, writeRides } from '@/features/sync/cache';
 import { formatDate, formatDateTime, formatLocalStamp, formatShortStamp } from '@/lib/dates';
@@ -56,24 +57,15 @@ const inspector: SessionUser = {
   companyName: null,
 };
 
-const ride = (id: string, name: string, siteName: string, siteTimeZone: string): RideSummary => ({
-  id,
-  name,
-  rideClass: 'rotating_arm',
-  description: null,
-  maker: null,
-  model: null,
-  serial: null,
-  year: null,
-  status: 'in_service',
-  statusReason: null,
-  statusSince: null,
-  siteId: `site-${id}`,
-  siteName,
-  siteTimeZone,
-  operatorCompanyId: 'op-1',
-  operatorName: 'Corvane Travelling Shows',
-});
+const ride = (id: string, name: string, siteName: string, siteTimeZone: string): RideSummary =>
+  makeRideSummary({
+    id,
+    name,
+    siteId: `site-${id}`,
+    siteName,
+    siteTimeZone,
+    operatorName: 'Corvane Travelling Shows',
+  });
 
 const assignment = (rideId: string, rideName: string) => ({
   id: `a-${rideId}`,

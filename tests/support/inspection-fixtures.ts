@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 
 import { type InspectionRecord, type PhotoRef, inspectionTypes } from '@/features/records/schema';
+import type { RideSummary } from '@/features/rides/schema';
 
 /** Invented demo values; only the shape matters to the sync tests. */
 export function makeRecord(overrides: Partial<InspectionRecord> = {}): InspectionRecord {
@@ -52,4 +53,26 @@ export function fakeJpeg(seed: number, size = 64): Uint8Array {
   bytes.set([0xff, 0xd8, 0xff, 0xe0]);
   for (let i = 4; i < size; i++) bytes[i] = (seed * 31 + i * 7) & 0xff;
   return bytes;
+}
+
+/** A ride as the ride list gives it, with only what a test sets; invented demo values. */
+export function makeRideSummary(
+  overrides: Partial<RideSummary> & Pick<RideSummary, 'id' | 'name'>,
+): RideSummary {
+  return {
+    rideClass: 'rotating_arm',
+    description: null,
+    maker: null,
+    model: null,
+    serial: null,
+    year: null,
+    status: 'in_service',
+    statusReason: null,
+    statusSince: null,
+    siteId: null,
+    siteName: null,
+    operatorCompanyId: 'op-1',
+    operatorName: 'Tamsworth Pier Leisure',
+    ...overrides,
+  };
 }
