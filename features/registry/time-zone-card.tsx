@@ -3,7 +3,7 @@ import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { FormAlert } from '@/components/form-alert';
+import { SettingFooter } from '@/components/setting-footer';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { space } from '@/components/theme';
@@ -47,17 +47,10 @@ export function TimeZoneCard() {
           onPress={() => save.mutate(zone.trim(), { onSuccess: () => setDraft(null) })}
         />
       </View>
-      {current?.updatedAt ? (
-        <Text variant="small" muted>
-          {`Changed ${formatWhen(current.updatedAt, current.zone)}${current.updatedByName ? ` by ${current.updatedByName}` : ''}`}
-        </Text>
-      ) : null}
-      <FormAlert
-        problem={
-          setting.error || save.error
-            ? { message: (save.error ?? setting.error)?.message ?? 'The setting could not be read or saved.' }
-            : null
-        }
+      <SettingFooter
+        changedAt={current?.updatedAt ? formatWhen(current.updatedAt, current.zone) : null}
+        changedBy={current?.updatedByName}
+        error={save.error ?? setting.error}
       />
     </Card>
   );

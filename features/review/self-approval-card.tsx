@@ -1,11 +1,9 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { StyleSheet } from 'react-native';
 
 import { Card } from '@/components/card';
 import { CheckField } from '@/components/check-field';
-import { FormAlert } from '@/components/form-alert';
+import { SettingFooter } from '@/components/setting-footer';
 import { Text } from '@/components/text';
-import { space } from '@/components/theme';
 import { apiFetch } from '@/features/api';
 import { reviewKeys } from '@/features/review/keys';
 import { selfApprovalResponseSchema } from '@/features/review/schema';
@@ -48,20 +46,11 @@ export function SelfApprovalCard() {
           onChange={(allowed) => save.mutate(allowed)}
         />
       ) : null}
-      {current?.updatedAt ? (
-        <Text variant="small" muted style={styles.changed}>
-          {`Changed ${formatDateTime(current.updatedAt)}${current.updatedByName ? ` by ${current.updatedByName}` : ''}`}
-        </Text>
-      ) : null}
-      <FormAlert
-        problem={
-          setting.error || save.error
-            ? { message: (save.error ?? setting.error)?.message ?? 'The setting could not be read or saved.' }
-            : null
-        }
+      <SettingFooter
+        changedAt={current?.updatedAt ? formatDateTime(current.updatedAt) : null}
+        changedBy={current?.updatedByName}
+        error={save.error ?? setting.error}
       />
     </Card>
   );
 }
-
-const styles = StyleSheet.create({ changed: { marginTop: space.xs } });
