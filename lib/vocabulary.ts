@@ -262,6 +262,26 @@ export const noticeKindVocabulary: Record<NoticeKind, Words> = {
 };
 
 /**
+ * The units an operator company's notices give their figures in, chosen per company and frozen into each
+ * notice when issued: SI (kN, kN·m, mm, kg, MPa) or US customary (lbf/kip, lbf·ft/kip·ft, in, lb, ksi).
+ * The same two systems as `UnitSystem` in lib/units.ts.
+ */
+export const noticeUnitSystems = ['si', 'us'] as const;
+export type NoticeUnitSystem = (typeof noticeUnitSystems)[number];
+export const noticeUnitSystemVocabulary: Record<NoticeUnitSystem, Words & { description: string }> = {
+  si: { label: 'SI', description: 'kN, kN·m, mm, kg, MPa' },
+  us: { label: 'US customary', description: 'lbf and kip, lbf·ft and kip·ft, in, lb, ksi' },
+};
+
+/** The paper a company's notice PDFs are laid out on, chosen per company and frozen into each notice. */
+export const paperSizes = ['A4', 'LETTER'] as const;
+export type PaperSizeName = (typeof paperSizes)[number];
+export const paperSizeVocabulary: Record<PaperSizeName, Words & { description: string }> = {
+  A4: { label: 'A4', description: '210 × 297 mm' },
+  LETTER: { label: 'Letter', description: '8.5 × 11 in' },
+};
+
+/**
  * Where a notice's e-mail stands, over all its recipients: `no_address` when the operator company had no
  * notice address when it was issued (the notice exists and can be read in the app; nothing was sent),
  * `sending` while any delivery is still pending or being sent, then `sent`, `failed` or `partly_sent`.

@@ -15,6 +15,8 @@ import {
 import {
   companyKinds,
   inspectionTypes,
+  noticeUnitSystems,
+  paperSizes,
   rideClasses,
   rideStatuses,
   roles,
@@ -74,6 +76,13 @@ export const companies = sqliteTable(
       .$type<CompanyContact[]>()
       .notNull()
       .default(sql`'[]'`),
+    /**
+     * The units and paper of the company's notices (frozen into each notice when issued). Checked by the
+     * API's schema, not by a CHECK: SQLite can add a CHECK only by rebuilding the table, and other tables'
+     * rows refer to this one, so a rebuild's DROP would be refused.
+     */
+    noticeUnits: text('notice_units', { enum: noticeUnitSystems }).notNull().default('si'),
+    noticePaper: text('notice_paper', { enum: paperSizes }).notNull().default('A4'),
     createdAt: createdAt(),
   },
   (t) => [check('companies_kind_check', oneOf(t.kind, companyKinds)), index('companies_name_idx').on(t.name)],
