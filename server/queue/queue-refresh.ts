@@ -355,21 +355,31 @@ const QUARTER_HOUR_MS = 15 * 60 * 1000;
 type Check = { slot: number; generation: number; version: number };
 const dataVersions = new WeakMap<Database.Database, Database.Statement<[], number>>();
 
-function checkOf(db: Db, clock: string): Check | null {
-  const at = Date.parse(clock);
+/**
+ * The check for `clock`: its quarter hour, this process's queue generation and the file's
+ * `data_version` (pass it when the caller has just read it: each read of it opens a read transaction,
+ * a few microseconds of file locks).
+ */
+function checkOf(db: Db, clock: string, dataVersion?: number): Check | null {
   // A pinned YYYY-MM-DD costs nothing to compare; only instants are worth remembering.
-  if (/^\d{4}-\d{2}-\d{2}$/.test(clock) || Number.isNaN(at)) return null;
-  const sqlite = sqliteOf(db);
+  if (clock.length === 10) return null;
+  const at = Date.parse(clock);
+  if (Number.isNaN(at)) return null;
+  return {
+    slot: Math.floor(at / QUARTER_HOUR_MS),
+    generation,
+    version: dataVersion ?? readDataVersion(sqliteOf(db)),
+  };
+}
+
+/** The file's `PRAGMA data_version`: it moves with every commit by another connection. */
+export function readDataVersion(sqlite: Database.Database): number {
   let version = dataVersions.get(sqlite);
   if (!version) {
     version = sqlite.prepare<[], number>('PRAGMA data_version').pluck();
     dataVersions.set(sqlite, version);
   }
-  return {
-    slot: Math.floor(at / QUARTER_HOUR_MS),
-    generation,
-    version: version.get() ?? 0,
-  };
+  return version.get() ?? 0;
 }
 
 const sameCheck = (a: Check | null, b: Check | null) =>
@@ -385,11 +395,11 @@ export const queueDay = (db: Db, now: Date = new Date()): string => sweptOn.get(
  * Rebuilds the whole queue the first time it is read after a new day begins at any site (and after
  * start-up): its overdue rows move with each site's date alone. It is asked on every read of the queue,
  * so the zones' days (two queries and a date per zone) are worked out again only in a new quarter hour
- * or after a write.
+ * or after a write. A caller that has just read the file's `data_version` (`readDataVersion`) passes it.
  */
-export function ensureQueueFresh(db: Db, today: string): void {
+export function ensureQueueFresh(db: Db, today: string, dataVersion?: number): void {
   const swept = sweptOn.get(db);
-  const check = swept ? checkOf(db, today) : null;
+  const check = swept ? checkOf(db, today, dataVersion) : null;
   if (swept && sameCheck(swept.checked, check)) return;
   const days = zoneDays(db, today);
   if (swept?.days === days) {

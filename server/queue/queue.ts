@@ -20,7 +20,7 @@ import {
 } from '@/features/review/schema';
 import type { Db } from '@/server/db';
 import { addDays } from '@/lib/dates';
-import { ensureQueueFresh, queueGeneration } from '@/server/queue/queue-refresh';
+import { ensureQueueFresh, queueGeneration, readDataVersion } from '@/server/queue/queue-refresh';
 import { sqliteOf } from '@/server/sqlite-client';
 
 /** The table's column names, quoted, by their schema keys: the SQL below follows db/server/review.ts. */
@@ -141,7 +141,6 @@ const MAX_REMEMBERED = 2000;
 type Cache = {
   sqlite: Database.Database;
   statements: Map<string, Database.Statement>;
-  dataVersion: Database.Statement<[], number>;
   /** Counts per urgency by filter, valid while the queue's generation and the file's version stand. */
   counts: Map<string, number[]>;
   /** Pages (their items as JSON text), remembered under the same rule as the counts. */
@@ -159,7 +158,6 @@ function cacheOf(db: Db): Cache {
     cache = {
       sqlite,
       statements: new Map(),
-      dataVersion: sqlite.prepare<[], number>('PRAGMA data_version').pluck(),
       counts: new Map(),
       pages: new Map(),
       generation: -1,
@@ -190,7 +188,7 @@ function countsFor(cache: Cache, where: Where): number[] {
   const remember = !cache.sqlite.inTransaction;
   if (remember) {
     const generation = queueGeneration();
-    const version = cache.dataVersion.get() ?? 0;
+    const version = readDataVersion(cache.sqlite);
     if (generation !== cache.generation || version !== cache.version || cache.counts.size >= MAX_REMEMBERED) {
       cache.counts.clear();
       cache.pages.clear();
@@ -222,10 +220,13 @@ function countRows(cache: Cache, sql: string, params: (string | number)[]): numb
  * (`PRAGMA data_version`). Null inside a transaction, whose reads may yet roll back.
  */
 export function queueStamp(db: Db, today: string): string | null {
-  ensureQueueFresh(db, today);
-  const cache = cacheOf(db);
-  if (cache.sqlite.inTransaction) return null;
-  return `${queueGeneration()}:${cache.dataVersion.get() ?? 0}`;
+  // One read of the file's version serves the freshness check and the stamp (a commit in this process
+  // leaves it as it was, so it still holds after a rebuild here).
+  const sqlite = sqliteOf(db);
+  const version = readDataVersion(sqlite);
+  ensureQueueFresh(db, today, version);
+  if (sqlite.inTransaction) return null;
+  return `${queueGeneration()}:${version}`;
 }
 
 type Page = Omit<QueueResponse, 'items'> & {
