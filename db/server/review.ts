@@ -140,6 +140,11 @@ export const reviewQueue = sqliteTable(
     inspectorName: text('inspector_name'),
     urgency: integer('urgency').notNull(),
     at: text('at').notNull(),
+    /**
+     * The item's day on its site's clock (the inspection body's default zone for a ride without one): the
+     * day `at` falls on there, or `at` itself when it is a date. The From/To filters compare it.
+     */
+    day: text('day').notNull().default(''),
     analysisStatus: text('analysis_status', { enum: envelopeStatuses }),
     failedItems: integer('failed_items').notNull().default(0),
     overdueSince: text('overdue_since'),
