@@ -33,7 +33,17 @@ function CompanyEdit({ id }: { id: string | null }) {
   if (!id)
     return (
       <SubScreen title="New operator company" back={{ href: companiesHref, label: 'Companies' }}>
-        <FormCard>{form({ name: '', noticeEmails: [], phone: '', address: '', contacts: [] })}</FormCard>
+        <FormCard>
+          {form({
+            name: '',
+            noticeEmails: [],
+            phone: '',
+            address: '',
+            contacts: [],
+            noticeUnits: 'si',
+            noticePaper: 'A4',
+          })}
+        </FormCard>
       </SubScreen>
     );
   return (
@@ -46,6 +56,8 @@ function CompanyEdit({ id }: { id: string | null }) {
               noticeEmails: c.noticeEmails,
               phone: c.phone ?? '',
               address: c.address ?? '',
+              noticeUnits: c.noticeUnits,
+              noticePaper: c.noticePaper,
               contacts: c.contacts.map((p) => ({
                 name: p.name,
                 role: p.role ?? '',

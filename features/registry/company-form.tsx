@@ -14,6 +14,12 @@ import { FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { companyInputSchema, siteInputSchema, siteKindLabel, siteKinds } from '@/features/registry/schema';
 import { fieldsOf } from '@/components/form/server-errors';
+import {
+  noticeUnitSystems,
+  noticeUnitSystemVocabulary,
+  paperSizes,
+  paperSizeVocabulary,
+} from '@/lib/vocabulary';
 
 /** Several addresses typed in one box, one per line (commas and semicolons work too). */
 function splitAddresses(text: string): string[] {
@@ -22,6 +28,10 @@ function splitAddresses(text: string): string[] {
     .map((s) => s.trim())
     .filter(Boolean);
 }
+
+// A notice keeps the units and paper it was issued with; the choice applies to notices issued after it.
+const unitChoices = noticeUnitSystems.map((u) => ({ value: u, label: noticeUnitSystemVocabulary[u].label }));
+const paperChoices = paperSizes.map((p) => ({ value: p, label: paperSizeVocabulary[p].label }));
 
 export type CompanyFormInput = z.input<typeof companyInputSchema>;
 type CompanyFormOutput = z.output<typeof companyInputSchema>;
@@ -60,7 +70,7 @@ export function CompanyForm({
   const save = useServerSubmit(
     { handleSubmit, setError, formState },
     onSubmit,
-    fieldsOf(['name', 'noticeEmails', 'phone', 'address'], ['contacts']),
+    fieldsOf(['name', 'noticeEmails', 'phone', 'address', 'noticeUnits', 'noticePaper'], ['contacts']),
     {
       contacts: 'Contact',
     },
@@ -80,6 +90,19 @@ export function CompanyForm({
           />
         )}
       />
+      <View style={styles.pair}>
+        <View style={styles.half}>
+          <FormChoice control={control} name="noticeUnits" label="Units on notices" options={unitChoices} />
+        </View>
+        <View style={styles.half}>
+          <FormChoice
+            control={control}
+            name="noticePaper"
+            label="Paper for notice PDFs"
+            options={paperChoices}
+          />
+        </View>
+      </View>
       <View style={styles.pair}>
         <View style={styles.half}>
           <FormText control={control} name="phone" label="Phone" inputMode="tel" />

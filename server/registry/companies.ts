@@ -21,6 +21,8 @@ const companyColumns = {
   phone: companies.phone,
   address: companies.address,
   contacts: companies.contacts,
+  noticeUnits: companies.noticeUnits,
+  noticePaper: companies.noticePaper,
   createdAt: companies.createdAt,
   // Written out in full: drizzle drops the table name from columns inside a select's sql, which would
   // make these compare the subquery's own columns.
@@ -98,6 +100,8 @@ export function createCompany(db: Db, userId: string, input: CompanyInput): Comp
         phone: input.phone ?? null,
         address: input.address ?? null,
         contacts: normaliseContacts(input.contacts),
+        noticeUnits: input.noticeUnits ?? 'si',
+        noticePaper: input.noticePaper ?? 'A4',
       })
       .returning({ id: companies.id })
       .get();
@@ -124,6 +128,9 @@ export function updateCompany(db: Db, userId: string, id: string, patch: Patch):
         ...(patch.phone !== undefined && { phone: patch.phone }),
         ...(patch.address !== undefined && { address: patch.address }),
         ...(patch.contacts !== undefined && { contacts: normaliseContacts(patch.contacts) }),
+        // Notices already issued keep the units and paper they were issued with (frozen in their document).
+        ...(patch.noticeUnits !== undefined && { noticeUnits: patch.noticeUnits }),
+        ...(patch.noticePaper !== undefined && { noticePaper: patch.noticePaper }),
       })
       .where(eq(companies.id, id))
       .run();

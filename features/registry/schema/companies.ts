@@ -2,7 +2,7 @@ import { email, nullableText, requiredText } from '@/features/registry/schema/fi
 import { pageSchema, pagingQuerySchema, searchQuery, sortQuery } from '@/lib/list-params';
 import { z } from 'zod';
 
-import { companyKinds } from '@/lib/vocabulary';
+import { companyKinds, noticeUnitSystems, paperSizes } from '@/lib/vocabulary';
 
 // ——— operator companies ———
 
@@ -33,6 +33,9 @@ export const companyInputSchema = z.object({
   phone: nullableText(40).optional(),
   address: nullableText(300).optional(),
   contacts: z.array(companyContactSchema).max(30, 'At most 30 contacts').optional(),
+  /** The units and paper of the company's notices; SI and A4 unless chosen. */
+  noticeUnits: z.enum(noticeUnitSystems, { error: 'SI or US customary' }).optional(),
+  noticePaper: z.enum(paperSizes, { error: 'A4 or Letter' }).optional(),
 });
 export type CompanyInput = z.output<typeof companyInputSchema>;
 export const companyPatchSchema = companyInputSchema.partial();
@@ -45,6 +48,8 @@ export const companySchema = z.object({
   phone: z.string().nullable(),
   address: z.string().nullable(),
   contacts: z.array(storedContactSchema),
+  noticeUnits: z.enum(noticeUnitSystems),
+  noticePaper: z.enum(paperSizes),
   createdAt: z.string(),
   siteCount: z.number().int(),
   rideCount: z.number().int(),
