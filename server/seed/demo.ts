@@ -65,9 +65,6 @@ export const demoOperators = [
   },
   {
     name: 'Corvane Travelling Shows',
-    // Its travelling rides spend the season on a US Pacific coast fairground: notices in US units on Letter.
-    noticeUnits: 'us',
-    noticePaper: 'LETTER',
     noticeEmails: ['ops@corvane-shows.test'],
     phone: '+44 20 7946 0322',
     address: 'Winter quarters, Yard 4, Brackley Lane\nLowfield',
@@ -305,10 +302,6 @@ export async function seedDemoData(
           phone: operator.phone,
           address: operator.address,
           contacts: operator.contacts.map((c) => ({ ...c })),
-          ...('noticeUnits' in operator && {
-            noticeUnits: operator.noticeUnits,
-            noticePaper: operator.noticePaper,
-          }),
         })
         .returning({ id: companies.id })
         .get();
