@@ -12,7 +12,7 @@ import { colors, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { NoticePhotos } from '@/features/notices/notice-photos';
 import { noticeKindLabel } from '@/features/notices/notice-text';
-import type { NoticeDocument } from '@/features/notices/schema';
+import { noticeUnitsText, type NoticeDocument } from '@/features/notices/schema';
 import { formatRatio } from '@/features/loads';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import { SeverityMark } from '@/features/notices/severity-mark';
@@ -240,6 +240,11 @@ function ResultsFold({ doc, children }: { doc: NoticeDocument; children: React.R
 function ResultsAsIssued({ doc }: { doc: NoticeDocument }) {
   return (
     <>
+      {doc.results.length > 0 || doc.loadSummary.length > 0 ? (
+        <Text variant="small" muted>
+          {noticeUnitsText(doc)}
+        </Text>
+      ) : null}
       {doc.results.length > 0 ? (
         <Section title="Results against design limits">
           <DataTable<Result>

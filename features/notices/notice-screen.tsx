@@ -24,7 +24,7 @@ import { NoticeSummary } from '@/features/notices/notice-summary';
 import { deliveryStatusLabel, noticeKindLabel } from '@/features/notices/notice-text';
 import { useAcknowledge, useNotice, useResend } from '@/features/notices/notices-api';
 import { type PaperSize, downloadNoticePdf } from '@/features/notices/pdf-download';
-import { type NoticeDetail, noticeDeliveryStateInfo } from '@/features/notices/schema';
+import { type NoticeDetail, noticeDeliveryStateInfo, noticePaperOf } from '@/features/notices/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import { NoticeDeliveryMark } from '@/features/notices/notice-delivery-mark';
 import { useRideQuery } from '@/features/registry/ui';
@@ -156,7 +156,8 @@ function NoticePage({ notice, user }: { notice: NoticeDetail; user: SessionUser 
 // ——— the PDF ———
 
 function PdfPanel({ notice }: { notice: NoticeDetail }) {
-  const [size, setSize] = useState<PaperSize>('A4');
+  // The paper the notice was issued on (its company's choice); the other stays a choice for printing.
+  const [size, setSize] = useState<PaperSize>(noticePaperOf(notice.document));
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const download = async () => {

@@ -17,7 +17,12 @@ import {
   noticeDeliveryStates,
   noticeDeliveryStateVocabulary,
   noticeKinds,
+  noticeUnitSystems,
+  noticeUnitSystemVocabulary,
+  paperSizes,
   type NoticeDeliveryState,
+  type NoticeUnitSystem,
+  type PaperSizeName,
   type NoticeKind,
 } from '@/lib/vocabulary';
 
@@ -47,6 +52,13 @@ export const noticeDocumentSchema = z.object({
   site: z.object({ name: z.string(), address: z.string().nullable() }).nullable(),
   /** The site's IANA zone when issued: times print on its clock, named. Absent on older notices (UTC). */
   timeZone: z.string().optional(),
+  /**
+   * The operator company's notice units and paper when issued: `results`, `loadSummary` are formatted in
+   * these units, and the PDF is laid out on this paper (e-mail attachment and download). Absent on older
+   * notices: SI on A4.
+   */
+  units: z.enum(noticeUnitSystems).optional(),
+  paper: z.enum(paperSizes).optional(),
   /** Null for a notice of a status change made outside an inspection. */
   inspection: z
     .object({
@@ -64,7 +76,7 @@ export const noticeDocumentSchema = z.object({
       governingCase: z.string().nullable().optional(),
     })
     .nullable(),
-  /** Readings and computed values against their design limits, formatted with units (SI). */
+  /** Readings and computed values against their design limits, formatted with units (`units`). */
   results: z.array(
     z.object({
       label: z.string(),
@@ -86,7 +98,7 @@ export const noticeDocumentSchema = z.object({
         .optional(),
     }),
   ),
-  /** Peak pivot loads of the ride cycle (SI, formatted), with the pivot's limit where the design has one. */
+  /** Peak pivot loads of the ride cycle (formatted in `units`), with the pivot's limit where the design has one. */
   loadSummary: z.array(z.object({ pivot: z.string(), peakForce: z.string(), limit: z.string().nullable() })),
   checklist: z.object({ total: z.number().int(), failed: z.number().int() }).nullable(),
   findings: z.array(
@@ -120,6 +132,16 @@ export const noticeDocumentSchema = z.object({
   url: z.string(),
 });
 export type NoticeDocument = z.infer<typeof noticeDocumentSchema>;
+
+/** The units a notice's figures are in: as frozen when issued, SI for notices from before the choice. */
+export const noticeUnitsOf = (doc: Pick<NoticeDocument, 'units'>): NoticeUnitSystem => doc.units ?? 'si';
+/** The one sentence the view, the e-mail and the PDF print about a notice's units. */
+export function noticeUnitsText(doc: Pick<NoticeDocument, 'units'>): string {
+  const words = noticeUnitSystemVocabulary[noticeUnitsOf(doc)];
+  return `Figures in ${words.label} units (${words.description}).`;
+}
+/** The paper a notice's PDF is laid out on: as frozen when issued, A4 for notices from before the choice. */
+export const noticePaperOf = (doc: Pick<NoticeDocument, 'paper'>): PaperSizeName => doc.paper ?? 'A4';
 
 // ——— the API around notices ———
 

@@ -19,7 +19,7 @@ import { CAUTION_SHORT } from '@/lib/caution-text';
 import { colors } from '@/lib/colors';
 import { ENVELOPE_STATUS_LABEL } from '@/features/loads/engine';
 import { formatRatio } from '@/features/loads/format';
-import type { NoticeDocument } from '@/features/notices/schema';
+import { noticeUnitsText, type NoticeDocument } from '@/features/notices/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
@@ -41,7 +41,7 @@ type DeliveryDeps = {
   /** DATA_DIR: where photo bytes live, for the PDF's thumbnails. */
   dataDir: string;
   logger?: Logger;
-  /** Paper size of attached PDFs; A4 unless set. */
+  /** Paper of attached PDFs for notices issued before their paper was frozen with them; A4 unless set. */
   pageSize?: 'A4' | 'LETTER';
   /** Rows handled per run. */
   batchSize?: number;
@@ -74,7 +74,11 @@ const resultLine = (r: NoticeDocument['results'][number]) =>
 function resultLines(doc: NoticeDocument): string[] {
   const list = concerning(doc);
   return list.length > 0
-    ? ['', `Values near or over their limits (${list.length}):`, ...list.map((r) => `- ${resultLine(r)}`)]
+    ? [
+        '',
+        `Values near or over their limits (${list.length}). ${noticeUnitsText(doc)}`,
+        ...list.map((r) => `- ${resultLine(r)}`),
+      ]
     : [];
 }
 
@@ -82,7 +86,7 @@ function resultsHtml(doc: NoticeDocument): string {
   const list = concerning(doc);
   if (list.length === 0) return '';
   const items = list.map((r) => `<li>${escapeHtml(resultLine(r))}</li>`).join('');
-  return `<h3>Values near or over their limits (${list.length})</h3><ul>${items}</ul>`;
+  return `<h3>Values near or over their limits (${list.length})</h3><p>${escapeHtml(noticeUnitsText(doc))}</p><ul>${items}</ul>`;
 }
 
 function rideLine(doc: NoticeDocument) {
@@ -202,7 +206,8 @@ async function mailFor(
         .get();
       if (!notice) throw new Error(`notice ${noticeId} is missing`);
       // The same file GET /api/notices/:id/pdf serves: drawn once per notice and paper size.
-      const pageSize = deps.pageSize ?? 'A4';
+      // The paper the notice was issued on (its company's choice, frozen with it).
+      const pageSize = notice.document.paper ?? deps.pageSize ?? 'A4';
       const { pdf } = await cachedNoticePdf(
         deps.db,
         deps.dataDir,

@@ -19,6 +19,7 @@ import { notFound } from '@/server/http/errors';
 import { rideLife } from '@/server/pivot-life/life';
 import { rideStatusWords, roleWords } from '@/server/notices/words';
 import { formatCalendarDate, isoDay } from '@/lib/dates';
+import type { UnitSystem } from '@/lib/units';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -51,6 +52,8 @@ export function rideContext(tx: Reader, rideId: string) {
       operatorName: companies.name,
       operatorAddress: companies.address,
       noticeEmails: companies.noticeEmails,
+      noticeUnits: companies.noticeUnits,
+      noticePaper: companies.noticePaper,
       siteName: sites.name,
       siteAddress: sites.address,
       siteLocality: sites.locality,
@@ -147,7 +150,7 @@ export const withCause = (status: NoticeDocument['operatingStatus'], cause: stri
   cause ? { ...status, reason: status.reason ? `${status.reason} — ${cause}` : cause } : status;
 
 /** The inspection block and its results against the limits, as an inspection notice shows them. */
-export function inspectionPart(tx: Reader, inspectionId: string) {
+export function inspectionPart(tx: Reader, inspectionId: string, system: UnitSystem) {
   const row = tx
     .select({
       id: inspections.id,
@@ -174,21 +177,23 @@ export function inspectionPart(tx: Reader, inspectionId: string) {
       engineVersion: row.analysis?.engineVersion ?? null,
       governingCase: row.analysis?.governingCase ? LOAD_CASE_LABEL[row.analysis.governingCase] : null,
     },
-    results: row.analysis ? resultsOf(row.analysis.envelope, measuredSources(row.record)) : [],
+    results: row.analysis ? resultsOf(row.analysis.envelope, measuredSources(row.record), system) : [],
   };
 }
 
 /**
  * Each value against its limit, formatted once by the one rule (lib/measured-format.ts) and frozen, so the
- * app, the e-mail and the PDF print the same strings; measured values as the inspector typed them.
+ * app, the e-mail and the PDF print the same strings; measured values as the inspector typed them, or in
+ * the operator's other unit system with the typed precision carried over.
  */
 export function resultsOf(
   envelope: Parameters<typeof sortByConcern>[0],
   sources: ReturnType<typeof measuredSources>,
+  system: UnitSystem,
 ): NoticeDocument['results'] {
   return sortByConcern(envelope).map((item) => {
     const source = sources.get(item.id);
-    const shown = formatEnvelopeItem(item, 'si', source);
+    const shown = formatEnvelopeItem(item, system, source);
     return {
       label: item.label,
       value: shown.value,

@@ -157,6 +157,10 @@ function commonParts(tx: NoticeTx, rideId: string, input: Common) {
       : null,
     // The site's clock, frozen with the notice: its PDF and e-mail print times on it, named.
     timeZone: rideTimeZone(tx, rideId),
+    // The operator's units and paper, frozen likewise: a later change of the company's choice leaves this
+    // notice, its PDF and its e-mail as issued.
+    units: ride.noticeUnits,
+    paper: ride.noticePaper,
     appeal: appealText(issuer.name, ref.reference),
     caution: CAUTION_FULL,
     signature: signerOf(tx, input.userId, issuedAt),
@@ -249,14 +253,14 @@ export function issueInspectionNotice(
       engineVersion: analysis?.engineVersion ?? null,
       governingCase: analysis?.governingCase ? LOAD_CASE_LABEL[analysis.governingCase] : null,
     },
-    results: analysis ? resultsOf(analysis.envelope, measuredSources(inspection.record)) : [],
+    results: analysis ? resultsOf(analysis.envelope, measuredSources(inspection.record), base.units) : [],
     loadSummary: (analysis?.joints ?? []).map((j, joint) => {
       const maxForceN = design?.data.pivots.find((p) => p.joint === joint)?.maxForceN;
       const peak = formatBesideLimit(
         j.peakForceN,
         maxForceN === undefined ? null : { side: 'max', si: maxForceN },
         'force',
-        'si',
+        base.units,
         false,
       );
       return { pivot: j.name, peakForce: peak.value, limit: peak.limit === null ? null : `≤ ${peak.limit}` };
@@ -321,7 +325,7 @@ export function issueStatusNotice(
     input.statusCause,
   );
   const docFindings = documentFindings(tx, rows);
-  const decided = input.inspectionId ? inspectionPart(tx, input.inspectionId) : null;
+  const decided = input.inspectionId ? inspectionPart(tx, input.inspectionId, base.units) : null;
 
   const doc = noticeDocumentSchema.parse({
     ...base,

@@ -6,6 +6,7 @@ import {
   findingCloseInputSchema,
   findingReopenInputSchema,
   noticeListQuerySchema,
+  noticePaperOf,
   type OutboxMessage,
 } from '@/features/notices/schema';
 import { nowOf, type ApiDeps } from '@/server/deps';
@@ -26,10 +27,11 @@ const listInput = validate({ query: noticeListQuerySchema });
 const pdfInput = validate({
   params: z.object({ id }),
   query: z.object({
+    // Without a size, the paper the notice was issued on (its company's choice, frozen with it).
     size: z
       .enum(['A4', 'LETTER', 'a4', 'letter'], { error: 'A4 or LETTER' })
-      .default('A4')
-      .transform((s) => s.toUpperCase() as 'A4' | 'LETTER'),
+      .optional()
+      .transform((s) => s?.toUpperCase() as 'A4' | 'LETTER' | undefined),
   }),
 });
 const actionInput = validate({ params: z.object({ id }), body: correctiveActionInputSchema });
@@ -64,7 +66,8 @@ const safeFileName = (name: string) => name.replace(/[^\w.-]+/g, '_');
  *   first; operators get their own company's only
  * - `GET /notices/:id` → `{ notice }`: the frozen document, acknowledgement, deliveries, and the notice's
  *   findings as they stand now with their corrective actions; another company's operator gets 404
- * - `GET /notices/:id/pdf?size=A4|LETTER` → the notice as a PDF (same access)
+ * - `GET /notices/:id/pdf?size=A4|LETTER` → the notice as a PDF (same access), on the paper it was issued
+ *   on unless `size` asks for the other
  * - `POST /notices/:id/acknowledge` (operator of the company) → `{ notice }`; recorded once, a repeat
  *   answers the same
  * - `POST /notices/:id/resend` (supervisor, admin) → `{ queued }`: e-mails the notice to addresses that
@@ -100,7 +103,7 @@ export function noticesRouter(deps: ApiDeps): Router {
 
   router.get('/notices/:id/pdf', signedIn, pdfInput, async (_req, res) => {
     const { id, document } = mustSeeNotice(deps.db, currentUser(res), pdfInput.params(res).id);
-    const pageSize = pdfInput.query(res).size;
+    const pageSize = pdfInput.query(res).size ?? noticePaperOf(document);
     // Drawn once per notice, paper size and content in a worker thread, then read from disk.
     const { pdf } = await cachedNoticePdf(deps.db, deps.config.dataDir, { id, document, pageSize }, () =>
       renderNoticePdfOffThread(pdfPool, deps.db, deps.config.dataDir, document, pageSize),

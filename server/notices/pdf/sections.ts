@@ -13,7 +13,7 @@ import {
   type RideClass,
 } from '@/lib/vocabulary';
 import { formatRatio } from '@/features/loads/format';
-import type { NoticeDocument } from '@/features/notices/schema';
+import { noticeUnitsText, type NoticeDocument } from '@/features/notices/schema';
 import { orNot } from '@/server/notices/words';
 import {
   draw,
@@ -145,7 +145,7 @@ export function resultsSection(l: Layout, n: NoticeDocument) {
   }
   flowText(
     l,
-    'Each value against its design limit. Ratio is the share of the allowance used: 100 % is at the limit.',
+    `Each value against its design limit. Ratio is the share of the allowance used: 100 % is at the limit. ${noticeUnitsText(n)}`,
     S.small,
     l.left,
     l.width,
@@ -191,7 +191,7 @@ export function loadSection(l: Layout, n: NoticeDocument, opts: { showEmpty: boo
     heading(l, 'Load summary', TABLE_START + 18);
     flowText(
       l,
-      'Peak force at each pivot over one ride cycle, from the load check.',
+      `Peak force at each pivot over one ride cycle, from the load check. ${noticeUnitsText(n)}`,
       S.small,
       l.left,
       l.width,
