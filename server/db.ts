@@ -8,6 +8,7 @@ import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 
 import * as schema from '@/db/server/schema';
 import { serverMigrationsDir } from '@/server/paths';
+import { registerSqlFunctions } from '@/server/sql-functions';
 
 export type Db = BetterSQLite3Database<typeof schema>;
 
@@ -117,6 +118,7 @@ export function openDb(dataDir: string, opts: OpenDbOptions = {}): OpenedDb {
   sqlite.pragma('synchronous = FULL');
   sqlite.pragma('foreign_keys = ON');
   sqlite.pragma('busy_timeout = 5000');
+  registerSqlFunctions(sqlite);
   const db = drizzle(sqlite, { schema });
   const state = migrationState(sqlite);
   if (state.count > 0 && state.pending.length > 0) {

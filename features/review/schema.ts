@@ -168,6 +168,8 @@ export const queueItemSchema = z.object({
   urgency: urgencySchema,
   /** The item's date: when the inspection was submitted, or the earliest missed due date. */
   at: z.string(),
+  /** That date as a day on the site's clock (YYYY-MM-DD): what the From/To filters compare. */
+  day: z.string().optional(),
   analysisStatus: z.enum(['within', 'near', 'over']).nullable(),
   failedItems: z.number().int(),
   /** The ride's earliest missed inspection due date, when it has one. */

@@ -116,8 +116,17 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
       )`;
 }
 
+/**
+ * The item's day on its site's clock (`day_in_zone`, registered by server/sql-functions.ts): the site is
+ * joined as `s`; a ride with no site, or a site with no zone, takes the inspection body's default.
+ */
+const siteDay = (at: SQL) =>
+  sql`day_in_zone(${at}, s.time_zone, (SELECT json_extract(st."value", '$.zone') FROM "settings" st WHERE st."key" = 'time_zone'))`;
+
+const inspectionAt = sql`COALESCE(strftime('%Y-%m-%dT%H:%M:%fZ', i.submitted_at), i.submitted_at)`;
+
 /** One row per inspection waiting for a decision (an amendment stands in for its original). */
-const inspectionRows = sql`
+const inspectionRows: SQL = sql`
     SELECT
       'i:' || i.id, 'inspection', i.id, i.type, r.id, r.name, r.ride_class, r.status, r.site_id,
       s.name, r.operator_company_id, c.name, i.inspector_id, u.name,
@@ -130,10 +139,11 @@ const inspectionRows = sql`
         ELSE 5
       END,
       -- Phones may send a local offset; in UTC every item's date sorts and compares as text.
-      COALESCE(strftime('%Y-%m-%dT%H:%M:%fZ', i.submitted_at), i.submitted_at),
+      ${inspectionAt},
       i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
       lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
-      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name)
+      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name),
+      ${siteDay(inspectionAt)}
     FROM pending i
       JOIN ${rides} r ON r.id = i.ride_id
       JOIN ${companies} c ON c.id = r.operator_company_id
@@ -142,6 +152,20 @@ const inspectionRows = sql`
       LEFT JOIN ride_due d ON d.ride_id = r.id
       LEFT JOIN ride_past p ON p.ride_id = r.id
       LEFT JOIN ride_life lf ON lf.ride_id = r.id`;
+
+/**
+ * A ride row's date: its returned inspection's submission, else the earliest missed date (a schedule's or
+ * an NDT's), else the first finding past due, else the suggested inspection date of a wear flag.
+ */
+const rideAt = sql`COALESCE(
+        strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at,
+        CASE
+          WHEN d.overdue_since IS NULL THEN lf.ndt_overdue_since
+          WHEN lf.ndt_overdue_since IS NULL THEN d.overdue_since
+          ELSE min(d.overdue_since, lf.ndt_overdue_since)
+        END,
+        p.first_due, lf.wear_suggested_on
+      )`;
 
 /** One row per ride flagged by a returned inspection, or overdue / past due with nothing waiting. */
 function rideRows(onlyRides: OnlyRides): SQL {
@@ -156,21 +180,12 @@ function rideRows(onlyRides: OnlyRides): SQL {
         WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN 3
         ELSE 4
       END,
-      COALESCE(
-        strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at,
-        -- The earliest missed date (a schedule's or an NDT's), else the first finding past due, else the
-        -- suggested inspection date of a wear flag.
-        CASE
-          WHEN d.overdue_since IS NULL THEN lf.ndt_overdue_since
-          WHEN lf.ndt_overdue_since IS NULL THEN d.overdue_since
-          ELSE min(d.overdue_since, lf.ndt_overdue_since)
-        END,
-        p.first_due, lf.wear_suggested_on
-      ),
+      ${rideAt},
       al.analysis_status, COALESCE(al.failed_items, 0), d.overdue_since, COALESCE(p.n, 0),
       lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name ||
-        COALESCE(' ' || au.name, ''))
+        COALESCE(' ' || au.name, '')),
+      ${siteDay(rideAt)}
     FROM ${rides} r
       JOIN ${companies} c ON c.id = r.operator_company_id
       LEFT JOIN ${sites} s ON s.id = r.site_id
@@ -235,7 +250,8 @@ ${rideFacts(onlyRides, pendingScope)}
     INSERT INTO ${reviewQueue} (
       key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
       site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
-      failed_items, overdue_since, findings_past_due, ndt_due_on, wear_limit_on, wear_suggested_on, search
+      failed_items, overdue_since, findings_past_due, ndt_due_on, wear_limit_on, wear_suggested_on, search,
+      day
     )
 ${inspectionRows}
     UNION ALL

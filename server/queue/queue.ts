@@ -47,6 +47,7 @@ const itemFields = (
     'inspectorName',
     'urgency',
     'at',
+    'day',
     'analysisStatus',
     'failedItems',
     'overdueSince',
@@ -96,10 +97,17 @@ function filterConditions(query: QueueQuery): Where {
   if (query.inspectorId) add(`${c.inspectorId} = ?`, query.inspectorId);
   if (query.rideClass?.length) anyOf(c.rideClass, [...new Set(query.rideClass)]);
   if (query.rideStatus?.length) anyOf(c.rideStatus, [...new Set(query.rideStatus)]);
-  // `at` is an ISO instant in UTC for an inspection and a bare date for a ride; both compare as text
-  // against bare dates: on or after `from`, before the day after `to`.
-  if (query.from) add(`${c.at} >= ?`, query.from);
-  if (query.to) add(`${c.at} < ?`, addDays(query.to, 1));
+  // From and To are days on each item's site clock (`day`). `at` (a UTC instant, or a date) is bounded a
+  // day wider on each side too, which no zone's offset (at most 14 hours) can cross, so the page is still
+  // read through its index.
+  if (query.from) {
+    add(`${c.at} >= ?`, addDays(query.from, -1));
+    add(`${c.day} >= ?`, query.from);
+  }
+  if (query.to) {
+    add(`${c.at} < ?`, addDays(query.to, 2));
+    add(`${c.day} <= ?`, query.to);
+  }
   if (query.q) add(`instr(${c.search}, ?) > 0`, foldAscii(query.q));
   return where;
 }

@@ -34,7 +34,7 @@ const QUEUE_ANSWER_BYTES = 24 * 1024 * 1024;
  *   &page=&pageSize=` → `{ items, total, page, pageSize, counts }`: submitted inspections awaiting a
  *   decision and rides needing attention, most urgent first by default (`sort` = urgency | newest |
  *   oldest | ride). `rideClass`, `rideStatus` and `urgency` take several values (repeated or
- *   comma-separated); `from`/`to` are inclusive calendar dates (UTC) of the item's date; `counts` per
+ *   comma-separated); `from`/`to` are inclusive calendar dates of the item's date on its site's clock (`day`); `counts` per
  *   urgency cover every filter except `urgency`, `total` every filter. An answer is read once per query
  *   string while the queue stays the same (any write that changes it moves the stamp), then sent from
  *   memory with its ETag (304 on `If-None-Match`) and compressed once.
