@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { Controller, type FieldErrors, useFieldArray, useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
@@ -20,6 +20,7 @@ import {
   paperSizes,
   paperSizeVocabulary,
 } from '@/lib/vocabulary';
+import { timeZoneOptions } from '@/features/registry/time-zone-options';
 
 /** Several addresses typed in one box, one per line (commas and semicolons work too). */
 function splitAddresses(text: string): string[] {
@@ -223,6 +224,12 @@ export function SiteForm({
     onSubmit,
     fieldsOf(['name', 'kind', 'address', 'locality', 'timeZone', 'operatorCompanyId']),
   );
+  const defaultWords = `The inspection body’s default${defaultZone ? ` (${defaultZone})` : ''}`;
+  // Every zone Intl knows, the site's saved one kept even if not listed; the first choice clears it.
+  const zones = useMemo(
+    () => [{ value: '', label: defaultWords }, ...timeZoneOptions(defaultValues.timeZone)],
+    [defaultWords, defaultValues.timeZone],
+  );
   return (
     <View style={styles.form}>
       <FormText control={control} name="name" label="Site name" />
@@ -240,19 +247,16 @@ export function SiteForm({
           <FormText control={control} name="locality" label="Town or locality" />
         </View>
       </View>
-      <FormText
+      <FormSelect
         control={control}
         name="timeZone"
         label="Time zone"
-        placeholder="e.g. America/Los_Angeles"
-        autoCapitalize="none"
-        hint={
-          'The site’s clock (an IANA name such as Europe/London or Pacific/Auckland): its “today”, due ' +
-          `dates, 07:00 reminders and times shown. Leave empty for the inspection body’s default${
-            defaultZone ? ` (${defaultZone})` : ''
-          }.`
-        }
+        options={zones}
+        placeholder={defaultWords}
       />
+      <Text variant="small" muted style={styles.zoneHint}>
+        The site’s clock: its “today”, due dates, 07:00 reminders and times shown.
+      </Text>
       <FormSelect
         control={control}
         name="operatorCompanyId"
@@ -280,4 +284,5 @@ const styles = StyleSheet.create({
   },
   start: { alignSelf: 'flex-start' },
   multi: { minHeight: 72, textAlignVertical: 'top' },
+  zoneHint: { marginTop: -space.md },
 });

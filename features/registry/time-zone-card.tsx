@@ -1,26 +1,29 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { SettingFooter } from '@/components/setting-footer';
 import { Text } from '@/components/text';
-import { TextField } from '@/components/text-field';
+import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
 import { useTimeZoneSettingMutation, useTimeZoneSettingQuery } from '@/features/registry/api';
+import { timeZoneOptions } from '@/features/registry/time-zone-options';
 import { formatWhen, timeZoneProblem } from '@/lib/dates';
 
 /**
  * The inspection body's default time zone (admins): the clock of every site that names none of its own.
- * The name is checked here as the server checks it (a zone this platform's Intl knows).
+ * Chosen from the zones this platform's Intl knows (the saved one kept even when it is not listed), and
+ * checked here as the server checks it.
  */
 export function TimeZoneCard() {
   const setting = useTimeZoneSettingQuery();
   const save = useTimeZoneSettingMutation();
-  // What the admin has typed; until then, the saved zone.
+  // What the admin has chosen; until then, the saved zone.
   const [draft, setDraft] = useState<string | null>(null);
   const current = setting.data;
   const zone = draft ?? current?.zone ?? '';
+  const options = useMemo(() => timeZoneOptions(current?.zone), [current?.zone]);
   const problem = zone.trim() === '' ? 'Choose a time zone' : timeZoneProblem(zone.trim());
   const changed = !!current && zone.trim() !== current.zone;
   return (
@@ -31,13 +34,13 @@ export function TimeZoneCard() {
       </Text>
       <View style={styles.row}>
         <View style={styles.field}>
-          <TextField
+          <SelectField
             label="IANA time zone"
-            value={zone}
-            onChangeText={setDraft}
-            autoCapitalize="none"
+            value={zone || null}
+            options={options}
+            onChange={setDraft}
             error={changed && problem ? problem : undefined}
-            placeholder="e.g. Europe/London"
+            placeholder="Choose a time zone"
           />
         </View>
         <Button
