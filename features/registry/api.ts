@@ -20,6 +20,7 @@ import {
   companyListResponseSchema,
   companyResponseSchema,
   type DesignDecisionBody,
+  type DesignPutBody,
   designImportCheckResponseSchema,
   designPendingResponseSchema,
   designResponseSchema,
@@ -112,6 +113,42 @@ export function useRideUpdateMutation(id: string) {
   });
 }
 
+/** What the register can delete, and the route of each (`DELETE /api/<path>/:id`). */
+const deletePaths = {
+  company: 'companies',
+  site: 'sites',
+  ride: 'rides',
+  schedule: 'schedules',
+  checklist: 'checklist-templates',
+} as const;
+export type RegisterDeletable = keyof typeof deletePaths;
+
+/**
+ * Deletes one record of the register (the server keeps its rules: a company with sites, rides or people,
+ * a site with rides, a ride with design data, schedules, inspections or notices are refused with 409 and
+ * the reason). Lists, details and the audit log read anew.
+ */
+export function useRegisterDeleteMutation(kind: RegisterDeletable) {
+  const invalidate = useInvalidateRegister();
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => apiFetch(`/api/${deletePaths[kind]}/${enc(id)}`, { method: 'DELETE' }),
+    // The deleted record's own entry is dropped rather than fetched again (a 404 behind the list), and
+    // the rest is refreshed without holding up the screen's move back to its list.
+    onSuccess: (_res, id) => {
+      const own = {
+        company: registryKeys.company(id),
+        site: registryKeys.site(id),
+        ride: rideKeys.detail(id),
+        checklist: registryKeys.checklist(id),
+        schedule: null,
+      }[kind];
+      if (own) client.removeQueries({ queryKey: own, exact: true });
+      void invalidate();
+    },
+  });
+}
+
 // ——— design data ———
 
 export function useDesignVersionsQuery(rideId: string, enabled = true) {
@@ -169,6 +206,25 @@ export function useDesignImportMutation(rideId: string) {
   return useMutation({
     mutationFn: (body: DesignImport) =>
       apiFetch(`/api/rides/${enc(rideId)}/design/import`, { body, schema: designResponseSchema }),
+    onSuccess: () =>
+      Promise.all([
+        client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.design(rideId) }),
+        client.invalidateQueries({ queryKey: registryKeys.audit() }),
+      ]),
+  });
+}
+
+/**
+ * A new version from the field editor (`PUT /api/rides/:id/design`): the server stores it by the same
+ * rule as an import (`createDesignVersion`: a loosened limit waits for a second person; 409 when
+ * `basedOnVersion` is no longer in force or nothing changed), recorded as made in the editor.
+ */
+export function useDesignPutMutation(rideId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: DesignPutBody) =>
+      apiFetch(`/api/rides/${enc(rideId)}/design`, { method: 'PUT', body, schema: designResponseSchema }),
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: rideKeys.detail(rideId) }),

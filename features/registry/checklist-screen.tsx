@@ -13,6 +13,7 @@ import { RoleGate } from '@/features/auth/ui';
 import { useChecklistQuery, useChecklistVersionsQuery } from '@/features/registry/api';
 import { measurementKindLabel } from '@/features/registry/checklist-form';
 import { limitWords } from '@/features/registry/checklist-limit-field';
+import { DeleteAction } from '@/features/registry/delete-action';
 import {
   checklistEditHref,
   checklistHref,
@@ -82,6 +83,20 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
                   label="Edit (makes a new version)"
                   tone="accent"
                   onPress={() => router.push(checklistEditHref(t.id))}
+                />
+              ) : null}
+              {canEditRides(role) && isCurrent && !t.archivedAt ? (
+                <DeleteAction
+                  kind="checklist"
+                  id={t.id}
+                  noun="template"
+                  name={t.name}
+                  verb="Archive"
+                  consequence={
+                    'New inspections stop using this template. Its versions stay readable, and inspections ' +
+                    'already made with it keep it. The audit log keeps a record.'
+                  }
+                  listHref={checklistsHref}
                 />
               ) : null}
             </Card>

@@ -15,6 +15,7 @@ import { RoleGate } from '@/features/auth/ui';
 import { useChecklistListQuery } from '@/features/registry/api';
 import { checklistHref, newChecklistHref } from '@/features/registry/hrefs';
 import { RegisterTabs } from '@/features/registry/register-tabs';
+import { RemovalNotice } from '@/features/registry/removal-notice';
 import { canEditRides } from '@/features/registry/ride-route';
 import type { ChecklistTemplateSummary } from '@/features/registry/schema';
 import { staff } from '@/features/registry/screen-access';
@@ -46,6 +47,7 @@ function ChecklistsList({ user }: { user: SessionUser }) {
       subtitle="Checklist templates per ride class. Each change makes a new version."
     >
       <RegisterTabs role={user.role} />
+      <RemovalNotice />
       <Card>
         <Text variant="label" muted>
           RIDE CLASS

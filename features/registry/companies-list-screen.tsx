@@ -17,6 +17,7 @@ import { useCompanyListQuery } from '@/features/registry/api';
 import { companyHref, newCompanyHref } from '@/features/registry/hrefs';
 import { PAGE_SIZE } from '@/features/registry/register-parts';
 import { RegisterTabs } from '@/features/registry/register-tabs';
+import { RemovalNotice } from '@/features/registry/removal-notice';
 import { type Company, companyListQuerySchema, companySortKeys } from '@/features/registry/schema';
 import { staff } from '@/features/registry/screen-access';
 import type { SessionUser } from '@/features/session/schema';
@@ -47,6 +48,7 @@ function CompaniesList({ user }: { user: SessionUser }) {
       }
     >
       <RegisterTabs role={user.role} />
+      <RemovalNotice />
       <Card>
         <TextField label="Search companies" value={search} onChangeText={setSearch} autoCapitalize="none" />
       </Card>

@@ -11,6 +11,7 @@ import { colors, space } from '@/components/theme';
 import { RoleGate } from '@/features/auth/ui';
 import { useCompanyQuery, useRidePageQuery } from '@/features/registry/api';
 import { Field } from '@/features/registry/design-view';
+import { DeleteAction } from '@/features/registry/delete-action';
 import { companiesHref, companyEditHref } from '@/features/registry/hrefs';
 import { NotFound, RidesPane } from '@/features/registry/register-parts';
 import { staff, routeParam } from '@/features/registry/screen-access';
@@ -60,6 +61,22 @@ function CompanyView({ id, role }: { id: string; role: Role }) {
                     </Text>
                   </View>
                 ))}
+                {role === 'admin' ? (
+                  <View style={styles.remove}>
+                    <DeleteAction
+                      kind="company"
+                      id={c.id}
+                      noun="company"
+                      name={c.name}
+                      consequence={
+                        'The operator company and its contacts leave the register. A company that still has ' +
+                        'sites, rides or user accounts stays: move or remove those first. The audit log keeps ' +
+                        'a record of the removal.'
+                      }
+                      listHref={companiesHref}
+                    />
+                  </View>
+                ) : null}
               </Card>
             }
           />
@@ -70,5 +87,6 @@ function CompanyView({ id, role }: { id: string; role: Role }) {
 }
 
 const styles = StyleSheet.create({
+  remove: { paddingTop: space.md, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
   contact: { gap: 2, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
 });

@@ -4,24 +4,26 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { RoleGate } from '@/features/auth/ui';
 import { useRideUpdateMutation } from '@/features/registry/api';
+import { DeleteAction } from '@/features/registry/delete-action';
 import { RideForm, type RideFormInput } from '@/features/registry/ride-form';
 import { useRideFormOptions } from '@/features/registry/ride-form-options';
 import { useRideIdParam } from '@/features/registry/ride-route';
 import { WithRide, FormCard } from '@/features/registry/with-ride';
-import { rideHref } from '@/features/rides';
+import { rideHref, ridesHref } from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
+import type { Role } from '@/features/session/schema';
 
 /** Administrators and supervisors correct a ride's identity and place. */
 export function RideEditScreen() {
   const id = useRideIdParam();
   return (
     <RoleGate roles={['admin', 'supervisor']}>
-      {() => <WithRide id={id}>{(ride) => <RideEdit ride={ride} />}</WithRide>}
+      {(user) => <WithRide id={id}>{(ride) => <RideEdit ride={ride} role={user.role} />}</WithRide>}
     </RoleGate>
   );
 }
 
-function RideEdit({ ride }: { ride: RideSummary }) {
+function RideEdit({ ride, role }: { ride: RideSummary; role: Role }) {
   const options = useRideFormOptions();
   const update = useRideUpdateMutation(ride.id);
   const values: RideFormInput = {
@@ -60,6 +62,23 @@ function RideEdit({ ride }: { ride: RideSummary }) {
           <Text muted>{options.failed ? 'Companies and sites could not be loaded.' : 'Loading…'}</Text>
         )}
       </FormCard>
+      {role === 'admin' ? (
+        <FormCard>
+          <Text variant="heading">Remove from the register</Text>
+          <DeleteAction
+            kind="ride"
+            id={ride.id}
+            noun="ride"
+            name={ride.name}
+            consequence={
+              'The ride leaves the register. Only a ride entered by mistake can go: one with design data, ' +
+              'schedules, inspections or notices stays (set it out of service instead). The audit log ' +
+              'keeps a record of the removal.'
+            }
+            listHref={ridesHref}
+          />
+        </FormCard>
+      ) : null}
     </SubScreen>
   );
 }

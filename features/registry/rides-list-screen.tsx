@@ -25,6 +25,7 @@ import { newRideHref, rideHref } from '@/features/rides';
 import { RideClassFilter, RideStatusFilter, RideCard } from '@/features/rides/ui';
 import { PagedList } from '@/components/paged-list';
 import { RegisterTabs } from '@/features/registry/register-tabs';
+import { RemovalNotice } from '@/features/registry/removal-notice';
 import { type RideSortKey, rideListQuerySchema } from '@/features/registry/schema';
 import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
@@ -125,6 +126,7 @@ function RidesList({ user }: { user: SessionUser }) {
       }
     >
       {staff ? <RegisterTabs role={user.role} /> : null}
+      <RemovalNotice />
       <FilterPanel
         active={activeFilters}
         search={

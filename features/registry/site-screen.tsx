@@ -1,13 +1,16 @@
 import { router, useLocalSearchParams } from 'expo-router';
+import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Panes } from '@/components/panes';
 import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
+import { colors, space } from '@/components/theme';
 import { RoleGate } from '@/features/auth/ui';
 import { useRidePageQuery, useSiteQuery } from '@/features/registry/api';
 import { Field } from '@/features/registry/design-view';
+import { DeleteAction } from '@/features/registry/delete-action';
 import { siteEditHref, sitesHref } from '@/features/registry/hrefs';
 import { NotFound, RidesPane } from '@/features/registry/register-parts';
 import { siteKindLabel } from '@/features/registry/schema';
@@ -49,6 +52,21 @@ function SiteView({ id, role }: { id: string; role: Role }) {
                   value={s.timeZone ?? `${s.effectiveTimeZone} (the inspection body’s default)`}
                 />
                 <Field label="Operator" value={s.operatorName} />
+                {role === 'admin' ? (
+                  <View style={styles.remove}>
+                    <DeleteAction
+                      kind="site"
+                      id={s.id}
+                      noun="site"
+                      name={s.name}
+                      consequence={
+                        'The site leaves the register. A site with rides on it stays: move its rides to ' +
+                        'another site first. The audit log keeps a record of the removal.'
+                      }
+                      listHref={sitesHref}
+                    />
+                  </View>
+                ) : null}
               </Card>
             }
           />
@@ -57,3 +75,7 @@ function SiteView({ id, role }: { id: string; role: Role }) {
     </QueryState>
   );
 }
+
+const styles = StyleSheet.create({
+  remove: { paddingTop: space.md, borderTopWidth: 1, borderTopColor: colors.surfaceSunk },
+});

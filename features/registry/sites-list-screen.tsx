@@ -19,6 +19,7 @@ import { operatorChoices, useCompanyListQuery, useSiteListQuery } from '@/featur
 import { newSiteHref, siteHref } from '@/features/registry/hrefs';
 import { PAGE_SIZE } from '@/features/registry/register-parts';
 import { RegisterTabs } from '@/features/registry/register-tabs';
+import { RemovalNotice } from '@/features/registry/removal-notice';
 import { TimeZoneCard } from '@/features/registry/time-zone-card';
 import {
   type Site,
@@ -59,6 +60,7 @@ function SitesList({ user }: { user: SessionUser }) {
       }
     >
       <RegisterTabs role={user.role} />
+      <RemovalNotice />
       <Card style={styles.filters}>
         <View style={wide ? styles.row : styles.list}>
           <View style={wide ? styles.flex2 : undefined}>

@@ -63,6 +63,7 @@ export const designPutBodySchema = z.object({
   data: designDataSchema,
   basedOnVersion: z.number().int().min(0).optional(),
 });
+export type DesignPutBody = z.input<typeof designPutBodySchema>;
 
 export const designResponseSchema = z.object({ design: designVersionSchema });
 
