@@ -20,7 +20,13 @@ import {
 import { PendingRevision } from '@/features/registry/pending-revision';
 import { canEditRides } from '@/features/registry/ride-route';
 import type { DesignVersion, DesignVersionInfo } from '@/features/registry/schema';
-import { rideDesignHref, rideHref, rideImportHref, rideVersionHref } from '@/features/rides';
+import {
+  rideDesignEditHref,
+  rideDesignHref,
+  rideHref,
+  rideImportHref,
+  rideVersionHref,
+} from '@/features/rides';
 import type { RideSummary } from '@/features/rides/schema';
 import type { Role, SessionUser } from '@/features/session/schema';
 import { useUnitSystem } from '@/features/settings';
@@ -67,6 +73,14 @@ export function DesignPage({
           tone="quiet"
           icon={<Feather name="upload" size={18} color={colors.text} />}
           onPress={() => router.push(rideImportHref(ride.id))}
+        />
+      ) : null}
+      {canEditRides(role) && isCurrent ? (
+        <Button
+          label="Edit values field by field"
+          tone="quiet"
+          icon={<Feather name="edit-3" size={18} color={colors.text} />}
+          onPress={() => router.push(rideDesignEditHref(ride.id))}
         />
       ) : null}
       <Card>

@@ -17,6 +17,7 @@ export const rideDesignHref = (id: string) => `${ride(id)}/design` as const sati
 export const rideVersionHref = (id: string, version: number) =>
   `${ride(id)}/versions/${version}` as const satisfies Href;
 export const rideImportHref = (id: string) => `${ride(id)}/import` as const satisfies Href;
+export const rideDesignEditHref = (id: string) => `${ride(id)}/edit-design` as const satisfies Href;
 export const rideScheduleHref = (id: string) => `${ride(id)}/schedule` as const satisfies Href;
 export const rideLogHref = (id: string) => `${ride(id)}/log` as const satisfies Href;
 export const rideNdtHref = (id: string) => `${ride(id)}/ndt` as const satisfies Href;

@@ -6,6 +6,7 @@ export {
   rideEditHref,
   rideHref,
   rideImportHref,
+  rideDesignEditHref,
   rideLogHref,
   rideNdtHref,
   rideScheduleHref,

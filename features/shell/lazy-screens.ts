@@ -102,6 +102,7 @@ export const RideStatusScreen = lazyScreen(rides, 'RideStatusScreen');
 export const RideScheduleScreen = lazyScreen(rides, 'RideScheduleScreen');
 export const DesignScreen = lazyScreen(rides, 'DesignScreen');
 export const DesignImportScreen = lazyScreen(rides, 'DesignImportScreen');
+export const DesignEditScreen = lazyScreen(rides, 'DesignEditScreen');
 export const DesignVersionScreen = lazyScreen(rides, 'DesignVersionScreen');
 export const RunningLogScreen = lazyScreen(rides, 'RunningLogScreen');
 export const NdtScreen = lazyScreen(rides, 'NdtScreen');

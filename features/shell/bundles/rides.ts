@@ -11,6 +11,7 @@ export { CompaniesListScreen } from '@/features/registry/companies-list-screen';
 export { CompanyEditScreen } from '@/features/registry/company-edit-screen';
 export { CompanyScreen } from '@/features/registry/company-screen';
 export { DesignImportScreen } from '@/features/registry/design-import-screen';
+export { DesignEditScreen } from '@/features/registry/design-edit-screen';
 export { DesignScreen } from '@/features/registry/design-screen';
 export { DesignVersionScreen } from '@/features/registry/design-version-screen';
 export { RideCreateScreen } from '@/features/registry/ride-create-screen';
