@@ -113,7 +113,7 @@ const styles = StyleSheet.create({
   },
   row: { flexDirection: 'row', alignItems: 'center', minHeight: 44, paddingHorizontal: space.md },
   headRow: { backgroundColor: colors.surfaceSunk, minHeight: 38 },
-  zebra: { backgroundColor: '#F8FAFB' },
+  zebra: { backgroundColor: colors.surfaceAlt },
   cell: { paddingHorizontal: space.sm, paddingVertical: space.sm, minWidth: 0 },
   right: { textAlign: 'right' },
 });

@@ -1,7 +1,7 @@
 import Svg, { Circle, Line, Path, Rect } from 'react-native-svg';
 
 import { MarkBadge } from '@/components/mark-badge';
-import { colors } from '@/lib/colors';
+import { colors } from '@/components/theme';
 import { ICON_BOX, iconParts, type IconPart, type MarkIconName, type Paint } from '@/lib/mark-icons';
 import type { Mark } from '@/lib/vocabulary';
 

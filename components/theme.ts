@@ -1,8 +1,11 @@
 /**
- * Pivotwatch design tokens: one place for colour, type, spacing and layout. The colours live in
- * lib/colors.ts (no React, so the server's PDFs and e-mails use the same values) and are re-exported here.
+ * Pivotwatch design tokens: one place for colour, type, spacing and layout. The colours' values live in
+ * lib/colors.ts (no React, so the server's PDFs and e-mails use the same light values); `colors` here is the
+ * theme in force (`theme-colors.ts` on a phone: the palette chosen at start; `theme-colors.web.ts`: CSS
+ * custom properties that follow the system's scheme or the person's choice).
  */
-export { colors, contrastPairs, type ColorToken } from '@/lib/colors';
+export { contrastPairs, type ColorToken } from '@/lib/colors';
+export { colors } from '@/components/theme-colors';
 
 /**
  * Font family names as the app registers them (`components/app-fonts.ts`): IBM Plex's TTF on a phone, its

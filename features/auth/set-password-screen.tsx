@@ -126,7 +126,7 @@ function PasswordForm({ token, info }: { token: string; info: PasswordLinkInfo }
 }
 
 const styles = StyleSheet.create({
-  root: { flex: 1, backgroundColor: colors.base },
+  root: { flex: 1, backgroundColor: colors.chrome },
   content: { flexGrow: 1, padding: space.lg, gap: space.lg, justifyContent: 'center' },
   contentWide: { padding: 64 },
   brand: { alignItems: 'center' },

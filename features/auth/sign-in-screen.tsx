@@ -56,7 +56,7 @@ export function SignInScreen() {
     <ScrollView style={styles.root} contentContainerStyle={wide ? styles.wide : styles.phone}>
       <View style={wide ? styles.brandWide : styles.brandPhone}>
         <Logo size={wide ? 48 : 36} onDark />
-        <Text variant={wide ? 'display' : 'title'} color={colors.baseText} style={styles.claim}>
+        <Text variant={wide ? 'display' : 'title'} color={colors.chromeText} style={styles.claim}>
           Pivot loads, wear and findings for rotating-arm rides — recorded at the ride, checked against its
           design envelope.
         </Text>
@@ -67,7 +67,7 @@ export function SignInScreen() {
               'Supervisors see flagged rides first and decide with loads, photos and findings side by side.',
               'Ride operators receive notices, acknowledge them and report corrective work.',
             ].map((p) => (
-              <Text key={p} color={colors.baseMuted}>
+              <Text key={p} color={colors.chromeMuted}>
                 — {p}
               </Text>
             ))}
@@ -83,7 +83,7 @@ export function SignInScreen() {
 }
 
 const styles = StyleSheet.create({
-  root: { flex: 1, backgroundColor: colors.base },
+  root: { flex: 1, backgroundColor: colors.chrome },
   phone: { flexGrow: 1 },
   wide: { flexGrow: 1, flexDirection: 'row', minHeight: '100%' },
   brandPhone: { padding: space.xl, paddingTop: space.xxl, gap: space.lg },

@@ -38,10 +38,10 @@ export function AppShell({ user, children }: { user: SessionUser; children: Reac
             ))}
           </View>
           <View style={styles.sideUser}>
-            <Text variant="heading" color={colors.baseText}>
+            <Text variant="heading" color={colors.chromeText}>
               {user.name}
             </Text>
-            <Text variant="small" color={colors.baseMuted}>
+            <Text variant="small" color={colors.chromeMuted}>
               {roleLabel[user.role]}
               {user.companyName ? ` · ${user.companyName}` : ''}
             </Text>
@@ -60,7 +60,7 @@ export function AppShell({ user, children }: { user: SessionUser; children: Reac
     <View style={[styles.phoneRoot, { paddingTop: insets.top }]}>
       <View style={styles.topBar}>
         <Logo size={26} onDark />
-        <Text variant="small" color={colors.baseMuted} numberOfLines={1}>
+        <Text variant="small" color={colors.chromeMuted} numberOfLines={1}>
           {roleLabel[user.role]}
         </Text>
       </View>
@@ -99,8 +99,8 @@ function SideItem({ item, active }: { item: NavItem; active: boolean }) {
         // Link (asChild) hands its style to the DOM node as-is on web: pass one flat object, not an array.
         style={StyleSheet.flatten([styles.sideItem, active && styles.sideItemActive])}
       >
-        <Feather name={item.icon} size={20} color={active ? colors.baseText : colors.baseMuted} />
-        <Text variant="heading" color={active ? colors.baseText : colors.baseMuted}>
+        <Feather name={item.icon} size={20} color={active ? colors.chromeText : colors.chromeMuted} />
+        <Text variant="heading" color={active ? colors.chromeText : colors.chromeMuted}>
           {item.label}
         </Text>
       </Pressable>
@@ -132,7 +132,7 @@ const styles = StyleSheet.create({
   wideRoot: { flex: 1, flexDirection: 'row', backgroundColor: colors.bg },
   side: {
     width: layout.sideNavWidth,
-    backgroundColor: colors.base,
+    backgroundColor: colors.chrome,
     paddingVertical: space.xl,
     paddingHorizontal: space.md,
   },
@@ -147,13 +147,13 @@ const styles = StyleSheet.create({
     borderRadius: 10,
   },
   sideItemActive: {
-    backgroundColor: colors.baseRaised,
+    backgroundColor: colors.chromeRaised,
     borderLeftWidth: 4,
-    borderLeftColor: colors.accentSoft,
+    borderLeftColor: colors.chromeAccent,
   },
   sideUser: {
     borderTopWidth: 1,
-    borderTopColor: colors.baseRaised,
+    borderTopColor: colors.chromeRaised,
     paddingTop: space.lg,
     paddingHorizontal: space.sm,
     gap: 2,
@@ -161,7 +161,7 @@ const styles = StyleSheet.create({
   wideMain: { flex: 1 },
   phoneRoot: { flex: 1, backgroundColor: colors.bg },
   topBar: {
-    backgroundColor: colors.base,
+    backgroundColor: colors.chrome,
     flexDirection: 'row',
     alignItems: 'center',
     justifyContent: 'space-between',

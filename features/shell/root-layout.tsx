@@ -20,7 +20,7 @@ export function RootLayout() {
   if (!fontsReady) {
     return (
       <View style={styles.splash}>
-        <ActivityIndicator color={colors.baseText} />
+        <ActivityIndicator color={colors.chromeText} />
       </View>
     );
   }
@@ -34,5 +34,5 @@ export function RootLayout() {
 }
 
 const styles = StyleSheet.create({
-  splash: { flex: 1, alignItems: 'center', justifyContent: 'center', backgroundColor: colors.base },
+  splash: { flex: 1, alignItems: 'center', justifyContent: 'center', backgroundColor: colors.chrome },
 });

@@ -65,10 +65,10 @@ export function TapTimer({ per = 'revolution', onUse }: Props) {
     <Card>
       <MotionPicture kind={per} />
       <TapPad onTap={onTap} label={words.label} hint={words.hint} style={[styles.pad, lit && styles.padLit]}>
-        <Text variant="title" color={colors.baseText}>
+        <Text variant="title" color={colors.chromeText}>
           {words.label}
         </Text>
-        <Text color={colors.baseMuted} style={styles.center}>
+        <Text color={colors.chromeMuted} style={styles.center}>
           {taps.length === 0 ? words.hint : `${taps.length} taps`}
         </Text>
       </TapPad>
@@ -116,13 +116,13 @@ const styles = StyleSheet.create({
   pad: {
     minHeight: PAD_HEIGHT,
     borderRadius: radius.lg,
-    backgroundColor: colors.base,
+    backgroundColor: colors.chrome,
     alignItems: 'center',
     justifyContent: 'center',
     gap: space.xs,
     padding: space.lg,
   },
-  padLit: { backgroundColor: colors.baseRaised },
+  padLit: { backgroundColor: colors.chromeRaised },
   center: { textAlign: 'center' },
   list: { gap: space.xs, padding: space.md, backgroundColor: colors.nearSoft, borderRadius: radius.md },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', justifyContent: 'flex-end' },
