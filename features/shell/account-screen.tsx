@@ -7,6 +7,7 @@ import { roleLabel, useSession } from '@/features/auth';
 import { PasswordChangeCard } from '@/features/auth/ui';
 import { PhoneStorageCard } from '@/features/device-db/ui';
 import { InspectorSignOut, SignOutButton } from '@/features/shell/sign-out-card';
+import { ThemeCard } from '@/features/shell/theme-card';
 
 /**
  * The person's own page. It lives in the shell, above the device database and sync, because signing out
@@ -34,6 +35,7 @@ export function AccountScreen() {
   const settings = (
     <>
       <PasswordChangeCard user={user} />
+      <ThemeCard />
       <PhoneStorageCard />
     </>
   );
