@@ -11,7 +11,7 @@ import { reviewHref } from '@/features/review/hrefs';
 import type { InspectionDetail, ReviewState } from '@/features/review/inspection-schema';
 import { reviewStateLabel } from '@/features/review/review-format';
 import { rideHref } from '@/features/rides';
-import { formatDateTime } from '@/lib/dates';
+import { deviceTimeZone, formatDateTime, formatWhen } from '@/lib/dates';
 
 /** Who, what, when and where it stands: the ride (with its status), the load check, the review. */
 export function InspectionHeader({
@@ -21,6 +21,8 @@ export function InspectionHeader({
   inspection: InspectionDetail;
   rideStatus: 'in_service' | 'restricted' | 'out_of_service' | null;
 }) {
+  // Times on the site's clock (the zone is written after the submission and receipt times).
+  const zone = i.siteTimeZone ?? deviceTimeZone();
   return (
     <Card style={styles.header}>
       <View style={styles.headerTop}>
@@ -48,8 +50,8 @@ export function InspectionHeader({
       <View style={styles.facts}>
         <Fact label="Type" value={inspectionTypeLabel[i.type]} />
         <Fact label="Inspector" value={i.inspectorName} />
-        <Fact label="Submitted" value={formatDateTime(i.submittedAt)} />
-        <Fact label="Received" value={formatDateTime(i.receivedAt)} />
+        <Fact label="Submitted" value={formatWhen(i.submittedAt, zone)} />
+        <Fact label="Received" value={formatWhen(i.receivedAt, zone)} />
         <Fact label="Review" value={reviewStateLabel[i.reviewState]} />
         <Fact
           label="Recorded"
@@ -59,7 +61,7 @@ export function InspectionHeader({
       {i.reviewedAt ? (
         <Text variant="small" muted>
           {reviewStateLabel[i.reviewState]} by {i.reviewedByName ?? 'someone'} on{' '}
-          {formatDateTime(i.reviewedAt)}
+          {formatDateTime(i.reviewedAt, zone)}
           {i.reviewNote ? `: “${i.reviewNote}”` : ''}
         </Text>
       ) : null}
@@ -68,7 +70,7 @@ export function InspectionHeader({
         <InspectionLink
           key={a.id}
           id={a.id}
-          label={`Corrected by a later inspection (${formatDateTime(a.submittedAt)})`}
+          label={`Corrected by a later inspection (${formatDateTime(a.submittedAt, zone)})`}
         />
       ))}
       {i.record.declaration ? (
@@ -78,7 +80,8 @@ export function InspectionHeader({
           </Text>
           <Text>“{i.record.declaration.text}”</Text>
           <Text variant="small" muted>
-            Made by {i.record.declaration.declaredByName} on {formatDateTime(i.record.declaration.declaredAt)}
+            Made by {i.record.declaration.declaredByName} on{' '}
+            {formatDateTime(i.record.declaration.declaredAt, zone)}
           </Text>
         </View>
       ) : (

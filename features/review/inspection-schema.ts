@@ -228,6 +228,8 @@ export const inspectionDetailSchema = z.object({
   startedAt: z.string(),
   submittedAt: z.string(),
   receivedAt: z.string(),
+  /** The ride's site's zone (else the inspection body's default): the desk shows times on that clock. */
+  siteTimeZone: z.string().optional(),
   designVersionId: z.string().nullable(),
   /** The number of that design-data version (null without design data; absent from older servers). */
   designVersion: z.number().int().nullable().optional(),

@@ -12,6 +12,7 @@ import type { SessionUser } from '@/features/session/schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { offsetOf } from '@/server/registry/query';
+import { rideTimeZone } from '@/server/schedule-due';
 import { listFindings } from '@/server/findings/findings';
 
 const reviewer = alias(users, 'reviewer');
@@ -154,6 +155,8 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
 
   return {
     ...row,
+    /** The clock the desk shows its times on: the ride's site's zone, else the inspection body's default. */
+    siteTimeZone: rideTimeZone(db, row.rideId),
     readingCount: Number(row.readingCount),
     photoCount: Number(row.photoCount),
     photosMissing: Number(row.photosMissing),

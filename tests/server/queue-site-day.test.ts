@@ -88,6 +88,11 @@ describe('the queue’s From/To on the site’s clock', () => {
     expect(found?.day).toBe('2026-12-02');
     expect(found?.at).toBe(submittedAt);
     expect((await keysBetween('2026-12-03', '2026-12-03')).map((i) => i.key)).not.toContain(item.key);
+    // The desk's inspection page shows its times on the same clock.
+    const detail = await request(server.app)
+      .get(`/api/inspections/${item.inspectionId}`)
+      .set('Authorization', `Bearer ${token}`);
+    expect(detail.body.inspection.siteTimeZone).toBe('America/Los_Angeles');
   });
 
   test('in New Zealand the same instant is 3 Dec', async () => {
