@@ -9,7 +9,7 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { formatShortStamp } from '@/lib/dates';
 import { fieldKeys } from '@/features/device-db';
-import type { SyncStatus, SyncStatusHook } from '@/features/sync/ui';
+import { type SyncStatus, type SyncStatusHook, SyncProgressView } from '@/features/sync/ui';
 
 function ago(iso: string | null): string {
   if (!iso) return 'never';
@@ -80,6 +80,7 @@ export function SyncPanel({ status }: { status: SyncStatusHook }) {
           onPress={() => void status.syncNow()}
         />
       </View>
+      <SyncProgressView progress={status.progress} />
       {status.online ? null : (
         <View style={styles.offline} role="status" accessibilityLiveRegion="polite">
           <Feather name="cloud-off" size={16} color={colors.near} />

@@ -11,13 +11,16 @@ import { type DeviceDb, ownedBy } from '@/features/device-db';
 import { getPhotoBytes, markPhotoUploaded } from '@/features/device-db';
 import type { SyncApi } from '@/features/sync/api';
 import { type SendFailure, backoffMs, classifyFailure } from '@/features/sync/outbox-machine';
+import type { PhotoProgress, PhotosProgress } from '@/features/sync/sync-progress';
 
-export type PhotoProgress = { sha256: string; sentBytes: number; totalBytes: number };
+export type { PhotoProgress } from '@/features/sync/sync-progress';
 
 type PhotoUploadOptions = {
   now?: () => Date;
   force?: boolean;
   onProgress?: (progress: PhotoProgress) => void;
+  /** The run's photos and bytes so far of those due, with the photo going up (its bytes as they go). */
+  onOverall?: (progress: PhotosProgress) => void;
 };
 
 export type PhotoUploadReport = { uploaded: number; rejected: number; failure: SendFailure | null };
@@ -43,21 +46,47 @@ export async function uploadPhotos(
     .orderBy(photoBlobs.createdAt)
     .all();
 
-  for (const photo of waiting) {
+  const start = clock().toISOString();
+  const due = waiting.filter((p) => options.force || p.nextAttemptAt === null || p.nextAttemptAt <= start);
+  // Counted up front: photos (and their bytes) gone through or refused; the bar stays where a failure stops it.
+  const photos = { done: 0, total: due.length };
+  const sent = { done: 0, total: due.reduce((sum, p) => sum + p.bytes, 0) };
+  const reportOverall = (current: PhotoProgress | null) =>
+    options.onOverall?.({
+      photos: { ...photos },
+      bytes: { done: Math.min(sent.total, sent.done + (current?.sentBytes ?? 0)), total: sent.total },
+      current,
+    });
+  const finished = (photo: { bytes: number }) => {
+    photos.done++;
+    sent.done += photo.bytes;
+    reportOverall(null);
+  };
+  if (due.length > 0) reportOverall(null);
+
+  for (const photo of due) {
     const now = clock();
-    if (!options.force && photo.nextAttemptAt !== null && photo.nextAttemptAt > now.toISOString()) continue;
     const bytes = await getPhotoBytes(dev, photo.sha256);
-    if (!bytes) continue;
+    if (!bytes) {
+      // Its bytes are gone from the store: nothing to send, so it leaves the count.
+      photos.total--;
+      sent.total -= photo.bytes;
+      reportOverall(null);
+      continue;
+    }
     await dev.db
       .update(photoBlobs)
       .set({ uploadState: 'uploading', uploadedBytes: 0, updatedAt: now.toISOString() })
       .where(eq(photoBlobs.sha256, photo.sha256))
       .run();
-    options.onProgress?.({ sha256: photo.sha256, sentBytes: 0, totalBytes: bytes.length });
+    const going = (sentBytes: number, totalBytes: number) => {
+      const current = { sha256: photo.sha256, sentBytes, totalBytes };
+      options.onProgress?.(current);
+      reportOverall(current);
+    };
+    going(0, bytes.length);
     try {
-      await api.putPhoto({ sha256: photo.sha256, mime: photo.mime, bytes }, (sentBytes, totalBytes) =>
-        options.onProgress?.({ sha256: photo.sha256, sentBytes, totalBytes }),
-      );
+      await api.putPhoto({ sha256: photo.sha256, mime: photo.mime, bytes }, going);
     } catch (err) {
       const failure = classifyFailure(err);
       const at = clock();
@@ -68,6 +97,7 @@ export async function uploadPhotos(
           .where(and(eq(photoBlobs.sha256, photo.sha256)))
           .run();
         report.rejected++;
+        finished(photo);
         continue;
       }
       const attempts = failure.kind === 'auth' ? photo.attempts : photo.attempts + 1;
@@ -90,6 +120,7 @@ export async function uploadPhotos(
     await markPhotoUploaded(dev, photo.sha256, clock());
     options.onProgress?.({ sha256: photo.sha256, sentBytes: bytes.length, totalBytes: bytes.length });
     report.uploaded++;
+    finished(photo);
   }
   return report;
 }

@@ -48,7 +48,11 @@ function isStaleCursor(err: unknown): boolean {
 export async function pull(
   api: SyncApi,
   dev: DeviceDb,
-  options: { now?: () => Date } = {},
+  options: {
+    now?: () => Date;
+    /** Pages stored so far, and whether the server said more follow (their number is never known ahead). */
+    onPage?: (pages: number, more: boolean) => void;
+  } = {},
 ): Promise<PullReport> {
   const clock = options.now ?? (() => new Date());
   let cursor = await getSyncMeta(dev, 'pullCursor');
@@ -106,6 +110,7 @@ export async function pull(
     report.decisions += res.decisions?.length ?? 0;
     report.instruments += res.instruments?.length ?? 0;
     report.cursor = cursor = res.cursor;
+    options.onPage?.(report.pages, !!res.hasMore);
     if (!res.hasMore) break;
   }
   return report;

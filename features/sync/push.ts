@@ -20,6 +20,7 @@ import {
   isDue,
   transition,
 } from '@/features/sync/outbox-machine';
+import type { PushProgress } from '@/features/sync/sync-progress';
 
 /**
  * Records per push: as many as the server takes in one (each push is one commit on the server and one round
@@ -38,6 +39,8 @@ type PushOptions = {
   /** Ignore back-off (the inspector pressed "sync now"). */
   force?: boolean;
   batchSize?: number;
+  /** Records and batches sent of those due, after each claim and each answer (features/sync/sync-progress.ts). */
+  onProgress?: (progress: PushProgress) => void;
 };
 
 export type PushReport = {
@@ -80,10 +83,41 @@ async function writeEntry(tx: DeviceDb, id: string, entry: OutboxEntry, now: Dat
  * batch id by an earlier failure go first, together and under that same id; otherwise up to `size` of
  * the oldest due records get a fresh id.
  */
+type Candidate = { id: string; batchId: string | null; bytes: number };
+
+/**
+ * The next batch out of the due candidates (in send order): the rows of an earlier failed batch, under its
+ * id, else up to `size` fresh rows within the byte limit. One rule for claiming and for counting ahead.
+ */
+function pickBatch(candidates: Candidate[], size: number): { resendId: string | null; ids: string[] } {
+  const resend = candidates.find((c) => c.batchId !== null);
+  if (resend)
+    return {
+      resendId: resend.batchId,
+      ids: candidates.filter((c) => c.batchId === resend.batchId).map((c) => c.id),
+    };
+  return {
+    resendId: null,
+    ids: withinBytes(candidates.slice(0, size), MAX_BATCH_BYTES).map((c) => c.id),
+  };
+}
+
+/** How many batches `candidates` take, batch by batch as `pickBatch` would make them. */
+function batchesFor(candidates: Candidate[], size: number): number {
+  let left = candidates;
+  let n = 0;
+  while (left.length > 0) {
+    const taken = new Set(pickBatch(left, size).ids);
+    left = left.filter((c) => !taken.has(c.id));
+    n++;
+  }
+  return n;
+}
+
 async function claimBatch(
   dev: DeviceDb,
   opts: { newId: () => string; now: Date; force: boolean; size: number; skip: Set<string> },
-): Promise<{ batchId: string; rows: OutboxRow[] } | null> {
+): Promise<{ batchId: string; rows: OutboxRow[]; dueRecords: number; batchesAfter: number } | null> {
   return dev.transaction(async (tx) => {
     const candidates = (
       await tx.db
@@ -102,13 +136,14 @@ async function claimBatch(
     ).filter((c) => !opts.skip.has(c.id) && isDue(c, opts.now, opts.force));
     if (candidates.length === 0) return null;
 
-    const resend = candidates.find((c) => c.batchId !== null);
-    const batchId = resend?.batchId ?? opts.newId();
-    const ids = resend
-      ? candidates.filter((c) => c.batchId === batchId).map((c) => c.id)
-      : withinBytes(candidates.filter((c) => c.batchId === null).slice(0, opts.size), MAX_BATCH_BYTES).map(
-          (c) => c.id,
-        );
+    const picked = pickBatch(candidates, opts.size);
+    const batchId = picked.resendId ?? opts.newId();
+    const ids = picked.ids;
+    const taken = new Set(ids);
+    const batchesAfter = batchesFor(
+      candidates.filter((c) => !taken.has(c.id)),
+      opts.size,
+    );
 
     const rows = await tx.db
       .select()
@@ -120,7 +155,7 @@ async function claimBatch(
       const next = transition(entryOf(row), { type: 'send', batchId }, opts.now);
       await writeEntry(tx, row.id, next, opts.now);
     }
-    return { batchId, rows };
+    return { batchId, rows, dueRecords: candidates.length, batchesAfter };
   });
 }
 
@@ -174,6 +209,14 @@ export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptio
     });
     if (!batch) break;
     batch.rows.forEach((r) => tried.add(r.id));
+    // Counted before the request leaves: the records of this run so far and those still due after it.
+    const sentBefore = report.accepted + report.rejected + report.requeued;
+    const batchesTotal = report.batches + 1 + batch.batchesAfter;
+    const progressOf = (recordsDone: number, batchesDone: number): PushProgress => ({
+      records: { done: recordsDone, total: sentBefore + batch.dueRecords },
+      batches: { done: batchesDone, total: batchesTotal },
+    });
+    options.onProgress?.(progressOf(sentBefore, report.batches));
     report.batches++;
 
     let result: PushResult;
@@ -185,6 +228,7 @@ export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptio
       await settle(dev, batch.rows, () => ({ type: 'failed', failure }), clock());
       report.requeued += batch.rows.length;
       report.failure = failure;
+      // The bar stays where this batch began: its records are back in the queue, not sent.
       break;
     }
 
@@ -206,6 +250,7 @@ export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptio
       else if (status === 'rejected') report.rejected++;
       else report.requeued++;
     }
+    options.onProgress?.(progressOf(sentBefore + batch.rows.length, report.batches));
   }
   return report;
 }

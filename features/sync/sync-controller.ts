@@ -29,6 +29,7 @@ import {
 import { createHttpSyncApi } from '@/features/sync/http-api';
 import { photosWaitingCount } from '@/features/sync/photo-counts';
 import { type PhotoProgress, requeuePhoto } from '@/features/sync/photo-upload';
+import type { SyncProgress } from '@/features/sync/sync-progress';
 import { syncOnce } from '@/features/sync/sync-run';
 
 const SYNC_INTERVAL_MS = 30_000;
@@ -48,6 +49,11 @@ export type SyncStatus = {
   photosRefused: PhotoBlob[];
   /** The photo going up now, with bytes sent so far. */
   currentPhoto: PhotoProgress | null;
+  /**
+   * The current run step by step, or the last one's as it ended (kept so a stopped run shows where it
+   * stopped); null before the first run.
+   */
+  progress: SyncProgress | null;
   lastSuccessAt: string | null;
   lastAttemptAt: string | null;
   lastError: string | null;
@@ -65,6 +71,7 @@ const emptySyncStatus: SyncStatus = {
   photoBytesWaiting: 0,
   photosRefused: [],
   currentPhoto: null,
+  progress: null,
   lastSuccessAt: null,
   lastAttemptAt: null,
   lastError: null,
@@ -133,7 +140,7 @@ class SyncController {
       await this.refresh().catch(() => undefined);
       return;
     }
-    this.set({ running: true });
+    this.set({ running: true, progress: null });
     this.lastRunAt = Date.now();
     try {
       await syncOnce(this.api, this.dev, {
@@ -141,6 +148,7 @@ class SyncController {
         force,
         signedInUserId: (await tokenStore.get())?.user.id ?? null,
         onPhotoProgress: (p) => this.set({ currentPhoto: p }),
+        onProgress: (progress) => this.set({ progress }),
       });
     } catch (err) {
       // The engine records its own failures; this is a database error, shown the same way.

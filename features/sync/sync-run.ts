@@ -15,6 +15,16 @@ import type { SendFailure } from '@/features/sync/outbox-machine';
 import { type PhotoProgress, type PhotoUploadReport, uploadPhotos } from '@/features/sync/photo-upload';
 import { type PullReport, pull } from '@/features/sync/pull';
 import { type PushReport, pushOutbox } from '@/features/sync/push';
+import {
+  type SyncProgress,
+  onPhotos,
+  onPush,
+  onUpdatePage,
+  runEnded,
+  stepEnded,
+  stepStarted,
+  syncStarting,
+} from '@/features/sync/sync-progress';
 
 type SyncRunOptions = {
   newId: () => string;
@@ -26,6 +36,8 @@ type SyncRunOptions = {
    */
   signedInUserId?: string | null;
   onPhotoProgress?: (progress: PhotoProgress) => void;
+  /** Every step of the run as it goes (features/sync/sync-progress.ts); the last one says how it ended. */
+  onProgress?: (progress: SyncProgress) => void;
 };
 
 type SyncRunReport = {
@@ -62,27 +74,44 @@ async function runSync(api: SyncApi, dev: DeviceDb, options: SyncRunOptions): Pr
   }
   await setSyncMeta(dev, 'lastAttemptAt', clock().toISOString());
   const stop = (f: SendFailure | null) => f !== null && (f.kind === 'network' || f.kind === 'auth');
+  let progress = syncStarting();
+  const show = (next: SyncProgress) => {
+    progress = next;
+    options.onProgress?.(progress);
+  };
+  show(stepStarted(progress, 'send'));
 
-  const push = await pushOutbox(api, dev, options);
+  const push = await pushOutbox(api, dev, { ...options, onProgress: (p) => show(onPush(progress, p)) });
+  show(stepEnded(progress, 'send', push.failure === null));
   let photos: PhotoUploadReport | null = null;
   let pulled: PullReport | null = null;
   let error: string | null = push.failure?.message ?? null;
 
   if (!stop(push.failure)) {
+    show(stepStarted(progress, 'photos'));
     photos = await uploadPhotos(api, dev, {
       now: clock,
       force: options.force,
       onProgress: options.onPhotoProgress,
+      onOverall: (p) => show(onPhotos(progress, p)),
     });
+    show(stepEnded(progress, 'photos', photos.failure === null));
     error ??= photos.failure?.message ?? null;
     if (!stop(photos.failure)) {
+      show(stepStarted(progress, 'update'));
       try {
-        pulled = await pull(api, dev, { now: clock });
+        pulled = await pull(api, dev, {
+          now: clock,
+          onPage: (pages, more) => show(onUpdatePage(progress, pages, more)),
+        });
+        show(stepEnded(progress, 'update', true));
       } catch (err) {
+        show(stepEnded(progress, 'update', false));
         error ??= err instanceof Error ? err.message : String(err);
       }
     }
   }
+  show(runEnded(progress, error === null));
 
   if (error === null) {
     await setSyncMeta(dev, 'lastSuccessAt', clock().toISOString());
