@@ -29,7 +29,8 @@ export function deleteProblem(err: unknown, name: string): FormProblem {
  * Deleting a record of the register, in two steps: the button opens a confirmation that names the record
  * and says what happens, with Cancel focused first (Escape on the web cancels too). Nothing is sent until
  * the second button. A refusal shows the server's reason and keeps the page; on success the person is
- * taken to `listHref`, where `RemovalNotice` says what went. The server writes the audit entry.
+ * taken to `listHref`, where `RemovalNotice` says what went (or `onDeleted` is told, for a record listed
+ * on the page itself). The server writes the audit entry.
  */
 export function DeleteAction({
   kind,
@@ -38,6 +39,7 @@ export function DeleteAction({
   name,
   consequence,
   listHref,
+  onDeleted,
   verb = 'Delete',
 }: {
   kind: RegisterDeletable;
@@ -48,7 +50,10 @@ export function DeleteAction({
   name: string;
   /** What deleting does, in a sentence after "Delete <name>?". */
   consequence: string;
-  listHref: Href;
+  /** Where to go once deleted (its list, which says what went)… */
+  listHref?: Href;
+  /** …or, for a record listed on the same page, what to do instead (the message says what went). */
+  onDeleted?: (message: string) => void;
   /** "Archive" where the server keeps the record readable. */
   verb?: string;
 }) {
@@ -75,8 +80,14 @@ export function DeleteAction({
     setProblem(null);
     remove.mutate(id, {
       onSuccess: () => {
-        announceRemoval(`${name} was ${past}. The audit log keeps a record of it.`);
-        router.replace(listHref);
+        const message = `${name} was ${past}. The audit log keeps a record of it.`;
+        if (onDeleted) {
+          setAsking(false);
+          onDeleted(message);
+        } else {
+          announceRemoval(message);
+          if (listHref) router.replace(listHref);
+        }
       },
       onError: (err) => {
         setAsking(false);

@@ -16,6 +16,7 @@ import {
   useScheduleCreateMutation,
   useScheduleUpdateMutation,
 } from '@/features/registry/api';
+import { DeleteAction } from '@/features/registry/delete-action';
 import { DueMark, dueInWords } from '@/features/registry/due-mark';
 import { WithRide } from '@/features/registry/with-ride';
 import { useRideIdParam } from '@/features/registry/ride-route';
@@ -43,12 +44,18 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
   const [editing, setEditing] = useState<InspectionType | null>(null);
   const create = useScheduleCreateMutation();
   const update = useScheduleUpdateMutation();
+  const [removed, setRemoved] = useState<string | null>(null);
   return (
     <SubScreen
       title={`Schedule of ${ride.name}`}
       subtitle="Inspection types, their intervals, when each is due, and who does it."
       back={{ href: rideHref(ride.id), label: ride.name }}
     >
+      {removed ? (
+        <Text role="status" color={colors.within}>
+          ✓ {removed}
+        </Text>
+      ) : null}
       <QueryState query={schedules}>
         {(list) => (
           <View style={wide ? styles.grid : styles.list}>
@@ -106,7 +113,24 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
                     ) : (
                       <ActivityIndicator color={colors.base} />
                     )
-                  ) : (
+                  ) : null}
+                  {open && s ? (
+                    <DeleteAction
+                      kind="schedule"
+                      id={s.id}
+                      noun="schedule"
+                      name={`${inspectionTypeLabel[type]} schedule of ${ride.name}`}
+                      consequence={
+                        'This inspection is no longer planned for the ride: no due date, no reminders, no ' +
+                        'assignment. Inspections already made stay. The audit log keeps a record.'
+                      }
+                      onDeleted={(message) => {
+                        setEditing(null);
+                        setRemoved(message);
+                      }}
+                    />
+                  ) : null}
+                  {open ? null : (
                     <Button
                       label={s ? 'Change or assign' : 'Plan this inspection'}
                       tone="quiet"

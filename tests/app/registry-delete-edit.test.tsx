@@ -11,6 +11,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { act, fireEvent, screen, waitFor } from 'expo-router/testing-library';
 
 import { DesignEditScreen } from '@/features/registry/design-edit-screen';
+import { RideScheduleScreen } from '@/features/registry/ride-schedule-screen';
 import { SiteScreen } from '@/features/registry/site-screen';
 import { SitesListScreen } from '@/features/registry/sites-list-screen';
 import type { DesignVersion } from '@/features/registry/schema';
@@ -198,5 +199,54 @@ describe('design data editor', () => {
       parts: [{ ...design.data.parts[0], massKg: 212.5 }],
       pivots: [{ ...design.data.pivots[0], maxForceN: 25_000 }],
     });
+  });
+});
+
+describe('deleting a schedule', () => {
+  test('from its open card, after the confirmation; the page says what went and asks for the list again', async () => {
+    const schedule = {
+      id: 'sch-1',
+      rideId: 'r-1',
+      rideName: 'Gull Wing',
+      rideClass: 'rotating_arm',
+      rideStatus: 'in_service',
+      siteName: null,
+      operatorName: 'Tamsworth Pier Leisure',
+      inspectionType: 'periodic',
+      intervalDays: 90,
+      lastDoneOn: null,
+      dueOn: '2026-12-20',
+      nextDueOn: '2026-12-20',
+      dueStatus: 'upcoming',
+      daysUntilDue: 16,
+      assignedTo: null,
+      assignedAt: null,
+      notes: null,
+      createdAt: '2026-11-20T09:30:00.000Z',
+    };
+    let deleted = false;
+    const api = standInApi({
+      '/api/rides/r-1': () => ok({ ride, design: null }),
+      '/api/rides/r-1/schedules': () => ok({ schedules: deleted ? [] : [schedule] }),
+      '/api/inspectors': () => ok({ inspectors: [] }),
+      '/api/schedules/sch-1': (call) => {
+        if (call.method !== 'DELETE') return undefined;
+        deleted = true;
+        return { status: 204 };
+      },
+    });
+    renderScreens(client('supervisor'), { 'rides/[id]/schedule': RideScheduleScreen }, '/rides/r-1/schedule');
+    fireEvent.press(await screen.findByRole('button', { name: 'Change or assign' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Delete schedule…' }));
+    expect(screen.getByText('Delete Periodic schedule of Gull Wing?')).toBeTruthy();
+    expect(api.callsTo('DELETE', '/api/schedules/sch-1')).toHaveLength(0);
+    fireEvent.press(screen.getByRole('button', { name: 'Delete Periodic schedule of Gull Wing' }));
+    expect(
+      await screen.findByText(
+        /Periodic schedule of Gull Wing was deleted\. The audit log keeps a record of it\./,
+      ),
+    ).toBeTruthy();
+    expect(api.callsTo('DELETE', '/api/schedules/sch-1')).toHaveLength(1);
+    await waitFor(() => expect(api.callsTo('GET', '/api/rides/r-1/schedules').length).toBeGreaterThan(1));
   });
 });
