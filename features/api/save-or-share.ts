@@ -8,6 +8,7 @@ import { File, Paths } from 'expo-file-system';
 import * as Sharing from 'expo-sharing';
 
 import { API_BASE } from '@/features/api/client';
+import type { OnDownloadProgress } from '@/features/api/download-progress';
 import type { FileType } from '@/features/api/file-types';
 import { OfflineError } from '@/lib/api-errors';
 import { tokenStore } from '@/features/session';
@@ -21,10 +22,21 @@ async function handOver(file: File, fileName: string, type: FileType, shared: bo
   return `Opened ${fileName} in the share sheet`;
 }
 
-/** A file the API makes (`apiPath` from `/api/…`), fetched with the session token. */
-export async function saveOrShareApiFile(apiPath: string, fileName: string, type: FileType): Promise<string> {
+/**
+ * A file the API makes (`apiPath` from `/api/…`), fetched with the session token. `onProgress` hears the
+ * steps: preparing, the bytes as expo-file-system writes them (of the whole when the server said its
+ * length), saving.
+ */
+export async function saveOrShareApiFile(
+  apiPath: string,
+  fileName: string,
+  type: FileType,
+  onProgress?: OnDownloadProgress,
+): Promise<string> {
+  onProgress?.({ step: 'preparing', receivedBytes: 0, totalBytes: null });
   const [session, shared] = await Promise.all([tokenStore.get(), Sharing.isAvailableAsync()]);
   let file: File;
+  let received = 0;
   try {
     file = await File.downloadFileAsync(
       `${API_BASE}${apiPath}`,
@@ -32,11 +44,21 @@ export async function saveOrShareApiFile(apiPath: string, fileName: string, type
       {
         headers: { Accept: type.mimeType, ...(session ? { Authorization: `Bearer ${session.token}` } : {}) },
         idempotent: true,
+        onProgress: ({ bytesWritten, totalBytes }) => {
+          received = bytesWritten;
+          // -1 when the server sent no Content-Length.
+          onProgress?.({
+            step: 'downloading',
+            receivedBytes: bytesWritten,
+            totalBytes: totalBytes > 0 && bytesWritten <= totalBytes ? totalBytes : null,
+          });
+        },
       },
     );
   } catch (err) {
     throw new OfflineError(err);
   }
+  onProgress?.({ step: 'saving', receivedBytes: received, totalBytes: received || null });
   return handOver(file, fileName, type, shared);
 }
 

@@ -4,3 +4,9 @@ export type { PaperSize } from '@/features/api/pdf-download';
 export { fileTypeOfName, fileTypes } from '@/features/api/file-types';
 export type { FileType } from '@/features/api/file-types';
 export { handOverVerb, saveOrShareApiFile, saveOrShareText } from '@/features/api/save-or-share';
+export {
+  DownloadProgressBar,
+  downloadProgressText,
+  useDownloadProgress,
+} from '@/features/api/download-progress-bar';
+export type { DownloadProgress, OnDownloadProgress } from '@/features/api/download-progress';

@@ -6,16 +6,26 @@ import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { type PaperSize, downloadPdf, handOverVerb, pdfFileName } from '@/features/api/ui';
+import {
+  DownloadProgressBar,
+  type OnDownloadProgress,
+  type PaperSize,
+  downloadPdf,
+  handOverVerb,
+  pdfFileName,
+  useDownloadProgress,
+} from '@/features/api/ui';
 
 /** The inspection report's PDF: the inspector's own copy of what they recorded. */
 const downloadInspectionReport = (
   inspection: { id: string; rideName: string; submittedAt: string | null },
   size: PaperSize,
+  onProgress: OnDownloadProgress,
 ) =>
   downloadPdf(
     `/api/inspections/${encodeURIComponent(inspection.id)}/report.pdf?size=${size}`,
     pdfFileName(`inspection-${inspection.rideName}-${(inspection.submittedAt ?? '').slice(0, 10)}`, size),
+    onProgress,
   );
 
 /**
@@ -30,11 +40,12 @@ export function ReportDownload({
 }) {
   const [busy, setBusy] = useState<PaperSize | null>(null);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const progress = useDownloadProgress();
   const download = async (size: PaperSize) => {
     setBusy(size);
     setMessage(null);
     try {
-      setMessage({ ok: true, text: await downloadInspectionReport(inspection, size) });
+      setMessage({ ok: true, text: await downloadInspectionReport(inspection, size, progress.track) });
     } catch (err) {
       const why =
         err instanceof OfflineError
@@ -45,6 +56,7 @@ export function ReportDownload({
       setMessage({ ok: false, text: `The report could not be fetched. ${why}` });
     } finally {
       setBusy(null);
+      progress.clear();
     }
   };
   const icon = <Feather name="download" size={18} color={colors.text} />;
@@ -69,6 +81,10 @@ export function ReportDownload({
           onPress={() => download('LETTER')}
         />
       </View>
+      <DownloadProgressBar
+        progress={progress.progress}
+        label={`Inspection report of ${inspection.rideName}`}
+      />
       {message ? (
         <Text
           variant="small"

@@ -14,6 +14,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
+import { DownloadProgressBar, useDownloadProgress } from '@/features/api/ui';
 import { useSession } from '@/features/auth';
 import type { SessionUser } from '@/features/session/schema';
 import { problemText } from '@/features/notices/corrective-action-form';
@@ -160,15 +161,17 @@ function PdfPanel({ notice }: { notice: NoticeDetail }) {
   const [size, setSize] = useState<PaperSize>(noticePaperOf(notice.document));
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const pdfProgress = useDownloadProgress();
   const download = async () => {
     setBusy(true);
     setMessage(null);
     try {
-      setMessage({ ok: true, text: await downloadNoticePdf(notice, size) });
+      setMessage({ ok: true, text: await downloadNoticePdf(notice, size, pdfProgress.track) });
     } catch (err) {
       setMessage({ ok: false, text: `The PDF could not be downloaded. ${problemText(err)}` });
     } finally {
       setBusy(false);
+      pdfProgress.clear();
     }
   };
   return (
@@ -195,6 +198,7 @@ function PdfPanel({ notice }: { notice: NoticeDetail }) {
         onPress={download}
         busy={busy}
       />
+      <DownloadProgressBar progress={pdfProgress.progress} label="PDF of the notice" />
       {message ? (
         <Text
           variant="small"

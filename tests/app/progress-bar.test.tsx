@@ -8,6 +8,7 @@
 import { render, screen } from '@testing-library/react-native';
 
 import { ProgressBar, ofText, percentText } from '@/components/progress-bar';
+import { DownloadProgressBar } from '@/features/api/download-progress-bar';
 import { SyncProgressView } from '@/features/sync/sync-progress-view';
 import {
   type SyncProgress,
@@ -99,5 +100,45 @@ describe('the sync run', () => {
   test('a finished run shows no bars', () => {
     render(<SyncProgressView progress={runEnded(midway(), true)} />);
     expect(screen.queryAllByRole('progressbar')).toHaveLength(0);
+  });
+});
+
+describe('a file on its way (features/api/download-progress-bar.tsx)', () => {
+  test('with its length known: bytes of the whole', () => {
+    render(
+      <DownloadProgressBar
+        label="PDF of the notice"
+        progress={{ step: 'downloading', receivedBytes: 40_000, totalBytes: 160_000 }}
+      />,
+    );
+    expect(bar('PDF of the notice').props).toMatchObject({
+      'aria-valuenow': 40_000,
+      'aria-valuemax': 160_000,
+      'aria-valuetext': '40.0 kB of 160 kB',
+    });
+  });
+
+  test('without it: the three steps, still determinate', () => {
+    const { rerender } = render(
+      <DownloadProgressBar
+        label="PDF"
+        progress={{ step: 'preparing', receivedBytes: 0, totalBytes: null }}
+      />,
+    );
+    expect(bar('PDF').props).toMatchObject({
+      'aria-valuenow': 0,
+      'aria-valuemax': 3,
+      'aria-valuetext': 'The server is making the file (step 1 of 3)',
+    });
+    rerender(
+      <DownloadProgressBar
+        label="PDF"
+        progress={{ step: 'downloading', receivedBytes: 5_000, totalBytes: null }}
+      />,
+    );
+    expect(bar('PDF').props).toMatchObject({
+      'aria-valuenow': 1,
+      'aria-valuetext': 'Downloading, 5.00 kB so far (step 2 of 3)',
+    });
   });
 });
