@@ -6,7 +6,7 @@ import { z } from 'zod';
 
 import { FieldFrame } from '@/components/field-frame';
 import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
-import { RadioOption } from '@/components/radio-option';
+import { RadioGroup, RadioOption } from '@/components/radio-option';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { FormText } from '@/components/form/fields';
@@ -156,10 +156,16 @@ function StatusRadios({
   value: RideStatus;
   onChange: (status: RideStatus) => void;
 }) {
+  const offered = [{ status: current, override: false }, ...choices];
   return (
-    <View role="radiogroup" accessibilityLabel="Ride status" style={styles.choices}>
-      {[{ status: current, override: false }, ...choices].map((c) => {
-        const on = c.status === value;
+    <RadioGroup
+      label="Ride status"
+      value={value}
+      values={offered.map((c) => c.status)}
+      onChange={onChange}
+      style={styles.choices}
+    >
+      {offered.map((c) => {
         const label =
           c.status === current
             ? `${rideStatusLabel(c.status)} (no change)`
@@ -167,7 +173,7 @@ function StatusRadios({
               ? `${rideStatusLabel(c.status)} (override)`
               : rideStatusLabel(c.status);
         return (
-          <RadioOption key={c.status} on={on} label={label} onPress={() => onChange(c.status)}>
+          <RadioOption key={c.status} value={c.status} label={label}>
             <RideStatusMark status={c.status} compact />
             {c.override ? (
               <Text variant="small" muted>
@@ -177,7 +183,7 @@ function StatusRadios({
           </RadioOption>
         );
       })}
-    </View>
+    </RadioGroup>
   );
 }
 

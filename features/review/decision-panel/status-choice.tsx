@@ -1,7 +1,7 @@
 import { View } from 'react-native';
 
 import { type RideStatus, RideStatusMark, rideStatusLabel } from '@/components/status-mark';
-import { RadioOption } from '@/components/radio-option';
+import { RadioGroup, RadioOption } from '@/components/radio-option';
 import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { sharedStyles } from '@/features/review/decision-panel/styles';
@@ -29,29 +29,31 @@ export function StatusChoiceField({
   const stricter = (['restricted', 'out_of_service'] as const).filter(
     (s) => s !== rideStatus && !(rideStatus === 'out_of_service' && s === 'restricted'),
   );
+  const offered: StatusChoice[] = ['keep', ...stricter];
   return (
     <View style={sharedStyles.section}>
       <Text variant="label" muted>
         RIDE STATUS WITH THIS DECISION
       </Text>
-      <View
-        role="radiogroup"
-        accessibilityLabel="Ride status with this decision"
+      <RadioGroup
+        label="Ride status with this decision"
+        value={choice}
+        values={offered}
+        onChange={onChoose}
         style={sharedStyles.buttons}
       >
-        {(['keep', ...stricter] as StatusChoice[]).map((c) => {
-          const on = c === choice;
+        {offered.map((c) => {
           const label =
             c === 'keep'
               ? `Keep ${rideStatusLabel(rideStatus).toLowerCase()}`
               : `Set ${rideStatusLabel(c).toLowerCase()}`;
           return (
-            <RadioOption key={c} on={on} label={label} onPress={() => onChoose(c)}>
+            <RadioOption key={c} value={c} label={label}>
               {c === 'keep' ? <Text>{label}</Text> : <RideStatusMark status={c} compact />}
             </RadioOption>
           );
         })}
-      </View>
+      </RadioGroup>
       {choice !== 'keep' ? (
         <TextField
           label="Reason for the status"
