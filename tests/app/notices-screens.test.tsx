@@ -458,7 +458,7 @@ describe('an operator', () => {
     expect(within(card).getByText('2 of 2 open')).toBeTruthy();
     // No e-mail column or staff filters for operators; a filter in the URL is not passed on.
     expect(screen.queryByText('Sent')).toBeNull();
-    expect(screen.queryByRole('button', { name: /^Operator:/ })).toBeNull();
+    expect(screen.queryByRole('combobox', { name: /^Operator:/ })).toBeNull();
     const list = callsTo('GET', '/api/notices')[0];
     expect(list.search.get('operatorId')).toBeNull();
     expect(list.search.get('pageSize')).toBe('25');
@@ -769,7 +769,7 @@ describe('the inspection body', () => {
     expect(within(row).getByText('Tamsworth Pier Leisure')).toBeTruthy();
     expect(within(row).getByText('Not acknowledged yet')).toBeTruthy();
     expect(within(row).getByText('Sent')).toBeTruthy();
-    expect(screen.getByRole('button', { name: 'Operator: All operators' })).toBeTruthy();
-    expect(screen.getByRole('button', { name: 'Ride: All rides' })).toBeTruthy();
+    expect(screen.getByRole('combobox', { name: 'Operator: All operators' })).toBeTruthy();
+    expect(screen.getByRole('combobox', { name: 'Ride: All rides' })).toBeTruthy();
   });
 });

@@ -58,8 +58,8 @@ test('add, flag, reorder and remove items; the saved content keeps the ids of ke
   expect(await screen.findByText('Say what kind of measurement')).toBeTruthy();
   expect(onSubmit).not.toHaveBeenCalled();
 
-  fireEvent.press(screen.getAllByRole('button', { name: /^What is measured:/ })[1]);
-  fireEvent.press(screen.getByRole('radio', { name: 'Small length (mm or in): pins, clearances, wear' }));
+  fireEvent.press(screen.getAllByRole('combobox', { name: /^What is measured:/ })[1]);
+  fireEvent.press(screen.getByRole('option', { name: 'Small length (mm or in): pins, clearances, wear' }));
   fireEvent.press(screen.getAllByRole('checkbox', { name: 'Photo required' })[2]);
   fireEvent.press(screen.getByRole('button', { name: 'Move item 3 of area 1 up' }));
   fireEvent.press(screen.getByRole('button', { name: 'Remove item 1 of area 1' }));

@@ -44,16 +44,16 @@ test('a design limit of a pivot and a written range are saved with the item', as
   const onSubmit = jest.fn().mockResolvedValue(undefined);
   render(<ChecklistForm defaultValues={start} submitLabel="Save" onSubmit={onSubmit} />);
 
-  const against = () => screen.getAllByRole('button', { name: /^Checked against:/ });
+  const against = () => screen.getAllByRole('combobox', { name: /^Checked against:/ });
   fireEvent.press(against()[0]);
   // Only the limits a small length can meet are offered.
-  expect(screen.queryByRole('radio', { name: 'Speed limit (design data)' })).toBeNull();
-  fireEvent.press(screen.getByRole('radio', { name: 'Pin minimum diameter (design data)' }));
-  fireEvent.press(screen.getAllByRole('button', { name: /^Pivot:/ })[0]);
-  fireEvent.press(screen.getByRole('radio', { name: 'Pivot 2' }));
+  expect(screen.queryByRole('option', { name: 'Speed limit (design data)' })).toBeNull();
+  fireEvent.press(screen.getByRole('option', { name: 'Pin minimum diameter (design data)' }));
+  fireEvent.press(screen.getAllByRole('combobox', { name: /^Pivot:/ })[0]);
+  fireEvent.press(screen.getByRole('option', { name: 'Pivot 2' }));
 
   fireEvent.press(against()[1]);
-  fireEvent.press(screen.getByRole('radio', { name: 'A limit written here (min and/or max)' }));
+  fireEvent.press(screen.getByRole('option', { name: 'A limit written here (min and/or max)' }));
   fireEvent.changeText(screen.getByLabelText('Minimum'), '0.75');
   fireEvent.changeText(screen.getByLabelText('Maximum'), '0.25');
   fireEvent.press(screen.getByRole('button', { name: 'Save' }));

@@ -53,8 +53,8 @@ describe('RideForm', () => {
   test('a restricted ride needs a reason', async () => {
     const onSubmit = renderCreate();
     fireEvent.changeText(screen.getByLabelText('Name'), 'Gull Wing');
-    fireEvent.press(screen.getByRole('button', { name: /^Operator:/ }));
-    fireEvent.press(screen.getByRole('radio', { name: 'Tamsworth Pier Leisure' }));
+    fireEvent.press(screen.getByRole('combobox', { name: /^Operator:/ }));
+    fireEvent.press(screen.getByRole('option', { name: 'Tamsworth Pier Leisure' }));
     fireEvent.press(screen.getByRole('radio', { name: 'Restricted' }));
     fireEvent.press(screen.getByRole('button', { name: 'Add ride' }));
     expect(await screen.findByText('Say why the ride is restricted or out of service')).toBeTruthy();
@@ -67,12 +67,12 @@ describe('RideForm', () => {
     fireEvent.press(screen.getByRole('radio', { name: 'Wheel' }));
     fireEvent.changeText(screen.getByLabelText('Maker'), 'Marrow & Finch Wheelwrights');
     fireEvent.changeText(screen.getByLabelText('Year built'), '2012');
-    fireEvent.press(screen.getByRole('button', { name: /^Operator:/ }));
-    fireEvent.press(screen.getByRole('radio', { name: 'Corvane Travelling Shows' }));
+    fireEvent.press(screen.getByRole('combobox', { name: /^Operator:/ }));
+    fireEvent.press(screen.getByRole('option', { name: 'Corvane Travelling Shows' }));
     // Only the chosen operator's sites are offered.
-    fireEvent.press(screen.getByRole('button', { name: /^Site:/ }));
-    expect(screen.queryByRole('radio', { name: 'Tamsworth Pier' })).toBeNull();
-    fireEvent.press(screen.getByRole('radio', { name: 'Lowfield Common fairground' }));
+    fireEvent.press(screen.getByRole('combobox', { name: /^Site:/ }));
+    expect(screen.queryByRole('option', { name: 'Tamsworth Pier' })).toBeNull();
+    fireEvent.press(screen.getByRole('option', { name: 'Lowfield Common fairground' }));
     fireEvent.press(screen.getByRole('button', { name: 'Add ride' }));
     await waitFor(() => expect(onSubmit).toHaveBeenCalled());
     expect(onSubmit.mock.calls[0][0]).toEqual({
@@ -100,8 +100,8 @@ describe('RideForm', () => {
     renderCreate(onSubmit);
     fireEvent.changeText(screen.getByLabelText('Name'), 'Gull Wing');
     fireEvent.changeText(screen.getByLabelText('Serial number'), 'ORW-1');
-    fireEvent.press(screen.getByRole('button', { name: /^Operator:/ }));
-    fireEvent.press(screen.getByRole('radio', { name: 'Tamsworth Pier Leisure' }));
+    fireEvent.press(screen.getByRole('combobox', { name: /^Operator:/ }));
+    fireEvent.press(screen.getByRole('option', { name: 'Tamsworth Pier Leisure' }));
     fireEvent.press(screen.getByRole('button', { name: 'Add ride' }));
     expect(await screen.findByText('Serial ORW-1 is already used by Skylark')).toBeTruthy();
     // A problem with no field of its own is listed in words above the button.
