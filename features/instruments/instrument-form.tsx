@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
+import { DateField } from '@/components/date-field';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { CheckField } from '@/components/check-field';
@@ -96,20 +97,20 @@ export function InstrumentForm({
       <MeasuresField values={form.kinds} onChange={(kinds) => set('kinds', kinds)} error={errorOf('kinds')} />
       <View style={styles.dates}>
         <View style={styles.date}>
-          <TextField
+          <DateField
             label="Calibrated on"
-            hint="YYYY-MM-DD"
-            value={form.calibratedOn}
-            onChangeText={(v) => set('calibratedOn', v)}
+            value={form.calibratedOn || null}
+            onChange={(v) => set('calibratedOn', v ?? '')}
             error={errorOf('calibratedOn')}
           />
         </View>
         <View style={styles.date}>
-          <TextField
+          <DateField
             label="Next calibration due"
-            hint="YYYY-MM-DD; usable through this date"
-            value={form.calibrationDueOn}
-            onChangeText={(v) => set('calibrationDueOn', v)}
+            hint="Usable through this date"
+            value={form.calibrationDueOn || null}
+            min={form.calibratedOn || undefined}
+            onChange={(v) => set('calibrationDueOn', v ?? '')}
             error={errorOf('calibrationDueOn')}
           />
         </View>

@@ -2,6 +2,7 @@ import * as DocumentPicker from 'expo-document-picker';
 import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
+import { DateField } from '@/components/date-field';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
@@ -285,13 +286,10 @@ function AddRecord({ data }: { data: RideNdt }) {
         onChange={setJoint}
         error={errors.joint}
       />
-      <TextField
+      <DateField
         label="Tested on"
-        value={testedOn}
-        onChangeText={setTestedOn}
-        placeholder="YYYY-MM-DD"
-        autoCapitalize="none"
-        inputMode="numeric"
+        value={testedOn || null}
+        onChange={(v) => setTestedOn(v ?? '')}
         error={errors.testedOn}
       />
       <ChoiceChips

@@ -2,6 +2,7 @@ import * as DocumentPicker from 'expo-document-picker';
 import { useState } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
+import { DateField } from '@/components/date-field';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
@@ -130,13 +131,10 @@ function DayForm({ rideId, log }: { rideId: string; log: RunningLogResponse | un
   return (
     <Card accessibilityLabel="Log a day">
       <Text variant="heading">Log a day</Text>
-      <TextField
+      <DateField
         label="Day"
-        value={day}
-        onChangeText={setDay}
-        placeholder="YYYY-MM-DD"
-        autoCapitalize="none"
-        inputMode="numeric"
+        value={day || null}
+        onChange={(v) => setDay(v ?? '')}
         error={errors.day}
         hint={existing ? `Already logged: ${amountOf(existing)}. Saving replaces it.` : undefined}
       />

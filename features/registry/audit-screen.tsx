@@ -4,6 +4,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { DateField } from '@/components/date-field';
 import Feather from '@/components/feather-icon';
 import { Screen } from '@/components/screen';
 import { Segmented } from '@/components/segmented';
@@ -93,9 +94,8 @@ function Audit({ user }: { user: SessionUser }) {
   // The URL keeps what was typed for the dates; the parsed query holds ISO instants.
   const entries = useAuditQuery({ ...query, pageSize: PAGE_SIZE });
   const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
-  const [from, setFrom] = useState(query.from?.slice(0, 10) ?? '');
-  const [to, setTo] = useState(query.to?.slice(0, 10) ?? '');
-  const dateOk = (v: string) => v === '' || /^\d{4}-\d{2}-\d{2}$/.test(v);
+  const from = query.from?.slice(0, 10) ?? null;
+  const to = query.to?.slice(0, 10) ?? null;
   const filter = (patch: Parameters<typeof setQuery>[0]) => setQuery({ ...patch, page: undefined });
 
   return (
@@ -117,27 +117,19 @@ function Audit({ user }: { user: SessionUser }) {
         beside={
           <>
             <View style={wide ? styles.flex : undefined}>
-              <TextField
+              <DateField
                 label="From"
-                placeholder="YYYY-MM-DD"
                 value={from}
-                onChangeText={setFrom}
-                onBlur={() => dateOk(from) && filter({ from: from || undefined })}
-                onSubmitEditing={() => dateOk(from) && filter({ from: from || undefined })}
-                error={dateOk(from) ? undefined : 'A date, YYYY-MM-DD'}
-                autoCapitalize="none"
+                max={to ?? undefined}
+                onChange={(day) => filter({ from: day ?? undefined })}
               />
             </View>
             <View style={wide ? styles.flex : undefined}>
-              <TextField
+              <DateField
                 label="To"
-                placeholder="YYYY-MM-DD"
                 value={to}
-                onChangeText={setTo}
-                onBlur={() => dateOk(to) && filter({ to: to || undefined })}
-                onSubmitEditing={() => dateOk(to) && filter({ to: to || undefined })}
-                error={dateOk(to) ? undefined : 'A date, YYYY-MM-DD'}
-                autoCapitalize="none"
+                min={from ?? undefined}
+                onChange={(day) => filter({ to: day ?? undefined })}
               />
             </View>
           </>

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { SelectField } from '@/components/select-field';
 import { space } from '@/components/theme';
 import { FormNumber, FormText } from '@/components/form/fields';
+import { FormDate } from '@/components/form/date';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
 import { schedulePatchSchema } from '@/features/registry/schema';
 import { fieldsOf } from '@/components/form/server-errors';
@@ -60,21 +61,14 @@ export function ScheduleForm({
           <FormNumber control={control} name="intervalDays" label="Every" unit="days" integer />
         </View>
         <View style={styles.cell}>
-          <FormText
-            control={control}
-            name="lastDoneOn"
-            label="Last done"
-            hint="YYYY-MM-DD"
-            autoCapitalize="none"
-          />
+          <FormDate control={control} name="lastDoneOn" label="Last done" />
         </View>
         <View style={styles.cell}>
-          <FormText
+          <FormDate
             control={control}
             name="dueOn"
             label="Due on (one-off)"
             hint="Overrides last done + interval"
-            autoCapitalize="none"
           />
         </View>
       </View>

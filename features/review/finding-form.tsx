@@ -1,12 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Controller, type DefaultValues, useForm, useWatch } from 'react-hook-form';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
 import type { z } from 'zod';
 
+import { DateField } from '@/components/date-field';
 import { FieldFrame } from '@/components/field-frame';
+import { RadioGroup, RadioOption } from '@/components/radio-option';
 import { Text } from '@/components/text';
-import { TextField } from '@/components/text-field';
-import { colors, layout, radius, space } from '@/components/theme';
+import { space } from '@/components/theme';
 import { ToggleChips } from '@/components/toggle-chips';
 import { FormText } from '@/components/form/fields';
 import { FormFooter, useServerSubmit } from '@/components/form/footer';
@@ -19,18 +21,45 @@ import {
   severityInfo,
 } from '@/features/notices/finding-schema';
 import { SeverityMark } from '@/features/notices/ui';
+import { formatDateTime } from '@/lib/dates';
 
 export type FindingValues = z.output<typeof findingInputSchema>;
-export type InspectionPhoto = { sha256: string; caption: string };
+/**
+ * A photo of the inspection as the finding form names it. `id` is the photo's own (two photos may hold
+ * the same bytes, so the same SHA-256); `about` says what it shows (its pivot, its checklist item).
+ */
+export type InspectionPhoto = {
+  sha256: string;
+  caption: string;
+  id?: string;
+  takenAt?: string;
+  about?: string | null;
+};
 
 const FIELDS = ['severity', 'description', 'ruleRef', 'requiredAction', 'dueOn', 'photoShas'] as const;
 
-/** A photo's name in lists and chips: its caption, or its place among the inspection's photos. */
+/**
+ * The name of the photo at `index`, distinct from every other photo's: its place among the inspection's
+ * photos, then its caption (or what it shows), then when it was taken: "Photo 2 — P2 · Main pin, 3 Dec
+ * 2026, 14:05". Two uncaptioned photos of the same item still differ by their number.
+ */
+export function photoLabel(photos: readonly InspectionPhoto[], index: number): string {
+  const p = photos[index];
+  const what = p.caption.trim() || p.about || '';
+  const when = p.takenAt ? formatDateTime(p.takenAt) : '';
+  const tail = [what, when].filter(Boolean).join(', ');
+  return tail ? `Photo ${index + 1} — ${tail}` : `Photo ${index + 1}`;
+}
+
+/** A photo's name in lists, from the SHA-256 a finding keeps: the first photo holding those bytes. */
 export function photoName(photos: readonly InspectionPhoto[], sha: string): string {
   const i = photos.findIndex((p) => p.sha256 === sha);
   if (i < 0) return `Photo ${sha.slice(0, 8)}…`;
-  return photos[i].caption.trim() || `Photo ${i + 1}`;
+  return photoLabel(photos, i);
 }
+
+/** A photo's key in the picker: its own id (the place in the list for a photo without one). */
+const photoKey = (p: InspectionPhoto, i: number) => p.id ?? `#${i}`;
 
 function startValues(finding: Finding | undefined): DefaultValues<FindingInput> {
   if (!finding)
@@ -112,22 +141,14 @@ export function FindingForm({
         control={control}
         name="dueOn"
         render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
+          <DateField
             label="Due date"
-            hint={
-              severity === 'fix_by_date'
-                ? 'Needed for this severity. YYYY-MM-DD, e.g. 2025-06-30.'
-                : 'Optional. YYYY-MM-DD, e.g. 2025-06-30.'
-            }
-            value={field.value ?? ''}
-            // An empty field is "no due date", which the API takes as null.
-            onChangeText={(t) => field.onChange(t.trim() === '' ? null : t)}
+            hint={severity === 'fix_by_date' ? 'Needed for this severity.' : 'Optional.'}
+            value={field.value ?? null}
+            // No date is "no due date", which the API takes as null.
+            onChange={field.onChange}
             onBlur={field.onBlur}
             error={fieldState.error?.message}
-            autoCapitalize="none"
-            inputMode="numeric"
-            placeholder="YYYY-MM-DD"
           />
         )}
       />
@@ -141,12 +162,7 @@ export function FindingForm({
                 This inspection has no photos.
               </Text>
             ) : (
-              <ToggleChips
-                label="Photo"
-                values={field.value ?? []}
-                options={photos.map((p) => ({ value: p.sha256, label: photoName(photos, p.sha256) }))}
-                onChange={field.onChange}
-              />
+              <PhotoPicker photos={photos} shas={field.value ?? []} onChange={field.onChange} />
             )}
           </FieldFrame>
         )}
@@ -158,6 +174,40 @@ export function FindingForm({
         onCancel={onCancel}
       />
     </View>
+  );
+}
+
+/**
+ * Which photos the finding refers to. Each photo is ticked by its own id, so two photos with the same
+ * bytes (one picture attached to two items) are two choices; the finding keeps their SHA-256s, once each.
+ */
+function PhotoPicker({
+  photos,
+  shas,
+  onChange,
+}: {
+  photos: readonly InspectionPhoto[];
+  shas: readonly string[];
+  onChange: (shas: string[]) => void;
+}) {
+  // A finding being edited names its photos by SHA-256: the first photo with each is the one ticked.
+  const [keys, setKeys] = useState<string[]>(() =>
+    shas.flatMap((sha) => {
+      const i = photos.findIndex((p) => p.sha256 === sha);
+      return i < 0 ? [] : [photoKey(photos[i], i)];
+    }),
+  );
+  return (
+    <ToggleChips
+      label="Refers to"
+      values={keys}
+      options={photos.map((p, i) => ({ value: photoKey(p, i), label: photoLabel(photos, i) }))}
+      onChange={(next) => {
+        setKeys(next);
+        const chosen = photos.filter((p, i) => next.includes(photoKey(p, i))).map((p) => p.sha256);
+        onChange([...new Set(chosen)]);
+      }}
+    />
   );
 }
 
@@ -173,34 +223,28 @@ function SeverityChooser({
 }) {
   return (
     <FieldFrame label="Severity" error={error}>
-      <View role="radiogroup" accessibilityLabel="Severity" style={styles.choices}>
-        {findingSeverities.map((s) => {
-          const on = s === value;
-          return (
-            <Pressable
-              key={s}
-              role="radio"
-              aria-checked={on}
-              accessibilityState={{ checked: on }}
-              accessibilityLabel={severityInfo[s].label}
-              onPress={() => onChange(s)}
-              style={StyleSheet.flatten([
-                styles.choice,
-                on && styles.choiceOn,
-                error && !on && styles.choiceError,
-              ])}
-            >
-              <View style={StyleSheet.flatten([styles.radio, on && styles.radioOn])}>
-                {on ? <View style={styles.radioDot} /> : null}
-              </View>
-              <View style={styles.choiceText}>
-                <SeverityMark severity={s} compact />
-                <Text variant="small">{severityInfo[s].description}</Text>
-              </View>
-            </Pressable>
-          );
-        })}
-      </View>
+      <RadioGroup
+        label="Severity"
+        value={value}
+        values={findingSeverities}
+        onChange={onChange}
+        style={styles.choices}
+      >
+        {findingSeverities.map((s) => (
+          <RadioOption
+            key={s}
+            value={s}
+            label={severityInfo[s].label}
+            invalid={!!error}
+            style={styles.choice}
+          >
+            <View style={styles.choiceText}>
+              <SeverityMark severity={s} compact />
+              <Text variant="small">{severityInfo[s].description}</Text>
+            </View>
+          </RadioOption>
+        ))}
+      </RadioGroup>
     </FieldFrame>
   );
 }
@@ -208,30 +252,6 @@ function SeverityChooser({
 const styles = StyleSheet.create({
   form: { gap: space.lg },
   choices: { gap: space.xs },
-  choice: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.md,
-    minHeight: layout.touchTarget,
-    paddingHorizontal: space.md,
-    paddingVertical: space.sm,
-    borderRadius: radius.md,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    backgroundColor: colors.surface,
-  },
-  choiceOn: { borderColor: colors.base, borderWidth: 2.5, backgroundColor: colors.bg },
-  choiceError: { borderColor: colors.danger },
-  radio: {
-    width: 22,
-    height: 22,
-    borderRadius: 11,
-    borderWidth: 2,
-    borderColor: colors.textMuted,
-    alignItems: 'center',
-    justifyContent: 'center',
-  },
-  radioOn: { borderColor: colors.base },
-  radioDot: { width: 10, height: 10, borderRadius: 5, backgroundColor: colors.base },
+  choice: { gap: space.md, paddingVertical: space.sm },
   choiceText: { flex: 1, gap: space.xs },
 });

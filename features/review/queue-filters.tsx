@@ -1,10 +1,9 @@
-import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
+import { DateField } from '@/components/date-field';
 import { SelectField } from '@/components/select-field';
 import { SearchField } from '@/components/search-field';
-import { TextField } from '@/components/text-field';
 import { space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import {
@@ -15,7 +14,6 @@ import {
 } from '@/features/registry/ui';
 import { FilterGroups, FilterPanel } from '@/components/filter-panel';
 import { RideClassFilter, RideStatusFilter } from '@/features/rides/ui';
-import { calendarDate } from '@/features/registry/schema';
 import { type QueueQuery, type QueueSort } from '@/features/review/schema';
 
 const ALL = '__all';
@@ -39,63 +37,6 @@ export function activeFilterCount(query: Partial<QueueQuery>): number {
     (query.rideStatus?.length ?? 0) +
     (query.from ? 1 : 0) +
     (query.to ? 1 : 0)
-  );
-}
-
-const dateSchema = calendarDate();
-
-/** The problem with a typed date, in the API schema's own words; null when it is fine or empty. */
-function dateProblem(text: string): string | null {
-  if (text.trim() === '') return null;
-  const parsed = dateSchema.safeParse(text);
-  return parsed.success ? null : (parsed.error.issues[0]?.message ?? 'Must be a date, YYYY-MM-DD');
-}
-
-/**
- * A calendar date typed as YYYY-MM-DD. It reaches the list (through `onChange`) only once it is a real
- * date, or cleared; until then the field keeps the text and, once ten characters are in or the field is
- * left, says what is wrong. `problem` is an extra rule from outside (the range's order).
- */
-function DateField({
-  label,
-  value,
-  onChange,
-  problem,
-}: {
-  label: string;
-  value: string | undefined;
-  onChange: (value: string | undefined) => void;
-  problem?: string | null;
-}) {
-  const [text, setText] = useState(value ?? '');
-  const [left, setLeft] = useState(false);
-  // The URL changed from elsewhere (Clear, back): show its value. React's "adjust state on a prop change".
-  const [shown, setShown] = useState(value);
-  if (value !== shown) {
-    setShown(value);
-    if ((value ?? '') !== text.trim()) setText(value ?? '');
-  }
-  const own = dateProblem(text);
-  const error = own && (left || text.trim().length >= 10) ? own : (problem ?? undefined);
-  return (
-    <TextField
-      label={label}
-      placeholder="YYYY-MM-DD"
-      value={text}
-      onChangeText={(t) => {
-        setText(t);
-        setLeft(false);
-        const trimmed = t.trim();
-        if (trimmed === '') onChange(undefined);
-        else if (!dateProblem(trimmed)) onChange(trimmed);
-      }}
-      onBlur={() => setLeft(true)}
-      error={error ?? undefined}
-      autoCapitalize="none"
-      autoCorrect={false}
-      keyboardType="numbers-and-punctuation"
-      maxLength={10}
-    />
   );
 }
 
@@ -149,10 +90,21 @@ export function QueueFilterPanel({
       />
       <View style={wide ? styles.datesWide : styles.dates} role="group" accessibilityLabel="Date range">
         <View style={styles.date}>
-          <DateField label="From" value={query.from} onChange={(from) => filter({ from })} />
+          <DateField
+            label="From"
+            value={query.from}
+            max={query.to}
+            onChange={(from) => filter({ from: from ?? undefined })}
+          />
         </View>
         <View style={styles.date}>
-          <DateField label="To" value={query.to} onChange={(to) => filter({ to })} problem={rangeProblem} />
+          <DateField
+            label="To"
+            value={query.to}
+            min={query.from}
+            onChange={(to) => filter({ to: to ?? undefined })}
+            error={rangeProblem ?? undefined}
+          />
         </View>
       </View>
       {wide ? sort : null}

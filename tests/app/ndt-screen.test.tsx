@@ -17,6 +17,7 @@ import type { NdtRecord, RideNdt } from '@/features/pivot-life/ndt-schema';
 import type { SessionUser } from '@/features/session/schema';
 import { renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { standInApi } from '@/tests/support/stand-in-api';
+import { pickDate } from '@/tests/support/pick-date';
 
 jest.mock('@/features/session/token-store', () => ({
   tokenStore: {
@@ -169,7 +170,7 @@ test('an inspector adds a record: the PDF goes up by its SHA-256 first, then the
     }),
   });
   const form = await screen.findByLabelText('Add NDT record');
-  fireEvent.changeText(within(form).getByLabelText('Tested on'), '2026-11-30');
+  pickDate('Tested on', '2026-11-30', within(form));
   fireEvent.press(within(form).getByLabelText('MT · planned'));
   fireEvent.changeText(within(form).getByLabelText('Technician'), 'Ines Harrowgate');
   fireEvent.press(within(form).getByLabelText('No indications'));
@@ -226,7 +227,7 @@ test('the server’s 400 is shown beside the field it names', async () => {
     }),
   });
   const form = await screen.findByLabelText('Add NDT record');
-  fireEvent.changeText(within(form).getByLabelText('Tested on'), '2026-12-04');
+  pickDate('Tested on', '2026-12-04', within(form));
   fireEvent.press(within(form).getByLabelText('UT · planned'));
   fireEvent.changeText(within(form).getByLabelText('Technician'), 'Caius Mellenby');
   fireEvent.press(within(form).getByLabelText('Indications beyond acceptance'));

@@ -15,6 +15,7 @@ import type { SessionUser } from '@/features/session/schema';
 import { formatDate } from '@/lib/dates';
 import { renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { ok, standInApi } from '@/tests/support/stand-in-api';
+import { pickDate } from '@/tests/support/pick-date';
 
 jest.mock('@/components/use-wide', () => ({ useWide: () => false }));
 
@@ -240,7 +241,7 @@ describe('the running log screen', () => {
   test('a day is saved with what was typed; a bad number is stopped before it is sent', async () => {
     const api = open();
     await screen.findByLabelText('The log');
-    fireEvent.changeText(screen.getByLabelText('Day'), '2026-06-15');
+    pickDate('Day', '2026-06-15');
     fireEvent.changeText(screen.getByLabelText('Ride cycles run'), '12.5');
     fireEvent.press(screen.getByRole('button', { name: 'Save day' }));
     expect(await screen.findByText('Must be a whole number')).toBeTruthy();
@@ -261,7 +262,7 @@ describe('the running log screen', () => {
   test('the server’s refusal is shown at its field', async () => {
     open();
     await screen.findByLabelText('The log');
-    fireEvent.changeText(screen.getByLabelText('Day'), '2026-06-15');
+    pickDate('Day', '2026-06-15');
     fireEvent.changeText(screen.getByLabelText('Ride cycles run'), '999');
     fireEvent.press(screen.getByRole('button', { name: 'Save day' }));
     expect(await screen.findByText('A day not yet run')).toBeTruthy();
@@ -270,7 +271,7 @@ describe('the running log screen', () => {
   test('a day already logged says that saving replaces it', async () => {
     open();
     await screen.findByLabelText('The log');
-    fireEvent.changeText(screen.getByLabelText('Day'), '2026-06-14');
+    pickDate('Day', '2026-06-14');
     expect(screen.getByText('Already logged: 123 cycles. Saving replaces it.')).toBeTruthy();
   });
 });

@@ -24,6 +24,7 @@ import { reviewKeys } from '@/features/review/keys';
 import { decisionInputSchema, decisionResponseSchema } from '@/features/review/schema';
 import { type Finding, findingInputSchema, findingPatchSchema } from '@/features/notices/finding-schema';
 import { type StandInCall, type StandInReply, standInApi } from '@/tests/support/stand-in-api';
+import { pickDate } from '@/tests/support/pick-date';
 
 jest.mock('@/features/session/token-store', () => ({
   tokenStore: { get: async () => null, set: async () => {}, clear: async () => {} },
@@ -241,8 +242,10 @@ async function fillNewFinding() {
   fireEvent.changeText(screen.getByLabelText('What was found'), '  Pin worn past its first wear mark ');
   fireEvent.changeText(screen.getByLabelText("Rule or maker's instruction breached"), 'Maker bulletin 12');
   fireEvent.changeText(screen.getByLabelText('Required action'), 'Replace the pin and both bushings');
-  fireEvent.changeText(screen.getByLabelText('Due date'), '2026-07-15');
-  fireEvent.press(screen.getByRole('checkbox', { name: 'Photo: Main pivot pin, drive side' }));
+  pickDate('Due date', '2026-07-15');
+  fireEvent.press(
+    screen.getByRole('checkbox', { name: /^Refers to: Photo \d+ — Main pivot pin, drive side/ }),
+  );
 }
 
 describe('findings', () => {

@@ -1,0 +1,123 @@
+import DateTimePicker, { type DateTimePickerEvent } from '@react-native-community/datetimepicker';
+import { useState } from 'react';
+import { Platform, Pressable, StyleSheet, View } from 'react-native';
+
+import { Button } from '@/components/button';
+import { type DateFieldProps, dateOfDay, dateRangeProblem } from '@/components/date-field-rules';
+import Feather from '@/components/feather-icon';
+import { Text } from '@/components/text';
+import { colors, layout, radius, space } from '@/components/theme';
+import { formatDate, localDay } from '@/lib/dates';
+
+/**
+ * A calendar date on a phone: a field showing the date in the one date format, which opens the
+ * platform's date picker (a dialog on Android, a calendar under the field on iOS). The value stays
+ * YYYY-MM-DD. The web build has its own module (`date-field.web.tsx`), so the picker never reaches it.
+ */
+export function DateField({
+  label,
+  value,
+  onChange,
+  onBlur,
+  error,
+  hint,
+  min,
+  max,
+  clearable = true,
+}: DateFieldProps) {
+  const [open, setOpen] = useState(false);
+  const [refused, setRefused] = useState<string | null>(null);
+  const shownError = (refused !== null ? dateRangeProblem(refused, min, max) : null) ?? error;
+  const picked = (event: DateTimePickerEvent, date?: Date) => {
+    // Android's dialog closes itself on either answer; iOS keeps its calendar until Done.
+    if (Platform.OS !== 'ios') setOpen(false);
+    if (event.type !== 'set' || !date) return;
+    const day = localDay(date);
+    if (dateRangeProblem(day, min, max)) {
+      setRefused(day);
+      return;
+    }
+    setRefused(null);
+    onChange(day);
+  };
+  return (
+    <View style={styles.field}>
+      <Text variant="label" muted>
+        {label.toUpperCase()}
+      </Text>
+      <View style={styles.row}>
+        <Pressable
+          role="button"
+          accessibilityLabel={`${label}: ${value ? formatDate(value) : 'no date'}`}
+          accessibilityHint="Opens a calendar"
+          aria-expanded={open}
+          onPress={() => setOpen((o) => !o)}
+          style={StyleSheet.flatten([styles.box, shownError ? styles.boxError : null])}
+        >
+          <Text muted={!value}>{value ? formatDate(value) : 'Choose a date'}</Text>
+          <Feather name="calendar" size={18} color={colors.textMuted} />
+        </Pressable>
+        {clearable && value ? (
+          <Button
+            label="Clear"
+            tone="quiet"
+            onPress={() => {
+              setRefused(null);
+              onChange(null);
+              onBlur?.();
+            }}
+          />
+        ) : null}
+      </View>
+      {open ? (
+        <View>
+          <DateTimePicker
+            mode="date"
+            display={Platform.OS === 'ios' ? 'inline' : 'default'}
+            value={dateOfDay(value ?? localDay())}
+            minimumDate={min ? dateOfDay(min) : undefined}
+            maximumDate={max ? dateOfDay(max) : undefined}
+            onChange={picked}
+          />
+          {Platform.OS === 'ios' ? (
+            <Button
+              label="Done"
+              tone="quiet"
+              onPress={() => {
+                setOpen(false);
+                onBlur?.();
+              }}
+            />
+          ) : null}
+        </View>
+      ) : null}
+      {shownError ? (
+        <Text variant="small" color={colors.danger} accessibilityLiveRegion="polite">
+          {shownError}
+        </Text>
+      ) : hint ? (
+        <Text variant="small" muted>
+          {hint}
+        </Text>
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  field: { gap: space.xs, minWidth: 0 },
+  row: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  box: {
+    flex: 1,
+    flexDirection: 'row',
+    alignItems: 'center',
+    justifyContent: 'space-between',
+    minHeight: layout.touchTarget,
+    borderWidth: 1.5,
+    borderColor: colors.border,
+    borderRadius: radius.md,
+    backgroundColor: colors.surface,
+    paddingHorizontal: space.md,
+  },
+  boxError: { borderColor: colors.danger },
+});
