@@ -230,7 +230,13 @@ function DecisionColumn({
       rideStatusReason={ride.data.ride.statusReason}
       reviewState={inspection.reviewState}
       reviewNote={inspection.reviewNote}
-      photos={inspection.photos.map((p) => ({ sha256: p.sha256, caption: p.caption }))}
+      photos={inspection.photos.map((p) => ({
+        id: p.id,
+        sha256: p.sha256,
+        caption: p.caption,
+        takenAt: p.takenAt,
+        about: photoContextOf(inspection, [])(p),
+      }))}
       envelope={inspection.analysis?.envelope}
       approvalRefusal={inspection.approvalRefusal}
     />

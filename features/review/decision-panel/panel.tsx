@@ -10,6 +10,7 @@ import { noticeHref, useRideNotices } from '@/features/notices';
 import { useDecide, useFindings } from '@/features/review/decision-api';
 import { DecisionForm } from '@/features/review/decision-panel/decision-form';
 import { FindingsSection } from '@/features/review/decision-panel/findings-section';
+import type { InspectionPhoto } from '@/features/review/finding-form';
 import { InspectionNotices } from '@/features/review/decision-panel/inspection-notices';
 import { ReviewStateView } from '@/features/review/decision-panel/review-state';
 import { RideStatusControl } from '@/features/review/ride-status-control';
@@ -22,7 +23,7 @@ type Props = {
   rideStatusReason: string | null;
   reviewState: 'submitted' | 'approved' | 'returned';
   reviewNote: string | null;
-  photos: { sha256: string; caption: string }[];
+  photos: readonly InspectionPhoto[];
   /** The server's checked values against their limits (the analysis envelope), for the approve warning. */
   envelope?: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
   /** Why this person may not approve it (their own inspection), from the server; null or absent: they may. */
