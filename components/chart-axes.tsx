@@ -1,96 +1,80 @@
-import type { ScaleLinear } from 'd3-scale';
 import { G, Line, Text as SvgText } from 'react-native-svg';
 
+import { type PlacedTick, TICK_FONT_SIZE } from '@/components/chart-ticks';
 import { colors, fonts } from '@/components/theme';
 
-/** Room round a chart's plot for tick labels and axis titles. */
-type ChartMargin = { top: number; right: number; bottom: number; left: number };
+/** The plot's edges in px within the drawing. */
+export type PlotBox = { left: number; right: number; top: number; bottom: number };
 
-type Scale = ScaleLinear<number, number>;
-
-/** Grid lines with their values: across the plot at each y tick, up the plot at each x tick. */
-export function ChartTicks({
-  x,
-  y,
-  xTicks,
-  yTicks,
-  xFormat,
-  yFormat,
-  width,
-  height,
-  margin: M,
-}: {
-  x: Scale;
-  y: Scale;
-  xTicks: readonly number[];
-  yTicks: readonly number[];
-  xFormat: (v: number) => string;
-  yFormat: (v: number) => string;
-  width: number;
-  height: number;
-  margin: ChartMargin;
-}) {
+/**
+ * Grid lines with their values, placed by `fitTicks` (components/chart-ticks.ts) so no two labels touch:
+ * across the plot at each y tick, up the plot at each x tick.
+ */
+export function ChartTicks({ x, y, plot }: { x: PlacedTick[]; y: PlacedTick[]; plot: PlotBox }) {
   return (
     <>
-      {yTicks.map((t) => (
-        <GridTick
-          key={`y${t}`}
-          line={[M.left, y(t), width - M.right, y(t)]}
-          label={[M.left - 6, y(t) + 4, 'end']}
-          text={yFormat(t)}
-        />
+      {y.map((t) => (
+        <G key={`y${t.value}`}>
+          <Line
+            x1={plot.left}
+            x2={plot.right}
+            y1={t.at}
+            y2={t.at}
+            stroke={colors.surfaceSunk}
+            strokeWidth={1}
+          />
+          <TickText x={plot.left - 6} y={t.labelAt + 4} anchor="end" text={t.text} />
+        </G>
       ))}
-      {xTicks.map((t) => (
-        <GridTick
-          key={`x${t}`}
-          line={[x(t), M.top, x(t), height - M.bottom]}
-          label={[x(t), height - M.bottom + 16, 'middle']}
-          text={xFormat(t)}
-        />
+      {x.map((t) => (
+        <G key={`x${t.value}`}>
+          <Line
+            x1={t.at}
+            x2={t.at}
+            y1={plot.top}
+            y2={plot.bottom}
+            stroke={colors.surfaceSunk}
+            strokeWidth={1}
+          />
+          <TickText x={t.labelAt} y={plot.bottom + 16} anchor="middle" text={t.text} />
+        </G>
       ))}
     </>
   );
 }
 
-/** One grid line, from (x1, y1) to (x2, y2), and its value written at (x, y). */
-function GridTick({
-  line: [x1, y1, x2, y2],
-  label: [x, y, anchor],
-  text,
-}: {
-  line: [number, number, number, number];
-  label: [number, number, 'end' | 'middle'];
-  text: string;
-}) {
+function TickText({ x, y, anchor, text }: { x: number; y: number; anchor: 'end' | 'middle'; text: string }) {
   return (
-    <G>
-      <Line x1={x1} x2={x2} y1={y1} y2={y2} stroke={colors.surfaceSunk} strokeWidth={1} />
-      <SvgText x={x} y={y} fontSize={11} fontFamily={fonts.mono} fill={colors.textMuted} textAnchor={anchor}>
-        {text}
-      </SvgText>
-    </G>
+    <SvgText
+      x={x}
+      y={y}
+      fontSize={TICK_FONT_SIZE}
+      fontFamily={fonts.mono}
+      fill={colors.textMuted}
+      textAnchor={anchor}
+    >
+      {text}
+    </SvgText>
   );
 }
 
-/** The axis titles: the x title under the plot, the y title turned up its left side. */
+/** The axis titles: the x title under the plot, the y title turned up the drawing's left edge. */
 export function AxisTitles({
   xLabel,
   yLabel,
-  width,
+  plot,
   height,
-  margin: M,
 }: {
   xLabel: string;
   yLabel: string;
-  width: number;
+  plot: PlotBox;
   height: number;
-  margin: ChartMargin;
 }) {
-  const midY = (M.top + height - M.bottom) / 2;
+  const midY = (plot.top + plot.bottom) / 2;
   return (
     <>
       <SvgText
-        x={(M.left + width - M.right) / 2}
+        x={(plot.left + plot.right) / 2}
         y={height - 6}
         fontSize={12}
         fontFamily={fonts.semibold}
@@ -100,16 +84,66 @@ export function AxisTitles({
         {xLabel}
       </SvgText>
       <SvgText
-        x={14}
+        x={Y_TITLE_X}
         y={midY}
         fontSize={12}
         fontFamily={fonts.semibold}
         fill={colors.textMuted}
         textAnchor="middle"
-        transform={`rotate(-90 14 ${midY})`}
+        transform={`rotate(-90 ${Y_TITLE_X} ${midY})`}
       >
         {yLabel}
       </SvgText>
     </>
   );
 }
+
+/** Where the turned y title's centre line is; its letters reach about 7 px either side. */
+const Y_TITLE_X = 14;
+/** The y tick labels keep clear of the turned title: they end this far in, plus their width. */
+export const Y_TITLE_ROOM = Y_TITLE_X + 10;
+
+/**
+ * A limit across the plot at pixel height `y`: dashed, with its label at the right end (its baseline at
+ * `labelY`, placed by `spreadLabels` so two limits' labels never collide), so a limit never rests on
+ * colour alone.
+ */
+export function LimitLine({
+  label,
+  y,
+  labelY,
+  plot,
+  color = colors.over,
+}: {
+  label: string;
+  y: number;
+  labelY: number;
+  plot: PlotBox;
+  color?: string;
+}) {
+  return (
+    <G>
+      <Line
+        x1={plot.left}
+        x2={plot.right}
+        y1={y}
+        y2={y}
+        stroke={color}
+        strokeWidth={1.5}
+        strokeDasharray="8 5"
+      />
+      <SvgText
+        x={plot.right - 4}
+        y={labelY}
+        fontSize={LIMIT_FONT_SIZE}
+        fontFamily={fonts.semibold}
+        fill={color}
+        textAnchor="end"
+      >
+        {label}
+      </SvgText>
+    </G>
+  );
+}
+
+export const LIMIT_FONT_SIZE = 11;

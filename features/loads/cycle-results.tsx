@@ -210,6 +210,7 @@ function PivotForceChart({
         Pivot {i + 1} · {j.name}
       </Text>
       <LineChart
+        height={240}
         summary={`Force on pivot ${i + 1} over the cycle; peak ${formatValue(j.peakForce.value, 'force', system)}`}
         series={[{ label: 'Force magnitude', x, y, color: colors.base }]}
         limits={

@@ -4,6 +4,7 @@ import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
+import { type ChartBand, type ChartSeries, LineChart } from '@/components/line-chart';
 import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
@@ -14,7 +15,6 @@ import { formatBesideLimit, formatValue } from '@/features/loads';
 import type { CycleResolution } from '@/features/loads/cycle-resolution-schema';
 import { useInspectionCycle } from '@/features/review/inspection-api';
 import type { InspectionCycle } from '@/features/review/inspection-schema';
-import { ReviewChart, type ReviewBand, type ReviewSeries } from '@/features/review/review-chart';
 import { pivotName } from '@/features/review/review-format';
 import { type UnitSystem, fromSI, pickDisplayUnit, toSI } from '@/lib/units';
 import { formatAgainstLimit, formatStated } from '@/lib/measured-format';
@@ -164,7 +164,7 @@ function Charts({
           return (
             <Card key={i} style={wide ? styles.chartWide : undefined}>
               <Text variant="heading">Force on {name}</Text>
-              <ReviewChart
+              <LineChart
                 summary={
                   `Force on ${name} over the ride cycle against ${axis === 'time' ? 'time' : 'the main arm angle'}; ` +
                   `peak ${beside.value} ${peakAt}` +
@@ -221,14 +221,14 @@ function RiderChart({
   // Extremes are shown against the rider limit, so an extreme just past it never reads as on it.
   const againstG = (g: number) =>
     item ? formatAgainstLimit(toSI(g, 'accel', 'gee'), item.limit, 'accel', 'si').value : fmtG(g);
-  const band: ReviewBand | undefined =
+  const band: ChartBand | undefined =
     min !== undefined || max !== undefined
       ? {
           min: min !== undefined ? { label: `Min ${statedG(min)}`, y: min } : undefined,
           max: max !== undefined ? { label: `Max ${statedG(max)}`, y: max } : undefined,
         }
       : undefined;
-  const series: ReviewSeries[] = cycle.seats.map((s, k) => ({
+  const series: ChartSeries[] = cycle.seats.map((s, k) => ({
     label: s.name,
     ...withGaps(x, s[axis]),
     color: seatColours[k % seatColours.length],
@@ -241,7 +241,7 @@ function RiderChart({
   return (
     <Card style={wide ? styles.chartWide : undefined}>
       <Text variant="heading">{title}</Text>
-      <ReviewChart
+      <LineChart
         summary={`${title} over the ride cycle: ${extremes}${
           band
             ? `; allowed ${min !== undefined ? statedG(min) : 'no minimum'} to ${max !== undefined ? statedG(max) : 'no maximum'}`

@@ -3,9 +3,9 @@ import { ActivityIndicator, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
-import { useChartD3 } from '@/components/chart-d3-loader';
 import { DataTable } from '@/components/data-table';
 import { DisclosureToggle } from '@/components/disclosure-toggle';
+import { LineChart } from '@/components/line-chart';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
@@ -14,7 +14,6 @@ import { formatMeasured } from '@/lib/measured-format';
 import { inspectionTypeLabel } from '@/features/registry/schema';
 import { DAY_MS, formatAxisDate, formatDate } from '@/lib/dates';
 import { useRideTrends } from '@/features/review/inspection-api';
-import { ReviewChart } from '@/features/review/review-chart';
 import { pivotLabel } from '@/features/review/review-format';
 import type { TrendPoint, TrendsResponse } from '@/features/review/schema';
 import { type QuantityKind, type UnitSystem, fromSI, pickDisplayUnit } from '@/lib/units';
@@ -115,15 +114,6 @@ function JointTrends({
       : [first - DAY_MS, last + DAY_MS];
   const current = points.find((p) => p.inspectionId === currentId);
   const marker = current ? { x: Date.parse(current.submittedAt), label: 'This inspection' } : undefined;
-  // No ticks until d3 is here; the charts wait for it too, so none is drawn without them.
-  const d3 = useChartD3();
-  const ticks = d3
-    ? d3
-        .scaleUtc()
-        .domain(domain)
-        .ticks(wide ? 4 : 3)
-        .map((d) => d.getTime())
-    : [];
   const tickFormat = (ms: number) => formatAxisDate(ms, last - first);
   const shown = measures.filter((m) => points.some((p) => measureSpec[m].value(p, joint.joint) !== null));
   return (
@@ -141,7 +131,7 @@ function JointTrends({
             name={name}
             system={system}
             wide={wide}
-            frame={{ times, domain, ticks, tickFormat, marker }}
+            frame={{ times, domain, tickFormat, marker }}
           />
         ))}
       </View>
@@ -170,7 +160,6 @@ function JointTrends({
 type TimeFrame = {
   times: number[];
   domain: [number, number];
-  ticks: number[];
   tickFormat: (ms: number) => string;
   marker: { x: number; label: string } | undefined;
 };
@@ -184,7 +173,7 @@ function MeasureChart({
   name,
   system,
   wide,
-  frame: { times, domain, ticks, tickFormat, marker },
+  frame: { times, domain, tickFormat, marker },
 }: {
   measure: Measure;
   joint: Joint;
@@ -213,7 +202,7 @@ function MeasureChart({
       <Text variant="label" muted>
         {spec.title.toUpperCase()}
       </Text>
-      <ReviewChart
+      <LineChart
         height={180}
         summary={[
           `${spec.title} at ${name}: ${driftWords(points, values, fmt, (v) => formatMeasured(v, spec.quantity, system, m !== 'force' ? { recover: true } : undefined).text)}`,
@@ -236,8 +225,10 @@ function MeasureChart({
         xLabel="Submitted"
         yLabel={unit.label}
         xDomain={domain}
-        xTicks={ticks}
+        xTime
         xFormat={tickFormat}
+        xValue={(ms) => formatDate(new Date(ms).toISOString())}
+        yValue={(v) => `${+v.toPrecision(4)} ${unit.label}`}
         zeroBased={m === 'force'}
       />
       <Text variant="small" muted>

@@ -1,11 +1,10 @@
 /**
  * Where a chart's labels go (components/chart-ticks.ts) and which sample its cursor reads
- * (components/chart-nearest.ts), as plain functions. The outside references are d3 itself: d3-scale's
- * nice ticks (`scale.ticks(count)`, the candidates the charts offer) and d3-array's `leastIndex` (a
- * plain scan for the least distance) for the nearest sample. These run in the app project because
- * jest maps d3's ES modules to their UMD builds there (jest.config.js).
+ * (components/chart-nearest.ts), as plain functions. The outside reference for ticks is d3-scale's
+ * nice ticks (`scale.ticks(count)`, the candidates the charts offer); for the nearest sample, the
+ * definition itself: a full scan for the least distance. These run in the app project because jest maps
+ * d3's ES modules to their UMD builds there (jest.config.js).
  */
-import { leastIndex } from 'd3-array';
 import { scaleLinear, scaleUtc } from 'd3-scale';
 
 import { nearestRank, sampleOrder } from '@/components/chart-nearest';
@@ -257,6 +256,13 @@ describe('spreadLabels', () => {
   });
 });
 
+/** The sample among `indices` with the least |x − target|: the definition, by a full scan. */
+function leastIndex(indices: number[], distance: (i: number) => number): number {
+  let best = 0;
+  for (let k = 1; k < indices.length; k++) if (distance(indices[k]) < distance(indices[best])) best = k;
+  return best;
+}
+
 describe('nearest sample', () => {
   /** mulberry32, seeded, for repeatable data. */
   function random(seed: number) {
@@ -270,7 +276,7 @@ describe('nearest sample', () => {
     };
   }
 
-  test('time in order: the order is the samples as they are, and a look-up is d3-array’s least distance', () => {
+  test('time in order: the order is the samples as they are, and a look-up finds the least distance a full scan finds', () => {
     const t = Float64Array.from({ length: 3600 }, (_, i) => i * 0.01);
     const y = Array.from(t, (v) => Math.sin(v));
     const order = sampleOrder(t, y);
@@ -280,7 +286,7 @@ describe('nearest sample', () => {
       const target = -1 + rnd() * 38;
       const got = order[nearestRank(t, order, target)];
       const ref = leastIndex([...Array(3600).keys()], (i) => Math.abs(t[i] - target));
-      expect(Math.abs(t[got] - target)).toBe(Math.abs(t[ref!] - target));
+      expect(Math.abs(t[got] - target)).toBe(Math.abs(t[ref] - target));
     }
   });
 
@@ -309,7 +315,7 @@ describe('nearest sample', () => {
       const target = -20 + rnd() * 400;
       const got = order[nearestRank(x, order, target)];
       // leastIndex gives the position in `usable` of the least distance.
-      const ref = usable[leastIndex(usable, (i) => Math.abs(x[i] - target))!];
+      const ref = usable[leastIndex(usable, (i) => Math.abs(x[i] - target))];
       expect(Math.abs(x[got] - target)).toBe(Math.abs(x[ref] - target));
     }
   });
