@@ -24,7 +24,7 @@ import {
   snapshotOf,
 } from '@/features/instruments/ui';
 import { type Instrument, measuredWithWords } from '@/features/instruments/schema';
-import { isoDay } from '@/lib/dates';
+import { localDay } from '@/lib/dates';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
 import {
@@ -87,7 +87,7 @@ export function ChecklistValue({
   /** The value and, for a shared quantity, its reading, in one change. */
   const store = (measurement: Measurement | null, by = measured) => {
     if (!target || !onDraft) return onAnswer({ measurement });
-    const ready = measuredWithProblem(by, isoDay(new Date())) === null && by.method;
+    const ready = measuredWithProblem(by, localDay()) === null && by.method;
     const measuredBy =
       ready && by.method
         ? { method: by.method, instrument: by.instrument ? snapshotOf(by.instrument) : null }
@@ -152,7 +152,7 @@ export function ChecklistValue({
           error={measuredError}
           onMeasured={(m) => {
             setMeasured(m);
-            const problem = measuredWithProblem(m, isoDay(new Date()));
+            const problem = measuredWithProblem(m, localDay());
             setMeasuredError(m.method && m.instrument !== undefined ? (problem ?? undefined) : undefined);
             if (!problem) store(measurementOf(valueText), m);
           }}
@@ -190,7 +190,7 @@ function PivotReading({
       <MeasuredWithPicker
         kind={target.kind}
         instruments={instruments}
-        today={isoDay(new Date())}
+        today={localDay()}
         value={measured}
         onChange={onMeasured}
         error={error}

@@ -18,7 +18,7 @@ import {
   type MeasuredWith,
 } from '@/features/instruments/ui';
 import { type Instrument, measuredWithWords } from '@/features/instruments/schema';
-import { isoDay } from '@/lib/dates';
+import { localDay } from '@/lib/dates';
 import type { DesignData, DesignMotion } from '@/features/loads/design-schema';
 import { MotionPicture } from '@/features/tap-timer/ui';
 import { type DisplayUnit, type QuantityKind, type UnitSystem, displayUnits, toSI } from '@/lib/units';
@@ -284,7 +284,7 @@ function TypedReading({
     if (v <= 0 && kind !== 'clearance') return setError('Must be greater than 0');
     if (v < 0) return setError('Cannot be negative');
     setError(undefined);
-    const missing = measuredWithProblem(measured, isoDay(new Date()));
+    const missing = measuredWithProblem(measured, localDay());
     if (missing || !measured.method) return setMeasuredError(missing ?? undefined);
     setMeasuredError(undefined);
     setText('');
@@ -326,7 +326,7 @@ function TypedReading({
         <MeasuredWithPicker
           kind={kind}
           instruments={instruments}
-          today={isoDay(new Date())}
+          today={localDay()}
           value={measured}
           onChange={(m) => {
             setMeasured(m);

@@ -27,7 +27,7 @@ import {
 } from '@/features/instruments/schema';
 import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/ui';
-import { formatDateTime, isoDay } from '@/lib/dates';
+import { formatDateTime, localDay } from '@/lib/dates';
 import { InstrumentForm } from '@/features/instruments/instrument-form';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
@@ -99,7 +99,7 @@ const statusIcon = {
 } as const;
 
 function CalibrationCell({ instrument }: { instrument: Instrument }) {
-  const status = calibrationStatus(instrument.calibrationDueOn, isoDay(new Date()));
+  const status = calibrationStatus(instrument.calibrationDueOn, localDay());
   const mark = statusIcon[status.state];
   return (
     <View style={styles.status}>
