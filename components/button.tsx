@@ -8,6 +8,8 @@ type Props = Omit<PressableProps, 'children'> & {
   tone?: 'primary' | 'accent' | 'quiet' | 'danger';
   busy?: boolean;
   icon?: React.ReactNode;
+  /** Lets a screen move the focus to the button (passed on to the Pressable, as React 19 passes refs). */
+  ref?: React.Ref<View>;
 };
 
 /** A full-size touch target; `busy` keeps the label width and shows a spinner. */

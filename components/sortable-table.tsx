@@ -1,4 +1,5 @@
 import { Link, type Href } from 'expo-router';
+import { useEffect, useRef } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Text } from '@/components/text';
@@ -9,6 +10,8 @@ type SortableColumn<T, K extends string> = {
   title: string;
   render: (row: T) => React.ReactNode;
   flex?: number;
+  /** The width the column never shrinks below (a date on one line, a badge whole). */
+  minWidth?: number;
   numeric?: boolean;
   /** The server's sort key for this column; columns without one are not sortable. */
   sortKey?: K;
@@ -30,6 +33,7 @@ export function SortableTable<T, K extends string>({
   sort,
   onSort,
   label,
+  highlighted = -1,
 }: {
   rows: T[];
   columns: SortableColumn<T, K>[];
@@ -39,7 +43,13 @@ export function SortableTable<T, K extends string>({
   sort?: SortValue<K>;
   onSort?: (sort: SortValue<K> | undefined) => void;
   label: string;
+  /** The row a keyboard shortcut has moved to: drawn, marked current, focused and scrolled into view. */
+  highlighted?: number;
 }) {
+  const highlightedRow = useRef<View>(null);
+  useEffect(() => {
+    if (highlighted >= 0) focusAndReveal(highlightedRow.current);
+  }, [highlighted]);
   const active = sort?.startsWith('-') ? sort.slice(1) : sort;
   const descending = sort?.startsWith('-') ?? false;
   return (
@@ -60,7 +70,7 @@ export function SortableTable<T, K extends string>({
           return (
             <View
               key={c.key}
-              style={StyleSheet.flatten([styles.cell, { flex: c.flex ?? 1 }])}
+              style={StyleSheet.flatten([styles.cell, columnSize(c)])}
               role="columnheader"
               aria-sort={isActive ? (descending ? 'descending' : 'ascending') : 'none'}
             >
@@ -86,14 +96,22 @@ export function SortableTable<T, K extends string>({
       </View>
       {rows.map((row, i) => {
         const cells = columns.map((c) => (
-          <View key={c.key} style={StyleSheet.flatten([styles.cell, { flex: c.flex ?? 1 }])} role="cell">
+          <View key={c.key} style={StyleSheet.flatten([styles.cell, columnSize(c)])} role="cell">
             <Cell value={c.render(row)} numeric={c.numeric} />
           </View>
         ));
-        const style = StyleSheet.flatten([styles.row, i % 2 === 1 && styles.zebra]);
+        const on = i === highlighted;
+        const style = StyleSheet.flatten([styles.row, i % 2 === 1 && styles.zebra, on && styles.highlighted]);
+        const current = on ? ('true' as const) : undefined;
         if (!rowHref) {
           return (
-            <View key={rowKey(row)} style={style} role="row">
+            <View
+              key={rowKey(row)}
+              style={style}
+              role="row"
+              aria-current={current}
+              ref={on ? highlightedRow : undefined}
+            >
               {cells}
             </View>
           );
@@ -101,7 +119,13 @@ export function SortableTable<T, K extends string>({
         // Link (asChild) hands the style to the DOM node as-is on web: `style` is one flat object.
         return (
           <Link key={rowKey(row)} href={rowHref(row)} asChild>
-            <Pressable role="link" accessibilityLabel={rowLabel?.(row)} style={style}>
+            <Pressable
+              role="link"
+              accessibilityLabel={rowLabel?.(row)}
+              style={style}
+              aria-current={current}
+              ref={on ? highlightedRow : undefined}
+            >
               {cells}
             </Pressable>
           </Link>
@@ -109,6 +133,19 @@ export function SortableTable<T, K extends string>({
       })}
     </View>
   );
+}
+
+const columnSize = (c: { flex?: number; minWidth?: number }) =>
+  c.minWidth === undefined ? { flex: c.flex ?? 1 } : { flex: c.flex ?? 1, minWidth: c.minWidth };
+
+/** Focus moves the page to the row on the web; a focus call the platform lacks is simply not made. */
+function focusAndReveal(node: View | null) {
+  const target = node as unknown as {
+    focus?: () => void;
+    scrollIntoView?: (options: { block: 'nearest' }) => void;
+  } | null;
+  target?.focus?.();
+  target?.scrollIntoView?.({ block: 'nearest' });
 }
 
 function Cell({ value, numeric }: { value: React.ReactNode; numeric?: boolean }) {
@@ -144,6 +181,13 @@ const styles = StyleSheet.create({
   },
   headRow: { backgroundColor: colors.surfaceSunk, minHeight: 44 },
   zebra: { backgroundColor: '#F8FAFB' },
+  // A bar on the left as well as the tint: the highlight is not shown by colour alone.
+  highlighted: {
+    backgroundColor: colors.infoSoft,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.focus,
+    paddingLeft: space.md - 4,
+  },
   cell: { paddingHorizontal: space.sm, paddingVertical: space.sm, minWidth: 0 },
   sortButton: { minHeight: 36, justifyContent: 'center' },
   right: { textAlign: 'right' },

@@ -1,4 +1,4 @@
-import { useLocalSearchParams } from 'expo-router';
+import { useLocalSearchParams, useRouter } from 'expo-router';
 import { useMemo, useState } from 'react';
 import { ActivityIndicator, StyleSheet, View, useWindowDimensions } from 'react-native';
 
@@ -17,8 +17,8 @@ import { LoadCheckBasis } from '@/features/records/ui';
 import { ChecklistResults } from '@/features/review/checklist-results';
 import { FatigueTable } from '@/features/review/fatigue-table';
 import { CycleCharts } from '@/features/review/cycle-charts';
-import { DecisionPanel } from '@/features/review/decision-panel';
-import { reviewQueueHref } from '@/features/review/hrefs';
+import { DecisionPanel, type KeyIntent } from '@/features/review/decision-panel';
+import { reviewHref, reviewQueueHref } from '@/features/review/hrefs';
 import { useInspectionReview } from '@/features/review/inspection-api';
 import { ChainOrWhyNot } from '@/features/review/inspection-chain';
 import { InspectionHeader, ReviewStateMark } from '@/features/review/inspection-header';
@@ -26,7 +26,10 @@ import type { InspectionDetail, InspectionPhoto } from '@/features/review/inspec
 import { PhotoGallery, PhotoViewer } from '@/features/review/photo-gallery';
 import { LimitsSection, ReadingsTable } from '@/features/review/readings-table';
 import { MotionRecordSection } from '@/features/review/motion-record-section';
+import { queueNeighbour } from '@/features/review/queue-order';
 import { pivotName } from '@/features/review/review-format';
+import { ShortcutHelp } from '@/features/review/shortcut-help';
+import { useShortcuts } from '@/features/review/use-shortcuts';
 import { TrailList } from '@/features/review/trail-list';
 import { TrendsPanel } from '@/features/review/trends-panel';
 import { useUnitSystem } from '@/features/settings';
@@ -73,6 +76,7 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
   const versionNumber = inspection.analysis?.designVersion ?? inspection.designVersion ?? 0;
   const design = useDesignVersionQuery(inspection.rideId, versionNumber);
   const [openPhoto, setOpenPhoto] = useState<string | null>(null);
+  const keys = useInspectionKeys(inspection);
 
   const data = design.data?.data ?? null;
   // Pivot names from the design version the inspection used; the engine's body names without one.
@@ -85,7 +89,7 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
   );
   const photoContext = photoContextOf(inspection, pivots);
 
-  const decision = <DecisionColumn inspection={inspection} ride={ride} />;
+  const decision = <DecisionColumn inspection={inspection} ride={ride} keyIntent={keys.intent} />;
 
   const summary = (
     <>
@@ -169,6 +173,7 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
       subtitle={`${inspection.rideName} · submitted ${formatDateTime(inspection.submittedAt)}`}
       badge={<ReviewStateMark state={inspection.reviewState} />}
       back={back}
+      actions={<ShortcutHelp page="inspection" open={keys.helpOpen} onOpenChange={keys.setHelpOpen} />}
       wideContent
     >
       {twoColumns ? (
@@ -199,6 +204,36 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
   );
 }
 
+/**
+ * The inspection's keys: j / k to the next or previous inspection of the queue page it was opened from,
+ * a / r to start an approval or a return (the decision panel still asks for its button and its checks),
+ * ? for the list. A decided inspection leaves a and r to the browser.
+ */
+function useInspectionKeys(inspection: InspectionDetail) {
+  const router = useRouter();
+  const [helpOpen, setHelpOpen] = useState(false);
+  const [intent, setIntent] = useState<KeyIntent | null>(null);
+  const go = (step: 1 | -1) => {
+    const to = queueNeighbour(inspection.id, step);
+    if (to) router.push(reviewHref(to));
+  };
+  const start = (kind: KeyIntent['kind']) => () => setIntent((was) => ({ kind, seq: (was?.seq ?? 0) + 1 }));
+  const open = inspection.reviewState === 'submitted';
+  useShortcuts(
+    'inspection',
+    helpOpen
+      ? { help: () => setHelpOpen(false) }
+      : {
+          next: () => go(1),
+          previous: () => go(-1),
+          approve: open ? start('approve') : undefined,
+          return: open ? start('return') : undefined,
+          help: () => setHelpOpen(true),
+        },
+  );
+  return { intent, helpOpen, setHelpOpen };
+}
+
 /** What a photo shows, in words: its pivot and the checklist item it was taken for. */
 const photoContextOf =
   (inspection: InspectionDetail, pivots: string[]) =>
@@ -217,9 +252,11 @@ const photoContextOf =
 function DecisionColumn({
   inspection,
   ride,
+  keyIntent,
 }: {
   inspection: InspectionDetail;
   ride: ReturnType<typeof useRideQuery>;
+  keyIntent: KeyIntent | null;
 }) {
   return ride.data ? (
     <DecisionPanel
@@ -239,6 +276,7 @@ function DecisionColumn({
       }))}
       envelope={inspection.analysis?.envelope}
       approvalRefusal={inspection.approvalRefusal}
+      keyIntent={keyIntent}
     />
   ) : (
     <Card>

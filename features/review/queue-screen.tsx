@@ -1,5 +1,6 @@
-import { Link } from 'expo-router';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { Link, useRouter } from 'expo-router';
+import { useEffect, useRef, useState } from 'react';
+import { ActivityIndicator, Pressable, StyleSheet, View, useWindowDimensions } from 'react-native';
 
 import { Card } from '@/components/card';
 import { CAUTION_SHORT } from '@/components/caution';
@@ -17,6 +18,7 @@ import { formatDate } from '@/lib/dates';
 import { useListParams, useSearchText } from '@/components/use-list-params';
 import { useReviewQueue } from '@/features/review/queue-api';
 import { QueueFilterPanel, activeFilterCount } from '@/features/review/queue-filters';
+import { rememberQueueOrder } from '@/features/review/queue-order';
 import { queueItemHref, queueItemLabel, queueItemWhat } from '@/features/review/queue-text';
 import {
   type QueueItem,
@@ -26,10 +28,15 @@ import {
   urgencies,
   urgencyInfo,
 } from '@/features/review/schema';
+import { ShortcutHelp } from '@/features/review/shortcut-help';
+import { stepIndex } from '@/features/review/shortcuts';
 import { UrgencyIcon, UrgencyMark, urgencyLook } from '@/features/review/urgency-mark';
+import { useShortcuts } from '@/features/review/use-shortcuts';
 import { rideClassLabel } from '@/features/rides/schema';
 
 const PAGE_SIZE = 25;
+/** From this window width the table has room for columns of their own for the load check and the counts. */
+const ROOMY_FROM = 1280;
 const LIST_KEYS = [
   'q',
   'siteId',
@@ -48,7 +55,8 @@ const LIST_KEYS = [
  * The supervisor's start page: everything waiting for a supervisor, most urgent first — submitted
  * inspections and rides whose dates have slipped. Counts per urgency sit on top and filter the list.
  * Search, filters, sort and pages are done by the server (GET /api/review/queue) and kept in the URL.
- * Desktop: one dense table. Phone: the same items as cards.
+ * Desktop: one dense table. Phone: the same items as cards. On the web, keys move a highlight through
+ * the page's items and open one (`features/review/shortcuts.ts`).
  */
 export function QueueScreen() {
   return (
@@ -63,6 +71,7 @@ function Queue({ admin }: { admin: boolean }) {
   const reversed = !!(query.from && query.to && query.from > query.to);
   const queue = useReviewQueue({ ...query, pageSize: PAGE_SIZE, ...(reversed ? { to: undefined } : {}) });
   const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
+  const keys = useQueueKeys(queue.data?.items);
 
   const chosen = query.urgency ?? [];
   const toggleUrgency = (u: Urgency) =>
@@ -88,7 +97,11 @@ function Queue({ admin }: { admin: boolean }) {
   };
 
   return (
-    <Screen title="Review" subtitle="What needs a supervisor’s eye, most urgent first.">
+    <Screen
+      title="Review"
+      subtitle="What needs a supervisor’s eye, most urgent first."
+      actions={<ShortcutHelp page="queue" open={keys.helpOpen} onOpenChange={keys.setHelpOpen} />}
+    >
       <UrgencyTiles
         counts={queue.data?.counts}
         chosen={chosen}
@@ -117,11 +130,11 @@ function Queue({ admin }: { admin: boolean }) {
             {page.items.length === 0 ? (
               <EmptyQueue narrowed={narrowed} onClear={clear} />
             ) : wide ? (
-              <QueueTable items={page.items} />
+              <QueueTable items={page.items} highlighted={keys.highlighted} />
             ) : (
               <View style={styles.cards}>
-                {page.items.map((item) => (
-                  <QueueCard key={item.key} item={item} />
+                {page.items.map((item, i) => (
+                  <QueueCard key={item.key} item={item} highlighted={i === keys.highlighted} />
                 ))}
               </View>
             )}
@@ -136,6 +149,43 @@ function Queue({ admin }: { admin: boolean }) {
       {admin ? <SelfApprovalCard /> : null}
     </Screen>
   );
+}
+
+/**
+ * The queue's keys: a highlight that j/k (or the arrows) move through the page's items, Enter or o to open
+ * the highlighted one, ? for the list of keys. The highlight follows the item, not its place, so a
+ * refreshed page keeps it; the page's inspections are remembered in order for j/k on an inspection.
+ */
+function useQueueKeys(items: readonly QueueItem[] | undefined) {
+  const router = useRouter();
+  const [helpOpen, setHelpOpen] = useState(false);
+  const [highlightedKey, setHighlightedKey] = useState<string | null>(null);
+  const list = items ?? [];
+  const highlighted = list.findIndex((i) => i.key === highlightedKey);
+  useEffect(() => {
+    if (items)
+      rememberQueueOrder(
+        items.flatMap((i) => (i.kind === 'inspection' && i.inspectionId ? [i.inspectionId] : [])),
+      );
+  }, [items]);
+  const move = (step: 1 | -1) => {
+    const to = stepIndex(highlighted, list.length, step);
+    if (to >= 0) setHighlightedKey(list[to].key);
+  };
+  useShortcuts(
+    'queue',
+    helpOpen
+      ? { help: () => setHelpOpen(false) }
+      : {
+          next: () => move(1),
+          previous: () => move(-1),
+          open: () => {
+            if (highlighted >= 0) router.push(queueItemHref(list[highlighted]));
+          },
+          help: () => setHelpOpen(true),
+        },
+  );
+  return { highlighted, helpOpen, setHelpOpen };
 }
 
 // ——— counts per urgency ———
@@ -262,20 +312,147 @@ function EmptyQueue({ narrowed, onClear }: { narrowed: boolean; onClear: () => v
 const dash = '—';
 const countOrDash = (n: number) => (n > 0 ? String(n) : dash);
 
-function RideCell({ item }: { item: QueueItem }) {
+/** Names wrap whole (never cut short): a long site or operator takes a second line, not an ellipsis. */
+function RideCell({ item, where }: { item: QueueItem; where?: boolean }) {
   return (
     <View>
-      <Text variant="heading" numberOfLines={1}>
-        {item.rideName}
-      </Text>
-      <Text variant="small" muted numberOfLines={1}>
+      <Text variant="heading">{item.rideName}</Text>
+      <Text variant="small" muted>
         {rideClassLabel[item.rideClass]}
       </Text>
+      {where ? <WhereLines item={item} /> : null}
     </View>
   );
 }
 
-function QueueTable({ items }: { items: QueueItem[] }) {
+function WhereLines({ item }: { item: QueueItem }) {
+  return (
+    <>
+      <Text>{item.siteName ?? 'No site'}</Text>
+      <Text variant="small" muted>
+        {item.operatorName}
+      </Text>
+    </>
+  );
+}
+
+/** A date on one line, in the one date format; its column is wide enough for the longest ("30 Sep 2026"). */
+function DateCell({ value }: { value: string | null }) {
+  return (
+    <Text variant="figure" numberOfLines={1} style={styles.right}>
+      {value ? formatDate(value) : dash}
+    </Text>
+  );
+}
+
+/** The item in words, whole; with the facts whose columns the table has no room for. */
+function WhatCell({ item, counts }: { item: QueueItem; counts?: boolean }) {
+  const facts = [
+    queueItemWhat(item),
+    // A ride's own words already say since when it is overdue; an inspection's do not.
+    item.kind === 'inspection' && item.overdueSince
+      ? `Ride overdue since ${formatDate(item.overdueSince)}`
+      : null,
+    counts && item.failedItems > 0 ? `${item.failedItems} failed` : null,
+    counts && item.findingsPastDue > 0 && item.kind === 'inspection'
+      ? `${item.findingsPastDue} past due`
+      : null,
+  ].filter(Boolean);
+  return <Text>{facts.join(' · ')}</Text>;
+}
+
+function UrgencyCell({ item, withAnalysis }: { item: QueueItem; withAnalysis?: boolean }) {
+  return (
+    <View style={styles.marks}>
+      <UrgencyMark urgency={item.urgency} compact />
+      {withAnalysis && item.analysisStatus ? <EnvelopeMark status={item.analysisStatus} compact /> : null}
+    </View>
+  );
+}
+
+// Widths (px) the columns never shrink below: a date in the figure font is 11 glyphs of ~9.6 px plus the
+// cell's padding; a mark's column fits its widest badge ("Findings past due" may take two lines).
+const DATE_WIDTH = 124;
+const MARK_WIDTH = 140;
+
+type Column = {
+  key: string;
+  title: string;
+  flex?: number;
+  minWidth?: number;
+  numeric?: boolean;
+  render: (i: QueueItem) => React.ReactNode;
+};
+
+/**
+ * The desk's table. From ROOMY_FROM: urgency, ride, site and operator, what, date, load check and the two
+ * counts, each in a column that keeps its words whole. Narrower (1024 px): ride, site and operator share
+ * a cell, the load check sits under the urgency, and the counts join the words under "What".
+ */
+function QueueTable({ items, highlighted }: { items: QueueItem[]; highlighted: number }) {
+  const roomy = useWindowDimensions().width >= ROOMY_FROM;
+  const date: Column = {
+    key: 'date',
+    title: 'Date',
+    flex: 0.01,
+    minWidth: DATE_WIDTH,
+    numeric: true,
+    render: (i) => <DateCell value={i.at} />,
+  };
+  const columns: Column[] = roomy
+    ? [
+        {
+          key: 'urgency',
+          title: 'Urgency',
+          flex: 0.01,
+          minWidth: MARK_WIDTH,
+          render: (i) => <UrgencyCell item={i} />,
+        },
+        { key: 'ride', title: 'Ride', flex: 1, render: (i) => <RideCell item={i} /> },
+        { key: 'where', title: 'Site · operator', flex: 1.25, render: (i) => <WhereLines item={i} /> },
+        { key: 'what', title: 'What', flex: 1.7, render: (i) => <WhatCell item={i} /> },
+        date,
+        {
+          key: 'analysis',
+          title: 'Load check',
+          flex: 0.01,
+          minWidth: 118,
+          render: (i) => (i.analysisStatus ? <EnvelopeMark status={i.analysisStatus} compact /> : dash),
+        },
+        {
+          key: 'failed',
+          title: 'Failed',
+          flex: 0.01,
+          minWidth: 72,
+          numeric: true,
+          render: (i) => countOrDash(i.failedItems),
+        },
+        {
+          key: 'pastDue',
+          title: 'Past due',
+          flex: 0.01,
+          minWidth: 84,
+          numeric: true,
+          render: (i) => countOrDash(i.findingsPastDue),
+        },
+      ]
+    : [
+        {
+          key: 'urgency',
+          title: 'Urgency · load check',
+          flex: 0.01,
+          minWidth: MARK_WIDTH,
+          render: (i) => <UrgencyCell item={i} withAnalysis />,
+        },
+        {
+          key: 'ride',
+          title: 'Ride · site · operator',
+          flex: 1,
+          render: (i) => <RideCell item={i} where />,
+        },
+        { key: 'what', title: 'What', flex: 1.4, render: (i) => <WhatCell item={i} counts /> },
+        date,
+      ];
   return (
     <SortableTable<QueueItem, never>
       label="Review queue"
@@ -283,59 +460,33 @@ function QueueTable({ items }: { items: QueueItem[] }) {
       rowKey={(i) => i.key}
       rowHref={queueItemHref}
       rowLabel={queueItemLabel}
-      columns={[
-        {
-          key: 'urgency',
-          title: 'Urgency',
-          flex: 1.25,
-          render: (i) => <UrgencyMark urgency={i.urgency} compact />,
-        },
-        { key: 'ride', title: 'Ride', flex: 1.4, render: (i) => <RideCell item={i} /> },
-        { key: 'site', title: 'Site', flex: 1.1, render: (i) => i.siteName ?? dash },
-        { key: 'operator', title: 'Operator', flex: 1.1, render: (i) => i.operatorName },
-        { key: 'what', title: 'What', flex: 1.8, render: queueItemWhat },
-        { key: 'date', title: 'Date', flex: 0.9, numeric: true, render: (i) => formatDate(i.at) },
-        {
-          key: 'analysis',
-          title: 'Load check',
-          flex: 1.05,
-          render: (i) => (i.analysisStatus ? <EnvelopeMark status={i.analysisStatus} compact /> : dash),
-        },
-        {
-          key: 'failed',
-          title: 'Failed',
-          flex: 0.6,
-          numeric: true,
-          render: (i) => countOrDash(i.failedItems),
-        },
-        {
-          key: 'overdue',
-          title: 'Overdue since',
-          flex: 0.95,
-          numeric: true,
-          render: (i) => (i.overdueSince ? formatDate(i.overdueSince) : dash),
-        },
-        {
-          key: 'pastDue',
-          title: 'Past due',
-          flex: 0.65,
-          numeric: true,
-          render: (i) => countOrDash(i.findingsPastDue),
-        },
-      ]}
+      highlighted={highlighted}
+      columns={columns}
     />
   );
 }
 
-/** Phone: one card per item, the whole card a link. */
-function QueueCard({ item }: { item: QueueItem }) {
+/** Phone: one card per item, the whole card a link; a narrow desk window gets the cards too. */
+function QueueCard({ item, highlighted }: { item: QueueItem; highlighted: boolean }) {
+  const ref = useRef<View>(null);
+  useEffect(() => {
+    // A card the keys moved to takes the focus, which brings it into view (on the web, the only place
+    // the keys are read).
+    if (highlighted) (ref.current as unknown as { focus?: () => void } | null)?.focus?.();
+  }, [highlighted]);
   const facts = [
     item.failedItems > 0 ? `${item.failedItems} failed` : null,
     item.findingsPastDue > 0 && item.kind === 'inspection' ? `${item.findingsPastDue} past due` : null,
   ].filter(Boolean);
   return (
     <Link href={queueItemHref(item)} asChild>
-      <Pressable role="link" accessibilityLabel={queueItemLabel(item)} style={styles.card}>
+      <Pressable
+        ref={ref}
+        role="link"
+        accessibilityLabel={queueItemLabel(item)}
+        aria-current={highlighted ? 'true' : undefined}
+        style={StyleSheet.flatten([styles.card, highlighted && styles.cardHighlighted])}
+      >
         <View style={styles.cardHead}>
           <UrgencyMark urgency={item.urgency} />
           <Text variant="figure" muted>
@@ -403,6 +554,15 @@ const styles = StyleSheet.create({
     gap: space.sm,
     minHeight: layout.touchTarget,
   },
+  // A thicker frame as well as the tint: the highlight is not shown by colour alone.
+  cardHighlighted: {
+    backgroundColor: colors.infoSoft,
+    borderColor: colors.focus,
+    borderWidth: 3,
+    padding: space.lg - 2,
+  },
+  right: { textAlign: 'right' },
+  marks: { gap: space.xs, alignItems: 'flex-start' },
   cardHead: {
     flexDirection: 'row',
     justifyContent: 'space-between',

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { type Control, Controller, useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import type { z } from 'zod';
@@ -9,6 +9,7 @@ import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { applyServerError, fieldsOf } from '@/components/form/server-errors';
 import type { RideStatus } from '@/components/status-mark';
 import { Text } from '@/components/text';
+import { colors, radius, space } from '@/components/theme';
 import { TextField } from '@/components/text-field';
 import { type ListedFinding, useDecide } from '@/features/review/decision-api';
 import { approvalConcerns, approvalWarning } from '@/features/review/decision-panel/approval-concerns';
@@ -19,6 +20,13 @@ import { type DecisionInput, decisionInputSchema } from '@/features/review/schem
 import { ApiRequestError } from '@/lib/api-errors';
 
 type DecisionValues = z.output<typeof decisionInputSchema>;
+
+/**
+ * A decision started from the keyboard (a or r on the inspection): it only brings the form forward, the
+ * approval's button or the return's comment focused; the decision is still made with the button, through
+ * the same checks (warnings, the status reason, the return's comment). `seq` tells a second press apart.
+ */
+export type KeyIntent = { kind: 'approve' | 'return'; seq: number };
 
 export function DecisionForm({
   decide,
@@ -31,6 +39,7 @@ export function DecisionForm({
   findings,
   envelope,
   approvalRefusal,
+  keyIntent = null,
 }: {
   decide: ReturnType<typeof useDecide>;
   problem: FormProblem | null;
@@ -43,16 +52,26 @@ export function DecisionForm({
   envelope: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
   /** The server's reason this person may not approve (their own inspection), or null. */
   approvalRefusal: string | null;
+  keyIntent?: KeyIntent | null;
 }) {
   const [warning, setWarning] = useState<'hard' | 'soft' | null>(null);
   const [choice, setChoice] = useState<StatusChoice>('keep');
   const [reason, setReason] = useState('');
   const [reasonError, setReasonError] = useState<string | undefined>();
-  const { control, handleSubmit, setValue, setError, clearErrors } = useForm<
+  const { control, handleSubmit, setValue, setError, clearErrors, setFocus } = useForm<
     DecisionInput,
     unknown,
     DecisionValues
   >({ resolver: zodResolver(decisionInputSchema), defaultValues: { decision: 'approve', note } });
+  const approveButton = useRef<View>(null);
+  const [dismissed, setDismissed] = useState(-1);
+  const keyed = keyIntent && keyIntent.seq !== dismissed ? keyIntent.kind : null;
+  useEffect(() => {
+    if (!keyIntent) return;
+    // Focus brings the step into view; nothing is decided here.
+    if (keyIntent.kind === 'return') setFocus('note');
+    else (approveButton.current as unknown as { focus?: () => void } | null)?.focus?.();
+  }, [keyIntent, setFocus]);
 
   const concerns = approvalConcerns(findings, envelope);
   const after: RideStatus = choice === 'keep' ? rideStatus : choice;
@@ -141,7 +160,15 @@ export function DecisionForm({
       ) : null}
       <FormAlert problem={problem} />
       {approvalRefusal ? <Text testID="approval-refusal">{approvalRefusal}</Text> : null}
+      {keyed ? (
+        <KeyedStep
+          kind={keyed}
+          refused={!!approvalRefusal}
+          onCancel={() => setDismissed(keyIntent?.seq ?? -1)}
+        />
+      ) : null}
       <DecisionButtons
+        approveRef={approveButton}
         decide={decide}
         onApprove={approvalRefusal ? null : () => approve(false)}
         onReturn={giveBack}
@@ -183,11 +210,39 @@ function NoteField({
   );
 }
 
+/** What a decision started from the keyboard still needs: said in words, with a way out. */
+function KeyedStep({
+  kind,
+  refused,
+  onCancel,
+}: {
+  kind: 'approve' | 'return';
+  refused: boolean;
+  onCancel: () => void;
+}) {
+  const words =
+    kind === 'return'
+      ? 'Returning: write in the comment what the inspector should correct, then press “Return to inspector”.'
+      : refused
+        ? 'You may not approve this inspection (see above); it can only be returned or left for another supervisor.'
+        : 'Approving: check the comment and the ride status, then press “Approve inspection” (Enter while it has the focus). Nothing is approved until you do.';
+  return (
+    <View style={styles.keyed} role="status" accessibilityLabel="Decision started from the keyboard">
+      <Text variant="small" style={styles.keyedWords}>
+        {words}
+      </Text>
+      <Button label="Cancel" tone="quiet" onPress={onCancel} />
+    </View>
+  );
+}
+
 function DecisionButtons({
+  approveRef,
   decide,
   onApprove,
   onReturn,
 }: {
+  approveRef: React.Ref<View>;
   decide: ReturnType<typeof useDecide>;
   /** Null when this person may not approve: the button is not offered at all. */
   onApprove: (() => void) | null;
@@ -197,6 +252,7 @@ function DecisionButtons({
     <View style={sharedStyles.buttons}>
       {onApprove ? (
         <Button
+          ref={approveRef}
           label="Approve inspection"
           tone="accent"
           busy={decide.isPending && decide.variables?.decision === 'approve'}
@@ -217,4 +273,16 @@ function DecisionButtons({
 
 const styles = StyleSheet.create({
   note: { minHeight: 72, textAlignVertical: 'top' },
+  keyed: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    flexWrap: 'wrap',
+    gap: space.md,
+    padding: space.md,
+    borderRadius: radius.md,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.focus,
+    backgroundColor: colors.infoSoft,
+  },
+  keyedWords: { flex: 1, minWidth: 200 },
 });

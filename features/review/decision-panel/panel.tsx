@@ -8,7 +8,7 @@ import { Text } from '@/components/text';
 import { space } from '@/components/theme';
 import { noticeHref, useRideNotices } from '@/features/notices';
 import { useDecide, useFindings } from '@/features/review/decision-api';
-import { DecisionForm } from '@/features/review/decision-panel/decision-form';
+import { DecisionForm, type KeyIntent } from '@/features/review/decision-panel/decision-form';
 import { FindingsSection } from '@/features/review/decision-panel/findings-section';
 import type { InspectionPhoto } from '@/features/review/finding-form';
 import { InspectionNotices } from '@/features/review/decision-panel/inspection-notices';
@@ -28,6 +28,8 @@ type Props = {
   envelope?: readonly { id: string; label: string; status: 'within' | 'near' | 'over' }[];
   /** Why this person may not approve it (their own inspection), from the server; null or absent: they may. */
   approvalRefusal?: string | null;
+  /** A decision started from the keyboard (`features/review/shortcuts.ts`): brings the form forward. */
+  keyIntent?: KeyIntent | null;
 };
 
 /**
@@ -102,6 +104,7 @@ export function DecisionPanel(props: Props) {
             findings={findings.data?.findings ?? []}
             envelope={props.envelope ?? []}
             approvalRefusal={props.approvalRefusal ?? null}
+            keyIntent={props.keyIntent ?? null}
           />
         </Card>
       ) : null}
