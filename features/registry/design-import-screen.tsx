@@ -30,6 +30,7 @@ import { ExportCard } from '@/features/registry/design-export-card';
 import { DesignDrawingPanel, useDesignAnalysis } from '@/features/registry/design-view';
 import { FormText } from '@/components/form/fields';
 import { type ReportLine, formatFromName, importReport } from '@/features/registry/import-report';
+import { type ImportPhase, ImportProgress, csvDataRows } from '@/features/registry/import-progress';
 import { Panes } from '@/components/panes';
 import { readPickedFile } from '@/features/registry/read-picked-file';
 import { WithRide } from '@/features/registry/with-ride';
@@ -80,10 +81,16 @@ function DesignImport({ ride }: { ride: RideSummary }) {
   const [picked, setPicked] = useState<Picked | null>(null);
   const [check, setCheck] = useState<Check>({ state: 'idle' });
   const [pickError, setPickError] = useState<string | null>(null);
+  const [phase, setPhase] = useState<ImportPhase | null>(null);
   const checker = useDesignImportCheckMutation(ride.id);
 
   const runCheck = async (file: Picked) => {
     setCheck({ state: 'checking' });
+    setPhase({
+      step: 'checking',
+      format: file.format,
+      rows: file.format === 'csv' ? csvDataRows(file.text) : null,
+    });
     try {
       const res = await checker.mutateAsync({ format: file.format, content: file.text });
       setCheck({ state: 'ok', data: res.data });
@@ -100,6 +107,8 @@ function DesignImport({ ride }: { ride: RideSummary }) {
                 ? err.message
                 : 'The file could not be checked.',
         });
+    } finally {
+      setPhase(null);
     }
   };
 
@@ -117,6 +126,7 @@ function DesignImport({ ride }: { ride: RideSummary }) {
       return;
     }
     try {
+      setPhase({ step: 'reading' });
       const text = await readPickedFile(asset);
       const file: Picked = {
         name: asset.name,
@@ -127,6 +137,7 @@ function DesignImport({ ride }: { ride: RideSummary }) {
       setPicked(file);
       await runCheck(file);
     } catch {
+      setPhase(null);
       setPickError(`${asset.name} could not be read.`);
     }
   };
@@ -144,6 +155,7 @@ function DesignImport({ ride }: { ride: RideSummary }) {
 
       <Card style={styles.step}>
         <StepTitle n={2} title="Check" />
+        <ImportProgress phase={phase} />
         <CheckResult check={check} />
       </Card>
 

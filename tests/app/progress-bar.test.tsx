@@ -9,6 +9,7 @@ import { render, screen } from '@testing-library/react-native';
 
 import { ProgressBar, ofText, percentText } from '@/components/progress-bar';
 import { DownloadProgressBar } from '@/features/api/download-progress-bar';
+import { ImportProgress, csvDataRows } from '@/features/registry/import-progress';
 import { SyncProgressView } from '@/features/sync/sync-progress-view';
 import {
   type SyncProgress,
@@ -139,6 +140,24 @@ describe('a file on its way (features/api/download-progress-bar.tsx)', () => {
     expect(bar('PDF').props).toMatchObject({
       'aria-valuenow': 1,
       'aria-valuetext': 'Downloading, 5.00 kB so far (step 2 of 3)',
+    });
+  });
+});
+
+describe('a design file import (features/registry/import-progress.tsx)', () => {
+  test('rows are counted as RFC 4180 lays a CSV out: a header line, then one record per line', () => {
+    expect(csvDataRows('kind,name\r\npart,Arm\r\npart,Gondola\r\npivot,Main\r\n')).toBe(3);
+    expect(csvDataRows('kind,name\n')).toBe(0);
+    // A quoted cell may hold a line break (RFC 4180 §2.6): still one record.
+    expect(csvDataRows('kind,name\npart,"Arm,\nleft"\n')).toBe(1);
+  });
+
+  test('checking: step 2 of 3, with the rows the server is checking', () => {
+    render(<ImportProgress phase={{ step: 'checking', format: 'csv', rows: 48 }} />);
+    expect(bar('Importing the design file').props).toMatchObject({
+      'aria-valuenow': 1,
+      'aria-valuemax': 3,
+      'aria-valuetext': 'The server is parsing and checking 48 rows (step 2 of 3)',
     });
   });
 });
