@@ -12,7 +12,8 @@ type ViewedPhoto = { sha256: string; caption: string; received?: boolean };
 /**
  * One photo at full size over the page, with its caption and, when given, a line of details under it.
  * Closes with the button, the Escape key (the web Modal's request to close) or the back gesture; steps
- * through the others. `index` is the open photo's place in `photos`, or null when none is open.
+ * through the others. The backdrop is opaque, and on the web the Modal keeps Tab's focus inside it.
+ * `index` is the open photo's place in `photos`, or null when none is open.
  */
 export function FullSizePhotoViewer<P extends ViewedPhoto>({
   photos,
@@ -32,7 +33,7 @@ export function FullSizePhotoViewer<P extends ViewedPhoto>({
       {photo !== null && index !== null ? (
         <View style={styles.backdrop} role="dialog" aria-modal accessibilityLabel="Photo, full size">
           <View style={styles.bar}>
-            <Text variant="label" color={colors.baseMuted}>
+            <Text variant="label" color={colors.chromeMuted}>
               PHOTO {index + 1} OF {photos.length}
             </Text>
             <Button label="Close" tone="quiet" onPress={close} icon={<Feather name="x" size={18} />} />
@@ -40,11 +41,11 @@ export function FullSizePhotoViewer<P extends ViewedPhoto>({
           {/* Leave room for the bar, the caption (and its details) and the buttons. */}
           <FullPhoto photo={photo} reserve={details ? 240 : 220} />
           <View style={styles.caption}>
-            <Text variant="heading" color={colors.baseText}>
+            <Text variant="heading" color={colors.chromeText}>
               {photo.caption || 'No caption'}
             </Text>
             {details ? (
-              <Text variant="small" color={colors.baseMuted}>
+              <Text variant="small" color={colors.chromeMuted}>
                 {details(photo)}
               </Text>
             ) : null}
@@ -79,9 +80,9 @@ function FullPhoto({ photo, reserve }: { photo: ViewedPhoto; reserve: number }) 
   return (
     <View style={StyleSheet.flatten([styles.full, box])}>
       {!received ? (
-        <Text color={colors.baseText}>The phone has not uploaded this photo yet.</Text>
+        <Text color={colors.chromeText}>The phone has not uploaded this photo yet.</Text>
       ) : failed ? (
-        <Text color={colors.baseText}>
+        <Text color={colors.chromeText}>
           This photo could not be loaded. Check the connection and try again.
         </Text>
       ) : source ? (
@@ -93,7 +94,7 @@ function FullPhoto({ photo, reserve }: { photo: ViewedPhoto; reserve: number }) 
           accessibilityIgnoresInvertColors
         />
       ) : (
-        <ActivityIndicator color={colors.baseText} size="large" />
+        <ActivityIndicator color={colors.chromeText} size="large" />
       )}
     </View>
   );
@@ -102,7 +103,8 @@ function FullPhoto({ photo, reserve }: { photo: ViewedPhoto; reserve: number }) 
 const styles = StyleSheet.create({
   backdrop: {
     flex: 1,
-    backgroundColor: 'rgba(10, 24, 32, 0.94)',
+    // Opaque: the page behind must not read through the photo, its caption or the buttons.
+    backgroundColor: colors.chrome,
     alignItems: 'center',
     justifyContent: 'center',
     padding: space.lg,
