@@ -397,7 +397,7 @@ function QueueTable({ items, highlighted }: { items: QueueItem[]; highlighted: n
     flex: 0.01,
     minWidth: DATE_WIDTH,
     numeric: true,
-    render: (i) => <DateCell value={i.at} />,
+    render: (i) => <DateCell value={i.day || i.at} />,
   };
   const columns: Column[] = roomy
     ? [
@@ -490,7 +490,7 @@ function QueueCard({ item, highlighted }: { item: QueueItem; highlighted: boolea
         <View style={styles.cardHead}>
           <UrgencyMark urgency={item.urgency} />
           <Text variant="figure" muted>
-            {formatDate(item.at)}
+            {formatDate(item.day || item.at)}
           </Text>
         </View>
         <View style={styles.shrink}>
