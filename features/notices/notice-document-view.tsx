@@ -14,7 +14,7 @@ import { NoticePhotos } from '@/features/notices/notice-photos';
 import { noticeKindLabel } from '@/features/notices/notice-text';
 import { noticeUnitsText, type NoticeDocument } from '@/features/notices/schema';
 import { formatRatio } from '@/features/loads';
-import { formatDate, formatDateTime } from '@/lib/dates';
+import { formatDate, formatWhen } from '@/lib/dates';
 import { SeverityMark } from '@/features/notices/severity-mark';
 
 type Result = NoticeDocument['results'][number];
@@ -56,7 +56,7 @@ export function NoticeDocumentView({ document: doc }: { document: NoticeDocument
 
       <Section title="Signed">
         <Text>
-          {doc.signature.name}, {doc.signature.role} — {formatDateTime(doc.signature.signedAt)}
+          {doc.signature.name}, {doc.signature.role} — {formatWhen(doc.signature.signedAt, doc.timeZone)}
         </Text>
       </Section>
 
@@ -101,7 +101,7 @@ function IssuerHead({ doc }: { doc: NoticeDocument }) {
         </Text>
         <Text variant="figureLarge">{doc.reference}</Text>
         <Text variant="small" muted>
-          Issued {formatDateTime(doc.issuedAt)}
+          Issued {formatWhen(doc.issuedAt, doc.timeZone)}
         </Text>
       </View>
     </View>
