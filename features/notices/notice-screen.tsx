@@ -14,7 +14,7 @@ import { Text } from '@/components/text';
 import { colors, layout, radius, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
-import { DownloadProgressBar, useDownloadProgress } from '@/features/api/ui';
+import { DownloadProgressBar, handOverVerb, useDownloadProgress } from '@/features/api/ui';
 import { useSession } from '@/features/auth';
 import type { SessionUser } from '@/features/session/schema';
 import { problemText } from '@/features/notices/corrective-action-form';
@@ -192,7 +192,7 @@ function PdfPanel({ notice }: { notice: NoticeDetail }) {
         ]}
       />
       <Button
-        label="Download PDF"
+        label={`${handOverVerb} PDF`}
         tone="quiet"
         icon={<Feather name="download" size={18} color={colors.text} />}
         onPress={download}

@@ -6,7 +6,7 @@ import { Card } from '@/components/card';
 import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
-import { fileTypes, saveOrShareText } from '@/features/api/ui';
+import { fileTypes, handOverVerb, saveOrShareText } from '@/features/api/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import { exportFileName } from '@/features/registry/import-report';
 import type { RideSummary } from '@/features/rides/schema';
@@ -39,13 +39,13 @@ export function ExportCard({
       </Text>
       <View style={styles.buttons}>
         <Button
-          label="Download CSV"
+          label={`${handOverVerb} CSV`}
           tone="quiet"
           icon={<Feather name="download" size={18} color={colors.text} />}
           onPress={() => save('csv')}
         />
         <Button
-          label="Download JSON"
+          label={`${handOverVerb} JSON`}
           tone="quiet"
           icon={<Feather name="download" size={18} color={colors.text} />}
           onPress={() => save('json')}
