@@ -180,7 +180,7 @@ const styles = StyleSheet.create({
     borderBottomColor: colors.surfaceSunk,
   },
   headRow: { backgroundColor: colors.surfaceSunk, minHeight: 44 },
-  zebra: { backgroundColor: '#F8FAFB' },
+  zebra: { backgroundColor: colors.surfaceAlt },
   // A bar on the left as well as the tint: the highlight is not shown by colour alone.
   highlighted: {
     backgroundColor: colors.infoSoft,
