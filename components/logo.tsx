@@ -9,7 +9,11 @@ export function Logo({ size = 36, onDark = false }: { size?: number; onDark?: bo
   return (
     <View style={styles.row} accessibilityRole="header" accessibilityLabel="Pivotwatch">
       <SvgXml xml={logoMarkSvg(size)} width={size} height={size} />
-      <Text variant="title" color={onDark ? colors.chromeText : colors.base} style={{ fontSize: size * 0.62 }}>
+      <Text
+        variant="title"
+        color={onDark ? colors.chromeText : colors.base}
+        style={{ fontSize: size * 0.62 }}
+      >
         Pivotwatch
       </Text>
     </View>
