@@ -718,7 +718,10 @@ describe('inspection review', () => {
       rideStatusReason: 'Awaiting weld repair',
       reviewState: 'submitted',
       reviewNote: null,
-      photos: photos.map((p) => ({ sha256: p.sha256, caption: p.caption })),
+      // Each photo by its own id, with when it was taken and what it shows, for the finding's photo picker.
+      photos: photos.map((p) =>
+        expect.objectContaining({ id: p.id, sha256: p.sha256, caption: p.caption, takenAt: p.takenAt }),
+      ),
       // The server's checked values, for the approve warning (over and near limits, not only findings).
       envelope: expect.arrayContaining([expect.objectContaining({ status: expect.any(String) })]),
     });
