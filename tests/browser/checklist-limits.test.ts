@@ -125,7 +125,9 @@ test('the template states each limit, and its editor offers the pivot’s design
   await screenshot(admin, 'checklist-template-limits-desktop');
 
   await admin.goto(`${app.baseUrl}/register/checklists/${templates[0].id}/edit`);
-  const against = admin.getByRole('button', { name: 'Checked against: Pin minimum diameter (design data)' });
+  const against = admin.getByRole('combobox', {
+    name: 'Checked against: Pin minimum diameter (design data)',
+  });
   await against.first().waitFor({ timeout: 30000 });
   await against.first().scrollIntoViewIfNeeded();
   await screenshot(admin, 'checklist-template-editor-desktop');
