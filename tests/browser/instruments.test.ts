@@ -44,8 +44,8 @@ test('the administrator keeps the register and sets the declaration text', async
   await page.getByRole('textbox', { name: 'Serial' }).fill('HR-MIC-0655');
   await page.getByRole('radio', { name: 'Micrometer' }).click();
   await page.getByRole('checkbox', { name: 'Pin diameter' }).click();
-  await page.getByRole('textbox', { name: 'Calibrated on' }).fill('2026-11-02');
-  await page.getByRole('textbox', { name: 'Next calibration due' }).fill('2027-11-02');
+  await page.getByLabel('Calibrated on', { exact: true }).fill('2026-11-02');
+  await page.getByLabel('Next calibration due', { exact: true }).fill('2027-11-02');
   await page.getByRole('button', { name: 'Add instrument' }).click();
   await page.getByText('HR-MIC-0655').waitFor();
   await screenshot(page, 'instruments-register-desktop');
