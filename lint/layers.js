@@ -37,6 +37,7 @@ const serverOrder = [
   'paths',
   'files',
   'logger',
+  'sql-functions',
   'db',
   'sqlite-client',
   'backup',
