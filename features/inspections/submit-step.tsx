@@ -108,18 +108,20 @@ export function SubmitStep({
           </Text>
           <View role="list" accessibilityLabel="Before you submit">
             {problems.map((p, i) => (
-              <Pressable
-                key={`${p.itemId}${i}`}
-                role="link"
-                accessibilityLabel={`Go to: ${p.message}`}
-                onPress={() => onProblem(p)}
-                style={styles.problem}
-              >
-                <Feather name="arrow-right" size={18} color={colors.near} />
-                <Text color={colors.near} style={styles.problemText}>
-                  {p.message}
-                </Text>
-              </Pressable>
+              // A list holds list items (ARIA's required children); each item holds its link.
+              <View key={`${p.itemId}${i}`} role="listitem">
+                <Pressable
+                  role="link"
+                  accessibilityLabel={`Go to: ${p.message}`}
+                  onPress={() => onProblem(p)}
+                  style={styles.problem}
+                >
+                  <Feather name="arrow-right" size={18} color={colors.near} />
+                  <Text color={colors.near} style={styles.problemText}>
+                    {p.message}
+                  </Text>
+                </Pressable>
+              </View>
             ))}
           </View>
         </Card>
