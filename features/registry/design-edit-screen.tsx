@@ -263,12 +263,11 @@ function SaveCard({
     }
     setReasonError(undefined);
     setProblem(null);
-    put.mutate(
-      { reason: reason.trim(), data, basedOnVersion: current.version },
-      {
-        onSuccess: () => router.replace(rideDesignHref(ride.id)),
-        onError: (err) => setProblem(problemOf(err)),
-      },
+    // mutateAsync, not mutate's callbacks: the saved version reloads the ride, which starts this editor
+    // afresh (its key is the version) before a per-call onSuccess could run.
+    put.mutateAsync({ reason: reason.trim(), data, basedOnVersion: current.version }).then(
+      () => router.replace(rideDesignHref(ride.id)),
+      (err: unknown) => setProblem(problemOf(err)),
     );
   };
   return (
