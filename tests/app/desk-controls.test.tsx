@@ -255,7 +255,7 @@ describe('date field', () => {
     for (const day of days) {
       const onChange = jest.fn();
       const view = render(<WebDateField label="Due date" value={day} onChange={onChange} max="2030-01-01" />);
-      const input = view.UNSAFE_getByType('input');
+      const input = view.UNSAFE_root.findAll((n) => n.type === 'input')[0];
       expect(input.props.type).toBe('date');
       expect(input.props.value).toBe(format(parseISO(day), 'yyyy-MM-dd'));
       expect(input.props['aria-label']).toBe('Due date');
