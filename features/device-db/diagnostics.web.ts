@@ -7,6 +7,7 @@
 import type { DeviceDb } from '@/features/device-db/connection';
 import { countOutbox, listOutbox } from '@/features/device-db/outbox';
 import { deleteDraft, listDrafts, loadDraft, saveDraft, submitDraft } from '@/features/device-db/drafts';
+import { putPhotoBlob } from '@/features/device-db/photos';
 
 export const DIAGNOSTICS_FLAG = 'pivotwatch:diagnostics';
 
@@ -26,6 +27,7 @@ export function exposeDiagnostics(db: DeviceDb): void {
       listDrafts: () => listDrafts(db),
       deleteDraft: (id: string) => deleteDraft(db, id),
       submitDraft: (record: unknown) => submitDraft(db, record),
+      putPhotoBlob: (input: Parameters<typeof putPhotoBlob>[1]) => putPhotoBlob(db, input),
       listOutbox: () => listOutbox(db),
       countOutbox: () => countOutbox(db),
     },
