@@ -5,8 +5,9 @@ import { Platform, Pressable, StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { type DateFieldProps, dateOfDay, dateRangeProblem } from '@/components/date-field-rules';
 import Feather from '@/components/feather-icon';
+import { fieldBox, FieldNote } from '@/components/field-frame';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, space } from '@/components/theme';
 import { formatDate, localDay } from '@/lib/dates';
 
 /**
@@ -91,15 +92,7 @@ export function DateField({
           ) : null}
         </View>
       ) : null}
-      {shownError ? (
-        <Text variant="small" color={colors.danger} accessibilityLiveRegion="polite">
-          {shownError}
-        </Text>
-      ) : hint ? (
-        <Text variant="small" muted>
-          {hint}
-        </Text>
-      ) : null}
+      <FieldNote error={shownError} hint={hint} />
     </View>
   );
 }
@@ -112,12 +105,7 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     alignItems: 'center',
     justifyContent: 'space-between',
-    minHeight: layout.touchTarget,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    borderRadius: radius.md,
-    backgroundColor: colors.surface,
-    paddingHorizontal: space.md,
+    ...fieldBox,
   },
   boxError: { borderColor: colors.danger },
 });

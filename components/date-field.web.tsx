@@ -2,6 +2,7 @@ import { type CSSProperties, useId, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
 import { type DateFieldProps, dateRangeProblem } from '@/components/date-field-rules';
+import { FieldNote } from '@/components/field-frame';
 import { Text } from '@/components/text';
 import { colors, fonts, layout, radius, space } from '@/components/theme';
 
@@ -42,15 +43,7 @@ export function DateField({ label, value, onChange, onBlur, error, hint, min, ma
         onBlur={onBlur}
         style={inputStyle(!!shownError)}
       />
-      {shownError ? (
-        <Text nativeID={messageId} variant="small" color={colors.danger} accessibilityLiveRegion="polite">
-          {shownError}
-        </Text>
-      ) : hint ? (
-        <Text nativeID={messageId} variant="small" muted>
-          {hint}
-        </Text>
-      ) : null}
+      <FieldNote error={shownError} hint={hint} nativeID={messageId} />
     </View>
   );
 }

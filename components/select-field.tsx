@@ -2,7 +2,7 @@ import { useEffect, useId, useRef, useState } from 'react';
 import { Pressable, StyleSheet, TextInput, View } from 'react-native';
 
 import Feather from '@/components/feather-icon';
-import { FieldFrame } from '@/components/field-frame';
+import { FieldFrame, fieldBox } from '@/components/field-frame';
 import { Text } from '@/components/text';
 import { colors, fonts, layout, radius, space } from '@/components/theme';
 
@@ -296,12 +296,7 @@ const styles = StyleSheet.create({
     alignItems: 'center',
     justifyContent: 'space-between',
     gap: space.sm,
-    minHeight: layout.touchTarget,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    borderRadius: radius.md,
-    backgroundColor: colors.surface,
-    paddingHorizontal: space.md,
+    ...fieldBox,
   },
   buttonError: { borderColor: colors.danger },
   buttonText: { flexShrink: 1 },

@@ -1,8 +1,9 @@
 import { forwardRef, useState } from 'react';
 import { StyleSheet, TextInput, View, type TextInputProps } from 'react-native';
 
+import { fieldBox, FieldNote } from '@/components/field-frame';
 import { Text } from '@/components/text';
-import { colors, fonts, layout, radius, space } from '@/components/theme';
+import { colors, fonts, space } from '@/components/theme';
 
 type Props = TextInputProps & { label: string; error?: string; hint?: string; unit?: string };
 
@@ -50,15 +51,7 @@ export const TextField = forwardRef<TextInput, Props>(function TextField(
           </Text>
         ) : null}
       </View>
-      {error ? (
-        <Text variant="small" color={colors.danger} accessibilityLiveRegion="polite">
-          {error}
-        </Text>
-      ) : hint ? (
-        <Text variant="small" muted>
-          {hint}
-        </Text>
-      ) : null}
+      <FieldNote error={error} hint={hint} />
     </View>
   );
 });
@@ -68,12 +61,7 @@ const styles = StyleSheet.create({
   box: {
     flexDirection: 'row',
     alignItems: 'center',
-    minHeight: layout.touchTarget,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    borderRadius: radius.md,
-    backgroundColor: colors.surface,
-    paddingHorizontal: space.md,
+    ...fieldBox,
   },
   boxMultiline: { alignItems: 'flex-start' },
   boxError: { borderColor: colors.danger },
