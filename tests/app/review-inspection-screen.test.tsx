@@ -718,6 +718,8 @@ describe('inspection review', () => {
       rideStatusReason: 'Awaiting weld repair',
       reviewState: 'submitted',
       reviewNote: null,
+      // No key pressed on the desk (the shortcuts' a and r set it).
+      keyIntent: null,
       // Each photo by its own id, with when it was taken and what it shows, for the finding's photo picker.
       photos: photos.map((p) =>
         expect.objectContaining({ id: p.id, sha256: p.sha256, caption: p.caption, takenAt: p.takenAt }),
