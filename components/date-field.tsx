@@ -1,4 +1,4 @@
-import DateTimePicker, { type DateTimePickerEvent } from '@react-native-community/datetimepicker';
+import DateTimePicker from '@react-native-community/datetimepicker';
 import { useState } from 'react';
 import { Platform, Pressable, StyleSheet, View } from 'react-native';
 
@@ -29,10 +29,9 @@ export function DateField({
   const [open, setOpen] = useState(false);
   const [refused, setRefused] = useState<string | null>(null);
   const shownError = (refused !== null ? dateRangeProblem(refused, min, max) : null) ?? error;
-  const picked = (event: DateTimePickerEvent, date?: Date) => {
+  const picked = (date: Date) => {
     // Android's dialog closes itself on either answer; iOS keeps its calendar until Done.
     if (Platform.OS !== 'ios') setOpen(false);
-    if (event.type !== 'set' || !date) return;
     const day = localDay(date);
     if (dateRangeProblem(day, min, max)) {
       setRefused(day);
@@ -78,7 +77,8 @@ export function DateField({
             value={dateOfDay(value ?? localDay())}
             minimumDate={min ? dateOfDay(min) : undefined}
             maximumDate={max ? dateOfDay(max) : undefined}
-            onChange={picked}
+            onValueChange={(_event, date) => picked(date)}
+            onDismiss={() => setOpen(false)}
           />
           {Platform.OS === 'ios' ? (
             <Button

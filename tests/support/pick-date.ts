@@ -27,7 +27,10 @@ export function pickDate(label: string, day: string, scope: Scope = screen) {
   const [y, m, d] = day.split('-').map(Number);
   const date = new Date(y, m - 1, d, 12);
   act(() => {
-    picker.props.onChange({ type: 'set', nativeEvent: { timestamp: date.getTime(), utcOffset: 0 } }, date);
+    picker.props.onValueChange(
+      { type: 'set', nativeEvent: { timestamp: date.getTime(), utcOffset: 0 } },
+      date,
+    );
   });
   // iOS keeps its calendar open under the field until it is pressed again; close it, as Done does.
   if (expanded()) fireEvent.press(field());
