@@ -28,6 +28,8 @@ export {
   type ImportResult,
 } from '@/features/registry/design-file/issues';
 export { designToCsv, parseDesignCsv };
+/** The field-by-field editor's model, in this chunk with the reader and writer it is built on. */
+export * as designSheet from '@/features/registry/design-sheet';
 
 /** The design data as JSON text: the DesignData object, indented for reading and diffing. */
 export function designToJson(d: DesignData): string {

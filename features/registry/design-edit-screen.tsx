@@ -16,17 +16,9 @@ import type { DesignData } from '@/features/loads/design-schema';
 import { useDesignPendingQuery, useDesignPutMutation, useRideQuery } from '@/features/registry/api';
 import { DesignComparison } from '@/features/registry/design-comparison';
 import { diffDesign, loosensALimit } from '@/features/registry/design-diff';
-import {
-  type SheetRow,
-  changedCells,
-  checkSheet,
-  designSheet,
-  editableFields,
-  fieldKey,
-  recordTitle,
-  sheetSections,
-  withCell,
-} from '@/features/registry/design-sheet';
+import type * as SheetModel from '@/features/registry/design-sheet';
+import { useCsvModule } from '@/features/registry/use-csv-module';
+import { FullScreenWait } from '@/components/full-screen-wait';
 import type { DesignCsvColumn } from '@/features/registry/design-file/columns';
 import { useRideIdParam } from '@/features/registry/ride-route';
 import type { DesignVersion } from '@/features/registry/schema';
@@ -69,16 +61,46 @@ function DesignEditLoader({ ride }: { ride: RideSummary }) {
         </Card>
       </SubScreen>
     );
-  // A new version in force starts the editor again from it.
-  return <DesignEdit key={current.version} ride={ride} current={current} />;
+  return <DesignEditWithModel ride={ride} current={current} />;
 }
 
-function DesignEdit({ ride, current }: { ride: RideSummary; current: DesignVersion }) {
+/** The editor's model sits in the CSV chunk with the import's reader and writer: loaded on first use. */
+function DesignEditWithModel({ ride, current }: { ride: RideSummary; current: DesignVersion }) {
+  const csv = useCsvModule();
+  if (csv.failed)
+    return (
+      <SubScreen
+        title="Edit design data"
+        subtitle={ride.name}
+        back={{ href: rideHref(ride.id), label: ride.name }}
+      >
+        <Card>
+          <Text role="alert">
+            The editor could not be loaded. Check the connection and open this page again.
+          </Text>
+        </Card>
+      </SubScreen>
+    );
+  if (!csv.module) return <FullScreenWait />;
+  // A new version in force starts the editor again from it.
+  return <DesignEdit key={current.version} ride={ride} current={current} model={csv.module.designSheet} />;
+}
+
+function DesignEdit({
+  ride,
+  current,
+  model,
+}: {
+  ride: RideSummary;
+  current: DesignVersion;
+  model: typeof SheetModel;
+}) {
+  const { designSheet, checkSheet, changedCells, sheetSections, withCell } = model;
   const [system] = useUnitSystem();
-  const start = useMemo(() => designSheet(current.data), [current.data]);
-  const [rows, setRows] = useState<SheetRow[]>(start);
-  const check = useMemo(() => checkSheet(rows), [rows]);
-  const edits = useMemo(() => changedCells(start, rows), [start, rows]);
+  const start = useMemo(() => designSheet(current.data), [current.data, designSheet]);
+  const [rows, setRows] = useState<SheetModel.SheetRow[]>(start);
+  const check = useMemo(() => checkSheet(rows), [rows, checkSheet]);
+  const edits = useMemo(() => changedCells(start, rows), [start, rows, changedCells]);
   const pending = useDesignPendingQuery(ride.id).data?.pending ?? null;
 
   const main = (
@@ -100,6 +122,7 @@ function DesignEdit({ ride, current }: { ride: RideSummary; current: DesignVersi
             {members.map((i) => (
               <RecordFields
                 key={i}
+                model={model}
                 row={rows[i]}
                 was={start[i]}
                 errors={check.ok ? {} : check.fieldErrors}
@@ -164,14 +187,16 @@ function DesignEdit({ ride, current }: { ride: RideSummary; current: DesignVersi
 
 /** One record's editable fields, each with its unit, its problem, and what it was when changed. */
 function RecordFields({
+  model: { editableFields, recordTitle, fieldKey },
   row,
   was,
   errors,
   index,
   onChange,
 }: {
-  row: SheetRow;
-  was: SheetRow | undefined;
+  model: typeof SheetModel;
+  row: SheetModel.SheetRow;
+  was: SheetModel.SheetRow | undefined;
   errors: Record<string, string>;
   index: number;
   onChange: (column: DesignCsvColumn, text: string) => void;

@@ -9,6 +9,7 @@ import { colors, space } from '@/components/theme';
 import { fileTypes, handOverVerb, saveOrShareText } from '@/features/api/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import { exportFileName } from '@/features/registry/import-report';
+import { loadCsvModule } from '@/features/registry/csv-loader';
 import type { RideSummary } from '@/features/rides/schema';
 
 /** The design data as a file, the same format import reads (written by the same code as the server’s export). */
@@ -26,7 +27,7 @@ export function ExportCard({
     const name = exportFileName(ride.name, version, format);
     // The app's only use of the design file code (the server reads imports): on the web it is a chunk of
     // its own, fetched on the first press rather than with every ride page.
-    const csv = await import('@/features/registry/csv').catch(() => null);
+    const csv = await loadCsvModule().catch(() => null);
     if (!csv) return setSaved('The file could not be made here without a connection. Try again online.');
     const { designToFile } = csv;
     setSaved(await saveOrShareText(name, designToFile(format, data), fileTypes[format]));
