@@ -9,7 +9,7 @@ import {
   instrumentResponseSchema,
 } from '@/features/instruments/schema';
 
-const instrumentKeys = {
+export const instrumentKeys = {
   all: ['instruments'] as const,
   list: () => [...instrumentKeys.all, 'list'] as const,
   declaration: () => [...instrumentKeys.all, 'declaration'] as const,
@@ -39,14 +39,6 @@ export function useInstrumentSaveMutation(id: string | null) {
             schema: instrumentResponseSchema,
           })
         : apiFetch('/api/instruments', { body, schema: instrumentResponseSchema }),
-    onSuccess: () => client.invalidateQueries({ queryKey: instrumentKeys.all }),
-  });
-}
-
-export function useInstrumentDeleteMutation() {
-  const client = useQueryClient();
-  return useMutation({
-    mutationFn: (id: string) => apiFetch(`/api/instruments/${encodeURIComponent(id)}`, { method: 'DELETE' }),
     onSuccess: () => client.invalidateQueries({ queryKey: instrumentKeys.all }),
   });
 }

@@ -10,7 +10,8 @@ import { Text } from '@/components/text';
 import { TextField } from '@/components/text-field';
 import { ToggleChips } from '@/components/toggle-chips';
 import { colors, space } from '@/components/theme';
-import { useInstrumentDeleteMutation, useInstrumentSaveMutation } from '@/features/instruments/api';
+import { useInstrumentSaveMutation } from '@/features/instruments/api';
+import { DeleteAction } from '@/features/registry/ui';
 import { type Instrument, instrumentMethods, readingMethodWords } from '@/features/instruments/schema';
 import { type ReadingKind, readingKinds, readingKindLabel } from '@/features/records/schema';
 import { ApiRequestError } from '@/lib/api-errors';
@@ -37,15 +38,18 @@ const fromInstrument = (i: Instrument | null): FormState => ({
   retired: i ? i.retiredAt !== null : false,
 });
 
-/** An admin's form for one instrument: new, or changed (and then retired or removed). */
+/** An admin's form for one instrument: new, or changed (and then retired, or deleted with a confirm). */
 export function InstrumentForm({
   id,
   initial,
   onDone,
+  onDeleted,
 }: {
   id: string | null;
   initial: Instrument | null;
   onDone: () => void;
+  /** Told what went, once an instrument is deleted. */
+  onDeleted: (message: string) => void;
 }) {
   const [form, setForm] = useState<FormState>(() => fromInstrument(initial));
   const save = useInstrumentSaveMutation(id);
@@ -134,7 +138,29 @@ export function InstrumentForm({
           {(save.error as Error).message}
         </Text>
       ) : null}
-      <FormActions id={id} saving={save.isPending} onSave={onSave} onDone={onDone} />
+      <View style={styles.actions}>
+        <Button
+          label={id ? 'Save changes' : 'Add instrument'}
+          tone="accent"
+          busy={save.isPending}
+          onPress={onSave}
+        />
+        <Button label="Cancel" tone="quiet" onPress={onDone} />
+      </View>
+      {id && initial ? (
+        <DeleteAction
+          kind="instrument"
+          id={id}
+          noun="instrument"
+          name={`${initial.name} (${initial.serial})`}
+          consequence={
+            'It leaves the register and is no longer offered to inspectors. Readings already taken with it ' +
+            'keep their own copy of its name, serial and calibration. To keep it listed, tick Retired ' +
+            'instead. The audit log keeps a record.'
+          }
+          onDeleted={onDeleted}
+        />
+      ) : null}
     </Card>
   );
 }
@@ -164,42 +190,6 @@ function MeasuresField({
         <Text variant="small" color={colors.danger}>
           {error}
         </Text>
-      ) : null}
-    </View>
-  );
-}
-
-/** Save, cancel and, for an instrument already in the register, remove one entered by mistake. */
-function FormActions({
-  id,
-  saving,
-  onSave,
-  onDone,
-}: {
-  id: string | null;
-  saving: boolean;
-  onSave: () => void;
-  onDone: () => void;
-}) {
-  const remove = useInstrumentDeleteMutation();
-  return (
-    <View style={styles.actions}>
-      <Button label={id ? 'Save changes' : 'Add instrument'} tone="accent" busy={saving} onPress={onSave} />
-      <Button label="Cancel" tone="quiet" onPress={onDone} />
-      {id ? (
-        <Button
-          label="Remove (entered by mistake)"
-          tone="quiet"
-          busy={remove.isPending}
-          onPress={async () => {
-            try {
-              await remove.mutateAsync(id);
-              onDone();
-            } catch {
-              // The list stays as it was; the error shows on retry.
-            }
-          }}
-        />
       ) : null}
     </View>
   );

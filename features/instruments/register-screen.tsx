@@ -1,3 +1,4 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
@@ -16,6 +17,7 @@ import type { SessionUser } from '@/features/session/schema';
 import { readingKindLabel } from '@/features/records/schema';
 import {
   useDeclarationSaveMutation,
+  instrumentKeys,
   useDeclarationSettingQuery,
   useInstrumentListQuery,
 } from '@/features/instruments/api';
@@ -45,6 +47,8 @@ type Editing = { id: string | null; initial: Instrument | null } | null;
 function Register({ user }: { user: SessionUser }) {
   const list = useInstrumentListQuery();
   const [editing, setEditing] = useState<Editing>(null);
+  const [removed, setRemoved] = useState<string | null>(null);
+  const client = useQueryClient();
   const admin = user.role === 'admin';
   return (
     <Screen
@@ -56,7 +60,10 @@ function Register({ user }: { user: SessionUser }) {
             label="New instrument"
             tone="accent"
             icon={<Feather name="plus" size={18} color={colors.baseText} />}
-            onPress={() => setEditing({ id: null, initial: null })}
+            onPress={() => {
+              setRemoved(null);
+              setEditing({ id: null, initial: null });
+            }}
           />
         ) : null
       }
@@ -73,13 +80,30 @@ function Register({ user }: { user: SessionUser }) {
                 id={editing.id}
                 initial={editing.initial}
                 onDone={() => setEditing(null)}
+                onDeleted={(message) => {
+                  setEditing(null);
+                  setRemoved(message);
+                  void client.invalidateQueries({ queryKey: instrumentKeys.all });
+                }}
               />
+            ) : null}
+            {removed ? (
+              <Text role="status" color={colors.textMuted}>
+                {removed}
+              </Text>
             ) : null}
             <QueryState query={list}>
               {(instruments) => (
                 <InstrumentTable
                   instruments={instruments}
-                  onEdit={admin ? (i) => setEditing({ id: i.id, initial: i }) : undefined}
+                  onEdit={
+                    admin
+                      ? (i) => {
+                          setRemoved(null);
+                          setEditing({ id: i.id, initial: i });
+                        }
+                      : undefined
+                  }
                 />
               )}
             </QueryState>

@@ -120,13 +120,15 @@ const deletePaths = {
   ride: 'rides',
   schedule: 'schedules',
   checklist: 'checklist-templates',
+  instrument: 'instruments',
 } as const;
 export type RegisterDeletable = keyof typeof deletePaths;
 
 /**
  * Deletes one record of the register (the server keeps its rules: a company with sites, rides or people,
  * a site with rides, a ride with design data, schedules, inspections or notices are refused with 409 and
- * the reason). Lists, details and the audit log read anew.
+ * the reason; an instrument goes, since readings keep their own copy of it, and its register, a feature
+ * above this one, reads itself anew). Lists, details and the audit log read anew.
  */
 export function useRegisterDeleteMutation(kind: RegisterDeletable) {
   const invalidate = useInvalidateRegister();
@@ -142,6 +144,7 @@ export function useRegisterDeleteMutation(kind: RegisterDeletable) {
         ride: rideKeys.detail(id),
         checklist: registryKeys.checklist(id),
         schedule: null,
+        instrument: null,
       }[kind];
       if (own) client.removeQueries({ queryKey: own, exact: true });
       void invalidate();

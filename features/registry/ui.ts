@@ -20,6 +20,7 @@ export {
   Field,
   useDesignAnalysis,
 } from '@/features/registry/design-view';
+export { DeleteAction } from '@/features/registry/delete-action';
 export { DueMark, dueInWords } from '@/features/registry/due-mark';
 export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';

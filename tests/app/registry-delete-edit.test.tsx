@@ -10,6 +10,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { act, fireEvent, screen, waitFor } from 'expo-router/testing-library';
 
+import { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
 import { DesignEditScreen } from '@/features/registry/design-edit-screen';
 import { RideScheduleScreen } from '@/features/registry/ride-schedule-screen';
 import { SiteScreen } from '@/features/registry/site-screen';
@@ -248,5 +249,52 @@ describe('deleting a schedule', () => {
     ).toBeTruthy();
     expect(api.callsTo('DELETE', '/api/schedules/sch-1')).toHaveLength(1);
     await waitFor(() => expect(api.callsTo('GET', '/api/rides/r-1/schedules').length).toBeGreaterThan(1));
+  });
+});
+
+describe('deleting an instrument', () => {
+  test('only after the confirmation, which says readings keep their copy; the register reads anew', async () => {
+    const instrument = {
+      id: 'ins-1',
+      name: 'Optical tachometer',
+      serial: 'OT-4471',
+      method: 'tachometer',
+      kinds: ['speed'],
+      calibratedOn: '2026-06-01',
+      calibrationDueOn: '2027-06-01',
+      notes: null,
+      retiredAt: null,
+      createdAt: '2026-06-01T08:00:00.000Z',
+      updatedAt: '2026-06-01T08:00:00.000Z',
+    };
+    let deleted = false;
+    const api = standInApi({
+      '/api/instruments': () => ok({ instruments: deleted ? [] : [instrument] }),
+      '/api/settings/declaration': () =>
+        ok({ declaration: { text: 'I inspected it.', updatedAt: null, updatedByName: null } }),
+      '/api/instruments/ins-1': (call) => {
+        if (call.method !== 'DELETE') return undefined;
+        deleted = true;
+        return { status: 204 };
+      },
+    });
+    renderScreens(
+      client('admin'),
+      { 'register/instruments': InstrumentRegisterScreen },
+      '/register/instruments',
+    );
+    fireEvent.press(await screen.findByRole('button', { name: 'Edit Optical tachometer (OT-4471)' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Delete instrument…' }));
+    expect(screen.getByText('Delete Optical tachometer (OT-4471)?')).toBeTruthy();
+    expect(screen.getByText(/keep their own copy of its name, serial and calibration/)).toBeTruthy();
+    expect(api.callsTo('DELETE', '/api/instruments/ins-1')).toHaveLength(0);
+    fireEvent.press(screen.getByRole('button', { name: 'Delete Optical tachometer (OT-4471)' }));
+    expect(
+      await screen.findByText(
+        'Optical tachometer (OT-4471) was deleted. The audit log keeps a record of it.',
+      ),
+    ).toBeTruthy();
+    expect(api.callsTo('DELETE', '/api/instruments/ins-1')).toHaveLength(1);
+    await waitFor(() => expect(screen.queryByText('Optical tachometer')).toBeNull());
   });
 });
