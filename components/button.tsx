@@ -31,7 +31,8 @@ export function Button({ label, tone = 'primary', busy, disabled, icon, style, .
       {...rest}
     >
       <View style={styles.row}>
-        {busy ? <ActivityIndicator color={palette.fg} /> : icon}
+        {/* The button says it is busy itself (its busy state); the spinner only shows it. */}
+        {busy ? <ActivityIndicator color={palette.fg} aria-hidden /> : icon}
         <Text variant="heading" color={palette.fg}>
           {label}
         </Text>

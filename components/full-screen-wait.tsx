@@ -1,11 +1,12 @@
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { colors } from '@/components/theme';
 
 export function FullScreenWait() {
   return (
-    <View style={styles.root} accessibilityLabel="Loading">
-      <ActivityIndicator size="large" color={colors.base} />
+    <View style={styles.root}>
+      <Spinner size="large" color={colors.base} />
     </View>
   );
 }

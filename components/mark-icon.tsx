@@ -80,6 +80,9 @@ export function MarkIcon({ mark, size = 14 }: { mark: Mark; size?: number }) {
       width={size}
       height={size}
       viewBox={`0 0 ${ICON_BOX} ${ICON_BOX}`}
+      // Hidden from assistive technology everywhere: the words beside it say the same (on the web an
+      // svg left in a control counts against its name, WCAG 2.5.3).
+      aria-hidden
       accessibilityElementsHidden
       importantForAccessibility="no"
     >

@@ -1,5 +1,6 @@
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
@@ -18,7 +19,7 @@ export function QueryState<T>({
   if (query.isPending) {
     return (
       <View style={styles.box}>
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       </View>
     );
   }

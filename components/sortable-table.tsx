@@ -1,7 +1,8 @@
-import { Link, type Href } from 'expo-router';
+import { Link, router, type Href } from 'expo-router';
 import { useEffect, useRef } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
+import { pressedOnLink } from '@/components/link-card';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
 
@@ -9,6 +10,11 @@ type SortableColumn<T, K extends string> = {
   key: string;
   title: string;
   render: (row: T) => React.ReactNode;
+  /**
+   * A second line under the value, outside the row's link when this is the link's column: a link is named
+   * by its visible words, so the link holds the name alone (WCAG 2.5.3) and details sit beside it.
+   */
+  detail?: (row: T) => React.ReactNode;
   flex?: number;
   /** The width the column never shrinks below (a date on one line, a badge whole). */
   minWidth?: number;
@@ -23,6 +29,11 @@ export type SortValue<K extends string> = K | `-${K}`;
 /**
  * A dense desktop table whose column titles sort it (on the server: the table only says which key and
  * which way) and whose rows may each lead to a page. The sort state is spoken as well as drawn.
+ *
+ * A row that leads somewhere is a table row like any other (a row holds cells, a cell holds the link):
+ * the link is the value of `linkColumn` (the first column unless named), named `rowLabel`, which must
+ * begin with or hold that value's words; a click anywhere else on the row follows it too, for a mouse,
+ * while the keyboard and assistive technology meet one link per row.
  */
 export function SortableTable<T, K extends string>({
   rows,
@@ -30,6 +41,7 @@ export function SortableTable<T, K extends string>({
   rowKey,
   rowHref,
   rowLabel,
+  linkColumn,
   sort,
   onSort,
   label,
@@ -40,6 +52,8 @@ export function SortableTable<T, K extends string>({
   rowKey: (row: T) => string;
   rowHref?: (row: T) => Href;
   rowLabel?: (row: T) => string;
+  /** The key of the column whose value is the row's link; the first column's by default. */
+  linkColumn?: string;
   sort?: SortValue<K>;
   onSort?: (sort: SortValue<K> | undefined) => void;
   label: string;
@@ -95,15 +109,29 @@ export function SortableTable<T, K extends string>({
         })}
       </View>
       {rows.map((row, i) => {
-        const cells = columns.map((c) => (
-          <View key={c.key} style={StyleSheet.flatten([styles.cell, columnSize(c)])} role="cell">
-            <Cell value={c.render(row)} numeric={c.numeric} />
-          </View>
-        ));
+        const href = rowHref?.(row);
+        const linkKey = linkColumn ?? columns[0]?.key;
+        const cells = columns.map((c) => {
+          const value = <Cell value={c.render(row)} numeric={c.numeric} />;
+          return (
+            <View key={c.key} style={StyleSheet.flatten([styles.cell, columnSize(c)])} role="cell">
+              {href !== undefined && c.key === linkKey ? (
+                <Link href={href} asChild>
+                  <Pressable role="link" accessibilityLabel={rowLabel?.(row)} style={styles.link}>
+                    {value}
+                  </Pressable>
+                </Link>
+              ) : (
+                value
+              )}
+              {c.detail ? c.detail(row) : null}
+            </View>
+          );
+        });
         const on = i === highlighted;
         const style = StyleSheet.flatten([styles.row, i % 2 === 1 && styles.zebra, on && styles.highlighted]);
         const current = on ? ('true' as const) : undefined;
-        if (!rowHref) {
+        if (href === undefined) {
           return (
             <View
               key={rowKey(row)}
@@ -116,19 +144,21 @@ export function SortableTable<T, K extends string>({
             </View>
           );
         }
-        // Link (asChild) hands the style to the DOM node as-is on web: `style` is one flat object.
+        // The row itself is no tab stop (its link is); a click on it elsewhere than the link goes there too.
         return (
-          <Link key={rowKey(row)} href={rowHref(row)} asChild>
-            <Pressable
-              role="link"
-              accessibilityLabel={rowLabel?.(row)}
-              style={style}
-              aria-current={current}
-              ref={on ? highlightedRow : undefined}
-            >
-              {cells}
-            </Pressable>
-          </Link>
+          <Pressable
+            key={rowKey(row)}
+            role="row"
+            focusable={false}
+            style={StyleSheet.flatten([style, styles.linkRow])}
+            aria-current={current}
+            ref={on ? highlightedRow : undefined}
+            onPress={(e) => {
+              if (!pressedOnLink(e)) router.push(href);
+            }}
+          >
+            {cells}
+          </Pressable>
         );
       })}
     </View>
@@ -138,14 +168,21 @@ export function SortableTable<T, K extends string>({
 const columnSize = (c: { flex?: number; minWidth?: number }) =>
   c.minWidth === undefined ? { flex: c.flex ?? 1 } : { flex: c.flex ?? 1, minWidth: c.minWidth };
 
-/** Focus moves the page to the row on the web; a focus call the platform lacks is simply not made. */
+type WebNode = {
+  focus?: () => void;
+  scrollIntoView?: (options: { block: 'nearest' }) => void;
+  querySelector?: (selector: string) => WebNode | null;
+};
+
+/**
+ * Focus moves to the row's link (the row itself when it has none) and the page to the row, on the web; a
+ * call the platform lacks is simply not made.
+ */
 function focusAndReveal(node: View | null) {
-  const target = node as unknown as {
-    focus?: () => void;
-    scrollIntoView?: (options: { block: 'nearest' }) => void;
-  } | null;
+  const row = node as unknown as WebNode | null;
+  const target = row?.querySelector?.('[role="link"], a') ?? row;
   target?.focus?.();
-  target?.scrollIntoView?.({ block: 'nearest' });
+  row?.scrollIntoView?.({ block: 'nearest' });
 }
 
 function Cell({ value, numeric }: { value: React.ReactNode; numeric?: boolean }) {
@@ -190,5 +227,7 @@ const styles = StyleSheet.create({
   },
   cell: { paddingHorizontal: space.sm, paddingVertical: space.sm, minWidth: 0 },
   sortButton: { minHeight: 36, justifyContent: 'center' },
+  link: { alignSelf: 'flex-start', maxWidth: '100%', minHeight: 24, justifyContent: 'center' },
+  linkRow: { cursor: 'pointer' },
   right: { textAlign: 'right' },
 });

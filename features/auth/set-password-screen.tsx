@@ -2,9 +2,10 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { router, useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { ActivityIndicator, ScrollView, StyleSheet, View } from 'react-native';
+import { ScrollView, StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
@@ -37,7 +38,7 @@ export function SetPasswordScreen() {
         {!token ? (
           <Gone title="No link" text="Open this page from the link in your e-mail." />
         ) : link.isPending ? (
-          <ActivityIndicator color={colors.accent} accessibilityLabel="Checking the link" />
+          <Spinner color={colors.accent} label="Checking the link" />
         ) : link.error || !link.data ? (
           <Gone
             title="This link does not work"

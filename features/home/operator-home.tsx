@@ -3,6 +3,7 @@ import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import Feather from '@/components/feather-icon';
+import { LinkCard } from '@/components/link-card';
 import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { StatRow, StatTile } from '@/components/stat-tile';
@@ -101,7 +102,9 @@ function OperatorNotices() {
           ) : (
             <View style={styles.list} role="list" accessibilityLabel="Open findings">
               {open.map((f) => (
-                <OpenFindingRow key={f.id} finding={f} />
+                <View key={f.id} role="listitem">
+                  <OpenFindingRow finding={f} />
+                </View>
               ))}
             </View>
           )}
@@ -130,29 +133,35 @@ function OperatorNotices() {
 
 function AwaitingCard({ notice: n }: { notice: NoticeListItem }) {
   return (
-    <Link href={noticeHref(n.id)} asChild>
-      <Pressable
-        role="link"
-        accessibilityLabel={`Notice ${n.reference}, ${n.rideName}: awaiting your acknowledgement`}
-        style={StyleSheet.flatten([styles.row, styles.awaiting])}
-      >
-        <Feather name="file-text" size={22} color={colors.accent} />
-        <View style={styles.rowText}>
-          <Text variant="heading">
-            {n.reference} · {n.rideName}
-          </Text>
-          <Text variant="small" muted>
-            {noticeKindLabel[n.kind]} · issued {formatDate(n.issuedAt)}
-            {n.findingsTotal > 0
-              ? ` · ${n.findingsTotal} ${n.findingsTotal === 1 ? 'finding' : 'findings'}`
-              : ''}
-          </Text>
-          <Text variant="label" color={colors.accent}>
-            Read and acknowledge ›
-          </Text>
-        </View>
-      </Pressable>
-    </Link>
+    <LinkCard
+      href={noticeHref(n.id)}
+      label={`Notice ${n.reference}, ${n.rideName}: awaiting your acknowledgement`}
+      title={
+        <Text variant="heading">
+          {n.reference} · {n.rideName}
+        </Text>
+      }
+      plain
+      style={StyleSheet.flatten([styles.row, styles.awaiting])}
+    >
+      {(title) => (
+        <>
+          <Feather name="file-text" size={22} color={colors.accent} />
+          <View style={styles.rowText}>
+            {title}
+            <Text variant="small" muted>
+              {noticeKindLabel[n.kind]} · issued {formatDate(n.issuedAt)}
+              {n.findingsTotal > 0
+                ? ` · ${n.findingsTotal} ${n.findingsTotal === 1 ? 'finding' : 'findings'}`
+                : ''}
+            </Text>
+            <Text variant="label" color={colors.accent}>
+              Read and acknowledge ›
+            </Text>
+          </View>
+        </>
+      )}
+    </LinkCard>
   );
 }
 
@@ -160,42 +169,48 @@ function OpenFindingRow({ finding: f }: { finding: OpenFinding }) {
   const wide = useWide();
   const pastDue = isPastDue(f, todayIso());
   return (
-    <Link href={noticeHref(f.noticeId)} asChild>
-      <Pressable
-        role="link"
-        accessibilityLabel={`${f.rideName}, finding ${f.number}: ${f.dueOn ? `due ${formatDate(f.dueOn)}` : 'no due date'}${pastDue ? ', past due' : ''}`}
-        style={StyleSheet.flatten([styles.row, pastDue && styles.pastDue])}
-      >
-        <View style={wide ? styles.dueWide : styles.due}>
-          <Text variant="label" muted>
-            DUE
-          </Text>
-          <Text variant="figure" color={pastDue ? colors.danger : colors.text}>
-            {f.dueOn ? formatDate(f.dueOn) : 'No date'}
-          </Text>
-          {pastDue ? (
-            <Text variant="label" color={colors.danger}>
-              PAST DUE
+    <LinkCard
+      href={noticeHref(f.noticeId)}
+      label={`${f.rideName}, finding ${f.number}: ${f.dueOn ? `due ${formatDate(f.dueOn)}` : 'no due date'}${pastDue ? ', past due' : ''}`}
+      title={
+        <Text variant="heading">
+          {f.rideName}, finding {f.number}
+        </Text>
+      }
+      plain
+      style={StyleSheet.flatten([styles.row, pastDue && styles.pastDue])}
+    >
+      {(title) => (
+        <>
+          <View style={wide ? styles.dueWide : styles.due}>
+            <Text variant="label" muted>
+              DUE
             </Text>
-          ) : null}
-        </View>
-        <View style={styles.rowText}>
-          <Text variant="heading">
-            {f.rideName} · finding {f.number}
-          </Text>
-          <View style={styles.marks}>
-            <SeverityMark severity={f.severity} compact />
-            <FindingStateMark state={f.state} />
+            <Text variant="figure" color={pastDue ? colors.danger : colors.text}>
+              {f.dueOn ? formatDate(f.dueOn) : 'No date'}
+            </Text>
+            {pastDue ? (
+              <Text variant="label" color={colors.danger}>
+                PAST DUE
+              </Text>
+            ) : null}
           </View>
-          <Text variant="small" numberOfLines={2}>
-            {f.requiredAction ?? f.description}
-          </Text>
-          <Text variant="small" muted>
-            On notice {f.noticeReference}
-          </Text>
-        </View>
-      </Pressable>
-    </Link>
+          <View style={styles.rowText}>
+            {title}
+            <View style={styles.marks}>
+              <SeverityMark severity={f.severity} compact />
+              <FindingStateMark state={f.state} />
+            </View>
+            <Text variant="small" numberOfLines={2}>
+              {f.requiredAction ?? f.description}
+            </Text>
+            <Text variant="small" muted>
+              On notice {f.noticeReference}
+            </Text>
+          </View>
+        </>
+      )}
+    </LinkCard>
   );
 }
 

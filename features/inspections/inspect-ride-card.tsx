@@ -1,7 +1,8 @@
 import { router } from 'expo-router';
 import { useState } from 'react';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
@@ -32,7 +33,7 @@ export function InspectRideCard({ rideId }: { rideId: string }) {
     <Card accessibilityLabel="Inspect this ride">
       <Text variant="heading">Inspect this ride</Text>
       {rides.isPending ? (
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       ) : !entry ? (
         <Text muted>This ride is not on your phone yet. Sync on Today to download it, then start here.</Text>
       ) : latest ? (

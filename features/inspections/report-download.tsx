@@ -69,7 +69,8 @@ export function ReportDownload({
           icon={icon}
           busy={busy === 'A4'}
           disabled={busy !== null}
-          accessibilityLabel={`${handOverVerb} the inspection report of ${inspection.rideName}, A4 PDF`}
+          // The name begins with the words drawn (WCAG 2.5.3), then says what the button does.
+          accessibilityLabel={`My report · A4: ${handOverVerb} the inspection report of ${inspection.rideName} as a PDF`}
           onPress={() => download('A4')}
         />
         <Button
@@ -77,7 +78,7 @@ export function ReportDownload({
           tone="quiet"
           busy={busy === 'LETTER'}
           disabled={busy !== null}
-          accessibilityLabel={`${handOverVerb} the inspection report of ${inspection.rideName}, US Letter PDF`}
+          accessibilityLabel={`Letter: ${handOverVerb} the inspection report of ${inspection.rideName} as a PDF on US Letter paper`}
           onPress={() => download('LETTER')}
         />
       </View>

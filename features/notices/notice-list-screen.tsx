@@ -1,8 +1,9 @@
-import { Link } from 'expo-router';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { LinkCard } from '@/components/link-card';
 import Feather from '@/components/feather-icon';
 import { Screen } from '@/components/screen';
 import { SelectField } from '@/components/select-field';
@@ -83,7 +84,7 @@ function NoticeList({ user }: { user: SessionUser }) {
           <>
             {list.isFetching ? (
               <View style={styles.fetching} accessibilityLabel="Updating">
-                <ActivityIndicator color={colors.base} size="small" />
+                <Spinner color={colors.base} size="small" />
               </View>
             ) : null}
             {page.notices.length === 0 ? (
@@ -218,26 +219,33 @@ function NoticeTable({ notices, operator }: { notices: NoticeListItem[]; operato
 
 function NoticeCard({ notice: n, operator }: { notice: NoticeListItem; operator: boolean }) {
   return (
-    <Link href={noticeHref(n.id)} asChild>
-      <Pressable role="link" accessibilityLabel={`Notice ${n.reference}, ${n.rideName}`} style={styles.card}>
-        <View style={styles.cardHead}>
-          <Text variant="figure">{n.reference}</Text>
+    <LinkCard
+      href={noticeHref(n.id)}
+      label={`Notice ${n.reference}, ${n.rideName}`}
+      title={<Text variant="figure">{n.reference}</Text>}
+      style={styles.card}
+    >
+      {(reference) => (
+        <>
+          <View style={styles.cardHead}>
+            {reference}
+            <Text variant="small" muted>
+              {formatDate(n.issuedAt)}
+            </Text>
+          </View>
+          <Text variant="heading">{n.rideName}</Text>
           <Text variant="small" muted>
-            {formatDate(n.issuedAt)}
+            {noticeKindLabel[n.kind]}
+            {operator ? '' : ` · ${n.operatorName}`}
           </Text>
-        </View>
-        <Text variant="heading">{n.rideName}</Text>
-        <Text variant="small" muted>
-          {noticeKindLabel[n.kind]}
-          {operator ? '' : ` · ${n.operatorName}`}
-        </Text>
-        <AckMark notice={n} operator={operator} />
-        <View style={styles.cardFoot}>
-          <Text variant="small">{openText(n)}</Text>
-          {operator ? null : <NoticeDeliveryMark state={n.delivery.state} />}
-        </View>
-      </Pressable>
-    </Link>
+          <AckMark notice={n} operator={operator} />
+          <View style={styles.cardFoot}>
+            <Text variant="small">{openText(n)}</Text>
+            {operator ? null : <NoticeDeliveryMark state={n.delivery.state} />}
+          </View>
+        </>
+      )}
+    </LinkCard>
   );
 }
 
@@ -247,15 +255,7 @@ const styles = StyleSheet.create({
   filtersWide: { flexDirection: 'row', alignItems: 'flex-end', flexWrap: 'wrap', gap: space.md },
   select: { width: 300 },
   cards: { gap: space.sm },
-  card: {
-    backgroundColor: colors.surface,
-    borderRadius: 14,
-    borderWidth: 1,
-    borderColor: colors.border,
-    padding: space.md,
-    gap: space.xs,
-    minHeight: layout.touchTarget,
-  },
+  card: { padding: space.md, gap: space.xs, minHeight: layout.touchTarget },
   cardHead: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center', gap: space.sm },
   cardFoot: {
     flexDirection: 'row',

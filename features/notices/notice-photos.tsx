@@ -1,6 +1,7 @@
 import { useState } from 'react';
-import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-native';
+import { Image, Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
@@ -50,7 +51,7 @@ function Thumb({ photo, onOpen }: { photo: NoticePhoto; onOpen: () => void }) {
         <Image source={source} style={styles.image} resizeMode="cover" accessibilityIgnoresInvertColors />
       ) : (
         <View style={styles.placeholder}>
-          <ActivityIndicator color={colors.base} />
+          <Spinner color={colors.base} />
         </View>
       )}
     </Pressable>

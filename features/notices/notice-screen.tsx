@@ -1,7 +1,8 @@
 import { Link, useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import Feather from '@/components/feather-icon';
@@ -51,7 +52,7 @@ export function NoticeScreen() {
     return (
       <SubScreen title="Notice" back={back}>
         <View style={styles.wait} accessibilityLabel="Loading the notice">
-          <ActivityIndicator color={colors.base} />
+          <Spinner color={colors.base} />
         </View>
       </SubScreen>
     );

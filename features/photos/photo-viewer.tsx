@@ -1,5 +1,6 @@
-import { ActivityIndicator, Image, Modal, StyleSheet, View, useWindowDimensions } from 'react-native';
+import { Image, Modal, StyleSheet, View, useWindowDimensions } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
@@ -94,7 +95,7 @@ function FullPhoto({ photo, reserve }: { photo: ViewedPhoto; reserve: number }) 
           accessibilityIgnoresInvertColors
         />
       ) : (
-        <ActivityIndicator color={colors.chromeText} size="large" />
+        <Spinner color={colors.chromeText} size="large" />
       )}
     </View>
   );

@@ -1,7 +1,8 @@
 import * as DocumentPicker from 'expo-document-picker';
 import { useState } from 'react';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { DateField } from '@/components/date-field';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
@@ -74,7 +75,7 @@ function Ndt({ rideId, canAdd }: { rideId: string; canAdd: boolean }) {
     <SubScreen title="NDT" subtitle={ndt.data?.rideName} back={back} wideContent>
       <Caution />
       {ndt.isPending ? (
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       ) : !ndt.data ? (
         <Card role="alert">
           <Text muted>The ride’s NDT could not be loaded.</Text>

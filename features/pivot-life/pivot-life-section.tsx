@@ -1,7 +1,8 @@
 import { type Href, Link } from 'expo-router';
 import type { ReactNode } from 'react';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
 import { EnvelopeMark } from '@/components/status-mark';
@@ -213,7 +214,7 @@ export function PivotLifeSection({
     <Card accessibilityLabel="Pivot life">
       <Text variant="heading">Pivot life</Text>
       {query.isPending ? (
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       ) : query.error || !query.data ? (
         <Text muted>The pivot life could not be loaded.</Text>
       ) : (

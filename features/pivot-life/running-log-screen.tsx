@@ -1,7 +1,8 @@
 import * as DocumentPicker from 'expo-document-picker';
 import { useState } from 'react';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { DateField } from '@/components/date-field';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
@@ -53,7 +54,7 @@ function RunningLog({ rideId }: { rideId: string }) {
         <DayForm rideId={rideId} log={log.data} />
         <ImportCard rideId={rideId} />
         {log.isPending ? (
-          <ActivityIndicator color={colors.base} />
+          <Spinner color={colors.base} />
         ) : log.data ? (
           <LogList log={log.data} />
         ) : (

@@ -201,8 +201,9 @@ function AuditRow({ entry: e, wide }: { entry: AuditEntry; wide: boolean }) {
     <View style={styles.entry}>
       <Pressable
         role="button"
+        // Named by its words as shown (when, what, who: WCAG 2.5.3); aria-expanded says whether the
+        // changes are open.
         aria-expanded={open}
-        accessibilityLabel={`${formatDateTime(e.at)}, ${e.userName ?? 'someone'}: ${e.summary}. ${open ? 'Hide' : 'Show'} what changed`}
         onPress={() => setOpen((o) => !o)}
         style={wide ? styles.entryRowWide : styles.entryRow}
       >

@@ -1,6 +1,7 @@
 import { Link, router, useLocalSearchParams } from 'expo-router';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import Feather from '@/components/feather-icon';
@@ -103,7 +104,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
             <Card>
               <Text variant="heading">Versions</Text>
               {versions.isPending ? (
-                <ActivityIndicator color={colors.base} />
+                <Spinner color={colors.base} />
               ) : (
                 (versions.data ?? []).map((v) => (
                   <Link

@@ -1,9 +1,10 @@
-import { Link, router } from 'expo-router';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { router } from 'expo-router';
+import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { LinkCard } from '@/components/link-card';
 import Feather from '@/components/feather-icon';
 import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
@@ -93,18 +94,26 @@ function ChecklistsList({ user }: { user: SessionUser }) {
 
 function TemplateRow({ template: t }: { template: ChecklistTemplateSummary }) {
   return (
-    <Link href={checklistHref(t.id)} asChild>
-      <Pressable role="link" accessibilityLabel={`${t.name}, version ${t.currentVersion}`} style={styles.row}>
-        <View style={styles.flex}>
-          <Text variant="heading">{t.name}</Text>
-          <Text variant="small" muted>
-            {t.areaCount} areas · {t.itemCount} items · v{t.currentVersion}, {formatDateTime(t.updatedAt)} by{' '}
-            {t.updatedByName}
-          </Text>
-        </View>
-        <Feather name="chevron-right" size={20} color={colors.accent} />
-      </Pressable>
-    </Link>
+    <LinkCard
+      href={checklistHref(t.id)}
+      label={`${t.name}, version ${t.currentVersion}`}
+      title={<Text variant="heading">{t.name}</Text>}
+      plain
+      style={styles.row}
+    >
+      {(name) => (
+        <>
+          <View style={styles.flex}>
+            {name}
+            <Text variant="small" muted>
+              {t.areaCount} areas · {t.itemCount} items · v{t.currentVersion}, {formatDateTime(t.updatedAt)}{' '}
+              by {t.updatedByName}
+            </Text>
+          </View>
+          <Feather name="chevron-right" size={20} color={colors.accent} />
+        </>
+      )}
+    </LinkCard>
   );
 }
 

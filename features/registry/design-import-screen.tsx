@@ -3,9 +3,10 @@ import * as DocumentPicker from 'expo-document-picker';
 import { router } from 'expo-router';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { ChoiceChips } from '@/components/choice-chips';
@@ -313,7 +314,7 @@ function CheckResult({ check }: { check: Check }) {
   if (check.state === 'checking')
     return (
       <View style={styles.fileLine}>
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
         <Text muted>Checking the file…</Text>
       </View>
     );

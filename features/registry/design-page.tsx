@@ -1,8 +1,10 @@
-import { Link, router } from 'expo-router';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { router } from 'expo-router';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import { LinkCard } from '@/components/link-card';
 import Feather from '@/components/feather-icon';
 import { Panes } from '@/components/panes';
 import { SubScreen } from '@/components/sub-screen';
@@ -86,7 +88,7 @@ export function DesignPage({
       <Card>
         <Text variant="heading">Version history</Text>
         {versions.isPending ? (
-          <ActivityIndicator color={colors.base} />
+          <Spinner color={colors.base} />
         ) : versions.data ? (
           <VersionList
             rideId={ride.id}
@@ -136,33 +138,35 @@ function VersionList({
   return (
     <View accessibilityLabel="Design data versions">
       {versions.map((v) => (
-        <Link
+        <LinkCard
           key={v.id}
           href={v.version === current ? rideDesignHref(rideId) : rideVersionHref(rideId, v.version)}
-          asChild
+          title={
+            <Text variant="heading">
+              Version {v.version}
+              {v.version === current ? ' · in force' : stateWords(v).replace(',', ' ·')}
+            </Text>
+          }
+          plain
+          style={v.version === shown ? styles.versionShown : styles.version}
         >
-          <Pressable
-            role="link"
-            accessibilityLabel={`Version ${v.version}${v.version === current ? ', in force' : stateWords(v)}: ${v.reason}`}
-            style={v.version === shown ? styles.versionShown : styles.version}
-          >
-            <View style={styles.versionHead}>
-              <Text variant="heading">
-                v{v.version}
-                {v.version === current ? ' · in force' : stateWords(v).replace(',', ' ·')}
+          {(title) => (
+            <>
+              <View style={styles.versionHead}>
+                {title}
+                <Text variant="small" muted>
+                  {formatDateTime(v.createdAt)}
+                </Text>
+              </View>
+              <Text variant="small" numberOfLines={2}>
+                {v.reason}
               </Text>
               <Text variant="small" muted>
-                {formatDateTime(v.createdAt)}
+                {v.createdByName} · {designOriginLabel[v.origin]}
               </Text>
-            </View>
-            <Text variant="small" numberOfLines={2}>
-              {v.reason}
-            </Text>
-            <Text variant="small" muted>
-              {v.createdByName} · {designOriginLabel[v.origin]}
-            </Text>
-          </Pressable>
-        </Link>
+            </>
+          )}
+        </LinkCard>
       ))}
     </View>
   );

@@ -1,7 +1,8 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
@@ -111,7 +112,7 @@ function RideSchedule({ ride }: { ride: RideSummary }) {
                         }}
                       />
                     ) : (
-                      <ActivityIndicator color={colors.base} />
+                      <Spinner color={colors.base} />
                     )
                   ) : null}
                   {open && s ? (

@@ -1,6 +1,7 @@
 import { router } from 'expo-router';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import Feather from '@/components/feather-icon';
@@ -189,7 +190,7 @@ function RidesPage({
     <>
       {fetching ? (
         <View style={styles.fetching} accessibilityLabel="Updating">
-          <ActivityIndicator color={colors.base} size="small" />
+          <Spinner color={colors.base} size="small" />
         </View>
       ) : null}
       {rides.length === 0 ? (
@@ -280,13 +281,11 @@ function RideTable({
           title: 'Ride',
           sortKey: 'name',
           flex: 1.6,
-          render: (r) => (
-            <View>
-              <Text variant="heading">{r.name}</Text>
-              <Text variant="small" muted numberOfLines={1}>
-                {[r.maker, r.model].filter(Boolean).join(' · ') || '—'}
-              </Text>
-            </View>
+          render: (r) => <Text variant="heading">{r.name}</Text>,
+          detail: (r) => (
+            <Text variant="small" muted numberOfLines={1}>
+              {[r.maker, r.model].filter(Boolean).join(' · ') || '—'}
+            </Text>
           ),
         },
         { key: 'class', title: 'Class', sortKey: 'rideClass', render: (r) => rideClassLabel[r.rideClass] },

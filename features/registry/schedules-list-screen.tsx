@@ -151,13 +151,11 @@ function SchedulesTable({
           title: 'Ride',
           sortKey: 'ride',
           flex: 1.4,
-          render: (s) => (
-            <View>
-              <Text variant="heading">{s.rideName}</Text>
-              <Text variant="small" muted numberOfLines={1}>
-                {s.siteName ?? 'No site'} · {s.operatorName}
-              </Text>
-            </View>
+          render: (s) => <Text variant="heading">{s.rideName}</Text>,
+          detail: (s) => (
+            <Text variant="small" muted numberOfLines={1}>
+              {s.siteName ?? 'No site'} · {s.operatorName}
+            </Text>
           ),
         },
         {

@@ -1,6 +1,7 @@
 import { useState } from 'react';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Caution } from '@/components/caution';
@@ -43,7 +44,7 @@ export function CycleCharts({
   if (cycle.isPending) {
     return (
       <Card style={styles.center}>
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       </Card>
     );
   }

@@ -1,6 +1,7 @@
 import { useMemo, useState } from 'react';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Card } from '@/components/card';
 import { Segmented } from '@/components/segmented';
 import { Text } from '@/components/text';
@@ -99,7 +100,7 @@ export function ChainOrWhyNot({
       hasAnalysis={inspection.analysis !== null}
     />
   ) : loading ? (
-    <ActivityIndicator color={colors.base} />
+    <Spinner color={colors.base} />
   ) : (
     <Card>
       <Text muted>

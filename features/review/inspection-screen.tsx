@@ -1,7 +1,8 @@
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import { useMemo, useState } from 'react';
-import { ActivityIndicator, StyleSheet, View, useWindowDimensions } from 'react-native';
+import { StyleSheet, View, useWindowDimensions } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { SectionTitle } from '@/components/screen';
@@ -283,7 +284,7 @@ function DecisionColumn({
       {ride.error ? (
         <Text role="alert">The ride could not be loaded, so the decision cannot be made yet.</Text>
       ) : (
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       )}
     </Card>
   );

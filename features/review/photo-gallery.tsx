@@ -1,5 +1,6 @@
-import { ActivityIndicator, Image, Pressable, StyleSheet, View } from 'react-native';
+import { Image, Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
@@ -52,7 +53,7 @@ export function PhotoThumb({
         <Image source={source} style={styles.image} resizeMode="cover" accessibilityIgnoresInvertColors />
       ) : (
         <View style={styles.placeholder}>
-          <ActivityIndicator color={colors.base} />
+          <Spinner color={colors.base} />
         </View>
       )}
     </Pressable>

@@ -1,8 +1,10 @@
-import { Link, useRouter } from 'expo-router';
+import { useRouter } from 'expo-router';
 import { useEffect, useRef, useState } from 'react';
-import { ActivityIndicator, Pressable, StyleSheet, View, useWindowDimensions } from 'react-native';
+import { Pressable, StyleSheet, View, useWindowDimensions } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Card } from '@/components/card';
+import { LinkCard } from '@/components/link-card';
 import { CAUTION_SHORT } from '@/components/caution';
 import Feather from '@/components/feather-icon';
 import { Screen } from '@/components/screen';
@@ -124,7 +126,7 @@ function Queue({ admin }: { admin: boolean }) {
           <>
             {queue.isFetching ? (
               <View style={styles.fetching} accessibilityLabel="Updating">
-                <ActivityIndicator color={colors.base} size="small" />
+                <Spinner color={colors.base} size="small" />
               </View>
             ) : null}
             {page.items.length === 0 ? (
@@ -257,12 +259,14 @@ function Tile({
       role="button"
       aria-pressed={on}
       accessibilityState={{ selected: on }}
-      accessibilityLabel={`${label}: ${value ?? 'loading'}${on ? ', shown' : ''}`}
+      // Named count first, as drawn (WCAG 2.5.3, label in name); the drawn count is hidden from
+      // assistive technology, which has it in the name.
+      accessibilityLabel={`${value ?? 'loading'} ${label}${on ? ', shown' : ''}`}
       accessibilityHint={hint}
       onPress={onPress}
       style={StyleSheet.flatten([styles.tile, on && styles.tileOn, value === 0 && !on && styles.tileZero])}
     >
-      <Text variant="figureLarge" color={value ? color : colors.textMuted}>
+      <Text variant="figureLarge" color={value ? color : colors.textMuted} aria-hidden>
         {value ?? '–'}
       </Text>
       <View style={StyleSheet.flatten([styles.tileLabel, { backgroundColor: soft }])}>
@@ -313,10 +317,12 @@ const dash = '—';
 const countOrDash = (n: number) => (n > 0 ? String(n) : dash);
 
 /** Names wrap whole (never cut short): a long site or operator takes a second line, not an ellipsis. */
-function RideCell({ item, where }: { item: QueueItem; where?: boolean }) {
+/** The ride's name: the row's link (its class, and on a narrower desk where it is, sit under it). */
+const rideName = (item: QueueItem) => <Text variant="heading">{item.rideName}</Text>;
+
+function RideDetail({ item, where }: { item: QueueItem; where?: boolean }) {
   return (
     <View>
-      <Text variant="heading">{item.rideName}</Text>
       <Text variant="small" muted>
         {rideClassLabel[item.rideClass]}
       </Text>
@@ -382,6 +388,7 @@ type Column = {
   minWidth?: number;
   numeric?: boolean;
   render: (i: QueueItem) => React.ReactNode;
+  detail?: (i: QueueItem) => React.ReactNode;
 };
 
 /**
@@ -408,7 +415,13 @@ function QueueTable({ items, highlighted }: { items: QueueItem[]; highlighted: n
           minWidth: MARK_WIDTH,
           render: (i) => <UrgencyCell item={i} />,
         },
-        { key: 'ride', title: 'Ride', flex: 1, render: (i) => <RideCell item={i} /> },
+        {
+          key: 'ride',
+          title: 'Ride',
+          flex: 1,
+          render: rideName,
+          detail: (i) => <RideDetail item={i} />,
+        },
         { key: 'where', title: 'Site · operator', flex: 1.25, render: (i) => <WhereLines item={i} /> },
         { key: 'what', title: 'What', flex: 1.7, render: (i) => <WhatCell item={i} /> },
         date,
@@ -448,7 +461,8 @@ function QueueTable({ items, highlighted }: { items: QueueItem[]; highlighted: n
           key: 'ride',
           title: 'Ride · site · operator',
           flex: 1,
-          render: (i) => <RideCell item={i} where />,
+          render: rideName,
+          detail: (i) => <RideDetail item={i} where />,
         },
         { key: 'what', title: 'What', flex: 1.4, render: (i) => <WhatCell item={i} counts /> },
         date,
@@ -460,13 +474,14 @@ function QueueTable({ items, highlighted }: { items: QueueItem[]; highlighted: n
       rowKey={(i) => i.key}
       rowHref={queueItemHref}
       rowLabel={queueItemLabel}
+      linkColumn="ride"
       highlighted={highlighted}
       columns={columns}
     />
   );
 }
 
-/** Phone: one card per item, the whole card a link; a narrow desk window gets the cards too. */
+/** Phone: one card per item, its ride's name the link (a tap anywhere on it follows it); a narrow desk window gets the cards too. */
 function QueueCard({ item, highlighted }: { item: QueueItem; highlighted: boolean }) {
   const ref = useRef<View>(null);
   useEffect(() => {
@@ -479,41 +494,45 @@ function QueueCard({ item, highlighted }: { item: QueueItem; highlighted: boolea
     item.findingsPastDue > 0 && item.kind === 'inspection' ? `${item.findingsPastDue} past due` : null,
   ].filter(Boolean);
   return (
-    <Link href={queueItemHref(item)} asChild>
-      <Pressable
-        ref={ref}
-        role="link"
-        accessibilityLabel={queueItemLabel(item)}
-        aria-current={highlighted ? 'true' : undefined}
-        style={StyleSheet.flatten([styles.card, highlighted && styles.cardHighlighted])}
-      >
-        <View style={styles.cardHead}>
-          <UrgencyMark urgency={item.urgency} />
-          <Text variant="figure" muted>
-            {formatDate(item.day || item.at)}
-          </Text>
-        </View>
-        <View style={styles.shrink}>
-          <Text variant="heading">{item.rideName}</Text>
-          <Text variant="small" muted>
-            {rideClassLabel[item.rideClass]} · {item.siteName ?? 'No site'} · {item.operatorName}
-          </Text>
-        </View>
-        <Text>{queueItemWhat(item)}</Text>
-        {item.analysisStatus || facts.length > 0 ? (
-          <View style={styles.cardFacts}>
-            {item.analysisStatus ? <EnvelopeMark status={item.analysisStatus} compact /> : null}
-            {facts.length > 0 ? <Text variant="figure">{facts.join(' · ')}</Text> : null}
+    <LinkCard
+      href={queueItemHref(item)}
+      label={queueItemLabel(item)}
+      title={<Text variant="heading">{item.rideName}</Text>}
+      linkRef={ref}
+      current={highlighted}
+      plain
+      style={StyleSheet.flatten([styles.card, highlighted && styles.cardHighlighted])}
+    >
+      {(rideName) => (
+        <>
+          <View style={styles.cardHead}>
+            <UrgencyMark urgency={item.urgency} />
+            <Text variant="figure" muted>
+              {formatDate(item.day || item.at)}
+            </Text>
           </View>
-        ) : null}
-        <View style={styles.open}>
-          <Text variant="label" color={colors.accent}>
-            {item.kind === 'inspection' ? 'Review inspection' : 'Open ride'}
-          </Text>
-          <Feather name="chevron-right" size={16} color={colors.accent} />
-        </View>
-      </Pressable>
-    </Link>
+          <View style={styles.shrink}>
+            {rideName}
+            <Text variant="small" muted>
+              {rideClassLabel[item.rideClass]} · {item.siteName ?? 'No site'} · {item.operatorName}
+            </Text>
+          </View>
+          <Text>{queueItemWhat(item)}</Text>
+          {item.analysisStatus || facts.length > 0 ? (
+            <View style={styles.cardFacts}>
+              {item.analysisStatus ? <EnvelopeMark status={item.analysisStatus} compact /> : null}
+              {facts.length > 0 ? <Text variant="figure">{facts.join(' · ')}</Text> : null}
+            </View>
+          ) : null}
+          <View style={styles.open}>
+            <Text variant="label" color={colors.accent}>
+              {item.kind === 'inspection' ? 'Review inspection' : 'Open ride'}
+            </Text>
+            <Feather name="chevron-right" size={16} color={colors.accent} />
+          </View>
+        </>
+      )}
+    </LinkCard>
   );
 }
 
@@ -531,7 +550,8 @@ const styles = StyleSheet.create({
     gap: space.xs,
   },
   tileOn: { borderColor: colors.base, borderWidth: 3, padding: space.md - 1.5 },
-  tileZero: { opacity: 0.8 },
+  // An empty tile is drawn quieter by its frame, not by fading it: its words keep their contrast (WCAG 1.4.3).
+  tileZero: { borderStyle: 'dashed' },
   tileLabel: {
     flexDirection: 'row',
     alignItems: 'center',

@@ -117,8 +117,8 @@ const styles = StyleSheet.create({
     right: 0,
     bottom: 0,
     left: 0,
+    // Opaque, like every modal's backdrop: the queue behind does not show through the help.
     backgroundColor: colors.base,
-    opacity: 0.7,
   },
   panel: {
     width: '100%',

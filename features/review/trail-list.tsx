@@ -1,5 +1,6 @@
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
@@ -28,7 +29,7 @@ const actionWord: Record<AuditAction, string> = {
 export function TrailList({ inspectionId }: { inspectionId: string }) {
   const wide = useWide();
   const trail = useInspectionTrail(inspectionId);
-  if (trail.isPending) return <ActivityIndicator color={colors.base} />;
+  if (trail.isPending) return <Spinner color={colors.base} />;
   if (trail.error || !trail.data) {
     return (
       <View style={styles.problem} role="alert">

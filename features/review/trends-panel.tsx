@@ -1,6 +1,7 @@
 import { useState } from 'react';
-import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { DataTable } from '@/components/data-table';
@@ -65,7 +66,7 @@ export function TrendsPanel({
   system: UnitSystem;
 }) {
   const trends = useRideTrends(rideId);
-  if (trends.isPending) return <ActivityIndicator color={colors.base} />;
+  if (trends.isPending) return <Spinner color={colors.base} />;
   if (trends.error || !trends.data) {
     return (
       <Card role="alert">

@@ -1,6 +1,7 @@
 import { type Href, Link, router } from 'expo-router';
-import { ActivityIndicator, Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 
+import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import Feather from '@/components/feather-icon';
 import { auditHref } from '@/features/registry';
@@ -239,7 +240,7 @@ function ScheduleCard({ rideId, role }: { rideId: string; role: Role }) {
     <Card>
       <Text variant="heading">{planner ? 'Inspection schedule' : 'Assigned to you'}</Text>
       {query.isPending ? (
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       ) : query.error || !query.data ? (
         <Text muted>The schedule could not be loaded.</Text>
       ) : rows(query.data).length === 0 ? (
@@ -261,7 +262,7 @@ function NoticesCard({ rideId }: { rideId: string }) {
     <Card accessibilityLabel="Notices">
       <Text variant="heading">Notices</Text>
       {query.isPending ? (
-        <ActivityIndicator color={colors.base} />
+        <Spinner color={colors.base} />
       ) : query.error || !query.data ? (
         <Text muted>The notices could not be loaded.</Text>
       ) : query.data.notices.length === 0 ? (

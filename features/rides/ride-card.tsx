@@ -1,7 +1,7 @@
-import { Link } from 'expo-router';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 
-import { Card, cardLook } from '@/components/card';
+import { Card } from '@/components/card';
+import { LinkCard } from '@/components/link-card';
 import Feather from '@/components/feather-icon';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
@@ -22,17 +22,8 @@ export function RideCard({
   const makerLine = [ride.maker, ride.model, ride.serial ? `s/n ${ride.serial}` : null]
     .filter(Boolean)
     .join(' · ');
-  const body = (
+  const rest = (
     <>
-      <View style={styles.head}>
-        <View style={styles.titles}>
-          <Text variant="heading">{ride.name}</Text>
-          <Text variant="small" muted>
-            {rideClassLabel[ride.rideClass]} · {ride.siteName ?? 'No site'}
-          </Text>
-        </View>
-        <RideStatusMark status={ride.status} compact />
-      </View>
       {ride.description ? <Text variant="small">{ride.description}</Text> : null}
       {makerLine ? (
         <Text variant="small" muted>
@@ -45,24 +36,40 @@ export function RideCard({
       ) : null}
     </>
   );
-  if (!link) return <Card accessibilityLabel={`Ride ${ride.name}`}>{body}</Card>;
+  const head = (title: React.ReactNode) => (
+    <View style={styles.head}>
+      <View style={styles.titles}>
+        {title}
+        <Text variant="small" muted>
+          {rideClassLabel[ride.rideClass]} · {ride.siteName ?? 'No site'}
+        </Text>
+      </View>
+      <RideStatusMark status={ride.status} compact />
+    </View>
+  );
+  const name = <Text variant="heading">{ride.name}</Text>;
+  if (!link)
+    return (
+      <Card accessibilityLabel={`Ride ${ride.name}`}>
+        {head(name)}
+        {rest}
+      </Card>
+    );
   return (
-    <Link href={rideHref(ride.id)} asChild>
-      <Pressable
-        role="link"
-        accessibilityLabel={`Ride ${ride.name}`}
-        // Link (asChild) hands its style to the DOM node as-is on web: one flat object.
-        style={cardLook}
-      >
-        {body}
-        <View style={styles.open}>
-          <Text variant="label" color={colors.accent}>
-            Open ride
-          </Text>
-          <Feather name="chevron-right" size={16} color={colors.accent} />
-        </View>
-      </Pressable>
-    </Link>
+    <LinkCard href={rideHref(ride.id)} label={`Ride ${ride.name}`} title={name}>
+      {(titleLink) => (
+        <>
+          {head(titleLink)}
+          {rest}
+          <View style={styles.open}>
+            <Text variant="label" color={colors.accent}>
+              Open ride
+            </Text>
+            <Feather name="chevron-right" size={16} color={colors.accent} />
+          </View>
+        </>
+      )}
+    </LinkCard>
   );
 }
 

@@ -1,9 +1,10 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { Slot } from 'expo-router';
 import { useState } from 'react';
-import { ActivityIndicator, Platform, StyleSheet, View } from 'react-native';
+import { Platform, StyleSheet, View } from 'react-native';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 
+import { Spinner } from '@/components/spinner';
 import { useAppFonts } from '@/components/app-fonts';
 import { colors } from '@/components/theme';
 import { makeQueryClient } from '@/features/api';
@@ -20,7 +21,7 @@ export function RootLayout() {
   if (!fontsReady) {
     return (
       <View style={styles.splash}>
-        <ActivityIndicator color={colors.chromeText} />
+        <Spinner color={colors.chromeText} />
       </View>
     );
   }

@@ -18,7 +18,7 @@ import {
   noticeListResponseSchema,
 } from '@/features/notices/schema';
 import { rideListResponseSchema } from '@/features/rides/schema';
-import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { holderOf, renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { notFound, ok, standInApi } from '@/tests/support/stand-in-api';
 
 jest.mock('@/features/session/token-store', () => ({
@@ -197,9 +197,9 @@ test('the fixtures are in the API’s shapes', () => {
 
 test('notices awaiting acknowledgement come first, then open findings soonest due, then the rides', async () => {
   renderHome();
-  const awaiting = await screen.findByRole('link', {
-    name: 'Notice PW-2026-0007, Skylark: awaiting your acknowledgement',
-  });
+  const awaiting = holderOf(
+    await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark: awaiting your acknowledgement' }),
+  );
   expect(within(awaiting).getByText('Read and acknowledge ›')).toBeTruthy();
   // The acknowledged notice is not asked about again.
   expect(screen.queryByRole('link', { name: /PW-2026-0005, Tidebreaker: awaiting/ })).toBeNull();
@@ -212,8 +212,8 @@ test('notices awaiting acknowledgement come first, then open findings soonest du
     'Skylark, finding 2: due 20 Jun 2026',
     'Skylark, finding 1: no due date',
   ]);
-  expect(within(rows[0]).getByText('PAST DUE')).toBeTruthy();
-  expect(within(rows[0]).getByText('On notice PW-2026-0005')).toBeTruthy();
+  expect(within(holderOf(rows[0])).getByText('PAST DUE')).toBeTruthy();
+  expect(within(holderOf(rows[0])).getByText('On notice PW-2026-0005')).toBeTruthy();
 
   const titles = screen.getAllByRole('header').map((h) => h.props.children);
   expect(titles).toEqual([

@@ -16,7 +16,7 @@ import {
   outboxListResponseSchema,
   outboxMessageResponseSchema,
 } from '@/features/notices/schema';
-import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { holderOf, renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { type StandInReply, notFound, ok, standInApi } from '@/tests/support/stand-in-api';
 
 jest.mock('@/features/session/token-store', () => ({
@@ -125,14 +125,16 @@ test('an admin sees every message in the order the server gives (newest first), 
     'Message: PW-2026-0007 · Gull Wing · inspection notice',
     'Message: Reminder: finding 2 on Tidebreaker is due in 7 days',
   ]);
-  const first = within(rows[0]);
+  // Each row is a list item: its subject the button, the facts beside it.
+  const items = rows.map(holderOf);
+  const first = within(items[0]);
   expect(first.getByText(/Halvard Ride Inspection Services <notices@halvard\.example>/)).toBeTruthy();
   expect(
     first.getByText(/safety@tamsworth-pier\.example, duty\.manager@tamsworth-pier\.example/),
   ).toBeTruthy();
   // 84 312 B = 84.3 kB with the SI kilo (1000), as formatBytes promises.
   expect(first.getByText('PW-2026-0007.pdf (84.3 kB)')).toBeTruthy();
-  expect(within(rows[1]).queryByText(/\.pdf/)).toBeNull();
+  expect(within(items[1]).queryByText(/\.pdf/)).toBeNull();
   expect(screen.getByText('2 e-mails received by the built-in mailbox, newest first.')).toBeTruthy();
 });
 

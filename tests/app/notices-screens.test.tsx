@@ -30,7 +30,7 @@ import {
   noticeListResponseSchema,
 } from '@/features/notices/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
-import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { holderOf, renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { type StandInCall, type StandInReply, standInApi } from '@/tests/support/stand-in-api';
 
 jest.mock('@/features/session/token-store', () => ({
@@ -451,7 +451,7 @@ test('the fixtures are in the API’s shapes (the tests talk the server’s lang
 describe('an operator', () => {
   test('sees the company’s notices: reference, ride, kind, date, acknowledgement and open findings', async () => {
     const view = renderNotices(operator, '/notices?operatorId=co-other');
-    const card = await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark' });
+    const card = holderOf(await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark' }));
     expect(within(card).getByText('Inspection notice')).toBeTruthy();
     expect(within(card).getByText('3 Jun 2026')).toBeTruthy();
     expect(within(card).getByText('Awaiting your acknowledgement')).toBeTruthy();
@@ -765,7 +765,7 @@ describe('the inspection body', () => {
   test('the desktop list shows the operator and the e-mail state, newest first as the server sends them', async () => {
     mockWide = true;
     renderNotices(supervisor, '/notices');
-    const row = await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark' });
+    const row = holderOf(await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark' }));
     expect(within(row).getByText('Tamsworth Pier Leisure')).toBeTruthy();
     expect(within(row).getByText('Not acknowledged yet')).toBeTruthy();
     expect(within(row).getByText('Sent')).toBeTruthy();

@@ -14,7 +14,7 @@ import { QueueScreen } from '@/features/review/queue-screen';
 import { type QueueItem, type QueueResponse, queueResponseSchema } from '@/features/review/schema';
 import { urgencyLook } from '@/features/review/urgency-mark';
 import { contrast } from '@/tests/support/contrast';
-import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { holderOf, renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { ok, standInApi } from '@/tests/support/stand-in-api';
 import { pickDate } from '@/tests/support/pick-date';
 
@@ -145,12 +145,12 @@ describe('the queue, desktop', () => {
 
   test('asks for the first page, 25 items, most urgent first, and shows the counts on tiles', async () => {
     renderQueue();
-    expect(await screen.findByRole('button', { name: 'Over limit: 1' })).toBeTruthy();
-    expect(screen.getByRole('button', { name: 'Near limit: 4' })).toBeTruthy();
-    expect(screen.getByRole('button', { name: 'Findings past due: 2' })).toBeTruthy();
-    expect(screen.getByRole('button', { name: 'Awaiting sign-off: 7' })).toBeTruthy();
+    expect(await screen.findByRole('button', { name: '1 Over limit' })).toBeTruthy();
+    expect(screen.getByRole('button', { name: '4 Near limit' })).toBeTruthy();
+    expect(screen.getByRole('button', { name: '2 Findings past due' })).toBeTruthy();
+    expect(screen.getByRole('button', { name: '7 Awaiting sign-off' })).toBeTruthy();
     // "Everything" is the sum of the six counts (1 + 0 + 4 + 1 + 2 + 7) and is the tile shown by default.
-    expect(screen.getByRole('button', { name: 'Everything: 15, shown' })).toBeTruthy();
+    expect(screen.getByRole('button', { name: '15 Everything, shown' })).toBeTruthy();
     const first = requests[0];
     expect(first.searchParams.get('pageSize')).toBe('25');
     expect(first.searchParams.get('page')).toBe('1');
@@ -160,14 +160,17 @@ describe('the queue, desktop', () => {
 
   test('one row per item with what it is about; an inspection opens its review', async () => {
     const view = renderQueue();
-    const row = await screen.findByRole('link', {
+    const link = await screen.findByRole('link', {
       name: 'Over limit: Gull Wing, Periodic inspection by Tobin Reyes',
     });
+    // The link is the ride's name; its row (a table row of cells) holds the rest.
+    const row = holderOf(link);
+    expect(within(link).getByText('Gull Wing')).toBeTruthy();
     expect(within(row).getByText('Tamsworth Pier Leisure')).toBeTruthy();
     // Failed items: the test window is narrower than 1280 px, where the count joins the words under "What".
     expect(within(row).getByText('Periodic inspection by Tobin Reyes · 2 failed')).toBeTruthy();
     expect(screen.getAllByRole('link')).toHaveLength(2);
-    fireEvent.press(row);
+    fireEvent.press(link);
     expect(await screen.findByText('Review desk of one inspection')).toBeTruthy();
     expect(view.getPathname()).toBe('/review/insp-1');
   });
@@ -184,16 +187,16 @@ describe('the queue, desktop', () => {
 
   test('pressing an urgency tile asks the server for that urgency only; pressing it again clears it', async () => {
     const view = renderQueue('/review?page=2');
-    fireEvent.press(await screen.findByRole('button', { name: 'Over limit: 1' }));
+    fireEvent.press(await screen.findByRole('button', { name: '1 Over limit' }));
     await waitFor(() => expect(lastRequest().searchParams.get('urgency')).toBe('over'));
     // A new filter starts again at page 1.
     expect(lastRequest().searchParams.get('page')).toBe('1');
     expect(view.getSearchParams()).toEqual({ urgency: 'over' });
-    expect(await screen.findByRole('button', { name: 'Over limit: 1, shown' })).toBeTruthy();
+    expect(await screen.findByRole('button', { name: '1 Over limit, shown' })).toBeTruthy();
 
-    fireEvent.press(screen.getByRole('button', { name: 'Over limit: 1, shown' }));
+    fireEvent.press(screen.getByRole('button', { name: '1 Over limit, shown' }));
     await waitFor(() => expect(lastRequest().searchParams.get('urgency')).toBeNull());
-    expect(screen.getByRole('button', { name: 'Everything: 15, shown' })).toBeTruthy();
+    expect(screen.getByRole('button', { name: '15 Everything, shown' })).toBeTruthy();
   });
 
   test('ride class, ride status and inspector filters reach the request as the API reads them', async () => {
@@ -232,7 +235,7 @@ describe('the queue, desktop', () => {
 
   test('the search waits for typing to pause, then asks once, from page 1', async () => {
     renderQueue('/review?page=3');
-    await screen.findByRole('button', { name: 'Over limit: 1' });
+    await screen.findByRole('button', { name: '1 Over limit' });
     jest.useFakeTimers();
     fireEvent.changeText(screen.getByLabelText('Search the queue'), 'gull');
     expect(requests.some((r) => r.searchParams.get('q'))).toBe(false);
@@ -318,15 +321,15 @@ describe('the queue, phone', () => {
   test('the same items as cards, each a link with its urgency in words', async () => {
     mockWide = false;
     renderQueue();
-    const card = await screen.findByRole('link', {
-      name: 'Over limit: Gull Wing, Periodic inspection by Tobin Reyes',
-    });
+    const card = holderOf(
+      await screen.findByRole('link', { name: 'Over limit: Gull Wing, Periodic inspection by Tobin Reyes' }),
+    );
     expect(within(card).getByText('Review inspection')).toBeTruthy();
     expect(within(card).getByText('2 failed')).toBeTruthy();
     expect(screen.getByRole('link', { name: /^Overdue: Harbour Wheel/ })).toBeTruthy();
     // The filters sit behind one button on a phone; the tiles stay in view.
     expect(screen.getByRole('button', { name: 'Filters' })).toBeTruthy();
-    expect(screen.getByRole('button', { name: 'Over limit: 1' })).toBeTruthy();
+    expect(screen.getByRole('button', { name: '1 Over limit' })).toBeTruthy();
   });
 });
 

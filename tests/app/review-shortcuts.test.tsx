@@ -23,7 +23,7 @@ import { QueueScreen } from '@/features/review/queue-screen';
 import { queueNeighbour } from '@/features/review/queue-order';
 import { type QueueItem } from '@/features/review/schema';
 import { isTypingTarget, shortcutFor, shortcutKeys, stepIndex } from '@/features/review/shortcuts';
-import { renderScreens, sessionClient } from '@/tests/support/app-screens';
+import { holderOf, renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { ok, standInApi } from '@/tests/support/stand-in-api';
 
 jest.mock('@/features/session/token-store', () => ({
@@ -204,7 +204,7 @@ function renderQueue() {
 
 const rows = () =>
   screen.getAllByRole('link').filter((l) => /^(Awaiting|Overdue)/.test(l.props.accessibilityLabel));
-const highlighted = () => rows().findIndex((r) => r.props['aria-current'] === 'true');
+const highlighted = () => rows().findIndex((r) => holderOf(r).props['aria-current'] === 'true');
 
 describe('the queue’s keys (use-shortcuts.web.ts on features/review/queue-screen.tsx)', () => {
   test('j/k move one highlight through the rows; keys typed into a field or combobox move nothing', async () => {
@@ -225,7 +225,7 @@ describe('the queue’s keys (use-shortcuts.web.ts on features/review/queue-scre
     expect(press('k', el('DIV', { role: 'combobox' }))).toBe(false);
     expect(highlighted()).toBe(1);
     // Exactly one row is marked at a time.
-    expect(rows().filter((r) => r.props['aria-current'] === 'true')).toHaveLength(1);
+    expect(rows().filter((r) => holderOf(r).props['aria-current'] === 'true')).toHaveLength(1);
   });
 
   test('o (or Enter) opens the highlighted item: the review of an inspection, the page of a ride', async () => {

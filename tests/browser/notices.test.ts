@@ -33,7 +33,7 @@ test('approve → notice e-mailed with PDF → operator acknowledges and reports
   // ——— supervisor: a finding on Tidebreaker's over-limit inspection, then approval ———
   const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
-  await desk.getByRole('button', { name: /^Over limit: 1/ }).click();
+  await desk.getByRole('button', { name: /^1 Over limit/ }).click();
   await desk
     .getByRole('link', { name: /Tidebreaker/ })
     .first()

@@ -30,7 +30,7 @@ test('queue → flagged inspection → finding, ride out of service, approval; r
   // ——— desk: the queue, most urgent first ———
   const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');
   await desk.waitForURL('**/review');
-  await desk.getByRole('button', { name: /^Over limit: 1/ }).click();
+  await desk.getByRole('button', { name: /^1 Over limit/ }).click();
   await desk.waitForURL(/urgency=over/);
   await screenshot(desk, 'review-queue-desktop');
   await desk
@@ -123,7 +123,7 @@ test('queue → flagged inspection → finding, ride out of service, approval; r
   // ——— phone-size supervisor: return the inspection awaiting sign-off ———
   const small = await app.signedIn('phone', 'supervisor@pivotwatch.test');
   await small.waitForURL('**/review');
-  await small.getByRole('button', { name: /^Awaiting sign-off: 1/ }).click();
+  await small.getByRole('button', { name: /^1 Awaiting sign-off/ }).click();
   await small
     .getByRole('link', { name: /Lantern Wheel/ })
     .first()

@@ -6,6 +6,7 @@
  */
 import { type QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import type { ReactElement, ReactNode } from 'react';
+import type { ReactTestInstance } from 'react-test-renderer';
 import { renderRouter } from 'expo-router/testing-library';
 
 import { makeQueryClient } from '@/features/api/query-client';
@@ -38,4 +39,17 @@ export function renderScreens(
     },
     { initialUrl },
   );
+}
+
+/**
+ * The table row, link card or list item a link or button leads from (components/sortable-table.tsx,
+ * components/link-card.tsx): the control holds the name only, its holder the rest of what it shows.
+ */
+export function holderOf(control: ReactTestInstance): ReactTestInstance {
+  const holds = (n: ReactTestInstance) =>
+    n.props.role === 'row' || n.props.role === 'listitem' || n.props.testID === 'link-card';
+  let node: ReactTestInstance | null = control.parent;
+  while (node && !holds(node)) node = node.parent;
+  if (!node) throw new Error('The control sits in no table row, link card or list item');
+  return node;
 }
