@@ -3,11 +3,6 @@ module.exports = {
   displayName: 'browser',
   testEnvironment: 'node',
   testMatch: ['<rootDir>/tests/browser/**/*.test.ts'],
-  // The accessibility sweep (axe-core over every screen, both sizes and themes) still finds serious
-  // violations the app has not fixed yet (issue #17, item 11); it runs with `npm run test:a11y` and joins
-  // `npm test` once it passes.
-  testPathIgnorePatterns:
-    process.env.PW_A11Y === '1' ? [] : ['<rootDir>/tests/browser/accessibility.test.ts'],
   moduleNameMapper: { '^@/(.*)$': '<rootDir>/$1' },
   transform: {
     '^.+\\.tsx?$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false }],

@@ -259,15 +259,16 @@ function Tile({
       role="button"
       aria-pressed={on}
       accessibilityState={{ selected: on }}
-      // Named count first, as drawn (WCAG 2.5.3, label in name); the drawn count is hidden from
-      // assistive technology, which has it in the name.
+      // Named count first, as drawn (WCAG 2.5.3, label in name).
       accessibilityLabel={`${value ?? 'loading'} ${label}${on ? ', shown' : ''}`}
       accessibilityHint={hint}
       onPress={onPress}
       style={StyleSheet.flatten([styles.tile, on && styles.tileOn, value === 0 && !on && styles.tileZero])}
     >
-      <Text variant="figureLarge" color={value ? color : colors.textMuted} aria-hidden>
-        {value ?? '–'}
+      {/* The space keeps the count and the words apart in the text a page reader takes ("1 Over limit"),
+          as in the name; it draws nothing at the end of its line. */}
+      <Text variant="figureLarge" color={value ? color : colors.textMuted}>
+        {`${value ?? '–'} `}
       </Text>
       <View style={StyleSheet.flatten([styles.tileLabel, { backgroundColor: soft }])}>
         {icon}

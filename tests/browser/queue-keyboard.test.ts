@@ -97,11 +97,11 @@ test('? lists the keys, j/j/k highlight, Enter opens, a starts an approval witho
   await help.getByRole('button', { name: 'Close' }).click();
   await help.waitFor({ state: 'detached' });
 
-  // j, j, k: the highlight on the first row, marked current, focused.
+  // j, j, k: the highlight on the first row, marked current, its link focused.
   await desk.locator('body').click({ position: { x: 600, y: 60 } });
   for (const key of ['j', 'j', 'k']) await desk.keyboard.press(key);
   const first = rowLinks(desk).first();
-  await expect(first.getAttribute('aria-current')).resolves.toBe('true');
+  await expect(table(desk).getByRole('row').nth(1).getAttribute('aria-current')).resolves.toBe('true');
   expect(await table(desk).locator('[aria-current="true"]').count()).toBe(1);
   expect(await first.evaluate((el) => el === document.activeElement)).toBe(true);
   const href = await first.getAttribute('href');
