@@ -2,11 +2,11 @@ import { sha256 } from '@noble/hashes/sha256';
 import { bytesToHex } from '@noble/hashes/utils';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import { API_BASE, apiFetch } from '@/features/api';
+import { API_BASE, apiFetch, putBytes } from '@/features/api';
 import { pivotLifeKeys } from '@/features/pivot-life/api';
 import { ndtRecordCreatedSchema, rideNdtSchema, type NdtRecordInput } from '@/features/pivot-life/ndt-schema';
 import { tokenStore } from '@/features/session';
-import { ApiRequestError, errorOfResponse, OfflineError } from '@/lib/api-errors';
+import { ApiRequestError } from '@/lib/api-errors';
 
 export const ndtKeys = {
   ride: (rideId: string) => [...pivotLifeKeys.ride(rideId), 'ndt'] as const,
@@ -31,40 +31,47 @@ export function isPdfBytes(bytes: Uint8Array): boolean {
   return bytes.length >= header.length && header.every((b, i) => bytes[i] === b);
 }
 
-/** PUT /api/ndt-reports/:sha256 with the raw bytes; resolves with the hash once the server holds them. */
-export async function uploadNdtReport(bytes: Uint8Array): Promise<string> {
+/** A report of up to 20 MB should be up within this even on a poor signal; past it, try again. */
+const REPORT_TIMEOUT_MS = 300_000;
+
+/**
+ * PUT /api/ndt-reports/:sha256 with the raw bytes, telling `onProgress` how far it is; resolves with the
+ * hash once the server holds them.
+ */
+export async function uploadNdtReport(
+  bytes: Uint8Array,
+  onProgress?: (sent: number, total: number) => void,
+): Promise<string> {
   const hash = bytesToHex(sha256(bytes));
   const session = await tokenStore.get();
-  let res: Response;
-  try {
-    res = await fetch(`${API_BASE}/api/ndt-reports/${hash}`, {
-      method: 'PUT',
-      headers: {
-        'Content-Type': 'application/pdf',
-        Accept: 'application/json',
-        ...(session ? { Authorization: `Bearer ${session.token}` } : {}),
-      },
-      // A view of exactly the file's bytes (the array may sit in a larger buffer).
-      body: bytes.slice().buffer,
-    });
-  } catch (err) {
-    throw new OfflineError(err);
-  }
-  if (!res.ok) throw await errorOfResponse(res, `The report could not be uploaded (${res.status}).`);
+  await putBytes({
+    url: `${API_BASE}/api/ndt-reports/${hash}`,
+    bytes,
+    mime: 'application/pdf',
+    token: session?.token ?? null,
+    timeoutMs: REPORT_TIMEOUT_MS,
+    what: 'Report upload',
+    onProgress,
+  });
   return hash;
 }
 
-export type AddNdtRecord = { input: Omit<NdtRecordInput, 'reportSha256'>; report: Uint8Array | null };
+export type AddNdtRecord = {
+  input: Omit<NdtRecordInput, 'reportSha256'>;
+  report: Uint8Array | null;
+  /** How far the report's upload is, in bytes. */
+  onProgress?: (sent: number, total: number) => void;
+};
 
 /** Uploads the report (when there is one), then stores the record; the ride's NDT and life follow. */
 export function useAddNdtRecordMutation(rideId: string) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: async ({ input, report }: AddNdtRecord) => {
+    mutationFn: async ({ input, report, onProgress }: AddNdtRecord) => {
       let reportSha256: string | undefined;
       if (report) {
         try {
-          reportSha256 = await uploadNdtReport(report);
+          reportSha256 = await uploadNdtReport(report, onProgress);
         } catch (err) {
           // Name the field the report came from, so the form shows the problem beside it.
           if (err instanceof ApiRequestError)

@@ -10,6 +10,7 @@ import { Caution } from '@/components/caution';
 import { ChoiceChips } from '@/components/choice-chips';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
 import { LabelledLine } from '@/components/labelled-line';
+import { ProgressBar } from '@/components/progress-bar';
 import { Segmented } from '@/components/segmented';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
@@ -41,6 +42,7 @@ import { RideNotFound, useRideIdParam } from '@/features/registry/ui';
 import { rideHref } from '@/features/rides';
 import type { SessionUser } from '@/features/session/schema';
 import { ApiRequestError } from '@/lib/api-errors';
+import { formatBytes } from '@/lib/bytes';
 import { formatDate, localDay } from '@/lib/dates';
 
 type Field = 'joint' | 'testedOn' | 'method' | 'technician' | 'level' | 'result' | 'note' | 'report';
@@ -189,6 +191,15 @@ function RecordRow({ record: r }: { record: NdtRecord }) {
   );
 }
 
+/** Where adding a record stands: its report going up (bytes), then the record itself. */
+export type NdtSending = { step: 'report'; sent: number; total: number } | { step: 'record' };
+
+export function ndtSendingText(s: NdtSending, withReport: boolean): string {
+  if (s.step === 'report')
+    return `Sending the report: ${formatBytes(s.sent)} of ${formatBytes(s.total)} (step 1 of 2)`;
+  return withReport ? 'Saving the record (step 2 of 2)' : 'Saving the record';
+}
+
 function fieldErrorsOf(issues: readonly { path: string; message: string }[]): FieldErrors {
   const out: FieldErrors = {};
   const fields: Field[] = ['joint', 'testedOn', 'method', 'technician', 'level', 'result', 'note', 'report'];
@@ -212,6 +223,7 @@ function AddRecord({ data }: { data: RideNdt }) {
   const [errors, setErrors] = useState<FieldErrors>({});
   const [problem, setProblem] = useState<FormProblem | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
+  const [sending, setSending] = useState<NdtSending | null>(null);
   const pivot = data.pivots.find((p) => String(p.joint) === joint);
   const planned = pivot?.plans.map((p) => p.method) ?? [];
 
@@ -260,7 +272,17 @@ function AddRecord({ data }: { data: RideNdt }) {
     }
     setErrors({});
     try {
-      const res = await add.mutateAsync({ input: parsed.data, report: report?.bytes ?? null });
+      const bytes = report?.bytes ?? null;
+      setSending(bytes ? { step: 'report', sent: 0, total: bytes.length } : { step: 'record' });
+      const res = await add
+        .mutateAsync({
+          input: parsed.data,
+          report: bytes,
+          onProgress: (sent, total) =>
+            // The last byte out: the server still checks and stores the file, then the record goes.
+            setSending(sent < total ? { step: 'report', sent, total } : { step: 'record' }),
+        })
+        .finally(() => setSending(null));
       setSaved(
         `Recorded ${res.record.method} on ${formatDate(res.record.testedOn)}${report ? ' with its report' : ''}.` +
           (res.message ? ` ${res.message}` : ''),
@@ -380,6 +402,14 @@ function AddRecord({ data }: { data: RideNdt }) {
         <Text role="status" color={colors.within}>
           ✓ {saved}
         </Text>
+      ) : null}
+      {sending ? (
+        <ProgressBar
+          label="Adding the NDT record"
+          value={sending.step === 'report' ? sending.sent : 0}
+          max={sending.step === 'report' ? sending.total : null}
+          valueText={ndtSendingText(sending, report !== null)}
+        />
       ) : null}
       <Button label="Add NDT record" onPress={submit} busy={add.isPending} />
     </Card>

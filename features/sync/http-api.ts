@@ -1,9 +1,8 @@
 /**
  * The sync endpoints over HTTP. JSON calls go through the shared API client; photos go up as raw bytes
- * with XMLHttpRequest, the one browser and React Native API that reports upload progress.
+ * with their progress (`putBytes`).
  */
-import { API_BASE, type ApiFetch, apiFetch } from '@/features/api';
-import { ApiRequestError, OfflineError, apiErrorSchema } from '@/lib/api-errors';
+import { API_BASE, type ApiFetch, apiFetch, putBytes } from '@/features/api';
 import { tokenStore } from '@/features/session';
 import { pushResultSchema } from '@/features/records/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
@@ -41,49 +40,13 @@ async function putPhoto(
   photo: PhotoUpload,
   onProgress?: (sent: number, total: number) => void,
 ): Promise<void> {
-  const token = await target.getToken();
-  await new Promise<void>((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('PUT', `${target.baseUrl}/api/photos/${photo.sha256}`);
-    xhr.timeout = PHOTO_TIMEOUT_MS;
-    xhr.setRequestHeader('Content-Type', photo.mime);
-    xhr.setRequestHeader('Accept', 'application/json');
-    if (token) xhr.setRequestHeader('Authorization', `Bearer ${token}`);
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable) onProgress?.(e.loaded, e.total);
-    };
-    xhr.onerror = () => reject(new OfflineError(new Error('Photo upload: network error')));
-    xhr.ontimeout = () => reject(new OfflineError(new Error('Photo upload: timed out')));
-    xhr.onabort = () => reject(new OfflineError(new Error('Photo upload: aborted')));
-    xhr.onload = () => {
-      if (xhr.status === 200 || xhr.status === 201 || xhr.status === 204) {
-        resolve();
-        return;
-      }
-      // status 0 without onerror: the request never reached the server.
-      if (xhr.status === 0) {
-        reject(new OfflineError(new Error('Photo upload: no answer')));
-        return;
-      }
-      let body: unknown;
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        body = undefined;
-      }
-      const parsed = apiErrorSchema.safeParse(body);
-      reject(
-        parsed.success
-          ? new ApiRequestError(
-              xhr.status,
-              parsed.data.error.code,
-              parsed.data.error.message,
-              parsed.data.error.issues,
-            )
-          : new ApiRequestError(xhr.status, 'http_error', `Photo upload failed (${xhr.status}).`),
-      );
-    };
-    // A view of exactly the photo's bytes (the Uint8Array may sit in a larger buffer).
-    xhr.send(photo.bytes.slice().buffer);
+  await putBytes({
+    url: `${target.baseUrl}/api/photos/${photo.sha256}`,
+    bytes: photo.bytes,
+    mime: photo.mime,
+    token: await target.getToken(),
+    timeoutMs: PHOTO_TIMEOUT_MS,
+    what: 'Photo upload',
+    onProgress,
   });
 }

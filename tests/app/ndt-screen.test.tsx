@@ -12,12 +12,14 @@ import { createHash } from 'crypto';
 import { fireEvent, screen, waitFor, within } from 'expo-router/testing-library';
 
 import { CAUTION_SHORT } from '@/components/caution';
+import { formatBytes } from '@/lib/bytes';
 import { NdtScreen } from '@/features/pivot-life/ndt-screen';
 import type { NdtRecord, RideNdt } from '@/features/pivot-life/ndt-schema';
 import type { SessionUser } from '@/features/session/schema';
 import { renderScreens, sessionClient } from '@/tests/support/app-screens';
 import { standInApi } from '@/tests/support/stand-in-api';
 import { pickDate } from '@/tests/support/pick-date';
+import { FetchXmlHttpRequest } from '@/tests/support/fetch-xhr';
 
 jest.mock('@/features/session/token-store', () => ({
   tokenStore: {
@@ -41,6 +43,28 @@ jest.mock('expo-document-picker', () => ({
 jest.mock('@/features/pivot-life/read-picked-bytes', () => ({
   readPickedBytes: jest.fn(async () => mockBytes),
 }));
+
+/**
+ * The report goes up with XMLHttpRequest (features/api/put-bytes.ts), for its progress: here over the
+ * stand-in API's fetch. `gate`, when set, holds the upload after it has reported half its bytes sent, as
+ * a slow signal would.
+ */
+let gate: Promise<void> | null = null;
+class HalfwayXhr extends FetchXmlHttpRequest {
+  send(body?: ArrayBuffer | string | null) {
+    const total = body instanceof ArrayBuffer ? body.byteLength : 0;
+    this.upload.onprogress?.({ lengthComputable: true, loaded: Math.floor(total / 2), total });
+    void (gate ?? Promise.resolve()).then(() => super.send(body));
+  }
+}
+const platformXhr = (global as { XMLHttpRequest?: unknown }).XMLHttpRequest;
+beforeEach(() => {
+  gate = null;
+  (global as { XMLHttpRequest?: unknown }).XMLHttpRequest = HalfwayXhr;
+});
+afterAll(() => {
+  (global as { XMLHttpRequest?: unknown }).XMLHttpRequest = platformXhr;
+});
 
 const person = (role: SessionUser['role'], name: string): SessionUser => ({
   id: `${role}-1`,
@@ -194,6 +218,41 @@ test('an inspector adds a record: the PDF goes up by its SHA-256 first, then the
     reportSha256: hash,
   });
   expect(api.calls.indexOf(put[0])).toBeLessThan(api.calls.indexOf(post[0]));
+});
+
+test('while the report goes up a bar says how far, in bytes (WAI-ARIA 1.2 progressbar: valuenow of valuemax)', async () => {
+  const hash = createHash('sha256').update(PDF).digest('hex');
+  mockBytes = PDF;
+  mockPicked = { name: 'mt-report.pdf', uri: 'file:///mt.pdf', size: PDF.length };
+  let release = () => {};
+  gate = new Promise<void>((r) => (release = r));
+  render(inspector, {
+    [`/api/ndt-reports/${hash}`]: () => ({ status: 201, body: { stored: true, sha256: hash } }),
+    '/api/rides/ride-1/ndt-records': (call) => ({
+      status: 201,
+      body: { record: record({ id: 'rec-4', ...(call.body as object) }), notInPlan: false, message: null },
+    }),
+  });
+  const form = await screen.findByLabelText('Add NDT record');
+  fireEvent.press(within(form).getByLabelText('MT · planned'));
+  fireEvent.changeText(within(form).getByLabelText('Technician'), 'Ines Harrowgate');
+  fireEvent.press(within(form).getByLabelText('No indications'));
+  fireEvent.press(within(form).getByRole('button', { name: 'Choose PDF' }));
+  await within(form).findByTestId('ndt-report-picked');
+  fireEvent.press(within(form).getByRole('button', { name: 'Add NDT record' }));
+
+  const bar = await within(form).findByRole('progressbar', { name: 'Adding the NDT record' });
+  const half = Math.floor(PDF.length / 2);
+  expect(bar.props['aria-valuenow']).toBe(half);
+  expect(bar.props['aria-valuemax']).toBe(PDF.length);
+  expect(
+    within(form).getByText(
+      `Sending the report: ${formatBytes(half)} of ${formatBytes(PDF.length)} (step 1 of 2)`,
+    ),
+  ).toBeTruthy();
+  release();
+  await within(form).findByText(/Recorded MT on .* with its report/);
+  expect(within(form).queryByRole('progressbar', { name: 'Adding the NDT record' })).toBeNull();
 });
 
 test('a file that is not a PDF is refused before any upload; missing fields are named', async () => {
