@@ -7,6 +7,7 @@ import { DateField } from '@/components/date-field';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { FormAlert, type FormProblem } from '@/components/form-alert';
+import { ProgressBar } from '@/components/progress-bar';
 import { Segmented } from '@/components/segmented';
 import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
@@ -15,7 +16,7 @@ import { colors, space } from '@/components/theme';
 import { RoleGate } from '@/features/auth/ui';
 import { useLogDayMutation, useLogImportMutation, useRunningLogQuery } from '@/features/pivot-life/api';
 import { cyclesText } from '@/features/pivot-life/life-words';
-import { RUNNING_LOG_CSV_COLUMNS } from '@/features/pivot-life/running-log-csv';
+import { RUNNING_LOG_CSV_COLUMNS, parseRunningLogCsv } from '@/features/pivot-life/running-log-csv';
 import type { RunningLogResponse } from '@/features/pivot-life/running-log-schema';
 import { runningLogEntrySchema, type RunningLogRow } from '@/features/pivot-life/schema';
 import { readPickedFile, RideNotFound, useRideIdParam } from '@/features/registry/ui';
@@ -182,10 +183,29 @@ function DayForm({ rideId, log }: { rideId: string; log: RunningLogResponse | un
   );
 }
 
+/**
+ * Where an import of a running-log file stands: reading the picked file on this device, then the server
+ * checking and saving it whole (one request, so the bar moves by step, with the days counted as read).
+ */
+export type LogImportPhase = { step: 'reading' } | { step: 'saving'; days: number | null };
+
+/** The file's days as this device reads them (the server's reader is the same); null if it cannot. */
+export function logDaysIn(text: string): number | null {
+  const read = parseRunningLogCsv(text.replace(/^\uFEFF/, ''), localDay());
+  return read.ok ? read.entries.length : null;
+}
+
+export function logImportText(phase: LogImportPhase): string {
+  if (phase.step === 'reading') return 'Reading the file (step 1 of 2)';
+  const what = phase.days === null ? 'the file' : `${phase.days} day${phase.days === 1 ? '' : 's'}`;
+  return `The server is checking and saving ${what} (step 2 of 2)`;
+}
+
 function ImportCard({ rideId }: { rideId: string }) {
   const upload = useLogImportMutation(rideId);
   const [problem, setProblem] = useState<FormProblem | null>(null);
   const [done, setDone] = useState<string | null>(null);
+  const [phase, setPhase] = useState<LogImportPhase | null>(null);
 
   const pick = async () => {
     setProblem(null);
@@ -202,14 +222,17 @@ function ImportCard({ rideId }: { rideId: string }) {
       return;
     }
     let text: string;
+    setPhase({ step: 'reading' });
     try {
       text = await readPickedFile(asset);
     } catch {
+      setPhase(null);
       setProblem({ message: `${asset.name} could not be read.` });
       return;
     }
+    setPhase({ step: 'saving', days: logDaysIn(text) });
     try {
-      const r = await upload.mutateAsync(text);
+      const r = await upload.mutateAsync(text).finally(() => setPhase(null));
       setDone(
         `${asset.name}: ${r.saved} ${r.saved === 1 ? 'day' : 'days'} saved${r.replaced ? `, ${r.replaced} of them replacing days already logged` : ''}.`,
       );
@@ -235,7 +258,21 @@ function ImportCard({ rideId }: { rideId: string }) {
           ✓ {done}
         </Text>
       ) : null}
-      <Button label="Choose a CSV file" tone="quiet" onPress={pick} busy={upload.isPending} />
+      {phase ? (
+        <ProgressBar
+          label="Importing the running log"
+          value={phase.step === 'reading' ? 0 : 1}
+          max={2}
+          valueText={logImportText(phase)}
+          caption={false}
+        />
+      ) : null}
+      <Button
+        label="Choose a CSV file"
+        tone="quiet"
+        onPress={pick}
+        busy={phase !== null || upload.isPending}
+      />
     </Card>
   );
 }

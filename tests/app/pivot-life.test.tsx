@@ -19,6 +19,19 @@ import { pickDate } from '@/tests/support/pick-date';
 
 jest.mock('@/components/use-wide', () => ({ useWide: () => false }));
 
+// The picked running-log file: expo-document-picker answers with it, and the register's reader reads it.
+let mockCsv = '';
+jest.mock('expo-document-picker', () => ({
+  getDocumentAsync: jest.fn(async () => ({
+    canceled: false,
+    assets: [{ name: 'twin-comet-june.csv', uri: 'file:///june.csv', size: mockCsv.length }],
+  })),
+}));
+jest.mock('@/features/registry/ui', () => ({
+  ...jest.requireActual('@/features/registry/ui'),
+  readPickedFile: jest.fn(async () => mockCsv),
+}));
+
 const life: RideLife = rideLifeSchema.parse({
   rideId: 'ride-tc',
   asOf: '2026-06-15',
@@ -266,6 +279,31 @@ describe('the running log screen', () => {
     fireEvent.changeText(screen.getByLabelText('Ride cycles run'), '999');
     fireEvent.press(screen.getByRole('button', { name: 'Save day' }));
     expect(await screen.findByText('A day not yet run')).toBeTruthy();
+  });
+
+  test('a CSV import shows its steps, the days counted as this device reads them, until the server answers', async () => {
+    // RFC 4180 rows under the documented header (features/pivot-life/running-log-csv.ts).
+    mockCsv = 'day,cycles,hours,note\n2026-06-02,120,,\n2026-06-03,96,,"Wind, closed at 6"\n';
+    let release = () => {};
+    const held = new Promise<void>((r) => (release = r));
+    const api = standInApi({
+      '/api/rides/ride-tc/running-log': () => ok(logAnswer),
+      '/api/rides/ride-tc/running-log/import': async () => {
+        await held;
+        return { status: 201, body: { saved: 2, replaced: 0 } };
+      },
+    });
+    renderScreens(sessionClient(operator), { 'rides/[id]/log': RunningLogScreen }, '/rides/ride-tc/log');
+    await screen.findByLabelText('The log');
+    fireEvent.press(screen.getByRole('button', { name: 'Choose a CSV file' }));
+    const bar = await screen.findByRole('progressbar', { name: 'Importing the running log' });
+    expect(bar.props['aria-valuenow']).toBe(1);
+    expect(bar.props['aria-valuemax']).toBe(2);
+    expect(screen.getByText('The server is checking and saving 2 days (step 2 of 2)')).toBeTruthy();
+    expect(api.callsTo('POST', '/api/rides/ride-tc/running-log/import')[0].body).toEqual({ csv: mockCsv });
+    release();
+    expect(await screen.findByText(/twin-comet-june\.csv: 2 days saved\./)).toBeTruthy();
+    expect(screen.queryByRole('progressbar', { name: 'Importing the running log' })).toBeNull();
   });
 
   test('a day already logged says that saving replaces it', async () => {
