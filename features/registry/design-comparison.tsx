@@ -42,14 +42,17 @@ export function DesignComparison({
   system,
   beforeLabel,
   afterLabel,
+  narrow = false,
 }: {
   before: DesignData | null;
   after: DesignData;
   system: UnitSystem;
   beforeLabel: string;
   afterLabel: string;
+  /** In a side pane: each change's values under its name, as on a phone, not in columns. */
+  narrow?: boolean;
 }) {
-  const wide = useWide();
+  const wide = useWide() && !narrow;
   const changes = useMemo(() => diffDesign(before, after, system), [before, after, system]);
   const summary = summarise(changes);
   const [show, setShow] = useState<'all' | 'limits'>('all');

@@ -152,6 +152,7 @@ function DesignEdit({
               system={system}
               beforeLabel={`version ${current.version}`}
               afterLabel="this edit"
+              narrow
             />
           )
         ) : (
