@@ -22,20 +22,16 @@ function ago(iso: string | null): string {
 const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
 
 /**
- * One line on where things stand. "Everything is sent" only when nothing waits, nothing was refused (a
- * refused record or photo is not on the server either) and no run is going.
+ * One line on where things stand. "Everything is sent" only when nothing waits and nothing was refused:
+ * a refused record or photo is not on the server either.
  */
 export function headline(
-  s: Pick<SyncStatus, 'waiting' | 'photosWaiting' | 'needsAttention' | 'photosRefused'> & {
-    running?: boolean;
-  },
+  s: Pick<SyncStatus, 'waiting' | 'photosWaiting' | 'needsAttention' | 'photosRefused'>,
 ) {
   const refused = s.needsAttention.length + s.photosRefused.length;
   if (s.waiting > 0) return `${count(s.waiting, 'inspection')} waiting to send`;
   if (refused > 0) return `${count(refused, 'item')} refused by the server`;
   if (s.photosWaiting > 0) return `${count(s.photosWaiting, 'photo')} waiting to send`;
-  // The counts are read between runs: work submitted since may be going up right now.
-  if (s.running) return 'Syncing with the server…';
   return 'Everything is sent';
 }
 
