@@ -44,22 +44,29 @@ export function DesignEditScreen() {
   );
 }
 
+/** The editor's page when there is no editor to show, only why. */
+function EditorMessage({ ride, children }: { ride: RideSummary; children: React.ReactNode }) {
+  return (
+    <SubScreen
+      title="Edit design data"
+      subtitle={ride.name}
+      back={{ href: rideHref(ride.id), label: ride.name }}
+    >
+      <Card>{children}</Card>
+    </SubScreen>
+  );
+}
+
 function DesignEditLoader({ ride }: { ride: RideSummary }) {
   const current = useRideQuery(ride.id).data?.design ?? null;
   if (!current)
     return (
-      <SubScreen
-        title="Edit design data"
-        subtitle={ride.name}
-        back={{ href: rideHref(ride.id), label: ride.name }}
-      >
-        <Card>
-          <Text variant="heading">No design data yet</Text>
-          <Text muted>
-            The first version comes from a design file: import it from the maker’s design document.
-          </Text>
-        </Card>
-      </SubScreen>
+      <EditorMessage ride={ride}>
+        <Text variant="heading">No design data yet</Text>
+        <Text muted>
+          The first version comes from a design file: import it from the maker’s design document.
+        </Text>
+      </EditorMessage>
     );
   return <DesignEditWithModel ride={ride} current={current} />;
 }
@@ -69,17 +76,11 @@ function DesignEditWithModel({ ride, current }: { ride: RideSummary; current: De
   const csv = useCsvModule();
   if (csv.failed)
     return (
-      <SubScreen
-        title="Edit design data"
-        subtitle={ride.name}
-        back={{ href: rideHref(ride.id), label: ride.name }}
-      >
-        <Card>
-          <Text role="alert">
-            The editor could not be loaded. Check the connection and open this page again.
-          </Text>
-        </Card>
-      </SubScreen>
+      <EditorMessage ride={ride}>
+        <Text role="alert">
+          The editor could not be loaded. Check the connection and open this page again.
+        </Text>
+      </EditorMessage>
     );
   if (!csv.module) return <FullScreenWait />;
   // A new version in force starts the editor again from it.
