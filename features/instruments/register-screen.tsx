@@ -29,7 +29,7 @@ import {
 } from '@/features/instruments/schema';
 import { Panes } from '@/components/panes';
 import { RegisterTabs } from '@/features/registry/ui';
-import { formatDateTime, localDay } from '@/lib/dates';
+import { formatDate, formatDateTime, localDay } from '@/lib/dates';
 import { InstrumentForm } from '@/features/instruments/instrument-form';
 
 const staff = ['admin', 'supervisor', 'inspector'] as const;
@@ -177,7 +177,12 @@ function InstrumentTable({
           flex: 1.2,
           render: (i) => i.kinds.map((k) => readingKindLabel[k]).join(', '),
         },
-        { key: 'calibrated', title: 'Calibrated', flex: 1.2, render: (i) => i.calibratedOn ?? '—' },
+        {
+          key: 'calibrated',
+          title: 'Calibrated',
+          flex: 1.2,
+          render: (i) => (i.calibratedOn ? formatDate(i.calibratedOn) : '—'),
+        },
         {
           key: 'due',
           title: 'Next due',

@@ -15,7 +15,7 @@ import {
   readingKindSchema,
   readingMethods,
 } from '@/features/records/schema';
-import { daysBetween, isoDay } from '@/lib/dates';
+import { daysBetween, formatDate, isoDay } from '@/lib/dates';
 
 export type ReadingMethod = (typeof readingMethods)[number];
 export { instrumentMethods };
@@ -144,17 +144,19 @@ export const pastDueAt = (dueOn: string | null, takenAt: string) =>
 
 /** The words for a status, e.g. "Calibration due in 6 days (2026-12-09)". */
 export function calibrationWords(dueOn: string | null, status: CalibrationStatus): string {
+  // In the app's one date format (lib/dates.ts), like every date it shows.
+  const due = dueOn === null ? '' : formatDate(dueOn);
   switch (status.state) {
     case 'not_required':
       return 'No calibration date';
     case 'current':
-      return `Calibrated, next due ${dueOn}`;
+      return `Calibrated, next due ${due}`;
     case 'due_soon':
       return status.daysLeft === 0
-        ? `Calibration due today (${dueOn})`
-        : `Calibration due in ${status.daysLeft} day${status.daysLeft === 1 ? '' : 's'} (${dueOn})`;
+        ? `Calibration due today (${due})`
+        : `Calibration due in ${status.daysLeft} day${status.daysLeft === 1 ? '' : 's'} (${due})`;
     case 'past_due':
-      return `Calibration past due since ${dueOn} — not to be used`;
+      return `Calibration past due since ${due} — not to be used`;
   }
 }
 
