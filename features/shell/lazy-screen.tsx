@@ -1,4 +1,4 @@
-import { type ComponentType, type ReactNode, Suspense, lazy } from 'react';
+import { type ComponentType, type ReactNode, Suspense, lazy, useState } from 'react';
 
 import { FullScreenWait } from '@/components/full-screen-wait';
 import { loadShared } from '@/features/shell/load-shared';
@@ -15,8 +15,15 @@ export type BundleLoader<M> = () => Promise<M>;
 export function loadBundle<M>(load: BundleLoader<M>): Promise<M> {
   return loadShared()
     .then(load)
+    .then((bundle) => {
+      arrived.set(load, bundle);
+      return bundle;
+    })
     .catch((err: unknown) => (isChunkLoadFailure(err) ? afterChunkFailure() : Promise.reject(err)));
 }
+
+/** Bundles already loaded and run, by their loader. */
+const arrived = new Map<BundleLoader<unknown>, unknown>();
 
 /** A screen or frame component as a bundle exports it. */
 type Exported = (props: never) => ReactNode;
@@ -45,6 +52,15 @@ export function lazyScreen<M extends Record<K, Exported>, K extends keyof M & st
     );
   let Lazy = fresh();
   function LazyScreen(props: PropsOf<M[K]>) {
+    // A bundle already here (loaded ahead: lazy-screens.ts) renders at once. Through React.lazy even a
+    // loaded bundle suspends for a moment, and React then holds the screen back behind the wait for up
+    // to 300 ms (its throttling of revealed Suspense content). Chosen once per mount: a component of
+    // another type in the same place would start the screen over.
+    const [Here] = useState(() => {
+      const bundle = arrived.get(load) as M | undefined;
+      return bundle ? (bundle[name] as unknown as ComponentType<object>) : null;
+    });
+    if (Here) return <Here {...(props as object)} />;
     return (
       <Suspense fallback={<FullScreenWait />}>
         <Lazy {...(props as object)} />
