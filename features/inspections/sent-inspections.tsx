@@ -1,5 +1,5 @@
 import { Link, router } from 'expo-router';
-import { useState } from 'react';
+import { memo, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -244,7 +244,7 @@ const RECENT = 5;
  * that say so — an inspection is listed as sent only once the server has it; then the most recent of the
  * sent ones, with the whole list a press away.
  */
-export function SentInspections({ list }: { list: SentInspection[] }) {
+export const SentInspections = memo(function SentInspections({ list }: { list: SentInspection[] }) {
   const [all, setAll] = useState(false);
   const { returned, waiting, refused, sent } = groupSent(list);
   const shown = all ? sent : sent.slice(0, RECENT);
@@ -279,7 +279,7 @@ export function SentInspections({ list }: { list: SentInspection[] }) {
       ) : null}
     </>
   );
-}
+});
 
 const styles = StyleSheet.create({
   shrink: { flexShrink: 1, gap: 2 },

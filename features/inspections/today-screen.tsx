@@ -1,5 +1,5 @@
 import { Link, router } from 'expo-router';
-import { useEffect, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
@@ -35,8 +35,9 @@ import { useSyncStatus } from '@/features/sync/ui';
 export function TodayScreen() {
   const rides = useFieldRidesQuery();
   const sent = useSentInspectionsQuery();
-  const returned = sent.data?.filter((s) => s.needsAction) ?? [];
-  const others = sent.data?.filter((s) => !s.needsAction) ?? [];
+  // Kept while the list is the same, so a sync's progress redraws the panel and not every card below it.
+  const returned = useMemo(() => sent.data?.filter((s) => s.needsAction) ?? [], [sent.data]);
+  const others = useMemo(() => sent.data?.filter((s) => !s.needsAction) ?? [], [sent.data]);
   const sync = useSyncStatus();
   const wide = useWide();
   // First visit on a fresh phone: fetch the round while there is a connection. Only once the phone's own
@@ -55,47 +56,7 @@ export function TodayScreen() {
           <SyncPanel status={sync} />
           {/* Returned inspections come before anything else: they wait on this inspector. */}
           <SentInspections list={returned} />
-          <QueryState query={rides}>
-            {(list) =>
-              list.length === 0 ? (
-                <Card>
-                  <Text muted>
-                    No rides on this phone yet. Connect and sync to download your round; after that it works
-                    offline.
-                  </Text>
-                </Card>
-              ) : (
-                <>
-                  {list.some((r) => r.drafts.length > 0) ? (
-                    <>
-                      <SectionTitle>In progress</SectionTitle>
-                      {list.flatMap((r) =>
-                        r.drafts.map((d) => (
-                          <Card key={d.id} style={styles.draft}>
-                            <View style={styles.grow}>
-                              <Text variant="heading">{r.ride.name}</Text>
-                              <Text variant="small" muted>
-                                Last change {formatLocalStamp(d.updatedAt)}
-                              </Text>
-                            </View>
-                            <Button label="Resume" onPress={() => router.push(inspectHref(d.id))} />
-                          </Card>
-                        )),
-                      )}
-                    </>
-                  ) : null}
-                  <SectionTitle>{`Your rides (${list.length})`}</SectionTitle>
-                  <View style={wide ? styles.gridWide : styles.grid}>
-                    {list.map((r) => (
-                      <View key={r.ride.id} style={wide ? styles.cellWide : undefined}>
-                        <RideToInspect entry={r} />
-                      </View>
-                    ))}
-                  </View>
-                </>
-              )
-            }
-          </QueryState>
+          <QueryState query={rides}>{(list) => <TodayRides list={list} wide={wide} />}</QueryState>
           <SentInspections list={others} />
         </Screen>
       )}
@@ -104,6 +65,48 @@ export function TodayScreen() {
 }
 
 type Entry = NonNullable<ReturnType<typeof useFieldRidesQuery>['data']>[number];
+
+/** The round: drafts in progress, then every ride on the phone (redrawn only when the list changes). */
+const TodayRides = memo(function TodayRides({ list, wide }: { list: Entry[]; wide: boolean }) {
+  if (list.length === 0)
+    return (
+      <Card>
+        <Text muted>
+          No rides on this phone yet. Connect and sync to download your round; after that it works offline.
+        </Text>
+      </Card>
+    );
+  return (
+    <>
+      {list.some((r) => r.drafts.length > 0) ? (
+        <>
+          <SectionTitle>In progress</SectionTitle>
+          {list.flatMap((r) =>
+            r.drafts.map((d) => (
+              <Card key={d.id} style={styles.draft}>
+                <View style={styles.grow}>
+                  <Text variant="heading">{r.ride.name}</Text>
+                  <Text variant="small" muted>
+                    Last change {formatLocalStamp(d.updatedAt)}
+                  </Text>
+                </View>
+                <Button label="Resume" onPress={() => router.push(inspectHref(d.id))} />
+              </Card>
+            )),
+          )}
+        </>
+      ) : null}
+      <SectionTitle>{`Your rides (${list.length})`}</SectionTitle>
+      <View style={wide ? styles.gridWide : styles.grid}>
+        {list.map((r) => (
+          <View key={r.ride.id} style={wide ? styles.cellWide : undefined}>
+            <RideToInspect entry={r} />
+          </View>
+        ))}
+      </View>
+    </>
+  );
+});
 
 function RideToInspect({ entry }: { entry: Entry }) {
   const start = useStartInspectionMutation();
