@@ -26,6 +26,8 @@ export type SqlExecutor = AsyncRemoteCallback;
 export type DeviceDb = {
   /** Single statements, each queued behind any running transaction. Never use it inside `transaction`. */
   readonly db: DeviceDrizzle;
+  /** One statement in drizzle's proxy form, queued like `db`'s (inside a transaction: its own, direct). */
+  readonly run: SqlExecutor;
   /**
    * Runs `fn` between BEGIN IMMEDIATE and COMMIT with nothing else interleaving; ROLLBACK on a throw.
    * Inside, use only the `tx` handed in (its `db` skips the queue; its `transaction` simply joins).
@@ -36,14 +38,14 @@ export type DeviceDb = {
 
 export function createDeviceDb(execute: SqlExecutor, close: () => Promise<void> = async () => {}): DeviceDb {
   const mutex = new Mutex();
-  const queued = drizzle((sql, params, method) => mutex.runExclusive(() => execute(sql, params, method)), {
-    schema,
-  });
+  const run: SqlExecutor = (sql, params, method) => mutex.runExclusive(() => execute(sql, params, method));
+  const queued = drizzle(run, { schema });
   const direct = drizzle(execute, { schema });
 
   // Nested calls join the running transaction: all of it commits or none of it does.
   const inTransaction: DeviceDb = {
     db: direct,
+    run: execute,
     transaction: (fn) => fn(inTransaction),
     close: async () => {
       throw new Error('The device database cannot be closed inside a transaction.');
@@ -52,6 +54,7 @@ export function createDeviceDb(execute: SqlExecutor, close: () => Promise<void> 
 
   return {
     db: queued,
+    run,
     transaction: (fn) =>
       mutex.runExclusive(async () => {
         await execute('BEGIN IMMEDIATE', [], 'run');
@@ -69,5 +72,28 @@ export function createDeviceDb(execute: SqlExecutor, close: () => Promise<void> 
         }
       }),
     close: () => mutex.runExclusive(close),
+  };
+}
+
+/**
+ * A handle to a database still opening: screens can render and start their reads at once, and each
+ * statement or transaction waits for `ready`, then runs on the real handle (through its queue, so nothing
+ * interleaves with a transaction). Once `ready` has failed, every statement fails with its error.
+ */
+export function deferredDeviceDb(ready: Promise<DeviceDb>): DeviceDb {
+  let real: DeviceDb | null = null;
+  ready.then(
+    (dev) => {
+      real = dev;
+    },
+    () => undefined,
+  );
+  const settled = async () => real ?? (await ready);
+  const run: SqlExecutor = async (sql, params, method) => (await settled()).run(sql, params, method);
+  return {
+    db: drizzle(run, { schema }),
+    run,
+    transaction: async (fn) => (await settled()).transaction(fn),
+    close: async () => (await settled()).close(),
   };
 }

@@ -1,3 +1,4 @@
+import { forgetGlimpses } from '@/features/session/glimpse';
 import { type StoredSession, parseStoredSession } from '@/features/session/stored-session';
 
 // Web: localStorage, so a signed-in inspector can reload the app with no signal and keep working.
@@ -15,7 +16,9 @@ export const tokenStore = {
   async set(session: StoredSession): Promise<void> {
     globalThis.localStorage?.setItem(KEY, JSON.stringify(session));
   },
+  /** Signing out (or a token the server refused): the session, and with it every person's glimpse. */
   async clear(): Promise<void> {
     globalThis.localStorage?.removeItem(KEY);
+    forgetGlimpses();
   },
 };

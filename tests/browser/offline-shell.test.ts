@@ -48,6 +48,23 @@ async function waitForDeviceDb(page: Page) {
   });
 }
 
+/** The ride cards' texts on Today, in order (each card is labelled "Ride <name>"). */
+const rideCards = () =>
+  Array.from(document.querySelectorAll('[aria-label^="Ride "]')).map((card) => card.textContent ?? '');
+
+/**
+ * Run in the page before its scripts: keeps the ride cards' texts from the first moment any is drawn.
+ * A string, so nothing the test's compiler adds to functions is needed in the page.
+ */
+const RECORD_FIRST_CARDS = `
+  new MutationObserver((_, observer) => {
+    const cards = [...document.querySelectorAll('[aria-label^="Ride "]')];
+    if (cards.length === 0 || !/Start inspection/.test(cards[0].textContent || '')) return;
+    window.firstCards = cards.map((card) => card.textContent || '');
+    observer.disconnect();
+  }).observe(document, { subtree: true, childList: true, characterData: true });
+`;
+
 const loadDraft = (page: Page, id: string) =>
   page.evaluate((draftId) => (window as WithDiagnostics).pivotwatchDevice!.loadDraft(draftId), id);
 
@@ -70,6 +87,9 @@ test('the app loads offline after one online visit and keeps a draft across offl
   });
 
   await page.context().setOffline(true);
+  // What the ride cards say the moment Today first shows them: on a reload that is the glimpse kept from
+  // the last visit (features/session/glimpse.ts), drawn while the device database still opens.
+  await page.addInitScript(RECORD_FIRST_CARDS);
   await page.reload();
   await page.getByRole('heading', { name: HOME }).first().waitFor();
   await waitForDeviceDb(page);
@@ -79,6 +99,11 @@ test('the app loads offline after one online visit and keeps a draft across offl
     .getByText(/Tamsworth Pier/)
     .first()
     .waitFor();
+  // Once the database has answered, the cards say what they said from the glimpse.
+  await page.waitForTimeout(500);
+  const first = await page.evaluate(() => (window as { firstCards?: string[] }).firstCards);
+  expect(first?.length).toBeGreaterThan(0);
+  expect(await page.evaluate(rideCards)).toEqual(first);
   await screenshot(page, 'phone-offline-today');
 
   // Changed offline, reloaded offline: the change is there.
@@ -120,14 +145,16 @@ test('a second tab is told plainly that the app is open in another one', async (
   await first.close();
   for (let i = 0; i < 10; i++) {
     await second.reload();
+    // Today may show from the glimpse before the database answers: opened means the database did.
     const opened = await second
-      .getByRole('heading', { name: HOME })
-      .first()
-      .waitFor({ timeout: 5000 })
+      .waitForFunction(() => (window as WithDiagnostics).pivotwatchDevice !== undefined, null, {
+        timeout: 5000,
+      })
       .then(() => true)
       .catch(() => false);
     if (opened) break;
   }
+  await second.getByRole('heading', { name: HOME }).first().waitFor();
   await waitForDeviceDb(second);
   await second.context().close();
 });
