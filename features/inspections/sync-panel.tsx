@@ -22,12 +22,15 @@ function ago(iso: string | null): string {
 const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
 
 /**
- * One line on where things stand. "Everything is sent" only when nothing waits and nothing was refused:
- * a refused record or photo is not on the server either.
+ * One line on where things stand. "Everything is sent" only when nothing waits and nothing was refused
+ * (a refused record or photo is not on the server either), and only once the counts have been read.
  */
 export function headline(
-  s: Pick<SyncStatus, 'waiting' | 'photosWaiting' | 'needsAttention' | 'photosRefused'>,
+  s: Pick<SyncStatus, 'waiting' | 'photosWaiting' | 'needsAttention' | 'photosRefused'> &
+    Partial<Pick<SyncStatus, 'loaded'>>,
 ) {
+  // Until the phone's own counts are read (a reload drawn from the glimpse), it claims nothing.
+  if (s.loaded === false) return 'Reading what waits on this phone…';
   const refused = s.needsAttention.length + s.photosRefused.length;
   if (s.waiting > 0) return `${count(s.waiting, 'inspection')} waiting to send`;
   if (refused > 0) return `${count(refused, 'item')} refused by the server`;
@@ -67,10 +70,15 @@ export function SyncPanel({ status }: { status: SyncStatusHook }) {
     <Card style={styles.panel} accessibilityLabel="Sync status">
       <View style={styles.row}>
         <View style={styles.grow}>
-          <Text variant="heading">{headline(status)}</Text>
-          <Text variant="small" muted>
-            {photoLine} · last sync {ago(status.lastSuccessAt)}
+          {/* Until the phone's own counts are read (a reload drawn from the glimpse), claim nothing. */}
+          <Text variant="heading">
+            {status.loaded ? headline(status) : 'Reading what waits on this phone…'}
           </Text>
+          {status.loaded ? (
+            <Text variant="small" muted>
+              {photoLine} · last sync {ago(status.lastSuccessAt)}
+            </Text>
+          ) : null}
         </View>
         <Button
           label={status.running ? 'Syncing…' : 'Sync now'}

@@ -105,4 +105,8 @@ describe('the sync headline', () => {
     const refusedPhoto = { sha256: 'c'.repeat(64) } as (typeof none.photosRefused)[number];
     expect(headline({ ...none, photosRefused: [refusedPhoto] })).toBe('1 item refused by the server');
   });
+  test('claims nothing before the phone’s counts are read (a reload drawn from the glimpse)', () => {
+    expect(headline({ ...none, loaded: false })).toBe('Reading what waits on this phone…');
+    expect(headline({ ...none, loaded: true })).toBe('Everything is sent');
+  });
 });
