@@ -5,6 +5,8 @@ import path from 'node:path';
 
 import { z } from 'zod';
 
+import { parseStorageUrl, StorageUrlError, type StorageSettings } from '@/server/storage/settings';
+
 const logLevels = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
 
 /** `90s`, `30m`, `12h`, `7d` or a bare number of seconds. */
@@ -121,6 +123,7 @@ const envSchema = z.object({
       .default('24h'),
   ),
   BACKUP_KEEP: z.preprocess(emptyAsUnset, z.coerce.number().int().min(1).max(1000).default(14)),
+  STORAGE_URL: z.preprocess(emptyAsUnset, z.string().optional().transform(storageSettings)),
 });
 
 /** Variables as strings; looser than NodeJS.ProcessEnv, whose NODE_ENV some type packages make required. */
@@ -180,6 +183,11 @@ export type Config = {
   backupIntervalSeconds: number;
   /** How many scheduled or manual backups are kept (BACKUP_KEEP, default 14); older ones are removed. */
   backupKeep: number;
+  /**
+   * Where photos, NDT reports and cached notice PDFs are kept (STORAGE_URL, server/storage): the disk
+   * under DATA_DIR by default, or S3-compatible object storage.
+   */
+  storage: StorageSettings;
 };
 
 export class ConfigError extends Error {
@@ -249,6 +257,17 @@ function parseTrustProxy(value: string, ctx: z.RefinementCtx): false | number | 
   return items;
 }
 
+/** STORAGE_URL: unset or file: (the disk under DATA_DIR), file:///dir, or s3://bucket[/prefix]?options. */
+function storageSettings(value: string | undefined, ctx: z.RefinementCtx): StorageSettings {
+  try {
+    return parseStorageUrl(value);
+  } catch (error) {
+    if (!(error instanceof StorageUrlError)) throw error;
+    ctx.addIssue({ code: 'custom', message: error.message });
+    return z.NEVER;
+  }
+}
+
 /** Production never seeds demo users; refusing SEED_DEMO=1 there says so rather than ignoring it. */
 function demoSeeding(e: { NODE_ENV: Config['nodeEnv']; SEED_DEMO?: '0' | '1'; HOST: string }): boolean {
   if (e.NODE_ENV === 'production') {
@@ -311,6 +330,7 @@ export function parseEnv(
     backupDir: path.resolve(cwd, e.BACKUP_DIR ?? path.join(e.DATA_DIR, 'backups')),
     backupIntervalSeconds: e.BACKUP_INTERVAL === 'off' ? 0 : ttlSeconds(e.BACKUP_INTERVAL),
     backupKeep: e.BACKUP_KEEP,
+    storage: e.STORAGE_URL,
   };
 }
 
