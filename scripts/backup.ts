@@ -1,5 +1,6 @@
 /**
- * `npm run backup`: takes a backup of DATA_DIR now (the database, photos and NDT reports) into BACKUP_DIR,
+ * `npm run backup`: takes a backup of DATA_DIR now (the database, and the photos and NDT reports from the
+ * storage STORAGE_URL names) into BACKUP_DIR,
  * the same way the server's scheduled job does. Safe while the server runs: the database is copied with
  * SQLite's online backup API. Older backups beyond BACKUP_KEEP are removed afterwards.
  */
@@ -12,6 +13,7 @@ import { createBackup } from '@/server/backup';
 import { ConfigError, parseEnv } from '@/server/config';
 import { databaseFileName } from '@/server/db';
 import { restrictNewFiles } from '@/server/files';
+import { storageOf } from '@/server/storage';
 
 async function main() {
   restrictNewFiles();
@@ -23,7 +25,7 @@ async function main() {
   try {
     const result = await createBackup({
       sqlite,
-      dataDir: config.dataDir,
+      storage: storageOf(config),
       backupDir: config.backupDir,
       kind: 'manual',
       keep: config.backupKeep,

@@ -14,6 +14,7 @@ import {
 } from '@/server/backup';
 import { ConfigError, parseEnv } from '@/server/config';
 import { restrictNewFiles } from '@/server/files';
+import { StorageError, storageOf } from '@/server/storage';
 
 function list(backupDir: string) {
   const all = listBackups(backupDir);
@@ -54,11 +55,13 @@ async function main() {
   }
   const result = await restoreBackup({
     dataDir: config.dataDir,
+    storage: storageOf(config),
     backupDir: config.backupDir,
     which: args[0],
   });
   console.log(
-    `Restored ${result.name} into ${config.dataDir} (${result.filesRestored} stored files written).`,
+    `Restored ${result.name} into ${config.dataDir} (${result.filesRestored} stored files written to ` +
+      `${storageOf(config).description}).`,
   );
   if (result.setAside) console.log(`The database it replaced is kept in ${result.setAside}.`);
   console.log(
@@ -68,7 +71,10 @@ async function main() {
 
 main().catch((error: unknown) => {
   const known =
-    error instanceof ConfigError || error instanceof RestoreError || error instanceof DataDirBusyError;
+    error instanceof ConfigError ||
+    error instanceof RestoreError ||
+    error instanceof DataDirBusyError ||
+    error instanceof StorageError;
   console.error(known ? error.message : error);
   process.exit(1);
 });

@@ -18,6 +18,7 @@ import { backfillRideLifeFlags } from '@/server/pivot-life/flags';
 import { numberRideFindings } from '@/server/findings/findings';
 import { ensureQueueFresh, queueToday } from '@/server/queue/queue-refresh';
 import { seedDemoData } from '@/server/seed/demo';
+import { StorageError, storageOf } from '@/server/storage';
 import { startPhotoCleanup } from '@/server/sync/photo-cleanup';
 
 export type StartOptions = {
@@ -45,6 +46,10 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   restrictNewFiles();
   const config = loadConfig({ ...process.env, ...opts.env });
   const logger = opts.logger ?? createLogger(config);
+  // Photos, NDT reports and notice PDFs (STORAGE_URL): out of reach means nothing could be stored, so stop.
+  const storage = storageOf(config);
+  await storage.check();
+  logger.info({ storage: storage.description }, 'stored files are kept here');
   // One server per DATA_DIR (and none during a restore); the lock goes when the process does, however it ends.
   const privacy = makePrivateDir(config.dataDir);
   if (privacy === 'tightened')
@@ -110,7 +115,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   const deliveryLoop = startDeliveryLoop({
     db: database.db,
     mailer: mail.mailer,
-    dataDir: config.dataDir,
+    storage,
     logger,
   });
   // Invitations and reset links queued before a restart go out now; new ones as they are queued.
@@ -118,7 +123,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
   const reminderJob = startReminderJob({ db: database.db, appUrl: config.appUrl, logger });
   const photoCleanup = startPhotoCleanup({
     db: database.db,
-    dataDir: config.dataDir,
+    storage,
     graceDays: config.photoGraceDays,
     logger,
   });
@@ -126,7 +131,7 @@ export async function startServer(opts: StartOptions = {}): Promise<RunningServe
     config.backupIntervalSeconds > 0
       ? startBackupJob({
           sqlite: database.sqlite,
-          dataDir: config.dataDir,
+          storage,
           backupDir: config.backupDir,
           intervalMs: config.backupIntervalSeconds * 1000,
           keep: config.backupKeep,
@@ -209,7 +214,7 @@ if (require.main === module) {
   // Fatal lines are written whatever LOG_LEVEL says, so the default level does for this logger.
   exitOnCrash(createLogger({ logLevel: 'info' }));
   startServer().catch((error: unknown) => {
-    if (error instanceof ConfigError || error instanceof DataDirBusyError) {
+    if (error instanceof ConfigError || error instanceof DataDirBusyError || error instanceof StorageError) {
       console.error(error.message);
     } else {
       console.error('Pivotwatch could not start:', error);

@@ -1,18 +1,19 @@
 /**
  * Taking a backup while the server runs: the database through SQLite's online backup API (a consistent
- * copy, taken in steps so requests carry on), then the stored files. Photos and NDT reports never change
- * once written (their name is their SHA-256), so a file the previous backup holds is hard-linked from it
- * and only new ones are copied: fourteen daily backups cost little more than one.
+ * copy, taken in steps so requests carry on), then the stored files, read through the storage
+ * (server/storage: the disk or S3, whichever STORAGE_URL names) into the backup folder. Photos and NDT
+ * reports never change once written (their name is their SHA-256), so a file the previous backup holds is
+ * hard-linked from it and only new ones are copied: fourteen daily backups cost little more than one.
  */
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
 import Database from 'better-sqlite3';
 
 import { databaseFileName, migrationState } from '@/server/db';
-import { TEMP_SUFFIX } from '@/server/files';
 import type { Logger } from '@/server/logger';
+import type { ObjectStorage } from '@/server/storage';
 import {
   backupName,
   contentDirs,
@@ -29,7 +30,8 @@ import {
 export type BackupOptions = {
   /** The server's open connection (or any connection to DATA_DIR's database). */
   sqlite: Database.Database;
-  dataDir: string;
+  /** Where the stored files are (the server's storage). */
+  storage: ObjectStorage;
   backupDir: string;
   kind: Exclude<BackupKind, 'pre-migration'>;
   /** How many scheduled or manual backups to keep after this one. */
@@ -64,27 +66,14 @@ function previousFiles(backupDir: string): { dir: string; byPath: Map<string, Ma
   return { dir: last.dir, byPath: new Map(last.manifest.files.map((f) => [f.path, f])) };
 }
 
-async function storedFilesOf(dataDir: string, dir: string): Promise<string[]> {
-  try {
-    const names = await fs.promises.readdir(path.join(dataDir, dir), { withFileTypes: true });
-    // Temporary names are uploads in progress or left by a crash; their row was never written.
-    return names
-      .filter((d) => d.isFile() && !d.name.startsWith('.') && !d.name.endsWith(TEMP_SUFFIX))
-      .map((d) => d.name)
-      .sort();
-  } catch {
-    return [];
-  }
-}
-
-/** Links (or copies) every stored file into `temp`; returns their manifest entries. */
-async function backUpStoredFiles(dataDir: string, backupDir: string, temp: string) {
+/** Reads (or links) every stored file into `temp`; returns their manifest entries. */
+async function backUpStoredFiles(storage: ObjectStorage, backupDir: string, temp: string) {
   const previous = previousFiles(backupDir);
   const files: ManifestFile[] = [];
   let linked = 0;
   let copied = 0;
   for (const dir of contentDirs) {
-    const names = await storedFilesOf(dataDir, dir);
+    const names = await storage.list(dir);
     if (names.length > 0) await fs.promises.mkdir(path.join(temp, dir), { mode: 0o700 });
     for (const name of names) {
       const rel = `${dir}/${name}`;
@@ -100,16 +89,15 @@ async function backUpStoredFiles(dataDir: string, backupDir: string, temp: strin
           // Gone from the previous backup, or links not possible there: copy instead.
         }
       }
-      try {
-        await fs.promises.copyFile(path.join(dataDir, dir, name), target, fs.constants.COPYFILE_FICLONE);
-      } catch (error) {
-        // Removed since the listing (the cleanup of unreferenced photos): it is not part of this backup.
-        if ((error as { code?: string }).code === 'ENOENT') continue;
-        throw error;
-      }
-      await fs.promises.chmod(target, 0o600);
-      const { size } = await fs.promises.stat(target);
-      files.push({ path: rel, bytes: size, sha256: await sha256OfFile(target) });
+      const bytes = await storage.get(rel);
+      // Removed since the listing (the cleanup of unreferenced photos): it is not part of this backup.
+      if (!bytes) continue;
+      await fs.promises.writeFile(target, bytes, { mode: 0o600, flag: 'wx' });
+      files.push({
+        path: rel,
+        bytes: bytes.length,
+        sha256: createHash('sha256').update(bytes).digest('hex'),
+      });
       copied++;
     }
   }
@@ -172,9 +160,9 @@ export async function createBackup(opts: BackupOptions): Promise<BackupResult> {
       bytes: (await fs.promises.stat(dbCopy)).size,
       sha256: await sha256OfFile(dbCopy),
     };
-    // Listed after the database copy: a store writes the file before its row, so every file a row in the
-    // copy names is on disk by now.
-    const stored = await backUpStoredFiles(opts.dataDir, opts.backupDir, temp);
+    // Listed after the database copy: a store writes the bytes before its row, so every file a row in the
+    // copy names is in the storage by now.
+    const stored = await backUpStoredFiles(opts.storage, opts.backupDir, temp);
     const manifest: BackupManifest = {
       format: 'pivotwatch-backup',
       version: 1,

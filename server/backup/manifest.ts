@@ -1,6 +1,6 @@
 /**
  * What a backup is on disk: one directory per backup under BACKUP_DIR, holding the database copy, the
- * stored files (photos and NDT reports) and `manifest.json` listing every file with its size and SHA-256.
+ * stored files (photos and NDT reports, from whichever storage STORAGE_URL names) and `manifest.json` listing every file with its size and SHA-256.
  * A directory appears under its final name only whole (built under a dot-name, then renamed), so a
  * directory with a name and a manifest is a finished backup; the restore still checks every byte.
  */
@@ -11,15 +11,16 @@ import path from 'node:path';
 import { z } from 'zod';
 
 import { databaseFileName } from '@/server/db';
+import { storedFolders } from '@/server/storage';
 
 export const manifestName = 'manifest.json';
 
 /**
- * The stored-file folders of DATA_DIR, kept by content (the file name is the SHA-256 of its bytes), so a
- * file never changes once written and a backup links or copies each one once. Must match the stores in
- * server/sync/photo-store.ts and server/pivot-life/ndt-report-store.ts (a test checks it).
+ * The storage folders kept by content (the file name is the SHA-256 of its bytes), so a file never changes
+ * once written and a backup links or copies each one once: the folders of the photo and NDT report stores
+ * (server/storage). Cached notice PDFs are not backed up; they are drawn again when asked for.
  */
-export const contentDirs = ['photos', 'ndt-reports'] as const;
+export const contentDirs = [storedFolders.photos, storedFolders.ndtReports] as const;
 
 export const backupKinds = ['scheduled', 'manual', 'pre-migration'] as const;
 export type BackupKind = (typeof backupKinds)[number];

@@ -1,10 +1,12 @@
 /**
  * Putting a backup back into DATA_DIR, with the server stopped. Nothing is trusted before it is checked:
  * every file against the manifest (size and SHA-256), the database copy with `PRAGMA integrity_check`, and
- * its schema against this code's migrations (a backup from newer code would not run here). The database
- * being replaced is moved aside, never deleted; stored files are only ever added, since a file name is its
- * content.
+ * its schema against this code's migrations (a backup from newer code would not run here). Stored files go
+ * back first, through the storage (server/storage: the disk or S3), and the database only after them, so
+ * no restored row names bytes the storage lacks. The database being replaced is moved aside, never
+ * deleted; stored files are only ever added, since a file name is its content.
  */
+import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -19,6 +21,7 @@ import {
   type BackupManifest,
 } from '@/server/backup/manifest';
 import { lockDataDir } from '@/server/backup/server-lock';
+import type { ObjectStorage } from '@/server/storage';
 
 export class RestoreError extends Error {
   constructor(message: string) {
@@ -102,7 +105,7 @@ export type RestoreResult = {
   name: string;
   /** Where the replaced database (and its WAL files) now are; null when DATA_DIR had none. */
   setAside: string | null;
-  /** Stored files written (missing or different in DATA_DIR). */
+  /** Stored files written (missing or different in the storage). */
   filesRestored: number;
 };
 
@@ -121,6 +124,8 @@ export function findBackup(backupDir: string, which: string) {
  */
 export async function restoreBackup(opts: {
   dataDir: string;
+  /** Where the stored files go back (the server's storage, as STORAGE_URL names it). */
+  storage: ObjectStorage;
   backupDir: string;
   which: string;
   now?: Date;
@@ -137,6 +142,16 @@ export async function restoreBackup(opts: {
       );
     }
 
+    // Stored files first: when the database arrives, every row it has names bytes already stored.
+    let filesRestored = 0;
+    for (const f of manifest.files) {
+      if (f.path === databaseFileName) continue;
+      const held = await opts.storage.get(f.path);
+      if (held?.length === f.bytes && createHash('sha256').update(held).digest('hex') === f.sha256) continue;
+      await opts.storage.put(f.path, await fs.promises.readFile(path.join(backup.dir, f.path)));
+      filesRestored++;
+    }
+
     // The replaced database goes aside whole, with its WAL (which may hold its latest commits).
     const live = path.join(opts.dataDir, databaseFileName);
     const present = [live, `${live}-wal`, `${live}-shm`].filter((f) => fs.existsSync(f));
@@ -151,17 +166,6 @@ export async function restoreBackup(opts: {
       for (const f of present) await fs.promises.rename(f, path.join(setAside, path.basename(f)));
     }
     await copyWhole(path.join(backup.dir, databaseFileName), live);
-
-    let filesRestored = 0;
-    for (const f of manifest.files) {
-      if (f.path === databaseFileName) continue;
-      const target = path.join(opts.dataDir, f.path);
-      const stat = fs.statSync(target, { throwIfNoEntry: false });
-      if (stat?.size === f.bytes && (await sha256OfFile(target)) === f.sha256) continue;
-      await fs.promises.mkdir(path.dirname(target), { recursive: true, mode: 0o700 });
-      await copyWhole(path.join(backup.dir, f.path), target);
-      filesRestored++;
-    }
     return { name: backup.name, setAside, filesRestored };
   } finally {
     lock.release();

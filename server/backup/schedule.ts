@@ -6,12 +6,13 @@
 import type Database from 'better-sqlite3';
 
 import type { Logger } from '@/server/logger';
+import type { ObjectStorage } from '@/server/storage';
 import { createBackup, type BackupResult } from '@/server/backup/create';
 import { listBackups } from '@/server/backup/manifest';
 
 export type BackupJobOptions = {
   sqlite: Database.Database;
-  dataDir: string;
+  storage: ObjectStorage;
   backupDir: string;
   intervalMs: number;
   keep: number;
@@ -55,7 +56,7 @@ export function startBackupJob(opts: BackupJobOptions): BackupJob {
     while (running) await running.catch(() => undefined);
     running = createBackup({
       sqlite: opts.sqlite,
-      dataDir: opts.dataDir,
+      storage: opts.storage,
       backupDir: opts.backupDir,
       kind: 'scheduled',
       keep: opts.keep,

@@ -8,7 +8,6 @@
  * than risk an operator never hearing of a stop-now finding. A notice is rendered to PDF when it is sent
  * (the document is frozen, and the rendering deterministic, so every copy is the same bytes).
  */
-import fs from 'node:fs';
 
 import { and, asc, eq } from 'drizzle-orm';
 
@@ -33,13 +32,14 @@ import { renderNoticePdf } from '@/server/notices/pdf';
 import { cachedNoticePdf } from '@/server/notices/pdf/cache';
 import { pivotLifeHtml, pivotLifeTextLines } from '@/server/notices/pivot-life-mail';
 import { escapeHtml, htmlMailStart, noticeSubject, rideStatusWords } from '@/server/notices/words';
-import { photoPathOf } from '@/server/sync/photo-store';
+import type { ObjectStorage } from '@/server/storage';
+import { readPhoto } from '@/server/sync/photo-store';
 
 type DeliveryDeps = {
   db: Db;
   mailer: Mailer;
-  /** DATA_DIR: where photo bytes live, for the PDF's thumbnails. */
-  dataDir: string;
+  /** Where photo bytes live (for the PDF's thumbnails) and notice PDFs are cached (server/storage). */
+  storage: ObjectStorage;
   logger?: Logger;
   /** Paper of attached PDFs for notices issued before their paper was frozen with them; A4 unless set. */
   pageSize?: 'A4' | 'LETTER';
@@ -166,13 +166,13 @@ export function noticeEmail(doc: NoticeDocument): Pick<OutgoingMail, 'subject' |
 }
 
 /** Photo bytes for the PDF's thumbnails; null (printed as "not available") when the server lacks them. */
-function photoLoader(db: Db, dataDir: string) {
+function photoLoader(db: Db, storage: ObjectStorage) {
   return async (sha256: string): Promise<Buffer | null> => {
     if (!/^[0-9a-f]{64}$/.test(sha256)) return null;
     const known = db.select({ sha256: photos.sha256 }).from(photos).where(eq(photos.sha256, sha256)).get();
     if (!known) return null;
     try {
-      return await fs.promises.readFile(photoPathOf(dataDir, sha256));
+      return await readPhoto(storage, sha256);
     } catch {
       return null;
     }
@@ -180,8 +180,13 @@ function photoLoader(db: Db, dataDir: string) {
 }
 
 /** The notice's PDF, as attached to its e-mails and served at /api/notices/:id/pdf. */
-export function noticePdf(db: Db, dataDir: string, doc: NoticeDocument, pageSize: 'A4' | 'LETTER' = 'A4') {
-  return renderNoticePdf(doc, { pageSize, loadPhoto: photoLoader(db, dataDir) });
+export function noticePdf(
+  db: Db,
+  storage: ObjectStorage,
+  doc: NoticeDocument,
+  pageSize: 'A4' | 'LETTER' = 'A4',
+) {
+  return renderNoticePdf(doc, { pageSize, loadPhoto: photoLoader(db, storage) });
 }
 
 // ——— the worker ———
@@ -210,9 +215,9 @@ async function mailFor(
       const pageSize = notice.document.paper ?? deps.pageSize ?? 'A4';
       const { pdf } = await cachedNoticePdf(
         deps.db,
-        deps.dataDir,
+        deps.storage,
         { id: noticeId, document: notice.document, pageSize },
-        () => noticePdf(deps.db, deps.dataDir, notice.document, pageSize),
+        () => noticePdf(deps.db, deps.storage, notice.document, pageSize),
       );
       return { doc: notice.document, pdf };
     })();

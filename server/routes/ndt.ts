@@ -20,11 +20,12 @@ import {
   findNdtReport,
   isPdf,
   MAX_NDT_REPORT_BYTES,
-  ndtReportPathOf,
+  readNdtReport,
   storeNdtReport,
 } from '@/server/pivot-life/ndt-report-store';
 import { queueDay } from '@/server/queue/queue-refresh';
 import { mustFindRide } from '@/server/registry/rides';
+import { storageOf } from '@/server/storage';
 
 const oneRide = validate({ params: idParamsSchema });
 const addInput = validate({ params: idParamsSchema, body: ndtRecordInputSchema });
@@ -130,38 +131,26 @@ export function ndtRouter(deps: ApiDeps): Router {
     assertContentHash(body, sha256);
     const { stored } = await storeNdtReport(
       deps.db,
-      deps.config.dataDir,
+      storageOf(deps.config),
       { sha256, bytes: body, userId: currentUser(res).id },
       nowOf(deps),
     );
     res.status(stored ? 201 : 200).json({ stored, sha256 });
   });
 
-  router.get('/ndt-reports/:sha256', auth, byHash, (_req, res, next) => {
+  router.get('/ndt-reports/:sha256', auth, byHash, async (_req, res) => {
     const { sha256 } = byHash.params(res);
     const scope = companyScope(currentUser(res));
     if (scope !== null && !operatorMaySeeReport(deps.db, scope, sha256))
       throw forbidden('Operators see the NDT reports of their own rides.');
     if (!findNdtReport(deps.db, sha256)) throw notFound('The server has no NDT report with this SHA-256.');
+    const bytes = await readNdtReport(storageOf(deps.config), sha256);
+    if (!bytes) throw notFound('The report is recorded but its file is missing on the server.');
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `inline; filename="ndt-report-${sha256.slice(0, 12)}.pdf"`);
     // Private: behind sign-in. Immutable: the address is the content's own hash.
     res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
-    res.sendFile(
-      ndtReportPathOf(deps.config.dataDir, sha256),
-      { cacheControl: false, lastModified: false },
-      (err) => {
-        if (!err) return;
-        if (res.headersSent) {
-          next(err);
-          return;
-        }
-        res.removeHeader('Cache-Control');
-        res.removeHeader('Content-Type');
-        res.removeHeader('Content-Disposition');
-        next(notFound('The report is recorded but its file is missing on the server.'));
-      },
-    );
+    res.send(bytes);
   });
 
   return router;

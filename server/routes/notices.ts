@@ -20,6 +20,7 @@ import { createNoticePdfPool, renderNoticePdfOffThread } from '@/server/notices/
 import { reportCorrectiveAction } from '@/server/notices/corrective-action';
 import { acknowledgeNotice, getNotice, listNotices, mustSeeNotice } from '@/server/notices/read';
 import { closeFinding, reopenFinding } from '@/server/review/finding-verdict';
+import { storageOf } from '@/server/storage';
 
 const id = z.string().trim().min(1).max(64);
 const byId = validate({ params: z.object({ id }) });
@@ -104,9 +105,10 @@ export function noticesRouter(deps: ApiDeps): Router {
   router.get('/notices/:id/pdf', signedIn, pdfInput, async (_req, res) => {
     const { id, document } = mustSeeNotice(deps.db, currentUser(res), pdfInput.params(res).id);
     const pageSize = pdfInput.query(res).size ?? noticePaperOf(document);
-    // Drawn once per notice, paper size and content in a worker thread, then read from disk.
-    const { pdf } = await cachedNoticePdf(deps.db, deps.config.dataDir, { id, document, pageSize }, () =>
-      renderNoticePdfOffThread(pdfPool, deps.db, deps.config.dataDir, document, pageSize),
+    // Drawn once per notice, paper size and content in a worker thread, then read from the storage.
+    const storage = storageOf(deps.config);
+    const { pdf } = await cachedNoticePdf(deps.db, storage, { id, document, pageSize }, () =>
+      renderNoticePdfOffThread(pdfPool, deps.db, storage, document, pageSize),
     );
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `inline; filename="${safeFileName(document.reference)}.pdf"`);

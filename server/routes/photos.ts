@@ -9,11 +9,12 @@ import { forbidden, HttpError, notFound, sendError } from '@/server/http/errors'
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { validate } from '@/server/http/validate';
 import { operatorMaySeePhoto } from '@/server/notices/photo-access';
+import { storageOf } from '@/server/storage';
 import { photoQuotaRefusal, type QuotaExceeded } from '@/server/sync/photo-quota';
 import {
   findPhoto,
   MAX_PHOTO_BYTES,
-  photoPathOf,
+  readPhoto,
   sniffImage,
   storePhoto,
   sweepPartialPhotos,
@@ -75,7 +76,10 @@ const refuse = (res: Response, refusal: QuotaExceeded): never => {
 export function photosRouter(deps: ApiDeps): Router {
   const router = Router();
   const signedIn = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin', 'operator')];
-  sweepPartialPhotos(deps.config.dataDir);
+  const storage = storageOf(deps.config);
+  sweepPartialPhotos(storage).catch((error: unknown) =>
+    deps.logger.warn({ err: error }, 'could not sweep interrupted photo uploads'),
+  );
 
   const quota = deps.config.photoQuota;
   // Every attempt counts here, refused ones too (each may be 8 MB to read and hash); kept in memory.
@@ -142,14 +146,14 @@ export function photosRouter(deps: ApiDeps): Router {
     if (refusal) refuse(res, refusal);
     const { stored } = await storePhoto(
       deps.db,
-      deps.config.dataDir,
+      storage,
       { sha256, mime, bytes: body, userId: currentUser(res).id },
       nowOf(deps),
     );
     res.status(stored ? 201 : 200).json({ stored, sha256 });
   });
 
-  router.get('/photos/:sha256', ...signedIn, byHash, (_req, res, next) => {
+  router.get('/photos/:sha256', ...signedIn, byHash, async (_req, res) => {
     const { sha256 } = byHash.params(res);
     const scope = companyScope(currentUser(res));
     if (scope !== null && !operatorMaySeePhoto(deps.db, scope, sha256))
@@ -159,23 +163,12 @@ export function photosRouter(deps: ApiDeps): Router {
     const photo = findPhoto(deps.db, sha256);
     if (!photo)
       throw notFound('The server has no photo with this SHA-256 (it may not have been uploaded yet).');
+    const bytes = await readPhoto(storage, sha256);
+    if (!bytes) throw notFound('The photo is recorded but its file is missing on the server.');
     res.setHeader('Content-Type', photo.mime);
     // Private: the bytes are behind sign-in. Immutable: the address is the content's own hash.
     res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
-    res.sendFile(
-      photoPathOf(deps.config.dataDir, sha256),
-      { cacheControl: false, lastModified: false },
-      (err) => {
-        if (!err) return;
-        if (res.headersSent) {
-          next(err);
-          return;
-        }
-        res.removeHeader('Cache-Control');
-        res.removeHeader('Content-Type');
-        next(notFound('The photo is recorded but its file is missing on the server.'));
-      },
-    );
+    res.send(bytes);
   });
 
   return router;

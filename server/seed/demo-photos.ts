@@ -9,7 +9,8 @@ import path from 'node:path';
 
 import type { Db } from '@/server/db';
 import { repoRoot } from '@/server/paths';
-import { findPhoto, photoPathOf, storePhoto } from '@/server/sync/photo-store';
+import type { ObjectStorage } from '@/server/storage';
+import { storePhoto } from '@/server/sync/photo-store';
 
 export const demoPhotoFiles = [
   { name: 'tidebreaker-sub-arm-pin' },
@@ -41,14 +42,18 @@ export function demoPhoto(name: DemoPhotoName): DemoPhoto {
  * Stores the bytes of every demo photo that a stored inspection refers to and the server does not have
  * yet, as if the phone had uploaded them. Returns how many it stored.
  */
-export async function storeDemoPhotos(db: Db, dataDir: string, userId: string, now: Date): Promise<number> {
+export async function storeDemoPhotos(
+  db: Db,
+  storage: ObjectStorage,
+  userId: string,
+  now: Date,
+): Promise<number> {
   let stored = 0;
   for (const { name } of demoPhotoFiles) {
     const photo = demoPhoto(name);
-    if (findPhoto(db, photo.sha256) && fs.existsSync(photoPathOf(dataDir, photo.sha256))) continue;
     const result = await storePhoto(
       db,
-      dataDir,
+      storage,
       { sha256: photo.sha256, mime: 'image/jpeg', bytes: photo.bytes, userId },
       now,
     );

@@ -25,6 +25,7 @@ import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { storeDemoPhotos } from '@/server/seed/demo-photos';
+import { diskStorage, storageOf } from '@/server/storage';
 import { topUpDemoNdt } from '@/server/seed/demo-ndt';
 import { topUpDemoRunningLog } from '@/server/seed/demo-running-log';
 import { demoSchedules } from '@/server/seed/demo-schedules';
@@ -265,11 +266,11 @@ type SeedOptions = {
  * why) when users exist or when running in production, where demo accounts with a published password
  * would be an open door. A demo database seeded by an earlier release gets the parts added since (design
  * data, inspection history…) through `topUpDemoData`, which only fills what is missing. Photo bytes of the
- * history are stored under `config.dataDir` when it is given.
+ * history are stored in the configured storage (under `config.dataDir` on the disk) when it is given.
  */
 export async function seedDemoData(
   db: Db,
-  config: Pick<Config, 'nodeEnv'> & Partial<Pick<Config, 'dataDir'>>,
+  config: Pick<Config, 'nodeEnv'> & Partial<Pick<Config, 'dataDir' | 'storage'>>,
   opts: SeedOptions = {},
 ): Promise<SeedResult> {
   if (config.nodeEnv === 'production') return 'skipped_production';
@@ -359,10 +360,13 @@ export async function seedDemoData(
 }
 
 /** The history's photo bytes, as the demo inspector's phone would have uploaded them. */
-async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir'>>, now: Date) {
-  if (!config.dataDir) return;
+async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir' | 'storage'>>, now: Date) {
+  const { dataDir, storage } = config;
+  if (!dataDir) return;
   const inspector = db.select({ id: users.id }).from(users).where(eq(users.email, demoInspectorEmail)).get();
-  if (inspector) await storeDemoPhotos(db, config.dataDir, inspector.id, now);
+  // Into the configured storage (STORAGE_URL), or the disk under DATA_DIR when only that is given.
+  const into = storage ? storageOf({ dataDir, storage }) : diskStorage(dataDir);
+  if (inspector) await storeDemoPhotos(db, into, inspector.id, now);
 }
 
 /**

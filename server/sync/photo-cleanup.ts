@@ -6,8 +6,6 @@
  * frozen document. The grace period (PHOTO_GRACE_DAYS) covers the legitimate order "bytes first, then
  * the record or report that uses them" with days to spare.
  */
-import fs from 'node:fs';
-
 import { Cron } from 'croner';
 import { eq, sql } from 'drizzle-orm';
 
@@ -16,7 +14,8 @@ import { correctiveActions, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
 import type { Db } from '@/server/db';
 import type { Logger } from '@/server/logger';
-import { photoPathOf } from '@/server/sync/photo-store';
+import type { ObjectStorage } from '@/server/storage';
+import { photoKeyOf, withPhotoLock } from '@/server/sync/photo-store';
 
 const DAY_MS = 86_400_000;
 
@@ -39,28 +38,32 @@ export function unreferencedPhotos(db: Pick<Db, 'all'>, cutoff: Date): string[] 
 }
 
 /**
- * Removes the photos stored more than `graceDays` before `now` that nothing names: the row, then the file.
- * Each is checked again and removed in one synchronous step, so no request can attach it in between.
+ * Removes the photos stored more than `graceDays` before `now` that nothing names: the row, then the
+ * stored bytes. Each row is checked again and deleted in one synchronous step, so no request can attach
+ * it in between, and the bytes go before another upload of them can store them again (withPhotoLock).
  */
-export function removeUnreferencedPhotos(
+export async function removeUnreferencedPhotos(
   db: Db,
-  dataDir: string,
+  storage: ObjectStorage,
   opts: { now: Date; graceDays: number },
-): string[] {
+): Promise<string[]> {
   const cutoff = new Date(opts.now.getTime() - opts.graceDays * DAY_MS);
   const removed: string[] = [];
   for (const sha256 of unreferencedPhotos(db, cutoff)) {
-    const gone = db.transaction((tx) => {
-      const still = tx.get<{ ok: number } | undefined>(
-        sql`SELECT 1 AS ok FROM ${photos} p WHERE p.sha256 = ${sha256} AND p.stored_at < ${cutoff.toISOString()} AND ${unreferenced}`,
-      );
-      if (!still) return false;
-      tx.delete(photos).where(eq(photos.sha256, sha256)).run();
-      return true;
+    // Under the photo's lock: an upload of the same bytes waits until they are gone, then stores them anew.
+    const gone = await withPhotoLock(sha256, async () => {
+      const deleted = db.transaction((tx) => {
+        const still = tx.get<{ ok: number } | undefined>(
+          sql`SELECT 1 AS ok FROM ${photos} p WHERE p.sha256 = ${sha256} AND p.stored_at < ${cutoff.toISOString()} AND ${unreferenced}`,
+        );
+        if (!still) return false;
+        tx.delete(photos).where(eq(photos.sha256, sha256)).run();
+        return true;
+      });
+      if (deleted) await storage.remove(photoKeyOf(sha256));
+      return deleted;
     });
-    if (!gone) continue;
-    fs.rmSync(photoPathOf(dataDir, sha256), { force: true });
-    removed.push(sha256);
+    if (gone) removed.push(sha256);
   }
   return removed;
 }
@@ -70,14 +73,14 @@ export type PhotoCleanupJob = { stop: () => void };
 /** Runs the clean-up every day at 03:30 UTC (a quiet hour on most sites). */
 export function startPhotoCleanup(deps: {
   db: Db;
-  dataDir: string;
+  storage: ObjectStorage;
   graceDays: number;
   logger?: Logger;
   schedule?: string;
 }): PhotoCleanupJob {
-  const job = new Cron(deps.schedule ?? '30 3 * * *', { timezone: 'UTC', protect: true }, () => {
+  const job = new Cron(deps.schedule ?? '30 3 * * *', { timezone: 'UTC', protect: true }, async () => {
     try {
-      const removed = removeUnreferencedPhotos(deps.db, deps.dataDir, {
+      const removed = await removeUnreferencedPhotos(deps.db, deps.storage, {
         now: new Date(),
         graceDays: deps.graceDays,
       });

@@ -1,16 +1,16 @@
 /**
- * Photo bytes on the server's disk, one file per content: DATA_DIR/photos/<sha256>. A file appears only
- * whole (written to a temporary name, flushed, then renamed), and its `photos` row is written after it,
- * so a row always means the bytes are there; re-sent bytes find the row and are not written again.
+ * Photo bytes in the server's storage (server/storage), one object per content: `photos/<sha256>` (on the
+ * disk DATA_DIR/photos/<sha256>). An object appears only whole, and its `photos` row is written after it
+ * is durably stored, so a row always means the bytes are there; re-sent bytes find the row and are not
+ * written again.
  */
-import fs from 'node:fs';
 import path from 'node:path';
 
 import { eq } from 'drizzle-orm';
 
 import { photos, type photoMimes } from '@/db/server/inspections';
 import type { Db } from '@/server/db';
-import { TEMP_SUFFIX, writeWhole } from '@/server/files';
+import { storedFolders, type ObjectStorage } from '@/server/storage';
 
 type PhotoMime = (typeof photoMimes)[number];
 
@@ -31,32 +31,37 @@ export function sniffImage(bytes: Uint8Array): PhotoMime | null {
   return null;
 }
 
-export const photosDirOf = (dataDir: string) => path.join(dataDir, 'photos');
+/** The photo's key in the storage. */
+export const photoKeyOf = (sha256: string) => `${storedFolders.photos}/${sha256}`;
+/** Where the disk driver keeps photos when STORAGE_URL is unset (the layout of every earlier release). */
+export const photosDirOf = (dataDir: string) => path.join(dataDir, storedFolders.photos);
 export const photoPathOf = (dataDir: string, sha256: string) => path.join(photosDirOf(dataDir), sha256);
 
 /** Removes temporary files an interrupted upload left behind (older than an hour, so never a live one). */
-export function sweepPartialPhotos(dataDir: string, now = Date.now()): number {
-  const dir = photosDirOf(dataDir);
-  let removed = 0;
-  let names: string[];
+export function sweepPartialPhotos(storage: ObjectStorage, now = Date.now()): Promise<number> {
+  return storage.sweepPartial(storedFolders.photos, now);
+}
+
+/** The photo's bytes, or null when the storage does not hold them. */
+export function readPhoto(storage: ObjectStorage, sha256: string): Promise<Buffer | null> {
+  return storage.get(photoKeyOf(sha256));
+}
+
+const busy = new Map<string, Promise<unknown>>();
+
+/**
+ * Runs `fn` alone for this photo in this process: a store and the clean-up's removal of the same bytes
+ * never interleave (the removal's await could otherwise delete bytes an upload had just stored again).
+ */
+export async function withPhotoLock<T>(sha256: string, fn: () => Promise<T>): Promise<T> {
+  const run = (busy.get(sha256) ?? Promise.resolve()).catch(() => undefined).then(fn);
+  const tail = run.catch(() => undefined);
+  busy.set(sha256, tail);
   try {
-    names = fs.readdirSync(dir);
-  } catch {
-    return 0;
+    return await run;
+  } finally {
+    if (busy.get(sha256) === tail) busy.delete(sha256);
   }
-  for (const name of names) {
-    if (!name.endsWith(TEMP_SUFFIX)) continue;
-    const file = path.join(dir, name);
-    try {
-      if (now - fs.statSync(file).mtimeMs > 3_600_000) {
-        fs.rmSync(file, { force: true });
-        removed++;
-      }
-    } catch {
-      // Gone already (another sweep); nothing to do.
-    }
-  }
-  return removed;
 }
 
 export function findPhoto(db: Pick<Db, 'select'>, sha256: string) {
@@ -69,26 +74,27 @@ export function findPhoto(db: Pick<Db, 'select'>, sha256: string) {
  */
 export async function storePhoto(
   db: Db,
-  dataDir: string,
+  storage: ObjectStorage,
   input: { sha256: string; mime: PhotoMime; bytes: Uint8Array; userId: string },
   now: Date = new Date(),
 ): Promise<{ stored: boolean }> {
-  const file = photoPathOf(dataDir, input.sha256);
-  const known = findPhoto(db, input.sha256);
-  if (known && fs.existsSync(file)) return { stored: false };
-  // Two uploads of the same bytes at once both write a whole file under the same name; the row is
-  // inserted once, and only the upload whose insert took effect reports that it stored the photo.
-  await writeWhole(file, input.bytes);
-  const inserted = db
-    .insert(photos)
-    .values({
-      sha256: input.sha256,
-      mime: input.mime,
-      bytes: input.bytes.length,
-      storedAt: now.toISOString(),
-      uploadedBy: input.userId,
-    })
-    .onConflictDoNothing()
-    .run();
-  return { stored: inserted.changes > 0 || known !== null };
+  return withPhotoLock(input.sha256, async () => {
+    const key = photoKeyOf(input.sha256);
+    const known = findPhoto(db, input.sha256);
+    if (known && (await storage.has(key))) return { stored: false };
+    // One upload of the same bytes at a time (withPhotoLock): the first stores them, the next finds them.
+    await storage.put(key, input.bytes);
+    const inserted = db
+      .insert(photos)
+      .values({
+        sha256: input.sha256,
+        mime: input.mime,
+        bytes: input.bytes.length,
+        storedAt: now.toISOString(),
+        uploadedBy: input.userId,
+      })
+      .onConflictDoNothing()
+      .run();
+    return { stored: inserted.changes > 0 || known !== null };
+  });
 }

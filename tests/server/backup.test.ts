@@ -29,6 +29,7 @@ import { serverMigrationsDir } from '@/server/paths';
 import { ndtReportsDirOf, storeNdtReport } from '@/server/pivot-life/ndt-report-store';
 import { photosDirOf, storePhoto } from '@/server/sync/photo-store';
 import { seedDemoData } from '@/server/seed/demo';
+import { diskStorage } from '@/server/storage';
 
 import { makeTempDir } from './helpers';
 import { imageBytes } from './sync-fixtures';
@@ -104,10 +105,20 @@ async function seededDataDir() {
   const userId = (database.sqlite.prepare('SELECT id FROM users LIMIT 1').get() as { id: string }).id;
   for (let i = 0; i < 4; i++) {
     const bytes = imageBytes(i, 'jpeg', 3_000 + i);
-    await storePhoto(database.db, dataDir, { sha256: sha256(bytes), mime: 'image/jpeg', bytes, userId });
+    await storePhoto(database.db, diskStorage(dataDir), {
+      sha256: sha256(bytes),
+      mime: 'image/jpeg',
+      bytes,
+      userId,
+    });
   }
   const pdf = Buffer.from('%PDF-1.4\n% an invented NDT report\n%%EOF\n');
-  await storeNdtReport(database.db, dataDir, { sha256: sha256(pdf), bytes: pdf, userId }, new Date());
+  await storeNdtReport(
+    database.db,
+    diskStorage(dataDir),
+    { sha256: sha256(pdf), bytes: pdf, userId },
+    new Date(),
+  );
   return { dataDir, database, userId };
 }
 
@@ -124,7 +135,13 @@ test('file hashes match the published SHA-256 of "abc" (FIPS 180-2, B.1)', async
 test('backup → wipe → restore gives the same rows and the same stored files, byte for byte', async () => {
   const { dataDir, database } = await seededDataDir();
   const backupDir = path.join(tempDir(), 'backups');
-  const made = await createBackup({ sqlite: database.sqlite, dataDir, backupDir, kind: 'manual', keep: 14 });
+  const made = await createBackup({
+    sqlite: database.sqlite,
+    storage: diskStorage(dataDir),
+    backupDir,
+    kind: 'manual',
+    keep: 14,
+  });
   expect(made.manifest.files).toHaveLength(1 + 4 + 1);
   expect(made.manifest.migration).toEqual({
     last: migrationState(database.sqlite).last,
@@ -139,7 +156,7 @@ test('backup → wipe → restore gives the same rows and the same stored files,
   expect(filesBefore.size).toBe(5);
 
   fs.rmSync(dataDir, { recursive: true, force: true });
-  const result = await restoreBackup({ dataDir, backupDir, which: 'latest' });
+  const result = await restoreBackup({ dataDir, storage: diskStorage(dataDir), backupDir, which: 'latest' });
   expect(result).toMatchObject({ name: made.name, setAside: null, filesRestored: 5 });
 
   const after = dump(path.join(dataDir, databaseFileName));
@@ -163,10 +180,16 @@ test('backup → wipe → restore gives the same rows and the same stored files,
 test('a restore over a live database keeps the replaced one aside with its WAL', async () => {
   const { dataDir, database } = await seededDataDir();
   const backupDir = path.join(tempDir(), 'backups');
-  await createBackup({ sqlite: database.sqlite, dataDir, backupDir, kind: 'manual', keep: 14 });
+  await createBackup({
+    sqlite: database.sqlite,
+    storage: diskStorage(dataDir),
+    backupDir,
+    kind: 'manual',
+    keep: 14,
+  });
   database.sqlite.prepare("UPDATE users SET name = 'Only in the replaced database'").run();
   database.close();
-  const result = await restoreBackup({ dataDir, backupDir, which: 'latest' });
+  const result = await restoreBackup({ dataDir, storage: diskStorage(dataDir), backupDir, which: 'latest' });
   expect(result.setAside).not.toBeNull();
   expect(JSON.stringify(dump(path.join(result.setAside!, databaseFileName)).users)).toContain(
     'Only in the replaced database',
@@ -177,14 +200,20 @@ test('a restore over a live database keeps the replaced one aside with its WAL',
 test('a restore is refused while a server holds DATA_DIR, and for a damaged backup; nothing changes', async () => {
   const { dataDir, database } = await seededDataDir();
   const backupDir = path.join(tempDir(), 'backups');
-  const made = await createBackup({ sqlite: database.sqlite, dataDir, backupDir, kind: 'manual', keep: 14 });
+  const made = await createBackup({
+    sqlite: database.sqlite,
+    storage: diskStorage(dataDir),
+    backupDir,
+    kind: 'manual',
+    keep: 14,
+  });
   database.close();
   const dbBefore = fs.readFileSync(path.join(dataDir, databaseFileName));
 
   const lock = lockDataDir(dataDir);
-  await expect(restoreBackup({ dataDir, backupDir, which: made.name })).rejects.toThrow(
-    /Another Pivotwatch process/,
-  );
+  await expect(
+    restoreBackup({ dataDir, storage: diskStorage(dataDir), backupDir, which: made.name }),
+  ).rejects.toThrow(/Another Pivotwatch process/);
   lock.release();
 
   // One flipped byte in a stored photo: the manifest's SHA-256 no longer matches.
@@ -197,7 +226,9 @@ test('a restore is refused while a server holds DATA_DIR, and for a damaged back
   expect((await verifyBackup(made.dir)).problems).toEqual([
     `${photo.path}: content differs from the manifest`,
   ]);
-  await expect(restoreBackup({ dataDir, backupDir, which: made.name })).rejects.toThrow(/failed its checks/);
+  await expect(
+    restoreBackup({ dataDir, storage: diskStorage(dataDir), backupDir, which: made.name }),
+  ).rejects.toThrow(/failed its checks/);
   expect(fs.readFileSync(path.join(dataDir, databaseFileName)).equals(dbBefore)).toBe(true);
   expect(fs.existsSync(path.join(dataDir, 'replaced'))).toBe(false);
 });
@@ -205,7 +236,13 @@ test('a restore is refused while a server holds DATA_DIR, and for a damaged back
 test('a database copy that fails integrity_check is refused', async () => {
   const { dataDir, database } = await seededDataDir();
   const backupDir = path.join(tempDir(), 'backups');
-  const made = await createBackup({ sqlite: database.sqlite, dataDir, backupDir, kind: 'manual', keep: 14 });
+  const made = await createBackup({
+    sqlite: database.sqlite,
+    storage: diskStorage(dataDir),
+    backupDir,
+    kind: 'manual',
+    keep: 14,
+  });
   database.close();
   // Overwrite a page in the middle of the copy and make the manifest agree, so only SQLite can tell.
   const file = path.join(made.dir, databaseFileName);
@@ -230,7 +267,7 @@ test('retention keeps the newest BACKUP_KEEP; stored files are linked from the p
     made.push(
       await createBackup({
         sqlite: database.sqlite,
-        dataDir,
+        storage: diskStorage(dataDir),
         backupDir,
         kind: 'scheduled',
         keep: 3,
@@ -297,7 +334,13 @@ test('DATA_DIR is created 0700, its database and stored files 0600, backups like
   }
   expect(mode(path.join(dataDir, 'photos', 'f'.repeat(64)))).toBe(0o600);
   const backupDir = path.join(tempDir(), 'backups');
-  const made = await createBackup({ sqlite: database.sqlite, dataDir, backupDir, kind: 'manual', keep: 2 });
+  const made = await createBackup({
+    sqlite: database.sqlite,
+    storage: diskStorage(dataDir),
+    backupDir,
+    kind: 'manual',
+    keep: 2,
+  });
   database.close();
   expect(mode(backupDir)).toBe(0o700);
   expect(mode(made.dir)).toBe(0o700);
@@ -311,7 +354,7 @@ test('the job backs up when overdue, then times the next from the newest backup'
   const hour = 3_600_000;
   const job = startBackupJob({
     sqlite: database.sqlite,
-    dataDir,
+    storage: diskStorage(dataDir),
     backupDir,
     intervalMs: hour,
     keep: 3,
@@ -326,7 +369,7 @@ test('the job backs up when overdue, then times the next from the newest backup'
   // A restart soon after: the next one is due an interval after the newest, not at once.
   const again = startBackupJob({
     sqlite: database.sqlite,
-    dataDir,
+    storage: diskStorage(dataDir),
     backupDir,
     intervalMs: hour,
     keep: 3,

@@ -12,6 +12,7 @@ import { eq, sql } from 'drizzle-orm';
 import { inspectionPhotos, photos } from '@/db/server/inspections';
 import { correctiveActions, notices } from '@/db/server/notices';
 import { findings } from '@/db/server/review';
+import { storageOf } from '@/server/storage';
 import { photoPathOf } from '@/server/sync/photo-store';
 import { removeUnreferencedPhotos, startPhotoCleanup } from '@/server/sync/photo-cleanup';
 
@@ -106,7 +107,7 @@ test('only photos that nothing names and that are older than the grace period ar
     .run();
   const now = new Date(start.getTime() + 60_000);
 
-  const removed = removeUnreferencedPhotos(s.db, s.config.dataDir, { now, graceDays: 14 });
+  const removed = await removeUnreferencedPhotos(s.db, storageOf(s.config), { now, graceDays: 14 });
   expect(removed).toEqual([unusedOld]);
   expect(fs.existsSync(photoPathOf(s.config.dataDir, unusedOld))).toBe(false);
   for (const sha of [
@@ -121,9 +122,9 @@ test('only photos that nothing names and that are older than the grace period ar
     expect(kept(sha)).toBe(true);
 
   // Run again: nothing more goes. Fifteen days on, the young one has passed its grace period too.
-  expect(removeUnreferencedPhotos(s.db, s.config.dataDir, { now, graceDays: 14 })).toEqual([]);
+  expect(await removeUnreferencedPhotos(s.db, storageOf(s.config), { now, graceDays: 14 })).toEqual([]);
   const later = new Date(now.getTime() + 15 * 86_400_000);
-  expect(removeUnreferencedPhotos(s.db, s.config.dataDir, { now: later, graceDays: 14 })).toEqual([
+  expect(await removeUnreferencedPhotos(s.db, storageOf(s.config), { now: later, graceDays: 14 })).toEqual([
     unusedYoung,
   ]);
 });
@@ -134,7 +135,7 @@ test('the daily job runs the clean-up on its schedule', async () => {
   // Every second, for this test only.
   const job = startPhotoCleanup({
     db: s.db,
-    dataDir: s.config.dataDir,
+    storage: storageOf(s.config),
     graceDays: 14,
     schedule: '* * * * * *',
   });

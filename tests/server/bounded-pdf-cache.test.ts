@@ -13,6 +13,7 @@ import { notices } from '@/db/server/notices';
 import { noticePdf } from '@/server/notices/deliveries';
 import { noticePdfCacheDirOf } from '@/server/notices/pdf/cache';
 import * as offThread from '@/server/notices/pdf/render-off-thread';
+import { storageOf } from '@/server/storage';
 
 import { signInAs } from './helpers';
 import {
@@ -67,7 +68,7 @@ test('the second GET is served from the cache, byte for byte; sizes and new phot
   expect(renders).toHaveBeenCalledTimes(1);
   // Drawn in the worker thread: the same bytes as drawn in this process.
   const document = s.db.select().from(notices).where(eq(notices.id, notice.id)).get()!.document;
-  const here = await noticePdf(s.db, s.config.dataDir, document, 'A4');
+  const here = await noticePdf(s.db, storageOf(s.config), document, 'A4');
   expect(Buffer.compare(first.body as Buffer, here)).toBe(0);
   const second = await getPdf(notice.id);
   expect(renders).toHaveBeenCalledTimes(1);

@@ -11,6 +11,7 @@ import { companies } from '@/db/server/schema';
 import { CAUTION_SHORT } from '@/lib/caution-text';
 import { noticeDetailSchema, noticeListResponseSchema } from '@/features/notices/schema';
 import { retryPolicy } from '@/server/mail/retry';
+import { storageOf } from '@/server/storage';
 import {
   noticeEmail,
   processDeliveries,
@@ -175,7 +176,7 @@ test('the delivery loop sends a notice as soon as it is issued, without waiting 
   const loop = startDeliveryLoop({
     db: s.db,
     mailer: s.mailer,
-    dataDir: s.config.dataDir,
+    storage: storageOf(s.config),
     intervalMs: 3_600_000,
     now: s.now,
   });
@@ -314,7 +315,7 @@ describe('an operator company without a notice address', () => {
         .run();
       expect(s.db.transaction((tx) => requeueNotice(tx, issued.id, s.now()))).toBe(1);
       expect(
-        await processDeliveries({ db: s.db, mailer: s.mailer, dataDir: s.config.dataDir }, s.now()),
+        await processDeliveries({ db: s.db, mailer: s.mailer, storage: storageOf(s.config) }, s.now()),
       ).toMatchObject({ sent: 1 });
     } finally {
       s.db

@@ -26,6 +26,7 @@ import { createMailer, type Mailer } from '@/server/mail/mailer';
 import { processDeliveries } from '@/server/notices/deliveries';
 import { issueInspectionNotice } from '@/server/notices/issue';
 import { seedDemoData } from '@/server/seed/demo';
+import { storageOf } from '@/server/storage';
 import { analysePending } from '@/server/sync/analysis';
 
 import { makeTempDir, signInAs, userIdOf } from './helpers';
@@ -85,7 +86,7 @@ export async function makeNoticeServer(start: Date): Promise<NoticeServer> {
     setNow: (d) => {
       now = d;
     },
-    deliver: () => processDeliveries({ db: database.db, mailer, dataDir }, now),
+    deliver: () => processDeliveries({ db: database.db, mailer, storage: storageOf(config) }, now),
     putPhoto: async (email, bytes, sha256) =>
       request(app)
         .put(`/api/photos/${sha256}`)

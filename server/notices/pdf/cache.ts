@@ -1,11 +1,11 @@
 /**
- * Notice PDFs cached on disk, one per notice and paper size: DATA_DIR/cache/notice-pdfs/<notice>.<size>.
- * <key>.pdf. Rendering one takes 0.5–1.7 s of the event loop; the notice's document is frozen when it is
+ * Notice PDFs cached in the server's storage (server/storage), one per notice and paper size:
+ * `cache/notice-pdfs/<notice>.<size>.<key>.pdf` (on the disk under DATA_DIR). Rendering one takes 0.5–1.7 s of the event loop; the notice's document is frozen when it is
  * issued, so the same PDF can be served again. The key is a hash of everything the PDF prints from:
  * the document, the paper size, which of its photos the server holds (a photo uploaded after the notice
  * was issued appears in the next PDF), and the code that draws it (the renderer, its words and fonts:
- * a new version of Pivotwatch renders afresh). Files are written whole (server/files.ts), so a reader
- * never sees half a PDF; an older file for the same notice and size is removed when a newer one is written.
+ * a new version of Pivotwatch renders afresh). Objects are stored whole, so a reader never sees half a
+ * PDF; an older one for the same notice and size is removed when a newer one is written.
  */
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
@@ -16,12 +16,14 @@ import { inArray } from 'drizzle-orm';
 import { photos } from '@/db/server/inspections';
 import type { NoticeDocument } from '@/features/notices/schema';
 import type { Db } from '@/server/db';
-import { writeWhole } from '@/server/files';
 import { repoRoot } from '@/server/paths';
+import { storedFolders, type ObjectStorage } from '@/server/storage';
 
 type PageSize = 'A4' | 'LETTER';
 
-export const noticePdfCacheDirOf = (dataDir: string) => path.join(dataDir, 'cache', 'notice-pdfs');
+/** Where the disk driver keeps the cache when STORAGE_URL is unset. */
+export const noticePdfCacheDirOf = (dataDir: string) =>
+  path.join(dataDir, ...storedFolders.noticePdfs.split('/'));
 
 /** What draws a notice: its renderer, the shared PDF parts, the words and formats in lib/, the fonts. */
 const rendererSources = ['server/notices/pdf', 'server/pdf', 'server/notices', 'lib', 'fonts'];
@@ -72,33 +74,34 @@ function keyOf(db: Pick<Db, 'select'>, doc: NoticeDocument, pageSize: PageSize):
 
 /**
  * The notice's PDF from the cache, or rendered by `render` and cached. `cached` says which, for the log
- * and the tests. A cache that cannot be written (a full disk) still answers the rendered PDF.
+ * and the tests. A cache that cannot be written (a full disk, storage out of reach) still answers the rendered PDF.
  */
 export async function cachedNoticePdf(
   db: Db,
-  dataDir: string,
+  storage: ObjectStorage,
   notice: { id: string; document: NoticeDocument; pageSize: PageSize },
   render: () => Promise<Buffer>,
 ): Promise<{ pdf: Buffer; cached: boolean }> {
-  const dir = noticePdfCacheDirOf(dataDir);
+  const folder = storedFolders.noticePdfs;
   // Notice ids are UUIDs; anything else is hashed so it can never leave the folder.
   const safeId = /^[0-9a-zA-Z-]{1,64}$/.test(notice.id)
     ? notice.id
     : createHash('sha256').update(notice.id).digest('hex');
   const prefix = `${safeId}.${notice.pageSize}.`;
-  const file = path.join(dir, `${prefix}${keyOf(db, notice.document, notice.pageSize)}.pdf`);
+  const name = `${prefix}${keyOf(db, notice.document, notice.pageSize)}.pdf`;
   try {
-    return { pdf: await fs.promises.readFile(file), cached: true };
+    const held = await storage.get(`${folder}/${name}`);
+    if (held) return { pdf: held, cached: true };
   } catch {
-    // Not cached yet (or no longer): render below.
+    // The storage could not be read just now: render below.
   }
   const pdf = await render();
   try {
-    await writeWhole(file, pdf);
-    const stale = (await fs.promises.readdir(dir)).filter(
-      (name) => name.startsWith(prefix) && name.endsWith('.pdf') && path.join(dir, name) !== file,
+    await storage.put(`${folder}/${name}`, pdf);
+    const stale = (await storage.list(folder)).filter(
+      (other) => other.startsWith(prefix) && other.endsWith('.pdf') && other !== name,
     );
-    await Promise.all(stale.map((name) => fs.promises.rm(path.join(dir, name), { force: true })));
+    await Promise.all(stale.map((other) => storage.remove(`${folder}/${other}`)));
   } catch {
     // The cache is only a cache: the PDF is answered all the same.
   }

@@ -11,7 +11,8 @@ import type { NoticeDocument } from '@/features/notices/schema';
 import { createWorkerPool, type WorkerPool } from '@/server/compute/pool';
 import type { Db } from '@/server/db';
 import type { NoticePdfJob } from '@/server/notices/pdf/render-worker';
-import { photoPathOf } from '@/server/sync/photo-store';
+import type { ObjectStorage } from '@/server/storage';
+import { readPhoto } from '@/server/sync/photo-store';
 
 export type NoticePdfPool = WorkerPool<NoticePdfJob, Uint8Array>;
 
@@ -27,7 +28,7 @@ export function createNoticePdfPool(timeoutMs = 60_000): NoticePdfPool {
 export async function renderNoticePdfOffThread(
   pool: NoticePdfPool,
   db: Pick<Db, 'select'>,
-  dataDir: string,
+  storage: ObjectStorage,
   document: NoticeDocument,
   pageSize: 'A4' | 'LETTER',
 ): Promise<Buffer> {
@@ -36,7 +37,12 @@ export async function renderNoticePdfOffThread(
     named.length === 0
       ? []
       : db.select({ sha256: photos.sha256 }).from(photos).where(inArray(photos.sha256, named)).all();
-  const photoFiles = Object.fromEntries(held.map((p) => [p.sha256, photoPathOf(dataDir, p.sha256)]));
-  const bytes = await pool.run({ document, pageSize, photoFiles });
+  // Read here, through the storage, so the worker needs no driver of its own.
+  const photoBytes: Record<string, Uint8Array> = {};
+  for (const p of held) {
+    const bytes = await readPhoto(storage, p.sha256).catch(() => null);
+    if (bytes) photoBytes[p.sha256] = bytes;
+  }
+  const bytes = await pool.run({ document, pageSize, photoBytes });
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length);
 }
