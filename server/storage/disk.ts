@@ -21,7 +21,9 @@ export function diskStorage(root: string): ObjectStorage {
   const folderOf = (folder: string) => fileOf(folder);
   return {
     description: `disk ${root}`,
-    put: (key, bytes) => writeWhole(fileOf(key), bytes),
+    async put(key, bytes) {
+      await writeWhole(fileOf(key), bytes);
+    },
     async get(key) {
       try {
         return await fs.promises.readFile(fileOf(key));

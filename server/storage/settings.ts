@@ -77,7 +77,9 @@ export function parseStorageUrl(value: string | undefined): StorageSettings {
     );
   if (url.port !== '')
     throw new StorageUrlError('s3://<bucket> takes no port; give the server as ?endpoint=http://host:port');
-  const segments = url.pathname.split('/').filter((s) => s !== '');
+  // From the text as written: the URL parser would quietly resolve `..` and `.` away.
+  const rawPath = text.replace(/^s3:\/\/[^/?#]*/i, '').split(/[?#]/)[0];
+  const segments = rawPath.split('/').filter((s) => s !== '');
   const badSegment = segments.find((s) => !prefixSegment.test(s));
   if (badSegment !== undefined)
     throw new StorageUrlError(
