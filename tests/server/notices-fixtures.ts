@@ -17,7 +17,7 @@ import { findings } from '@/db/server/review';
 import { companies, rides } from '@/db/server/schema';
 import type { FindingSeverity } from '@/features/review/schema';
 import { createApp } from '@/server/app';
-import { loadConfig, type Config } from '@/server/config';
+import { loadConfig, type Config, type Env } from '@/server/config';
 import { openDb, type Db } from '@/server/db';
 import { createLogger } from '@/server/logger';
 import { repoRoot } from '@/server/paths';
@@ -53,13 +53,15 @@ export type NoticeServer = {
   close: () => Promise<void>;
 };
 
-export async function makeNoticeServer(start: Date): Promise<NoticeServer> {
+/** `env` adds settings, e.g. STORAGE_URL to keep the stored files in S3. */
+export async function makeNoticeServer(start: Date, env: Env = {}): Promise<NoticeServer> {
   const dataDir = makeTempDir('pivotwatch-notices-');
   const config = loadConfig({
     NODE_ENV: 'test',
     DATA_DIR: dataDir,
     WEB_DIR: path.join(dataDir, 'no-web-build'),
     APP_URL: appUrl,
+    ...env,
   });
   const database = openDb(config.dataDir);
   await seedDemoData(database.db, config, { now: start });
