@@ -33,9 +33,11 @@ const featureOrder = [
 
 /** The server's folders and top-level modules from the bottom up, the same rule as the features'. */
 const serverOrder = [
+  'storage-url',
   'config',
   'paths',
   'files',
+  'storage',
   'logger',
   'sql-functions',
   'db',

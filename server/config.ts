@@ -5,7 +5,7 @@ import path from 'node:path';
 
 import { z } from 'zod';
 
-import { parseStorageUrl, StorageUrlError, type StorageSettings } from '@/server/storage/settings';
+import { parseStorageUrl, StorageUrlError, type StorageSettings } from '@/server/storage-url';
 
 const logLevels = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
 

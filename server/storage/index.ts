@@ -2,7 +2,7 @@
 import type { Config } from '@/server/config';
 import { diskStorage } from '@/server/storage/disk';
 import { s3Storage } from '@/server/storage/s3';
-import type { StorageSettings } from '@/server/storage/settings';
+import type { StorageSettings } from '@/server/storage-url';
 import type { ObjectStorage } from '@/server/storage/types';
 
 export {
@@ -10,7 +10,7 @@ export {
   parseStorageUrl,
   StorageUrlError,
   type StorageSettings,
-} from '@/server/storage/settings';
+} from '@/server/storage-url';
 export { assertKey, StorageError, storedFolders, type ObjectStorage } from '@/server/storage/types';
 export { diskStorage } from '@/server/storage/disk';
 

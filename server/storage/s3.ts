@@ -15,7 +15,7 @@ import {
   S3ServiceException,
 } from '@aws-sdk/client-s3';
 
-import type { StorageSettings } from '@/server/storage/settings';
+import type { StorageSettings } from '@/server/storage-url';
 import { assertKey, StorageError, type ObjectStorage } from '@/server/storage/types';
 
 type S3Settings = Extract<StorageSettings, { driver: 's3' }>;
