@@ -1,7 +1,8 @@
 /**
  * Notice PDFs cached in the server's storage (server/storage), one per notice and paper size:
- * `cache/notice-pdfs/<notice>.<size>.<key>.pdf` (on the disk under DATA_DIR). Rendering one takes 0.5–1.7 s of the event loop; the notice's document is frozen when it is
- * issued, so the same PDF can be served again. The key is a hash of everything the PDF prints from:
+ * `cache/notice-pdfs/<notice>.<size>.<key>.pdf` (on the disk under DATA_DIR). Rendering one takes
+ * 0.5–1.7 s of the event loop; the notice's document is frozen when it is issued, so the same PDF can be
+ * served again. The key is a hash of everything the PDF prints from:
  * the document, the paper size, which of its photos the server holds (a photo uploaded after the notice
  * was issued appears in the next PDF), and the code that draws it (the renderer, its words and fonts:
  * a new version of Pivotwatch renders afresh). Objects are stored whole, so a reader never sees half a
