@@ -24,7 +24,7 @@ import { databaseFileName, openDb } from '@/server/db';
 import { startServer } from '@/server/main';
 import { repoRoot } from '@/server/paths';
 import { findNdtReport, ndtReportKeyOf, storeNdtReport } from '@/server/pivot-life/ndt-report-store';
-import { seedDemoData } from '@/server/seed/demo';
+import { demoPassword, seedDemoData } from '@/server/seed/demo';
 import {
   diskStorage,
   openStorage,
@@ -136,6 +136,38 @@ describe('STORAGE_URL', () => {
     await expect(started).rejects.toThrow(StorageError);
     await expect(started).rejects.toThrow(/s3:\/\/no-such-bucket-here\/.* the bucket does not exist/);
   });
+});
+
+test('a server started on S3 stores an upload in the bucket and serves it back', async () => {
+  const dataDir = tempDir();
+  const url = s3.url();
+  const server = await startServer({
+    env: { PORT: '0', DATA_DIR: dataDir, NODE_ENV: 'test', WEB_DIR: `${dataDir}/web`, STORAGE_URL: url },
+    handleSignals: false,
+  });
+  try {
+    const signIn = await fetch(`${server.url}/api/auth/sign-in`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ email: 'inspector@pivotwatch.test', password: demoPassword }),
+    });
+    const auth = { Authorization: `Bearer ${(await signIn.json()).token}` };
+    const bytes = imageBytes(90, 'jpeg', 4_000);
+    const hash = sha256(bytes);
+    const put = await fetch(`${server.url}/api/photos/${hash}`, {
+      method: 'PUT',
+      headers: { ...auth, 'Content-Type': 'image/jpeg' },
+      body: Buffer.from(bytes),
+    });
+    expect(put.status).toBe(201);
+    expect(await openStorage(parseStorageUrl(url), '/unused').list('photos')).toEqual([hash]);
+    expect(fs.existsSync(path.join(dataDir, 'photos'))).toBe(false);
+    const got = await fetch(`${server.url}/api/photos/${hash}`, { headers: auth });
+    expect(got.status).toBe(200);
+    expect(sha256(new Uint8Array(await got.arrayBuffer()))).toBe(hash);
+  } finally {
+    await server.close();
+  }
 });
 
 describe.each(['disk', 's3'] as const)('the %s driver', (driver) => {
