@@ -81,22 +81,27 @@ test('validation issues found in the worker are a 400 with their paths', async (
 });
 
 test('the event loop keeps answering while the largest allowed cycle is analysed', async () => {
-  const heavy = post(server.app, chain(10, HTTP_CYCLE_MAX_POINTS / 10)).then((res) => ({
-    res,
-    at: Date.now(),
-  }));
-  // Give the request time to reach the worker, then ask for something cheap.
+  let done = false;
+  const heavy = post(server.app, chain(10, HTTP_CYCLE_MAX_POINTS / 10)).then((res) => {
+    done = true;
+    return res;
+  });
+  // Give the request time to reach the worker, then keep asking for something cheap until it is answered:
+  // on a loaded machine one try can land just after the answer, so one answer in between is the proof.
   await new Promise((resolve) => setTimeout(resolve, 50));
-  const health = await request(server.app).get('/api/health');
-  const healthAt = Date.now();
-  const { res, at } = await heavy;
-  expect(health.status).toBe(200);
+  let answeredMeanwhile = 0;
+  while (!done) {
+    const health = await request(server.app).get('/api/health');
+    expect(health.status).toBe(200);
+    if (!done) answeredMeanwhile += 1;
+  }
+  const res = await heavy;
   expect(res.status).toBe(200);
   expect(res.body.samples).toBe(HTTP_CYCLE_MAX_POINTS / 10);
   // The answer carries a bounded set of those samples (server/compute/cycle-series.ts).
   expect(res.body.resolution).toBe('bounded');
   expect(res.body.timeS).toHaveLength(res.body.sampleIndex.length);
-  expect(healthAt).toBeLessThan(at);
+  expect(answeredMeanwhile).toBeGreaterThan(0);
 });
 
 test('an analysis over the time limit is stopped with a 422, and the next request gets a fresh worker', async () => {
