@@ -15,3 +15,13 @@ export {
   ridesHref,
 } from '@/features/rides/hrefs';
 export { eases, statusChoices } from '@/features/rides/status-rules';
+export {
+  PLATE_PATH,
+  parsePlateCode,
+  parsePlatePath,
+  platePath,
+  plateUrl,
+  type PlateParse,
+  type PlateRefusal,
+  type PlateTarget,
+} from '@/features/rides/plate-url';

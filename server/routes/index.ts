@@ -17,6 +17,7 @@ import { loadsRouter } from '@/server/routes/loads';
 import { ndtRouter } from '@/server/routes/ndt';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
+import { platesRouter } from '@/server/routes/plates';
 import { registerRouter } from '@/server/routes/register';
 import { reviewQueueRouter, reviewRouter } from '@/server/routes/review';
 import { ridesRouter } from '@/server/routes/rides';
@@ -46,6 +47,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(lifeRouter(deps));
+  router.use(platesRouter(deps));
   router.use(apiNotFound);
   return router;
 }
