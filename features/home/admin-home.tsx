@@ -16,6 +16,7 @@ import { RoleGate } from '@/features/auth/ui';
 import { outboxHref } from '@/features/notices';
 import { roles } from '@/features/session/schema';
 import { useRidesQuery } from '@/features/rides';
+import { PlateSheetDownload } from '@/features/registry/ui';
 import { rideClassLabel } from '@/features/rides/schema';
 
 /** Administrator's start page: who can sign in, the ride register at a glance, and the e-mail outbox. */
@@ -68,6 +69,7 @@ export function AdminHome() {
           <SectionTitle>E-mail</SectionTitle>
           <OutboxCard />
           <SectionTitle>Ride register</SectionTitle>
+          <PlateSheetDownload />
           <QueryState query={rides}>
             {(list) => (
               <DataTable

@@ -22,6 +22,7 @@ export {
 } from '@/features/registry/design-view';
 export { DeleteAction } from '@/features/registry/delete-action';
 export { DueMark, dueInWords } from '@/features/registry/due-mark';
+export { PlateSheetDownload } from '@/features/registry/plate-sheet-download';
 export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';
 export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';

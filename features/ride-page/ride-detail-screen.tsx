@@ -18,6 +18,7 @@ import {
   useDesignAnalysis,
   DueMark,
   dueInWords,
+  PlateSheetDownload,
 } from '@/features/registry/ui';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
@@ -124,6 +125,7 @@ function RideDetailBody({
           footer={<DesignLinks rideId={ride.id} editor={editor} />}
         />
       ) : null}
+      {user.role === 'admin' ? <PlateSheetDownload ride={ride} /> : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
       {staff ? <NoticesCard rideId={ride.id} /> : null}
       {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}
