@@ -74,8 +74,11 @@ const sections: { value: Section; label: string }[] = [
   { value: 'submit', label: 'Submit' },
 ];
 
+/** Where to open the recording: at the readings, with a pivot's card (joint index) in view. */
+type OpenAt = { joint: number | null };
+
 /** Recording one inspection on the phone: every change is saved on the device at once. */
-export function InspectionScreen({ id }: { id: string }) {
+export function InspectionScreen({ id, openAt }: { id: string; openAt?: OpenAt }) {
   const draftQuery = useDraftQuery(id);
   const draft = draftQuery.data ?? null;
   const rideQuery = useFieldRideQuery(draft?.rideId ?? null, draft?.designVersionId, draft?.templateId);
@@ -89,7 +92,7 @@ export function InspectionScreen({ id }: { id: string }) {
         <Button label="Back to Today" onPress={() => router.replace(todayHref)} />
       </Screen>
     );
-  return <Recording draft={draft} data={rideQuery.data ?? null} />;
+  return <Recording draft={draft} data={rideQuery.data ?? null} openAt={openAt} />;
 }
 
 type RideData = ReturnType<typeof useFieldRideQuery>['data'];
@@ -97,8 +100,8 @@ type RideData = ReturnType<typeof useFieldRideQuery>['data'];
 /** A tapped blocker: the part it is about, and the item to bring into view (`at` tells two taps apart). */
 type Jump = { problem: DraftProblem; at: number };
 
-function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
-  const [section, setSection] = useState<Section>('checklist');
+function Recording({ draft, data, openAt }: { draft: Draft; data: RideData | null; openAt?: OpenAt }) {
+  const [section, setSection] = useState<Section>(openAt ? 'readings' : 'checklist');
   const [system] = useUnitSystem();
   const editor = useDraftEditor(draft.id);
   const submit = useSubmitDraftMutation();
@@ -117,6 +120,14 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
   const scroll = useRef<ScrollView>(null);
   const targets = useRef(new Map<string, View>());
   const readingsTop = useRef<View>(null);
+  const pivots = useRef(new Map<number, View>());
+  const scannedJoint = openAt?.joint ?? null;
+  // Opened from a pivot's plate: that pivot's card into view, with the focus, once it has rendered.
+  useEffect(() => {
+    if (scannedJoint === null) return;
+    const timer = setTimeout(() => jumpTo(pivots.current.get(scannedJoint) ?? null, scroll.current), 50);
+    return () => clearTimeout(timer);
+  }, [scannedJoint]);
   const [jump, setJump] = useState<Jump | null>(null);
   const undo = useUndoRemoval(change);
 
@@ -226,6 +237,10 @@ function Recording({ draft, data }: { draft: Draft; data: RideData | null }) {
             onRemove={(rid) => undo.remove('reading', rid)}
             instruments={instruments.data ?? []}
             renderTimer={(onUse, per) => <TapTimer per={per} onUse={(t) => onUse(t.periodS, t.spreadS)} />}
+            pivotRef={(joint, node) =>
+              node ? pivots.current.set(joint, node) : pivots.current.delete(joint)
+            }
+            scannedJoint={scannedJoint}
           />
           {jump && !jump.problem.itemId ? <Text color={colors.near}>{jump.problem.message}</Text> : null}
         </View>

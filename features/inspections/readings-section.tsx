@@ -58,6 +58,10 @@ type Props = {
     onUse: (periodS: number, spreadS: number) => void,
     per: 'revolution' | 'swing',
   ) => React.ReactNode;
+  /** Each pivot's card, so the screen can bring one into view (a scanned plate's pivot). */
+  pivotRef?: (joint: number, node: View | null) => void;
+  /** The pivot whose plate was scanned to come here: its card says so. */
+  scannedJoint?: number | null;
 };
 
 /** Per pivot: the motion readings its design motion calls for, and pin and bushing wear. */
@@ -69,6 +73,8 @@ export function ReadingsSection({
   onRemove,
   renderTimer,
   instruments = [],
+  pivotRef,
+  scannedJoint = null,
 }: Props) {
   if (!design)
     return (
@@ -90,76 +96,87 @@ export function ReadingsSection({
           'clearance',
         ];
         const taken = draft.readings.filter((r) => r.joint === joint);
+        const title = `Pivot ${joint + 1} · ${pivot?.name ?? body.name}`;
         return (
-          <Card key={joint}>
-            <Text variant="heading">
-              Pivot {joint + 1} · {pivot?.name ?? body.name}
-            </Text>
-            {pivot ? (
-              <Text variant="small" muted>
-                Pin nominal {formatStated(pivot.nominalDiameterM, 'lengthSmall', system).text}, minimum{' '}
-                {formatStated(pivot.minimumDiameterM, 'lengthSmall', system).text}; clearance limit{' '}
-                {formatStated(pivot.maxClearanceM, 'lengthSmall', system).text}
-              </Text>
-            ) : null}
-            {kinds.map((kind) => (
-              <ReadingInput
-                key={kind}
-                kind={kind}
-                joint={joint}
-                bodyName={body.name}
-                system={system}
-                onAdd={onAdd}
-                instruments={instruments}
-                timer={kind === 'period' ? renderTimer : undefined}
-                per={motion?.kind === 'swing' ? 'swing' : 'revolution'}
-                motion={motion}
-              />
-            ))}
-            {taken.length > 0 ? (
-              <View style={styles.taken}>
-                <Text variant="label" muted>
-                  RECORDED
+          <View
+            key={joint}
+            ref={pivotRef ? (node) => pivotRef(joint, node) : undefined}
+            tabIndex={-1}
+            accessibilityLabel={scannedJoint === joint ? `${title}, opened from its plate` : undefined}
+          >
+            <Card>
+              <Text variant="heading">{title}</Text>
+              {scannedJoint === joint ? (
+                <Text variant="small" color={colors.accent}>
+                  Opened from its plate
                 </Text>
-                {taken.map((r) => (
-                  <View key={r.id} style={styles.takenRow}>
-                    <Text style={styles.takenText}>
-                      {r.label}: <Text variant="figure">{recordedValue(r, system).text}</Text>
-                      {r.spreadSI ? (
+              ) : null}
+              {pivot ? (
+                <Text variant="small" muted>
+                  Pin nominal {formatStated(pivot.nominalDiameterM, 'lengthSmall', system).text}, minimum{' '}
+                  {formatStated(pivot.minimumDiameterM, 'lengthSmall', system).text}; clearance limit{' '}
+                  {formatStated(pivot.maxClearanceM, 'lengthSmall', system).text}
+                </Text>
+              ) : null}
+              {kinds.map((kind) => (
+                <ReadingInput
+                  key={kind}
+                  kind={kind}
+                  joint={joint}
+                  bodyName={body.name}
+                  system={system}
+                  onAdd={onAdd}
+                  instruments={instruments}
+                  timer={kind === 'period' ? renderTimer : undefined}
+                  per={motion?.kind === 'swing' ? 'swing' : 'revolution'}
+                  motion={motion}
+                />
+              ))}
+              {taken.length > 0 ? (
+                <View style={styles.taken}>
+                  <Text variant="label" muted>
+                    RECORDED
+                  </Text>
+                  {taken.map((r) => (
+                    <View key={r.id} style={styles.takenRow}>
+                      <Text style={styles.takenText}>
+                        {r.label}: <Text variant="figure">{recordedValue(r, system).text}</Text>
+                        {r.spreadSI ? (
+                          <Text variant="small" muted>
+                            {' '}
+                            {formatSpreadOf(r.spreadSI, quantityOf(r), system, recordedValue(r, system).unit)}
+                          </Text>
+                        ) : null}
                         <Text variant="small" muted>
-                          {' '}
-                          {formatSpreadOf(r.spreadSI, quantityOf(r), system, recordedValue(r, system).unit)}
+                          {' · '}
+                          {measuredWithWords(r)}
                         </Text>
-                      ) : null}
-                      <Text variant="small" muted>
-                        {' · '}
-                        {measuredWithWords(r)}
+                        {r.plausibility ? (
+                          <Text variant="small" color={colors.near}>
+                            {'\n'}Far from the design ({r.plausibility.ratio.toFixed(2)} ×), confirmed by you
+                          </Text>
+                        ) : null}
+                        {answerOfReading(draft, r.id) ? (
+                          <Text variant="small" muted>
+                            {'\n'}From the checklist: {answerOfReading(draft, r.id)?.text} (change it there)
+                          </Text>
+                        ) : null}
                       </Text>
-                      {r.plausibility ? (
-                        <Text variant="small" color={colors.near}>
-                          {'\n'}Far from the design ({r.plausibility.ratio.toFixed(2)} ×), confirmed by you
-                        </Text>
-                      ) : null}
-                      {answerOfReading(draft, r.id) ? (
-                        <Text variant="small" muted>
-                          {'\n'}From the checklist: {answerOfReading(draft, r.id)?.text} (change it there)
-                        </Text>
-                      ) : null}
-                    </Text>
-                    {/* One value, kept in one place: a checklist value is changed or cleared in the checklist. */}
-                    {answerOfReading(draft, r.id) ? null : (
-                      <Button
-                        label="Remove"
-                        tone="quiet"
-                        onPress={() => onRemove(r.id)}
-                        accessibilityLabel={`Remove ${r.label}`}
-                      />
-                    )}
-                  </View>
-                ))}
-              </View>
-            ) : null}
-          </Card>
+                      {/* One value, kept in one place: a checklist value is changed or cleared in the checklist. */}
+                      {answerOfReading(draft, r.id) ? null : (
+                        <Button
+                          label="Remove"
+                          tone="quiet"
+                          onPress={() => onRemove(r.id)}
+                          accessibilityLabel={`Remove ${r.label}`}
+                        />
+                      )}
+                    </View>
+                  ))}
+                </View>
+              ) : null}
+            </Card>
+          </View>
         );
       })}
     </View>

@@ -4,6 +4,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
+import Feather from '@/components/feather-icon';
 import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { RideStatusMark } from '@/components/status-mark';
@@ -22,7 +23,7 @@ import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/fea
 import { dueStatusOn, scheduleSchema } from '@/features/registry/schema';
 import { rideHref } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
-import { inspectHref } from '@/features/inspections/hrefs';
+import { inspectHref, scanHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
 import { useSyncStatus } from '@/features/sync/ui';
@@ -52,7 +53,19 @@ export function TodayScreen() {
   return (
     <RoleGate roles={['inspector']}>
       {(user) => (
-        <Screen title={`${greeting()}, ${firstName(user.name)}`} subtitle={longDate()}>
+        <Screen
+          title={`${greeting()}, ${firstName(user.name)}`}
+          subtitle={longDate()}
+          actions={
+            <Button
+              label="Scan a plate"
+              tone="accent"
+              icon={<Feather name="camera" size={20} color={colors.baseText} />}
+              accessibilityLabel="Scan a plate: open a ride or a pivot’s readings from its QR code"
+              onPress={() => router.push(scanHref)}
+            />
+          }
+        >
           <SyncPanel status={sync} />
           {/* Returned inspections come before anything else: they wait on this inspector. */}
           <SentInspections list={returned} />

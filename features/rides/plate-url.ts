@@ -5,6 +5,7 @@
  * shows it ("Pivot 2" is joint 1). The server prints them (server/reports/plate-sheet.ts) and the scanner
  * reads them back (features/inspections/scan-screen.tsx), both through this one module.
  */
+import { appLink } from '@/lib/paths';
 
 /** What a plate names: a ride, and a pivot of it by its joint index (0-based), or the whole ride. */
 export type PlateTarget = { rideId: string; joint: number | null };
@@ -17,14 +18,14 @@ const MAX_PIVOT = 99;
 const trimBase = (base: string) => base.replace(/\/+$/, '');
 
 /** The plate's path inside the app (also its route under app/(app)/plate). */
-export function platePath(target: PlateTarget): string {
-  const ride = `${PLATE_PATH}/${encodeURIComponent(target.rideId)}`;
+export function platePath(target: PlateTarget): `/${string}` {
+  const ride = `${PLATE_PATH}/${encodeURIComponent(target.rideId)}` as const;
   return target.joint === null ? ride : `${ride}/${target.joint + 1}`;
 }
 
-/** The full address a plate's code holds: the app's public address (APP_URL) and the plate's path. */
+/** The full address a plate's code holds: the app's public address (APP_URL), as e-mailed links use it. */
 export function plateUrl(appUrl: string, target: PlateTarget): string {
-  return `${trimBase(appUrl)}${platePath(target)}`;
+  return appLink(appUrl, platePath(target));
 }
 
 /** Why a scanned or typed code was refused, in words an inspector can act on. */

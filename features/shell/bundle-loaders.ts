@@ -9,8 +9,10 @@ import * as frameBundle from '@/features/shell/bundles/frame';
 import * as inspectorBundle from '@/features/shell/bundles/inspector';
 import * as noticesBundle from '@/features/shell/bundles/notices';
 import * as operatorBundle from '@/features/shell/bundles/operator';
+import * as plateBundle from '@/features/shell/bundles/plate';
 import * as reviewBundle from '@/features/shell/bundles/review';
 import * as ridesBundle from '@/features/shell/bundles/rides';
+import * as scanBundle from '@/features/shell/bundles/scan';
 
 export const frame = async () => frameBundle;
 export const inspector = async () => inspectorBundle;
@@ -21,3 +23,5 @@ export const operator = async () => operatorBundle;
 export const admin = async () => adminBundle;
 export const calculator = async () => calculatorBundle;
 export const account = async () => accountBundle;
+export const scan = async () => scanBundle;
+export const plate = async () => plateBundle;

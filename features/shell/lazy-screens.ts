@@ -14,8 +14,10 @@ import {
   inspector,
   notices,
   operator,
+  plate,
   review,
   rides,
+  scan,
 } from '@/features/shell/bundle-loaders';
 import { type BundleLoader, lazyScreen, loadBundle } from '@/features/shell/lazy-screen';
 import { backgroundMoment } from '@/features/shell/load-shared';
@@ -90,6 +92,9 @@ export const SignedInFrame = lazyScreen(frame, 'SignedInFrame');
 
 export const TodayScreen = lazyScreen(inspector, 'TodayScreen');
 export const InspectRoute = lazyScreen(inspector, 'InspectRoute');
+// Not among any role's areas: the camera's code and its decoder load when Scan is opened.
+export const ScanScreen = lazyScreen(scan, 'ScanScreen');
+export const PlateScreen = lazyScreen(plate, 'PlateScreen');
 
 export const QueueScreen = lazyScreen(review, 'QueueScreen');
 export const InspectionReviewScreen = lazyScreen(review, 'InspectionReviewScreen');
