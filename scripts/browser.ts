@@ -6,7 +6,8 @@ import type { LaunchOptions } from 'playwright-core';
  */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 
-export function launchOptions(): LaunchOptions {
+/** `extraArgs`: more switches for one test's browser (e.g. Chromium's fake camera playing a file). */
+export function launchOptions(extraArgs: string[] = []): LaunchOptions {
   return {
     executablePath: CHROMIUM_PATH,
     headless: true,
@@ -18,6 +19,7 @@ export function launchOptions(): LaunchOptions {
       '--disable-background-networking',
       '--disable-component-update',
       '--disable-sync',
+      ...extraArgs,
     ],
   };
 }

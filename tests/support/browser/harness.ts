@@ -27,8 +27,8 @@ export async function startPivotwatch(env: Record<string, string> = {}): Promise
   return { baseUrl, dataDir, stop };
 }
 
-export async function launchBrowser(): Promise<Browser> {
-  return chromium.launch(launchOptions());
+export async function launchBrowser(extraArgs: string[] = []): Promise<Browser> {
+  return chromium.launch(launchOptions(extraArgs));
 }
 
 export async function openPage(browser: Browser, size: SizeName): Promise<Page> {
@@ -84,14 +84,18 @@ export type ServerAndBrowser = {
 
 /**
  * Starts the real server (with `env`) and Debian's chromium for the calling test file, and stops both
- * after it. Call it at the top of the file; read its fields inside tests and hooks.
+ * after it. Call it at the top of the file; read its fields inside tests and hooks. `browserArgs`: more
+ * chromium switches, worked out once the server runs (e.g. a fake camera playing a file made for it).
  */
-export function serverAndBrowser(env: Record<string, string> = {}): ServerAndBrowser {
+export function serverAndBrowser(
+  env: Record<string, string> = {},
+  opts: { browserArgs?: (baseUrl: string) => Promise<string[]> } = {},
+): ServerAndBrowser {
   let app: Running | undefined;
   let browser: Browser | undefined;
   beforeAll(async () => {
     app = await startPivotwatch(env);
-    browser = await launchBrowser();
+    browser = await launchBrowser((await opts.browserArgs?.(app.baseUrl)) ?? []);
   });
   afterAll(async () => {
     await browser?.close();
