@@ -13,4 +13,3 @@ export const admin = () => import('@/features/shell/bundles/admin');
 export const calculator = () => import('@/features/shell/bundles/calculator');
 export const account = () => import('@/features/shell/bundles/account');
 export const scan = () => import('@/features/shell/bundles/scan');
-export const plate = () => import('@/features/shell/bundles/plate');

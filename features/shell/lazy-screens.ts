@@ -14,7 +14,6 @@ import {
   inspector,
   notices,
   operator,
-  plate,
   review,
   rides,
   scan,
@@ -92,9 +91,9 @@ export const SignedInFrame = lazyScreen(frame, 'SignedInFrame');
 
 export const TodayScreen = lazyScreen(inspector, 'TodayScreen');
 export const InspectRoute = lazyScreen(inspector, 'InspectRoute');
-// Not among any role's areas: the camera's code and its decoder load when Scan is opened.
+// Not among any role's areas: the camera's code and its decoder load when Scan (or a plate) is opened.
 export const ScanScreen = lazyScreen(scan, 'ScanScreen');
-export const PlateScreen = lazyScreen(plate, 'PlateScreen');
+export const PlateScreen = lazyScreen(scan, 'PlateScreen');
 
 export const QueueScreen = lazyScreen(review, 'QueueScreen');
 export const InspectionReviewScreen = lazyScreen(review, 'InspectionReviewScreen');
