@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 
+import { photoPlaceSchema, photoTakenAtSourceSchema } from '@/features/photos/metadata-schema';
 import { motionRecordsSchema } from '@/features/records/motion-record-schema';
 import { inspectionTypeSchema } from '@/features/registry/schema';
 import { checkResults, checkResultVocabulary, labelsOf, photoMimes } from '@/lib/vocabulary';
@@ -147,7 +148,12 @@ export const photoRefSchema = z.object({
   caption: z.string().max(500),
   joint: z.int().min(0).max(9).nullable(),
   checklistItemId: z.string().max(80).nullable(),
+  /** When the photo was taken: the camera's EXIF time when it had one, else the device clock at capture. */
   takenAt: isoTime(),
+  /** Where `takenAt` came from; absent from records made before phones said. */
+  takenAtSource: photoTakenAtSourceSchema.optional(),
+  /** Where it was taken, only when the inspector allows it (features/photos/exif.ts `photoFacts`). */
+  place: photoPlaceSchema.optional(),
 });
 export type PhotoRef = z.infer<typeof photoRefSchema>;
 
