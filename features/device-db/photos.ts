@@ -11,6 +11,7 @@ import { type PhotoBlobRow, type PhotoUploadState, photoBlobs } from '@/db/devic
 import type { DeviceDb } from '@/features/device-db/connection';
 import { getDeviceOwner, ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
+import { jpegMetadataKinds } from '@/features/photos';
 import type { PhotoRef } from '@/features/records/schema';
 
 type PhotoMime = PhotoRef['mime'];
@@ -58,6 +59,12 @@ export async function putPhotoBlob(
   const sniffed = sniffImageMime(bytes);
   if (sniffed === null) throw new DeviceDataError('The file is not a JPEG, PNG or WebP image.');
   if (sniffed !== mime) throw new DeviceDataError(`The file is ${sniffed}, not ${mime} as stated.`);
+  // The server stores no photo metadata and its copy must hash to the same name, so none is kept here.
+  const metadata = sniffed === 'image/jpeg' ? jpegMetadataKinds(bytes) : [];
+  if (metadata.length > 0)
+    throw new DeviceDataError(
+      `The photo still carries ${[...new Set(metadata)].join(' and ')} metadata; it must be removed before the photo is kept.`,
+    );
   const hash = sha256Hex(bytes);
   if (input.sha256 !== undefined && input.sha256 !== hash)
     throw new DeviceDataError('The photo does not match its SHA-256; it was changed or cut short.', [

@@ -59,7 +59,7 @@ import { LoadCheckBasis } from '@/features/records/ui';
 import { MeasuredRiderTable, MotionRecorder } from '@/features/motion-recording/ui';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
-import { useUnitSystem } from '@/features/settings';
+import { photoPlaceAllowed, useUnitSystem } from '@/features/settings';
 import { useSyncStatus } from '@/features/sync/ui';
 import { TapTimer } from '@/features/tap-timer/ui';
 import type { UnitSystem } from '@/lib/units';
@@ -473,7 +473,7 @@ function useDraftPhotoCapture(change: (update: (d: Draft) => Draft) => void) {
     setPhotoError(null);
     setPhotoBusy(true);
     try {
-      const shot = await capturePhoto(source);
+      const shot = await capturePhoto(source, { allowPlace: photoPlaceAllowed() });
       if (!shot) return;
       const bytes = toByteArray(shot.base64);
       const { sha256 } = await putPhotoBlob(dev, { bytes, mime: shot.mime });
@@ -485,7 +485,7 @@ function useDraftPhotoCapture(change: (update: (d: Draft) => Draft) => void) {
         caption: '',
         joint: null,
         checklistItemId: link.checklistItemId ?? null,
-        takenAt: new Date().toISOString(),
+        ...shot.facts,
       };
       change((d) => addPhoto(d, ref, now()));
     } catch (err) {

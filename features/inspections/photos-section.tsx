@@ -8,6 +8,8 @@ import { colors, layout, space } from '@/components/theme';
 import type { Draft } from '@/features/records';
 import type { PhotoRef } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
+import { photoTakenLine } from '@/features/photos';
+import { PhotoPlaceToggle } from '@/features/inspections/photo-place-toggle';
 
 type Props = {
   draft: Draft;
@@ -57,8 +59,10 @@ export function PhotosSection({
         </Text>
       ) : null}
       <Text variant="small" muted>
-        Keep riders and bystanders out of frame. Photos are reduced to 1600 px on the long edge on this phone.
+        Keep riders and bystanders out of frame. Photos are reduced to 1600 px on the long edge on this phone,
+        and their EXIF is removed once the time (and, if you allow it, the place) is read.
       </Text>
+      <PhotoPlaceToggle />
       {draft.photos.map((photo, n) => (
         <Card key={photo.id}>
           <View style={styles.photoRow}>
@@ -66,6 +70,9 @@ export function PhotosSection({
             <View style={styles.photoMeta}>
               <Text variant="label" muted>
                 PHOTO {n + 1} · {Math.round(photo.bytes / 1024)} KB
+              </Text>
+              <Text variant="small" muted>
+                {photoTakenLine(photo)}
               </Text>
               <TextField
                 label="Caption"

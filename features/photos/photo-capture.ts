@@ -1,5 +1,11 @@
 import { SaveFormat, manipulateAsync } from 'expo-image-manipulator';
+import { fromByteArray, toByteArray } from 'base64-js';
 import * as ImagePicker from 'expo-image-picker';
+
+import { currentDevicePlace } from '@/features/photos/device-place';
+import { photoFacts, stripJpegMetadata, type PhotoFacts } from '@/features/photos/exif';
+import { originalExif } from '@/features/photos/original-exif';
+import { deviceTimeZone } from '@/lib/dates';
 
 /** Photos are kept small on the phone: long edge at most this many pixels, JPEG. */
 const PHOTO_LONG_EDGE_PX = 1600;
@@ -11,6 +17,8 @@ type CapturedPhoto = {
   width: number;
   height: number;
   bytes: number;
+  /** When (and, if allowed, where) it was taken: from the original's EXIF, else the device at capture. */
+  facts: PhotoFacts;
 };
 
 /** The resize that brings the long edge down to the limit (none when it is already within it). */
@@ -19,24 +27,29 @@ function resizeFor(width: number, height: number, longEdge = PHOTO_LONG_EDGE_PX)
   return width >= height ? { width: longEdge } : { height: longEdge };
 }
 
-/** Decoded size of a base64 string, without decoding it. */
-function base64Bytes(b64: string): number {
-  const padding = b64.endsWith('==') ? 2 : b64.endsWith('=') ? 1 : 0;
-  return Math.floor((b64.length * 3) / 4) - padding;
-}
-
 /**
  * Takes a photo (camera; on a phone browser this opens the camera) or picks one, then compresses it
- * on the device. Null when the person cancels.
+ * on the device. The capture time and, when `allowPlace`, the place are read from the original first
+ * (its EXIF, else the device); the copy kept has no EXIF at all, so its SHA-256 names exactly the bytes
+ * the server stores. Null when the person cancels.
  */
-export async function capturePhoto(source: 'camera' | 'library'): Promise<CapturedPhoto | null> {
-  const options: ImagePicker.ImagePickerOptions = { mediaTypes: ['images'], quality: 1, exif: false };
+export async function capturePhoto(
+  source: 'camera' | 'library',
+  { allowPlace = false }: { allowPlace?: boolean } = {},
+): Promise<CapturedPhoto | null> {
+  const options: ImagePicker.ImagePickerOptions = { mediaTypes: ['images'], quality: 1, exif: true };
   const picked =
     source === 'camera'
       ? await ImagePicker.launchCameraAsync(options)
       : await ImagePicker.launchImageLibraryAsync(options);
   if (picked.canceled || !picked.assets?.[0]) return null;
   const asset = picked.assets[0];
+  const now = new Date();
+  const [exif, devicePlace] = await Promise.all([
+    originalExif(asset),
+    allowPlace ? currentDevicePlace() : Promise.resolve(null),
+  ]);
+  const facts = photoFacts({ exif, devicePlace, allowPlace, now, zone: deviceTimeZone() });
   const resize = resizeFor(asset.width, asset.height);
   const out = await manipulateAsync(asset.uri, resize ? [{ resize }] : [], {
     compress: JPEG_QUALITY,
@@ -44,11 +57,14 @@ export async function capturePhoto(source: 'camera' | 'library'): Promise<Captur
     base64: true,
   });
   if (!out.base64) throw new Error('The photo could not be read.');
+  // Re-encoding usually drops EXIF already; this makes sure (GPS, maker notes, XMP and all).
+  const stripped = stripJpegMetadata(toByteArray(out.base64));
   return {
-    base64: out.base64,
+    base64: fromByteArray(stripped),
     mime: 'image/jpeg',
     width: out.width,
     height: out.height,
-    bytes: base64Bytes(out.base64),
+    bytes: stripped.length,
+    facts,
   };
 }
