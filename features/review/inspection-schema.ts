@@ -15,6 +15,7 @@ import {
   readingMethods,
 } from '@/features/records/schema';
 import type { EnvelopeItem, Limit } from '@/features/loads/engine';
+import { photoPlaceSchema, photoTakenAtSourceSchema } from '@/features/photos/metadata-schema';
 import { CYCLE_RESOLUTIONS } from '@/features/loads/cycle-resolution-schema';
 import {
   analysisLifeFields,
@@ -178,6 +179,9 @@ export const inspectionPhotoSchema = z.object({
   joint: z.number().int().nullable(),
   checklistItemId: z.string().nullable(),
   takenAt: z.string(),
+  /** From the record: where `takenAt` came from and, when the inspector allowed it, the place. */
+  takenAtSource: photoTakenAtSourceSchema.optional().catch(undefined),
+  place: photoPlaceSchema.optional().catch(undefined),
   /** Whether the bytes have reached the server (the record may arrive first). */
   received: z.boolean(),
   url: z.string(),

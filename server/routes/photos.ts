@@ -13,6 +13,7 @@ import { storageOf } from '@/server/storage';
 import { photoQuotaRefusal, type QuotaExceeded } from '@/server/sync/photo-quota';
 import {
   findPhoto,
+  jpegMetadataOf,
   MAX_PHOTO_BYTES,
   readPhoto,
   sniffImage,
@@ -66,7 +67,9 @@ const refuse = (res: Response, refusal: QuotaExceeded): never => {
  *   8 MB) → 201 `{ stored: true, sha256 }` the first time, 200 `{ stored: false, sha256 }` when the server
  *   already has them. 400 `hash_mismatch` when the bytes do not hash to the path, 413 `payload_too_large`,
  *   415 `not_an_image` when the bytes are not a JPEG, PNG or WebP file (whatever the Content-Type said),
- *   415 `unsupported_media_type` for a body sent as something else entirely. 429 `upload_quota` (with
+ *   415 `unsupported_media_type` for a body sent as something else entirely; 422 `photo_metadata` for a
+ *   JPEG that still carries EXIF, XMP or IPTC (the phone strips them before hashing, so the name is the
+ *   hash of what is stored; stripping here would change the bytes under their name). 429 `upload_quota` (with
  *   Retry-After) when the person has stored their hour's count or day's bytes of new photos
  *   (server/sync/photo-quota.ts; checked before the body is read, from Content-Length, and again after),
  *   or 429 `too_many_uploads` after twice the hour's count of attempts of any outcome.
@@ -136,6 +139,14 @@ export function photosRouter(deps: ApiDeps): Router {
         body.length === 0
           ? 'The upload is empty; send the photo’s bytes.'
           : 'The file is not a JPEG, PNG or WebP image, so it was not stored.',
+      );
+    const metadata = mime === 'image/jpeg' ? jpegMetadataOf(body) : [];
+    if (metadata.length > 0)
+      throw new HttpError(
+        422,
+        'photo_metadata',
+        `The JPEG still carries ${metadata.join(' and ')} metadata, so it was not stored. Photos are kept ` +
+          'without EXIF (no GPS, camera or maker notes): remove it before hashing and send those bytes.',
       );
     assertContentHash(body, sha256);
     // Again with the bytes actually sent (a chunked upload declares no length).

@@ -9,6 +9,7 @@ import path from 'node:path';
 import { eq } from 'drizzle-orm';
 
 import { photos, type photoMimes } from '@/db/server/inspections';
+import { jpegMetadataKinds } from '@/features/photos/exif';
 import type { Db } from '@/server/db';
 import { storedFolders, type ObjectStorage } from '@/server/storage';
 
@@ -30,6 +31,13 @@ export function sniffImage(bytes: Uint8Array): PhotoMime | null {
   if (bytes.length >= 12 && ascii(0, 4) === 'RIFF' && ascii(8, 12) === 'WEBP') return 'image/webp';
   return null;
 }
+
+/**
+ * The metadata kinds a JPEG still carries (EXIF, XMP, IPTC, another APP1), each once. Stored photos carry
+ * none: the upload route refuses such a JPEG rather than strip it, since stripping would change the bytes
+ * the SHA-256 in the signed record names.
+ */
+export const jpegMetadataOf = (bytes: Uint8Array) => [...new Set(jpegMetadataKinds(bytes))];
 
 /** The photo's key in the storage. */
 export const photoKeyOf = (sha256: string) => `${storedFolders.photos}/${sha256}`;

@@ -128,6 +128,16 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
     const entered = typed.get(r.id);
     return entered ? { ...r, entered } : r;
   });
+  // Where the capture time came from and the place are kept only in the record; older records have neither.
+  const photoFactsOf = new Map(
+    (row.record.photos ?? []).map((p) => [
+      p.id,
+      {
+        ...(p.takenAtSource ? { takenAtSource: p.takenAtSource } : {}),
+        ...(p.place ? { place: p.place } : {}),
+      },
+    ]),
+  );
   const photoRefs = db
     .select({
       id: inspectionPhotos.id,
@@ -145,7 +155,12 @@ export function getInspection(db: Db, user: SessionUser, id: string) {
     .where(eq(inspectionPhotos.inspectionId, id))
     .orderBy(asc(inspectionPhotos.takenAt), asc(inspectionPhotos.id))
     .all()
-    .map(({ storedAt, ...p }) => ({ ...p, received: storedAt !== null, url: `/api/photos/${p.sha256}` }));
+    .map(({ storedAt, ...p }) => ({
+      ...p,
+      ...photoFactsOf.get(p.id),
+      received: storedAt !== null,
+      url: `/api/photos/${p.sha256}`,
+    }));
   const amendedBy = db
     .select({ id: inspections.id, submittedAt: inspections.submittedAt })
     .from(inspections)
