@@ -152,7 +152,12 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
             {inspection.photosMissing} of {inspection.photos.length} not uploaded from the phone yet.
           </Text>
         ) : null}
-        <PhotoGallery photos={inspection.photos} onOpen={setOpenPhoto} context={photoContext} />
+        <PhotoGallery
+          photos={inspection.photos}
+          onOpen={setOpenPhoto}
+          context={photoContext}
+          zone={inspection.siteTimeZone}
+        />
       </Section>
       {twoColumns ? null : (
         <Section title="What the analysis used">
@@ -200,6 +205,7 @@ function ReviewBody({ inspection }: { inspection: InspectionDetail }) {
         openId={openPhoto}
         onChange={setOpenPhoto}
         context={photoContext}
+        zone={inspection.siteTimeZone}
       />
     </SubScreen>
   );

@@ -4,9 +4,8 @@ import { Spinner } from '@/components/spinner';
 import Feather from '@/components/feather-icon';
 import { Text } from '@/components/text';
 import { colors, radius, space } from '@/components/theme';
-import { formatDateTime } from '@/lib/dates';
 import type { InspectionPhoto } from '@/features/review/inspection-schema';
-import { usePhotoSource } from '@/features/photos';
+import { photoTakenLine, usePhotoSource } from '@/features/photos';
 import { FullSizePhotoViewer } from '@/features/photos/ui';
 
 const THUMB = 132;
@@ -60,15 +59,20 @@ export function PhotoThumb({
   );
 }
 
-/** Every photo of the inspection as thumbnails with their captions. */
+/**
+ * Every photo of the inspection as thumbnails with their captions, and beside each when (and, where the
+ * inspector allowed it, where) it was taken, on the site's clock (`zone`).
+ */
 export function PhotoGallery({
   photos,
   onOpen,
   context,
+  zone,
 }: {
   photos: InspectionPhoto[];
   onOpen: (photoId: string) => void;
   context: PhotoContext;
+  zone?: string | null;
 }) {
   if (photos.length === 0) return <Text muted>No photos were taken in this inspection.</Text>;
   return (
@@ -86,6 +90,9 @@ export function PhotoGallery({
                 {where}
               </Text>
             ) : null}
+            <Text variant="small" muted>
+              {photoTakenLine(p, zone)}
+            </Text>
           </View>
         );
       })}
@@ -102,11 +109,13 @@ export function PhotoViewer({
   openId,
   onChange,
   context,
+  zone,
 }: {
   photos: InspectionPhoto[];
   openId: string | null;
   onChange: (photoId: string | null) => void;
   context: PhotoContext;
+  zone?: string | null;
 }) {
   const index = photos.findIndex((p) => p.id === openId);
   return (
@@ -115,7 +124,7 @@ export function PhotoViewer({
       index={index >= 0 ? index : null}
       onChange={(i) => onChange(i === null ? null : (photos[i]?.id ?? null))}
       details={(photo) =>
-        [context(photo), `Taken ${formatDateTime(photo.takenAt)}`, `${Math.round(photo.bytes / 1024)} KB`]
+        [context(photo), photoTakenLine(photo, zone), `${Math.round(photo.bytes / 1024)} KB`]
           .filter(Boolean)
           .join(' · ')
       }

@@ -22,6 +22,7 @@ import { MULTILINE_MAX_HEIGHT, MULTILINE_MIN_HEIGHT, TextField } from '@/compone
 import { ToggleChips } from '@/components/toggle-chips';
 import { UndoSnackbar } from '@/components/undo-snackbar';
 import { makeQueryClient } from '@/features/api/query-client';
+import { formatDateTime } from '@/lib/dates';
 import { loadDraft, saveDraft } from '@/features/device-db/drafts';
 import { DeviceDbProvider } from '@/features/device-db/provider';
 import { InspectionScreen } from '@/features/inspections/inspection-screen';
@@ -66,13 +67,21 @@ jest.mock('@/features/sync/use-sync-status', () => ({
     retryPhoto: async () => {},
   }),
 }));
-// The camera: a tiny JPEG (its first bytes are the JPEG start-of-image marker FF D8 FF).
+// The camera: a tiny JPEG (its first bytes are the JPEG start-of-image marker FF D8 FF), taken at the
+// time its EXIF gives, with the camera's GPS position only when the inspector allows a place.
 jest.mock('@/features/photos/ui', () => ({
-  capturePhoto: async () => {
+  capturePhoto: jest.fn(async (_source: string, { allowPlace = false }: { allowPlace?: boolean } = {}) => {
     const { fromByteArray } = jest.requireActual('base64-js');
     const { fakeJpeg: jpeg } = jest.requireActual('@/tests/support/inspection-fixtures');
-    return { base64: fromByteArray(jpeg(7)), mime: 'image/jpeg', width: 8, height: 8, bytes: 64 };
-  },
+    const facts = {
+      takenAt: '2026-06-03T07:15:00.000Z',
+      takenAtSource: 'exif',
+      ...(allowPlace ? { place: { lat: 51.5034, lon: -0.1276, source: 'exif' } } : {}),
+    };
+    return { base64: fromByteArray(jpeg(7)), mime: 'image/jpeg', width: 8, height: 8, bytes: 64, facts };
+  }),
+  askDevicePlace: async () => 'granted',
+  devicePlaceAvailable: true,
 }));
 // Scrolling and focus belong to the platform (checked in the browser test); here: what is jumped to.
 jest.mock('@/features/inspections/jump-to', () => ({ jumpTo: jest.fn(() => true) }));
@@ -312,6 +321,26 @@ describe('photos on items', () => {
         expect.objectContaining({ uri: expect.stringMatching(/^data:image\/jpeg;base64,/) }),
       ),
     );
+    // Its time came from the camera; no place, since the inspector has not allowed one.
+    expect(shot).toMatchObject({ takenAt: '2026-06-03T07:15:00.000Z', takenAtSource: 'exif' });
+    expect(shot).not.toHaveProperty('place');
+  });
+
+  test('with "Keep where photos are taken" on, the photo keeps its place and the list shows both beside it', async () => {
+    renderRecording();
+    fireEvent.press(await screen.findByRole('radio', { name: 'Photos' }));
+    const toggle = () => screen.getByRole('checkbox', { name: 'Keep where photos are taken' });
+    // Off until the inspector turns it on.
+    expect(toggle().props.accessibilityState?.checked).toBe(false);
+    fireEvent.press(toggle());
+    await waitFor(() => expect(toggle().props.accessibilityState?.checked).toBe(true));
+    fireEvent.press(screen.getByRole('button', { name: 'Take a photo' }));
+    const line = `Taken ${formatDateTime('2026-06-03T07:15:00.000Z')} (camera clock) · 51.5034° N, 0.1276° W (camera)`;
+    expect(await screen.findByText(line)).toBeTruthy();
+    expect((await saved()).photos[0].place).toEqual({ lat: 51.5034, lon: -0.1276, source: 'exif' });
+    // The choice is the device's: turned off again here so the other tests start from off.
+    fireEvent.press(toggle());
+    await waitFor(() => expect(toggle().props.accessibilityState?.checked).toBe(false));
   });
 });
 

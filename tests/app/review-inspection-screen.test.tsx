@@ -686,6 +686,30 @@ describe('inspection review', () => {
     expect(screen.UNSAFE_queryAllByType(Image).length).toBeGreaterThan(0);
   });
 
+  test('beside each photo: when it was taken on the site’s clock, where its time came from, and the place when kept', async () => {
+    const answer = inspectionAnswer({ siteTimeZone: 'Europe/London' });
+    const shown = answer.inspection.photos as Record<string, unknown>[];
+    shown[1] = {
+      ...shown[1],
+      takenAtSource: 'device',
+      place: { lat: 51.5034, lon: -0.1276, accuracyM: 12, source: 'device' },
+    };
+    shown[0] = { ...shown[0], takenAtSource: 'exif' };
+    answers['/api/inspections/insp-3'] = () => [200, answer];
+    renderReview();
+    // 08:31 UTC on 2 June is 09:31 in London (BST, UTC+1, IANA tz database).
+    const line = 'Taken 2 Jun 2026, 09:31 (device clock) · 51.5034° N, 0.1276° W (device, ±12 m)';
+    expect(await screen.findByText(line)).toBeTruthy();
+    expect(screen.getByText('Taken 2 Jun 2026, 09:30 (camera clock)')).toBeTruthy();
+    // A photo from a record made before the time's source was kept: its time only.
+    expect(screen.getByText('Taken 2 Jun 2026, 09:32')).toBeTruthy();
+    // The full-size view says the same under the caption.
+    fireEvent.press(
+      await screen.findByRole('button', { name: 'Open photo: Main pin, worn face (P1 · Main pivot)' }),
+    );
+    expect(await screen.findByText(`P1 · Main pivot · ${line} · 186 KB`)).toBeTruthy();
+  });
+
   test('the versions the analysis used, and where the phone’s preview differed', async () => {
     const view = renderReview();
     const facts = await screen.findByLabelText('Analysis facts');
