@@ -11,7 +11,7 @@ import { type PhotoBlobRow, type PhotoUploadState, photoBlobs } from '@/db/devic
 import type { DeviceDb } from '@/features/device-db/connection';
 import { getDeviceOwner, ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
-import { jpegMetadataKinds } from '@/features/photos';
+import { jpegMetadataKinds } from '@/lib/jpeg-metadata';
 import type { PhotoRef } from '@/features/records/schema';
 
 type PhotoMime = PhotoRef['mime'];

@@ -3,9 +3,10 @@ import { fromByteArray, toByteArray } from 'base64-js';
 import * as ImagePicker from 'expo-image-picker';
 
 import { currentDevicePlace } from '@/features/photos/device-place';
-import { photoFacts, stripJpegMetadata, type PhotoFacts } from '@/features/photos/exif';
+import { photoFacts, type PhotoFacts } from '@/features/photos/exif';
 import { originalExif } from '@/features/photos/original-exif';
 import { deviceTimeZone } from '@/lib/dates';
+import { stripJpegMetadata } from '@/lib/jpeg-metadata';
 
 /** Photos are kept small on the phone: long edge at most this many pixels, JPEG. */
 const PHOTO_LONG_EDGE_PX = 1600;

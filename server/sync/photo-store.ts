@@ -9,7 +9,7 @@ import path from 'node:path';
 import { eq } from 'drizzle-orm';
 
 import { photos, type photoMimes } from '@/db/server/inspections';
-import { jpegMetadataKinds } from '@/features/photos/exif';
+import { jpegMetadataKinds } from '@/lib/jpeg-metadata';
 import type { Db } from '@/server/db';
 import { storedFolders, type ObjectStorage } from '@/server/storage';
 

@@ -3,6 +3,8 @@
  * migration runner, transactions that nothing else can slip into, drafts, submit into the outbox, and
  * the photo store. SHA-256 is checked against the FIPS 180-2 example ("abc", Appendix B.1).
  */
+import { createHash } from 'node:crypto';
+
 import { sql } from 'drizzle-orm';
 
 import { outbox } from '@/db/device/schema';
@@ -19,6 +21,8 @@ import {
   sniffImageMime,
 } from '@/features/device-db/photos';
 
+import { stripJpegMetadata } from '@/lib/jpeg-metadata';
+import { jpegWithExif } from '@/tests/support/exif-jpeg';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
 import {
   type MemoryDeviceDb,
@@ -273,6 +277,19 @@ describe('photo store', () => {
     ).rejects.toThrow(/does not match its SHA-256/);
     await expect(putPhotoBlob(dev, { bytes: new Uint8Array(), mime: 'image/jpeg' })).rejects.toThrow(/empty/);
     expect(dev.sqlite.prepare('SELECT count(*) AS n FROM photo_blobs').get()).toEqual({ n: 0 });
+  });
+
+  test('a JPEG still carrying EXIF (written by piexifjs) is refused; its stripped copy is kept under its own hash', async () => {
+    const camera = jpegWithExif({ dateTimeOriginal: '2026:12:03 14:05:09', lat: 51.5034, lon: -0.1276 });
+    await expect(putPhotoBlob(dev, { bytes: camera, mime: 'image/jpeg' })).rejects.toThrow(
+      'The photo still carries EXIF metadata; it must be removed before the photo is kept.',
+    );
+    expect(dev.sqlite.prepare('SELECT count(*) AS n FROM photo_blobs').get()).toEqual({ n: 0 });
+    const stripped = stripJpegMetadata(camera);
+    const { sha256 } = await putPhotoBlob(dev, { bytes: stripped, mime: 'image/jpeg' });
+    // Node's own SHA-256 of the kept bytes is the name the record and the server use.
+    expect(sha256).toBe(createHash('sha256').update(stripped).digest('hex'));
+    expect(await getPhotoBytes(dev, sha256)).toEqual(stripped);
   });
 });
 

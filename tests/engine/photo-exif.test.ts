@@ -5,7 +5,8 @@
  */
 import { gps, parse } from 'exifr';
 
-import { jpegMetadataKinds, photoFacts, photoTakenLine, stripJpegMetadata } from '@/features/photos/exif';
+import { photoFacts, photoTakenLine } from '@/features/photos/exif';
+import { jpegMetadataKinds, stripJpegMetadata } from '@/lib/jpeg-metadata';
 import { jpegWithExif, plainJpeg, withXmp } from '@/tests/support/exif-jpeg';
 
 const everything = { tiff: true, exif: true, gps: true, xmp: true, iptc: true, makerNote: true };

@@ -12,7 +12,7 @@ import { parse } from 'exifr';
 import request from 'supertest';
 
 import { photos } from '@/db/server/inspections';
-import { stripJpegMetadata } from '@/features/photos/exif';
+import { stripJpegMetadata } from '@/lib/jpeg-metadata';
 import { storageOf } from '@/server/storage';
 import { photoKeyOf } from '@/server/sync/photo-store';
 import { jpegWithExif, plainJpeg, withXmp } from '@/tests/support/exif-jpeg';
