@@ -6,7 +6,7 @@ import { currentDevicePlace } from '@/features/photos/device-place';
 import { photoFacts, type PhotoFacts } from '@/features/photos/exif';
 import { originalExif } from '@/features/photos/original-exif';
 import { deviceTimeZone } from '@/lib/dates';
-import { stripJpegMetadata } from '@/lib/jpeg-metadata';
+import { jpegMetadataKinds, stripJpegMetadata } from '@/lib/jpeg-metadata';
 
 /** Photos are kept small on the phone: long edge at most this many pixels, JPEG. */
 const PHOTO_LONG_EDGE_PX = 1600;
@@ -58,8 +58,10 @@ export async function capturePhoto(
     base64: true,
   });
   if (!out.base64) throw new Error('The photo could not be read.');
-  // Re-encoding usually drops EXIF already; this makes sure (GPS, maker notes, XMP and all).
-  const stripped = stripJpegMetadata(toByteArray(out.base64));
+  // Re-encoding usually drops EXIF already; this makes sure (GPS, maker notes, XMP and all). Bytes whose
+  // header cannot be walked carry nothing readable, and the phone's store and the server take them as they are.
+  const encoded = toByteArray(out.base64);
+  const stripped = jpegMetadataKinds(encoded).length > 0 ? stripJpegMetadata(encoded) : encoded;
   return {
     base64: fromByteArray(stripped),
     mime: 'image/jpeg',
