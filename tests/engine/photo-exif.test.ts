@@ -5,7 +5,10 @@
  */
 import { gps, parse } from 'exifr';
 
+import type { ImagePickerAsset } from 'expo-image-picker';
+
 import { photoFacts, photoTakenLine } from '@/features/photos/exif';
+import { originalExif } from '@/features/photos/original-exif.web';
 import { jpegMetadataKinds, stripJpegMetadata } from '@/lib/jpeg-metadata';
 import { jpegWithExif, plainJpeg, withXmp } from '@/tests/support/exif-jpeg';
 
@@ -129,5 +132,35 @@ describe('capture time and place', () => {
       ),
     ).toBe('Taken 3 Dec 2026, 14:05 (device clock) · 51.5034° N, 0.1276° W (device)');
     expect(photoTakenLine({ takenAt: '2026-12-03T14:05:00Z' }, 'Asia/Tokyo')).toBe('Taken 3 Dec 2026, 23:05');
+  });
+});
+
+describe('the web reader (exifr mini over the picked file)', () => {
+  it('gives the EXIF 2.3 tags by name, as exifr (full, with its tag dictionary) reads them', async () => {
+    const bytes = withXmp(shot(), xmpPacket);
+    const asset = {
+      uri: 'blob:x',
+      width: 1,
+      height: 1,
+      file: new File([bytes], 'shot.jpg'),
+    } as ImagePickerAsset;
+    const full = await read(bytes, { tiff: true, exif: true, gps: true, reviveValues: false });
+    expect(await originalExif(asset)).toEqual({
+      DateTimeOriginal: full.DateTimeOriginal,
+      GPSLatitudeRef: full.GPSLatitudeRef,
+      GPSLatitude: full.GPSLatitude,
+      GPSLongitudeRef: full.GPSLongitudeRef,
+      GPSLongitude: full.GPSLongitude,
+    });
+    const none = { ...asset, file: new File([plainJpeg()], 'plain.jpg') } as ImagePickerAsset;
+    expect(
+      photoFacts({
+        exif: await originalExif(none),
+        devicePlace: null,
+        allowPlace: true,
+        now: new Date(),
+        zone: 'UTC',
+      }),
+    ).toMatchObject({ takenAtSource: 'device' });
   });
 });
