@@ -138,11 +138,12 @@ describe('capture time and place', () => {
 describe('the web reader (exifr mini over the picked file)', () => {
   it('gives the EXIF 2.3 tags by name, as exifr (full, with its tag dictionary) reads them', async () => {
     const bytes = withXmp(shot(), xmpPacket);
+    // A File takes ArrayBuffer-backed bytes: slice() copies into one.
     const asset = {
       uri: 'blob:x',
       width: 1,
       height: 1,
-      file: new File([bytes], 'shot.jpg'),
+      file: new File([bytes.slice()], 'shot.jpg'),
     } as ImagePickerAsset;
     const full = await read(bytes, { tiff: true, exif: true, gps: true, reviveValues: false });
     expect(await originalExif(asset)).toEqual({
@@ -152,7 +153,7 @@ describe('the web reader (exifr mini over the picked file)', () => {
       GPSLongitudeRef: full.GPSLongitudeRef,
       GPSLongitude: full.GPSLongitude,
     });
-    const none = { ...asset, file: new File([plainJpeg()], 'plain.jpg') } as ImagePickerAsset;
+    const none = { ...asset, file: new File([plainJpeg().slice()], 'plain.jpg') } as ImagePickerAsset;
     expect(
       photoFacts({
         exif: await originalExif(none),
