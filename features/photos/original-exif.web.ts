@@ -1,5 +1,4 @@
 import type { ImagePickerAsset } from 'expo-image-picker';
-import { parse } from 'exifr/dist/mini.umd.js';
 
 import type { ExifTags } from '@/features/photos/exif';
 
@@ -27,6 +26,9 @@ const wanted = {
 export async function originalExif(asset: ImagePickerAsset): Promise<ExifTags | null> {
   try {
     const data = asset.file ? await asset.file.arrayBuffer() : await (await fetch(asset.uri)).arrayBuffer();
+    // Its own chunk, loaded at the first photo (the service worker keeps it for offline use): not in the
+    // code every signed-in page shares, which Today's first visit pays for.
+    const { parse } = await import('exifr/dist/mini.umd.js');
     const read: unknown = await parse(data, {
       tiff: true,
       exif: true,
