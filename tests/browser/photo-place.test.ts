@@ -8,7 +8,12 @@ import { readFileSync, writeFileSync } from 'node:fs';
 
 import piexif from 'piexifjs';
 
-import { jpegPhoto, serverAndBrowser, startPeriodicInspection } from '@/tests/support/browser/harness';
+import {
+  jpegPhoto,
+  screenshot,
+  serverAndBrowser,
+  startPeriodicInspection,
+} from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
 const look = { background: '#5d6b4a', fontPx: 40 };
@@ -67,4 +72,5 @@ test('with the box ticked, a photo keeps its EXIF time and place, another the de
   await pick(plain);
   await page.getByText(/\(device clock\) · 33\.8568° S, 151\.2153° E \(device, ±15 m\)$/).waitFor();
   expect(await page.getByRole('alert').count()).toBe(0);
+  await screenshot(page, 'phone-photo-time-place');
 });
