@@ -77,7 +77,15 @@ export class TransferLog {
     const response = await request.response();
     const sizes = await request.sizes().catch(() => null);
     const fromCache = response?.fromServiceWorker() ?? false;
-    const bytes = fromCache || !sizes ? 0 : sizes.responseHeadersSize + sizes.responseBodySize;
+    // A dedicated worker's script (the device database's) arrives over the network with its headers, yet
+    // CDP reports its body as 0 bytes: its declared length is what crossed. (A hit in the HTTP cache has no
+    // header bytes either and stays 0.)
+    const declared = Number((await response?.headerValue('content-length').catch(() => null)) ?? 0);
+    const body =
+      sizes && sizes.responseBodySize === 0 && sizes.responseHeadersSize > 0 && response?.status() === 200
+        ? declared
+        : (sizes?.responseBodySize ?? 0);
+    const bytes = fromCache || !sizes ? 0 : sizes.responseHeadersSize + body;
     this.entries.push({
       at,
       url,
@@ -246,8 +254,15 @@ export async function measureFirstScreen(
   browser: Browser,
   baseUrl: string,
   role: Role,
+  /** Holds each answer to the phone's sync pull back this long, as a slow phone or network would. */
+  { slowPullMs = 0 }: { slowPullMs?: number } = {},
 ): Promise<FirstScreen> {
   const { context, page, log } = await freshPhone(browser);
+  if (slowPullMs > 0)
+    await context.route('**/api/sync/pull*', async (route) => {
+      await new Promise((r) => setTimeout(r, slowPullMs));
+      await route.continue();
+    });
   await page.goto(`${baseUrl}/`);
   await page.getByLabel('E-mail').fill(`${role}@pivotwatch.test`);
   await page.getByLabel('Password').fill(DEMO_PASSWORD);

@@ -18,11 +18,13 @@ import { roles } from '@/features/session/schema';
 import { useRidesQuery } from '@/features/rides';
 import { PlateSheetDownload } from '@/features/registry/ui';
 import { rideClassLabel } from '@/features/rides/schema';
+import { useFirstScreenSettled } from '@/components/first-screen';
 
 /** Administrator's start page: who can sign in, the ride register at a glance, and the e-mail outbox. */
 export function AdminHome() {
   const users = useAdminUsersQuery();
   const rides = useRidesQuery();
+  useFirstScreenSettled(!users.isPending);
   return (
     <RoleGate roles={['admin']}>
       {() => (

@@ -24,6 +24,7 @@ import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
 import { formatDate } from '@/lib/dates';
 import { useRidesQuery } from '@/features/rides';
 import { RideGrid } from '@/features/rides/ui';
+import { useFirstScreenSettled } from '@/components/first-screen';
 
 /** Enough to hold every notice an operator company has open at once. */
 const NOTICES_PAGE = 100;
@@ -52,6 +53,7 @@ export function OperatorHome() {
 
 function OperatorNotices() {
   const list = useNoticeList({ pageSize: NOTICES_PAGE });
+  useFirstScreenSettled(!list.isPending);
   const notices = list.data?.notices ?? [];
   const awaiting = notices.filter((n) => n.acknowledgedAt === null);
   // The findings as they stand now come with each notice; one finding may be on more than one notice.

@@ -27,6 +27,7 @@ import { inspectHref, scanHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
 import { SyncPanel } from '@/features/inspections/sync-panel';
 import { useSyncStatus } from '@/features/sync/ui';
+import { useFirstScreenSettled } from '@/components/first-screen';
 
 /**
  * The inspector's day, read from the phone: inspections a supervisor returned for correction, drafts to
@@ -49,6 +50,10 @@ export function TodayScreen() {
     firstSync.current = true;
     void sync.syncNow();
   }, [sync]);
+  // Today has its content once the rides are read and a first sync (on a fresh phone) has ended.
+  useFirstScreenSettled(
+    rides.isSuccess && sync.loaded && !sync.running && (sync.lastSuccessAt ?? sync.lastAttemptAt) != null,
+  );
 
   return (
     <RoleGate roles={['inspector']}>

@@ -35,6 +35,7 @@ import { stepIndex } from '@/features/review/shortcuts';
 import { UrgencyIcon, UrgencyMark, urgencyLook } from '@/features/review/urgency-mark';
 import { useShortcuts } from '@/features/review/use-shortcuts';
 import { rideClassLabel } from '@/features/rides/schema';
+import { useFirstScreenSettled } from '@/components/first-screen';
 
 const PAGE_SIZE = 25;
 /** From this window width the table has room for columns of their own for the load check and the counts. */
@@ -74,6 +75,7 @@ function Queue({ admin }: { admin: boolean }) {
   const queue = useReviewQueue({ ...query, pageSize: PAGE_SIZE, ...(reversed ? { to: undefined } : {}) });
   const [search, setSearch] = useSearchText(query.q, (q) => setQuery({ q, page: undefined }));
   const keys = useQueueKeys(queue.data?.items);
+  useFirstScreenSettled(!queue.isPending);
 
   const chosen = query.urgency ?? [];
   const toggleUrgency = (u: Urgency) =>
