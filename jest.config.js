@@ -28,11 +28,11 @@ module.exports = {
         '<rootDir>/tests/lint/**/*.test.ts',
       ],
       moduleNameMapper: alias,
-      // jose ships ES modules only; ts-jest (allowJs) turns it into CommonJS for the node project.
-      transformIgnorePatterns: ['/node_modules/(?!jose/)'],
+      // jose and canonicalize ship ES modules only; ts-jest (allowJs) turns them into CommonJS for the node project.
+      transformIgnorePatterns: ['/node_modules/(?!(jose|canonicalize)/)'],
       transform: {
         '^.+\\.tsx?$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false }],
-        '/node_modules/jose/.+\\.js$': [
+        '/node_modules/(jose|canonicalize)/.+\\.js$': [
           'ts-jest',
           { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false },
         ],

@@ -5,6 +5,7 @@ const path = require('path');
 
 /** Features from the bottom up: a feature may import the ones before it, never the ones after it. */
 const featureOrder = [
+  'ledger',
   'session',
   'api',
   'auth',

@@ -1,0 +1,238 @@
+/**
+ * The tamper-evident record chain (issue #18), pure: the canonical form of a record (RFC 8785, JSON
+ * Canonicalization Scheme, through the `canonicalize` package), SHA-256 hashes, Ed25519 signatures
+ * (@noble/curves) and the check of a ride's chain. The server appends and verifies with it; the phone uses
+ * the same canonical form and hash, so both sides hash the same bytes.
+ */
+import { ed25519 } from '@noble/curves/ed25519';
+import { sha256 } from '@noble/hashes/sha2';
+import { bytesToHex, hexToBytes, utf8ToBytes } from '@noble/hashes/utils';
+import canonicalize from 'canonicalize';
+
+/** What the chain records: an inspection or amendment as accepted, a decision, a finding, an NDT record, a notice. */
+export const ledgerKinds = ['inspection', 'amendment', 'decision', 'finding', 'ndt', 'notice'] as const;
+export type LedgerKind = (typeof ledgerKinds)[number];
+
+/** The `prevHash` of a ride's first entry. */
+export const genesisHash = '0'.repeat(64);
+
+/** RFC 8785 canonical JSON of a value; a value with no JSON form (undefined, a function) is refused. */
+export function canonicalJson(value: unknown): string {
+  const text = canonicalize(value);
+  if (text === undefined) throw new Error('This value has no JSON form.');
+  return text;
+}
+
+/** SHA-256 of a string's UTF-8 bytes, in lowercase hex. */
+export const sha256Hex = (text: string): string => bytesToHex(sha256(utf8ToBytes(text)));
+
+/** SHA-256 of a record's canonical JSON: what a signature and the chain commit to. */
+export const recordHashOf = (value: unknown): string => sha256Hex(canonicalJson(value));
+
+/** One entry of a ride's chain as stored. `record` is the canonical JSON of the record as accepted. */
+export type LedgerEntry = {
+  rideId: string;
+  seq: number;
+  kind: LedgerKind;
+  refId: string;
+  at: string;
+  record: string;
+  recordHash: string;
+  prevHash: string;
+  entryHash: string;
+  serverKeyId: string;
+  serverSignature: string;
+  deviceKeyId: string | null;
+  deviceSignature: string | null;
+};
+
+type Hashed = Omit<LedgerEntry, 'record' | 'entryHash' | 'serverKeyId' | 'serverSignature'>;
+
+/** The entry's hash: over its place (ride, seq, previous hash), what it is, when, the record's hash and the phone's signature. */
+export function entryHashOf(e: Hashed): string {
+  return sha256Hex(
+    canonicalJson({
+      rideId: e.rideId,
+      seq: e.seq,
+      kind: e.kind,
+      refId: e.refId,
+      at: e.at,
+      recordHash: e.recordHash,
+      prevHash: e.prevHash,
+      deviceKeyId: e.deviceKeyId,
+      deviceSignature: e.deviceSignature,
+    }),
+  );
+}
+
+/** The hash a ride's head signature covers: the last entry's seq and hash. */
+export const headHashOf = (head: { rideId: string; seq: number; entryHash: string }): string =>
+  sha256Hex(canonicalJson({ rideId: head.rideId, seq: head.seq, entryHash: head.entryHash }));
+
+/** A new Ed25519 private key (32 random bytes), hex. */
+export const newPrivateKey = (): string => bytesToHex(ed25519.utils.randomPrivateKey());
+
+export const publicKeyOf = (privateKeyHex: string): string =>
+  bytesToHex(ed25519.getPublicKey(hexToBytes(privateKeyHex)));
+
+/** A key's id: the first 16 hex digits of its public key's SHA-256. */
+export const keyIdOf = (publicKeyHex: string): string =>
+  bytesToHex(sha256(hexToBytes(publicKeyHex))).slice(0, 16);
+
+/** Ed25519 signature (hex) of a hex message (a hash's 32 bytes). */
+export const signHex = (privateKeyHex: string, messageHex: string): string =>
+  bytesToHex(ed25519.sign(hexToBytes(messageHex), hexToBytes(privateKeyHex)));
+
+/** True only for a well-formed signature that verifies; anything malformed is false, never a throw. */
+export function verifyHex(publicKeyHex: string, messageHex: string, signatureHex: string): boolean {
+  try {
+    return ed25519.verify(hexToBytes(signatureHex), hexToBytes(messageHex), hexToBytes(publicKeyHex));
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * The entry that follows `prev` (null for a ride's first) for `value`, countersigned with the server's key.
+ * `device` is the phone's key id and its signature over the record's hash, when it signed.
+ */
+export function nextEntry(args: {
+  rideId: string;
+  prev: Pick<LedgerEntry, 'seq' | 'entryHash'> | null;
+  kind: LedgerKind;
+  refId: string;
+  at: string;
+  value: unknown;
+  device: { keyId: string; signature: string } | null;
+  server: { keyId: string; privateKey: string };
+}): LedgerEntry {
+  const record = canonicalJson(args.value);
+  const hashed = {
+    rideId: args.rideId,
+    seq: args.prev ? args.prev.seq + 1 : 1,
+    kind: args.kind,
+    refId: args.refId,
+    at: args.at,
+    recordHash: sha256Hex(record),
+    prevHash: args.prev ? args.prev.entryHash : genesisHash,
+    deviceKeyId: args.device?.keyId ?? null,
+    deviceSignature: args.device?.signature ?? null,
+  };
+  const entryHash = entryHashOf(hashed);
+  return {
+    ...hashed,
+    record,
+    entryHash,
+    serverKeyId: args.server.keyId,
+    serverSignature: signHex(args.server.privateKey, entryHash),
+  };
+}
+
+/** Why a chain is broken at an entry, in the order they are checked. */
+export const breakReasons = [
+  'missing',
+  'order',
+  'altered',
+  'countersignature',
+  'device_signature',
+  'head',
+  'live_differs',
+] as const;
+export type BreakReason = (typeof breakReasons)[number];
+
+export type ChainBreak = { seq: number; kind: LedgerKind | null; refId: string | null; why: BreakReason };
+export type ChainResult =
+  { intact: true; entries: number } | { intact: false; entries: number; break: ChainBreak };
+
+export type ChainInput = {
+  /** The ride's entries ordered by seq. */
+  entries: readonly LedgerEntry[];
+  /** The server's signed head of the ride's chain; null when the ride has none. */
+  head: { seq: number; entryHash: string; signature: string } | null;
+  rideId: string;
+  /** The server's public key by key id (null: unknown key). */
+  serverKey: (keyId: string) => string | null;
+  /** A phone's public key by key id (null: unknown key). */
+  deviceKey: (keyId: string) => string | null;
+  /** The canonical JSON of each record as it stands now, by `kind:refId` (null: the row is gone). */
+  live: (kind: LedgerKind, refId: string) => string | null | undefined;
+};
+
+const broken = (entries: number, e: ChainBreak): ChainResult => ({ intact: false, entries, break: e });
+
+/**
+ * Checks a ride's chain entry by entry and returns the first entry that breaks it: a seq missing, a
+ * previous-hash link that does not meet (entries reordered or replaced), an entry whose content no longer
+ * gives its hash, a server countersignature or phone signature that does not verify, an end that is not
+ * the server's signed head (entries cut off or added), then a live record that differs from the latest
+ * entry of its ref.
+ */
+export function verifyChain(input: ChainInput): ChainResult {
+  const { entries } = input;
+  const n = entries.length;
+  let prev: LedgerEntry | null = null;
+  for (const e of entries) {
+    const expectedSeq = prev ? prev.seq + 1 : 1;
+    const at = { seq: e.seq, kind: e.kind, refId: e.refId };
+    if (e.seq !== expectedSeq)
+      return broken(n, { seq: expectedSeq, kind: null, refId: null, why: 'missing' });
+    if (e.prevHash !== (prev ? prev.entryHash : genesisHash)) return broken(n, { ...at, why: 'order' });
+    if (e.rideId !== input.rideId || sha256Hex(e.record) !== e.recordHash || entryHashOf(e) !== e.entryHash)
+      return broken(n, { ...at, why: 'altered' });
+    const serverKey = input.serverKey(e.serverKeyId);
+    if (!serverKey || !verifyHex(serverKey, e.entryHash, e.serverSignature))
+      return broken(n, { ...at, why: 'countersignature' });
+    if (e.deviceKeyId !== null || e.deviceSignature !== null) {
+      const deviceKey = e.deviceKeyId ? input.deviceKey(e.deviceKeyId) : null;
+      if (!deviceKey || !e.deviceSignature || !verifyHex(deviceKey, e.recordHash, e.deviceSignature))
+        return broken(n, { ...at, why: 'device_signature' });
+    }
+    prev = e;
+  }
+  const lastSeq = prev?.seq ?? 0;
+  const head = input.head;
+  if (head === null) {
+    if (prev) return broken(n, { seq: prev.seq, kind: prev.kind, refId: prev.refId, why: 'head' });
+  } else {
+    if (head.seq > lastSeq) return broken(n, { seq: lastSeq + 1, kind: null, refId: null, why: 'missing' });
+    const headKey = prev ? input.serverKey(prev.serverKeyId) : null;
+    const signed =
+      headKey !== null &&
+      verifyHex(
+        headKey,
+        headHashOf({ rideId: input.rideId, seq: head.seq, entryHash: head.entryHash }),
+        head.signature,
+      );
+    if (!prev || head.seq < lastSeq || head.entryHash !== prev.entryHash || !signed) {
+      const after = entries.find((e) => e.seq === head.seq + 1) ?? prev;
+      return broken(n, {
+        seq: after?.seq ?? head.seq,
+        kind: after?.kind ?? null,
+        refId: after?.refId ?? null,
+        why: 'head',
+      });
+    }
+  }
+  // The latest entry of each record against the record as it stands now.
+  const latest = new Map<string, LedgerEntry>();
+  for (const e of entries) latest.set(`${e.kind}:${e.refId}`, e);
+  const byPlace = [...latest.values()].sort((a, b) => a.seq - b.seq);
+  for (const e of byPlace) {
+    const now = input.live(e.kind, e.refId);
+    if (now === undefined) continue;
+    if ((now === null ? 'null' : now) !== e.record)
+      return broken(n, { seq: e.seq, kind: e.kind, refId: e.refId, why: 'live_differs' });
+  }
+  return { intact: true, entries: n };
+}
+
+/** The plain words for a break, for the app and the API's answer. */
+export const breakWords: Record<BreakReason, string> = {
+  missing: 'an entry is missing here: the sequence jumps over it or was cut short',
+  order: 'the order was changed: this entry does not follow the one stored before it',
+  altered: 'this entry was altered after it was written: its content no longer gives its hash',
+  countersignature: "the server's countersignature on this entry does not verify",
+  device_signature: "the phone's signature on this record does not verify",
+  head: "the chain's end is not the end the server signed: entries were added or removed there",
+  live_differs: 'the record as it stands now differs from what was accepted',
+};
