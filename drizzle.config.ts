@@ -12,6 +12,7 @@ export default defineConfig({
     './db/server/life.ts',
     './db/server/ndt.ts',
     './db/server/accounts.ts',
+    './db/server/ledger.ts',
   ],
   out: './drizzle/server',
 });

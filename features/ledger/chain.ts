@@ -9,9 +9,7 @@ import { sha256 } from '@noble/hashes/sha2';
 import { bytesToHex, hexToBytes, utf8ToBytes } from '@noble/hashes/utils';
 import canonicalize from 'canonicalize';
 
-/** What the chain records: an inspection or amendment as accepted, a decision, a finding, an NDT record, a notice. */
-export const ledgerKinds = ['inspection', 'amendment', 'decision', 'finding', 'ndt', 'notice'] as const;
-export type LedgerKind = (typeof ledgerKinds)[number];
+import { type ChainBreak, type LedgerKind } from './schema';
 
 /** The `prevHash` of a ride's first entry. */
 export const genesisHash = '0'.repeat(64);
@@ -128,19 +126,6 @@ export function nextEntry(args: {
   };
 }
 
-/** Why a chain is broken at an entry, in the order they are checked. */
-export const breakReasons = [
-  'missing',
-  'order',
-  'altered',
-  'countersignature',
-  'device_signature',
-  'head',
-  'live_differs',
-] as const;
-export type BreakReason = (typeof breakReasons)[number];
-
-export type ChainBreak = { seq: number; kind: LedgerKind | null; refId: string | null; why: BreakReason };
 export type ChainResult =
   { intact: true; entries: number } | { intact: false; entries: number; break: ChainBreak };
 
@@ -225,14 +210,3 @@ export function verifyChain(input: ChainInput): ChainResult {
   }
   return { intact: true, entries: n };
 }
-
-/** The plain words for a break, for the app and the API's answer. */
-export const breakWords: Record<BreakReason, string> = {
-  missing: 'an entry is missing here: the sequence jumps over it or was cut short',
-  order: 'the order was changed: this entry does not follow the one stored before it',
-  altered: 'this entry was altered after it was written: its content no longer gives its hash',
-  countersignature: "the server's countersignature on this entry does not verify",
-  device_signature: "the phone's signature on this record does not verify",
-  head: "the chain's end is not the end the server signed: entries were added or removed there",
-  live_differs: 'the record as it stands now differs from what was accepted',
-};

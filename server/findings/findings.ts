@@ -21,6 +21,7 @@ import {
 } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
+import { appendToLedger } from '@/server/ledger/append';
 import { recordAudit } from '@/server/registry/audit';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
@@ -282,6 +283,7 @@ export function createFinding(
       })
       .returning({ id: findings.id })
       .get();
+    appendToLedger(tx, { kind: 'finding', refId: id }, now);
     const after = mustFindFinding(tx, id);
     recordAudit(tx, {
       userId: user.id,
@@ -329,6 +331,7 @@ export function updateFinding(
       .set({ ...merged, updatedAt: laterThan(before.updatedAt, now), updatedBy: user.id })
       .where(eq(findings.id, id))
       .run();
+    appendToLedger(tx, { kind: 'finding', refId: id }, now);
     const after = mustFindFinding(tx, id);
     const severityChange = before.severity === after.severity ? '' : ` (${label(before)} → ${label(after)})`;
     recordAudit(tx, {
@@ -352,6 +355,7 @@ export function deleteFinding(db: Db, user: SessionUser, id: string, now: Date):
     const inspection = mustSeeInspection(tx, user, before.inspectionId);
     assertEditable(inspection, 'its findings can no longer be removed');
     tx.delete(findings).where(eq(findings.id, id)).run();
+    appendToLedger(tx, { kind: 'finding', refId: id, rideId: inspection.rideId }, now);
     recordAudit(tx, {
       userId: user.id,
       entity: 'finding',

@@ -24,6 +24,7 @@ import { companyScope } from '@/server/auth/scope';
 import type { Db } from '@/server/db';
 import { findingNumber } from '@/server/findings/findings';
 import { conflict, HttpError, notFound } from '@/server/http/errors';
+import { appendToLedger } from '@/server/ledger/append';
 import { operatorMaySeePhoto } from '@/server/notices/photo-access';
 import { currentFindings } from '@/server/notices/read';
 import { queueToday, refreshQueue } from '@/server/queue/queue-refresh';
@@ -201,6 +202,7 @@ export function reportCorrectiveAction(
         .set({ state: 'action_reported', updatedAt: at, updatedBy: user.id })
         .where(eq(findings.id, findingId))
         .run();
+      appendToLedger(tx, { kind: 'finding', refId: findingId }, now);
       recordStateChange(tx, user, before, '— action reported', {
         ...stateOf(before),
         state: 'action_reported',

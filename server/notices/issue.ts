@@ -22,6 +22,7 @@ import { rideClassLabel } from '@/features/rides/schema';
 import type { Db } from '@/server/db';
 import { notFound } from '@/server/http/errors';
 import { deliveryKey } from '@/server/mail/mailer';
+import { appendToLedger } from '@/server/ledger/append';
 import { deliveriesQueued } from '@/server/notices/nudge';
 import { appealText, noticeReference } from '@/server/notices/words';
 import { numberRideFindings } from '@/server/findings/findings';
@@ -87,6 +88,7 @@ function insertNotice(
       document: input.doc,
     })
     .run();
+  appendToLedger(tx, { kind: 'notice', refId: input.id }, input.now);
   if (input.findingIds.length > 0)
     tx.insert(noticeFindings)
       .values(input.findingIds.map((findingId) => ({ noticeId: input.id, findingId })))

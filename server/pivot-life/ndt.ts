@@ -16,6 +16,7 @@ import type { NdtDue } from '@/features/pivot-life/schema';
 import { isoDay } from '@/lib/dates';
 import type { Db } from '@/server/db';
 import { HttpError } from '@/server/http/errors';
+import { appendToLedger } from '@/server/ledger/append';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -146,7 +147,7 @@ const problem = (path: string, message: string) =>
  * method is one the pivot's plan lists (a test outside the plan is kept, and said so).
  */
 export function addNdtRecord(
-  tx: Pick<Db, 'select' | 'insert'>,
+  tx: Pick<Db, 'select' | 'insert' | 'get' | 'run'>,
   rideId: string,
   input: NdtRecordInput,
   userId: string,
@@ -190,6 +191,7 @@ export function addNdtRecord(
       createdAt: now.toISOString(),
     })
     .run();
+  appendToLedger(tx, { kind: 'ndt', refId: id }, now);
   const record = listNdtRecords(tx, rideId).find((r) => r.id === id);
   if (!record) throw new Error('The NDT record just stored could not be read back.');
   const planned = (pivot.ndt ?? []).map((n) => n.method);

@@ -20,6 +20,7 @@ import { checkTransition, eventForStatus, type RideStatus } from '@/features/rid
 import type { Db } from '@/server/db';
 import { findingNumber, mustSeeInspection, type InspectionHead } from '@/server/findings/findings';
 import { conflict, HttpError } from '@/server/http/errors';
+import { appendToLedger } from '@/server/ledger/append';
 import { issueInspectionNotice, issueStatusNotice } from '@/server/notices/issue';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 import { recordAudit } from '@/server/registry/audit';
@@ -279,6 +280,7 @@ export function decideInspection(
       .set({ reviewState, reviewedAt: now.toISOString(), reviewedBy: user.id, reviewNote: input.note })
       .where(eq(inspections.id, before.id))
       .run();
+    appendToLedger(tx, { kind: 'decision', refId: before.id }, now);
     const after = mustSeeInspection(tx, user, before.id);
     recordAudit(tx, {
       userId: user.id,

@@ -16,6 +16,7 @@ import { type FindingSeverity } from '@/features/review/schema';
 import { severityInfo } from '@/features/notices/finding-schema';
 import type { Db } from '@/server/db';
 import { conflict } from '@/server/http/errors';
+import { appendToLedger } from '@/server/ledger/append';
 import {
   assertPhotosUploaded,
   findingNow,
@@ -91,6 +92,7 @@ function setFindingState(
       })
       .where(eq(findings.id, findingId))
       .run();
+    appendToLedger(tx, { kind: 'finding', refId: findingId }, ctx.now);
     recordStateChange(tx, user, before, closing ? 'verified and closed' : 'reopened', {
       state: verdict.to,
       stateNote: verdict.note,

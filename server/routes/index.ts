@@ -6,6 +6,7 @@ import { apiNotFound } from '@/server/http/errors';
 import { accountRouter } from '@/server/routes/account';
 import { adminUsersRouter } from '@/server/routes/admin-users';
 import { auditRouter } from '@/server/routes/audit';
+import { chainRouter } from '@/server/routes/chain';
 import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
 import { fatigueRouter } from '@/server/routes/fatigue';
@@ -34,6 +35,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(authRouter(deps));
   router.use(accountRouter(deps));
   router.use(ridesRouter(deps));
+  router.use(chainRouter(deps));
   router.use(registerRouter(deps));
   router.use(designRouter(deps));
   router.use(checklistsRouter(deps));

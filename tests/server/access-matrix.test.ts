@@ -194,6 +194,17 @@ const routes: Route[] = [
   { method: 'get', path: (i) => `/api/inspections/${i.inspection}/trail`, expect: STAFF_READ },
   { method: 'get', path: (i) => `/api/inspections/${i.inspection}/cycle`, expect: STAFF_READ },
   { method: 'get', path: (i) => `/api/rides/${i.own}/trends`, expect: STAFF_READ },
+  // Record chain: staff who decide, and the ride's own operator (a notice's QR opens it)
+  {
+    method: 'get',
+    path: (i) => `/api/rides/${i.own}/chain/verify`,
+    expect: { admin: 'ok', supervisor: 'ok', inspector: 403, operator: 'ok' },
+  },
+  {
+    method: 'get',
+    path: (i) => `/api/rides/${i.other}/chain/verify`,
+    expect: { admin: 'ok', supervisor: 'ok', inspector: 403, operator: 'gone' },
+  },
 ];
 
 const statusOf: Record<Exclude<Outcome, 'ok'>, number> = { bad: 400, gone: 404, 403: 403, 401: 401 };

@@ -1,0 +1,59 @@
+import { sql } from 'drizzle-orm';
+import { check, index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+
+import { rides } from '@/db/server/schema';
+import { ledgerKinds } from '@/features/ledger/schema';
+
+/*
+ * The record chain (issue #18; design in DEVELOPERS.md, "Record chain"): per ride, an append-only sequence
+ * of what was accepted, each entry hashed over the one before and countersigned with the server's key.
+ * Rows are only ever inserted, in the same transaction as the acceptance they record.
+ */
+
+const col = (column: { name: string }) => sql.identifier(column.name);
+const oneOf = (column: { name: string }, values: readonly string[]) =>
+  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+
+export const ledgerEntries = sqliteTable(
+  'ledger_entries',
+  {
+    rideId: text('ride_id')
+      .notNull()
+      .references(() => rides.id, { onDelete: 'restrict' }),
+    /** 1, 2, 3… per ride. */
+    seq: integer('seq').notNull(),
+    kind: text('kind', { enum: ledgerKinds }).notNull(),
+    /** The inspection, finding, NDT record or notice the entry is about. */
+    refId: text('ref_id').notNull(),
+    at: text('at').notNull(),
+    /** The record as accepted, in RFC 8785 canonical JSON. */
+    record: text('record').notNull(),
+    recordHash: text('record_hash').notNull(),
+    prevHash: text('prev_hash').notNull(),
+    entryHash: text('entry_hash').notNull(),
+    serverKeyId: text('server_key_id').notNull(),
+    /** Ed25519 over the entry hash, with the server's key (DATA_DIR/ledger-key). */
+    serverSignature: text('server_signature').notNull(),
+    /** The phone's key and its Ed25519 signature over the record hash; null for records the server made. */
+    deviceKeyId: text('device_key_id'),
+    deviceSignature: text('device_signature'),
+  },
+  (t) => [
+    primaryKey({ columns: [t.rideId, t.seq] }),
+    check('ledger_entries_kind_check', oneOf(t.kind, ledgerKinds)),
+    index('ledger_entries_ref_idx').on(t.rideId, t.kind, t.refId, t.seq),
+  ],
+);
+
+/** The end of each ride's chain as the server signed it, so entries cut off the end are found too. */
+export const ledgerHeads = sqliteTable('ledger_heads', {
+  rideId: text('ride_id')
+    .primaryKey()
+    .references(() => rides.id, { onDelete: 'restrict' }),
+  seq: integer('seq').notNull(),
+  entryHash: text('entry_hash').notNull(),
+  /** Ed25519 over headHashOf(ride, seq, entry hash). */
+  signature: text('signature').notNull(),
+});
+
+export type LedgerEntryRow = typeof ledgerEntries.$inferSelect;
