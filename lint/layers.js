@@ -43,6 +43,7 @@ const serverOrder = [
   'sql-functions',
   'db',
   'sqlite-client',
+  'ledger',
   'backup',
   'mail',
   'deps',
