@@ -1,4 +1,5 @@
 /** The record chain's vocabulary, shared by the database schema, the server and the app. */
+import { z } from 'zod';
 
 /** What the chain records: an inspection or amendment as accepted, a decision, a finding, an NDT record, a notice. */
 export const ledgerKinds = ['inspection', 'amendment', 'decision', 'finding', 'ndt', 'notice'] as const;
@@ -19,13 +20,40 @@ export type BreakReason = (typeof breakReasons)[number];
 export type ChainBreak = { seq: number; kind: LedgerKind | null; refId: string | null; why: BreakReason };
 
 /** The answer of GET /api/rides/:id/chain/verify. */
-export type ChainVerification = {
-  rideId: string;
-  intact: boolean;
-  entries: number;
-  checkedAt: string;
-  break: (ChainBreak & { words: string }) | null;
-};
+export const chainVerificationSchema = z.object({
+  rideId: z.string(),
+  intact: z.boolean(),
+  entries: z.number().int(),
+  checkedAt: z.string(),
+  break: z
+    .object({
+      seq: z.number().int(),
+      kind: z.enum(ledgerKinds).nullable(),
+      refId: z.string().nullable(),
+      why: z.enum(breakReasons),
+      words: z.string(),
+    })
+    .nullable(),
+});
+export type ChainVerification = z.infer<typeof chainVerificationSchema>;
+
+/** The result in one plain sentence, for the app and the notice's reader. */
+export function chainVerdictText(v: ChainVerification): string {
+  if (v.intact)
+    return v.entries === 0
+      ? 'Nothing recorded in the chain for this ride yet.'
+      : `Intact: all ${v.entries} recorded ${v.entries === 1 ? 'change matches' : 'changes match'} what the ` +
+          'server accepted, in order, each countersigned.';
+  const b = v.break;
+  if (!b) return 'Broken.';
+  const what = b.kind ? `entry ${b.seq} (${kindWords[b.kind]})` : `entry ${b.seq}`;
+  return `Broken at ${what}: ${b.words}.`;
+}
+
+/** What a check proves and what it does not, shown beside every result. */
+export const chainCaveat =
+  'An intact chain shows that the records kept for this ride are the ones the server accepted, unchanged and ' +
+  'in order. It does not show that what was entered was true, and it cannot speak for records kept elsewhere.';
 
 /** The plain words for a break, for the app and the API's answer. */
 export const breakWords: Record<BreakReason, string> = {

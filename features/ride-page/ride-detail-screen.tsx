@@ -2,6 +2,7 @@ import { type Href, Link, router } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Spinner } from '@/components/spinner';
+import { ChainCard } from '@/features/ride-page/chain-card';
 import { Button } from '@/components/button';
 import Feather from '@/components/feather-icon';
 import { auditHref } from '@/features/registry';
@@ -128,6 +129,7 @@ function RideDetailBody({
       {user.role === 'admin' ? <PlateSheetDownload ride={ride} /> : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
       {staff ? <NoticesCard rideId={ride.id} /> : null}
+      {user.role === 'inspector' ? null : <ChainCard rideId={ride.id} />}
       {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}
     </>
   );
