@@ -29,6 +29,7 @@ import type { RetryPolicy } from '@/server/mail/retry';
 import { deliveriesQueued, onDeliveriesQueued } from '@/server/notices/nudge';
 import { formatCalendarDate, formatWhen } from '@/lib/dates';
 import { renderNoticePdf } from '@/server/notices/pdf';
+import { noticeChainMark } from '@/server/ledger/notice-mark';
 import { cachedNoticePdf } from '@/server/notices/pdf/cache';
 import { pivotLifeHtml, pivotLifeTextLines } from '@/server/notices/pivot-life-mail';
 import { escapeHtml, htmlMailStart, noticeSubject, rideStatusWords } from '@/server/notices/words';
@@ -186,7 +187,11 @@ export function noticePdf(
   doc: NoticeDocument,
   pageSize: 'A4' | 'LETTER' = 'A4',
 ) {
-  return renderNoticePdf(doc, { pageSize, loadPhoto: photoLoader(db, storage) });
+  return renderNoticePdf(doc, {
+    pageSize,
+    loadPhoto: photoLoader(db, storage),
+    chain: noticeChainMark(db, doc),
+  });
 }
 
 // ——— the worker ———

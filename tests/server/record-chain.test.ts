@@ -16,8 +16,12 @@ import { sql } from 'drizzle-orm';
 
 import { databaseFileName } from '@/server/db';
 import type { ChainVerification } from '@/features/ledger';
+import { qrModules } from '@/server/notices/pdf/chain-mark';
+
+import jsQR from 'jsqr';
 
 import type { TestServer } from './helpers';
+import { pdfText } from './notices-fixtures';
 import { pushAccepted } from './review-desk-fixtures';
 import { demoClients, makePinnedServer, type Clients } from './registry-helpers';
 import { demoRide, makeRecord } from './sync-fixtures';
@@ -130,6 +134,37 @@ describe('appends at each acceptance', () => {
       expect(
         ed25519.verify(Buffer.from(r.serverSignature, 'hex'), Buffer.from(r.entryHash, 'hex'), publicKey),
       ).toBe(true);
+  });
+});
+
+describe('the notice PDF', () => {
+  test('prints the notice’s entry hash and a QR code that opens the ride’s verification', async () => {
+    const entry = entries().find((r) => r.kind === 'notice' && r.refId === noticeId)!;
+    const res = await api.supervisor.get(`/api/notices/${noticeId}/pdf`).buffer(true);
+    expect(res.status).toBe(200);
+    const text = await pdfText(res.body as Buffer);
+    const verifyUrl = `${server.config.appUrl}/rides/${rideId}?verify=1`;
+    expect(text).toContain('Record chain');
+    expect(text).toContain(entry.entryHash);
+    expect(text).toContain(verifyUrl);
+
+    // The modules the PDF draws, put on a raster with ISO/IEC 18004's 4-module quiet zone and read back by
+    // jsQR, a decoder independent of the encoder (qrcode).
+    const rows = qrModules(verifyUrl);
+    const scale = 4;
+    const side = (rows.length + 8) * scale;
+    const rgba = new Uint8ClampedArray(side * side * 4).fill(255);
+    rows.forEach((row, r) =>
+      row.forEach((dark, c) => {
+        if (!dark) return;
+        for (let dy = 0; dy < scale; dy++)
+          for (let dx = 0; dx < scale; dx++) {
+            const i = (((r + 4) * scale + dy) * side + (c + 4) * scale + dx) * 4;
+            rgba[i] = rgba[i + 1] = rgba[i + 2] = 0;
+          }
+      }),
+    );
+    expect(jsQR(rgba, side, side)?.data).toBe(verifyUrl);
   });
 });
 

@@ -3,7 +3,7 @@
  * `cache/notice-pdfs/<notice>.<size>.<key>.pdf` (on the disk under DATA_DIR). Rendering one takes
  * 0.5–1.7 s of the event loop; the notice's document is frozen when it is issued, so the same PDF can be
  * served again. The key is a hash of everything the PDF prints from:
- * the document, the paper size, which of its photos the server holds (a photo uploaded after the notice
+ * the document, the paper size, its record-chain mark, which of its photos the server holds (a photo uploaded after the notice
  * was issued appears in the next PDF), and the code that draws it (the renderer, its words and fonts:
  * a new version of Pivotwatch renders afresh). Objects are stored whole, so a reader never sees half a
  * PDF; an older one for the same notice and size is removed when a newer one is written.
@@ -17,6 +17,7 @@ import { inArray } from 'drizzle-orm';
 import { photos } from '@/db/server/inspections';
 import type { NoticeDocument } from '@/features/notices/schema';
 import type { Db } from '@/server/db';
+import { noticeChainMark } from '@/server/ledger/notice-mark';
 import { repoRoot } from '@/server/paths';
 import { storedFolders, type ObjectStorage } from '@/server/storage';
 
@@ -54,7 +55,7 @@ function stampOfRenderer(): string {
   return rendererStamp;
 }
 
-function keyOf(db: Pick<Db, 'select'>, doc: NoticeDocument, pageSize: PageSize): string {
+function keyOf(db: Pick<Db, 'select' | 'get'>, doc: NoticeDocument, pageSize: PageSize): string {
   const json = JSON.stringify(doc);
   const named = [...new Set(json.match(/\b[0-9a-f]{64}\b/g) ?? [])];
   const held =
@@ -68,7 +69,9 @@ function keyOf(db: Pick<Db, 'select'>, doc: NoticeDocument, pageSize: PageSize):
           .map((r) => r.sha256)
           .sort();
   return createHash('sha256')
-    .update(`${stampOfRenderer()}\0${pageSize}\0${held.join(',')}\0${json}`)
+    .update(
+      `${stampOfRenderer()}\0${pageSize}\0${held.join(',')}\0${JSON.stringify(noticeChainMark(db, doc))}\0${json}`,
+    )
     .digest('hex')
     .slice(0, 32);
 }

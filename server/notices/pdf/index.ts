@@ -26,12 +26,19 @@ import {
   statusBoxes,
 } from '@/server/notices/pdf/sections';
 import { pivotLifeSection } from '@/server/notices/pdf/pivot-life';
+import { chainSection } from '@/server/notices/pdf/chain-mark';
+import type { NoticeChainMark } from '@/server/ledger/notice-mark';
 import { signatureBlock, signatureHeight } from '@/server/notices/pdf/signature';
 import { startPdf } from '@/server/pdf/document';
 import { flowText, heading, pairColumns, S, type Layout } from '@/server/pdf/layout';
 
 export type { PhotoLoader };
-export type NoticePdfOptions = { pageSize: 'A4' | 'LETTER'; loadPhoto: PhotoLoader };
+export type NoticePdfOptions = {
+  pageSize: 'A4' | 'LETTER';
+  loadPhoto: PhotoLoader;
+  /** The notice's record-chain entry and verification address; null prints no chain section. */
+  chain?: NoticeChainMark | null;
+};
 
 const MARGIN_X = 50;
 const FOOTER_SPACE = 60;
@@ -95,6 +102,7 @@ export async function renderNoticePdf(n: NoticeDocument, opts: NoticePdfOptions)
   if (n.note) paragraphSection(l, 'Supervisor’s note', n.note);
   paragraphSection(l, 'How to appeal', n.appeal, signatureHeight(l, n));
   signatureBlock(l, n);
+  if (opts.chain) chainSection(l, opts.chain);
 
   drawFooters(l, n);
   doc.flushPages();

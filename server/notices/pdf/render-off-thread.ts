@@ -10,6 +10,7 @@ import { photos } from '@/db/server/inspections';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { createWorkerPool, type WorkerPool } from '@/server/compute/pool';
 import type { Db } from '@/server/db';
+import { noticeChainMark } from '@/server/ledger/notice-mark';
 import type { NoticePdfJob } from '@/server/notices/pdf/render-worker';
 import type { ObjectStorage } from '@/server/storage';
 import { readPhoto } from '@/server/sync/photo-store';
@@ -27,7 +28,7 @@ export function createNoticePdfPool(timeoutMs = 60_000): NoticePdfPool {
 
 export async function renderNoticePdfOffThread(
   pool: NoticePdfPool,
-  db: Pick<Db, 'select'>,
+  db: Pick<Db, 'select' | 'get'>,
   storage: ObjectStorage,
   document: NoticeDocument,
   pageSize: 'A4' | 'LETTER',
@@ -43,6 +44,7 @@ export async function renderNoticePdfOffThread(
     const bytes = await readPhoto(storage, p.sha256).catch(() => null);
     if (bytes) photoBytes[p.sha256] = bytes;
   }
-  const bytes = await pool.run({ document, pageSize, photoBytes });
+  const chain = noticeChainMark(db, document);
+  const bytes = await pool.run({ document, pageSize, photoBytes, chain });
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length);
 }

@@ -5,6 +5,7 @@
  */
 import type { NoticeDocument } from '@/features/notices/schema';
 import { serveJobs } from '@/server/compute/worker-side';
+import type { NoticeChainMark } from '@/server/ledger/notice-mark';
 import { renderNoticePdf } from '@/server/notices/pdf';
 
 export type NoticePdfJob = {
@@ -12,11 +13,13 @@ export type NoticePdfJob = {
   pageSize: 'A4' | 'LETTER';
   /** SHA-256 → the bytes, for the photos the server holds. */
   photoBytes: Record<string, Uint8Array>;
+  chain: NoticeChainMark | null;
 };
 
 serveJobs(async (job: NoticePdfJob): Promise<Uint8Array> => {
   const pdf = await renderNoticePdf(job.document, {
     pageSize: job.pageSize,
+    chain: job.chain,
     loadPhoto: (sha256) => {
       const bytes = job.photoBytes[sha256];
       return Promise.resolve(bytes ? Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length) : null);
