@@ -137,6 +137,25 @@ describe('appends at each acceptance', () => {
   });
 });
 
+describe('amendments', () => {
+  test('an amendment is its own entry, of kind amendment, after the inspection it amends', async () => {
+    const comet = demoRide(server.db, 'Twin Comet');
+    const original = makeRecord(comet, { type: 'periodic' });
+    await pushAccepted(server.db, api.inspector, [original]);
+    const amendment = makeRecord(comet, { type: 'periodic', amendsId: original.id });
+    await pushAccepted(server.db, api.inspector, [amendment]);
+    const rows = server.db.all<{ seq: number; kind: string; refId: string }>(
+      sql`SELECT seq, kind, ref_id AS refId FROM ledger_entries WHERE ride_id = ${comet.id} ORDER BY seq`,
+    );
+    expect(rows.slice(-2)).toEqual([
+      { seq: rows.length - 1, kind: 'inspection', refId: original.id },
+      { seq: rows.length, kind: 'amendment', refId: amendment.id },
+    ]);
+    const res = await api.supervisor.get(`/api/rides/${comet.id}/chain/verify`);
+    expect(res.body).toMatchObject({ intact: true, entries: rows.length });
+  });
+});
+
 describe('the notice PDF', () => {
   test('prints the notice’s entry hash and a QR code that opens the ride’s verification', async () => {
     const entry = entries().find((r) => r.kind === 'notice' && r.refId === noticeId)!;
