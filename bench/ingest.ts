@@ -30,7 +30,8 @@ import { sqliteOf } from '@/server/sqlite-client';
  * insert's rate, median of the paired runs.
  *
  * Like for like: the raw side inserts every row the push leaves behind in the same tables (the inspections,
- * their readings, each inspection's review-queue row and each batch's stored answer, copied from the push's
+ * their readings, each inspection's review-queue row, each batch's stored answer, each inspection's
+ * record-chain entry and each ride's signed chain head, copied from the push's
  * database as it stored them), with prepared statements built before its timer starts and its rows'
  * values (the record's JSON and SHA-256 included) made before it too: it is the floor of writing those
  * rows, nothing else. What the push must do and the raw side does not: check every record, serialise and
@@ -153,8 +154,11 @@ async function seedTemplate(template: string) {
 }
 
 type Row = Record<string, unknown>;
-/** Rows the push writes besides the records' own: each inspection's queue row and each batch's answer. */
-type Extras = { queue: Row[]; batches: Row[] };
+/**
+ * Rows the push writes besides the records' own: each inspection's queue row, each batch's answer, each
+ * inspection's entry in its ride's record chain and each ride's signed chain head.
+ */
+type Extras = { queue: Row[]; batches: Row[]; ledger: Row[]; heads: Row[] };
 
 /** The queue rows of the pushed inspections and the stored batch answers, as the push left them. */
 function storedExtras(
@@ -173,7 +177,19 @@ function storedExtras(
     )
     .all(inspectorId, ids) as Row[];
   if (queue.length !== records.length) throw new Error('a pushed inspection has no queue row');
-  return { queue, batches };
+  const ledger = sqlite
+    .prepare(
+      `SELECT * FROM ledger_entries WHERE ref_id IN (SELECT value FROM json_each(?)) ORDER BY ride_id, seq`,
+    )
+    .all(ids) as Row[];
+  if (ledger.length !== records.length) throw new Error('a pushed inspection has no chain entry');
+  const heads = sqlite
+    .prepare(
+      `SELECT * FROM ledger_heads WHERE ride_id IN (SELECT DISTINCT ride_id FROM ledger_entries
+       WHERE ref_id IN (SELECT value FROM json_each(?)))`,
+    )
+    .all(ids) as Row[];
+  return { queue, batches, ledger, heads };
 }
 
 /** `INSERT INTO table (columns of row) VALUES (?, …)`, for rows shaped like `row`. */
@@ -297,8 +313,12 @@ function timeRaw(
   );
   const insertQueueRow = insertLike(sqlite, 'review_queue', stored.queue[0]);
   const insertBatchRow = insertLike(sqlite, 'sync_batches', stored.batches[0]);
+  const insertLedgerRow = insertLike(sqlite, 'ledger_entries', stored.ledger[0]);
+  const insertHeadRow = insertLike(sqlite, 'ledger_heads', stored.heads[0]);
   const queueRows = stored.queue.map((row) => Object.values(row));
   const batchRows = stored.batches.map((row) => Object.values(row));
+  const ledgerRows = stored.ledger.map((row) => Object.values(row));
+  const headRows = stored.heads.map((row) => Object.values(row));
   const t0 = now();
   const c0 = cpuNow();
   sqlite.transaction(() => {
@@ -308,6 +328,8 @@ function timeRaw(
     }
     for (const row of queueRows) insertQueueRow.run(...row);
     for (const row of batchRows) insertBatchRow.run(...row);
+    for (const row of ledgerRows) insertLedgerRow.run(...row);
+    for (const row of headRows) insertHeadRow.run(...row);
   })();
   sqlite.pragma('wal_checkpoint(PASSIVE)');
   const rawTook = now() - t0;

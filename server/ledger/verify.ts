@@ -10,6 +10,7 @@ import {
 } from '@/features/ledger';
 import type { Db } from '@/server/db';
 import { liveForm } from '@/server/ledger/forms';
+import { nodeEd25519 } from '@/server/ledger/ed25519';
 import { ledgerKeyOf } from '@/server/ledger/key';
 
 type Reader = Pick<Db, 'get' | 'all'>;
@@ -36,6 +37,7 @@ export function verifyRideChain(db: Reader, rideId: string, now: Date = new Date
     rideId,
     serverKey: (keyId) => (keyId === key.keyId ? key.publicKey : null),
     deviceKey: () => null,
+    ed25519: nodeEd25519,
     live: (kind: LedgerKind, refId: string) => {
       const form = liveForm(db, kind, refId);
       return form ? canonicalJson(form.value) : null;

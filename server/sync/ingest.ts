@@ -26,7 +26,7 @@ import type { DesignData } from '@/features/loads/design-schema';
 import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
-import { appendToLedger } from '@/server/ledger/append';
+import { appendManyToLedger } from '@/server/ledger/append';
 import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
 import {
@@ -348,7 +348,11 @@ export function ingestBatch(
     // The review queue learns of the new inspections (and of originals an amendment supersedes) at once.
     const accepted = results.flatMap((r) => (r.status === 'accepted' && r.id ? [r.id] : []));
     // Each accepted inspection or amendment joins its ride's record chain (a re-sent one is already there).
-    for (const id of accepted) appendToLedger(db, { kind: 'inspection', refId: id }, now);
+    appendManyToLedger(
+      db,
+      accepted.map((refId) => ({ kind: 'inspection', refId })),
+      now,
+    );
     refreshQueueInspections(db, queueDay(db, now), accepted);
     const result: PushResult = { batchId: batch.batchId, results };
     st.insertBatch.run(user.id, batch.batchId, ctx.receivedAt, batch.records.length, JSON.stringify(result));
