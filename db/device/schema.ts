@@ -104,6 +104,9 @@ export const outbox = sqliteTable(
     createdAt: text('created_at').notNull(),
     updatedAt: text('updated_at').notNull(),
     authorId: text('author_id'),
+    /** The phone key that signed the record (`device_keys.key_id`) and its Ed25519 signature, hex. */
+    deviceKeyId: text('device_key_id'),
+    deviceSignature: text('device_signature'),
   },
   (t) => [
     index('outbox_state_idx').on(t.state, t.nextAttemptAt),
@@ -162,6 +165,22 @@ export const cachedSettings = sqliteTable('cached_settings', {
   key: text('key').primaryKey(),
   json: text('json').notNull(),
   updatedAt: text('updated_at').notNull(),
+});
+
+/**
+ * This phone's signing key for each person who signed in on it (features/device-db/device-keys.ts): an
+ * Ed25519 key pair made at each sign-in (`sessionTag` names the sign-in's token: a new token, a new key),
+ * whose public half the server learns before the first push (`registeredAt`). Records are signed with it
+ * as they enter the outbox.
+ */
+export const deviceKeys = sqliteTable('device_keys', {
+  userId: text('user_id').primaryKey(),
+  keyId: text('key_id').notNull(),
+  privateKey: text('private_key').notNull(),
+  publicKey: text('public_key').notNull(),
+  sessionTag: text('session_tag').notNull(),
+  createdAt: text('created_at').notNull(),
+  registeredAt: text('registered_at'),
 });
 
 /** Small key/value facts about sync: the pull cursor, the last success, the last error. */

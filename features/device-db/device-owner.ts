@@ -22,6 +22,7 @@ import {
   cachedRides,
   cachedSettings,
   decisions,
+  deviceKeys,
   drafts,
   outbox,
   photoBlobs,
@@ -96,6 +97,8 @@ async function wipeSharedData(tx: DeviceDb): Promise<void> {
     )
     .run();
   await tx.db.delete(syncMeta).where(ne(syncMeta.key, OWNER_KEY)).run();
+  // Signing keys belong to a sign-in that has ended; what they signed keeps its signature in the outbox.
+  await tx.db.delete(deviceKeys).run();
 }
 
 /** Rows from before authors were recorded belong to the person the phone was used by then: the first one bound. */

@@ -7,7 +7,8 @@ import { z } from 'zod';
 
 import { drafts, outbox, photoBlobs } from '@/db/device/schema';
 import type { DeviceDb } from '@/features/device-db/connection';
-import { currentOwnerSql, ownedBy } from '@/features/device-db/device-owner';
+import { currentDeviceKey, signRecord } from '@/features/device-db/device-keys';
+import { currentOwnerSql, getDeviceOwner, ownedBy } from '@/features/device-db/device-owner';
 import { DeviceDataError } from '@/features/device-db/errors';
 import { queuePhotosForUpload } from '@/features/device-db/photos';
 import { type InspectionRecord, inspectionRecordSchema } from '@/features/records/schema';
@@ -133,7 +134,8 @@ export async function deleteDraft(dev: DeviceDb, id: string): Promise<void> {
  * Submit: the finished record goes into the outbox and its draft is removed, in one transaction. The
  * record must pass the shared schema and every photo it names must be stored on the phone; otherwise
  * nothing changes and the error lists what to fix. The record carries its author (the phone's person), so
- * the server can refuse it under anyone else's name.
+ * the server can refuse it under anyone else's name, and is signed with the person's key on this phone
+ * (features/device-db/device-keys.ts) as it enters the outbox.
  */
 export async function submitDraft(
   dev: DeviceDb,
@@ -149,6 +151,9 @@ export async function submitDraft(
   let rec = parsed.data;
   const shas = [...new Set(rec.photos.map((p) => p.sha256))];
   const at = now.toISOString();
+  // Made (or read) before the transaction: the first signing loads the chain's code and may make the key.
+  const owner = await getDeviceOwner(dev);
+  const key = owner === null ? null : await currentDeviceKey(dev, owner, now);
   await dev.transaction(async (tx) => {
     const { sent, authorId } = await draftFacts(tx, rec.id);
     if (sent) throw new DeviceDataError('This inspection was already submitted.');
@@ -176,6 +181,8 @@ export async function submitDraft(
       if (missing.length > 0)
         throw new DeviceDataError('Some photos of this inspection are missing.', missing);
     }
+    // The key is the bound person's, who is the record's author (checked above when the draft had one).
+    const signed = key && (rec.authorId ?? owner) === key.userId ? await signRecord(key, rec) : null;
     await tx.db
       .insert(outbox)
       .values({
@@ -187,6 +194,8 @@ export async function submitDraft(
         createdAt: at,
         updatedAt: at,
         authorId: rec.authorId ?? null,
+        deviceKeyId: signed?.keyId ?? null,
+        deviceSignature: signed?.signature ?? null,
       })
       .run();
     await queuePhotosForUpload(tx, shas, now);

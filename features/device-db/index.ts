@@ -23,4 +23,11 @@ export {
 } from '@/features/device-db/device-owner';
 export type { UnsentWork } from '@/features/device-db/device-owner';
 export { pruneDevice } from '@/features/device-db/prune';
+export {
+  currentDeviceKey,
+  markDeviceKeyRegistered,
+  noteSession,
+  signRecord,
+} from '@/features/device-db/device-keys';
+export type { DeviceKey, RecordSignature } from '@/features/device-db/device-keys';
 export type { PruneReport } from '@/features/device-db/prune';

@@ -1,9 +1,9 @@
 import { type QueryClient, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 
-import { type DeviceDb, bindDeviceOwner, fieldKeys } from '@/features/device-db';
+import { type DeviceDb, bindDeviceOwner, fieldKeys, noteSession } from '@/features/device-db';
 import { DeviceDbProvider, openDeviceDb } from '@/features/device-db/ui';
-import { restoreGlimpse, saveGlimpse } from '@/features/session';
+import { restoreGlimpse, saveGlimpse, tokenStore } from '@/features/session';
 import type { Role, SessionUser } from '@/features/session/schema';
 import { AppShell } from '@/features/shell/app-shell';
 import { BackgroundSync, UpdatePrompt } from '@/features/sync/ui';
@@ -47,6 +47,9 @@ function InspectorDevice({ userId, children }: { userId: string; children: React
   useEffect(() => keepGlimpse(client, userId), [client, userId]);
   const [prepare] = useState(() => async (dev: DeviceDb) => {
     const { changed } = await bindDeviceOwner(dev, userId);
+    // The sign-in this phone now works under: records are signed with a key made for it.
+    const stored = await tokenStore.get();
+    if (stored) await noteSession(dev, stored.token);
     // Reads of the device made for someone else must not be shown from memory either. Not awaited: the
     // screens' reads start again on the database this very step is readying.
     if (changed) void client.resetQueries({ predicate: (q) => q.queryKey[0] !== 'auth' });

@@ -29,6 +29,9 @@ export function createHttpSyncApi(target: HttpSyncTarget = appTarget): SyncApi {
   return {
     push: (batch) =>
       target.apiFetch('/api/sync/push', { method: 'POST', body: batch, schema: pushResultSchema }),
+    registerKey: async (key) => {
+      await target.apiFetch('/api/devices/keys', { method: 'POST', body: key });
+    },
     pull: (cursor) =>
       target.apiFetch(`/api/sync/pull${cursor === null ? '' : `?cursor=${encodeURIComponent(cursor)}`}`),
     putPhoto: (photo, onProgress) => putPhoto(target, photo, onProgress),

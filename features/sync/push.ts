@@ -8,7 +8,16 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 
 import { type OutboxRow, outbox } from '@/db/device/schema';
-import { type DeviceDb, ownedBy } from '@/features/device-db';
+import {
+  type DeviceDb,
+  type DeviceKey,
+  type RecordSignature,
+  currentDeviceKey,
+  getDeviceOwner,
+  markDeviceKeyRegistered,
+  ownedBy,
+  signRecord,
+} from '@/features/device-db';
 import type { InspectionRecord, PushResult } from '@/features/records/schema';
 import { PUSH_MAX_RECORDS, pushResultSchema } from '@/features/records/schema';
 import type { SyncApi } from '@/features/sync/api';
@@ -192,12 +201,60 @@ async function settle(
   });
 }
 
+/** How the phone names itself beside its key on the person's page (the browser, or the app). */
+function deviceLabel(): string {
+  const agent = typeof navigator !== 'undefined' ? navigator.userAgent : '';
+  const browser = /Edg\//.test(agent)
+    ? 'Edge'
+    : /Firefox\//.test(agent)
+      ? 'Firefox'
+      : /Chrom(e|ium)\//.test(agent)
+        ? 'Chromium'
+        : /Safari\//.test(agent)
+          ? 'Safari'
+          : null;
+  const system = /Android/.test(agent)
+    ? 'Android'
+    : /iPhone|iPad/.test(agent)
+      ? 'iOS'
+      : /Windows/.test(agent)
+        ? 'Windows'
+        : /Mac OS X/.test(agent)
+          ? 'macOS'
+          : /Linux/.test(agent)
+            ? 'Linux'
+            : null;
+  if (!browser && !system) return 'Pivotwatch app';
+  return [browser ?? 'Browser', system].filter(Boolean).join(' on ');
+}
+
+/**
+ * This sign-in's key, registered with the server before the first record it signed leaves (once: the
+ * phone remembers). A key the server has withdrawn is refused there, and the run stops with its words.
+ */
+async function registeredKey(
+  api: SyncApi,
+  dev: DeviceDb,
+  now: Date,
+  known: DeviceKey | null,
+): Promise<DeviceKey> {
+  if (known?.registeredAt) return known;
+  const owner = await getDeviceOwner(dev);
+  if (owner === null) throw new Error('Nobody is signed in on this phone.');
+  const key = await currentDeviceKey(dev, owner, now);
+  if (key.registeredAt) return key;
+  await api.registerKey({ publicKey: key.publicKey, label: deviceLabel() });
+  await markDeviceKeyRegistered(dev, key.keyId, now);
+  return { ...key, registeredAt: now.toISOString() };
+}
+
 export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptions): Promise<PushReport> {
   const clock = options.now ?? (() => new Date());
   const size = Math.min(options.batchSize ?? MAX_BATCH, MAX_BATCH);
   const report: PushReport = { batches: 0, accepted: 0, rejected: 0, requeued: 0, failure: null };
   // Each record is tried at most once per run, so a forced run cannot loop on a record that keeps failing.
   const tried = new Set<string>();
+  let keyOfRun: DeviceKey | null = null;
 
   for (;;) {
     const batch = await claimBatch(dev, {
@@ -221,8 +278,23 @@ export async function pushOutbox(api: SyncApi, dev: DeviceDb, options: PushOptio
 
     let result: PushResult;
     try {
-      const records = batch.rows.map((r) => withAuthor(JSON.parse(r.json) as InspectionRecord, r.authorId));
-      result = pushResultSchema.parse(await api.push({ batchId: batch.batchId, records }));
+      const key = await registeredKey(api, dev, clock(), keyOfRun);
+      keyOfRun = key;
+      const records: InspectionRecord[] = [];
+      const signatures: Record<string, RecordSignature> = {};
+      for (const row of batch.rows) {
+        const queued = JSON.parse(row.json) as InspectionRecord;
+        const record = withAuthor(queued, row.authorId);
+        records.push(record);
+        // Signed as it entered the outbox. A record queued under an earlier sign-in (whose key the server may
+        // have withdrawn), before phones signed, or given its author only now, is signed with this sign-in's
+        // key as it leaves: the person has signed in with their password since.
+        signatures[record.id] =
+          row.deviceKeyId === key.keyId && row.deviceSignature && record === queued
+            ? { keyId: row.deviceKeyId, signature: row.deviceSignature }
+            : await signRecord(key, record);
+      }
+      result = pushResultSchema.parse(await api.push({ batchId: batch.batchId, records, signatures }));
     } catch (err) {
       const failure = classifyFailure(err);
       await settle(dev, batch.rows, () => ({ type: 'failed', failure }), clock());

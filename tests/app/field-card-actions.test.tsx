@@ -57,6 +57,7 @@ beforeEach(async () => {
       throw new Error('not used');
     },
     putPhoto: async () => {},
+    registerKey: async () => {},
     pull: async () => ({ cursor: 'v1:2026-06-03T07:00:00.000Z', rides: [ride] }),
   };
   await pull(api, dev);

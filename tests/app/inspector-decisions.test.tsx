@@ -120,6 +120,7 @@ async function pullDecisions(decisions: unknown[]) {
       throw new Error('not used');
     },
     putPhoto: async () => {},
+    registerKey: async () => {},
     pull: async () => ({ cursor: 'v1:2026-06-03T07:00:00.000Z', decisions }),
   };
   return pull(api, dev);

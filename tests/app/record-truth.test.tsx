@@ -134,6 +134,7 @@ beforeEach(async () => {
       throw new Error('not used');
     },
     putPhoto: async () => {},
+    registerKey: async () => {},
     pull: async () => ({
       cursor: 'v1:2026-06-03T07:00:00.000Z',
       rides: [ride],
@@ -400,6 +401,7 @@ describe('the phone’s copy and older records', () => {
         throw new Error('not used');
       },
       putPhoto: async () => {},
+      registerKey: async () => {},
       pull: async () => ({ cursor: 'v1:2026-06-04T07:00:00.000Z', instruments: [register[0]] }),
     };
     await pull(api, dev);

@@ -28,11 +28,12 @@ import {
   type MemoryDeviceDb,
   deviceMigrationsFromDisk,
   memoryDeviceDb,
+  signedInDeviceDb,
 } from '@/tests/support/memory-device-db';
 
 let dev: MemoryDeviceDb;
 beforeEach(async () => {
-  dev = await memoryDeviceDb();
+  dev = await signedInDeviceDb();
 });
 afterEach(async () => {
   await dev.close();
@@ -55,6 +56,7 @@ describe('migrations', () => {
       'cached_rides',
       'cached_settings',
       'decisions',
+      'device_keys',
       'drafts',
       'outbox',
       'photo_blobs',

@@ -7,6 +7,7 @@
 import { createHash } from 'node:crypto';
 
 import { ApiRequestError, OfflineError } from '@/lib/api-errors';
+import { keyIdOf, recordHashOf, verifyHex } from '@/features/ledger';
 import type { InspectionRecord, PushResult } from '@/features/records/schema';
 import type { PhotoUpload, SyncApi } from '@/features/sync/api';
 
@@ -27,8 +28,33 @@ export class FakeSyncServer implements SyncApi {
   omitFromAnswer = new Set<string>();
   pullPages: unknown[] = [];
   pullCursorsSeen: (string | null)[] = [];
+  /** Public keys registered by the phone, by key id; a withdrawn one is refused like the server does. */
+  keys = new Map<string, string>();
+  revokedKeys = new Set<string>();
+  keyRegistrations = 0;
 
-  async push(batch: { batchId: string; records: InspectionRecord[] }): Promise<PushResult> {
+  async registerKey(key: { publicKey: string; label: string }): Promise<void> {
+    const keyId = keyIdOf(key.publicKey);
+    if (this.revokedKeys.has(keyId))
+      throw new ApiRequestError(409, 'key_revoked', 'This phone’s signing key was withdrawn; sign in again.');
+    this.keyRegistrations++;
+    this.keys.set(keyId, key.publicKey);
+  }
+
+  /** Why the server would refuse this record's signature (the checks of server/sync/ingest.ts), or null. */
+  private signatureIssue(rec: InspectionRecord, signature: { keyId: string; signature: string } | undefined) {
+    if (!signature) return 'not signed';
+    const publicKey = this.keys.get(signature.keyId);
+    if (!publicKey) return 'unknown key';
+    if (this.revokedKeys.has(signature.keyId)) return 'key withdrawn';
+    return verifyHex(publicKey, recordHashOf(rec), signature.signature) ? null : 'does not verify';
+  }
+
+  async push(batch: {
+    batchId: string;
+    records: InspectionRecord[];
+    signatures: Record<string, { keyId: string; signature: string }>;
+  }): Promise<PushResult> {
     this.batchIdsSeen.push(batch.batchId);
     const fault = this.pushFaults.shift() ?? 'ok';
     if (fault === 'cut-before') throw new OfflineError(new TypeError('Failed to fetch'));
@@ -45,6 +71,13 @@ export class FakeSyncServer implements SyncApi {
           results: batch.records
             .filter((rec) => !this.omitFromAnswer.has(rec.id))
             .map((rec) => {
+              const unsigned = this.signatureIssue(rec, batch.signatures[rec.id]);
+              if (unsigned)
+                return {
+                  id: rec.id,
+                  status: 'rejected' as const,
+                  issues: [{ path: 'signature', message: `Signature: ${unsigned}` }],
+                };
               if (rec.rideId === this.rejectRideId)
                 return {
                   id: rec.id,

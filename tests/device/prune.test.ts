@@ -23,7 +23,7 @@ import { syncOnce } from '@/features/sync/sync-run';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 
@@ -41,7 +41,7 @@ let server: FakeSyncServer;
 let seed = 0;
 
 beforeEach(async () => {
-  dev = await memoryDeviceDb();
+  dev = await signedInDeviceDb();
   server = new FakeSyncServer();
 });
 afterEach(async () => {
@@ -235,7 +235,7 @@ describe('200 synced inspections with photos beside unsent work', () => {
   let built: Buffer;
   // Built once through the real code, then each case starts from a copy of the database.
   beforeAll(async () => {
-    const first = await memoryDeviceDb();
+    const first = await signedInDeviceDb();
     dev = first;
     server = new FakeSyncServer();
     s = await buildScenario();

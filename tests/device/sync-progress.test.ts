@@ -16,7 +16,7 @@ import { syncOnce } from '@/features/sync/sync-run';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 
@@ -25,7 +25,7 @@ let server: FakeSyncServer;
 const T0 = new Date('2026-06-01T09:00:00.000Z');
 
 beforeEach(async () => {
-  dev = await memoryDeviceDb();
+  dev = await signedInDeviceDb();
   server = new FakeSyncServer();
 });
 afterEach(async () => {

@@ -12,14 +12,14 @@ import { MAX_BATCH_BYTES, pushOutbox } from '@/features/sync/push';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { makeRecord } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 import { swingTrace } from '@/tests/support/motion-fixtures';
 
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 
 let dev: MemoryDeviceDb;
 beforeEach(async () => {
-  dev = await memoryDeviceDb();
+  dev = await signedInDeviceDb();
 });
 afterEach(async () => {
   await dev.close();

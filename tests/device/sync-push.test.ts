@@ -21,7 +21,7 @@ import { syncOnce } from '@/features/sync/sync-run';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
@@ -33,7 +33,7 @@ const at = (seconds: number) => () => new Date(T0.getTime() + seconds * 1000);
 const opts = (seconds = 0, force = false) => ({ newId: randomUUID, now: at(seconds), force });
 
 beforeEach(async () => {
-  dev = await memoryDeviceDb();
+  dev = await signedInDeviceDb();
   server = new FakeSyncServer();
 });
 afterEach(async () => {

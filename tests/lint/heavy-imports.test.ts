@@ -77,6 +77,21 @@ describe('heavy libraries behind one door', () => {
     expect(dynamicUsers).toEqual(['features/registry/csv-loader.web.ts']);
   });
 
+  test('the record chain’s code (Ed25519 through @noble/curves) is reached in the app only through the one import() in ledger-loader.web.ts', () => {
+    const isLedger = (s: string) => s === '@/features/ledger';
+    const staticUsers = files
+      .filter((f) => !f.path.startsWith('features/ledger/') && valueImports(f.text).some(isLedger))
+      .map((f) => f.path);
+    // The phone's loader imports it statically: native bundles are on the device.
+    expect(staticUsers).toEqual(['features/device-db/ledger-loader.ts']);
+    const dynamicUsers = files.filter((f) => dynamicImports(f.text).some(isLedger)).map((f) => f.path);
+    expect(dynamicUsers).toEqual(['features/device-db/ledger-loader.web.ts']);
+    const curveUsers = files
+      .filter((f) => valueImports(f.text).some((s) => s.startsWith('@noble/curves')))
+      .map((f) => f.path);
+    expect(curveUsers).toEqual(['features/ledger/chain.ts']);
+  });
+
   test('the api feature’s runs-anywhere index does not bring the PDF download (the sign-in form needs it)', () => {
     const index = files.find((f) => f.path === 'features/api/index.ts');
     expect(index && valueImports(index.text).filter((s) => /pdf-download/.test(s))).toEqual([]);

@@ -8,6 +8,8 @@ import { join } from 'node:path';
 import Database from 'better-sqlite3';
 
 import { type DeviceDb, type SqlExecutor, createDeviceDb } from '@/features/device-db/connection';
+import { noteSession } from '@/features/device-db/device-keys';
+import { bindDeviceOwner } from '@/features/device-db/device-owner';
 import {
   type MigrationJournal,
   applyMigrations,
@@ -51,4 +53,18 @@ export async function memoryDeviceDb(from?: Buffer): Promise<MemoryDeviceDb> {
   });
   await applyMigrations(dev, deviceMigrationsFromDisk());
   return Object.assign(dev, { sqlite, statements });
+}
+
+/** The person a signed-in test phone is bound to (`signedInDeviceDb`). */
+export const TEST_PHONE_PERSON = 'inspector-on-test-phone';
+
+/**
+ * A phone someone has signed in on, as the app leaves it before any screen reads it: bound to the person
+ * and under a session, so records it submits are signed with that sign-in's key.
+ */
+export async function signedInDeviceDb(userId = TEST_PHONE_PERSON): Promise<MemoryDeviceDb> {
+  const dev = await memoryDeviceDb();
+  await bindDeviceOwner(dev, userId);
+  await noteSession(dev, `test session of ${userId}`);
+  return dev;
 }
