@@ -27,7 +27,6 @@ import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtu
 import {
   type MemoryDeviceDb,
   deviceMigrationsFromDisk,
-  memoryDeviceDb,
   signedInDeviceDb,
 } from '@/tests/support/memory-device-db';
 

@@ -16,7 +16,7 @@ import { syncOnce } from '@/features/sync/sync-run';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
 

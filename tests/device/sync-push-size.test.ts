@@ -12,7 +12,7 @@ import { MAX_BATCH_BYTES, pushOutbox } from '@/features/sync/push';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { makeRecord } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 import { swingTrace } from '@/tests/support/motion-fixtures';
 
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));

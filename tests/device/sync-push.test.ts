@@ -21,7 +21,7 @@ import { syncOnce } from '@/features/sync/sync-run';
 
 import { FakeSyncServer } from './fake-sync-server';
 import { fakeJpeg, makeRecord, photoRef } from '@/tests/support/inspection-fixtures';
-import { type MemoryDeviceDb, memoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
+import { type MemoryDeviceDb, signedInDeviceDb } from '@/tests/support/memory-device-db';
 
 // The API client reads the session from expo-secure-store, which has no native side under node (ts-jest hoists this).
 jest.mock('@/features/session/token-store', () => ({ tokenStore: { get: async () => null } }));
