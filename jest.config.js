@@ -17,6 +17,12 @@ module.exports = {
       preset: 'jest-expo',
       testMatch: ['<rootDir>/tests/app/**/*.test.ts?(x)'],
       moduleNameMapper: { ...alias, ...d3Umd },
+      // jest-expo's own list, plus canonicalize (ES modules only; the phone signs with it).
+      transformIgnorePatterns: [
+        ...require('jest-expo/jest-preset').transformIgnorePatterns.map((p) =>
+          p.startsWith('/node_modules/(?!(.pnpm|') ? p.replace('(?!(.pnpm|', '(?!(.pnpm|canonicalize|') : p,
+        ),
+      ],
     },
     {
       displayName: 'node',
