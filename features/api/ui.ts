@@ -10,3 +10,4 @@ export {
   useDownloadProgress,
 } from '@/features/api/download-progress-bar';
 export type { DownloadProgress, OnDownloadProgress } from '@/features/api/download-progress';
+export { PaperSizeDownload } from '@/features/api/paper-download';
