@@ -10,7 +10,7 @@ import { eq } from 'drizzle-orm';
 
 import { ndtReports } from '@/db/server/ndt';
 import type { Db } from '@/server/db';
-import { storedFolders, type ObjectStorage } from '@/server/storage';
+import { storeContent, storedFolders, type ObjectStorage } from '@/server/storage';
 
 /** A scanned report of a few pages fits well inside this; a larger file is refused with 413. */
 export const MAX_NDT_REPORT_BYTES = 20 * 1024 * 1024;
@@ -45,19 +45,18 @@ export async function storeNdtReport(
   input: { sha256: string; bytes: Uint8Array; userId: string },
   now: Date,
 ): Promise<{ stored: boolean }> {
-  const key = ndtReportKeyOf(input.sha256);
-  const known = findNdtReport(db, input.sha256);
-  if (known && (await storage.has(key))) return { stored: false };
-  await storage.put(key, input.bytes);
-  const inserted = db
-    .insert(ndtReports)
-    .values({
-      sha256: input.sha256,
-      bytes: input.bytes.length,
-      storedAt: now.toISOString(),
-      uploadedBy: input.userId,
-    })
-    .onConflictDoNothing()
-    .run();
-  return { stored: inserted.changes > 0 || known !== null };
+  return storeContent(storage, ndtReportKeyOf(input.sha256), input.bytes, {
+    known: () => findNdtReport(db, input.sha256) !== null,
+    insert: () =>
+      db
+        .insert(ndtReports)
+        .values({
+          sha256: input.sha256,
+          bytes: input.bytes.length,
+          storedAt: now.toISOString(),
+          uploadedBy: input.userId,
+        })
+        .onConflictDoNothing()
+        .run().changes,
+  });
 }

@@ -13,6 +13,7 @@ export {
 } from '@/server/storage-url';
 export { assertKey, StorageError, storedFolders, type ObjectStorage } from '@/server/storage/types';
 export { diskStorage } from '@/server/storage/disk';
+export { storeContent } from '@/server/storage/content';
 
 /** A driver for `settings`; a disk without its own folder keeps the files under `dataDir`. */
 export function openStorage(settings: StorageSettings, dataDir: string): ObjectStorage {

@@ -11,7 +11,7 @@ import { eq } from 'drizzle-orm';
 import { photos, type photoMimes } from '@/db/server/inspections';
 import { jpegMetadataKinds } from '@/lib/jpeg-metadata';
 import type { Db } from '@/server/db';
-import { storedFolders, type ObjectStorage } from '@/server/storage';
+import { storeContent, storedFolders, type ObjectStorage } from '@/server/storage';
 
 type PhotoMime = (typeof photoMimes)[number];
 
@@ -86,23 +86,22 @@ export async function storePhoto(
   input: { sha256: string; mime: PhotoMime; bytes: Uint8Array; userId: string },
   now: Date = new Date(),
 ): Promise<{ stored: boolean }> {
-  return withPhotoLock(input.sha256, async () => {
-    const key = photoKeyOf(input.sha256);
-    const known = findPhoto(db, input.sha256);
-    if (known && (await storage.has(key))) return { stored: false };
-    // One upload of the same bytes at a time (withPhotoLock): the first stores them, the next finds them.
-    await storage.put(key, input.bytes);
-    const inserted = db
-      .insert(photos)
-      .values({
-        sha256: input.sha256,
-        mime: input.mime,
-        bytes: input.bytes.length,
-        storedAt: now.toISOString(),
-        uploadedBy: input.userId,
-      })
-      .onConflictDoNothing()
-      .run();
-    return { stored: inserted.changes > 0 || known !== null };
-  });
+  // One upload of the same bytes at a time (withPhotoLock): the first stores them, the next finds them.
+  return withPhotoLock(input.sha256, () =>
+    storeContent(storage, photoKeyOf(input.sha256), input.bytes, {
+      known: () => findPhoto(db, input.sha256) !== null,
+      insert: () =>
+        db
+          .insert(photos)
+          .values({
+            sha256: input.sha256,
+            mime: input.mime,
+            bytes: input.bytes.length,
+            storedAt: now.toISOString(),
+            uploadedBy: input.userId,
+          })
+          .onConflictDoNothing()
+          .run().changes,
+    }),
+  );
 }
