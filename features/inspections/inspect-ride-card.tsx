@@ -1,16 +1,17 @@
 import { router } from 'expo-router';
 import { useState } from 'react';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, StyleSheet } from 'react-native';
 
 import { Spinner } from '@/components/spinner';
 import { Button } from '@/components/button';
 import { Card } from '@/components/card';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, layout } from '@/components/theme';
 import { formatLocalStamp } from '@/lib/dates';
 import { useFieldRidesQuery, useStartInspectionMutation } from '@/features/inspections/field-api';
 import { inspectHref } from '@/features/inspections/hrefs';
-import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
+import { InspectionTypeChoice } from '@/features/inspections/inspection-type-choice';
+import { type InspectionType, inspectionTypeLabel } from '@/features/records/schema';
 import { scheduleSchema } from '@/features/registry/schema';
 
 /**
@@ -45,19 +46,7 @@ export function InspectRideCard({ rideId }: { rideId: string }) {
           <Button label="Resume inspection" onPress={() => router.push(inspectHref(latest.id))} />
         </>
       ) : choosing ? (
-        <View style={styles.types} role="radiogroup" accessibilityLabel="Inspection type">
-          {inspectionTypes.map((t) => (
-            <Pressable
-              key={t}
-              role="radio"
-              aria-checked={false}
-              onPress={() => begin(t)}
-              style={StyleSheet.flatten([styles.type, assigned?.inspectionType === t && styles.suggested])}
-            >
-              <Text variant="label">{inspectionTypeLabel[t]}</Text>
-            </Pressable>
-          ))}
-        </View>
+        <InspectionTypeChoice onChoose={begin} suggested={assigned?.inspectionType} />
       ) : (
         <>
           {assigned ? (
@@ -86,16 +75,5 @@ export function InspectRideCard({ rideId }: { rideId: string }) {
 }
 
 const styles = StyleSheet.create({
-  types: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  type: {
-    minHeight: layout.touchTarget,
-    justifyContent: 'center',
-    paddingHorizontal: space.md,
-    borderRadius: radius.md,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    backgroundColor: colors.surface,
-  },
-  suggested: { borderColor: colors.base },
   other: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
 });

@@ -6,13 +6,14 @@ import { Card } from '@/components/card';
 import { Spinner } from '@/components/spinner';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, layout, space } from '@/components/theme';
 import { useDeviceDb } from '@/features/device-db/ui';
 import { useStartInspectionMutation } from '@/features/inspections/field-api';
 import { inspectPivotHref } from '@/features/inspections/hrefs';
 import { InspectRideCard } from '@/features/inspections/inspect-ride-card';
 import { type PlateOutcome, openPlate } from '@/features/inspections/plate-open';
-import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
+import { InspectionTypeChoice } from '@/features/inspections/inspection-type-choice';
+import type { InspectionType } from '@/features/records/schema';
 import { type PlateTarget, rideHref } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 
@@ -83,20 +84,10 @@ export function PlateResult({
           Pivot {outcome.joint + 1} · {outcome.pivotName}. No inspection of this ride is in progress on your
           phone: choose the type to start one at this pivot’s readings.
         </Text>
-        <View style={styles.types} role="radiogroup" accessibilityLabel="Inspection type">
-          {inspectionTypes.map((t) => (
-            <Pressable
-              key={t}
-              role="radio"
-              aria-checked={false}
-              disabled={start.isPending}
-              onPress={() => begin(outcome.ride.id, outcome.joint, t)}
-              style={styles.type}
-            >
-              <Text variant="label">{inspectionTypeLabel[t]}</Text>
-            </Pressable>
-          ))}
-        </View>
+        <InspectionTypeChoice
+          disabled={start.isPending}
+          onChoose={(t) => begin(outcome.ride.id, outcome.joint, t)}
+        />
       </Card>
     );
   const ride = outcome.ride;
@@ -128,14 +119,4 @@ const styles = StyleSheet.create({
   head: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
   grow: { flex: 1, gap: 2 },
   link: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
-  types: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  type: {
-    minHeight: layout.touchTarget,
-    justifyContent: 'center',
-    paddingHorizontal: space.md,
-    borderRadius: radius.md,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    backgroundColor: colors.surface,
-  },
 });
