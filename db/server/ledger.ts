@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { check, index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 
-import { rides } from '@/db/server/schema';
+import { rides, users } from '@/db/server/schema';
 import { ledgerKinds } from '@/features/ledger/schema';
 
 /*
@@ -56,4 +56,29 @@ export const ledgerHeads = sqliteTable('ledger_heads', {
   signature: text('signature').notNull(),
 });
 
+/**
+ * The phones' signing keys: each sign-in on a phone makes an Ed25519 key pair and registers its public key
+ * here before its first push; the push's records carry signatures by it. Revoking a key (a lost phone)
+ * stops new records signed by it, while records accepted before still verify with it.
+ */
+export const deviceKeys = sqliteTable(
+  'device_keys',
+  {
+    /** keyIdOf(publicKey): the first 16 hex digits of the public key's SHA-256. */
+    keyId: text('key_id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    /** The 32-byte Ed25519 public key, lowercase hex. */
+    publicKey: text('public_key').notNull(),
+    /** What the phone calls itself ("Chromium on Android"), for the person's list of keys. */
+    label: text('label'),
+    createdAt: text('created_at').notNull(),
+    revokedAt: text('revoked_at'),
+    revokedBy: text('revoked_by').references(() => users.id, { onDelete: 'restrict' }),
+  },
+  (t) => [index('device_keys_user_idx').on(t.userId, t.createdAt)],
+);
+
 export type LedgerEntryRow = typeof ledgerEntries.$inferSelect;
+export type DeviceKeyRow = typeof deviceKeys.$inferSelect;
