@@ -34,6 +34,17 @@ export const chainVerificationSchema = z.object({
       words: z.string(),
     })
     .nullable(),
+  /** The phone keys whose signatures the chain carries: how many records each signed, named by its owner. */
+  signers: z.array(
+    z.object({
+      keyId: z.string(),
+      personName: z.string(),
+      records: z.number().int(),
+      revokedAt: z.string().nullable(),
+    }),
+  ),
+  /** Entries no phone signed: the server's own (decisions, findings, NDT records, notices) and older records. */
+  unsigned: z.number().int(),
 });
 export type ChainVerification = z.infer<typeof chainVerificationSchema>;
 
@@ -74,3 +85,30 @@ export const kindWords: Record<LedgerKind, string> = {
   ndt: 'NDT record',
   notice: 'notice',
 };
+
+// ——— phone keys ———
+
+/** An Ed25519 public key (32 bytes) or signature (64 bytes), lowercase hex as the chain stores them. */
+export const publicKeyHexSchema = z
+  .string()
+  .regex(/^[0-9a-f]{64}$/, 'An Ed25519 public key: 64 lowercase hex digits');
+
+/** POST /api/devices/keys: the phone's public key for this sign-in and what the phone calls itself. */
+export const registerDeviceKeyBodySchema = z.object({
+  publicKey: publicKeyHexSchema,
+  label: z.string().trim().min(1, 'Leave the label out rather than empty').max(80).optional(),
+});
+export type RegisterDeviceKeyBody = z.infer<typeof registerDeviceKeyBodySchema>;
+
+/** The answer of POST /api/devices/keys (201 new, 200 already this person's). */
+export const registeredDeviceKeySchema = z.object({ keyId: z.string(), createdAt: z.string() });
+
+/** One of a person's phone keys, as GET /api/devices/keys lists them. */
+export const deviceKeySchema = z.object({
+  keyId: z.string(),
+  label: z.string().nullable(),
+  createdAt: z.string(),
+  revokedAt: z.string().nullable(),
+  revokedBy: z.string().nullable(),
+});
+export type DeviceKey = z.infer<typeof deviceKeySchema>;

@@ -203,6 +203,12 @@ export const PUSH_MAX_RECORDS = 200;
 export const pushBatchSchema = z.object({
   batchId: uuid(),
   records: z.array(z.unknown()).min(1).max(PUSH_MAX_RECORDS),
+  /**
+   * The phone's signature of each record, by record id: Ed25519 with the key it registered for this
+   * sign-in (POST /api/devices/keys) over `recordHashOf(record)` (features/ledger) of the record as parsed by
+   * `inspectionRecordSchema`. The server accepts no record without a valid one.
+   */
+  signatures: z.record(z.string(), z.object({ keyId: z.string(), signature: z.string() })).optional(),
 });
 
 /** Per-record outcome: accepted (new or already had), or rejected with reasons naming fields. */

@@ -13,6 +13,8 @@ export type LedgerRef = {
   refId: string;
   /** The ride, needed when the row is gone (a removed finding); otherwise the row's own. */
   rideId?: string;
+  /** The phone's key and its signature over the record's hash, for a record a phone signed. */
+  device?: { keyId: string; signature: string } | null;
 };
 
 type ChainEnd = { rideId: string; seq: number; entryHash: string };
@@ -67,7 +69,7 @@ function appendEntry(db: Writer, key: LedgerKey, ref: LedgerRef, now: Date): Cha
     refId: ref.refId,
     at: now.toISOString(),
     value,
-    device: null,
+    device: ref.device ?? null,
     server: key,
     ed25519: nodeEd25519,
   });

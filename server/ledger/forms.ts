@@ -14,22 +14,17 @@ export type LiveForm = { rideId: string; kind: LedgerKind; value: unknown };
 
 const json = (text: string | null): unknown => (text === null ? null : JSON.parse(text));
 
+/**
+ * An inspection or amendment: the record itself as stored, which is the record as the phone queued and
+ * signed it, so the entry's record hash is what the phone's signature covers. Who sent it and when the
+ * server accepted it are the entry's own (`at`) and the decision's.
+ */
 function inspectionForm(db: Reader, id: string): LiveForm | null {
-  const row = db.get<{
-    rideId: string;
-    inspectorId: string;
-    receivedAt: string;
-    amendsId: string | null;
-    record: string;
-  }>(sql`SELECT ride_id AS rideId, inspector_id AS inspectorId, received_at AS receivedAt,
-           amends_id AS amendsId, record FROM inspections WHERE id = ${id}`);
+  const row = db.get<{ rideId: string; amendsId: string | null; record: string }>(
+    sql`SELECT ride_id AS rideId, amends_id AS amendsId, record FROM inspections WHERE id = ${id}`,
+  );
   if (!row) return null;
-  const { rideId, record, ...rest } = row;
-  return {
-    rideId,
-    kind: row.amendsId ? 'amendment' : 'inspection',
-    value: { id, rideId, ...rest, record: json(record) },
-  };
+  return { rideId: row.rideId, kind: row.amendsId ? 'amendment' : 'inspection', value: json(row.record) };
 }
 
 function decisionForm(db: Reader, id: string): LiveForm | null {

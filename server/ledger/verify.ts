@@ -9,6 +9,7 @@ import {
   type LedgerKind,
 } from '@/features/ledger';
 import type { Db } from '@/server/db';
+import { deviceKeyLookup } from '@/server/ledger/device-keys';
 import { liveForm } from '@/server/ledger/forms';
 import { nodeEd25519 } from '@/server/ledger/ed25519';
 import { ledgerKeyOf } from '@/server/ledger/key';
@@ -17,7 +18,8 @@ type Reader = Pick<Db, 'get' | 'all'>;
 
 /**
  * Checks a ride's whole chain (features/ledger/chain.ts, `verifyChain`) and each record's live row against
- * its latest entry; answers intact, or the first entry that breaks the chain and why.
+ * its latest entry; answers intact, or the first entry that breaks the chain and why, with the phone keys
+ * that signed its records (by their owners' names) and how many entries no phone signed.
  */
 export function verifyRideChain(db: Reader, rideId: string, now: Date = new Date()): ChainVerification {
   const entries = db.all<LedgerEntry>(
@@ -31,12 +33,16 @@ export function verifyRideChain(db: Reader, rideId: string, now: Date = new Date
       sql`SELECT seq, entry_hash AS entryHash, signature FROM ledger_heads WHERE ride_id = ${rideId}`,
     ) ?? null;
   const key = ledgerKeyOf(db);
+  // Revoked keys too: revocation stops new records, it does not unmake what a key signed before.
+  const signed = new Map<string, number>();
+  for (const e of entries) if (e.deviceKeyId) signed.set(e.deviceKeyId, (signed.get(e.deviceKeyId) ?? 0) + 1);
+  const phones = deviceKeyLookup(db, [...signed.keys()]);
   const result = verifyChain({
     entries,
     head,
     rideId,
     serverKey: (keyId) => (keyId === key.keyId ? key.publicKey : null),
-    deviceKey: () => null,
+    deviceKey: (keyId) => phones.get(keyId)?.publicKey ?? null,
     ed25519: nodeEd25519,
     live: (kind: LedgerKind, refId: string) => {
       const form = liveForm(db, kind, refId);
@@ -49,5 +55,15 @@ export function verifyRideChain(db: Reader, rideId: string, now: Date = new Date
     entries: result.entries,
     checkedAt: now.toISOString(),
     break: result.intact ? null : { ...result.break, words: breakWords[result.break.why] },
+    signers: [...signed].map(([keyId, records]) => {
+      const phone = phones.get(keyId);
+      return {
+        keyId,
+        personName: phone?.personName ?? 'an unknown key',
+        records,
+        revokedAt: phone?.revokedAt ?? null,
+      };
+    }),
+    unsigned: entries.length - [...signed.values()].reduce((n, k) => n + k, 0),
   };
 }

@@ -9,6 +9,7 @@ import { auditRouter } from '@/server/routes/audit';
 import { chainRouter } from '@/server/routes/chain';
 import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
+import { devicesRouter } from '@/server/routes/devices';
 import { fatigueRouter } from '@/server/routes/fatigue';
 import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
@@ -36,6 +37,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(accountRouter(deps));
   router.use(ridesRouter(deps));
   router.use(chainRouter(deps));
+  router.use(devicesRouter(deps));
   router.use(registerRouter(deps));
   router.use(designRouter(deps));
   router.use(checklistsRouter(deps));

@@ -20,10 +20,13 @@ const pullInput = validate({
 /**
  * The phone's sync (inspectors, supervisors and admins; operators have no inspections to send).
  *
- * - `POST /sync/push` `{ batchId, records[] }` → 200 `{ batchId, results: [{ id, status, issues? }] }`, one
- *   result per record in order: `accepted`, `duplicate` (already stored, identical) or `rejected` with
- *   issues whose paths are relative to the record. The same batch id again (same user) answers the
+ * - `POST /sync/push` `{ batchId, records[], signatures: { [recordId]: { keyId, signature } } }` → 200
+ *   `{ batchId, results: [{ id, status, issues? }] }`, one result per record in order: `accepted`,
+ *   `duplicate` (already stored, identical) or `rejected` with issues whose paths are relative to the
+ *   record. The same batch id again (same user) answers the
  *   stored result and writes nothing. A body that is not a batch at all is a 400 `validation_failed`.
+ *   A new record without a valid signature by one of the sender's phone keys (not withdrawn) is rejected
+ *   with an issue at `signature` (server/sync/ingest.ts).
  * - `GET /sync/pull?cursor=` → the shape of features/sync/pull-schema.ts: everything on the first pull,
  *   then what changed since `cursor`; a cursor this server did not give out is a 400 naming `query.cursor`.
  *

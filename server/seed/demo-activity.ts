@@ -19,6 +19,7 @@ import { designVersions, rides, users } from '@/db/server/schema';
 import { analyseRecord, previewOf } from '@/features/records/analysis';
 import type { ChecklistAnswer, InspectionRecord, Reading } from '@/features/records/schema';
 import { DEFAULT_DECLARATION_TEXT } from '@/features/instruments/schema';
+import { keyIdOf, newPrivateKey, publicKeyOf } from '@/features/ledger';
 import { findSessionUser } from '@/server/auth/service';
 import type { Db } from '@/server/db';
 import { findChecklistTemplate, listChecklistTemplates } from '@/server/registry/checklists';
@@ -35,7 +36,8 @@ import {
 } from '@/server/seed/demo-inspections';
 import { demoPhoto } from '@/server/seed/demo-photos';
 import { analyseOne } from '@/server/sync/analysis';
-import { ingestBatch } from '@/server/sync/ingest';
+import { registerDeviceKey } from '@/server/auth/device-keys';
+import { ingestBatch, type SigningKey } from '@/server/sync/ingest';
 
 /** The demo's inspector, who made every demo inspection, and the supervisor who decided them. */
 const demoInspectorEmail = 'inspector@pivotwatch.test';
@@ -157,6 +159,10 @@ export function addDemoActivity(db: Db, now: Date = new Date()): number {
       .flatMap((r) => (r.serial ? [[r.serial, { id: r.id, rideClass: r.rideClass }] as const] : [])),
   );
   const ctx: Ctx = { db, now, rideOf, inspector };
+  // The demo inspector's phone: a key registered to them when the first record is pushed, which signs
+  // each record as a phone would, so the demo rides' chains show signed records. Nothing keeps its
+  // private half; a later run that adds history registers a key of its own.
+  let phone: SigningKey | null = null;
   let added = 0;
   for (const spec of demoInspections) {
     // Already stored (or decided on since): nothing to build.
@@ -171,11 +177,18 @@ export function addDemoActivity(db: Db, now: Date = new Date()): number {
     const record = buildRecord(ctx, spec);
     if (!record) continue;
     const receivedAt = new Date(Date.parse(record.submittedAt) + 5 * 60_000);
+    if (!phone) {
+      const privateKey = newPrivateKey();
+      const publicKey = publicKeyOf(privateKey);
+      registerDeviceKey(db, inspector, { publicKey, label: 'Demo phone' }, new Date(record.startedAt));
+      phone = { keyId: keyIdOf(publicKey), privateKey };
+    }
     const outcome = ingestBatch(
       db,
       inspector,
       { batchId: demoUuid(`${spec.key}:batch`), records: [record] },
       receivedAt,
+      { signWith: phone },
     );
     const result = outcome.result.results[0];
     if (outcome.replayed || result?.status === 'duplicate') continue;

@@ -16,6 +16,7 @@ import { sqliteOf } from '@/server/sqlite-client';
 
 type RideRow = { id: string; operatorCompanyId: string; currentDesignId: string | null };
 type ExistingRow = { contentSha256: string; rideId: string; inspectorId: string };
+export type PhoneKey = { keyId: string; publicKey: string; revokedAt: string | null };
 
 /** An inspection's row, in the INSERT's column order. */
 export type InspectionParams = [
@@ -68,6 +69,10 @@ export type Statements = {
   designRide: Database.Statement<[string], { rideId: string }>;
   /** The batch's ids already stored, in one query per batch rather than one per record. */
   findInspections: Database.Statement<[string], ExistingRow & { id: string }>;
+  /** The sending person's phone keys, once per batch; revoked ones too, to say why a record is refused. */
+  personKeys: Database.Statement<[string], PhoneKey>;
+  /** Whose a key is, asked only for a record signed with a key that is not the sender's. */
+  keyOwner: Database.Statement<[string], { userId: string }>;
   inspections: Table;
   readings: Table;
   photos: Table;
@@ -177,6 +182,10 @@ export function statementsFor(db: Db): Statements {
       `SELECT id, content_sha256 AS contentSha256, ride_id AS rideId, inspector_id AS inspectorId
        FROM inspections WHERE id IN (SELECT value FROM json_each(?))`,
     ),
+    personKeys: sqlite.prepare(
+      'SELECT key_id AS keyId, public_key AS publicKey, revoked_at AS revokedAt FROM device_keys WHERE user_id = ?',
+    ),
+    keyOwner: sqlite.prepare('SELECT user_id AS userId FROM device_keys WHERE key_id = ?'),
     inspections: table(`INSERT INTO inspections ${inspectionColumns}`, 15, INSPECTIONS_PER_RUN),
     readings: table(`INSERT INTO inspection_readings ${readingColumns}`, 12, READINGS_PER_RUN),
     photos: table(`INSERT INTO inspection_photos ${photoColumns}`, 9, PHOTOS_PER_RUN),

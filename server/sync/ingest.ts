@@ -14,6 +14,7 @@ import { hash } from 'node:crypto';
 
 import { z } from 'zod';
 
+import { canonicalJson } from '@/features/ledger';
 import type { SessionUser } from '@/features/session/schema';
 import {
   inspectionRecordSchema,
@@ -27,10 +28,12 @@ import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
 import { appendManyToLedger } from '@/server/ledger/append';
+import { nodeEd25519 } from '@/server/ledger/ed25519';
 import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
 import {
   type InspectionParams,
+  type PhoneKey,
   type Statements,
   type StoredRecord,
   statementsFor,
@@ -42,7 +45,8 @@ import {
   plausibilityIssues,
 } from '@/server/sync/plausibility-check';
 
-type PushBatch = { batchId: string; records: unknown[] };
+type Signature = { keyId: string; signature: string };
+type PushBatch = { batchId: string; records: unknown[]; signatures?: Record<string, Signature> };
 type RecordResult = PushResult['results'][number];
 type Issue = { path: string; message: string };
 
@@ -122,7 +126,61 @@ type BatchContext = {
   instrument: ReturnType<typeof instrumentLookup>;
   /** Template and design versions by id, for the checklist limits. */
   limits: ReturnType<typeof checklistLimitLookup>;
+  /** The batch's signatures by record id, and the sender's phone keys by key id (read once per batch). */
+  signatures: Readonly<Record<string, Signature>>;
+  phoneKeys: Map<string, PhoneKey>;
+  /** A key that signs each record the server is given (the demo seed's phone), instead of the batch's. */
+  signWith: SigningKey | null;
+  /** The phone's signature of each accepted record, for its chain entry. */
+  signed: Map<string, Signature>;
 };
+
+/** A phone key the server holds the private half of: only the demo seed's and the ingest bench's. */
+export type SigningKey = { keyId: string; privateKey: string };
+
+const signAgain = 'sign in again on the phone and send it again';
+
+/**
+ * The record's signature, checked: by a key registered to the sender, not withdrawn, over the record's
+ * hash (features/ledger `recordHashOf` of the parsed record, as the phone signed it). The hash is the same
+ * SHA-256 over the same RFC 8785 form, through Node's one-shot digest.
+ */
+function signatureOf(ctx: BatchContext, record: InspectionRecord): Signature | Issue {
+  const issue = (message: string): Issue => ({ path: 'signature', message });
+  let recordHash: string;
+  try {
+    recordHash = hash('sha256', canonicalJson(record), 'hex');
+  } catch {
+    // RFC 8785 has no form for a string with a lone UTF-16 surrogate, so nothing can sign it.
+    return issue(
+      'This inspection holds text that cannot be signed (a broken character); correct it on the phone',
+    );
+  }
+  const given =
+    ctx.signWith !== null
+      ? { keyId: ctx.signWith.keyId, signature: nodeEd25519.sign(ctx.signWith.privateKey, recordHash) }
+      : Object.hasOwn(ctx.signatures, record.id)
+        ? ctx.signatures[record.id]
+        : undefined;
+  if (!given) return issue(`This inspection is not signed by this phone's key; ${signAgain}`);
+  const key = ctx.phoneKeys.get(given.keyId);
+  if (!key) {
+    const owner = ctx.st.keyOwner.get(given.keyId);
+    return issue(
+      owner
+        ? `This inspection is signed with another person's phone key; ${signAgain}`
+        : `This inspection is signed with a phone key the server does not know; ${signAgain}`,
+    );
+  }
+  if (key.revokedAt !== null)
+    return issue(
+      `The phone key this inspection is signed with was withdrawn (revoked) on ${key.revokedAt.slice(0, 10)}; ` +
+        signAgain,
+    );
+  if (!nodeEd25519.verify(key.publicKey, recordHash, given.signature))
+    return issue("The signature does not match this inspection's content");
+  return { keyId: given.keyId, signature: given.signature };
+}
 
 function rideOf(ctx: BatchContext, id: string): RideRow | null {
   let ride = ctx.rides.get(id);
@@ -189,6 +247,8 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   }
 
   // After the duplicate check: a record stored before these rules may still be re-sent unchanged.
+  const signature = signatureOf(ctx, record);
+  if ('path' in signature) return rejected(record.id, [signature]);
   const untrue = recordTruthIssues(record, ctx.instrument);
   if (untrue.length) return rejected(record.id, untrue);
   const mistyped = enteredIssues(record);
@@ -269,6 +329,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
       ]);
     }
   ctx.known.set(record.id, { contentSha256, rideId: ride.id, inspectorId: ctx.user.id });
+  ctx.signed.set(record.id, signature);
   return { id: record.id, status: 'accepted' };
 }
 
@@ -304,6 +365,7 @@ function ingestRecords(ctx: BatchContext, records: readonly unknown[]): RecordRe
     ctx.pending = null;
   }
   ctx.known = storedOf(ctx.st, records);
+  ctx.signed.clear();
   return records.map((raw) => ingestRecord(ctx, raw));
 }
 
@@ -311,13 +373,15 @@ type IngestOutcome = { result: PushResult; replayed: boolean; accepted: number }
 
 /**
  * Stores a batch (already checked against pushBatchSchema) for `user`. A batch id this user has sent
- * before gets its stored answer and changes nothing.
+ * before gets its stored answer and changes nothing. `signWith` is for the server's own callers (the demo
+ * seed): its key, registered to `user`, signs each record in place of the batch's signatures.
  */
 export function ingestBatch(
   db: Db,
   user: SessionUser,
   batch: PushBatch,
   now: Date = new Date(),
+  options: { signWith?: SigningKey } = {},
 ): IngestOutcome {
   const st = statementsFor(db);
   const scope = companyScope(user);
@@ -343,14 +407,19 @@ export function ingestBatch(
       acceptedReadings: acceptedReadingsLookup(st.sqlite),
       instrument: instrumentLookup(db),
       limits: checklistLimitLookup(st.sqlite, design),
+      signatures: batch.signatures ?? {},
+      phoneKeys: new Map(st.personKeys.all(user.id).map((k) => [k.keyId, k])),
+      signWith: options.signWith ?? null,
+      signed: new Map(),
     };
     const results = ingestRecords(ctx, batch.records);
     // The review queue learns of the new inspections (and of originals an amendment supersedes) at once.
     const accepted = results.flatMap((r) => (r.status === 'accepted' && r.id ? [r.id] : []));
     // Each accepted inspection or amendment joins its ride's record chain (a re-sent one is already there).
+    // Each carries the phone's signature, which the entry's record hash lets anyone check later.
     appendManyToLedger(
       db,
-      accepted.map((refId) => ({ kind: 'inspection', refId })),
+      accepted.map((refId) => ({ kind: 'inspection', refId, device: ctx.signed.get(refId) ?? null })),
       now,
     );
     refreshQueueInspections(db, queueDay(db, now), accepted);

@@ -1,5 +1,3 @@
-import { randomUUID } from 'node:crypto';
-
 import { count } from 'drizzle-orm';
 
 import {
@@ -251,7 +249,7 @@ beforeAll(async () => {
     finding: '',
   };
   const record = makeRecord(demoRide(server.db, 'Skylark'));
-  await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  await api.inspector.push([record]);
   ids.inspection = record.id;
   ids.finding = (
     await api.supervisor.post(`/api/inspections/${record.id}/findings`, {

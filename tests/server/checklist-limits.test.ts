@@ -5,7 +5,6 @@
  * data (Twin Comet main axle: nominal 120 mm, minimum 119.2 mm, clearance limit 0.5 mm); a value exactly
  * at a limit is allowed and one beyond it is not (common practice for wear limits; from memory).
  */
-import { randomUUID } from 'node:crypto';
 
 import { and, eq } from 'drizzle-orm';
 
@@ -44,7 +43,7 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 const mm = (v: number) => toSI(v, 'lengthSmall', 'mm');
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 
 /** Every item answered Pass, with the given values (mm) on the measured items named. */
 function answers(values: Record<string, number>, patch: Record<string, Partial<ChecklistAnswer>> = {}) {

@@ -5,7 +5,6 @@
  * its answer does) and re-sending every record in new batches must add no row. SQLite's own
  * `PRAGMA integrity_check` must find the database sound after the kill.
  */
-import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -16,6 +15,7 @@ import { dataDirInUse } from '@/server/backup';
 import { databaseFileName, openDb } from '@/server/db';
 import { seedDemoData } from '@/server/seed/demo';
 
+import { newPhoneKey, signedBatch } from '../support/phone-keys';
 import { signIn, spawnServer, type ServerProcess } from './crash-helpers';
 import { makeTempDir, userIdOf } from './helpers';
 import { demoRide, makeRecord, otherReading, speedReading } from './sync-fixtures';
@@ -33,7 +33,7 @@ afterAll(async () => {
   fs.rmSync(dataDir, { recursive: true, force: true });
 });
 
-type Batch = { batchId: string; records: InspectionRecord[] };
+type Batch = { batchId: string; records: InspectionRecord[]; signatures?: Record<string, unknown> };
 type Answer = { batchId: string; results: { id: string; status: string }[] };
 
 async function push(url: string, token: string, batch: Batch): Promise<Answer> {
@@ -80,21 +80,31 @@ test('a SIGKILL in the middle of pushes loses no accepted record and doubles non
   const before = (setup.sqlite.prepare('SELECT count(*) AS n FROM inspections').get() as { n: number }).n;
   setup.close();
 
-  const batches: Batch[] = Array.from({ length: BATCHES }, () => ({
-    batchId: randomUUID(),
-    records: Array.from({ length: PER_BATCH }, () =>
-      makeRecord(ride, {
-        authorId,
-        photos: [],
-        readings: [speedReading(11.5), ...Array.from({ length: READINGS - 1 }, (_, i) => otherReading(i))],
-      }),
+  // The phone's key, registered once the server runs; every record is signed with it.
+  const key = newPhoneKey();
+  const batches: Batch[] = Array.from({ length: BATCHES }, () =>
+    signedBatch(
+      Array.from({ length: PER_BATCH }, () =>
+        makeRecord(ride, {
+          authorId,
+          photos: [],
+          readings: [speedReading(11.5), ...Array.from({ length: READINGS - 1 }, (_, i) => otherReading(i))],
+        }),
+      ),
+      key,
     ),
-  }));
+  );
 
   server = await spawnServer(dataDir);
   // The running server holds DATA_DIR: no second server, no restore.
   expect(dataDirInUse(dataDir)).toBe(true);
   const token = await signIn(server.url, 'inspector@pivotwatch.test');
+  const registered = await fetch(`${server.url}/api/devices/keys`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Authorization: `Bearer ${token}` },
+    body: JSON.stringify({ publicKey: key.publicKey }),
+  });
+  expect(registered.status).toBe(201);
   const accepted = new Set<string>();
   const answered: Answer[] = [];
   let next = 0;
@@ -141,7 +151,7 @@ test('a SIGKILL in the middle of pushes loses no accepted record and doubles non
   }
   // The same records in new batches: the server already has each one.
   const sample = batches.slice(0, 4).flatMap((b) => b.records);
-  const dup = await push(server.url, again, { batchId: randomUUID(), records: sample });
+  const dup = await push(server.url, again, signedBatch(sample, key));
   expect(new Set(dup.results.map((r) => r.status))).toEqual(new Set(['duplicate']));
   await server.kill();
   server = null;

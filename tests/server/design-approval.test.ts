@@ -5,7 +5,6 @@
  * effect at once. The "second person" rule is common practice for safety-relevant design changes
  * (four-eyes principle); which changes loosen a limit is tested in tests/engine/design-diff.test.ts.
  */
-import { randomUUID } from 'node:crypto';
 
 import { and, eq } from 'drizzle-orm';
 
@@ -109,7 +108,7 @@ describe('a loosening revision waits for a second person', () => {
         readings: [speedReading(11.5), otherReading(0)],
       },
     );
-    const push = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+    const push = await api.inspector.push([record]);
     expect(push.body.results[0].status).toBe('accepted');
     await analysePending(server.db);
     const got = (await api.supervisor.get(`/api/inspections/${record.id}`)).body.inspection;
@@ -119,7 +118,7 @@ describe('a loosening revision waits for a second person', () => {
   test('a record that names the pending revision is refused, so it is never analysed', async () => {
     const pendingId = (await pendingOf()).pending?.id ?? '';
     const record = makeRecord({ id: comet.id, designVersionId: pendingId, design: v1 });
-    const push = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+    const push = await api.inspector.push([record]);
     expect(push.body.results[0].status).toBe('rejected');
     expect(push.body.results[0].issues).toContainEqual(expect.objectContaining({ path: 'designVersionId' }));
   });

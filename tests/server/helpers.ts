@@ -15,6 +15,8 @@ import { openDb, type Db } from '@/server/db';
 import { createLogger } from '@/server/logger';
 import { demoPassword, seedDemoData } from '@/server/seed/demo';
 
+import { newPhoneKey, signedBatch, type PhoneKey } from '../support/phone-keys';
+
 export function makeTempDir(prefix = 'pivotwatch-test-'): string {
   return fs.mkdtempSync(path.join(os.tmpdir(), prefix));
 }
@@ -77,6 +79,21 @@ export async function signInAs(app: Express, email: string, password = demoPassw
   if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${res.text}`);
   return res.body.token;
 }
+
+/** Registers a new phone key for the person signed in with `token`, as the phone does after sign-in. */
+export async function registerPhoneKey(app: Express, token: string): Promise<PhoneKey> {
+  const key = newPhoneKey();
+  const res = await request(app)
+    .post('/api/devices/keys')
+    .set('Authorization', `Bearer ${token}`)
+    .send({ publicKey: key.publicKey, label: 'Test phone' });
+  if (res.status !== 201) throw new Error(`phone key registration failed: ${res.status} ${res.text}`);
+  return key;
+}
+
+/** POST /api/sync/push as a phone: with `token`, each record signed by `key` (tests/support/phone-keys.ts). */
+export const pushSigned = (app: Express, token: string, key: PhoneKey, records: readonly unknown[]) =>
+  request(app).post('/api/sync/push').set('Authorization', `Bearer ${token}`).send(signedBatch(records, key));
 
 export function userIdOf(db: Db, email: string): string {
   const row = db.select({ id: users.id }).from(users).where(eq(users.email, email)).get();

@@ -5,7 +5,6 @@
  * costing only itself, and the compiled parser agreeing with zod's own runtime parser (the reference,
  * from the npm library itself) on good and bad records.
  */
-import { randomUUID } from 'node:crypto';
 
 import Database from 'better-sqlite3';
 import { eq, inArray } from 'drizzle-orm';
@@ -31,7 +30,7 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 
 test('a batch larger than one statement stores every row with the values the records carry', async () => {
   // 50 records (two inspection statements) of 12 readings (six reading statements), one with photos.

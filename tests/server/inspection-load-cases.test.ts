@@ -40,7 +40,7 @@ const swingReading = (kind: 'amplitude' | 'period', valueSI: number, unit: strin
   method: kind === 'amplitude' ? 'gauge' : 'stopwatch',
   takenAt: '2026-05-04T08:10:00.000Z',
 });
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 const detail = async (id: string) => (await api.supervisor.get(`/api/inspections/${id}`)).body.inspection;
 
 test('a free-swing ride is analysed as a free swing, with its period compared and its stops stored', async () => {

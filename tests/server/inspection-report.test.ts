@@ -58,7 +58,7 @@ beforeAll(async () => {
     notes: 'Light drizzle; rail wet.',
   });
   recordId = record.id;
-  const res = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const res = await api.inspector.push([record]);
   expect(res.body.results[0]).toMatchObject({ status: 'accepted' });
 });
 afterAll(() => server.close());

@@ -171,8 +171,7 @@ describe('/api/settings/declaration', () => {
 });
 
 describe('the push keeps records truthful', () => {
-  const push = (records: unknown[]) =>
-    api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+  const push = (records: unknown[]) => api.inspector.push(records);
 
   async function instrument(patch: Partial<typeof micrometer> & { retired?: boolean } = {}) {
     const res = await api.admin.post('/api/instruments', {

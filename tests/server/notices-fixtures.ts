@@ -140,7 +140,7 @@ export async function inspectWithFindings(
     photoRefFor(bytes, { mime: 'image/png', caption: `Pivot photo ${i + 1}` }),
   );
   const record = makeRecord(ride, { readings: [speedReading(11.5)], photos: refs });
-  const pushed = await s.api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const pushed = await s.api.inspector.push([record]);
   if (pushed.body.results?.[0]?.status !== 'accepted') throw new Error(`push failed: ${pushed.text}`);
   for (const [i, bytes] of photoBytes.entries()) {
     const res = await s.putPhoto('inspector@pivotwatch.test', bytes, refs[i].sha256);

@@ -5,7 +5,6 @@
  * closed books the follow-up inspection, whose approval does, with one notice — and a supervisor's
  * override is the only other way back, recorded and notified.
  */
-import { randomUUID } from 'node:crypto';
 
 import { and, eq } from 'drizzle-orm';
 
@@ -404,10 +403,7 @@ describe('corrective actions, verification and the ride’s status', () => {
       submittedAt: '2026-05-08T11:00:00.000Z',
       startedAt: '2026-05-08T10:30:00.000Z',
     });
-    const pushed = await s.api.inspector.post('/api/sync/push', {
-      batchId: randomUUID(),
-      records: [followUp],
-    });
+    const pushed = await s.api.inspector.push([followUp]);
     expect(pushed.body.results[0].status).toBe('accepted');
     await analysePending(s.db);
     const before = s.db.select().from(notices).where(eq(notices.rideId, ride.id)).all().length;

@@ -5,7 +5,6 @@
  * would change the bytes under their name. The JPEGs are written by piexifjs and read back by exifr.
  * A record's photo keeps its capture-time source and place, and the inspection's read gives them back.
  */
-import { randomUUID } from 'node:crypto';
 
 import { count } from 'drizzle-orm';
 import { parse } from 'exifr';
@@ -78,7 +77,7 @@ test('a record’s photo keeps where its time came from and its place; the inspe
   });
   const older = photoRefFor(plainJpeg(), { caption: 'From before' });
   const record = makeRecord(comet, { photos: [withFacts, older] });
-  const pushed = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const pushed = await api.inspector.push([record]);
   expect(pushed.status).toBe(200);
   const read = (await api.supervisor.get(`/api/inspections/${record.id}`)).body.inspection;
   const byId = new Map(read.photos.map((p: { id: string }) => [p.id, p]));
@@ -93,7 +92,7 @@ test('a record’s photo keeps where its time came from and its place; the inspe
   const bad = makeRecord(comet, {
     photos: [photoRefFor(plainJpeg(), { place: { lat: 123, lon: 0, source: 'device' } })],
   });
-  const answer = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [bad] });
+  const answer = await api.inspector.push([bad]);
   expect(JSON.stringify(answer.body)).toMatch(/Latitude must be between -90 and 90 degrees/);
   expect((await api.supervisor.get(`/api/inspections/${bad.id}`)).status).toBe(404);
 });

@@ -4,7 +4,6 @@
  * utilisations are checked against the Table's formulas written out here at the stored peak; the engine's
  * hand-worked example is in tests/engine/pin-checks.test.ts.
  */
-import { randomUUID } from 'node:crypto';
 
 import type { DesignData } from '@/features/loads/design-schema';
 import { analysePending } from '@/server/sync/analysis';
@@ -60,7 +59,7 @@ test('pin checks at the peak over the load cases are stored, and their items are
     { id: rideId, designVersionId: design.body.design.id, design: rod },
     { readings: [speedReading(6)] },
   );
-  const res = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const res = await api.inspector.push([record]);
   expect(res.body.results[0].status).toBe('accepted');
   await analysePending(server.db);
   const analysis = (await api.supervisor.get(`/api/inspections/${record.id}`)).body.inspection.analysis;

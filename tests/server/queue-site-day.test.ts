@@ -3,7 +3,6 @@
  * 02:00 UTC on 3 Dec 2026 was submitted on 2 Dec at a site on the US Pacific coast (PST, UTC−8 in
  * December) and on 3 Dec at one in New Zealand (NZDT, UTC+13). Offsets from the IANA tz database.
  */
-import { randomUUID } from 'node:crypto';
 
 import { sql } from 'drizzle-orm';
 import request from 'supertest';
@@ -12,7 +11,7 @@ import { queueResponseSchema } from '@/features/review/schema';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 import { dayInZoneSql } from '@/server/sql-functions';
 
-import { makeTestServer, signInAs, type TestServer } from './helpers';
+import { makeTestServer, pushSigned, registerPhoneKey, signInAs, type TestServer } from './helpers';
 import { demoRide, makeRecord } from './sync-fixtures';
 
 describe('day_in_zone (server/sql-functions.ts)', () => {
@@ -55,10 +54,9 @@ describe('the queue’s From/To on the site’s clock', () => {
     const ride = demoRide(server.db, 'Tidebreaker');
     const record = makeRecord(ride, { submittedAt });
     const inspector = await signInAs(server.app, 'inspector@pivotwatch.test');
-    const pushed = await request(server.app)
-      .post('/api/sync/push')
-      .set('Authorization', `Bearer ${inspector}`)
-      .send({ batchId: randomUUID(), records: [record] });
+    const pushed = await pushSigned(server.app, inspector, await registerPhoneKey(server.app, inspector), [
+      record,
+    ]);
     expect(pushed.body.results[0].status).toBe('accepted');
     const [site] = server.db.all<{ siteId: string }>(
       sql`SELECT site_id AS siteId FROM rides WHERE id = ${ride.id}`,

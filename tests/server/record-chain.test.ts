@@ -6,7 +6,6 @@
  * checked with @noble/curves' Ed25519 against the public key derived from DATA_DIR/ledger-key, outside the
  * server's own verify. Data is the invented demo scenario.
  */
-import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -68,7 +67,7 @@ beforeAll(async () => {
   inspectionId = record.id;
   await pushAccepted(server.db, api.inspector, [record]);
   // The same record again (a phone's re-send) is a duplicate and adds nothing.
-  const again = await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const again = await api.inspector.push([record]);
   expect(again.body.results[0].status).toBe('duplicate');
 
   const created = await api.supervisor.post(`/api/inspections/${inspectionId}/findings`, {

@@ -4,7 +4,6 @@
  * the schedule moved by the server's receipt when the phone's clock ran ahead), and who may approve it
  * (not the person who recorded it, unless the inspection body allows it).
  */
-import { randomUUID } from 'node:crypto';
 
 import { and, eq } from 'drizzle-orm';
 
@@ -37,7 +36,7 @@ afterAll(() => server.close());
 const countInspections = () => server.db.select({ id: inspections.id }).from(inspections).all().length;
 
 async function pushOne(record: object, client = api.inspector) {
-  const res = await client.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const res = await client.push([record]);
   expect(res.status).toBe(200);
   return pushResultSchema.parse(res.body).results[0];
 }

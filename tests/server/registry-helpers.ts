@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -10,23 +11,47 @@ import { openDb } from '@/server/db';
 import { createLogger } from '@/server/logger';
 import { demoUsers, seedDemoData } from '@/server/seed/demo';
 
-import { makeTempDir, signInAs, type TestServer } from './helpers';
+import { signedBatch, type PhoneKey } from '../support/phone-keys';
+import { makeTempDir, registerPhoneKey, signInAs, type TestServer } from './helpers';
 
 export type Email = (typeof demoUsers)[number]['email'];
 
-/** Signed-in request builders for every demo user of one app. */
+/**
+ * Signed-in request builders for every demo user of one app. Like the phone at sign-in, each person who
+ * can push gets a phone key registered for them (POST /api/devices/keys); `push` sends records signed with
+ * it (tests/support/phone-keys.ts).
+ */
 export async function demoClients(app: Express) {
   const tokens = new Map<string, string>();
-  for (const user of demoUsers) tokens.set(user.email, await signInAs(app, user.email));
+  const keys = new Map<string, PhoneKey>();
+  for (const user of demoUsers) {
+    const token = await signInAs(app, user.email);
+    tokens.set(user.email, token);
+    if (user.role !== 'operator') keys.set(user.email, await registerPhoneKey(app, token));
+  }
+  return clientsOf(app, tokens, keys);
+}
+
+/** Request builders for the tokens given, each with `push` signing with that person's phone key. */
+export function clientsOf(app: Express, tokens: Map<string, string>, keys: Map<string, PhoneKey>) {
   const as = (email: string | null) => {
     const auth = (req: request.Test) =>
       email ? req.set('Authorization', `Bearer ${tokens.get(email)}`) : req;
+    const post = (path: string, body?: unknown) => auth(request(app).post(path)).send(body as object);
+    const phoneKey = email ? keys.get(email) : undefined;
     return {
       get: (path: string) => auth(request(app).get(path)),
-      post: (path: string, body?: unknown) => auth(request(app).post(path)).send(body as object),
+      post,
       put: (path: string, body?: unknown) => auth(request(app).put(path)).send(body as object),
       patch: (path: string, body?: unknown) => auth(request(app).patch(path)).send(body as object),
       delete: (path: string) => auth(request(app).delete(path)),
+      phoneKey,
+      /** POST /api/sync/push with each record signed by this person's phone key (unsigned without one). */
+      push: (records: readonly unknown[], batchId?: string) =>
+        post(
+          '/api/sync/push',
+          phoneKey ? signedBatch(records, phoneKey, batchId) : { batchId: batchId ?? randomUUID(), records },
+        ),
     };
   };
   return {

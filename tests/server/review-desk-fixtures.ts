@@ -3,7 +3,6 @@
  * inspector made for the test) and reading the audit log. Values are invented; physics checks name their
  * source where they make one.
  */
-import { randomUUID } from 'node:crypto';
 
 import type { Express } from 'express';
 import { and, asc, eq } from 'drizzle-orm';
@@ -16,14 +15,14 @@ import type { Db } from '@/server/db';
 import { auditRowOrder } from '@/server/registry/audit-query';
 import { analysePending } from '@/server/sync/analysis';
 
-import { signInAs } from './helpers';
+import { pushSigned, registerPhoneKey, signInAs } from './helpers';
 import type { Clients } from './registry-helpers';
 
 type Client = Clients['inspector'];
 
 /** Pushes records as `client`, expects every one accepted, and waits for the server's analysis. */
 export async function pushAccepted(db: Db, client: Client, records: InspectionRecord[]): Promise<void> {
-  const res = await client.post('/api/sync/push', { batchId: randomUUID(), records });
+  const res = await client.push(records);
   expect(res.status).toBe(200);
   expect(res.body.results.map((r: { status: string }) => r.status)).toEqual(records.map(() => 'accepted'));
   await analysePending(db);
@@ -40,11 +39,13 @@ export async function secondInspector(app: Express, db: Db, email = 'ines.harrow
     companyId: null,
   });
   const token = await signInAs(app, email, password);
+  const key = await registerPhoneKey(app, token);
   const auth = (req: request.Test) => req.set('Authorization', `Bearer ${token}`);
   return {
     user,
     get: (path: string) => auth(request(app).get(path)),
     post: (path: string, body?: unknown) => auth(request(app).post(path)).send(body as object),
+    push: (records: readonly unknown[]) => pushSigned(app, token, key, records),
   };
 }
 

@@ -128,7 +128,7 @@ async function createRide(body: Record<string, unknown>, withRod: boolean): Prom
 }
 
 async function push(as: 'inspector' | 'supervisor', record: InspectionRecord) {
-  const res = await api[as].post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+  const res = await api[as].push([record]);
   expect(res.body.results[0].status).toBe('accepted');
   records[record.id] = record;
   return record;

@@ -149,7 +149,7 @@ test('a ride with no inspections has its joints and no points; staff read, opera
 test('an inspector sees only their own inspections in a ride’s trends, as with the inspections themselves', async () => {
   const other = await secondInspector(server.app, server.db, 'trends.other@pivotwatch.test');
   const theirs = inspectionOn('2026-05-12', 104, 0.1597, 0.0003);
-  const res = await other.post('/api/sync/push', { batchId: randomUUID(), records: [theirs] });
+  const res = await other.push([theirs]);
   expect(res.body.results[0].status).toBe('accepted');
   const idsFor = async (client: Pick<Clients['inspector'], 'get'>) =>
     trendsResponseSchema

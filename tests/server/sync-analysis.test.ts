@@ -37,7 +37,7 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 const detail = async (id: string) => (await api.supervisor.get(`/api/inspections/${id}`)).body.inspection;
 
 test('the analysis appears after the push, with engine and design versions, and matches the phone’s code', async () => {

@@ -10,7 +10,6 @@
  * - ASTM E1049-85 (2017) §5.4.4: one closed cycle per turn of the repeating history.
  */
 import { execFileSync } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 
 import { eq } from 'drizzle-orm';
@@ -90,7 +89,7 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 const detail = async (id: string) => (await api.supervisor.get(`/api/inspections/${id}`)).body.inspection;
 
 async function analysed() {

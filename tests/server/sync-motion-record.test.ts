@@ -28,7 +28,7 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 const g = 9.80665;
 // A swing a little smaller and slower than the design's (75°, 6.5 s), recorded at 60 Hz in the back row.
 const A = (60 * Math.PI) / 180;

@@ -26,7 +26,7 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const push = (records: unknown[]) => api.inspector.post('/api/sync/push', { batchId: randomUUID(), records });
+const push = (records: unknown[]) => api.inspector.push(records);
 const stored = (id: string) =>
   server.db.select({ n: count() }).from(inspections).where(eq(inspections.id, id)).get()?.n;
 

@@ -11,7 +11,15 @@ import { createUser, findSessionUser } from '@/server/auth/service';
 import { demoRides } from '@/server/seed/demo';
 import { buildPull } from '@/server/sync/pull';
 
-import { expectApiError, makeTestServer, signInAs, userIdOf, type TestServer } from './helpers';
+import {
+  expectApiError,
+  makeTestServer,
+  pushSigned,
+  registerPhoneKey,
+  signInAs,
+  userIdOf,
+  type TestServer,
+} from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
 import {
   demoRide,
@@ -114,7 +122,7 @@ describe('GET /api/sync/pull', () => {
   test('a supervisor’s decision on the inspector’s inspection is pulled once it is made', async () => {
     const user = inspectorUser();
     const record = makeRecord(comet);
-    await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+    await api.inspector.push([record]);
     const before = buildPull(server.db, user, null, { overlapMs: 0 });
     expect(before.decisions).toEqual([]);
     await tick();
@@ -164,7 +172,7 @@ describe('GET /api/inspections', () => {
       readings: [speedReading(12), otherReading(0)],
       photos: [photoRefFor(bytes), photoRefFor(imageBytes(42))],
     });
-    await api.inspector.post('/api/sync/push', { batchId: randomUUID(), records: [record] });
+    await api.inspector.push([record]);
 
     const first = (await api.inspector.get(`/api/inspections/${record.id}`)).body.inspection;
     expect(first).toMatchObject({
@@ -207,10 +215,7 @@ describe('GET /api/inspections', () => {
     });
     const other = await signInAs(server.app, 'second.inspector@pivotwatch.test', 'second-inspector-pw');
     const record = makeRecord(comet);
-    await request(server.app)
-      .post('/api/sync/push')
-      .set('Authorization', `Bearer ${other}`)
-      .send({ batchId: randomUUID(), records: [record] });
+    await pushSigned(server.app, other, await registerPhoneKey(server.app, other), [record]);
 
     expectApiError(await api.inspector.get(`/api/inspections/${record.id}`), 404, 'not_found');
     expect((await api.supervisor.get(`/api/inspections/${record.id}`)).status).toBe(200);
@@ -225,10 +230,7 @@ describe('GET /api/inspections', () => {
 
   test('the list filters by ride, inspector and mine, and pages', async () => {
     const skylark = demoRide(server.db, 'Skylark');
-    await api.inspector.post('/api/sync/push', {
-      batchId: randomUUID(),
-      records: [makeRecord(skylark), makeRecord(skylark), makeRecord(skylark)],
-    });
+    await api.inspector.push([makeRecord(skylark), makeRecord(skylark), makeRecord(skylark)]);
     const byRide = (await api.supervisor.get(`/api/inspections?rideId=${skylark.id}&pageSize=2`)).body;
     expect(byRide.total).toBe(3);
     expect(byRide.inspections).toHaveLength(2);

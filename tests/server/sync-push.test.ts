@@ -29,7 +29,7 @@ const counts = () => ({
 });
 
 const push = (records: unknown[], batchId: string = randomUUID(), who = api.inspector) =>
-  who.post('/api/sync/push', { batchId, records });
+  who.push(records, batchId);
 
 describe('POST /api/sync/push', () => {
   test('a batch with one valid and one invalid record keeps the valid one and names the bad fields', async () => {
@@ -210,7 +210,7 @@ describe('POST /api/sync/push', () => {
 
   test('a body that is not a batch is a 400 naming the field, and nothing is written', async () => {
     const before = counts();
-    const bad = await api.inspector.post('/api/sync/push', { batchId: 'x', records: [] });
+    const bad = await api.inspector.push([], 'x');
     const err = expectApiError(bad, 400, 'validation_failed');
     expect(err.issues?.map((i) => i.path).sort()).toEqual(['batchId', 'records']);
     expect(counts()).toEqual(before);
