@@ -9,11 +9,12 @@ import { Text } from '@/components/text';
 import { colors, space } from '@/components/theme';
 import { apiFetch } from '@/features/api';
 import { chainCaveat, chainVerdictText, chainVerificationSchema } from '@/features/ledger/schema';
-import { formatDateTime } from '@/lib/dates';
+import { formatDate, formatDateTime } from '@/lib/dates';
 
 /**
  * The ride's record chain: **Verify record** asks the server to check it (GET /api/rides/:id/chain/verify)
- * and says in plain words whether it is intact or where it first breaks. Opened from a notice's QR
+ * and says in plain words whether it is intact or where it first breaks, and whose phones signed its
+ * records (a withdrawn key still vouches for what it signed before). Opened from a notice's QR
  * (`?verify=1`), the check runs at once.
  */
 export function ChainCard({ rideId }: { rideId: string }) {
@@ -50,6 +51,12 @@ export function ChainCard({ rideId }: { rideId: string }) {
               {result.intact ? '✓ ' : '✗ '}
               {chainVerdictText(result)}
             </Text>
+            {result.signers.map((s) => (
+              <Text key={s.keyId} variant="small">
+                {`Signed on the phone by: ${s.personName} (${s.records} ${s.records === 1 ? 'record' : 'records'})`}
+                {s.revokedAt ? `, key withdrawn ${formatDate(s.revokedAt)}` : ''}
+              </Text>
+            ))}
             <Text variant="small" muted>
               Checked {formatDateTime(result.checkedAt)}. {chainCaveat}
             </Text>

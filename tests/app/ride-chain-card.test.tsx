@@ -8,6 +8,7 @@ import { fireEvent, render, screen } from '@testing-library/react-native';
 
 import { chainVerificationSchema } from '@/features/ledger/schema';
 import { ChainCard } from '@/features/ride-page/chain-card';
+import { formatDate } from '@/lib/dates';
 
 const mockParams: { verify?: string } = {};
 jest.mock('expo-router', () => ({ useLocalSearchParams: () => mockParams }));
@@ -21,6 +22,16 @@ const intact = chainVerificationSchema.parse({
   entries: 9,
   checkedAt: '2026-05-04T10:00:00.000Z',
   break: null,
+  signers: [
+    { keyId: '0a1b2c3d4e5f6071', personName: 'Wren Halloway', records: 5, revokedAt: null },
+    {
+      keyId: '8192a3b4c5d6e7f8',
+      personName: 'Odile Marsh',
+      records: 1,
+      revokedAt: '2026-04-20T08:00:00.000Z',
+    },
+  ],
+  unsigned: 3,
 });
 const broken = chainVerificationSchema.parse({
   rideId: 'ride-7',
@@ -34,6 +45,8 @@ const broken = chainVerificationSchema.parse({
     why: 'order',
     words: 'the order was changed: this entry does not follow the one stored before it',
   },
+  signers: [],
+  unsigned: 9,
 });
 
 function renderCard() {
@@ -61,6 +74,13 @@ test('nothing is asked until Verify record is pressed; then the intact chain is 
   expect(mockApiFetch.mock.calls[0][0]).toBe('/api/rides/ride-7/chain/verify');
   // What a verification does not prove is said beside the result.
   expect(screen.getByText(/does not show that what was entered was true/)).toBeTruthy();
+  // Whose phones signed the records, a withdrawn key marked with its date (formatDate, lib/dates).
+  expect(screen.getByText('Signed on the phone by: Wren Halloway (5 records)')).toBeTruthy();
+  expect(
+    screen.getByText(
+      `Signed on the phone by: Odile Marsh (1 record), key withdrawn ${formatDate('2026-04-20T08:00:00.000Z')}`,
+    ),
+  ).toBeTruthy();
 });
 
 test('opened from a notice (?verify=1) it checks at once and names the first breaking entry', async () => {
