@@ -67,6 +67,7 @@ const ADMIN_ONLY = { admin: 'bad', supervisor: 403, inspector: 403, operator: 40
 const ADMIN_DELETE = { admin: 'gone', supervisor: 403, inspector: 403, operator: 403 } as const;
 const ALL_GONE = { admin: 'gone', supervisor: 'gone', inspector: 'gone', operator: 'gone' } as const;
 const VERIFIERS_GONE = { admin: 'gone', supervisor: 'gone', inspector: 'gone', operator: 403 } as const;
+const ALL_BAD = { admin: 'bad', supervisor: 'bad', inspector: 'bad', operator: 'bad' } as const;
 const ADMIN_GONE = { admin: 'gone', supervisor: 403, inspector: 403, operator: 403 } as const;
 
 const routes: Route[] = [
@@ -203,6 +204,11 @@ const routes: Route[] = [
     path: (i) => `/api/rides/${i.other}/chain/verify`,
     expect: { admin: 'ok', supervisor: 'ok', inspector: 403, operator: 'gone' },
   },
+  // Phone keys: everyone signed in registers and lists their own; revoking a key no one has is a 404 for
+  // all (a key of another person's is too, unless an administrator asks)
+  { method: 'get', path: () => '/api/devices/keys', expect: READ_ALL },
+  { method: 'post', path: () => '/api/devices/keys', body: { publicKey: 'x' }, expect: ALL_BAD },
+  { method: 'post', path: () => '/api/devices/keys/missing/revoke', expect: ALL_GONE },
 ];
 
 const statusOf: Record<Exclude<Outcome, 'ok'>, number> = { bad: 400, gone: 404, 403: 403, 401: 401 };
