@@ -2,6 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 
 import { apiFetch } from '@/features/api';
+import { deviceKeySchema } from '@/features/ledger/schema';
 import {
   adminUserListSchema,
   adminUserSchema,
@@ -85,5 +86,33 @@ export function usePersonActionMutation(id: string) {
         })
       ).user,
     onSuccess: invalidate,
+  });
+}
+
+const phoneKeysKey = (userId: string) => [...adminKeys.all, 'users', userId, 'phone-keys'] as const;
+
+/** A person's phone keys (GET /api/devices/keys?userId=), newest first. */
+export function usePhoneKeysQuery(userId: string) {
+  return useQuery({
+    queryKey: phoneKeysKey(userId),
+    queryFn: () =>
+      apiFetch(`/api/devices/keys?userId=${encodeURIComponent(userId)}`, {
+        schema: z.array(deviceKeySchema),
+      }),
+  });
+}
+
+/** Withdraws one of a person's phone keys; their keys and the page's history are read again. */
+export function useRevokePhoneKeyMutation(userId: string) {
+  const client = useQueryClient();
+  const invalidate = useInvalidatePeople();
+  return useMutation({
+    mutationFn: (keyId: string) =>
+      apiFetch(`/api/devices/keys/${encodeURIComponent(keyId)}/revoke`, {
+        method: 'POST',
+        schema: z.object({ key: deviceKeySchema }),
+      }),
+    onSuccess: () =>
+      Promise.all([client.invalidateQueries({ queryKey: phoneKeysKey(userId) }), invalidate()]),
   });
 }

@@ -16,11 +16,12 @@ import { usePeopleQuery, usePersonActionMutation, usePersonQuery } from '@/featu
 import { AccountStateMark } from '@/features/admin/account-state';
 import { peopleHref } from '@/features/admin/hrefs';
 import { PersonEditCard } from '@/features/admin/person-edit-card';
+import { PhoneKeysCard } from '@/features/admin/phone-keys-card';
 import type { Person } from '@/features/admin/schema';
 import { roleLabel } from '@/features/auth';
 import { RoleGate } from '@/features/auth/ui';
 
-/** One person's account: what it is, its name, role and company, and disabling, enabling or a reset. */
+/** One person's account: what it is, its name, role and company, disabling, enabling or a reset, and phone keys. */
 export function PersonScreen() {
   const { id } = useLocalSearchParams<{ id: string }>();
   return <RoleGate roles={['admin']}>{() => <PersonPage id={id} />}</RoleGate>;
@@ -42,6 +43,7 @@ function PersonPage({ id }: { id: string }) {
             <Summary person={p} />
             <Actions person={p} />
             <PersonEditCard key={p.lastChangeAt} person={p} companies={people.data?.companies ?? []} />
+            <PhoneKeysCard person={p} />
             <History person={p} />
           </>
         )}

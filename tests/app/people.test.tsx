@@ -142,6 +142,35 @@ describe('a person’s page', () => {
     await screen.findByText('Gwen Ashdown is the only active administrator.');
     expect(api.callsTo('POST', '/api/admin/users/u-admin/disable')).toHaveLength(1);
   });
+
+  test('a lost phone’s key is withdrawn after asking once more; then it reads as withdrawn', async () => {
+    const key = {
+      keyId: '3f0c9a7b12d4e856',
+      label: 'Chromium on Android',
+      createdAt: at,
+      revokedAt: null as string | null,
+      revokedBy: null as string | null,
+    };
+    const api = standInApi({
+      '/api/admin/users': () => ok(list),
+      '/api/admin/users/u-tomas': () => ok({ person: { ...list.users[1], pendingLink: null, history: [] } }),
+      '/api/devices/keys': (call) => (call.url.searchParams.get('userId') === 'u-tomas' ? ok([key]) : ok([])),
+      [`/api/devices/keys/${key.keyId}/revoke`]: () => {
+        Object.assign(key, { revokedAt: '2026-11-21T10:00:00.000Z', revokedBy: 'u-admin' });
+        return ok({ key });
+      },
+    });
+    renderScreens(client(), { 'admin/people/[id]': PersonScreen }, '/admin/people/u-tomas');
+    await screen.findByText('Chromium on Android');
+    expect(screen.getByText(/Key 3f0c9a7b12d4e856 · registered .* · in use/)).toBeTruthy();
+    fireEvent.press(screen.getByRole('button', { name: 'Withdraw key' }));
+    await screen.findByText(/will no longer be able to send inspections/);
+    expect(api.callsTo('POST', `/api/devices/keys/${key.keyId}/revoke`)).toHaveLength(0);
+    fireEvent.press(screen.getByRole('button', { name: 'Yes, withdraw key' }));
+    await screen.findByText(/· withdrawn /);
+    expect(api.callsTo('POST', `/api/devices/keys/${key.keyId}/revoke`)).toHaveLength(1);
+    expect(screen.queryByRole('button', { name: 'Withdraw key' })).toBeNull();
+  });
 });
 
 describe('PasswordChangeCard', () => {
