@@ -7,9 +7,11 @@ import { desc, eq } from 'drizzle-orm';
 
 import { benchReadings } from '@/bench/readings';
 import { designVersions, rides, users } from '@/db/server/schema';
+import { keyIdOf, newPrivateKey, publicKeyOf, recordHashOf, signHex } from '@/features/ledger';
 import { analyseInspection, previewOf } from '@/features/records/analysis';
-import { PUSH_MAX_RECORDS, type InspectionRecord } from '@/features/records/schema';
+import { inspectionRecordSchema, PUSH_MAX_RECORDS, type InspectionRecord } from '@/features/records/schema';
 import type { DesignData } from '@/features/loads/design-schema';
+import { registerDeviceKey } from '@/server/auth/device-keys';
 import { findSessionUser } from '@/server/auth/service';
 import { loadConfig } from '@/server/config';
 import { databaseFileName, openDb, type Db } from '@/server/db';
@@ -23,8 +25,8 @@ import { sqliteOf } from '@/server/sqlite-client';
 /**
  * Server ingest of a phone's push: 500 inspections with 10 readings each (5,000 readings), sent in the
  * phone's batches (PUSH_MAX_RECORDS a request, as features/sync/push.ts sends them) through the push
- * service (validation, ride and design checks, duplicate check, the accepted records stored together, the
- * review queue's rows, the batch's stored answer), against a raw better-sqlite3 prepared insert of the same
+ * service (validation, the phone's signature of each record checked, ride and design checks, duplicate
+ * check, the accepted records stored together, the review queue's rows, the batch's stored answer), against a raw better-sqlite3 prepared insert of the same
  * rows in one transaction, measured in the same run on fresh copies of the same seeded database. Then the follow-up
  * analysis of those 500 with the load engine, separately. Target (issue 16): ingest ≥ 65 % of the raw
  * insert's rate, median of the paired runs.
@@ -147,10 +149,31 @@ async function seedTemplate(template: string) {
     .from(users)
     .where(eq(users.email, demoInspectorEmail))
     .get()?.id;
+  const inspector = inspectorId ? findSessionUser(seeded.db, inspectorId) : null;
+  if (!inspectorId || !inspector) throw new Error('no demo inspector');
+  // The inspector's phone key, registered as the phone registers it after sign-in; every copy has it.
+  const privateKey = newPrivateKey();
+  const publicKey = publicKeyOf(privateKey);
+  registerDeviceKey(seeded.db, inspector, { publicKey, label: 'Bench phone' }, new Date());
   sqliteOf(seeded.db).pragma('wal_checkpoint(TRUNCATE)');
   seeded.close();
-  if (!inspectorId) throw new Error('no demo inspector');
-  return { ridesWithDesign, inspectorId };
+  return { ridesWithDesign, inspectorId, phone: { keyId: keyIdOf(publicKey), privateKey } };
+}
+
+type Phone = { keyId: string; privateKey: string };
+type Signatures = Record<string, { keyId: string; signature: string }>;
+
+/** Each record's signature as the phone makes it (@noble/curves over the parsed record's hash), before any timer. */
+function signaturesOf(records: readonly InspectionRecord[], phone: Phone): Signatures {
+  const signatures: Signatures = {};
+  for (const record of records) {
+    const parsed = inspectionRecordSchema.parse(record);
+    signatures[parsed.id] = {
+      keyId: phone.keyId,
+      signature: signHex(phone.privateKey, recordHashOf(parsed)),
+    };
+  }
+  return signatures;
 }
 
 type Row = Record<string, unknown>;
@@ -219,7 +242,12 @@ function prepareLikeARunningServer(db: Db) {
 }
 
 /** The push service, batch by batch as the phone sends them, then the analysis of what it stored. */
-async function timePush(a: ReturnType<typeof freshCopy>, records: InspectionRecord[], inspectorId: string) {
+async function timePush(
+  a: ReturnType<typeof freshCopy>,
+  records: InspectionRecord[],
+  inspectorId: string,
+  signatures: Signatures,
+) {
   const db = a.open();
   const user = findSessionUser(db.db, inspectorId);
   if (!user) throw new Error('no demo inspector');
@@ -232,7 +260,7 @@ async function timePush(a: ReturnType<typeof freshCopy>, records: InspectionReco
     const outcome = ingestBatch(
       db.db,
       user,
-      { batchId: randomUUID(), records: records.slice(b, b + BATCH) },
+      { batchId: randomUUID(), records: records.slice(b, b + BATCH), signatures },
       receivedAt,
     );
     if (outcome.accepted !== Math.min(BATCH, INSPECTIONS - b))
@@ -372,7 +400,7 @@ export async function run() {
   const template = fs.mkdtempSync(path.join(os.tmpdir(), 'pivotwatch-bench-seed-'));
   const dirs: string[] = [template];
   try {
-    const { ridesWithDesign, inspectorId } = await seedTemplate(template);
+    const { ridesWithDesign, inspectorId, phone } = await seedTemplate(template);
     const figures: Figures = {
       ingestMs: [],
       ingestCpu: [],
@@ -386,9 +414,10 @@ export async function run() {
     // server would be after its first push.
     for (let rep = -1; rep < REPEATS; rep++) {
       const records = makeRecords(ridesWithDesign);
+      const signatures = signaturesOf(records, phone);
       const a = freshCopy(template);
       dirs.push(a.dir);
-      const push = await timePush(a, records, inspectorId);
+      const push = await timePush(a, records, inspectorId, signatures);
       figures.analysed = push.analysed;
       figures.settings = push.settings;
       if (rep >= 0) {
