@@ -8,11 +8,11 @@ import fs from 'node:fs';
 import path from 'node:path';
 
 import { eq } from 'drizzle-orm';
-import { randomUUID } from 'node:crypto';
 
 import { inspections } from '@/db/server/inspections';
 import { analyseInspection, previewOf } from '@/features/records/analysis';
 import { ENGINE_VERSION } from '@/features/loads/engine';
+import { registerDeviceKey } from '@/server/auth/device-keys';
 import { findSessionUser } from '@/server/auth/service';
 import { createApp } from '@/server/app';
 import { loadConfig } from '@/server/config';
@@ -22,6 +22,7 @@ import { seedDemoData } from '@/server/seed/demo';
 import { analysePending, ANALYSIS_SAMPLES, noDesignNote } from '@/server/sync/analysis';
 import { ingestBatch } from '@/server/sync/ingest';
 
+import { newPhoneKey, signedBatch } from '../support/phone-keys';
 import { makeTempDir, makeTestServer, userIdOf, type TestServer } from './helpers';
 import { demoClients, type Clients } from './registry-helpers';
 import { rodDesign } from '@/tests/support/rod-design';
@@ -163,7 +164,10 @@ test('after a restart, inspections stored but never analysed are analysed withou
     const user = findSessionUser(first.db, userIdOf(first.db, 'inspector@pivotwatch.test'));
     if (!user) throw new Error('no demo inspector');
     const records = [makeRecord(ride), makeRecord(ride, { readings: [speedReading(9)] })];
-    ingestBatch(first.db, user, { batchId: randomUUID(), records });
+    // Signed as the phone signs, with a key registered to the inspector.
+    const key = newPhoneKey();
+    registerDeviceKey(first.db, user, { publicKey: key.publicKey }, new Date());
+    ingestBatch(first.db, user, signedBatch(records, key));
     const pending = () =>
       first.db
         .select({ at: inspections.analysedAt })
