@@ -143,7 +143,7 @@ test('an inspection recorded offline arrives once, with its photos and a server 
   expect(list.inspections).toHaveLength(1);
   const id = list.inspections[0].id;
   // The server analyses right after receipt; give it a moment.
-  type Detail = { photos: { sha256: string; received: boolean }[]; analysis: unknown };
+  type Detail = { rideId: string; photos: { sha256: string; received: boolean }[]; analysis: unknown };
   let detail = null as Detail | null;
   for (let i = 0; i < 50; i++) {
     const res = await fetch(`${app.baseUrl}/api/inspections/${id}`, {
@@ -162,5 +162,23 @@ test('an inspection recorded offline arrives once, with its photos and a server 
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toBe('image/jpeg');
   }
+
+  // Signed on this browser as it entered the outbox (offline: the key was made then), the key registered
+  // at the sync: the phone's one key is listed for the inspector, and the ride's record chain, checked by a
+  // supervisor, is intact and names the inspector as the signer of this inspection's entry.
+  const keys = (await (
+    await fetch(`${app.baseUrl}/api/devices/keys`, { headers: { Authorization: `Bearer ${token}` } })
+  ).json()) as { keyId: string; label: string | null; revokedAt: string | null }[];
+  expect(keys).toHaveLength(1);
+  expect(keys[0]).toMatchObject({ revokedAt: null, label: expect.stringMatching(/Chromium/) });
+  const rideId = detail!.rideId;
+  const supervisor = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
+  const chain = (await (
+    await fetch(`${app.baseUrl}/api/rides/${rideId}/chain/verify`, {
+      headers: { Authorization: `Bearer ${supervisor}` },
+    })
+  ).json()) as { intact: boolean; signers: { keyId: string; personName: string; records: number }[] };
+  expect(chain.intact).toBe(true);
+  expect(chain.signers).toContainEqual(expect.objectContaining({ keyId: keys[0].keyId, records: 1 }));
   await page.context().close();
 });

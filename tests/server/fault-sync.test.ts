@@ -26,6 +26,8 @@ import { listPhotoBlobs, putPhotoBlob } from '@/features/device-db/photos';
 import { submitDraft } from '@/features/device-db/drafts';
 import { createApiClient } from '@/features/api';
 import type { InspectionRecord } from '@/features/records/schema';
+import { noteSession } from '@/features/device-db/device-keys';
+import { bindDeviceOwner } from '@/features/device-db/device-owner';
 import { createHttpSyncApi } from '@/features/sync/http-api';
 import { syncOnce } from '@/features/sync/sync-run';
 import { startServer, type RunningServer } from '@/server/main';
@@ -215,8 +217,12 @@ test(`${N} inspections with photos through cuts, 502s and a server restart: none
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
     body: JSON.stringify({ email: 'inspector@pivotwatch.test', password: 'pivotwatch-demo' }),
-  })) as { token: string };
+  })) as { token: string; user: { id: string } };
   const auth = { Authorization: `Bearer ${signIn.token}` };
+  // The phone as the app leaves it after this sign-in: bound to the inspector, its records signed with the
+  // sign-in's key (registered with the server at the first push).
+  await bindDeviceOwner(dev, signIn.user.id);
+  await noteSession(dev, signIn.token);
   const rides = (await directJson(`${base}/api/rides?pageSize=100`, { headers: auth })) as {
     rides: { id: string; name: string }[];
   };
