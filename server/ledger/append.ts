@@ -1,7 +1,16 @@
+import type Database from 'better-sqlite3';
 import { sql } from 'drizzle-orm';
 
-import { canonicalJson, headHashOf, nextEntry, type LedgerKind } from '@/features/ledger';
+import {
+  canonicalJson,
+  entryHashOf,
+  genesisHash,
+  headHashOf,
+  nextEntry,
+  type LedgerKind,
+} from '@/features/ledger';
 import type { Db } from '@/server/db';
+import { sqliteOf } from '@/server/sqlite-client';
 import { liveForm } from '@/server/ledger/forms';
 import { nodeEd25519 } from '@/server/ledger/ed25519';
 import { ledgerKeyOf, type LedgerKey } from '@/server/ledger/key';
@@ -29,22 +38,6 @@ export function appendToLedger(db: Writer, ref: LedgerRef, now: Date): void {
   const key = ledgerKeyOf(db);
   const end = appendEntry(db, key, ref, now);
   if (end) signHead(db, key, end);
-}
-
-/**
- * Appends several records' entries (a phone's push) in order, then signs each ride's head once, at the
- * end of its chain: the head signature vouches for the whole chain up to it, so the ones in between would
- * be overwritten unread.
- */
-export function appendManyToLedger(db: Writer, refs: readonly LedgerRef[], now: Date): void {
-  if (refs.length === 0) return;
-  const key = ledgerKeyOf(db);
-  const ends = new Map<string, ChainEnd>();
-  for (const ref of refs) {
-    const end = appendEntry(db, key, ref, now);
-    if (end) ends.set(end.rideId, end);
-  }
-  for (const end of ends.values()) signHead(db, key, end);
 }
 
 function appendEntry(db: Writer, key: LedgerKey, ref: LedgerRef, now: Date): ChainEnd | null {
@@ -86,4 +79,89 @@ function signHead(db: Writer, key: LedgerKey, end: ChainEnd): void {
     VALUES (${end.rideId}, ${end.seq}, ${end.entryHash}, ${signature})
     ON CONFLICT (ride_id) DO UPDATE SET seq = excluded.seq, entry_hash = excluded.entry_hash,
       signature = excluded.signature`);
+}
+
+/** A record accepted just now (never in the chain before), with the form and hash its check computed. */
+export type NewRecordEntry = {
+  rideId: string;
+  kind: Extract<LedgerKind, 'inspection' | 'amendment'>;
+  refId: string;
+  /** The record's RFC 8785 canonical JSON: the form `server/ledger/forms.ts` reads back from its row. */
+  record: string;
+  recordHash: string;
+  device: { keyId: string; signature: string } | null;
+};
+
+type Prepared = {
+  last: Database.Statement<[string], ChainEnd>;
+  insert: Database.Statement<unknown[]>;
+  head: Database.Statement<unknown[]>;
+};
+const prepared = new WeakMap<Database.Database, Prepared>();
+
+function statementsOf(sqlite: Database.Database): Prepared {
+  let st = prepared.get(sqlite);
+  if (!st) {
+    st = {
+      last: sqlite.prepare(
+        'SELECT ride_id AS rideId, seq, entry_hash AS entryHash FROM ledger_entries WHERE ride_id = ? ORDER BY seq DESC LIMIT 1',
+      ),
+      insert: sqlite.prepare(`INSERT INTO ledger_entries (ride_id, seq, kind, ref_id, at, record, record_hash,
+          prev_hash, entry_hash, server_key_id, server_signature, device_key_id, device_signature)
+        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+      head: sqlite.prepare(`INSERT INTO ledger_heads (ride_id, seq, entry_hash, signature) VALUES (?, ?, ?, ?)
+        ON CONFLICT (ride_id) DO UPDATE SET seq = excluded.seq, entry_hash = excluded.entry_hash,
+          signature = excluded.signature`),
+    };
+    prepared.set(sqlite, st);
+  }
+  return st;
+}
+
+/**
+ * A push's accepted records into their rides' chains (server/sync/ingest.ts), inside its transaction: the
+ * same entries `appendToLedger` would write, without reading back rows the push has just stored. The
+ * push's check already made each record's canonical form and hash (the phone signed that hash), and a
+ * record accepted now has no entry yet (a re-sent one is answered as a duplicate), so each entry follows
+ * its ride's last in memory; prepared statements, and one head signature per ride at the end.
+ */
+export function appendNewRecords(db: Db, entries: readonly NewRecordEntry[], now: Date): void {
+  if (entries.length === 0) return;
+  const st = statementsOf(sqliteOf(db));
+  const key = ledgerKeyOf(db);
+  const at = now.toISOString();
+  const ends = new Map<string, ChainEnd>();
+  for (const e of entries) {
+    const prev = ends.get(e.rideId) ?? st.last.get(e.rideId) ?? null;
+    const hashed = {
+      rideId: e.rideId,
+      seq: prev ? prev.seq + 1 : 1,
+      kind: e.kind,
+      refId: e.refId,
+      at,
+      recordHash: e.recordHash,
+      prevHash: prev ? prev.entryHash : genesisHash,
+      deviceKeyId: e.device?.keyId ?? null,
+      deviceSignature: e.device?.signature ?? null,
+    };
+    const entryHash = entryHashOf(hashed);
+    st.insert.run(
+      hashed.rideId,
+      hashed.seq,
+      hashed.kind,
+      hashed.refId,
+      at,
+      e.record,
+      hashed.recordHash,
+      hashed.prevHash,
+      entryHash,
+      key.keyId,
+      nodeEd25519.sign(key.privateKey, entryHash),
+      hashed.deviceKeyId,
+      hashed.deviceSignature,
+    );
+    ends.set(e.rideId, { rideId: e.rideId, seq: hashed.seq, entryHash });
+  }
+  for (const end of ends.values())
+    st.head.run(end.rideId, end.seq, end.entryHash, nodeEd25519.sign(key.privateKey, headHashOf(end)));
 }

@@ -27,7 +27,7 @@ import type { DesignData } from '@/features/loads/design-schema';
 import { companyScope } from '@/server/auth/scope';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
-import { appendManyToLedger } from '@/server/ledger/append';
+import { appendNewRecords, type NewRecordEntry } from '@/server/ledger/append';
 import { nodeEd25519 } from '@/server/ledger/ed25519';
 import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
@@ -46,6 +46,8 @@ import {
 } from '@/server/sync/plausibility-check';
 
 type Signature = { keyId: string; signature: string };
+/** A checked signature with what it covers: the record's RFC 8785 form and its SHA-256 (its chain entry's). */
+type SignedRecord = Signature & { record: string; recordHash: string };
 type PushBatch = { batchId: string; records: unknown[]; signatures?: Record<string, Signature> };
 type RecordResult = PushResult['results'][number];
 type Issue = { path: string; message: string };
@@ -131,8 +133,8 @@ type BatchContext = {
   phoneKeys: Map<string, PhoneKey>;
   /** A key that signs each record the server is given (the demo seed's phone), instead of the batch's. */
   signWith: SigningKey | null;
-  /** The phone's signature of each accepted record, for its chain entry. */
-  signed: Map<string, Signature>;
+  /** Each accepted record's chain entry to be: its ride, kind, form, hash and the phone's signature. */
+  signed: Map<string, NewRecordEntry>;
 };
 
 /** A phone key the server holds the private half of: only the demo seed's and the ingest bench's. */
@@ -145,11 +147,13 @@ const signAgain = 'sign in again on the phone and send it again';
  * hash (features/ledger `recordHashOf` of the parsed record, as the phone signed it). The hash is the same
  * SHA-256 over the same RFC 8785 form, through Node's one-shot digest.
  */
-function signatureOf(ctx: BatchContext, record: InspectionRecord): Signature | Issue {
+function signatureOf(ctx: BatchContext, record: InspectionRecord): SignedRecord | Issue {
   const issue = (message: string): Issue => ({ path: 'signature', message });
+  let canonical: string;
   let recordHash: string;
   try {
-    recordHash = hash('sha256', canonicalJson(record), 'hex');
+    canonical = canonicalJson(record);
+    recordHash = hash('sha256', canonical, 'hex');
   } catch {
     // RFC 8785 has no form for a string with a lone UTF-16 surrogate, so nothing can sign it.
     return issue(
@@ -179,7 +183,7 @@ function signatureOf(ctx: BatchContext, record: InspectionRecord): Signature | I
     );
   if (!nodeEd25519.verify(key.publicKey, recordHash, given.signature))
     return issue("The signature does not match this inspection's content");
-  return { keyId: given.keyId, signature: given.signature };
+  return { keyId: given.keyId, signature: given.signature, record: canonical, recordHash };
 }
 
 function rideOf(ctx: BatchContext, id: string): RideRow | null {
@@ -329,7 +333,14 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
       ]);
     }
   ctx.known.set(record.id, { contentSha256, rideId: ride.id, inspectorId: ctx.user.id });
-  ctx.signed.set(record.id, signature);
+  ctx.signed.set(record.id, {
+    rideId: ride.id,
+    kind: amendsId !== null ? 'amendment' : 'inspection',
+    refId: record.id,
+    record: signature.record,
+    recordHash: signature.recordHash,
+    device: { keyId: signature.keyId, signature: signature.signature },
+  });
   return { id: record.id, status: 'accepted' };
 }
 
@@ -417,9 +428,9 @@ export function ingestBatch(
     const accepted = results.flatMap((r) => (r.status === 'accepted' && r.id ? [r.id] : []));
     // Each accepted inspection or amendment joins its ride's record chain (a re-sent one is already there).
     // Each carries the phone's signature, which the entry's record hash lets anyone check later.
-    appendManyToLedger(
+    appendNewRecords(
       db,
-      accepted.map((refId) => ({ kind: 'inspection', refId, device: ctx.signed.get(refId) ?? null })),
+      accepted.flatMap((id) => ctx.signed.get(id) ?? []),
       now,
     );
     refreshQueueInspections(db, queueDay(db, now), accepted);
