@@ -9,7 +9,7 @@ import { QueryState } from '@/components/query-state';
 import { Screen, SectionTitle } from '@/components/screen';
 import { RideStatusMark } from '@/components/status-mark';
 import { Text } from '@/components/text';
-import { colors, layout, radius, space } from '@/components/theme';
+import { colors, layout, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { RoleGate } from '@/features/auth/ui';
 import { formatDate, formatLocalStamp, localDay, longDate } from '@/lib/dates';
@@ -19,12 +19,13 @@ import {
   useSentInspectionsQuery,
   useStartInspectionMutation,
 } from '@/features/inspections/field-api';
-import { type InspectionType, inspectionTypeLabel, inspectionTypes } from '@/features/records/schema';
+import { type InspectionType, inspectionTypeLabel } from '@/features/records/schema';
 import { dueStatusOn, scheduleSchema } from '@/features/registry/schema';
 import { rideHref } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref, scanHref } from '@/features/inspections/hrefs';
 import { SentInspections } from '@/features/inspections/sent-inspections';
+import { InspectionTypeChoice } from '@/features/inspections/inspection-type-choice';
 import { SyncPanel } from '@/features/inspections/sync-panel';
 import { useSyncStatus } from '@/features/sync/ui';
 import { useFirstScreenSettled } from '@/components/first-screen';
@@ -162,22 +163,7 @@ function RideToInspect({ entry }: { entry: Entry }) {
         </Text>
       ) : null}
       {choosing ? (
-        <View style={styles.types} role="radiogroup" accessibilityLabel="Inspection type">
-          {inspectionTypes.map((t) => (
-            <Pressable
-              key={t}
-              role="radio"
-              aria-checked={false}
-              onPress={() => begin(t)}
-              style={StyleSheet.flatten([
-                styles.type,
-                assigned?.inspectionType === t && styles.typeSuggested,
-              ])}
-            >
-              <Text variant="label">{inspectionTypeLabel[t]}</Text>
-            </Pressable>
-          ))}
-        </View>
+        <InspectionTypeChoice onChoose={begin} suggested={assigned?.inspectionType} />
       ) : (
         <Button
           label="Start inspection"
@@ -206,17 +192,6 @@ const styles = StyleSheet.create({
   grid: { gap: space.md },
   gridWide: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   cellWide: { flexBasis: 360, flexGrow: 1, maxWidth: 560 },
-  types: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  type: {
-    minHeight: 44,
-    justifyContent: 'center',
-    paddingHorizontal: space.md,
-    borderRadius: radius.md,
-    borderWidth: 1.5,
-    borderColor: colors.border,
-    backgroundColor: colors.surface,
-  },
-  typeSuggested: { borderColor: colors.base },
   other: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
   name: { minHeight: layout.touchTarget, justifyContent: 'center', alignSelf: 'flex-start' },
 });
