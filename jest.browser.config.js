@@ -4,8 +4,14 @@ module.exports = {
   testEnvironment: 'node',
   testMatch: ['<rootDir>/tests/browser/**/*.test.ts'],
   moduleNameMapper: { '^@/(.*)$': '<rootDir>/$1' },
+  // canonicalize ships ES modules only (tests sign pushes as a phone does); ts-jest turns it into CommonJS.
+  transformIgnorePatterns: ['/node_modules/(?!canonicalize/)'],
   transform: {
     '^.+\\.tsx?$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false }],
+    '/node_modules/canonicalize/.+\\.js$': [
+      'ts-jest',
+      { tsconfig: '<rootDir>/tsconfig.server.json', diagnostics: false },
+    ],
   },
   globalSetup: '<rootDir>/tests/browser/global-setup.ts',
   testTimeout: 120000,

@@ -34,6 +34,20 @@ async function progress(page: Page) {
   return { answered: +m[1], total: +m[2], readings: +m[4], photos: +m[5] };
 }
 
+/**
+ * Waits until the progress line's `key` reads `value` (up to 5 s), then answers it: the line follows the
+ * draft, which an undo-able removal updates in the render after its notice appears.
+ */
+async function progressReads(page: Page, key: 'readings' | 'photos', value: number): Promise<number> {
+  const deadline = Date.now() + 5000;
+  let now = (await progress(page))[key];
+  while (now !== value && Date.now() < deadline) {
+    await page.waitForTimeout(50);
+    now = (await progress(page))[key];
+  }
+  return now;
+}
+
 /** Heights of the visible controls that are smaller than `min` px, with their names. */
 async function smallTargets(page: Page, min: number) {
   return page.evaluate((floor) => {
@@ -123,20 +137,20 @@ test('an inspection walked at phone size: steps, bar, thumbnail, blocker jump, u
   // A reading removed by mistake comes back with Undo.
   await page.getByRole('button', { name: /^Remove .*period/ }).click();
   await page.getByText(/^Reading removed: /).waitFor();
-  expect((await progress(page)).readings).toBe(withReadings.readings - 1);
+  expect(await progressReads(page, 'readings', withReadings.readings - 1)).toBe(withReadings.readings - 1);
   await screenshot(page, 'phone-inspection-undo-reading');
   await page.getByRole('button', { name: /^Undo: Reading removed/ }).click();
   await page.getByRole('button', { name: /^Remove .*period/ }).waitFor();
-  expect((await progress(page)).readings).toBe(withReadings.readings);
+  expect(await progressReads(page, 'readings', withReadings.readings)).toBe(withReadings.readings);
 
   // So does a photo.
   await bar.getByRole('button', { name: 'Next: Photos' }).click();
   await page.getByRole('button', { name: 'Remove photo 1' }).click();
   await page.getByText('Photo removed').waitFor();
-  expect((await progress(page)).photos).toBe(0);
+  expect(await progressReads(page, 'photos', 0)).toBe(0);
   await page.getByRole('button', { name: /^Undo: Photo removed/ }).click();
   await page.getByRole('button', { name: 'Remove photo 1' }).waitFor();
-  expect((await progress(page)).photos).toBe(1);
+  expect(await progressReads(page, 'photos', 1)).toBe(1);
   expect(await page.getByRole('button', { name: /^Undo/ }).count()).toBe(0);
 
   // To Submit through the bar: the second photo item still wants its photo.

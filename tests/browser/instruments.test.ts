@@ -16,6 +16,7 @@ import {
   screenshot,
   serverAndBrowser,
   startPeriodicInspection,
+  pushAsPhone,
 } from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
@@ -161,11 +162,7 @@ test('the review desk shows the declaration and the instrument each reading was 
       declaredByName: 'Demo Inspector',
     },
   };
-  const res = await fetch(`${app.baseUrl}/api/sync/push`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
-    body: JSON.stringify({ batchId: randomUUID(), records: [record] }),
-  });
+  const res = await pushAsPhone(app.baseUrl, token, [record]);
   expect(((await res.json()) as { results: { status: string }[] }).results[0].status).toBe('accepted');
 
   const desk = await app.signedIn('desktop', 'supervisor@pivotwatch.test');

@@ -16,6 +16,7 @@ import {
   screenshot,
   serverAndBrowser,
   startPeriodicInspection,
+  pushAsPhone,
 } from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser({ NODE_ENV: 'development' });
@@ -90,11 +91,7 @@ test('the desk shows a pin typed just above its minimum with the inspector’s d
       declaredByName: 'Demo Inspector',
     },
   };
-  const res = await fetch(`${app.baseUrl}/api/sync/push`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
-    body: JSON.stringify({ batchId: randomUUID(), records: [record] }),
-  });
+  const res = await pushAsPhone(app.baseUrl, token, [record]);
   const pushed = (await res.json()) as { results: { status: string; issues?: unknown }[] };
   expect(pushed.results[0]).toMatchObject({ status: 'accepted' });
 

@@ -4,10 +4,8 @@
  * server/review/self-approval.ts). Desktop (1440×900) and phone (390×844). An administrator then allows it
  * from the review desk, and the supervisor is offered Approve. Names are the invented demo's.
  */
-import { randomUUID } from 'node:crypto';
-
 import type { DesignData } from '@/features/loads/design-schema';
-import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
+import { apiGet, apiToken, pushAsPhone, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 import { makeRecord } from '@/tests/server/sync-fixtures';
 
 const app = serverAndBrowser();
@@ -24,11 +22,7 @@ test('the desk explains why a supervisor cannot approve their own inspection, at
   );
   // Recorded and sent by the supervisor's own phone.
   const record = makeRecord({ id: skylark.id, designVersionId: design.id, design: design.data });
-  const pushed = await fetch(`${app.baseUrl}/api/sync/push`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
-    body: JSON.stringify({ batchId: randomUUID(), records: [record] }),
-  });
+  const pushed = await pushAsPhone(app.baseUrl, token, [record]);
   expect(((await pushed.json()) as { results: { status: string }[] }).results[0].status).toBe('accepted');
 
   for (const size of ['desktop', 'phone'] as const) {

@@ -5,6 +5,7 @@ import { type Browser, type Page, chromium } from 'playwright-core';
 
 import { launchOptions } from '@/scripts/browser';
 import { startLocalServer } from '@/scripts/local-server';
+import { newPhoneKey, signedBatch } from '@/tests/support/phone-keys';
 
 export const ROOT = join(__dirname, '..', '..', '..');
 export const SHOTS = join(ROOT, 'artifacts', 'screenshots');
@@ -53,6 +54,25 @@ export async function apiToken(baseUrl: string, email: string, password = DEMO_P
     body: JSON.stringify({ email, password }),
   });
   return ((await res.json()) as { token: string }).token;
+}
+
+/**
+ * POST /api/sync/push as a phone sends it: a new phone key (tests/support/phone-keys.ts, @noble/curves)
+ * registered for the token's person, each record signed with it. Answers the response.
+ */
+export async function pushAsPhone(baseUrl: string, token: string, records: unknown[]): Promise<Response> {
+  const key = newPhoneKey();
+  const registered = await fetch(`${baseUrl}/api/devices/keys`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
+    body: JSON.stringify({ publicKey: key.publicKey, label: 'Test phone' }),
+  });
+  expect(registered.status).toBe(201);
+  return fetch(`${baseUrl}/api/sync/push`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
+    body: JSON.stringify(signedBatch(records, key)),
+  });
 }
 
 /** GET an API path with a token; the answer's JSON, after checking it was a 200. */
