@@ -106,25 +106,36 @@ export const nobleEd25519: Ed25519Ops = { sign: signHex, verify: verifyHex };
  * The entry that follows `prev` (null for a ride's first) for `value`, countersigned with the server's key.
  * `device` is the phone's key id and its signature over the record's hash, when it signed.
  */
+/** A record already in canonical form with its hash (`canonicalRecord`), as `nextEntry` takes it. */
+const CANONICAL = Symbol('canonical record');
+
+/** Marks a record's canonical JSON and hash, made by the caller, for `nextEntry` to use as they are. */
+export const canonicalRecord = (canonical: string, hash: string) => ({ [CANONICAL]: true, canonical, hash });
+
+const isCanonical = (v: unknown): v is { canonical: string; hash: string } =>
+  typeof v === 'object' && v !== null && CANONICAL in v;
+
 export function nextEntry(args: {
   rideId: string;
   prev: Pick<LedgerEntry, 'seq' | 'entryHash'> | null;
   kind: LedgerKind;
   refId: string;
   at: string;
+  /** The record, or `canonicalRecord(...)` when the caller has made its canonical JSON and hash already. */
   value: unknown;
   device: { keyId: string; signature: string } | null;
   server: { keyId: string; privateKey: string };
   ed25519?: Ed25519Ops;
 }): LedgerEntry {
-  const record = canonicalJson(args.value);
+  const made = isCanonical(args.value) ? args.value : null;
+  const record = made ? made.canonical : canonicalJson(args.value);
   const hashed = {
     rideId: args.rideId,
     seq: args.prev ? args.prev.seq + 1 : 1,
     kind: args.kind,
     refId: args.refId,
     at: args.at,
-    recordHash: sha256Hex(record),
+    recordHash: made ? made.hash : sha256Hex(record),
     prevHash: args.prev ? args.prev.entryHash : genesisHash,
     deviceKeyId: args.device?.keyId ?? null,
     deviceSignature: args.device?.signature ?? null,

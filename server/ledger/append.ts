@@ -3,10 +3,10 @@ import { sql } from 'drizzle-orm';
 
 import {
   canonicalJson,
-  entryHashOf,
-  genesisHash,
+  canonicalRecord,
   headHashOf,
   nextEntry,
+  type LedgerEntry,
   type LedgerKind,
 } from '@/features/ledger';
 import type { Db } from '@/server/db';
@@ -27,6 +27,26 @@ export type LedgerRef = {
 };
 
 type ChainEnd = { rideId: string; seq: number; entryHash: string };
+
+const ENTRY_COLUMNS = `ride_id, seq, kind, ref_id, at, record, record_hash, prev_hash, entry_hash, server_key_id,
+  server_signature, device_key_id, device_signature`;
+
+/** An entry's values in ENTRY_COLUMNS' order. */
+const insertParams = (e: LedgerEntry) => [
+  e.rideId,
+  e.seq,
+  e.kind,
+  e.refId,
+  e.at,
+  e.record,
+  e.recordHash,
+  e.prevHash,
+  e.entryHash,
+  e.serverKeyId,
+  e.serverSignature,
+  e.deviceKeyId,
+  e.deviceSignature,
+];
 
 /**
  * Appends the record's entry to its ride's chain and moves the ride's signed head, inside the caller's
@@ -66,10 +86,11 @@ function appendEntry(db: Writer, key: LedgerKey, ref: LedgerRef, now: Date): Cha
     server: key,
     ed25519: nodeEd25519,
   });
-  db.run(sql`INSERT INTO ledger_entries (ride_id, seq, kind, ref_id, at, record, record_hash, prev_hash,
-      entry_hash, server_key_id, server_signature, device_key_id, device_signature)
-    VALUES (${e.rideId}, ${e.seq}, ${e.kind}, ${e.refId}, ${e.at}, ${e.record}, ${e.recordHash}, ${e.prevHash},
-      ${e.entryHash}, ${e.serverKeyId}, ${e.serverSignature}, ${e.deviceKeyId}, ${e.deviceSignature})`);
+  db.run(sql`INSERT INTO ledger_entries (${sql.raw(ENTRY_COLUMNS)})
+    VALUES (${sql.join(
+      insertParams(e).map((v) => sql`${v}`),
+      sql`, `,
+    )})`);
   return { rideId, seq: e.seq, entryHash: e.entryHash };
 }
 
@@ -106,9 +127,11 @@ function statementsOf(sqlite: Database.Database): Prepared {
       last: sqlite.prepare(
         'SELECT ride_id AS rideId, seq, entry_hash AS entryHash FROM ledger_entries WHERE ride_id = ? ORDER BY seq DESC LIMIT 1',
       ),
-      insert: sqlite.prepare(`INSERT INTO ledger_entries (ride_id, seq, kind, ref_id, at, record, record_hash,
-          prev_hash, entry_hash, server_key_id, server_signature, device_key_id, device_signature)
-        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+      insert: sqlite.prepare(
+        `INSERT INTO ledger_entries (${ENTRY_COLUMNS}) VALUES (${ENTRY_COLUMNS.split(',')
+          .map(() => '?')
+          .join(', ')})`,
+      ),
       head: sqlite.prepare(`INSERT INTO ledger_heads (ride_id, seq, entry_hash, signature) VALUES (?, ?, ?, ?)
         ON CONFLICT (ride_id) DO UPDATE SET seq = excluded.seq, entry_hash = excluded.entry_hash,
           signature = excluded.signature`),
@@ -132,35 +155,19 @@ export function appendNewRecords(db: Db, entries: readonly NewRecordEntry[], now
   const at = now.toISOString();
   const ends = new Map<string, ChainEnd>();
   for (const e of entries) {
-    const prev = ends.get(e.rideId) ?? st.last.get(e.rideId) ?? null;
-    const hashed = {
+    const entry = nextEntry({
       rideId: e.rideId,
-      seq: prev ? prev.seq + 1 : 1,
+      prev: ends.get(e.rideId) ?? st.last.get(e.rideId) ?? null,
       kind: e.kind,
       refId: e.refId,
       at,
-      recordHash: e.recordHash,
-      prevHash: prev ? prev.entryHash : genesisHash,
-      deviceKeyId: e.device?.keyId ?? null,
-      deviceSignature: e.device?.signature ?? null,
-    };
-    const entryHash = entryHashOf(hashed);
-    st.insert.run(
-      hashed.rideId,
-      hashed.seq,
-      hashed.kind,
-      hashed.refId,
-      at,
-      e.record,
-      hashed.recordHash,
-      hashed.prevHash,
-      entryHash,
-      key.keyId,
-      nodeEd25519.sign(key.privateKey, entryHash),
-      hashed.deviceKeyId,
-      hashed.deviceSignature,
-    );
-    ends.set(e.rideId, { rideId: e.rideId, seq: hashed.seq, entryHash });
+      value: canonicalRecord(e.record, e.recordHash),
+      device: e.device,
+      server: key,
+      ed25519: nodeEd25519,
+    });
+    st.insert.run(...insertParams(entry));
+    ends.set(e.rideId, { rideId: e.rideId, seq: entry.seq, entryHash: entry.entryHash });
   }
   for (const end of ends.values())
     st.head.run(end.rideId, end.seq, end.entryHash, nodeEd25519.sign(key.privateKey, headHashOf(end)));
