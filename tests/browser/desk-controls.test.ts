@@ -64,6 +64,8 @@ test('a date from the date input and a site by type-ahead reach the queue; the p
   });
   expect(alpha).toBe(1);
   await screenshot(desk, 'desk-controls-photo-desktop');
+  // The web Modal listens for Escape once its fade-in has ended; it then names its own layer a dialog too.
+  await desk.getByRole('dialog').filter({ has: dialog }).waitFor();
   await desk.keyboard.press('Escape');
   await dialog.waitFor({ state: 'detached' });
 });
