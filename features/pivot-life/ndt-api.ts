@@ -1,11 +1,9 @@
-import { sha256 } from '@noble/hashes/sha256';
-import { bytesToHex } from '@noble/hashes/utils';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import { API_BASE, apiFetch, putBytes } from '@/features/api';
+import { apiFetch } from '@/features/api';
+import { uploadPdf } from '@/features/documents';
 import { pivotLifeKeys } from '@/features/pivot-life/api';
 import { ndtRecordCreatedSchema, rideNdtSchema, type NdtRecordInput } from '@/features/pivot-life/ndt-schema';
-import { tokenStore } from '@/features/session';
 import { ApiRequestError } from '@/lib/api-errors';
 
 export const ndtKeys = {
@@ -25,36 +23,9 @@ export function useRideNdtQuery(rideId: string) {
   });
 }
 
-/** The report's bytes start with the PDF header "%PDF-" (ISO 32000-1 §7.5.2), as the server checks. */
-export function isPdfBytes(bytes: Uint8Array): boolean {
-  const header = [0x25, 0x50, 0x44, 0x46, 0x2d];
-  return bytes.length >= header.length && header.every((b, i) => bytes[i] === b);
-}
-
-/** A report of up to 20 MB should be up within this even on a poor signal; past it, try again. */
-const REPORT_TIMEOUT_MS = 300_000;
-
-/**
- * PUT /api/ndt-reports/:sha256 with the raw bytes, telling `onProgress` how far it is; resolves with the
- * hash once the server holds them.
- */
-export async function uploadNdtReport(
-  bytes: Uint8Array,
-  onProgress?: (sent: number, total: number) => void,
-): Promise<string> {
-  const hash = bytesToHex(sha256(bytes));
-  const session = await tokenStore.get();
-  await putBytes({
-    url: `${API_BASE}/api/ndt-reports/${hash}`,
-    bytes,
-    mime: 'application/pdf',
-    token: session?.token ?? null,
-    timeoutMs: REPORT_TIMEOUT_MS,
-    what: 'Report upload',
-    onProgress,
-  });
-  return hash;
-}
+/** PUT /api/ndt-reports/:sha256 with the raw bytes; resolves with the hash once the server holds them. */
+export const uploadNdtReport = (bytes: Uint8Array, onProgress?: (sent: number, total: number) => void) =>
+  uploadPdf('/api/ndt-reports', bytes, 'Report upload', onProgress);
 
 export type AddNdtRecord = {
   input: Omit<NdtRecordInput, 'reportSha256'>;

@@ -1,4 +1,3 @@
-import * as DocumentPicker from 'expo-document-picker';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 
@@ -18,10 +17,10 @@ import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { downloadPdf } from '@/features/api/ui';
+import { megabytes, pickPdf } from '@/features/documents';
 import { RoleGate } from '@/features/auth/ui';
 import { ndtMethods, type NdtMethod } from '@/features/loads/design-schema';
 import {
-  isPdfBytes,
   MAX_NDT_REPORT_BYTES,
   ndtReportPath,
   useAddNdtRecordMutation,
@@ -37,7 +36,6 @@ import {
   type RideNdt,
 } from '@/features/pivot-life/ndt-schema';
 import { NdtRows } from '@/features/pivot-life/ndt-rows';
-import { readPickedBytes } from '@/features/pivot-life/read-picked-bytes';
 import { RideNotFound, useRideIdParam } from '@/features/registry/ui';
 import { rideHref } from '@/features/rides';
 import type { SessionUser } from '@/features/session/schema';
@@ -50,9 +48,6 @@ type FieldErrors = Partial<Record<Field, string>>;
 type PickedReport = { name: string; bytes: Uint8Array };
 
 const recorders: SessionUser['role'][] = ['inspector', 'supervisor', 'admin'];
-const megabytes = (n: number) => `${(n / 1048576).toFixed(1)} MB`;
-/** A file's size in words: kB below a megabyte, so a one-page report does not read as 0.0 MB. */
-const fileSize = (n: number) => (n < 1048576 ? `${Math.max(1, Math.round(n / 1024))} kB` : megabytes(n));
 
 /**
  * A ride's NDT: per pivot the tests the design data plans with when each falls due, and the records
@@ -229,27 +224,10 @@ function AddRecord({ data }: { data: RideNdt }) {
 
   const pick = async () => {
     setErrors((e) => ({ ...e, report: undefined }));
-    const res = await DocumentPicker.getDocumentAsync({
-      type: ['application/pdf', '.pdf'],
-      copyToCacheDirectory: true,
-      multiple: false,
-    });
-    if (res.canceled || !res.assets?.[0]) return;
-    const asset = res.assets[0];
-    if ((asset.size ?? 0) > MAX_NDT_REPORT_BYTES) {
-      setErrors((e) => ({ ...e, report: `Larger than the ${megabytes(MAX_NDT_REPORT_BYTES)} limit.` }));
-      return;
-    }
-    const bytes = await readPickedBytes(asset);
-    if (!isPdfBytes(bytes)) {
-      setErrors((e) => ({ ...e, report: `${asset.name} is not a PDF.` }));
-      return;
-    }
-    if (bytes.length > MAX_NDT_REPORT_BYTES) {
-      setErrors((e) => ({ ...e, report: `Larger than the ${megabytes(MAX_NDT_REPORT_BYTES)} limit.` }));
-      return;
-    }
-    setReport({ name: asset.name, bytes });
+    const picked = await pickPdf(MAX_NDT_REPORT_BYTES);
+    if (picked === null) return;
+    if ('problem' in picked) setErrors((e) => ({ ...e, report: picked.problem }));
+    else setReport(picked);
   };
 
   const submit = async () => {
@@ -384,7 +362,7 @@ function AddRecord({ data }: { data: RideNdt }) {
         </Text>
         {report ? (
           <Text testID="ndt-report-picked">
-            PDF: {report.name} · {fileSize(report.bytes.length)}
+            PDF: {report.name} · {formatBytes(report.bytes.length)}
           </Text>
         ) : null}
         <View style={styles.reportActions}>

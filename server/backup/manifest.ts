@@ -18,9 +18,9 @@ export const manifestName = 'manifest.json';
 /**
  * The storage folders kept by content (the file name is the SHA-256 of its bytes), so a file never changes
  * once written and a backup links or copies each one once: the folders of the photo and NDT report stores
- * (server/storage). Cached notice PDFs are not backed up; they are drawn again when asked for.
+ * (server/storage) and of the documents store (server/documents). Cached notice PDFs are not backed up; they are drawn again when asked for.
  */
-export const contentDirs = [storedFolders.photos, storedFolders.ndtReports] as const;
+export const contentDirs = [storedFolders.photos, storedFolders.ndtReports, storedFolders.documents] as const;
 
 export const backupKinds = ['scheduled', 'manual', 'pre-migration'] as const;
 export type BackupKind = (typeof backupKinds)[number];

@@ -15,15 +15,6 @@ import { storeContent, storedFolders, type ObjectStorage } from '@/server/storag
 /** A scanned report of a few pages fits well inside this; a larger file is refused with 413. */
 export const MAX_NDT_REPORT_BYTES = 20 * 1024 * 1024;
 
-/**
- * Whether the bytes are a PDF: the file header `%PDF-` (ISO 32000-1 §7.5.2) at the very start. A
- * Content-Type says nothing about the bytes, so it is never trusted alone.
- */
-export function isPdf(bytes: Uint8Array): boolean {
-  const header = [0x25, 0x50, 0x44, 0x46, 0x2d]; // %PDF-
-  return bytes.length >= header.length && header.every((b, i) => bytes[i] === b);
-}
-
 /** The report's key in the storage. */
 export const ndtReportKeyOf = (sha256: string) => `${storedFolders.ndtReports}/${sha256}`;
 /** Where the disk driver keeps reports when STORAGE_URL is unset (the layout of every earlier release). */

@@ -17,6 +17,7 @@ import { instrumentsRouter } from '@/server/routes/instruments';
 import { lifeRouter } from '@/server/routes/life';
 import { loadsRouter } from '@/server/routes/loads';
 import { ndtRouter } from '@/server/routes/ndt';
+import { documentsRouter } from '@/server/routes/documents';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
 import { platesRouter } from '@/server/routes/plates';
@@ -47,6 +48,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));
   router.use(ndtRouter(deps));
+  router.use(documentsRouter(deps));
   router.use(fatigueRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));

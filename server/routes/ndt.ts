@@ -1,4 +1,4 @@
-import express, { Router, type RequestHandler } from 'express';
+import { Router } from 'express';
 import { and, eq } from 'drizzle-orm';
 import { z } from 'zod';
 
@@ -12,13 +12,13 @@ import { currentUser, requireAuth, requireRole } from '@/server/auth/require-aut
 import { nowOf, type ApiDeps } from '@/server/deps';
 import type { Db } from '@/server/db';
 import { assertContentHash } from '@/server/http/content-hash';
-import { forbidden, HttpError, notFound } from '@/server/http/errors';
+import { forbidden, notFound } from '@/server/http/errors';
+import { pdfBodyOf, rawPdfBody } from '@/server/http/raw-pdf';
 import { validate } from '@/server/http/validate';
 import { refreshRideLifeFlags } from '@/server/pivot-life/flags';
 import { addNdtRecord, rideNdt } from '@/server/pivot-life/ndt';
 import {
   findNdtReport,
-  isPdf,
   MAX_NDT_REPORT_BYTES,
   readNdtReport,
   storeNdtReport,
@@ -35,33 +35,7 @@ const byHash = validate({
   }),
 });
 
-const megabytes = (n: number) => `${(n / 1048576).toFixed(1)} MB`;
-
-/** The raw body parser for a report, its "too large" turned into a 413 that names the limit. */
-const rawPdf: RequestHandler = (() => {
-  const parse = express.raw({
-    type: ['application/pdf', 'application/octet-stream'],
-    limit: MAX_NDT_REPORT_BYTES,
-  });
-  const tooLarge = z.object({ type: z.literal('entity.too.large'), length: z.number().optional() });
-  return (req, res, next) =>
-    parse(req, res, (err?: unknown) => {
-      const big = tooLarge.safeParse(err);
-      if (big.success) {
-        const size = big.data.length === undefined ? '' : ` (this one is ${megabytes(big.data.length)})`;
-        next(
-          new HttpError(
-            413,
-            'payload_too_large',
-            `The report is larger than the ${megabytes(MAX_NDT_REPORT_BYTES)} limit${size}; send a smaller PDF ` +
-              '(scanned pages at a lower resolution).',
-          ),
-        );
-        return;
-      }
-      next(err);
-    });
-})();
+const rawPdf = rawPdfBody(MAX_NDT_REPORT_BYTES, 'The report');
 
 /** An operator may read a report attached to an NDT record of one of their company's rides. */
 function operatorMaySeeReport(db: Pick<Db, 'select'>, companyId: string, sha256: string): boolean {
@@ -113,21 +87,7 @@ export function ndtRouter(deps: ApiDeps): Router {
 
   router.put('/ndt-reports/:sha256', auth, recorders, byHash, rawPdf, async (req, res) => {
     const { sha256 } = byHash.params(res);
-    const body: unknown = req.body;
-    if (!Buffer.isBuffer(body))
-      throw new HttpError(
-        415,
-        'unsupported_media_type',
-        'Send the report as its raw bytes with Content-Type application/pdf.',
-      );
-    if (!isPdf(body))
-      throw new HttpError(
-        415,
-        'not_a_pdf',
-        body.length === 0
-          ? 'The upload is empty; send the report’s bytes.'
-          : 'The file is not a PDF (it does not begin with %PDF-), so it was not stored.',
-      );
+    const body = pdfBodyOf(req, 'report');
     assertContentHash(body, sha256);
     const { stored } = await storeNdtReport(
       deps.db,

@@ -28,7 +28,11 @@ export type MoveResult = {
 const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
 
 /** The folders whose file names are the SHA-256 of their bytes. */
-const contentAddressed = new Set<string>([storedFolders.photos, storedFolders.ndtReports]);
+const contentAddressed = new Set<string>([
+  storedFolders.photos,
+  storedFolders.ndtReports,
+  storedFolders.documents,
+]);
 
 export async function moveStorage(
   from: ObjectStorage,

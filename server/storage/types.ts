@@ -1,6 +1,6 @@
 /**
  * One interface for every stored byte the server keeps outside its database: photos (`photos/<sha256>`),
- * NDT reports (`ndt-reports/<sha256>`) and cached notice PDFs (`cache/notice-pdfs/<name>`). Two drivers:
+ * NDT reports (`ndt-reports/<sha256>`), PDF documents (`documents/<sha256>`) and cached notice PDFs (`cache/notice-pdfs/<name>`). Two drivers:
  * the disk (disk.ts, the default) and S3-compatible object storage (s3.ts); STORAGE_URL picks one.
  *
  * The one promise every driver keeps: when `put` resolves, the object is durably stored and is read back
@@ -46,5 +46,6 @@ export function assertKey(key: string): void {
 export const storedFolders = {
   photos: 'photos',
   ndtReports: 'ndt-reports',
+  documents: 'documents',
   noticePdfs: 'cache/notice-pdfs',
 } as const;

@@ -40,7 +40,7 @@ let mockBytes: Uint8Array = PDF;
 jest.mock('expo-document-picker', () => ({
   getDocumentAsync: jest.fn(async () => ({ canceled: false, assets: [mockPicked] })),
 }));
-jest.mock('@/features/pivot-life/read-picked-bytes', () => ({
+jest.mock('@/features/documents/read-picked-bytes', () => ({
   readPickedBytes: jest.fn(async () => mockBytes),
 }));
 

@@ -27,6 +27,7 @@ import { databaseFileName, migrationState, openDb } from '@/server/db';
 import { makePrivateDir, restrictNewFiles, writeWhole } from '@/server/files';
 import { serverMigrationsDir } from '@/server/paths';
 import { ndtReportsDirOf, storeNdtReport } from '@/server/pivot-life/ndt-report-store';
+import { documentsDirOf } from '@/server/documents/store';
 import { photosDirOf, storePhoto } from '@/server/sync/photo-store';
 import { seedDemoData } from '@/server/seed/demo';
 import { diskStorage } from '@/server/storage';
@@ -123,7 +124,11 @@ async function seededDataDir() {
 }
 
 test('the stored-file folders are the ones the stores write', () => {
-  expect(contentDirs.map((d) => path.join('/d', d))).toEqual([photosDirOf('/d'), ndtReportsDirOf('/d')]);
+  expect(contentDirs.map((d) => path.join('/d', d))).toEqual([
+    photosDirOf('/d'),
+    ndtReportsDirOf('/d'),
+    documentsDirOf('/d'),
+  ]);
 });
 
 test('file hashes match the published SHA-256 of "abc" (FIPS 180-2, B.1)', async () => {

@@ -4,10 +4,7 @@
  * (Gregorian calendar, checked with Python's datetime.date), and the review queue's urgency. The PDF is a
  * real one written by pdfkit (whose files begin with the ISO 32000 header "%PDF-"). Fixtures are invented.
  */
-import { createHash } from 'node:crypto';
-
 import { and, eq } from 'drizzle-orm';
-import PDFDocument from 'pdfkit';
 import request from 'supertest';
 
 import { designVersions, users } from '@/db/server/schema';
@@ -21,6 +18,7 @@ import { reviewQueue } from '@/db/server/review';
 
 import { expectApiError, type TestServer } from './helpers';
 import { demoClients, makePinnedServer, type Clients } from './registry-helpers';
+import { asBytes, pdfBytes, sha256Hex } from '@/tests/support/pdf-files';
 import { rodDesign } from '@/tests/support/rod-design';
 
 const today = '2026-12-03';
@@ -48,19 +46,7 @@ function pinVersion(version: number, at: string) {
     .run();
 }
 
-function pdfBytes(text: string): Promise<Buffer> {
-  return new Promise((resolve, reject) => {
-    const doc = new PDFDocument({ size: 'A4' });
-    const chunks: Buffer[] = [];
-    doc.on('data', (c: Buffer) => chunks.push(c));
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-    doc.text(text);
-    doc.end();
-  });
-}
-
-const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+const sha = sha256Hex;
 
 const record = (patch: Record<string, unknown> = {}) => ({
   joint: 0,
@@ -288,14 +274,7 @@ describe('report PDFs', () => {
     expect(res.body.record.reportSha256).toBe(hash);
 
     for (const as of [api.supervisor, api.operator]) {
-      const got = await as
-        .get(`/api/ndt-reports/${hash}`)
-        .buffer(true)
-        .parse((r, cb) => {
-          const chunks: Buffer[] = [];
-          r.on('data', (c: Buffer) => chunks.push(c));
-          r.on('end', () => cb(null, Buffer.concat(chunks)));
-        });
+      const got = await asBytes(as.get(`/api/ndt-reports/${hash}`));
       expect(got.status).toBe(200);
       expect(got.headers['content-type']).toBe('application/pdf');
       expect(sha(got.body as Buffer)).toBe(hash);

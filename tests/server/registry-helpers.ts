@@ -43,6 +43,9 @@ export function clientsOf(app: Express, tokens: Map<string, string>, keys: Map<s
       get: (path: string) => auth(request(app).get(path)),
       post,
       put: (path: string, body?: unknown) => auth(request(app).put(path)).send(body as object),
+      /** PUT of raw bytes (an upload by content), with the Content-Type given. */
+      putBytes: (path: string, bytes: Buffer, type = 'application/pdf') =>
+        auth(request(app).put(path).set('Content-Type', type)).send(bytes),
       patch: (path: string, body?: unknown) => auth(request(app).patch(path)).send(body as object),
       delete: (path: string) => auth(request(app).delete(path)),
       phoneKey,
