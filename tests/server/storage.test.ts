@@ -24,6 +24,7 @@ import { databaseFileName, openDb } from '@/server/db';
 import { startServer } from '@/server/main';
 import { repoRoot } from '@/server/paths';
 import { findNdtReport, ndtReportKeyOf, storeNdtReport } from '@/server/pivot-life/ndt-report-store';
+import { documentKeyOf } from '@/server/documents/store';
 import { demoPassword, seedDemoData } from '@/server/seed/demo';
 import {
   diskStorage,
@@ -374,8 +375,10 @@ describe('storage:move', () => {
     }
     const pdf = Buffer.from('%PDF-1.4\n% invented\n%%EOF\n');
     await disk.put(ndtReportKeyOf(sha256(pdf)), pdf);
+    const manual = Buffer.from('%PDF-1.7\n% invented manual\n%%EOF\n');
+    await disk.put(documentKeyOf(sha256(manual)), manual);
     await disk.put('cache/notice-pdfs/n1.A4.0123.pdf', Buffer.from('%PDF-1.7 cached'));
-    keys.push(ndtReportKeyOf(sha256(pdf)), 'cache/notice-pdfs/n1.A4.0123.pdf');
+    keys.push(ndtReportKeyOf(sha256(pdf)), documentKeyOf(sha256(manual)), 'cache/notice-pdfs/n1.A4.0123.pdf');
     return { root, disk, keys };
   }
   /** Every file under a folder with its SHA-256, to show the source is left as it was. */
@@ -398,13 +401,14 @@ describe('storage:move', () => {
     expect(first.folders).toEqual({
       photos: { copied: 3, already: 0, vanished: 0 },
       'ndt-reports': { copied: 1, already: 0, vanished: 0 },
+      documents: { copied: 1, already: 0, vanished: 0 },
       'cache/notice-pdfs': { copied: 1, already: 0, vanished: 0 },
     });
     expect(snapshot(root)).toEqual(before);
     // Run again: nothing to copy.
     const again = await moveStorage(disk, bucket);
-    expect(Object.values(again.folders).map((c) => c.copied)).toEqual([0, 0, 0]);
-    expect(Object.values(again.folders).map((c) => c.already)).toEqual([3, 1, 1]);
+    expect(Object.values(again.folders).map((c) => c.copied)).toEqual([0, 0, 0, 0]);
+    expect(Object.values(again.folders).map((c) => c.already)).toEqual([3, 1, 1, 1]);
 
     const back = diskStorage(tempDir());
     expect((await moveStorage(bucket, back)).problems).toEqual([]);
