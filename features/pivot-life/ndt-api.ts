@@ -1,7 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import { apiFetch } from '@/features/api';
-import { uploadPdf } from '@/features/documents';
+import { uploadPdf } from '@/features/documents/ui';
 import { pivotLifeKeys } from '@/features/pivot-life/api';
 import { ndtRecordCreatedSchema, rideNdtSchema, type NdtRecordInput } from '@/features/pivot-life/ndt-schema';
 import { ApiRequestError } from '@/lib/api-errors';

@@ -17,7 +17,8 @@ import { TextField } from '@/components/text-field';
 import { colors, space } from '@/components/theme';
 import { useWide } from '@/components/use-wide';
 import { downloadPdf } from '@/features/api/ui';
-import { megabytes, pickPdf } from '@/features/documents';
+import { megabytes } from '@/features/documents';
+import { pickPdf } from '@/features/documents/ui';
 import { RoleGate } from '@/features/auth/ui';
 import { ndtMethods, type NdtMethod } from '@/features/loads/design-schema';
 import {

@@ -65,7 +65,8 @@ test('an over-limit clearance in the checklist: status at entry, reason to pass,
     .getByRole('textbox', { name: 'Reason for passing a value over its limit' })
     .fill('Bushings replaced after this reading; new play measured at 0.12 mm.');
   await phone.getByRole('button', { name: 'Pass with this reason' }).click();
-  expect(await phone.getByRole('radio', { name: `Pass: ${ITEM}` }).getAttribute('aria-checked')).toBe('true');
+  // The choice is made once the reason is taken: wait for it rather than read it at once.
+  await phone.getByRole('radio', { name: `Pass: ${ITEM}`, checked: true }).waitFor();
 
   // Entered once: the value becomes the pivot's reading when its method is said.
   await phone.getByRole('radio', { name: 'Dial indicator' }).first().click();
