@@ -8,7 +8,7 @@ import { filterWords } from '@/features/logbook/filter-words';
 import type { LogbookFilter } from '@/features/logbook/schema';
 import { CAUTION_FULL } from '@/lib/caution-text';
 import { colors as C } from '@/lib/colors';
-import { formatDateTime, formatWhen, zoneLabel } from '@/lib/dates';
+import { formatDateTime, formatWhen } from '@/lib/dates';
 import type { LogbookRead } from '@/server/logbook/logbook';
 import { startPdf } from '@/server/pdf/document';
 import {
@@ -64,7 +64,7 @@ function titleBlock(l: Layout, r: LogbookPdfInput) {
   l.y += measure(l, sub, subStyle, l.width) + 6;
   for (const line of [
     `Entries: ${filterWords(r.filter)} — ${r.events.length} ${r.events.length === 1 ? 'entry' : 'entries'}, newest first.`,
-    `Times on the site’s clock, ${zoneLabel(r.printedAt, r.ride.timeZone)}.`,
+    `Times on the site’s clock (${r.ride.timeZone}).`,
     `Printed for ${r.printedFor}, ${formatWhen(r.printedAt, r.ride.timeZone)}.`,
   ]) {
     draw(l, line, S.body, l.left, l.y, l.width);
