@@ -228,7 +228,12 @@ function ExportCard({
           style={styles.start}
         />
         {csv.message ? (
-          <Text variant="small" role={csv.ok ? 'status' : 'alert'} color={csv.ok ? undefined : colors.danger}>
+          <Text
+            variant="small"
+            role={csv.ok ? 'status' : 'alert'}
+            color={csv.ok ? undefined : colors.danger}
+            style={styles.message}
+          >
             {csv.message}
           </Text>
         ) : null}
@@ -240,7 +245,8 @@ function ExportCard({
 const styles = StyleSheet.create({
   flex: { flex: 1, minWidth: 0 },
   start: { alignSelf: 'flex-start' },
-  downloads: { gap: space.sm },
+  downloads: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'flex-start', gap: space.sm },
+  message: { width: '100%' },
   zone: { paddingHorizontal: space.md, paddingTop: space.sm },
   list: {
     backgroundColor: colors.surface,

@@ -4,7 +4,7 @@
  * page a running header and "Page n of m".
  */
 import { logbookKindWords } from '@/features/logbook/schema';
-import { filterWords } from '@/features/logbook/filter-words';
+import { filterWords } from '@/features/logbook';
 import type { LogbookFilter } from '@/features/logbook/schema';
 import { CAUTION_FULL } from '@/lib/caution-text';
 import { colors as C } from '@/lib/colors';

@@ -10,7 +10,7 @@ import {
   type LogbookPage,
   type LogbookRide,
 } from '@/features/logbook/schema';
-import { mergeLogbook, pageOf } from '@/features/logbook/merge';
+import { mergeLogbook, pageOf } from '@/features/logbook';
 import type { SessionUser } from '@/features/session/schema';
 import { addDays, startOfDayInZone } from '@/lib/dates';
 import { companyScope } from '@/server/auth/scope';

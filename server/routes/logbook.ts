@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { eq } from 'drizzle-orm';
 
 import { companies, rides } from '@/db/server/schema';
-import { logbookToCsv } from '@/features/logbook/csv';
+import { logbookToCsv } from '@/features/logbook';
 import { LOGBOOK_PAGE_SIZE, logbookExportQuerySchema, logbookQuerySchema } from '@/features/logbook/schema';
 import { idParamsSchema } from '@/features/registry/schema';
 import { currentUser, requireAuth } from '@/server/auth/require-auth';
