@@ -36,11 +36,13 @@ export const logbookKindWords: Record<LogbookKind, { label: string; chip: string
   status: { label: 'Ride status', chip: 'Status' },
 };
 
+/** A site day; years far outside any ride's life are refused rather than turned into instants. */
 const day = () =>
   z
     .string()
     .trim()
-    .refine((v) => isRealIsoDay(v), { message: 'Must be a real date as YYYY-MM-DD, e.g. 2026-05-01' });
+    .refine((v) => isRealIsoDay(v), { message: 'Must be a real date as YYYY-MM-DD, e.g. 2026-05-01' })
+    .refine((v) => v >= '1900-01-01' && v <= '2999-12-31', { message: 'Must be between 1900 and 2999' });
 
 /** A page of the app an entry opens (an app path such as `/notices/…`). */
 export const logbookLinkSchema = z.object({ label: z.string(), href: z.string().startsWith('/') });

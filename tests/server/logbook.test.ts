@@ -278,6 +278,7 @@ describe('filters and paging', () => {
       ['?from=2026-02-30', 'from'],
       ['?from=2026-05-04&to=2026-05-01', 'to'],
       ['?page=0', 'page'],
+      ['?to=9999-12-31', 'to'],
       [`?q=${'x'.repeat(101)}`, 'q'],
     ];
     for (const [query, field] of cases) {
