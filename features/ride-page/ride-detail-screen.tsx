@@ -43,6 +43,7 @@ import {
   rideEditHref,
   rideImportHref,
   rideLogHref,
+  rideLogbookHref,
   rideNdtHref,
   rideScheduleHref,
   ridesHref,
@@ -117,6 +118,7 @@ function RideDetailBody({
         </View>
         <Field label="Site" value={ride.siteName ?? 'No site'} />
         <Field label="Operator" value={ride.operatorName} />
+        <LinkRow href={rideLogbookHref(ride.id)} label="Logbook: everything that happened" icon="list" />
         {editor ? <LinkRow href={auditHref(ride.id)} label="History of changes" icon="clock" /> : null}
       </Card>
       {staff && design ? (

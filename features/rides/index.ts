@@ -8,6 +8,7 @@ export {
   rideImportHref,
   rideDesignEditHref,
   rideLogHref,
+  rideLogbookHref,
   rideNdtHref,
   rideScheduleHref,
   rideStatusHref,

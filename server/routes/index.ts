@@ -16,6 +16,7 @@ import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
 import { lifeRouter } from '@/server/routes/life';
 import { loadsRouter } from '@/server/routes/loads';
+import { logbookRouter } from '@/server/routes/logbook';
 import { ndtRouter } from '@/server/routes/ndt';
 import { documentsRouter } from '@/server/routes/documents';
 import { noticesRouter } from '@/server/routes/notices';
@@ -53,6 +54,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(lifeRouter(deps));
+  router.use(logbookRouter(deps));
   router.use(platesRouter(deps));
   router.use(apiNotFound);
   return router;

@@ -98,6 +98,13 @@ const screens: Screen[] = [
     path: (f) => `/rides/${f.operatorRideId}/ndt`,
     roles: ['operator'],
   },
+  { name: 'Logbook', title: 'Logbook', path: (f) => `/rides/${f.rideId}/logbook`, roles: staff },
+  {
+    name: 'Logbook (operator)',
+    title: 'Logbook',
+    path: (f) => `/rides/${f.operatorRideId}/logbook`,
+    roles: ['operator'],
+  },
   { name: 'Companies', title: 'Companies', path: () => '/register/companies', roles: staff },
   { name: 'Company', title: 'Company', path: (f) => `/register/companies/${f.companyId}`, roles: staff },
   { name: 'New company', title: 'New company', path: () => '/register/companies/new', roles: admin },

@@ -1,5 +1,6 @@
 /** The rides and the register behind them (companies, sites, checklists, schedules, instruments, audit). */
 export { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
+export { LogbookScreen } from '@/features/logbook/ui';
 export { NdtScreen } from '@/features/pivot-life/ndt-screen';
 export { RunningLogScreen } from '@/features/pivot-life/running-log-screen';
 export { AuditScreen } from '@/features/registry/audit-screen';

@@ -1,0 +1,166 @@
+/**
+ * The ride's own records: NDT at its pivots (the operator reads these too), design data versions (made,
+ * proposed, approved, rejected; staff only, as design data is) and its operating status changes (the
+ * operator is sent each one as a notice).
+ */
+import { and, eq, or } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/sqlite-core';
+
+import { ndtRecords } from '@/db/server/ndt';
+import { rideStatusChanges } from '@/db/server/review';
+import { designVersions, users } from '@/db/server/schema';
+import { NDT_METHOD_WORDS } from '@/features/loads/design-schema';
+import type { LogbookEvent } from '@/features/logbook/schema';
+import { ndtResultInfo } from '@/features/pivot-life/ndt-schema';
+import { formatDate } from '@/lib/dates';
+import { rideStatusVocabulary } from '@/lib/vocabulary';
+import {
+  everyone,
+  inRange,
+  lines,
+  staffOnly,
+  when,
+  type LogbookSource,
+  type SourceQuery,
+} from '@/server/logbook/source';
+
+const originWords: Record<string, string> = {
+  editor: 'edited field by field',
+  import_csv: 'imported from a CSV file',
+  import_json: 'imported from a JSON file',
+  seed: 'the demo data',
+};
+
+const ridePath = (id: string) => `/rides/${encodeURIComponent(id)}`;
+const inside = (q: SourceQuery, at: string) =>
+  (!q.fromAt || at >= q.fromAt) && (!q.beforeAt || at < q.beforeAt);
+
+export const ndtSource: LogbookSource = {
+  kind: 'ndt',
+  shownTo: everyone,
+  read: (db, q) =>
+    db
+      .select({ r: ndtRecords, who: users.name })
+      .from(ndtRecords)
+      .leftJoin(users, eq(users.id, ndtRecords.createdBy))
+      .where(and(eq(ndtRecords.rideId, q.rideId), inRange(ndtRecords.createdAt, q)))
+      .all()
+      .map(({ r, who }): LogbookEvent => ({
+        id: `ndt:${r.id}`,
+        rideId: q.rideId,
+        ...when(r.createdAt, q.zone),
+        kind: 'ndt',
+        title: `${r.method} (${NDT_METHOD_WORDS[r.method]}) at pivot ${r.joint + 1}: ${ndtResultInfo[r.result].label}`,
+        detail: lines(
+          `Tested ${formatDate(r.testedOn)} by ${r.technician}, EN ISO 9712 level ${r.level}`,
+          r.note,
+          who ? `Recorded by ${who}` : null,
+        ),
+        who: r.technician,
+        link: { label: 'Open the NDT records', href: `${ridePath(q.rideId)}/ndt` },
+        documents: r.reportSha256
+          ? [
+              {
+                label: 'NDT report (PDF)',
+                apiPath: `/api/ndt-reports/${r.reportSha256}`,
+                fileName: `ndt-report-${r.testedOn}-${r.method}.pdf`,
+              },
+            ]
+          : [],
+      })),
+};
+
+const maker = alias(users, 'logbook_design_maker');
+const decider = alias(users, 'logbook_design_decider');
+
+export const designSource: LogbookSource = {
+  kind: 'design',
+  shownTo: staffOnly,
+  read: (db, q) => {
+    const rows = db
+      .select({
+        id: designVersions.id,
+        version: designVersions.version,
+        reason: designVersions.reason,
+        origin: designVersions.origin,
+        createdAt: designVersions.createdAt,
+        state: designVersions.approvalState,
+        decidedAt: designVersions.decidedAt,
+        decisionReason: designVersions.decisionReason,
+        makerName: maker.name,
+        deciderName: decider.name,
+      })
+      .from(designVersions)
+      .leftJoin(maker, eq(maker.id, designVersions.createdBy))
+      .leftJoin(decider, eq(decider.id, designVersions.decidedBy))
+      .where(
+        and(
+          eq(designVersions.rideId, q.rideId),
+          or(inRange(designVersions.createdAt, q), inRange(designVersions.decidedAt, q)),
+        ),
+      )
+      .all();
+    const out: LogbookEvent[] = [];
+    for (const r of rows) {
+      const link = { label: 'Open the version', href: `${ridePath(q.rideId)}/versions/${r.version}` };
+      // A version that waited for a second person was proposed; any other came into force as it was made.
+      const proposed = r.state === 'pending' || r.decidedAt !== null;
+      const made = when(r.createdAt, q.zone);
+      if (inside(q, made.at))
+        out.push({
+          id: `design:${r.id}`,
+          rideId: q.rideId,
+          ...made,
+          kind: 'design',
+          title: proposed
+            ? `Design data version ${r.version} proposed (it loosens a limit)`
+            : `Design data version ${r.version} made`,
+          detail: lines(`Reason: ${r.reason}`, `How: ${originWords[r.origin] ?? r.origin}`),
+          who: r.makerName,
+          link,
+          documents: [],
+        });
+      if (r.decidedAt && inside(q, when(r.decidedAt, q.zone).at))
+        out.push({
+          id: `design-decision:${r.id}`,
+          rideId: q.rideId,
+          ...when(r.decidedAt, q.zone),
+          kind: 'design',
+          title: `Design data version ${r.version} ${r.state === 'rejected' ? 'rejected' : 'approved'}`,
+          detail: lines(r.decisionReason ? `Reason: ${r.decisionReason}` : null),
+          who: r.deciderName,
+          link,
+          documents: [],
+        });
+    }
+    return out;
+  },
+};
+
+export const statusSource: LogbookSource = {
+  kind: 'status',
+  shownTo: everyone,
+  read: (db, q) =>
+    db
+      .select({ c: rideStatusChanges, who: users.name })
+      .from(rideStatusChanges)
+      .leftJoin(users, eq(users.id, rideStatusChanges.byUser))
+      .where(and(eq(rideStatusChanges.rideId, q.rideId), inRange(rideStatusChanges.at, q)))
+      .all()
+      .map(({ c, who }): LogbookEvent => ({
+        id: `status:${c.id}`,
+        rideId: q.rideId,
+        ...when(c.at, q.zone),
+        kind: 'status',
+        title:
+          c.fromStatus === c.toStatus
+            ? `Status stays ${rideStatusVocabulary[c.toStatus].label}`
+            : `Status: ${rideStatusVocabulary[c.fromStatus].label} → ${rideStatusVocabulary[c.toStatus].label}`,
+        detail: lines(c.reason ? `Reason: ${c.reason}` : null, c.override ? 'A supervisor’s override' : null),
+        who,
+        link: c.noticeId
+          ? { label: 'Open the notice', href: `/notices/${encodeURIComponent(c.noticeId)}` }
+          : { label: 'Open the ride', href: ridePath(q.rideId) },
+        documents: [],
+      })),
+};
