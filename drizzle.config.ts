@@ -13,6 +13,7 @@ export default defineConfig({
     './db/server/ndt.ts',
     './db/server/accounts.ts',
     './db/server/ledger.ts',
+    './db/server/incidents.ts',
   ],
   out: './drizzle/server',
 });

@@ -291,7 +291,16 @@ describe('the queue, desktop', () => {
     queueAnswer = () => ({
       items: [],
       total: 0,
-      counts: { over: 0, failed: 0, near: 0, overdue: 0, past_due: 0, awaiting: 0 },
+      counts: {
+        incident_serious: 0,
+        over: 0,
+        failed: 0,
+        near: 0,
+        incident: 0,
+        overdue: 0,
+        past_due: 0,
+        awaiting: 0,
+      },
     });
     renderQueue();
     expect(await screen.findByText('The queue is clear.')).toBeTruthy();
