@@ -9,6 +9,8 @@ export {
   rideDesignEditHref,
   rideLogHref,
   rideNdtHref,
+  rideIncidentsHref,
+  rideIncidentNewHref,
   rideScheduleHref,
   rideStatusHref,
   rideVersionHref,

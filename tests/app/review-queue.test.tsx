@@ -82,7 +82,16 @@ const overdueRide: QueueItem = {
   findingsPastDue: 3,
 };
 
-const counts = { over: 1, failed: 0, near: 4, overdue: 1, past_due: 2, awaiting: 7 };
+const counts = {
+  incident_serious: 0,
+  over: 1,
+  failed: 0,
+  near: 4,
+  overdue: 1,
+  past_due: 2,
+  awaiting: 7,
+  incident: 0,
+};
 
 type Answer = Partial<QueueResponse>;
 let queueAnswer: (url: URL) => Answer;
