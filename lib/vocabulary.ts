@@ -177,7 +177,8 @@ export const urgencyVocabulary: Record<Urgency, Marked & { description: string }
   incident_serious: {
     label: 'Incident: stop or injury',
     description: 'An operator reported an incident that took the ride out of service or hurt someone.',
-    mark: { icon: 'octagon', fg: 'baseText', bg: 'over', solid: true },
+    // Not solid: the queue's tiles write the count in the mark's word colour.
+    mark: { icon: 'octagon', fg: 'over', bg: 'overSoft' },
   },
   over: {
     label: 'Over limit',
