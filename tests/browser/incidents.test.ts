@@ -113,4 +113,21 @@ test('an operator reports an incident that stops the ride; the supervisor review
   expect(reviewed.incidents[0].reviewNote).toMatch(/^Footrest replaced/);
   // Reviewing a report is not a return to service.
   expect(reviewed.rideStatus).toBe('out_of_service');
+
+  // The ride's page lists its latest reports; the form at a desk is one readable column.
+  await phone.goto(`${app.baseUrl}/rides/${rideId}`);
+  const card = phone.getByLabel('Incident reports', { exact: true });
+  await card
+    .getByRole('link', { name: /^Injury or damage, .*: Gondola B footrest cracked at the hinge$/ })
+    .waitFor();
+  await card.getByText('Reviewed').waitFor();
+  await card.scrollIntoViewIfNeeded();
+  await screenshot(phone, 'incident-ride-page-phone');
+  const operatorDesk = await app.signedIn('desktop', 'operator@pivotwatch.test');
+  await operatorDesk.goto(`${app.baseUrl}/rides/${rideId}/incidents/new`);
+  await operatorDesk.getByRole('radiogroup', { name: 'What happened?' }).waitFor({ timeout: 60_000 });
+  // Already out of service: the form offers no stop, and says why.
+  await operatorDesk.getByText(/The ride is out of service already/).waitFor();
+  expect(await operatorDesk.getByRole('checkbox', { name: /Stop the ride/ }).count()).toBe(0);
+  await screenshot(operatorDesk, 'incident-form-desktop');
 });
