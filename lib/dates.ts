@@ -122,6 +122,24 @@ export function startOfDayInZone(day: string, zone: string): Date {
   return new Date(dayInZone(second, zone) === day ? second : first);
 }
 
+/** An instant as a wall-clock stamp on the zone's clock, "YYYY-MM-DDTHH:MM" (what a person types). */
+export const localStampInZone = (at: Date | string | number, zone: string) =>
+  format(new Date(at), "yyyy-MM-dd'T'HH:mm", { in: tz(zone) });
+
+/**
+ * The instant a wall-clock stamp ("YYYY-MM-DDTHH:MM") names on the zone's clock. A time that a
+ * daylight-saving change skips is taken at the offset before the change; a repeated hour, its first time.
+ */
+export function instantOfLocalStamp(stamp: string, zone: string): Date {
+  const [day, time] = stamp.split('T');
+  const [y, m, d] = day.split('-').map(Number);
+  const [hh, mm] = time.split(':').map(Number);
+  const asUtc = Date.UTC(y, m - 1, d, hh, mm);
+  const first = asUtc - tzOffset(zone, new Date(asUtc)) * 60_000;
+  const second = asUtc - tzOffset(zone, new Date(first)) * 60_000;
+  return new Date(localStampInZone(second, zone) === stamp ? second : first);
+}
+
 /** The zone's offset from UTC at an instant, as "UTC+13:00" / "UTC−08:00" (a true minus sign). */
 export function zoneOffsetLabel(at: Date | string | number, zone: string): string {
   const minutes = tzOffset(zone, new Date(at));

@@ -152,16 +152,34 @@ export const cycleWarningLevelVocabulary: Record<CycleWarningLevel, Marked> = {
 /**
  * An item's urgency is the first of these that applies to it; the queue sorts by this order. No two share
  * a shape; the two that mirror a load-check status keep that status's shape and colours.
+ * - `incident_serious`: an operator's incident report, not yet reviewed, that stopped the ride or says
+ *   someone was hurt
  * - `over`: the server's load check put a value over its limit
  * - `failed`: checklist items marked failed
  * - `near`: a value near its limit, or a pin's wear projected to reach its limit before the next inspection
+ * - `incident`: any other incident report (damage, a near miss, an unplanned stop) not yet reviewed
  * - `overdue`: the ride has an inspection, or a planned NDT, past its due date
  * - `past_due`: the ride has findings still open after their due date
  * - `awaiting`: a submitted inspection with nothing flagged, waiting for sign-off
  */
-export const urgencies = ['over', 'failed', 'near', 'overdue', 'past_due', 'awaiting'] as const;
+export const urgencies = [
+  'incident_serious',
+  'over',
+  'failed',
+  'near',
+  'incident',
+  'overdue',
+  'past_due',
+  'awaiting',
+] as const;
 export type Urgency = (typeof urgencies)[number];
 export const urgencyVocabulary: Record<Urgency, Marked & { description: string }> = {
+  incident_serious: {
+    label: 'Incident: stop or injury',
+    description: 'An operator reported an incident that took the ride out of service or hurt someone.',
+    // Not solid: the queue's tiles write the count in the mark's word colour.
+    mark: { icon: 'octagon', fg: 'over', bg: 'overSoft' },
+  },
   over: {
     label: 'Over limit',
     description: 'A computed or measured value is over its design limit.',
@@ -176,6 +194,11 @@ export const urgencyVocabulary: Record<Urgency, Marked & { description: string }
     label: 'Near limit',
     description: 'A value is near its design limit, or wear may reach its limit before the next inspection.',
     mark: nearMark,
+  },
+  incident: {
+    label: 'Incident reported',
+    description: 'An operator reported damage, a near miss or an unplanned stop, not yet reviewed.',
+    mark: { icon: 'square-exclaim', fg: 'accent', bg: 'accentSoft' },
   },
   overdue: {
     label: 'Overdue',
@@ -249,6 +272,28 @@ export const findingStateVocabulary: Record<FindingState, Marked & { documentLab
     label: 'Closed',
     documentLabel: 'Closed',
     mark: { icon: 'tick', fg: 'within', bg: 'withinSoft' },
+  },
+};
+
+// ——— incidents ———
+
+/**
+ * What an operator reports about something that happened on a ride, most serious first: `harm` someone
+ * hurt or something damaged, `near_miss` nothing hurt or broken but it could have been, `unplanned_stop`
+ * the ride stopped when nobody meant it to (a fault, a sensor, a drive trip). Whether a person was hurt is
+ * its own yes/no on the report, whatever the kind.
+ */
+export const incidentKinds = ['harm', 'near_miss', 'unplanned_stop'] as const;
+export type IncidentKind = (typeof incidentKinds)[number];
+export const incidentKindVocabulary: Record<IncidentKind, Words & { description: string }> = {
+  harm: { label: 'Injury or damage', description: 'Someone was hurt, or part of the ride was damaged.' },
+  near_miss: {
+    label: 'Near miss',
+    description: 'Nobody was hurt and nothing broke, but it could have happened.',
+  },
+  unplanned_stop: {
+    label: 'Unplanned stop',
+    description: 'The ride stopped when nobody meant it to: a fault, a sensor, a drive trip.',
   },
 };
 

@@ -9,6 +9,7 @@ import {
   envelopeStatuses,
   findingSeverities,
   findingStates,
+  incidentKinds,
   inspectionTypes,
   rideClasses,
   rideStatuses,
@@ -125,7 +126,7 @@ export const reviewQueue = sqliteTable(
   'review_queue',
   {
     key: text('key').primaryKey(),
-    kind: text('kind', { enum: ['inspection', 'ride'] }).notNull(),
+    kind: text('kind', { enum: ['inspection', 'ride', 'incident'] }).notNull(),
     inspectionId: text('inspection_id'),
     inspectionType: text('inspection_type', { enum: inspectionTypes }),
     rideId: text('ride_id').notNull(),
@@ -155,6 +156,9 @@ export const reviewQueue = sqliteTable(
     wearLimitOn: text('wear_limit_on'),
     /** The earlier inspection date suggested for it. */
     wearSuggestedOn: text('wear_suggested_on'),
+    /** An operator's incident report awaiting review (kind `incident`): its id and kind. */
+    incidentId: text('incident_id'),
+    incidentKind: text('incident_kind', { enum: incidentKinds }),
     /** Lower-cased ride, serial, site, operator and inspector names, for the free-text search. */
     search: text('search').notNull(),
   },

@@ -22,7 +22,7 @@ import {
 import { fetchNotice, useNoticeList, FindingStateMark, SeverityMark } from '@/features/notices/ui';
 import type { NoticeFinding, NoticeListItem } from '@/features/notices/schema';
 import { formatDate } from '@/lib/dates';
-import { useRidesQuery } from '@/features/rides';
+import { rideIncidentNewHref, useRidesQuery } from '@/features/rides';
 import { RideGrid } from '@/features/rides/ui';
 import { useFirstScreenSettled } from '@/components/first-screen';
 
@@ -232,6 +232,26 @@ function OperatorRides() {
           </StatRow>
           <SectionTitle>Rides and their status</SectionTitle>
           <RideGrid rides={list} showOperator={false} />
+          <SectionTitle>Report an incident</SectionTitle>
+          <Text variant="small" muted>
+            Someone hurt or something damaged, a near miss, or an unplanned stop: report it on the ride, with
+            photos. You may take the ride out of service with the report.
+          </Text>
+          <View style={styles.list} role="list" accessibilityLabel="Report an incident on a ride">
+            {list.map((r) => (
+              <View key={r.id} role="listitem">
+                <Link href={rideIncidentNewHref(r.id)} asChild>
+                  <Pressable role="link" style={styles.reportLink}>
+                    <Feather name="alert-triangle" size={18} color={colors.accent} />
+                    <Text variant="heading" color={colors.accent} style={styles.rowText}>
+                      {`Report an incident on ${r.name}`}
+                    </Text>
+                    <Feather name="chevron-right" size={18} color={colors.accent} />
+                  </Pressable>
+                </Link>
+              </View>
+            ))}
+          </View>
         </>
       )}
     </QueryState>
@@ -260,4 +280,15 @@ const styles = StyleSheet.create({
   dueWide: { width: 128, gap: 2 },
   allClear: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
   inlineLink: { minHeight: layout.touchTarget, justifyContent: 'center' },
+  reportLink: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    minHeight: layout.touchTarget,
+    paddingHorizontal: space.md,
+    backgroundColor: colors.surface,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.border,
+  },
 });

@@ -20,7 +20,7 @@ import { FindingFormFrame } from '@/features/notices/finding-form-frame';
 /** The schema's own limit on photos per action. */
 const MAX_PHOTOS = 12;
 
-type Picked = {
+export type Picked = {
   sha256: string;
   mime: string;
   base64: string;
@@ -149,7 +149,7 @@ export function CorrectiveActionForm({
  * The evidence photos of one action: each is taken or chosen, compressed on the device, hashed (SHA-256)
  * and its upload started at once; the form's send waits for every upload.
  */
-function useEvidencePhotos(setProblem: (problem: FormProblem | null) => void) {
+export function useEvidencePhotos(setProblem: (problem: FormProblem | null) => void) {
   const [photos, setPhotos] = useState<Picked[]>([]);
   const [picking, setPicking] = useState(false);
   const uploads = useRef(new Map<string, Promise<void>>());
@@ -211,7 +211,7 @@ function useEvidencePhotos(setProblem: (problem: FormProblem | null) => void) {
 }
 
 /** Buttons to add evidence photos, and each photo with its upload state, a retry and a remove. */
-function EvidencePhotos({
+export function EvidencePhotos({
   photos,
   picking,
   sending,
@@ -247,7 +247,7 @@ function EvidencePhotos({
       </View>
       {full ? (
         <Text variant="small" muted>
-          At most {MAX_PHOTOS} photos per corrective action.
+          At most {MAX_PHOTOS} photos.
         </Text>
       ) : null}
       {photos.length > 0 ? (

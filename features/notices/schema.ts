@@ -232,7 +232,7 @@ export const noticeResponseSchema = z.object({ notice: noticeDetailSchema });
 
 const photoSha = z.string().regex(/^[0-9a-f]{64}$/, 'Must be a photo reference (64 hex digits)');
 /** Evidence photos, uploaded beforehand and named by their SHA-256: at most 12, each counted once. */
-const evidencePhotos = z
+export const evidencePhotos = z
   .array(photoSha)
   .max(12, 'At most 12 photos')
   .default([])

@@ -3,3 +3,5 @@ export { FindingStateMark } from '@/features/notices/finding-state-mark';
 export { fetchNotice, useNoticeList } from '@/features/notices/notices-api';
 export { IssuedNoticeRow, NoticeRow } from '@/features/notices/ride-notices';
 export { SeverityMark } from '@/features/notices/severity-mark';
+export { EvidencePhotos, problemText, useEvidencePhotos } from '@/features/notices/corrective-action-form';
+export { NoticePhotos } from '@/features/notices/notice-photos';

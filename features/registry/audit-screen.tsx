@@ -51,6 +51,7 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   instrument: 'Instrument',
   setting: 'Setting',
   user: 'Person',
+  incident: 'Incident report',
 };
 
 const actionSpec: Record<

@@ -529,7 +529,11 @@ function QueueCard({ item, highlighted }: { item: QueueItem; highlighted: boolea
           ) : null}
           <View style={styles.open}>
             <Text variant="label" color={colors.accent}>
-              {item.kind === 'inspection' ? 'Review inspection' : 'Open ride'}
+              {item.kind === 'inspection'
+                ? 'Review inspection'
+                : item.kind === 'incident'
+                  ? 'Open report'
+                  : 'Open ride'}
             </Text>
             <Feather name="chevron-right" size={16} color={colors.accent} />
           </View>

@@ -4,9 +4,14 @@ import { formatDate } from '@/lib/dates';
 import { type QueueItem, urgencyInfo } from '@/features/review/schema';
 import { reviewHref } from '@/features/review/hrefs';
 import { rideHref } from '@/features/rides';
+import { incidentHref, incidentKindVocabulary } from '@/features/incidents';
 
-/** An inspection opens on the review desk; a ride in the queue for its dates opens the ride's page. */
+/**
+ * An inspection opens on the review desk; an incident report opens the report; a ride in the queue for its
+ * dates opens the ride's page.
+ */
 export function queueItemHref(item: QueueItem) {
+  if (item.incidentId) return incidentHref(item.incidentId);
   // A ride flagged by a returned inspection opens that inspection.
   return item.inspectionId ? reviewHref(item.inspectionId) : rideHref(item.rideId);
 }
@@ -30,6 +35,10 @@ export function queueItemLifeFacts(item: QueueItem): string[] {
 
 /** What the item is: the inspection and who did it, or what is late on the ride. */
 export function queueItemWhat(item: QueueItem): string {
+  if (item.kind === 'incident') {
+    const kind = item.incidentKind ? incidentKindVocabulary[item.incidentKind].label : 'Incident';
+    return `${kind} reported by the operator${item.urgency === 'incident_serious' ? ': ride stopped or someone hurt' : ''}`;
+  }
   if (item.kind === 'inspection' && item.inspectionType) {
     const type = inspectionTypeLabel[item.inspectionType];
     const what = item.inspectorName ? `${type} inspection by ${item.inspectorName}` : `${type} inspection`;

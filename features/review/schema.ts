@@ -13,6 +13,7 @@ import { rideClasses, rideStatuses } from '@/features/rides/schema';
 import {
   findingSeverities,
   findingStates,
+  incidentKinds,
   urgencies,
   urgencyVocabulary,
   type FindingSeverity,
@@ -150,9 +151,9 @@ export const queueQuerySchema = pagingQuerySchema.extend({
 export type QueueQuery = z.output<typeof queueQuerySchema>;
 
 export const queueItemSchema = z.object({
-  /** `i:<inspection id>` or `r:<ride id>`. */
+  /** `i:<inspection id>`, `r:<ride id>` or `n:<incident report id>`. */
   key: z.string(),
-  kind: z.enum(['inspection', 'ride']),
+  kind: z.enum(['inspection', 'ride', 'incident']),
   inspectionId: z.string().nullable(),
   inspectionType: z.enum(inspectionTypes).nullable(),
   rideId: z.string(),
@@ -184,6 +185,9 @@ export const queueItemSchema = z.object({
   wearLimitOn: z.string().nullable().optional(),
   /** The earlier inspection date suggested for that wear; null without a wear flag. */
   wearSuggestedOn: z.string().nullable().optional(),
+  /** An operator's incident report awaiting review (kind `incident`): its id and kind. */
+  incidentId: z.string().nullable().optional(),
+  incidentKind: z.enum(incidentKinds).nullable().optional(),
 });
 export type QueueItem = z.infer<typeof queueItemSchema>;
 

@@ -38,10 +38,13 @@ import { InspectRideCard } from '@/features/inspections/ui';
 import { PivotLifeSection } from '@/features/pivot-life/ui';
 import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices';
 import { NoticeRow } from '@/features/notices/ui';
+import { IncidentRow, useRideIncidents } from '@/features/incidents/ui';
 import {
   rideDesignHref,
   rideEditHref,
   rideImportHref,
+  rideIncidentNewHref,
+  rideIncidentsHref,
   rideLogHref,
   rideLogbookHref,
   rideNdtHref,
@@ -107,6 +110,7 @@ function RideDetailBody({
       {/* The inspector's next step on this ride comes first: on a phone it is what they came for. */}
       {user.role === 'inspector' ? <InspectRideCard rideId={ride.id} /> : null}
       <StatusCard ride={ride} editor={editor} />
+      <IncidentsCard rideId={ride.id} operator={user.role === 'operator'} />
       <Card>
         <Text variant="heading">Ride</Text>
         <Field label="Class" value={rideClassLabel[ride.rideClass]} />
@@ -220,7 +224,7 @@ function LinkRow({
 }: {
   href: Href;
   label: string;
-  icon: 'layers' | 'upload' | 'edit-3' | 'calendar' | 'list' | 'clock';
+  icon: 'layers' | 'upload' | 'edit-3' | 'calendar' | 'list' | 'clock' | 'alert-triangle';
 }) {
   return (
     <Link href={href} asChild>
@@ -257,6 +261,42 @@ function ScheduleCard({ rideId, role }: { rideId: string; role: Role }) {
         rows(query.data).map((s) => <ScheduleLine key={s.id} schedule={s} />)
       )}
       {planner ? <LinkRow href={rideScheduleHref(rideId)} label="Plan and assign" icon="calendar" /> : null}
+    </Card>
+  );
+}
+
+/** Reports shown on the ride's page; the rest are on the ride's incident reports page. */
+const RECENT_INCIDENTS = 3;
+
+/**
+ * The ride's latest incident reports (its operator's), each leading to the report; the operator reports a
+ * new one from here.
+ */
+function IncidentsCard({ rideId, operator }: { rideId: string; operator: boolean }) {
+  const query = useRideIncidents(rideId);
+  const list = query.data?.incidents ?? [];
+  return (
+    <Card accessibilityLabel="Incident reports">
+      <Text variant="heading">Incident reports</Text>
+      {query.isPending ? (
+        <Spinner color={colors.base} />
+      ) : query.error || !query.data ? (
+        <Text muted>The incident reports could not be loaded.</Text>
+      ) : list.length === 0 ? (
+        <Text muted>No incidents reported on this ride.</Text>
+      ) : (
+        list.slice(0, RECENT_INCIDENTS).map((i) => <IncidentRow key={i.id} incident={i} />)
+      )}
+      {operator ? (
+        <LinkRow href={rideIncidentNewHref(rideId)} label="Report an incident" icon="alert-triangle" />
+      ) : null}
+      {list.length > 0 ? (
+        <LinkRow
+          href={rideIncidentsHref(rideId)}
+          label={`All incident reports (${list.length})`}
+          icon="list"
+        />
+      ) : null}
     </Card>
   );
 }

@@ -22,3 +22,5 @@ export const rideScheduleHref = (id: string) => `${ride(id)}/schedule` as const 
 export const rideLogHref = (id: string) => `${ride(id)}/log` as const satisfies Href;
 export const rideNdtHref = (id: string) => `${ride(id)}/ndt` as const satisfies Href;
 export const rideLogbookHref = (id: string) => `${ride(id)}/logbook` as const satisfies Href;
+export const rideIncidentsHref = (id: string) => `${ride(id)}/incidents` as const satisfies Href;
+export const rideIncidentNewHref = (id: string) => `${ride(id)}/incidents/new` as const satisfies Href;

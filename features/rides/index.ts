@@ -10,6 +10,8 @@ export {
   rideLogHref,
   rideLogbookHref,
   rideNdtHref,
+  rideIncidentsHref,
+  rideIncidentNewHref,
   rideScheduleHref,
   rideStatusHref,
   rideVersionHref,

@@ -17,6 +17,9 @@
  *   stopped ride books the follow-up inspection instead.
  * - Reopening a finding that forbids operation takes a running ride out of service, with the comment as
  *   the reason. Operators report corrective action; that changes no status.
+ * - An operator reporting an incident on their own ride may take it out of service with the report (the
+ *   incident is the reason); that asks the inspection body for the follow-up. An operator never restarts
+ *   a ride: it returns to service only by (a) or (b) above.
  */
 import type { Role } from '@/features/session/schema';
 import { roles } from '@/features/session/schema';
@@ -39,6 +42,8 @@ export const rideStatusEvents = [
   'blocking_finding_reopened',
   /** The operator's report of what was done about a finding. */
   'action_reported',
+  /** The operator stops their own ride with an incident report. */
+  'incident_stop',
 ] as const;
 export type RideStatusEvent = (typeof rideStatusEvents)[number];
 
@@ -85,6 +90,8 @@ const NOT_YOURS = {
   finding_closed: 'Findings are verified and closed by the inspection body (inspector or supervisor).',
   blocking_finding_reopened: 'Findings are reopened by the inspection body (inspector or supervisor).',
   action_reported: 'Corrective action is reported by the ride’s operator.',
+  incident_stop:
+    'Only the ride’s operator stops it with an incident report; the inspection body uses the status change.',
 } satisfies Record<RideStatusEvent, string>;
 
 /** One cell of the table, written out case by case so each rule can be read on its own. */
@@ -119,6 +126,10 @@ function rule(from: RideStatus, event: RideStatusEvent, role: Role): TransitionR
     case 'action_reported':
       if (role !== 'operator') return no(NOT_YOURS.action_reported);
       return yes(from, 'note');
+    case 'incident_stop':
+      if (role !== 'operator') return no(NOT_YOURS.incident_stop);
+      if (from === 'out_of_service') return no('The ride is already out of service.');
+      return yes('out_of_service', 'reason');
   }
 }
 

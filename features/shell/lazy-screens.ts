@@ -127,6 +127,9 @@ export const InstrumentRegisterScreen = lazyScreen(rides, 'InstrumentRegisterScr
 
 export const NoticeListScreen = lazyScreen(notices, 'NoticeListScreen');
 export const NoticeScreen = lazyScreen(notices, 'NoticeScreen');
+export const RideIncidentsScreen = lazyScreen(notices, 'RideIncidentsScreen');
+export const IncidentReportScreen = lazyScreen(notices, 'IncidentReportScreen');
+export const IncidentScreen = lazyScreen(notices, 'IncidentScreen');
 
 export const OperatorHome = lazyScreen(operator, 'OperatorHome');
 

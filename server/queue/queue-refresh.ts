@@ -3,8 +3,8 @@
  * more often than it changes, so its rows are computed on write, and reading a page is one indexed query.
  *
  * Call `refreshQueue(db, today, rideIds)` in the same transaction as any change to what decides a ride's
- * rows: an inspection arriving, analysed or decided; findings added, changed or closed; schedules; the
- * ride's name, class, status, site or operator. A rename of a site, company or person refreshes their
+ * rows: an inspection arriving, analysed or decided; findings added, changed or closed; schedules; an
+ * incident report made or reviewed; the ride's name, class, status, site or operator. A rename of a site, company or person refreshes their
  * rides. A change to some inspections alone may use the cheaper `refreshQueueInspections`. `ensureQueueFresh` rebuilds everything once per calendar day, since "overdue" and "past due"
  * change with the date alone.
  */
@@ -13,10 +13,12 @@ import { sql, type SQL } from 'drizzle-orm';
 import { SQLiteSyncDialect } from 'drizzle-orm/sqlite-core';
 
 import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
+import { incidents } from '@/db/server/incidents';
 import { inspections } from '@/db/server/inspections';
 import { rideLifeFlags } from '@/db/server/ndt';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
+import { urgencies, type Urgency } from '@/lib/vocabulary';
 import { nextDueSql, rideTodaySql, zoneDays } from '@/server/schedule-due';
 import { sqliteOf } from '@/server/sqlite-client';
 
@@ -36,6 +38,9 @@ let generation = 0;
  * recount), so readers may keep figures derived from the queue for as long as it stays the same.
  */
 export const queueGeneration = (): number => generation;
+
+/** An urgency as the number the queue stores and sorts by (its place in `urgencies`). */
+const U = (u: Urgency) => sql.raw(String(urgencies.indexOf(u)));
 
 /** Where the statements take each zone's day (`zoneDays`' JSON) and the rides' ids (a JSON array), bound at run time. */
 const TODAY = sql.raw('@today');
@@ -131,19 +136,19 @@ const inspectionRows: SQL = sql`
       'i:' || i.id, 'inspection', i.id, i.type, r.id, r.name, r.ride_class, r.status, r.site_id,
       s.name, r.operator_company_id, c.name, i.inspector_id, u.name,
       CASE
-        WHEN i.analysis_status = 'over' THEN 0
-        WHEN i.failed_items > 0 THEN 1
-        WHEN i.analysis_status = 'near' OR lf.wear_suggested_on IS NOT NULL THEN 2
-        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN 3
-        WHEN p.n > 0 THEN 4
-        ELSE 5
+        WHEN i.analysis_status = 'over' THEN ${U('over')}
+        WHEN i.failed_items > 0 THEN ${U('failed')}
+        WHEN i.analysis_status = 'near' OR lf.wear_suggested_on IS NOT NULL THEN ${U('near')}
+        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN ${U('overdue')}
+        WHEN p.n > 0 THEN ${U('past_due')}
+        ELSE ${U('awaiting')}
       END,
       -- Phones may send a local offset; in UTC every item's date sorts and compares as text.
       ${inspectionAt},
       i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
       lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name),
-      ${siteDay(inspectionAt)}
+      ${siteDay(inspectionAt)}, NULL, NULL
     FROM pending i
       JOIN ${rides} r ON r.id = i.ride_id
       JOIN ${companies} c ON c.id = r.operator_company_id
@@ -174,18 +179,18 @@ function rideRows(onlyRides: OnlyRides): SQL {
       'r:' || r.id, 'ride', al.inspection_id, al.type, r.id, r.name, r.ride_class, r.status, r.site_id,
       s.name, r.operator_company_id, c.name, al.inspector_id, au.name,
       CASE
-        WHEN al.analysis_status = 'over' THEN 0
-        WHEN al.failed_items > 0 THEN 1
-        WHEN lf.wear_suggested_on IS NOT NULL THEN 2
-        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN 3
-        ELSE 4
+        WHEN al.analysis_status = 'over' THEN ${U('over')}
+        WHEN al.failed_items > 0 THEN ${U('failed')}
+        WHEN lf.wear_suggested_on IS NOT NULL THEN ${U('near')}
+        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN ${U('overdue')}
+        ELSE ${U('past_due')}
       END,
       ${rideAt},
       al.analysis_status, COALESCE(al.failed_items, 0), d.overdue_since, COALESCE(p.n, 0),
       lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name ||
         COALESCE(' ' || au.name, '')),
-      ${siteDay(rideAt)}
+      ${siteDay(rideAt)}, NULL, NULL
     FROM ${rides} r
       JOIN ${companies} c ON c.id = r.operator_company_id
       LEFT JOIN ${sites} s ON s.id = r.site_id
@@ -206,6 +211,30 @@ function rideRows(onlyRides: OnlyRides): SQL {
         )
       )
       AND ${onlyRides(sql`r.id`)}`;
+}
+
+const incidentAt = sql`n.occurred_at`;
+
+/**
+ * One row per incident report not yet reviewed (server/incidents): at the top of the queue when it took
+ * the ride out of service or someone was hurt, else after the values near their limits. Its date is when
+ * it happened; the inspector's columns stay empty (the reporter is in the search text).
+ */
+function incidentRows(onlyRides: OnlyRides): SQL {
+  return sql`
+    SELECT
+      'n:' || n.id, 'incident', NULL, NULL, r.id, r.name, r.ride_class, r.status, r.site_id,
+      s.name, r.operator_company_id, c.name, NULL, NULL,
+      CASE WHEN n.stopped_ride = 1 OR n.anyone_hurt = 1 THEN ${U('incident_serious')} ELSE ${U('incident')} END,
+      ${incidentAt}, NULL, 0, NULL, 0, NULL, NULL, NULL,
+      lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name),
+      ${siteDay(incidentAt)}, n.id, n.kind
+    FROM ${incidents} n
+      JOIN ${rides} r ON r.id = n.ride_id
+      JOIN ${companies} c ON c.id = r.operator_company_id
+      JOIN ${users} u ON u.id = n.reported_by
+      LEFT JOIN ${sites} s ON s.id = r.site_id
+    WHERE n.reviewed_at IS NULL AND ${onlyRides(sql`n.ride_id`)}`;
 }
 
 /** The two statements of a refresh of `scope`: delete the rows it covers, insert them afresh. */
@@ -242,6 +271,8 @@ function refreshStatements(scope: Scope): SQL[] {
               WHERE ${inIds(sql`x.id`)} AND x.amends_id IS NOT NULL
             UNION ALL SELECT 'r:' || x.ride_id FROM ${inspections} x WHERE ${inIds(sql`x.id`)}
           )`;
+  // A refresh of some inspections leaves the rides' incident rows alone (it does not delete them either).
+  const incidentRides: OnlyRides = scope === 'inspections' ? () => sql`0` : onlyRides;
   return [
     sql`DELETE FROM ${reviewQueue} WHERE ${covered}`,
     sql`
@@ -251,11 +282,13 @@ ${rideFacts(onlyRides, pendingScope)}
       key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
       site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
       failed_items, overdue_since, findings_past_due, ndt_due_on, wear_limit_on, wear_suggested_on, search,
-      day
+      day, incident_id, incident_kind
     )
 ${inspectionRows}
     UNION ALL
 ${rideRows(onlyRides)}
+    UNION ALL
+${incidentRows(incidentRides)}
   `,
   ];
 }

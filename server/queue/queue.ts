@@ -55,6 +55,8 @@ const itemFields = (
     'ndtDueOn',
     'wearLimitOn',
     'wearSuggestedOn',
+    'incidentId',
+    'incidentKind',
   ] as const satisfies readonly (keyof QueueItem)[]
 )
   .map((k) =>

@@ -11,6 +11,7 @@ import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
 import { devicesRouter } from '@/server/routes/devices';
 import { fatigueRouter } from '@/server/routes/fatigue';
+import { incidentsRouter } from '@/server/routes/incidents';
 import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
@@ -55,6 +56,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(lifeRouter(deps));
   router.use(logbookRouter(deps));
+  router.use(incidentsRouter(deps));
   router.use(platesRouter(deps));
   router.use(apiNotFound);
   return router;

@@ -195,7 +195,7 @@ test('the fixtures are in the API’s shapes', () => {
   expect(() => rideListResponseSchema.parse(rides)).not.toThrow();
 });
 
-test('notices awaiting acknowledgement come first, then open findings soonest due, then the rides', async () => {
+test('notices awaiting acknowledgement come first, then open findings soonest due, then the rides and the incident links', async () => {
   renderHome();
   const awaiting = holderOf(
     await screen.findByRole('link', { name: 'Notice PW-2026-0007, Skylark: awaiting your acknowledgement' }),
@@ -221,5 +221,9 @@ test('notices awaiting acknowledgement come first, then open findings soonest du
     'NOTICES AWAITING YOUR ACKNOWLEDGEMENT (1)',
     'OPEN FINDINGS (3)',
     'RIDES AND THEIR STATUS',
+    'REPORT AN INCIDENT',
   ]);
+  // Each ride has its link to the incident report form (features/rides/hrefs.ts).
+  const report = await screen.findByLabelText('Report an incident on a ride');
+  expect(within(report).getAllByRole('link').length).toBeGreaterThan(0);
 });

@@ -82,7 +82,16 @@ const overdueRide: QueueItem = {
   findingsPastDue: 3,
 };
 
-const counts = { over: 1, failed: 0, near: 4, overdue: 1, past_due: 2, awaiting: 7 };
+const counts = {
+  incident_serious: 0,
+  over: 1,
+  failed: 0,
+  near: 4,
+  overdue: 1,
+  past_due: 2,
+  awaiting: 7,
+  incident: 0,
+};
 
 type Answer = Partial<QueueResponse>;
 let queueAnswer: (url: URL) => Answer;
@@ -291,7 +300,16 @@ describe('the queue, desktop', () => {
     queueAnswer = () => ({
       items: [],
       total: 0,
-      counts: { over: 0, failed: 0, near: 0, overdue: 0, past_due: 0, awaiting: 0 },
+      counts: {
+        incident_serious: 0,
+        over: 0,
+        failed: 0,
+        near: 0,
+        incident: 0,
+        overdue: 0,
+        past_due: 0,
+        awaiting: 0,
+      },
     });
     renderQueue();
     expect(await screen.findByText('The queue is clear.')).toBeTruthy();

@@ -171,7 +171,16 @@ const item = (n: number, kind: QueueItem['kind']): QueueItem => ({
   findingsPastDue: 0,
 });
 const items = [item(1, 'inspection'), item(2, 'ride'), item(3, 'inspection')];
-const counts = { over: 0, failed: 0, near: 0, overdue: 1, past_due: 0, awaiting: 2 };
+const counts = {
+  incident_serious: 0,
+  incident: 0,
+  over: 0,
+  failed: 0,
+  near: 0,
+  overdue: 1,
+  past_due: 0,
+  awaiting: 2,
+};
 
 let client: ReturnType<typeof makeQueryClient> | null = null;
 beforeEach(() => {

@@ -66,6 +66,12 @@ const expected: Record<RideStatusEvent, Record<Role, [string, string, string]>> 
     operator: ['in_service+note', 'restricted+note', 'out_of_service+note'],
     admin: ['-', '-', '-'],
   },
+  incident_stop: {
+    inspector: ['-', '-', '-'],
+    supervisor: ['-', '-', '-'],
+    operator: [`out_of_service${R}`, `out_of_service${R}`, '-'],
+    admin: ['-', '-', '-'],
+  },
 };
 
 const cellText = (from: Status, event: RideStatusEvent, role: Role) => {
@@ -78,9 +84,9 @@ describe('the ride-status transition table', () => {
     rideStatusEvents.flatMap((event) => roles.map((role) => [from, event, role, i] as const)),
   );
 
-  it('has every cell of from × event × role (3 × 7 × 4)', () => {
+  it('has every cell of from × event × role (3 × 8 × 4)', () => {
     expect(cells).toHaveLength(rideStatuses.length * rideStatusEvents.length * roles.length);
-    expect(cells).toHaveLength(84);
+    expect(cells).toHaveLength(96);
   });
 
   it.each(cells)('from %s, %s by %s', (from, event, role, i) => {
@@ -98,6 +104,14 @@ describe('the ride-status transition table', () => {
             ? r.requires.includes('follow_up_inspection') && r.requires.includes('no_open_blocking_findings')
             : event === 'override' && role === 'supervisor' && r.requires.includes('reason'),
         ).toBe(true);
+    }
+  });
+
+  it('an operator may stop their ride with an incident report, and never set any status that eases it', () => {
+    for (const [from, event, role] of cells) {
+      const r = transitionTable[from][event][role];
+      if (role === 'operator' && r.allowed && r.to !== from)
+        expect([event, r.to]).toEqual(['incident_stop', 'out_of_service']);
     }
   });
 

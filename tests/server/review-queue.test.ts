@@ -259,7 +259,16 @@ describe('order and counts', () => {
       ['Quay Kite', 'past_due', 'ride'],
       ['Harrow Glider', 'awaiting', 'inspection'],
     ]);
-    expect(page.counts).toEqual({ over: 1, failed: 1, near: 1, overdue: 1, past_due: 1, awaiting: 1 });
+    expect(page.counts).toEqual({
+      incident_serious: 0,
+      incident: 0,
+      over: 1,
+      failed: 1,
+      near: 1,
+      overdue: 1,
+      past_due: 1,
+      awaiting: 1,
+    });
     expect(page.total).toBe(6);
 
     const [over, failed, , overdue, pastDue, awaiting] = page.items;
@@ -321,14 +330,32 @@ describe('order and counts', () => {
     const page = await queue('&urgency=over,awaiting');
     expect(names(page.items)).toEqual(['Quay Swinger', 'Harrow Glider']);
     expect(page.total).toBe(2);
-    expect(page.counts).toEqual({ over: 1, failed: 1, near: 1, overdue: 1, past_due: 1, awaiting: 1 });
+    expect(page.counts).toEqual({
+      incident_serious: 0,
+      incident: 0,
+      over: 1,
+      failed: 1,
+      near: 1,
+      overdue: 1,
+      past_due: 1,
+      awaiting: 1,
+    });
     const repeated = await queue('&urgency=near&urgency=near&urgency=failed');
     expect(names(repeated.items)).toEqual(['Harrow Flyer', 'Quay Wheel']);
   });
 
   test('counts narrow with the other filters', async () => {
     const page = await queue(`&siteId=${ids.quay}`);
-    expect(page.counts).toEqual({ over: 1, failed: 0, near: 1, overdue: 0, past_due: 0, awaiting: 0 });
+    expect(page.counts).toEqual({
+      incident_serious: 0,
+      incident: 0,
+      over: 1,
+      failed: 0,
+      near: 1,
+      overdue: 0,
+      past_due: 0,
+      awaiting: 0,
+    });
   });
 });
 

@@ -19,6 +19,7 @@ export const auditEntities = [
   'instrument',
   'setting',
   'user',
+  'incident',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;
