@@ -331,7 +331,13 @@ export const deliveryStatusVocabulary: Record<DeliveryStatus, Words> = {
  * What a PDF attached to a ride's design data is (the order is the one offered in forms). The words say
  * what the paper is to the engineer reading the design, not who wrote it.
  */
-export const designDocumentKinds = ['design_report', 'makers_manual', 'drawing', 'certificate', 'other'] as const;
+export const designDocumentKinds = [
+  'design_report',
+  'makers_manual',
+  'drawing',
+  'certificate',
+  'other',
+] as const;
 export type DesignDocumentKind = (typeof designDocumentKinds)[number];
 export const designDocumentKindVocabulary: Record<DesignDocumentKind, Words & { description: string }> = {
   design_report: {

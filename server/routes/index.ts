@@ -17,6 +17,7 @@ import { instrumentsRouter } from '@/server/routes/instruments';
 import { lifeRouter } from '@/server/routes/life';
 import { loadsRouter } from '@/server/routes/loads';
 import { ndtRouter } from '@/server/routes/ndt';
+import { partsRouter } from '@/server/routes/parts';
 import { documentsRouter } from '@/server/routes/documents';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
@@ -49,6 +50,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(loadsRouter(deps));
   router.use(ndtRouter(deps));
   router.use(documentsRouter(deps));
+  router.use(partsRouter(deps));
   router.use(fatigueRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
