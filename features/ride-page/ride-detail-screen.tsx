@@ -44,6 +44,7 @@ import {
   rideImportHref,
   rideLogHref,
   rideNdtHref,
+  ridePartsHref,
   rideScheduleHref,
   ridesHref,
   rideStatusHref,
@@ -99,6 +100,7 @@ function RideDetailBody({
   const lifeLinks = [
     { href: rideLogHref(ride.id), label: 'Running log' },
     { href: rideNdtHref(ride.id), label: 'NDT records' },
+    { href: ridePartsHref(ride.id), label: 'Parts and documents' },
   ];
 
   const info = (

@@ -21,3 +21,4 @@ export const rideDesignEditHref = (id: string) => `${ride(id)}/edit-design` as c
 export const rideScheduleHref = (id: string) => `${ride(id)}/schedule` as const satisfies Href;
 export const rideLogHref = (id: string) => `${ride(id)}/log` as const satisfies Href;
 export const rideNdtHref = (id: string) => `${ride(id)}/ndt` as const satisfies Href;
+export const ridePartsHref = (id: string) => `${ride(id)}/parts` as const satisfies Href;

@@ -9,6 +9,7 @@ export {
   rideDesignEditHref,
   rideLogHref,
   rideNdtHref,
+  ridePartsHref,
   rideScheduleHref,
   rideStatusHref,
   rideVersionHref,

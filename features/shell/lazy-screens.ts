@@ -110,6 +110,7 @@ export const DesignEditScreen = lazyScreen(rides, 'DesignEditScreen');
 export const DesignVersionScreen = lazyScreen(rides, 'DesignVersionScreen');
 export const RunningLogScreen = lazyScreen(rides, 'RunningLogScreen');
 export const NdtScreen = lazyScreen(rides, 'NdtScreen');
+export const PartsScreen = lazyScreen(rides, 'PartsScreen');
 export const AuditScreen = lazyScreen(rides, 'AuditScreen');
 export const ChecklistsListScreen = lazyScreen(rides, 'ChecklistsListScreen');
 export const ChecklistCreateScreen = lazyScreen(rides, 'ChecklistCreateScreen');

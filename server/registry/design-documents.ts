@@ -58,7 +58,7 @@ export function versionDocuments(db: Reader, designVersionId: string): DesignDoc
 const problem = (path: string, message: string) =>
   new HttpError(400, 'validation_failed', message, [{ path, message }]);
 
-type VersionRef = { id: string; version: number; approvalState: string };
+type VersionRef = { id: string; version: number; approvalState?: string };
 type Ride = { id: string; name: string };
 
 /**

@@ -1,6 +1,7 @@
 /** The rides and the register behind them (companies, sites, checklists, schedules, instruments, audit). */
 export { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
 export { NdtScreen } from '@/features/pivot-life/ndt-screen';
+export { PartsScreen } from '@/features/parts/parts-screen';
 export { RunningLogScreen } from '@/features/pivot-life/running-log-screen';
 export { AuditScreen } from '@/features/registry/audit-screen';
 export { ChecklistCreateScreen } from '@/features/registry/checklist-create-screen';
