@@ -166,15 +166,21 @@ function ReplacementRow({
         Recorded {formatDateTime(r.createdAt)}
         {r.createdByName ? ` by ${r.createdByName}` : ''}
       </Text>
-      <View style={styles.actions}>
-        {r.documents.map((d) => (
+      {r.documents.map((d) => (
+        <View key={d.sha256} style={styles.document}>
+          <Text variant="small" style={styles.documentTitle}>
+            {d.title}
+          </Text>
+          {/* A short label that fits a phone; the accessible name says which PDF. */}
           <Button
-            key={d.sha256}
             tone="quiet"
-            label={`${d.title} (PDF)`}
+            label="Open PDF"
+            accessibilityLabel={`${d.title} (PDF)`}
             onPress={() => open(d.sha256, d.title)}
           />
-        ))}
+        </View>
+      ))}
+      <View style={styles.actions}>
         <Button tone="quiet" label="Correct this record" onPress={onCorrect} />
       </View>
       {message ? (
@@ -453,5 +459,7 @@ const styles = StyleSheet.create({
   recordCorrected: { opacity: 0.75, borderLeftWidth: 3, borderLeftColor: colors.near, paddingLeft: space.sm },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
   files: { gap: space.xs },
+  document: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  documentTitle: { flex: 1 },
   file: { gap: space.xs, borderLeftWidth: 2, borderLeftColor: colors.border, paddingLeft: space.sm },
 });

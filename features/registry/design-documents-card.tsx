@@ -79,7 +79,8 @@ function DocumentRow({
         </Text>
       ) : null}
       <View style={styles.actions}>
-        <Button tone="quiet" label={`Open ${d.title}`} onPress={open} />
+        {/* A short label that fits a phone; the accessible name says which document. */}
+        <Button tone="quiet" label="Open PDF" accessibilityLabel={`Open ${d.title}`} onPress={open} />
         {onRemove && !confirming ? (
           <Button tone="quiet" label="Remove" onPress={() => setConfirming(true)} />
         ) : null}

@@ -139,6 +139,8 @@ export async function storeDemoParts(db: Db, storage: ObjectStorage, now: Date):
       maker: 'Orrin Ride Works',
       fittedOn: addDays(today, -120),
       fittedBy: 'Orrin Ride Works service team (Ansel Brightwater)',
+      replacedSerial: undefined,
+      note: undefined,
       documents: [],
     },
     inspector,
