@@ -11,6 +11,7 @@ import { and, eq } from 'drizzle-orm';
 import { designDocuments } from '@/db/server/parts';
 import { auditLog, users } from '@/db/server/schema';
 import type { DesignData } from '@/features/loads/design-schema';
+import { entryChanges } from '@/features/registry/audit-diff';
 import {
   designDocumentResponseSchema,
   versionDocumentsSchema,
@@ -105,6 +106,14 @@ describe('attaching and removing', () => {
       .get();
     expect(entry).toMatchObject({ entity: 'design', rideId });
     expect(entry?.summary).toContain('“Operation and maintenance manual” attached to design data version 1');
+    // The history of changes lists it in words, not stored keys.
+    expect(entryChanges('design', entry?.before, entry?.after, 'si')).toEqual(
+      expect.arrayContaining([
+        expect.objectContaining({ field: 'Document', before: null, after: 'Maker’s manual' }),
+        expect.objectContaining({ field: 'Title', after: 'Operation and maintenance manual' }),
+        expect.objectContaining({ field: 'Issued on', after: '2024-04-30' }),
+      ]),
+    );
 
     for (const as of [api.admin, api.supervisor, api.inspector])
       expect((await documentsOf(1, as)).documents.map((d) => d.id)).toEqual([manualId]);
