@@ -15,6 +15,7 @@ export default defineConfig({
     './db/server/ledger.ts',
     './db/server/documents.ts',
     './db/server/incidents.ts',
+    './db/server/parts.ts',
   ],
   out: './drizzle/server',
 });

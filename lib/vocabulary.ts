@@ -372,6 +372,35 @@ export const deliveryStatusVocabulary: Record<DeliveryStatus, Words> = {
   failed: { label: 'Failed' },
 };
 
+/**
+ * What a PDF attached to a ride's design data is (the order is the one offered in forms). The words say
+ * what the paper is to the engineer reading the design, not who wrote it.
+ */
+export const designDocumentKinds = [
+  'design_report',
+  'makers_manual',
+  'drawing',
+  'certificate',
+  'other',
+] as const;
+export type DesignDocumentKind = (typeof designDocumentKinds)[number];
+export const designDocumentKindVocabulary: Record<DesignDocumentKind, Words & { description: string }> = {
+  design_report: {
+    label: 'Design report',
+    description: 'The calculations and limits the design data is taken from.',
+  },
+  makers_manual: {
+    label: 'Maker’s manual',
+    description: 'Operation, maintenance and inspection instructions from the ride’s maker.',
+  },
+  drawing: { label: 'Drawing', description: 'A general arrangement, assembly or part drawing.' },
+  certificate: {
+    label: 'Certificate',
+    description: 'A type examination, material or conformity certificate for the design.',
+  },
+  other: { label: 'Other', description: 'Any other paper that belongs with the design data.' },
+};
+
 /** Every enumeration that has marks, for tests and legends that walk them all. */
 export const markedVocabularies = {
   rideStatus: rideStatusVocabulary,

@@ -5,6 +5,7 @@
 import { type DesignData, designDataSchema } from '@/features/loads/design-schema';
 import { type ChangeEffect, changeText, diffDesign } from '@/features/registry/design-diff';
 import type { UnitSystem } from '@/lib/units';
+import { designDocumentKindVocabulary, type DesignDocumentKind } from '@/lib/vocabulary';
 
 /** `effect` is set for design-data limits: whether the change loosened or tightened the limit. */
 type FieldChange = {
@@ -84,6 +85,12 @@ const designFieldLabel: Record<string, string> = {
   origin: 'How it came in',
   approvalState: 'Approval',
   decisionReason: 'Decision reason',
+  // A document attached to or removed from a version (server/registry/design-documents.ts).
+  kind: 'Document',
+  title: 'Title',
+  revision: 'Document revision',
+  issuedOn: 'Issued on',
+  sha256: 'File (SHA-256)',
 };
 const approvalWords: Record<string, string> = {
   pending: 'Waiting for a second person',
@@ -157,7 +164,9 @@ export function entryChanges(
         ? (approvalWords[v] ?? v)
         : field === 'origin'
           ? (originWords[v] ?? v)
-          : v;
+          : field === 'kind' && v in designDocumentKindVocabulary
+            ? designDocumentKindVocabulary[v as DesignDocumentKind].label
+            : v;
   const own = generic
     .filter((c) => !(design && (c.field === 'data' || c.field.startsWith('data.'))))
     .map((c) => ({

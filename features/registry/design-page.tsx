@@ -11,6 +11,7 @@ import { SubScreen } from '@/components/sub-screen';
 import { Text } from '@/components/text';
 import { colors, layout, space } from '@/components/theme';
 import { useDesignVersionsQuery } from '@/features/registry/api';
+import { DesignDocumentsCard } from '@/features/registry/design-documents-card';
 import { ExportCard } from '@/features/registry/design-export-card';
 import { designOriginLabel } from '@/features/registry/design-format';
 import {
@@ -68,6 +69,11 @@ export function DesignPage({
   const side = (
     <>
       <DesignVersionCard version={design} data={design.data} note={note} />
+      <DesignDocumentsCard
+        rideId={ride.id}
+        version={design.version}
+        editable={canEditRides(role) && design.approvalState !== 'rejected'}
+      />
       <ExportCard ride={ride} version={design.version} data={design.data} />
       {canEditRides(role) && isCurrent ? (
         <Button

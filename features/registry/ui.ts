@@ -20,6 +20,7 @@ export {
   Field,
   useDesignAnalysis,
 } from '@/features/registry/design-view';
+export { RideDocumentsCard } from '@/features/registry/design-documents-card';
 export { DeleteAction } from '@/features/registry/delete-action';
 export { DueMark, dueInWords } from '@/features/registry/due-mark';
 export { PlateSheetDownload } from '@/features/registry/plate-sheet-download';

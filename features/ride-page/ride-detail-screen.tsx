@@ -48,6 +48,7 @@ import {
   rideLogHref,
   rideLogbookHref,
   rideNdtHref,
+  ridePartsHref,
   rideScheduleHref,
   ridesHref,
   rideStatusHref,
@@ -103,6 +104,7 @@ function RideDetailBody({
   const lifeLinks = [
     { href: rideLogHref(ride.id), label: 'Running log' },
     { href: rideNdtHref(ride.id), label: 'NDT records' },
+    { href: ridePartsHref(ride.id), label: 'Parts and documents' },
   ];
 
   const info = (

@@ -24,3 +24,4 @@ export const rideNdtHref = (id: string) => `${ride(id)}/ndt` as const satisfies 
 export const rideLogbookHref = (id: string) => `${ride(id)}/logbook` as const satisfies Href;
 export const rideIncidentsHref = (id: string) => `${ride(id)}/incidents` as const satisfies Href;
 export const rideIncidentNewHref = (id: string) => `${ride(id)}/incidents/new` as const satisfies Href;
+export const ridePartsHref = (id: string) => `${ride(id)}/parts` as const satisfies Href;

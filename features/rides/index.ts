@@ -12,6 +12,7 @@ export {
   rideNdtHref,
   rideIncidentsHref,
   rideIncidentNewHref,
+  ridePartsHref,
   rideScheduleHref,
   rideStatusHref,
   rideVersionHref,

@@ -111,6 +111,7 @@ export const DesignVersionScreen = lazyScreen(rides, 'DesignVersionScreen');
 export const RunningLogScreen = lazyScreen(rides, 'RunningLogScreen');
 export const NdtScreen = lazyScreen(rides, 'NdtScreen');
 export const LogbookScreen = lazyScreen(rides, 'LogbookScreen');
+export const PartsScreen = lazyScreen(rides, 'PartsScreen');
 export const AuditScreen = lazyScreen(rides, 'AuditScreen');
 export const ChecklistsListScreen = lazyScreen(rides, 'ChecklistsListScreen');
 export const ChecklistCreateScreen = lazyScreen(rides, 'ChecklistCreateScreen');

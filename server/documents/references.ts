@@ -4,12 +4,43 @@
  * version's documents, a part replacement's certificates, a bulletin for the ride's model…). Each kind of
  * record that refers to documents adds one check here.
  */
+import { and, eq, isNull } from 'drizzle-orm';
+
+import { designDocuments, partReplacementDocuments, partReplacements } from '@/db/server/parts';
+import { rides } from '@/db/server/schema';
 import type { Db } from '@/server/db';
 
 /** Whether a record on one of `companyId`'s rides refers to the document `sha256`. */
 export type DocumentReference = (db: Pick<Db, 'select'>, companyId: string, sha256: string) => boolean;
 
-export const operatorDocumentReferences: readonly DocumentReference[] = [];
+/** Attached (not removed) to a design-data version of one of the company's rides. */
+const onDesignVersion: DocumentReference = (db, companyId, sha256) =>
+  db
+    .select({ id: designDocuments.id })
+    .from(designDocuments)
+    .innerJoin(rides, eq(rides.id, designDocuments.rideId))
+    .where(
+      and(
+        eq(designDocuments.sha256, sha256),
+        isNull(designDocuments.detachedAt),
+        eq(rides.operatorCompanyId, companyId),
+      ),
+    )
+    .limit(1)
+    .get() !== undefined;
+
+/** A certificate of a part replacement on one of the company's rides. */
+const onPartReplacement: DocumentReference = (db, companyId, sha256) =>
+  db
+    .select({ id: partReplacements.id })
+    .from(partReplacementDocuments)
+    .innerJoin(partReplacements, eq(partReplacements.id, partReplacementDocuments.replacementId))
+    .innerJoin(rides, eq(rides.id, partReplacements.rideId))
+    .where(and(eq(partReplacementDocuments.sha256, sha256), eq(rides.operatorCompanyId, companyId)))
+    .limit(1)
+    .get() !== undefined;
+
+export const operatorDocumentReferences: readonly DocumentReference[] = [onDesignVersion, onPartReplacement];
 
 export function operatorMayReadDocument(db: Pick<Db, 'select'>, companyId: string, sha256: string): boolean {
   return operatorDocumentReferences.some((refers) => refers(db, companyId, sha256));

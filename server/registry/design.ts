@@ -14,6 +14,7 @@ import type {
 import type { Db } from '@/server/db';
 import { HttpError, conflict, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
+import { carryDesignDocuments } from '@/server/registry/design-documents';
 import { mustFindRide } from '@/server/registry/rides';
 
 const decider = alias(users, 'decider');
@@ -191,6 +192,8 @@ export function createDesignVersion(
       })
       .returning({ id: designVersions.id })
       .get();
+    // The new version starts with the documents of the version it was made from (a manual stays with the ride).
+    if (current) carryDesignDocuments(tx, current, { id, version: next }, new Date());
     const created = mustFindDesignVersion(tx, rideId, next);
     const loosened = loosens
       ? diffDesign(current?.data ?? null, input.data).filter((c) => c.effect === 'loosened').length
@@ -265,6 +268,8 @@ export function decideDesignVersion(
       })
       .where(eq(designVersions.id, target.id))
       .run();
+    // Documents attached to the version it replaces while it waited follow it into force.
+    if (approve && current) carryDesignDocuments(tx, current, target, new Date(decidedAt), target.createdAt);
     recordAudit(tx, {
       userId: user.id,
       entity: 'design',

@@ -19,6 +19,7 @@ import { lifeRouter } from '@/server/routes/life';
 import { loadsRouter } from '@/server/routes/loads';
 import { logbookRouter } from '@/server/routes/logbook';
 import { ndtRouter } from '@/server/routes/ndt';
+import { partsRouter } from '@/server/routes/parts';
 import { documentsRouter } from '@/server/routes/documents';
 import { noticesRouter } from '@/server/routes/notices';
 import { photosRouter } from '@/server/routes/photos';
@@ -51,6 +52,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(loadsRouter(deps));
   router.use(ndtRouter(deps));
   router.use(documentsRouter(deps));
+  router.use(partsRouter(deps));
   router.use(fatigueRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));

@@ -24,6 +24,7 @@ import { addDemoActivity } from '@/server/seed/demo-activity';
 import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
+import { storeDemoParts } from '@/server/seed/demo-parts';
 import { storeDemoPhotos } from '@/server/seed/demo-photos';
 import { diskStorage, storageOf } from '@/server/storage';
 import { topUpDemoNdt } from '@/server/seed/demo-ndt';
@@ -359,7 +360,7 @@ export async function seedDemoData(
   return result;
 }
 
-/** The history's photo bytes, as the demo inspector's phone would have uploaded them. */
+/** The history's photo bytes, as the demo inspector's phone would have uploaded them, and Skylark's demo documents and parts. */
 async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir' | 'storage'>>, now: Date) {
   const { dataDir, storage } = config;
   if (!dataDir) return;
@@ -367,6 +368,7 @@ async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir
   // Into the configured storage (STORAGE_URL), or the disk under DATA_DIR when only that is given.
   const into = storage ? storageOf({ dataDir, storage }) : diskStorage(dataDir);
   if (inspector) await storeDemoPhotos(db, into, inspector.id, now);
+  await storeDemoParts(db, into, now);
 }
 
 /**

@@ -22,6 +22,9 @@ import {
 import { demoInspectionId } from '@/server/seed/demo-activity';
 import { demoInspections } from '@/server/seed/demo-inspections';
 import { demoPhotoFiles, demoPhotosDir } from '@/server/seed/demo-photos';
+import { designDocuments } from '@/db/server/parts';
+import { documentsDirOf } from '@/server/documents/store';
+import { partReplacementsOfRide } from '@/server/parts/replacements';
 import { photoPathOf, photosDirOf } from '@/server/sync/photo-store';
 
 import { makeTempDir } from './helpers';
@@ -210,6 +213,23 @@ describe('the demo’s inspection history', () => {
       expect(createHash('sha256').update(fs.readFileSync(file)).digest('hex')).toBe(sha);
       expect(db.select().from(photos).where(eq(photos.sha256, sha)).get()?.mime).toBe('image/jpeg');
     }
+    // Skylark's maker's manual on its design data in force and two part replacements, one with its
+    // certificate: each PDF stored whole, its bytes hashing (SHA-256, Node's crypto) to the name kept.
+    const skylark = db.select().from(rides).where(eq(rides.serial, 'ORW-PX15-0412')).get();
+    const docs = db
+      .select()
+      .from(designDocuments)
+      .where(eq(designDocuments.rideId, skylark?.id ?? ''))
+      .all();
+    expect(docs.map((d) => [d.kind, d.version])).toEqual([['makers_manual', 1]]);
+    const parts = partReplacementsOfRide(db, skylark?.id ?? '');
+    expect(parts.map((p) => p.documents.length)).toEqual([1, 0]);
+    for (const sha of [docs[0].sha256, parts[0].documents[0].sha256]) {
+      const bytes = fs.readFileSync(path.join(documentsDirOf(dataDir), sha));
+      expect(bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+      expect(createHash('sha256').update(bytes).digest('hex')).toBe(sha);
+    }
+
     // The demo pictures are small JPEGs of our own.
     for (const { name } of demoPhotoFiles) {
       const size = fs.statSync(path.join(demoPhotosDir, `${name}.jpg`)).size;

@@ -2,6 +2,7 @@
 export { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
 export { LogbookScreen } from '@/features/logbook/ui';
 export { NdtScreen } from '@/features/pivot-life/ndt-screen';
+export { PartsScreen } from '@/features/parts/parts-screen';
 export { RunningLogScreen } from '@/features/pivot-life/running-log-screen';
 export { AuditScreen } from '@/features/registry/audit-screen';
 export { ChecklistCreateScreen } from '@/features/registry/checklist-create-screen';
