@@ -51,6 +51,8 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   instrument: 'Instrument',
   setting: 'Setting',
   user: 'Person',
+  bulletin: 'Maker bulletin',
+  bulletin_action: 'Bulletin done / not done',
 };
 
 const actionSpec: Record<

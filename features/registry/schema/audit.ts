@@ -19,6 +19,8 @@ export const auditEntities = [
   'instrument',
   'setting',
   'user',
+  'bulletin',
+  'bulletin_action',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;
