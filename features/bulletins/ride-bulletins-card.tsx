@@ -48,9 +48,10 @@ export function RideBulletinsCard({
       {list.data && rows.length === 0 ? (
         <Text muted>No bulletin in the register is for this ride’s maker and model.</Text>
       ) : null}
-      {rows.map((r) => (
+      {rows.map((r, i) => (
         <BulletinRow
           key={r.bulletin.id}
+          first={i === 0}
           row={r}
           canRecord={role === 'admin' || role === 'supervisor'}
           timeZone={timeZone}
@@ -62,17 +63,19 @@ export function RideBulletinsCard({
 
 function BulletinRow({
   row,
+  first,
   canRecord,
   timeZone,
 }: {
   row: RideBulletin;
+  first: boolean;
   canRecord: boolean;
   timeZone?: string | null;
 }) {
   const b = row.bulletin;
   const [recording, setRecording] = useState(false);
   return (
-    <View style={styles.row} testID={`ride-bulletin-${b.reference}`}>
+    <View style={[styles.row, !first && styles.rule]} testID={`ride-bulletin-${b.reference}`}>
       <BulletinStateMark state={row.state} />
       <Text variant="heading">
         {b.reference} · {b.title}
@@ -161,6 +164,8 @@ function RecordDone({
 const styles = StyleSheet.create({
   card: { gap: space.lg },
   row: { gap: space.xs },
+  // Rows apart by a line as well as space, so each bulletin reads as one block on a phone.
+  rule: { borderTopWidth: 1, borderTopColor: colors.border, paddingTop: space.lg },
   form: { gap: space.md, paddingTop: space.sm },
   buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   start: { alignSelf: 'flex-start' },
