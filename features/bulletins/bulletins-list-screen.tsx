@@ -32,7 +32,9 @@ const staff = ['admin', 'supervisor', 'inspector'] as const;
 
 /** "2 of 3 rides done", or that no ride in the register is of its models. */
 const doneWords = (b: Bulletin) =>
-  b.rideCount === 0 ? 'No ride of these models' : `${b.doneCount} of ${b.rideCount} rides done`;
+  b.rideCount === 0
+    ? 'No ride of these models'
+    : `${b.doneCount} of ${b.rideCount} ${b.rideCount === 1 ? 'ride' : 'rides'} done`;
 
 /** Makers' safety bulletins: the register, searched and filtered by how much they matter. */
 export function BulletinsListScreen() {
@@ -87,7 +89,7 @@ function BulletinsList({ user }: { user: SessionUser }) {
               rowHref={(b) => bulletinHref(b.id)}
               rowLabel={(b) => `${b.reference} ${b.title}`}
               columns={[
-                { key: 'reference', title: 'Reference', render: (b) => b.reference },
+                { key: 'reference', title: 'Reference', flex: 1.3, render: (b) => b.reference },
                 { key: 'title', title: 'Title', flex: 2, render: (b) => b.title },
                 {
                   key: 'maker',

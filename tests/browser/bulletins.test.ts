@@ -51,6 +51,12 @@ test('supervisor adds a bulletin with its PDF; the inspector passes it in the ch
   await rides.getByText('Overdue').waitFor();
   await screenshot(desk, 'bulletin-detail-desktop');
 
+  // The register lists it with the demo's bulletins, found by a word of its action.
+  await desk.goto(`${app.baseUrl}/register/bulletins?q=pawl`);
+  await desk.getByRole('table', { name: 'Bulletins' }).getByText(REF).waitFor({ timeout: 30000 });
+  await desk.getByText('0 of 1 ride done').waitFor();
+  await screenshot(desk, 'bulletin-list-desktop');
+
   const token = await apiToken(app.baseUrl, 'supervisor@pivotwatch.test');
   const res = await fetch(`${app.baseUrl}/api/documents/${hash}`, {
     headers: { Authorization: `Bearer ${token}` },
