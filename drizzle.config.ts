@@ -16,6 +16,7 @@ export default defineConfig({
     './db/server/documents.ts',
     './db/server/incidents.ts',
     './db/server/parts.ts',
+    './db/server/bulletins.ts',
   ],
   out: './drizzle/server',
 });

@@ -86,6 +86,29 @@ export const siteKindVocabulary: Record<SiteKind, Words> = {
   travelling_setup: { label: 'Travelling set-up' },
 };
 
+// ——— maker bulletins ———
+
+/** How much a maker's bulletin matters, in our own plain words (most pressing first). */
+export const bulletinSeverities = ['stop_ride', 'safety', 'advice'] as const;
+export type BulletinSeverity = (typeof bulletinSeverities)[number];
+export const bulletinSeverityVocabulary: Record<BulletinSeverity, Words> = {
+  stop_ride: { label: 'Ride must not run until done' },
+  safety: { label: 'Safety action' },
+  advice: { label: 'Maker’s advice' },
+};
+
+/**
+ * Where a bulletin stands on one ride: done (an inspector or supervisor recorded it), or open, which is
+ * overdue once its deadline has passed on the ride's clock, and at once for "before the next operation".
+ */
+export const bulletinStates = ['overdue', 'open', 'done'] as const;
+export type BulletinState = (typeof bulletinStates)[number];
+export const bulletinStateVocabulary: Record<BulletinState, Words> = {
+  overdue: { label: 'Overdue' },
+  open: { label: 'Open' },
+  done: { label: 'Done' },
+};
+
 // ——— inspections ———
 
 export const inspectionTypes = [

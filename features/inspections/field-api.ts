@@ -124,6 +124,7 @@ export function useStartInspectionMutation() {
         template,
         type,
         now: new Date(),
+        bulletins: ride.openBulletins,
       });
       await saveDraft(dev, { id: draft.id, rideId: draft.rideId, data: draft });
       return draft;

@@ -3,6 +3,7 @@
  * draft, which the screen saves to the device database straight away (nothing typed is ever only in
  * memory).
  */
+import { type OpenBulletin, bulletinChecklistItem } from '@/features/bulletins/schema';
 import { readingLink } from '@/features/records/checklist-limits';
 import type { DesignData } from '@/features/loads/design-schema';
 import type { ChecklistTemplate } from '@/features/registry/schema';
@@ -46,11 +47,16 @@ export function newDraft(args: {
   template: ChecklistTemplate | null;
   type: InspectionType;
   now: Date;
+  /** The makers' bulletins still open on the ride: each adds an item after the template's. */
+  bulletins?: readonly OpenBulletin[];
 }): Draft {
   const at = args.now.toISOString();
-  const checklist: ChecklistAnswer[] = (args.template?.version.content.areas ?? []).flatMap((area) =>
-    area.items.map((item) => ({ itemId: item.id, area: area.title, text: item.text, result: null })),
-  );
+  const checklist: ChecklistAnswer[] = [
+    ...(args.template?.version.content.areas ?? []).flatMap((area) =>
+      area.items.map((item) => ({ itemId: item.id, area: area.title, text: item.text, result: null })),
+    ),
+    ...(args.bulletins ?? []).map(bulletinChecklistItem),
+  ];
   return {
     id: args.id,
     rideId: args.ride.id,

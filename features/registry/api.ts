@@ -121,6 +121,7 @@ const deletePaths = {
   schedule: 'schedules',
   checklist: 'checklist-templates',
   instrument: 'instruments',
+  bulletin: 'bulletins',
 } as const;
 export type RegisterDeletable = keyof typeof deletePaths;
 
@@ -145,6 +146,7 @@ export function useRegisterDeleteMutation(kind: RegisterDeletable) {
         checklist: registryKeys.checklist(id),
         schedule: null,
         instrument: null,
+        bulletin: null,
       }[kind];
       if (own) client.removeQueries({ queryKey: own, exact: true });
       void invalidate();

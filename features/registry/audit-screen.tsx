@@ -52,6 +52,8 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   setting: 'Setting',
   user: 'Person',
   incident: 'Incident report',
+  bulletin: 'Maker bulletin',
+  bulletin_action: 'Bulletin done / not done',
 };
 
 const actionSpec: Record<

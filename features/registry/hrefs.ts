@@ -28,6 +28,12 @@ export const checklistEditHref = (id: string) => `${checklist(id)}/edit` as cons
 export const checklistVersionHref = (id: string, version: number) =>
   `${checklist(id)}/versions/${version}` as const satisfies Href;
 
+const bulletin = (id: string) => `/register/bulletins/${encodeURIComponent(id)}` as const;
+export const bulletinsHref = '/register/bulletins' as const satisfies Href;
+export const newBulletinHref = '/register/bulletins/new' as const satisfies Href;
+export const bulletinHref = (id: string) => bulletin(id) satisfies Href;
+export const bulletinEditHref = (id: string) => `${bulletin(id)}/edit` as const satisfies Href;
+
 export const schedulesHref = '/register/schedules' as const satisfies Href;
 export const instrumentsHref = '/register/instruments' as const satisfies Href;
 /** The audit log, or one ride's part of it. */

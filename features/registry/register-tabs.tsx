@@ -7,6 +7,7 @@ import { useWide } from '@/components/use-wide';
 import type { Role } from '@/features/session/schema';
 import {
   auditHref,
+  bulletinsHref,
   checklistsHref,
   companiesHref,
   instrumentsHref,
@@ -25,6 +26,7 @@ const registerTabs: Tab[] = [
   { href: ridesHref, label: 'Rides', roles: staff },
   { href: schedulesHref, label: 'Schedules', roles: planners },
   { href: checklistsHref, label: 'Checklists', roles: staff },
+  { href: bulletinsHref, label: 'Bulletins', roles: staff },
   { href: companiesHref, label: 'Companies', roles: staff },
   { href: sitesHref, label: 'Sites', roles: staff },
   { href: instrumentsHref, label: 'Instruments', roles: staff },

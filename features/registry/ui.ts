@@ -26,4 +26,5 @@ export { DueMark, dueInWords } from '@/features/registry/due-mark';
 export { PlateSheetDownload } from '@/features/registry/plate-sheet-download';
 export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';
+export { RemovalNotice } from '@/features/registry/removal-notice';
 export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';

@@ -35,6 +35,7 @@ import { Panes } from '@/components/panes';
 import { type DesignVersion, type Schedule, inspectionTypeLabel } from '@/features/registry/schema';
 import { formatDate, formatDateTime } from '@/lib/dates';
 import { InspectRideCard } from '@/features/inspections/ui';
+import { RideBulletinsCard } from '@/features/bulletins/ui';
 import { PivotLifeSection } from '@/features/pivot-life/ui';
 import { RIDE_NOTICES_PAGE, useRideNotices } from '@/features/notices';
 import { NoticeRow } from '@/features/notices/ui';
@@ -136,6 +137,7 @@ function RideDetailBody({
       ) : null}
       {user.role === 'admin' ? <PlateSheetDownload ride={ride} /> : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
+      <RideBulletinsCard rideId={ride.id} role={user.role} timeZone={ride.siteTimeZone} />
       {staff ? <NoticesCard rideId={ride.id} /> : null}
       {user.role === 'inspector' ? null : <ChainCard rideId={ride.id} />}
       {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}

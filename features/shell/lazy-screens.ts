@@ -125,6 +125,9 @@ export const SiteScreen = lazyScreen(rides, 'SiteScreen');
 export const SiteEditScreen = lazyScreen(rides, 'SiteEditScreen');
 export const SchedulesListScreen = lazyScreen(rides, 'SchedulesListScreen');
 export const InstrumentRegisterScreen = lazyScreen(rides, 'InstrumentRegisterScreen');
+export const BulletinsListScreen = lazyScreen(rides, 'BulletinsListScreen');
+export const BulletinScreen = lazyScreen(rides, 'BulletinScreen');
+export const BulletinEditScreen = lazyScreen(rides, 'BulletinEditScreen');
 
 export const NoticeListScreen = lazyScreen(notices, 'NoticeListScreen');
 export const NoticeScreen = lazyScreen(notices, 'NoticeScreen');

@@ -15,8 +15,9 @@ import {
   decisions,
 } from '@/db/device/schema';
 import { type DeviceDb, getDeviceOwner, ownedBy } from '@/features/device-db';
-import { type RideSummary, rideSummarySchema } from '@/features/rides/schema';
 import {
+  type PulledRide,
+  pulledRideSchema,
   type PulledAssignment,
   type PulledDecision,
   type PulledDesign,
@@ -38,7 +39,7 @@ function parseEach<T>(schema: z.ZodType<T>, rows: { json: string }[]): T[] {
 
 const iso = (now: Date) => now.toISOString();
 
-export async function writeRides(dev: DeviceDb, rides: RideSummary[], now = new Date()): Promise<void> {
+export async function writeRides(dev: DeviceDb, rides: PulledRide[], now = new Date()): Promise<void> {
   for (const ride of rides) {
     const row = { id: ride.id, json: JSON.stringify(ride), updatedAt: iso(now) };
     await dev.db
@@ -49,13 +50,13 @@ export async function writeRides(dev: DeviceDb, rides: RideSummary[], now = new 
   }
 }
 
-export async function readRides(dev: DeviceDb): Promise<RideSummary[]> {
-  return parseEach(rideSummarySchema, await dev.db.select().from(cachedRides).all());
+export async function readRides(dev: DeviceDb): Promise<PulledRide[]> {
+  return parseEach(pulledRideSchema, await dev.db.select().from(cachedRides).all());
 }
 
-export async function readRide(dev: DeviceDb, id: string): Promise<RideSummary | null> {
+export async function readRide(dev: DeviceDb, id: string): Promise<PulledRide | null> {
   const rows = await dev.db.select().from(cachedRides).where(eq(cachedRides.id, id)).all();
-  return parseEach(rideSummarySchema, rows)[0] ?? null;
+  return parseEach(pulledRideSchema, rows)[0] ?? null;
 }
 
 export async function writeDesignVersions(dev: DeviceDb, designs: PulledDesign[]): Promise<void> {

@@ -9,6 +9,16 @@ import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/regi
 import { designVersionSchema } from '@/features/registry/schema';
 import { declarationSettingSchema, instrumentSchema } from '@/features/instruments/schema';
 import { rideSummarySchema } from '@/features/rides/schema';
+import { openBulletinSchema } from '@/features/bulletins/schema';
+
+/**
+ * A ride as the phone keeps it: its summary and the makers' bulletins still open on it, which the
+ * inspector's checklist includes (absent from copies pulled before bulletins: none).
+ */
+export const pulledRideSchema = rideSummarySchema.extend({
+  openBulletins: z.array(openBulletinSchema).optional(),
+});
+export type PulledRide = z.infer<typeof pulledRideSchema>;
 
 /** A design-data version of one ride (immutable once made). */
 export const pulledDesignSchema = designVersionSchema.extend({ rideId: z.string().min(1) });
@@ -63,7 +73,7 @@ export type PulledDecision = z.infer<typeof pulledDecisionSchema>;
 export const pullResponseSchema = z.object({
   /** Opaque to the device; sent back unchanged on the next pull. */
   cursor: z.string().min(1),
-  rides: z.array(rideSummarySchema).optional(),
+  rides: z.array(pulledRideSchema).optional(),
   designs: z.array(pulledDesignSchema).optional(),
   templates: z.array(pulledTemplateSchema).optional(),
   assignments: z.array(pulledAssignmentSchema).optional(),

@@ -168,7 +168,7 @@ export function createRide(db: Db, userId: string, input: RideInput, now: Date):
 }
 
 /** Extra checks a ride must pass before deletion; other modules (schedules…) add theirs. */
-type RideDeleteGuard = (db: Pick<Db, 'select'>, rideId: string) => string | null;
+export type RideDeleteGuard = (db: Pick<Db, 'select'>, rideId: string) => string | null;
 
 const hasDesignData: RideDeleteGuard = (db, rideId) => {
   const n =

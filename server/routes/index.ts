@@ -6,6 +6,7 @@ import { apiNotFound } from '@/server/http/errors';
 import { accountRouter } from '@/server/routes/account';
 import { adminUsersRouter } from '@/server/routes/admin-users';
 import { auditRouter } from '@/server/routes/audit';
+import { bulletinsRouter } from '@/server/routes/bulletins';
 import { chainRouter } from '@/server/routes/chain';
 import { checklistsRouter } from '@/server/routes/checklists';
 import { designRouter } from '@/server/routes/design';
@@ -53,6 +54,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(ndtRouter(deps));
   router.use(documentsRouter(deps));
   router.use(partsRouter(deps));
+  router.use(bulletinsRouter(deps));
   router.use(fatigueRouter(deps));
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));

@@ -9,6 +9,7 @@ import {
   type RideListPage,
 } from '@/features/registry/schema';
 import { companyScope } from '@/server/auth/scope';
+import { hasBulletinRecords } from '@/server/bulletins/bulletins';
 import { nowOf, type ApiDeps } from '@/server/deps';
 import { currentUser, requireAuth, requireRole } from '@/server/auth/require-auth';
 import { patchBody, validate } from '@/server/http/validate';
@@ -68,7 +69,7 @@ export function ridesRouter(deps: ApiDeps): Router {
   });
 
   router.delete('/rides/:id', auth, requireRole('admin'), oneRide, (_req, res) => {
-    deleteRide(deps.db, currentUser(res).id, oneRide.params(res).id);
+    deleteRide(deps.db, currentUser(res).id, oneRide.params(res).id, [hasBulletinRecords]);
     res.status(204).end();
   });
 

@@ -21,6 +21,7 @@ import type { Db } from '@/server/db';
 import { createChecklistTemplate } from '@/server/registry/checklists';
 import { addDays, dayInZone, isoDay } from '@/lib/dates';
 import { addDemoActivity } from '@/server/seed/demo-activity';
+import { topUpDemoBulletins } from '@/server/seed/demo-bulletins';
 import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
 import { demoChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
@@ -425,6 +426,7 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
     );
 
     topUpDemoInstruments(tx, now);
+    topUpDemoBulletins(tx, author.id, now);
 
     const anyTemplate = tx.select({ id: checklistTemplates.id }).from(checklistTemplates).limit(1).get();
     if (!anyTemplate)

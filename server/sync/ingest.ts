@@ -25,11 +25,19 @@ import {
 import { zodIssues } from '@/lib/api-errors';
 import type { DesignData } from '@/features/loads/design-schema';
 import { companyScope } from '@/server/auth/scope';
+import {
+  type BulletinAnswerRecord,
+  bulletinAnswerIssues,
+  bulletinAnswerRecords,
+  bulletinLookup,
+  storeBulletinAnswers,
+} from '@/server/bulletins/on-rides';
 import { instrumentLookup, recordTruthIssues } from '@/server/instruments/record-checks';
 import type { Db } from '@/server/db';
 import { appendNewRecords, type NewRecordEntry } from '@/server/ledger/append';
 import { nodeEd25519 } from '@/server/ledger/ed25519';
 import { queueDay, refreshQueueInspections } from '@/server/queue/queue-refresh';
+import { rideTimeZone } from '@/server/schedule-due';
 import { checklistLimitIssues, checklistLimitLookup } from '@/server/sync/checklist-check';
 import {
   type InspectionParams,
@@ -135,6 +143,12 @@ type BatchContext = {
   signWith: SigningKey | null;
   /** Each accepted record's chain entry to be: its ride, kind, form, hash and the phone's signature. */
   signed: Map<string, NewRecordEntry>;
+  /** Makers' bulletins and rides, for the checklist's bulletin items (read once per batch). */
+  bulletins: ReturnType<typeof bulletinLookup>;
+  /** The zone each ride's days are counted in, for the day a bulletin was found done. */
+  zoneOf: (rideId: string) => string;
+  /** What each accepted record's bulletin answers record on its ride (server/bulletins/on-rides.ts). */
+  bulletinAnswers: Map<string, BulletinAnswerRecord[]>;
 };
 
 /** A phone key the server holds the private half of: only the demo seed's and the ingest bench's. */
@@ -302,6 +316,10 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
   );
   if (passedOver.length) return rejected(record.id, passedOver);
 
+  // A bulletin item must be one of the register's bulletins for this ride's maker and model.
+  const strayBulletins = bulletinAnswerIssues(ctx.bulletins, ride.id, record.checklist);
+  if (strayBulletins.length) return rejected(record.id, strayBulletins);
+
   const inspection: InspectionParams = [
     record.id,
     ride.id,
@@ -341,6 +359,7 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
     recordHash: signature.recordHash,
     device: { keyId: signature.keyId, signature: signature.signature },
   });
+  ctx.bulletinAnswers.set(record.id, bulletinAnswerRecords(record, ctx.user.id, ctx.zoneOf));
   return { id: record.id, status: 'accepted' };
 }
 
@@ -377,6 +396,7 @@ function ingestRecords(ctx: BatchContext, records: readonly unknown[]): RecordRe
   }
   ctx.known = storedOf(ctx.st, records);
   ctx.signed.clear();
+  ctx.bulletinAnswers.clear();
   return records.map((raw) => ingestRecord(ctx, raw));
 }
 
@@ -422,6 +442,16 @@ export function ingestBatch(
       phoneKeys: new Map(st.personKeys.all(user.id).map((k) => [k.keyId, k])),
       signWith: options.signWith ?? null,
       signed: new Map(),
+      bulletins: bulletinLookup(db),
+      zoneOf: (() => {
+        const zones = new Map<string, string>();
+        return (rideId: string) => {
+          let zone = zones.get(rideId);
+          if (zone === undefined) zones.set(rideId, (zone = rideTimeZone(db, rideId)));
+          return zone;
+        };
+      })(),
+      bulletinAnswers: new Map(),
     };
     const results = ingestRecords(ctx, batch.records);
     // The review queue learns of the new inspections (and of originals an amendment supersedes) at once.
@@ -431,6 +461,12 @@ export function ingestBatch(
     appendNewRecords(
       db,
       accepted.flatMap((id) => ctx.signed.get(id) ?? []),
+      now,
+    );
+    // An inspection's passed bulletin items record the bulletins done on the ride; failed ones not done.
+    storeBulletinAnswers(
+      db,
+      accepted.flatMap((id) => ctx.bulletinAnswers.get(id) ?? []),
       now,
     );
     refreshQueueInspections(db, queueDay(db, now), accepted);

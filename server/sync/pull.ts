@@ -26,6 +26,7 @@ import type { SessionUser } from '@/features/session/schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { PulledDecisionFinding, PullResponse } from '@/features/sync/pull-schema';
 import { companyScope } from '@/server/auth/scope';
+import { openBulletinsOf, ridesWithActionsSince } from '@/server/bulletins/on-rides';
 import type { Db } from '@/server/db';
 import { HttpError } from '@/server/http/errors';
 import { getDeclarationSetting, listInstruments } from '@/server/instruments/instruments';
@@ -111,6 +112,10 @@ function pulledRides({ tx, since, scope, visible, visibleRideRows, audit, audite
     const changed = new Set<string>();
     for (const r of visibleRideRows) if (r.createdAt >= since) changed.add(r.id);
     for (const id of audited('ride')) changed.add(id);
+    // Each ride carries its open bulletins: a change to the register may change any ride's, a bulletin
+    // recorded done or not done only its ride's.
+    if (audited('bulletin').size) for (const r of visibleRideRows) changed.add(r.id);
+    for (const id of ridesWithActionsSince(tx, since)) changed.add(id);
     // A renamed site or operator changes the names every ride summary carries.
     const sites = [...audited('site')];
     const companies = [...audited('company')];
@@ -316,9 +321,13 @@ export function buildPull(
       ...(removedAssignments.length ? { assignments: removedAssignments } : {}),
       ...(removedTemplates.length ? { templates: removedTemplates } : {}),
     };
+    const openBulletins = openBulletinsOf(
+      tx,
+      rideList.map((r) => r.id),
+    );
     return {
       cursor: cursorOf(readAt),
-      rides: rideList,
+      rides: rideList.map((r) => ({ ...r, openBulletins: openBulletins.get(r.id) ?? [] })),
       designs,
       templates,
       assignments,

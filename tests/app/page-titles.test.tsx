@@ -172,6 +172,12 @@ describe('rendered routes', () => {
       label: 'Checklists',
     },
     {
+      url: '/register/bulletins',
+      route: 'register/bulletins/index',
+      file: '(app)/register/bulletins/index',
+      label: 'Bulletins',
+    },
+    {
       url: '/register/companies',
       route: 'register/companies/index',
       file: '(app)/register/companies/index',
@@ -209,7 +215,7 @@ describe('rendered routes', () => {
     },
   );
 
-  test('on a phone the register’s seven tabs wrap onto rows, none past the edge', async () => {
+  test('on a phone the register’s eight tabs wrap onto rows, none past the edge', async () => {
     const screenOf = jest.requireActual('@/app/(app)/register/companies/index').default;
     renderScreens(sessionClient(admin), { 'register/companies/index': screenOf }, '/register/companies');
     await screen.findByRole('header', { name: 'Companies' });

@@ -339,6 +339,7 @@ const patchTargets: Record<string, string> = {
   '/api/schedules/:id': 'inspection_schedules',
   '/api/findings/:id': 'findings',
   '/api/admin/users/:id': 'users',
+  '/api/bulletins/:id': 'bulletins',
 };
 
 test('every PATCH with an empty body, an unknown field or no JSON at all answers 400 and changes nothing', async () => {

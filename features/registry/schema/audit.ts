@@ -20,6 +20,8 @@ export const auditEntities = [
   'setting',
   'user',
   'incident',
+  'bulletin',
+  'bulletin_action',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;

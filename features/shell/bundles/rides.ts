@@ -1,4 +1,7 @@
 /** The rides and the register behind them (companies, sites, checklists, schedules, instruments, audit). */
+export { BulletinEditScreen } from '@/features/bulletins/bulletin-edit-screen';
+export { BulletinScreen } from '@/features/bulletins/bulletin-screen';
+export { BulletinsListScreen } from '@/features/bulletins/bulletins-list-screen';
 export { InstrumentRegisterScreen } from '@/features/instruments/register-screen';
 export { LogbookScreen } from '@/features/logbook/ui';
 export { NdtScreen } from '@/features/pivot-life/ndt-screen';
