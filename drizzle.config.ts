@@ -14,6 +14,7 @@ export default defineConfig({
     './db/server/accounts.ts',
     './db/server/ledger.ts',
     './db/server/documents.ts',
+    './db/server/setups.ts',
   ],
   out: './drizzle/server',
 });

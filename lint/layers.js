@@ -62,6 +62,7 @@ const serverOrder = [
   'sync',
   'notices',
   'review',
+  'setups',
   'reports',
   'seed',
   'routes',

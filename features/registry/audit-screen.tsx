@@ -51,6 +51,9 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   instrument: 'Instrument',
   setting: 'Setting',
   user: 'Person',
+  setup: 'Set-up',
+  site_event: 'Event',
+  round: 'Round',
 };
 
 const actionSpec: Record<

@@ -39,6 +39,10 @@ export const rideStatusEvents = [
   'blocking_finding_reopened',
   /** The operator's report of what was done about a finding. */
   'action_reported',
+  /** A travelling ride built up at a site: it may not run there before its set-up inspection is approved. */
+  'setup_started',
+  /** The decision approving the set-up inspection of the ride's current set-up. */
+  'setup_approved',
 ] as const;
 export type RideStatusEvent = (typeof rideStatusEvents)[number];
 
@@ -51,6 +55,8 @@ export type RideStatusEvent = (typeof rideStatusEvents)[number];
  * - `no_open_blocking_findings`: no finding that forbids operation is open on the ride
  * - `no_over_limit_values`: the inspection has no value over its limit
  * - `override`: recorded as an override (its own audit entry and notice to the operator)
+ * - `setup_inspection`: the approved inspection is of the set-up type
+ * - `stopped_for_setup`: the ride's status was set by its current set-up, not by anything else
  */
 export const transitionRequirements = [
   'reason',
@@ -60,6 +66,8 @@ export const transitionRequirements = [
   'no_open_blocking_findings',
   'no_over_limit_values',
   'override',
+  'setup_inspection',
+  'stopped_for_setup',
 ] as const;
 type TransitionRequirement = (typeof transitionRequirements)[number];
 
@@ -85,6 +93,8 @@ const NOT_YOURS = {
   finding_closed: 'Findings are verified and closed by the inspection body (inspector or supervisor).',
   blocking_finding_reopened: 'Findings are reopened by the inspection body (inspector or supervisor).',
   action_reported: 'Corrective action is reported by the ride’s operator.',
+  setup_started: 'Only a supervisor or an administrator plans or records a ride’s set-up.',
+  setup_approved: 'Only a supervisor or an administrator approves inspections.',
 } satisfies Record<RideStatusEvent, string>;
 
 /** One cell of the table, written out case by case so each rule can be read on its own. */
@@ -119,6 +129,21 @@ function rule(from: RideStatus, event: RideStatusEvent, role: Role): TransitionR
     case 'action_reported':
       if (role !== 'operator') return no(NOT_YOURS.action_reported);
       return yes(from, 'note');
+    case 'setup_started':
+      if (!deciders.includes(role)) return no(NOT_YOURS.setup_started);
+      // Already stopped for something else: it stays so, and that cause still needs its own way back.
+      if (from === 'out_of_service') return no('The ride is already out of service.');
+      return yes('out_of_service', 'reason');
+    case 'setup_approved':
+      if (!deciders.includes(role)) return no(NOT_YOURS.setup_approved);
+      if (from === 'in_service') return yes('in_service');
+      return yes(
+        'in_service',
+        'setup_inspection',
+        'stopped_for_setup',
+        'no_open_blocking_findings',
+        'no_over_limit_values',
+      );
   }
 }
 
@@ -147,6 +172,8 @@ export type TransitionFacts = {
   inspectionType?: string | null;
   openBlockingFindings?: number;
   overLimitValues?: number;
+  /** True when the ride's last status change was its current set-up's start. */
+  stoppedForSetup?: boolean;
 };
 
 export type TransitionProblem = {
@@ -204,6 +231,22 @@ const requirementProblem: Record<TransitionRequirement, (f: TransitionFacts) => 
           message: `${f.overLimitValues} value(s) of the inspection are over their limits.`,
         },
   override: () => null,
+  setup_inspection: (f) =>
+    f.inspectionType === 'setup_after_assembly'
+      ? null
+      : {
+          code: 'setup_inspection_required',
+          message: 'Only the set-up inspection clears a ride built up at a new site.',
+        },
+  stopped_for_setup: (f) =>
+    f.stoppedForSetup
+      ? null
+      : {
+          code: 'stopped_for_other_cause',
+          message:
+            'The ride was stopped for another cause than its set-up; it returns to service by a follow-up ' +
+            'inspection or an override.',
+        },
 };
 
 /** Whether `role` may make `event` happen to a ride in `from`, given the facts; and to what status. */

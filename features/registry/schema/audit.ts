@@ -19,6 +19,9 @@ export const auditEntities = [
   'instrument',
   'setting',
   'user',
+  'setup',
+  'site_event',
+  'round',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;

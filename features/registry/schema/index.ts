@@ -12,3 +12,4 @@ export * from '@/features/registry/schema/audit';
 export * from '@/features/registry/schema/checklists';
 export * from '@/features/registry/schema/schedules';
 export * from '@/features/registry/schema/design-files';
+export * from '@/features/registry/schema/setups';
