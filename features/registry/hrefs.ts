@@ -29,6 +29,7 @@ export const checklistVersionHref = (id: string, version: number) =>
   `${checklist(id)}/versions/${version}` as const satisfies Href;
 
 export const schedulesHref = '/register/schedules' as const satisfies Href;
+export const roundsHref = '/register/rounds' as const satisfies Href;
 export const instrumentsHref = '/register/instruments' as const satisfies Href;
 /** The audit log, or one ride's part of it. */
 export const auditHref = (rideId?: string) =>

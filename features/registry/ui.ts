@@ -26,3 +26,4 @@ export { PlateSheetDownload } from '@/features/registry/plate-sheet-download';
 export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';
 export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
+export { RideSetupsCard } from '@/features/registry/ride-setups-card';

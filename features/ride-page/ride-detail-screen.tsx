@@ -20,6 +20,7 @@ import {
   DueMark,
   dueInWords,
   PlateSheetDownload,
+  RideSetupsCard,
 } from '@/features/registry/ui';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
@@ -128,6 +129,7 @@ function RideDetailBody({
       ) : null}
       {user.role === 'admin' ? <PlateSheetDownload ride={ride} /> : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
+      <RideSetupsCard rideId={ride.id} planner={editor} />
       {staff ? <NoticesCard rideId={ride.id} /> : null}
       {user.role === 'inspector' ? null : <ChainCard rideId={ride.id} />}
       {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}

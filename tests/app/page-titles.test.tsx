@@ -165,6 +165,7 @@ describe('rendered routes', () => {
       file: '(app)/register/schedules',
       label: 'Schedules',
     },
+    { url: '/register/rounds', route: 'register/rounds', file: '(app)/register/rounds', label: 'Rounds' },
     {
       url: '/register/checklists',
       route: 'register/checklists/index',
@@ -209,7 +210,7 @@ describe('rendered routes', () => {
     },
   );
 
-  test('on a phone the register’s seven tabs wrap onto rows, none past the edge', async () => {
+  test('on a phone the register’s eight tabs wrap onto rows, none past the edge', async () => {
     const screenOf = jest.requireActual('@/app/(app)/register/companies/index').default;
     renderScreens(sessionClient(admin), { 'register/companies/index': screenOf }, '/register/companies');
     await screen.findByRole('header', { name: 'Companies' });

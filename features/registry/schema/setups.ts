@@ -20,7 +20,7 @@ export { setupStateVocabulary };
 /** Set-ups last at most a season; a longer one is a typing mistake. */
 export const MAX_SETUP_DAYS = 366;
 
-function datesInOrder(v: { fromDate: string; toDate: string }, ctx: z.RefinementCtx) {
+export function setupDatesInOrder(v: { fromDate: string; toDate: string }, ctx: z.RefinementCtx) {
   if (v.toDate < v.fromDate)
     ctx.addIssue({
       code: 'custom',
@@ -45,7 +45,7 @@ export const siteEventInputSchema = z
     fromDate: calendarDate(),
     toDate: calendarDate(),
   })
-  .superRefine(datesInOrder);
+  .superRefine(setupDatesInOrder);
 export type SiteEventInput = z.output<typeof siteEventInputSchema>;
 
 export const siteEventSchema = z.object({
@@ -65,17 +65,15 @@ export const siteEventListResponseSchema = z.object({ events: z.array(siteEventS
  * POST /api/setups: a ride's build-up at a site. It books the ride's set-up inspection, due on the build-up
  * day and assigned to `assignedTo` when given. A set-up whose build-up day has come starts at once.
  */
-export const setupInputSchema = z
-  .object({
-    rideId: id(),
-    siteId: id(),
-    eventId: z.union([id(), z.null()]).optional(),
-    fromDate: calendarDate(),
-    toDate: calendarDate(),
-    pitch: nullableText(200).optional(),
-    assignedTo: z.union([id(), z.null()]).optional(),
-  })
-  .superRefine(datesInOrder);
+export const setupFieldsSchema = z.object({
+  siteId: id(),
+  eventId: z.union([id(), z.null()]).optional(),
+  fromDate: calendarDate(),
+  toDate: calendarDate(),
+  pitch: nullableText(200).optional(),
+  assignedTo: z.union([id(), z.null()]).optional(),
+});
+export const setupInputSchema = setupFieldsSchema.extend({ rideId: id() }).superRefine(setupDatesInOrder);
 export type SetupInput = z.output<typeof setupInputSchema>;
 
 /** POST /api/setups/:id/state: built (the ride stops until its set-up inspection is approved) or pulled down. */
