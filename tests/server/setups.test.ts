@@ -81,16 +81,16 @@ async function plan(body: object, client = api.supervisor): Promise<Setup> {
 }
 
 describe('a set-up at a shared ground', () => {
-  let whirligig: ReturnType<typeof demoRide>;
+  let kite: ReturnType<typeof demoRide>;
   let skylark: ReturnType<typeof demoRide>;
   let setup: Setup;
 
   test('making one books the set-up inspection, moves the ride there and stops it from running', async () => {
-    whirligig = demoRide(server.db, 'Whirligig Chairs');
-    expect(rideRow(whirligig.id)?.status).toBe('in_service');
+    kite = demoRide(server.db, 'Little Kite');
+    expect(rideRow(kite.id)?.status).toBe('in_service');
     const noticesBefore = server.db.select({ n: count() }).from(notices).get()?.n ?? 0;
     setup = await plan({
-      rideId: whirligig.id,
+      rideId: kite.id,
       siteId: groundId,
       eventId,
       fromDate: '2026-05-04',
@@ -108,19 +108,19 @@ describe('a set-up at a shared ground', () => {
       [null, 'planned', 'Mira Delacourt'],
       ['planned', 'set_up', 'Mira Delacourt'],
     ]);
-    const ride = rideRow(whirligig.id);
+    const ride = rideRow(kite.id);
     expect(ride).toMatchObject({ status: 'out_of_service', siteId: groundId });
     expect(ride?.statusReason).toBe(
       'Set up at Brackenfold showground: it may not run there until its set-up inspection is approved.',
     );
-    expect(setupSchedule(whirligig.id)).toMatchObject({
+    expect(setupSchedule(kite.id)).toMatchObject({
       dueOn: '2026-05-04',
       assignedTo: userIdOf(server.db, 'inspector@pivotwatch.test'),
     });
     const change = server.db
       .select()
       .from(rideStatusChanges)
-      .where(eq(rideStatusChanges.rideId, whirligig.id))
+      .where(eq(rideStatusChanges.rideId, kite.id))
       .all()
       .at(-1);
     expect(change).toMatchObject({
@@ -131,7 +131,7 @@ describe('a set-up at a shared ground', () => {
     // Every change of status reaches the operator as a notice.
     expect(server.db.select({ n: count() }).from(notices).get()?.n).toBe(noticesBefore + 1);
     // The ride's own page shows where it is now.
-    const page = await api.operator2.get(`/api/rides/${whirligig.id}`);
+    const page = await api.operator2.get(`/api/rides/${kite.id}`);
     expect(page.body.ride).toMatchObject({ siteName: 'Brackenfold showground', status: 'out_of_service' });
   });
 
@@ -153,33 +153,30 @@ describe('a set-up at a shared ground', () => {
       expect(res.status).toBe(200);
       return setupListResponseSchema.parse(res.body).setups.map((s) => s.rideName);
     };
-    expect(await names(api.supervisor)).toEqual(['Whirligig Chairs', 'Skylark']);
+    expect(await names(api.supervisor)).toEqual(['Little Kite', 'Skylark']);
     expect(await names(api.operator)).toEqual(['Skylark']);
-    expect(await names(api.operator2)).toEqual(['Whirligig Chairs']);
-    expectApiError(await api.operator.get(`/api/rides/${whirligig.id}/setups`), 404, 'not_found');
-    expect((await api.operator2.get(`/api/rides/${whirligig.id}/setups`)).body.setups).toHaveLength(1);
+    expect(await names(api.operator2)).toEqual(['Little Kite']);
+    expectApiError(await api.operator.get(`/api/rides/${kite.id}/setups`), 404, 'not_found');
+    expect((await api.operator2.get(`/api/rides/${kite.id}/setups`)).body.setups).toHaveLength(1);
   });
 
   test('the approved set-up inspection clears the set-up and returns the ride to service', async () => {
-    const record = makeRecord(whirligig, { type: 'setup_after_assembly' });
+    const record = makeRecord(kite, { type: 'setup_after_assembly' });
     await pushAccepted(server.db, api.inspector, [record]);
     const res = await api.supervisor.post(`/api/inspections/${record.id}/decision`, { decision: 'approve' });
     expect(res.status).toBe(200);
     expect(res.body.ride).toMatchObject({ status: 'in_service', changed: true });
-    const [after] = setupsOfRide(server.db, whirligig.id);
+    const [after] = setupsOfRide(server.db, kite.id);
     expect(after.state).toBe('cleared');
     expect(after.changes.at(-1)).toMatchObject({ fromState: 'set_up', toState: 'cleared' });
     // The booking is met: nothing more is due until the next set-up.
-    expect(setupSchedule(whirligig.id)?.dueOn).toBeNull();
+    expect(setupSchedule(kite.id)?.dueOn).toBeNull();
     // No follow-up was booked for a stop that only the set-up made.
     const followUp = server.db
       .select()
       .from(inspectionSchedules)
       .where(
-        and(
-          eq(inspectionSchedules.rideId, whirligig.id),
-          eq(inspectionSchedules.inspectionType, 'follow_up'),
-        ),
+        and(eq(inspectionSchedules.rideId, kite.id), eq(inspectionSchedules.inspectionType, 'follow_up')),
       )
       .get();
     expect(followUp?.dueOn ?? null).not.toBe('2026-05-04');
@@ -188,8 +185,8 @@ describe('a set-up at a shared ground', () => {
   test('pulling down leaves the ride in store; its logbook lists every change with who made it', async () => {
     const res = await api.supervisor.post(`/api/setups/${setup.id}/state`, { state: 'pulled_down' });
     expect(res.status).toBe(200);
-    expect(rideRow(whirligig.id)?.siteId).toBeNull();
-    expect(setupsOfRide(server.db, whirligig.id)[0].changes.map((c) => c.toState)).toEqual([
+    expect(rideRow(kite.id)?.siteId).toBeNull();
+    expect(setupsOfRide(server.db, kite.id)[0].changes.map((c) => c.toState)).toEqual([
       'planned',
       'set_up',
       'cleared',
@@ -203,21 +200,48 @@ describe('a set-up at a shared ground', () => {
   });
 });
 
+describe('the demo', () => {
+  test('its shared ground hosts rides of both operators, each operator seeing only their own', async () => {
+    const ground = (await api.supervisor.get('/api/sites?q=Brackley')).body.sites[0].id;
+    const at = async (client: Clients['operator']) =>
+      setupListResponseSchema
+        .parse((await client.get(`/api/setups?siteId=${ground}`)).body)
+        .setups.map((s) => [s.rideName, s.operatorName, s.eventName]);
+    expect(await at(api.supervisor)).toEqual([
+      ['Twin Comet', 'Tamsworth Pier Leisure', 'Brackley Meadow spring fair'],
+      ['Whirligig Chairs', 'Corvane Travelling Shows', 'Brackley Meadow spring fair'],
+    ]);
+    expect(await at(api.operator)).toEqual([
+      ['Twin Comet', 'Tamsworth Pier Leisure', 'Brackley Meadow spring fair'],
+    ]);
+    expect(await at(api.operator2)).toEqual([
+      ['Whirligig Chairs', 'Corvane Travelling Shows', 'Brackley Meadow spring fair'],
+    ]);
+    // The travelling ride's series: two fairgrounds, in order of build-up.
+    const tidebreaker = setupsOfRide(server.db, demoRide(server.db, 'Tidebreaker').id);
+    expect(tidebreaker.map((s) => [s.siteName, s.state])).toEqual([
+      ['Marrowby Wharf winter fair', 'pulled_down'],
+      ['Lowfield Common fairground', 'cleared'],
+      ['Marrowby Wharf winter fair', 'planned'],
+    ]);
+  });
+});
+
 describe('a ride stopped for another cause', () => {
   test('stays stopped: its set-up inspection does not return it to service', async () => {
-    const kite = demoRide(server.db, 'Little Kite');
-    const stop = await api.supervisor.post(`/api/rides/${kite.id}/status`, {
+    const wheel = demoRide(server.db, 'Lantern Wheel');
+    const stop = await api.supervisor.post(`/api/rides/${wheel.id}/status`, {
       status: 'out_of_service',
       reason: 'Cracked gondola hanger found by the operator',
     });
     expect(stop.status).toBe(200);
-    await plan({ rideId: kite.id, siteId: groundId, fromDate: '2026-05-04', toDate: '2026-05-10' });
-    expect(rideRow(kite.id)?.statusReason).toBe('Cracked gondola hanger found by the operator');
-    const record = makeRecord(kite, { type: 'setup_after_assembly' });
+    await plan({ rideId: wheel.id, siteId: groundId, fromDate: '2026-05-04', toDate: '2026-05-10' });
+    expect(rideRow(wheel.id)?.statusReason).toBe('Cracked gondola hanger found by the operator');
+    const record = makeRecord(wheel, { type: 'setup_after_assembly' });
     await pushAccepted(server.db, api.inspector, [record]);
     const res = await api.supervisor.post(`/api/inspections/${record.id}/decision`, { decision: 'approve' });
     expect(res.status).toBe(200);
-    expect(rideRow(kite.id)?.status).toBe('out_of_service');
+    expect(rideRow(wheel.id)?.status).toBe('out_of_service');
   });
 });
 
@@ -271,7 +295,7 @@ describe('refusals change nothing', () => {
       path: 'fromDate',
       message: 'The event runs from 2026-05-01 to 2026-05-31',
     });
-    const body = { rideId: tidebreaker.id, siteId: groundId, fromDate: '2026-06-10', toDate: '2026-06-20' };
+    const body = { rideId: tidebreaker.id, siteId: groundId, fromDate: '2026-07-10', toDate: '2026-07-20' };
     expectApiError(await api.operator2.post('/api/setups', body), 403, 'forbidden');
     expectApiError(await api.inspector.post('/api/setups', body), 403, 'forbidden');
     expectApiError(
@@ -287,11 +311,11 @@ describe('refusals change nothing', () => {
     await plan(body);
     const after = rowCounts();
     const clash = expectApiError(
-      await api.supervisor.post('/api/setups', { ...body, fromDate: '2026-06-18', toDate: '2026-06-25' }),
+      await api.supervisor.post('/api/setups', { ...body, fromDate: '2026-07-18', toDate: '2026-07-25' }),
       409,
       'setup_overlaps',
     );
-    expect(clash.message).toContain('2026-06-10 to 2026-06-20');
+    expect(clash.message).toContain('2026-07-10 to 2026-07-20');
     expect(rowCounts()).toEqual(after);
   });
 });
