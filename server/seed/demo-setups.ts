@@ -2,15 +2,16 @@
  * The demo's travelling rides (issue #19): Tidebreaker moves between Corvane's two fairgrounds, and the
  * Brackley Meadow spring fair, a shared ground, hosts Corvane's Whirligig Chairs and Tamsworth's Twin
  * Comet as a guest ride. Dates count from the seed day; the set-ups agree with the demo's schedules
- * (each set-up inspection last done 40 days before, Whirligig's next one due in two days). Nothing here
+ * (each set-up inspection last done 40 days before; Whirligig's and Twin Comet's next ones due in two
+ * days, booked in demo-schedules.ts). Days count on the shared ground's clock. Nothing here
  * changes a ride's status: the set-ups under way were cleared long ago, the coming ones are planned.
  */
-import { and, count, eq, inArray } from 'drizzle-orm';
+import { count, inArray } from 'drizzle-orm';
 
-import { inspectionSchedules, rides, sites } from '@/db/server/schema';
+import { rides, sites } from '@/db/server/schema';
 import { setupChanges, setups, siteEvents } from '@/db/server/setups';
 import type { SetupState } from '@/features/registry/schema';
-import { addDays, isoDay } from '@/lib/dates';
+import { addDays, dayInZone } from '@/lib/dates';
 import type { Db } from '@/server/db';
 
 type Tx = Pick<Db, 'select' | 'insert'>;
@@ -84,16 +85,12 @@ export function topUpDemoSetups(tx: Tx, authorId: string, now: Date): void {
       .all()
       .map((r) => [r.name, r.id]),
   );
-  const siteIds = new Map(
-    tx
-      .select({ id: sites.id, name: sites.name })
-      .from(sites)
-      .all()
-      .map((s) => [s.name, s.id]),
-  );
-  const ground = siteIds.get(SHARED_GROUND);
-  if (!ground || rideIds.size !== names.length) return;
-  const today = isoDay(now);
+  const siteRows = tx.select({ id: sites.id, name: sites.name, zone: sites.timeZone }).from(sites).all();
+  const siteIds = new Map(siteRows.map((s) => [s.name, s.id]));
+  const groundRow = siteRows.find((s) => s.name === SHARED_GROUND);
+  if (!groundRow || rideIds.size !== names.length) return;
+  const ground = groundRow.id;
+  const today = dayInZone(now, groundRow.zone ?? 'UTC');
   const at = (days: number) => new Date(Date.parse(`${addDays(today, days)}T09:00:00Z`)).toISOString();
   const { id: eventId } = tx
     .insert(siteEvents)
@@ -139,25 +136,4 @@ export function topUpDemoSetups(tx: Tx, authorId: string, now: Date): void {
         .run(),
     );
   }
-  // A set-up books its inspection: the guest ride has no set-up schedule of its own yet.
-  const comet = rideIds.get('Twin Comet') as string;
-  const booked = tx
-    .select({ id: inspectionSchedules.id })
-    .from(inspectionSchedules)
-    .where(
-      and(
-        eq(inspectionSchedules.rideId, comet),
-        eq(inspectionSchedules.inspectionType, 'setup_after_assembly'),
-      ),
-    )
-    .get();
-  if (!booked)
-    tx.insert(inspectionSchedules)
-      .values({
-        rideId: comet,
-        inspectionType: 'setup_after_assembly',
-        dueOn: addDays(today, 2),
-        notes: 'Booked by its set-up at the Brackley Meadow spring fair.',
-      })
-      .run();
 }
