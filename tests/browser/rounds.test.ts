@@ -8,7 +8,7 @@
  */
 import type { Page } from 'playwright-core';
 
-import type { RoundWeek, Setup } from '@/features/registry/schema';
+import type { RoundWeek, Schedule, Setup } from '@/features/registry/schema';
 import { apiGet, apiToken, screenshot, serverAndBrowser } from '@/tests/support/browser/harness';
 
 const app = serverAndBrowser();
@@ -49,12 +49,15 @@ test('the supervisor plans a set-up and the round; the inspector’s Today follo
 
   // Whirligig Chairs (at Lowfield Common, already the demo inspector's) goes on the same day of the round.
   const whirligig = await rideId(token, 'Whirligig Chairs');
-  const before = await apiGet<RoundWeek>(app.baseUrl, `/api/rounds?week=${day}`, token);
-  const chairs = before.days
-    .flatMap((d) => d.sites.flatMap((s) => s.items))
-    .find((i) => i.rideId === whirligig && i.inspectionType === 'setup_after_assembly');
+  // Its due day is on Lowfield's clock (Los Angeles), so it may fall in another week: found by its schedule.
+  const { schedules } = await apiGet<{ schedules: Schedule[] }>(
+    app.baseUrl,
+    `/api/schedules?rideId=${whirligig}&inspectionType=setup_after_assembly`,
+    token,
+  );
+  const chairs = schedules[0];
   expect(chairs?.assignedTo?.name).toBe('Tomas Reyne');
-  const planned = await fetch(`${app.baseUrl}/api/rounds/items/${chairs?.scheduleId}`, {
+  const planned = await fetch(`${app.baseUrl}/api/rounds/items/${chairs?.id}`, {
     method: 'PUT',
     headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
     body: JSON.stringify({ day, assignedTo: chairs?.assignedTo?.id }),
