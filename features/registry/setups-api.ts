@@ -7,10 +7,12 @@ import {
   setupListResponseSchema,
   setupResponseSchema,
   siteEventListResponseSchema,
+  siteEventResponseSchema,
   type RoundItemInput,
   type RoundOrderInput,
   type SetupInput,
   type SetupStateInput,
+  type SiteEventInput,
 } from '@/features/registry/schema';
 import { rideKeys } from '@/features/rides';
 
@@ -86,5 +88,14 @@ export function useRoundOrderMutation() {
   return useMutation({
     mutationFn: (body: RoundOrderInput) => apiFetch('/api/rounds/order', { method: 'PUT', body }),
     onSuccess: () => client.invalidateQueries({ queryKey: registryKeys.rounds() }),
+  });
+}
+
+export function useSiteEventCreateMutation() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: SiteEventInput) =>
+      apiFetch('/api/site-events', { body, schema: siteEventResponseSchema }),
+    onSuccess: () => client.invalidateQueries({ queryKey: registryKeys.setups() }),
   });
 }

@@ -317,5 +317,8 @@ describe('refusals change nothing', () => {
     );
     expect(clash.message).toContain('2026-07-10 to 2026-07-20');
     expect(rowCounts()).toEqual(after);
+    // The ground's and the ride's history stay: neither can be deleted while set-ups name them.
+    expectApiError(await api.admin.delete(`/api/sites/${groundId}`), 409, 'in_use');
+    expect(rowCounts()).toEqual(after);
   });
 });

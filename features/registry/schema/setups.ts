@@ -38,13 +38,13 @@ export function setupDatesInOrder(v: { fromDate: string; toDate: string }, ctx: 
 // ——— events at shared sites ———
 
 /** POST /api/site-events: a fair (or any event) at a site for a range of days. */
-export const siteEventInputSchema = z
-  .object({
-    siteId: id(),
-    name: requiredText(120),
-    fromDate: calendarDate(),
-    toDate: calendarDate(),
-  })
+export const siteEventFieldsSchema = z.object({
+  name: requiredText(120),
+  fromDate: calendarDate(),
+  toDate: calendarDate(),
+});
+export const siteEventInputSchema = siteEventFieldsSchema
+  .extend({ siteId: id() })
   .superRefine(setupDatesInOrder);
 export type SiteEventInput = z.output<typeof siteEventInputSchema>;
 
@@ -58,6 +58,7 @@ export const siteEventSchema = z.object({
 });
 export type SiteEvent = z.infer<typeof siteEventSchema>;
 export const siteEventListResponseSchema = z.object({ events: z.array(siteEventSchema) });
+export const siteEventResponseSchema = z.object({ event: siteEventSchema });
 
 // ——— set-ups ———
 
