@@ -17,6 +17,7 @@ export default defineConfig({
     './db/server/incidents.ts',
     './db/server/parts.ts',
     './db/server/bulletins.ts',
+    './db/server/setups.ts',
   ],
   out: './drizzle/server',
 });

@@ -424,6 +424,22 @@ export const designDocumentKindVocabulary: Record<DesignDocumentKind, Words & { 
   other: { label: 'Other', description: 'Any other paper that belongs with the design data.' },
 };
 
+/**
+ * A travelling ride's build-up at one site: planned, built (its set-up inspection not yet approved, so it
+ * may not run there), cleared to run (the set-up inspection approved), pulled down.
+ */
+export const setupStates = ['planned', 'set_up', 'cleared', 'pulled_down'] as const;
+export type SetupState = (typeof setupStates)[number];
+export const setupStateVocabulary: Record<SetupState, Words & { description: string }> = {
+  planned: { label: 'Planned', description: 'Booked; the ride is not built there yet.' },
+  set_up: {
+    label: 'Built, awaiting set-up inspection',
+    description: 'Built at the site; it may not run there until its set-up inspection is approved.',
+  },
+  cleared: { label: 'Cleared to run', description: 'Its set-up inspection was approved.' },
+  pulled_down: { label: 'Pulled down', description: 'Taken down and moved on.' },
+};
+
 /** Every enumeration that has marks, for tests and legends that walk them all. */
 export const markedVocabularies = {
   rideStatus: rideStatusVocabulary,

@@ -69,6 +69,7 @@ const serverOrder = [
   'notices',
   'review',
   'incidents',
+  'setups',
   'reports',
   'logbook',
   'seed',

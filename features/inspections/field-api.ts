@@ -18,6 +18,7 @@ import {
   getPhotoDataUri,
 } from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
+import { compareRoundPlaces, scheduleSchema } from '@/features/registry/schema';
 import {
   readAssignments,
   readCurrentDesign,
@@ -62,6 +63,11 @@ export function useFieldRidesQuery() {
         listDrafts(dev),
       ]);
       const assigned = new Map(assignments.map((a) => [a.rideId, a]));
+      // Assigned rides first, in the planner's order: day of the round, then the day's travel order.
+      const placeOf = (e: { ride: { name: string }; assignment: unknown }) => {
+        const s = scheduleSchema.safeParse(e.assignment);
+        return s.success ? { ...s.data, name: e.ride.name } : { name: e.ride.name };
+      };
       return rides
         .map((ride) => ({
           ride,
@@ -69,7 +75,8 @@ export function useFieldRidesQuery() {
           drafts: drafts.filter((d) => d.rideId === ride.id),
         }))
         .sort(
-          (a, b) => Number(!!b.assignment) - Number(!!a.assignment) || a.ride.name.localeCompare(b.ride.name),
+          (a, b) =>
+            Number(!!b.assignment) - Number(!!a.assignment) || compareRoundPlaces(placeOf(a), placeOf(b)),
         );
     },
   });

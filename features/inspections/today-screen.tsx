@@ -20,7 +20,7 @@ import {
   useStartInspectionMutation,
 } from '@/features/inspections/field-api';
 import { type InspectionType, inspectionTypeLabel } from '@/features/records/schema';
-import { dueStatusOn, scheduleSchema } from '@/features/registry/schema';
+import { dueStatusOn, scheduleSchema, setupPendingWords } from '@/features/registry/schema';
 import { rideHref } from '@/features/rides';
 import { rideClassLabel } from '@/features/rides/schema';
 import { inspectHref, scanHref } from '@/features/inspections/hrefs';
@@ -162,6 +162,20 @@ function RideToInspect({ entry }: { entry: Entry }) {
           {dueStatus === 'overdue' ? ' · overdue' : ''}
         </Text>
       ) : null}
+      {assigned?.plannedOn ? (
+        <Text variant="small">
+          Round: {formatDate(assigned.plannedOn)}
+          {assigned.roundPosition != null ? ` · stop ${assigned.roundPosition + 1}` : ''}
+        </Text>
+      ) : null}
+      {assigned?.inspectionType === 'setup_after_assembly' && entry.ride.status !== 'in_service' ? (
+        <View style={styles.pending}>
+          <Feather name="alert-triangle" size={16} color={colors.over} />
+          <Text variant="small" color={colors.over} style={styles.grow}>
+            {setupPendingWords(entry.ride.siteName ?? 'its new site')}
+          </Text>
+        </View>
+      ) : null}
       {choosing ? (
         <InspectionTypeChoice onChoose={begin} suggested={assigned?.inspectionType} />
       ) : (
@@ -187,6 +201,7 @@ function RideToInspect({ entry }: { entry: Entry }) {
 
 const styles = StyleSheet.create({
   grow: { flex: 1, gap: 2 },
+  pending: { flexDirection: 'row', gap: space.xs, alignItems: 'flex-start' },
   head: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
   draft: { flexDirection: 'row', alignItems: 'center', gap: space.md },
   grid: { gap: space.md },

@@ -62,6 +62,11 @@ export const registryKeys = {
   rideSchedules: (rideId: string) => [...registryKeys.schedules(), 'ride', rideId] as const,
   myAssignments: () => [...registryKeys.schedules(), 'mine'] as const,
   inspectors: () => [...registryKeys.all, 'inspectors'] as const,
+  setups: () => [...registryKeys.all, 'setups'] as const,
+  rideSetups: (rideId: string) => [...registryKeys.setups(), 'ride', rideId] as const,
+  siteEvents: () => [...registryKeys.setups(), 'events'] as const,
+  rounds: () => [...registryKeys.schedules(), 'rounds'] as const,
+  roundWeek: (week: string) => [...registryKeys.rounds(), week] as const,
   audit: () => [...registryKeys.all, 'audit'] as const,
   auditList: (q: QueryParams) => [...registryKeys.audit(), 'list', clean(q)] as const,
 };

@@ -54,6 +54,9 @@ export const auditEntityLabel: Record<AuditEntity, string> = {
   incident: 'Incident report',
   bulletin: 'Maker bulletin',
   bulletin_action: 'Bulletin done / not done',
+  setup: 'Set-up',
+  site_event: 'Event',
+  round: 'Round',
 };
 
 const actionSpec: Record<

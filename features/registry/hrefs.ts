@@ -35,6 +35,7 @@ export const bulletinHref = (id: string) => bulletin(id) satisfies Href;
 export const bulletinEditHref = (id: string) => `${bulletin(id)}/edit` as const satisfies Href;
 
 export const schedulesHref = '/register/schedules' as const satisfies Href;
+export const roundsHref = '/register/rounds' as const satisfies Href;
 export const instrumentsHref = '/register/instruments' as const satisfies Href;
 /** The audit log, or one ride's part of it. */
 export const auditHref = (rideId?: string) =>

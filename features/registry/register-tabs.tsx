@@ -11,6 +11,7 @@ import {
   checklistsHref,
   companiesHref,
   instrumentsHref,
+  roundsHref,
   schedulesHref,
   sitesHref,
 } from '@/features/registry/hrefs';
@@ -25,6 +26,7 @@ const planners = ['admin', 'supervisor'] as const;
 const registerTabs: Tab[] = [
   { href: ridesHref, label: 'Rides', roles: staff },
   { href: schedulesHref, label: 'Schedules', roles: planners },
+  { href: roundsHref, label: 'Rounds', roles: planners },
   { href: checklistsHref, label: 'Checklists', roles: staff },
   { href: bulletinsHref, label: 'Bulletins', roles: staff },
   { href: companiesHref, label: 'Companies', roles: staff },

@@ -8,6 +8,7 @@ import { QueryState } from '@/components/query-state';
 import { SubScreen } from '@/components/sub-screen';
 import { colors, space } from '@/components/theme';
 import { RoleGate } from '@/features/auth/ui';
+import { SiteEventsCard } from '@/features/registry/site-events-card';
 import { useRidePageQuery, useSiteQuery } from '@/features/registry/api';
 import { Field } from '@/features/registry/design-view';
 import { DeleteAction } from '@/features/registry/delete-action';
@@ -44,30 +45,33 @@ function SiteView({ id, role }: { id: string; role: Role }) {
           <Panes
             main={<RidesPane title="RIDES AT THIS SITE" page={rides.data} />}
             side={
-              <Card>
-                <Field label="Address" value={s.address ?? '—'} />
-                <Field label="Locality" value={s.locality ?? '—'} />
-                <Field
-                  label="Time zone"
-                  value={s.timeZone ?? `${s.effectiveTimeZone} (the inspection body’s default)`}
-                />
-                <Field label="Operator" value={s.operatorName} />
-                {role === 'admin' ? (
-                  <View style={styles.remove}>
-                    <DeleteAction
-                      kind="site"
-                      id={s.id}
-                      noun="site"
-                      name={s.name}
-                      consequence={
-                        'The site leaves the register. A site with rides on it stays: move its rides to ' +
-                        'another site first. The audit log keeps a record of the removal.'
-                      }
-                      listHref={sitesHref}
-                    />
-                  </View>
-                ) : null}
-              </Card>
+              <>
+                <Card>
+                  <Field label="Address" value={s.address ?? '—'} />
+                  <Field label="Locality" value={s.locality ?? '—'} />
+                  <Field
+                    label="Time zone"
+                    value={s.timeZone ?? `${s.effectiveTimeZone} (the inspection body’s default)`}
+                  />
+                  <Field label="Operator" value={s.operatorName} />
+                  {role === 'admin' ? (
+                    <View style={styles.remove}>
+                      <DeleteAction
+                        kind="site"
+                        id={s.id}
+                        noun="site"
+                        name={s.name}
+                        consequence={
+                          'The site leaves the register. A site with rides on it stays: move its rides to ' +
+                          'another site first. The audit log keeps a record of the removal.'
+                        }
+                        listHref={sitesHref}
+                      />
+                    </View>
+                  ) : null}
+                </Card>
+                <SiteEventsCard siteId={s.id} planner={role === 'admin' || role === 'supervisor'} />
+              </>
             }
           />
         </SubScreen>

@@ -28,3 +28,4 @@ export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';
 export { RemovalNotice } from '@/features/registry/removal-notice';
 export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
+export { RideSetupsCard } from '@/features/registry/ride-setups-card';

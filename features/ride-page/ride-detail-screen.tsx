@@ -20,6 +20,7 @@ import {
   DueMark,
   dueInWords,
   PlateSheetDownload,
+  RideSetupsCard,
 } from '@/features/registry/ui';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
@@ -138,6 +139,7 @@ function RideDetailBody({
       {user.role === 'admin' ? <PlateSheetDownload ride={ride} /> : null}
       {staff ? <ScheduleCard rideId={ride.id} role={user.role} /> : null}
       <RideBulletinsCard rideId={ride.id} role={user.role} timeZone={ride.siteTimeZone} />
+      <RideSetupsCard rideId={ride.id} planner={editor} />
       {staff ? <NoticesCard rideId={ride.id} /> : null}
       {user.role === 'inspector' ? null : <ChainCard rideId={ride.id} />}
       {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}

@@ -44,6 +44,10 @@ export const rideStatusEvents = [
   'action_reported',
   /** The operator stops their own ride with an incident report. */
   'incident_stop',
+  /** A travelling ride built up at a site: it may not run there before its set-up inspection is approved. */
+  'setup_started',
+  /** The decision approving the set-up inspection of the ride's current set-up. */
+  'setup_approved',
 ] as const;
 export type RideStatusEvent = (typeof rideStatusEvents)[number];
 
@@ -56,6 +60,8 @@ export type RideStatusEvent = (typeof rideStatusEvents)[number];
  * - `no_open_blocking_findings`: no finding that forbids operation is open on the ride
  * - `no_over_limit_values`: the inspection has no value over its limit
  * - `override`: recorded as an override (its own audit entry and notice to the operator)
+ * - `setup_inspection`: the approved inspection is of the set-up type
+ * - `stopped_for_setup`: the ride's status was set by its current set-up, not by anything else
  */
 export const transitionRequirements = [
   'reason',
@@ -65,6 +71,8 @@ export const transitionRequirements = [
   'no_open_blocking_findings',
   'no_over_limit_values',
   'override',
+  'setup_inspection',
+  'stopped_for_setup',
 ] as const;
 type TransitionRequirement = (typeof transitionRequirements)[number];
 
@@ -92,6 +100,8 @@ const NOT_YOURS = {
   action_reported: 'Corrective action is reported by the ride’s operator.',
   incident_stop:
     'Only the ride’s operator stops it with an incident report; the inspection body uses the status change.',
+  setup_started: 'Only a supervisor or an administrator plans or records a ride’s set-up.',
+  setup_approved: 'Only a supervisor or an administrator approves inspections.',
 } satisfies Record<RideStatusEvent, string>;
 
 /** One cell of the table, written out case by case so each rule can be read on its own. */
@@ -130,6 +140,21 @@ function rule(from: RideStatus, event: RideStatusEvent, role: Role): TransitionR
       if (role !== 'operator') return no(NOT_YOURS.incident_stop);
       if (from === 'out_of_service') return no('The ride is already out of service.');
       return yes('out_of_service', 'reason');
+    case 'setup_started':
+      if (!deciders.includes(role)) return no(NOT_YOURS.setup_started);
+      // Already stopped for something else: it stays so, and that cause still needs its own way back.
+      if (from === 'out_of_service') return no('The ride is already out of service.');
+      return yes('out_of_service', 'reason');
+    case 'setup_approved':
+      if (!deciders.includes(role)) return no(NOT_YOURS.setup_approved);
+      if (from === 'in_service') return yes('in_service');
+      return yes(
+        'in_service',
+        'setup_inspection',
+        'stopped_for_setup',
+        'no_open_blocking_findings',
+        'no_over_limit_values',
+      );
   }
 }
 
@@ -158,6 +183,8 @@ export type TransitionFacts = {
   inspectionType?: string | null;
   openBlockingFindings?: number;
   overLimitValues?: number;
+  /** True when the ride's last status change was its current set-up's start. */
+  stoppedForSetup?: boolean;
 };
 
 export type TransitionProblem = {
@@ -215,6 +242,22 @@ const requirementProblem: Record<TransitionRequirement, (f: TransitionFacts) => 
           message: `${f.overLimitValues} value(s) of the inspection are over their limits.`,
         },
   override: () => null,
+  setup_inspection: (f) =>
+    f.inspectionType === 'setup_after_assembly'
+      ? null
+      : {
+          code: 'setup_inspection_required',
+          message: 'Only the set-up inspection clears a ride built up at a new site.',
+        },
+  stopped_for_setup: (f) =>
+    f.stoppedForSetup
+      ? null
+      : {
+          code: 'stopped_for_other_cause',
+          message:
+            'The ride was stopped for another cause than its set-up; it returns to service by a follow-up ' +
+            'inspection or an override.',
+        },
 };
 
 /** Whether `role` may make `event` happen to a ride in `from`, given the facts; and to what status. */

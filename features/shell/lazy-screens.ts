@@ -124,6 +124,7 @@ export const SitesListScreen = lazyScreen(rides, 'SitesListScreen');
 export const SiteScreen = lazyScreen(rides, 'SiteScreen');
 export const SiteEditScreen = lazyScreen(rides, 'SiteEditScreen');
 export const SchedulesListScreen = lazyScreen(rides, 'SchedulesListScreen');
+export const RoundsScreen = lazyScreen(rides, 'RoundsScreen');
 export const InstrumentRegisterScreen = lazyScreen(rides, 'InstrumentRegisterScreen');
 export const BulletinsListScreen = lazyScreen(rides, 'BulletinsListScreen');
 export const BulletinScreen = lazyScreen(rides, 'BulletinScreen');

@@ -3,6 +3,7 @@ import { and, asc, count, eq, inArray, or, type SQL } from 'drizzle-orm';
 import { inspections } from '@/db/server/inspections';
 import { notices } from '@/db/server/notices';
 import { companies, designVersions, inspectionSchedules, rides, sites } from '@/db/server/schema';
+import { setups } from '@/db/server/setups';
 import type { RideInput, RideListQuery } from '@/features/registry/schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { Db } from '@/server/db';
@@ -188,6 +189,11 @@ const hasInspections: RideDeleteGuard = (db, rideId) => {
   return n > 0 ? `${n} inspection(s) on record` : null;
 };
 
+const hasSetups: RideDeleteGuard = (db, rideId) => {
+  const n = db.select({ n: count() }).from(setups).where(eq(setups.rideId, rideId)).get()?.n ?? 0;
+  return n > 0 ? `${n} set-up(s) on record` : null;
+};
+
 const hasNotices: RideDeleteGuard = (db, rideId) => {
   const n = db.select({ n: count() }).from(notices).where(eq(notices.rideId, rideId)).get()?.n ?? 0;
   return n > 0 ? `${n} notice(s) issued to its operator` : null;
@@ -200,7 +206,7 @@ const hasNotices: RideDeleteGuard = (db, rideId) => {
 export function deleteRide(db: Db, userId: string, id: string, guards: RideDeleteGuard[] = []): void {
   db.transaction((tx) => {
     const before = mustFindRide(tx, id);
-    const blockers = [hasDesignData, hasSchedules, hasInspections, hasNotices, ...guards]
+    const blockers = [hasDesignData, hasSchedules, hasInspections, hasNotices, hasSetups, ...guards]
       .map((g) => g(tx, id))
       .filter((b): b is string => b !== null);
     if (blockers.length > 0)

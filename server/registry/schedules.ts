@@ -2,6 +2,7 @@ import { and, asc, count, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
+import { roundPlans, roundSiteOrder } from '@/db/server/setups';
 import {
   inspectionTypeLabel,
   type Schedule,
@@ -29,31 +30,42 @@ import {
 const assignee = alias(users, 'assignee');
 
 function scheduleRows(db: Pick<Db, 'select'>) {
-  return db
-    .select({
-      id: inspectionSchedules.id,
-      rideId: inspectionSchedules.rideId,
-      rideName: rides.name,
-      rideClass: rides.rideClass,
-      rideStatus: rides.status,
-      siteName: sites.name,
-      siteTimeZone: siteZoneSql,
-      operatorName: companies.name,
-      inspectionType: inspectionSchedules.inspectionType,
-      intervalDays: inspectionSchedules.intervalDays,
-      lastDoneOn: inspectionSchedules.lastDoneOn,
-      dueOn: inspectionSchedules.dueOn,
-      assignedToId: inspectionSchedules.assignedTo,
-      assignedToName: assignee.name,
-      assignedAt: inspectionSchedules.assignedAt,
-      notes: inspectionSchedules.notes,
-      createdAt: inspectionSchedules.createdAt,
-    })
-    .from(inspectionSchedules)
-    .innerJoin(rides, eq(rides.id, inspectionSchedules.rideId))
-    .innerJoin(companies, eq(companies.id, rides.operatorCompanyId))
-    .leftJoin(sites, eq(sites.id, rides.siteId))
-    .leftJoin(assignee, eq(assignee.id, inspectionSchedules.assignedTo));
+  return (
+    db
+      .select({
+        id: inspectionSchedules.id,
+        rideId: inspectionSchedules.rideId,
+        rideName: rides.name,
+        rideClass: rides.rideClass,
+        rideStatus: rides.status,
+        siteName: sites.name,
+        siteTimeZone: siteZoneSql,
+        operatorName: companies.name,
+        inspectionType: inspectionSchedules.inspectionType,
+        intervalDays: inspectionSchedules.intervalDays,
+        lastDoneOn: inspectionSchedules.lastDoneOn,
+        dueOn: inspectionSchedules.dueOn,
+        assignedToId: inspectionSchedules.assignedTo,
+        assignedToName: assignee.name,
+        assignedAt: inspectionSchedules.assignedAt,
+        notes: inspectionSchedules.notes,
+        createdAt: inspectionSchedules.createdAt,
+        siteId: rides.siteId,
+        plannedOn: roundPlans.plannedOn,
+        roundPosition: roundSiteOrder.position,
+      })
+      .from(inspectionSchedules)
+      .innerJoin(rides, eq(rides.id, inspectionSchedules.rideId))
+      .innerJoin(companies, eq(companies.id, rides.operatorCompanyId))
+      .leftJoin(sites, eq(sites.id, rides.siteId))
+      .leftJoin(assignee, eq(assignee.id, inspectionSchedules.assignedTo))
+      // The planner's day and the travel order of that day (issue #19's rounds).
+      .leftJoin(roundPlans, eq(roundPlans.scheduleId, inspectionSchedules.id))
+      .leftJoin(
+        roundSiteOrder,
+        and(eq(roundSiteOrder.day, roundPlans.plannedOn), eq(roundSiteOrder.siteId, rides.siteId)),
+      )
+  );
 }
 
 type Row = ReturnType<ReturnType<typeof scheduleRows>['all']>[number];

@@ -2,6 +2,7 @@ import { and, asc, count, eq, or, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { companies, rides, sites } from '@/db/server/schema';
+import { setups, siteEvents } from '@/db/server/setups';
 import type { Site, SiteInput } from '@/features/registry/schema';
 import { siteListQuerySchema, sitePatchSchema } from '@/features/registry/schema';
 import type { Db } from '@/server/db';
@@ -157,6 +158,15 @@ export function deleteSite(db: Db, userId: string, id: string): void {
     if (before.rideCount > 0)
       throw conflict(
         `${before.name} still has ${before.rideCount} ride(s). Move them to another site first.`,
+        'in_use',
+      );
+    // A travelling ride's history names the site: its set-ups and events stay, and so does the site.
+    const history =
+      (tx.select({ n: count() }).from(setups).where(eq(setups.siteId, id)).get()?.n ?? 0) +
+      (tx.select({ n: count() }).from(siteEvents).where(eq(siteEvents.siteId, id)).get()?.n ?? 0);
+    if (history > 0)
+      throw conflict(
+        `${before.name} has ${history} set-up(s) or event(s) on record; it stays in the register.`,
         'in_use',
       );
     tx.delete(sites).where(eq(sites.id, id)).run();

@@ -36,6 +36,7 @@ import {
   openBlockingFindings,
   type AppliedChange,
 } from '@/server/review/ride-status';
+import { setupInspectionApproved, stoppedForSetup } from '@/server/review/setup-clearance';
 import { isoDay } from '@/lib/dates';
 
 type DecisionInput = z.output<typeof decisionInputSchema>;
@@ -192,6 +193,30 @@ function decidedStatus(
         now,
         inspectionId: before.id,
       });
+  } else if (
+    !asked &&
+    reviewState === 'approved' &&
+    before.type === 'setup_after_assembly' &&
+    ride.status !== 'in_service'
+  ) {
+    // The set-up's path back to service: only when the set-up alone stopped it and nothing forbids operation.
+    const check = checkTransition(ride.status, 'setup_approved', user.role, {
+      inspectionType: before.type,
+      stoppedForSetup: stoppedForSetup(tx, before.rideId),
+      openBlockingFindings: openBlockingFindings(tx, before.rideId),
+      overLimitValues: analysisOver,
+    });
+    if (check.ok)
+      change = applyStatus(tx, {
+        userId: user.id,
+        rideId: before.rideId,
+        event: 'setup_approved',
+        to: check.to,
+        override: false,
+        reason: null,
+        now,
+        inspectionId: before.id,
+      });
   }
   return change;
 }
@@ -301,6 +326,16 @@ export function decideInspection(
     const change = decidedStatus(tx, user, before, ride, { input, reviewState, analysisOver, now });
     const statusAfter = change?.to ?? ride.status;
     assertApprovalStops(reviewState, causes, statusAfter);
+    // After the status: whether the set-up alone stopped the ride is read from the set-up still built.
+    if (reviewState === 'approved' && before.type === 'setup_after_assembly')
+      setupInspectionApproved(
+        db,
+        tx,
+        user.id,
+        before.rideId,
+        causes.blocking === 0 && analysisOver === 0,
+        now,
+      );
     if (change?.to === 'in_service') followUpDone(db, tx, user.id, before.rideId, now);
     else if (statusAfter !== 'in_service') ensureFollowUp(db, tx, user.id, before.rideId, now);
 

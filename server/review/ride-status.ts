@@ -34,6 +34,7 @@ import { mustFindRide } from '@/server/registry/rides';
 import { createSchedule, updateSchedule } from '@/server/registry/schedules';
 import { isoDay } from '@/lib/dates';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
+import { stoppedForSetup } from '@/server/review/setup-clearance';
 
 type Tx = NoticeTx & Pick<Db, 'delete'>;
 
@@ -197,6 +198,8 @@ export function ensureFollowUp(db: Db, tx: Pick<Db, 'select'>, userId: string, r
   const ride = tx.select({ status: rides.status }).from(rides).where(eq(rides.id, rideId)).get();
   if (!ride || ride.status === 'in_service') return;
   if (openBlockingFindings(tx, rideId) > 0) return;
+  // Stopped only for its set-up: the set-up inspection, already booked, is the way back.
+  if (stoppedForSetup(tx, rideId)) return;
   const schedule = tx
     .select({
       id: inspectionSchedules.id,

@@ -29,6 +29,7 @@ import { registerRouter } from '@/server/routes/register';
 import { reviewQueueRouter, reviewRouter } from '@/server/routes/review';
 import { ridesRouter } from '@/server/routes/rides';
 import { schedulesRouter } from '@/server/routes/schedules';
+import { setupsRouter } from '@/server/routes/setups';
 import { syncRouter } from '@/server/routes/sync';
 
 /** Everything under `/api`. Anything it doesn't know ends in a JSON 404 here, never in the web app. */
@@ -48,6 +49,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(checklistsRouter(deps));
   router.use(instrumentsRouter(deps));
   router.use(schedulesRouter(deps));
+  router.use(setupsRouter(deps));
   router.use(auditRouter(deps));
   router.use(adminUsersRouter(deps));
   router.use(loadsRouter(deps));

@@ -37,6 +37,15 @@ export const demoSchedules: DemoSchedule[] = [
   },
   // Twin Comet
   { serial: 'BME-TA2-0097', inspectionType: 'periodic', intervalDays: 30, lastDoneDaysAgo: 10 },
+  // Its guest set-up at the Brackley Meadow spring fair (server/seed/demo-setups.ts) books this one.
+  {
+    serial: 'BME-TA2-0097',
+    inspectionType: 'setup_after_assembly',
+    intervalDays: null,
+    lastDoneDaysAgo: null,
+    dueInDays: 2,
+    notes: 'Booked by its set-up at the Brackley Meadow spring fair.',
+  },
   {
     serial: 'BME-TA2-0097',
     inspectionType: 'annual',

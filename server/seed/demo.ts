@@ -31,6 +31,7 @@ import { diskStorage, storageOf } from '@/server/storage';
 import { topUpDemoNdt } from '@/server/seed/demo-ndt';
 import { topUpDemoRunningLog } from '@/server/seed/demo-running-log';
 import { demoSchedules } from '@/server/seed/demo-schedules';
+import { topUpDemoSetups } from '@/server/seed/demo-setups';
 
 /*
  * An invented scenario for trying Pivotwatch out: one inspection body, three ride owners and their rides.
@@ -122,6 +123,15 @@ export const demoSites: {
     address: 'Marrowby Wharf, east apron',
     locality: 'Marrowby',
     timeZone: 'Pacific/Auckland',
+    operator: 'Corvane Travelling Shows',
+  },
+  {
+    // A shared ground: its spring fair hosts rides of both demo operators (server/seed/demo-setups.ts).
+    name: 'Brackley Meadow showground',
+    kind: 'fairground',
+    address: 'Brackley Meadow, Mill Lane',
+    locality: 'Brackley',
+    timeZone: 'Europe/London',
     operator: 'Corvane Travelling Shows',
   },
 ];
@@ -470,6 +480,7 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
           .run();
       }
     }
+    topUpDemoSetups(tx, author.id, now);
   });
 }
 

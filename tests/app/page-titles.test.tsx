@@ -165,6 +165,7 @@ describe('rendered routes', () => {
       file: '(app)/register/schedules',
       label: 'Schedules',
     },
+    { url: '/register/rounds', route: 'register/rounds', file: '(app)/register/rounds', label: 'Rounds' },
     {
       url: '/register/checklists',
       route: 'register/checklists/index',

@@ -140,6 +140,7 @@ const screens: Screen[] = [
   { name: 'New checklist', title: 'New checklist', path: () => '/register/checklists/new', roles: desk },
   { name: 'Instruments', title: 'Instruments', path: () => '/register/instruments', roles: staff },
   { name: 'Schedules', title: 'Schedules', path: () => '/register/schedules', roles: desk },
+  { name: 'Rounds', title: 'Rounds', path: () => '/register/rounds', roles: desk },
   { name: 'Audit log', title: 'Audit log', path: () => '/register/audit', roles: desk },
   { name: 'Notices', title: 'Notices', path: () => '/notices', roles: all },
   { name: 'Notice', title: 'Notice', path: (f) => `/notices/${f.noticeId}`, roles: all },

@@ -23,6 +23,7 @@ type Status = (typeof rideStatuses)[number];
  */
 const R = '+reason';
 const FU = '+follow_up_inspection+no_open_blocking_findings+no_over_limit_values';
+const SU = '+setup_inspection+stopped_for_setup+no_open_blocking_findings+no_over_limit_values';
 const expected: Record<RideStatusEvent, Record<Role, [string, string, string]>> = {
   stop: {
     inspector: ['-', '-', '-'],
@@ -72,6 +73,19 @@ const expected: Record<RideStatusEvent, Record<Role, [string, string, string]>> 
     operator: [`out_of_service${R}`, `out_of_service${R}`, '-'],
     admin: ['-', '-', '-'],
   },
+  // A ride built up at a new site runs there only after its set-up inspection (issue #19).
+  setup_started: {
+    inspector: ['-', '-', '-'],
+    supervisor: [`out_of_service${R}`, `out_of_service${R}`, '-'],
+    operator: ['-', '-', '-'],
+    admin: [`out_of_service${R}`, `out_of_service${R}`, '-'],
+  },
+  setup_approved: {
+    inspector: ['-', '-', '-'],
+    supervisor: ['in_service', `in_service${SU}`, `in_service${SU}`],
+    operator: ['-', '-', '-'],
+    admin: ['in_service', `in_service${SU}`, `in_service${SU}`],
+  },
 };
 
 const cellText = (from: Status, event: RideStatusEvent, role: Role) => {
@@ -84,9 +98,9 @@ describe('the ride-status transition table', () => {
     rideStatusEvents.flatMap((event) => roles.map((role) => [from, event, role, i] as const)),
   );
 
-  it('has every cell of from × event × role (3 × 8 × 4)', () => {
+  it('has every cell of from × event × role (3 × 10 × 4)', () => {
     expect(cells).toHaveLength(rideStatuses.length * rideStatusEvents.length * roles.length);
-    expect(cells).toHaveLength(96);
+    expect(cells).toHaveLength(120);
   });
 
   it.each(cells)('from %s, %s by %s', (from, event, role, i) => {
@@ -95,14 +109,18 @@ describe('the ride-status transition table', () => {
     if (!r.allowed) expect(r.why.length).toBeGreaterThan(10);
   });
 
-  it('never puts a stopped or restricted ride in service except by an approved follow-up or an override', () => {
+  it('never puts a stopped or restricted ride in service except by an approved follow-up or set-up inspection, or an override', () => {
     for (const [from, event, role] of cells) {
       const r = transitionTable[from][event][role];
       if (from !== 'in_service' && r.allowed && r.to === 'in_service')
         expect(
           event === 'follow_up_approved'
             ? r.requires.includes('follow_up_inspection') && r.requires.includes('no_open_blocking_findings')
-            : event === 'override' && role === 'supervisor' && r.requires.includes('reason'),
+            : event === 'setup_approved'
+              ? r.requires.includes('setup_inspection') &&
+                r.requires.includes('stopped_for_setup') &&
+                r.requires.includes('no_open_blocking_findings')
+              : event === 'override' && role === 'supervisor' && r.requires.includes('reason'),
         ).toBe(true);
     }
   });

@@ -536,6 +536,22 @@ describe('the queue follows what decides it', () => {
     expect(await glider()).toMatchObject({ urgency: 'awaiting', overdueSince: null });
   });
 
+  test('a set-up moves a ride to another site, and its pull-down leaves it in store', async () => {
+    const made = await api.supervisor.post('/api/setups', {
+      rideId: r.glider.id,
+      siteId: ids.quay,
+      fromDate: today,
+      toDate: today,
+    });
+    expect(made.status).toBe(201);
+    const glider = async () => (await queue()).items.find((i) => i.rideId === r.glider.id);
+    expect((await glider())?.siteName).toBe(made.body.setup.siteName);
+    await api.supervisor
+      .post(`/api/setups/${made.body.setup.id}/state`, { state: 'pulled_down' })
+      .expect(200);
+    expect((await glider())?.siteName ?? null).toBeNull();
+  });
+
   test('a new day turns a schedule due today overdue', async () => {
     const drop = await createRide({ name: 'Quay Drop', rideClass: 'other', siteId: ids.quay }, false);
     await api.supervisor

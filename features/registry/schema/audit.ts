@@ -22,6 +22,9 @@ export const auditEntities = [
   'incident',
   'bulletin',
   'bulletin_action',
+  'setup',
+  'site_event',
+  'round',
 ] as const;
 export const auditEntitySchema = z.enum(auditEntities);
 export type AuditEntity = z.infer<typeof auditEntitySchema>;

@@ -13,3 +13,4 @@ export * from '@/features/registry/schema/checklists';
 export * from '@/features/registry/schema/schedules';
 export * from '@/features/registry/schema/design-files';
 export * from '@/features/registry/schema/design-documents';
+export * from '@/features/registry/schema/setups';

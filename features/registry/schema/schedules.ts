@@ -102,6 +102,11 @@ export const scheduleSchema = z.object({
   assignedAt: z.string().nullable(),
   notes: z.string().nullable(),
   createdAt: z.string(),
+  /** The ride's current site (absent from older servers). */
+  siteId: z.string().nullable().optional(),
+  /** The day the planner put it on the round, and its site's place in that day's travel order. */
+  plannedOn: z.string().nullable().optional(),
+  roundPosition: z.number().int().nullable().optional(),
 });
 export type Schedule = z.infer<typeof scheduleSchema>;
 

@@ -25,6 +25,7 @@ export { RideScheduleScreen } from '@/features/registry/ride-schedule-screen';
 export { RideStatusScreen } from '@/features/registry/ride-status-screen';
 export { RidesListScreen } from '@/features/registry/rides-list-screen';
 export { SchedulesListScreen } from '@/features/registry/schedules-list-screen';
+export { RoundsScreen } from '@/features/registry/rounds-screen';
 export { SiteEditScreen } from '@/features/registry/site-edit-screen';
 export { SiteScreen } from '@/features/registry/site-screen';
 export { SitesListScreen } from '@/features/registry/sites-list-screen';
