@@ -155,6 +155,10 @@ export const reviewQueue = sqliteTable(
     wearLimitOn: text('wear_limit_on'),
     /** The earlier inspection date suggested for it. */
     wearSuggestedOn: text('wear_suggested_on'),
+    /** When the ride's latest daily pre-opening check was sent, when it failed an item or a test run. */
+    dailyFailedAt: text('daily_failed_at'),
+    /** The latest day (site's calendar, within the last 14) the ride ran with no daily check. */
+    dailyMissedOn: text('daily_missed_on'),
     /** Lower-cased ride, serial, site, operator and inspector names, for the free-text search. */
     search: text('search').notNull(),
   },

@@ -14,6 +14,7 @@ import {
   type InspectionType,
   type PhotoRef,
   type Reading,
+  type TestRun,
   inspectionRecordSchema,
   type DraftProblem,
 } from '@/features/records/schema';
@@ -37,6 +38,8 @@ export type Draft = {
   amendsId?: string | null;
   /** Ride cycles recorded with the phone's motion sensors; absent from drafts saved before. */
   motionRecords?: MotionRecord[];
+  /** A daily pre-opening check's test runs. */
+  testRuns?: TestRun[];
 };
 
 export function newDraft(args: {
@@ -203,6 +206,7 @@ export function toRecord(
     amendsId: d.amendsId ?? null,
     declaration,
     motionRecords: d.motionRecords?.length ? d.motionRecords : undefined,
+    testRuns: d.testRuns?.length ? d.testRuns : undefined,
   });
 }
 

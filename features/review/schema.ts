@@ -184,6 +184,10 @@ export const queueItemSchema = z.object({
   wearLimitOn: z.string().nullable().optional(),
   /** The earlier inspection date suggested for that wear; null without a wear flag. */
   wearSuggestedOn: z.string().nullable().optional(),
+  /** When the ride's latest daily pre-opening check, which failed, was sent; else null. */
+  dailyFailedAt: z.string().nullable().optional(),
+  /** The latest day the ride ran without a daily check (features/daily-checks missedDays); else null. */
+  dailyMissedOn: z.string().nullable().optional(),
 });
 export type QueueItem = z.infer<typeof queueItemSchema>;
 

@@ -55,6 +55,8 @@ const itemFields = (
     'ndtDueOn',
     'wearLimitOn',
     'wearSuggestedOn',
+    'dailyFailedAt',
+    'dailyMissedOn',
   ] as const satisfies readonly (keyof QueueItem)[]
 )
   .map((k) =>

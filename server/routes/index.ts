@@ -15,6 +15,7 @@ import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
 import { lifeRouter } from '@/server/routes/life';
+import { dailyChecksRouter } from '@/server/routes/daily-checks';
 import { loadsRouter } from '@/server/routes/loads';
 import { ndtRouter } from '@/server/routes/ndt';
 import { documentsRouter } from '@/server/routes/documents';
@@ -53,6 +54,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(syncRouter(deps), photosRouter(deps), inspectionsRouter(deps));
   router.use(reviewRouter(deps), findingsRouter(deps), noticesRouter(deps));
   router.use(lifeRouter(deps));
+  router.use(dailyChecksRouter(deps));
   router.use(platesRouter(deps));
   router.use(apiNotFound);
   return router;

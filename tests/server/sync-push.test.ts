@@ -62,7 +62,7 @@ describe('POST /api/sync/push', () => {
     expect(row).toMatchObject({
       rideId: comet.id,
       designVersionId: comet.designVersionId,
-      type: 'daily_pre_opening',
+      type: 'periodic',
       failedItems: 1,
       reviewState: 'submitted',
     });
