@@ -17,7 +17,7 @@ import {
 } from '@/features/records/schema';
 import type { Instrument } from '@/features/instruments/schema';
 import type { DesignData } from '@/features/loads/design-schema';
-import type { ChecklistTemplate } from '@/features/registry/schema';
+import { type ChecklistTemplate, inspectionTypeLabel } from '@/features/registry/schema';
 import type { UnitSystem } from '@/lib/units';
 
 type Props = {
@@ -73,8 +73,16 @@ export function ChecklistSection({
         </Text>
       </Card>
     );
+  // The class had no checklist of this inspection's type, so the general one was used (pickChecklistTemplate).
+  const general = template !== null && template.inspectionType !== draft.type;
   return (
     <View style={styles.root}>
+      {general ? (
+        <Text muted>
+          No {inspectionTypeLabel[draft.type].toLowerCase()} checklist for this ride class: this is the
+          class&apos;s general checklist ({template.name}).
+        </Text>
+      ) : null}
       {areas.map((area) => (
         <View key={area} style={styles.area}>
           <Text variant="label" muted accessibilityRole="header">

@@ -10,6 +10,7 @@ import { ApiRequestError } from '@/lib/api-errors';
 
 const start: ChecklistFormInput = {
   name: 'Pendulum swing — periodic',
+  inspectionType: 'periodic',
   reason: '',
   content: {
     areas: [
