@@ -48,19 +48,23 @@ export type RideDailyChecks = z.infer<typeof rideDailyChecksResponseSchema>;
  * The days that were missed. A day is missed when the ride ran on it (its running log shows cycles or
  * hours above zero) and no daily check was done on it, both on the ride's site's calendar. Today is never
  * missed: until the day is over it is "not done yet today". Only days from `today − windowDays` to
- * yesterday count. Newest first.
+ * yesterday count, and only from the ride's first daily check kept here (`firstCheckDay`): before it the
+ * operator kept them elsewhere, and a ride with none here has nothing to compare with. Newest first.
  */
 export function missedDays(args: {
   ran: readonly { day: string; cycles: number | null; hours: number | null }[];
   checkedDays: ReadonlySet<string>;
+  firstCheckDay: string | null;
   today: string;
   windowDays?: number;
 }): string[] {
+  const first = args.firstCheckDay;
+  if (first === null) return [];
   const from = addDays(args.today, -(args.windowDays ?? MISSED_WINDOW_DAYS));
   const days = new Set<string>();
   for (const r of args.ran) {
     const ran = (r.cycles ?? 0) > 0 || (r.hours ?? 0) > 0;
-    if (!ran || args.checkedDays.has(r.day)) continue;
+    if (!ran || args.checkedDays.has(r.day) || r.day < first) continue;
     if (daysBetween(r.day, args.today) <= 0 || r.day < from) continue;
     days.add(r.day);
   }

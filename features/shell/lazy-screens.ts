@@ -128,6 +128,7 @@ export const NoticeListScreen = lazyScreen(notices, 'NoticeListScreen');
 export const NoticeScreen = lazyScreen(notices, 'NoticeScreen');
 
 export const OperatorHome = lazyScreen(operator, 'OperatorHome');
+export const DailyCheckScreen = lazyScreen(operator, 'DailyCheckScreen');
 
 export const AdminHome = lazyScreen(admin, 'AdminHome');
 export const PeopleScreen = lazyScreen(admin, 'PeopleScreen');

@@ -4,7 +4,7 @@
  * only reads: a ride's checks for its page, the operator's home and the logbook, and the days it ran
  * without one.
  */
-import { and, desc, eq, gte } from 'drizzle-orm';
+import { and, desc, eq, gte, min } from 'drizzle-orm';
 
 import { runningLog } from '@/db/server/life';
 import { inspections } from '@/db/server/inspections';
@@ -78,7 +78,8 @@ export function rideDailyChecks(
   ride: { id: string; status: RideStatus },
   now: Date,
 ): RideDailyChecks {
-  const today = dayInZone(now, rideTimeZone(db, ride.id));
+  const zone = rideTimeZone(db, ride.id);
+  const today = dayInZone(now, zone);
   const from = addDays(today, -MISSED_WINDOW_DAYS);
   // A day back further for the query: a check's UTC time may fall on the day before its site's date.
   const checks = dailyChecksOfRide(db, ride.id, { since: addDays(from, -1) });
@@ -88,10 +89,15 @@ export function rideDailyChecks(
     .where(and(eq(runningLog.rideId, ride.id), gte(runningLog.day, from)))
     .all();
   const checkedDays = new Set(checks.map((c) => c.day));
+  const first = db
+    .select({ at: min(inspections.submittedAt) })
+    .from(inspections)
+    .where(and(eq(inspections.rideId, ride.id), eq(inspections.type, DAILY_CHECK_TYPE)))
+    .get()?.at;
   return {
     checks: checks.filter((c) => c.day >= from),
     today,
-    missedDays: missedDays({ ran, checkedDays, today }),
+    missedDays: missedDays({ ran, checkedDays, firstCheckDay: first ? dayInZone(first, zone) : null, today }),
     todayState: checkedDays.has(today) ? 'done' : mayRun(ride.status) ? 'not_done_yet' : 'not_in_service',
   };
 }

@@ -102,8 +102,8 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
         ) WHERE k = 1
       ),
       -- Daily pre-opening checks (features/daily-checks/schema.ts): the latest one when it failed, and the
-      -- latest day of the last 14 (before today, on the site's calendar) the running log shows the ride ran
-      -- with no daily check that day.
+      -- latest day of the last 14 (before today, on the site's calendar, from its first check) the running
+      -- log shows the ride ran with no daily check that day.
       ride_daily_last AS (
         SELECT * FROM (
           SELECT x.ride_id AS ride_id, x.submitted_at AS submitted_at, x.failed_items AS failed_items,
@@ -125,6 +125,12 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
             SELECT 1 FROM ${inspections} dc
             WHERE dc.ride_id = rl.ride_id AND dc.type = 'daily_pre_opening'
               AND ${siteDayOf(sql`dc.submitted_at`, sql`ss.time_zone`)} = rl.day
+          )
+          -- Only from the ride's first daily check kept here (features/daily-checks missedDays).
+          AND EXISTS (
+            SELECT 1 FROM ${inspections} fc
+            WHERE fc.ride_id = rl.ride_id AND fc.type = 'daily_pre_opening'
+              AND ${siteDayOf(sql`fc.submitted_at`, sql`ss.time_zone`)} <= rl.day
           )
         GROUP BY rl.ride_id
       ),

@@ -5,6 +5,9 @@
  * company's rides and to the daily type; what inspectors and supervisors see of it; a failed check in the
  * review queue; and the missed days worked out against dates worked by hand.
  */
+import fs from 'node:fs';
+import path from 'node:path';
+
 import { eq } from 'drizzle-orm';
 import request from 'supertest';
 
@@ -25,11 +28,24 @@ import {
   rideListPageSchema,
 } from '@/features/registry/schema';
 import { queueResponseSchema } from '@/features/review/schema';
-import { dailyChecksOfRide } from '@/server/daily-checks/daily-checks';
+import { rides as ridesTable } from '@/db/server/schema';
+import { loadConfig } from '@/server/config';
+import { openDb } from '@/server/db';
+import { dailyChecksOfRide, rideDailyChecks } from '@/server/daily-checks/daily-checks';
+import { addDemoDailyChecks } from '@/server/seed/demo-daily-checks';
+import { seedDemoData } from '@/server/seed/demo';
 import { queueDay, refreshQueue } from '@/server/queue/queue-refresh';
 
 import type { PhoneKey } from '../support/phone-keys';
-import { expectApiError, pushSigned, registerPhoneKey, signInAs, userIdOf, type TestServer } from './helpers';
+import {
+  expectApiError,
+  makeTempDir,
+  pushSigned,
+  registerPhoneKey,
+  signInAs,
+  userIdOf,
+  type TestServer,
+} from './helpers';
 import { demoClients, makePinnedServer, type Clients } from './registry-helpers';
 import { makeRecord } from './sync-fixtures';
 
@@ -43,8 +59,10 @@ const operator = { email: 'operator@pivotwatch.test', token: '', key: null as Ph
 
 beforeAll(async () => {
   server = await makePinnedServer(now);
-  // The demo seeds a running log and daily checks; these tests start from none, so every day is worked here.
+  // The demo seeds a running log (and, with its history, daily checks); these tests start from none.
   server.db.delete(runningLog).run();
+  server.db.delete(inspections).where(eq(inspections.type, 'daily_pre_opening')).run();
+  refreshQueue(server.db, queueDay(server.db, now));
   api = await demoClients(server.app);
   operator.token = await signInAs(server.app, operator.email);
   operator.key = await registerPhoneKey(server.app, operator.token);
@@ -91,17 +109,6 @@ const pushAsOperator = (records: InspectionRecord[]) =>
 
 describe('checklist templates per inspection type', () => {
   test('made with a type, listed with it, one per class and type, the general one kept', async () => {
-    const daily = await api.supervisor.post('/api/checklist-templates', {
-      name: 'Wheel — daily pre-opening',
-      rideClass: 'wheel',
-      inspectionType: 'daily_pre_opening',
-      content: content('Every gondola door latches'),
-    });
-    expect(daily.status).toBe(201);
-    expect(checklistTemplateResponseSchema.parse(daily.body).template.inspectionType).toBe(
-      'daily_pre_opening',
-    );
-
     const afterRepair = await api.admin.post('/api/checklist-templates', {
       name: 'Wheel — after repair',
       rideClass: 'wheel',
@@ -109,6 +116,9 @@ describe('checklist templates per inspection type', () => {
       content: content('The repaired part is as the repair report says'),
     });
     expect(afterRepair.status).toBe(201);
+    expect(checklistTemplateResponseSchema.parse(afterRepair.body).template.inspectionType).toBe(
+      'after_repair',
+    );
 
     // A second checklist for the same class and type would leave the phone guessing: refused, nothing stored.
     const second = await api.supervisor.post('/api/checklist-templates', {
@@ -135,10 +145,10 @@ describe('checklist templates per inspection type', () => {
       (await api.inspector.get('/api/checklist-templates?rideClass=wheel')).body,
     ).templates;
     expect(list.map((t) => [t.name, t.inspectionType])).toEqual([
-      // The demo's template from before types existed stays the class's general one.
       ['Wheel — after repair', 'after_repair'],
-      ['Wheel — daily pre-opening', 'daily_pre_opening'],
+      // The demo's template from before types existed stays the class's general one.
       ['Wheel — periodic inspection', null],
+      ['Wheel — pre-opening daily check', 'daily_pre_opening'],
     ]);
     const general = checklistTemplateListResponseSchema.parse(
       (await api.inspector.get('/api/checklist-templates?rideClass=wheel&inspectionType=general')).body,
@@ -155,7 +165,7 @@ describe('checklist templates per inspection type', () => {
       fallback: true,
     });
     expect(pickChecklistTemplate(list, 'wheel', 'daily_pre_opening').template?.name).toBe(
-      'Wheel — daily pre-opening',
+      'Wheel — pre-opening daily check',
     );
     const withoutDaily = list.filter((t) => t.inspectionType !== 'daily_pre_opening');
     expect(pickChecklistTemplate(withoutDaily, 'wheel', 'daily_pre_opening')).toEqual({
@@ -192,7 +202,7 @@ describe('checklist templates per inspection type', () => {
       .set('Authorization', `Bearer ${operator.token}`);
     expect(res.status).toBe(200);
     const templates = res.body.templates as { name: string; inspectionType: string | null }[];
-    expect(templates.map((t) => t.name)).toContain('Wheel — daily pre-opening');
+    expect(templates.map((t) => t.name)).toContain('Wheel — pre-opening daily check');
     expect(templates.every((t) => t.inspectionType === 'daily_pre_opening')).toBe(true);
     // Their own company's rides only.
     const names = (res.body.rides as { name: string }[]).map((r) => r.name).sort();
@@ -320,11 +330,18 @@ describe('missed days', () => {
       { day: '2026-05-31', cycles: 80, hours: null }, // before the window (15 days ago)
       { day: '2026-06-01', cycles: 80, hours: null }, // first day of the window, no check → missed
     ];
-    expect(missedDays({ ran, checkedDays: new Set(['2026-06-14']), today })).toEqual([
+    const checkedDays = new Set(['2026-06-14']);
+    expect(missedDays({ ran, checkedDays, firstCheckDay: '2026-05-20', today })).toEqual([
       '2026-06-13',
       '2026-06-11',
       '2026-06-01',
     ]);
+    // Only from the ride's first daily check kept here; none at all, nothing to miss.
+    expect(missedDays({ ran, checkedDays, firstCheckDay: '2026-06-11', today })).toEqual([
+      '2026-06-13',
+      '2026-06-11',
+    ]);
+    expect(missedDays({ ran, checkedDays: new Set(), firstCheckDay: null, today })).toEqual([]);
   });
 
   test('from the running log and the checks, shown on the ride, the overview and in the queue', async () => {
@@ -367,4 +384,44 @@ describe('missed days', () => {
       dailyMissedOn: '2026-06-13',
     });
   });
+});
+
+describe('the demo', () => {
+  test('its history holds daily checks on every day run in the fortnight but one of Tidebreaker', async () => {
+    const dataDir = makeTempDir();
+    const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, WEB_DIR: path.join(dataDir, 'web') });
+    const database = openDb(config.dataDir);
+    try {
+      await seedDemoData(database.db, config, { now, activity: true });
+      const rides = database.db
+        .select({ id: ridesTable.id, name: ridesTable.name, status: ridesTable.status })
+        .from(ridesTable)
+        .all();
+      const missed = Object.fromEntries(
+        rides.map((r) => [r.name, rideDailyChecks(database.db, r, now).missedDays.length]),
+      );
+      expect(missed).toEqual({
+        Skylark: 0,
+        'Twin Comet': 0,
+        'Lantern Wheel': 0,
+        Tidebreaker: 1,
+        'Whirligig Chairs': 0,
+        'Little Kite': 0,
+      });
+      // Seeding again adds nothing (fixed ids).
+      const count = () =>
+        database.db
+          .select({ id: inspections.id })
+          .from(inspections)
+          .where(eq(inspections.type, 'daily_pre_opening'))
+          .all().length;
+      const before = count();
+      expect(before).toBeGreaterThan(0);
+      expect(addDemoDailyChecks(database.db, now)).toBe(0);
+      expect(count()).toBe(before);
+    } finally {
+      database.close();
+      fs.rmSync(dataDir, { recursive: true, force: true });
+    }
+  }, 120_000);
 });
