@@ -14,6 +14,7 @@ import { fieldKeys } from '@/features/device-db';
 import { useDeviceDb } from '@/features/device-db/ui';
 import type { Draft } from '@/features/records';
 import type { Declaration } from '@/features/records/schema';
+import type { ChecklistTemplate } from '@/features/registry/schema';
 
 const enc = encodeURIComponent;
 
@@ -70,8 +71,15 @@ export function useSubmitDailyCheckMutation() {
   const dev = useDeviceDb();
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ draft, declaration }: { draft: Draft; declaration: Declaration }) =>
-      submitDailyCheck(dev, draft, declaration, new Date()),
+    mutationFn: ({
+      draft,
+      template,
+      declaration,
+    }: {
+      draft: Draft;
+      template: ChecklistTemplate | null;
+      declaration: Declaration;
+    }) => submitDailyCheck(dev, draft, template, declaration, new Date()),
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: dailyKeys.phoneRides() }),

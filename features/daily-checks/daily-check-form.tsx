@@ -55,7 +55,8 @@ function Form({ draft, user, onDone }: { draft: Draft; user: SessionUser; onDone
   const now = () => new Date();
   const run = draft.testRuns?.[0] ?? null;
   const [cycles, setCycles] = useState(run ? String(run.cycles) : '');
-  const problems = dailyCheckProblems(draft);
+  const template = ride.data?.template ?? null;
+  const problems = dailyCheckProblems(draft, template);
   const failed = dailyCheckFailed(draft);
 
   const putRun = (text: string, result: 'pass' | 'fail' | null) => {
@@ -78,6 +79,7 @@ function Form({ draft, user, onDone }: { draft: Draft; user: SessionUser; onDone
     const at = now().toISOString();
     await submit.mutateAsync({
       draft,
+      template,
       declaration: {
         text: declaration.data?.text ?? DEFAULT_DECLARATION_TEXT,
         declaredAt: at,
@@ -96,7 +98,7 @@ function Form({ draft, user, onDone }: { draft: Draft; user: SessionUser; onDone
       </Text>
       <ChecklistSection
         draft={draft}
-        template={ride.data?.template ?? null}
+        template={template}
         system={system}
         onAnswer={(itemId, patch) => editor.update((d) => answerItem(d, itemId, patch, now()))}
         onDraft={editor.update}

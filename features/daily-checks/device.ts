@@ -13,7 +13,7 @@ import {
   saveDraft,
   submitDraft,
 } from '@/features/device-db';
-import { type Draft, newDraft, toRecord } from '@/features/records';
+import { type Draft, draftProblems, newDraft, toRecord } from '@/features/records';
 import type { Declaration, InspectionRecord, TestRun } from '@/features/records/schema';
 import {
   type ChecklistTemplate,
@@ -69,13 +69,12 @@ export async function startDailyCheck(dev: DeviceDb, rideId: string, id: string,
   return draft;
 }
 
-/** What must be done before a daily check can be sent: every item answered (a note on a failure), a test run. */
-export function dailyCheckProblems(d: Draft): string[] {
-  const problems: string[] = [];
-  for (const a of d.checklist) {
-    if (a.result === null) problems.push(`Not answered: ${a.text}`);
-    if (a.result === 'fail' && !a.note?.trim()) problems.push(`Say what failed: ${a.text}`);
-  }
+/**
+ * What must be done before a daily check can be sent: what an inspection needs (every item answered, a
+ * note on a failure, a value where the checklist asks, features/records draftProblems) and a test run.
+ */
+export function dailyCheckProblems(d: Draft, template: ChecklistTemplate | null): string[] {
+  const problems = draftProblems(d, template).map((p) => p.message);
   if (!d.testRuns?.length)
     problems.push('Record the test run: the empty cycles run and how the ride behaved');
   return problems;
@@ -94,10 +93,11 @@ export function setTestRun(d: Draft, run: TestRun | null, now: Date): Draft {
 export async function submitDailyCheck(
   dev: DeviceDb,
   draft: Draft,
+  template: ChecklistTemplate | null,
   declaration: Declaration,
   now: Date,
 ): Promise<InspectionRecord> {
-  const problems = dailyCheckProblems(draft);
+  const problems = dailyCheckProblems(draft, template);
   if (problems.length) throw new Error(problems.join('; '));
   return submitDraft(dev, toRecord(draft, null, now, declaration), now);
 }
