@@ -102,12 +102,14 @@ function PhoneRides({ onOpen }: { onOpen: (draftId: string) => void }) {
                     <Text muted>The inspection body has set no daily checklist for this ride class yet.</Text>
                   ) : draftId ? (
                     <Button
-                      label={`Continue the daily check of ${ride.name}`}
+                      label="Continue today's check"
+                      accessibilityLabel={`Continue the daily check of ${ride.name}`}
                       onPress={() => onOpen(draftId)}
                     />
                   ) : (
                     <Button
-                      label={`Start the daily check of ${ride.name}`}
+                      label="Start today's check"
+                      accessibilityLabel={`Start the daily check of ${ride.name}`}
                       busy={start.isPending && start.variables === ride.id}
                       onPress={() => start.mutate(ride.id, { onSuccess: (d) => onOpen(d.id) })}
                     />
