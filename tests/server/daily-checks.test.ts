@@ -8,7 +8,10 @@
 import fs from 'node:fs';
 import path from 'node:path';
 
+import Database from 'better-sqlite3';
 import { eq } from 'drizzle-orm';
+import { drizzle } from 'drizzle-orm/better-sqlite3';
+import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import request from 'supertest';
 
 import { runningLog } from '@/db/server/life';
@@ -30,7 +33,8 @@ import {
 import { queueResponseSchema } from '@/features/review/schema';
 import { rides as ridesTable } from '@/db/server/schema';
 import { loadConfig } from '@/server/config';
-import { openDb } from '@/server/db';
+import { databaseFileName, openDb } from '@/server/db';
+import { serverMigrationsDir } from '@/server/paths';
 import { dailyChecksOfRide, rideDailyChecks } from '@/server/daily-checks/daily-checks';
 import { addDemoDailyChecks } from '@/server/seed/demo-daily-checks';
 import { seedDemoData } from '@/server/seed/demo';
@@ -424,4 +428,55 @@ describe('the demo', () => {
       fs.rmSync(dataDir, { recursive: true, force: true });
     }
   }, 120_000);
+});
+
+describe('the migration that adds after-repair', () => {
+  // It rebuilds `inspections` (its type CHECK), which findings refer to. SQLite's procedure for that
+  // (https://sqlite.org/lang_altertable.html, section 7) turns foreign keys off around it: with them on,
+  // dropping the old table fails on any database holding a finding.
+  test('an existing database with inspections and findings migrates, keeps them, and still enforces keys', () => {
+    const folder = path.join(makeTempDir(), 'migrations');
+    fs.cpSync(serverMigrationsDir, folder, { recursive: true });
+    const journalFile = path.join(folder, 'meta', '_journal.json');
+    const journal = JSON.parse(fs.readFileSync(journalFile, 'utf8')) as { entries: { tag: string }[] };
+    const rebuilds = (tag: string) =>
+      fs.readFileSync(path.join(folder, `${tag}.sql`), 'utf8').includes('DROP TABLE `inspections`');
+    const at = journal.entries.map((e) => e.tag).findLastIndex(rebuilds);
+    expect(at).toBeGreaterThan(0);
+    journal.entries = journal.entries.slice(0, at);
+    fs.writeFileSync(journalFile, JSON.stringify(journal));
+
+    const dataDir = makeTempDir();
+    const old = new Database(path.join(dataDir, databaseFileName));
+    old.pragma('foreign_keys = ON');
+    migrate(drizzle(old), { migrationsFolder: folder });
+    old.exec(`
+      INSERT INTO users (id, email, name, role, password_hash, created_at)
+        VALUES ('u', 'i@example.test', 'I', 'inspector', 'x', '2026-01-01');
+      INSERT INTO companies (id, kind, name, notice_emails, created_at, contacts, notice_units, notice_paper)
+        VALUES ('c', 'operator', 'C', '[]', '2026-01-01', '[]', 'si', 'A4');
+      INSERT INTO rides (id, name, ride_class, operator_company_id, status, status_since, created_at)
+        VALUES ('r', 'R', 'wheel', 'c', 'in_service', '2026-01-01', '2026-01-01');
+      INSERT INTO inspections (id, ride_id, inspector_id, type, started_at, submitted_at, received_at,
+          batch_id, record, content_sha256)
+        VALUES ('i', 'r', 'u', 'periodic', 'a', 'b', 'c', 'd', '{}', 'x');
+      INSERT INTO findings (id, inspection_id, ride_id, number, severity, description, photo_shas, state,
+          created_at, created_by, updated_at, updated_by)
+        VALUES ('f', 'i', 'r', 1, 'note', 'd', '[]', 'open', 'a', 'u', 'a', 'u');`);
+    old.close();
+
+    const database = openDb(dataDir, { backupDir: path.join(dataDir, 'backups') });
+    try {
+      const { sqlite } = database;
+      expect(sqlite.prepare("SELECT id FROM findings WHERE inspection_id = 'i'").all()).toEqual([
+        { id: 'f' },
+      ]);
+      expect(sqlite.pragma('foreign_keys', { simple: true })).toBe(1);
+      expect(() => sqlite.exec("DELETE FROM inspections WHERE id = 'i'")).toThrow(/FOREIGN KEY/);
+      sqlite.exec("UPDATE inspections SET type = 'after_repair' WHERE id = 'i'");
+      expect(() => sqlite.exec("UPDATE inspections SET type = 'weekly' WHERE id = 'i'")).toThrow(/CHECK/);
+    } finally {
+      database.close();
+    }
+  });
 });
