@@ -117,14 +117,16 @@ export const inspectionTypes = [
   'annual',
   'setup_after_assembly',
   'follow_up',
+  'after_repair',
 ] as const;
 type InspectionType = (typeof inspectionTypes)[number];
 export const inspectionTypeVocabulary: Record<InspectionType, Words> = {
   daily_pre_opening: { label: 'Daily pre-opening' },
   periodic: { label: 'Periodic' },
-  annual: { label: 'Annual' },
+  annual: { label: 'Annual thorough' },
   setup_after_assembly: { label: 'Set-up after assembly' },
   follow_up: { label: 'Follow-up' },
+  after_repair: { label: 'After repair' },
 };
 
 /** A checklist item's answer. */

@@ -101,6 +101,28 @@ function copyBeforeMigrating(
 }
 
 /**
+ * Runs the migrations with foreign keys off, as SQLite's own procedure for changing a table's schema asks
+ * (https://sqlite.org/lang_altertable.html, "Making Other Kinds Of Table Schema Changes"): drizzle-kit
+ * rebuilds a table to change a CHECK, and dropping the old copy of a table other rows refer to (e.g.
+ * `inspections`, which findings and photos name) would otherwise fail, or delete through the keys. The
+ * PRAGMA is a no-op inside a transaction, so it is set around the migrator's; every key is then checked,
+ * and a migration that left one dangling stops the server with the rows named.
+ */
+function migrateWithoutForeignKeys(sqlite: Database.Database, run: () => void): void {
+  sqlite.pragma('foreign_keys = OFF');
+  try {
+    run();
+    const broken = sqlite.pragma('foreign_key_check') as unknown[];
+    if (broken.length > 0)
+      throw new Error(
+        `A migration left rows whose foreign keys name nothing: ${JSON.stringify(broken.slice(0, 5))}`,
+      );
+  } finally {
+    sqlite.pragma('foreign_keys = ON');
+  }
+}
+
+/**
  * Opens (creating if needed) DATA_DIR/pivotwatch.db and applies any pending migrations, copying an
  * existing database aside first. DATA_DIR is created 0700 and the database files are kept 0600.
  */
@@ -124,7 +146,7 @@ export function openDb(dataDir: string, opts: OpenDbOptions = {}): OpenedDb {
   if (state.count > 0 && state.pending.length > 0) {
     copyBeforeMigrating(sqlite, opts.backupDir ?? path.join(dataDir, 'backups'), state);
   }
-  migrate(db, { migrationsFolder: serverMigrationsDir });
+  migrateWithoutForeignKeys(sqlite, () => migrate(db, { migrationsFolder: serverMigrationsDir }));
   return {
     db,
     sqlite,

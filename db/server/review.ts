@@ -159,6 +159,10 @@ export const reviewQueue = sqliteTable(
     /** An operator's incident report awaiting review (kind `incident`): its id and kind. */
     incidentId: text('incident_id'),
     incidentKind: text('incident_kind', { enum: incidentKinds }),
+    /** When the ride's latest daily pre-opening check was sent, when it failed an item or a test run. */
+    dailyFailedAt: text('daily_failed_at'),
+    /** The latest day (site's calendar, within the last 14) the ride ran with no daily check. */
+    dailyMissedOn: text('daily_missed_on'),
     /** Lower-cased ride, serial, site, operator and inspector names, for the free-text search. */
     search: text('search').notNull(),
   },

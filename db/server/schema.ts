@@ -228,8 +228,9 @@ export const designVersions = sqliteTable(
 );
 
 /**
- * A checklist template for one ride class. Its areas and items live in versions, like design data, so an
- * inspection can always show the checklist it was filled against. Deleting a template archives it.
+ * A checklist template for one ride class and, optionally, one inspection type. Its areas and items live
+ * in versions, like design data, so an inspection can always show the checklist it was filled against.
+ * Deleting a template archives it.
  */
 export const checklistTemplates = sqliteTable(
   'checklist_templates',
@@ -237,6 +238,12 @@ export const checklistTemplates = sqliteTable(
     id: id(),
     name: text('name').notNull(),
     rideClass: text('ride_class', { enum: rideClasses }).notNull(),
+    /**
+     * The inspection type it is for; null = the class's general checklist, used for any type without one of
+     * its own (every template made before types existed). No CHECK: SQLite adds one only by rebuilding a
+     * table that inspections refer to; the API validates the value.
+     */
+    inspectionType: text('inspection_type', { enum: inspectionTypes }),
     createdAt: createdAt(),
     archivedAt: text('archived_at'),
   },

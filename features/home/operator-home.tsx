@@ -25,6 +25,7 @@ import { formatDate } from '@/lib/dates';
 import { rideIncidentNewHref, useRidesQuery } from '@/features/rides';
 import { RideGrid } from '@/features/rides/ui';
 import { useFirstScreenSettled } from '@/components/first-screen';
+import { DailyOverviewCard } from '@/features/daily-checks/ui';
 
 /** Enough to hold every notice an operator company has open at once. */
 const NOTICES_PAGE = 100;
@@ -43,6 +44,7 @@ export function OperatorHome() {
     <RoleGate roles={['operator']}>
       {(user) => (
         <Screen title="My rides" subtitle={user.companyName ?? undefined}>
+          <DailyOverviewCard />
           <OperatorNotices />
           <OperatorRides />
         </Screen>

@@ -17,7 +17,7 @@ import {
 } from '@/features/records/schema';
 import type { Instrument } from '@/features/instruments/schema';
 import type { DesignData } from '@/features/loads/design-schema';
-import type { ChecklistTemplate } from '@/features/registry/schema';
+import { type ChecklistTemplate, inspectionTypeLabel } from '@/features/registry/schema';
 import type { UnitSystem } from '@/lib/units';
 
 type Props = {
@@ -25,8 +25,8 @@ type Props = {
   template: ChecklistTemplate | null;
   system: UnitSystem;
   onAnswer: (itemId: string, patch: Partial<Draft['checklist'][number]>) => void;
-  /** Takes a photo tied to the item. */
-  onPhoto: (itemId: string) => void;
+  /** Takes a photo tied to the item; without it no item offers a photo (an operator's daily check). */
+  onPhoto?: (itemId: string) => void;
   /** The ride's design data, whose pivot limits the values are checked against at entry. */
   design?: DesignData | null;
   /** The instrument register, for values that are also a pivot's reading. */
@@ -73,8 +73,16 @@ export function ChecklistSection({
         </Text>
       </Card>
     );
+  // The class had no checklist of this inspection's type, so the general one was used (pickChecklistTemplate).
+  const general = template !== null && template.inspectionType !== draft.type;
   return (
     <View style={styles.root}>
+      {general ? (
+        <Text muted>
+          No {inspectionTypeLabel[draft.type].toLowerCase()} checklist for this ride class: this is the
+          class&apos;s general checklist ({template.name}).
+        </Text>
+      ) : null}
       {areas.map((area) => (
         <View key={area} style={styles.area}>
           <Text variant="label" muted accessibilityRole="header">
@@ -93,7 +101,7 @@ export function ChecklistSection({
                 itemRef={itemRef}
                 pointedAt={pointedAt?.itemId === answer.itemId ? pointedAt : null}
                 onAnswer={(patch) => onAnswer(answer.itemId, patch)}
-                onPhoto={() => onPhoto(answer.itemId)}
+                onPhoto={onPhoto ? () => onPhoto(answer.itemId) : null}
                 design={design}
                 instruments={instruments}
                 reading={draft.readings.find((r) => r.id === answer.measurement?.readingId)}
@@ -132,7 +140,7 @@ function ItemCard({
   itemRef?: Props['itemRef'];
   pointedAt: DraftProblem | null;
   onAnswer: (patch: Partial<Answer>) => void;
-  onPhoto: () => void;
+  onPhoto: (() => void) | null;
   design: DesignData | null;
   instruments: Instrument[];
   /** The pivot reading this value is, once there is one. */
@@ -219,7 +227,7 @@ function ItemCard({
             ))}
           </View>
         ) : null}
-        {item?.photoRequired || answer.result === 'fail' ? (
+        {onPhoto && (item?.photoRequired || answer.result === 'fail') ? (
           <Button
             label={photos > 0 ? `Add another photo (${photos})` : 'Take a photo of this'}
             tone="quiet"

@@ -31,17 +31,26 @@ import {
 import { analyseRecord, previewOf, type Draft, newCorrection, newDraft, toRecord } from '@/features/records';
 import type { Declaration, InspectionType } from '@/features/records/schema';
 import { buildSentList } from '@/features/inspections/sent';
-import { type ChecklistTemplate, checklistTemplateSchema } from '@/features/registry/schema';
+import {
+  type ChecklistTemplate,
+  checklistTemplateSchema,
+  pickChecklistTemplate,
+} from '@/features/registry/schema';
 
 /** Device reads are local and cheap; refetch on focus keeps lists honest after a sync. */
 const DEVICE_STALE_MS = 0;
 
-function templateFor(list: unknown[], id?: string | null): ChecklistTemplate | null {
-  for (const raw of list) {
+function parseTemplates(list: unknown[]): ChecklistTemplate[] {
+  return list.flatMap((raw) => {
     const parsed = checklistTemplateSchema.safeParse(raw);
-    if (parsed.success && (!id || parsed.data.id === id)) return parsed.data;
-  }
-  return null;
+    return parsed.success ? [parsed.data] : [];
+  });
+}
+
+/** The template a draft names (its version is the draft's), else the first on the phone. */
+function templateFor(list: unknown[], id?: string | null): ChecklistTemplate | null {
+  const templates = parseTemplates(list);
+  return (id ? templates.find((t) => t.id === id) : templates[0]) ?? null;
 }
 
 /** A draft just saved on the device: the recording screen reads it at once, the rides list shows it. */
@@ -123,7 +132,12 @@ export function useStartInspectionMutation() {
       const ride = await readRide(dev, rideId);
       if (!ride) throw new Error('This ride is not on the phone. Sync, then try again.');
       const design = await readCurrentDesign(dev, rideId);
-      const template = templateFor(await readTemplates(dev, ride.rideClass));
+      // The class's checklist for this type, else its general one (the recording says which).
+      const { template } = pickChecklistTemplate(
+        parseTemplates(await readTemplates(dev, ride.rideClass)),
+        ride.rideClass,
+        type,
+      );
       const draft = newDraft({
         id: randomUUID(),
         ride,

@@ -15,6 +15,7 @@ import {
   type InspectionType,
   type PhotoRef,
   type Reading,
+  type TestRun,
   inspectionRecordSchema,
   type DraftProblem,
 } from '@/features/records/schema';
@@ -38,6 +39,8 @@ export type Draft = {
   amendsId?: string | null;
   /** Ride cycles recorded with the phone's motion sensors; absent from drafts saved before. */
   motionRecords?: MotionRecord[];
+  /** A daily pre-opening check's test runs. */
+  testRuns?: TestRun[];
 };
 
 export function newDraft(args: {
@@ -209,6 +212,7 @@ export function toRecord(
     amendsId: d.amendsId ?? null,
     declaration,
     motionRecords: d.motionRecords?.length ? d.motionRecords : undefined,
+    testRuns: d.testRuns?.length ? d.testRuns : undefined,
   });
 }
 

@@ -165,6 +165,17 @@ export const devicePreviewSchema = z.object({
 });
 export type DevicePreview = z.infer<typeof devicePreviewSchema>;
 
+/**
+ * A test run before opening, as a daily pre-opening check records it (the maker's empty cycles): how many
+ * cycles were run and whether the ride behaved. A failed run, like a failed item, means it must not open.
+ */
+export const testRunSchema = z.object({
+  cycles: z.int({ error: 'Must be a whole number' }).min(0).max(1000),
+  result: z.enum(['pass', 'fail'], { error: 'pass or fail' }),
+  note: z.string().max(2000).optional(),
+});
+export type TestRun = z.infer<typeof testRunSchema>;
+
 /** A submitted inspection. Immutable once accepted; a correction is a new record with `amendsId`. */
 export const inspectionRecordSchema = z.object({
   id: uuid(),
@@ -193,6 +204,8 @@ export const inspectionRecordSchema = z.object({
   declaration: declarationSchema.optional(),
   /** Ride cycles recorded with the phone's motion sensors (features/records/motion-record-schema.ts). */
   motionRecords: motionRecordsSchema.optional(),
+  /** A daily pre-opening check's test runs (only that type carries them). */
+  testRuns: z.array(testRunSchema).max(20).optional(),
 });
 export type InspectionRecord = z.infer<typeof inspectionRecordSchema>;
 

@@ -34,6 +34,7 @@ import {
   siteListResponseSchema,
   siteResponseSchema,
   timeZoneSettingResponseSchema,
+  type InspectionType,
 } from '@/features/registry/schema';
 import type { RideClass } from '@/features/rides/schema';
 import { RIDES_STALE_MS, rideKeys } from '@/features/rides';
@@ -391,6 +392,8 @@ export function useChecklistVersionsQuery(id: string) {
 type ChecklistSave = {
   name: string;
   rideClass: RideClass;
+  /** `general`: the class's checklist for any type (stored as no type). */
+  inspectionType: InspectionType | 'general';
   content: ChecklistContentInput;
   reason: string;
   basedOnVersion?: number;
@@ -400,8 +403,9 @@ type ChecklistSave = {
 export function useChecklistSaveMutation(id: string | null) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ rideClass, ...body }: ChecklistSave) =>
-      id
+    mutationFn: ({ rideClass, inspectionType, ...rest }: ChecklistSave) => {
+      const body = { ...rest, inspectionType: inspectionType === 'general' ? null : inspectionType };
+      return id
         ? apiFetch(`/api/checklist-templates/${enc(id)}`, {
             method: 'PUT',
             body,
@@ -410,7 +414,8 @@ export function useChecklistSaveMutation(id: string | null) {
         : apiFetch('/api/checklist-templates', {
             body: { ...body, rideClass },
             schema: checklistTemplateResponseSchema,
-          }),
+          });
+    },
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: registryKeys.checklists() }),

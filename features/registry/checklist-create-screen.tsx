@@ -30,6 +30,7 @@ function ChecklistCreate({ rideClass }: { rideClass: RideClass }) {
         <ChecklistForm
           defaultValues={{
             name: '',
+            inspectionType: 'general',
             reason: '',
             content: {
               areas: [

@@ -29,7 +29,12 @@ function ChecklistEdit({ id }: { id: string }) {
         >
           <Card style={styles.formCard}>
             <ChecklistForm
-              defaultValues={{ name: t.name, content: contentToForm(t.version.content), reason: '' }}
+              defaultValues={{
+                name: t.name,
+                inspectionType: t.inspectionType ?? 'general',
+                content: contentToForm(t.version.content),
+                reason: '',
+              }}
               submitLabel={`Save as version ${t.version.version + 1}`}
               onSubmit={async (values) => {
                 await save.mutateAsync({

@@ -25,15 +25,26 @@ import {
   type MeasurementKind,
   checklistTemplateCreateSchema,
   checklistTemplatePutSchema,
+  generalTemplateLabel,
+  inspectionTypeLabel,
+  inspectionTypeSchema,
+  inspectionTypes,
   measurementKinds,
 } from '@/features/registry/schema';
+import { FormSelect } from '@/components/form/choices';
 import { fieldsOf } from '@/components/form/server-errors';
 import { useUnitSystem } from '@/features/settings';
 
-/** The API's PUT schema (content and reason), with the name the create schema requires. */
-export const checklistFormSchema = checklistTemplatePutSchema
-  .omit({ basedOnVersion: true })
-  .extend({ name: checklistTemplateCreateSchema.shape.name });
+/**
+ * The API's PUT schema (content and reason), with the name the create schema requires and the type as a
+ * choice (`general` for the class's checklist for any type, sent as null).
+ */
+export const checklistFormSchema = checklistTemplatePutSchema.omit({ basedOnVersion: true }).extend({
+  name: checklistTemplateCreateSchema.shape.name,
+  inspectionType: z.union([inspectionTypeSchema, z.literal('general')], {
+    error: 'Choose a type, or any type',
+  }),
+});
 export type ChecklistFormInput = z.input<typeof checklistFormSchema>;
 type ChecklistFormOutput = z.output<typeof checklistFormSchema>;
 
@@ -131,7 +142,7 @@ export function ChecklistForm({
   const save = useServerSubmit(
     { handleSubmit, setError, formState },
     onSubmit,
-    fieldsOf(['name', 'reason'], ['content']),
+    fieldsOf(['name', 'inspectionType', 'reason'], ['content']),
     {
       content: 'Content',
       areas: 'Area',
@@ -142,6 +153,19 @@ export function ChecklistForm({
   return (
     <View style={styles.form}>
       <FormText control={control} name="name" label="Template name" />
+      <FormSelect
+        control={control}
+        name="inspectionType"
+        label="Inspection type"
+        options={[
+          { value: 'general', label: generalTemplateLabel },
+          ...inspectionTypes.map((t) => ({ value: t, label: inspectionTypeLabel[t] })),
+        ]}
+      />
+      <Text variant="small" muted>
+        A phone takes the ride class&apos;s checklist for the inspection&apos;s type, else the general one.
+        Operators&apos; daily checks use the daily pre-opening checklist, never the general one.
+      </Text>
       {areas.fields.map((area, a) => (
         <View key={area.fieldKey} style={styles.area}>
           <View style={wide ? styles.areaHead : styles.itemStack}>

@@ -22,7 +22,7 @@ import {
   checklistsHref,
 } from '@/features/registry/hrefs';
 import { canEditRides } from '@/features/registry/ride-route';
-import type { ChecklistTemplate } from '@/features/registry/schema';
+import { type ChecklistTemplate, templateTypeWords } from '@/features/registry/schema';
 import { routeParam, staff } from '@/features/registry/screen-access';
 import { rideClassLabel } from '@/features/rides/schema';
 import type { Role } from '@/features/session/schema';
@@ -140,7 +140,7 @@ function ChecklistView({ id, version, role }: { id: string; version?: number; ro
         return (
           <SubScreen
             title={t.name}
-            subtitle={`${rideClassLabel[t.rideClass]} · ${t.version.content.areas.length} areas · ${t.version.content.areas.reduce((n, a) => n + a.items.length, 0)} items`}
+            subtitle={`${rideClassLabel[t.rideClass]} · ${templateTypeWords(t.inspectionType)} · ${t.version.content.areas.length} areas · ${t.version.content.areas.reduce((n, a) => n + a.items.length, 0)} items`}
             back={
               isCurrent
                 ? { href: checklistsHref, label: 'Checklists' }

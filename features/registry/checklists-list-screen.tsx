@@ -18,7 +18,7 @@ import { checklistHref, newChecklistHref } from '@/features/registry/hrefs';
 import { RegisterTabs } from '@/features/registry/register-tabs';
 import { RemovalNotice } from '@/features/registry/removal-notice';
 import { canEditRides } from '@/features/registry/ride-route';
-import type { ChecklistTemplateSummary } from '@/features/registry/schema';
+import { type ChecklistTemplateSummary, templateTypeWords } from '@/features/registry/schema';
 import { staff } from '@/features/registry/screen-access';
 import { type RideClass, rideClassLabel, rideClassSchema, rideClasses } from '@/features/rides/schema';
 import type { SessionUser } from '@/features/session/schema';
@@ -106,8 +106,8 @@ function TemplateRow({ template: t }: { template: ChecklistTemplateSummary }) {
           <View style={styles.flex}>
             {name}
             <Text variant="small" muted>
-              {t.areaCount} areas · {t.itemCount} items · v{t.currentVersion}, {formatDateTime(t.updatedAt)}{' '}
-              by {t.updatedByName}
+              {templateTypeWords(t.inspectionType)} · {t.areaCount} areas · {t.itemCount} items · v
+              {t.currentVersion}, {formatDateTime(t.updatedAt)} by {t.updatedByName}
             </Text>
           </View>
           <Feather name="chevron-right" size={20} color={colors.accent} />

@@ -52,6 +52,11 @@ export function queueItemWhat(item: QueueItem): string {
         item.urgency === 'over' ? 'over limit' : 'with failed items'
       }, not yet resolved`,
     );
+  if (item.dailyFailedAt)
+    parts.push(
+      `Daily check failed ${formatDate(item.dailyFailedAt)}: the ride must not open until one passes`,
+    );
+  if (item.dailyMissedOn) parts.push(`Ran without a daily check on ${formatDate(item.dailyMissedOn)}`);
   if (item.overdueSince) parts.push(`Inspection overdue since ${formatDate(item.overdueSince)}`);
   if (item.findingsPastDue > 0) parts.push(`${plural(item.findingsPastDue, 'finding', 'findings')} past due`);
   parts.push(...queueItemLifeFacts(item));

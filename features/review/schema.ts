@@ -188,6 +188,10 @@ export const queueItemSchema = z.object({
   /** An operator's incident report awaiting review (kind `incident`): its id and kind. */
   incidentId: z.string().nullable().optional(),
   incidentKind: z.enum(incidentKinds).nullable().optional(),
+  /** When the ride's latest daily pre-opening check, which failed, was sent; else null. */
+  dailyFailedAt: z.string().nullable().optional(),
+  /** The latest day the ride ran without a daily check (features/daily-checks missedDays); else null. */
+  dailyMissedOn: z.string().nullable().optional(),
 });
 export type QueueItem = z.infer<typeof queueItemSchema>;
 

@@ -3,6 +3,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 
 import { Spinner } from '@/components/spinner';
 import { ChainCard } from '@/features/ride-page/chain-card';
+import { RideDailyChecksCard } from '@/features/daily-checks/ui';
 import { Button } from '@/components/button';
 import Feather from '@/components/feather-icon';
 import { auditHref } from '@/features/registry';
@@ -141,6 +142,7 @@ function RideDetailBody({
       <RideBulletinsCard rideId={ride.id} role={user.role} timeZone={ride.siteTimeZone} />
       <RideSetupsCard rideId={ride.id} planner={editor} />
       {staff ? <NoticesCard rideId={ride.id} /> : null}
+      <RideDailyChecksCard rideId={ride.id} />
       {user.role === 'inspector' ? null : <ChainCard rideId={ride.id} />}
       {staff ? null : <PivotLifeSection rideId={ride.id} links={lifeLinks} />}
     </>

@@ -137,6 +137,7 @@ export const IncidentReportScreen = lazyScreen(notices, 'IncidentReportScreen');
 export const IncidentScreen = lazyScreen(notices, 'IncidentScreen');
 
 export const OperatorHome = lazyScreen(operator, 'OperatorHome');
+export const DailyCheckScreen = lazyScreen(operator, 'DailyCheckScreen');
 
 export const AdminHome = lazyScreen(admin, 'AdminHome');
 export const PeopleScreen = lazyScreen(admin, 'PeopleScreen');

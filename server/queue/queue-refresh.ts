@@ -15,6 +15,7 @@ import { SQLiteSyncDialect } from 'drizzle-orm/sqlite-core';
 import { findings, reviewQueue, rideStatusChanges } from '@/db/server/review';
 import { incidents } from '@/db/server/incidents';
 import { inspections } from '@/db/server/inspections';
+import { runningLog } from '@/db/server/life';
 import { rideLifeFlags } from '@/db/server/ndt';
 import { companies, inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import type { Db } from '@/server/db';
@@ -105,6 +106,46 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
             )
         ) WHERE k = 1
       ),
+      -- Daily pre-opening checks (features/daily-checks/schema.ts): the latest one when it failed, and the
+      -- latest day of the last 14 (before today, on the site's calendar, from its first check) the running
+      -- log shows the ride ran with no daily check that day.
+      ride_daily_last AS (
+        SELECT * FROM (
+          SELECT x.ride_id AS ride_id, x.submitted_at AS submitted_at, x.failed_items AS failed_items,
+            ROW_NUMBER() OVER (PARTITION BY x.ride_id ORDER BY x.submitted_at DESC, x.id) AS k
+          FROM ${inspections} x
+          WHERE x.type = 'daily_pre_opening' AND ${onlyRides(sql`x.ride_id`)}
+        ) WHERE k = 1 AND failed_items > 0
+      ),
+      ride_daily_missed AS (
+        SELECT rl.ride_id AS ride_id, MAX(rl.day) AS missed_on
+        FROM ${runningLog} rl
+          JOIN ${rides} rr ON rr.id = rl.ride_id
+          LEFT JOIN ${sites} ss ON ss.id = rr.site_id
+        WHERE (COALESCE(rl.cycles, 0) > 0 OR COALESCE(rl.hours, 0) > 0)
+          AND rl.day < ${rideTodaySql(TODAY, sql`rl.ride_id`)}
+          AND rl.day >= date(${rideTodaySql(TODAY, sql`rl.ride_id`)}, '-14 days')
+          AND ${onlyRides(sql`rl.ride_id`)}
+          AND NOT EXISTS (
+            SELECT 1 FROM ${inspections} dc
+            WHERE dc.ride_id = rl.ride_id AND dc.type = 'daily_pre_opening'
+              AND ${siteDayOf(sql`dc.submitted_at`, sql`ss.time_zone`)} = rl.day
+          )
+          -- Only from the ride's first daily check kept here (features/daily-checks missedDays).
+          AND EXISTS (
+            SELECT 1 FROM ${inspections} fc
+            WHERE fc.ride_id = rl.ride_id AND fc.type = 'daily_pre_opening'
+              AND ${siteDayOf(sql`fc.submitted_at`, sql`ss.time_zone`)} <= rl.day
+          )
+        GROUP BY rl.ride_id
+      ),
+      ride_daily AS (
+        SELECT r.id AS ride_id, dl.submitted_at AS failed_at, dm.missed_on AS missed_on
+        FROM ${rides} r
+          LEFT JOIN ride_daily_last dl ON dl.ride_id = r.id
+          LEFT JOIN ride_daily_missed dm ON dm.ride_id = r.id
+        WHERE (dl.ride_id IS NOT NULL OR dm.ride_id IS NOT NULL) AND ${onlyRides(sql`r.id`)}
+      ),
       ride_life AS (
         SELECT lf.ride_id AS ride_id,
           CASE WHEN lf.ndt_due_on < ${rideTodaySql(TODAY, sql`lf.ride_id`)} THEN lf.ndt_due_on END AS ndt_overdue_since,
@@ -114,9 +155,10 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
         WHERE (lf.ndt_due_on < ${rideTodaySql(TODAY, sql`lf.ride_id`)} OR lf.wear_suggested_on IS NOT NULL)
           AND ${onlyRides(sql`lf.ride_id`)}
       ),
+      -- An operator's daily pre-opening check is never decided (its facts are ride_daily's).
       pending AS (
         SELECT i.* FROM ${inspections} i
-        WHERE ${pendingScope}
+        WHERE ${pendingScope} AND i.type <> 'daily_pre_opening'
           AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
       )`;
 }
@@ -125,8 +167,9 @@ function rideFacts(onlyRides: OnlyRides, pendingScope: SQL): SQL {
  * The item's day on its site's clock (`day_in_zone`, registered by server/sql-functions.ts): the site is
  * joined as `s`; a ride with no site, or a site with no zone, takes the inspection body's default.
  */
-const siteDay = (at: SQL) =>
-  sql`day_in_zone(${at}, s.time_zone, (SELECT json_extract(st."value", '$.zone') FROM "settings" st WHERE st."key" = 'time_zone'))`;
+const siteDayOf = (at: SQL, zone: SQL) =>
+  sql`day_in_zone(${at}, ${zone}, (SELECT json_extract(st."value", '$.zone') FROM "settings" st WHERE st."key" = 'time_zone'))`;
+const siteDay = (at: SQL) => siteDayOf(at, sql`s.time_zone`);
 
 const inspectionAt = sql`COALESCE(strftime('%Y-%m-%dT%H:%M:%fZ', i.submitted_at), i.submitted_at)`;
 
@@ -146,7 +189,7 @@ const inspectionRows: SQL = sql`
       -- Phones may send a local offset; in UTC every item's date sorts and compares as text.
       ${inspectionAt},
       i.analysis_status, i.failed_items, d.overdue_since, COALESCE(p.n, 0),
-      lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
+      lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on, NULL, NULL,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name),
       ${siteDay(inspectionAt)}, NULL, NULL
     FROM pending i
@@ -164,12 +207,13 @@ const inspectionRows: SQL = sql`
  */
 const rideAt = sql`COALESCE(
         strftime('%Y-%m-%dT%H:%M:%fZ', al.submitted_at), al.submitted_at,
+        strftime('%Y-%m-%dT%H:%M:%fZ', dy.failed_at), dy.failed_at,
         CASE
           WHEN d.overdue_since IS NULL THEN lf.ndt_overdue_since
           WHEN lf.ndt_overdue_since IS NULL THEN d.overdue_since
           ELSE min(d.overdue_since, lf.ndt_overdue_since)
         END,
-        p.first_due, lf.wear_suggested_on
+        p.first_due, lf.wear_suggested_on, dy.missed_on
       )`;
 
 /** One row per ride flagged by a returned inspection, or overdue / past due with nothing waiting. */
@@ -180,14 +224,14 @@ function rideRows(onlyRides: OnlyRides): SQL {
       s.name, r.operator_company_id, c.name, al.inspector_id, au.name,
       CASE
         WHEN al.analysis_status = 'over' THEN ${U('over')}
-        WHEN al.failed_items > 0 THEN ${U('failed')}
+        WHEN al.failed_items > 0 OR dy.failed_at IS NOT NULL THEN ${U('failed')}
         WHEN lf.wear_suggested_on IS NOT NULL THEN ${U('near')}
-        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL THEN ${U('overdue')}
+        WHEN d.overdue_since IS NOT NULL OR lf.ndt_overdue_since IS NOT NULL OR dy.missed_on IS NOT NULL THEN ${U('overdue')}
         ELSE ${U('past_due')}
       END,
       ${rideAt},
       al.analysis_status, COALESCE(al.failed_items, 0), d.overdue_since, COALESCE(p.n, 0),
-      lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on,
+      lf.ndt_overdue_since, lf.wear_limit_on, lf.wear_suggested_on, dy.failed_at, dy.missed_on,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name ||
         COALESCE(' ' || au.name, '')),
       ${siteDay(rideAt)}, NULL, NULL
@@ -199,13 +243,15 @@ function rideRows(onlyRides: OnlyRides): SQL {
       LEFT JOIN ride_alarm al ON al.ride_id = r.id
       LEFT JOIN ride_life lf ON lf.ride_id = r.id
       LEFT JOIN ${users} au ON au.id = al.inspector_id
+      LEFT JOIN ride_daily dy ON dy.ride_id = r.id
     WHERE (
         al.inspection_id IS NOT NULL
+        OR dy.ride_id IS NOT NULL
         OR (
           (d.overdue_since IS NOT NULL OR p.n > 0 OR lf.ride_id IS NOT NULL)
           AND NOT EXISTS (
             SELECT 1 FROM ${inspections} i
-            WHERE i.ride_id = r.id AND i.review_state = 'submitted'
+            WHERE i.ride_id = r.id AND i.review_state = 'submitted' AND i.type <> 'daily_pre_opening'
               AND NOT EXISTS (SELECT 1 FROM ${inspections} a WHERE a.amends_id = i.id)
           )
         )
@@ -226,7 +272,7 @@ function incidentRows(onlyRides: OnlyRides): SQL {
       'n:' || n.id, 'incident', NULL, NULL, r.id, r.name, r.ride_class, r.status, r.site_id,
       s.name, r.operator_company_id, c.name, NULL, NULL,
       CASE WHEN n.stopped_ride = 1 OR n.anyone_hurt = 1 THEN ${U('incident_serious')} ELSE ${U('incident')} END,
-      ${incidentAt}, NULL, 0, NULL, 0, NULL, NULL, NULL,
+      ${incidentAt}, NULL, 0, NULL, 0, NULL, NULL, NULL, NULL, NULL,
       lower(r.name || ' ' || COALESCE(r.serial, '') || ' ' || COALESCE(s.name, '') || ' ' || c.name || ' ' || u.name),
       ${siteDay(incidentAt)}, n.id, n.kind
     FROM ${incidents} n
@@ -281,8 +327,8 @@ ${rideFacts(onlyRides, pendingScope)}
     INSERT INTO ${reviewQueue} (
       key, kind, inspection_id, inspection_type, ride_id, ride_name, ride_class, ride_status, site_id,
       site_name, operator_id, operator_name, inspector_id, inspector_name, urgency, at, analysis_status,
-      failed_items, overdue_since, findings_past_due, ndt_due_on, wear_limit_on, wear_suggested_on, search,
-      day, incident_id, incident_kind
+      failed_items, overdue_since, findings_past_due, ndt_due_on, wear_limit_on, wear_suggested_on,
+      daily_failed_at, daily_missed_on, search, day, incident_id, incident_kind
     )
 ${inspectionRows}
     UNION ALL

@@ -57,6 +57,8 @@ const itemFields = (
     'wearSuggestedOn',
     'incidentId',
     'incidentKind',
+    'dailyFailedAt',
+    'dailyMissedOn',
   ] as const satisfies readonly (keyof QueueItem)[]
 )
   .map((k) =>

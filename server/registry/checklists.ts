@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 
-import { and, asc, desc, eq, isNull, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, isNull, ne, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 
 import { checklistTemplates, checklistTemplateVersions, users } from '@/db/server/schema';
@@ -9,8 +9,10 @@ import type {
   ChecklistTemplate,
   ChecklistTemplateSummary,
   checklistContentSchema,
+  InspectionType,
 } from '@/features/registry/schema';
-import type { RideClass } from '@/features/rides/schema';
+import { inspectionTypeLabel } from '@/features/registry/schema';
+import { rideClassLabel, type RideClass } from '@/features/rides/schema';
 import type { Db } from '@/server/db';
 import { conflict, notFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/registry/audit';
@@ -57,6 +59,7 @@ function templateRows(db: Pick<Db, 'select'>) {
       id: checklistTemplates.id,
       name: checklistTemplates.name,
       rideClass: checklistTemplates.rideClass,
+      inspectionType: checklistTemplates.inspectionType,
       createdAt: checklistTemplates.createdAt,
       archivedAt: checklistTemplates.archivedAt,
       version: checklistTemplateVersions.version,
@@ -83,6 +86,7 @@ function summaryOf(row: Row): ChecklistTemplateSummary {
     id: row.id,
     name: row.name,
     rideClass: row.rideClass,
+    inspectionType: row.inspectionType ?? null,
     createdAt: row.createdAt,
     archivedAt: row.archivedAt,
     currentVersion: row.version,
@@ -95,12 +99,17 @@ function summaryOf(row: Row): ChecklistTemplateSummary {
 
 export function listChecklistTemplates(
   db: Pick<Db, 'select'>,
-  filter: { rideClass?: RideClass; includeArchived?: boolean },
+  filter: { rideClass?: RideClass; inspectionType?: InspectionType | 'general'; includeArchived?: boolean },
 ): ChecklistTemplateSummary[] {
   return templateRows(db)
     .where(
       and(
         filter.rideClass ? eq(checklistTemplates.rideClass, filter.rideClass) : undefined,
+        filter.inspectionType === 'general'
+          ? isNull(checklistTemplates.inspectionType)
+          : filter.inspectionType
+            ? eq(checklistTemplates.inspectionType, filter.inspectionType)
+            : undefined,
         filter.includeArchived ? undefined : isNull(checklistTemplates.archivedAt),
       ),
     )
@@ -175,7 +184,44 @@ export function listChecklistVersions(db: Pick<Db, 'select'>, id: string) {
     .all();
 }
 
-type NewTemplate = { name: string; rideClass: RideClass; content: ContentInput; reason?: string };
+type NewTemplate = {
+  name: string;
+  rideClass: RideClass;
+  inspectionType?: InspectionType | null;
+  content: ContentInput;
+  reason?: string;
+};
+
+/**
+ * One template in use per ride class and inspection type, so the phone's pick is never a guess; general
+ * templates (no type) may be several, as before types existed.
+ */
+function refuseSecondOfType(
+  db: Pick<Db, 'select'>,
+  rideClass: RideClass,
+  type: InspectionType | null,
+  exceptId: string | null,
+): void {
+  if (type === null) return;
+  const other = db
+    .select({ id: checklistTemplates.id, name: checklistTemplates.name })
+    .from(checklistTemplates)
+    .where(
+      and(
+        eq(checklistTemplates.rideClass, rideClass),
+        eq(checklistTemplates.inspectionType, type),
+        isNull(checklistTemplates.archivedAt),
+        exceptId ? ne(checklistTemplates.id, exceptId) : undefined,
+      ),
+    )
+    .get();
+  if (other)
+    throw conflict(
+      `${other.name} is already the ${rideClassLabel[rideClass].toLowerCase()} checklist for ` +
+        `${inspectionTypeLabel[type].toLowerCase()} inspections; change that one, or archive it first.`,
+      'template_exists',
+    );
+}
 
 export function createChecklistTemplate(
   db: Pick<Db, 'transaction'>,
@@ -184,9 +230,11 @@ export function createChecklistTemplate(
   audit = true,
 ): ChecklistTemplate {
   return db.transaction((tx) => {
+    const inspectionType = input.inspectionType ?? null;
+    refuseSecondOfType(tx, input.rideClass, inspectionType, null);
     const { id } = tx
       .insert(checklistTemplates)
-      .values({ name: input.name, rideClass: input.rideClass })
+      .values({ name: input.name, rideClass: input.rideClass, inspectionType })
       .returning({ id: checklistTemplates.id })
       .get();
     tx.insert(checklistTemplateVersions)
@@ -214,6 +262,7 @@ export function createChecklistTemplate(
 
 type TemplateChange = {
   name?: string;
+  inspectionType?: InspectionType | null;
   content: ContentInput;
   reason: string;
   basedOnVersion?: number;
@@ -238,6 +287,13 @@ export function updateChecklistTemplate(
       );
     if (change.name !== undefined && change.name !== before.name)
       tx.update(checklistTemplates).set({ name: change.name }).where(eq(checklistTemplates.id, id)).run();
+    if (change.inspectionType !== undefined && change.inspectionType !== before.inspectionType) {
+      refuseSecondOfType(tx, before.rideClass, change.inspectionType, id);
+      tx.update(checklistTemplates)
+        .set({ inspectionType: change.inspectionType })
+        .where(eq(checklistTemplates.id, id))
+        .run();
+    }
     tx.insert(checklistTemplateVersions)
       .values({
         templateId: id,

@@ -18,6 +18,7 @@ import { type decisionInputSchema, type DecisionResponse } from '@/features/revi
 import { severityInfo } from '@/features/notices/finding-schema';
 import { checkTransition, eventForStatus, type RideStatus } from '@/features/rides/status-rules';
 import type { Db } from '@/server/db';
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import { findingNumber, mustSeeInspection, type InspectionHead } from '@/server/findings/findings';
 import { conflict, HttpError } from '@/server/http/errors';
 import { appendToLedger } from '@/server/ledger/append';
@@ -92,6 +93,13 @@ type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /** A decision is made once, and on the latest version: an amended original waits for its amendment. */
 function mustBeUndecided(tx: Tx, before: InspectionHead) {
+  // An operator's pre-opening check says whether the ride may open that day; nobody approves it.
+  if (before.type === DAILY_CHECK_TYPE)
+    throw conflict(
+      'This is a daily pre-opening check, not an inspection to decide: a failed check keeps the ride shut ' +
+        'until a later daily check passes.',
+      'daily_check',
+    );
   if (before.reviewState !== 'submitted')
     throw conflict(
       `This inspection was already ${pastTense[before.reviewState]}` +

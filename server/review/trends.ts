@@ -3,7 +3,9 @@
  * the pin diameters and clearances measured, so a slow drift toward a wear limit shows before it is
  * reached. Pivot names and limits come from the ride's current design data.
  */
-import { and, asc, desc, eq, inArray, isNotNull, notExists, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, ne, notExists, sql } from 'drizzle-orm';
+
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { inspectionReadings, inspections } from '@/db/server/inspections';
@@ -54,6 +56,7 @@ export function rideTrends(db: Pick<Db, 'select'>, user: SessionUser, rideId: st
     .where(
       and(
         eq(inspections.rideId, rideId),
+        ne(inspections.type, DAILY_CHECK_TYPE),
         user.role === 'inspector' ? eq(inspections.inspectorId, user.id) : undefined,
         notExists(
           db.select({ id: amendment.id }).from(amendment).where(eq(amendment.amendsId, inspections.id)),

@@ -17,6 +17,7 @@ import { findingsRouter } from '@/server/routes/findings';
 import { inspectionsRouter } from '@/server/routes/inspections';
 import { instrumentsRouter } from '@/server/routes/instruments';
 import { lifeRouter } from '@/server/routes/life';
+import { dailyChecksRouter } from '@/server/routes/daily-checks';
 import { loadsRouter } from '@/server/routes/loads';
 import { logbookRouter } from '@/server/routes/logbook';
 import { ndtRouter } from '@/server/routes/ndt';
@@ -63,6 +64,7 @@ export function apiRouter(deps: ApiDeps): Router {
   router.use(lifeRouter(deps));
   router.use(logbookRouter(deps));
   router.use(incidentsRouter(deps));
+  router.use(dailyChecksRouter(deps));
   router.use(platesRouter(deps));
   router.use(apiNotFound);
   return router;

@@ -18,7 +18,8 @@ const pullInput = validate({
 });
 
 /**
- * The phone's sync (inspectors, supervisors and admins; operators have no inspections to send).
+ * The phone's sync (inspectors, supervisors and admins; operators' staff for their daily pre-opening checks:
+ * their company's rides only, and no other type, server/sync/ingest.ts).
  *
  * - `POST /sync/push` `{ batchId, records[], signatures: { [recordId]: { keyId, signature } } }` → 200
  *   `{ batchId, results: [{ id, status, issues? }] }`, one result per record in order: `accepted`,
@@ -34,7 +35,7 @@ const pullInput = validate({
  */
 export function syncRouter(deps: ApiDeps): Router {
   const router = Router();
-  const phones = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin')];
+  const phones = [requireAuth(deps), requireRole('inspector', 'supervisor', 'admin', 'operator')];
 
   // Inspections a stop or crash left unanalysed are picked up as soon as the app is running again.
   scheduleAnalysis(deps.db, deps.logger);

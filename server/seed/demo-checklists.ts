@@ -289,3 +289,62 @@ export const demoChecklists: { name: string; rideClass: RideClass; areas: Area[]
     areas: areas({}),
   },
 ];
+
+/** What every class's pre-opening check asks; `extra` adds the class's own items. Invented wording. */
+function dailyAreas(extra: Item[]): Area[] {
+  return [
+    {
+      id: 'daily.site',
+      title: 'Around the ride',
+      items: [
+        look('daily.site.fence', 'Queue line, fence and exit gates in place and closed'),
+        look('daily.site.area', 'Nothing left in the swept area: tools, litter, loose items'),
+        measure(
+          'daily.site.wind',
+          'Wind speed at the ride (the maker’s limit is on the ride board)',
+          'count',
+          'm/s',
+        ),
+      ],
+    },
+    {
+      id: 'daily.ride',
+      title: 'The ride',
+      items: [
+        look('daily.ride.restraints', 'Every restraint closes, locks and opens'),
+        look('daily.ride.estop', 'Emergency stop tested from each station'),
+        look('daily.ride.visual', 'Walk round: no loose, bent or cracked part seen'),
+        ...extra,
+      ],
+    },
+  ];
+}
+
+/** The daily pre-opening checklist of each class, which operators' staff fill in on their phones. */
+export const demoDailyChecklists: { name: string; rideClass: RideClass; areas: Area[] }[] = [
+  {
+    name: 'Pendulum swing — pre-opening daily check',
+    rideClass: 'pendulum_swing',
+    areas: dailyAreas([look('daily.ride.brake', 'Swing brake holds the gondola at the platform')]),
+  },
+  {
+    name: 'Rotating arm — pre-opening daily check',
+    rideClass: 'rotating_arm',
+    areas: dailyAreas([look('daily.ride.arm-lock', 'Arm parking lock engages and releases')]),
+  },
+  {
+    name: 'Wheel — pre-opening daily check',
+    rideClass: 'wheel',
+    areas: dailyAreas([look('daily.ride.doors', 'Every gondola door latches')]),
+  },
+  {
+    name: 'Swing carousel — pre-opening daily check',
+    rideClass: 'swing_carousel',
+    areas: dailyAreas([look('daily.ride.chains', 'Seat chains hang free, no twisted link')]),
+  },
+  {
+    name: 'Other rotating ride — pre-opening daily check',
+    rideClass: 'other',
+    areas: dailyAreas([]),
+  },
+];

@@ -22,8 +22,9 @@ import { createChecklistTemplate } from '@/server/registry/checklists';
 import { addDays, dayInZone, isoDay } from '@/lib/dates';
 import { addDemoActivity } from '@/server/seed/demo-activity';
 import { topUpDemoBulletins } from '@/server/seed/demo-bulletins';
+import { addDemoDailyChecks } from '@/server/seed/demo-daily-checks';
 import { topUpDemoInstruments } from '@/server/seed/demo-instruments';
-import { demoChecklists } from '@/server/seed/demo-checklists';
+import { demoChecklists, demoDailyChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { storeDemoParts } from '@/server/seed/demo-parts';
 import { storeDemoPhotos } from '@/server/seed/demo-photos';
@@ -366,6 +367,7 @@ export async function seedDemoData(
   });
   if (result === 'seeded' && activity) {
     addDemoActivity(db, now);
+    addDemoDailyChecks(db, now);
     await storeActivityPhotos(db, config, now);
   }
   return result;
@@ -391,7 +393,10 @@ async function storeActivityPhotos(db: Db, config: Partial<Pick<Config, 'dataDir
  */
 function topUpDemoData(db: Db, now: Date = new Date(), opts: { activity?: boolean } = {}): void {
   db.transaction((tx) => topUpRegister(tx, now));
-  if (opts.activity) addDemoActivity(db, now);
+  if (opts.activity) {
+    addDemoActivity(db, now);
+    addDemoDailyChecks(db, now);
+  }
 }
 
 function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: Date): void {
@@ -447,6 +452,27 @@ function topUpRegister(db: Pick<Db, 'select' | 'insert' | 'transaction'>, now: D
           {
             name: template.name,
             rideClass: template.rideClass,
+            content: checklistContentSchema.parse({ areas: template.areas }),
+            reason: 'Demo template',
+          },
+          false,
+        );
+    // The daily pre-opening checklists came later than the others: added wherever none is set yet.
+    const anyDaily = tx
+      .select({ id: checklistTemplates.id })
+      .from(checklistTemplates)
+      .where(eq(checklistTemplates.inspectionType, 'daily_pre_opening'))
+      .limit(1)
+      .get();
+    if (!anyDaily)
+      for (const template of demoDailyChecklists)
+        createChecklistTemplate(
+          tx,
+          author.id,
+          {
+            name: template.name,
+            rideClass: template.rideClass,
+            inspectionType: 'daily_pre_opening',
             content: checklistContentSchema.parse({ areas: template.areas }),
             reason: 'Demo template',
           },

@@ -14,6 +14,7 @@ import { confirmedOutOfRange } from '@/features/records/plausibility';
 import type { AnalysisModelFields } from '@/features/records/analysis-schema';
 import type { LoadCheckExtras } from '@/features/records/load-check';
 import type { InspectionRecord } from '@/features/records/schema';
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import { ENGINE_VERSION, pinChecksAtPeak, type CycleResult } from '@/features/loads/engine';
 import { jointRangesOf } from '@/features/loads';
 import type { Db } from '@/server/db';
@@ -78,6 +79,8 @@ function storedModelFields(result: CycleResult & Partial<LoadCheckExtras>): Anal
   };
 }
 
+const dailyCheckNote = 'A daily pre-opening check: no load check is made of it.';
+
 /** Analyses one inspection if it still needs it; false when there was nothing to do. */
 export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean {
   const row = db
@@ -87,11 +90,13 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
       designVersionId: inspections.designVersionId,
       templateId: inspections.templateId,
       templateVersion: inspections.templateVersion,
+      type: inspections.type,
     })
     .from(inspections)
     .where(eq(inspections.id, id))
     .get();
   if (!row) return false;
+  const dailyCheck = row.type === DAILY_CHECK_TYPE;
   const design = row.designVersionId
     ? db
         .select({ id: designVersions.id, version: designVersions.version, data: designVersions.data })
@@ -102,7 +107,10 @@ export function analyseOne(db: Db, id: string, now: Date = new Date()): boolean 
 
   let analysis: StoredAnalysis | null = null;
   let note: string | null = null;
-  if (!design) {
+  if (dailyCheck) {
+    // An operator's pre-opening check: its answers are what it says, there is no load check to make.
+    note = dailyCheckNote;
+  } else if (!design) {
     note = noDesignNote;
   } else {
     try {

@@ -14,6 +14,7 @@ import { hash } from 'node:crypto';
 
 import { z } from 'zod';
 
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import { canonicalJson } from '@/features/ledger';
 import type { SessionUser } from '@/features/session/schema';
 import {
@@ -109,6 +110,22 @@ function timeOfRecordIssues(record: InspectionRecord, receivedAt: string): Issue
 }
 
 const rejected = (id: string | null, issues: Issue[]): RecordResult => ({ id, status: 'rejected', issues });
+
+/**
+ * An operator's staff send daily pre-opening checks and nothing else (their rides only: the ride's scope
+ * check below); anyone may send a daily check. Test runs belong to a daily check, which is never
+ * corrected by an amendment: a new check is recorded instead.
+ */
+function dailyCheckIssues(user: SessionUser, record: InspectionRecord): Issue[] {
+  const daily = record.type === DAILY_CHECK_TYPE;
+  if (user.role === 'operator' && !daily)
+    return [{ path: 'type', message: "An operator's phone sends daily pre-opening checks only" }];
+  if (!daily && record.testRuns?.length)
+    return [{ path: 'testRuns', message: 'Only a daily pre-opening check records test runs' }];
+  if (daily && record.amendsId)
+    return [{ path: 'amendsId', message: 'A daily check is not amended; record a new daily check instead' }];
+  return [];
+}
 
 /** The id the phone will look for in the answer, even when the rest of the record is unusable. */
 function idOf(raw: unknown): string | null {
@@ -244,6 +261,8 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
     ]);
   const sameIds = duplicateIds(record);
   if (sameIds.length) return rejected(record.id, sameIds);
+  const notDaily = dailyCheckIssues(ctx.user, record);
+  if (notDaily.length) return rejected(record.id, notDaily);
 
   // The schema's output has its keys in schema order whatever order the phone sent, so equal content
   // always serialises (and hashes) the same.
@@ -335,7 +354,9 @@ function ingestRecord(ctx: BatchContext, raw: unknown): RecordResult {
     amendsId,
     json,
     contentSha256,
-    record.checklist.reduce((n, a) => n + (a.result === 'fail' ? 1 : 0), 0),
+    // A daily check's failed test runs stop the ride like a failed item, so they count with them.
+    record.checklist.reduce((n, a) => n + (a.result === 'fail' ? 1 : 0), 0) +
+      (record.testRuns ?? []).reduce((n, t) => n + (t.result === 'fail' ? 1 : 0), 0),
   ];
   const row: StoredRecord = { inspection, record };
   if (ctx.pending) ctx.pending.push(row);

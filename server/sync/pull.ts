@@ -22,6 +22,7 @@ import {
   rides,
   users,
 } from '@/db/server/schema';
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import type { SessionUser } from '@/features/session/schema';
 import type { RideSummary } from '@/features/rides/schema';
 import type { PulledDecisionFinding, PullResponse } from '@/features/sync/pull-schema';
@@ -156,8 +157,15 @@ function pulledRides({ tx, since, scope, visible, visibleRideRows, audit, audite
   return { rideList, designs, removedRides };
 }
 
-/** Checklist templates for the classes of the caller's rides (and the ones to drop). */
-function pulledTemplates({ tx, since, classes, audited }: PullContext, rideList: RideSummary[]) {
+/**
+ * Checklist templates for the classes of the caller's rides (and the ones to drop). An operator's phone
+ * records daily checks only, so it gets the daily pre-opening templates and no inspector's checklist.
+ */
+function pulledTemplates(
+  { tx, since, classes, audited }: PullContext,
+  rideList: RideSummary[],
+  dailyOnly: boolean,
+) {
   let templateIds: string[];
   const removedTemplates: string[] = [];
   if (since === null) {
@@ -191,7 +199,11 @@ function pulledTemplates({ tx, since, classes, audited }: PullContext, rideList:
   const templates = templateIds.flatMap((id) => {
     const template = findChecklistTemplate(tx, id);
     if (!template) return [];
-    if (template.archivedAt !== null || !classes.includes(template.rideClass)) {
+    if (
+      template.archivedAt !== null ||
+      !classes.includes(template.rideClass) ||
+      (dailyOnly && template.inspectionType !== DAILY_CHECK_TYPE)
+    ) {
       removedTemplates.push(id);
       return [];
     }
@@ -300,7 +312,7 @@ export function buildPull(
     const ctx = pullContext(tx, since, scope);
     const { visible } = ctx;
     const { rideList, designs, removedRides } = pulledRides(ctx);
-    const { templates, removedTemplates } = pulledTemplates(ctx, rideList);
+    const { templates, removedTemplates } = pulledTemplates(ctx, rideList, user.role === 'operator');
 
     // ——— assignments: always the whole (short) list, since due status moves with the date alone ———
     // `db`, not `tx`: the registry's function takes the database type; on this one connection it reads

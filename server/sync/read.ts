@@ -3,7 +3,9 @@
  * bytes arrived, the server's analysis, review state and findings), or a page of summaries. Staff read all; an
  * inspector reads only their own, and another's inspection answers the same 404 as a missing one.
  */
-import { and, asc, count, desc, eq, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ne, sql, type SQL } from 'drizzle-orm';
+
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { inspectionPhotos, inspectionReadings, inspections, photos } from '@/db/server/inspections';
@@ -58,6 +60,8 @@ type InspectionListFilter = {
 export function listInspections(db: Db, user: SessionUser, filter: InspectionListFilter) {
   const where = and(
     ownOnly(user),
+    // Operators' daily checks have their own list (server/daily-checks); this one is the inspections'.
+    ne(inspections.type, DAILY_CHECK_TYPE),
     filter.mine ? eq(inspections.inspectorId, user.id) : undefined,
     filter.rideId ? eq(inspections.rideId, filter.rideId) : undefined,
     filter.inspectorId ? eq(inspections.inspectorId, filter.inspectorId) : undefined,

@@ -24,6 +24,7 @@ const template: ChecklistTemplate = {
   id: 'tpl-1',
   name: 'Rod',
   rideClass: 'other',
+  inspectionType: null,
   createdAt: '2026-01-01T00:00:00Z',
   archivedAt: null,
   currentVersion: 1,

@@ -110,6 +110,7 @@ const template: ChecklistTemplate = {
   id: 'tpl-arm',
   name: 'Rotating arm',
   rideClass: 'rotating_arm',
+  inspectionType: null,
   createdAt: '2026-01-01T00:00:00Z',
   archivedAt: null,
   currentVersion: 1,

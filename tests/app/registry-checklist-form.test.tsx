@@ -10,6 +10,7 @@ import { ApiRequestError } from '@/lib/api-errors';
 
 const start: ChecklistFormInput = {
   name: 'Pendulum swing — periodic',
+  inspectionType: 'periodic',
   reason: '',
   content: {
     areas: [
@@ -120,4 +121,18 @@ test('a server problem on an item is shown on that item', async () => {
   fireEvent.press(screen.getByRole('button', { name: 'Save' }));
   expect(await screen.findByText('At most 300 characters')).toBeTruthy();
   expect(screen.getByText('Nothing was saved. Look at the fields marked below.')).toBeTruthy();
+});
+
+test("the template's inspection type is chosen from every type or any type, and saved with it", async () => {
+  const onSubmit = jest.fn().mockResolvedValue(undefined);
+  render(<ChecklistForm defaultValues={start} submitLabel="Save as version 2" onSubmit={onSubmit} />);
+  fireEvent.press(screen.getByRole('combobox', { name: 'Inspection type: Periodic' }));
+  // Every type of lib/vocabulary.ts, and the general choice.
+  expect(screen.getAllByRole('option')).toHaveLength(7);
+  expect(screen.getByRole('option', { name: 'Any type (general)' })).toBeTruthy();
+  fireEvent.press(screen.getByRole('option', { name: 'After repair' }));
+  fireEvent.changeText(screen.getByLabelText('Why this change'), 'Used after repairs only');
+  fireEvent.press(screen.getByRole('button', { name: 'Save as version 2' }));
+  await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+  expect(onSubmit.mock.calls[0][0].inspectionType).toBe('after_repair');
 });

@@ -9,6 +9,7 @@ import { ChecklistForm, type ChecklistFormInput } from '@/features/registry/chec
 
 const start: ChecklistFormInput = {
   name: 'Rotating arm — periodic',
+  inspectionType: 'periodic',
   reason: 'Limits added',
   content: {
     areas: [

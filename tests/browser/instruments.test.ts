@@ -147,7 +147,7 @@ test('the review desk shows the declaration and the instrument each reading was 
     designVersionId: null,
     templateId: null,
     templateVersion: null,
-    type: 'daily_pre_opening',
+    type: 'periodic',
     startedAt: now,
     submittedAt: now,
     checklist: [],

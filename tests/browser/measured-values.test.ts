@@ -75,7 +75,7 @@ test('the desk shows a pin typed just above its minimum with the inspector’s d
     designVersionId: design.id,
     templateId: null,
     templateVersion: null,
-    type: 'daily_pre_opening',
+    type: 'periodic',
     startedAt: now,
     submittedAt: now,
     checklist: [],

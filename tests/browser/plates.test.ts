@@ -50,9 +50,10 @@ async function plateVideo(baseUrl: string): Promise<string[]> {
     const labels: Record<string, string> = {
       daily_pre_opening: 'Daily pre-opening',
       periodic: 'Periodic',
-      annual: 'Annual',
+      annual: 'Annual thorough',
       setup_after_assembly: 'Set-up after assembly',
       follow_up: 'Follow-up',
+      after_repair: 'After repair',
     };
     scanned = {
       rideId: a.rideId,

@@ -80,6 +80,7 @@ const template: ChecklistTemplate = {
   id: 'tpl-1',
   name: 'Pendulum',
   rideClass: 'pendulum_swing',
+  inspectionType: null,
   createdAt: '2026-01-01T00:00:00Z',
   archivedAt: null,
   currentVersion: 1,

@@ -8,7 +8,7 @@ import { rideDetailResponseSchema } from '@/features/registry/schema';
 import { rideListResponseSchema } from '@/features/rides/schema';
 import { openDb } from '@/server/db';
 import { demoRides, demoUsers, seedDemoData } from '@/server/seed/demo';
-import { demoChecklists } from '@/server/seed/demo-checklists';
+import { demoChecklists, demoDailyChecklists } from '@/server/seed/demo-checklists';
 import { demoDesigns } from '@/server/seed/demo-design';
 import { demoSchedules } from '@/server/seed/demo-schedules';
 
@@ -99,7 +99,7 @@ describe('demo design data in the seed', () => {
       const schedules = () => database.db.select({ n: count() }).from(inspectionSchedules).get()?.n;
       expect([versions(), templates(), schedules()]).toEqual([
         demoRides.length,
-        demoChecklists.length,
+        demoChecklists.length + demoDailyChecklists.length,
         demoSchedules.length,
       ]);
       // An older demo database: the rides and users exist, the design data does not.
@@ -109,13 +109,13 @@ describe('demo design data in the seed', () => {
       expect(await seedDemoData(database.db, { nodeEnv: 'development' })).toBe('skipped_existing_users');
       expect([versions(), templates(), schedules()]).toEqual([
         demoRides.length,
-        demoChecklists.length,
+        demoChecklists.length + demoDailyChecklists.length,
         demoSchedules.length,
       ]);
       await seedDemoData(database.db, { nodeEnv: 'development' });
       expect([versions(), templates(), schedules()]).toEqual([
         demoRides.length,
-        demoChecklists.length,
+        demoChecklists.length + demoDailyChecklists.length,
         demoSchedules.length,
       ]);
     } finally {

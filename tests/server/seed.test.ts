@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 
 import bcrypt from 'bcryptjs';
-import { and, asc, count, eq } from 'drizzle-orm';
+import { and, asc, count, eq, ne } from 'drizzle-orm';
 
 import { inspectionReadings, inspections, photos, syncBatches } from '@/db/server/inspections';
 import { findings, reviewQueue } from '@/db/server/review';
@@ -131,7 +131,10 @@ test('the database is opened with WAL, commits synced to disk and foreign keys o
 
 describe('the demo’s inspection history', () => {
   const seedDay = new Date('2026-05-04T09:30:00.000Z');
-  const inspectionCount = (db: OpenedDb['db']) => db.select({ n: count() }).from(inspections).get()?.n;
+  // The operators' daily checks are inspection records too (server/seed/demo-daily-checks.ts); not counted here.
+  const notDaily = ne(inspections.type, 'daily_pre_opening');
+  const inspectionCount = (db: OpenedDb['db']) =>
+    db.select({ n: count() }).from(inspections).where(notDaily).get()?.n;
 
   test('a development server’s data directory gets it: a useful review desk and trends on first start', async () => {
     const database = freshDb();
@@ -140,7 +143,7 @@ describe('the demo’s inspection history', () => {
       'seeded',
     );
     const { db } = database;
-    const rows = db.select().from(inspections).all();
+    const rows = db.select().from(inspections).where(notDaily).all();
     expect(rows).toHaveLength(demoInspections.length);
     // Every one analysed by the server's own analysis, as a pushed inspection is.
     expect(rows.every((r) => r.analysedAt !== null && r.analysis !== null)).toBe(true);
@@ -173,9 +176,11 @@ describe('the demo’s inspection history', () => {
     expect(byId('wheel-periodic-0')).toMatchObject({ analysisStatus: 'within', failedItems: 0 });
     expect(waiting).toHaveLength(4);
     const queue = db.select().from(reviewQueue).all();
+    // "overdue": the ride the demo's daily checks leave with a missed day (server/seed/demo-daily-checks.ts).
     expect(new Set(queue.map((q) => urgencies[q.urgency]))).toEqual(
-      new Set(['over', 'failed', 'near', 'awaiting', 'past_due']),
+      new Set(['over', 'failed', 'near', 'awaiting', 'past_due', 'overdue']),
     );
+    expect(queue.filter((q) => q.dailyMissedOn !== null).map((q) => q.rideName)).toEqual(['Tidebreaker']);
 
     // History: decided inspections on several rides, with wear readings drifting over months.
     const decided = rows.filter((r) => r.reviewState !== 'submitted');

@@ -127,7 +127,7 @@ export function makeRecord(
     designVersionId: ride.designVersionId,
     templateId: null,
     templateVersion: null,
-    type: 'daily_pre_opening',
+    type: 'periodic',
     startedAt: '2026-05-04T08:00:00.000Z',
     submittedAt: '2026-05-04T08:40:00.000Z',
     checklist: [

@@ -62,7 +62,7 @@ describe('POST /api/sync/push', () => {
     expect(row).toMatchObject({
       rideId: comet.id,
       designVersionId: comet.designVersionId,
-      type: 'daily_pre_opening',
+      type: 'periodic',
       failedItems: 1,
       reviewState: 'submitted',
     });
@@ -216,8 +216,12 @@ describe('POST /api/sync/push', () => {
     expect(counts()).toEqual(before);
   });
 
-  test('operators may not push (403); without a token 401', async () => {
-    expectApiError(await push([makeRecord(comet)], randomUUID(), api.operator), 403, 'forbidden');
+  test('operators push daily checks only (tests/server/daily-checks.test.ts); without a token 401', async () => {
+    const before = counts();
+    const res = await push([makeRecord(comet)], randomUUID(), api.operator);
+    expect(res.body.results[0]).toMatchObject({ status: 'rejected', issues: [{ path: 'type' }] });
+    // Only the batch's answer is kept (so a re-send gets it back); no record of it.
+    expect(counts()).toEqual({ ...before, batches: (before.batches ?? 0) + 1 });
     expectApiError(await push([makeRecord(comet)], randomUUID(), api.anonymous), 401, 'unauthorized');
   });
 });

@@ -1,5 +1,10 @@
 import { changeReasonSchema, designVersionParamsSchema } from '@/features/registry/schema/design';
 import { nullableText, requiredText } from '@/features/registry/schema/fields';
+import {
+  type InspectionType,
+  inspectionTypeLabel,
+  inspectionTypeSchema,
+} from '@/features/registry/schema/schedules';
 import { rideClassSchema } from '@/features/rides/schema';
 import type { QuantityKind } from '@/lib/units';
 import { z } from 'zod';
@@ -171,16 +176,21 @@ export const storedChecklistContentSchema = z.object({
 export type ChecklistContent = z.infer<typeof storedChecklistContentSchema>;
 export type ChecklistItem = z.infer<typeof storedChecklistItemSchema>;
 
+/** The inspection type a template is for; null = the class's general checklist, for any type without its own. */
+const templateTypeSchema = inspectionTypeSchema.nullable();
+
 /** POST /api/checklist-templates. */
 export const checklistTemplateCreateSchema = z.object({
   name: requiredText(120),
   rideClass: rideClassSchema,
+  inspectionType: templateTypeSchema.default(null),
   content: checklistContentSchema,
   reason: changeReasonSchema.optional(),
 });
 /** PUT /api/checklist-templates/:id: a new version (and optionally a new name). */
 export const checklistTemplatePutSchema = z.object({
   name: requiredText(120).optional(),
+  inspectionType: templateTypeSchema.optional(),
   content: checklistContentSchema,
   reason: changeReasonSchema,
   basedOnVersion: z.number().int().min(1).optional(),
@@ -196,6 +206,8 @@ export const checklistTemplateSummarySchema = z.object({
   id: z.string(),
   name: z.string(),
   rideClass: rideClassSchema,
+  /** Absent from templates a phone cached before types existed: those were general ones. */
+  inspectionType: templateTypeSchema.default(null),
   createdAt: z.string(),
   archivedAt: z.string().nullable(),
   currentVersion: z.number().int(),
@@ -212,6 +224,8 @@ export type ChecklistTemplate = z.infer<typeof checklistTemplateSchema>;
 
 export const checklistTemplateListQuerySchema = z.object({
   rideClass: rideClassSchema.optional(),
+  /** A type, or `general` for the templates that apply to any type. */
+  inspectionType: z.union([inspectionTypeSchema, z.literal('general')]).optional(),
   includeArchived: z
     .enum(['true', 'false', '1', '0'], { error: 'true or false' })
     .optional()
@@ -223,3 +237,38 @@ export const checklistTemplateListResponseSchema = z.object({
 export const checklistTemplateResponseSchema = z.object({ template: checklistTemplateSchema });
 export const checklistVersionListResponseSchema = z.object({ versions: z.array(checklistVersionInfoSchema) });
 export const checklistVersionParamsSchema = designVersionParamsSchema;
+
+/** The words for a template's type in lists and forms. */
+export const generalTemplateLabel = 'Any type (general)';
+export const templateTypeWords = (type: InspectionType | null | undefined): string =>
+  type ? inspectionTypeLabel[type] : generalTemplateLabel;
+
+type Pickable = {
+  rideClass: string;
+  inspectionType?: InspectionType | null;
+  archivedAt: string | null;
+  name: string;
+  id: string;
+};
+
+/**
+ * The checklist for an inspection of `type` on a ride of `rideClass`: the class's template for that type,
+ * else its general one (`fallback: true`, so the screen can say the type has none of its own). A daily
+ * pre-opening check never falls back: the general checklist is an inspector's, not the operator's
+ * pre-opening list. Archived templates are never picked; of two for the same class and type (the API
+ * refuses a second, older data may hold one) the first by name, then id, is taken.
+ */
+export function pickChecklistTemplate<T extends Pickable>(
+  templates: readonly T[],
+  rideClass: string,
+  type: InspectionType,
+): { template: T | null; fallback: boolean } {
+  const usable = templates
+    .filter((t) => t.rideClass === rideClass && t.archivedAt === null)
+    .sort((a, b) => a.name.localeCompare(b.name) || a.id.localeCompare(b.id));
+  const own = usable.find((t) => t.inspectionType === type);
+  if (own) return { template: own, fallback: false };
+  if (type === 'daily_pre_opening') return { template: null, fallback: false };
+  const general = usable.find((t) => (t.inspectionType ?? null) === null);
+  return { template: general ?? null, fallback: general !== undefined };
+}

@@ -26,6 +26,8 @@ export const dueWindowDays: Record<InspectionType, number> = {
   annual: 30,
   setup_after_assembly: 3,
   follow_up: 7,
+  // Booked when the repair is done: due from the day it is set.
+  after_repair: 0,
 };
 
 /** overdue: the due date has passed · due: within the type's window · upcoming: later · unscheduled: no date. */
