@@ -34,11 +34,19 @@ const areaTitles = [
 ];
 
 describe('demo templates', () => {
-  test('one per ride class, each with the eight areas, readable by an inspector', async () => {
+  test('one general template per ride class, each with the eight areas, readable by an inspector', async () => {
     const res = await api.inspector.get('/api/checklist-templates');
     expect(res.status).toBe(200);
-    const { templates } = checklistTemplateListResponseSchema.parse(res.body);
+    const all = checklistTemplateListResponseSchema.parse(res.body).templates;
+    // Besides these, each class has its operators' daily check (tests/server/daily-checks.test.ts).
+    const templates = all.filter((t) => t.inspectionType === null);
     expect(templates.map((t) => t.rideClass).sort()).toEqual([...rideClasses].sort());
+    expect(
+      all
+        .filter((t) => t.inspectionType === 'daily_pre_opening')
+        .map((t) => t.rideClass)
+        .sort(),
+    ).toEqual([...rideClasses].sort());
     for (const summary of templates) {
       expect(summary).toMatchObject({
         currentVersion: 1,
@@ -63,7 +71,15 @@ describe('demo templates', () => {
     const { templates } = checklistTemplateListResponseSchema.parse(
       (await api.inspector.get('/api/checklist-templates?rideClass=wheel')).body,
     );
-    expect(templates.map((t) => t.name)).toEqual(['Wheel — periodic inspection']);
+    expect(templates.map((t) => t.name).sort()).toEqual([
+      'Wheel — periodic inspection',
+      'Wheel — pre-opening daily check',
+    ]);
+    const daily = checklistTemplateListResponseSchema.parse(
+      (await api.inspector.get('/api/checklist-templates?rideClass=wheel&inspectionType=daily_pre_opening'))
+        .body,
+    ).templates;
+    expect(daily.map((t) => t.name)).toEqual(['Wheel — pre-opening daily check']);
     expectApiError(
       await api.inspector.get('/api/checklist-templates?rideClass=coaster'),
       400,
