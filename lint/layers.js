@@ -141,7 +141,8 @@ function layerZones(root) {
       message: 'A contract (schema or engine) imports only lib/ and other contracts.',
     },
   ];
-  // Between features, only the other feature's public API (index.ts) and its contracts. The shell's
+  // Between features, only the other feature's public API (index.ts, ui.ts, and ui-<area>.ts for UI that
+  // one area alone shows, kept out of the shared chunk) and its contracts. The shell's
   // bundles (features/shell/bundles/) are the exception: they stand in for the route files, which import
   // screens directly, and group them into the web export's lazily loaded chunks.
   featureOrder.forEach((feature) => {
@@ -151,8 +152,8 @@ function layerZones(root) {
           ? ['./features/shell/*', './features/shell/!(bundles)/**']
           : `./features/${feature}`,
       from: featureOrder.filter((f) => f !== feature).map((f) => abs(`features/${f}/**`)),
-      except: [...contracts, abs('features/*/index.ts'), abs('features/*/ui.ts')],
-      message: `Another feature is used through its index.ts or ui.ts (its public API) or its contracts.`,
+      except: [...contracts, abs('features/*/index.ts'), abs('features/*/ui.ts'), abs('features/*/ui-*.ts')],
+      message: `Another feature is used through its index.ts, ui.ts or ui-<area>.ts (its public API) or its contracts.`,
     });
   });
   featureOrder.forEach((feature, i) => {

@@ -20,7 +20,6 @@ export {
   Field,
   useDesignAnalysis,
 } from '@/features/registry/design-view';
-export { RideDocumentsCard } from '@/features/registry/design-documents-card';
 export { DeleteAction } from '@/features/registry/delete-action';
 export { DueMark, dueInWords } from '@/features/registry/due-mark';
 export { PlateSheetDownload } from '@/features/registry/plate-sheet-download';
@@ -28,4 +27,3 @@ export { readPickedFile } from '@/features/registry/read-picked-file';
 export { RegisterTabs } from '@/features/registry/register-tabs';
 export { RemovalNotice } from '@/features/registry/removal-notice';
 export { RideNotFound, canEditRides, useRideIdParam } from '@/features/registry/ride-route';
-export { RideSetupsCard } from '@/features/registry/ride-setups-card';

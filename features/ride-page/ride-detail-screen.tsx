@@ -21,8 +21,8 @@ import {
   DueMark,
   dueInWords,
   PlateSheetDownload,
-  RideSetupsCard,
 } from '@/features/registry/ui';
+import { RideSetupsCard } from '@/features/registry/ui-rides';
 import { Card } from '@/components/card';
 import { QueryState } from '@/components/query-state';
 import { RideStatusMark } from '@/components/status-mark';
