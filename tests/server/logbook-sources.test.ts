@@ -275,6 +275,8 @@ describe('scope', () => {
     const kinds = new Set(events.map((e) => e.kind));
     for (const k of ['incident', 'part', 'setup', 'daily_check', 'bulletin']) expect(kinds).toContain(k);
     expect(kinds).not.toContain('design');
+    // Links lead only where an operator may go: the bulletin register and review screens are staff's.
+    for (const e of events) expect(e.link?.href ?? '/').not.toMatch(/^\/(review|register)\//);
     expect(events.some((e) => e.id.includes(ids.document))).toBe(false);
   });
 

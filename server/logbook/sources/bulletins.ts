@@ -2,7 +2,8 @@
  * Makers' bulletins on the ride: each record of one done (through an inspection's checklist, or by a
  * supervisor or administrator on the day they give) or found not done by an inspection. Whoever may read
  * the ride reads its bulletins' state (`GET /rides/:id/bulletins`), so everyone who sees the ride sees
- * these; the inspection itself is named, not linked (its review screen is the deciders').
+ * these; the inspection itself is named, not linked (its review screen is the deciders'), and the link
+ * leads an operator to the ride (the bulletin's own page is staff's).
  */
 import { and, eq } from 'drizzle-orm';
 
@@ -10,7 +11,7 @@ import { bulletinActions, bulletins } from '@/db/server/bulletins';
 import { users } from '@/db/server/schema';
 import type { LogbookEvent } from '@/features/logbook/schema';
 import { formatDate } from '@/lib/dates';
-import { everyone, inRange, lines, when, type LogbookSource } from '@/server/logbook/source';
+import { everyone, inRange, isOperator, lines, when, type LogbookSource } from '@/server/logbook/source';
 
 export const bulletinsSource: LogbookSource = {
   kind: 'bulletin',
@@ -49,7 +50,10 @@ export const bulletinsSource: LogbookSource = {
           r.note ? `Note: ${r.note}` : null,
         ),
         who: r.byName,
-        link: { label: 'Open the bulletin', href: `/register/bulletins/${encodeURIComponent(r.bulletinId)}` },
+        // The bulletin's page is staff's; an operator reads the ride's bulletins on the ride's page.
+        link: isOperator(q.viewer)
+          ? { label: 'Open the ride', href: `/rides/${encodeURIComponent(q.rideId)}` }
+          : { label: 'Open the bulletin', href: `/register/bulletins/${encodeURIComponent(r.bulletinId)}` },
         documents: [],
       })),
 };
