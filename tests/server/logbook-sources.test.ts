@@ -73,6 +73,18 @@ beforeAll(async () => {
   });
   expect(part.status).toBe(201);
   ids.part = part.body.replacement.id;
+  // The serial was mistyped: a later record corrects it (both stay).
+  at('11:30');
+  const correction = await s.api.operator.post(`/api/rides/${skylarkId}/parts`, {
+    component: 'Gondola gate latch',
+    serialNumber: 'GL-59',
+    maker: 'Harwick Latches',
+    fittedOn: '2026-05-03',
+    fittedBy: 'Ines Barlow (site fitter)',
+    correctsId: ids.part,
+  });
+  expect(correction.status).toBe(201);
+  ids.correction = correction.body.replacement.id;
 
   // A document attached to the design version in force, then removed.
   at('12:00');
@@ -206,6 +218,7 @@ describe('each new kind of record', () => {
       idOf('setup'),
       `design-document-removed:${ids.document}`,
       `design-document:${ids.document}`,
+      `part:${ids.correction}`,
       `part:${ids.part}`,
       `incident-review:${ids.incident}`,
       `incident:${ids.incident}`,
@@ -236,6 +249,10 @@ describe('each new kind of record', () => {
         apiPath: `/api/documents/${ids.certificate}`,
       }),
     ]);
+    expect(part.detail).toContain(`Corrected by a later record (${intlDay('2026-05-04T11:30:00.000Z')})`);
+    expect(byId.get(`part:${ids.correction}`)?.detail.join('\n')).toContain(
+      'Corrects the record of GL-58 fitted',
+    );
     expect(byId.get(`design-document:${ids.document}`)?.kind).toBe('design');
     expect(mine.find((e) => e.kind === 'setup')?.title).toContain('Wenlow common');
     const daily = byId.get(`daily_check:${ids.dailyCheck}`)!;
@@ -245,8 +262,9 @@ describe('each new kind of record', () => {
   });
 
   test('the certificate an entry lists is served to the operator', async () => {
-    const [part] = await all(s.api.operator, '&kinds=part');
-    expect((await s.api.operator.get(part.documents[0].apiPath)).status).toBe(200);
+    const part = (await all(s.api.operator, '&kinds=part')).find((e) => e.id === `part:${ids.part}`);
+    expect(part?.documents).toHaveLength(1);
+    expect((await s.api.operator.get(part!.documents[0].apiPath)).status).toBe(200);
   });
 
   test('a daily check is listed as a daily check, not as an inspection', async () => {
