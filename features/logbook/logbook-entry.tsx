@@ -24,6 +24,11 @@ export const logbookKindIcon: Record<LogbookKind, IconName> = {
   ndt: 'crosshair',
   design: 'layers',
   status: 'activity',
+  incident: 'alert-octagon',
+  part: 'git-commit',
+  setup: 'calendar',
+  daily_check: 'sun',
+  bulletin: 'file-text',
 };
 
 /**

@@ -48,7 +48,8 @@ const kindsFor = (role: Role): readonly LogbookKind[] =>
 
 /**
  * Everything that happened to one ride, newest first: inspections, decisions, findings, corrective
- * actions, notices, NDT, design data and status. Filter by kind, site days and words; download what the
+ * actions, notices, NDT, design data and status, incident reports, parts replaced, set-ups, daily checks
+ * and makers' bulletins. Filter by kind, site days and words; download what the
  * filter keeps (every page) as a PDF or a CSV file. Each entry leads to where it lives in the app.
  */
 export function LogbookScreen() {

@@ -22,6 +22,11 @@ export const logbookKinds = [
   'ndt',
   'design',
   'status',
+  'incident',
+  'part',
+  'setup',
+  'daily_check',
+  'bulletin',
 ] as const;
 export type LogbookKind = (typeof logbookKinds)[number];
 
@@ -34,6 +39,11 @@ export const logbookKindWords: Record<LogbookKind, { label: string; chip: string
   ndt: { label: 'NDT', chip: 'NDT' },
   design: { label: 'Design data', chip: 'Design data' },
   status: { label: 'Ride status', chip: 'Status' },
+  incident: { label: 'Incident report', chip: 'Incidents' },
+  part: { label: 'Part replaced', chip: 'Parts' },
+  setup: { label: 'Set-up', chip: 'Set-ups' },
+  daily_check: { label: 'Daily check', chip: 'Daily checks' },
+  bulletin: { label: 'Maker’s bulletin', chip: 'Bulletins' },
 };
 
 /** A site day; years far outside any ride's life are refused rather than turned into instants. */

@@ -55,3 +55,7 @@ export function when(at: string, zone: string): { at: string; day: string } {
 
 export const lines = (...items: (string | null | undefined | false)[]): string[] =>
   items.filter((s): s is string => typeof s === 'string' && s.trim() !== '');
+
+/** A file name for a document from its title ("Certificate of conformity" → `Certificate-of-conformity.pdf`). */
+export const pdfFileName = (title: string) =>
+  `${title.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'document'}.pdf`;

@@ -2,12 +2,14 @@
  * Inspections submitted and the review's decisions on them. Operators see neither (they learn of a
  * decision through its notice); an inspector sees their own, as everywhere else; supervisors and
  * administrators see all, with the review screen. The report PDF goes to those the report route serves.
+ * Operators' daily pre-opening checks are stored as inspections too; they are the daily-check source's.
  */
-import { and, eq, inArray } from 'drizzle-orm';
+import { and, eq, inArray, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { inspections } from '@/db/server/inspections';
 import { users } from '@/db/server/schema';
+import { DAILY_CHECK_TYPE } from '@/features/daily-checks/schema';
 import type { LogbookDocument, LogbookEvent } from '@/features/logbook/schema';
 import type { SessionUser } from '@/features/session/schema';
 import { envelopeStatusVocabulary, inspectionTypeVocabulary, reviewStateVocabulary } from '@/lib/vocabulary';
@@ -49,6 +51,8 @@ function rows(db: Reader, q: SourceQuery, decided: boolean) {
     .where(
       and(
         eq(inspections.rideId, q.rideId),
+        // Operators' daily checks are entries of their own (sources/daily-checks.ts).
+        ne(inspections.type, DAILY_CHECK_TYPE),
         q.viewer.role === 'inspector' ? eq(inspections.inspectorId, q.viewer.id) : undefined,
         decided ? inArray(inspections.reviewState, ['approved', 'returned']) : undefined,
         inRange(decided ? inspections.reviewedAt : inspections.submittedAt, q),

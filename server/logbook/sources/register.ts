@@ -1,23 +1,26 @@
 /**
  * The ride's own records: NDT at its pivots (the operator reads these too), design data versions (made,
- * proposed, approved, rejected; staff only, as design data is) and its operating status changes (the
- * operator is sent each one as a notice).
+ * proposed, approved, rejected) and the documents attached to and removed from them (both staff only, as
+ * design data and its version history are; an operator reads the in-force version's documents on the parts
+ * page, not their history), and its operating status changes (the operator is sent each one as a notice).
  */
-import { and, eq, or } from 'drizzle-orm';
+import { and, eq, isNull, or } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 
 import { ndtRecords } from '@/db/server/ndt';
 import { rideStatusChanges } from '@/db/server/review';
+import { designDocuments } from '@/db/server/parts';
 import { designVersions, users } from '@/db/server/schema';
 import { NDT_METHOD_WORDS } from '@/features/loads/design-schema';
 import type { LogbookEvent } from '@/features/logbook/schema';
 import { ndtResultInfo } from '@/features/pivot-life/ndt-schema';
 import { formatDate } from '@/lib/dates';
-import { rideStatusVocabulary } from '@/lib/vocabulary';
+import { designDocumentKindVocabulary, rideStatusVocabulary } from '@/lib/vocabulary';
 import {
   everyone,
   inRange,
   lines,
+  pdfFileName,
   staffOnly,
   when,
   type LogbookSource,
@@ -131,6 +134,75 @@ export const designSource: LogbookSource = {
           who: r.deciderName,
           link,
           documents: [],
+        });
+    }
+    return out;
+  },
+};
+
+const attacher = alias(users, 'logbook_document_attacher');
+const detacher = alias(users, 'logbook_document_detacher');
+
+/**
+ * Documents attached to design versions, and their removal. A copy carried to a new version is not
+ * repeated (the new version is its own entry); a removal is, as it is an act of its own.
+ */
+export const designDocumentsSource: LogbookSource = {
+  kind: 'design',
+  shownTo: staffOnly,
+  read: (db, q) => {
+    const rows = db
+      .select({
+        d: designDocuments,
+        attacherName: attacher.name,
+        detacherName: detacher.name,
+      })
+      .from(designDocuments)
+      .leftJoin(attacher, eq(attacher.id, designDocuments.attachedBy))
+      .leftJoin(detacher, eq(detacher.id, designDocuments.detachedBy))
+      .where(
+        and(
+          eq(designDocuments.rideId, q.rideId),
+          or(
+            and(isNull(designDocuments.carriedFromId), inRange(designDocuments.attachedAt, q)),
+            inRange(designDocuments.detachedAt, q),
+          ),
+        ),
+      )
+      .all();
+    const out: LogbookEvent[] = [];
+    for (const { d, attacherName, detacherName } of rows) {
+      const what =
+        `${designDocumentKindVocabulary[d.kind].label} “${d.title}”` + (d.revision ? ` (${d.revision})` : '');
+      const link = { label: 'Open the version', href: `${ridePath(q.rideId)}/versions/${d.version}` };
+      const file = [
+        { label: `${d.title} (PDF)`, apiPath: `/api/documents/${d.sha256}`, fileName: pdfFileName(d.title) },
+      ];
+      const detail = lines(d.issuedOn ? `Issued ${formatDate(d.issuedOn)}` : null);
+      const attached = when(d.attachedAt, q.zone);
+      if (d.carriedFromId === null && inside(q, attached.at))
+        out.push({
+          id: `design-document:${d.id}`,
+          rideId: q.rideId,
+          ...attached,
+          kind: 'design',
+          title: `${what} attached to design data version ${d.version}`,
+          detail,
+          who: attacherName,
+          link,
+          documents: file,
+        });
+      if (d.detachedAt && inside(q, when(d.detachedAt, q.zone).at))
+        out.push({
+          id: `design-document-removed:${d.id}`,
+          rideId: q.rideId,
+          ...when(d.detachedAt, q.zone),
+          kind: 'design',
+          title: `${what} removed from design data version ${d.version}`,
+          detail,
+          who: detacherName,
+          link,
+          documents: file,
         });
     }
     return out;
