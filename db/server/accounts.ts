@@ -1,21 +1,17 @@
 import { randomUUID } from 'node:crypto';
 
-import { sql } from 'drizzle-orm';
 import { check, index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 
 import { users } from '@/db/server/schema';
 import { passwordLinkPurposes } from '@/features/auth/password-schema';
 import { deliveryStatuses } from '@/lib/vocabulary';
+import { oneOf } from '@/db/server/checks';
 
 /*
  * People's accounts beyond the users table: the single-use links that set a password (an invitation or an
  * administrator's reset) and the e-mails that carry them. Same conventions as db/server/schema.ts (ISO UTC
  * timestamps, enumerations checked by the database, CHECKs naming bare columns).
  */
-
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
 /**
  * A set-password link. Only the SHA-256 of its token is kept: someone who reads the database (or a backup)

@@ -14,8 +14,7 @@ import { documents } from '@/db/server/documents';
 import { inspections } from '@/db/server/inspections';
 import { rides, users } from '@/db/server/schema';
 import { bulletinSeverities } from '@/lib/vocabulary';
-
-const col = (column: { name: string }) => sql.identifier(column.name);
+import { col } from '@/db/server/checks';
 
 export const bulletins = sqliteTable(
   'bulletins',

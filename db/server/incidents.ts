@@ -11,10 +11,7 @@ import { check, index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-cor
 
 import { rides, users } from '@/db/server/schema';
 import { incidentKinds } from '@/lib/vocabulary';
-
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+import { col, oneOf } from '@/db/server/checks';
 
 export const incidents = sqliteTable(
   'incidents',

@@ -37,6 +37,7 @@ import {
   type EnvelopeStatus,
   type ReviewState,
 } from '@/lib/vocabulary';
+import { col, oneOf } from '@/db/server/checks';
 
 /*
  * Inspections as the phones submit them, and what the server made of them. A submitted inspection is
@@ -48,11 +49,6 @@ export { envelopeStatuses, reviewStates };
 export type { ReviewState };
 export type EnvelopeStatusValue = EnvelopeStatus;
 export { photoMimes };
-
-// Same helpers as db/server/schema.ts: CHECKs name bare columns so drizzle-kit's table rebuilds keep working.
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
 /** The server's own load check of one inspection, as stored and returned. */
 export type StoredAnalysis = {

@@ -6,8 +6,7 @@ import { check, index, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import type { ReadingKind } from '@/features/records/schema';
 import { instrumentMethods } from '@/features/instruments/schema';
 import { users } from '@/db/server/schema';
-
-const col = (column: { name: string }) => sql.identifier(column.name);
+import { col } from '@/db/server/checks';
 
 /**
  * The inspection body's measuring instruments with their calibration dates. Rows are kept when an

@@ -1,18 +1,14 @@
-import { sql } from 'drizzle-orm';
 import { check, index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 
 import { rides, users } from '@/db/server/schema';
 import { ledgerKinds } from '@/features/ledger/schema';
+import { oneOf } from '@/db/server/checks';
 
 /*
  * The record chain (issue #18; design in DEVELOPERS.md, "Record chain"): per ride, an append-only sequence
  * of what was accepted, each entry hashed over the one before and countersigned with the server's key.
  * Rows are only ever inserted, in the same transaction as the acceptance they record.
  */
-
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
 export const ledgerEntries = sqliteTable(
   'ledger_entries',

@@ -9,10 +9,7 @@ import { sql } from 'drizzle-orm';
 import { check, index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 import { rides, users } from '@/db/server/schema';
-
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+import { col, oneOf } from '@/db/server/checks';
 
 export const runningLogSources = ['typed', 'csv'] as const;
 export type RunningLogSource = (typeof runningLogSources)[number];

@@ -11,11 +11,7 @@ import { check, index, integer, primaryKey, sqliteTable, text } from 'drizzle-or
 import { rides, users } from '@/db/server/schema';
 import { ndtMethods } from '@/features/loads/design-schema';
 import { ndtResults } from '@/features/pivot-life/ndt-schema';
-
-// Same helpers as db/server/schema.ts: CHECKs name bare columns so drizzle-kit's table rebuilds keep working.
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+import { col, oneOf } from '@/db/server/checks';
 
 /**
  * One non-destructive test at one pivot, as the technician reported it. Rows are only added: a wrong

@@ -8,16 +8,13 @@ import { findings } from '@/db/server/review';
 import { companies, rides, users } from '@/db/server/schema';
 import type { NoticeDocument } from '@/features/notices/schema';
 import { deliveryStatuses, noticeKinds } from '@/lib/vocabulary';
+import { col, oneOf } from '@/db/server/checks';
 
 /*
  * Notices to operators and what follows them: deliveries by e-mail, the operator's corrective actions,
  * and the reminders about findings coming due. Same conventions as db/server/schema.ts (ISO UTC
  * timestamps, enumerations checked by the database, CHECKs naming bare columns).
  */
-
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
 export type DeliveryStatus = (typeof deliveryStatuses)[number];
 export const deliveryKinds = ['notice', 'reminder'] as const;

@@ -10,11 +10,7 @@ import { check, index, integer, primaryKey, sqliteTable, text } from 'drizzle-or
 import { documents } from '@/db/server/documents';
 import { designVersions, rides, users } from '@/db/server/schema';
 import { designDocumentKinds } from '@/lib/vocabulary';
-
-// Same helpers as db/server/schema.ts: CHECKs name bare columns so drizzle-kit's table rebuilds keep working.
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+import { col, oneOf } from '@/db/server/checks';
 
 /**
  * One document on one design-data version. When a new version is made, the attachments of the version

@@ -15,16 +15,13 @@ import {
   rideStatuses,
   urgencies,
 } from '@/lib/vocabulary';
+import { col, oneOf } from '@/db/server/checks';
 
 /*
  * The review desk's tables: findings a supervisor writes on an inspection, and the queue's read model.
  * Same conventions as db/server/schema.ts (ISO UTC timestamps, enumerations checked by the database,
  * CHECKs naming bare columns).
  */
-
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
 /** A deficiency or observation recorded against an inspection, with what must be done and by when. */
 export const findings = sqliteTable(

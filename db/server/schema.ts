@@ -26,6 +26,7 @@ import {
   type RideStatus,
   type SiteKind,
 } from '@/lib/vocabulary';
+import { col, oneOf } from '@/db/server/checks';
 
 /*
  * The server's tables. Timestamps are ISO 8601 UTC strings so they read the same in SQL, JSON and logs.
@@ -45,17 +46,6 @@ const createdAt = () =>
   text('created_at')
     .notNull()
     .$defaultFn(() => new Date().toISOString());
-
-/*
- * CHECK expressions name columns without their table: drizzle-kit rebuilds a SQLite table under a temporary
- * name when a later migration alters it, and a table-qualified column would no longer resolve there.
- */
-const col = (column: { name: string }) => sql.identifier(column.name);
-
-/** `col IN ('a','b')` for a CHECK; the values are our own constants, never user input. */
-function oneOf(column: { name: string }, values: readonly string[]) {
-  return sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
-}
 
 export const companies = sqliteTable(
   'companies',

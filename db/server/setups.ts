@@ -10,14 +10,12 @@ import { check, index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-o
 
 import { inspectionSchedules, rides, sites, users } from '@/db/server/schema';
 import { setupStates } from '@/lib/vocabulary';
+import { col, oneOf } from '@/db/server/checks';
 
 const id = () =>
   text('id')
     .primaryKey()
     .$defaultFn(() => randomUUID());
-const col = (column: { name: string }) => sql.identifier(column.name);
-const oneOf = (column: { name: string }, values: readonly string[]) =>
-  sql`${col(column)} IN (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
 
 /**
  * An event at a site (a fair on a fairground) for a range of days: rides of many operators are set up
